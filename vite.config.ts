@@ -1,0 +1,47 @@
+import { defineConfig } from 'vitest/config';
+import react from '@vitejs/plugin-react';
+import tailwindcss from '@tailwindcss/vite';
+import { fileURLToPath } from 'node:url';
+
+const here = fileURLToPath(new URL('.', import.meta.url));
+const apiTarget = `http://127.0.0.1:${process.env.PORT ?? '8080'}`;
+
+// One config: the web app build (root apps/web, output apps/web/dist) and the test projects.
+export default defineConfig({
+  root: 'apps/web',
+  plugins: [react(), tailwindcss()],
+  build: { outDir: 'dist', emptyOutDir: true, chunkSizeWarningLimit: 1200 },
+  server: { host: '127.0.0.1', port: 5173, proxy: { '/api': apiTarget } },
+  test: {
+    root: here,
+    projects: [
+      {
+        test: {
+          name: 'unit',
+          root: here,
+          include: ['packages/**/src/**/*.test.ts', 'apps/**/src/**/*.test.ts', 'tests/reference/**/*.test.ts'],
+        },
+      },
+      {
+        test: {
+          name: 'api',
+          root: here,
+          include: ['tests/api/**/*.test.ts'],
+          fileParallelism: false,
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+        },
+      },
+      {
+        test: {
+          name: 'browser',
+          root: here,
+          include: ['tests/browser/**/*.test.ts'],
+          fileParallelism: false,
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+        },
+      },
+    ],
+  },
+});
