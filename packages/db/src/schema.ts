@@ -1,0 +1,574 @@
+/**
+ * The Turnstone domain model (DESIGN.md "Domain model"), MariaDB dialect.
+ * Times are UTC DATETIME(3). Every table that the screens or the worker filter by has an
+ * index named after the query it serves.
+ */
+import {
+  bigint,
+  boolean,
+  date,
+  datetime,
+  double,
+  index,
+  int,
+  mysqlEnum,
+  mysqlTable,
+  primaryKey,
+  smallint,
+  text,
+  uniqueIndex,
+  varchar,
+} from 'drizzle-orm/mysql-core';
+import { sql } from 'drizzle-orm';
+import { jsonColumn, mediumBlob } from './column-types.ts';
+
+const id = () => int('id').autoincrement().primaryKey();
+const bigId = () => bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey();
+const ref = (name: string) => int(name);
+const bigRef = (name: string) => bigint(name, { mode: 'number', unsigned: true });
+const at = (name: string) => datetime(name, { mode: 'date', fsp: 3 });
+const createdAt = () =>
+  at('created_at')
+    .notNull()
+    .default(sql`CURRENT_TIMESTAMP(3)`);
+
+export const roleEnum = ['admin', 'engineer', 'planner', 'operator'] as const;
+export const machineTypeEnum = ['motor', 'pump', 'fan', 'blower', 'gearbox', 'compressor'] as const;
+export const encodingEnum = ['int16', 'int24', 'int32', 'float32'] as const;
+export const verdictEnum = ['ok', 'suspect', 'unusable'] as const;
+
+// ---------------------------------------------------------------- machine tree
+
+export const sites = mysqlTable(
+  'sites',
+  {
+    id: id(),
+    code: varchar('code', { length: 32 }).notNull(),
+    name: varchar('name', { length: 200 }).notNull(),
+    timeZone: varchar('time_zone', { length: 64 }).notNull().default('UTC'),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('sites_code_uq').on(t.code)],
+);
+
+export const areas = mysqlTable(
+  'areas',
+  {
+    id: id(),
+    siteId: ref('site_id')
+      .notNull()
+      .references(() => sites.id),
+    name: varchar('name', { length: 200 }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('areas_site_name_uq').on(t.siteId, t.name)],
+);
+
+export const machines = mysqlTable(
+  'machines',
+  {
+    id: id(),
+    areaId: ref('area_id')
+      .notNull()
+      .references(() => areas.id),
+    name: varchar('name', { length: 200 }).notNull(),
+    type: mysqlEnum('type', machineTypeEnum).notNull(),
+    nominalRpm: double('nominal_rpm').notNull(),
+    /** ISO 20816-3 machine group: 1 large (300 kW–50 MW), 2 medium (15–300 kW). */
+    isoGroup: smallint('iso_group').notNull().default(2),
+    foundation: mysqlEnum('foundation', ['rigid', 'flexible']).notNull().default('rigid'),
+    criticality: mysqlEnum('criticality', ['low', 'medium', 'high']).notNull().default('medium'),
+    powerKw: double('power_kw'),
+    bladeCount: smallint('blade_count'),
+    vaneCount: smallint('vane_count'),
+    /** Belt drive: driver and driven sheave diameters and belt length, millimetres. */
+    belt: jsonColumn<{ driverSheaveMm: number; drivenSheaveMm: number; beltLengthMm: number } | null>(
+      'belt',
+    ),
+    notes: text('notes'),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('machines_area_name_uq').on(t.areaId, t.name)],
+);
+
+export const bearings = mysqlTable(
+  'bearings',
+  {
+    id: id(),
+    machineId: ref('machine_id')
+      .notNull()
+      .references(() => machines.id, { onDelete: 'cascade' }),
+    /** Position on the machine, e.g. "Motor DE". */
+    name: varchar('name', { length: 100 }).notNull(),
+    designation: varchar('designation', { length: 64 }),
+    rollingElements: smallint('rolling_elements').notNull(),
+    ballDiameterMm: double('ball_diameter_mm').notNull(),
+    pitchDiameterMm: double('pitch_diameter_mm').notNull(),
+    contactAngleDeg: double('contact_angle_deg').notNull().default(0),
+    /** Shaft speed of this bearing as a multiple of the machine's running speed. */
+    speedRatio: double('speed_ratio').notNull().default(1),
+  },
+  (t) => [index('bearings_machine_idx').on(t.machineId)],
+);
+
+export const gears = mysqlTable(
+  'gears',
+  {
+    id: id(),
+    machineId: ref('machine_id')
+      .notNull()
+      .references(() => machines.id, { onDelete: 'cascade' }),
+    name: varchar('name', { length: 100 }).notNull(),
+    /** Teeth on the gear turning at `speedRatio` × running speed, and on its mate. */
+    teeth: smallint('teeth').notNull(),
+    mateTeeth: smallint('mate_teeth').notNull(),
+    speedRatio: double('speed_ratio').notNull().default(1),
+  },
+  (t) => [index('gears_machine_idx').on(t.machineId)],
+);
+
+export const points = mysqlTable(
+  'points',
+  {
+    id: id(),
+    machineId: ref('machine_id')
+      .notNull()
+      .references(() => machines.id),
+    /** External tag the gateway uses; unique across the installation. */
+    tag: varchar('tag', { length: 64 }).notNull(),
+    name: varchar('name', { length: 200 }).notNull(),
+    location: varchar('location', { length: 100 }).notNull(),
+    direction: mysqlEnum('direction', ['H', 'V', 'A']).notNull(),
+    sensitivityMvPerG: double('sensitivity_mv_per_g').notNull().default(100),
+    bearingId: ref('bearing_id').references(() => bearings.id, { onDelete: 'set null' }),
+    fmaxHz: double('fmax_hz').notNull().default(1000),
+    lines: int('lines').notNull().default(1600),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('points_tag_uq').on(t.tag), index('points_machine_idx').on(t.machineId)],
+);
+
+// ---------------------------------------------------------------- users and access
+
+export const users = mysqlTable(
+  'users',
+  {
+    id: id(),
+    email: varchar('email', { length: 254 }).notNull(),
+    name: varchar('name', { length: 200 }).notNull(),
+    role: mysqlEnum('role', roleEnum).notNull(),
+    /** bcrypt hash; null until an invited user sets a password. */
+    passwordHash: varchar('password_hash', { length: 100 }),
+    /** Bumped on sign-out, password change and disabling: every older JWT stops working. */
+    tokenVersion: int('token_version').notNull().default(0),
+    disabledAt: at('disabled_at'),
+    lastSignInAt: at('last_sign_in_at'),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('users_email_uq').on(t.email)],
+);
+
+export const userSites = mysqlTable(
+  'user_sites',
+  {
+    userId: ref('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    siteId: ref('site_id')
+      .notNull()
+      .references(() => sites.id, { onDelete: 'cascade' }),
+  },
+  (t) => [primaryKey({ columns: [t.userId, t.siteId] }), index('user_sites_site_idx').on(t.siteId)],
+);
+
+/** Single-use links: invitations and password resets. Only a hash of the token is kept. */
+export const userTokens = mysqlTable(
+  'user_tokens',
+  {
+    id: id(),
+    userId: ref('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    purpose: mysqlEnum('purpose', ['invite', 'reset']).notNull(),
+    tokenHash: varchar('token_hash', { length: 64 }).notNull(),
+    expiresAt: at('expires_at').notNull(),
+    usedAt: at('used_at'),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('user_tokens_hash_uq').on(t.tokenHash)],
+);
+
+export const subscriptions = mysqlTable(
+  'subscriptions',
+  {
+    id: id(),
+    userId: ref('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    /** Scope: a whole site, or one machine. */
+    siteId: ref('site_id').references(() => sites.id, { onDelete: 'cascade' }),
+    machineId: ref('machine_id').references(() => machines.id, { onDelete: 'cascade' }),
+    minLevel: mysqlEnum('min_level', ['alert', 'danger']).notNull().default('alert'),
+    cadence: mysqlEnum('cadence', ['immediate', 'hourly']).notNull().default('immediate'),
+    weeklyDigest: boolean('weekly_digest').notNull().default(false),
+    createdAt: createdAt(),
+  },
+  (t) => [index('subscriptions_user_idx').on(t.userId), index('subscriptions_site_idx').on(t.siteId)],
+);
+
+// ---------------------------------------------------------------- data in
+
+export const gateways = mysqlTable(
+  'gateways',
+  {
+    id: id(),
+    siteId: ref('site_id')
+      .notNull()
+      .references(() => sites.id),
+    name: varchar('name', { length: 200 }).notNull(),
+    /** First characters of the key, for lookup and for display; never the key itself. */
+    keyPrefix: varchar('key_prefix', { length: 16 }).notNull(),
+    keyHash: varchar('key_hash', { length: 64 }).notNull(),
+    revokedAt: at('revoked_at'),
+    lastSeenAt: at('last_seen_at'),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('gateways_key_prefix_uq').on(t.keyPrefix), index('gateways_site_idx').on(t.siteId)],
+);
+
+export const snapshots = mysqlTable(
+  'snapshots',
+  {
+    id: bigId(),
+    uid: varchar('uid', { length: 128 }).notNull(),
+    pointId: ref('point_id')
+      .notNull()
+      .references(() => points.id),
+    gatewayId: ref('gateway_id').references(() => gateways.id),
+    source: mysqlEnum('source', ['gateway', 'upload']).notNull(),
+    takenAt: at('taken_at').notNull(),
+    receivedAt: createdAt(),
+    sampleRateHz: double('sample_rate_hz').notNull(),
+    sampleCount: int('sample_count').notNull(),
+    encoding: mysqlEnum('encoding', encodingEnum).notNull(),
+    adcBits: smallint('adc_bits').notNull(),
+    fullScaleV: double('full_scale_v').notNull(),
+    sensitivityMvPerG: double('sensitivity_mv_per_g').notNull(),
+    speedRpm: double('speed_rpm'),
+    tach: jsonColumn<{ pulseTimesS: number[]; pulsesPerRev: number } | null>('tach'),
+    /** Little-endian samples in `encoding`, deflate-compressed; null once expired by retention. */
+    samples: mediumBlob('samples'),
+    samplesExpiredAt: at('samples_expired_at'),
+    contentHash: varchar('content_hash', { length: 64 }).notNull(),
+    status: mysqlEnum('status', ['queued', 'done', 'rejected', 'failed']).notNull().default('queued'),
+    statusReason: text('status_reason'),
+    uploadedBy: ref('uploaded_by').references(() => users.id),
+    fileName: varchar('file_name', { length: 255 }),
+  },
+  (t) => [
+    uniqueIndex('snapshots_uid_uq').on(t.uid),
+    index('snapshots_point_taken_idx').on(t.pointId, t.takenAt),
+    index('snapshots_status_idx').on(t.status),
+    index('snapshots_received_idx').on(t.receivedAt),
+  ],
+);
+
+export const jobs = mysqlTable(
+  'jobs',
+  {
+    id: bigId(),
+    kind: varchar('kind', { length: 32 }).notNull(),
+    snapshotId: bigRef('snapshot_id').references(() => snapshots.id, { onDelete: 'cascade' }),
+    payload: jsonColumn<Record<string, unknown>>('payload'),
+    state: mysqlEnum('state', ['queued', 'running', 'done', 'failed']).notNull().default('queued'),
+    runAfter: at('run_after')
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+    attempts: int('attempts').notNull().default(0),
+    maxAttempts: int('max_attempts').notNull().default(5),
+    leaseOwner: varchar('lease_owner', { length: 64 }),
+    leaseExpiresAt: at('lease_expires_at'),
+    lastError: text('last_error'),
+    createdAt: createdAt(),
+    finishedAt: at('finished_at'),
+  },
+  (t) => [
+    index('jobs_claim_idx').on(t.state, t.runAfter),
+    index('jobs_lease_idx').on(t.state, t.leaseExpiresAt),
+    index('jobs_snapshot_idx').on(t.snapshotId),
+  ],
+);
+
+// ---------------------------------------------------------------- results
+
+export const analyses = mysqlTable(
+  'analyses',
+  {
+    id: bigId(),
+    snapshotId: bigRef('snapshot_id')
+      .notNull()
+      .references(() => snapshots.id, { onDelete: 'cascade' }),
+    pointId: ref('point_id')
+      .notNull()
+      .references(() => points.id),
+    takenAt: at('taken_at').notNull(),
+    accelRmsG: double('accel_rms_g').notNull(),
+    accelPeakG: double('accel_peak_g').notNull(),
+    velocityRmsMmS: double('velocity_rms_mm_s').notNull(),
+    displacementPkPkUm: double('displacement_pkpk_um').notNull(),
+    crestFactor: double('crest_factor').notNull(),
+    kurtosis: double('kurtosis').notNull(),
+    speedRpm: double('speed_rpm'),
+    speedSource: mysqlEnum('speed_source', ['tach', 'rpm', 'estimated', 'none']).notNull(),
+    isoZone: mysqlEnum('iso_zone', ['A', 'B', 'C', 'D']),
+    qualityVerdict: mysqlEnum('quality_verdict', verdictEnum).notNull(),
+    bitsUsed: double('bits_used'),
+    qualityFindings: jsonColumn<unknown[]>('quality_findings').notNull(),
+    /** Peaks, fault frequencies and spectrum axes (df, units) as the dsp package returns them. */
+    summary: jsonColumn<Record<string, unknown>>('summary').notNull(),
+    accelSpectrum: mediumBlob('accel_spectrum'),
+    velocitySpectrum: mediumBlob('velocity_spectrum'),
+    envelopeSpectrum: mediumBlob('envelope_spectrum'),
+    orderSpectrum: mediumBlob('order_spectrum'),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex('analyses_snapshot_uq').on(t.snapshotId),
+    index('analyses_point_taken_idx').on(t.pointId, t.takenAt),
+  ],
+);
+
+export const limitSets = mysqlTable(
+  'limit_sets',
+  {
+    id: id(),
+    /** A point's own set, or a machine-type template when pointId is null. */
+    pointId: ref('point_id').references(() => points.id, { onDelete: 'cascade' }),
+    machineType: mysqlEnum('machine_type', machineTypeEnum),
+    name: varchar('name', { length: 200 }).notNull(),
+    version: int('version').notNull().default(1),
+    updatedBy: ref('updated_by').references(() => users.id),
+    updatedAt: at('updated_at')
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('limit_sets_point_uq').on(t.pointId), index('limit_sets_type_idx').on(t.machineType)],
+);
+
+export const bands = mysqlTable(
+  'bands',
+  {
+    id: id(),
+    limitSetId: ref('limit_set_id')
+      .notNull()
+      .references(() => limitSets.id, { onDelete: 'cascade' }),
+    /** Stable key within the set (e.g. "overall-velocity", "bpfo"); trends follow it. */
+    key: varchar('key', { length: 64 }).notNull(),
+    name: varchar('name', { length: 200 }).notNull(),
+    kind: mysqlEnum('kind', ['overall', 'hz', 'order', 'fault']).notNull(),
+    /** Which overall value (for kind overall) or spectrum the band reads. */
+    quantity: mysqlEnum('quantity', ['acceleration', 'velocity', 'displacement', 'envelope']).notNull(),
+    lowHz: double('low_hz'),
+    highHz: double('high_hz'),
+    lowOrder: double('low_order'),
+    highOrder: double('high_order'),
+    faultName: varchar('fault_name', { length: 32 }),
+    faultWidth: double('fault_width'),
+    measure: mysqlEnum('measure', ['rms', 'peak']).notNull().default('rms'),
+    unit: varchar('unit', { length: 16 }).notNull(),
+    alertLevel: double('alert_level'),
+    dangerLevel: double('danger_level'),
+    persistence: smallint('persistence').notNull().default(1),
+    /** Clear below this fraction of the level that raised. */
+    hysteresis: double('hysteresis').notNull().default(0.9),
+    /** Statistical rule: alert at baseline mean + k·σ over the first N good values. */
+    statK: double('stat_k'),
+    statN: int('stat_n'),
+    baselineMean: double('baseline_mean'),
+    baselineStd: double('baseline_std'),
+    baselineCount: int('baseline_count'),
+    baselineAt: at('baseline_at'),
+    sortOrder: smallint('sort_order').notNull().default(0),
+  },
+  (t) => [uniqueIndex('bands_set_key_uq').on(t.limitSetId, t.key)],
+);
+
+/** Persistence counters and the open alert of each band of a point, as `condition` keeps them. */
+export const bandStates = mysqlTable(
+  'band_states',
+  {
+    pointId: ref('point_id')
+      .notNull()
+      .references(() => points.id, { onDelete: 'cascade' }),
+    bandKey: varchar('band_key', { length: 64 }).notNull(),
+    state: jsonColumn<Record<string, unknown>>('state').notNull(),
+    updatedAt: at('updated_at').notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.pointId, t.bandKey] })],
+);
+
+export const bandValues = mysqlTable(
+  'band_values',
+  {
+    id: bigId(),
+    analysisId: bigRef('analysis_id')
+      .notNull()
+      .references(() => analyses.id, { onDelete: 'cascade' }),
+    pointId: ref('point_id')
+      .notNull()
+      .references(() => points.id),
+    bandKey: varchar('band_key', { length: 64 }).notNull(),
+    takenAt: at('taken_at').notNull(),
+    value: double('value').notNull(),
+    qualityVerdict: mysqlEnum('quality_verdict', verdictEnum).notNull(),
+  },
+  (t) => [
+    uniqueIndex('band_values_analysis_band_uq').on(t.analysisId, t.bandKey),
+    index('band_values_trend_idx').on(t.pointId, t.bandKey, t.takenAt),
+  ],
+);
+
+export const alerts = mysqlTable(
+  'alerts',
+  {
+    id: id(),
+    pointId: ref('point_id')
+      .notNull()
+      .references(() => points.id),
+    bandKey: varchar('band_key', { length: 64 }).notNull(),
+    bandName: varchar('band_name', { length: 200 }).notNull(),
+    level: mysqlEnum('level', ['alert', 'danger']).notNull(),
+    state: mysqlEnum('state', ['raised', 'acknowledged', 'cleared']).notNull(),
+    unit: varchar('unit', { length: 16 }).notNull(),
+    limitValue: double('limit_value').notNull(),
+    firstValue: double('first_value').notNull(),
+    lastValue: double('last_value').notNull(),
+    peakValue: double('peak_value').notNull(),
+    firstAt: at('first_at').notNull(),
+    lastAt: at('last_at').notNull(),
+    peakAt: at('peak_at').notNull(),
+    /** True when the value that raised it came from a `suspect` capture. */
+    suspect: boolean('suspect').notNull().default(false),
+    acknowledgedBy: ref('acknowledged_by').references(() => users.id),
+    acknowledgedAt: at('acknowledged_at'),
+    acknowledgeNote: text('acknowledge_note'),
+    clearedAt: at('cleared_at'),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    index('alerts_state_idx').on(t.state, t.lastAt),
+    index('alerts_point_idx').on(t.pointId, t.bandKey, t.state),
+  ],
+);
+
+/** Every state change of an alert: the alert's history. */
+export const alertEvents = mysqlTable(
+  'alert_events',
+  {
+    id: bigId(),
+    alertId: ref('alert_id')
+      .notNull()
+      .references(() => alerts.id, { onDelete: 'cascade' }),
+    kind: mysqlEnum('kind', ['raised', 'escalated', 'acknowledged', 'cleared']).notNull(),
+    level: mysqlEnum('level', ['alert', 'danger']).notNull(),
+    value: double('value'),
+    userId: ref('user_id').references(() => users.id),
+    note: text('note'),
+    at: at('at').notNull(),
+  },
+  (t) => [index('alert_events_alert_idx').on(t.alertId, t.at)],
+);
+
+/** A capture judged `unusable` (or `suspect`) is told to the engineer here, not as an alarm. */
+export const qualityNotices = mysqlTable(
+  'quality_notices',
+  {
+    id: id(),
+    pointId: ref('point_id')
+      .notNull()
+      .references(() => points.id),
+    analysisId: bigRef('analysis_id').references(() => analyses.id, { onDelete: 'cascade' }),
+    snapshotId: bigRef('snapshot_id').references(() => snapshots.id, { onDelete: 'cascade' }),
+    verdict: mysqlEnum('verdict', verdictEnum).notNull(),
+    findings: jsonColumn<unknown[]>('findings').notNull(),
+    takenAt: at('taken_at').notNull(),
+    reviewedBy: ref('reviewed_by').references(() => users.id),
+    reviewedAt: at('reviewed_at'),
+    createdAt: createdAt(),
+  },
+  (t) => [index('quality_notices_point_idx').on(t.pointId, t.takenAt), index('quality_notices_open_idx').on(t.reviewedAt)],
+);
+
+/** The planner's follow-ups. */
+export const findings = mysqlTable(
+  'findings',
+  {
+    id: id(),
+    pointId: ref('point_id')
+      .notNull()
+      .references(() => points.id),
+    alertId: ref('alert_id').references(() => alerts.id, { onDelete: 'set null' }),
+    bandKey: varchar('band_key', { length: 64 }),
+    title: varchar('title', { length: 200 }).notNull(),
+    workOrderRef: varchar('work_order_ref', { length: 64 }),
+    dueDate: date('due_date', { mode: 'string' }),
+    state: mysqlEnum('state', ['open', 'planned', 'done']).notNull().default('open'),
+    note: text('note'),
+    createdBy: ref('created_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+  },
+  (t) => [index('findings_point_idx').on(t.pointId), index('findings_state_idx').on(t.state, t.dueDate)],
+);
+
+// ---------------------------------------------------------------- records and mail
+
+export const auditLog = mysqlTable(
+  'audit_log',
+  {
+    id: bigId(),
+    actorUserId: ref('actor_user_id').references(() => users.id),
+    action: varchar('action', { length: 64 }).notNull(),
+    entity: varchar('entity', { length: 32 }).notNull(),
+    entityId: varchar('entity_id', { length: 64 }).notNull(),
+    before: jsonColumn<unknown>('before'),
+    after: jsonColumn<unknown>('after'),
+    reason: text('reason'),
+    at: createdAt(),
+  },
+  (t) => [index('audit_entity_idx').on(t.entity, t.entityId), index('audit_at_idx').on(t.at)],
+);
+
+export const outbox = mysqlTable(
+  'outbox',
+  {
+    id: bigId(),
+    kind: varchar('kind', { length: 32 }).notNull(),
+    /** Makes "one message per user per event" a database rule, not a hope. */
+    dedupeKey: varchar('dedupe_key', { length: 191 }).notNull(),
+    toAddress: varchar('to_address', { length: 254 }).notNull(),
+    subject: varchar('subject', { length: 300 }).notNull(),
+    textBody: text('text_body').notNull(),
+    htmlBody: text('html_body'),
+    attempts: int('attempts').notNull().default(0),
+    nextAttemptAt: at('next_attempt_at')
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+    leaseOwner: varchar('lease_owner', { length: 64 }),
+    leaseExpiresAt: at('lease_expires_at'),
+    sendingStartedAt: at('sending_started_at'),
+    sentAt: at('sent_at'),
+    lastError: text('last_error'),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('outbox_dedupe_uq').on(t.dedupeKey), index('outbox_due_idx').on(t.sentAt, t.nextAttemptAt)],
+);
+
+/** Installation settings (mail sender, retention days, digest schedule). */
+export const settings = mysqlTable('settings', {
+  key: varchar('key', { length: 64 }).primaryKey(),
+  value: jsonColumn<unknown>('value').notNull(),
+  updatedAt: at('updated_at').notNull(),
+});
