@@ -1,0 +1,73 @@
+import {
+  DEFAULT_HYSTERESIS,
+  DEFAULT_PERSISTENCE,
+  type BandDefinition,
+  type BaselineStats,
+  type StatisticalCombine,
+} from './band-definition.ts';
+import { statisticalLevel } from './baseline.ts';
+
+/** The levels in force for a band at one moment. */
+export interface EffectiveLevels {
+  readonly alertLevel: number;
+  readonly dangerLevel: number;
+  /** `fixed` until a statistical rule has a complete baseline, then `statistical`. */
+  readonly source: 'fixed' | 'statistical';
+  /** The baseline used, when `source` is `statistical`. */
+  readonly baseline: BaselineStats | null;
+}
+
+function combine(fixed: number, statistical: number, how: StatisticalCombine): number {
+  if (how === 'min') return Math.min(fixed, statistical);
+  if (how === 'max') return Math.max(fixed, statistical);
+  return statistical;
+}
+
+/**
+ * Alert and danger levels in force for a band, given the baseline available (an established
+ * one on the rule, else the accumulated one once complete, else none).
+ *
+ * Rule: without a statistical rule or baseline, the fixed levels. With one, alert =
+ * combine(fixed alert, mean + kAlert·σ) and, when `kDanger` is set, danger =
+ * combine(fixed danger, mean + kDanger·σ), where combine is `min` (default: the earlier
+ * warning, fixed level as ceiling), `max` (fixed level as floor) or `statistical` (statistical
+ * level alone). If the combined alert level ends above the danger level, it is lowered to the
+ * danger level, so danger is never easier to reach than alert is.
+ *
+ * Source: mean + k·σ levels are common practice, no source; the combination rule is Turnstone's.
+ */
+export function effectiveLevels(
+  band: BandDefinition,
+  baseline: BaselineStats | null,
+): EffectiveLevels {
+  const rule = band.statistical;
+  const stats = rule?.established ?? baseline;
+  if (rule === undefined || stats === null) {
+    return {
+      alertLevel: band.alertLevel,
+      dangerLevel: band.dangerLevel,
+      source: 'fixed',
+      baseline: null,
+    };
+  }
+  const how = rule.combine ?? 'min';
+  const dangerLevel =
+    rule.kDanger === undefined
+      ? band.dangerLevel
+      : combine(band.dangerLevel, statisticalLevel(stats, rule.kDanger), how);
+  const alertLevel = Math.min(
+    combine(band.alertLevel, statisticalLevel(stats, rule.kAlert), how),
+    dangerLevel,
+  );
+  return { alertLevel, dangerLevel, source: 'statistical', baseline: stats };
+}
+
+/** Persistence of a band with its default applied. Common practice, no source. */
+export function bandPersistence(band: BandDefinition): number {
+  return band.persistence ?? DEFAULT_PERSISTENCE;
+}
+
+/** Hysteresis fraction of a band with its default applied. Common practice, no source. */
+export function bandHysteresis(band: BandDefinition): number {
+  return band.hysteresis ?? DEFAULT_HYSTERESIS;
+}
