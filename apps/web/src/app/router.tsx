@@ -1,0 +1,60 @@
+import { lazy, Suspense } from 'react';
+import { createBrowserRouter, Navigate, Outlet, RouterProvider } from 'react-router-dom';
+import { RouteErrorBoundary } from '../components/errors/route-error-boundary.tsx';
+import { LoadingPanel } from '../components/ui/spinner.tsx';
+import { paths } from '../config/paths.ts';
+
+// Pages load on demand so the first download stays small.
+const SignInRoute = lazy(() =>
+  import('./routes/sign-in.tsx').then((m) => ({ default: m.SignInRoute })),
+);
+const AppRoot = lazy(() => import('./routes/app/root.tsx').then((m) => ({ default: m.AppRoot })));
+const FleetRoute = lazy(() =>
+  import('./routes/app/fleet.tsx').then((m) => ({ default: m.FleetRoute })),
+);
+const NotFoundRoute = lazy(() =>
+  import('./routes/not-found.tsx').then((m) => ({ default: m.NotFoundRoute })),
+);
+
+function RootLayout() {
+  return (
+    <Suspense
+      fallback={
+        <div className="flex h-dvh">
+          <LoadingPanel />
+        </div>
+      }
+    >
+      <Outlet />
+    </Suspense>
+  );
+}
+
+const router = createBrowserRouter([
+  {
+    element: <RootLayout />,
+    errorElement: <RouteErrorBoundary />,
+    children: [
+      { path: paths.auth.signIn.path, element: <SignInRoute /> },
+      {
+        path: paths.home.path,
+        element: <AppRoot />,
+        children: [
+          {
+            // Errors in a page show inside the layout, so navigation stays usable.
+            errorElement: <RouteErrorBoundary />,
+            children: [
+              { index: true, element: <Navigate to={paths.app.fleet.getHref()} replace /> },
+              { path: paths.app.fleet.path, element: <FleetRoute /> },
+              { path: '*', element: <NotFoundRoute /> },
+            ],
+          },
+        ],
+      },
+    ],
+  },
+]);
+
+export function AppRouter() {
+  return <RouterProvider router={router} />;
+}

@@ -1,0 +1,73 @@
+import { useId, type ComponentProps, type ReactNode } from 'react';
+import { cn } from '../../lib/cn.ts';
+
+const control =
+  'block w-full rounded-md border bg-surface px-3 text-sm text-ink placeholder:text-ink-faint transition-colors focus-visible:border-accent disabled:bg-sunken';
+
+/** Text input; pass `invalid` to mark it for assistive technology and with a red border. */
+export function Input({
+  className,
+  invalid,
+  ...props
+}: ComponentProps<'input'> & { invalid?: boolean }) {
+  return (
+    <input
+      aria-invalid={invalid || undefined}
+      className={cn(
+        control,
+        'h-10',
+        invalid ? 'border-status-danger' : 'border-line-strong',
+        className,
+      )}
+      {...props}
+    />
+  );
+}
+
+export function Select({ className, ...props }: ComponentProps<'select'>) {
+  return <select className={cn(control, 'h-9 border-line-strong pr-8', className)} {...props} />;
+}
+
+/**
+ * A label, the control, and its hint or error right below it. The control is passed as a
+ * render function so it receives the ids that tie label, hint and error together.
+ */
+export function Field({
+  label,
+  hint,
+  error,
+  className,
+  children,
+}: {
+  label: ReactNode;
+  hint?: ReactNode;
+  error?: string;
+  className?: string;
+  children: (control: { id: string; 'aria-describedby'?: string; invalid: boolean }) => ReactNode;
+}) {
+  const id = useId();
+  const hintId = `${id}-hint`;
+  const errorId = `${id}-error`;
+  const describedBy = [hint ? hintId : null, error ? errorId : null].filter(Boolean).join(' ');
+  return (
+    <div className={cn('flex flex-col gap-1.5', className)}>
+      <label htmlFor={id} className="text-sm font-medium text-ink">
+        {label}
+      </label>
+      {children({ id, 'aria-describedby': describedBy || undefined, invalid: Boolean(error) })}
+      {hint && !error && (
+        <p id={hintId} className="text-xs text-ink-muted">
+          {hint}
+        </p>
+      )}
+      {error && (
+        <p id={errorId} className="flex items-start gap-1.5 text-xs font-medium text-status-danger">
+          <svg viewBox="0 0 12 12" aria-hidden="true" className="mt-px size-3 shrink-0">
+            <path d="M6 1 11 10H1Z" fill="currentColor" />
+          </svg>
+          {error}
+        </p>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,23 @@
+import { roles, type Role } from '@turnstone/contracts/roles';
+import { paths } from './paths.ts';
+
+export interface NavigationItem {
+  /** Link target, from `paths`. */
+  to: string;
+  /** Text in the main navigation. */
+  label: string;
+  /** Roles that see this entry. The API enforces access as well; this only shapes the menu. */
+  roles: readonly Role[];
+}
+
+/**
+ * The main navigation, in display order. Add an entry only when its page exists; a screen
+ * for some roles only lists just those roles (e.g. Limits: `['engineer']`).
+ */
+export const navigation: readonly NavigationItem[] = [
+  { to: paths.app.fleet.getHref(), label: 'Fleet', roles },
+];
+
+export function navigationFor(role: Role): NavigationItem[] {
+  return navigation.filter((item) => item.roles.includes(role));
+}

@@ -1,0 +1,26 @@
+/**
+ * Every route path in one place. `path` is what the router matches; `getHref()` builds a
+ * link. Pages and features link through these, never through string literals.
+ */
+export const paths = {
+  home: {
+    path: '/',
+    getHref: () => '/',
+  },
+  auth: {
+    signIn: {
+      path: '/sign-in',
+      /** `redirectTo` is where to go after signing in (a same-origin path). */
+      getHref: (redirectTo?: string | null) =>
+        redirectTo && redirectTo !== '/'
+          ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}`
+          : '/sign-in',
+    },
+  },
+  app: {
+    fleet: {
+      path: '/fleet',
+      getHref: () => '/fleet',
+    },
+  },
+} as const;

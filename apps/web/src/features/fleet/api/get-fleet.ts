@@ -1,0 +1,21 @@
+import { fleetSchema } from '@turnstone/contracts/fleet';
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client.ts';
+
+/** The machine tree of every site the user may see, with each node's worst status. */
+export function getFleet({ signal }: { signal?: AbortSignal } = {}) {
+  return api.get('/api/v1/fleet', { schema: fleetSchema, signal });
+}
+
+export function getFleetQueryOptions() {
+  return queryOptions({
+    queryKey: ['fleet', 'list', {}] as const,
+    queryFn: ({ signal }) => getFleet({ signal }),
+    // Status changes as snapshots arrive; a minute is fresh enough for a tree view.
+    refetchInterval: 60_000,
+  });
+}
+
+export function useFleet() {
+  return useQuery(getFleetQueryOptions());
+}

@@ -1,0 +1,62 @@
+import type { NodeStatus } from '@turnstone/contracts/fleet';
+import { StatusShape } from '../../../components/ui/status-mark.tsx';
+import { cn } from '../../../lib/cn.ts';
+import { formatInteger } from '../../../lib/format.ts';
+import { statusLabels, statusOrder } from '../../../lib/node-status.ts';
+import type { FleetSummary } from '../utils/build-fleet-rows.ts';
+
+const shapeColour: Record<NodeStatus, string> = {
+  ok: 'text-status-ok',
+  alert: 'text-status-alert',
+  danger: 'text-status-danger',
+  quality: 'text-status-quality',
+  stale: 'text-status-stale',
+  none: 'text-status-none',
+};
+
+/** Machines per status; each count is also a toggle for the status filter. */
+export function FleetStatusCounts({
+  summary,
+  selected,
+  onSelect,
+}: {
+  summary: FleetSummary;
+  selected: NodeStatus | null;
+  onSelect: (status: NodeStatus | null) => void;
+}) {
+  return (
+    <section aria-label="Machines by status">
+      <ul className="grid grid-cols-3 gap-2 lg:grid-cols-6">
+        {statusOrder.map((status) => {
+          const count = summary.machines[status];
+          const pressed = selected === status;
+          return (
+            <li key={status}>
+              <button
+                type="button"
+                aria-pressed={pressed}
+                onClick={() => onSelect(pressed ? null : status)}
+                className={cn(
+                  'flex w-full flex-col items-start gap-1 rounded-lg border px-3 py-2.5 text-left transition-colors',
+                  pressed
+                    ? 'border-accent bg-accent-soft shadow-[inset_0_0_0_1px_var(--color-accent)]'
+                    : 'border-line bg-surface hover:border-line-strong',
+                  count === 0 && !pressed && 'opacity-70',
+                )}
+              >
+                <span className="flex items-center gap-1.5 text-[13px] text-ink-muted">
+                  <StatusShape status={status} className={cn('size-3', shapeColour[status])} />
+                  {statusLabels[status]}
+                </span>
+                <span className="font-mono text-xl leading-none font-medium text-ink">
+                  {formatInteger(count)}
+                  <span className="sr-only"> machines</span>
+                </span>
+              </button>
+            </li>
+          );
+        })}
+      </ul>
+    </section>
+  );
+}

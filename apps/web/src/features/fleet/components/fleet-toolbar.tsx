@@ -1,0 +1,92 @@
+import type { NodeStatus } from '@turnstone/contracts/fleet';
+import { nodeStatusSchema } from '@turnstone/contracts/fleet';
+import { useId } from 'react';
+import { Button } from '../../../components/ui/button.tsx';
+import { Input, Select } from '../../../components/ui/field.tsx';
+import { statusLabels, statusOrder } from '../../../lib/node-status.ts';
+
+export function FleetToolbar({
+  query,
+  onQueryChange,
+  status,
+  onStatusChange,
+  onExpandAll,
+  onCollapseMachines,
+  resultText,
+}: {
+  query: string;
+  onQueryChange: (query: string) => void;
+  status: NodeStatus | null;
+  onStatusChange: (status: NodeStatus | null) => void;
+  onExpandAll: () => void;
+  onCollapseMachines: () => void;
+  resultText: string;
+}) {
+  const id = useId();
+  return (
+    <div className="flex flex-wrap items-end gap-x-3 gap-y-2">
+      <div className="flex min-w-56 flex-1 flex-col gap-1 lg:max-w-md">
+        <label htmlFor={`${id}-q`} className="text-xs font-medium text-ink-muted">
+          Search machines and points
+        </label>
+        <div className="relative">
+          <svg
+            viewBox="0 0 16 16"
+            aria-hidden="true"
+            className="pointer-events-none absolute top-1/2 left-2.5 size-4 -translate-y-1/2 text-ink-faint"
+          >
+            <circle cx="7" cy="7" r="4.5" fill="none" stroke="currentColor" strokeWidth="1.5" />
+            <path
+              d="m10.5 10.5 3 3"
+              stroke="currentColor"
+              strokeWidth="1.5"
+              strokeLinecap="round"
+            />
+          </svg>
+          <Input
+            id={`${id}-q`}
+            type="search"
+            value={query}
+            onChange={(event) => onQueryChange(event.target.value)}
+            placeholder="Name or tag, e.g. P-101"
+            autoComplete="off"
+            spellCheck={false}
+            className="h-9 pl-8"
+          />
+        </div>
+      </div>
+      <div className="flex flex-col gap-1">
+        <label htmlFor={`${id}-status`} className="text-xs font-medium text-ink-muted">
+          Status
+        </label>
+        <Select
+          id={`${id}-status`}
+          value={status ?? ''}
+          onChange={(event) => {
+            const parsed = nodeStatusSchema.safeParse(event.target.value);
+            onStatusChange(parsed.success ? parsed.data : null);
+          }}
+          className="w-44"
+        >
+          <option value="">All statuses</option>
+          {statusOrder.map((s) => (
+            <option key={s} value={s}>
+              {statusLabels[s]}
+            </option>
+          ))}
+        </Select>
+      </div>
+      <div className="flex items-center gap-1">
+        <Button size="sm" variant="ghost" onClick={onExpandAll}>
+          Expand all
+        </Button>
+        <Button size="sm" variant="ghost" onClick={onCollapseMachines}>
+          Collapse to machines
+        </Button>
+      </div>
+      <p role="status" className="ml-auto pb-2 text-xs text-ink-muted">
+        {resultText}
+      </p>
+    </div>
+  );
+}

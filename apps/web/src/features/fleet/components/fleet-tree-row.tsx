@@ -1,0 +1,195 @@
+import { StatusMark } from '../../../components/ui/status-mark.tsx';
+import { cn } from '../../../lib/cn.ts';
+import { formatAge, formatDateTime, formatInteger } from '../../../lib/format.ts';
+import type { FleetRow } from '../utils/build-fleet-rows.ts';
+import { directionLabels, machineTypeLabels } from '../utils/fleet-labels.ts';
+
+/** Grid shared by the column header and every row, so columns line up. */
+export const fleetGridColumns =
+  'grid grid-cols-[minmax(0,1fr)_8.5rem_12.5rem_6.5rem] lg:grid-cols-[minmax(0,1fr)_10rem_16rem_8rem] gap-x-3';
+
+export const rowHeights: Record<FleetRow['kind'], number> = {
+  site: 44,
+  area: 38,
+  machine: 38,
+  point: 34,
+};
+
+function Chevron({ expanded, hidden }: { expanded: boolean; hidden: boolean }) {
+  return (
+    <svg
+      viewBox="0 0 12 12"
+      aria-hidden="true"
+      className={cn(
+        'size-3 shrink-0 text-ink-faint transition-transform motion-reduce:transition-none',
+        expanded && 'rotate-90',
+        hidden && 'invisible',
+      )}
+    >
+      <path
+        d="M4.5 2.5 8 6 4.5 9.5"
+        fill="none"
+        stroke="currentColor"
+        strokeWidth="1.6"
+        strokeLinecap="round"
+        strokeLinejoin="round"
+      />
+    </svg>
+  );
+}
+
+function Age({ iso, now }: { iso: string | null; now: number }) {
+  if (!iso) return <span className="text-ink-faint">never</span>;
+  return (
+    <time
+      dateTime={iso}
+      title={formatDateTime(iso)}
+      className="font-mono text-[12.5px] text-ink-muted"
+    >
+      {formatAge(iso, now)}
+    </time>
+  );
+}
+
+function Count({ n, noun }: { n: number; noun: string }) {
+  return (
+    <span className="shrink-0 text-xs text-ink-faint">
+      <span className="font-mono">{formatInteger(n)}</span> {noun}
+      {n === 1 ? '' : 's'}
+    </span>
+  );
+}
+
+function NameCell({ row }: { row: FleetRow }) {
+  switch (row.kind) {
+    case 'site':
+      return (
+        <>
+          <span className="truncate text-[14px] font-semibold">{row.site.name}</span>
+          <span className="shrink-0 rounded-sm bg-sunken px-1.5 py-px font-mono text-[11px] text-ink-muted">
+            {row.site.code}
+          </span>
+          <Count n={row.machineCount} noun="machine" />
+        </>
+      );
+    case 'area':
+      return (
+        <>
+          <span className="truncate text-[13.5px] font-medium">{row.area.name}</span>
+          <Count n={row.machineCount} noun="machine" />
+        </>
+      );
+    case 'machine':
+      return (
+        <>
+          <span className="truncate text-[13.5px] font-medium">{row.machine.name}</span>
+          <Count n={row.machine.points.length} noun="point" />
+        </>
+      );
+    case 'point':
+      return <span className="truncate text-[13px] text-ink">{row.point.name}</span>;
+  }
+}
+
+function DetailCell({ row }: { row: FleetRow }) {
+  switch (row.kind) {
+    case 'site':
+      return <span className="truncate font-mono text-xs text-ink-faint">{row.site.timeZone}</span>;
+    case 'area':
+      return null;
+    case 'machine':
+      return (
+        <span className="flex min-w-0 items-baseline gap-2 text-[13px]">
+          <span className="truncate text-ink-muted">{machineTypeLabels[row.machine.type]}</span>
+          <span className="shrink-0 font-mono text-[12.5px] text-ink">
+            {formatInteger(row.machine.nominalRpm)}&nbsp;r/min
+          </span>
+        </span>
+      );
+    case 'point':
+      return (
+        <span className="flex min-w-0 items-baseline gap-2">
+          <span className="truncate font-mono text-[12.5px] text-ink">{row.point.tag}</span>
+          <span
+            className="shrink-0 text-xs text-ink-muted"
+            title={directionLabels[row.point.direction]}
+          >
+            <span aria-hidden="true" className="font-mono">
+              {row.point.direction}
+            </span>
+            <span className="sr-only">{directionLabels[row.point.direction]}</span>
+            <span aria-hidden="true" className="hidden lg:inline">
+              {' '}
+              {directionLabels[row.point.direction].toLowerCase()}
+            </span>
+          </span>
+        </span>
+      );
+  }
+}
+
+const rowTone: Record<FleetRow['kind'], string> = {
+  site: 'bg-sunken/70 border-t border-line',
+  area: 'border-t border-line/70',
+  machine: 'border-t border-line/50',
+  point: '',
+};
+
+export function FleetTreeRow({
+  row,
+  id,
+  active,
+  now,
+  style,
+  onSelect,
+}: {
+  row: FleetRow;
+  id: string;
+  active: boolean;
+  now: number;
+  style: React.CSSProperties;
+  onSelect: () => void;
+}) {
+  const expandable =
+    row.kind === 'site' ||
+    row.kind === 'area' ||
+    (row.kind === 'machine' && row.machine.points.length > 0);
+  const expanded = row.kind === 'point' ? false : row.expanded;
+  return (
+    <div
+      id={id}
+      role="treeitem"
+      aria-level={row.level}
+      aria-posinset={row.posInSet}
+      aria-setsize={row.setSize}
+      aria-expanded={expandable ? expanded : undefined}
+      aria-selected={active}
+      onClick={onSelect}
+      style={style}
+      className={cn(
+        fleetGridColumns,
+        'absolute inset-x-0 top-0 cursor-default items-center pr-3 text-ink select-none',
+        rowTone[row.kind],
+        active
+          ? 'bg-accent-soft group-focus-visible:shadow-[inset_0_0_0_2px_var(--color-accent)]'
+          : 'hover:bg-sunken/60',
+      )}
+    >
+      <span
+        className="flex min-w-0 items-center gap-2"
+        style={{ paddingLeft: `${0.75 + (row.level - 1) * 1.25}rem` }}
+      >
+        <Chevron expanded={expanded} hidden={!expandable} />
+        <NameCell row={row} />
+      </span>
+      <StatusMark status={row.status} />
+      <span className="min-w-0">
+        <DetailCell row={row} />
+      </span>
+      <span className="text-right">
+        {row.kind === 'machine' && <Age iso={row.lastTakenAt} now={now} />}
+        {row.kind === 'point' && <Age iso={row.point.lastTakenAt} now={now} />}
+      </span>
+    </div>
+  );
+}

@@ -1,0 +1,42 @@
+const relative = new Intl.RelativeTimeFormat('en-GB', { style: 'short', numeric: 'always' });
+const integer = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 0 });
+const dateTime = new Intl.DateTimeFormat('en-GB', {
+  dateStyle: 'medium',
+  timeStyle: 'short',
+});
+
+const steps: [Intl.RelativeTimeFormatUnit, number][] = [
+  ['second', 60],
+  ['minute', 60],
+  ['hour', 24],
+  ['day', 30],
+  ['month', 12],
+  ['year', Number.POSITIVE_INFINITY],
+];
+
+/**
+ * How long ago `iso` was, relative to `now` ("12 min ago", "3 hr ago"). Timestamps up to two
+ * minutes ahead (clock skew between gateway and server) read as "0 sec ago".
+ */
+export function formatAge(iso: string, now: number): string {
+  const then = Date.parse(iso);
+  if (Number.isNaN(then)) return '—';
+  let seconds = (now - then) / 1000;
+  if (seconds < 0 && seconds > -120) seconds = 0;
+  const sign = seconds < 0 ? 1 : -1;
+  let value = Math.abs(seconds);
+  for (const [unit, size] of steps) {
+    if (value < size) return relative.format(sign * Math.floor(value), unit);
+    value /= size;
+  }
+  return '—';
+}
+
+export function formatDateTime(iso: string): string {
+  const then = Date.parse(iso);
+  return Number.isNaN(then) ? iso : dateTime.format(then);
+}
+
+export function formatInteger(value: number): string {
+  return integer.format(value);
+}
