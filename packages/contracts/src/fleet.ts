@@ -1,7 +1,14 @@
 import { z } from 'zod';
 
 export const directionSchema = z.enum(['H', 'V', 'A']);
-export const machineTypeSchema = z.enum(['motor', 'pump', 'fan', 'blower', 'gearbox', 'compressor']);
+export const machineTypeSchema = z.enum([
+  'motor',
+  'pump',
+  'fan',
+  'blower',
+  'gearbox',
+  'compressor',
+]);
 export const foundationSchema = z.enum(['rigid', 'flexible']);
 export const criticalitySchema = z.enum(['low', 'medium', 'high']);
 

@@ -264,6 +264,8 @@ CREATE TABLE `points` (
 	`bearing_id` int,
 	`fmax_hz` double NOT NULL DEFAULT 1000,
 	`lines` int NOT NULL DEFAULT 1600,
+	`last_taken_at` datetime(3),
+	`last_verdict` enum('ok','suspect','unusable'),
 	`created_at` datetime(3) NOT NULL DEFAULT CURRENT_TIMESTAMP(3),
 	CONSTRAINT `points_id` PRIMARY KEY(`id`),
 	CONSTRAINT `points_tag_uq` UNIQUE(`tag`)

@@ -62,13 +62,17 @@ export function ensureMariadbInstalled(log: (m: string) => void = () => {}): {
   }
   log("Installing Debian's mariadb-server (first start only)…");
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
-  for (const args of [['update', '-qq'], ['install', '-y', '-qq', 'mariadb-server']]) {
+  for (const args of [
+    ['update', '-qq'],
+    ['install', '-y', '-qq', 'mariadb-server'],
+  ]) {
     const r = spawnSync('apt-get', args, { stdio: 'inherit', env });
     if (r.status !== 0) throw new Error(`apt-get ${args.join(' ')} failed (exit ${r.status}).`);
   }
   server = findProgram(['mariadbd', 'mysqld']);
   installDb = findProgram(['mariadb-install-db', 'mysql_install_db']);
-  if (!server || !installDb) throw new Error('mariadb-server was installed but mariadbd was not found.');
+  if (!server || !installDb)
+    throw new Error('mariadb-server was installed but mariadbd was not found.');
   return { server, installDb };
 }
 
@@ -158,7 +162,9 @@ export async function startLocalMariadb(options: LocalMariadbOptions): Promise<L
       { encoding: 'utf8' },
     );
     if (r.status !== 0) {
-      throw new Error(`mariadb-install-db failed (exit ${r.status}): ${(r.stderr || r.stdout).slice(-2000)}`);
+      throw new Error(
+        `mariadb-install-db failed (exit ${r.status}): ${(r.stderr || r.stdout).slice(-2000)}`,
+      );
     }
   }
   await stopOrphan(dir, log);
@@ -215,8 +221,12 @@ export async function startLocalMariadb(options: LocalMariadbOptions): Promise<L
 
   const password = readOrCreatePassword(join(dir, 'password'));
   try {
-    await admin.query(`CREATE DATABASE IF NOT EXISTS \`${database}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
-    await admin.query(`CREATE USER IF NOT EXISTS '${SERVER_USER}'@'127.0.0.1' IDENTIFIED BY ?`, [password]);
+    await admin.query(
+      `CREATE DATABASE IF NOT EXISTS \`${database}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`,
+    );
+    await admin.query(`CREATE USER IF NOT EXISTS '${SERVER_USER}'@'127.0.0.1' IDENTIFIED BY ?`, [
+      password,
+    ]);
     await admin.query(`ALTER USER '${SERVER_USER}'@'127.0.0.1' IDENTIFIED BY ?`, [password]);
     // A private, loopback-only server: the product's user may create databases (tests do).
     await admin.query(`GRANT ALL PRIVILEGES ON *.* TO '${SERVER_USER}'@'127.0.0.1'`);

@@ -82,9 +82,11 @@ export const machines = mysqlTable(
     bladeCount: smallint('blade_count'),
     vaneCount: smallint('vane_count'),
     /** Belt drive: driver and driven sheave diameters and belt length, millimetres. */
-    belt: jsonColumn<{ driverSheaveMm: number; drivenSheaveMm: number; beltLengthMm: number } | null>(
-      'belt',
-    ),
+    belt: jsonColumn<{
+      driverSheaveMm: number;
+      drivenSheaveMm: number;
+      beltLengthMm: number;
+    } | null>('belt'),
     notes: text('notes'),
     createdAt: createdAt(),
   },
@@ -143,6 +145,9 @@ export const points = mysqlTable(
     bearingId: ref('bearing_id').references(() => bearings.id, { onDelete: 'set null' }),
     fmaxHz: double('fmax_hz').notNull().default(1000),
     lines: int('lines').notNull().default(1600),
+    /** Latest analysed capture, kept by the worker so the fleet view needs no scan. */
+    lastTakenAt: at('last_taken_at'),
+    lastVerdict: mysqlEnum('last_verdict', verdictEnum),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex('points_tag_uq').on(t.tag), index('points_machine_idx').on(t.machineId)],
@@ -213,7 +218,10 @@ export const subscriptions = mysqlTable(
     weeklyDigest: boolean('weekly_digest').notNull().default(false),
     createdAt: createdAt(),
   },
-  (t) => [index('subscriptions_user_idx').on(t.userId), index('subscriptions_site_idx').on(t.siteId)],
+  (t) => [
+    index('subscriptions_user_idx').on(t.userId),
+    index('subscriptions_site_idx').on(t.siteId),
+  ],
 );
 
 // ---------------------------------------------------------------- data in
@@ -233,7 +241,10 @@ export const gateways = mysqlTable(
     lastSeenAt: at('last_seen_at'),
     createdAt: createdAt(),
   },
-  (t) => [uniqueIndex('gateways_key_prefix_uq').on(t.keyPrefix), index('gateways_site_idx').on(t.siteId)],
+  (t) => [
+    uniqueIndex('gateways_key_prefix_uq').on(t.keyPrefix),
+    index('gateways_site_idx').on(t.siteId),
+  ],
 );
 
 export const snapshots = mysqlTable(
@@ -260,7 +271,9 @@ export const snapshots = mysqlTable(
     samples: mediumBlob('samples'),
     samplesExpiredAt: at('samples_expired_at'),
     contentHash: varchar('content_hash', { length: 64 }).notNull(),
-    status: mysqlEnum('status', ['queued', 'done', 'rejected', 'failed']).notNull().default('queued'),
+    status: mysqlEnum('status', ['queued', 'done', 'rejected', 'failed'])
+      .notNull()
+      .default('queued'),
     statusReason: text('status_reason'),
     uploadedBy: ref('uploaded_by').references(() => users.id),
     fileName: varchar('file_name', { length: 255 }),
@@ -353,7 +366,10 @@ export const limitSets = mysqlTable(
       .default(sql`CURRENT_TIMESTAMP(3)`),
     createdAt: createdAt(),
   },
-  (t) => [uniqueIndex('limit_sets_point_uq').on(t.pointId), index('limit_sets_type_idx').on(t.machineType)],
+  (t) => [
+    uniqueIndex('limit_sets_point_uq').on(t.pointId),
+    index('limit_sets_type_idx').on(t.machineType),
+  ],
 );
 
 export const bands = mysqlTable(
@@ -368,7 +384,12 @@ export const bands = mysqlTable(
     name: varchar('name', { length: 200 }).notNull(),
     kind: mysqlEnum('kind', ['overall', 'hz', 'order', 'fault']).notNull(),
     /** Which overall value (for kind overall) or spectrum the band reads. */
-    quantity: mysqlEnum('quantity', ['acceleration', 'velocity', 'displacement', 'envelope']).notNull(),
+    quantity: mysqlEnum('quantity', [
+      'acceleration',
+      'velocity',
+      'displacement',
+      'envelope',
+    ]).notNull(),
     lowHz: double('low_hz'),
     highHz: double('high_hz'),
     lowOrder: double('low_order'),
@@ -497,7 +518,10 @@ export const qualityNotices = mysqlTable(
     reviewedAt: at('reviewed_at'),
     createdAt: createdAt(),
   },
-  (t) => [index('quality_notices_point_idx').on(t.pointId, t.takenAt), index('quality_notices_open_idx').on(t.reviewedAt)],
+  (t) => [
+    index('quality_notices_point_idx').on(t.pointId, t.takenAt),
+    index('quality_notices_open_idx').on(t.reviewedAt),
+  ],
 );
 
 /** The planner's follow-ups. */
@@ -520,7 +544,10 @@ export const findings = mysqlTable(
       .references(() => users.id),
     createdAt: createdAt(),
   },
-  (t) => [index('findings_point_idx').on(t.pointId), index('findings_state_idx').on(t.state, t.dueDate)],
+  (t) => [
+    index('findings_point_idx').on(t.pointId),
+    index('findings_state_idx').on(t.state, t.dueDate),
+  ],
 );
 
 // ---------------------------------------------------------------- records and mail
@@ -563,7 +590,10 @@ export const outbox = mysqlTable(
     lastError: text('last_error'),
     createdAt: createdAt(),
   },
-  (t) => [uniqueIndex('outbox_dedupe_uq').on(t.dedupeKey), index('outbox_due_idx').on(t.sentAt, t.nextAttemptAt)],
+  (t) => [
+    uniqueIndex('outbox_dedupe_uq').on(t.dedupeKey),
+    index('outbox_due_idx').on(t.sentAt, t.nextAttemptAt),
+  ],
 );
 
 /** Installation settings (mail sender, retention days, digest schedule). */

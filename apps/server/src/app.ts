@@ -1,0 +1,104 @@
+import express, { Router, type Request, type Response, type NextFunction } from 'express';
+import cookieParser from 'cookie-parser';
+import helmet from 'helmet';
+import { randomUUID } from 'node:crypto';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import type { AppContext } from './lib/context.ts';
+import { AppError } from './lib/app-error.ts';
+import { apiNotFound, errorMiddleware } from './lib/error-middleware.ts';
+import { mountRoutes, type RouteSpec } from './lib/route-table.ts';
+import { webDist } from './lib/web-build.ts';
+import { authRouter, authRoutes, createAuthenticate } from './features/auth/auth-router.ts';
+import { fleetRoutes } from './features/fleet/fleet-router.ts';
+import { healthRouter } from './features/health/health-router.ts';
+
+/** The feature routes below /api/v1 (auth mounts its own, behind its rate limiters). */
+function featureRoutes(ctx: AppContext): RouteSpec[] {
+  return [...fleetRoutes(ctx)];
+}
+
+/** Every dashboard route below /api/v1: the access table the role × route test walks. */
+export function dashboardRoutes(ctx: AppContext): RouteSpec[] {
+  return [...authRoutes(ctx), ...featureRoutes(ctx)];
+}
+
+/**
+ * Cookie-authenticated writes must come from our own origin (OWASP ASVS 5.0 3.5): a
+ * browser always sends Origin on cross-site POST/PUT/PATCH/DELETE, so compare it to Host.
+ */
+function sameOriginWrites(req: Request, _res: Response, next: NextFunction) {
+  if (req.method === 'GET' || req.method === 'HEAD' || req.method === 'OPTIONS') return next();
+  const origin = req.get('origin');
+  if (!origin) return next();
+  let host: string;
+  try {
+    host = new URL(origin).host;
+  } catch {
+    return next(new AppError('cross_origin', 'The request came from another origin.', 403));
+  }
+  const forwarded = req.app.get('trust proxy') ? req.get('x-forwarded-host') : undefined;
+  if (host !== (forwarded ?? req.get('host'))) {
+    return next(new AppError('cross_origin', 'The request came from another origin.', 403));
+  }
+  next();
+}
+
+export function createApp(ctx: AppContext) {
+  const app = express();
+  app.disable('x-powered-by');
+  if (ctx.config.TRUST_PROXY) {
+    const v = ctx.config.TRUST_PROXY;
+    app.set('trust proxy', /^\d+$/.test(v) ? Number(v) : v === 'true' ? true : v);
+  }
+  app.use((req, res, next) => {
+    req.requestId = randomUUID();
+    res.setHeader('X-Request-Id', req.requestId);
+    next();
+  });
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          // React and ECharts set style attributes; no external style source is allowed.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'", 'data:'],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+        },
+      },
+      strictTransportSecurity: ctx.config.COOKIE_SECURE,
+    }),
+  );
+
+  const authenticate = createAuthenticate(ctx);
+  const api = Router();
+  api.use(express.json({ limit: '1mb' }));
+  api.use(cookieParser());
+  api.use(sameOriginWrites);
+  api.use(authRouter(ctx, authenticate));
+  mountRoutes(api, featureRoutes(ctx), authenticate);
+  app.use('/api', healthRouter(ctx));
+  app.use('/api/v1', api);
+  app.use('/api', apiNotFound);
+
+  if (existsSync(join(webDist, 'index.html'))) {
+    app.use(express.static(webDist, { index: false, maxAge: '1h' }));
+    app.get(/.*/, (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(join(webDist, 'index.html'));
+    });
+  }
+  app.use((_req, res) => {
+    res.status(404).json({ error: { code: 'not_found', message: 'Not found.' } });
+  });
+  app.use(errorMiddleware(ctx.log));
+  return app;
+}

@@ -1,0 +1,68 @@
+import bcrypt from 'bcryptjs';
+import type { Db } from '@turnstone/db/client';
+import type { Me } from '@turnstone/contracts/auth';
+import { AppError } from '../../lib/app-error.ts';
+import type { SessionUser } from '../../lib/session-user.ts';
+import * as repo from './auth-repository.ts';
+import { verifySession } from './session-token.ts';
+
+export const BCRYPT_COST = 11;
+// Compared against when the address is unknown, so both paths take the same time.
+const DUMMY_HASH = bcrypt.hashSync('not-a-real-password', BCRYPT_COST);
+
+export const invalidCredentials = () =>
+  new AppError('invalid_credentials', 'E-mail address or password is not correct.', 401);
+
+export async function hashPassword(password: string): Promise<string> {
+  return bcrypt.hash(password, BCRYPT_COST);
+}
+
+export async function checkCredentials(
+  db: Db,
+  email: string,
+  password: string,
+): Promise<repo.UserRow> {
+  const user = await repo.findUserByEmail(db, email);
+  const ok = await bcrypt.compare(password, user?.passwordHash ?? DUMMY_HASH);
+  if (!user || !user.passwordHash || !ok || user.disabledAt) throw invalidCredentials();
+  await repo.touchSignIn(db, user.id);
+  return user;
+}
+
+/** The user behind a session token, or null when the token or the user is no longer valid. */
+export async function userFromToken(
+  db: Db,
+  secret: string,
+  token: string,
+): Promise<SessionUser | null> {
+  const claims = verifySession(secret, token);
+  if (!claims) return null;
+  const id = Number(claims.sub);
+  if (!Number.isInteger(id)) return null;
+  const user = await repo.findUserById(db, id);
+  if (!user || user.disabledAt || user.tokenVersion !== claims.ver) return null;
+  return toSessionUser(user, await repo.siteIdsOf(db, user));
+}
+
+export function toSessionUser(user: repo.UserRow, siteIds: number[]): SessionUser {
+  return { id: user.id, email: user.email, name: user.name, role: user.role, siteIds };
+}
+
+export async function sessionUserOf(db: Db, user: repo.UserRow): Promise<SessionUser> {
+  return toSessionUser(user, await repo.siteIdsOf(db, user));
+}
+
+export function toMe(user: SessionUser): Me {
+  return {
+    id: user.id,
+    email: user.email,
+    name: user.name,
+    role: user.role,
+    siteIds: user.siteIds,
+  };
+}
+
+/** Ends every session of the user: tokens carry the version they were issued with. */
+export async function endSessions(db: Db, userId: number): Promise<void> {
+  await repo.bumpTokenVersion(db, userId);
+}

@@ -1,0 +1,22 @@
+import type { AppContext } from '../../lib/context.ts';
+import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import * as service from './fleet-service.ts';
+
+export function fleetRoutes(ctx: AppContext): RouteSpec[] {
+  return [
+    {
+      method: 'get',
+      path: '/sites',
+      access: ALL_ROLES,
+      summary: 'list sites',
+      handler: async (req, res) => res.json(await service.listSites(ctx.db, requireUser(req))),
+    },
+    {
+      method: 'get',
+      path: '/fleet',
+      access: ALL_ROLES,
+      summary: 'fleet tree',
+      handler: async (req, res) => res.json(await service.fleetTree(ctx.db, requireUser(req))),
+    },
+  ];
+}

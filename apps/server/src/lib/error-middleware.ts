@@ -1,0 +1,90 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { ZodError } from 'zod';
+import { AppError } from './app-error.ts';
+import type { Logger } from './logger.ts';
+
+const DB_DOWN_CODES = new Set([
+  'ECONNREFUSED',
+  'PROTOCOL_CONNECTION_LOST',
+  'ETIMEDOUT',
+  'ECONNRESET',
+  'EPIPE',
+  'ER_SERVER_SHUTDOWN',
+  'ER_CON_COUNT_ERROR',
+  'PROTOCOL_SEQUENCE_TIMEOUT',
+]);
+
+/** True for errors that mean "the database is away", as opposed to a bad query. */
+export function isDbUnavailable(err: unknown): boolean {
+  for (let e: unknown = err, i = 0; e && i < 5; i++) {
+    const code = (e as { code?: string }).code;
+    if (code && DB_DOWN_CODES.has(code)) return true;
+    if ((e as { fatal?: boolean }).fatal === true && (e as { errno?: number }).errno === undefined)
+      return true;
+    e = (e as { cause?: unknown }).cause;
+  }
+  return false;
+}
+
+export function zodDetails(err: ZodError) {
+  return err.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));
+}
+
+export const apiNotFound: RequestHandler = (req, res) => {
+  res
+    .status(404)
+    .json({
+      error: {
+        code: 'not_found',
+        message: `No API route ${req.method} ${req.originalUrl.split('?')[0]}.`,
+      },
+    });
+};
+
+/** The last middleware: every error leaves as `{ error: { code, message, details? } }`. */
+export function errorMiddleware(log: Logger): ErrorRequestHandler {
+  return (err, req, res, _next) => {
+    if (res.headersSent) return;
+    const send = (status: number, code: string, message: string, details?: unknown) =>
+      res
+        .status(status)
+        .json({ error: details === undefined ? { code, message } : { code, message, details } });
+
+    if (err instanceof AppError) {
+      for (const [k, v] of Object.entries(err.headers ?? {})) res.setHeader(k, v);
+      return send(err.httpStatus, err.code, err.message, err.details);
+    }
+    if (err instanceof ZodError) {
+      const details = zodDetails(err);
+      const first = details[0];
+      return send(
+        400,
+        'validation_failed',
+        first ? `Invalid request: ${first.path || 'body'}: ${first.message}` : 'Invalid request.',
+        details,
+      );
+    }
+    const type = (err as { type?: string }).type;
+    if (type === 'entity.parse.failed')
+      return send(400, 'invalid_json', 'The request body is not valid JSON.');
+    if (type === 'entity.too.large')
+      return send(413, 'payload_too_large', 'The request body is too large.');
+    if (type === 'charset.unsupported' || type === 'encoding.unsupported')
+      return send(415, 'unsupported_encoding', 'Unsupported request encoding.');
+    if (isDbUnavailable(err)) {
+      res.setHeader('Retry-After', '5');
+      log.warn('database unavailable', {
+        requestId: req.requestId,
+        path: req.path,
+        code: (err as { code?: string }).code,
+      });
+      return send(503, 'db_unavailable', 'The database is not answering; try again shortly.');
+    }
+    const status = (err as { status?: number }).status;
+    if (typeof status === 'number' && status >= 400 && status < 500) {
+      return send(status, 'bad_request', (err as Error).message || 'Bad request.');
+    }
+    log.error('unhandled error', { requestId: req.requestId, path: req.path, err });
+    send(500, 'internal', `Something went wrong on our side (request ${req.requestId ?? '?'}).`);
+  };
+}

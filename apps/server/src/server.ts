@@ -1,0 +1,84 @@
+/**
+ * `start()` brings up everything `npm start` promises — database (private or configured),
+ * migrations, demo seed, web build, HTTP server, worker — and `stop()` takes it down in
+ * reverse order. Tests run the real server in-process with PORT=0.
+ */
+import { mkdirSync } from 'node:fs';
+import { resolve } from 'node:path';
+import type { AddressInfo } from 'node:net';
+import type { Server } from 'node:http';
+import { createDb } from '@turnstone/db/client';
+import { runMigrations } from '@turnstone/db/migrate';
+import { startLocalMariadb, type LocalMariadb } from '@turnstone/db/local-server';
+import { loadConfig, type Config } from './config.ts';
+import { createApp } from './app.ts';
+import type { AppContext } from './lib/context.ts';
+import { createLogger } from './lib/logger.ts';
+import { loadOrCreateSecrets } from './lib/secrets.ts';
+import { ensureWebBuilt } from './lib/web-build.ts';
+import { seedIfEmpty } from './features/demo/demo-seed.ts';
+
+export interface RunningServer {
+  url: string;
+  port: number;
+  ctx: AppContext;
+  stop(): Promise<void>;
+}
+
+export async function start(env: Record<string, string | undefined> = {}): Promise<RunningServer> {
+  const config: Config = loadConfig({ ...process.env, ...env });
+  const log = createLogger(config.LOG_LEVEL);
+  const say = (m: string) => log.info(m);
+  const dataDir = resolve(config.DATA_DIR);
+  mkdirSync(dataDir, { recursive: true });
+  const secrets = loadOrCreateSecrets(dataDir);
+
+  let localDb: LocalMariadb | null = null;
+  let url = config.DATABASE_URL;
+  if (!url) {
+    localDb = await startLocalMariadb({ dataDir, port: config.DB_PORT, log: say });
+    url = localDb.url;
+  }
+  const dbHandle = createDb(url, { connectionLimit: 20 });
+  const cleanup: Array<() => Promise<void>> = [];
+  try {
+    await runMigrations(dbHandle.db);
+    const ctx: AppContext = {
+      config,
+      db: dbHandle.db,
+      dbHandle,
+      log,
+      jwtSecret: config.JWT_SECRET ?? secrets.jwtSecret,
+      dataDir,
+    };
+    if (config.SEED_DEMO) await seedIfEmpty(ctx, say);
+    if (config.BUILD_WEB) await ensureWebBuilt(say);
+
+    const app = createApp(ctx);
+    const server: Server = await new Promise((resolveListen, reject) => {
+      const s = app.listen(config.PORT, config.HOST, () => resolveListen(s));
+      s.on('error', reject);
+    });
+    const port = (server.address() as AddressInfo).port;
+    const host = config.HOST === '0.0.0.0' ? '127.0.0.1' : config.HOST;
+    const publicUrl = `http://${host}:${port}`;
+
+    let stopped: Promise<void> | null = null;
+    const stop = () => {
+      stopped ??= (async () => {
+        for (const fn of cleanup.reverse())
+          await fn().catch((e) => log.warn('stop step failed', { err: e }));
+        await new Promise<void>((r) => server.close(() => r()));
+        server.closeAllConnections?.();
+        await dbHandle.close().catch(() => {});
+        await localDb?.stop();
+      })();
+      return stopped;
+    };
+    return { url: publicUrl, port, ctx, stop };
+  } catch (err) {
+    await dbHandle.close().catch(() => {});
+    await localDb?.stop();
+    throw err;
+  }
+}

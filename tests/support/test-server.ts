@@ -1,0 +1,92 @@
+/**
+ * Runs the real server in-process on port 0 against a database of its own on the run's
+ * MariaDB (TEST_DATABASE_URL, set by tests/run-tests.ts). Without it — vitest started by
+ * hand — a private MariaDB is started for this file.
+ */
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { randomBytes } from 'node:crypto';
+import mysql from 'mysql2/promise';
+import { startLocalMariadb, type LocalMariadb } from '@turnstone/db/local-server';
+import { start, type RunningServer } from '../../apps/server/src/server.ts';
+
+export const DEMO_PASSWORD = 'turnstone-demo';
+export const demoEmail = (role: string) => `${role}@turnstone.local`;
+
+export interface TestServer extends RunningServer {
+  databaseUrl: string;
+  /** fetch against the server; JSON bodies are encoded; `cookie` signs the call in. */
+  call(
+    method: string,
+    path: string,
+    init?: { body?: unknown; cookie?: string; headers?: Record<string, string>; raw?: string },
+  ): Promise<Response>;
+  signIn(role: string, password?: string): Promise<string>;
+}
+
+let ownDb: LocalMariadb | null = null;
+
+async function baseUrl(): Promise<string> {
+  if (process.env.TEST_DATABASE_URL) return process.env.TEST_DATABASE_URL;
+  ownDb ??= await startLocalMariadb({
+    dataDir: mkdtempSync(join(tmpdir(), 'turnstone-db-')),
+    database: 'turnstone_test',
+  });
+  return ownDb.url;
+}
+
+/** A new, empty database on the test server; returns its URL. */
+export async function freshDatabase(): Promise<string> {
+  const url = new URL(await baseUrl());
+  const name = `t_${randomBytes(6).toString('hex')}`;
+  const conn = await mysql.createConnection({
+    host: url.hostname,
+    port: Number(url.port),
+    user: decodeURIComponent(url.username),
+    password: decodeURIComponent(url.password),
+  });
+  await conn.query(`CREATE DATABASE \`${name}\``);
+  await conn.end();
+  url.pathname = `/${name}`;
+  return url.toString();
+}
+
+export async function startTestServer(env: Record<string, string> = {}): Promise<TestServer> {
+  const databaseUrl = await freshDatabase();
+  const dataDir = mkdtempSync(join(process.env.TURNSTONE_TEST_TMP ?? tmpdir(), 'data-'));
+  const server = await start({
+    DATABASE_URL: databaseUrl,
+    DATA_DIR: dataDir,
+    PORT: '0',
+    HOST: '127.0.0.1',
+    BUILD_WEB: 'false',
+    LOG_LEVEL: 'silent',
+    RUN_WORKER: 'false',
+    SEED_DEMO: 'true',
+    ...env,
+  });
+  const call: TestServer['call'] = (method, path, init = {}) => {
+    const headers: Record<string, string> = { ...(init.headers ?? {}) };
+    if (init.cookie) headers.cookie = init.cookie;
+    let body: string | undefined = init.raw;
+    if (init.body !== undefined) {
+      body = JSON.stringify(init.body);
+      headers['content-type'] ??= 'application/json';
+    }
+    return fetch(server.url + path, { method, headers, body, redirect: 'manual' });
+  };
+  const signIn: TestServer['signIn'] = async (role, password = DEMO_PASSWORD) => {
+    const res = await call('POST', '/api/v1/auth/sign-in', {
+      body: { email: demoEmail(role), password },
+    });
+    if (res.status !== 200)
+      throw new Error(`sign-in as ${role} answered ${res.status}: ${await res.text()}`);
+    const setCookie = res.headers.get('set-cookie') ?? '';
+    return setCookie.split(';')[0]!;
+  };
+  const stop = async () => {
+    await server.stop();
+  };
+  return { ...server, stop, databaseUrl, call, signIn };
+}
