@@ -1,0 +1,146 @@
+import { describe, it, expect } from 'vitest';
+import { projectTrend, type TrendPoint } from './trend-projection.ts';
+import { itWithNumpy, runNumpy } from './numpy-live.test-support.ts';
+
+const T0 = Date.UTC(2025, 0, 1);
+const DAY = 86_400_000;
+const daily = (values: readonly number[]): TrendPoint[] =>
+  values.map((value, i) => ({ takenAt: T0 + i * DAY, value }));
+// levels 4 / 8 mm/s, common practice, no source
+const levels = { alertLevel: 4, dangerLevel: 8 };
+
+describe('projectTrend — linear', () => {
+  it('when values rise by 0.1 a day from 1, the linear fit wins and alert 4 is crossed on day 30', () => {
+    // hand arithmetic: 1 + 0.1·d = 4 → d = 30
+    const result = projectTrend(daily([1, 1.1, 1.2, 1.3, 1.4, 1.5]), levels);
+    expect(result.outcome).toBe('projected');
+    expect(result.fit?.model).toBe('linear');
+    expect(result.linear?.slopePerDay).toBeCloseTo(0.1, 12);
+    expect(result.fit?.r2).toBeCloseTo(1, 12);
+    expect(result.target).toEqual({ level: 'alert', value: 4 });
+    expect(result.crossingAt).toBe(T0 + 30 * DAY);
+  });
+
+  it('when the latest value is already above alert, the target is the danger level', () => {
+    // 3 + 0.5·d = 8 → d = 10 (hand arithmetic)
+    const result = projectTrend(daily([3, 3.5, 4, 4.5, 5]), levels);
+    expect(result.target).toEqual({ level: 'danger', value: 8 });
+    expect(result.fit?.model).toBe('linear');
+    expect(result.crossingAt).toBe(T0 + 10 * DAY);
+  });
+
+  it('when the latest value is at or above danger, there is no next level', () => {
+    const result = projectTrend(daily([6, 7, 8, 8.5, 9]), levels);
+    expect(result.outcome).toBe('above-danger');
+    expect(result.crossingAt).toBeNull();
+    expect(result.fit).not.toBeNull();
+  });
+
+  it('when the trend is flat, there is no crossing', () => {
+    expect(projectTrend(daily([2, 2, 2, 2, 2]), levels).outcome).toBe('not-rising');
+  });
+
+  it('when the trend is falling, there is no crossing', () => {
+    const result = projectTrend(daily([3, 2.8, 2.7, 2.5, 2.4]), levels);
+    expect(result.outcome).toBe('not-rising');
+    expect(result.target?.level).toBe('alert');
+  });
+
+  it('when the crossing lies more than a year away, there is none (beyond the horizon)', () => {
+    // 1 + 0.001·d = 4 → d = 3000 > 365
+    expect(projectTrend(daily([1, 1.001, 1.002, 1.003, 1.004]), levels).outcome).toBe(
+      'beyond-horizon',
+    );
+  });
+
+  it('when the horizon is widened, that same slow crossing is reported', () => {
+    const result = projectTrend(daily([1, 1.001, 1.002, 1.003, 1.004]), levels, {
+      horizonDays: 4000,
+    });
+    expect(result.outcome).toBe('projected');
+    expect(result.crossingAt).toBe(T0 + 3000 * DAY);
+  });
+
+  it('when there are fewer than 5 points, there is no projection', () => {
+    expect(projectTrend(daily([1, 2, 3, 3.5]), levels).outcome).toBe('too-few-points');
+    expect(projectTrend([], levels).outcome).toBe('too-few-points');
+  });
+
+  it('when all points share one time, there is no projection', () => {
+    const same = [1, 2, 3, 4, 5].map((value) => ({ takenAt: T0, value }));
+    expect(projectTrend(same, levels).outcome).toBe('too-few-points');
+  });
+
+  it('when unusable points are present, they are left out of the fit', () => {
+    const points: TrendPoint[] = [
+      ...daily([1, 1.1, 1.2, 1.3, 1.4]),
+      { takenAt: T0 + 2.5 * DAY, value: 50, quality: 'unusable' },
+    ];
+    const result = projectTrend(points, levels);
+    expect(result.points).toBe(5);
+    expect(result.linear?.slopePerDay).toBeCloseTo(0.1, 12);
+  });
+
+  it('when the fit is already above the level at the latest point, the crossing is due now', () => {
+    // steep rise, then a dip below alert on the last value; the fitted line is above 4 at day 5
+    const result = projectTrend(daily([1, 2, 3, 4.5, 6, 3.9]), levels, {});
+    expect(result.target?.level).toBe('alert');
+    expect(result.outcome).toBe('projected');
+    expect(result.crossingAt).toBe(T0 + 5 * DAY);
+  });
+});
+
+describe('projectTrend — exponential', () => {
+  it('when values double every 10 days, the exponential fit wins and alert is crossed when 0.5·2^(d/10) = 4', () => {
+    // hand arithmetic: 0.5·2^(d/10) = 4 → d = 30
+    const values = Array.from({ length: 8 }, (_, d) => 0.5 * 2 ** (d / 10));
+    const result = projectTrend(daily(values), levels);
+    expect(result.fit?.model).toBe('exponential');
+    expect(result.exponential?.ratePerDay).toBeCloseTo(Math.LN2 / 10, 12);
+    expect(result.exponential?.amplitude).toBeCloseTo(0.5, 12);
+    expect(result.exponential?.r2).toBeCloseTo(1, 12);
+    expect(result.linear?.r2).toBeLessThan(1);
+    expect(result.crossingAt).toBe(T0 + 30 * DAY);
+  });
+
+  it('when a value is zero, no exponential fit is attempted and the linear one is used', () => {
+    const result = projectTrend(daily([0, 0.5, 1, 1.5, 2]), levels);
+    expect(result.exponential).toBeNull();
+    expect(result.fit?.model).toBe('linear');
+    expect(result.crossingAt).toBe(T0 + 8 * DAY);
+  });
+
+  itWithNumpy(
+    'when fitting a noisy bearing-like rise, the log-linear fit agrees with numpy.polyfit(t, log y, 1)',
+    () => {
+      // numpy live
+      const values = Array.from(
+        { length: 20 },
+        (_, d) => 0.8 * Math.exp(0.05 * d) * (1 + 0.04 * Math.sin(d * 1.9)),
+      );
+      const days = values.map((_, d) => d);
+      const [rate, logA, r2] = runNumpy(
+        `t = np.array(${JSON.stringify(days)}, dtype=float); y = np.array(${JSON.stringify(values)})
+p = np.polyfit(t, np.log(y), 1)
+pred = np.exp(np.polyval(p, t))
+r2 = 1 - np.sum((y - pred)**2) / np.sum((y - y.mean())**2)
+print(json.dumps([float(p[0]), float(p[1]), float(r2)]))`,
+      ) as [number, number, number];
+      const result = projectTrend(daily(values), levels);
+      expect(result.exponential?.ratePerDay).toBeCloseTo(rate, 10);
+      expect(Math.log(result.exponential?.amplitude ?? 0)).toBeCloseTo(logA, 10);
+      expect(result.exponential?.r2).toBeCloseTo(r2, 10);
+      expect(result.fit?.model).toBe('exponential');
+      // crossing from the fitted curve: ln(4 / A) / rate days after the first point
+      const expectedDay = (Math.log(4) - logA) / rate;
+      expect(((result.crossingAt ?? 0) - T0) / DAY).toBeCloseTo(expectedDay, 6);
+    },
+  );
+
+  it('when an exponential series is falling, there is no crossing', () => {
+    const values = Array.from({ length: 6 }, (_, d) => 3 * Math.exp(-0.1 * d));
+    const result = projectTrend(daily(values), levels);
+    expect(result.fit?.model).toBe('exponential');
+    expect(result.outcome).toBe('not-rising');
+  });
+});
