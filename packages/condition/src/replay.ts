@@ -98,14 +98,14 @@ export function replayLimitSet(
   for (const entry of ordered) {
     const result = evaluateSnapshot(bands, state, entry);
     state = result.state;
-    for (const { bandKey, event } of result.events) {
-      const report = reports.get(bandKey);
-      if (report === undefined) continue;
-      if (
-        event.kind === 'exceedance' ||
-        event.kind === 'observation' ||
-        event.kind === 'inside-limits'
-      ) {
+    const notEvaluated = new Set(
+      result.events
+        .filter(({ event }) => event.kind === 'late' || event.kind === 'quality-notice')
+        .map(({ bandKey }) => bandKey),
+    );
+    for (const report of reports.values()) {
+      const value = entry.values[report.bandKey];
+      if (value !== null && value !== undefined && !notEvaluated.has(report.bandKey)) {
         report.evaluated += 1;
       }
     }
