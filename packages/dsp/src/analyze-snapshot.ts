@@ -1,0 +1,363 @@
+import { bandRms, type PowerSpectrum } from './band-rms.ts';
+import { bandValues, checkBands, type BandDefinition, type BandValue } from './band-values.ts';
+import { parseEncoding, type SampleEncoding } from './decode-samples.ts';
+import { envelopeSpectrum } from './envelope.ts';
+import { faultFrequencies, type FaultFrequency, type MachineComponents } from './fault-frequencies.ts';
+import { getFftPlan, nextPowerOfTwo } from './fft-plan.ts';
+import { integratePowerSpectrum } from './integrate-spectrum.ts';
+import { integrateWaveform, trimmedPeakToPeak } from './integrate-waveform.ts';
+import { computedOrderTracking, tachSpeedRpm, type TachPulses } from './order-tracking.ts';
+import { assessQuality, type QualityFinding, type QualityMetrics, type QualityVerdict } from './quality-verdict.ts';
+import { scaleToAcceleration } from './scale-samples.ts';
+import { findPeaks } from './spectral-peaks.ts';
+import { estimateSpeed } from './speed-estimate.ts';
+import { waveformStatistics } from './waveform-statistics.ts';
+import { welch } from './welch.ts';
+import { getWindow, parseWindowName, type WindowName } from './window-functions.ts';
+
+/** Version of the {@link SnapshotAnalysis} shape; bumped on any breaking change. */
+export const ANALYSIS_SCHEMA_VERSION = 1;
+
+/** ISO 20816 overall-velocity band: 10–1000 Hz above 600 r/min, 2–1000 Hz for slower machines. */
+export type IsoBand = 'above600' | 'below600';
+
+/** Edges in Hz of each ISO 20816 overall band (ISO 20816-1 / -3; REFERENCES.md, from memory). */
+export const ISO_BAND_HZ: Record<IsoBand, readonly [number, number]> = {
+  above600: [10, 1000],
+  below600: [2, 1000],
+};
+
+/** Speed below which the 2–1000 Hz band applies, r/min (ISO 20816-3; REFERENCES.md, from memory). */
+export const ISO_SLOW_MACHINE_RPM = 600;
+
+/** One snapshot as stored: raw samples plus the facts needed to read them. */
+export interface SnapshotInput {
+  /** ADC counts for integer encodings; volts for float32. */
+  samples: Int16Array | Int32Array | Float32Array | Float64Array;
+  encoding: SampleEncoding;
+  sampleRateHz: number;
+  /** ADC resolution and the volts at code 2^(bits−1). */
+  adc: { bits: number; fullScaleV: number };
+  sensor: { sensitivityMvPerG: number };
+  /** Measured running speed, r/min (used when there is no tach). */
+  speedRpm?: number;
+  /** Tach pulse times for computed order tracking (wins over speedRpm). */
+  tach?: TachPulses;
+  /** Nominal speed from the machine record; running speed is estimated near it when neither tach nor speedRpm is given. */
+  nominalRpm?: number;
+  machine?: MachineComponents;
+  /** Anti-alias filter cutoff, when the gateway reports it (Hz). */
+  antiAliasCutoffHz?: number;
+  /** Analysis Fmax, Hz. @default sampleRateHz / 2.56 */
+  fmaxHz?: number;
+  /** Spectral lines from 0 to Fmax (sets the segment length, rounded up to a power of two). @default 3200 */
+  lines?: number;
+  /** Window for the Hz spectra. @default 'hann' */
+  window?: WindowName;
+  /** ISO 20816 overall band. @default 'below600' when the known or nominal speed is under 600 r/min, else 'above600' */
+  isoBand?: IsoBand;
+  /** Bands to report (see {@link BandDefinition}). @default [] */
+  bands?: BandDefinition[];
+}
+
+/** Secondary settings of {@link analyzeSnapshot}. */
+export interface AnalyzeSnapshotOptions {
+  /** Envelope band-pass edges, Hz. @default [Fmax/4, Fmax] */
+  envelopeBandHz?: readonly [number, number];
+  /** Highest envelope-spectrum frequency stored, Hz. @default min(1000, envelope band width) */
+  envelopeFmaxHz?: number;
+  /** Highest order stored in the order spectrum. @default min(100, Fmax / shaft speed) */
+  maxOrder?: number;
+  /** Number of spectral peaks reported. @default 10 */
+  peakCount?: number;
+  /** Speed search window around the nominal speed, ± fraction. @default 0.1 */
+  speedSearchFraction?: number;
+}
+
+/** A stored spectrum on a Hz axis: values[k] at k · dfHz. */
+export interface HzSpectrum {
+  unit: 'g' | 'mm/s';
+  /** 'rms': each line is the RMS of a tone on it; 'peak': its amplitude. */
+  scale: 'rms' | 'peak';
+  dfHz: number;
+  values: Float32Array;
+  window: WindowName;
+}
+
+/** The analysis of one snapshot; the worker stores it and the web app plots it. */
+export interface SnapshotAnalysis {
+  schemaVersion: typeof ANALYSIS_SCHEMA_VERSION;
+  sampleRateHz: number;
+  sampleCount: number;
+  durationS: number;
+  fmaxHz: number;
+  quality: {
+    verdict: QualityVerdict;
+    bitsUsed: number;
+    snrDb: number;
+    findings: QualityFinding[];
+    metrics: QualityMetrics;
+  };
+  overall: {
+    /** Acceleration RMS of the whole record, mean removed, g. */
+    accelRmsG: number;
+    /** Largest |a − mean|, g. */
+    accelPeakG: number;
+    /** Velocity RMS over the ISO band, mm/s. */
+    velocityRmsMmS: number;
+    /** Displacement peak-to-peak over the ISO band, µm (time waveform, ends trimmed 5 %). */
+    displacementPkPkUm: number;
+    crestFactor: number;
+    /** Pearson kurtosis (sine 1.5, Gaussian 3). */
+    kurtosis: number;
+    isoBand: IsoBand;
+    isoBandHz: [number, number];
+  };
+  speed: { rpm: number | null; hz: number | null; source: 'tach' | 'rpm' | 'estimated' | 'none' };
+  spectra: {
+    /** Welch-averaged acceleration, g RMS per line, 0 … Fmax. */
+    acceleration: HzSpectrum & { unit: 'g'; scale: 'rms'; nperseg: number; averages: number; enbwBins: number };
+    /** Velocity by frequency-domain integration, mm/s RMS, zero below the ISO band's lower edge. */
+    velocity: HzSpectrum & { unit: 'mm/s'; scale: 'rms'; lowCutoffHz: number };
+    /** Envelope spectrum, g peak (line 0 = mean envelope), or null when the record is too short. */
+    envelope: (HzSpectrum & { unit: 'g'; scale: 'peak'; bandHz: [number, number] }) | null;
+    /** Acceleration in orders (g RMS per line at k · dOrder), or null without a speed. */
+    order: {
+      unit: 'g';
+      scale: 'rms';
+      dOrder: number;
+      values: Float32Array;
+      method: 'computed-order-tracking' | 'hz-axis';
+    } | null;
+  };
+  /** Largest peaks of the acceleration spectrum, largest first, interpolated between lines. */
+  peaks: { hz: number; order: number | null; amplitude: number }[];
+  faultFrequencies: FaultFrequency[];
+  bandValues: BandValue[];
+}
+
+function positive(value: unknown, what: string): number {
+  if (typeof value !== 'number' || !(value > 0) || !Number.isFinite(value)) {
+    throw new RangeError(`${what} must be a positive number, got ${String(value)}`);
+  }
+  return value;
+}
+
+const MIN_SAMPLES = 64;
+
+/**
+ * Everything Turnstone shows about one snapshot, in one call: counts → g, quality verdict
+ * from the raw counts, Welch spectra (acceleration, velocity), envelope spectrum, order
+ * spectrum (computed order tracking with a tach, the Hz axis rescaled with an rpm),
+ * running speed and its source, overall values, interpolated peaks, fault frequencies and
+ * band values. Spectra are `Float32Array`s (compact to store and plot).
+ *
+ * Sources: see each step — Welch 1967 and scipy.signal.welch (spectra), Harris 1978
+ * (windows, ENBW), ISO 20816-1/-3 (overall velocity band), Kester MT-001 (quantization
+ * SNR), Fyfe & Munck 1997 (order tracking), Randall & Antoni 2011 (envelope, bearing
+ * frequencies).
+ */
+export function analyzeSnapshot(input: SnapshotInput, options: AnalyzeSnapshotOptions = {}): SnapshotAnalysis {
+  // ---- input checks
+  if (!input || typeof input !== 'object') throw new TypeError('analyzeSnapshot expects a snapshot object');
+  const samples = input.samples;
+  if (
+    !(samples instanceof Int16Array || samples instanceof Int32Array || samples instanceof Float32Array || samples instanceof Float64Array)
+  ) {
+    throw new TypeError('samples must be an Int16Array, Int32Array, Float32Array or Float64Array');
+  }
+  const n = samples.length;
+  if (n < MIN_SAMPLES) throw new RangeError(`a snapshot needs at least ${MIN_SAMPLES} samples, got ${n}`);
+  const encoding = parseEncoding(String(input.encoding));
+  const fs = positive(input.sampleRateHz, 'sampleRateHz');
+  if (!input.adc) throw new TypeError('adc { bits, fullScaleV } is required');
+  if (!input.sensor) throw new TypeError('sensor { sensitivityMvPerG } is required');
+  const bits = input.adc.bits;
+  const fullScaleV = input.adc.fullScaleV;
+  const sensitivityMvPerG = positive(input.sensor.sensitivityMvPerG, 'sensor.sensitivityMvPerG');
+  const fmaxHz = input.fmaxHz === undefined ? fs / 2.56 : positive(input.fmaxHz, 'fmaxHz');
+  if (fmaxHz > fs / 2) throw new RangeError(`fmaxHz ${fmaxHz} is above Nyquist (${fs / 2} Hz)`);
+  const lines = input.lines ?? 3200;
+  if (!Number.isInteger(lines) || lines < 1) throw new RangeError(`lines must be a positive integer, got ${lines}`);
+  const windowName = parseWindowName(String(input.window ?? 'hann'));
+  if (input.speedRpm !== undefined) positive(input.speedRpm, 'speedRpm');
+  if (input.nominalRpm !== undefined) positive(input.nominalRpm, 'nominalRpm');
+  if (input.isoBand !== undefined && !(input.isoBand in ISO_BAND_HZ)) {
+    throw new TypeError(`isoBand must be 'above600' or 'below600', got ${String(input.isoBand)}`);
+  }
+  const bands = input.bands ?? [];
+  checkBands(bands);
+  const peakCount = options.peakCount ?? 10;
+  const tachRpm = input.tach ? tachSpeedRpm(input.tach) : null;
+
+  // ---- counts → g; quality from the counts
+  const accel = scaleToAcceleration(samples, { encoding, bits, fullScaleV, sensitivityMvPerG });
+  const stats = waveformStatistics(accel);
+  for (let i = 0; i < n; i++) accel[i] = accel[i]! - stats.mean;
+
+  // ---- Welch acceleration spectrum
+  const maxSeg = 2 ** Math.floor(Math.log2(n));
+  const nperseg = Math.min(nextPowerOfTwo(Math.ceil((fs * lines) / fmaxHz - 1e-9)), maxSeg);
+  const spec = welch(accel, { sampleRateHz: fs, nperseg, window: windowName, scaling: 'spectrum', detrend: 'constant' });
+  const df = spec.dfHz;
+  const storedLines = Math.min(spec.power.length, Math.floor(fmaxHz / df + 1e-9) + 1);
+
+  const quality = assessQuality(samples, {
+    encoding,
+    bits,
+    fullScaleV,
+    sampleRateHz: fs,
+    fmaxHz,
+    ...(input.antiAliasCutoffHz === undefined ? {} : { antiAliasCutoffHz: input.antiAliasCutoffHz }),
+    spectrum: { power: spec.power, dfHz: df },
+  });
+
+  // ---- ISO band and velocity
+  const bandRpm = tachRpm ?? input.speedRpm ?? input.nominalRpm;
+  const isoBand: IsoBand = input.isoBand ?? (bandRpm !== undefined && bandRpm < ISO_SLOW_MACHINE_RPM ? 'below600' : 'above600');
+  const [isoLo, isoHiNominal] = ISO_BAND_HZ[isoBand];
+  const isoHi = Math.min(isoHiNominal, fmaxHz);
+  const velocityPower = integratePowerSpectrum(spec.power, df, { from: 'g', to: 'mm/s', lowCutoffHz: isoLo });
+  const displacementPower = integratePowerSpectrum(spec.power, df, { from: 'g', to: 'um', lowCutoffHz: isoLo });
+  const enbw = spec.enbwBins;
+  const velocityRmsMmS = bandRms({ power: velocityPower, dfHz: df, enbwBins: enbw }, { loHz: isoLo, hiHz: isoHi });
+  const displacementRmsUm = bandRms({ power: displacementPower, dfHz: df, enbwBins: enbw }, { loHz: isoLo, hiHz: isoHi });
+
+  // ---- one FFT of the whole record, shared by displacement and envelope
+  const full = new Float64Array(2 * n);
+  getFftPlan(n).realForward(full, accel);
+  const displacement = integrateWaveform(accel, {
+    sampleRateHz: fs,
+    from: 'g',
+    to: 'um',
+    lowCutoffHz: isoLo,
+    highCutoffHz: Math.max(isoHi, isoLo * 1.5),
+    spectrum: full,
+  });
+  const displacementPkPkUm = trimmedPeakToPeak(displacement, 0.05);
+
+  // ---- speed
+  let speed: SnapshotAnalysis['speed'] = { rpm: null, hz: null, source: 'none' };
+  if (tachRpm !== null) speed = { rpm: tachRpm, hz: tachRpm / 60, source: 'tach' };
+  else if (input.speedRpm !== undefined) speed = { rpm: input.speedRpm, hz: input.speedRpm / 60, source: 'rpm' };
+  else if (input.nominalRpm !== undefined) {
+    const est = estimateSpeed(spec.power.subarray(0, storedLines), df, {
+      nominalRpm: input.nominalRpm,
+      window: windowName,
+      nperseg,
+      ...(options.speedSearchFraction === undefined ? {} : { searchFraction: options.speedSearchFraction }),
+    });
+    if (est) speed = { rpm: est.rpm, hz: est.hz, source: 'estimated' };
+  }
+  const shaftHz = speed.hz;
+
+  // ---- envelope
+  let envelope: SnapshotAnalysis['spectra']['envelope'] = null;
+  let envelopePower: PowerSpectrum | null = null;
+  const envBand = options.envelopeBandHz ?? [fmaxHz / 4, fmaxHz];
+  if (n >= 256) {
+    const env = envelopeSpectrum(accel, {
+      sampleRateHz: fs,
+      bandHz: envBand,
+      spectrum: full,
+      ...(options.envelopeFmaxHz === undefined ? {} : { fmaxHz: options.envelopeFmaxHz }),
+    });
+    const values = Float32Array.from(env.amplitude);
+    const power = new Float64Array(env.amplitude.length);
+    for (let k = 0; k < power.length; k++) {
+      const amp = env.amplitude[k]!;
+      power[k] = k === 0 ? amp * amp : (amp * amp) / 2;
+    }
+    envelope = { unit: 'g', scale: 'peak', dfHz: env.dfHz, values, window: env.window, bandHz: env.bandHz };
+    envelopePower = { power, dfHz: env.dfHz, enbwBins: env.enbwBins };
+  }
+
+  // ---- orders
+  let order: SnapshotAnalysis['spectra']['order'] = null;
+  if (shaftHz !== null) {
+    const maxOrder = options.maxOrder ?? Math.min(100, fmaxHz / shaftHz);
+    if (speed.source === 'tach' && input.tach) {
+      const cot = computedOrderTracking(accel, input.tach, { sampleRateHz: fs, maxOrder, window: windowName });
+      order = { unit: 'g', scale: 'rms', dOrder: cot.dOrder, values: sqrtToFloat32(cot.power), method: 'computed-order-tracking' };
+    } else {
+      const dOrder = df / shaftHz;
+      const count = Math.min(storedLines, Math.floor(maxOrder / dOrder + 1e-9) + 1);
+      order = { unit: 'g', scale: 'rms', dOrder, values: sqrtToFloat32(spec.power.subarray(0, count)), method: 'hz-axis' };
+    }
+  }
+
+  // ---- peaks, fault frequencies, bands
+  const peaks = findPeaks(spec.power.subarray(0, storedLines), df, { count: peakCount, window: windowName, nperseg }).map(
+    (p) => ({ hz: p.hz, order: shaftHz === null ? null : p.hz / shaftHz, amplitude: p.amplitude }),
+  );
+  const faults = faultFrequencies(input.machine ?? {}, shaftHz);
+  const accelStored = spec.power.subarray(0, storedLines);
+  const values = bandValues(bands, {
+    spectra: {
+      g: { power: accelStored, dfHz: df, enbwBins: enbw },
+      'mm/s': { power: velocityPower.subarray(0, storedLines), dfHz: df, enbwBins: enbw },
+      um: { power: displacementPower.subarray(0, storedLines), dfHz: df, enbwBins: enbw },
+    },
+    envelope: envelopePower,
+    shaftHz,
+    faultFrequencies: faults,
+    overall: { accelRmsG: stats.rms, accelPeakG: stats.peak, velocityRmsMmS, displacementPkPkUm, displacementRmsUm },
+  });
+
+  return {
+    schemaVersion: ANALYSIS_SCHEMA_VERSION,
+    sampleRateHz: fs,
+    sampleCount: n,
+    durationS: n / fs,
+    fmaxHz,
+    quality: {
+      verdict: quality.verdict,
+      bitsUsed: quality.bitsUsed,
+      snrDb: quality.snrDb,
+      findings: quality.findings,
+      metrics: quality.metrics,
+    },
+    overall: {
+      accelRmsG: stats.rms,
+      accelPeakG: stats.peak,
+      velocityRmsMmS,
+      displacementPkPkUm,
+      crestFactor: stats.crestFactor,
+      kurtosis: stats.kurtosis,
+      isoBand,
+      isoBandHz: [isoLo, isoHi],
+    },
+    speed,
+    spectra: {
+      acceleration: {
+        unit: 'g',
+        scale: 'rms',
+        dfHz: df,
+        values: sqrtToFloat32(accelStored),
+        window: windowName,
+        nperseg,
+        averages: spec.segments,
+        enbwBins: enbw,
+      },
+      velocity: {
+        unit: 'mm/s',
+        scale: 'rms',
+        dfHz: df,
+        values: sqrtToFloat32(velocityPower.subarray(0, storedLines)),
+        window: windowName,
+        lowCutoffHz: isoLo,
+      },
+      envelope,
+      order,
+    },
+    peaks,
+    faultFrequencies: faults,
+    bandValues: values,
+  };
+}
+
+function sqrtToFloat32(power: ArrayLike<number>): Float32Array {
+  const out = new Float32Array(power.length);
+  for (let i = 0; i < power.length; i++) out[i] = Math.sqrt(power[i]!);
+  return out;
+}

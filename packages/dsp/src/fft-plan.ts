@@ -1,0 +1,287 @@
+import FFT from 'fft.js';
+
+/**
+ * A cached FFT plan for one transform size. Buffers are interleaved complex
+ * (`[re0, im0, re1, im1, …]`) of length `2 · size`, as in fft.js.
+ *
+ * Power-of-two sizes use fft.js (radix-4, Cooley & Tukey 1965); other sizes use
+ * Bluestein's chirp-z algorithm (Bluestein 1970, IEEE Trans. Audio Electroacoust. 18(4))
+ * on top of a power-of-two fft.js plan, so any length is exact to rounding.
+ */
+export interface FftPlan {
+  /** Transform length. */
+  readonly size: number;
+  /** Forward complex DFT, X_k = Σ x_n e^(−2πikn/N). `out` and `input` must differ. */
+  forward(out: Float64Array, input: Float64Array): void;
+  /** Inverse complex DFT including the 1/N factor. `out` and `input` must differ. */
+  inverse(out: Float64Array, input: Float64Array): void;
+  /**
+   * Forward DFT of a real input of length `size`. Fills bins 0 … ⌊size/2⌋ of `out`
+   * (interleaved, `out.length ≥ 2 · size`); the upper half is left unspecified.
+   */
+  realForward(out: Float64Array, input: Float64Array): void;
+}
+
+const plans = new Map<number, FftPlan>();
+
+/** True when `n` is a power of two (1, 2, 4, …). */
+export function isPowerOfTwo(n: number): boolean {
+  return Number.isInteger(n) && n > 0 && (n & (n - 1)) === 0;
+}
+
+/** Smallest power of two ≥ `n`. */
+export function nextPowerOfTwo(n: number): number {
+  let p = 1;
+  while (p < n) p *= 2;
+  return p;
+}
+
+/**
+ * Returns the FFT plan for `size`, creating it on first use and caching it per size
+ * (twiddle tables and scratch buffers are built once).
+ */
+export function getFftPlan(size: number): FftPlan {
+  if (!Number.isInteger(size) || size < 1) {
+    throw new RangeError(`FFT size must be a positive integer, got ${size}`);
+  }
+  let plan = plans.get(size);
+  if (!plan) {
+    plan = size === 1 ? trivialPlan() : isPowerOfTwo(size) ? radixPlan(size) : bluesteinPlan(size);
+    plans.set(size, plan);
+  }
+  return plan;
+}
+
+function trivialPlan(): FftPlan {
+  const copy = (out: Float64Array, input: Float64Array): void => {
+    out[0] = input[0] ?? 0;
+    out[1] = input[1] ?? 0;
+  };
+  return {
+    size: 1,
+    forward: copy,
+    inverse: copy,
+    realForward(out, input) {
+      out[0] = input[0] ?? 0;
+      out[1] = 0;
+    },
+  };
+}
+
+function radixPlan(size: number): FftPlan {
+  const fft = new FFT(size);
+  return {
+    size,
+    forward: (out, input) => fft.transform(out, input),
+    inverse: (out, input) => fft.inverseTransform(out, input),
+    realForward: (out, input) => fft.realTransform(out, input),
+  };
+}
+
+function bluesteinPlan(n: number): FftPlan {
+  const m = nextPowerOfTwo(2 * n - 1);
+  const inner = radixPlan(m);
+  // chirp w_k = exp(−iπk²/n); k² is reduced mod 2n so the angle stays exact for large k.
+  const chirp = new Float64Array(2 * n);
+  for (let k = 0; k < n; k++) {
+    const angle = (Math.PI * ((k * k) % (2 * n))) / n;
+    chirp[2 * k] = Math.cos(angle);
+    chirp[2 * k + 1] = -Math.sin(angle);
+  }
+  const b = new Float64Array(2 * m);
+  for (let k = 0; k < n; k++) {
+    const re = chirp[2 * k]!;
+    const im = -chirp[2 * k + 1]!;
+    b[2 * k] = re;
+    b[2 * k + 1] = im;
+    if (k > 0) {
+      b[2 * (m - k)] = re;
+      b[2 * (m - k) + 1] = im;
+    }
+  }
+  const bHat = new Float64Array(2 * m);
+  inner.forward(bHat, b);
+  const a = new Float64Array(2 * m);
+  const aHat = new Float64Array(2 * m);
+
+  const forward = (out: Float64Array, input: Float64Array): void => {
+    a.fill(0);
+    for (let k = 0; k < n; k++) {
+      const xr = input[2 * k]!;
+      const xi = input[2 * k + 1]!;
+      const cr = chirp[2 * k]!;
+      const ci = chirp[2 * k + 1]!;
+      a[2 * k] = xr * cr - xi * ci;
+      a[2 * k + 1] = xr * ci + xi * cr;
+    }
+    inner.forward(aHat, a);
+    for (let k = 0; k < m; k++) {
+      const ar = aHat[2 * k]!;
+      const ai = aHat[2 * k + 1]!;
+      const br = bHat[2 * k]!;
+      const bi = bHat[2 * k + 1]!;
+      aHat[2 * k] = ar * br - ai * bi;
+      aHat[2 * k + 1] = ar * bi + ai * br;
+    }
+    inner.inverse(a, aHat);
+    for (let k = 0; k < n; k++) {
+      const yr = a[2 * k]!;
+      const yi = a[2 * k + 1]!;
+      const cr = chirp[2 * k]!;
+      const ci = chirp[2 * k + 1]!;
+      out[2 * k] = yr * cr - yi * ci;
+      out[2 * k + 1] = yr * ci + yi * cr;
+    }
+  };
+  const conj = new Float64Array(2 * n);
+  const complexInput = new Float64Array(2 * n);
+  return {
+    size: n,
+    forward,
+    inverse(out, input) {
+      for (let k = 0; k < n; k++) {
+        conj[2 * k] = input[2 * k]!;
+        conj[2 * k + 1] = -input[2 * k + 1]!;
+      }
+      forward(out, conj);
+      for (let k = 0; k < n; k++) {
+        out[2 * k] = out[2 * k]! / n;
+        out[2 * k + 1] = -out[2 * k + 1]! / n;
+      }
+    },
+    realForward(out, input) {
+      for (let k = 0; k < n; k++) {
+        complexInput[2 * k] = input[k]!;
+        complexInput[2 * k + 1] = 0;
+      }
+      forward(out, complexInput);
+    },
+  };
+}
+
+/** One-sided spectrum of a real signal, bins 0 … ⌊N/2⌋. */
+export interface ComplexSpectrum {
+  re: Float64Array;
+  im: Float64Array;
+}
+
+/**
+ * Discrete Fourier transform of a real sequence, returning bins 0 … ⌊N/2⌋ with the
+ * same convention and scaling as `numpy.fft.rfft` / `scipy.fft.rfft` (no normalisation).
+ *
+ * Source: the DFT definition, X_k = Σ x_n e^(−2πikn/N) (Oppenheim & Schafer,
+ * Discrete-Time Signal Processing); checked live against scipy.fft.rfft.
+ */
+export function rfft(input: ArrayLike<number>): ComplexSpectrum {
+  const n = input.length;
+  if (n < 1) throw new RangeError('rfft needs at least one sample');
+  const plan = getFftPlan(n);
+  const data = input instanceof Float64Array ? input : Float64Array.from(input);
+  for (let i = 0; i < n; i++) {
+    if (!Number.isFinite(data[i]!)) throw new RangeError(`rfft input has a non-finite value at ${i}`);
+  }
+  const out = new Float64Array(2 * n);
+  plan.realForward(out, data);
+  const bins = Math.floor(n / 2) + 1;
+  const re = new Float64Array(bins);
+  const im = new Float64Array(bins);
+  for (let k = 0; k < bins; k++) {
+    re[k] = out[2 * k]!;
+    im[k] = out[2 * k + 1]!;
+  }
+  return { re, im };
+}
+
+const halfScratch = new Map<number, { z: Float64Array; out: Float64Array; twiddle: Float64Array }>();
+
+/**
+ * Real inverse DFT into `out` (length n): the real sequence whose one-sided spectrum is
+ * `spectrum` (interleaved, bins 0 … ⌊n/2⌋; Hermitian symmetry assumed, imaginary parts of
+ * DC and Nyquist ignored), including the 1/n factor. Even n uses one complex transform of
+ * n/2 points (even and odd samples packed as real and imaginary parts); odd n a full
+ * complex transform.
+ *
+ * Source: the "two-for-one" real-FFT packing (Brigham, "The Fast Fourier Transform and
+ * its Applications", 1988, ch. 9; Press et al., Numerical Recipes, §12.3).
+ */
+export function realInverseInto(out: Float64Array, spectrum: Float64Array, n: number): void {
+  if (n % 2 !== 0 || n < 4) {
+    const full = new Float64Array(2 * n);
+    const bins = Math.floor(n / 2) + 1;
+    for (let k = 0; k < bins; k++) {
+      full[2 * k] = spectrum[2 * k]!;
+      full[2 * k + 1] = k === 0 || 2 * k === n ? 0 : spectrum[2 * k + 1]!;
+    }
+    for (let k = bins; k < n; k++) {
+      full[2 * k] = spectrum[2 * (n - k)]!;
+      full[2 * k + 1] = -spectrum[2 * (n - k) + 1]!;
+    }
+    const res = new Float64Array(2 * n);
+    getFftPlan(n).inverse(res, full);
+    for (let i = 0; i < n; i++) out[i] = res[2 * i]!;
+    return;
+  }
+  const h = n / 2;
+  let s = halfScratch.get(n);
+  if (!s) {
+    const twiddle = new Float64Array(2 * h);
+    for (let k = 0; k < h; k++) {
+      twiddle[2 * k] = Math.cos((2 * Math.PI * k) / n);
+      twiddle[2 * k + 1] = Math.sin((2 * Math.PI * k) / n);
+    }
+    s = { z: new Float64Array(2 * h), out: new Float64Array(2 * h), twiddle };
+    halfScratch.set(n, s);
+  }
+  const { z, twiddle } = s;
+  for (let k = 0; k < h; k++) {
+    const ar = spectrum[2 * k]!;
+    const ai = k === 0 ? 0 : spectrum[2 * k + 1]!;
+    const br = spectrum[2 * (h - k)]!;
+    const bi = k === 0 ? 0 : -spectrum[2 * (h - k) + 1]!; // conj(X_{h−k}); X_h is real
+    // E = (X_k + conj X_{h−k}) / 2 ; O = (X_k − conj X_{h−k}) / 2 · e^(+2πik/n)
+    const er = 0.5 * (ar + br);
+    const ei = 0.5 * (ai + bi);
+    const dr = 0.5 * (ar - br);
+    const di = 0.5 * (ai - bi);
+    const wr = twiddle[2 * k]!;
+    const wi = twiddle[2 * k + 1]!;
+    const or = dr * wr - di * wi;
+    const oi = dr * wi + di * wr;
+    // Z = E + i·O
+    z[2 * k] = er - oi;
+    z[2 * k + 1] = ei + or;
+  }
+  getFftPlan(h).inverse(s.out, z);
+  const res = s.out;
+  for (let i = 0; i < h; i++) {
+    out[2 * i] = res[2 * i]!;
+    out[2 * i + 1] = res[2 * i + 1]!;
+  }
+}
+
+/**
+ * Inverse of {@link rfft}: the real sequence of length `n` whose one-sided spectrum is
+ * given (Hermitian symmetry assumed; imaginary parts of DC and Nyquist ignored), as
+ * `numpy.fft.irfft(X, n)`.
+ *
+ * Source: the inverse DFT definition (Oppenheim & Schafer).
+ */
+export function irfft(spectrum: ComplexSpectrum, n: number): Float64Array {
+  if (!Number.isInteger(n) || n < 1) throw new RangeError(`irfft length must be a positive integer`);
+  const bins = Math.floor(n / 2) + 1;
+  if (spectrum.re.length < bins || spectrum.im.length < bins) {
+    throw new RangeError(`irfft of length ${n} needs ${bins} bins`);
+  }
+  const packed = new Float64Array(2 * bins);
+  for (let k = 0; k < bins; k++) {
+    packed[2 * k] = spectrum.re[k]!;
+    packed[2 * k + 1] = spectrum.im[k]!;
+  }
+  const x = new Float64Array(n);
+  if (n === 1) {
+    x[0] = packed[0]!;
+    return x;
+  }
+  realInverseInto(x, packed, n);
+  return x;
+}
