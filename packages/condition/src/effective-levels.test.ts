@@ -43,6 +43,11 @@ describe('effectiveLevels', () => {
     });
   });
 
+  it('when combined by min and mean + kσ lies above the fixed level, the fixed level stays', () => {
+    // 1 + 10·0.5 = 6 > 4
+    expect(effectiveLevels(withRule({ kAlert: 10 }), stats).alertLevel).toBe(4);
+  });
+
   it('when combined by max, alert is the higher of fixed and mean + kσ', () => {
     expect(effectiveLevels(withRule({ combine: 'max' }), stats).alertLevel).toBe(4);
     expect(effectiveLevels(withRule({ combine: 'max', kAlert: 10 }), stats).alertLevel).toBe(6);

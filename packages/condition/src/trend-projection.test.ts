@@ -61,6 +61,15 @@ describe('projectTrend — linear', () => {
     expect(result.crossingAt).toBe(T0 + 3000 * DAY);
   });
 
+  it('when a long history ends within a year of the crossing, the horizon counts from the latest point', () => {
+    // 400 daily points rising 0.005/day from 1: at day 399 the value is 2.995; alert 4 at day 600,
+    // 201 days after the latest point although 600 days after the first (hand arithmetic)
+    const values = Array.from({ length: 400 }, (_, d) => 1 + 0.005 * d);
+    const result = projectTrend(daily(values), levels);
+    expect(result.outcome).toBe('projected');
+    expect(result.crossingAt).toBe(T0 + 600 * DAY);
+  });
+
   it('when there are fewer than 5 points, there is no projection', () => {
     expect(projectTrend(daily([1, 2, 3, 3.5]), levels).outcome).toBe('too-few-points');
     expect(projectTrend([], levels).outcome).toBe('too-few-points');
@@ -87,6 +96,32 @@ describe('projectTrend — linear', () => {
     expect(result.target?.level).toBe('alert');
     expect(result.outcome).toBe('projected');
     expect(result.crossingAt).toBe(T0 + 5 * DAY);
+  });
+});
+
+describe('projectTrend — choosing the fit', () => {
+  // a series where the exponential fit looks better on ln(value) but worse on the values
+  const mixed = [0.8, 1.3, 2.3, 2.3, 2.8, 1.6];
+
+  it('when the log-space R² favours exponential but the value-space R² favours linear, linear is chosen', () => {
+    const result = projectTrend(daily(mixed), levels);
+    expect(result.exponential!.r2Log).toBeGreaterThan(result.linear!.r2);
+    expect(result.exponential!.r2).toBeLessThan(result.linear!.r2);
+    expect(result.fit?.model).toBe('linear');
+  });
+
+  itWithNumpy('when comparing fits on that series, both R² values agree with numpy', () => {
+    // numpy live
+    const [linearR2, expR2, logR2] = runNumpy(
+      `y = np.array(${JSON.stringify(mixed)}); t = np.arange(len(y), dtype=float)
+r2 = lambda o, p: float(1 - np.sum((o - p)**2) / np.sum((o - o.mean())**2))
+pl = np.polyfit(t, y, 1); pe = np.polyfit(t, np.log(y), 1)
+print(json.dumps([r2(y, np.polyval(pl, t)), r2(y, np.exp(np.polyval(pe, t))), r2(np.log(y), np.polyval(pe, t))]))`,
+    ) as [number, number, number];
+    const result = projectTrend(daily(mixed), levels);
+    expect(result.linear?.r2).toBeCloseTo(linearR2, 10);
+    expect(result.exponential?.r2).toBeCloseTo(expR2, 10);
+    expect(result.exponential?.r2Log).toBeCloseTo(logR2, 10);
   });
 });
 
