@@ -50,11 +50,12 @@ export const TEMPLATE_DEFAULTS = {
   order2x: { fromOrder: 1.8, toOrder: 2.2, fraction: 0.5 },
   /**
    * Bearing defect bands on the envelope spectrum, g peak, ± 2 % (rolling elements slip
-   * 1–2 %, Randall & Antoni 2011), fundamental and two harmonics.
+   * 1–2 %, Randall & Antoni 2011), fundamental only (`@turnstone/dsp` reads one harmonic
+   * per band; add bands for higher harmonics).
    */
-  bearing: { halfWidthPercent: 2, harmonics: 3, alertLevel: 0.2, dangerLevel: 0.5 },
-  /** Gear mesh band on the acceleration spectrum, g RMS, ± 3 %, mesh and 2× mesh. */
-  gearMesh: { halfWidthPercent: 3, harmonics: 2, alertLevel: 0.5, dangerLevel: 1.0 },
+  bearing: { halfWidthPercent: 2, harmonics: 1, alertLevel: 0.2, dangerLevel: 0.5 },
+  /** Gear mesh band on the acceleration spectrum, g RMS, ± 3 %, the mesh frequency itself. */
+  gearMesh: { halfWidthPercent: 3, harmonics: 1, alertLevel: 0.5, dangerLevel: 1.0 },
   /** Blade/vane pass band on velocity, ± 3 %, levels as fractions of the ISO levels. */
   bladePass: { halfWidthPercent: 3, harmonics: 1, fraction: 0.5 },
 } as const;
