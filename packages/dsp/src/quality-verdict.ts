@@ -41,7 +41,7 @@ export interface QualityResult {
   verdict: QualityVerdict;
   /** Bits actually used: log2 of the peak-to-peak in counts (0 for a constant signal). */
   bitsUsed: number;
-  /** Ideal quantization SNR of the bits used, 6.02·N + 1.76 dB (Kester MT-001). */
+  /** Ideal quantization SNR of the bits used, 6.02·N + 1.76 dB (exact constants; Kester MT-001). */
   snrDb: number;
   findings: QualityFinding[];
   metrics: QualityMetrics;

@@ -1,0 +1,70 @@
+// Runs Debian's Python with scipy for live reference checks. Missing scipy fails with a
+// clear message when CI is set and skips (with a warning) elsewhere.
+import { spawnSync } from 'node:child_process';
+
+function probe(candidate: string): boolean {
+  const r = spawnSync(candidate, ['-c', 'import scipy, numpy'], { encoding: 'utf8' });
+  return r.status === 0;
+}
+
+export const python: string | null = ['/usr/bin/python3', 'python3'].find(probe) ?? null;
+
+export const MISSING_SCIPY =
+  'scipy is not available: install python3-scipy (Debian) so /usr/bin/python3 can import scipy and numpy';
+
+/** True when the reference checks can run; throws in CI, warns and returns false elsewhere. */
+export function scipyAvailable(): boolean {
+  if (python) return true;
+  if (process.env.CI) throw new Error(MISSING_SCIPY);
+  console.warn(`skipping scipy reference checks: ${MISSING_SCIPY}`);
+  return false;
+}
+
+/**
+ * Runs `script` with the JSON-encoded `input` on stdin (available as `data`); the script
+ * must print one JSON document (e.g. `print(json.dumps(out))`).
+ */
+export function runPython<T>(script: string, input: unknown): T {
+  if (!python) throw new Error(MISSING_SCIPY);
+  const prelude = 'import sys, json\nimport numpy as np\ndata = json.load(sys.stdin)\n';
+  const r = spawnSync(python, ['-c', prelude + script], {
+    input: JSON.stringify(input),
+    encoding: 'utf8',
+    maxBuffer: 1 << 28,
+  });
+  if (r.status !== 0) throw new Error(`python failed (${r.status}): ${r.stderr}`);
+  return JSON.parse(r.stdout) as T;
+}
+
+/** Largest |a − b| / |b| over paired values (b = the reference). */
+export function maxRelativeError(actual: ArrayLike<number>, reference: ArrayLike<number>): number {
+  if (actual.length !== reference.length) {
+    throw new Error(`length ${actual.length} differs from the reference's ${reference.length}`);
+  }
+  let worst = 0;
+  for (let i = 0; i < actual.length; i++) {
+    const b = reference[i]!;
+    const e = Math.abs(actual[i]! - b) / Math.abs(b);
+    if (!(e <= worst)) worst = e; // NaN propagates as a failure
+  }
+  return worst;
+}
+
+/** Deterministic test signal: tones plus uniform noise from a 32-bit LCG (no Math.random). */
+export function testSignal(n: number, fs: number, seed = 1): number[] {
+  let state = seed >>> 0;
+  const rand = (): number => {
+    state = (Math.imul(state, 1664525) + 1013904223) >>> 0;
+    return state / 2 ** 32 - 0.5;
+  };
+  const x: number[] = new Array(n);
+  for (let i = 0; i < n; i++) {
+    const t = i / fs;
+    x[i] =
+      0.3 +
+      1.0 * Math.sin(2 * Math.PI * 123.4 * t) +
+      0.25 * Math.sin(2 * Math.PI * 2345.6 * t + 0.7) +
+      0.5 * rand();
+  }
+  return x;
+}
