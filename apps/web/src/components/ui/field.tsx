@@ -5,17 +5,20 @@ const control =
   'block w-full rounded-md border bg-surface px-3 text-sm text-ink placeholder:text-ink-faint transition-colors focus-visible:border-accent disabled:bg-sunken';
 
 /** Text input; pass `invalid` to mark it for assistive technology and with a red border. */
+const heights = { sm: 'h-9', md: 'h-10' } as const;
+
 export function Input({
   className,
   invalid,
+  controlSize = 'md',
   ...props
-}: ComponentProps<'input'> & { invalid?: boolean }) {
+}: ComponentProps<'input'> & { invalid?: boolean; controlSize?: keyof typeof heights }) {
   return (
     <input
       aria-invalid={invalid || undefined}
       className={cn(
         control,
-        'h-10',
+        heights[controlSize],
         invalid ? 'border-status-danger' : 'border-line-strong',
         className,
       )}

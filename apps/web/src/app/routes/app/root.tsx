@@ -48,11 +48,7 @@ export function AppRoot() {
       user={
         <UserMenu
           user={me.data}
-          // flushSync: leave the page before the session is cleared, so the guard above
-          // does not remember this page as the place to come back to.
-          onSignedOut={() =>
-            navigate(paths.auth.signIn.getHref(), { replace: true, flushSync: true })
-          }
+          onSignedOut={() => navigate(paths.auth.signIn.getHref(), { replace: true })}
         />
       }
     >

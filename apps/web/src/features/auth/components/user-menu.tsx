@@ -3,7 +3,13 @@ import type { Me } from '@turnstone/contracts/auth';
 import { Button } from '../../../components/ui/button.tsx';
 import { useSignOut } from '../api/sign-out.ts';
 
-export function UserMenu({ user, onSignedOut }: { user: Me; onSignedOut: () => void }) {
+export function UserMenu({
+  user,
+  onSignedOut,
+}: {
+  user: Me;
+  onSignedOut: () => void | Promise<void>;
+}) {
   const signOut = useSignOut({ onSuccess: onSignedOut });
   return (
     <div className="flex items-center gap-3">

@@ -37,20 +37,20 @@ export function FleetStatusCounts({
                 aria-pressed={pressed}
                 onClick={() => onSelect(pressed ? null : status)}
                 className={cn(
-                  'flex w-full flex-col items-start gap-1 rounded-lg border px-3 py-2.5 text-left transition-colors',
+                  'flex w-full items-center justify-between gap-2 rounded-lg border px-3 py-2 text-left transition-colors',
                   pressed
                     ? 'border-accent bg-accent-soft shadow-[inset_0_0_0_1px_var(--color-accent)]'
                     : 'border-line bg-surface hover:border-line-strong',
                   count === 0 && !pressed && 'opacity-70',
                 )}
               >
-                <span className="flex items-center gap-1.5 text-[13px] text-ink-muted">
+                <span className="flex min-w-0 items-center gap-1.5 text-[13px] whitespace-nowrap text-ink-muted">
                   <StatusShape status={status} className={cn('size-3', shapeColour[status])} />
                   {statusLabels[status]}
                 </span>
-                <span className="font-mono text-xl leading-none font-medium text-ink">
+                <span className="font-mono text-lg leading-6 font-medium text-ink">
                   {formatInteger(count)}
-                  <span className="sr-only"> machines</span>
+                  <span className="sr-only">{count === 1 ? ' machine' : ' machines'}</span>
                 </span>
               </button>
             </li>

@@ -51,7 +51,8 @@ export function FleetToolbar({
             placeholder="Name or tag, e.g. P-101"
             autoComplete="off"
             spellCheck={false}
-            className="h-9 pl-8"
+            controlSize="sm"
+            className="pl-8"
           />
         </div>
       </div>

@@ -6,7 +6,7 @@ import { directionLabels, machineTypeLabels } from '../utils/fleet-labels.ts';
 
 /** Grid shared by the column header and every row, so columns line up. */
 export const fleetGridColumns =
-  'grid grid-cols-[minmax(0,1fr)_8.5rem_12.5rem_6.5rem] lg:grid-cols-[minmax(0,1fr)_10rem_16rem_8rem] gap-x-3';
+  'grid grid-cols-[minmax(0,1fr)_10.25rem_7.75rem_6.5rem] lg:grid-cols-[minmax(0,1fr)_16rem_9.5rem_8rem] gap-x-3';
 
 export const rowHeights: Record<FleetRow['kind'], number> = {
   site: 44,
@@ -39,7 +39,7 @@ function Chevron({ expanded, hidden }: { expanded: boolean; hidden: boolean }) {
 }
 
 function Age({ iso, now }: { iso: string | null; now: number }) {
-  if (!iso) return <span className="text-ink-faint">never</span>;
+  if (!iso) return <span className="text-[12.5px] text-ink-faint">never</span>;
   return (
     <time
       dateTime={iso}
@@ -51,9 +51,9 @@ function Age({ iso, now }: { iso: string | null; now: number }) {
   );
 }
 
-function Count({ n, noun }: { n: number; noun: string }) {
+function Count({ n, noun, className }: { n: number; noun: string; className?: string }) {
   return (
-    <span className="shrink-0 text-xs text-ink-faint">
+    <span className={cn('shrink-0 text-xs text-ink-faint', className)}>
       <span className="font-mono">{formatInteger(n)}</span> {noun}
       {n === 1 ? '' : 's'}
     </span>
@@ -83,7 +83,7 @@ function NameCell({ row }: { row: FleetRow }) {
       return (
         <>
           <span className="truncate text-[13.5px] font-medium">{row.machine.name}</span>
-          <Count n={row.machine.points.length} noun="point" />
+          <Count n={row.machine.points.length} noun="point" className="hidden lg:inline" />
         </>
       );
     case 'point':
@@ -94,7 +94,6 @@ function NameCell({ row }: { row: FleetRow }) {
 function DetailCell({ row }: { row: FleetRow }) {
   switch (row.kind) {
     case 'site':
-      return <span className="truncate font-mono text-xs text-ink-faint">{row.site.timeZone}</span>;
     case 'area':
       return null;
     case 'machine':
@@ -176,16 +175,22 @@ export function FleetTreeRow({
       )}
     >
       <span
-        className="flex min-w-0 items-center gap-2"
+        className={cn(
+          'flex min-w-0 items-center gap-2',
+          (row.kind === 'site' || row.kind === 'area') && 'col-span-2',
+        )}
         style={{ paddingLeft: `${0.75 + (row.level - 1) * 1.25}rem` }}
       >
         <Chevron expanded={expanded} hidden={!expandable} />
         <NameCell row={row} />
       </span>
+      {/* Sites and areas have no details: their name may use that column too. */}
+      {row.kind !== 'site' && row.kind !== 'area' && (
+        <span className="min-w-0">
+          <DetailCell row={row} />
+        </span>
+      )}
       <StatusMark status={row.status} />
-      <span className="min-w-0">
-        <DetailCell row={row} />
-      </span>
       <span className="text-right">
         {row.kind === 'machine' && <Age iso={row.lastTakenAt} now={now} />}
         {row.kind === 'point' && <Age iso={row.point.lastTakenAt} now={now} />}

@@ -1,9 +1,22 @@
 import { useVirtualizer } from '@tanstack/react-virtual';
-import { useId, useRef, useState, type KeyboardEvent } from 'react';
+import { useId, useMemo, useRef, useState, type KeyboardEvent } from 'react';
 import { useNow } from '../../../hooks/use-now.ts';
 import { cn } from '../../../lib/cn.ts';
 import type { FleetRow } from '../utils/build-fleet-rows.ts';
 import { FleetTreeRow, fleetGridColumns, rowHeights } from './fleet-tree-row.tsx';
+
+function rowName(row: FleetRow): string {
+  switch (row.kind) {
+    case 'site':
+      return row.site.name;
+    case 'area':
+      return row.area.name;
+    case 'machine':
+      return row.machine.name;
+    case 'point':
+      return row.point.name;
+  }
+}
 
 function isExpandable(row: FleetRow): boolean {
   if (row.kind === 'point') return false;
@@ -44,6 +57,17 @@ export function FleetTree({
     overscan: 12,
   });
   const items = virtualizer.getVirtualItems();
+
+  // Where the first visible row sits (site › area › machine), so a scrolled list keeps its place.
+  const indexByKey = useMemo(() => new Map(rows.map((r, i) => [r.key, i])), [rows]);
+  const trail: string[] = [];
+  let parent = rows[virtualizer.range?.startIndex ?? 0]?.parentKey ?? null;
+  while (parent !== null) {
+    const row = rows[indexByKey.get(parent) ?? -1];
+    if (!row) break;
+    trail.unshift(rowName(row));
+    parent = row.parentKey;
+  }
 
   const rowId = (key: string) => `${treeId}-${key.replace(':', '-')}`;
   const activeRendered = items.some((item) => item.index === activeIndex);
@@ -105,13 +129,22 @@ export function FleetTree({
         aria-hidden="true"
         className={cn(
           fleetGridColumns,
-          'overflow-hidden border-b border-line-strong py-2 pr-3 text-[11px] font-semibold tracking-wider text-ink-faint uppercase [scrollbar-gutter:stable]',
+          'overflow-hidden border-b border-line-strong py-2 pr-3 text-[11px] font-semibold tracking-wide text-ink-faint uppercase [scrollbar-gutter:stable]',
         )}
       >
-        <span className="pl-3">Site / area / machine / point</span>
+        {trail.length > 0 ? (
+          <span className="truncate pl-3 tracking-normal text-ink-muted normal-case">
+            {trail.join(' › ')}
+          </span>
+        ) : (
+          <span className="truncate pl-3">Site / area / machine / point</span>
+        )}
+        <span className="truncate">
+          <span className="lg:hidden">Type · tag</span>
+          <span className="hidden lg:inline">Type, speed · tag, direction</span>
+        </span>
         <span>Status</span>
-        <span>Type, speed · tag, direction</span>
-        <span className="text-right">Last snapshot</span>
+        <span className="text-right whitespace-nowrap">Last snapshot</span>
       </div>
       <div
         ref={scrollRef}

@@ -95,10 +95,12 @@ const includes = (text: string, needle: string) => text.toLowerCase().includes(n
 
 /**
  * The points of `machine` that pass the filter, or null when the machine does not pass.
- * A machine passes the text filter by its own name (then all its points stay) or through
- * matching points; it passes the status filter by its own status or a point's status.
+ * Text: a machine passes by its own name (then all its points stay) or through matching
+ * points. Status: a machine passes by its own worst status, the same figure the counts show;
+ * of its points, those with that status are shown (all of them when none has it).
  */
 function filterMachine(machine: FleetMachine, needle: string, status: NodeStatus | null) {
+  if (status && machine.status !== status) return null;
   let points = machine.points;
   if (needle && !includes(machine.name, needle)) {
     points = points.filter((p) => includes(p.name, needle) || includes(p.tag, needle));
@@ -107,7 +109,6 @@ function filterMachine(machine: FleetMachine, needle: string, status: NodeStatus
   if (status) {
     const matching = points.filter((p) => p.status === status);
     if (matching.length > 0) points = matching;
-    else if (machine.status !== status) return null;
   }
   return points;
 }
