@@ -5,7 +5,7 @@ import { envelopeSpectrum } from './envelope.ts';
 import { faultFrequencies, type FaultFrequency, type MachineComponents } from './fault-frequencies.ts';
 import { getFftPlan, nextPowerOfTwo } from './fft-plan.ts';
 import { integratePowerSpectrum } from './integrate-spectrum.ts';
-import { integrateWaveform, trimmedPeakToPeak } from './integrate-waveform.ts';
+import { integrateWaveform, taperEnds, trimmedPeakToPeak } from './integrate-waveform.ts';
 import { computedOrderTracking, tachSpeedRpm, type TachPulses } from './order-tracking.ts';
 import { assessQuality, type QualityFinding, type QualityMetrics, type QualityVerdict } from './quality-verdict.ts';
 import { scaleToAcceleration } from './scale-samples.ts';
@@ -13,7 +13,7 @@ import { findPeaks } from './spectral-peaks.ts';
 import { estimateSpeed } from './speed-estimate.ts';
 import { waveformStatistics } from './waveform-statistics.ts';
 import { welch } from './welch.ts';
-import { getWindow, parseWindowName, type WindowName } from './window-functions.ts';
+import { parseWindowName, type WindowName } from './window-functions.ts';
 
 /** Version of the {@link SnapshotAnalysis} shape; bumped on any breaking change. */
 export const ANALYSIS_SCHEMA_VERSION = 1;
@@ -105,7 +105,7 @@ export interface SnapshotAnalysis {
     accelPeakG: number;
     /** Velocity RMS over the ISO band, mm/s. */
     velocityRmsMmS: number;
-    /** Displacement peak-to-peak over the ISO band, µm (time waveform, ends trimmed 5 %). */
+    /** Displacement peak-to-peak over the ISO band, µm: frequency-domain double integration of the waveform, measured on its middle 80 %. */
     displacementPkPkUm: number;
     crestFactor: number;
     /** Pearson kurtosis (sine 1.5, Gaussian 3). */
@@ -144,6 +144,8 @@ function positive(value: unknown, what: string): number {
 }
 
 const MIN_SAMPLES = 64;
+/** Fraction of the record tapered at each end before waveform integration (2× it is skipped when measuring). */
+const DISPLACEMENT_TAPER = 0.05;
 
 /**
  * Everything Turnstone shows about one snapshot, in one call: counts → g, quality verdict
@@ -223,18 +225,21 @@ export function analyzeSnapshot(input: SnapshotInput, options: AnalyzeSnapshotOp
   const velocityRmsMmS = bandRms({ power: velocityPower, dfHz: df, enbwBins: enbw }, { loHz: isoLo, hiHz: isoHi });
   const displacementRmsUm = bandRms({ power: displacementPower, dfHz: df, enbwBins: enbw }, { loHz: isoLo, hiHz: isoHi });
 
-  // ---- one FFT of the whole record, shared by displacement and envelope
+  // ---- one FFT of the whole (end-tapered) record, shared by displacement and envelope;
+  // the envelope spectrum's own Hann window already gives the tapered ends ~zero weight.
+  const tapered = taperEnds(Float64Array.from(accel), DISPLACEMENT_TAPER);
   const full = new Float64Array(2 * n);
-  getFftPlan(n).realForward(full, accel);
+  getFftPlan(n).realForward(full, tapered);
   const displacement = integrateWaveform(accel, {
     sampleRateHz: fs,
     from: 'g',
     to: 'um',
     lowCutoffHz: isoLo,
     highCutoffHz: Math.max(isoHi, isoLo * 1.5),
+    taperFraction: DISPLACEMENT_TAPER,
     spectrum: full,
   });
-  const displacementPkPkUm = trimmedPeakToPeak(displacement, 0.05);
+  const displacementPkPkUm = trimmedPeakToPeak(displacement, 2 * DISPLACEMENT_TAPER);
 
   // ---- speed
   let speed: SnapshotAnalysis['speed'] = { rpm: null, hz: null, source: 'none' };

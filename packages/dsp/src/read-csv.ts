@@ -36,7 +36,7 @@ function parseNumber(text: string): number {
 export function readCsv(text: string, options: ReadCsvOptions = {}): CsvRecording {
   if (typeof text !== 'string') throw new TypeError('readCsv expects a string');
   const jitter = options.timeJitter ?? 0.01;
-  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { skipEmptyLines: 'greedy' });
+  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { skipEmptyLines: true });
   const rows = parsed.data;
   if (rows.length === 0) throw new Error('empty CSV: no rows');
   if (text.includes('\u0000')) throw new Error('not a CSV file: it contains binary data');
