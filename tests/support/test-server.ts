@@ -14,14 +14,23 @@ import { start, type RunningServer } from '../../apps/server/src/server.ts';
 export const DEMO_PASSWORD = 'turnstone-demo';
 export const demoEmail = (role: string) => `${role}@turnstone.local`;
 
+/** A fetch Response whose JSON is loosely typed: tests assert on its shape. */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export type TestResponse = Omit<Response, 'json'> & { json(): Promise<any> };
+
 export interface TestServer extends RunningServer {
   databaseUrl: string;
   /** fetch against the server; JSON bodies are encoded; `cookie` signs the call in. */
   call(
     method: string,
     path: string,
-    init?: { body?: unknown; cookie?: string; headers?: Record<string, string>; raw?: string },
-  ): Promise<Response>;
+    init?: {
+      body?: unknown;
+      cookie?: string;
+      headers?: Record<string, string>;
+      raw?: string | Uint8Array | FormData;
+    },
+  ): Promise<TestResponse>;
   signIn(role: string, password?: string): Promise<string>;
 }
 
@@ -69,12 +78,17 @@ export async function startTestServer(env: Record<string, string> = {}): Promise
   const call: TestServer['call'] = (method, path, init = {}) => {
     const headers: Record<string, string> = { ...(init.headers ?? {}) };
     if (init.cookie) headers.cookie = init.cookie;
-    let body: string | undefined = init.raw;
+    let body: string | Uint8Array | FormData | undefined = init.raw;
     if (init.body !== undefined) {
       body = JSON.stringify(init.body);
       headers['content-type'] ??= 'application/json';
     }
-    return fetch(server.url + path, { method, headers, body, redirect: 'manual' });
+    return fetch(server.url + path, {
+      method,
+      headers,
+      body,
+      redirect: 'manual',
+    }) as Promise<TestResponse>;
   };
   const signIn: TestServer['signIn'] = async (role, password = DEMO_PASSWORD) => {
     const res = await call('POST', '/api/v1/auth/sign-in', {

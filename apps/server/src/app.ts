@@ -12,10 +12,14 @@ import { webDist } from './lib/web-build.ts';
 import { authRouter, authRoutes, createAuthenticate } from './features/auth/auth-router.ts';
 import { fleetRoutes } from './features/fleet/fleet-router.ts';
 import { healthRouter } from './features/health/health-router.ts';
+import { gatewayRoutes } from './features/gateways/gateways-router.ts';
+import { ingestRouter } from './features/ingest/ingest-router.ts';
+import { uploadRoutes } from './features/uploads/uploads-router.ts';
+import { snapshotRoutes } from './features/snapshots/snapshots-router.ts';
 
 /** The feature routes below /api/v1 (auth mounts its own, behind its rate limiters). */
 function featureRoutes(ctx: AppContext): RouteSpec[] {
-  return [...fleetRoutes(ctx)];
+  return [...fleetRoutes(ctx), ...gatewayRoutes(ctx), ...uploadRoutes(ctx), ...snapshotRoutes(ctx)];
 }
 
 /** Every dashboard route below /api/v1: the access table the role × route test walks. */
@@ -86,6 +90,7 @@ export function createApp(ctx: AppContext) {
   api.use(authRouter(ctx, authenticate));
   mountRoutes(api, featureRoutes(ctx), authenticate);
   app.use('/api', healthRouter(ctx));
+  app.use('/api/ingest/v1', ingestRouter(ctx));
   app.use('/api/v1', api);
   app.use('/api', apiNotFound);
 

@@ -43,6 +43,12 @@ const envSchema = z.object({
   SIGN_IN_MAX_PER_ACCOUNT: z.coerce.number().int().positive().default(5),
   SIGN_IN_MAX_PER_IP: z.coerce.number().int().positive().default(50),
   SIGN_IN_WINDOW_MIN: z.coerce.number().positive().default(15),
+  /** Requests per minute one gateway may make to the ingest API. */
+  INGEST_MAX_PER_MIN: z.coerce.number().int().positive().default(6000),
+  /** Days to keep raw waveforms; analyses and trends stay. 0 keeps them for ever. */
+  RETENTION_DAYS: z.coerce.number().int().min(0).default(90),
+  /** Queue: how long a claimed job is leased before another worker may take it (s). */
+  JOB_LEASE_S: z.coerce.number().positive().default(60),
   /** Log level: error, warn, info, debug. */
   LOG_LEVEL: z.enum(['error', 'warn', 'info', 'debug', 'silent']).default('info'),
 });

@@ -17,11 +17,14 @@ import { createLogger } from './lib/logger.ts';
 import { loadOrCreateSecrets } from './lib/secrets.ts';
 import { ensureWebBuilt } from './lib/web-build.ts';
 import { seedIfEmpty } from './features/demo/demo-seed.ts';
+import { createWorker, type Worker } from './features/worker/worker.ts';
 
 export interface RunningServer {
   url: string;
   port: number;
   ctx: AppContext;
+  /** The in-process worker when RUN_WORKER is on. */
+  worker: Worker | null;
   stop(): Promise<void>;
 }
 
@@ -60,6 +63,12 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
       s.on('error', reject);
     });
     const port = (server.address() as AddressInfo).port;
+    let worker: Worker | null = null;
+    if (config.RUN_WORKER) {
+      worker = createWorker(ctx);
+      worker.start();
+      cleanup.push(() => worker!.stop());
+    }
     const host = config.HOST === '0.0.0.0' ? '127.0.0.1' : config.HOST;
     const publicUrl = `http://${host}:${port}`;
 
@@ -75,7 +84,7 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
       })();
       return stopped;
     };
-    return { url: publicUrl, port, ctx, stop };
+    return { url: publicUrl, port, ctx, worker, stop };
   } catch (err) {
     await dbHandle.close().catch(() => {});
     await localDb?.stop();

@@ -79,16 +79,8 @@ CREATE TABLE `audit_log` (
 	`before` json,
 	`after` json,
 	`reason` text,
-	`created_at` datetime(3) NOT NULL DEFAULT CURRENT_TIMESTAMP(3),
+	`at` datetime(3) NOT NULL DEFAULT CURRENT_TIMESTAMP(3),
 	CONSTRAINT `audit_log_id` PRIMARY KEY(`id`)
-);
---> statement-breakpoint
-CREATE TABLE `band_states` (
-	`point_id` int NOT NULL,
-	`band_key` varchar(64) NOT NULL,
-	`state` json NOT NULL,
-	`updated_at` datetime(3) NOT NULL,
-	CONSTRAINT `band_states_point_id_band_key_pk` PRIMARY KEY(`point_id`,`band_key`)
 );
 --> statement-breakpoint
 CREATE TABLE `band_values` (
@@ -109,25 +101,11 @@ CREATE TABLE `bands` (
 	`key` varchar(64) NOT NULL,
 	`name` varchar(200) NOT NULL,
 	`kind` enum('overall','hz','order','fault') NOT NULL,
-	`quantity` enum('acceleration','velocity','displacement','envelope') NOT NULL,
-	`low_hz` double,
-	`high_hz` double,
-	`low_order` double,
-	`high_order` double,
-	`fault_name` varchar(32),
-	`fault_width` double,
-	`measure` enum('rms','peak') NOT NULL DEFAULT 'rms',
+	`spectrum` enum('acceleration','velocity','displacement','envelope') NOT NULL,
 	`unit` varchar(16) NOT NULL,
-	`alert_level` double,
-	`danger_level` double,
-	`persistence` smallint NOT NULL DEFAULT 1,
-	`hysteresis` double NOT NULL DEFAULT 0.9,
-	`stat_k` double,
-	`stat_n` int,
-	`baseline_mean` double,
-	`baseline_std` double,
-	`baseline_count` int,
-	`baseline_at` datetime(3),
+	`alert_level` double NOT NULL,
+	`danger_level` double NOT NULL,
+	`definition` json NOT NULL,
 	`sort_order` smallint NOT NULL DEFAULT 0,
 	CONSTRAINT `bands_id` PRIMARY KEY(`id`),
 	CONSTRAINT `bands_set_key_uq` UNIQUE(`limit_set_id`,`key`)
@@ -253,6 +231,15 @@ CREATE TABLE `outbox` (
 	CONSTRAINT `outbox_dedupe_uq` UNIQUE(`dedupe_key`)
 );
 --> statement-breakpoint
+CREATE TABLE `point_states` (
+	`point_id` int NOT NULL,
+	`state` json NOT NULL,
+	`evaluated_taken_at` datetime(3),
+	`limit_set_version` int NOT NULL DEFAULT 0,
+	`updated_at` datetime(3) NOT NULL,
+	CONSTRAINT `point_states_point_id` PRIMARY KEY(`point_id`)
+);
+--> statement-breakpoint
 CREATE TABLE `points` (
 	`id` int AUTO_INCREMENT NOT NULL,
 	`machine_id` int NOT NULL,
@@ -309,7 +296,7 @@ CREATE TABLE `snapshots` (
 	`gateway_id` int,
 	`source` enum('gateway','upload') NOT NULL,
 	`taken_at` datetime(3) NOT NULL,
-	`created_at` datetime(3) NOT NULL DEFAULT CURRENT_TIMESTAMP(3),
+	`received_at` datetime(3) NOT NULL DEFAULT CURRENT_TIMESTAMP(3),
 	`sample_rate_hz` double NOT NULL,
 	`sample_count` int NOT NULL,
 	`encoding` enum('int16','int24','int32','float32') NOT NULL,
@@ -381,7 +368,6 @@ ALTER TABLE `analyses` ADD CONSTRAINT `analyses_snapshot_id_snapshots_id_fk` FOR
 ALTER TABLE `analyses` ADD CONSTRAINT `analyses_point_id_points_id_fk` FOREIGN KEY (`point_id`) REFERENCES `points`(`id`) ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `areas` ADD CONSTRAINT `areas_site_id_sites_id_fk` FOREIGN KEY (`site_id`) REFERENCES `sites`(`id`) ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `audit_log` ADD CONSTRAINT `audit_log_actor_user_id_users_id_fk` FOREIGN KEY (`actor_user_id`) REFERENCES `users`(`id`) ON DELETE no action ON UPDATE no action;--> statement-breakpoint
-ALTER TABLE `band_states` ADD CONSTRAINT `band_states_point_id_points_id_fk` FOREIGN KEY (`point_id`) REFERENCES `points`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `band_values` ADD CONSTRAINT `band_values_analysis_id_analyses_id_fk` FOREIGN KEY (`analysis_id`) REFERENCES `analyses`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `band_values` ADD CONSTRAINT `band_values_point_id_points_id_fk` FOREIGN KEY (`point_id`) REFERENCES `points`(`id`) ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `bands` ADD CONSTRAINT `bands_limit_set_id_limit_sets_id_fk` FOREIGN KEY (`limit_set_id`) REFERENCES `limit_sets`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
@@ -395,6 +381,7 @@ ALTER TABLE `jobs` ADD CONSTRAINT `jobs_snapshot_id_snapshots_id_fk` FOREIGN KEY
 ALTER TABLE `limit_sets` ADD CONSTRAINT `limit_sets_point_id_points_id_fk` FOREIGN KEY (`point_id`) REFERENCES `points`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `limit_sets` ADD CONSTRAINT `limit_sets_updated_by_users_id_fk` FOREIGN KEY (`updated_by`) REFERENCES `users`(`id`) ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `machines` ADD CONSTRAINT `machines_area_id_areas_id_fk` FOREIGN KEY (`area_id`) REFERENCES `areas`(`id`) ON DELETE no action ON UPDATE no action;--> statement-breakpoint
+ALTER TABLE `point_states` ADD CONSTRAINT `point_states_point_id_points_id_fk` FOREIGN KEY (`point_id`) REFERENCES `points`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `points` ADD CONSTRAINT `points_machine_id_machines_id_fk` FOREIGN KEY (`machine_id`) REFERENCES `machines`(`id`) ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `points` ADD CONSTRAINT `points_bearing_id_bearings_id_fk` FOREIGN KEY (`bearing_id`) REFERENCES `bearings`(`id`) ON DELETE set null ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `quality_notices` ADD CONSTRAINT `quality_notices_point_id_points_id_fk` FOREIGN KEY (`point_id`) REFERENCES `points`(`id`) ON DELETE no action ON UPDATE no action;--> statement-breakpoint
@@ -415,7 +402,7 @@ CREATE INDEX `alerts_state_idx` ON `alerts` (`state`,`last_at`);--> statement-br
 CREATE INDEX `alerts_point_idx` ON `alerts` (`point_id`,`band_key`,`state`);--> statement-breakpoint
 CREATE INDEX `analyses_point_taken_idx` ON `analyses` (`point_id`,`taken_at`);--> statement-breakpoint
 CREATE INDEX `audit_entity_idx` ON `audit_log` (`entity`,`entity_id`);--> statement-breakpoint
-CREATE INDEX `audit_at_idx` ON `audit_log` (`created_at`);--> statement-breakpoint
+CREATE INDEX `audit_at_idx` ON `audit_log` (`at`);--> statement-breakpoint
 CREATE INDEX `band_values_trend_idx` ON `band_values` (`point_id`,`band_key`,`taken_at`);--> statement-breakpoint
 CREATE INDEX `bearings_machine_idx` ON `bearings` (`machine_id`);--> statement-breakpoint
 CREATE INDEX `findings_point_idx` ON `findings` (`point_id`);--> statement-breakpoint
@@ -432,7 +419,7 @@ CREATE INDEX `quality_notices_point_idx` ON `quality_notices` (`point_id`,`taken
 CREATE INDEX `quality_notices_open_idx` ON `quality_notices` (`reviewed_at`);--> statement-breakpoint
 CREATE INDEX `snapshots_point_taken_idx` ON `snapshots` (`point_id`,`taken_at`);--> statement-breakpoint
 CREATE INDEX `snapshots_status_idx` ON `snapshots` (`status`);--> statement-breakpoint
-CREATE INDEX `snapshots_received_idx` ON `snapshots` (`created_at`);--> statement-breakpoint
+CREATE INDEX `snapshots_received_idx` ON `snapshots` (`received_at`);--> statement-breakpoint
 CREATE INDEX `subscriptions_user_idx` ON `subscriptions` (`user_id`);--> statement-breakpoint
 CREATE INDEX `subscriptions_site_idx` ON `subscriptions` (`site_id`);--> statement-breakpoint
 CREATE INDEX `user_sites_site_idx` ON `user_sites` (`site_id`);

@@ -258,7 +258,9 @@ export const snapshots = mysqlTable(
     gatewayId: ref('gateway_id').references(() => gateways.id),
     source: mysqlEnum('source', ['gateway', 'upload']).notNull(),
     takenAt: at('taken_at').notNull(),
-    receivedAt: createdAt(),
+    receivedAt: at('received_at')
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
     sampleRateHz: double('sample_rate_hz').notNull(),
     sampleCount: int('sample_count').notNull(),
     encoding: mysqlEnum('encoding', encodingEnum).notNull(),
@@ -383,51 +385,38 @@ export const bands = mysqlTable(
     key: varchar('key', { length: 64 }).notNull(),
     name: varchar('name', { length: 200 }).notNull(),
     kind: mysqlEnum('kind', ['overall', 'hz', 'order', 'fault']).notNull(),
-    /** Which overall value (for kind overall) or spectrum the band reads. */
-    quantity: mysqlEnum('quantity', [
+    /** Which spectrum or overall value the band reads. */
+    spectrum: mysqlEnum('spectrum', [
       'acceleration',
       'velocity',
       'displacement',
       'envelope',
     ]).notNull(),
-    lowHz: double('low_hz'),
-    highHz: double('high_hz'),
-    lowOrder: double('low_order'),
-    highOrder: double('high_order'),
-    faultName: varchar('fault_name', { length: 32 }),
-    faultWidth: double('fault_width'),
-    measure: mysqlEnum('measure', ['rms', 'peak']).notNull().default('rms'),
     unit: varchar('unit', { length: 16 }).notNull(),
-    alertLevel: double('alert_level'),
-    dangerLevel: double('danger_level'),
-    persistence: smallint('persistence').notNull().default(1),
-    /** Clear below this fraction of the level that raised. */
-    hysteresis: double('hysteresis').notNull().default(0.9),
-    /** Statistical rule: alert at baseline mean + k·σ over the first N good values. */
-    statK: double('stat_k'),
-    statN: int('stat_n'),
-    baselineMean: double('baseline_mean'),
-    baselineStd: double('baseline_std'),
-    baselineCount: int('baseline_count'),
-    baselineAt: at('baseline_at'),
+    alertLevel: double('alert_level').notNull(),
+    dangerLevel: double('danger_level').notNull(),
+    /**
+     * The whole band as `@turnstone/condition` defines it (range, measure, persistence,
+     * hysteresis, statistical rule and its established baseline). The columns above copy
+     * what lists and queries need.
+     */
+    definition: jsonColumn<Record<string, unknown>>('definition').notNull(),
     sortOrder: smallint('sort_order').notNull().default(0),
   },
   (t) => [uniqueIndex('bands_set_key_uq').on(t.limitSetId, t.key)],
 );
 
-/** Persistence counters and the open alert of each band of a point, as `condition` keeps them. */
-export const bandStates = mysqlTable(
-  'band_states',
-  {
-    pointId: ref('point_id')
-      .notNull()
-      .references(() => points.id, { onDelete: 'cascade' }),
-    bandKey: varchar('band_key', { length: 64 }).notNull(),
-    state: jsonColumn<Record<string, unknown>>('state').notNull(),
-    updatedAt: at('updated_at').notNull(),
-  },
-  (t) => [primaryKey({ columns: [t.pointId, t.bandKey] })],
-);
+/** The condition state of a point (persistence counters and open alerts per band), as `@turnstone/condition` keeps it. */
+export const pointStates = mysqlTable('point_states', {
+  pointId: ref('point_id')
+    .primaryKey()
+    .references(() => points.id, { onDelete: 'cascade' }),
+  state: jsonColumn<Record<string, unknown>>('state').notNull(),
+  /** takenAt of the last capture evaluated; older captures arriving late are trended, not evaluated. */
+  evaluatedTakenAt: at('evaluated_taken_at'),
+  limitSetVersion: int('limit_set_version').notNull().default(0),
+  updatedAt: at('updated_at').notNull(),
+});
 
 export const bandValues = mysqlTable(
   'band_values',
@@ -563,7 +552,9 @@ export const auditLog = mysqlTable(
     before: jsonColumn<unknown>('before'),
     after: jsonColumn<unknown>('after'),
     reason: text('reason'),
-    at: createdAt(),
+    at: at('at')
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [index('audit_entity_idx').on(t.entity, t.entityId), index('audit_at_idx').on(t.at)],
 );

@@ -31,14 +31,12 @@ export function zodDetails(err: ZodError) {
 }
 
 export const apiNotFound: RequestHandler = (req, res) => {
-  res
-    .status(404)
-    .json({
-      error: {
-        code: 'not_found',
-        message: `No API route ${req.method} ${req.originalUrl.split('?')[0]}.`,
-      },
-    });
+  res.status(404).json({
+    error: {
+      code: 'not_found',
+      message: `No API route ${req.method} ${req.originalUrl.split('?')[0]}.`,
+    },
+  });
 };
 
 /** The last middleware: every error leaves as `{ error: { code, message, details? } }`. */

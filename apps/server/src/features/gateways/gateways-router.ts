@@ -1,0 +1,48 @@
+import { z } from 'zod';
+import type { AppContext } from '../../lib/context.ts';
+import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import * as service from './gateways-service.ts';
+
+const idParam = z.object({ id: z.coerce.number().int().positive() });
+
+export function gatewayRoutes(ctx: AppContext): RouteSpec[] {
+  return [
+    {
+      method: 'get',
+      path: '/gateways',
+      access: ['admin'],
+      summary: 'list gateways',
+      handler: async (req, res) => res.json(await service.listGateways(ctx.db, requireUser(req))),
+    },
+    {
+      method: 'post',
+      path: '/gateways',
+      access: ['admin'],
+      summary: 'create a gateway',
+      handler: async (req, res) => {
+        const body = service.createGatewaySchema.parse(req.body);
+        res.status(201).json(await service.createGateway(ctx.db, requireUser(req), body));
+      },
+    },
+    {
+      method: 'post',
+      path: '/gateways/:id/revoke',
+      access: ['admin'],
+      summary: 'revoke a gateway key',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        res.json(await service.revokeGateway(ctx.db, requireUser(req), id));
+      },
+    },
+    {
+      method: 'post',
+      path: '/gateways/:id/rotate',
+      access: ['admin'],
+      summary: 'rotate a gateway key',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        res.json(await service.rotateGatewayKey(ctx.db, requireUser(req), id));
+      },
+    },
+  ];
+}

@@ -1,0 +1,81 @@
+import express, { Router, type Request } from 'express';
+import { rateLimit } from 'express-rate-limit';
+import { MAX_BATCH } from '@turnstone/contracts/ingest';
+import type { AppContext } from '../../lib/context.ts';
+import { AppError } from '../../lib/app-error.ts';
+import { ingestOpenApi } from './ingest-openapi.ts';
+import { authenticateGateway, ingestOne, type GatewayPrincipal } from './ingest-service.ts';
+
+declare module 'express-serve-static-core' {
+  interface Request {
+    gateway?: GatewayPrincipal;
+  }
+}
+
+/** `/api/ingest/v1`: the gateways' API. Its own 16 MiB body limit, per-gateway rate. */
+export function ingestRouter(ctx: AppContext): Router {
+  const router = Router();
+  router.get('/openapi.json', (_req, res) => res.json(ingestOpenApi()));
+  router.post(
+    '/snapshots',
+    async (req: Request, _res, next) => {
+      req.gateway = await authenticateGateway(ctx, req.get('authorization'));
+      next();
+    },
+    rateLimit({
+      windowMs: 60_000,
+      limit: ctx.config.INGEST_MAX_PER_MIN,
+      keyGenerator: (req) => `gw:${req.gateway!.id}`,
+      standardHeaders: 'draft-7',
+      legacyHeaders: false,
+      handler: (_req, res) => {
+        res.setHeader('Retry-After', '10');
+        res
+          .status(429)
+          .json({
+            error: {
+              code: 'rate_limited',
+              message:
+                'This gateway is sending faster than its allowed rate; retry after the delay in Retry-After.',
+            },
+          });
+      },
+    }),
+    express.json({ limit: '16mb' }),
+    async (req: Request, res) => {
+      const body: unknown = req.body;
+      if (
+        !req.is('application/json') ||
+        typeof body !== 'object' ||
+        body === null ||
+        Array.isArray(body)
+      ) {
+        throw new AppError(
+          'validation_failed',
+          'Send one snapshot object, or { "snapshots": [...] }, as application/json.',
+          400,
+        );
+      }
+      if ('snapshots' in body) {
+        const items = (body as { snapshots: unknown }).snapshots;
+        if (!Array.isArray(items) || items.length === 0 || items.length > MAX_BATCH) {
+          throw new AppError(
+            'validation_failed',
+            `snapshots must be an array of 1 to ${MAX_BATCH} snapshots.`,
+            400,
+            [{ path: 'snapshots', message: `1 to ${MAX_BATCH} items` }],
+          );
+        }
+        const results = [];
+        for (const item of items) results.push(await ingestOne(ctx, req.gateway!, item));
+        res.status(200).json({ results });
+        return;
+      }
+      const r = await ingestOne(ctx, req.gateway!, body);
+      if (r.error) res.status(r.httpStatus).json({ error: r.error });
+      else
+        res.status(r.httpStatus).json({ uid: r.uid, status: r.status, snapshotId: r.snapshotId });
+    },
+  );
+  return router;
+}

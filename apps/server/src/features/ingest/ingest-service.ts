@@ -1,0 +1,254 @@
+/**
+ * Ingest: validate, store the raw snapshot and its analysis job in one transaction, answer.
+ * No signal processing here. Exactly-once effect over at-least-once delivery: the uid is
+ * unique, and a repeat is compared by content hash (same → 200, different → 409).
+ */
+import { createHash } from 'node:crypto';
+import { promisify } from 'node:util';
+import { deflateRaw } from 'node:zlib';
+import { ZodError } from 'zod';
+import {
+  bytesPerSample,
+  MAX_SAMPLES,
+  MIN_SAMPLES,
+  snapshotInSchema,
+  type Encoding,
+  type IngestResult,
+} from '@turnstone/contracts/ingest';
+import { decodeSamples } from '@turnstone/dsp/decode-samples';
+import type { AppContext } from '../../lib/context.ts';
+import { AppError } from '../../lib/app-error.ts';
+import { zodDetails } from '../../lib/error-middleware.ts';
+import { keyMatches, prefixOf } from '../gateways/gateway-keys.ts';
+import * as repo from './ingest-repository.ts';
+import { encodeSamples } from './sample-bytes.ts';
+
+const deflate = promisify(deflateRaw);
+
+export interface GatewayPrincipal {
+  id: number;
+  siteId: number;
+}
+
+const lastTouched = new Map<number, number>();
+
+/** The gateway behind `Authorization: Bearer <key>`, or a 401. */
+export async function authenticateGateway(
+  ctx: AppContext,
+  header: string | undefined,
+): Promise<GatewayPrincipal> {
+  const m = /^Bearer\s+(\S+)$/i.exec(header ?? '');
+  if (!m)
+    throw new AppError(
+      'unauthenticated',
+      'Send the gateway API key as "Authorization: Bearer <key>".',
+      401,
+    );
+  const key = m[1]!;
+  const prefix = prefixOf(key);
+  const gateway = prefix ? await repo.gatewayByPrefix(ctx.db, prefix) : undefined;
+  if (!gateway || !keyMatches(key, gateway.keyHash))
+    throw new AppError('invalid_api_key', 'The API key is not valid.', 401);
+  if (gateway.revokedAt)
+    throw new AppError('revoked_api_key', 'The API key has been revoked.', 401);
+  const now = Date.now();
+  if (now - (lastTouched.get(gateway.id) ?? 0) > 60_000) {
+    lastTouched.set(gateway.id, now);
+    await repo.touchGateway(ctx.db, gateway.id);
+  }
+  return { id: gateway.id, siteId: gateway.siteId };
+}
+
+export interface SnapshotToStore {
+  uid: string;
+  pointId: number;
+  gatewayId: number | null;
+  source: 'gateway' | 'upload';
+  takenAt: Date;
+  sampleRateHz: number;
+  encoding: Encoding;
+  bytes: Buffer;
+  adcBits: number;
+  fullScaleV: number;
+  sensitivityMvPerG: number;
+  speedRpm: number | null;
+  tach: { pulseTimesS: number[]; pulsesPerRev: number } | null;
+  uploadedBy?: number | null;
+  fileName?: string | null;
+}
+
+export function contentHash(
+  s: Omit<SnapshotToStore, 'uid' | 'gatewayId' | 'source' | 'uploadedBy' | 'fileName'>,
+): string {
+  const meta = JSON.stringify([
+    s.pointId,
+    s.takenAt.getTime(),
+    s.sampleRateHz,
+    s.encoding,
+    s.adcBits,
+    s.fullScaleV,
+    s.sensitivityMvPerG,
+    s.speedRpm,
+    s.tach,
+  ]);
+  return createHash('sha256').update(meta).update(s.bytes).digest('hex');
+}
+
+const isDuplicateKey = (err: unknown) => {
+  for (let e: unknown = err; e; e = (e as { cause?: unknown }).cause) {
+    if ((e as { code?: string }).code === 'ER_DUP_ENTRY') return true;
+  }
+  return false;
+};
+
+/** Stores one snapshot (gateway or upload). Shared by the ingest API and uploads. */
+export async function storeSnapshot(
+  ctx: AppContext,
+  s: SnapshotToStore,
+): Promise<{ status: 'created' | 'duplicate' | 'conflict'; snapshotId: number }> {
+  const hash = contentHash(s);
+  const existing = await repo.snapshotByUid(ctx.db, s.uid);
+  if (existing)
+    return {
+      status: existing.contentHash === hash ? 'duplicate' : 'conflict',
+      snapshotId: existing.id,
+    };
+  const compressed = await deflate(s.bytes);
+  try {
+    const snapshotId = await repo.insertSnapshotWithJob(ctx.db, {
+      uid: s.uid,
+      pointId: s.pointId,
+      gatewayId: s.gatewayId,
+      source: s.source,
+      takenAt: s.takenAt,
+      sampleRateHz: s.sampleRateHz,
+      sampleCount: s.bytes.length / bytesPerSample[s.encoding],
+      encoding: s.encoding,
+      adcBits: s.adcBits,
+      fullScaleV: s.fullScaleV,
+      sensitivityMvPerG: s.sensitivityMvPerG,
+      speedRpm: s.speedRpm,
+      tach: s.tach,
+      samples: compressed,
+      contentHash: hash,
+      status: 'queued',
+      uploadedBy: s.uploadedBy ?? null,
+      fileName: s.fileName ?? null,
+    });
+    return { status: 'created', snapshotId };
+  } catch (err) {
+    // Two deliveries of one uid racing: the loser reads the winner's row.
+    if (isDuplicateKey(err)) {
+      const again = await repo.snapshotByUid(ctx.db, s.uid);
+      if (again)
+        return {
+          status: again.contentHash === hash ? 'duplicate' : 'conflict',
+          snapshotId: again.id,
+        };
+    }
+    throw err;
+  }
+}
+
+const invalid = (uid: string | null, message: string, details?: unknown): IngestResult => ({
+  uid,
+  status: 'invalid',
+  httpStatus: 400,
+  error: { code: 'validation_failed', message, ...(details === undefined ? {} : { details }) },
+});
+
+/** Validates and stores one item from a gateway; never throws for the item's own faults. */
+export async function ingestOne(
+  ctx: AppContext,
+  gateway: GatewayPrincipal,
+  raw: unknown,
+): Promise<IngestResult> {
+  const uid =
+    typeof (raw as { uid?: unknown })?.uid === 'string'
+      ? ((raw as { uid: string }).uid.slice(0, 128) as string)
+      : null;
+  const parsed = snapshotInSchema.safeParse(raw);
+  if (!parsed.success) {
+    const details = zodDetails(parsed.error);
+    return invalid(
+      uid,
+      `Invalid snapshot: ${details[0]?.path || 'body'}: ${details[0]?.message ?? 'invalid'}`,
+      details,
+    );
+  }
+  const s = parsed.data;
+  let bytes: Buffer;
+  try {
+    bytes =
+      typeof s.samples === 'string'
+        ? Buffer.from(s.samples, 'base64')
+        : encodeSamples(s.samples, s.encoding);
+    const n = bytes.length / bytesPerSample[s.encoding];
+    if (!Number.isInteger(n))
+      throw new RangeError(`${bytes.length} bytes is not a whole number of ${s.encoding} samples`);
+    if (n < MIN_SAMPLES || n > MAX_SAMPLES)
+      throw new RangeError(`${n} samples; a snapshot holds ${MIN_SAMPLES} to ${MAX_SAMPLES}`);
+    if (s.sampleCount !== undefined && s.sampleCount !== n)
+      throw new RangeError(`sampleCount says ${s.sampleCount} but samples holds ${n}`);
+    if (s.encoding === 'float32') decodeSamples(bytes, 'float32'); // rejects NaN and infinities
+  } catch (err) {
+    return invalid(uid, `Invalid snapshot: samples: ${(err as Error).message}`, [
+      { path: 'samples', message: (err as Error).message },
+    ]);
+  }
+  const point = await repo.pointByTag(ctx.db, s.pointTag);
+  if (!point)
+    return {
+      uid: s.uid,
+      status: 'unknown_point',
+      httpStatus: 404,
+      error: {
+        code: 'unknown_point',
+        message: `No measurement point has the tag "${s.pointTag}".`,
+      },
+    };
+  if (point.siteId !== gateway.siteId)
+    return {
+      uid: s.uid,
+      status: 'forbidden_point',
+      httpStatus: 403,
+      error: {
+        code: 'forbidden_point',
+        message: `Point "${s.pointTag}" belongs to another site than this gateway.`,
+      },
+    };
+  const r = await storeSnapshot(ctx, {
+    uid: s.uid,
+    pointId: point.id,
+    gatewayId: gateway.id,
+    source: 'gateway',
+    takenAt: new Date(s.takenAt),
+    sampleRateHz: s.sampleRateHz,
+    encoding: s.encoding,
+    bytes,
+    adcBits: s.adc.bits,
+    fullScaleV: s.adc.fullScaleV,
+    sensitivityMvPerG: s.sensor.sensitivityMvPerG,
+    speedRpm: s.speedRpm ?? null,
+    tach: s.tach ?? null,
+  });
+  if (r.status === 'conflict')
+    return {
+      uid: s.uid,
+      status: 'conflict',
+      httpStatus: 409,
+      snapshotId: r.snapshotId,
+      error: {
+        code: 'uid_conflict',
+        message: `A different snapshot with uid "${s.uid}" is already stored.`,
+      },
+    };
+  return {
+    uid: s.uid,
+    status: r.status,
+    httpStatus: r.status === 'created' ? 201 : 200,
+    snapshotId: r.snapshotId,
+  };
+}
+
+export { ZodError };

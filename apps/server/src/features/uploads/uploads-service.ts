@@ -1,0 +1,143 @@
+/**
+ * Uploads of portable-instrument recordings (WAV or CSV) for a point. The content decides
+ * the format, not the name; a bad file gets a clear error and stores nothing. Accepted
+ * files become snapshots and go through the same queue and analysis as gateway captures.
+ */
+import { createHash } from 'node:crypto';
+import { z } from 'zod';
+import { readCsv, readWav } from '@turnstone/dsp';
+import { MAX_SAMPLES, MIN_SAMPLES } from '@turnstone/contracts/ingest';
+import { AppError } from '../../lib/app-error.ts';
+import type { AppContext } from '../../lib/context.ts';
+import type { SessionUser } from '../../lib/session-user.ts';
+import { accessiblePoint } from '../../lib/point-access.ts';
+import { storeSnapshot } from '../ingest/ingest-service.ts';
+import { encodeSamples } from '../ingest/sample-bytes.ts';
+
+export const MAX_UPLOAD_BYTES = 32 * 1024 * 1024;
+/** A CSV carries no ADC facts; unless told, it is read as from a 24-bit, ±10 V front end. */
+export const CSV_DEFAULT_BITS = 24;
+export const CSV_DEFAULT_FULL_SCALE_V = 10;
+
+const num = (min: number, max: number) => z.coerce.number().finite().min(min).max(max);
+export const uploadFieldsSchema = z.object({
+  sensitivityMvPerG: num(0.1, 100_000).optional(),
+  fullScaleV: num(0.001, 100).optional(),
+  bits: z.coerce.number().int().min(8).max(32).optional(),
+  speedRpm: num(1, 200_000).optional(),
+  sampleRateHz: num(100, 1_000_000).optional(),
+  unit: z.enum(['g', 'volts']).default('g'),
+  takenAt: z.iso.datetime({ offset: true }).optional(),
+});
+export type UploadFields = z.infer<typeof uploadFieldsSchema>;
+
+const bad = (message: string) => new AppError('invalid_file', message, 400);
+
+/** A file name fit to show: no folders, no control characters, at most 200 characters. */
+export function safeFileName(name: string): string {
+  const base = name.split(/[\\/]/).pop() ?? 'upload';
+  // eslint-disable-next-line no-control-regex
+  return base.replace(/[\u0000-\u001f\u007f]/g, '').slice(0, 200) || 'upload';
+}
+
+function looksLikeText(bytes: Buffer): boolean {
+  const n = Math.min(bytes.length, 4096);
+  for (let i = 0; i < n; i++) {
+    const c = bytes[i]!;
+    if (c === 0 || (c < 9 && c !== 0) || (c > 13 && c < 32 && c !== 27)) return false;
+  }
+  return true;
+}
+
+export async function acceptUpload(
+  ctx: AppContext,
+  user: SessionUser,
+  pointId: number,
+  file: { buffer: Buffer; originalname: string } | undefined,
+  rawFields: unknown,
+) {
+  const { point } = await accessiblePoint(ctx.db, user, pointId);
+  if (!file || file.buffer.length === 0) throw bad('Attach a WAV or CSV file in the field "file".');
+  const fields = uploadFieldsSchema.parse(rawFields);
+  const sensitivity = fields.sensitivityMvPerG ?? point.sensitivityMvPerG;
+  const bytes = file.buffer;
+  const isWav =
+    bytes.length >= 12 &&
+    bytes.toString('latin1', 0, 4) === 'RIFF' &&
+    bytes.toString('latin1', 8, 12) === 'WAVE';
+
+  let encoding: 'int16' | 'int24' | 'int32' | 'float32';
+  let sampleBytes: Buffer;
+  let sampleRateHz: number;
+  let adcBits: number;
+  let fullScaleV: number;
+  let count: number;
+  if (isWav) {
+    let wav;
+    try {
+      wav = readWav(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength));
+    } catch (err) {
+      throw bad(`Not a readable WAV file: ${(err as Error).message}`);
+    }
+    encoding = wav.encoding;
+    sampleRateHz = wav.sampleRateHz;
+    adcBits = fields.bits ?? (encoding === 'float32' ? 24 : wav.validBits);
+    fullScaleV = fields.fullScaleV ?? 1.0;
+    count = wav.samples.length;
+    sampleBytes = encodeSamples(Array.from(wav.samples), encoding);
+  } else if (looksLikeText(bytes)) {
+    let csv;
+    try {
+      csv = readCsv(bytes.toString('utf8'));
+    } catch (err) {
+      throw bad(`Not a readable CSV file: ${(err as Error).message}`);
+    }
+    const rate = csv.sampleRateHz ?? fields.sampleRateHz;
+    if (!rate) throw bad('This CSV has no time column: give the sample rate (sampleRateHz).');
+    sampleRateHz = rate;
+    encoding = 'float32';
+    adcBits = fields.bits ?? CSV_DEFAULT_BITS;
+    fullScaleV = fields.fullScaleV ?? CSV_DEFAULT_FULL_SCALE_V;
+    count = csv.values.length;
+    const toVolts = fields.unit === 'g' ? sensitivity / 1000 : 1;
+    sampleBytes = encodeSamples(
+      Array.from(csv.values, (v) => v * toVolts),
+      'float32',
+    );
+  } else {
+    throw bad('The file is neither WAV (RIFF/WAVE) nor CSV text.');
+  }
+  if (count < MIN_SAMPLES || count > MAX_SAMPLES)
+    throw bad(
+      `The recording holds ${count} samples; ${MIN_SAMPLES} to ${MAX_SAMPLES} are accepted.`,
+    );
+  if (sampleRateHz < 100 || sampleRateHz > 1_000_000)
+    throw bad(`Sample rate ${sampleRateHz} Hz is outside 100 Hz to 1 MHz.`);
+
+  const digest = createHash('sha256').update(bytes).digest('hex');
+  const takenAt = fields.takenAt ? new Date(fields.takenAt) : new Date();
+  const result = await storeSnapshot(ctx, {
+    uid: `upload-${pointId}-${digest.slice(0, 40)}`,
+    pointId,
+    gatewayId: null,
+    source: 'upload',
+    takenAt,
+    sampleRateHz,
+    encoding,
+    bytes: sampleBytes,
+    adcBits,
+    fullScaleV,
+    sensitivityMvPerG: sensitivity,
+    speedRpm: fields.speedRpm ?? null,
+    tach: null,
+    uploadedBy: user.id,
+    fileName: safeFileName(file.originalname),
+  });
+  return {
+    snapshotId: result.snapshotId,
+    status: result.status === 'created' ? 'queued' : 'already-uploaded',
+    samples: count,
+    sampleRateHz,
+    encoding,
+  };
+}

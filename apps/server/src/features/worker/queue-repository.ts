@@ -1,0 +1,115 @@
+/**
+ * The jobs table as a queue. Claims take rows with SELECT … FOR UPDATE SKIP LOCKED inside a
+ * transaction (MariaDB ≥ 10.6, InnoDB), so any number of workers share it without taking
+ * the same job; a claim is a lease that expires, so a dead worker's job is claimed again.
+ */
+import { and, asc, eq, inArray, lte, sql } from 'drizzle-orm';
+import type { Db } from '@turnstone/db/client';
+import { jobs } from '@turnstone/db/schema';
+
+export type JobRow = typeof jobs.$inferSelect;
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+export async function claimJobs(
+  db: Db,
+  owner: string,
+  leaseS: number,
+  limit: number,
+  kinds?: string[],
+): Promise<JobRow[]> {
+  return db.transaction(async (tx) => {
+    const now = sql`CURRENT_TIMESTAMP(3)`;
+    const kindFilter = kinds ? inArray(jobs.kind, kinds) : undefined;
+    // Two index range scans (state, run_after) and (state, lease_expires_at): FOR UPDATE
+    // locks only the rows it reads, so an unindexed scan would lock the whole queue and
+    // starve the other workers.
+    const due = await tx
+      .select({ id: jobs.id })
+      .from(jobs)
+      .where(and(eq(jobs.state, 'queued'), lte(jobs.runAfter, now), kindFilter))
+      .orderBy(asc(jobs.runAfter))
+      .limit(limit)
+      .for('update', { skipLocked: true });
+    const expired =
+      due.length < limit
+        ? await tx
+            .select({ id: jobs.id })
+            .from(jobs)
+            .where(and(eq(jobs.state, 'running'), lte(jobs.leaseExpiresAt, now), kindFilter))
+            .orderBy(asc(jobs.leaseExpiresAt))
+            .limit(limit - due.length)
+            .for('update', { skipLocked: true })
+        : [];
+    const ids = [...due, ...expired].map((r) => r.id);
+    if (ids.length === 0) return [];
+    await tx
+      .update(jobs)
+      .set({
+        state: 'running',
+        leaseOwner: owner,
+        leaseExpiresAt: sql`CURRENT_TIMESTAMP(3) + INTERVAL ${Math.round(leaseS * 1000)} * 1000 MICROSECOND`,
+        attempts: sql`${jobs.attempts} + 1`,
+      })
+      .where(inArray(jobs.id, ids));
+    return tx.select().from(jobs).where(inArray(jobs.id, ids)).orderBy(asc(jobs.id));
+  });
+}
+
+/**
+ * Marks the job done inside the transaction that wrote its results. Fenced by the lease:
+ * when another worker has taken the job over, nothing matches and the caller must roll
+ * back, so the results of one snapshot are committed exactly once.
+ */
+export async function completeJobIn(tx: Tx, id: number, owner: string): Promise<boolean> {
+  const [result] = await tx
+    .update(jobs)
+    .set({
+      state: 'done',
+      finishedAt: sql`CURRENT_TIMESTAMP(3)`,
+      leaseOwner: null,
+      leaseExpiresAt: null,
+      lastError: null,
+    })
+    .where(and(eq(jobs.id, id), eq(jobs.leaseOwner, owner), eq(jobs.state, 'running')));
+  return result.affectedRows === 1;
+}
+
+/** Back-off between attempts: 2, 4, 8 … seconds, at most 10 minutes. */
+export const retryDelayS = (attempts: number) => Math.min(600, 2 ** Math.max(1, attempts));
+
+/** Records a failure: queued again after a back-off, or failed for good after max attempts. */
+export async function failJob(
+  db: Db,
+  job: JobRow,
+  owner: string,
+  message: string,
+): Promise<'retry' | 'failed'> {
+  const final = job.attempts >= job.maxAttempts;
+  await db
+    .update(jobs)
+    .set(
+      final
+        ? {
+            state: 'failed',
+            lastError: message.slice(0, 4000),
+            leaseOwner: null,
+            leaseExpiresAt: null,
+            finishedAt: sql`CURRENT_TIMESTAMP(3)`,
+          }
+        : {
+            state: 'queued',
+            lastError: message.slice(0, 4000),
+            leaseOwner: null,
+            leaseExpiresAt: null,
+            runAfter: sql`CURRENT_TIMESTAMP(3) + INTERVAL ${retryDelayS(job.attempts)} SECOND`,
+          },
+    )
+    .where(and(eq(jobs.id, job.id), eq(jobs.leaseOwner, owner)));
+  return final ? 'failed' : 'retry';
+}
+
+export class LeaseLostError extends Error {
+  constructor(jobId: number) {
+    super(`job ${jobId}: lease taken over by another worker`);
+  }
+}

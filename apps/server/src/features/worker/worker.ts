@@ -1,0 +1,149 @@
+/**
+ * The queue worker: claims analysis jobs and runs them; failures retry with back-off and
+ * end as `failed` with their reason. Many workers (processes or in-process instances) can
+ * share one database: claims skip locked rows, completions are fenced by the lease.
+ */
+import { randomUUID } from 'node:crypto';
+import { hostname } from 'node:os';
+import { eq, sql } from 'drizzle-orm';
+import cron, { type ScheduledTask } from 'node-cron';
+import { jobs, snapshots } from '@turnstone/db/schema';
+import type { AppContext } from '../../lib/context.ts';
+import { isDbUnavailable } from '../../lib/error-middleware.ts';
+import { PermanentJobError, runAnalysisJob } from '../analysis/analysis-service.ts';
+import { claimJobs, failJob, LeaseLostError, type JobRow } from './queue-repository.ts';
+import { expireRawSamples } from './retention.ts';
+import { recomputeBaselines } from '../limits/baseline-service.ts';
+
+export interface WorkerOptions {
+  /** Jobs claimed per round. @default 8 */
+  batch?: number;
+  /** Identity written into leases. @default host:pid:random */
+  owner?: string;
+}
+
+export interface Worker {
+  owner: string;
+  /** Claims and runs jobs until the queue has none due; returns how many ran. */
+  drain(maxJobs?: number): Promise<number>;
+  /** Starts the cron ticks (queue every second, nightly baselines and retention). */
+  start(): void;
+  stop(): Promise<void>;
+}
+
+export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Worker {
+  const owner = options.owner ?? `${hostname()}:${process.pid}:${randomUUID().slice(0, 8)}`;
+  const batch = options.batch ?? 8;
+  const tasks: ScheduledTask[] = [];
+  let running: Promise<number> | null = null;
+
+  async function runOne(job: JobRow): Promise<void> {
+    try {
+      if (job.kind !== 'analyze') throw new PermanentJobError(`unknown job kind "${job.kind}"`);
+      await runAnalysisJob(ctx, job, owner);
+    } catch (err) {
+      if (err instanceof LeaseLostError) {
+        ctx.log.warn('job lease lost; another worker finishes it', { jobId: job.id });
+        return;
+      }
+      if (isDbUnavailable(err)) throw err;
+      const message = err instanceof Error ? err.message : String(err);
+      const permanent = err instanceof PermanentJobError;
+      if (permanent)
+        await ctx.db.update(jobs).set({ maxAttempts: job.attempts }).where(eq(jobs.id, job.id));
+      const outcome = await failJob(
+        ctx.db,
+        permanent ? { ...job, maxAttempts: job.attempts } : job,
+        owner,
+        message,
+      );
+      ctx.log.warn('analysis job failed', {
+        jobId: job.id,
+        snapshotId: job.snapshotId,
+        outcome,
+        message,
+      });
+      if (outcome === 'failed' && job.snapshotId) {
+        await ctx.db
+          .update(snapshots)
+          .set({ status: 'failed', statusReason: message.slice(0, 2000) })
+          .where(eq(snapshots.id, job.snapshotId));
+      }
+    }
+  }
+
+  async function drainInner(maxJobs: number): Promise<number> {
+    let done = 0;
+    while (done < maxJobs) {
+      const claimed = await claimJobs(
+        ctx.db,
+        owner,
+        ctx.config.JOB_LEASE_S,
+        Math.min(batch, maxJobs - done),
+        ['analyze'],
+      );
+      if (claimed.length === 0) break;
+      for (const job of claimed) await runOne(job);
+      done += claimed.length;
+    }
+    return done;
+  }
+
+  const drain = (maxJobs = Number.POSITIVE_INFINITY) => {
+    // One drain at a time per worker instance: cron ticks never overlap.
+    running ??= drainInner(maxJobs).finally(() => {
+      running = null;
+    });
+    return running;
+  };
+
+  const guarded = (name: string, fn: () => Promise<unknown>) => async () => {
+    try {
+      await fn();
+    } catch (err) {
+      if (isDbUnavailable(err)) ctx.log.warn(`${name}: database unavailable, will retry`);
+      else ctx.log.error(`${name} failed`, { err });
+    }
+  };
+
+  return {
+    owner,
+    drain,
+    start() {
+      tasks.push(
+        cron.schedule(
+          '* * * * * *',
+          guarded('queue', () => drain()),
+          { noOverlap: true, name: 'queue' },
+        ),
+      );
+      tasks.push(
+        cron.schedule(
+          '15 2 * * *',
+          guarded('baselines', () => recomputeBaselines(ctx)),
+          { noOverlap: true, name: 'baselines' },
+        ),
+      );
+      tasks.push(
+        cron.schedule(
+          '45 2 * * *',
+          guarded('retention', () => expireRawSamples(ctx.db, ctx.config.RETENTION_DAYS)),
+          { noOverlap: true, name: 'retention' },
+        ),
+      );
+    },
+    async stop() {
+      for (const t of tasks.splice(0)) await t.stop();
+      await running?.catch(() => {});
+    },
+  };
+}
+
+/** Jobs waiting or running, for health and benchmarks. */
+export async function queueDepth(ctx: AppContext): Promise<number> {
+  const [row] = await ctx.db
+    .select({ n: sql<number>`COUNT(*)` })
+    .from(jobs)
+    .where(sql`${jobs.state} IN ('queued','running')`);
+  return Number(row?.n ?? 0);
+}

@@ -1,0 +1,32 @@
+/**
+ * `npm run worker`: one queue worker on its own, for running several beside the web
+ * process. Uses DATABASE_URL, or the private MariaDB that `npm start` runs on DATA_DIR.
+ */
+import { resolve } from 'node:path';
+import { createDb } from '@turnstone/db/client';
+import { runningLocalUrl } from '@turnstone/db/local-server';
+import { loadConfig } from './config.ts';
+import { createLogger } from './lib/logger.ts';
+import { createWorker } from './features/worker/worker.ts';
+
+const config = loadConfig();
+const log = createLogger(config.LOG_LEVEL);
+const dataDir = resolve(config.DATA_DIR);
+const url = config.DATABASE_URL ?? runningLocalUrl(dataDir);
+if (!url) {
+  process.stderr.write(
+    'No database: set DATABASE_URL, or start the product first (npm start) with the same DATA_DIR.\n',
+  );
+  process.exit(1);
+}
+const dbHandle = createDb(url);
+const worker = createWorker({ config, db: dbHandle.db, dbHandle, log, jwtSecret: '', dataDir });
+worker.start();
+log.info('worker started', { owner: worker.owner });
+for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+  process.once(signal, async () => {
+    await worker.stop();
+    await dbHandle.close();
+    process.exit(0);
+  });
+}

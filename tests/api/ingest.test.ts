@@ -1,0 +1,248 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { sql } from 'drizzle-orm';
+import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { snapshotBody } from '../support/signals.ts';
+
+let srv: TestServer;
+let admin: string;
+let keyMfp: string;
+let keyTrb: string;
+const TAG = 'MFP-P101-MDE-H';
+
+async function count(table: string): Promise<number> {
+  const [rows] = await srv.ctx.dbHandle.pool.query(`SELECT COUNT(*) AS n FROM ${table}`);
+  return Number((rows as { n: number }[])[0]!.n);
+}
+const post = (key: string, body: unknown, headers: Record<string, string> = {}) =>
+  srv.call('POST', '/api/ingest/v1/snapshots', {
+    body,
+    headers: { authorization: `Bearer ${key}`, ...headers },
+  });
+
+beforeAll(async () => {
+  srv = await startTestServer({ INGEST_MAX_PER_MIN: '100000' });
+  admin = await srv.signIn('admin');
+  const mk = async (siteId: number, name: string) => {
+    const res = await srv.call('POST', '/api/v1/gateways', {
+      cookie: admin,
+      body: { siteId, name },
+    });
+    expect(res.status).toBe(201);
+    return (await res.json()).apiKey as string;
+  };
+  keyMfp = await mk(1, 'MFP gateway A');
+  keyTrb = await mk(2, 'TRB gateway A');
+});
+afterAll(async () => {
+  await srv?.stop();
+});
+
+describe('gateways', () => {
+  it('shows the key once: the list carries only its prefix', async () => {
+    const list = await (await srv.call('GET', '/api/v1/gateways', { cookie: admin })).json();
+    expect(list.items.length).toBe(2);
+    expect(JSON.stringify(list)).not.toContain(keyMfp);
+    expect(
+      keyMfp.startsWith(
+        `tsg_${list.items.find((g: { name: string }) => g.name === 'MFP gateway A').keyPrefix}_`,
+      ),
+    ).toBe(true);
+    const [rows] = await srv.ctx.dbHandle.pool.query('SELECT key_hash FROM gateways');
+    expect(JSON.stringify(rows)).not.toContain(keyMfp);
+  });
+
+  it('a non-admin cannot create a gateway', async () => {
+    const engineer = await srv.signIn('engineer');
+    const res = await srv.call('POST', '/api/v1/gateways', {
+      cookie: engineer,
+      body: { siteId: 1, name: 'x' },
+    });
+    expect(res.status).toBe(403);
+  });
+});
+
+describe('ingest', () => {
+  it('accepts a new snapshot with 201 and stores it with its job in one go', async () => {
+    const before = await count('snapshots');
+    const res = await post(keyMfp, snapshotBody(TAG, 'ing-1'));
+    expect(res.status).toBe(201);
+    const body = await res.json();
+    expect(body).toMatchObject({ uid: 'ing-1', status: 'created' });
+    expect(await count('snapshots')).toBe(before + 1);
+    const [jobs] = await srv.ctx.dbHandle.pool.query(
+      'SELECT COUNT(*) AS n FROM jobs WHERE snapshot_id = ?',
+      [body.snapshotId],
+    );
+    expect(Number((jobs as { n: number }[])[0]!.n)).toBe(1);
+  });
+
+  it('when a snapshot repeats its uid with the same content, answers 200 and stores nothing new', async () => {
+    const b = snapshotBody(TAG, 'ing-2', { takenAt: '2026-11-30T10:00:00.000Z' });
+    expect((await post(keyMfp, b)).status).toBe(201);
+    const [s, j] = [await count('snapshots'), await count('jobs')];
+    const again = await post(keyMfp, b);
+    expect(again.status).toBe(200);
+    expect((await again.json()).status).toBe('duplicate');
+    expect([await count('snapshots'), await count('jobs')]).toEqual([s, j]);
+  });
+
+  it('the same samples sent as a number array are the same content as base64', async () => {
+    const b = snapshotBody(TAG, 'ing-3', { takenAt: '2026-11-30T11:00:00.000Z' });
+    expect((await post(keyMfp, b)).status).toBe(201);
+    const asArray = {
+      ...b,
+      samples: Array.from(new Int16Array(Buffer.from(b.samples, 'base64').buffer.slice(0))),
+    };
+    const res = await post(keyMfp, asArray);
+    expect(res.status).toBe(200);
+  });
+
+  it('when the uid repeats with other content, answers 409', async () => {
+    await post(keyMfp, snapshotBody(TAG, 'ing-4', { seed: 1 }));
+    const res = await post(keyMfp, snapshotBody(TAG, 'ing-4', { seed: 2 }));
+    expect(res.status).toBe(409);
+    expect((await res.json()).error.code).toBe('uid_conflict');
+  });
+
+  it.each([
+    ['an unknown encoding', { encoding: 'int12' }, 'encoding'],
+    ['a takenAt far in the future', { takenAt: '2099-01-01T00:00:00Z' }, 'takenAt'],
+    ['a sample count that disagrees', { sampleCount: 4000 }, 'samples'],
+    ['base64 that is not', { samples: 'this is not base64!!' }, 'samples'],
+    ['NaN as a sample', { samples: [1, 2, 'NaN'] }, 'samples'],
+    ['a missing sensor', { sensor: undefined }, 'sensor'],
+    ['an unknown field', { extra: 1 }, ''],
+    [
+      'a byte count that is not whole samples',
+      { samples: Buffer.alloc(1025).toString('base64') },
+      'samples',
+    ],
+  ])('refuses %s with 400 naming the field, and stores nothing', async (_what, patch, field) => {
+    const before = await count('snapshots');
+    const res = await post(keyMfp, { ...snapshotBody(TAG, `bad-${Math.random()}`), ...patch });
+    expect(res.status).toBe(400);
+    const body = await res.json();
+    expect(body.error.code).toBe('validation_failed');
+    expect(body.error.message).toContain(field);
+    expect(await count('snapshots')).toBe(before);
+  });
+
+  it('answers 404 for an unknown point tag and 403 for a point of another site', async () => {
+    expect((await post(keyMfp, snapshotBody('NO-SUCH-TAG', 'ing-5'))).status).toBe(404);
+    const res = await post(keyTrb, snapshotBody(TAG, 'ing-6'));
+    expect(res.status).toBe(403);
+    expect((await res.json()).error.code).toBe('forbidden_point');
+  });
+
+  it('answers 401 for a missing, wrong or revoked key', async () => {
+    expect(
+      (await srv.call('POST', '/api/ingest/v1/snapshots', { body: snapshotBody(TAG, 'k1') }))
+        .status,
+    ).toBe(401);
+    expect((await post('tsg_000000000000_' + 'A'.repeat(32), snapshotBody(TAG, 'k2'))).status).toBe(
+      401,
+    );
+    const created = await (
+      await srv.call('POST', '/api/v1/gateways', {
+        cookie: admin,
+        body: { siteId: 1, name: 'to revoke' },
+      })
+    ).json();
+    expect((await post(created.apiKey, snapshotBody(TAG, 'k3'))).status).toBe(201);
+    expect(
+      (await srv.call('POST', `/api/v1/gateways/${created.id}/revoke`, { cookie: admin })).status,
+    ).toBe(200);
+    const res = await post(created.apiKey, snapshotBody(TAG, 'k4'));
+    expect(res.status).toBe(401);
+    expect((await res.json()).error.code).toBe('revoked_api_key');
+  });
+
+  it('a rotated key replaces the old one at once', async () => {
+    const created = await (
+      await srv.call('POST', '/api/v1/gateways', {
+        cookie: admin,
+        body: { siteId: 1, name: 'to rotate' },
+      })
+    ).json();
+    const rotated = await (
+      await srv.call('POST', `/api/v1/gateways/${created.id}/rotate`, { cookie: admin })
+    ).json();
+    expect((await post(created.apiKey, snapshotBody(TAG, 'r1'))).status).toBe(401);
+    expect((await post(rotated.apiKey, snapshotBody(TAG, 'r2'))).status).toBe(201);
+  });
+
+  it('answers 413 for a body over 16 MiB', async () => {
+    const res = await post(keyMfp, {
+      ...snapshotBody(TAG, 'big'),
+      samples: 'A'.repeat(17 * 1024 * 1024),
+    });
+    expect(res.status).toBe(413);
+    expect((await res.json()).error.code).toBe('payload_too_large');
+  });
+
+  it('reports a result per item for a batch', async () => {
+    const first = snapshotBody(TAG, 'b-1');
+    const res = await post(keyMfp, {
+      snapshots: [first, snapshotBody('NO-SUCH-TAG', 'b-2'), { uid: 'b-3' }, first],
+    });
+    expect(res.status).toBe(200);
+    const { results } = await res.json();
+    expect(results.map((r: { httpStatus: number }) => r.httpStatus)).toEqual([201, 404, 400, 200]);
+  });
+
+  it('when storing the job fails, the snapshot is not stored either (one transaction)', async () => {
+    const before = await count('snapshots');
+    await srv.ctx.db.execute(sql`RENAME TABLE jobs TO jobs_away`);
+    try {
+      const res = await post(keyMfp, snapshotBody(TAG, 'tx-1'));
+      expect(res.status).toBeGreaterThanOrEqual(500);
+    } finally {
+      await srv.ctx.db.execute(sql`RENAME TABLE jobs_away TO jobs`);
+    }
+    expect(await count('snapshots')).toBe(before);
+    expect((await post(keyMfp, snapshotBody(TAG, 'tx-1'))).status).toBe(201);
+  });
+
+  it('serves an OpenAPI 3.1 document generated from the schemas', async () => {
+    const doc = await (await srv.call('GET', '/api/ingest/v1/openapi.json')).json();
+    expect(doc.openapi).toBe('3.1.0');
+    expect(doc.components.schemas.Snapshot.properties.encoding.enum).toEqual([
+      'int16',
+      'int24',
+      'int32',
+      'float32',
+    ]);
+    expect(Object.keys(doc.paths['/snapshots'].post.responses)).toEqual(
+      expect.arrayContaining(['201', '200', '409', '429', '503']),
+    );
+  });
+});
+
+describe('ingest rate', () => {
+  it('past the per-gateway rate, answers 429 with Retry-After', async () => {
+    const limited = await startTestServer({ INGEST_MAX_PER_MIN: '3' });
+    try {
+      const a = await limited.signIn('admin');
+      const { apiKey } = await (
+        await limited.call('POST', '/api/v1/gateways', {
+          cookie: a,
+          body: { siteId: 1, name: 'slow' },
+        })
+      ).json();
+      const statuses: number[] = [];
+      let retryAfter: string | null = null;
+      for (let i = 0; i < 5; i++) {
+        const r = await limited.call('POST', '/api/ingest/v1/snapshots', {
+          body: snapshotBody(TAG, `rl-${i}`),
+          headers: { authorization: `Bearer ${apiKey}` },
+        });
+        statuses.push(r.status);
+        if (r.status === 429) retryAfter = r.headers.get('retry-after');
+      }
+      expect(statuses).toEqual([201, 201, 201, 429, 429]);
+      expect(Number(retryAfter)).toBeGreaterThan(0);
+    } finally {
+      await limited.stop();
+    }
+  });
+});

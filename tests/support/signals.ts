@@ -1,0 +1,70 @@
+/** Deterministic test captures: tones of known amplitude in ADC counts. Not demo data. */
+
+/** Mulberry32: small seeded PRNG so every run sends the same noise. */
+export function prng(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+export interface ToneOptions {
+  n?: number;
+  fs?: number;
+  /** Tones: frequency (Hz) and peak amplitude (g). */
+  tones?: { hz: number; peakG: number }[];
+  noiseG?: number;
+  sensitivityMvPerG?: number;
+  bits?: number;
+  fullScaleV?: number;
+  seed?: number;
+}
+
+/** int16 counts of the tones, as a gateway with the given ADC would send them. */
+export function toneCounts(o: ToneOptions = {}): Int16Array {
+  const n = o.n ?? 4096;
+  const fs = o.fs ?? 10240;
+  const tones = o.tones ?? [{ hz: 24.7, peakG: 0.5 }];
+  const sens = (o.sensitivityMvPerG ?? 100) / 1000; // V per g
+  const bits = o.bits ?? 16;
+  const fullScale = o.fullScaleV ?? 5;
+  const countsPerV = 2 ** (bits - 1) / fullScale;
+  const rand = prng(o.seed ?? 1);
+  const out = new Int16Array(n);
+  for (let i = 0; i < n; i++) {
+    let g = 0;
+    for (const t of tones) g += t.peakG * Math.sin((2 * Math.PI * t.hz * i) / fs);
+    g += (o.noiseG ?? 0.005) * (rand() + rand() + rand() - 1.5);
+    const c = Math.round(g * sens * countsPerV);
+    out[i] = Math.max(-32768, Math.min(32767, c));
+  }
+  return out;
+}
+
+export function base64Of(counts: Int16Array): string {
+  return Buffer.from(counts.buffer, counts.byteOffset, counts.byteLength).toString('base64');
+}
+
+/** An ingest body for one snapshot of `pointTag`. */
+export function snapshotBody(
+  pointTag: string,
+  uid: string,
+  o: ToneOptions & { takenAt?: string; speedRpm?: number } = {},
+) {
+  const counts = toneCounts(o);
+  return {
+    uid,
+    pointTag,
+    takenAt: o.takenAt ?? new Date().toISOString(),
+    sampleRateHz: o.fs ?? 10240,
+    encoding: 'int16',
+    samples: base64Of(counts),
+    adc: { bits: o.bits ?? 16, fullScaleV: o.fullScaleV ?? 5 },
+    sensor: { sensitivityMvPerG: o.sensitivityMvPerG ?? 100 },
+    ...(o.speedRpm ? { speedRpm: o.speedRpm } : {}),
+  };
+}
