@@ -1,0 +1,51 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
+import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
+
+let srv: TestServer;
+let browser: Browser;
+beforeAll(async () => {
+  srv = await startTestServer();
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await srv?.stop();
+});
+
+describe('sign-in in a real browser', () => {
+  it('shows the sign-in page to a visitor', async () => {
+    const page = await newPage(browser);
+    await page.goto(srv.url + '/');
+    await page.getByRole('button', { name: /sign in/i }).waitFor();
+    expect(page.url()).toContain('/sign-in');
+    await screenshot(page, 'sign-in');
+    await page.context().close();
+  });
+
+  it('a wrong password shows the server message and stays on the page', async () => {
+    const page = await newPage(browser);
+    await page.goto(srv.url + '/sign-in');
+    await page.getByLabel(/e-mail/i).fill('engineer@turnstone.local');
+    await page.getByLabel(/password/i).fill('wrong-password');
+    await page.getByRole('button', { name: /sign in/i }).click();
+    await page.getByText('E-mail address or password is not correct.').waitFor();
+    await page.context().close();
+  });
+
+  it.each([
+    ['admin', ['Fleet']],
+    ['engineer', ['Fleet']],
+    ['planner', ['Fleet']],
+    ['operator', ['Fleet']],
+  ])('%s signs in and sees the fleet with the right navigation', async (role, expected) => {
+    const page = await newPage(browser);
+    await signInAs(page, srv.url, role);
+    const nav = page.getByRole('navigation').first();
+    for (const label of expected) await nav.getByRole('link', { name: label }).waitFor();
+    await page.getByText('Marlow Fen Pumping Station').first().waitFor();
+    await screenshot(page, `fleet-${role}`);
+    await page.context().close();
+  });
+});

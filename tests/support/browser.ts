@@ -1,0 +1,50 @@
+/**
+ * Browser tests drive Debian's Chromium with playwright-core (no browser download): headless,
+ * no sandbox (CI runs as root), background networking off (the machine has no Internet).
+ * Screenshots go to test-output/ (git-ignored) for people to look at.
+ */
+import { mkdirSync } from 'node:fs';
+import { join } from 'node:path';
+import { chromium, type Browser, type Page } from 'playwright-core';
+import { DEMO_PASSWORD, demoEmail } from './test-server.ts';
+
+export const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+export const OUTPUT_DIR = join(process.cwd(), 'test-output');
+
+export async function launchBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: CHROMIUM,
+    headless: true,
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--disable-dev-shm-usage',
+    ],
+  });
+}
+
+export async function newPage(browser: Browser, width = 1280, height = 860): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width, height } });
+  return context.newPage();
+}
+
+/** Signs in through the real sign-in form and waits for the app shell. */
+export async function signInAs(page: Page, baseUrl: string, role: string): Promise<void> {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByLabel(/e-mail/i).fill(demoEmail(role));
+  await page.getByLabel(/password/i).fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: /sign in/i }).click();
+  await page.getByRole('navigation').first().waitFor();
+}
+
+export async function screenshot(page: Page, name: string): Promise<string> {
+  mkdirSync(OUTPUT_DIR, { recursive: true });
+  const path = join(OUTPUT_DIR, `${name}.png`);
+  await page.screenshot({ path, fullPage: true });
+  return path;
+}
