@@ -73,6 +73,7 @@ export async function startTestServer(env: Record<string, string> = {}): Promise
     LOG_LEVEL: 'silent',
     RUN_WORKER: 'false',
     SEED_DEMO: 'true',
+    DEMO_HISTORY_WEEKS: '0',
     ...env,
   });
   const call: TestServer['call'] = (method, path, init = {}) => {

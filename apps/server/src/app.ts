@@ -1,6 +1,7 @@
 import express, { Router, type Request, type Response, type NextFunction } from 'express';
 import cookieParser from 'cookie-parser';
 import helmet from 'helmet';
+import compression from 'compression';
 import { randomUUID } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
@@ -81,6 +82,8 @@ export function createApp(ctx: AppContext) {
       strictTransportSecurity: ctx.config.COOKIE_SECURE,
     }),
   );
+
+  app.use(compression());
 
   const authenticate = createAuthenticate(ctx);
   const api = Router();

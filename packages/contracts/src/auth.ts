@@ -27,3 +27,6 @@ export const meSchema = z.object({
   siteIds: z.array(z.number().int()),
 });
 export type Me = z.infer<typeof meSchema>;
+
+export const signInResponseSchema = z.object({ user: meSchema });
+export type SignInResponse = z.infer<typeof signInResponseSchema>;

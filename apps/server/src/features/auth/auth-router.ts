@@ -94,6 +94,7 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
       access: ALL_ROLES,
       summary: 'who am I',
       handler: (req: Request, res: Response) => {
+        res.setHeader('Cache-Control', 'no-store');
         res.json(service.toMe(requireUser(req)));
       },
     },

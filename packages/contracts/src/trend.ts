@@ -1,0 +1,62 @@
+import { z } from 'zod';
+
+/**
+ * `GET /api/v1/points/:id/trend?band=<key>&from=<iso>&to=<iso>` — one band of one point
+ * over a period (default: the last 90 days), oldest first, with the levels in force and
+ * the projection to the next level.
+ */
+export const trendQuerySchema = z.object({
+  band: z.string().min(1).max(64).default('overall-velocity'),
+  from: z.iso.datetime({ offset: true }).optional(),
+  to: z.iso.datetime({ offset: true }).optional(),
+});
+export type TrendQuery = z.infer<typeof trendQuerySchema>;
+
+export const trendPointSchema = z.object({
+  /** takenAt, ISO 8601 UTC */
+  t: z.string(),
+  v: z.number(),
+  /** quality verdict of the capture */
+  q: z.enum(['ok', 'suspect', 'unusable']),
+  analysisId: z.number().int(),
+});
+
+export const trendResponseSchema = z.object({
+  pointId: z.number().int(),
+  band: z.object({ key: z.string(), name: z.string(), unit: z.string(), spectrum: z.string() }),
+  /** Levels in force now (statistical levels applied when established). */
+  levels: z.object({
+    alert: z.number(),
+    danger: z.number(),
+    source: z.enum(['fixed', 'statistical']),
+  }),
+  baseline: z.object({ mean: z.number(), sigma: z.number(), count: z.number() }).nullable(),
+  items: z.array(trendPointSchema),
+  projection: z.object({
+    outcome: z.enum([
+      'projected',
+      'too-few-points',
+      'above-danger',
+      'not-rising',
+      'beyond-horizon',
+    ]),
+    model: z.enum(['linear', 'exponential']).nullable(),
+    r2: z.number().nullable(),
+    target: z.object({ level: z.enum(['alert', 'danger']), value: z.number() }).nullable(),
+    crossingAt: z.string().nullable(),
+  }),
+  /** Alert raises/escalations/acks/clears of this band in the period, for markers. */
+  events: z.array(
+    z.object({
+      t: z.string(),
+      kind: z.enum(['raised', 'escalated', 'acknowledged', 'cleared']),
+      level: z.enum(['alert', 'danger']),
+      alertId: z.number().int(),
+    }),
+  ),
+  /** Maintenance findings on this point in the period, for markers. */
+  findings: z.array(
+    z.object({ t: z.string(), title: z.string(), workOrderRef: z.string().nullable() }),
+  ),
+});
+export type TrendResponse = z.infer<typeof trendResponseSchema>;
