@@ -579,11 +579,41 @@ export const outbox = mysqlTable(
     sendingStartedAt: at('sending_started_at'),
     sentAt: at('sent_at'),
     lastError: text('last_error'),
+    /**
+     * Final outcome: null while the row may still be sent; `sent`; `failed` after the last
+     * attempt; `uncertain` when a send started, its worker died and the relay cannot be
+     * asked whether it arrived (the row is not sent again, so nobody gets it twice).
+     */
+    outcome: mysqlEnum('outcome', ['sent', 'failed', 'uncertain']),
     createdAt: createdAt(),
   },
   (t) => [
     uniqueIndex('outbox_dedupe_uq').on(t.dedupeKey),
     index('outbox_due_idx').on(t.sentAt, t.nextAttemptAt),
+  ],
+);
+
+/** What the local SMTP fake received (the Mailbox screen); empty when a real relay is used. */
+export const mailMessages = mysqlTable(
+  'mail_messages',
+  {
+    id: bigId(),
+    /** The Message-ID header: how the outbox sender asks whether a message already arrived. */
+    messageId: varchar('message_id', { length: 255 }),
+    mailFrom: varchar('mail_from', { length: 320 }).notNull(),
+    /** Envelope recipients, comma-separated. */
+    mailTo: text('mail_to').notNull(),
+    subject: varchar('subject', { length: 500 }).notNull(),
+    headers: jsonColumn<Record<string, string>>('headers').notNull(),
+    textBody: text('text_body'),
+    htmlBody: text('html_body'),
+    receivedAt: at('received_at')
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+  },
+  (t) => [
+    index('mail_messages_message_id_idx').on(t.messageId),
+    index('mail_messages_received_idx').on(t.receivedAt),
   ],
 );
 
