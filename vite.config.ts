@@ -34,6 +34,16 @@ export default defineConfig({
       },
       {
         test: {
+          name: 'faults',
+          root: here,
+          include: ['tests/faults/**/*.test.ts'],
+          fileParallelism: false,
+          testTimeout: 300_000,
+          hookTimeout: 120_000,
+        },
+      },
+      {
+        test: {
           name: 'browser',
           root: here,
           include: ['tests/browser/**/*.test.ts'],
