@@ -17,10 +17,12 @@ import { gatewayRoutes } from './features/gateways/gateways-router.ts';
 import { ingestRouter } from './features/ingest/ingest-router.ts';
 import { uploadRoutes } from './features/uploads/uploads-router.ts';
 import { snapshotRoutes } from './features/snapshots/snapshots-router.ts';
+import { alertRoutes } from './features/alerts/alerts-router.ts';
+import { limitRoutes } from './features/limits/limits-router.ts';
 
 /** The feature routes below /api/v1 (auth mounts its own, behind its rate limiters). */
 function featureRoutes(ctx: AppContext): RouteSpec[] {
-  return [...fleetRoutes(ctx), ...gatewayRoutes(ctx), ...uploadRoutes(ctx), ...snapshotRoutes(ctx)];
+  return [...fleetRoutes(ctx), ...gatewayRoutes(ctx), ...uploadRoutes(ctx), ...snapshotRoutes(ctx), ...alertRoutes(ctx), ...limitRoutes(ctx)];
 }
 
 /** Every dashboard route below /api/v1: the access table the role × route test walks. */

@@ -7,16 +7,13 @@ import { promisify } from 'node:util';
 import { inflateRaw } from 'node:zlib';
 import { eq } from 'drizzle-orm';
 import { analyzeSnapshot, decodeSamples, type SnapshotAnalysis } from '@turnstone/dsp';
-import {
-  isoZone,
-  limitSetFromTemplate,
-  type BandDefinition as LimitBand,
-} from '@turnstone/condition';
+import { isoZone, type BandDefinition as LimitBand } from '@turnstone/condition';
 import type { AppContext } from '../../lib/context.ts';
 import { completeJobIn, LeaseLostError, type JobRow } from '../worker/queue-repository.ts';
 import * as repo from './analysis-repository.ts';
 import { combineBandValues, toDspBands } from './band-mapping.ts';
 import { applyCondition } from './condition-step.ts';
+import { templateBandsFor } from '../limits/limits-service.ts';
 
 const inflate = promisify(inflateRaw);
 
@@ -33,13 +30,8 @@ export async function ensureLimitSet(
 ): Promise<repo.StoredLimitSet> {
   const existing = await repo.loadLimitSet(ctx.db, pointId);
   if (existing) return existing;
-  const template = limitSetFromTemplate({
-    type: machine.type,
-    isoGroup: machine.isoGroup === 1 ? 1 : 2,
-    foundation: machine.foundation,
-    nominalRpm: machine.nominalRpm,
-    rollingBearings: true,
-  });
+  // A machine-type template an engineer stored wins over the built-in one.
+  const template = await templateBandsFor(ctx, machine);
   await ctx.db.transaction((tx) =>
     repo.saveLimitSet(tx, pointId, `${machine.type} template`, template.bands, null),
   );

@@ -1,0 +1,102 @@
+import { and, asc, desc, eq, inArray, type SQL } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/mysql-core';
+import type { Db } from '@turnstone/db/client';
+import { alertEvents, alerts, areas, machines, points, sites, users } from '@turnstone/db/schema';
+import type { Tx } from '../analysis/analysis-repository.ts';
+
+export interface AlertFilter {
+  state?: 'raised' | 'acknowledged' | 'cleared';
+  level?: 'alert' | 'danger';
+  siteId?: number;
+  pointId?: number;
+  ids?: number[];
+  /** Sites the caller may see; null for every site (admin). */
+  siteIds: number[] | null;
+  limit?: number;
+}
+
+const ackUser = alias(users, 'ack_user');
+
+const columns = {
+  id: alerts.id,
+  level: alerts.level,
+  state: alerts.state,
+  pointId: alerts.pointId,
+  pointTag: points.tag,
+  pointName: points.name,
+  machineId: machines.id,
+  machineName: machines.name,
+  siteId: areas.siteId,
+  siteCode: sites.code,
+  bandKey: alerts.bandKey,
+  bandName: alerts.bandName,
+  unit: alerts.unit,
+  value: alerts.lastValue,
+  peakValue: alerts.peakValue,
+  limit: alerts.limitValue,
+  suspect: alerts.suspect,
+  firstAt: alerts.firstAt,
+  lastAt: alerts.lastAt,
+  clearedAt: alerts.clearedAt,
+  acknowledgedBy: ackUser.name,
+  acknowledgedAt: alerts.acknowledgedAt,
+  acknowledgeNote: alerts.acknowledgeNote,
+};
+
+export type AlertRow = Awaited<ReturnType<typeof listAlerts>>[number];
+
+/** Alerts with their point, machine and site, newest activity first. */
+export async function listAlerts(db: Db | Tx, f: AlertFilter) {
+  const where: SQL[] = [];
+  if (f.state) where.push(eq(alerts.state, f.state));
+  if (f.level) where.push(eq(alerts.level, f.level));
+  if (f.siteId) where.push(eq(areas.siteId, f.siteId));
+  if (f.pointId) where.push(eq(alerts.pointId, f.pointId));
+  if (f.ids) where.push(inArray(alerts.id, f.ids.length ? f.ids : [0]));
+  if (f.siteIds) where.push(inArray(areas.siteId, f.siteIds.length ? f.siteIds : [0]));
+  return db
+    .select(columns)
+    .from(alerts)
+    .innerJoin(points, eq(points.id, alerts.pointId))
+    .innerJoin(machines, eq(machines.id, points.machineId))
+    .innerJoin(areas, eq(areas.id, machines.areaId))
+    .innerJoin(sites, eq(sites.id, areas.siteId))
+    .leftJoin(ackUser, eq(ackUser.id, alerts.acknowledgedBy))
+    .where(and(...where))
+    .orderBy(desc(alerts.lastAt), desc(alerts.id))
+    .limit(f.limit ?? 500);
+}
+
+export async function alertHistory(db: Db, alertId: number) {
+  return db
+    .select({
+      id: alertEvents.id,
+      kind: alertEvents.kind,
+      level: alertEvents.level,
+      value: alertEvents.value,
+      at: alertEvents.at,
+      userName: users.name,
+      note: alertEvents.note,
+    })
+    .from(alertEvents)
+    .leftJoin(users, eq(users.id, alertEvents.userId))
+    .where(eq(alertEvents.alertId, alertId))
+    .orderBy(asc(alertEvents.at), asc(alertEvents.id));
+}
+
+/** The alert rows, locked for this transaction. */
+export async function lockAlerts(tx: Tx, ids: number[]) {
+  return tx.select().from(alerts).where(inArray(alerts.id, ids)).for('update');
+}
+
+export async function siteOfPoint(db: Db | Tx, pointId: number) {
+  const [row] = await db
+    .select({ siteId: areas.siteId })
+    .from(points)
+    .innerJoin(machines, eq(machines.id, points.machineId))
+    .innerJoin(areas, eq(areas.id, machines.areaId))
+    .where(eq(points.id, pointId));
+  return row?.siteId;
+}
+
+export { alerts, alertEvents };

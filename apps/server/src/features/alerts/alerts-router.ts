@@ -1,0 +1,65 @@
+import { z } from 'zod';
+import {
+  acknowledgeManyRequestSchema,
+  acknowledgeRequestSchema,
+  acknowledgeResponseSchema,
+  alertDetailSchema,
+  alertListQuerySchema,
+  alertListSchema,
+} from '@turnstone/contracts/alerts';
+import type { AppContext } from '../../lib/context.ts';
+import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import * as service from './alerts-service.ts';
+
+const idParam = z.object({ id: z.coerce.number().int().positive() });
+
+export function alertRoutes(ctx: AppContext): RouteSpec[] {
+  return [
+    {
+      method: 'get',
+      path: '/alerts',
+      access: ALL_ROLES,
+      summary: 'list alerts of my sites',
+      handler: async (req, res) => {
+        const query = alertListQuerySchema.parse(req.query);
+        res.json(alertListSchema.parse(await service.listAlerts(ctx, requireUser(req), query)));
+      },
+    },
+    {
+      // Declared before /alerts/:id so "acknowledge" is never read as an id.
+      method: 'post',
+      path: '/alerts/acknowledge',
+      access: ['operator', 'engineer'],
+      summary: 'acknowledge several alerts',
+      handler: async (req, res) => {
+        const body = acknowledgeManyRequestSchema.parse(req.body);
+        const out = await service.acknowledge(ctx, requireUser(req), body.ids, body.note);
+        res.json(acknowledgeResponseSchema.parse(out));
+      },
+    },
+    {
+      method: 'get',
+      path: '/alerts/:id',
+      access: ALL_ROLES,
+      summary: 'one alert with its history',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        res.json(alertDetailSchema.parse(await service.getAlert(ctx, requireUser(req), id)));
+      },
+    },
+    {
+      method: 'post',
+      path: '/alerts/:id/acknowledge',
+      access: ['operator', 'engineer'],
+      summary: 'acknowledge an alert',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const body = acknowledgeRequestSchema.parse(req.body);
+        const out = await service.acknowledge(ctx, requireUser(req), [id], body.note);
+        res.json(
+          alertDetailSchema.parse(await service.getAlert(ctx, requireUser(req), out.items[0]!.id)),
+        );
+      },
+    },
+  ];
+}

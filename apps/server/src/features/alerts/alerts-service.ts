@@ -1,0 +1,151 @@
+/**
+ * Alerts for the dashboard: the list and one alert's history for every role (only the sites
+ * it is assigned to), and acknowledgement by operators and engineers. An acknowledgement
+ * goes through `@turnstone/condition`'s state machine on the point's locked state row, so it
+ * cannot race the worker judging a new capture of the same point.
+ */
+import { eq } from 'drizzle-orm';
+import { acknowledgeAlert, type PointState } from '@turnstone/condition';
+import type { Alert, AlertDetail, AlertListQuery } from '@turnstone/contracts/alerts';
+import { alertListQuerySchema } from '@turnstone/contracts/alerts';
+import { pointStates } from '@turnstone/db/schema';
+import type { AppContext } from '../../lib/context.ts';
+import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
+import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
+import { lockPointState } from '../analysis/analysis-repository.ts';
+import { writeAudit } from '../audit/audit-repository.ts';
+import * as repo from './alerts-repository.ts';
+
+const iso = (d: Date | null) => (d ? d.toISOString() : null);
+
+function toAlert(r: repo.AlertRow): Alert {
+  return {
+    ...r,
+    suspect: Boolean(r.suspect),
+    firstAt: r.firstAt.toISOString(),
+    lastAt: r.lastAt.toISOString(),
+    clearedAt: iso(r.clearedAt),
+    acknowledgedAt: iso(r.acknowledgedAt),
+    acknowledgedBy: r.acknowledgedBy ?? null,
+    acknowledgeNote: r.acknowledgeNote ?? null,
+  };
+}
+
+const visibleSites = (user: SessionUser) => (user.role === 'admin' ? null : user.siteIds);
+
+export async function listAlerts(ctx: AppContext, user: SessionUser, query: AlertListQuery) {
+  const q = alertListQuerySchema.parse(query);
+  const rows = await repo.listAlerts(ctx.db, { ...q, siteIds: visibleSites(user) });
+  return { items: rows.map(toAlert) };
+}
+
+export async function getAlert(
+  ctx: AppContext,
+  user: SessionUser,
+  id: number,
+): Promise<AlertDetail> {
+  const [row] = await repo.listAlerts(ctx.db, { ids: [id], siteIds: null, limit: 1 });
+  if (!row) throw notFound('Alert');
+  if (!canSeeSite(user, row.siteId))
+    throw forbidden('This alert belongs to a site you are not assigned to.');
+  const history = await repo.alertHistory(ctx.db, id);
+  return {
+    ...toAlert(row),
+    history: history.map((h) => ({ ...h, at: h.at.toISOString(), userName: h.userName ?? null })),
+  };
+}
+
+/**
+ * Acknowledges every alert in `ids` with one note, all or nothing, in one transaction:
+ * point state rows locked first (in point order, as the worker locks them), then the alert
+ * rows; each alert must be `raised` (409 otherwise: acknowledged or cleared alerts are not
+ * acknowledged again). Writes the alert row, an alert_events row and an audit_log row each.
+ */
+export async function acknowledge(
+  ctx: AppContext,
+  user: SessionUser,
+  ids: number[],
+  note: string,
+  now = new Date(),
+): Promise<{ items: Alert[] }> {
+  const unique = [...new Set(ids)].sort((a, b) => a - b);
+  const seen = await repo.listAlerts(ctx.db, { ids: unique, siteIds: null, limit: unique.length });
+  if (seen.length !== unique.length) throw notFound('Alert');
+  for (const r of seen) {
+    if (!canSeeSite(user, r.siteId))
+      throw forbidden('An alert belongs to a site you are not assigned to.');
+  }
+  const pointIds = [...new Set(seen.map((r) => r.pointId))].sort((a, b) => a - b);
+
+  await ctx.db.transaction(async (tx) => {
+    const states = new Map<number, PointState>();
+    for (const pointId of pointIds) {
+      const row = await lockPointState(tx, pointId);
+      states.set(pointId, row.state as unknown as PointState);
+    }
+    const locked = await repo.lockAlerts(tx, unique);
+    const refused = locked.filter((a) => a.state !== 'raised');
+    if (refused.length > 0) {
+      throw new AppError(
+        'alert_not_raised',
+        refused.length === 1
+          ? `Alert ${refused[0]!.id} is already ${refused[0]!.state}; only raised alerts can be acknowledged.`
+          : `${refused.length} of the selected alerts are no longer raised; only raised alerts can be acknowledged.`,
+        409,
+        refused.map((a) => ({ id: a.id, state: a.state })),
+      );
+    }
+    for (const a of locked) {
+      const state = states.get(a.pointId) ?? {};
+      const result = acknowledgeAlert(state, a.bandKey, {
+        by: String(user.id),
+        note,
+        at: now.getTime(),
+      });
+      const ignored = result.changes.find((c) => c.kind === 'ignored');
+      if (ignored && ignored.kind === 'ignored' && ignored.reason === 'already-acknowledged') {
+        throw new AppError('alert_not_raised', `Alert ${a.id} is already acknowledged.`, 409, [
+          { id: a.id, state: 'acknowledged' },
+        ]);
+      }
+      // 'no-alert': the point's state no longer tracks this band (its band was removed
+      // from the limit set); the row alone is acknowledged.
+      states.set(a.pointId, result.state);
+      await tx
+        .update(repo.alerts)
+        .set({
+          state: 'acknowledged',
+          acknowledgedBy: user.id,
+          acknowledgedAt: now,
+          acknowledgeNote: note,
+        })
+        .where(eq(repo.alerts.id, a.id));
+      await tx.insert(repo.alertEvents).values({
+        alertId: a.id,
+        kind: 'acknowledged',
+        level: a.level,
+        value: a.lastValue,
+        userId: user.id,
+        note,
+        at: now,
+      });
+      await writeAudit(tx, {
+        actorUserId: user.id,
+        action: 'alert.acknowledge',
+        entity: 'alert',
+        entityId: a.id,
+        before: { state: a.state, level: a.level },
+        after: { state: 'acknowledged', level: a.level, note },
+        reason: note,
+      });
+    }
+    for (const [pointId, state] of states) {
+      await tx
+        .update(pointStates)
+        .set({ state: state as unknown as Record<string, unknown>, updatedAt: now })
+        .where(eq(pointStates.pointId, pointId));
+    }
+  });
+  const rows = await repo.listAlerts(ctx.db, { ids: unique, siteIds: null, limit: unique.length });
+  return { items: rows.map(toAlert) };
+}

@@ -1,0 +1,84 @@
+import { z } from 'zod';
+
+/** Alerts of the limit evaluation: level, lifecycle, and the Alerts screen's requests. */
+
+export const alertLevelSchema = z.enum(['alert', 'danger']);
+export const alertStateSchema = z.enum(['raised', 'acknowledged', 'cleared']);
+export type AlertLevelName = z.infer<typeof alertLevelSchema>;
+export type AlertStateName = z.infer<typeof alertStateSchema>;
+
+/** `GET /api/v1/alerts?state=&siteId=&pointId=&level=` */
+export const alertListQuerySchema = z.object({
+  state: alertStateSchema.optional(),
+  level: alertLevelSchema.optional(),
+  siteId: z.coerce.number().int().positive().optional(),
+  pointId: z.coerce.number().int().positive().optional(),
+  limit: z.coerce.number().int().min(1).max(1000).default(500),
+});
+export type AlertListQuery = z.input<typeof alertListQuerySchema>;
+
+export const alertSchema = z.object({
+  id: z.number().int(),
+  level: alertLevelSchema,
+  state: alertStateSchema,
+  pointId: z.number().int(),
+  pointTag: z.string(),
+  pointName: z.string(),
+  machineId: z.number().int(),
+  machineName: z.string(),
+  siteId: z.number().int(),
+  siteCode: z.string(),
+  bandKey: z.string(),
+  bandName: z.string(),
+  unit: z.string(),
+  /** Latest value while open. */
+  value: z.number(),
+  peakValue: z.number(),
+  /** The level exceeded (after escalation: the danger level). */
+  limit: z.number(),
+  suspect: z.boolean(),
+  firstAt: z.string(),
+  lastAt: z.string(),
+  clearedAt: z.string().nullable(),
+  acknowledgedBy: z.string().nullable(),
+  acknowledgedAt: z.string().nullable(),
+  acknowledgeNote: z.string().nullable(),
+});
+export type Alert = z.infer<typeof alertSchema>;
+
+export const alertListSchema = z.object({ items: z.array(alertSchema) });
+export type AlertList = z.infer<typeof alertListSchema>;
+
+export const alertEventSchema = z.object({
+  id: z.number().int(),
+  kind: z.enum(['raised', 'escalated', 'acknowledged', 'cleared']),
+  level: alertLevelSchema,
+  value: z.number().nullable(),
+  at: z.string(),
+  userName: z.string().nullable(),
+  note: z.string().nullable(),
+});
+export type AlertEvent = z.infer<typeof alertEventSchema>;
+
+/** `GET /api/v1/alerts/:id` */
+export const alertDetailSchema = alertSchema.extend({ history: z.array(alertEventSchema) });
+export type AlertDetail = z.infer<typeof alertDetailSchema>;
+
+export const acknowledgeNoteSchema = z
+  .string()
+  .trim()
+  .min(2, 'Write a short note (what you saw or did).')
+  .max(1000, 'Keep the note under 1000 characters.');
+
+/** `POST /api/v1/alerts/:id/acknowledge` */
+export const acknowledgeRequestSchema = z.object({ note: acknowledgeNoteSchema });
+export type AcknowledgeRequest = z.infer<typeof acknowledgeRequestSchema>;
+
+/** `POST /api/v1/alerts/acknowledge`: several at once, all or nothing. */
+export const acknowledgeManyRequestSchema = z.object({
+  ids: z.array(z.number().int().positive()).min(1, 'Select at least one alert.').max(200),
+  note: acknowledgeNoteSchema,
+});
+export type AcknowledgeManyRequest = z.infer<typeof acknowledgeManyRequestSchema>;
+
+export const acknowledgeResponseSchema = z.object({ items: z.array(alertSchema) });
