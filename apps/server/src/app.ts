@@ -19,10 +19,15 @@ import { uploadRoutes } from './features/uploads/uploads-router.ts';
 import { snapshotRoutes } from './features/snapshots/snapshots-router.ts';
 import { alertRoutes } from './features/alerts/alerts-router.ts';
 import { limitRoutes } from './features/limits/limits-router.ts';
+import { setupRoutes } from './features/setup/setup-router.ts';
+import { auditRoutes } from './features/audit/audit-router.ts';
+import { pointRoutes } from './features/points/points-router.ts';
+import { reviewRoutes } from './features/review/review-router.ts';
+import { findingRoutes } from './features/findings/findings-router.ts';
 
 /** The feature routes below /api/v1 (auth mounts its own, behind its rate limiters). */
 function featureRoutes(ctx: AppContext): RouteSpec[] {
-  return [...fleetRoutes(ctx), ...gatewayRoutes(ctx), ...uploadRoutes(ctx), ...snapshotRoutes(ctx), ...alertRoutes(ctx), ...limitRoutes(ctx)];
+  return [...fleetRoutes(ctx), ...gatewayRoutes(ctx), ...uploadRoutes(ctx), ...snapshotRoutes(ctx), ...alertRoutes(ctx), ...limitRoutes(ctx), ...pointRoutes(ctx), ...setupRoutes(ctx), ...auditRoutes(ctx), ...reviewRoutes(ctx), ...findingRoutes(ctx)];
 }
 
 /** Every dashboard route below /api/v1: the access table the role × route test walks. */

@@ -1,0 +1,236 @@
+import { and, asc, desc, eq, gte, inArray, isNull, lte, or, sql } from 'drizzle-orm';
+import type { Db } from '@turnstone/db/client';
+import {
+  alertEvents,
+  alerts,
+  analyses,
+  areas,
+  bandValues,
+  bearings,
+  findings,
+  gears,
+  machines,
+  points,
+  qualityNotices,
+  sites,
+  snapshots,
+} from '@turnstone/db/schema';
+
+/** Columns of an analysis the lists show (no spectra). */
+const summaryColumns = {
+  id: analyses.id,
+  snapshotId: analyses.snapshotId,
+  pointId: analyses.pointId,
+  takenAt: analyses.takenAt,
+  accelRmsG: analyses.accelRmsG,
+  accelPeakG: analyses.accelPeakG,
+  velocityRmsMmS: analyses.velocityRmsMmS,
+  displacementPkPkUm: analyses.displacementPkPkUm,
+  crestFactor: analyses.crestFactor,
+  kurtosis: analyses.kurtosis,
+  speedRpm: analyses.speedRpm,
+  speedSource: analyses.speedSource,
+  isoZone: analyses.isoZone,
+  qualityVerdict: analyses.qualityVerdict,
+  bitsUsed: analyses.bitsUsed,
+};
+export type AnalysisSummaryRow = Awaited<ReturnType<typeof listAnalyses>>[number];
+
+export async function machineWithPlace(db: Db, machineId: number) {
+  const [row] = await db
+    .select({ machine: machines, area: areas, site: sites })
+    .from(machines)
+    .innerJoin(areas, eq(areas.id, machines.areaId))
+    .innerJoin(sites, eq(sites.id, areas.siteId))
+    .where(eq(machines.id, machineId));
+  return row;
+}
+
+export async function machineComponents(db: Db, machineId: number) {
+  const [b, g] = await Promise.all([
+    db.select().from(bearings).where(eq(bearings.machineId, machineId)).orderBy(asc(bearings.id)),
+    db.select().from(gears).where(eq(gears.machineId, machineId)).orderBy(asc(gears.id)),
+  ]);
+  return { bearings: b, gears: g };
+}
+
+export async function machinePoints(db: Db, machineId: number) {
+  return db.select().from(points).where(eq(points.machineId, machineId)).orderBy(asc(points.tag));
+}
+
+/** The newest analysis of each point (by takenAt). */
+export async function latestAnalyses(
+  db: Db,
+  pointIds: number[],
+): Promise<Map<number, AnalysisSummaryRow>> {
+  if (pointIds.length === 0) return new Map();
+  const rows = await db
+    .select(summaryColumns)
+    .from(analyses)
+    .where(
+      and(
+        inArray(analyses.pointId, pointIds),
+        sql`${analyses.takenAt} = (SELECT MAX(a2.taken_at) FROM analyses a2 WHERE a2.point_id = ${analyses.pointId})`,
+      ),
+    );
+  const out = new Map<number, AnalysisSummaryRow>();
+  for (const r of rows) if (!out.has(r.pointId)) out.set(r.pointId, r);
+  return out;
+}
+
+export async function listAnalyses(
+  db: Db,
+  pointId: number,
+  from: Date | undefined,
+  to: Date | undefined,
+  limit: number,
+) {
+  return db
+    .select(summaryColumns)
+    .from(analyses)
+    .where(
+      and(
+        eq(analyses.pointId, pointId),
+        from ? gte(analyses.takenAt, from) : undefined,
+        to ? lte(analyses.takenAt, to) : undefined,
+      ),
+    )
+    .orderBy(desc(analyses.takenAt), desc(analyses.id))
+    .limit(limit);
+}
+
+/** The last `limit` values of one band, newest first (served by band_values_trend_idx). */
+export async function recentBandValues(db: Db, pointId: number, bandKey: string, limit: number) {
+  return db
+    .select({ takenAt: bandValues.takenAt, value: bandValues.value })
+    .from(bandValues)
+    .where(and(eq(bandValues.pointId, pointId), eq(bandValues.bandKey, bandKey)))
+    .orderBy(desc(bandValues.takenAt))
+    .limit(limit);
+}
+
+/** One band of one point in a period, oldest first (band_values_trend_idx range scan). */
+export async function bandTrend(db: Db, pointId: number, bandKey: string, from: Date, to: Date) {
+  return db
+    .select({
+      takenAt: bandValues.takenAt,
+      value: bandValues.value,
+      quality: bandValues.qualityVerdict,
+      analysisId: bandValues.analysisId,
+    })
+    .from(bandValues)
+    .where(
+      and(
+        eq(bandValues.pointId, pointId),
+        eq(bandValues.bandKey, bandKey),
+        gte(bandValues.takenAt, from),
+        lte(bandValues.takenAt, to),
+      ),
+    )
+    .orderBy(asc(bandValues.takenAt));
+}
+
+export async function alertEventsOf(
+  db: Db,
+  pointId: number,
+  bandKey: string,
+  from: Date,
+  to: Date,
+) {
+  return db
+    .select({
+      at: alertEvents.at,
+      kind: alertEvents.kind,
+      level: alertEvents.level,
+      alertId: alertEvents.alertId,
+    })
+    .from(alertEvents)
+    .innerJoin(alerts, eq(alerts.id, alertEvents.alertId))
+    .where(
+      and(
+        eq(alerts.pointId, pointId),
+        eq(alerts.bandKey, bandKey),
+        gte(alertEvents.at, from),
+        lte(alertEvents.at, to),
+      ),
+    )
+    .orderBy(asc(alertEvents.at));
+}
+
+export async function findingsOf(db: Db, pointId: number, bandKey: string, from: Date, to: Date) {
+  return db
+    .select({
+      createdAt: findings.createdAt,
+      title: findings.title,
+      workOrderRef: findings.workOrderRef,
+    })
+    .from(findings)
+    .where(
+      and(
+        eq(findings.pointId, pointId),
+        or(isNull(findings.bandKey), eq(findings.bandKey, bandKey)),
+        gte(findings.createdAt, from),
+        lte(findings.createdAt, to),
+      ),
+    )
+    .orderBy(asc(findings.createdAt));
+}
+
+/** Highest open alert level per point of the list. */
+export async function openAlertLevels(db: Db, pointIds: number[]) {
+  if (pointIds.length === 0) return new Map<number, 'alert' | 'danger'>();
+  const rows = await db
+    .select({ pointId: alerts.pointId, level: alerts.level })
+    .from(alerts)
+    .where(
+      and(inArray(alerts.pointId, pointIds), inArray(alerts.state, ['raised', 'acknowledged'])),
+    );
+  const out = new Map<number, 'alert' | 'danger'>();
+  for (const r of rows) if (out.get(r.pointId) !== 'danger') out.set(r.pointId, r.level);
+  return out;
+}
+
+export async function openQualityPoints(db: Db, pointIds: number[], since: Date) {
+  if (pointIds.length === 0) return new Set<number>();
+  const rows = await db
+    .selectDistinct({ pointId: qualityNotices.pointId })
+    .from(qualityNotices)
+    .where(
+      and(
+        inArray(qualityNotices.pointId, pointIds),
+        isNull(qualityNotices.reviewedAt),
+        gte(qualityNotices.takenAt, since),
+      ),
+    );
+  return new Set(rows.map((r) => r.pointId));
+}
+
+export async function analysisRow(db: Db, analysisId: number) {
+  const [row] = await db.select().from(analyses).where(eq(analyses.id, analysisId));
+  return row;
+}
+
+/** The spectra of the last `limit` analyses of a point, newest first. */
+export async function recentSpectra(
+  db: Db,
+  pointId: number,
+  column: 'accelSpectrum' | 'velocitySpectrum' | 'envelopeSpectrum' | 'orderSpectrum',
+  limit: number,
+) {
+  return db
+    .select({
+      id: analyses.id,
+      takenAt: analyses.takenAt,
+      summary: analyses.summary,
+      values: analyses[column],
+    })
+    .from(analyses)
+    .where(eq(analyses.pointId, pointId))
+    .orderBy(desc(analyses.takenAt), desc(analyses.id))
+    .limit(limit);
+}
+
+export async function snapshotRow(db: Db, snapshotId: number) {
+  const [row] = await db.select().from(snapshots).where(eq(snapshots.id, snapshotId));
+  return row;
+}

@@ -1,0 +1,141 @@
+import type { Response } from 'express';
+import { z } from 'zod';
+import {
+  analysesQuerySchema,
+  spectrumQuerySchema,
+  waterfallQuerySchema,
+} from '@turnstone/contracts/points';
+import { trendQuerySchema } from '@turnstone/contracts/trend';
+import type { AppContext } from '../../lib/context.ts';
+import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import * as service from './points-service.ts';
+
+const idParam = z.object({ id: z.coerce.number().int().positive() });
+
+function attachment(res: Response, fileName: string, type: string) {
+  res.setHeader('Content-Type', type);
+  res.setHeader(
+    'Content-Disposition',
+    `attachment; filename="${fileName}"; filename*=UTF-8''${encodeURIComponent(fileName)}`,
+  );
+  res.setHeader('Cache-Control', 'private, no-store');
+}
+
+export function pointRoutes(ctx: AppContext): RouteSpec[] {
+  return [
+    {
+      method: 'get',
+      path: '/machines/:id',
+      access: ALL_ROLES,
+      summary: 'machine data, fault frequencies and its points',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        res.json(await service.machineDetail(ctx.db, requireUser(req), id));
+      },
+    },
+    {
+      method: 'get',
+      path: '/points/:id',
+      access: ALL_ROLES,
+      summary: 'point detail with its bands',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        res.json(await service.pointDetail(ctx, requireUser(req), id));
+      },
+    },
+    {
+      method: 'get',
+      path: '/points/:id/analyses',
+      access: ALL_ROLES,
+      summary: 'analyses of a point',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const q = analysesQuerySchema.parse(req.query);
+        res.json(await service.listAnalyses(ctx, requireUser(req), id, q));
+      },
+    },
+    {
+      method: 'get',
+      path: '/points/:id/trend',
+      access: ALL_ROLES,
+      summary: 'band trend with levels and projection',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const q = trendQuerySchema.parse(req.query);
+        res.setHeader('Cache-Control', 'private, no-cache');
+        res.json(await service.trend(ctx, requireUser(req), id, q));
+      },
+    },
+    {
+      method: 'get',
+      path: '/points/:id/trend.csv',
+      access: ALL_ROLES,
+      summary: 'band trend as CSV',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const q = trendQuerySchema.parse(req.query);
+        const file = await service.trendCsv(ctx, requireUser(req), id, q);
+        attachment(res, file.fileName, 'text/csv; charset=utf-8');
+        res.send(file.text);
+      },
+    },
+    {
+      method: 'get',
+      path: '/points/:id/waterfall',
+      access: ALL_ROLES,
+      summary: 'last spectra of a point',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const q = waterfallQuerySchema.parse(req.query);
+        res.json(await service.waterfall(ctx, requireUser(req), id, q.kind, q.limit));
+      },
+    },
+    {
+      method: 'get',
+      path: '/analyses/:id/spectrum',
+      access: ALL_ROLES,
+      summary: 'stored spectrum of an analysis',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const q = spectrumQuerySchema.parse(req.query);
+        // Stored spectra never change once written.
+        res.setHeader('Cache-Control', 'private, max-age=3600');
+        res.json(await service.spectrum(ctx, requireUser(req), id, q.kind));
+      },
+    },
+    {
+      method: 'get',
+      path: '/analyses/:id/waveform',
+      access: ALL_ROLES,
+      summary: 'time waveform of an analysis',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        res.json(await service.waveform(ctx, requireUser(req), id));
+      },
+    },
+    {
+      method: 'get',
+      path: '/analyses/:id/waveform.wav',
+      access: ALL_ROLES,
+      summary: 'raw capture as WAV',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const file = await service.waveformWav(ctx, requireUser(req), id);
+        attachment(res, file.fileName, 'audio/wav');
+        res.send(Buffer.from(file.bytes.buffer, file.bytes.byteOffset, file.bytes.byteLength));
+      },
+    },
+    {
+      method: 'get',
+      path: '/analyses/:id/waveform.csv',
+      access: ALL_ROLES,
+      summary: 'capture as CSV in g',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const file = await service.waveformCsv(ctx, requireUser(req), id);
+        attachment(res, file.fileName, 'text/csv; charset=utf-8');
+        res.send(file.text);
+      },
+    },
+  ];
+}

@@ -1,0 +1,252 @@
+import { z } from 'zod';
+import {
+  criticalitySchema,
+  directionSchema,
+  foundationSchema,
+  machineTypeSchema,
+  nodeStatusSchema,
+} from './fleet.ts';
+
+/**
+ * The Machine and Point analysis views: machine data with fault frequencies, point detail,
+ * the analyses list, stored spectra, the time waveform and the waterfall.
+ * Spectra and waveforms travel as base64 of little-endian float32 (4 bytes a value), so a
+ * 1,600-line spectrum is ≈ 8.5 kB instead of ≈ 30 kB of JSON numbers; decode with
+ * {@link decodeFloat32Base64}.
+ */
+
+export const verdictSchema = z.enum(['ok', 'suspect', 'unusable']);
+export const isoZoneSchema = z.enum(['A', 'B', 'C', 'D']);
+export const speedSourceSchema = z.enum(['tach', 'rpm', 'estimated', 'none']);
+export const spectrumKindSchema = z.enum(['acceleration', 'velocity', 'envelope', 'order']);
+export type SpectrumKind = z.infer<typeof spectrumKindSchema>;
+
+export const faultFrequencySchema = z.object({
+  name: z.string(),
+  kind: z.enum(['shaft', 'bpfo', 'bpfi', 'bsf', 'ftf', 'gear-mesh', 'blade-pass']),
+  /** Hz at the speed in question (nominal for the machine page, measured for a spectrum). */
+  hz: z.number().nullable(),
+  order: z.number(),
+});
+export type FaultFrequencyItem = z.infer<typeof faultFrequencySchema>;
+
+export const qualityFindingSchema = z.object({
+  code: z.string(),
+  severity: z.enum(['suspect', 'unusable']),
+  message: z.string(),
+  value: z.number(),
+});
+
+/** Overall values of one analysis. */
+export const overallValuesSchema = z.object({
+  accelRmsG: z.number(),
+  accelPeakG: z.number(),
+  velocityRmsMmS: z.number(),
+  displacementPkPkUm: z.number(),
+  crestFactor: z.number(),
+  kurtosis: z.number(),
+});
+
+export const analysisSummarySchema = z.object({
+  id: z.number().int(),
+  snapshotId: z.number().int(),
+  takenAt: z.string(),
+  verdict: verdictSchema,
+  isoZone: isoZoneSchema.nullable(),
+  speedRpm: z.number().nullable(),
+  speedSource: speedSourceSchema,
+  bitsUsed: z.number().nullable(),
+  overall: overallValuesSchema,
+});
+export type AnalysisSummary = z.infer<typeof analysisSummarySchema>;
+
+// ---------------------------------------------------------------- machine
+
+export const machinePointSchema = z.object({
+  id: z.number().int(),
+  tag: z.string(),
+  name: z.string(),
+  location: z.string(),
+  direction: directionSchema,
+  bearing: z.string().nullable(),
+  status: nodeStatusSchema,
+  latest: analysisSummarySchema.nullable(),
+  /** Last ≈ 50 overall velocity values (mm/s RMS), oldest first. */
+  recentVelocity: z.array(z.object({ t: z.string(), v: z.number() })),
+});
+export type MachinePoint = z.infer<typeof machinePointSchema>;
+
+export const machineDetailSchema = z.object({
+  id: z.number().int(),
+  name: z.string(),
+  type: machineTypeSchema,
+  nominalRpm: z.number(),
+  isoGroup: z.number().int(),
+  foundation: foundationSchema,
+  criticality: criticalitySchema,
+  powerKw: z.number().nullable(),
+  bladeCount: z.number().int().nullable(),
+  vaneCount: z.number().int().nullable(),
+  notes: z.string().nullable(),
+  site: z.object({ id: z.number().int(), name: z.string(), code: z.string() }),
+  area: z.object({ id: z.number().int(), name: z.string() }),
+  status: nodeStatusSchema,
+  bearings: z.array(
+    z.object({
+      id: z.number().int(),
+      name: z.string(),
+      designation: z.string().nullable(),
+      rollingElements: z.number().int(),
+      ballDiameterMm: z.number(),
+      pitchDiameterMm: z.number(),
+      contactAngleDeg: z.number(),
+      speedRatio: z.number(),
+    }),
+  ),
+  gears: z.array(
+    z.object({
+      id: z.number().int(),
+      name: z.string(),
+      teeth: z.number().int(),
+      mateTeeth: z.number().int(),
+      speedRatio: z.number(),
+    }),
+  ),
+  /** Orders always; Hz at the nominal speed. */
+  faultFrequencies: z.array(faultFrequencySchema),
+  points: z.array(machinePointSchema),
+});
+export type MachineDetail = z.infer<typeof machineDetailSchema>;
+
+// ---------------------------------------------------------------- point
+
+export const pointBandSchema = z.object({
+  key: z.string(),
+  name: z.string(),
+  kind: z.enum(['overall', 'hz', 'order', 'fault']),
+  spectrum: z.string(),
+  unit: z.string(),
+  alertLevel: z.number(),
+  dangerLevel: z.number(),
+  levelSource: z.enum(['fixed', 'statistical']),
+});
+export type PointBand = z.infer<typeof pointBandSchema>;
+
+export const pointDetailSchema = z.object({
+  id: z.number().int(),
+  tag: z.string(),
+  name: z.string(),
+  location: z.string(),
+  direction: directionSchema,
+  sensitivityMvPerG: z.number(),
+  fmaxHz: z.number(),
+  lines: z.number().int(),
+  bearing: z.string().nullable(),
+  status: nodeStatusSchema,
+  machine: z.object({
+    id: z.number().int(),
+    name: z.string(),
+    type: machineTypeSchema,
+    nominalRpm: z.number(),
+    siteName: z.string(),
+    areaName: z.string(),
+  }),
+  latest: analysisSummarySchema.nullable(),
+  bands: z.array(pointBandSchema),
+});
+export type PointDetail = z.infer<typeof pointDetailSchema>;
+
+export const analysesQuerySchema = z.object({
+  from: z.iso.datetime({ offset: true }).optional(),
+  to: z.iso.datetime({ offset: true }).optional(),
+  limit: z.coerce.number().int().min(1).max(2000).default(200),
+});
+export const analysisListSchema = z.object({
+  items: z.array(analysisSummarySchema),
+});
+export type AnalysisList = z.infer<typeof analysisListSchema>;
+
+// ---------------------------------------------------------------- spectra and waveform
+
+export const spectrumQuerySchema = z.object({
+  kind: spectrumKindSchema.default('acceleration'),
+});
+
+export const spectrumPeakSchema = z.object({
+  hz: z.number().nullable(),
+  order: z.number().nullable(),
+  amplitude: z.number(),
+});
+
+export const spectrumSchema = z.object({
+  analysisId: z.number().int(),
+  takenAt: z.string(),
+  kind: spectrumKindSchema,
+  unit: z.string(),
+  scale: z.enum(['rms', 'peak']),
+  /** `hz`: line k at k·dfHz; `order`: line k at k·dOrder. */
+  axis: z.enum(['hz', 'order']),
+  dfHz: z.number().nullable(),
+  dOrder: z.number().nullable(),
+  lines: z.number().int(),
+  /** base64 of little-endian float32, `lines` values. */
+  values: z.string(),
+  peaks: z.array(spectrumPeakSchema),
+  /** Hz at this capture's running speed (null without one). */
+  faultFrequencies: z.array(faultFrequencySchema),
+  speed: z.object({
+    rpm: z.number().nullable(),
+    hz: z.number().nullable(),
+    source: speedSourceSchema,
+  }),
+});
+export type Spectrum = z.infer<typeof spectrumSchema>;
+
+export const waveformSchema = z.object({
+  analysisId: z.number().int(),
+  takenAt: z.string(),
+  unit: z.literal('g'),
+  sampleRateHz: z.number(),
+  sampleCount: z.number().int(),
+  /** base64 of little-endian float32 acceleration in g. */
+  values: z.string(),
+  /** The ADC's most negative and most positive codes, in g. */
+  rails: z.object({ lowG: z.number(), highG: z.number() }),
+  clipped: z.boolean(),
+  adcBits: z.number().int(),
+  bitsUsed: z.number().nullable(),
+  verdict: verdictSchema,
+  findings: z.array(qualityFindingSchema),
+});
+export type Waveform = z.infer<typeof waveformSchema>;
+
+export const waterfallQuerySchema = z.object({
+  kind: spectrumKindSchema.default('acceleration'),
+  limit: z.coerce.number().int().min(1).max(50).default(20),
+});
+export const waterfallSchema = z.object({
+  kind: spectrumKindSchema,
+  unit: z.string(),
+  axis: z.enum(['hz', 'order']),
+  /** Newest first. Each spectrum carries its own line spacing (settings may change). */
+  items: z.array(
+    z.object({
+      analysisId: z.number().int(),
+      takenAt: z.string(),
+      step: z.number(),
+      values: z.string(),
+    }),
+  ),
+});
+export type Waterfall = z.infer<typeof waterfallSchema>;
+
+/** base64 of little-endian float32 → numbers (browser and Node; no Buffer needed). */
+export function decodeFloat32Base64(b64: string): Float32Array {
+  const bin = atob(b64);
+  const bytes = new Uint8Array(bin.length);
+  for (let i = 0; i < bin.length; i++) bytes[i] = bin.charCodeAt(i);
+  const view = new DataView(bytes.buffer);
+  const out = new Float32Array(Math.floor(bytes.length / 4));
+  for (let i = 0; i < out.length; i++) out[i] = view.getFloat32(i * 4, true);
+  return out;
+}

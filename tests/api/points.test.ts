@@ -1,0 +1,356 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { readWav } from '@turnstone/dsp';
+import { decodeFloat32Base64 } from '@turnstone/contracts/points';
+import { trendResponseSchema } from '@turnstone/contracts/trend';
+import {
+  machineDetailSchema,
+  pointDetailSchema,
+  spectrumSchema,
+  waveformSchema,
+} from '@turnstone/contracts/points';
+import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import { expireRawSamples } from '../../apps/server/src/features/worker/retention.ts';
+import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { snapshotBody, toneCounts } from '../support/signals.ts';
+
+let srv: TestServer;
+const TAG = 'MFP-P102-MDE-H';
+const keys: Record<string, string> = {};
+let admin: string;
+let operator: string;
+let pointId: number;
+let trbTag: string;
+
+async function q(sqlText: string, params: unknown[] = []) {
+  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
+  return rows as Record<string, unknown>[];
+}
+async function ingest(
+  tag: string,
+  uid: string,
+  o: Parameters<typeof snapshotBody>[2] = {},
+  site = 'MFP',
+) {
+  const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+    body: snapshotBody(tag, uid, o),
+    headers: { authorization: `Bearer ${keys[site]}` },
+  });
+  expect(res.status).toBe(201);
+  return (await res.json()).snapshotId as number;
+}
+async function analysisOf(snapshotId: number) {
+  const [a] = await q('SELECT id FROM analyses WHERE snapshot_id = ?', [snapshotId]);
+  return Number(a!.id);
+}
+const get = (path: string, cookie = admin) => srv.call('GET', `/api/v1${path}`, { cookie });
+
+beforeAll(async () => {
+  srv = await startTestServer();
+  admin = await srv.signIn('admin');
+  operator = await srv.signIn('operator');
+  for (const code of ['MFP', 'TRB']) {
+    const [site] = await q('SELECT id FROM sites WHERE code = ?', [code]);
+    const res = await srv.call('POST', '/api/v1/gateways', {
+      cookie: admin,
+      body: { siteId: Number(site!.id), name: `gw-${code}` },
+    });
+    keys[code] = (await res.json()).apiKey;
+  }
+  const [p] = await q('SELECT id FROM points WHERE tag = ?', [TAG]);
+  pointId = Number(p!.id);
+  const [t] = await q(
+    `SELECT p.tag FROM points p JOIN machines m ON m.id = p.machine_id JOIN areas a ON a.id = m.area_id
+     JOIN sites s ON s.id = a.site_id WHERE s.code = 'TRB' ORDER BY p.id LIMIT 1`,
+  );
+  trbTag = String(t!.tag);
+});
+afterAll(async () => {
+  await srv?.stop();
+});
+
+describe('spectrum', () => {
+  let analysisId: number;
+  beforeAll(async () => {
+    // 1 g peak at 100 Hz; fs 10240 Hz makes 100 Hz fall on a line for any power-of-two
+    // segment length ≥ 1024 (df = 10240/N: 100/df is an integer).
+    const id = await ingest(TAG, 'sp-1', {
+      n: 16384,
+      tones: [{ hz: 100, peakG: 1 }],
+      noiseG: 0.0005,
+      speedRpm: 1500,
+    });
+    await createWorker(srv.ctx).drain();
+    analysisId = await analysisOf(id);
+  });
+
+  it('a 1 g peak tone at 100 Hz reads 0.7071 g RMS on its line in the acceleration spectrum', async () => {
+    const res = await get(`/analyses/${analysisId}/spectrum?kind=acceleration`);
+    expect(res.status).toBe(200);
+    const body = spectrumSchema.parse(await res.json());
+    expect(body.axis).toBe('hz');
+    expect(body.unit).toBe('g');
+    const values = decodeFloat32Base64(body.values);
+    expect(values.length).toBe(body.lines);
+    const k = Math.round(100 / body.dfHz!);
+    expect(k * body.dfHz!).toBeCloseTo(100, 9);
+    // Sine RMS = peak/√2 = 0.7071 g (REFERENCES.md). On a line the Hann window's coherent
+    // gain is applied exactly (scalloping 0 dB on-bin, up to 1.42 dB between lines,
+    // Harris 1978): allow 0.5 % for noise and float32.
+    expect(values[k]!).toBeGreaterThan(0.7071 * 0.995);
+    expect(values[k]!).toBeLessThan(0.7071 * 1.005);
+    const top = body.peaks[0]!;
+    expect(top.hz).toBeCloseTo(100, 0);
+    expect(top.amplitude).toBeCloseTo(0.7071, 2);
+    // 1× at 1500 r/min = 25 Hz.
+    const oneX = body.faultFrequencies.find((f) => f.name === '1×')!;
+    expect(oneX.hz).toBeCloseTo(25, 6);
+    expect(body.speed.source).toBe('rpm');
+  });
+
+  it('with a known rpm the orders axis puts a 1× tone at order 1.000', async () => {
+    // 1500 r/min = 25 Hz shaft; a 0.5 g tone at 25 Hz is 1× (common practice, no source).
+    const id = await ingest(TAG, 'ord-1', {
+      n: 16384,
+      tones: [{ hz: 25, peakG: 0.5 }],
+      noiseG: 0.0005,
+      speedRpm: 1500,
+    });
+    await createWorker(srv.ctx).drain();
+    const a = await analysisOf(id);
+    const body = spectrumSchema.parse(
+      await (await get(`/analyses/${a}/spectrum?kind=order`)).json(),
+    );
+    expect(body.axis).toBe('order');
+    const values = decodeFloat32Base64(body.values);
+    let best = 1;
+    for (let i = 1; i < values.length; i++) if (values[i]! > values[best]!) best = i;
+    expect(best * body.dOrder!).toBeGreaterThan(1 - body.dOrder! / 2 - 1e-9);
+    expect(best * body.dOrder!).toBeLessThan(1 + body.dOrder! / 2 + 1e-9);
+    expect(body.speed.rpm).toBe(1500);
+  });
+
+  it('an unknown spectrum kind is refused with 400 and the field named', async () => {
+    const res = await get(`/analyses/${analysisId}/spectrum?kind=phase`);
+    expect(res.status).toBe(400);
+    const body = await res.json();
+    expect(body.error.code).toBe('validation_failed');
+    expect(JSON.stringify(body.error.details)).toContain('kind');
+  });
+
+  it('the waterfall lists the newest spectra first, at most the limit', async () => {
+    const res = await get(`/points/${pointId}/waterfall?kind=acceleration&limit=1`);
+    expect(res.status).toBe(200);
+    const body = await res.json();
+    expect(body.items).toHaveLength(1);
+    const two = await (await get(`/points/${pointId}/waterfall?kind=acceleration&limit=5`)).json();
+    expect(two.items.length).toBeGreaterThanOrEqual(2);
+    expect(Date.parse(two.items[0].takenAt)).toBeGreaterThanOrEqual(
+      Date.parse(two.items[1].takenAt),
+    );
+  });
+});
+
+describe('waveform and downloads', () => {
+  let analysisId: number;
+  let snapshotId: number;
+  const fs = 10240;
+  const opts = { n: 4096, fs, tones: [{ hz: 100, peakG: 1 }], noiseG: 0.001, seed: 7 };
+  beforeAll(async () => {
+    snapshotId = await ingest(TAG, 'wf-1', opts);
+    await createWorker(srv.ctx).drain();
+    analysisId = await analysisOf(snapshotId);
+  });
+
+  it('the waveform comes back in g with the ADC rails and bits used', async () => {
+    const body = waveformSchema.parse(await (await get(`/analyses/${analysisId}/waveform`)).json());
+    expect(body.sampleRateHz).toBe(fs);
+    const g = decodeFloat32Base64(body.values);
+    expect(g.length).toBe(4096);
+    // 16-bit ADC, 5 V full scale, 100 mV/g: one count = 5/32768/0.1 g; rails −32768 and
+    // +32767 counts = −50 g and +49.998 g (bipolar transfer function, Kester MT-001).
+    expect(body.rails.lowG).toBeCloseTo(-50, 6);
+    expect(body.rails.highG).toBeCloseTo((32767 * 5) / 32768 / 0.1, 6);
+    const peak = Math.max(...Array.from(g, Math.abs));
+    expect(peak).toBeGreaterThan(0.99);
+    expect(peak).toBeLessThan(1.01);
+    expect(body.clipped).toBe(false);
+    // 1 g peak = 655 counts peak, ≈ 1311 p-p: log2(1311) ≈ 10.4 bits used.
+    expect(body.bitsUsed!).toBeGreaterThan(10);
+    expect(body.bitsUsed!).toBeLessThan(11);
+  });
+
+  it('the WAV download reads back through readWav to the same counts, with a file name', async () => {
+    const res = await get(`/analyses/${analysisId}/waveform.wav`);
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-type')).toContain('audio/wav');
+    expect(res.headers.get('content-disposition')).toMatch(
+      /attachment; filename="MFP-P102-MDE-H_\d{4}-\d\d-\d\dT\d{6}Z\.wav"/,
+    );
+    const bytes = new Uint8Array(await res.arrayBuffer());
+    const wav = readWav(bytes);
+    expect(wav.sampleRateHz).toBe(fs);
+    expect(wav.encoding).toBe('int16');
+    expect(Array.from(wav.samples)).toEqual(Array.from(toneCounts(opts)));
+  });
+
+  it('the CSV download has a header and one row per sample in g', async () => {
+    const res = await get(`/analyses/${analysisId}/waveform.csv`);
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-disposition')).toMatch(/filename=".*\.csv"/);
+    const lines = (await res.text()).trim().split('\n');
+    expect(lines[0]).toBe('time_s,acceleration_g');
+    expect(lines).toHaveLength(4097);
+    const counts = toneCounts(opts);
+    const [t, v] = lines[11]!.split(',').map(Number);
+    expect(t).toBeCloseTo(10 / fs, 9);
+    expect(v).toBeCloseTo((counts[10]! * 5) / 32768 / 0.1, 5);
+  });
+
+  it('after retention drops the raw samples the waveform answers 410 with a clear message', async () => {
+    await q('UPDATE snapshots SET received_at = NOW(3) - INTERVAL 400 DAY WHERE id = ?', [
+      snapshotId,
+    ]);
+    expect(await expireRawSamples(srv.ctx.db, 365)).toBeGreaterThanOrEqual(1);
+    for (const path of ['waveform', 'waveform.wav', 'waveform.csv']) {
+      const res = await get(`/analyses/${analysisId}/${path}`);
+      expect(res.status).toBe(410);
+      const body = await res.json();
+      expect(body.error.code).toBe('samples_expired');
+      expect(body.error.message).toMatch(/retention/);
+    }
+    // The stored spectrum stays.
+    expect((await get(`/analyses/${analysisId}/spectrum`)).status).toBe(200);
+  });
+});
+
+describe('trend', () => {
+  it('returns the band values in time order with the levels in force', async () => {
+    const t0 = Date.parse('2026-11-01T00:00:00Z');
+    const uids: string[] = [];
+    // Late arrival first: the trend must still come back oldest first.
+    for (const i of [3, 0, 2, 1, 4, 5]) {
+      uids.push(`tr-${i}`);
+      await ingest(TAG, `tr-${i}`, {
+        takenAt: new Date(t0 + i * 86_400_000).toISOString(),
+        tones: [{ hz: 24.7, peakG: 0.1 + 0.02 * i }],
+        seed: i,
+      });
+    }
+    await createWorker(srv.ctx).drain();
+    const res = await get(
+      `/points/${pointId}/trend?band=overall-velocity&from=2026-10-30T00:00:00Z&to=2026-11-10T00:00:00Z`,
+    );
+    expect(res.status).toBe(200);
+    const body = trendResponseSchema.parse(await res.json());
+    expect(body.items).toHaveLength(6);
+    const times = body.items.map((i) => Date.parse(i.t));
+    expect(times).toEqual([...times].sort((a, b) => a - b));
+    // Rising amplitude → rising velocity.
+    expect(body.items[5]!.v).toBeGreaterThan(body.items[0]!.v);
+    expect(body.band.unit).toBe('mm/s');
+    expect(body.levels.alert).toBeGreaterThan(0);
+    expect(body.levels.danger).toBeGreaterThan(body.levels.alert);
+    expect(body.levels.source).toBe('fixed');
+    expect(['projected', 'not-rising', 'beyond-horizon', 'above-danger']).toContain(
+      body.projection.outcome,
+    );
+    expect(body.projection.model).not.toBeNull();
+  });
+
+  it('the trend CSV has a header with the unit and one row per value', async () => {
+    const res = await get(
+      `/points/${pointId}/trend.csv?band=overall-velocity&from=2026-10-30T00:00:00Z&to=2026-11-10T00:00:00Z`,
+    );
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-disposition')).toContain(
+      'filename="MFP-P102-MDE-H_overall-velocity_2026-10-30_2026-11-10.csv"',
+    );
+    const lines = (await res.text()).trim().split('\n');
+    expect(lines[0]).toBe('taken_at_utc,overall-velocity_mm_per_s,quality');
+    expect(lines).toHaveLength(7);
+  });
+
+  it('an unknown band answers 404 naming the band', async () => {
+    const res = await get(`/points/${pointId}/trend?band=no-such-band`);
+    expect(res.status).toBe(404);
+    expect((await res.json()).error.message).toContain('no-such-band');
+  });
+});
+
+describe('machine and point detail', () => {
+  it('the machine lists its points with latest values, ISO zone and a small trend', async () => {
+    const [m] = await q('SELECT machine_id FROM points WHERE id = ?', [pointId]);
+    const res = await get(`/machines/${Number(m!.machine_id)}`);
+    expect(res.status).toBe(200);
+    const body = machineDetailSchema.parse(await res.json());
+    const p = body.points.find((x) => x.id === pointId)!;
+    expect(p.latest).not.toBeNull();
+    expect(['A', 'B', 'C', 'D']).toContain(p.latest!.isoZone);
+    expect(p.recentVelocity.length).toBeGreaterThan(5);
+    const ts = p.recentVelocity.map((r) => Date.parse(r.t));
+    expect(ts).toEqual([...ts].sort((a, b) => a - b));
+    // 1× order is 1 by definition; Hz at the nominal speed (r/min ÷ 60).
+    const oneX = body.faultFrequencies.find((f) => f.name === '1×')!;
+    expect(oneX.order).toBe(1);
+    expect(oneX.hz).toBeCloseTo(body.nominalRpm / 60, 9);
+    expect(body.faultFrequencies.some((f) => f.kind === 'bpfo')).toBe(true);
+  });
+
+  it('the point shows its machine, latest analysis and bands with levels', async () => {
+    const body = pointDetailSchema.parse(await (await get(`/points/${pointId}`)).json());
+    expect(body.tag).toBe(TAG);
+    expect(body.latest).not.toBeNull();
+    const band = body.bands.find((b) => b.key === 'overall-velocity')!;
+    expect(band.unit).toBe('mm/s');
+    expect(band.dangerLevel).toBeGreaterThan(band.alertLevel);
+  });
+
+  it('the analyses list is newest first and honours the limit', async () => {
+    const body = await (await get(`/points/${pointId}/analyses?limit=3`)).json();
+    expect(body.items).toHaveLength(3);
+    const ts = body.items.map((i: { takenAt: string }) => Date.parse(i.takenAt));
+    expect(ts).toEqual([...ts].sort((a, b) => b - a));
+  });
+});
+
+describe('per-site access', () => {
+  let trbAnalysis: number;
+  let trbPoint: number;
+  beforeAll(async () => {
+    const id = await ingest(trbTag, 'trb-1', {}, 'TRB');
+    await createWorker(srv.ctx).drain();
+    trbAnalysis = await analysisOf(id);
+    const [p] = await q('SELECT id FROM points WHERE tag = ?', [trbTag]);
+    trbPoint = Number(p!.id);
+  });
+
+  it.each([
+    ['point', () => `/points/${trbPoint}`],
+    ['trend', () => `/points/${trbPoint}/trend`],
+    ['trend CSV', () => `/points/${trbPoint}/trend.csv`],
+    ['analyses', () => `/points/${trbPoint}/analyses`],
+    ['waterfall', () => `/points/${trbPoint}/waterfall`],
+    ['spectrum', () => `/analyses/${trbAnalysis}/spectrum`],
+    ['waveform', () => `/analyses/${trbAnalysis}/waveform`],
+    ['WAV', () => `/analyses/${trbAnalysis}/waveform.wav`],
+  ])('an operator of another site gets 403 for the %s', async (_name, path) => {
+    const res = await get(path(), operator);
+    expect(res.status).toBe(403);
+  });
+
+  it('an operator of another site gets 403 for the machine', async () => {
+    const [m] = await q('SELECT machine_id FROM points WHERE id = ?', [trbPoint]);
+    expect((await get(`/machines/${Number(m!.machine_id)}`, operator)).status).toBe(403);
+  });
+
+  it('the same operator reads points of their own site', async () => {
+    expect((await get(`/points/${pointId}`, operator)).status).toBe(200);
+    expect((await get(`/points/${pointId}/trend`, operator)).status).toBe(200);
+  });
+
+  it('a missing point or analysis answers 404, without a session 401', async () => {
+    expect((await get('/points/999999')).status).toBe(404);
+    expect((await get('/analyses/999999/spectrum')).status).toBe(404);
+    expect((await srv.call('GET', `/api/v1/points/${pointId}`)).status).toBe(401);
+  });
+});
