@@ -4,9 +4,9 @@
  * files become snapshots and go through the same queue and analysis as gateway captures.
  */
 import { createHash } from 'node:crypto';
-import { z } from 'zod';
 import { readCsv, readWav } from '@turnstone/dsp';
 import { MAX_SAMPLES, MIN_SAMPLES } from '@turnstone/contracts/ingest';
+import { uploadFieldsSchema, type UploadFields } from '@turnstone/contracts/uploads';
 import { AppError } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
@@ -19,17 +19,7 @@ export const MAX_UPLOAD_BYTES = 32 * 1024 * 1024;
 export const CSV_DEFAULT_BITS = 24;
 export const CSV_DEFAULT_FULL_SCALE_V = 10;
 
-const num = (min: number, max: number) => z.coerce.number().finite().min(min).max(max);
-export const uploadFieldsSchema = z.object({
-  sensitivityMvPerG: num(0.1, 100_000).optional(),
-  fullScaleV: num(0.001, 100).optional(),
-  bits: z.coerce.number().int().min(8).max(32).optional(),
-  speedRpm: num(1, 200_000).optional(),
-  sampleRateHz: num(100, 1_000_000).optional(),
-  unit: z.enum(['g', 'volts']).default('g'),
-  takenAt: z.iso.datetime({ offset: true }).optional(),
-});
-export type UploadFields = z.infer<typeof uploadFieldsSchema>;
+export { uploadFieldsSchema, type UploadFields };
 
 const bad = (message: string) => new AppError('invalid_file', message, 400);
 
@@ -57,7 +47,13 @@ export async function acceptUpload(
   rawFields: unknown,
 ) {
   const { point } = await accessiblePoint(ctx.db, user, pointId);
-  if (!file || file.buffer.length === 0) throw bad('Attach a WAV or CSV file in the field "file".');
+  if (!file || file.buffer.length === 0)
+    throw bad(file ? 'The file is empty.' : 'Attach a WAV or CSV file in the field "file".');
+  // Browsers send a bare name; a name with folders or ".." was crafted, so refuse it.
+  if (/[\\/]/.test(file.originalname) || /^\.\.?$/.test(file.originalname))
+    throw bad(
+      `The file name "${safeFileName(file.originalname)}" must not contain folders or "..".`,
+    );
   const fields = uploadFieldsSchema.parse(rawFields);
   const sensitivity = fields.sensitivityMvPerG ?? point.sensitivityMvPerG;
   const bytes = file.buffer;
@@ -81,10 +77,19 @@ export async function acceptUpload(
     }
     encoding = wav.encoding;
     sampleRateHz = wav.sampleRateHz;
-    adcBits = fields.bits ?? (encoding === 'float32' ? 24 : wav.validBits);
+    // PCM samples are left-justified in their container, so the rails are those of the
+    // container width even when fewer bits are valid (WAVE_FORMAT_EXTENSIBLE).
+    adcBits = fields.bits ?? (encoding === 'float32' ? 24 : wav.bitsPerSample);
     fullScaleV = fields.fullScaleV ?? 1.0;
     count = wav.samples.length;
-    sampleBytes = encodeSamples(Array.from(wav.samples), encoding);
+    // Float WAV holds fractions of full scale (±1.0); stored float32 samples are volts.
+    sampleBytes =
+      encoding === 'float32'
+        ? encodeSamples(
+            Array.from(wav.samples, (v) => v * fullScaleV),
+            'float32',
+          )
+        : encodeSamples(Array.from(wav.samples), encoding);
   } else if (looksLikeText(bytes)) {
     let csv;
     try {
@@ -133,9 +138,15 @@ export async function acceptUpload(
     uploadedBy: user.id,
     fileName: safeFileName(file.originalname),
   });
+  if (result.status === 'conflict')
+    throw new AppError(
+      'upload_conflict',
+      `This file was already uploaded for this point with other capture settings (snapshot ${result.snapshotId}).`,
+      409,
+    );
   return {
     snapshotId: result.snapshotId,
-    status: result.status === 'created' ? 'queued' : 'already-uploaded',
+    status: result.status === 'created' ? ('queued' as const) : ('already-uploaded' as const),
     samples: count,
     sampleRateHz,
     encoding,

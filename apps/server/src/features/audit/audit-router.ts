@@ -1,0 +1,17 @@
+import { auditQuerySchema } from '@turnstone/contracts/audit';
+import type { AppContext } from '../../lib/context.ts';
+import type { RouteSpec } from '../../lib/route-table.ts';
+import { listAudit } from './audit-service.ts';
+
+export function auditRoutes(ctx: AppContext): RouteSpec[] {
+  return [
+    {
+      method: 'get',
+      path: '/audit',
+      access: ['admin', 'engineer'],
+      summary: 'audit log with filters',
+      handler: async (req, res) =>
+        res.json(await listAudit(ctx.db, auditQuerySchema.parse(req.query))),
+    },
+  ];
+}

@@ -1,0 +1,124 @@
+import { and, count, eq, inArray, ne } from 'drizzle-orm';
+import type { Db } from '@turnstone/db/client';
+import {
+  alerts,
+  analyses,
+  findings,
+  qualityNotices,
+  areas,
+  bearings,
+  gears,
+  limitSets,
+  machines,
+  points,
+  snapshots,
+  sites,
+} from '@turnstone/db/schema';
+
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+export async function listSites(db: Db, siteIds: number[]) {
+  if (siteIds.length === 0) return [];
+  return db.select().from(sites).where(inArray(sites.id, siteIds)).orderBy(sites.name);
+}
+
+export async function listAreas(db: Db, siteIds: number[]) {
+  if (siteIds.length === 0) return [];
+  return db.select().from(areas).where(inArray(areas.siteId, siteIds)).orderBy(areas.name);
+}
+
+export async function listMachines(db: Db, areaIds: number[]) {
+  if (areaIds.length === 0) return [];
+  return db.select().from(machines).where(inArray(machines.areaId, areaIds)).orderBy(machines.name);
+}
+
+export async function componentsOf(db: Db, machineIds: number[]) {
+  if (machineIds.length === 0) return { bearingRows: [], gearRows: [], pointRows: [] };
+  const [bearingRows, gearRows, pointRows] = await Promise.all([
+    db.select().from(bearings).where(inArray(bearings.machineId, machineIds)).orderBy(bearings.id),
+    db.select().from(gears).where(inArray(gears.machineId, machineIds)).orderBy(gears.id),
+    db.select().from(points).where(inArray(points.machineId, machineIds)).orderBy(points.tag),
+  ]);
+  return { bearingRows, gearRows, pointRows };
+}
+
+export async function siteById(db: Db | Tx, id: number) {
+  const [row] = await db.select().from(sites).where(eq(sites.id, id));
+  return row;
+}
+export async function siteByCode(db: Db | Tx, code: string, exceptId = 0) {
+  const [row] = await db
+    .select({ id: sites.id })
+    .from(sites)
+    .where(and(eq(sites.code, code), ne(sites.id, exceptId)));
+  return row;
+}
+export async function areaById(db: Db | Tx, id: number) {
+  const [row] = await db.select().from(areas).where(eq(areas.id, id));
+  return row;
+}
+export async function areaByName(db: Db | Tx, siteId: number, name: string, exceptId = 0) {
+  const [row] = await db
+    .select({ id: areas.id })
+    .from(areas)
+    .where(and(eq(areas.siteId, siteId), eq(areas.name, name), ne(areas.id, exceptId)));
+  return row;
+}
+/** The machine with its area's site. */
+export async function machineById(db: Db | Tx, id: number) {
+  const [row] = await db
+    .select({ machine: machines, siteId: areas.siteId })
+    .from(machines)
+    .innerJoin(areas, eq(areas.id, machines.areaId))
+    .where(eq(machines.id, id));
+  return row;
+}
+export async function machineByName(db: Db | Tx, areaId: number, name: string, exceptId = 0) {
+  const [row] = await db
+    .select({ id: machines.id })
+    .from(machines)
+    .where(and(eq(machines.areaId, areaId), eq(machines.name, name), ne(machines.id, exceptId)));
+  return row;
+}
+export async function pointById(db: Db | Tx, id: number) {
+  const [row] = await db
+    .select({ point: points, siteId: areas.siteId })
+    .from(points)
+    .innerJoin(machines, eq(machines.id, points.machineId))
+    .innerJoin(areas, eq(areas.id, machines.areaId))
+    .where(eq(points.id, id));
+  return row;
+}
+export async function pointByTag(db: Db | Tx, tag: string, exceptId = 0) {
+  const [row] = await db
+    .select({ id: points.id, machineId: points.machineId })
+    .from(points)
+    .where(and(eq(points.tag, tag), ne(points.id, exceptId)));
+  return row;
+}
+export async function bearingsOf(db: Db | Tx, machineId: number) {
+  return db.select().from(bearings).where(eq(bearings.machineId, machineId)).orderBy(bearings.id);
+}
+export async function gearsOf(db: Db | Tx, machineId: number) {
+  return db.select().from(gears).where(eq(gears.machineId, machineId)).orderBy(gears.id);
+}
+export async function pointsOf(db: Db | Tx, machineId: number) {
+  return db.select().from(points).where(eq(points.machineId, machineId));
+}
+
+/** How many snapshots, analyses, alerts, findings and notices the points hold: data that deleting would lose. */
+export async function dataCount(db: Db | Tx, pointIds: number[]): Promise<number> {
+  if (pointIds.length === 0) return 0;
+  const counts = await Promise.all(
+    [snapshots, analyses, alerts, findings, qualityNotices].map((t) =>
+      db.select({ n: count() }).from(t).where(inArray(t.pointId, pointIds)),
+    ),
+  );
+  return counts.reduce((sum, [row]) => sum + Number(row?.n ?? 0), 0);
+}
+
+export async function deletePoints(tx: Tx, pointIds: number[]) {
+  if (pointIds.length === 0) return;
+  await tx.delete(limitSets).where(inArray(limitSets.pointId, pointIds));
+  await tx.delete(points).where(inArray(points.id, pointIds));
+}

@@ -1,0 +1,134 @@
+import { z } from 'zod';
+import {
+  areaInputSchema,
+  areaUpdateSchema,
+  machineInputSchema,
+  pointInputSchema,
+  siteInputSchema,
+} from '@turnstone/contracts/setup';
+import type { AppContext } from '../../lib/context.ts';
+import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import * as service from './setup-service.ts';
+
+const idParam = z.object({ id: z.coerce.number().int().positive() });
+const ADMIN = ['admin'] as const;
+const BUILDERS = ['admin', 'engineer'] as const;
+
+export function setupRoutes(ctx: AppContext): RouteSpec[] {
+  const db = ctx.db;
+  return [
+    {
+      method: 'get',
+      path: '/setup',
+      access: BUILDERS,
+      summary: 'plant setup tree with components',
+      handler: async (req, res) => res.json(await service.setupTree(db, requireUser(req))),
+    },
+    {
+      method: 'post',
+      path: '/sites',
+      access: ADMIN,
+      summary: 'create a site',
+      handler: async (req, res) => {
+        const body = siteInputSchema.parse(req.body);
+        res.status(201).json(await service.createSite(db, requireUser(req), body));
+      },
+    },
+    {
+      method: 'patch',
+      path: '/sites/:id',
+      access: ADMIN,
+      summary: 'update a site',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const body = siteInputSchema.parse(req.body);
+        res.json(await service.updateSite(db, requireUser(req), id, body));
+      },
+    },
+    {
+      method: 'post',
+      path: '/areas',
+      access: ADMIN,
+      summary: 'create an area',
+      handler: async (req, res) => {
+        const body = areaInputSchema.parse(req.body);
+        res.status(201).json(await service.createArea(db, requireUser(req), body));
+      },
+    },
+    {
+      method: 'patch',
+      path: '/areas/:id',
+      access: ADMIN,
+      summary: 'rename an area',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const body = areaUpdateSchema.parse(req.body);
+        res.json(await service.updateArea(db, requireUser(req), id, body));
+      },
+    },
+    {
+      method: 'post',
+      path: '/machines',
+      access: BUILDERS,
+      summary: 'create a machine with its components',
+      handler: async (req, res) => {
+        const body = machineInputSchema.parse(req.body);
+        res.status(201).json(await service.createMachine(db, requireUser(req), body));
+      },
+    },
+    {
+      method: 'patch',
+      path: '/machines/:id',
+      access: BUILDERS,
+      summary: 'update a machine and replace its components',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const body = machineInputSchema.parse(req.body);
+        res.json(await service.updateMachine(db, requireUser(req), id, body));
+      },
+    },
+    {
+      method: 'delete',
+      path: '/machines/:id',
+      access: BUILDERS,
+      summary: 'delete a machine without data',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        await service.deleteMachine(db, requireUser(req), id);
+        res.status(204).end();
+      },
+    },
+    {
+      method: 'post',
+      path: '/points',
+      access: BUILDERS,
+      summary: 'create a measurement point',
+      handler: async (req, res) => {
+        const body = pointInputSchema.parse(req.body);
+        res.status(201).json(await service.createPoint(db, requireUser(req), body));
+      },
+    },
+    {
+      method: 'patch',
+      path: '/points/:id',
+      access: BUILDERS,
+      summary: 'update a measurement point',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const body = pointInputSchema.parse(req.body);
+        res.json(await service.updatePoint(db, requireUser(req), id, body));
+      },
+    },
+    {
+      method: 'delete',
+      path: '/points/:id',
+      access: BUILDERS,
+      summary: 'delete a point without data',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        await service.deletePoint(db, requireUser(req), id);
+        res.status(204).end();
+      },
+    },
+  ];
+}

@@ -1,0 +1,414 @@
+/**
+ * Plant setup: the machine tree and its engineering data. Every change and its audit row
+ * commit in one transaction. Engineers may change machines and points of their own sites;
+ * sites and areas are the administrator's.
+ */
+import { eq } from 'drizzle-orm';
+import type { Db } from '@turnstone/db/client';
+import { areas, bearings, gears, machines, points, sites } from '@turnstone/db/schema';
+import type {
+  AreaInput,
+  BearingInput,
+  GearInput,
+  MachineInput,
+  PointInput,
+  SetupTree,
+  SiteInput,
+} from '@turnstone/contracts/setup';
+import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
+import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
+import { writeAudit } from '../audit/audit-repository.ts';
+import * as repo from './setup-repository.ts';
+
+const conflict = (path: string, message: string) =>
+  new AppError('conflict', message, 409, [{ path, message }]);
+const invalid = (path: string, message: string) =>
+  new AppError('validation_failed', `Invalid request: ${path}: ${message}`, 400, [
+    { path, message },
+  ]);
+const siteForbidden = () => forbidden('This belongs to a site you are not assigned to.');
+
+function isDuplicateKey(err: unknown): boolean {
+  for (let e: unknown = err, i = 0; e && i < 4; i++) {
+    if ((e as { code?: string }).code === 'ER_DUP_ENTRY') return true;
+    e = (e as { cause?: unknown }).cause;
+  }
+  return false;
+}
+
+export async function setupTree(db: Db, user: SessionUser): Promise<SetupTree> {
+  const siteRows = await repo.listSites(db, user.siteIds);
+  const areaRows = await repo.listAreas(
+    db,
+    siteRows.map((s) => s.id),
+  );
+  const machineRows = await repo.listMachines(
+    db,
+    areaRows.map((a) => a.id),
+  );
+  const { bearingRows, gearRows, pointRows } = await repo.componentsOf(
+    db,
+    machineRows.map((m) => m.id),
+  );
+  return {
+    sites: siteRows.map((s) => ({ id: s.id, name: s.name, code: s.code, timeZone: s.timeZone })),
+    areas: areaRows.map((a) => ({ id: a.id, siteId: a.siteId, name: a.name })),
+    machines: machineRows.map((m) => ({
+      id: m.id,
+      areaId: m.areaId,
+      name: m.name,
+      type: m.type,
+      nominalRpm: m.nominalRpm,
+      isoGroup: m.isoGroup,
+      foundation: m.foundation,
+      criticality: m.criticality,
+      powerKw: m.powerKw,
+      bladeCount: m.bladeCount,
+      vaneCount: m.vaneCount,
+      notes: m.notes,
+      bearings: bearingRows
+        .filter((b) => b.machineId === m.id)
+        .map(({ machineId: _m, ...b }) => ({ ...b, designation: b.designation ?? null })),
+      gears: gearRows.filter((g) => g.machineId === m.id).map(({ machineId: _m, ...g }) => g),
+      points: pointRows
+        .filter((p) => p.machineId === m.id)
+        .map((p) => ({
+          id: p.id,
+          machineId: p.machineId,
+          tag: p.tag,
+          name: p.name,
+          location: p.location,
+          direction: p.direction,
+          sensitivityMvPerG: p.sensitivityMvPerG,
+          bearingId: p.bearingId,
+          fmaxHz: p.fmaxHz,
+          lines: p.lines,
+        })),
+    })),
+  };
+}
+
+// ---------------------------------------------------------------- sites and areas
+
+export async function createSite(db: Db, user: SessionUser, input: SiteInput) {
+  if (await repo.siteByCode(db, input.code))
+    throw conflict('code', `A site with code ${input.code} already exists.`);
+  try {
+    return await db.transaction(async (tx) => {
+      const [row] = await tx.insert(sites).values(input).$returningId();
+      await writeAudit(tx, {
+        actorUserId: user.id,
+        action: 'site.create',
+        entity: 'site',
+        entityId: row!.id,
+        after: input,
+      });
+      return { id: row!.id, ...input };
+    });
+  } catch (err) {
+    if (isDuplicateKey(err))
+      throw conflict('code', `A site with code ${input.code} already exists.`);
+    throw err;
+  }
+}
+
+export async function updateSite(db: Db, user: SessionUser, id: number, input: SiteInput) {
+  const before = await repo.siteById(db, id);
+  if (!before) throw notFound('Site');
+  if (await repo.siteByCode(db, input.code, id))
+    throw conflict('code', `A site with code ${input.code} already exists.`);
+  await db.transaction(async (tx) => {
+    await tx.update(sites).set(input).where(eq(sites.id, id));
+    await writeAudit(tx, {
+      actorUserId: user.id,
+      action: 'site.update',
+      entity: 'site',
+      entityId: id,
+      before: { name: before.name, code: before.code, timeZone: before.timeZone },
+      after: input,
+    });
+  });
+  return { id, ...input };
+}
+
+export async function createArea(db: Db, user: SessionUser, input: AreaInput) {
+  if (!(await repo.siteById(db, input.siteId)))
+    throw invalid('siteId', 'That site does not exist.');
+  if (await repo.areaByName(db, input.siteId, input.name))
+    throw conflict('name', `This site already has an area named "${input.name}".`);
+  return db.transaction(async (tx) => {
+    const [row] = await tx.insert(areas).values(input).$returningId();
+    await writeAudit(tx, {
+      actorUserId: user.id,
+      action: 'area.create',
+      entity: 'area',
+      entityId: row!.id,
+      after: input,
+    });
+    return { id: row!.id, ...input };
+  });
+}
+
+export async function updateArea(db: Db, user: SessionUser, id: number, input: { name: string }) {
+  const before = await repo.areaById(db, id);
+  if (!before) throw notFound('Area');
+  if (await repo.areaByName(db, before.siteId, input.name, id))
+    throw conflict('name', `This site already has an area named "${input.name}".`);
+  await db.transaction(async (tx) => {
+    await tx.update(areas).set({ name: input.name }).where(eq(areas.id, id));
+    await writeAudit(tx, {
+      actorUserId: user.id,
+      action: 'area.update',
+      entity: 'area',
+      entityId: id,
+      before: { name: before.name },
+      after: { name: input.name },
+    });
+  });
+  return { id, siteId: before.siteId, name: input.name };
+}
+
+// ---------------------------------------------------------------- machines
+
+async function areaForUser(db: Db, user: SessionUser, areaId: number) {
+  const area = await repo.areaById(db, areaId);
+  if (!area) throw invalid('areaId', 'That area does not exist.');
+  if (!canSeeSite(user, area.siteId)) throw siteForbidden();
+  return area;
+}
+
+async function machineForUser(db: Db, user: SessionUser, id: number) {
+  const row = await repo.machineById(db, id);
+  if (!row) throw notFound('Machine');
+  if (!canSeeSite(user, row.siteId)) throw siteForbidden();
+  return row.machine;
+}
+
+const machineColumns = (input: MachineInput) => ({
+  areaId: input.areaId,
+  name: input.name,
+  type: input.type,
+  nominalRpm: input.nominalRpm,
+  isoGroup: input.isoGroup,
+  foundation: input.foundation,
+  criticality: input.criticality,
+  powerKw: input.powerKw,
+  bladeCount: input.bladeCount,
+  vaneCount: input.vaneCount,
+  notes: input.notes ?? null,
+});
+
+const bearingColumns = (b: BearingInput) => ({
+  name: b.name,
+  designation: b.designation ?? null,
+  rollingElements: b.rollingElements,
+  ballDiameterMm: b.ballDiameterMm,
+  pitchDiameterMm: b.pitchDiameterMm,
+  contactAngleDeg: b.contactAngleDeg,
+  speedRatio: b.speedRatio,
+});
+const gearColumns = (g: GearInput) => ({
+  name: g.name,
+  teeth: g.teeth,
+  mateTeeth: g.mateTeeth,
+  speedRatio: g.speedRatio,
+});
+
+/**
+ * Replaces the machine's bearings and gears with the lists given: items with an id of this
+ * machine are updated in place (so points keep their bearing), the rest inserted, and
+ * those left out deleted.
+ */
+async function replaceComponents(tx: repo.Tx, machineId: number, input: MachineInput) {
+  const [oldBearings, oldGears] = await Promise.all([
+    repo.bearingsOf(tx, machineId),
+    repo.gearsOf(tx, machineId),
+  ]);
+  const oldBearingIds = new Set(oldBearings.map((b) => b.id));
+  const oldGearIds = new Set(oldGears.map((g) => g.id));
+  input.bearings.forEach((b, i) => {
+    if (b.id !== undefined && !oldBearingIds.has(b.id))
+      throw invalid(`bearings.${i}.id`, 'That bearing belongs to another machine.');
+  });
+  input.gears.forEach((g, i) => {
+    if (g.id !== undefined && !oldGearIds.has(g.id))
+      throw invalid(`gears.${i}.id`, 'That gear belongs to another machine.');
+  });
+  const keepB = new Set(input.bearings.flatMap((b) => (b.id ? [b.id] : [])));
+  const keepG = new Set(input.gears.flatMap((g) => (g.id ? [g.id] : [])));
+  for (const b of oldBearings)
+    if (!keepB.has(b.id)) await tx.delete(bearings).where(eq(bearings.id, b.id));
+  for (const g of oldGears) if (!keepG.has(g.id)) await tx.delete(gears).where(eq(gears.id, g.id));
+  for (const b of input.bearings) {
+    if (b.id) await tx.update(bearings).set(bearingColumns(b)).where(eq(bearings.id, b.id));
+    else await tx.insert(bearings).values({ machineId, ...bearingColumns(b) });
+  }
+  for (const g of input.gears) {
+    if (g.id) await tx.update(gears).set(gearColumns(g)).where(eq(gears.id, g.id));
+    else await tx.insert(gears).values({ machineId, ...gearColumns(g) });
+  }
+  return { before: { bearings: oldBearings, gears: oldGears } };
+}
+
+export async function createMachine(db: Db, user: SessionUser, input: MachineInput) {
+  await areaForUser(db, user, input.areaId);
+  if (await repo.machineByName(db, input.areaId, input.name))
+    throw conflict('name', `This area already has a machine named "${input.name}".`);
+  const id = await db.transaction(async (tx) => {
+    const [row] = await tx.insert(machines).values(machineColumns(input)).$returningId();
+    await replaceComponents(tx, row!.id, input);
+    await writeAudit(tx, {
+      actorUserId: user.id,
+      action: 'machine.create',
+      entity: 'machine',
+      entityId: row!.id,
+      after: input,
+    });
+    return row!.id;
+  });
+  return { id };
+}
+
+export async function updateMachine(db: Db, user: SessionUser, id: number, input: MachineInput) {
+  const before = await machineForUser(db, user, id);
+  await areaForUser(db, user, input.areaId);
+  if (await repo.machineByName(db, input.areaId, input.name, id))
+    throw conflict('name', `This area already has a machine named "${input.name}".`);
+  await db.transaction(async (tx) => {
+    await tx.update(machines).set(machineColumns(input)).where(eq(machines.id, id));
+    const old = await replaceComponents(tx, id, input);
+    await writeAudit(tx, {
+      actorUserId: user.id,
+      action: 'machine.update',
+      entity: 'machine',
+      entityId: id,
+      before: { ...before, ...old.before },
+      after: input,
+    });
+  });
+  return { id };
+}
+
+const keepData = (what: string) =>
+  new AppError(
+    'has_data',
+    `This ${what} has recorded data (snapshots, analyses, alerts or findings), so it cannot be deleted. Rename it instead, e.g. add "(retired)".`,
+    409,
+  );
+
+/** Deletes a machine and its points, only when none of them has recorded data. */
+export async function deleteMachine(db: Db, user: SessionUser, id: number) {
+  const before = await machineForUser(db, user, id);
+  await db.transaction(async (tx) => {
+    const pts = await repo.pointsOf(tx, id);
+    if (
+      (await repo.dataCount(
+        tx,
+        pts.map((p) => p.id),
+      )) > 0
+    )
+      throw keepData('machine');
+    await repo.deletePoints(
+      tx,
+      pts.map((p) => p.id),
+    );
+    await tx.delete(machines).where(eq(machines.id, id));
+    await writeAudit(tx, {
+      actorUserId: user.id,
+      action: 'machine.delete',
+      entity: 'machine',
+      entityId: id,
+      before: { ...before, points: pts.map((p) => p.tag) },
+    });
+  });
+}
+
+// ---------------------------------------------------------------- points
+
+async function checkPointInput(db: Db, user: SessionUser, input: PointInput, exceptId = 0) {
+  const m = await repo.machineById(db, input.machineId);
+  if (!m) throw invalid('machineId', 'That machine does not exist.');
+  if (!canSeeSite(user, m.siteId)) throw siteForbidden();
+  if (input.bearingId !== null) {
+    const own = await repo.bearingsOf(db, input.machineId);
+    if (!own.some((b) => b.id === input.bearingId))
+      throw invalid('bearingId', 'Choose a bearing of this machine.');
+  }
+  const taken = await repo.pointByTag(db, input.tag, exceptId);
+  if (taken) throw conflict('tag', `Tag ${input.tag} is already used by another point.`);
+}
+
+const pointColumns = (input: PointInput) => ({
+  machineId: input.machineId,
+  tag: input.tag,
+  name: input.name,
+  location: input.location,
+  direction: input.direction,
+  sensitivityMvPerG: input.sensitivityMvPerG,
+  bearingId: input.bearingId,
+  fmaxHz: input.fmaxHz,
+  lines: input.lines,
+});
+
+export async function createPoint(db: Db, user: SessionUser, input: PointInput) {
+  await checkPointInput(db, user, input);
+  try {
+    return await db.transaction(async (tx) => {
+      const [row] = await tx.insert(points).values(pointColumns(input)).$returningId();
+      await writeAudit(tx, {
+        actorUserId: user.id,
+        action: 'point.create',
+        entity: 'point',
+        entityId: row!.id,
+        after: input,
+      });
+      return { id: row!.id };
+    });
+  } catch (err) {
+    if (isDuplicateKey(err))
+      throw conflict('tag', `Tag ${input.tag} is already used by another point.`);
+    throw err;
+  }
+}
+
+export async function updatePoint(db: Db, user: SessionUser, id: number, input: PointInput) {
+  const row = await repo.pointById(db, id);
+  if (!row) throw notFound('Point');
+  if (!canSeeSite(user, row.siteId)) throw siteForbidden();
+  await checkPointInput(db, user, input, id);
+  try {
+    await db.transaction(async (tx) => {
+      await tx.update(points).set(pointColumns(input)).where(eq(points.id, id));
+      await writeAudit(tx, {
+        actorUserId: user.id,
+        action: 'point.update',
+        entity: 'point',
+        entityId: id,
+        before: pointColumns({ ...row.point, bearingId: row.point.bearingId }),
+        after: input,
+      });
+    });
+  } catch (err) {
+    if (isDuplicateKey(err))
+      throw conflict('tag', `Tag ${input.tag} is already used by another point.`);
+    throw err;
+  }
+  return { id };
+}
+
+export async function deletePoint(db: Db, user: SessionUser, id: number) {
+  const row = await repo.pointById(db, id);
+  if (!row) throw notFound('Point');
+  if (!canSeeSite(user, row.siteId)) throw siteForbidden();
+  await db.transaction(async (tx) => {
+    if ((await repo.dataCount(tx, [id])) > 0) throw keepData('point');
+    await repo.deletePoints(tx, [id]);
+    await writeAudit(tx, {
+      actorUserId: user.id,
+      action: 'point.delete',
+      entity: 'point',
+      entityId: id,
+      before: pointColumns(row.point),
+    });
+  });
+}

@@ -1,0 +1,38 @@
+import { z } from 'zod';
+
+/** Filters of `GET /api/v1/audit`; every one optional. Times are ISO 8601 with an offset. */
+export const auditQuerySchema = z.object({
+  entity: z.string().trim().max(32).optional(),
+  entityId: z.string().trim().max(64).optional(),
+  /** User id of the actor. */
+  actor: z.coerce.number().int().positive().optional(),
+  /** Exact action (`gateway.create`) or a prefix ending in a dot (`gateway.`). */
+  action: z.string().trim().max(64).optional(),
+  from: z.iso.datetime({ offset: true }).optional(),
+  to: z.iso.datetime({ offset: true }).optional(),
+  limit: z.coerce.number().int().min(1).max(200).default(50),
+  /** Opaque: the `nextCursor` of the previous page. */
+  cursor: z.string().regex(/^\d+$/, 'cursor is the nextCursor of the previous page').optional(),
+});
+export type AuditQuery = z.input<typeof auditQuerySchema>;
+
+export const auditEntrySchema = z.object({
+  id: z.number().int(),
+  at: z.string(),
+  actorUserId: z.number().int().nullable(),
+  /** Null for the system (worker) or a deleted user. */
+  actorName: z.string().nullable(),
+  action: z.string(),
+  entity: z.string(),
+  entityId: z.string(),
+  before: z.unknown(),
+  after: z.unknown(),
+  reason: z.string().nullable(),
+});
+export type AuditEntry = z.infer<typeof auditEntrySchema>;
+
+export const auditPageSchema = z.object({
+  items: z.array(auditEntrySchema),
+  nextCursor: z.string().nullable(),
+});
+export type AuditPage = z.infer<typeof auditPageSchema>;
