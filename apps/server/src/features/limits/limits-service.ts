@@ -268,11 +268,19 @@ export async function suggest(
   };
 }
 
+/** JSON with object keys sorted, so stored (re-ordered) and sent bands compare equal. */
+const canonical = (v: unknown): string =>
+  JSON.stringify(v, (_k, x: unknown) =>
+    x && typeof x === 'object' && !Array.isArray(x)
+      ? Object.fromEntries(Object.entries(x).sort(([a], [b]) => (a < b ? -1 : 1)))
+      : x,
+  );
+
 const keysOf = (v: unknown): Map<string, string> => {
   const out = new Map<string, string>();
   if (Array.isArray(v))
     for (const b of v as { key?: unknown }[])
-      if (typeof b?.key === 'string') out.set(b.key, JSON.stringify(b));
+      if (typeof b?.key === 'string') out.set(b.key, canonical(b));
   return out;
 };
 
