@@ -1,0 +1,41 @@
+import { useEffect, useRef } from 'react';
+import { echarts, type ChartOption } from './echarts.ts';
+
+/**
+ * Mounts one ECharts instance on the returned ref's element, applies `option` whenever it
+ * changes (replacing, not merging, so removed series disappear) and follows the element's
+ * size. `onReady` receives the instance once (for pointer handlers).
+ */
+export function useEChart(
+  option: ChartOption,
+  onReady?: (chart: echarts.ECharts) => void | (() => void),
+) {
+  const ref = useRef<HTMLDivElement | null>(null);
+  const chartRef = useRef<echarts.ECharts | null>(null);
+  const readyRef = useRef(onReady);
+  useEffect(() => {
+    readyRef.current = onReady;
+  });
+
+  useEffect(() => {
+    const el = ref.current;
+    if (!el) return;
+    const chart = echarts.init(el, undefined, { renderer: 'canvas' });
+    chartRef.current = chart;
+    const cleanup = readyRef.current?.(chart);
+    const observer = new ResizeObserver(() => chart.resize());
+    observer.observe(el);
+    return () => {
+      observer.disconnect();
+      if (typeof cleanup === 'function') cleanup();
+      chart.dispose();
+      chartRef.current = null;
+    };
+  }, []);
+
+  useEffect(() => {
+    chartRef.current?.setOption(option, { notMerge: true });
+  }, [option]);
+
+  return { ref, chartRef };
+}
