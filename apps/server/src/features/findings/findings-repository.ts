@@ -1,0 +1,81 @@
+import { and, asc, desc, eq, inArray, lte, ne, type SQL } from 'drizzle-orm';
+import type { Db } from '@turnstone/db/client';
+import { alerts, areas, findings, machines, points, sites, users } from '@turnstone/db/schema';
+
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+export type FindingRow = typeof findings.$inferSelect;
+
+const listColumns = {
+  finding: findings,
+  pointTag: points.tag,
+  pointName: points.name,
+  machineName: machines.name,
+  siteId: sites.id,
+  siteCode: sites.code,
+  createdByName: users.name,
+};
+export type FindingListRow = {
+  finding: FindingRow;
+  pointTag: string;
+  pointName: string;
+  machineName: string;
+  siteId: number;
+  siteCode: string;
+  createdByName: string;
+};
+
+export interface FindingFilter {
+  siteIds: number[];
+  state?: FindingRow['state'];
+  pointId?: number;
+  ids?: number[];
+  /** Not done and due on or before this date (YYYY-MM-DD). */
+  dueBy?: string;
+}
+
+/** Findings on points of the given sites, newest first (or by due date for `dueBy`). */
+export async function listFindings(db: Db | Tx, f: FindingFilter): Promise<FindingListRow[]> {
+  if (f.siteIds.length === 0) return [];
+  const where: SQL[] = [inArray(sites.id, f.siteIds)];
+  if (f.state) where.push(eq(findings.state, f.state));
+  if (f.pointId !== undefined) where.push(eq(findings.pointId, f.pointId));
+  if (f.ids) where.push(inArray(findings.id, f.ids.length ? f.ids : [0]));
+  if (f.dueBy) where.push(ne(findings.state, 'done'), lte(findings.dueDate, f.dueBy));
+  return db
+    .select(listColumns)
+    .from(findings)
+    .innerJoin(points, eq(points.id, findings.pointId))
+    .innerJoin(machines, eq(machines.id, points.machineId))
+    .innerJoin(areas, eq(areas.id, machines.areaId))
+    .innerJoin(sites, eq(sites.id, areas.siteId))
+    .innerJoin(users, eq(users.id, findings.createdBy))
+    .where(and(...where))
+    .orderBy(...(f.dueBy ? [asc(findings.dueDate), asc(findings.id)] : [desc(findings.id)]))
+    .limit(1000);
+}
+
+export async function insertFinding(tx: Tx, values: typeof findings.$inferInsert) {
+  const [row] = await tx.insert(findings).values(values).$returningId();
+  return row!.id;
+}
+
+export async function lockFinding(tx: Tx, id: number): Promise<FindingRow | undefined> {
+  const [row] = await tx.select().from(findings).where(eq(findings.id, id)).for('update');
+  return row;
+}
+
+export async function updateFinding(
+  tx: Tx,
+  id: number,
+  set: Partial<Pick<FindingRow, 'state' | 'title' | 'workOrderRef' | 'dueDate' | 'note'>>,
+) {
+  await tx.update(findings).set(set).where(eq(findings.id, id));
+}
+
+export async function alertOfPoint(db: Db | Tx, alertId: number) {
+  const [row] = await db
+    .select({ id: alerts.id, pointId: alerts.pointId, bandKey: alerts.bandKey })
+    .from(alerts)
+    .where(eq(alerts.id, alertId));
+  return row;
+}

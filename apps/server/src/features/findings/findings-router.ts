@@ -1,0 +1,62 @@
+import { z } from 'zod';
+import {
+  createFindingSchema,
+  findingListQuerySchema,
+  updateFindingSchema,
+} from '@turnstone/contracts/findings';
+import type { AppContext } from '../../lib/context.ts';
+import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import * as service from './findings-service.ts';
+
+const idParam = z.object({ id: z.coerce.number().int().positive() });
+/** Planners own findings; engineers raise them too (DESIGN.md roles). */
+const WRITERS = ['planner', 'engineer'] as const;
+
+export function findingRoutes(ctx: AppContext): RouteSpec[] {
+  return [
+    {
+      method: 'get',
+      path: '/findings',
+      // Every role reads them (the point view marks findings on the trend), per site.
+      access: ALL_ROLES,
+      summary: 'list findings',
+      handler: async (req, res) =>
+        res.json(
+          await service.listFindings(
+            ctx,
+            requireUser(req),
+            findingListQuerySchema.parse(req.query),
+          ),
+        ),
+    },
+    {
+      method: 'post',
+      path: '/findings',
+      access: WRITERS,
+      summary: 'create a finding',
+      handler: async (req, res) =>
+        res
+          .status(201)
+          .json(
+            await service.createFinding(ctx, requireUser(req), createFindingSchema.parse(req.body)),
+          ),
+    },
+    {
+      method: 'patch',
+      path: '/findings/:id',
+      access: WRITERS,
+      summary: 'update a finding (state, work order, due date, note)',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        res.json(
+          await service.updateFinding(
+            ctx,
+            requireUser(req),
+            id,
+            updateFindingSchema.parse(req.body),
+          ),
+        );
+      },
+    },
+  ];
+}

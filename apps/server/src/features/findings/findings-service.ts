@@ -1,0 +1,161 @@
+import { z } from 'zod';
+import type {
+  Finding,
+  FindingList,
+  createFindingSchema,
+  findingListQuerySchema,
+  updateFindingSchema,
+} from '@turnstone/contracts/findings';
+import type { AppContext } from '../../lib/context.ts';
+import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
+import { accessiblePoint } from '../../lib/point-access.ts';
+import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
+import { writeAudit } from '../audit/audit-repository.ts';
+import * as repo from './findings-repository.ts';
+
+type CreateInput = z.output<typeof createFindingSchema>;
+type UpdateInput = z.output<typeof updateFindingSchema>;
+type ListQuery = z.output<typeof findingListQuerySchema>;
+
+export function toFinding(r: repo.FindingListRow): Finding {
+  const f = r.finding;
+  return {
+    id: f.id,
+    pointId: f.pointId,
+    pointTag: r.pointTag,
+    pointName: r.pointName,
+    machineName: r.machineName,
+    siteId: r.siteId,
+    siteCode: r.siteCode,
+    alertId: f.alertId,
+    bandKey: f.bandKey,
+    title: f.title,
+    workOrderRef: f.workOrderRef,
+    dueDate: f.dueDate,
+    state: f.state,
+    note: f.note,
+    createdBy: { id: f.createdBy, name: r.createdByName },
+    createdAt: f.createdAt.toISOString(),
+  };
+}
+
+/** The audited picture of a finding: what a person can change, and where it sits. */
+const auditView = (f: repo.FindingRow) => ({
+  pointId: f.pointId,
+  alertId: f.alertId,
+  bandKey: f.bandKey,
+  title: f.title,
+  state: f.state,
+  workOrderRef: f.workOrderRef,
+  dueDate: f.dueDate,
+  note: f.note,
+});
+
+/** Site scope of a request: every visible site, or the one asked for (403 when not visible). */
+export function siteScope(user: SessionUser, siteId: number | undefined): number[] {
+  if (siteId === undefined) return user.siteIds;
+  if (!canSeeSite(user, siteId)) throw forbidden('You are not assigned to this site.');
+  return [siteId];
+}
+
+export async function listFindings(
+  ctx: AppContext,
+  user: SessionUser,
+  q: ListQuery,
+): Promise<FindingList> {
+  if (q.pointId !== undefined) await accessiblePoint(ctx.db, user, q.pointId);
+  const rows = await repo.listFindings(ctx.db, {
+    siteIds: siteScope(user, q.siteId),
+    ...(q.state ? { state: q.state } : {}),
+    ...(q.pointId !== undefined ? { pointId: q.pointId } : {}),
+  });
+  return { items: rows.map(toFinding) };
+}
+
+async function loadOne(ctx: AppContext, user: SessionUser, id: number, tx?: repo.Tx) {
+  const [row] = await repo.listFindings(tx ?? ctx.db, { siteIds: user.siteIds, ids: [id] });
+  if (!row) throw notFound('Finding');
+  return toFinding(row);
+}
+
+const needsWorkOrder = () =>
+  new AppError('validation_failed', 'A planned finding needs a work-order reference.', 400, [
+    { path: ['workOrderRef'], message: 'Give the work-order reference to mark it planned' },
+  ]);
+
+export async function createFinding(
+  ctx: AppContext,
+  user: SessionUser,
+  input: CreateInput,
+): Promise<Finding> {
+  await accessiblePoint(ctx.db, user, input.pointId);
+  let bandKey = input.bandKey ?? null;
+  if (input.alertId != null) {
+    const alert = await repo.alertOfPoint(ctx.db, input.alertId);
+    if (!alert || alert.pointId !== input.pointId)
+      throw new AppError('validation_failed', 'The alert does not belong to this point.', 400, [
+        { path: ['alertId'], message: 'The alert does not belong to this point' },
+      ]);
+    bandKey ??= alert.bandKey;
+  }
+  const id = await ctx.db.transaction(async (tx) => {
+    const newId = await repo.insertFinding(tx, {
+      pointId: input.pointId,
+      alertId: input.alertId ?? null,
+      bandKey,
+      title: input.title,
+      workOrderRef: input.workOrderRef ?? null,
+      dueDate: input.dueDate ?? null,
+      note: input.note ?? null,
+      state: 'open',
+      createdBy: user.id,
+    });
+    const row = await repo.lockFinding(tx, newId);
+    await writeAudit(tx, {
+      actorUserId: user.id,
+      action: 'finding.create',
+      entity: 'finding',
+      entityId: newId,
+      before: null,
+      after: auditView(row!),
+    });
+    return newId;
+  });
+  return loadOne(ctx, user, id);
+}
+
+export async function updateFinding(
+  ctx: AppContext,
+  user: SessionUser,
+  id: number,
+  input: UpdateInput,
+): Promise<Finding> {
+  await ctx.db.transaction(async (tx) => {
+    const before = await repo.lockFinding(tx, id);
+    if (!before) throw notFound('Finding');
+    await accessiblePoint(tx as unknown as AppContext['db'], user, before.pointId);
+    const set: Parameters<typeof repo.updateFinding>[2] = {};
+    if (input.state !== undefined) set.state = input.state;
+    if (input.title !== undefined) set.title = input.title;
+    if (input.workOrderRef !== undefined) set.workOrderRef = input.workOrderRef;
+    if (input.dueDate !== undefined) set.dueDate = input.dueDate;
+    if (input.note !== undefined) set.note = input.note;
+    const after = { ...before, ...set };
+    if (after.state === 'planned' && !after.workOrderRef) throw needsWorkOrder();
+    const changed = (Object.keys(set) as (keyof typeof set)[]).some((k) => set[k] !== before[k]);
+    if (!changed) return;
+    await repo.updateFinding(tx, id, set);
+    await writeAudit(tx, {
+      actorUserId: user.id,
+      action:
+        set.state !== undefined && set.state !== before.state
+          ? `finding.${set.state}`
+          : 'finding.update',
+      entity: 'finding',
+      entityId: id,
+      before: auditView(before),
+      after: auditView(after),
+    });
+  });
+  return loadOne(ctx, user, id);
+}

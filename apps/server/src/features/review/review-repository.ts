@@ -1,0 +1,206 @@
+/**
+ * Queries of the weekly review. Every query is limited to the sites in scope through the
+ * point → machine → area join, so a user never reads another site's rows. Aggregation
+ * (weekly and daily means) happens in MariaDB, so the answer stays small for a large fleet.
+ */
+import { and, asc, eq, gte, inArray, isNull, lt, ne, sql } from 'drizzle-orm';
+import type { Db } from '@turnstone/db/client';
+import {
+  alerts,
+  areas,
+  bands,
+  bandValues,
+  limitSets,
+  machines,
+  points,
+  pointStates,
+  qualityNotices,
+  sites,
+} from '@turnstone/db/schema';
+
+export interface PointRef {
+  pointId: number;
+  pointTag: string;
+  pointName: string;
+  machineId: number;
+  machineName: string;
+  siteId: number;
+  siteCode: string;
+}
+
+export async function sitesIn(db: Db, siteIds: number[]) {
+  if (siteIds.length === 0) return [];
+  return db
+    .select({ id: sites.id, code: sites.code, name: sites.name })
+    .from(sites)
+    .where(inArray(sites.id, siteIds))
+    .orderBy(asc(sites.code));
+}
+
+/** Every point of the sites, with the names a row of the review shows. */
+export async function pointRefs(db: Db, siteIds: number[]): Promise<Map<number, PointRef>> {
+  if (siteIds.length === 0) return new Map();
+  const rows = await db
+    .select({
+      pointId: points.id,
+      pointTag: points.tag,
+      pointName: points.name,
+      machineId: machines.id,
+      machineName: machines.name,
+      siteId: sites.id,
+      siteCode: sites.code,
+    })
+    .from(points)
+    .innerJoin(machines, eq(machines.id, points.machineId))
+    .innerJoin(areas, eq(areas.id, machines.areaId))
+    .innerJoin(sites, eq(sites.id, areas.siteId))
+    .where(inArray(sites.id, siteIds));
+  return new Map(rows.map((r) => [r.pointId, r]));
+}
+
+const inSites = (siteIds: number[]) => inArray(areas.siteId, siteIds);
+
+/** Per point and band: mean and count of usable values last week and this week. */
+export async function weeklyMeans(
+  db: Db,
+  siteIds: number[],
+  lastFrom: Date,
+  thisFrom: Date,
+  thisTo: Date,
+) {
+  if (siteIds.length === 0) return [];
+  const isThis = sql`${bandValues.takenAt} >= ${thisFrom}`;
+  const rows = await db
+    .select({
+      pointId: bandValues.pointId,
+      bandKey: bandValues.bandKey,
+      thisMean: sql<string | null>`AVG(CASE WHEN ${isThis} THEN ${bandValues.value} END)`,
+      thisCount: sql<string>`SUM(CASE WHEN ${isThis} THEN 1 ELSE 0 END)`,
+      lastMean: sql<string | null>`AVG(CASE WHEN NOT (${isThis}) THEN ${bandValues.value} END)`,
+      lastCount: sql<string>`SUM(CASE WHEN NOT (${isThis}) THEN 1 ELSE 0 END)`,
+    })
+    .from(bandValues)
+    .innerJoin(points, eq(points.id, bandValues.pointId))
+    .innerJoin(machines, eq(machines.id, points.machineId))
+    .innerJoin(areas, eq(areas.id, machines.areaId))
+    .where(
+      and(
+        inSites(siteIds),
+        gte(bandValues.takenAt, lastFrom),
+        lt(bandValues.takenAt, thisTo),
+        ne(bandValues.qualityVerdict, 'unusable'),
+      ),
+    )
+    .groupBy(bandValues.pointId, bandValues.bandKey);
+  return rows.map((r) => ({
+    pointId: r.pointId,
+    bandKey: r.bandKey,
+    thisMean: r.thisMean === null ? null : Number(r.thisMean),
+    thisCount: Number(r.thisCount),
+    lastMean: r.lastMean === null ? null : Number(r.lastMean),
+    lastCount: Number(r.lastCount),
+  }));
+}
+
+/**
+ * Per point, band and UTC day: the mean of the usable values and the mean time they were
+ * taken (epoch ms). The forecast fits these, so a point read hourly and one read daily give
+ * series of the same size.
+ */
+export async function dailyMeans(db: Db, siteIds: number[], from: Date, to: Date) {
+  if (siteIds.length === 0) return [];
+  const epochMs = sql`TIMESTAMPDIFF(MICROSECOND, '1970-01-01 00:00:00', ${bandValues.takenAt}) / 1000`;
+  const rows = await db
+    .select({
+      pointId: bandValues.pointId,
+      bandKey: bandValues.bandKey,
+      t: sql<string>`AVG(${epochMs})`,
+      v: sql<string>`AVG(${bandValues.value})`,
+    })
+    .from(bandValues)
+    .innerJoin(points, eq(points.id, bandValues.pointId))
+    .innerJoin(machines, eq(machines.id, points.machineId))
+    .innerJoin(areas, eq(areas.id, machines.areaId))
+    .where(
+      and(
+        inSites(siteIds),
+        gte(bandValues.takenAt, from),
+        lt(bandValues.takenAt, to),
+        ne(bandValues.qualityVerdict, 'unusable'),
+      ),
+    )
+    .groupBy(bandValues.pointId, bandValues.bandKey, sql`DATE(${bandValues.takenAt})`);
+  return rows.map((r) => ({
+    pointId: r.pointId,
+    bandKey: r.bandKey,
+    t: Math.round(Number(r.t)),
+    v: Number(r.v),
+  }));
+}
+
+/** The bands of every point limit set in the sites, with their full definitions. */
+export async function pointBands(db: Db, siteIds: number[]) {
+  if (siteIds.length === 0) return [];
+  return db
+    .select({
+      pointId: limitSets.pointId,
+      key: bands.key,
+      name: bands.name,
+      unit: bands.unit,
+      definition: bands.definition,
+    })
+    .from(bands)
+    .innerJoin(limitSets, eq(limitSets.id, bands.limitSetId))
+    .innerJoin(points, eq(points.id, limitSets.pointId))
+    .innerJoin(machines, eq(machines.id, points.machineId))
+    .innerJoin(areas, eq(areas.id, machines.areaId))
+    .where(inSites(siteIds));
+}
+
+/** The remembered condition state of every point in the sites (baselines live there). */
+export async function conditionStates(db: Db, siteIds: number[]) {
+  if (siteIds.length === 0) return new Map<number, Record<string, unknown>>();
+  const rows = await db
+    .select({ pointId: pointStates.pointId, state: pointStates.state })
+    .from(pointStates)
+    .innerJoin(points, eq(points.id, pointStates.pointId))
+    .innerJoin(machines, eq(machines.id, points.machineId))
+    .innerJoin(areas, eq(areas.id, machines.areaId))
+    .where(inSites(siteIds));
+  return new Map(rows.map((r) => [r.pointId, r.state]));
+}
+
+/** Raised and acknowledged alerts of the sites, oldest first. */
+export async function openAlerts(db: Db, siteIds: number[]) {
+  if (siteIds.length === 0) return [];
+  return db
+    .select({ alert: alerts })
+    .from(alerts)
+    .innerJoin(points, eq(points.id, alerts.pointId))
+    .innerJoin(machines, eq(machines.id, points.machineId))
+    .innerJoin(areas, eq(areas.id, machines.areaId))
+    .where(and(inSites(siteIds), inArray(alerts.state, ['raised', 'acknowledged'])))
+    .orderBy(asc(alerts.firstAt))
+    .limit(500);
+}
+
+/** Quality notices nobody has reviewed, of captures taken in [from, to). */
+export async function unreviewedNotices(db: Db, siteIds: number[], from: Date, to: Date) {
+  if (siteIds.length === 0) return [];
+  return db
+    .select({ notice: qualityNotices })
+    .from(qualityNotices)
+    .innerJoin(points, eq(points.id, qualityNotices.pointId))
+    .innerJoin(machines, eq(machines.id, points.machineId))
+    .innerJoin(areas, eq(areas.id, machines.areaId))
+    .where(
+      and(
+        inSites(siteIds),
+        isNull(qualityNotices.reviewedAt),
+        gte(qualityNotices.takenAt, from),
+        lt(qualityNotices.takenAt, to),
+      ),
+    )
+    .orderBy(asc(qualityNotices.takenAt))
+    .limit(500);
+}

@@ -1,0 +1,43 @@
+import { reviewQuerySchema } from '@turnstone/contracts/review';
+import type { AppContext } from '../../lib/context.ts';
+import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import { reviewCsv } from './review-csv.ts';
+import { buildWeeklyReview } from './review-service.ts';
+
+/** The weekly review is the planner's screen; engineers and admins read it too. */
+const READERS = ['planner', 'engineer', 'admin'] as const;
+
+export function reviewRoutes(ctx: AppContext): RouteSpec[] {
+  return [
+    {
+      method: 'get',
+      path: '/review',
+      access: READERS,
+      summary: 'weekly review: movers, forecasts, open alerts, quality notices, findings due',
+      handler: async (req, res) => {
+        const q = reviewQuerySchema.parse(req.query);
+        res.setHeader('Cache-Control', 'no-store');
+        res.json(await buildWeeklyReview(ctx, requireUser(req), q));
+      },
+    },
+    {
+      method: 'get',
+      path: '/review.csv',
+      access: READERS,
+      summary: 'weekly review as CSV',
+      handler: async (req, res) => {
+        const q = reviewQuerySchema.parse(req.query);
+        const review = await buildWeeklyReview(ctx, requireUser(req), q);
+        const sites =
+          review.sites.length === 1 ? `-${review.sites[0]!.code.replace(/[^\w-]/g, '')}` : '';
+        res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+        res.setHeader('Cache-Control', 'no-store');
+        res.setHeader(
+          'Content-Disposition',
+          `attachment; filename="turnstone-review${sites}-${review.period.weekEnding}.csv"`,
+        );
+        res.send(reviewCsv(review));
+      },
+    },
+  ];
+}

@@ -1,0 +1,107 @@
+import { z } from 'zod';
+
+/**
+ * Findings: the planner's follow-ups on a point (from a trend, a forecast, an alert or a
+ * data-quality notice), carried from `open` to `planned` (a work order exists) to `done`.
+ */
+export const findingStateSchema = z.enum(['open', 'planned', 'done']);
+export type FindingState = z.infer<typeof findingStateSchema>;
+
+export const findingStateLabels: Record<FindingState, string> = {
+  open: 'Open',
+  planned: 'Planned',
+  done: 'Done',
+};
+
+/** A calendar date, `YYYY-MM-DD`. */
+export const isoDateSchema = z.iso.date({ message: 'Use a date like 2026-11-30' });
+
+/**
+ * An optional text or date field as forms send it: an empty string means "none" (null), so
+ * the same schema serves the form and the API. `null` clears the field on an update.
+ */
+const blankable = <T extends z.ZodType>(schema: T) =>
+  z.union([z.literal('').transform(() => null), z.null(), schema]).optional();
+
+export const workOrderRefSchema = z
+  .string()
+  .trim()
+  .max(64, 'At most 64 characters')
+  .regex(/^[\w./#-]*$/, 'Letters, digits and - _ . / # only');
+
+const titleSchema = z
+  .string()
+  .trim()
+  .min(1, 'Give the finding a title')
+  .max(200, 'At most 200 characters');
+const noteSchema = z.string().trim().max(2000, 'At most 2000 characters');
+
+/** `POST /api/v1/findings` */
+export const createFindingSchema = z.object({
+  pointId: z.number().int().positive(),
+  alertId: z.number().int().positive().nullable().optional(),
+  bandKey: z.string().min(1).max(64).nullable().optional(),
+  title: titleSchema,
+  workOrderRef: blankable(workOrderRefSchema),
+  dueDate: blankable(isoDateSchema),
+  note: blankable(noteSchema),
+});
+export type CreateFindingInput = z.input<typeof createFindingSchema>;
+
+/** The fields a person types into the "Create finding" form. */
+export const findingFormSchema = createFindingSchema.pick({
+  title: true,
+  workOrderRef: true,
+  dueDate: true,
+  note: true,
+});
+export type FindingFormInput = z.input<typeof findingFormSchema>;
+export type FindingFormOutput = z.output<typeof findingFormSchema>;
+
+/**
+ * `PATCH /api/v1/findings/:id`. Moving to `planned` needs a work-order reference (given here
+ * or already on the finding); the server answers 400 otherwise.
+ */
+export const updateFindingSchema = z
+  .object({
+    state: findingStateSchema.optional(),
+    title: titleSchema.optional(),
+    workOrderRef: blankable(workOrderRefSchema),
+    dueDate: blankable(isoDateSchema),
+    note: blankable(noteSchema),
+  })
+  .refine((v) => Object.values(v).some((x) => x !== undefined), {
+    message: 'Nothing to change',
+    path: ['state'],
+  });
+export type UpdateFindingInput = z.input<typeof updateFindingSchema>;
+
+/** `GET /api/v1/findings?state=&pointId=&siteId=` */
+export const findingListQuerySchema = z.object({
+  state: findingStateSchema.optional(),
+  pointId: z.coerce.number().int().positive().optional(),
+  siteId: z.coerce.number().int().positive().optional(),
+});
+
+export const findingSchema = z.object({
+  id: z.number().int(),
+  pointId: z.number().int(),
+  pointTag: z.string(),
+  pointName: z.string(),
+  machineName: z.string(),
+  siteId: z.number().int(),
+  siteCode: z.string(),
+  alertId: z.number().int().nullable(),
+  bandKey: z.string().nullable(),
+  title: z.string(),
+  workOrderRef: z.string().nullable(),
+  dueDate: z.string().nullable(),
+  state: findingStateSchema,
+  note: z.string().nullable(),
+  createdBy: z.object({ id: z.number().int(), name: z.string() }),
+  createdAt: z.string(),
+});
+export type Finding = z.infer<typeof findingSchema>;
+
+export const findingListSchema = z.object({ items: z.array(findingSchema) });
+export type FindingList = z.infer<typeof findingListSchema>;

@@ -1,0 +1,142 @@
+import { z } from 'zod';
+import { findingSchema, isoDateSchema } from './findings.ts';
+
+/**
+ * The planner's weekly review: this week against last. A week is the seven UTC days ending
+ * with `weekEnding` (inclusive); last week is the seven days before it.
+ *
+ * `GET /api/v1/review?weekEnding=YYYY-MM-DD&weeksAhead=4&siteId=` (JSON) and
+ * `GET /api/v1/review.csv?…` (the same tables as CSV).
+ */
+export const reviewQuerySchema = z.object({
+  /** Last day of the week reviewed; default today (UTC). */
+  weekEnding: isoDateSchema.optional(),
+  /** Forecast horizon: points projected to reach a level within this many weeks. */
+  weeksAhead: z.coerce.number().int().min(1).max(52).default(4),
+  /** One site only; default every site the user may see. */
+  siteId: z.coerce.number().int().positive().optional(),
+});
+export type ReviewQuery = z.input<typeof reviewQuerySchema>;
+
+/** Choices the screen offers for the forecast horizon. */
+export const WEEKS_AHEAD_CHOICES = [2, 4, 8, 12, 26] as const;
+
+const pointRefShape = {
+  pointId: z.number().int(),
+  pointTag: z.string(),
+  pointName: z.string(),
+  machineId: z.number().int(),
+  machineName: z.string(),
+  siteId: z.number().int(),
+  siteCode: z.string(),
+};
+
+/** One point and band whose weekly mean rose. */
+export const reviewMoverSchema = z.object({
+  ...pointRefShape,
+  bandKey: z.string(),
+  bandName: z.string(),
+  unit: z.string(),
+  lastWeekMean: z.number(),
+  thisWeekMean: z.number(),
+  lastWeekCount: z.number().int(),
+  thisWeekCount: z.number().int(),
+  /** thisWeekMean − lastWeekMean, in `unit`. */
+  change: z.number(),
+  /** 100 · change / lastWeekMean; null when last week's mean is 0. */
+  changePercent: z.number().nullable(),
+});
+export type ReviewMover = z.infer<typeof reviewMoverSchema>;
+
+/** One point and band projected to reach its next level within the horizon. */
+export const reviewForecastSchema = z.object({
+  ...pointRefShape,
+  bandKey: z.string(),
+  bandName: z.string(),
+  unit: z.string(),
+  latestValue: z.number(),
+  latestAt: z.string(),
+  target: z.object({ level: z.enum(['alert', 'danger']), value: z.number() }),
+  /** Whether the target is the fixed level or a statistical (baseline) one. */
+  levelSource: z.enum(['fixed', 'statistical']),
+  crossingAt: z.string(),
+  /** Whole days from the end of the week reviewed to the crossing (0: due now). */
+  daysToCrossing: z.number(),
+  model: z.enum(['linear', 'exponential']),
+  r2: z.number(),
+  /** Daily means the fit went through. */
+  points: z.number().int(),
+});
+export type ReviewForecast = z.infer<typeof reviewForecastSchema>;
+
+export const reviewAlertSchema = z.object({
+  ...pointRefShape,
+  alertId: z.number().int(),
+  bandKey: z.string(),
+  bandName: z.string(),
+  unit: z.string(),
+  level: z.enum(['alert', 'danger']),
+  state: z.enum(['raised', 'acknowledged']),
+  limitValue: z.number(),
+  lastValue: z.number(),
+  peakValue: z.number(),
+  firstAt: z.string(),
+  lastAt: z.string(),
+  /** Whole days since the alert was first raised, at the time of the review. */
+  ageDays: z.number().int(),
+  suspect: z.boolean(),
+});
+export type ReviewAlert = z.infer<typeof reviewAlertSchema>;
+
+export const qualityFindingSchema = z.object({
+  code: z.string(),
+  severity: z.string(),
+  message: z.string(),
+  value: z.number().nullable().optional(),
+});
+
+export const reviewQualityNoticeSchema = z.object({
+  ...pointRefShape,
+  noticeId: z.number().int(),
+  snapshotId: z.number().int().nullable(),
+  verdict: z.enum(['ok', 'suspect', 'unusable']),
+  takenAt: z.string(),
+  findings: z.array(qualityFindingSchema),
+});
+export type ReviewQualityNotice = z.infer<typeof reviewQualityNoticeSchema>;
+
+export const reviewFindingDueSchema = findingSchema.extend({
+  /** Not done and due before the day the review was made. */
+  overdue: z.boolean(),
+});
+export type ReviewFindingDue = z.infer<typeof reviewFindingDueSchema>;
+
+export const reviewSchema = z.object({
+  period: z.object({
+    weekEnding: z.string(),
+    /** ISO instants; `to` is exclusive. */
+    thisWeek: z.object({ from: z.string(), to: z.string() }),
+    lastWeek: z.object({ from: z.string(), to: z.string() }),
+    weeksAhead: z.number().int(),
+    /** Days are UTC days. */
+    timeZone: z.literal('UTC'),
+    generatedAt: z.string(),
+  }),
+  sites: z.array(z.object({ id: z.number().int(), code: z.string(), name: z.string() })),
+  summary: z.object({
+    movers: z.number().int(),
+    forecasts: z.number().int(),
+    openAlerts: z.number().int(),
+    openDanger: z.number().int(),
+    unacknowledged: z.number().int(),
+    qualityNotices: z.number().int(),
+    findingsDue: z.number().int(),
+    findingsOverdue: z.number().int(),
+  }),
+  movers: z.array(reviewMoverSchema),
+  forecasts: z.array(reviewForecastSchema),
+  openAlerts: z.array(reviewAlertSchema),
+  qualityNotices: z.array(reviewQualityNoticeSchema),
+  findingsDue: z.array(reviewFindingDueSchema),
+});
+export type WeeklyReview = z.infer<typeof reviewSchema>;
