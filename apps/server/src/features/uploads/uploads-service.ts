@@ -4,7 +4,9 @@
  * files become snapshots and go through the same queue and analysis as gateway captures.
  */
 import { createHash } from 'node:crypto';
+import { eq } from 'drizzle-orm';
 import { readCsv, readWav } from '@turnstone/dsp';
+import { snapshots } from '@turnstone/db/schema';
 import { MAX_SAMPLES, MIN_SAMPLES } from '@turnstone/contracts/ingest';
 import { uploadFieldsSchema, type UploadFields } from '@turnstone/contracts/uploads';
 import { AppError } from '../../lib/app-error.ts';
@@ -120,9 +122,19 @@ export async function acceptUpload(
     throw bad(`Sample rate ${sampleRateHz} Hz is outside 100 Hz to 1 MHz.`);
 
   const digest = createHash('sha256').update(bytes).digest('hex');
-  const takenAt = fields.takenAt ? new Date(fields.takenAt) : new Date();
+  const uid = `upload-${pointId}-${digest.slice(0, 40)}`;
+  // Without a stated time the upload time stands in; a repeat of the same file keeps the
+  // first one's, so it is recognised as the same upload rather than a conflict.
+  const [earlier] = fields.takenAt
+    ? []
+    : await ctx.db
+        .select({ takenAt: snapshots.takenAt })
+        .from(snapshots)
+        .where(eq(snapshots.uid, uid))
+        .limit(1);
+  const takenAt = fields.takenAt ? new Date(fields.takenAt) : (earlier?.takenAt ?? new Date());
   const result = await storeSnapshot(ctx, {
-    uid: `upload-${pointId}-${digest.slice(0, 40)}`,
+    uid,
     pointId,
     gatewayId: null,
     source: 'upload',

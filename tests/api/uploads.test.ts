@@ -1,0 +1,164 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { writeWav } from '@turnstone/dsp';
+import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { toneCounts } from '../support/signals.ts';
+
+let srv: TestServer;
+let engineer: string;
+let pointId: number;
+
+async function q(sqlText: string, params: unknown[] = []) {
+  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
+  return rows as Record<string, unknown>[];
+}
+const snapshotCount = async () => Number((await q('SELECT COUNT(*) AS n FROM snapshots'))[0]!.n);
+
+function upload(
+  file: Uint8Array | string,
+  name: string,
+  fields: Record<string, string> = {},
+  id = pointId,
+) {
+  const form = new FormData();
+  for (const [k, v] of Object.entries(fields)) form.append(k, v);
+  const bytes = typeof file === 'string' ? new TextEncoder().encode(file) : file;
+  form.append('file', new Blob([bytes as Uint8Array<ArrayBuffer>]), name);
+  return srv.call('POST', `/api/v1/points/${id}/uploads`, { cookie: engineer, raw: form });
+}
+
+/** 0.5 g peak at 100 Hz, 16-bit ADC at ±5 V, 100 mV/g (the test tone generator). */
+const TONE = { hz: 100, peakG: 0.5 };
+function goodWav(seed = 1) {
+  const counts = toneCounts({ n: 8192, fs: 10240, tones: [TONE], noiseG: 0.001, seed });
+  return writeWav(counts, 10240, 'int16');
+}
+const wavFields = { sensitivityMvPerG: '100', fullScaleV: '5', bits: '16', speedRpm: '1480' };
+
+beforeAll(async () => {
+  srv = await startTestServer();
+  engineer = await srv.signIn('engineer');
+  const [p] = await q('SELECT id FROM points WHERE tag = ?', ['MFP-P102-MDE-H']);
+  pointId = Number(p!.id);
+});
+afterAll(async () => {
+  await srv?.stop();
+});
+
+describe('uploads of recordings', () => {
+  it('a good WAV is queued, analysed by the worker, and its tone amplitude reads back', async () => {
+    const res = await upload(goodWav(), 'pump-de.wav', wavFields);
+    expect(res.status).toBe(201);
+    const body = await res.json();
+    expect(body).toMatchObject({
+      status: 'queued',
+      samples: 8192,
+      sampleRateHz: 10240,
+      encoding: 'int16',
+    });
+    expect(await createWorker(srv.ctx).drain()).toBe(1);
+    const snap = await (
+      await srv.call('GET', `/api/v1/snapshots/${body.snapshotId}`, { cookie: engineer })
+    ).json();
+    expect(snap.status).toBe('done');
+    expect(snap.fileName).toBe('pump-de.wav');
+    // A sine's RMS is its peak / √2 (REFERENCES.md): 0.5 g peak → 0.3536 g RMS.
+    expect(snap.analysis.accelRmsG).toBeCloseTo(0.3536, 2);
+    expect(snap.analysis.qualityVerdict).toBe('ok');
+    expect(snap.analysis.speedRpm).toBe(1480);
+  });
+
+  it('the same file again answers 200 already-uploaded and stores nothing new', async () => {
+    const before = await snapshotCount();
+    const res = await upload(goodWav(), 'pump-de.wav', wavFields);
+    expect(res.status).toBe(200);
+    expect((await res.json()).status).toBe('already-uploaded');
+    expect(await snapshotCount()).toBe(before);
+  });
+
+  it('the same file with other capture settings answers 409 and stores nothing', async () => {
+    const before = await snapshotCount();
+    const res = await upload(goodWav(), 'pump-de.wav', { ...wavFields, sensitivityMvPerG: '10' });
+    expect(res.status).toBe(409);
+    expect((await res.json()).error.message).toMatch(/other capture settings/);
+    expect(await snapshotCount()).toBe(before);
+  });
+
+  it('a good two-column CSV in g is analysed at the rate of its time column', async () => {
+    // 0.2 g peak at 80 Hz sampled at 5120 Hz → 0.1414 g RMS (peak / √2).
+    const fs = 5120;
+    const lines = ['time_s,accel_g'];
+    for (let i = 0; i < 4096; i++)
+      lines.push(
+        `${(i / fs).toFixed(7)},${(0.2 * Math.sin((2 * Math.PI * 80 * i) / fs)).toFixed(6)}`,
+      );
+    const res = await upload(lines.join('\n'), 'route-17.csv', {
+      unit: 'g',
+      sensitivityMvPerG: '100',
+    });
+    expect(res.status).toBe(201);
+    const body = await res.json();
+    expect(body.sampleRateHz).toBeCloseTo(5120, 3);
+    await createWorker(srv.ctx).drain();
+    const snap = await (
+      await srv.call('GET', `/api/v1/snapshots/${body.snapshotId}`, { cookie: engineer })
+    ).json();
+    expect(snap.status).toBe('done');
+    expect(snap.analysis.accelRmsG).toBeCloseTo(0.1414, 2);
+  });
+
+  it('a one-column CSV without a sample rate is refused with a message naming the field', async () => {
+    const res = await upload(
+      Array.from({ length: 512 }, (_, i) => String(Math.sin(i))).join('\n'),
+      'a.csv',
+    );
+    expect(res.status).toBe(400);
+    expect((await res.json()).error.message).toMatch(/sample rate/);
+  });
+
+  const truncated = () => goodWav().subarray(0, 3000);
+  const lyingSize = () => {
+    const w = goodWav().slice();
+    new DataView(w.buffer).setUint32(40, 10_000_000, true); // data chunk claims 10 MB
+    return w;
+  };
+  const mixedCsv = () =>
+    ['0,1.0', '0.001,2.0', '3.0', '0.003,4.0'].join('\n') + '\n' + '0.5\n'.repeat(300);
+  const png = () =>
+    new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 1, 2, 3]);
+
+  it.each([
+    ['not WAV or CSV (a PNG)', png, 'picture.wav', /neither WAV .* nor CSV/],
+    ['a truncated WAV', truncated, 'cut.wav', /Not a readable WAV file: .*truncated/],
+    ['a WAV whose data size lies', lyingSize, 'liar.wav', /claims 10000000 bytes/],
+    ['a CSV with mixed column counts', mixedCsv, 'mixed.csv', /line 3 has 1 columns, expected 2/],
+    ['an empty file', () => new Uint8Array(0), 'empty.wav', /empty/],
+    [
+      'a password file named ../../etc/passwd',
+      () => 'root:x:0:0:root:/root:/bin/bash\n',
+      '../../etc/passwd',
+      /./,
+    ],
+  ])('%s gets 400 with a clear message and stores nothing', async (_what, make, name, message) => {
+    const before = await snapshotCount();
+    const res = await upload(make(), name, wavFields);
+    expect(res.status).toBe(400);
+    const body = await res.json();
+    expect(body.error.message).toMatch(message);
+    expect(await snapshotCount()).toBe(before);
+  });
+
+  it('bad capture settings answer 400 naming the field; planners get 403', async () => {
+    const res = await upload(goodWav(2), 'x.wav', { sensitivityMvPerG: 'lots' });
+    expect(res.status).toBe(400);
+    expect((await res.json()).error.details[0].path).toBe('sensitivityMvPerG');
+    const planner = await srv.signIn('planner');
+    const form = new FormData();
+    form.append('file', new Blob([goodWav(3) as Uint8Array<ArrayBuffer>]), 'x.wav');
+    const denied = await srv.call('POST', `/api/v1/points/${pointId}/uploads`, {
+      cookie: planner,
+      raw: form,
+    });
+    expect(denied.status).toBe(403);
+  });
+});
