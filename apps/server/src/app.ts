@@ -24,10 +24,13 @@ import { auditRoutes } from './features/audit/audit-router.ts';
 import { pointRoutes } from './features/points/points-router.ts';
 import { reviewRoutes } from './features/review/review-router.ts';
 import { findingRoutes } from './features/findings/findings-router.ts';
+import { userLinkRoutes, userRoutes } from './features/users/users-router.ts';
+import { accountRoutes } from './features/account/account-router.ts';
+import { mailboxRoutes } from './features/mailbox/mailbox-router.ts';
 
 /** The feature routes below /api/v1 (auth mounts its own, behind its rate limiters). */
 function featureRoutes(ctx: AppContext): RouteSpec[] {
-  return [...fleetRoutes(ctx), ...gatewayRoutes(ctx), ...uploadRoutes(ctx), ...snapshotRoutes(ctx), ...alertRoutes(ctx), ...limitRoutes(ctx), ...pointRoutes(ctx), ...setupRoutes(ctx), ...auditRoutes(ctx), ...reviewRoutes(ctx), ...findingRoutes(ctx)];
+  return [...fleetRoutes(ctx), ...gatewayRoutes(ctx), ...uploadRoutes(ctx), ...snapshotRoutes(ctx), ...alertRoutes(ctx), ...limitRoutes(ctx), ...pointRoutes(ctx), ...setupRoutes(ctx), ...auditRoutes(ctx), ...reviewRoutes(ctx), ...findingRoutes(ctx), ...userRoutes(ctx), ...userLinkRoutes(ctx), ...accountRoutes(ctx), ...mailboxRoutes(ctx)];
 }
 
 /** Every dashboard route below /api/v1: the access table the role × route test walks. */

@@ -18,6 +18,7 @@ import { loadOrCreateSecrets } from './lib/secrets.ts';
 import { ensureWebBuilt } from './lib/web-build.ts';
 import { seedIfEmpty } from './features/demo/demo-seed.ts';
 import { createWorker, type Worker } from './features/worker/worker.ts';
+import { startMail, type MailRuntime } from './features/mail/mail-runtime.ts';
 
 export interface RunningServer {
   url: string;
@@ -25,6 +26,8 @@ export interface RunningServer {
   ctx: AppContext;
   /** The in-process worker when RUN_WORKER is on. */
   worker: Worker | null;
+  /** The SMTP fake (when SMTP_URL is unset) and the outbox sender (ticking when RUN_WORKER). */
+  mail: MailRuntime;
   stop(): Promise<void>;
 }
 
@@ -63,6 +66,11 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
       s.on('error', reject);
     });
     const port = (server.address() as AddressInfo).port;
+    const mail = await startMail(ctx, {
+      listenUrl: `http://${config.HOST === '0.0.0.0' ? '127.0.0.1' : config.HOST}:${port}`,
+      runSender: config.RUN_WORKER,
+    });
+    cleanup.push(() => mail.stop());
     let worker: Worker | null = null;
     if (config.RUN_WORKER) {
       worker = createWorker(ctx);
@@ -84,7 +92,7 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
       })();
       return stopped;
     };
-    return { url: publicUrl, port, ctx, worker, stop };
+    return { url: publicUrl, port, ctx, worker, mail, stop };
   } catch (err) {
     await dbHandle.close().catch(() => {});
     await localDb?.stop();

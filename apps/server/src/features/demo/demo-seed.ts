@@ -15,6 +15,7 @@ import {
 } from '@turnstone/db/schema';
 import type { AppContext } from '../../lib/context.ts';
 import { hashPassword } from '../auth/auth-service.ts';
+import { seedDemoSubscriptions } from '../mail/mail-seed.ts';
 import { demoPlant, demoUsers } from '../../../../../seed/demo-plant.ts';
 
 export const DEMO_ACCOUNTS = demoUsers.map((u) => ({ email: u.email, role: u.role }));
@@ -24,6 +25,7 @@ export async function seedIfEmpty(ctx: AppContext, say: (m: string) => void): Pr
   if ((row?.n ?? 0) > 0) return false;
   const t0 = Date.now();
   await seedPlant(ctx);
+  await seedDemoSubscriptions(ctx);
   say(`Seeded the demo plant in ${Date.now() - t0} ms.`);
   return true;
 }

@@ -1,0 +1,53 @@
+import type { Request } from 'express';
+import { changePasswordSchema, subscriptionSettingsSchema } from '@turnstone/contracts/account';
+import type { AppContext } from '../../lib/context.ts';
+import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import { COOKIE_NAME, signSession } from '../auth/session-token.ts';
+import * as service from './account-service.ts';
+
+export function accountRoutes(ctx: AppContext): RouteSpec[] {
+  const cookie = (req: Request) => ({
+    httpOnly: true,
+    sameSite: 'lax' as const,
+    secure: ctx.config.COOKIE_SECURE || req.secure,
+    path: '/',
+    maxAge: ctx.config.SESSION_HOURS * 3600 * 1000,
+  });
+  return [
+    {
+      method: 'post',
+      path: '/account/password',
+      access: ALL_ROLES,
+      summary: 'change my password',
+      handler: async (req, res) => {
+        const user = requireUser(req);
+        const body = changePasswordSchema.parse(req.body);
+        const version = await service.changePassword(ctx, user, body);
+        // Other sessions end with the old version; this one continues on a new cookie.
+        res.cookie(
+          COOKIE_NAME,
+          signSession(ctx.jwtSecret, user.id, version, ctx.config.SESSION_HOURS),
+          cookie(req),
+        );
+        res.status(204).end();
+      },
+    },
+    {
+      method: 'get',
+      path: '/account/subscriptions',
+      access: ALL_ROLES,
+      summary: 'my notification settings',
+      handler: async (req, res) => res.json(await service.getSubscriptions(ctx, requireUser(req))),
+    },
+    {
+      method: 'put',
+      path: '/account/subscriptions',
+      access: ALL_ROLES,
+      summary: 'change my notification settings',
+      handler: async (req, res) => {
+        const body = subscriptionSettingsSchema.parse(req.body);
+        res.json(await service.putSubscriptions(ctx, requireUser(req), body));
+      },
+    },
+  ];
+}

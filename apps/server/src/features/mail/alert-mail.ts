@@ -1,0 +1,204 @@
+/**
+ * Alert notifications: an alert's state change (raised, escalated, cleared) → one outbox
+ * row per subscribed user, inside the analysis transaction. The dedupe key
+ * `alert:<alert event id>:<user id>` makes "one message per user per alert event" a
+ * database rule even when a user has several matching subscriptions.
+ */
+import { sql } from 'drizzle-orm';
+import type { AppContext } from '../../lib/context.ts';
+import {
+  SAFETY_CAUTION,
+  esc,
+  htmlFacts,
+  htmlLayout,
+  htmlLink,
+  num,
+  textFacts,
+  utc,
+  type Rendered,
+} from './mail-templates.ts';
+import { mailBaseUrl, pointLink } from './mail-links.ts';
+import { enqueueMail, type Tx } from './outbox-repository.ts';
+
+export type AlertChangeKind = 'raised' | 'escalated' | 'cleared';
+
+type Row = Record<string, unknown>;
+async function rows(tx: Tx, q: ReturnType<typeof sql>): Promise<Row[]> {
+  const [r] = (await tx.execute(q)) as unknown as [Row[]];
+  return r;
+}
+
+export interface AlertMailFacts {
+  alertId: number;
+  kind: AlertChangeKind;
+  level: 'alert' | 'danger';
+  siteCode: string;
+  siteName: string;
+  areaName: string;
+  machineId: number;
+  machineName: string;
+  pointId: number;
+  pointTag: string;
+  pointName: string;
+  bandName: string;
+  unit: string;
+  value: number;
+  limit: number;
+  peak: number;
+  at: Date;
+  verdict: string;
+  suspect: boolean;
+}
+
+const VERDICT_TEXT: Record<string, string> = {
+  ok: 'ok — the capture passed the quality checks',
+  suspect: 'suspect — the capture has quality findings; treat the value with care',
+  unusable: 'unusable — the capture failed the quality checks',
+};
+
+export function renderAlertMail(f: AlertMailFacts, link: string): Rendered {
+  const what =
+    f.kind === 'raised'
+      ? `${f.level === 'danger' ? 'Danger' : 'Alert'} raised`
+      : f.kind === 'escalated'
+        ? 'Escalated to danger'
+        : `${f.level === 'danger' ? 'Danger' : 'Alert'} cleared`;
+  const valueLine =
+    f.kind === 'cleared'
+      ? `${num(f.value)} ${f.unit}, back below the ${f.level} level ${num(f.limit)} ${f.unit} (peak was ${num(f.peak)} ${f.unit})`
+      : `${num(f.value)} ${f.unit} against the ${f.level} level ${num(f.limit)} ${f.unit}`;
+  const facts: [string, string][] = [
+    ['Machine', `${f.machineName} (${f.siteCode} · ${f.areaName})`],
+    ['Point', `${f.pointTag} — ${f.pointName}`],
+    ['Band', f.bandName],
+    ['Value', valueLine],
+    ['Capture quality', VERDICT_TEXT[f.verdict] ?? f.verdict],
+    ['Taken', utc(f.at)],
+  ];
+  const subject = `[Turnstone] ${what}: ${f.machineName} ${f.pointTag} — ${f.bandName} ${num(f.value)} ${f.unit}`;
+  const footer = 'You receive this because of your notification settings (Account in Turnstone).';
+  const text = [
+    `${what} on ${f.machineName}, ${f.siteName}.`,
+    '',
+    textFacts(facts),
+    '',
+    `Point view: ${link}`,
+    '',
+    `Safety: ${SAFETY_CAUTION}`,
+    '',
+    footer,
+    '',
+  ].join('\n');
+  const html = htmlLayout(
+    `${what}: ${f.machineName}`,
+    [
+      `<p>${esc(what)} on ${esc(f.machineName)}, ${esc(f.siteName)}.</p>`,
+      htmlFacts(facts),
+      htmlLink(link, 'Open the point view'),
+      `<p style="border-left:3px solid #1d5c63;padding-left:8px"><strong>Safety:</strong> ${esc(SAFETY_CAUTION)}</p>`,
+    ].join(''),
+    footer,
+  );
+  return { subject, text, html };
+}
+
+async function loadFacts(tx: Tx, alertId: number, kind: AlertChangeKind) {
+  const [a] = await rows(
+    tx,
+    sql`SELECT a.id, a.level, a.band_name, a.unit, a.limit_value, a.last_value, a.peak_value,
+               a.last_at, a.suspect, p.id AS point_id, p.tag, p.name AS point_name,
+               m.id AS machine_id, m.name AS machine_name, ar.name AS area_name,
+               s.id AS site_id, s.code AS site_code, s.name AS site_name
+          FROM alerts a JOIN points p ON p.id = a.point_id JOIN machines m ON m.id = p.machine_id
+          JOIN areas ar ON ar.id = m.area_id JOIN sites s ON s.id = ar.site_id
+         WHERE a.id = ${alertId}`,
+  );
+  if (!a) return null;
+  const [ev] = await rows(
+    tx,
+    sql`SELECT id, level, value, at FROM alert_events
+         WHERE alert_id = ${alertId} AND kind = ${kind} ORDER BY id DESC LIMIT 1`,
+  );
+  if (!ev) return null;
+  const at = new Date(ev.at as Date);
+  const [an] = await rows(
+    tx,
+    sql`SELECT quality_verdict FROM analyses WHERE point_id = ${a.point_id} AND taken_at <= ${at}
+         ORDER BY taken_at DESC, id DESC LIMIT 1`,
+  );
+  const facts: AlertMailFacts = {
+    alertId,
+    kind,
+    level: ev.level as 'alert' | 'danger',
+    siteCode: String(a.site_code),
+    siteName: String(a.site_name),
+    areaName: String(a.area_name),
+    machineId: Number(a.machine_id),
+    machineName: String(a.machine_name),
+    pointId: Number(a.point_id),
+    pointTag: String(a.tag),
+    pointName: String(a.point_name),
+    bandName: String(a.band_name),
+    unit: String(a.unit),
+    value: Number(ev.value ?? a.last_value),
+    limit: Number(a.limit_value),
+    peak: Number(a.peak_value),
+    at,
+    verdict: String(an?.quality_verdict ?? (a.suspect ? 'suspect' : 'ok')),
+    suspect: Boolean(a.suspect),
+  };
+  return { facts, eventId: Number(ev.id), siteId: Number(a.site_id) };
+}
+
+/** Users whose subscriptions match: scope (site or machine), level, and site access. */
+async function recipients(tx: Tx, siteId: number, machineId: number, level: string) {
+  const found = await rows(
+    tx,
+    sql`SELECT u.id, u.email, sub.cadence FROM subscriptions sub JOIN users u ON u.id = sub.user_id
+         WHERE u.disabled_at IS NULL AND u.password_hash IS NOT NULL
+           AND (sub.site_id = ${siteId} OR sub.machine_id = ${machineId})
+           AND (sub.min_level = 'alert' OR ${level} = 'danger')
+           AND (u.role = 'admin' OR EXISTS (SELECT 1 FROM user_sites us
+                 WHERE us.user_id = u.id AND us.site_id = ${siteId}))`,
+  );
+  const byUser = new Map<number, { email: string; immediate: boolean }>();
+  for (const r of found) {
+    const id = Number(r.id);
+    const prev = byUser.get(id);
+    const immediate = r.cadence === 'immediate' || (prev?.immediate ?? false);
+    byUser.set(id, { email: String(r.email), immediate });
+  }
+  return byUser;
+}
+
+/** The top of the next hour: when "hourly" subscribers get their messages. */
+export function nextHour(now = new Date()): Date {
+  const d = new Date(now);
+  d.setUTCMinutes(0, 0, 0);
+  d.setUTCHours(d.getUTCHours() + 1);
+  return d;
+}
+
+export async function queueAlertChangeMail(
+  ctx: AppContext,
+  tx: Tx,
+  change: { alertId: number; kind: AlertChangeKind },
+): Promise<number> {
+  const loaded = await loadFacts(tx, change.alertId, change.kind);
+  if (!loaded) return 0;
+  const { facts, eventId, siteId } = loaded;
+  const who = await recipients(tx, siteId, facts.machineId, facts.level);
+  if (who.size === 0) return 0;
+  const base = await mailBaseUrl(ctx, tx);
+  const msg = renderAlertMail(facts, pointLink(base, facts.pointId));
+  for (const [userId, u] of who) {
+    await enqueueMail(tx, {
+      kind: `alert-${change.kind}`,
+      dedupeKey: `alert:${eventId}:${userId}`,
+      to: u.email,
+      ...msg,
+      ...(u.immediate ? {} : { notBefore: nextHour() }),
+    });
+  }
+  return who.size;
+}

@@ -1,0 +1,37 @@
+import { inArray } from 'drizzle-orm';
+import { sites, subscriptions, users } from '@turnstone/db/schema';
+import type { AppContext } from '../../lib/context.ts';
+
+/**
+ * Demo notification settings: the engineer hears of every alert at once on both sites;
+ * the planner hears of danger at once and gets the Monday digest.
+ */
+export async function seedDemoSubscriptions(ctx: AppContext): Promise<void> {
+  const people = await ctx.db
+    .select({ id: users.id, email: users.email })
+    .from(users)
+    .where(inArray(users.email, ['engineer@turnstone.local', 'planner@turnstone.local']));
+  const siteRows = await ctx.db.select({ id: sites.id }).from(sites);
+  const rows = [];
+  for (const p of people) {
+    for (const s of siteRows) {
+      rows.push(
+        p.email.startsWith('engineer')
+          ? {
+              userId: p.id,
+              siteId: s.id,
+              minLevel: 'alert' as const,
+              cadence: 'immediate' as const,
+            }
+          : {
+              userId: p.id,
+              siteId: s.id,
+              minLevel: 'danger' as const,
+              cadence: 'immediate' as const,
+              weeklyDigest: true,
+            },
+      );
+    }
+  }
+  if (rows.length) await ctx.db.insert(subscriptions).values(rows);
+}

@@ -1,0 +1,166 @@
+/**
+ * The outbox table as a mail queue. Rows are written inside the transaction of the change
+ * they tell about; senders claim due rows with SELECT … FOR UPDATE SKIP LOCKED (MariaDB ≥
+ * 10.6, as the jobs queue does) and hold them under a lease.
+ */
+import { and, asc, eq, inArray, isNull, lte, or, sql } from 'drizzle-orm';
+import type { Db } from '@turnstone/db/client';
+import { mailMessages, outbox, settings } from '@turnstone/db/schema';
+
+export type OutboxRow = typeof outbox.$inferSelect;
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+type Writer = Pick<Db, 'insert'>;
+
+export interface NewMail {
+  kind: string;
+  /** One message per key, ever: a repeat is silently dropped. */
+  dedupeKey: string;
+  to: string;
+  subject: string;
+  text: string;
+  html: string;
+  /** When to send at the earliest; now when absent. */
+  notBefore?: Date;
+}
+
+/** Queues one message; a repeat of its dedupe key leaves the first row as it was. */
+export async function enqueueMail(db: Writer, m: NewMail): Promise<void> {
+  await db
+    .insert(outbox)
+    .values({
+      kind: m.kind,
+      dedupeKey: m.dedupeKey.slice(0, 191),
+      toAddress: m.to,
+      subject: m.subject.slice(0, 300),
+      textBody: m.text,
+      htmlBody: m.html,
+      ...(m.notBefore ? { nextAttemptAt: m.notBefore } : {}),
+    })
+    .onDuplicateKeyUpdate({ set: { dedupeKey: sql`${outbox.dedupeKey}` } });
+}
+
+export async function claimOutbox(
+  db: Db,
+  owner: string,
+  leaseS: number,
+  limit: number,
+): Promise<OutboxRow[]> {
+  return db.transaction(async (tx) => {
+    const now = sql`CURRENT_TIMESTAMP(3)`;
+    const due = await tx
+      .select({ id: outbox.id })
+      .from(outbox)
+      .where(
+        and(
+          isNull(outbox.sentAt),
+          lte(outbox.nextAttemptAt, now),
+          isNull(outbox.outcome),
+          or(isNull(outbox.leaseExpiresAt), lte(outbox.leaseExpiresAt, now)),
+        ),
+      )
+      .orderBy(asc(outbox.nextAttemptAt))
+      .limit(limit)
+      .for('update', { skipLocked: true });
+    const ids = due.map((r) => r.id);
+    if (ids.length === 0) return [];
+    await tx
+      .update(outbox)
+      .set({
+        leaseOwner: owner,
+        leaseExpiresAt: sql`CURRENT_TIMESTAMP(3) + INTERVAL ${Math.round(leaseS * 1000)} * 1000 MICROSECOND`,
+        attempts: sql`${outbox.attempts} + 1`,
+      })
+      .where(inArray(outbox.id, ids));
+    return tx.select().from(outbox).where(inArray(outbox.id, ids)).orderBy(asc(outbox.id));
+  });
+}
+
+const mine = (id: number, owner: string) =>
+  and(eq(outbox.id, id), eq(outbox.leaseOwner, owner), isNull(outbox.sentAt));
+
+/** Written before the SMTP conversation starts; fenced by the lease. */
+export async function markSendingStarted(db: Db, id: number, owner: string): Promise<boolean> {
+  const [res] = await db
+    .update(outbox)
+    .set({ sendingStartedAt: sql`CURRENT_TIMESTAMP(3)` })
+    .where(mine(id, owner));
+  return res.affectedRows === 1;
+}
+
+export async function markSent(db: Db, id: number, sentAt?: Date): Promise<void> {
+  await db
+    .update(outbox)
+    .set({
+      sentAt: sentAt ?? sql`CURRENT_TIMESTAMP(3)`,
+      outcome: 'sent',
+      leaseOwner: null,
+      leaseExpiresAt: null,
+    })
+    .where(and(eq(outbox.id, id), isNull(outbox.sentAt)));
+}
+
+/** A definite refusal or a failure before any data went out: retry after `delayS`. */
+export async function markRetry(
+  db: Db,
+  row: OutboxRow,
+  owner: string,
+  message: string,
+  delayS: number,
+  keepStarted: boolean,
+): Promise<void> {
+  await db
+    .update(outbox)
+    .set({
+      lastError: message.slice(0, 4000),
+      leaseOwner: null,
+      leaseExpiresAt: null,
+      ...(keepStarted ? {} : { sendingStartedAt: null }),
+      nextAttemptAt: sql`CURRENT_TIMESTAMP(3) + INTERVAL ${Math.round(delayS)} SECOND`,
+    })
+    .where(mine(row.id, owner));
+}
+
+export async function markFinal(
+  db: Db,
+  row: OutboxRow,
+  owner: string,
+  outcome: 'failed' | 'uncertain',
+  message: string,
+): Promise<void> {
+  await db
+    .update(outbox)
+    .set({ outcome, lastError: message.slice(0, 4000), leaseOwner: null, leaseExpiresAt: null })
+    .where(mine(row.id, owner));
+}
+
+/** When the local fake is the relay: did a message with this Message-ID arrive? */
+export async function receivedAt(db: Db, messageId: string): Promise<Date | null> {
+  const [row] = await db
+    .select({ at: mailMessages.receivedAt })
+    .from(mailMessages)
+    .where(eq(mailMessages.messageId, messageId))
+    .limit(1);
+  return row?.at ?? null;
+}
+
+export interface MailRuntimeSetting {
+  /** Base URL for links in messages (PUBLIC_URL wins over this). */
+  baseUrl: string;
+  /** The local fake's address when it is the relay; null with a real SMTP_URL. */
+  fakeSmtpUrl: string | null;
+}
+
+const RUNTIME_KEY = 'mail.runtime';
+
+/** Shared through the database so a separate worker process finds the web process's fake. */
+export async function saveRuntime(db: Db, value: MailRuntimeSetting): Promise<void> {
+  await db
+    .insert(settings)
+    .values({ key: RUNTIME_KEY, value, updatedAt: new Date() })
+    .onDuplicateKeyUpdate({ set: { value, updatedAt: new Date() } });
+}
+
+export async function loadRuntime(db: Pick<Db, 'select'>): Promise<MailRuntimeSetting | null> {
+  const [row] = await db.select().from(settings).where(eq(settings.key, RUNTIME_KEY)).limit(1);
+  return (row?.value as MailRuntimeSetting | undefined) ?? null;
+}

@@ -1,0 +1,232 @@
+/**
+ * Users admin (invite, edit role/sites/name, disable/enable) and the public link flows
+ * (accept an invite, forgot / reset password). Every admin change is audited.
+ */
+import { eq, sql } from 'drizzle-orm';
+import type { Db } from '@turnstone/db/client';
+import { users } from '@turnstone/db/schema';
+import type { InviteUser, UpdateUser, UserSummary } from '@turnstone/contracts/users';
+import type { AppContext } from '../../lib/context.ts';
+import { AppError, notFound } from '../../lib/app-error.ts';
+import type { SessionUser } from '../../lib/session-user.ts';
+import { writeAudit } from '../audit/audit-repository.ts';
+import { hashPassword } from '../auth/auth-service.ts';
+import { enqueueMail } from '../mail/outbox-repository.ts';
+import { mailBaseUrl } from '../mail/mail-links.ts';
+import * as repo from './users-repository.ts';
+import { consumeToken, issueToken } from './user-tokens.ts';
+import { renderInvite, renderReset } from './user-mail.ts';
+
+const iso = (d: Date | null) => d?.toISOString() ?? null;
+
+function summary(u: repo.UserRow & { siteIds: number[] }): UserSummary {
+  return {
+    id: u.id,
+    email: u.email,
+    name: u.name,
+    role: u.role,
+    siteIds: u.siteIds,
+    invitePending: u.passwordHash === null,
+    disabledAt: iso(u.disabledAt),
+    lastSignInAt: iso(u.lastSignInAt),
+    createdAt: u.createdAt.toISOString(),
+  };
+}
+
+export async function listUsers(db: Db) {
+  const [rows, sites] = await Promise.all([repo.listUsers(db), repo.listSites(db)]);
+  return { items: rows.map(summary), sites };
+}
+
+async function checkSites(db: Db, ids: number[]) {
+  const unique = [...new Set(ids)];
+  const known = await repo.existingSiteIds(db, unique);
+  const unknown = unique.filter((id) => !known.includes(id));
+  if (unknown.length)
+    throw new AppError('validation_failed', 'Unknown site.', 400, [
+      { path: ['siteIds'], message: `Unknown site id ${unknown.join(', ')}.` },
+    ]);
+  return unique.sort((a, b) => a - b);
+}
+
+async function loadSummary(db: Db, id: number) {
+  const u = await repo.findUser(db, id);
+  if (!u) throw notFound('User');
+  return summary({ ...u, siteIds: await repo.assignedSites(db, id) });
+}
+
+export async function inviteUser(ctx: AppContext, actor: SessionUser, input: InviteUser) {
+  const siteIds = await checkSites(ctx.db, input.siteIds);
+  const [dup] = await ctx.db
+    .select({ id: users.id })
+    .from(users)
+    .where(eq(users.email, input.email));
+  if (dup)
+    throw new AppError('email_taken', 'A user with this e-mail address exists.', 409, [
+      { path: ['email'], message: 'A user with this e-mail address exists.' },
+    ]);
+  const base = await mailBaseUrl(ctx);
+  const id = await ctx.db.transaction(async (tx) => {
+    const [row] = await tx
+      .insert(users)
+      .values({ email: input.email, name: input.name, role: input.role, passwordHash: null })
+      .$returningId();
+    const userId = row!.id;
+    await repo.setSites(tx, userId, siteIds);
+    const token = await issueToken(tx, userId, 'invite');
+    await enqueueMail(tx, {
+      kind: 'invite',
+      dedupeKey: `invite:${userId}:${Date.now()}`,
+      to: input.email,
+      ...renderInvite(input.name, actor.name, `${base}/accept-invite#token=${token}`),
+    });
+    await writeAudit(tx, {
+      actorUserId: actor.id,
+      action: 'user.invite',
+      entity: 'user',
+      entityId: userId,
+      after: { email: input.email, name: input.name, role: input.role, siteIds },
+    });
+    return userId;
+  });
+  return loadSummary(ctx.db, id);
+}
+
+export async function updateUser(
+  ctx: AppContext,
+  actor: SessionUser,
+  id: number,
+  input: UpdateUser,
+) {
+  const before = await loadSummary(ctx.db, id);
+  if (id === actor.id && input.role && input.role !== before.role)
+    throw new AppError('own_role', 'You cannot change your own role.', 400);
+  const siteIds = input.siteIds ? await checkSites(ctx.db, input.siteIds) : undefined;
+  await ctx.db.transaction(async (tx) => {
+    if (input.role || input.name)
+      await tx
+        .update(users)
+        .set({
+          ...(input.role ? { role: input.role } : {}),
+          ...(input.name ? { name: input.name } : {}),
+        })
+        .where(eq(users.id, id));
+    if (siteIds) await repo.setSites(tx, id, siteIds);
+    await writeAudit(tx, {
+      actorUserId: actor.id,
+      action: 'user.update',
+      entity: 'user',
+      entityId: id,
+      before: { role: before.role, name: before.name, siteIds: before.siteIds },
+      after: {
+        role: input.role ?? before.role,
+        name: input.name ?? before.name,
+        siteIds: siteIds ?? before.siteIds,
+      },
+    });
+  });
+  // Sessions read role and sites from the database on every request: no re-sign-in needed.
+  return loadSummary(ctx.db, id);
+}
+
+export async function setDisabled(
+  ctx: AppContext,
+  actor: SessionUser,
+  id: number,
+  disabled: boolean,
+) {
+  const before = await loadSummary(ctx.db, id);
+  if (id === actor.id && disabled)
+    throw new AppError('own_account', 'You cannot disable your own account.', 400);
+  await ctx.db.transaction(async (tx) => {
+    await tx
+      .update(users)
+      .set(
+        disabled
+          ? // Bumping token_version ends every session at once (OWASP ASVS 5.0 7.4).
+            {
+              disabledAt: sql`COALESCE(${users.disabledAt}, CURRENT_TIMESTAMP(3))`,
+              tokenVersion: sql`${users.tokenVersion} + 1`,
+            }
+          : { disabledAt: null },
+      )
+      .where(eq(users.id, id));
+    await writeAudit(tx, {
+      actorUserId: actor.id,
+      action: disabled ? 'user.disable' : 'user.enable',
+      entity: 'user',
+      entityId: id,
+      before: { disabledAt: before.disabledAt },
+      after: { disabled },
+    });
+  });
+  return loadSummary(ctx.db, id);
+}
+
+const badLink = () =>
+  new AppError(
+    'link_invalid',
+    'This link has expired or was used already. Ask for a new one.',
+    400,
+  );
+
+/** Sets the password of an invited user; the link works once. */
+export async function acceptInvite(ctx: AppContext, token: string, password: string) {
+  const hash = await hashPassword(password);
+  await ctx.db.transaction(async (tx) => {
+    const userId = await consumeToken(tx, token, 'invite');
+    if (userId === null) throw badLink();
+    const u = await repo.findUser(tx, userId);
+    if (!u || u.disabledAt) throw badLink();
+    await tx
+      .update(users)
+      .set({ passwordHash: hash, tokenVersion: sql`${users.tokenVersion} + 1` })
+      .where(eq(users.id, userId));
+    await writeAudit(tx, {
+      actorUserId: userId,
+      action: 'user.accept-invite',
+      entity: 'user',
+      entityId: userId,
+    });
+  });
+}
+
+/**
+ * Queues a reset link when the address belongs to an active user; does nothing otherwise.
+ * The route answers 202 before this finishes, so the answer's timing says nothing either.
+ */
+export async function requestPasswordReset(ctx: AppContext, email: string) {
+  const [u] = await ctx.db.select().from(users).where(eq(users.email, email)).limit(1);
+  if (!u || u.disabledAt) return;
+  const base = await mailBaseUrl(ctx);
+  await ctx.db.transaction(async (tx) => {
+    const token = await issueToken(tx, u.id, 'reset');
+    await enqueueMail(tx, {
+      kind: 'reset',
+      dedupeKey: `reset:${u.id}:${Date.now()}`,
+      to: u.email,
+      ...renderReset(u.name, `${base}/reset-password#token=${token}`),
+    });
+  });
+}
+
+/** Sets a new password from a reset link; every session of the user ends. */
+export async function resetPassword(ctx: AppContext, token: string, password: string) {
+  const hash = await hashPassword(password);
+  await ctx.db.transaction(async (tx) => {
+    const userId = await consumeToken(tx, token, 'reset');
+    if (userId === null) throw badLink();
+    const u = await repo.findUser(tx, userId);
+    if (!u || u.disabledAt) throw badLink();
+    await tx
+      .update(users)
+      .set({ passwordHash: hash, tokenVersion: sql`${users.tokenVersion} + 1` })
+      .where(eq(users.id, userId));
+    await writeAudit(tx, {
+      actorUserId: userId,
+      action: 'user.reset-password',
+      entity: 'user',
+      entityId: userId,
+    });
+  });
+}
