@@ -12,6 +12,9 @@ const AppRoot = lazy(() => import('./routes/app/root.tsx').then((m) => ({ defaul
 const FleetRoute = lazy(() =>
   import('./routes/app/fleet.tsx').then((m) => ({ default: m.FleetRoute })),
 );
+const ReviewRoute = lazy(() =>
+  import('./routes/app/review.tsx').then((m) => ({ default: m.ReviewRoute })),
+);
 const NotFoundRoute = lazy(() =>
   import('./routes/not-found.tsx').then((m) => ({ default: m.NotFoundRoute })),
 );
@@ -46,6 +49,7 @@ const router = createBrowserRouter([
             children: [
               { index: true, element: <Navigate to={paths.app.fleet.getHref()} replace /> },
               { path: paths.app.fleet.path, element: <FleetRoute /> },
+              { path: paths.app.review.path, element: <ReviewRoute /> },
               { path: '*', element: <NotFoundRoute /> },
             ],
           },

@@ -16,6 +16,7 @@ export interface NavigationItem {
  */
 export const navigation: readonly NavigationItem[] = [
   { to: paths.app.fleet.getHref(), label: 'Fleet', roles },
+  { to: paths.app.review.getHref(), label: 'Review', roles: ['planner', 'engineer', 'admin'] },
 ];
 
 export function navigationFor(role: Role): NavigationItem[] {

@@ -22,5 +22,13 @@ export const paths = {
       path: '/fleet',
       getHref: () => '/fleet',
     },
+    review: {
+      path: '/review',
+      getHref: () => '/review',
+    },
+    point: {
+      path: '/points/:pointId',
+      getHref: (pointId: number) => `/points/${pointId}`,
+    },
   },
 } as const;

@@ -1,0 +1,151 @@
+import { useState } from 'react';
+import { useSearchParams } from 'react-router-dom';
+import { PageHeader } from '../../../components/ui/page-header.tsx';
+import { Card } from '../../../components/ui/card.tsx';
+import { ErrorState } from '../../../components/ui/error-state.tsx';
+import { LoadingPanel } from '../../../components/ui/spinner.tsx';
+import { Button } from '../../../components/ui/button.tsx';
+import { useMe } from '../../../features/auth/api/get-me.ts';
+import {
+  reviewCsvHref,
+  useReview,
+  type ReviewParams,
+} from '../../../features/review/api/get-review.ts';
+import { ReviewToolbar } from '../../../features/review/components/review-toolbar.tsx';
+import { ReviewSummary } from '../../../features/review/components/review-summary.tsx';
+import { ReviewPrintHeader } from '../../../features/review/components/review-print-header.tsx';
+import {
+  ForecastsTable,
+  MoversTable,
+  OpenAlertsTable,
+  QualityNoticesTable,
+  type FindingDraft,
+} from '../../../features/review/components/review-tables.tsx';
+import { formatDay, isIsoDate, todayIso } from '../../../features/review/utils/format-review.ts';
+import { CreateFindingDialog } from '../../../features/findings/components/create-finding-dialog.tsx';
+import { FindingsList } from '../../../features/findings/components/findings-list.tsx';
+import '../../../features/review/components/review-print.css';
+
+const AHEAD_DEFAULT = 4;
+
+/** Week, horizon and site live in the address, so a review can be shared or printed again. */
+function useReviewParams(): [ReviewParams, (p: ReviewParams) => void] {
+  const [search, setSearch] = useSearchParams();
+  const week = search.get('weekEnding');
+  const ahead = Number(search.get('weeksAhead'));
+  const site = Number(search.get('siteId'));
+  const params: ReviewParams = {
+    weekEnding: isIsoDate(week) ? week : todayIso(),
+    weeksAhead: Number.isInteger(ahead) && ahead >= 1 && ahead <= 52 ? ahead : AHEAD_DEFAULT,
+    siteId: Number.isInteger(site) && site > 0 ? site : undefined,
+  };
+  const set = (p: ReviewParams) => {
+    const next = new URLSearchParams({
+      weekEnding: p.weekEnding,
+      weeksAhead: String(p.weeksAhead),
+    });
+    if (p.siteId !== undefined) next.set('siteId', String(p.siteId));
+    setSearch(next, { replace: true });
+  };
+  return [params, set];
+}
+
+export function ReviewRoute() {
+  const [params, setParams] = useReviewParams();
+  const review = useReview(params);
+  const me = useMe();
+  const canEdit = me.data?.role === 'planner' || me.data?.role === 'engineer';
+  const [draft, setDraft] = useState<FindingDraft | null>(null);
+  const [created, setCreated] = useState<string | null>(null);
+  const onCreateFinding = canEdit
+    ? (d: FindingDraft) => {
+        setCreated(null);
+        setDraft(d);
+      }
+    : undefined;
+  const data = review.data;
+
+  return (
+    <div className="review-page flex flex-col gap-4 p-4 sm:px-6 sm:py-5">
+      <title>Weekly review · Turnstone</title>
+      {data && <ReviewPrintHeader review={data} printedAt={new Date()} />}
+      <div data-print="hide">
+        <PageHeader
+          title="Weekly review"
+          description={`This week against last, week ending ${formatDay(params.weekEnding)} (days in UTC).`}
+          actions={
+            <>
+              <a
+                href={reviewCsvHref(params)}
+                download
+                className="inline-flex h-10 items-center justify-center rounded-md border border-line-strong bg-surface px-4 text-sm font-medium text-ink hover:bg-sunken"
+              >
+                Export CSV
+              </a>
+              <Button onClick={() => window.print()}>Print</Button>
+            </>
+          }
+        />
+      </div>
+      <ReviewToolbar params={params} onChange={setParams} />
+      {created && (
+        <p
+          role="status"
+          data-print="hide"
+          className="rounded-md border border-accent/30 bg-accent-soft px-3 py-2 text-sm text-ink"
+        >
+          Finding “{created}” created; it is listed under Findings below.
+        </p>
+      )}
+      {review.isPending ? (
+        <Card>
+          <LoadingPanel label="Building the review…" />
+        </Card>
+      ) : review.isError ? (
+        <Card>
+          <ErrorState
+            title="Could not build the review"
+            error={review.error}
+            onRetry={() => void review.refetch()}
+            retrying={review.isFetching}
+          />
+        </Card>
+      ) : data ? (
+        <div
+          className="flex flex-col gap-4 transition-opacity"
+          style={{ opacity: review.isPlaceholderData ? 0.6 : 1 }}
+          aria-busy={review.isPlaceholderData || undefined}
+        >
+          <ReviewSummary review={data} />
+          <MoversTable
+            rows={data.movers}
+            total={data.summary.movers}
+            onCreateFinding={onCreateFinding}
+          />
+          <ForecastsTable
+            rows={data.forecasts}
+            total={data.summary.forecasts}
+            weeksAhead={data.period.weeksAhead}
+            onCreateFinding={onCreateFinding}
+          />
+          <OpenAlertsTable
+            rows={data.openAlerts}
+            total={data.summary.openAlerts}
+            onCreateFinding={onCreateFinding}
+          />
+          <QualityNoticesTable
+            rows={data.qualityNotices}
+            total={data.summary.qualityNotices}
+            onCreateFinding={onCreateFinding}
+          />
+          <FindingsList siteId={params.siteId} canEdit={canEdit} />
+        </div>
+      ) : null}
+      <CreateFindingDialog
+        origin={draft}
+        onClose={() => setDraft(null)}
+        onCreated={(title) => setCreated(title)}
+      />
+    </div>
+  );
+}

@@ -1,0 +1,39 @@
+import { reviewSchema } from '@turnstone/contracts/review';
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client.ts';
+
+export interface ReviewParams {
+  weekEnding: string;
+  weeksAhead: number;
+  /** One site, or every site the user may see. */
+  siteId?: number | undefined;
+}
+
+export function reviewSearch(p: ReviewParams): string {
+  const q = new URLSearchParams({ weekEnding: p.weekEnding, weeksAhead: String(p.weeksAhead) });
+  if (p.siteId !== undefined) q.set('siteId', String(p.siteId));
+  return q.toString();
+}
+
+/** Where the CSV export of the same review downloads from. */
+export function reviewCsvHref(p: ReviewParams): string {
+  return `/api/v1/review.csv?${reviewSearch(p)}`;
+}
+
+/** This week against last: movers, forecasts, open alerts, quality notices, findings due. */
+export function getReview(p: ReviewParams, { signal }: { signal?: AbortSignal } = {}) {
+  return api.get(`/api/v1/review?${reviewSearch(p)}`, { schema: reviewSchema, signal });
+}
+
+export function getReviewQueryOptions(p: ReviewParams) {
+  return queryOptions({
+    queryKey: ['review', 'detail', p] as const,
+    queryFn: ({ signal }) => getReview(p, { signal }),
+    // Keep the last week on screen while the next one loads.
+    placeholderData: keepPreviousData,
+  });
+}
+
+export function useReview(p: ReviewParams) {
+  return useQuery(getReviewQueryOptions(p));
+}

@@ -1,0 +1,25 @@
+import type { WeeklyReview } from '@turnstone/contracts/review';
+import { formatDay } from '../utils/format-review.ts';
+
+/** Shown only on paper: what, where, which week and when it was printed. */
+export function ReviewPrintHeader({
+  review,
+  printedAt,
+}: {
+  review: WeeklyReview;
+  printedAt: Date;
+}) {
+  const sites = review.sites.map((s) => `${s.code} ${s.name}`).join(', ') || 'No sites';
+  return (
+    <div data-print="only" className="review-print-header hidden border-b border-ink pb-2">
+      <p className="text-base font-semibold">Turnstone · weekly review</p>
+      <p className="text-sm">
+        Site: {sites} · Week ending {formatDay(review.period.weekEnding)} (UTC days) · forecast{' '}
+        {review.period.weeksAhead} weeks ahead
+      </p>
+      <p className="text-xs">
+        Printed {printedAt.toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' })}
+      </p>
+    </div>
+  );
+}
