@@ -8,7 +8,7 @@ const here = fileURLToPath(new URL('.', import.meta.url));
 const root = resolve(here, '../..');
 const tsx = join(root, 'node_modules', '.bin', 'tsx');
 const files = readdirSync(here)
-  .filter((f) => f.endsWith('-bench.ts'))
+  .filter((f) => f.endsWith('-bench.ts') && f !== 'run-bench.ts')
   .sort();
 
 let failed = 0;

@@ -57,6 +57,6 @@ export function analyticSignal(input: ArrayLike<number>): ComplexSignal {
 export function hilbertEnvelope(input: ArrayLike<number>): Float64Array {
   const { re, im } = analyticSignal(input);
   const env = new Float64Array(re.length);
-  for (let i = 0; i < env.length; i++) env[i] = Math.hypot(re[i]!, im[i]!);
+  for (let i = 0; i < env.length; i++) env[i] = Math.sqrt(re[i]! * re[i]! + im[i]! * im[i]!);
   return env;
 }

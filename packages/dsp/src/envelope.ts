@@ -76,7 +76,11 @@ export function bandEnvelope(input: ArrayLike<number>, options: EnvelopeOptions 
   const z = new Float64Array(2 * m);
   getFftPlan(m).inverse(z, baseband);
   const envelope = new Float64Array(m);
-  for (let i = 0; i < m; i++) envelope[i] = Math.hypot(z[2 * i]!, z[2 * i + 1]!);
+  for (let i = 0; i < m; i++) {
+    const re = z[2 * i]!;
+    const im = z[2 * i + 1]!;
+    envelope[i] = Math.sqrt(re * re + im * im);
+  }
   const df = fs / n;
   return { envelope, sampleRateHz: (fs * m) / n, bandHz: [k1 * df, k2 * df] };
 }
@@ -129,7 +133,9 @@ export function envelopeSpectrum(
   const lines = Math.min(Math.floor(m / 2), Math.floor(fmax / df + 1e-9)) + 1;
   const amplitude = new Float64Array(lines);
   for (let k = 0; k < lines; k++) {
-    const mag = Math.hypot(out[2 * k]!, out[2 * k + 1]!);
+    const re = out[2 * k]!;
+    const im = out[2 * k + 1]!;
+    const mag = Math.sqrt(re * re + im * im);
     amplitude[k] = ((k === 0 ? 1 : 2) * mag) / window.sum;
   }
   return { amplitude, dfHz: df, bandHz: env.bandHz, window: windowName, enbwBins: window.enbwBins };

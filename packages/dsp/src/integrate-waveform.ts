@@ -29,6 +29,14 @@ export interface IntegrateWaveformOptions {
    * @default computed
    */
   spectrum?: Float64Array;
+  /**
+   * Length of the output, a power of two: when the band ends well below Nyquist, the
+   * integrated waveform can be synthesised at the reduced rate fs · outputLength / n
+   * (band-limited, so nothing is lost but the sample grid). Must hold the band:
+   * outputLength ≥ 2 · (highCutoffHz / Δf) + 2.
+   * @default n (same rate as the input)
+   */
+  outputLength?: number;
 }
 
 /**
@@ -39,13 +47,20 @@ export function taperEnds(data: Float64Array, fraction: number): Float64Array {
   if (!(fraction >= 0 && fraction < 0.5)) throw new RangeError(`taper fraction must be in [0, 0.5), got ${fraction}`);
   const n = data.length;
   const m = Math.floor(fraction * n);
+  let ramp = ramps.get(m);
+  if (!ramp) {
+    ramp = Float64Array.from({ length: m }, (_, i) => 0.5 - 0.5 * Math.cos((Math.PI * i) / m));
+    ramps.set(m, ramp);
+  }
   for (let i = 0; i < m; i++) {
-    const w = 0.5 - 0.5 * Math.cos((Math.PI * i) / m);
+    const w = ramp[i]!;
     data[i] = data[i]! * w;
     data[n - 1 - i] = data[n - 1 - i]! * w;
   }
   return data;
 }
+
+const ramps = new Map<number, Float64Array>();
 
 /**
  * Frequency-domain integration of a waveform: taper the ends, FFT, divide line k by
@@ -71,15 +86,25 @@ export function integrateWaveform(input: ArrayLike<number>, options: IntegrateWa
   if (!(lo > 0) || !(hi > lo)) throw new RangeError(`integration band must satisfy 0 < lo < hi, got [${lo}, ${hi}]`);
   let spectrum = options.spectrum;
   if (!spectrum) {
-    const data = taperEnds(Float64Array.from(input), options.taperFraction ?? 0.05);
+    const data = taperEnds(input instanceof Float64Array ? input.slice() : Float64Array.from(input), options.taperFraction ?? 0.05);
     spectrum = new Float64Array(2 * n);
     getFftPlan(n).realForward(spectrum, data);
   }
-  const bins = Math.floor(n / 2) + 1;
   const df = fs / n;
+  const m = options.outputLength ?? n;
+  const bins = Math.min(Math.floor(n / 2), Math.floor(m / 2)) + 1;
+  if (m !== n) {
+    if (!Number.isInteger(Math.log2(m)) || m > n || m < 4) {
+      throw new RangeError(`outputLength must be a power of two in 4 … ${n}, got ${m}`);
+    }
+    if (hi / df > m / 2 - 1) {
+      throw new RangeError(`outputLength ${m} cannot hold the band up to ${hi} Hz (needs ≥ ${2 * Math.ceil(hi / df) + 2})`);
+    }
+  }
+  const rescale = m / n;
   const g1 = integrationGain(1, from, to);
   const p = Math.round(Math.log2(g1 / integrationGain(2, from, to)));
-  const scaled = new Float64Array(2 * bins);
+  const scaled = new Float64Array(2 * (Math.floor(m / 2) + 1));
   const start = lo / 2;
   for (let k = 1; k < bins; k++) {
     const f = k * df;
@@ -87,7 +112,7 @@ export function integrateWaveform(input: ArrayLike<number>, options: IntegrateWa
     const edge = f >= lo ? 1 : 0.5 - 0.5 * Math.cos((Math.PI * (f - start)) / (lo - start));
     const re = spectrum[2 * k]!;
     const im = spectrum[2 * k + 1]!;
-    const gain = (edge * g1) / f ** p;
+    const gain = (rescale * edge * g1) / f ** p;
     // 1/i = −i (one integration), 1/i² = −1 (two).
     if (p === 0) {
       scaled[2 * k] = re * gain;
@@ -100,8 +125,8 @@ export function integrateWaveform(input: ArrayLike<number>, options: IntegrateWa
       scaled[2 * k + 1] = -im * gain;
     }
   }
-  const out = new Float64Array(n);
-  realInverseInto(out, scaled, n);
+  const out = new Float64Array(m);
+  realInverseInto(out, scaled, m);
   return out;
 }
 

@@ -56,10 +56,16 @@ export function scaleToAcceleration(
     (sensitivity / 1000) *
     (unit === 'm/s2' ? STANDARD_GRAVITY : 1);
   const out = new Float64Array(samples.length);
-  for (let i = 0; i < samples.length; i++) {
-    const v = samples[i]!;
-    if (!Number.isFinite(v)) throw new RangeError(`sample ${i} is not a finite number (${v})`);
-    out[i] = v * perSample;
+  out.set(samples);
+  let bad = 0;
+  for (let i = 0; i < out.length; i++) {
+    const v = out[i]! * perSample;
+    bad += v - v; // NaN for NaN or ±Infinity, 0 otherwise: one check after the loop
+    out[i] = v;
+  }
+  if (bad !== 0) {
+    const i = out.findIndex((v) => !Number.isFinite(v));
+    throw new RangeError(`sample ${i} is not a finite number (${samples[i]})`);
   }
   return out;
 }

@@ -70,11 +70,14 @@ export function findPeaks(
     const towardsRight = right >= left;
     const ratio = Math.min(1, (towardsRight ? right : left) / m);
     let delta = 0;
-    if (ratio > edge) {
+    if (window.name === 'hann') {
+      // Closed form for Hann's kernel: r = (1 + δ)/(2 − δ)  ⇒  δ = (2r − 1)/(r + 1).
+      delta = Math.min(0.5, Math.max(0, (2 * ratio - 1) / (ratio + 1)));
+    } else if (ratio > edge) {
       // ratio(δ) = W(1−δ)/W(δ) rises monotonically from W(1) at δ = 0 to 1 at δ = ½.
       let lo = 0;
       let hi = 0.5;
-      for (let it = 0; it < 40; it++) {
+      for (let it = 0; it < 32; it++) {
         const mid = 0.5 * (lo + hi);
         const r = windowResponse(window, 1 - mid) / windowResponse(window, mid);
         if (r < ratio) lo = mid;

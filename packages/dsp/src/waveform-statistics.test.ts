@@ -55,6 +55,17 @@ describe('waveform integration', () => {
     expect(Math.abs(trimmedPeakToPeak(d) / (2 * integrateSineAmplitude(1, f, 'g', 'um')) - 1)).toBeLessThan(5e-3);
   });
 
+  // band-limited synthesis (common practice, no source): a shorter output is the same waveform on a coarser grid
+  it('when the output is synthesised at a quarter of the rate, it equals every fourth full-rate sample', () => {
+    const fs = 25600;
+    const x = Float64Array.from({ length: 16384 }, (_, i) => Math.sin((2 * Math.PI * 37.3 * i) / fs) + 0.1 * Math.sin(i));
+    const full = integrateWaveform(x, { sampleRateHz: fs, lowCutoffHz: 10, highCutoffHz: 1000 });
+    const quarter = integrateWaveform(x, { sampleRateHz: fs, lowCutoffHz: 10, highCutoffHz: 1000, outputLength: 4096 });
+    for (let i = 0; i < 4096; i += 97) expect(quarter[i]).toBeCloseTo(full[4 * i]!, 9);
+    expect(() => integrateWaveform(x, { sampleRateHz: fs, highCutoffHz: 1000, outputLength: 1024 })).toThrow(/cannot hold/);
+    expect(() => integrateWaveform(x, { sampleRateHz: fs, outputLength: 3000 })).toThrow(/power of two/);
+  });
+
   it('when a tone lies below the low cutoff, it is removed', () => {
     const fs = 1024;
     const x = Float64Array.from({ length: 8192 }, (_, i) => Math.sin((2 * Math.PI * 2 * i) / fs));

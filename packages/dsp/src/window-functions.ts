@@ -130,7 +130,7 @@ export function windowResponse(window: DataWindow, delta: number): number {
     addKernel(c, k - delta);
     addKernel(c, -k - delta);
   }
-  return Math.hypot(re, im) / (a[0]! * n);
+  return Math.sqrt(re * re + im * im) / (a[0]! * n);
 }
 
 /** Returns `value` as a window name, or throws a `TypeError` naming the accepted ones. */

@@ -1,0 +1,51 @@
+/**
+ * The load generator of ingest-bench.ts, run as a second process: posts `count` prepared
+ * snapshots with `concurrency` requests in flight, retrying 429/503 by Retry-After, and
+ * prints one JSON line with the accepted uids' statuses and latencies.
+ * argv: url key count concurrency prefix samples
+ */
+import { snapshotBody } from '../support/signals.ts';
+
+const [url, key, countS, concS, prefix, samplesS] = process.argv.slice(2);
+const count = Number(countS);
+const concurrency = Number(concS);
+const n = Number(samplesS ?? 4096);
+const template = snapshotBody('MFP-P101-MDE-H', 'x', { n, seed: 7 });
+const t0 = Date.parse('2026-06-01T00:00:00Z');
+const bodies = Array.from({ length: count }, (_, i) =>
+  JSON.stringify({ ...template, uid: `${prefix}-${i}`, takenAt: new Date(t0 + i * 1000).toISOString() }),
+);
+
+const latencies: number[] = [];
+const statuses: Record<string, number> = {};
+let retries = 0;
+let next = 0;
+async function one(body: string) {
+  for (;;) {
+    const started = performance.now();
+    const res = await fetch(`${url}/api/ingest/v1/snapshots`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', authorization: `Bearer ${key}` },
+      body,
+    });
+    await res.arrayBuffer();
+    latencies.push(performance.now() - started);
+    if (res.status === 429 || res.status === 503) {
+      retries++;
+      await new Promise((r) => setTimeout(r, 1000 * Number(res.headers.get('retry-after') ?? 1)));
+      continue;
+    }
+    statuses[res.status] = (statuses[res.status] ?? 0) + 1;
+    return;
+  }
+}
+const wall0 = performance.now();
+await Promise.all(
+  Array.from({ length: concurrency }, async () => {
+    while (next < count) await one(bodies[next++]!);
+  }),
+);
+const wallS = (performance.now() - wall0) / 1000;
+latencies.sort((a, b) => a - b);
+const q = (p: number) => latencies[Math.min(latencies.length - 1, Math.floor(p * latencies.length))]!;
+console.log(JSON.stringify({ wallS, perS: count / wallS, p50: q(0.5), p99: q(0.99), statuses, retries }));
