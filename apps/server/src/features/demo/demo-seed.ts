@@ -1,6 +1,8 @@
 /**
  * Seeds the demo plant (seed/demo-plant.ts) and one user per role into an empty database.
- * Runs at start when SEED_DEMO is not false and there are no users yet.
+ * Runs at start when SEED_DEMO is not false and there are no users yet; then, when
+ * DEMO_HISTORY_WEEKS > 0, that many weeks of captures through the real pipeline
+ * (demo-history.ts).
  */
 import { count } from 'drizzle-orm';
 import {
@@ -17,6 +19,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { hashPassword } from '../auth/auth-service.ts';
 import { seedDemoSubscriptions } from '../mail/mail-seed.ts';
 import { demoPlant, demoUsers } from '../../../../../seed/demo-plant.ts';
+import { seedDemoHistory } from './demo-history.ts';
 
 export const DEMO_ACCOUNTS = demoUsers.map((u) => ({ email: u.email, role: u.role }));
 
@@ -27,6 +30,11 @@ export async function seedIfEmpty(ctx: AppContext, say: (m: string) => void): Pr
   await seedPlant(ctx);
   await seedDemoSubscriptions(ctx);
   say(`Seeded the demo plant in ${Date.now() - t0} ms.`);
+  const weeks = ctx.config.DEMO_HISTORY_WEEKS;
+  if (weeks > 0) {
+    say(`Generating ${weeks} weeks of demo history through the analysis pipeline…`);
+    await seedDemoHistory(ctx, weeks, say);
+  }
   return true;
 }
 

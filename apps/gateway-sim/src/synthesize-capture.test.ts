@@ -1,0 +1,202 @@
+import { describe, expect, it } from 'vitest';
+import { analyzeSnapshot, bearingOrders, decodeSamples, type BandDefinition } from '@turnstone/dsp';
+import { demoChannels } from './plant-channels.ts';
+import { simulateSnapshot } from './simulated-snapshot.ts';
+import {
+  impactAmplitudeG,
+  synthesizeCapture,
+  toneAccelPeakG,
+  type CaptureRecipe,
+} from './synthesize-capture.ts';
+
+const base: CaptureRecipe = {
+  sampleRateHz: 12_800,
+  sampleCount: 8192,
+  rpm: 1480,
+  noiseG: 0.002,
+  sensitivityMvPerG: 100,
+  adc: { encoding: 'int24', bits: 24, fullScaleV: 5 },
+  seed: 7,
+};
+
+function analyse(
+  recipe: CaptureRecipe,
+  bands: BandDefinition[] = [],
+  extra: { bearing?: boolean } = {},
+) {
+  const cap = synthesizeCapture(recipe);
+  const bearing = {
+    name: 'DE',
+    rollingElements: 8,
+    ballDiameterMm: 28.58,
+    pitchDiameterMm: 125,
+    contactAngleDeg: 0,
+  };
+  return analyzeSnapshot({
+    samples: cap.counts,
+    encoding: cap.encoding,
+    sampleRateHz: cap.sampleRateHz,
+    adc: cap.adc,
+    sensor: { sensitivityMvPerG: recipe.sensitivityMvPerG },
+    speedRpm: recipe.rpm,
+    fmaxHz: recipe.sampleRateHz / 2.56,
+    lines: 1600,
+    ...(extra.bearing ? { machine: { bearings: [bearing] } } : {}),
+    bands,
+  });
+}
+
+describe('synthesizeCapture', () => {
+  it('when asked for 4 mm/s RMS at 1×, analyzeSnapshot reads 4 mm/s in the 1× band', () => {
+    // v = a/(2πf) and RMS = peak/√2 (REFERENCES.md): the synthesiser converts, the dsp reads back.
+    const a = analyse({ ...base, tones: [{ order: 1, velocityMmS: 4 }] }, [
+      { key: '1x', kind: 'order', loOrder: 0.8, hiOrder: 1.2, unit: 'mm/s', measure: 'rms' },
+    ]);
+    const v = a.bandValues.find((b) => b.key === '1x')!.value!;
+    expect(v).toBeGreaterThan(3.9);
+    expect(v).toBeLessThan(4.1);
+    expect(a.overall.velocityRmsMmS).toBeCloseTo(4, 1);
+  });
+
+  it('converts velocity to peak acceleration with a = 2πf·v and peak = √2·RMS', () => {
+    // 10 mm/s RMS at 100 Hz: 14.142 mm/s peak · 2π·100 = 8885.8 mm/s² = 0.90610 g (computed).
+    expect(toneAccelPeakG(10, 100)).toBeCloseTo(0.9061, 4);
+  });
+
+  it('when outer-race impacts ring a 3 kHz resonance, the envelope spectrum shows BPFO at the asked level', () => {
+    const bpfo = bearingOrders({
+      rollingElements: 8,
+      ballDiameterMm: 28.58,
+      pitchDiameterMm: 125,
+    }).bpfo;
+    const recipe: CaptureRecipe = {
+      ...base,
+      noiseG: 0.01,
+      impacts: [{ order: bpfo, envelopeG: 0.3, resonanceHz: 3000, jitter: 0 }],
+    };
+    const a = analyse(
+      recipe,
+      [
+        {
+          key: 'bpfo',
+          kind: 'fault',
+          fault: 'DE BPFO',
+          widthPercent: 2,
+          unit: 'g',
+          measure: 'peak',
+          source: 'envelope',
+        },
+      ],
+      {
+        bearing: true,
+      },
+    );
+    const v = a.bandValues.find((b) => b.key === 'bpfo')!.value!;
+    // The envelope line of an exponential ring train (impactAmplitudeG's formula, computed);
+    // the band-pass and Hann window cost some of it: within 25 % (common practice, no source).
+    expect(v).toBeGreaterThan(0.3 * 0.75);
+    expect(v).toBeLessThan(0.3 * 1.25);
+    expect(a.overall.kurtosis).toBeGreaterThan(3);
+  });
+
+  it('needs a larger impact for a higher envelope line, in proportion', () => {
+    expect(
+      impactAmplitudeG(0.4, 76, 3000, 0.05) / impactAmplitudeG(0.2, 76, 3000, 0.05),
+    ).toBeCloseTo(2, 10);
+  });
+
+  it('when the input is beyond the ADC range, saturates at the rails and the capture is flagged clipped', () => {
+    const cap = synthesizeCapture({
+      ...base,
+      adc: { encoding: 'int16', bits: 16, fullScaleV: 0.5 },
+      bursts: { count: 5, peakG: 9, resonanceHz: 1500 },
+    });
+    expect(cap.railSamples).toBeGreaterThan(10);
+    const a = analyse({
+      ...base,
+      adc: { encoding: 'int16', bits: 16, fullScaleV: 0.5 },
+      bursts: { count: 5, peakG: 9, resonanceHz: 1500 },
+    });
+    expect(a.quality.findings.map((f) => f.code)).toContain('clipped');
+    expect(a.quality.verdict).toBe('unusable');
+  });
+
+  it('is deterministic: the same recipe and seed give the same counts, another seed does not', () => {
+    const r = { ...base, noiseG: 0.05, tones: [{ order: 1, velocityMmS: 2 }] };
+    expect(synthesizeCapture(r).counts).toEqual(synthesizeCapture(r).counts);
+    expect(synthesizeCapture({ ...r, seed: 8 }).counts).not.toEqual(synthesizeCapture(r).counts);
+  });
+
+  it('gives one tach pulse per revolution at the shaft speed', () => {
+    const cap = synthesizeCapture({ ...base, tach: true });
+    const p = cap.tach!.pulseTimesS;
+    // 1480 r/min = 24.667 rev/s over 0.64 s: 15 or 16 pulses 40.54 ms apart (computed).
+    expect(p.length).toBeGreaterThanOrEqual(15);
+    expect(p[1]! - p[0]!).toBeCloseTo(60 / 1480, 4);
+  });
+});
+
+describe('demo channels with their faults', () => {
+  const at = new Date(Date.UTC(2026, 10, 2, 8));
+  const channel = (tag: string) => demoChannels().find((c) => c.tag === tag)!;
+  const analyseSim = (tag: string, progress: number, when = at) => {
+    const c = channel(tag);
+    const s = simulateSnapshot(c, when, progress);
+    return analyzeSnapshot({
+      samples: decodeSamples(new Uint8Array(s.bytes), s.encoding),
+      encoding: s.encoding,
+      sampleRateHz: s.sampleRateHz,
+      adc: s.adc,
+      sensor: { sensitivityMvPerG: s.sensitivityMvPerG },
+      ...(s.speedRpm ? { speedRpm: s.speedRpm } : {}),
+      ...(s.tach ? { tach: s.tach } : {}),
+      nominalRpm: c.machine.nominalRpm,
+      machine: { bearings: c.machine.bearings },
+      fmaxHz: Math.min(c.fmaxHz, s.sampleRateHz / 2.56),
+      lines: c.lines,
+    });
+  };
+
+  it('F-330 is set up with too low a sample rate for its content and is flagged alias-risk', () => {
+    const a = analyseSim('TRB-F330-FDE-H', 0.5);
+    expect(a.quality.findings.map((f) => f.code)).toContain('alias-risk');
+  });
+
+  it('B-302 MDE-V uses only a few bits and is flagged under-range', () => {
+    const a = analyseSim('MFP-B302-MDE-V', 0.5);
+    expect(a.quality.findings.map((f) => f.code)).toContain('under-range');
+    expect(a.quality.bitsUsed).toBeLessThan(8);
+  });
+
+  it('P-202 MDE-H clips in some captures but not all', () => {
+    const verdicts = Array.from(
+      { length: 20 },
+      (_, i) =>
+        analyseSim('MFP-P202-MDE-H', 0.5, new Date(at.getTime() + i * 3_600_000)).quality.verdict,
+    );
+    expect(verdicts).toContain('unusable');
+    expect(verdicts).toContain('ok');
+  });
+
+  it('a healthy pump channel is ok', () => {
+    expect(analyseSim('MFP-P102-MDE-H', 0.5).quality.verdict).toBe('ok');
+  });
+
+  it('P-101 MDE-H: the outer-race envelope grows over the story', () => {
+    const c = channel('MFP-P101-MDE-H');
+    const bpfoHz = (c.bearingOrders!.bpfo * 1480) / 60;
+    const line = (progress: number) => {
+      const a = analyseSim('MFP-P101-MDE-H', progress);
+      const env = a.spectra.envelope!;
+      const k = Math.round(bpfoHz / env.dfHz);
+      return Math.max(...Array.from(env.values.subarray(k - 3, k + 4)));
+    };
+    expect(line(1)).toBeGreaterThan(2 * line(0.2));
+  });
+
+  it('without faults, the faulty channels send clean captures', () => {
+    const c = channel('MFP-B302-MDE-V');
+    const s = simulateSnapshot(c, at, 0.5, { faults: false });
+    expect(s.adc.bits).toBe(24);
+  });
+});
