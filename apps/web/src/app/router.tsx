@@ -15,6 +15,18 @@ const FleetRoute = lazy(() =>
 const ReviewRoute = lazy(() =>
   import('./routes/app/review.tsx').then((m) => ({ default: m.ReviewRoute })),
 );
+const SetupRoute = lazy(() =>
+  import('./routes/app/setup.tsx').then((m) => ({ default: m.SetupRoute })),
+);
+const GatewaysRoute = lazy(() =>
+  import('./routes/app/gateways.tsx').then((m) => ({ default: m.GatewaysRoute })),
+);
+const AuditRoute = lazy(() =>
+  import('./routes/app/audit.tsx').then((m) => ({ default: m.AuditRoute })),
+);
+const UploadsRoute = lazy(() =>
+  import('./routes/app/uploads.tsx').then((m) => ({ default: m.UploadsRoute })),
+);
 const NotFoundRoute = lazy(() =>
   import('./routes/not-found.tsx').then((m) => ({ default: m.NotFoundRoute })),
 );
@@ -50,6 +62,10 @@ const router = createBrowserRouter([
               { index: true, element: <Navigate to={paths.app.fleet.getHref()} replace /> },
               { path: paths.app.fleet.path, element: <FleetRoute /> },
               { path: paths.app.review.path, element: <ReviewRoute /> },
+              { path: paths.app.setup.path, element: <SetupRoute /> },
+              { path: paths.app.gateways.path, element: <GatewaysRoute /> },
+              { path: paths.app.audit.path, element: <AuditRoute /> },
+              { path: paths.app.uploads.path, element: <UploadsRoute /> },
               { path: '*', element: <NotFoundRoute /> },
             ],
           },

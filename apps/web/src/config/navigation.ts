@@ -17,6 +17,10 @@ export interface NavigationItem {
 export const navigation: readonly NavigationItem[] = [
   { to: paths.app.fleet.getHref(), label: 'Fleet', roles },
   { to: paths.app.review.getHref(), label: 'Review', roles: ['planner', 'engineer', 'admin'] },
+  { to: paths.app.uploads.getHref(), label: 'Uploads', roles: ['engineer', 'admin'] },
+  { to: paths.app.setup.getHref(), label: 'Setup', roles: ['admin', 'engineer'] },
+  { to: paths.app.gateways.getHref(), label: 'Gateways', roles: ['admin'] },
+  { to: paths.app.audit.getHref(), label: 'Audit log', roles: ['admin', 'engineer'] },
 ];
 
 export function navigationFor(role: Role): NavigationItem[] {

@@ -18,6 +18,16 @@ export const paths = {
     },
   },
   app: {
+    setup: { path: '/setup', getHref: () => '/setup' },
+    gateways: { path: '/gateways', getHref: () => '/gateways' },
+    audit: {
+      path: '/audit',
+      getHref: (filter?: { entity: string; entityId: string | number }) =>
+        filter
+          ? `/audit?entity=${encodeURIComponent(filter.entity)}&entityId=${encodeURIComponent(String(filter.entityId))}`
+          : '/audit',
+    },
+    uploads: { path: '/uploads', getHref: () => '/uploads' },
     fleet: {
       path: '/fleet',
       getHref: () => '/fleet',

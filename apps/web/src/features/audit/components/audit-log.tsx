@@ -1,0 +1,263 @@
+import type { AuditEntry } from '@turnstone/contracts/audit';
+import { useMemo, useState } from 'react';
+import { Button } from '../../../components/ui/button.tsx';
+import { Card } from '../../../components/ui/card.tsx';
+import { EmptyState } from '../../../components/ui/empty-state.tsx';
+import { ErrorState } from '../../../components/ui/error-state.tsx';
+import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import { LoadingPanel } from '../../../components/ui/spinner.tsx';
+import { formatDateTime } from '../../../lib/format.ts';
+import { useAudit, type AuditFilters } from '../api/get-audit.ts';
+
+const ENTITIES = [
+  ['', 'Anything'],
+  ['site', 'Site'],
+  ['area', 'Area'],
+  ['machine', 'Machine'],
+  ['point', 'Point'],
+  ['gateway', 'Gateway'],
+  ['limit_set', 'Limit set'],
+  ['alert', 'Alert'],
+  ['finding', 'Finding'],
+  ['user', 'User'],
+] as const;
+
+/** A local date (yyyy-mm-dd) as the ISO instant of its start, or of the next day's start. */
+function dayBoundary(date: string, end: boolean): string | undefined {
+  if (!date) return undefined;
+  const d = new Date(`${date}T00:00:00`);
+  if (Number.isNaN(d.getTime())) return undefined;
+  if (end) d.setDate(d.getDate() + 1);
+  return d.toISOString();
+}
+
+function compact(value: unknown): string {
+  if (value === null || value === undefined) return '—';
+  const text = JSON.stringify(value);
+  return text.length > 160 ? `${text.slice(0, 160)}…` : text;
+}
+
+function ChangeCell({ entry }: { entry: AuditEntry }) {
+  const hasBefore = entry.before !== null && entry.before !== undefined;
+  const hasAfter = entry.after !== null && entry.after !== undefined;
+  if (!hasBefore && !hasAfter) return <span className="text-ink-faint">—</span>;
+  return (
+    <details className="group max-w-[36rem]">
+      <summary className="cursor-pointer font-mono text-xs break-all text-ink-muted group-open:text-ink">
+        {hasBefore && <span>{compact(entry.before)} → </span>}
+        {compact(entry.after)}
+      </summary>
+      <div className="mt-2 grid gap-2 sm:grid-cols-2">
+        <div>
+          <p className="text-xs font-medium text-ink-muted">Before</p>
+          <pre className="mt-1 max-h-64 overflow-auto rounded bg-sunken p-2 font-mono text-[11px]">
+            {JSON.stringify(entry.before, null, 2) ?? '—'}
+          </pre>
+        </div>
+        <div>
+          <p className="text-xs font-medium text-ink-muted">After</p>
+          <pre className="mt-1 max-h-64 overflow-auto rounded bg-sunken p-2 font-mono text-[11px]">
+            {JSON.stringify(entry.after, null, 2) ?? '—'}
+          </pre>
+        </div>
+      </div>
+    </details>
+  );
+}
+
+export function AuditLog() {
+  const [entity, setEntity] = useState('');
+  const [entityId, setEntityId] = useState('');
+  const [action, setAction] = useState('');
+  const [actor, setActor] = useState('');
+  const [fromDate, setFromDate] = useState('');
+  const [toDate, setToDate] = useState('');
+  const [actors, setActors] = useState<Map<number, string>>(new Map());
+
+  const filters: AuditFilters = useMemo(
+    () => ({
+      entity: entity || undefined,
+      entityId: entityId.trim() || undefined,
+      action: action.trim() || undefined,
+      actor: actor ? Number(actor) : undefined,
+      from: dayBoundary(fromDate, false),
+      to: dayBoundary(toDate, true),
+    }),
+    [entity, entityId, action, actor, fromDate, toDate],
+  );
+  const audit = useAudit(filters);
+  const items = useMemo(() => audit.data?.pages.flatMap((p) => p.items) ?? [], [audit.data]);
+
+  // Remember every actor seen, so choosing one does not empty the list of choices
+  // (state adjusted while rendering, as React's docs suggest for derived state).
+  const [mergedFrom, setMergedFrom] = useState<AuditEntry[] | null>(null);
+  if (mergedFrom !== items) {
+    setMergedFrom(items);
+    const missing = items.filter((e) => e.actorUserId !== null && !actors.has(e.actorUserId));
+    if (missing.length > 0) {
+      const next = new Map(actors);
+      for (const e of missing) next.set(e.actorUserId!, e.actorName ?? `User ${e.actorUserId}`);
+      setActors(next);
+    }
+  }
+
+  const clear = () => {
+    setEntity('');
+    setEntityId('');
+    setAction('');
+    setActor('');
+    setFromDate('');
+    setToDate('');
+  };
+
+  return (
+    <div className="flex flex-col gap-4">
+      <Card className="p-4">
+        <form
+          role="search"
+          aria-label="Filter the audit log"
+          className="grid grid-cols-2 items-end gap-3 md:grid-cols-4 xl:grid-cols-7"
+          onSubmit={(e) => e.preventDefault()}
+        >
+          <Field label="Entity">
+            {(ids) => (
+              <Select id={ids.id} value={entity} onChange={(e) => setEntity(e.target.value)}>
+                {ENTITIES.map(([v, label]) => (
+                  <option key={v} value={v}>
+                    {label}
+                  </option>
+                ))}
+              </Select>
+            )}
+          </Field>
+          <Field label="Entity id">
+            {(ids) => (
+              <Input
+                id={ids.id}
+                controlSize="sm"
+                className="font-mono"
+                value={entityId}
+                onChange={(e) => setEntityId(e.target.value)}
+              />
+            )}
+          </Field>
+          <Field label="Action" hint="Exact, or a prefix such as “gateway.”">
+            {(ids) => (
+              <Input
+                id={ids.id}
+                aria-describedby={ids['aria-describedby']}
+                controlSize="sm"
+                className="font-mono"
+                placeholder="point.update"
+                value={action}
+                onChange={(e) => setAction(e.target.value)}
+              />
+            )}
+          </Field>
+          <Field label="Who">
+            {(ids) => (
+              <Select id={ids.id} value={actor} onChange={(e) => setActor(e.target.value)}>
+                <option value="">Anyone</option>
+                {[...actors].map(([id, name]) => (
+                  <option key={id} value={id}>
+                    {name}
+                  </option>
+                ))}
+              </Select>
+            )}
+          </Field>
+          <Field label="From">
+            {(ids) => (
+              <Input
+                id={ids.id}
+                controlSize="sm"
+                type="date"
+                value={fromDate}
+                onChange={(e) => setFromDate(e.target.value)}
+              />
+            )}
+          </Field>
+          <Field label="To">
+            {(ids) => (
+              <Input
+                id={ids.id}
+                controlSize="sm"
+                type="date"
+                value={toDate}
+                onChange={(e) => setToDate(e.target.value)}
+              />
+            )}
+          </Field>
+          <Button size="sm" variant="ghost" className="h-9" onClick={clear}>
+            Clear filters
+          </Button>
+        </form>
+      </Card>
+
+      <Card className="overflow-x-auto">
+        {audit.isPending ? (
+          <LoadingPanel />
+        ) : audit.isError ? (
+          <ErrorState
+            error={audit.error}
+            onRetry={() => void audit.refetch()}
+            retrying={audit.isFetching}
+          />
+        ) : items.length === 0 ? (
+          <EmptyState
+            title="No entries"
+            description="Nothing in the audit log matches these filters."
+          />
+        ) : (
+          <table className="w-full text-sm">
+            <caption className="sr-only">Audit log, newest first</caption>
+            <thead className="border-b border-line text-left text-xs text-ink-muted">
+              <tr>
+                <th className="px-4 py-2 font-medium">When</th>
+                <th className="px-4 py-2 font-medium">Who</th>
+                <th className="px-4 py-2 font-medium">Action</th>
+                <th className="px-4 py-2 font-medium">On</th>
+                <th className="px-4 py-2 font-medium">Change</th>
+                <th className="px-4 py-2 font-medium">Reason</th>
+              </tr>
+            </thead>
+            <tbody>
+              {items.map((e) => (
+                <tr key={e.id} className="border-b border-line align-top last:border-0">
+                  <td className="px-4 py-2.5 whitespace-nowrap">
+                    <time dateTime={e.at}>{formatDateTime(e.at)}</time>
+                  </td>
+                  <td className="px-4 py-2.5 whitespace-nowrap">
+                    {e.actorName ?? <span className="text-ink-faint">system</span>}
+                  </td>
+                  <td className="px-4 py-2.5 font-mono text-[13px] whitespace-nowrap">
+                    {e.action}
+                  </td>
+                  <td className="px-4 py-2.5 whitespace-nowrap">
+                    {e.entity}{' '}
+                    <span className="font-mono text-xs text-ink-muted">#{e.entityId}</span>
+                  </td>
+                  <td className="px-4 py-2.5">
+                    <ChangeCell entry={e} />
+                  </td>
+                  <td className="px-4 py-2.5 text-ink-muted">{e.reason ?? '—'}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+        {audit.hasNextPage && (
+          <div className="border-t border-line p-3 text-center">
+            <Button
+              size="sm"
+              busy={audit.isFetchingNextPage}
+              onClick={() => void audit.fetchNextPage()}
+            >
+              Show older entries
+            </Button>
+          </div>
+        )}
+      </Card>
+    </div>
+  );
+}

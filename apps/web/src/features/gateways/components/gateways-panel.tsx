@@ -1,0 +1,269 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { createGatewaySchema, type Gateway, type GatewayKey } from '@turnstone/contracts/gateways';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { Button } from '../../../components/ui/button.tsx';
+import { Card } from '../../../components/ui/card.tsx';
+import { EmptyState } from '../../../components/ui/empty-state.tsx';
+import { ErrorState } from '../../../components/ui/error-state.tsx';
+import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import { LoadingPanel } from '../../../components/ui/spinner.tsx';
+import { useNow } from '../../../hooks/use-now.ts';
+import { isApiError } from '../../../lib/api-client.ts';
+import { formatAge, formatDateTime } from '../../../lib/format.ts';
+import { useCreateGateway, useRevokeGateway, useRotateGateway } from '../api/change-gateway.ts';
+import { useGateways, useSites } from '../api/get-gateways.ts';
+import { GatewayKeyDialog } from './gateway-key-dialog.tsx';
+import { Modal } from './modal.tsx';
+
+function CreateGatewayForm({ onCreated }: { onCreated: (name: string, key: GatewayKey) => void }) {
+  const sites = useSites();
+  const create = useCreateGateway();
+  const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm({
+    resolver: zodResolver(createGatewaySchema),
+    defaultValues: { siteId: undefined as unknown as number, name: '' },
+  });
+  const { errors } = form.formState;
+  const onSubmit = form.handleSubmit((values) => {
+    setFormError(null);
+    create.mutate(values, {
+      onSuccess: (key) => {
+        onCreated(values.name, key);
+        form.reset({ siteId: values.siteId, name: '' });
+      },
+      onError: (e) => {
+        const details = isApiError(e) && Array.isArray(e.details) ? e.details : [];
+        let placed = false;
+        for (const d of details as { path?: unknown; message?: string }[]) {
+          const path = Array.isArray(d.path) ? d.path.join('.') : d.path;
+          if ((path === 'siteId' || path === 'name') && d.message) {
+            form.setError(path, { message: d.message });
+            placed = true;
+          }
+        }
+        if (!placed) setFormError(e.message);
+      },
+    });
+  });
+  return (
+    <Card className="p-4">
+      <h2 className="text-sm font-semibold">New gateway</h2>
+      <form
+        onSubmit={onSubmit}
+        noValidate
+        className="mt-3 flex flex-wrap items-start gap-3"
+        aria-label="New gateway"
+      >
+        <Field label="Site" error={errors.siteId?.message} className="w-64">
+          {({ invalid: _i, ...ids }) => (
+            <Select
+              {...ids}
+              {...form.register('siteId', {
+                setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)),
+              })}
+            >
+              <option value="">Choose a site…</option>
+              {sites.data?.items.map((s) => (
+                <option key={s.id} value={s.id}>
+                  {s.name} ({s.code})
+                </option>
+              ))}
+            </Select>
+          )}
+        </Field>
+        <Field
+          label="Name"
+          hint="Where it hangs, e.g. “Pump hall cabinet 2”."
+          error={errors.name?.message}
+          className="min-w-64 flex-1"
+        >
+          {({ invalid, ...ids }) => (
+            <Input {...ids} invalid={invalid} controlSize="sm" {...form.register('name')} />
+          )}
+        </Field>
+        <Button type="submit" variant="primary" busy={create.isPending} className="mt-6.5 h-9">
+          Create gateway
+        </Button>
+      </form>
+      {formError && (
+        <p role="alert" className="mt-2 text-sm text-status-danger">
+          {formError}
+        </p>
+      )}
+    </Card>
+  );
+}
+
+type Pending = { action: 'revoke' | 'rotate'; gateway: Gateway } | null;
+
+export function GatewaysPanel() {
+  const gateways = useGateways();
+  const rotate = useRotateGateway();
+  const revoke = useRevokeGateway();
+  const now = useNow(30_000);
+  const [shown, setShown] = useState<{ name: string; key: GatewayKey } | null>(null);
+  const [pending, setPending] = useState<Pending>(null);
+  const [actionError, setActionError] = useState<string | null>(null);
+
+  const confirm = () => {
+    if (!pending) return;
+    const { action, gateway } = pending;
+    setActionError(null);
+    if (action === 'rotate')
+      rotate.mutate(gateway.id, {
+        onSuccess: (key) => {
+          setPending(null);
+          setShown({ name: gateway.name, key });
+        },
+        onError: (e) => setActionError(e.message),
+      });
+    else
+      revoke.mutate(gateway.id, {
+        onSuccess: () => setPending(null),
+        onError: (e) => setActionError(e.message),
+      });
+  };
+
+  return (
+    <div className="flex flex-col gap-4">
+      <CreateGatewayForm onCreated={(name, key) => setShown({ name, key })} />
+      <Card className="overflow-x-auto">
+        {gateways.isPending ? (
+          <LoadingPanel />
+        ) : gateways.isError ? (
+          <ErrorState
+            error={gateways.error}
+            onRetry={() => void gateways.refetch()}
+            retrying={gateways.isFetching}
+          />
+        ) : gateways.data.items.length === 0 ? (
+          <EmptyState
+            title="No gateways yet"
+            description="Create one above; its key is shown once."
+          />
+        ) : (
+          <table className="w-full text-sm">
+            <caption className="sr-only">Gateways</caption>
+            <thead className="border-b border-line text-left text-xs text-ink-muted">
+              <tr>
+                <th className="px-4 py-2 font-medium">Name</th>
+                <th className="px-4 py-2 font-medium">Site</th>
+                <th className="px-4 py-2 font-medium">Key prefix</th>
+                <th className="px-4 py-2 font-medium">Last seen</th>
+                <th className="px-4 py-2 font-medium">State</th>
+                <th className="px-4 py-2 font-medium">
+                  <span className="sr-only">Actions</span>
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {gateways.data.items.map((g) => (
+                <tr key={g.id} className="border-b border-line last:border-0">
+                  <td className="px-4 py-2.5 font-medium">{g.name}</td>
+                  <td className="px-4 py-2.5">
+                    {g.siteName}{' '}
+                    <span className="font-mono text-xs text-ink-faint">{g.siteCode}</span>
+                  </td>
+                  <td className="px-4 py-2.5 font-mono text-[13px]">tsg_{g.keyPrefix}_…</td>
+                  <td className="px-4 py-2.5">
+                    {g.lastSeenAt ? (
+                      <time dateTime={g.lastSeenAt} title={formatDateTime(g.lastSeenAt)}>
+                        {formatAge(g.lastSeenAt, now)}
+                      </time>
+                    ) : (
+                      <span className="text-ink-faint">never</span>
+                    )}
+                  </td>
+                  <td className="px-4 py-2.5">
+                    {g.revokedAt ? (
+                      <span className="inline-flex items-center gap-1.5 text-status-danger">
+                        <svg viewBox="0 0 12 12" aria-hidden="true" className="size-3">
+                          <path
+                            d="M2 2 10 10M10 2 2 10"
+                            stroke="currentColor"
+                            strokeWidth="2"
+                            strokeLinecap="round"
+                          />
+                        </svg>
+                        <span className="text-ink">Revoked {formatDateTime(g.revokedAt)}</span>
+                      </span>
+                    ) : (
+                      <span className="inline-flex items-center gap-1.5">
+                        <svg
+                          viewBox="0 0 12 12"
+                          aria-hidden="true"
+                          className="size-3 text-status-ok"
+                        >
+                          <circle cx="6" cy="6" r="4.5" fill="currentColor" />
+                        </svg>
+                        Active
+                      </span>
+                    )}
+                  </td>
+                  <td className="px-4 py-2.5 text-right whitespace-nowrap">
+                    {!g.revokedAt && (
+                      <>
+                        <Button
+                          size="sm"
+                          variant="ghost"
+                          onClick={() => setPending({ action: 'rotate', gateway: g })}
+                        >
+                          Rotate key
+                        </Button>
+                        <Button
+                          size="sm"
+                          variant="ghost"
+                          className="text-status-danger"
+                          onClick={() => setPending({ action: 'revoke', gateway: g })}
+                        >
+                          Revoke
+                        </Button>
+                      </>
+                    )}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </Card>
+
+      <Modal
+        open={pending !== null}
+        title={
+          pending?.action === 'rotate'
+            ? `Rotate the key of ${pending.gateway.name}?`
+            : `Revoke ${pending?.gateway.name ?? ''}?`
+        }
+        onClose={() => {
+          setPending(null);
+          setActionError(null);
+        }}
+      >
+        <p className="text-sm text-ink-muted">
+          {pending?.action === 'rotate'
+            ? 'A new key is made and shown once; the current key stops working at once, so the gateway is refused until it has the new key.'
+            : 'The gateway’s key stops working at once and cannot be restored. To connect it again, create a new gateway.'}
+        </p>
+        {actionError && (
+          <p role="alert" className="text-sm text-status-danger">
+            {actionError}
+          </p>
+        )}
+        <div className="flex justify-end gap-2">
+          <Button onClick={() => setPending(null)}>Cancel</Button>
+          <Button variant="primary" busy={rotate.isPending || revoke.isPending} onClick={confirm}>
+            {pending?.action === 'rotate' ? 'Rotate key' : 'Revoke gateway'}
+          </Button>
+        </div>
+      </Modal>
+
+      <GatewayKeyDialog
+        gatewayName={shown?.name ?? ''}
+        gatewayKey={shown?.key ?? null}
+        onClose={() => setShown(null)}
+      />
+    </div>
+  );
+}

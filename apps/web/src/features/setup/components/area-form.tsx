@@ -1,0 +1,70 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { areaInputSchema, type SetupArea, type SetupSite } from '@turnstone/contracts/setup';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import { saveArea, useSetupMutation } from '../api/save-setup.ts';
+import { applyServerErrors, asNumber } from '../utils/server-errors.ts';
+import { FormActions, FormAlert } from './form-parts.tsx';
+
+const FIELDS = ['siteId', 'name'] as const;
+
+export function AreaForm({
+  area,
+  sites,
+  siteId,
+  onSaved,
+  onCancel,
+}: {
+  area?: SetupArea;
+  sites: SetupSite[];
+  siteId?: number;
+  onSaved: (id: number) => void;
+  onCancel: () => void;
+}) {
+  const save = useSetupMutation(saveArea);
+  const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm({
+    resolver: zodResolver(areaInputSchema),
+    defaultValues: { siteId: area?.siteId ?? siteId ?? sites[0]?.id ?? 0, name: area?.name ?? '' },
+  });
+  const { errors } = form.formState;
+  const onSubmit = form.handleSubmit((values) => {
+    setFormError(null);
+    save.mutate(
+      { ...values, id: area?.id },
+      {
+        onSuccess: (r) => onSaved(r?.id ?? area?.id ?? 0),
+        onError: (e) => setFormError(applyServerErrors(e, form.setError, FIELDS)),
+      },
+    );
+  });
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Area">
+      <FormAlert message={formError} />
+      <Field label="Site" error={errors.siteId?.message}>
+        {({ invalid: _i, ...ids }) => (
+          <Select
+            {...ids}
+            disabled={Boolean(area)}
+            {...form.register('siteId', { setValueAs: asNumber })}
+          >
+            {sites.map((s) => (
+              <option key={s.id} value={s.id}>
+                {s.name} ({s.code})
+              </option>
+            ))}
+          </Select>
+        )}
+      </Field>
+      <Field label="Name" error={errors.name?.message}>
+        {({ invalid, ...ids }) => <Input {...ids} invalid={invalid} {...form.register('name')} />}
+      </Field>
+      <FormActions
+        busy={save.isPending}
+        saveLabel={area ? 'Save area' : 'Create area'}
+        onCancel={onCancel}
+      />
+    </form>
+  );
+}

@@ -1,0 +1,39 @@
+import { fleetSchema, type Fleet } from '@turnstone/contracts/fleet';
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client.ts';
+
+export interface UploadPoint {
+  id: number;
+  tag: string;
+  label: string;
+  group: string;
+}
+
+/** Every point the user can see, labelled for a chooser: "Site · Area · Machine". */
+export function flattenPoints(fleet: Fleet): UploadPoint[] {
+  const out: UploadPoint[] = [];
+  for (const site of fleet.items)
+    for (const area of site.areas)
+      for (const machine of area.machines)
+        for (const p of machine.points)
+          out.push({
+            id: p.id,
+            tag: p.tag,
+            label: `${p.tag} — ${p.name}`,
+            group: `${site.code} · ${area.name} · ${machine.name}`,
+          });
+  return out;
+}
+
+export function getUploadPointsQueryOptions() {
+  return queryOptions({
+    // Same key and data as the fleet tree, so the two share one cache entry.
+    queryKey: ['fleet', 'list', {}] as const,
+    queryFn: ({ signal }) => api.get('/api/v1/fleet', { schema: fleetSchema, signal }),
+    select: flattenPoints,
+  });
+}
+
+export function useUploadPoints() {
+  return useQuery(getUploadPointsQueryOptions());
+}
