@@ -13,7 +13,10 @@ const dir = mkdtempSync(join(tmpdir(), 'turnstone-analyze-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 function analyze(...args: string[]): { status: number | null; stdout: string; stderr: string } {
-  const r = spawnSync(tsx, [join(root, 'packages/dsp/bin/analyze.ts'), ...args], { encoding: 'utf8', cwd: root });
+  const r = spawnSync(tsx, [join(root, 'packages/dsp/bin/analyze.ts'), ...args], {
+    encoding: 'utf8',
+    cwd: root,
+  });
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
@@ -27,12 +30,23 @@ describe('npm run analyze', () => {
   // REFERENCES.md: 1 g peak at 100 Hz → 0.7071 g RMS, 15.6078 mm/s peak (11.04 RMS), 49.681 µm pk-pk.
   // Defaults: 100 mV/g, 1.0 V full scale, so 0.1 × 2^15 counts of a 16-bit WAV is 1 g.
   it('when a 16-bit WAV of a 1 g 100 Hz tone is analysed with --json, the documented shape and values come out', () => {
-    const x = Array.from({ length: 65536 }, (_, i) => Math.round(3276.8 * Math.sin((2 * Math.PI * 100 * i) / 25600)));
+    const x = Array.from({ length: 65536 }, (_, i) =>
+      Math.round(3276.8 * Math.sin((2 * Math.PI * 100 * i) / 25600)),
+    );
     const r = analyze(file('tone.wav', writeWav(x, 25600, 'int16')), '--json', '--rpm', '1500');
     expect(r.stderr).toBe('');
     expect(r.status).toBe(0);
     const j = JSON.parse(r.stdout);
-    expect(Object.keys(j)).toEqual(expect.arrayContaining(['sampleRateHz', 'samples', 'quality', 'overall', 'speed', 'spectrum']));
+    expect(Object.keys(j)).toEqual(
+      expect.arrayContaining([
+        'sampleRateHz',
+        'samples',
+        'quality',
+        'overall',
+        'speed',
+        'spectrum',
+      ]),
+    );
     expect(j.sampleRateHz).toBe(25600);
     expect(j.samples).toBe(65536);
     expect(j.quality.verdict).toBe('ok');
@@ -50,8 +64,16 @@ describe('npm run analyze', () => {
 
   it('when a CSV in g with a time column is analysed, the rate comes from the time column', () => {
     const rows = ['t,g'];
-    for (let i = 0; i < 8192; i++) rows.push(`${i / 5120},${0.5 * Math.sin((2 * Math.PI * 60 * i) / 5120)}`);
-    const r = analyze(file('tone.csv', rows.join('\n')), '--json', '--window', 'flattop', '--lines', '800');
+    for (let i = 0; i < 8192; i++)
+      rows.push(`${i / 5120},${0.5 * Math.sin((2 * Math.PI * 60 * i) / 5120)}`);
+    const r = analyze(
+      file('tone.csv', rows.join('\n')),
+      '--json',
+      '--window',
+      'flattop',
+      '--lines',
+      '800',
+    );
     expect(r.status).toBe(0);
     const j = JSON.parse(r.stdout);
     expect(j.sampleRateHz).toBeCloseTo(5120, 6);
@@ -70,23 +92,43 @@ describe('npm run analyze', () => {
   });
 
   it.each([
-    ['not a WAV or CSV', 'junk.wav', new Uint8Array([1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13]), /not a WAV file/],
-    ['truncated', 'cut.wav', writeWav(new Array(1000).fill(5), 8000, 'int16').subarray(0, 500), /claims 2000 bytes/],
+    [
+      'not a WAV or CSV',
+      'junk.wav',
+      new Uint8Array([1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13]),
+      /not a WAV file/,
+    ],
+    [
+      'truncated',
+      'cut.wav',
+      writeWav(new Array(1000).fill(5), 8000, 'int16').subarray(0, 500),
+      /claims 2000 bytes/,
+    ],
     ['empty', 'empty.csv', '', /empty CSV/],
     ['NaN', 'nan.csv', '1\n2\nNaN\n', /line 3/],
     ['binary', 'blob.dat', new Uint8Array([0xff, 0xfe, 0x00, 0x81, 0xc3]), /binary/],
     ['missing rate', 'norate.csv', '1\n2\n3\n', /--rate/],
-  ])('when the file is %s, one line goes to stderr and the exit code is 2', (_what, name, content, message) => {
-    const r = analyze(file(name, content));
-    expect(r.status).toBe(2);
-    expect(r.stdout).toBe('');
-    expect(r.stderr.trim().split('\n')).toHaveLength(1);
-    expect(r.stderr).toMatch(message);
-  });
+  ])(
+    'when the file is %s, one line goes to stderr and the exit code is 2',
+    (_what, name, content, message) => {
+      const r = analyze(file(name, content));
+      expect(r.status).toBe(2);
+      expect(r.stdout).toBe('');
+      expect(r.stderr.trim().split('\n')).toHaveLength(1);
+      expect(r.stderr).toMatch(message);
+    },
+  );
 
   it('when the file does not exist or a flag is bad, the exit code is 2', () => {
     expect(analyze(join(dir, 'absent.wav')).status).toBe(2);
-    const wav = file('ok.wav', writeWav(new Array(1024).fill(0).map((_, i) => i % 50), 8000, 'int16'));
+    const wav = file(
+      'ok.wav',
+      writeWav(
+        new Array(1024).fill(0).map((_, i) => i % 50),
+        8000,
+        'int16',
+      ),
+    );
     const bad = analyze(wav, '--window', 'kaiser');
     expect(bad.status).toBe(2);
     expect(bad.stderr).toMatch(/unknown window/);

@@ -23,12 +23,18 @@ function number(value: string | undefined, flag: string, integer = false): numbe
   if (value === undefined) return undefined;
   const n = Number(value);
   if (value.trim() === '' || !Number.isFinite(n) || n <= 0 || (integer && !Number.isInteger(n))) {
-    throw new UsageError(`--${flag} needs a positive ${integer ? 'whole ' : ''}number, got "${value}"`);
+    throw new UsageError(
+      `--${flag} needs a positive ${integer ? 'whole ' : ''}number, got "${value}"`,
+    );
   }
   return n;
 }
 
-function buildInput(file: string, bytes: Uint8Array, flags: Record<string, string | boolean | undefined>): SnapshotInput {
+function buildInput(
+  file: string,
+  bytes: Uint8Array,
+  flags: Record<string, string | boolean | undefined>,
+): SnapshotInput {
   const sensitivityMvPerG = number(flags.sensitivity as string | undefined, 'sensitivity') ?? 100; // common practice
   const fullScaleV = number(flags['full-scale'] as string | undefined, 'full-scale') ?? 1.0;
   const bitsFlag = number(flags.bits as string | undefined, 'bits', true);
@@ -66,11 +72,18 @@ function buildInput(file: string, bytes: Uint8Array, flags: Record<string, strin
     throw new UsageError('the CSV has no time column: give the sample rate with --rate HZ');
   }
   const unit = (flags.unit as string | undefined) ?? 'g';
-  if (unit !== 'g' && unit !== 'volts') throw new UsageError(`--unit must be g or volts, got "${unit}"`);
+  if (unit !== 'g' && unit !== 'volts')
+    throw new UsageError(`--unit must be g or volts, got "${unit}"`);
   // Values in g become volts at the sensor's sensitivity; the analysis treats float samples as volts.
   const perValue = unit === 'g' ? sensitivityMvPerG / 1000 : 1;
   const samples = Float64Array.from(csv.values, (v) => v * perValue);
-  return { samples, encoding: 'float32', sampleRateHz: rate, adc: { bits: bitsFlag ?? 24, fullScaleV }, ...common };
+  return {
+    samples,
+    encoding: 'float32',
+    sampleRateHz: rate,
+    adc: { bits: bitsFlag ?? 24, fullScaleV },
+    ...common,
+  };
 }
 
 /** The --json document (issue 3's shape, with a few more fields). */
@@ -84,7 +97,12 @@ export function toJson(result: SnapshotAnalysis): unknown {
       verdict: result.quality.verdict,
       bitsUsed: result.quality.bitsUsed,
       snrDb: result.quality.snrDb,
-      findings: result.quality.findings.map((f) => ({ code: f.code, severity: f.severity, message: f.message, value: f.value })),
+      findings: result.quality.findings.map((f) => ({
+        code: f.code,
+        severity: f.severity,
+        message: f.message,
+        value: f.value,
+      })),
     },
     overall: {
       accelRmsG: result.overall.accelRmsG,
@@ -169,12 +187,18 @@ function main(argv: string[]): number {
   try {
     bytes = new Uint8Array(readFileSync(file));
   } catch (error) {
-    process.stderr.write(`analyze: ${file}: ${(error as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (error as Error).message}\n`);
+    process.stderr.write(
+      `analyze: ${file}: ${(error as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (error as Error).message}\n`,
+    );
     return 2;
   }
   try {
     const result = analyzeSnapshot(buildInput(file, bytes, parsed.values));
-    process.stdout.write(parsed.values.json ? `${JSON.stringify(toJson(result), null, 2)}\n` : `${summary(file, result)}\n`);
+    process.stdout.write(
+      parsed.values.json
+        ? `${JSON.stringify(toJson(result), null, 2)}\n`
+        : `${summary(file, result)}\n`,
+    );
     return 0;
   } catch (error) {
     const message = (error as Error).message.replace(/\s+/g, ' ');

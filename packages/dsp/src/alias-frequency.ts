@@ -5,8 +5,10 @@
  * Source: the sampling theorem (Shannon 1949; Nyquist 1928); REFERENCES.md (computed).
  */
 export function aliasFrequency(frequencyHz: number, sampleRateHz: number): number {
-  if (!(sampleRateHz > 0)) throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
-  if (!Number.isFinite(frequencyHz)) throw new RangeError(`frequency must be finite, got ${frequencyHz}`);
+  if (!(sampleRateHz > 0))
+    throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
+  if (!Number.isFinite(frequencyHz))
+    throw new RangeError(`frequency must be finite, got ${frequencyHz}`);
   const f = Math.abs(frequencyHz) % sampleRateHz;
   return f > sampleRateHz / 2 ? sampleRateHz - f : f;
 }

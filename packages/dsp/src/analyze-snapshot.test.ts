@@ -8,7 +8,11 @@ const N = 65536;
 const COUNTS_PER_G = 0.1 * 2 ** 23; // 100 mV/g into a 24-bit, 1 V converter
 
 /** 24-bit counts of a sum of tones (amplitudes in g peak) plus a little deterministic noise. */
-function snapshot(tones: [number, number][], extra: Partial<SnapshotInput> = {}, n = N): SnapshotInput {
+function snapshot(
+  tones: [number, number][],
+  extra: Partial<SnapshotInput> = {},
+  n = N,
+): SnapshotInput {
   let s = 99;
   const samples = Int32Array.from({ length: n }, (_, i) => {
     s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
@@ -43,7 +47,15 @@ describe('analyzeSnapshot', () => {
 
   // Harris 1978 (Hann kernel) + interpolation: the largest peak is the tone, read between lines
   it('when a tone sits between lines, the first peak gives its frequency, order and RMS amplitude', () => {
-    const r = analyzeSnapshot(snapshot([[101.3, 0.5], [24.7, 0.1]], { speedRpm: 1482 }));
+    const r = analyzeSnapshot(
+      snapshot(
+        [
+          [101.3, 0.5],
+          [24.7, 0.1],
+        ],
+        { speedRpm: 1482 },
+      ),
+    );
     const [p] = r.peaks;
     expect(r.peaks).toHaveLength(10);
     expect(p!.hz).toBeCloseTo(101.3, 2);
@@ -70,7 +82,10 @@ describe('analyzeSnapshot', () => {
     });
     const input: SnapshotInput = { ...snapshot([]), samples };
     const r = analyzeSnapshot(input);
-    const full = welch(Float64Array.from(samples, (c) => c / COUNTS_PER_G), { sampleRateHz: FS, scaling: 'spectrum' });
+    const full = welch(
+      Float64Array.from(samples, (c) => c / COUNTS_PER_G),
+      { sampleRateHz: FS, scaling: 'spectrum' },
+    );
     const fromSpectrum = bandRms({ power: full.power, dfHz: full.dfHz, enbwBins: full.enbwBins });
     expect(Math.abs(fromSpectrum / r.overall.accelRmsG - 1)).toBeLessThan(0.01);
     const stored = r.spectra.acceleration;
@@ -102,7 +117,15 @@ describe('analyzeSnapshot', () => {
 
   // common practice, no source: running speed from the 1× peak near nominal
   it('when only a nominal speed is known, running speed is estimated from the 1× peak', () => {
-    const r = analyzeSnapshot(snapshot([[24.61, 0.3], [49.22, 0.1]], { nominalRpm: 1480 }));
+    const r = analyzeSnapshot(
+      snapshot(
+        [
+          [24.61, 0.3],
+          [49.22, 0.1],
+        ],
+        { nominalRpm: 1480 },
+      ),
+    );
     expect(r.speed.source).toBe('estimated');
     expect(r.speed.rpm!).toBeCloseTo(24.61 * 60, 0);
     const none = analyzeSnapshot(snapshot([[100, 1]]));
@@ -115,7 +138,12 @@ describe('analyzeSnapshot', () => {
   it('when a resonance is modulated at a bearing rate, the envelope spectrum shows that rate', () => {
     const samples = Int32Array.from({ length: N }, (_, i) => {
       const t = i / FS;
-      return Math.round((1 + 0.5 * Math.cos(2 * Math.PI * 87.5 * t)) * 0.2 * Math.cos(2 * Math.PI * 5000 * t) * COUNTS_PER_G);
+      return Math.round(
+        (1 + 0.5 * Math.cos(2 * Math.PI * 87.5 * t)) *
+          0.2 *
+          Math.cos(2 * Math.PI * 5000 * t) *
+          COUNTS_PER_G,
+      );
     });
     const r = analyzeSnapshot({ ...snapshot([]), samples });
     const env = r.spectra.envelope!;
@@ -126,27 +154,35 @@ describe('analyzeSnapshot', () => {
   });
 
   it('when bands are asked, each kind gives its value in its unit, and unreadable ones give null', () => {
-    const bearings = [{ name: 'DE', rollingElements: 9, ballDiameterMm: 7.94, pitchDiameterMm: 39.04 }];
+    const bearings = [
+      { name: 'DE', rollingElements: 9, ballDiameterMm: 7.94, pitchDiameterMm: 39.04 },
+    ];
     const r = analyzeSnapshot(
-      snapshot([[25, 0.1], [100, 1]], {
-        speedRpm: 1500,
-        machine: { bearings },
-        bands: [
-          { key: 'overall', kind: 'overall' },
-          { key: 'a-rms', kind: 'overall', unit: 'g' },
-          { key: '80-120', kind: 'hz', loHz: 80, hiHz: 120, unit: 'g' },
-          { key: '1x', kind: 'fault', fault: '1×', unit: 'mm/s', measure: 'peak' },
-          { key: '3-5x', kind: 'order', loOrder: 3, hiOrder: 5, unit: 'g' },
-          { key: 'bpfo', kind: 'fault', fault: 'DE BPFO', source: 'envelope' },
-          { key: 'nope', kind: 'fault', fault: 'NDE BPFI' },
+      snapshot(
+        [
+          [25, 0.1],
+          [100, 1],
         ],
-      }),
+        {
+          speedRpm: 1500,
+          machine: { bearings },
+          bands: [
+            { key: 'overall', kind: 'overall' },
+            { key: 'a-rms', kind: 'overall', unit: 'g' },
+            { key: '80-120', kind: 'hz', loHz: 80, hiHz: 120, unit: 'g' },
+            { key: '1x', kind: 'fault', fault: '1×', unit: 'mm/s', measure: 'peak' },
+            { key: '3-5x', kind: 'order', loOrder: 3, hiOrder: 5, unit: 'g' },
+            { key: 'bpfo', kind: 'fault', fault: 'DE BPFO', source: 'envelope' },
+            { key: 'nope', kind: 'fault', fault: 'NDE BPFI' },
+          ],
+        },
+      ),
     );
     const v = Object.fromEntries(r.bandValues.map((b) => [b.key, b]));
     expect(v.overall).toEqual({ key: 'overall', value: r.overall.velocityRmsMmS, unit: 'mm/s' });
     expect(v['a-rms']!.value).toBe(r.overall.accelRmsG);
     expect(v['80-120']!.value).toBeCloseTo(Math.SQRT1_2, 3);
-    expect(v['1x']!.value).toBeCloseTo(0.1 * 9806.65 / (2 * Math.PI * 25), 1); // v = a/2πf (REFERENCES.md)
+    expect(v['1x']!.value).toBeCloseTo((0.1 * 9806.65) / (2 * Math.PI * 25), 1); // v = a/2πf (REFERENCES.md)
     expect(v['3-5x']!.value).toBeCloseTo(Math.SQRT1_2, 3);
     expect(v.bpfo!.value).not.toBeNull();
     expect(v.nope!.value).toBeNull();
@@ -174,9 +210,15 @@ describe('analyzeSnapshot', () => {
     expect(() => analyzeSnapshot({ ...good, fmaxHz: 20000 })).toThrow(/Nyquist/);
     expect(() => analyzeSnapshot({ ...good, encoding: 'int8' as never })).toThrow(/encoding/);
     expect(() => analyzeSnapshot({ ...good, adc: { bits: 99, fullScaleV: 1 } })).toThrow(/bits/);
-    expect(() => analyzeSnapshot({ ...good, sensor: { sensitivityMvPerG: 0 } })).toThrow(/sensitivity/);
+    expect(() => analyzeSnapshot({ ...good, sensor: { sensitivityMvPerG: 0 } })).toThrow(
+      /sensitivity/,
+    );
     expect(() => analyzeSnapshot({ ...good, window: 'kaiser' as never })).toThrow(/window/);
-    expect(() => analyzeSnapshot({ ...good, bands: [{ key: 'a', kind: 'hz', loHz: 5, hiHz: 1 }] })).toThrow(/band "a"/);
-    expect(() => analyzeSnapshot({ ...good, tach: { pulseTimesS: [0.2, 0.1] } })).toThrow(/increase/);
+    expect(() =>
+      analyzeSnapshot({ ...good, bands: [{ key: 'a', kind: 'hz', loHz: 5, hiHz: 1 }] }),
+    ).toThrow(/band "a"/);
+    expect(() => analyzeSnapshot({ ...good, tach: { pulseTimesS: [0.2, 0.1] } })).toThrow(
+      /increase/,
+    );
   });
 });

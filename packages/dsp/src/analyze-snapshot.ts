@@ -2,12 +2,21 @@ import { bandRms, type PowerSpectrum } from './band-rms.ts';
 import { bandValues, checkBands, type BandDefinition, type BandValue } from './band-values.ts';
 import { parseEncoding, type SampleEncoding } from './decode-samples.ts';
 import { envelopeSpectrum } from './envelope.ts';
-import { faultFrequencies, type FaultFrequency, type MachineComponents } from './fault-frequencies.ts';
+import {
+  faultFrequencies,
+  type FaultFrequency,
+  type MachineComponents,
+} from './fault-frequencies.ts';
 import { getFftPlan, nextPowerOfTwo } from './fft-plan.ts';
 import { integratePowerSpectrum } from './integrate-spectrum.ts';
 import { integrateWaveform, taperEnds, trimmedPeakToPeak } from './integrate-waveform.ts';
 import { computedOrderTracking, tachSpeedRpm, type TachPulses } from './order-tracking.ts';
-import { assessQuality, type QualityFinding, type QualityMetrics, type QualityVerdict } from './quality-verdict.ts';
+import {
+  assessQuality,
+  type QualityFinding,
+  type QualityMetrics,
+  type QualityVerdict,
+} from './quality-verdict.ts';
 import { scaleToAcceleration } from './scale-samples.ts';
 import { findPeaks } from './spectral-peaks.ts';
 import { estimateSpeed } from './speed-estimate.ts';
@@ -116,7 +125,13 @@ export interface SnapshotAnalysis {
   speed: { rpm: number | null; hz: number | null; source: 'tach' | 'rpm' | 'estimated' | 'none' };
   spectra: {
     /** Welch-averaged acceleration, g RMS per line, 0 … Fmax. */
-    acceleration: HzSpectrum & { unit: 'g'; scale: 'rms'; nperseg: number; averages: number; enbwBins: number };
+    acceleration: HzSpectrum & {
+      unit: 'g';
+      scale: 'rms';
+      nperseg: number;
+      averages: number;
+      enbwBins: number;
+    };
     /** Velocity by frequency-domain integration, mm/s RMS, zero below the ISO band's lower edge. */
     velocity: HzSpectrum & { unit: 'mm/s'; scale: 'rms'; lowCutoffHz: number };
     /** Envelope spectrum, g peak (line 0 = mean envelope), or null when the record is too short. */
@@ -159,17 +174,25 @@ const DISPLACEMENT_TAPER = 0.05;
  * SNR), Fyfe & Munck 1997 (order tracking), Randall & Antoni 2011 (envelope, bearing
  * frequencies).
  */
-export function analyzeSnapshot(input: SnapshotInput, options: AnalyzeSnapshotOptions = {}): SnapshotAnalysis {
+export function analyzeSnapshot(
+  input: SnapshotInput,
+  options: AnalyzeSnapshotOptions = {},
+): SnapshotAnalysis {
   // ---- input checks
-  if (!input || typeof input !== 'object') throw new TypeError('analyzeSnapshot expects a snapshot object');
+  if (!input || typeof input !== 'object')
+    throw new TypeError('analyzeSnapshot expects a snapshot object');
   const samples = input.samples;
-  if (
-    !(samples instanceof Int16Array || samples instanceof Int32Array || samples instanceof Float32Array || samples instanceof Float64Array)
-  ) {
+  if (!(
+    samples instanceof Int16Array ||
+    samples instanceof Int32Array ||
+    samples instanceof Float32Array ||
+    samples instanceof Float64Array
+  )) {
     throw new TypeError('samples must be an Int16Array, Int32Array, Float32Array or Float64Array');
   }
   const n = samples.length;
-  if (n < MIN_SAMPLES) throw new RangeError(`a snapshot needs at least ${MIN_SAMPLES} samples, got ${n}`);
+  if (n < MIN_SAMPLES)
+    throw new RangeError(`a snapshot needs at least ${MIN_SAMPLES} samples, got ${n}`);
   const encoding = parseEncoding(String(input.encoding));
   const fs = positive(input.sampleRateHz, 'sampleRateHz');
   if (!input.adc) throw new TypeError('adc { bits, fullScaleV } is required');
@@ -180,7 +203,8 @@ export function analyzeSnapshot(input: SnapshotInput, options: AnalyzeSnapshotOp
   const fmaxHz = input.fmaxHz === undefined ? fs / 2.56 : positive(input.fmaxHz, 'fmaxHz');
   if (fmaxHz > fs / 2) throw new RangeError(`fmaxHz ${fmaxHz} is above Nyquist (${fs / 2} Hz)`);
   const lines = input.lines ?? 3200;
-  if (!Number.isInteger(lines) || lines < 1) throw new RangeError(`lines must be a positive integer, got ${lines}`);
+  if (!Number.isInteger(lines) || lines < 1)
+    throw new RangeError(`lines must be a positive integer, got ${lines}`);
   const windowName = parseWindowName(String(input.window ?? 'hann'));
   if (input.speedRpm !== undefined) positive(input.speedRpm, 'speedRpm');
   if (input.nominalRpm !== undefined) positive(input.nominalRpm, 'nominalRpm');
@@ -200,7 +224,13 @@ export function analyzeSnapshot(input: SnapshotInput, options: AnalyzeSnapshotOp
   // ---- Welch acceleration spectrum
   const maxSeg = 2 ** Math.floor(Math.log2(n));
   const nperseg = Math.min(nextPowerOfTwo(Math.ceil((fs * lines) / fmaxHz - 1e-9)), maxSeg);
-  const spec = welch(accel, { sampleRateHz: fs, nperseg, window: windowName, scaling: 'spectrum', detrend: 'constant' });
+  const spec = welch(accel, {
+    sampleRateHz: fs,
+    nperseg,
+    window: windowName,
+    scaling: 'spectrum',
+    detrend: 'constant',
+  });
   const df = spec.dfHz;
   const storedLines = Math.min(spec.power.length, Math.floor(fmaxHz / df + 1e-9) + 1);
 
@@ -210,20 +240,38 @@ export function analyzeSnapshot(input: SnapshotInput, options: AnalyzeSnapshotOp
     fullScaleV,
     sampleRateHz: fs,
     fmaxHz,
-    ...(input.antiAliasCutoffHz === undefined ? {} : { antiAliasCutoffHz: input.antiAliasCutoffHz }),
+    ...(input.antiAliasCutoffHz === undefined
+      ? {}
+      : { antiAliasCutoffHz: input.antiAliasCutoffHz }),
     spectrum: { power: spec.power, dfHz: df },
   });
 
   // ---- ISO band and velocity
   const bandRpm = tachRpm ?? input.speedRpm ?? input.nominalRpm;
-  const isoBand: IsoBand = input.isoBand ?? (bandRpm !== undefined && bandRpm < ISO_SLOW_MACHINE_RPM ? 'below600' : 'above600');
+  const isoBand: IsoBand =
+    input.isoBand ??
+    (bandRpm !== undefined && bandRpm < ISO_SLOW_MACHINE_RPM ? 'below600' : 'above600');
   const [isoLo, isoHiNominal] = ISO_BAND_HZ[isoBand];
   const isoHi = Math.min(isoHiNominal, fmaxHz);
-  const velocityPower = integratePowerSpectrum(spec.power, df, { from: 'g', to: 'mm/s', lowCutoffHz: isoLo });
-  const displacementPower = integratePowerSpectrum(spec.power, df, { from: 'g', to: 'um', lowCutoffHz: isoLo });
+  const velocityPower = integratePowerSpectrum(spec.power, df, {
+    from: 'g',
+    to: 'mm/s',
+    lowCutoffHz: isoLo,
+  });
+  const displacementPower = integratePowerSpectrum(spec.power, df, {
+    from: 'g',
+    to: 'um',
+    lowCutoffHz: isoLo,
+  });
   const enbw = spec.enbwBins;
-  const velocityRmsMmS = bandRms({ power: velocityPower, dfHz: df, enbwBins: enbw }, { loHz: isoLo, hiHz: isoHi });
-  const displacementRmsUm = bandRms({ power: displacementPower, dfHz: df, enbwBins: enbw }, { loHz: isoLo, hiHz: isoHi });
+  const velocityRmsMmS = bandRms(
+    { power: velocityPower, dfHz: df, enbwBins: enbw },
+    { loHz: isoLo, hiHz: isoHi },
+  );
+  const displacementRmsUm = bandRms(
+    { power: displacementPower, dfHz: df, enbwBins: enbw },
+    { loHz: isoLo, hiHz: isoHi },
+  );
 
   // ---- one FFT of the whole (end-tapered) record, shared by displacement and envelope;
   // the envelope spectrum's own Hann window already gives the tapered ends ~zero weight.
@@ -247,13 +295,16 @@ export function analyzeSnapshot(input: SnapshotInput, options: AnalyzeSnapshotOp
   // ---- speed
   let speed: SnapshotAnalysis['speed'] = { rpm: null, hz: null, source: 'none' };
   if (tachRpm !== null) speed = { rpm: tachRpm, hz: tachRpm / 60, source: 'tach' };
-  else if (input.speedRpm !== undefined) speed = { rpm: input.speedRpm, hz: input.speedRpm / 60, source: 'rpm' };
+  else if (input.speedRpm !== undefined)
+    speed = { rpm: input.speedRpm, hz: input.speedRpm / 60, source: 'rpm' };
   else if (input.nominalRpm !== undefined) {
     const est = estimateSpeed(spec.power.subarray(0, storedLines), df, {
       nominalRpm: input.nominalRpm,
       window: windowName,
       nperseg,
-      ...(options.speedSearchFraction === undefined ? {} : { searchFraction: options.speedSearchFraction }),
+      ...(options.speedSearchFraction === undefined
+        ? {}
+        : { searchFraction: options.speedSearchFraction }),
     });
     if (est) speed = { rpm: est.rpm, hz: est.hz, source: 'estimated' };
   }
@@ -276,7 +327,14 @@ export function analyzeSnapshot(input: SnapshotInput, options: AnalyzeSnapshotOp
       const amp = env.amplitude[k]!;
       power[k] = k === 0 ? amp * amp : (amp * amp) / 2;
     }
-    envelope = { unit: 'g', scale: 'peak', dfHz: env.dfHz, values, window: env.window, bandHz: env.bandHz };
+    envelope = {
+      unit: 'g',
+      scale: 'peak',
+      dfHz: env.dfHz,
+      values,
+      window: env.window,
+      bandHz: env.bandHz,
+    };
     envelopePower = { power, dfHz: env.dfHz, enbwBins: env.enbwBins };
   }
 
@@ -285,19 +343,41 @@ export function analyzeSnapshot(input: SnapshotInput, options: AnalyzeSnapshotOp
   if (shaftHz !== null) {
     const maxOrder = options.maxOrder ?? Math.min(100, fmaxHz / shaftHz);
     if (speed.source === 'tach' && input.tach) {
-      const cot = computedOrderTracking(accel, input.tach, { sampleRateHz: fs, maxOrder, window: windowName });
-      order = { unit: 'g', scale: 'rms', dOrder: cot.dOrder, values: sqrtToFloat32(cot.power), method: 'computed-order-tracking' };
+      const cot = computedOrderTracking(accel, input.tach, {
+        sampleRateHz: fs,
+        maxOrder,
+        window: windowName,
+      });
+      order = {
+        unit: 'g',
+        scale: 'rms',
+        dOrder: cot.dOrder,
+        values: sqrtToFloat32(cot.power),
+        method: 'computed-order-tracking',
+      };
     } else {
       const dOrder = df / shaftHz;
       const count = Math.min(storedLines, Math.floor(maxOrder / dOrder + 1e-9) + 1);
-      order = { unit: 'g', scale: 'rms', dOrder, values: sqrtToFloat32(spec.power.subarray(0, count)), method: 'hz-axis' };
+      order = {
+        unit: 'g',
+        scale: 'rms',
+        dOrder,
+        values: sqrtToFloat32(spec.power.subarray(0, count)),
+        method: 'hz-axis',
+      };
     }
   }
 
   // ---- peaks, fault frequencies, bands
-  const peaks = findPeaks(spec.power.subarray(0, storedLines), df, { count: peakCount, window: windowName, nperseg }).map(
-    (p) => ({ hz: p.hz, order: shaftHz === null ? null : p.hz / shaftHz, amplitude: p.amplitude }),
-  );
+  const peaks = findPeaks(spec.power.subarray(0, storedLines), df, {
+    count: peakCount,
+    window: windowName,
+    nperseg,
+  }).map((p) => ({
+    hz: p.hz,
+    order: shaftHz === null ? null : p.hz / shaftHz,
+    amplitude: p.amplitude,
+  }));
   const faults = faultFrequencies(input.machine ?? {}, shaftHz);
   const accelStored = spec.power.subarray(0, storedLines);
   const values = bandValues(bands, {
@@ -309,7 +389,13 @@ export function analyzeSnapshot(input: SnapshotInput, options: AnalyzeSnapshotOp
     envelope: envelopePower,
     shaftHz,
     faultFrequencies: faults,
-    overall: { accelRmsG: stats.rms, accelPeakG: stats.peak, velocityRmsMmS, displacementPkPkUm, displacementRmsUm },
+    overall: {
+      accelRmsG: stats.rms,
+      accelPeakG: stats.peak,
+      velocityRmsMmS,
+      displacementPkPkUm,
+      displacementRmsUm,
+    },
   });
 
   return {

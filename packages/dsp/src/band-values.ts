@@ -70,7 +70,8 @@ export interface BandContext {
 export function checkBands(bands: readonly BandDefinition[]): void {
   const keys = new Set<string>();
   for (const b of bands) {
-    if (typeof b.key !== 'string' || b.key === '') throw new TypeError('every band needs a non-empty key');
+    if (typeof b.key !== 'string' || b.key === '')
+      throw new TypeError('every band needs a non-empty key');
     if (keys.has(b.key)) throw new RangeError(`band key "${b.key}" is used twice`);
     keys.add(b.key);
     if (!['overall', 'hz', 'order', 'fault'].includes(b.kind)) {
@@ -92,7 +93,8 @@ export function checkBands(bands: readonly BandDefinition[]): void {
       throw new RangeError(`band "${b.key}": needs 0 ≤ loOrder < hiOrder`);
     }
     if (b.kind === 'fault') {
-      if (typeof b.fault !== 'string') throw new TypeError(`band "${b.key}": needs the fault frequency's name`);
+      if (typeof b.fault !== 'string')
+        throw new TypeError(`band "${b.key}": needs the fault frequency's name`);
       if (b.harmonic !== undefined && !(Number.isInteger(b.harmonic) && b.harmonic >= 1)) {
         throw new RangeError(`band "${b.key}": harmonic must be a positive integer`);
       }
@@ -132,7 +134,8 @@ function readBand(
   const o = context.overall;
   if (band.kind === 'overall' && band.source !== 'envelope') {
     if (unit === 'g') return measure === 'rms' ? o.accelRmsG : o.accelPeakG;
-    if (unit === 'mm/s') return measure === 'rms' ? o.velocityRmsMmS : Math.SQRT2 * o.velocityRmsMmS;
+    if (unit === 'mm/s')
+      return measure === 'rms' ? o.velocityRmsMmS : Math.SQRT2 * o.velocityRmsMmS;
     return measure === 'rms' ? o.displacementRmsUm : o.displacementPkPkUm / 2;
   }
   const spectrum = band.source === 'envelope' ? context.envelope : context.spectra[unit];
@@ -159,5 +162,7 @@ function readBand(
   }
   const [first, last] = bandLines(spectrum.power.length, spectrum.dfHz, lo, hi);
   if (first > last) return null;
-  return measure === 'rms' ? bandRms(spectrum, { loHz: lo, hiHz: hi }) : bandPeak(spectrum, { loHz: lo, hiHz: hi });
+  return measure === 'rms'
+    ? bandRms(spectrum, { loHz: lo, hiHz: hi })
+    : bandPeak(spectrum, { loHz: lo, hiHz: hi });
 }

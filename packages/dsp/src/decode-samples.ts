@@ -15,7 +15,9 @@ export const BYTES_PER_SAMPLE: Record<SampleEncoding, number> = {
 /** Returns `value` as an encoding, or throws a `TypeError` naming the accepted ones. */
 export function parseEncoding(value: string): SampleEncoding {
   if ((SAMPLE_ENCODINGS as readonly string[]).includes(value)) return value as SampleEncoding;
-  throw new TypeError(`unknown sample encoding "${value}"; use one of ${SAMPLE_ENCODINGS.join(', ')}`);
+  throw new TypeError(
+    `unknown sample encoding "${value}"; use one of ${SAMPLE_ENCODINGS.join(', ')}`,
+  );
 }
 
 /**
@@ -27,7 +29,10 @@ export function parseEncoding(value: string): SampleEncoding {
  * Source: two's-complement little-endian PCM as in the Microsoft RIFF/WAVE
  * specification (1991); IEEE 754 binary32.
  */
-export function decodeSamples(bytes: Uint8Array, encoding: SampleEncoding): Int32Array | Float32Array {
+export function decodeSamples(
+  bytes: Uint8Array,
+  encoding: SampleEncoding,
+): Int32Array | Float32Array {
   if (!(bytes instanceof Uint8Array)) throw new TypeError('decodeSamples expects a Uint8Array');
   const width = BYTES_PER_SAMPLE[encoding];
   if (!width) throw new TypeError(`unknown sample encoding "${String(encoding)}"`);

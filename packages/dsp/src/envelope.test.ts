@@ -39,8 +39,12 @@ describe('envelope', () => {
 
   it('when the band is outside (0, fs/2) or empty, it throws RangeError', () => {
     const x = amTone();
-    expect(() => bandEnvelope(x, { sampleRateHz: 20000, bandHz: [5000, 12000] })).toThrow(RangeError);
-    expect(() => bandEnvelope(x, { sampleRateHz: 20000, bandHz: [3000, 2000] })).toThrow(RangeError);
+    expect(() => bandEnvelope(x, { sampleRateHz: 20000, bandHz: [5000, 12000] })).toThrow(
+      RangeError,
+    );
+    expect(() => bandEnvelope(x, { sampleRateHz: 20000, bandHz: [3000, 2000] })).toThrow(
+      RangeError,
+    );
     expect(() => bandEnvelope(new Float64Array(2), { sampleRateHz: 20000 })).toThrow(RangeError);
   });
 });

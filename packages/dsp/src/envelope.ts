@@ -29,7 +29,11 @@ export interface BandEnvelope {
   bandHz: [number, number];
 }
 
-function checkBand(fs: number, n: number, band: readonly [number, number] | undefined): [number, number] {
+function checkBand(
+  fs: number,
+  n: number,
+  band: readonly [number, number] | undefined,
+): [number, number] {
   if (!(fs > 0)) throw new RangeError(`sampleRateHz must be positive, got ${fs}`);
   const [lo, hi] = band ?? [fs / 10.24, fs / 2.56];
   if (!(lo >= 0) || !(hi > lo) || hi > fs / 2) {
@@ -52,7 +56,10 @@ function checkBand(fs: number, n: number, band: readonly [number, number] | unde
  * Source: Randall & Antoni, "Rolling element bearing diagnostics — a tutorial", MSSP
  * 25:485–520, 2011 (envelope analysis); Marple 1999 (analytic signal by FFT).
  */
-export function bandEnvelope(input: ArrayLike<number>, options: EnvelopeOptions = {}): BandEnvelope {
+export function bandEnvelope(
+  input: ArrayLike<number>,
+  options: EnvelopeOptions = {},
+): BandEnvelope {
   const n = input.length;
   if (n < 4) throw new RangeError(`an envelope needs at least 4 samples, got ${n}`);
   const fs = options.sampleRateHz ?? 1;

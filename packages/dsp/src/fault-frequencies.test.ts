@@ -2,7 +2,13 @@ import { describe, expect, it } from 'vitest';
 import { bearingOrders, faultFrequencies } from './fault-frequencies.ts';
 
 // CWRU bearing data, drive end 6205-2RS: n = 9, d = 0.3126 in, D = 1.537 in (geometry from memory, REFERENCES.md)
-const cwru = { name: 'DE 6205', rollingElements: 9, ballDiameterMm: 0.3126 * 25.4, pitchDiameterMm: 1.537 * 25.4, contactAngleDeg: 0 };
+const cwru = {
+  name: 'DE 6205',
+  rollingElements: 9,
+  ballDiameterMm: 0.3126 * 25.4,
+  pitchDiameterMm: 1.537 * 25.4,
+  contactAngleDeg: 0,
+};
 
 describe('fault frequencies', () => {
   // Case Western Reserve University bearing data (published multiples of shaft speed); formulas Randall & Antoni 2011
@@ -28,7 +34,15 @@ describe('fault frequencies', () => {
       29.95,
     );
     expect(list.map((f) => f.name)).toEqual([
-      '1×', '2×', '3×', 'DE 6205 BPFO', 'DE 6205 BPFI', 'DE 6205 BSF', 'DE 6205 FTF', 'pinion GMF', 'blade pass',
+      '1×',
+      '2×',
+      '3×',
+      'DE 6205 BPFO',
+      'DE 6205 BPFI',
+      'DE 6205 BSF',
+      'DE 6205 FTF',
+      'pinion GMF',
+      'blade pass',
     ]);
     expect(list.find((f) => f.kind === 'gear-mesh')!.hz).toBeCloseTo(23 * 2 * 29.95, 9);
     expect(list.find((f) => f.kind === 'blade-pass')!.order).toBe(7);

@@ -34,16 +34,23 @@ export interface BearingOrders {
  * Source: Randall & Antoni, "Rolling element bearing diagnostics — a tutorial", MSSP
  * 25:485–520, 2011, eqs. (1)–(4).
  */
-export function bearingOrders(bearing: Omit<BearingGeometry, 'name'> & { name?: string }): BearingOrders {
+export function bearingOrders(
+  bearing: Omit<BearingGeometry, 'name'> & { name?: string },
+): BearingOrders {
   const n = bearing.rollingElements;
   const d = bearing.ballDiameterMm;
   const D = bearing.pitchDiameterMm;
   const phi = ((bearing.contactAngleDeg ?? 0) * Math.PI) / 180;
   const label = bearing.name ? `bearing "${bearing.name}"` : 'bearing';
-  if (!Number.isInteger(n) || n < 1) throw new RangeError(`${label}: rolling elements must be a positive integer, got ${n}`);
+  if (!Number.isInteger(n) || n < 1)
+    throw new RangeError(`${label}: rolling elements must be a positive integer, got ${n}`);
   if (!(d > 0) || !(D > 0)) throw new RangeError(`${label}: diameters must be positive`);
-  if (!(d < D)) throw new RangeError(`${label}: ball diameter ${d} mm must be smaller than pitch diameter ${D} mm`);
-  if (!(Math.abs(phi) < Math.PI / 2)) throw new RangeError(`${label}: contact angle must be below 90°`);
+  if (!(d < D))
+    throw new RangeError(
+      `${label}: ball diameter ${d} mm must be smaller than pitch diameter ${D} mm`,
+    );
+  if (!(Math.abs(phi) < Math.PI / 2))
+    throw new RangeError(`${label}: contact angle must be below 90°`);
   const r = (d / D) * Math.cos(phi);
   return {
     ftf: 0.5 * (1 - r),
@@ -95,7 +102,8 @@ export function faultFrequencies(
   machine: MachineComponents = {},
   shaftHz: number | null = null,
 ): FaultFrequency[] {
-  if (shaftHz !== null && !(shaftHz > 0)) throw new RangeError(`shaftHz must be positive or null, got ${shaftHz}`);
+  if (shaftHz !== null && !(shaftHz > 0))
+    throw new RangeError(`shaftHz must be positive or null, got ${shaftHz}`);
   const out: FaultFrequency[] = [];
   const push = (name: string, kind: FaultKind, order: number): void => {
     out.push({ name, kind, order, hz: shaftHz === null ? null : order * shaftHz });
@@ -105,7 +113,8 @@ export function faultFrequencies(
   push('3×', 'shaft', 3);
   for (const bearing of machine.bearings ?? []) {
     const ratio = bearing.speedRatio ?? 1;
-    if (!(ratio > 0)) throw new RangeError(`bearing "${bearing.name}": speedRatio must be positive`);
+    if (!(ratio > 0))
+      throw new RangeError(`bearing "${bearing.name}": speedRatio must be positive`);
     const o = bearingOrders(bearing);
     push(`${bearing.name} BPFO`, 'bpfo', o.bpfo * ratio);
     push(`${bearing.name} BPFI`, 'bpfi', o.bpfi * ratio);
@@ -115,7 +124,9 @@ export function faultFrequencies(
   for (const gear of machine.gears ?? []) {
     const ratio = gear.speedRatio ?? 1;
     if (!Number.isInteger(gear.teeth) || gear.teeth < 1) {
-      throw new RangeError(`gear "${gear.name}": teeth must be a positive integer, got ${gear.teeth}`);
+      throw new RangeError(
+        `gear "${gear.name}": teeth must be a positive integer, got ${gear.teeth}`,
+      );
     }
     if (!(ratio > 0)) throw new RangeError(`gear "${gear.name}": speedRatio must be positive`);
     push(`${gear.name} GMF`, 'gear-mesh', gear.teeth * ratio);

@@ -29,15 +29,18 @@ describe('fft plans and rfft', () => {
   });
 
   // DFT definition (Oppenheim & Schafer); Bluestein 1970 for the non-power-of-two sizes
-  it.each([2, 3, 7, 64, 100, 255])('when rfft runs on %i samples, it equals the direct DFT sum', (n) => {
-    const x = Array.from({ length: n }, (_, i) => Math.sin(i * 1.3) + 0.1 * i);
-    const ours = rfft(x);
-    const ref = naiveDft(x);
-    for (let k = 0; k < ref.re.length; k++) {
-      expect(ours.re[k]).toBeCloseTo(ref.re[k]!, 9);
-      expect(ours.im[k]).toBeCloseTo(ref.im[k]!, 9);
-    }
-  });
+  it.each([2, 3, 7, 64, 100, 255])(
+    'when rfft runs on %i samples, it equals the direct DFT sum',
+    (n) => {
+      const x = Array.from({ length: n }, (_, i) => Math.sin(i * 1.3) + 0.1 * i);
+      const ours = rfft(x);
+      const ref = naiveDft(x);
+      for (let k = 0; k < ref.re.length; k++) {
+        expect(ours.re[k]).toBeCloseTo(ref.re[k]!, 9);
+        expect(ours.im[k]).toBeCloseTo(ref.im[k]!, 9);
+      }
+    },
+  );
 
   // Parseval's theorem (common practice, no source)
   it('when a signal is transformed, Σx² equals the one-sided spectral energy (Parseval)', () => {
@@ -49,14 +52,20 @@ describe('fft plans and rfft', () => {
       const w = k === 0 || k === n / 2 ? 1 : 2;
       spectral += (w * (re[k]! ** 2 + im[k]! ** 2)) / n;
     }
-    expect(spectral).toBeCloseTo(x.reduce((a, v) => a + v * v, 0), 10);
+    expect(spectral).toBeCloseTo(
+      x.reduce((a, v) => a + v * v, 0),
+      10,
+    );
   });
 
-  it.each([1, 2, 6, 16, 101, 1024])('when irfft inverts rfft of %i samples, the signal comes back', (n) => {
-    const x = Array.from({ length: n }, (_, i) => Math.sin(i) + (i % 3));
-    const back = irfft(rfft(x), n);
-    x.forEach((v, i) => expect(back[i]).toBeCloseTo(v, 10));
-  });
+  it.each([1, 2, 6, 16, 101, 1024])(
+    'when irfft inverts rfft of %i samples, the signal comes back',
+    (n) => {
+      const x = Array.from({ length: n }, (_, i) => Math.sin(i) + (i % 3));
+      const back = irfft(rfft(x), n);
+      x.forEach((v, i) => expect(back[i]).toBeCloseTo(v, 10));
+    },
+  );
 
   it('when a plan is asked twice for one size, the same plan comes back', () => {
     expect(getFftPlan(4096)).toBe(getFftPlan(4096));
@@ -67,6 +76,8 @@ describe('fft plans and rfft', () => {
     expect(() => getFftPlan(0)).toThrow(RangeError);
     expect(() => rfft([])).toThrow(RangeError);
     expect(() => rfft([1, NaN])).toThrow(/non-finite/);
-    expect(() => irfft({ re: new Float64Array(2), im: new Float64Array(2) }, 8)).toThrow(RangeError);
+    expect(() => irfft({ re: new Float64Array(2), im: new Float64Array(2) }, 8)).toThrow(
+      RangeError,
+    );
   });
 });

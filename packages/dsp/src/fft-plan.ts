@@ -212,6 +212,8 @@ function bluesteinPlan(n: number): FftPlan {
   };
 }
 
+const rfftScratch = new Map<number, Float64Array>();
+
 /** One-sided spectrum of a real signal, bins 0 … ⌊N/2⌋. */
 export interface ComplexSpectrum {
   re: Float64Array;
@@ -231,9 +233,14 @@ export function rfft(input: ArrayLike<number>): ComplexSpectrum {
   const plan = getFftPlan(n);
   const data = input instanceof Float64Array ? input : Float64Array.from(input);
   for (let i = 0; i < n; i++) {
-    if (!Number.isFinite(data[i]!)) throw new RangeError(`rfft input has a non-finite value at ${i}`);
+    if (!Number.isFinite(data[i]!))
+      throw new RangeError(`rfft input has a non-finite value at ${i}`);
   }
-  const out = new Float64Array(2 * n);
+  let out = rfftScratch.get(n);
+  if (!out) {
+    out = new Float64Array(2 * n);
+    rfftScratch.set(n, out);
+  }
   plan.realForward(out, data);
   const bins = Math.floor(n / 2) + 1;
   const re = new Float64Array(bins);
@@ -245,7 +252,10 @@ export function rfft(input: ArrayLike<number>): ComplexSpectrum {
   return { re, im };
 }
 
-const halfScratch = new Map<number, { z: Float64Array; out: Float64Array; twiddle: Float64Array }>();
+const halfScratch = new Map<
+  number,
+  { z: Float64Array; out: Float64Array; twiddle: Float64Array }
+>();
 
 /**
  * Real inverse DFT into `out` (length n): the real sequence whose one-sided spectrum is
@@ -320,7 +330,8 @@ export function realInverseInto(out: Float64Array, spectrum: Float64Array, n: nu
  * Source: the inverse DFT definition (Oppenheim & Schafer).
  */
 export function irfft(spectrum: ComplexSpectrum, n: number): Float64Array {
-  if (!Number.isInteger(n) || n < 1) throw new RangeError(`irfft length must be a positive integer`);
+  if (!Number.isInteger(n) || n < 1)
+    throw new RangeError(`irfft length must be a positive integer`);
   const bins = Math.floor(n / 2) + 1;
   if (spectrum.re.length < bins || spectrum.im.length < bins) {
     throw new RangeError(`irfft of length ${n} needs ${bins} bins`);

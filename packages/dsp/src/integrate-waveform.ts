@@ -44,7 +44,8 @@ export interface IntegrateWaveformOptions {
  * place (a Tukey window). Source: Harris 1978, Proc. IEEE 66(1) (Tukey window).
  */
 export function taperEnds(data: Float64Array, fraction: number): Float64Array {
-  if (!(fraction >= 0 && fraction < 0.5)) throw new RangeError(`taper fraction must be in [0, 0.5), got ${fraction}`);
+  if (!(fraction >= 0 && fraction < 0.5))
+    throw new RangeError(`taper fraction must be in [0, 0.5), got ${fraction}`);
   const n = data.length;
   const m = Math.floor(fraction * n);
   let ramp = ramps.get(m);
@@ -74,7 +75,10 @@ const ramps = new Map<number, Float64Array>();
  * Vibration Analysis", Wiley 2011, ch. 10); Tukey taper (Harris 1978); cutoff: common
  * practice, no source.
  */
-export function integrateWaveform(input: ArrayLike<number>, options: IntegrateWaveformOptions): Float64Array {
+export function integrateWaveform(
+  input: ArrayLike<number>,
+  options: IntegrateWaveformOptions,
+): Float64Array {
   const n = input.length;
   if (n < 4) throw new RangeError(`integration needs at least 4 samples, got ${n}`);
   const fs = options.sampleRateHz;
@@ -83,10 +87,14 @@ export function integrateWaveform(input: ArrayLike<number>, options: IntegrateWa
   const to = options.to ?? 'um';
   const lo = options.lowCutoffHz ?? 10;
   const hi = options.highCutoffHz ?? fs / 2;
-  if (!(lo > 0) || !(hi > lo)) throw new RangeError(`integration band must satisfy 0 < lo < hi, got [${lo}, ${hi}]`);
+  if (!(lo > 0) || !(hi > lo))
+    throw new RangeError(`integration band must satisfy 0 < lo < hi, got [${lo}, ${hi}]`);
   let spectrum = options.spectrum;
   if (!spectrum) {
-    const data = taperEnds(input instanceof Float64Array ? input.slice() : Float64Array.from(input), options.taperFraction ?? 0.05);
+    const data = taperEnds(
+      input instanceof Float64Array ? input.slice() : Float64Array.from(input),
+      options.taperFraction ?? 0.05,
+    );
     spectrum = new Float64Array(2 * n);
     getFftPlan(n).realForward(spectrum, data);
   }
@@ -98,7 +106,9 @@ export function integrateWaveform(input: ArrayLike<number>, options: IntegrateWa
       throw new RangeError(`outputLength must be a power of two in 4 … ${n}, got ${m}`);
     }
     if (hi / df > m / 2 - 1) {
-      throw new RangeError(`outputLength ${m} cannot hold the band up to ${hi} Hz (needs ≥ ${2 * Math.ceil(hi / df) + 2})`);
+      throw new RangeError(
+        `outputLength ${m} cannot hold the band up to ${hi} Hz (needs ≥ ${2 * Math.ceil(hi / df) + 2})`,
+      );
     }
   }
   const rescale = m / n;
@@ -135,7 +145,8 @@ export function integrateWaveform(input: ArrayLike<number>, options: IntegrateWa
  * Source: common practice, no source.
  */
 export function trimmedPeakToPeak(input: ArrayLike<number>, edgeFraction = 0.1): number {
-  if (!(edgeFraction >= 0 && edgeFraction < 0.5)) throw new RangeError(`edgeFraction must be in [0, 0.5)`);
+  if (!(edgeFraction >= 0 && edgeFraction < 0.5))
+    throw new RangeError(`edgeFraction must be in [0, 0.5)`);
   const skip = Math.floor(input.length * edgeFraction);
   let min = Infinity;
   let max = -Infinity;

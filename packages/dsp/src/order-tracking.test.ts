@@ -23,8 +23,15 @@ describe('computed order tracking', () => {
   // issue 3 (Fyfe & Munck 1997, MSSP 11(2)): run-up 10 → 20 rev/s of sin(3θ) gives one line at order 3.000
   it('when a run-up from 10 to 20 rev/s of sin(3θ) is tracked, one line stands at order 3.000 with 0.7071 RMS', () => {
     const { x, pulses } = runUp();
-    const r = computedOrderTracking(x, { pulseTimesS: pulses }, { sampleRateHz: 5000, maxOrder: 10 });
-    const [first, second] = findPeaks(r.power, r.dOrder, { count: 2, nperseg: r.samplesPerRev * r.revsPerBlock });
+    const r = computedOrderTracking(
+      x,
+      { pulseTimesS: pulses },
+      { sampleRateHz: 5000, maxOrder: 10 },
+    );
+    const [first, second] = findPeaks(r.power, r.dOrder, {
+      count: 2,
+      nperseg: r.samplesPerRev * r.revsPerBlock,
+    });
     expect(first!.hz).toBeCloseTo(3, 3);
     expect(first!.amplitude).toBeCloseTo(Math.SQRT1_2, 3);
     // everything else is at least 60 dB down
@@ -47,10 +54,20 @@ describe('computed order tracking', () => {
       half.push(pulses[k]!, -10 + Math.sqrt(100 + 2 * (k + 0.5)));
     }
     half.push(pulses.at(-1)!);
-    const r = computedOrderTracking(x, { pulseTimesS: half, pulsesPerRev: 2 }, { sampleRateHz: 5000, maxOrder: 10 });
-    const [peak] = findPeaks(r.power, r.dOrder, { count: 1, nperseg: r.samplesPerRev * r.revsPerBlock });
+    const r = computedOrderTracking(
+      x,
+      { pulseTimesS: half, pulsesPerRev: 2 },
+      { sampleRateHz: 5000, maxOrder: 10 },
+    );
+    const [peak] = findPeaks(r.power, r.dOrder, {
+      count: 1,
+      nperseg: r.samplesPerRev * r.revsPerBlock,
+    });
     expect(peak!.hz).toBeCloseTo(3, 3);
-    expect(tachSpeedRpm({ pulseTimesS: half, pulsesPerRev: 2 })).toBeCloseTo(tachSpeedRpm({ pulseTimesS: pulses }), 6);
+    expect(tachSpeedRpm({ pulseTimesS: half, pulsesPerRev: 2 })).toBeCloseTo(
+      tachSpeedRpm({ pulseTimesS: pulses }),
+      6,
+    );
   });
 
   // definition: 60 · revolutions / time
@@ -60,9 +77,15 @@ describe('computed order tracking', () => {
 
   it('when pulses are not increasing or too few, it throws', () => {
     const x = new Float64Array(1000);
-    expect(() => computedOrderTracking(x, { pulseTimesS: [0.1, 0.05] }, { sampleRateHz: 1000 })).toThrow(/increase/);
-    expect(() => computedOrderTracking(x, { pulseTimesS: [0.1] }, { sampleRateHz: 1000 })).toThrow(RangeError);
-    expect(() => computedOrderTracking(x, { pulseTimesS: [5, 6, 7] }, { sampleRateHz: 1000 })).toThrow(/inside/);
+    expect(() =>
+      computedOrderTracking(x, { pulseTimesS: [0.1, 0.05] }, { sampleRateHz: 1000 }),
+    ).toThrow(/increase/);
+    expect(() => computedOrderTracking(x, { pulseTimesS: [0.1] }, { sampleRateHz: 1000 })).toThrow(
+      RangeError,
+    );
+    expect(() =>
+      computedOrderTracking(x, { pulseTimesS: [5, 6, 7] }, { sampleRateHz: 1000 }),
+    ).toThrow(/inside/);
     expect(() => tachSpeedRpm({ pulseTimesS: [0, 1], pulsesPerRev: 0 })).toThrow(RangeError);
   });
 });

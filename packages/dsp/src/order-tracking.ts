@@ -41,9 +41,11 @@ export interface OrderSpectrum {
 /** Checks tach pulses and returns them as an array of times. */
 export function checkPulses(tach: TachPulses): { times: Float64Array; pulsesPerRev: number } {
   const ppr = tach.pulsesPerRev ?? 1;
-  if (!Number.isInteger(ppr) || ppr < 1) throw new RangeError(`pulsesPerRev must be a positive integer, got ${ppr}`);
+  if (!Number.isInteger(ppr) || ppr < 1)
+    throw new RangeError(`pulsesPerRev must be a positive integer, got ${ppr}`);
   const times = Float64Array.from(tach.pulseTimesS);
-  if (times.length < 2) throw new RangeError(`tach needs at least 2 pulse times, got ${times.length}`);
+  if (times.length < 2)
+    throw new RangeError(`tach needs at least 2 pulse times, got ${times.length}`);
   for (let i = 0; i < times.length; i++) {
     if (!Number.isFinite(times[i]!)) throw new RangeError(`tach pulse ${i} is not a finite time`);
     if (i > 0 && !(times[i]! > times[i - 1]!)) {
@@ -68,7 +70,10 @@ function cubic(p0: number, p1: number, p2: number, p3: number, u: number): numbe
   const u1 = u - 1;
   const u2 = u - 2;
   return (
-    (-p0 * u * u1 * u2) / 6 + (p1 * um1 * u1 * u2) / 2 - (p2 * um1 * u * u2) / 2 + (p3 * um1 * u * u1) / 6
+    (-p0 * u * u1 * u2) / 6 +
+    (p1 * um1 * u1 * u2) / 2 -
+    (p2 * um1 * u * u2) / 2 +
+    (p3 * um1 * u * u1) / 6
   );
 }
 
@@ -110,7 +115,9 @@ export function computedOrderTracking(
   if (totalRevs < 1) throw new RangeError('tach pulses cover less than one revolution');
   let revsPerBlock = options.revsPerBlock ?? Math.min(16, 2 ** Math.floor(Math.log2(totalRevs)));
   if (!Number.isInteger(revsPerBlock) || revsPerBlock < 1 || revsPerBlock > totalRevs) {
-    throw new RangeError(`revsPerBlock must be an integer in 1 … ${totalRevs}, got ${revsPerBlock}`);
+    throw new RangeError(
+      `revsPerBlock must be an integer in 1 … ${totalRevs}, got ${revsPerBlock}`,
+    );
   }
   revsPerBlock = Math.floor(revsPerBlock);
 

@@ -59,7 +59,9 @@ describe('quality verdict', () => {
 
   // issue 3: 3-bit signals are flagged; Kester MT-001 for the SNR of the bits used
   it('when a 16-bit capture only moves over 3 bits, it is under-range and unusable', () => {
-    const x = Int32Array.from({ length: 8192 }, (_, i) => Math.round(3.5 * Math.sin((2 * Math.PI * 117 * i) / FS)));
+    const x = Int32Array.from({ length: 8192 }, (_, i) =>
+      Math.round(3.5 * Math.sin((2 * Math.PI * 117 * i) / FS)),
+    );
     const q = assessQuality(x, { bits: 16, sampleRateHz: FS });
     expect(q.bitsUsed).toBeCloseTo(Math.log2(7), 9);
     expect(q.bitsUsed).toBeLessThan(UNDER_RANGE_UNUSABLE_BITS);
@@ -69,7 +71,9 @@ describe('quality verdict', () => {
   });
 
   it('when a capture uses 6 bits, it is under-range but only suspect', () => {
-    const x = Int32Array.from({ length: 8192 }, (_, i) => Math.round(31.5 * Math.sin((2 * Math.PI * 117 * i) / FS)));
+    const x = Int32Array.from({ length: 8192 }, (_, i) =>
+      Math.round(31.5 * Math.sin((2 * Math.PI * 117 * i) / FS)),
+    );
     const q = assessQuality(x, { bits: 16, sampleRateHz: FS });
     expect(q.bitsUsed).toBeLessThan(UNDER_RANGE_SUSPECT_BITS);
     expect(q.verdict).toBe('suspect');
@@ -79,7 +83,9 @@ describe('quality verdict', () => {
   // issue 3: aliased tones are flagged. A 1450 Hz tone sampled at 1 kHz folds to 450 Hz,
   // inside the guard band between fs/2.56 and Nyquist that an anti-alias filter keeps empty.
   it('when an unfiltered 1450 Hz tone is sampled at 1 kHz, the guard-band energy raises alias-risk', () => {
-    const x = Int32Array.from({ length: 8192 }, (_, i) => Math.round(1e6 * Math.sin((2 * Math.PI * 1450 * i) / 1000)));
+    const x = Int32Array.from({ length: 8192 }, (_, i) =>
+      Math.round(1e6 * Math.sin((2 * Math.PI * 1450 * i) / 1000)),
+    );
     const q = assessQuality(x, { bits: 24, sampleRateHz: 1000 });
     expect(codes(q)).toContain('alias-risk');
     expect(q.metrics.guardBandPowerFraction).toBeGreaterThan(0.9);
@@ -89,8 +95,12 @@ describe('quality verdict', () => {
   // common practice, no source: fs ≥ 2.56 × Fmax
   it('when Fmax is asked above fs/2.56 or the filter cutoff above Nyquist, alias-risk is raised', () => {
     const x = capture24(0.5);
-    expect(codes(assessQuality(x, { bits: 24, sampleRateHz: FS, fmaxHz: 12000 }))).toEqual(['alias-risk']);
-    expect(codes(assessQuality(x, { bits: 24, sampleRateHz: FS, antiAliasCutoffHz: 14000 }))).toEqual(['alias-risk']);
+    expect(codes(assessQuality(x, { bits: 24, sampleRateHz: FS, fmaxHz: 12000 }))).toEqual([
+      'alias-risk',
+    ]);
+    expect(
+      codes(assessQuality(x, { bits: 24, sampleRateHz: FS, antiAliasCutoffHz: 14000 })),
+    ).toEqual(['alias-risk']);
     expect(codes(assessQuality(x, { bits: 24, sampleRateHz: FS, fmaxHz: 10000 }))).toEqual([]);
   });
 
@@ -110,7 +120,9 @@ describe('quality verdict', () => {
 
   it('when the capture sits 30 % of full scale off zero, bias is suspect; at 60 % unusable', () => {
     const x = capture24(0.2).map((c) => c + Math.round(0.3 * HALF24));
-    expect(assessQuality(x, { bits: 24 }).findings.map((f) => [f.code, f.severity])).toEqual([['bias', 'suspect']]);
+    expect(assessQuality(x, { bits: 24 }).findings.map((f) => [f.code, f.severity])).toEqual([
+      ['bias', 'suspect'],
+    ]);
     const y = capture24(0.2).map((c) => c + Math.round(0.6 * HALF24));
     expect(assessQuality(y, { bits: 24 }).verdict).toBe('unusable');
   });
@@ -126,7 +138,12 @@ describe('quality verdict', () => {
 
   it('when float32 volts are given, they are read as counts of the stated ADC', () => {
     const volts = Float32Array.from(capture24(0.5), (c) => c / HALF24);
-    const q = assessQuality(volts, { encoding: 'float32', bits: 24, fullScaleV: 1, sampleRateHz: FS });
+    const q = assessQuality(volts, {
+      encoding: 'float32',
+      bits: 24,
+      fullScaleV: 1,
+      sampleRateHz: FS,
+    });
     expect(q.verdict).toBe('ok');
     expect(q.bitsUsed).toBeCloseTo(Math.log2(HALF24), 1);
   });

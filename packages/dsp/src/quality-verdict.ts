@@ -114,7 +114,10 @@ function fmt(value: number, digits = 3): string {
  * fs ≥ 2.56·Fmax and guard band (common practice for FFT analysers, no source);
  * thresholds are the exported constants above.
  */
-export function assessQuality(samples: ArrayLike<number>, options: QualityOptions = {}): QualityResult {
+export function assessQuality(
+  samples: ArrayLike<number>,
+  options: QualityOptions = {},
+): QualityResult {
   const n = samples.length;
   if (n < 2) throw new RangeError(`a quality verdict needs at least 2 samples, got ${n}`);
   const encoding = options.encoding ?? 'int32';
@@ -190,7 +193,12 @@ export function assessQuality(samples: ArrayLike<number>, options: QualityOption
   let guardBandPowerFraction = 0;
   const fs = options.sampleRateHz;
   const findings: QualityFinding[] = [];
-  const add = (code: QualityCode, severity: 'suspect' | 'unusable', message: string, value: number): void => {
+  const add = (
+    code: QualityCode,
+    severity: 'suspect' | 'unusable',
+    message: string,
+    value: number,
+  ): void => {
     findings.push({ code, severity, message, value });
   };
 
@@ -218,7 +226,11 @@ export function assessQuality(samples: ArrayLike<number>, options: QualityOption
       const spectrum =
         options.spectrum ??
         (() => {
-          const r = welch(samples, { sampleRateHz: fs, nperseg: Math.min(1024, n), scaling: 'spectrum' });
+          const r = welch(samples, {
+            sampleRateHz: fs,
+            nperseg: Math.min(1024, n),
+            scaling: 'spectrum',
+          });
           return { power: r.power, dfHz: r.dfHz };
         })();
       let total = 0;
@@ -243,7 +255,8 @@ export function assessQuality(samples: ArrayLike<number>, options: QualityOption
   }
 
   if (railFraction > CLIPPED_FRACTION_SUSPECT) {
-    const unusable = railFraction > CLIPPED_FRACTION_UNUSABLE || longestRailRun >= CLIPPED_RUN_UNUSABLE;
+    const unusable =
+      railFraction > CLIPPED_FRACTION_UNUSABLE || longestRailRun >= CLIPPED_RUN_UNUSABLE;
     add(
       'clipped',
       unusable ? 'unusable' : 'suspect',

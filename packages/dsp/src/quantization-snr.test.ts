@@ -47,7 +47,9 @@ describe('aliasing', () => {
 
   // issue 3: a 1300 Hz tone sampled at 1 kHz appears at 300 Hz (|f − k·fs|), in the spectrum too
   it('when a 1300 Hz tone is sampled at 1 kHz, the spectrum peaks at 300 Hz', () => {
-    const x = Float64Array.from({ length: 8192 }, (_, i) => Math.sin((2 * Math.PI * 1300 * i) / 1000));
+    const x = Float64Array.from({ length: 8192 }, (_, i) =>
+      Math.sin((2 * Math.PI * 1300 * i) / 1000),
+    );
     const r = welch(x, { sampleRateHz: 1000, nperseg: 2048, scaling: 'spectrum' });
     const [peak] = findPeaks(r.power, r.dfHz, { count: 1 });
     expect(peak!.hz).toBeCloseTo(300, 3);

@@ -56,10 +56,14 @@ export function readCsv(text: string, options: ReadCsvOptions = {}): CsvRecordin
   if (rows.length === 0) throw new Error('invalid CSV: no samples after the header');
   const columns = rows[0]!.length;
   if (header && header.length !== columns) {
-    throw new Error(`invalid CSV: the header has ${header.length} columns but line 2 has ${columns}`);
+    throw new Error(
+      `invalid CSV: the header has ${header.length} columns but line 2 has ${columns}`,
+    );
   }
   if (columns !== 1 && columns !== 2) {
-    throw new Error(`invalid CSV: expected one column (value) or two (time, value), found ${columns}`);
+    throw new Error(
+      `invalid CSV: expected one column (value) or two (time, value), found ${columns}`,
+    );
   }
   const n = rows.length;
   const values = new Float64Array(n);
@@ -73,7 +77,9 @@ export function readCsv(text: string, options: ReadCsvOptions = {}): CsvRecordin
     for (let c = 0; c < columns; c++) {
       const v = parseNumber(row[c]!);
       if (!Number.isFinite(v)) {
-        throw new Error(`invalid CSV: line ${line} has a non-numeric value "${row[c]!.trim().slice(0, 40)}"`);
+        throw new Error(
+          `invalid CSV: line ${line} has a non-numeric value "${row[c]!.trim().slice(0, 40)}"`,
+        );
       }
       if (times && c === 0) times[r] = v;
       else values[r] = v;

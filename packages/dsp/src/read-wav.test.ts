@@ -3,14 +3,17 @@ import { readWav, writeWav } from './read-wav.ts';
 
 describe('readWav', () => {
   // RIFF/WAVE spec (1991): header fields round-trip
-  it.each(['int16', 'int24', 'int32', 'float32'] as const)('when a %s WAV is written and read, rate, format and samples survive', (encoding) => {
-    const values = encoding === 'float32' ? [0.5, -0.25, 1] : [1, -1, 1234, -32768];
-    const wav = readWav(writeWav(values, 25600, encoding));
-    expect(wav.sampleRateHz).toBe(25600);
-    expect(wav.encoding).toBe(encoding);
-    expect(wav.channels).toBe(1);
-    expect(Array.from(wav.samples)).toEqual(values);
-  });
+  it.each(['int16', 'int24', 'int32', 'float32'] as const)(
+    'when a %s WAV is written and read, rate, format and samples survive',
+    (encoding) => {
+      const values = encoding === 'float32' ? [0.5, -0.25, 1] : [1, -1, 1234, -32768];
+      const wav = readWav(writeWav(values, 25600, encoding));
+      expect(wav.sampleRateHz).toBe(25600);
+      expect(wav.encoding).toBe(encoding);
+      expect(wav.channels).toBe(1);
+      expect(Array.from(wav.samples)).toEqual(values);
+    },
+  );
 
   it('when a stereo PCM file is read, the asked channel comes back', () => {
     const mono = writeWav([1, 2, 3, 4], 8000, 'int16');
@@ -31,7 +34,9 @@ describe('readWav', () => {
 
   it('when the file is cut short, the data chunk no longer fits and it is rejected', () => {
     const wav = writeWav(new Array(100).fill(7), 1000, 'int16');
-    expect(() => readWav(wav.subarray(0, wav.length - 10))).toThrow(/claims 200 bytes but only 190 remain/);
+    expect(() => readWav(wav.subarray(0, wav.length - 10))).toThrow(
+      /claims 200 bytes but only 190 remain/,
+    );
   });
 
   it('when the header lies about the data size, it is rejected', () => {

@@ -24,7 +24,12 @@ const IEEE_FLOAT = 3;
 const EXTENSIBLE = 0xfffe;
 
 function fourcc(bytes: Uint8Array, offset: number): string {
-  return String.fromCharCode(bytes[offset]!, bytes[offset + 1]!, bytes[offset + 2]!, bytes[offset + 3]!);
+  return String.fromCharCode(
+    bytes[offset]!,
+    bytes[offset + 1]!,
+    bytes[offset + 2]!,
+    bytes[offset + 3]!,
+  );
 }
 
 /**
@@ -44,8 +49,14 @@ export function readWav(bytes: Uint8Array, options: ReadWavOptions = {}): WavRec
   }
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   let offset = 12;
-  let fmt: { format: number; channels: number; rate: number; blockAlign: number; bits: number; validBits: number } | null =
-    null;
+  let fmt: {
+    format: number;
+    channels: number;
+    rate: number;
+    blockAlign: number;
+    bits: number;
+    validBits: number;
+  } | null = null;
   let data: { start: number; size: number } | null = null;
   while (offset + 8 <= bytes.length) {
     const id = fourcc(bytes, offset);
@@ -57,12 +68,14 @@ export function readWav(bytes: Uint8Array, options: ReadWavOptions = {}): WavRec
       );
     }
     if (id === 'fmt ') {
-      if (size < 16) throw new Error(`invalid WAV: fmt chunk is ${size} bytes, expected at least 16`);
+      if (size < 16)
+        throw new Error(`invalid WAV: fmt chunk is ${size} bytes, expected at least 16`);
       let format = view.getUint16(start, true);
       const bits = view.getUint16(start + 14, true);
       let validBits = bits;
       if (format === EXTENSIBLE) {
-        if (size < 40) throw new Error('invalid WAV: WAVE_FORMAT_EXTENSIBLE fmt chunk is shorter than 40 bytes');
+        if (size < 40)
+          throw new Error('invalid WAV: WAVE_FORMAT_EXTENSIBLE fmt chunk is shorter than 40 bytes');
         validBits = view.getUint16(start + 18, true) || bits;
         format = view.getUint16(start + 24, true);
       }
@@ -99,12 +112,16 @@ export function readWav(bytes: Uint8Array, options: ReadWavOptions = {}): WavRec
   if (fmt.rate < 1) throw new Error('invalid WAV: sample rate is zero');
   const width = fmt.bits / 8;
   if (fmt.blockAlign !== width * fmt.channels) {
-    throw new Error(`invalid WAV: block align ${fmt.blockAlign} does not match ${fmt.channels} × ${width} bytes`);
+    throw new Error(
+      `invalid WAV: block align ${fmt.blockAlign} does not match ${fmt.channels} × ${width} bytes`,
+    );
   }
   const frames = Math.floor(data.size / fmt.blockAlign);
   if (frames === 0) throw new Error('invalid WAV: the data chunk holds no samples');
   if (data.size % fmt.blockAlign !== 0) {
-    throw new Error(`invalid WAV: data size ${data.size} is not a whole number of ${fmt.blockAlign}-byte frames`);
+    throw new Error(
+      `invalid WAV: data size ${data.size} is not a whole number of ${fmt.blockAlign}-byte frames`,
+    );
   }
   const channel = options.channel ?? 0;
   if (!Number.isInteger(channel) || channel < 0 || channel >= fmt.channels) {
@@ -141,7 +158,11 @@ export function readWav(bytes: Uint8Array, options: ReadWavOptions = {}): WavRec
  *
  * Source: RIFF/WAVE specification (1991).
  */
-export function writeWav(samples: ArrayLike<number>, sampleRateHz: number, encoding: SampleEncoding): Uint8Array {
+export function writeWav(
+  samples: ArrayLike<number>,
+  sampleRateHz: number,
+  encoding: SampleEncoding,
+): Uint8Array {
   const width = encoding === 'int16' ? 2 : encoding === 'int24' ? 3 : 4;
   const dataSize = samples.length * width;
   const bytes = new Uint8Array(44 + dataSize + (dataSize % 2));

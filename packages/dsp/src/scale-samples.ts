@@ -48,12 +48,14 @@ export function scaleToAcceleration(
   const unit = options.unit ?? 'g';
   checkAdc(bits, fullScaleV);
   if (!(sensitivity > 0) || !Number.isFinite(sensitivity)) {
-    throw new RangeError(`sensor sensitivity must be a positive number of mV/g, got ${sensitivity}`);
+    throw new RangeError(
+      `sensor sensitivity must be a positive number of mV/g, got ${sensitivity}`,
+    );
   }
-  if (unit !== 'g' && unit !== 'm/s2') throw new TypeError(`unit must be 'g' or 'm/s2', got ${String(unit)}`);
+  if (unit !== 'g' && unit !== 'm/s2')
+    throw new TypeError(`unit must be 'g' or 'm/s2', got ${String(unit)}`);
   const perSample =
-    (encoding === 'float32' ? 1 : voltsPerCount(bits, fullScaleV)) /
-    (sensitivity / 1000) *
+    ((encoding === 'float32' ? 1 : voltsPerCount(bits, fullScaleV)) / (sensitivity / 1000)) *
     (unit === 'm/s2' ? STANDARD_GRAVITY : 1);
   const out = new Float64Array(samples.length);
   out.set(samples);

@@ -3,10 +3,19 @@ import { findPeaks } from './spectral-peaks.ts';
 import { welch } from './welch.ts';
 
 /** 1 V peak tone at `f` Hz with fs = N = 1024 (one bin = 1 Hz), read once with `window`. */
-function lines(f: number, window: 'hann' | 'rect' | 'flattop' | 'hamming', amplitude = 1, phase = 0.3): Float64Array {
+function lines(
+  f: number,
+  window: 'hann' | 'rect' | 'flattop' | 'hamming',
+  amplitude = 1,
+  phase = 0.3,
+): Float64Array {
   const n = 1024;
-  const x = Float64Array.from({ length: n }, (_, i) => amplitude * Math.sin((2 * Math.PI * f * i) / n + phase));
-  return welch(x, { sampleRateHz: n, nperseg: n, window, scaling: 'spectrum', detrend: 'none' }).power;
+  const x = Float64Array.from(
+    { length: n },
+    (_, i) => amplitude * Math.sin((2 * Math.PI * f * i) / n + phase),
+  );
+  return welch(x, { sampleRateHz: n, nperseg: n, window, scaling: 'spectrum', detrend: 'none' })
+    .power;
 }
 
 describe('spectral peaks', () => {
@@ -18,10 +27,13 @@ describe('spectral peaks', () => {
   });
 
   // issue 3 / Harris 1978: flat-top reads an off-bin tone within 0.1 % without interpolation
-  it.each([0.13, 0.25, 0.37])('when a tone sits %f bin off, the flat-top line reads its amplitude within 0.1 percent', (offset) => {
-    const p = lines(200 + offset, 'flattop', 3);
-    expect(Math.abs(Math.sqrt(2 * p[200]!) - 3) / 3).toBeLessThan(1e-3);
-  });
+  it.each([0.13, 0.25, 0.37])(
+    'when a tone sits %f bin off, the flat-top line reads its amplitude within 0.1 percent',
+    (offset) => {
+      const p = lines(200 + offset, 'flattop', 3);
+      expect(Math.abs(Math.sqrt(2 * p[200]!) - 3) / 3).toBeLessThan(1e-3);
+    },
+  );
 
   // REFERENCES.md: flat-top scalloping loss 0.01 dB (worst case, half a bin off)
   it('when a tone sits exactly half a bin off, the flat-top line is within 0.02 dB', () => {
@@ -45,7 +57,10 @@ describe('spectral peaks', () => {
     const n = 4096;
     const x = Float64Array.from(
       { length: n },
-      (_, i) => Math.sin((2 * Math.PI * 100 * i) / n) + 3 * Math.sin((2 * Math.PI * 300 * i) / n) + 2 * Math.sin((2 * Math.PI * 700 * i) / n),
+      (_, i) =>
+        Math.sin((2 * Math.PI * 100 * i) / n) +
+        3 * Math.sin((2 * Math.PI * 300 * i) / n) +
+        2 * Math.sin((2 * Math.PI * 700 * i) / n),
     );
     const p = welch(x, { sampleRateHz: n, nperseg: n, scaling: 'spectrum' }).power;
     const peaks = findPeaks(p, 1, { count: 2 });

@@ -41,7 +41,8 @@ export function findPeaks(
 ): SpectralPeak[] {
   if (!(dfHz > 0)) throw new RangeError(`dfHz must be positive, got ${dfHz}`);
   const count = options.count ?? 10;
-  if (!Number.isInteger(count) || count < 0) throw new RangeError(`count must be a whole number, got ${count}`);
+  if (!Number.isInteger(count) || count < 0)
+    throw new RangeError(`count must be a whole number, got ${count}`);
   const lines = power.length;
   if (lines < 3) return [];
   const nperseg = options.nperseg ?? 2 * (lines - 1);

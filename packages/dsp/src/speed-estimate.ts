@@ -29,7 +29,8 @@ export function estimateSpeed(
   const nominal = options.nominalRpm;
   if (!(nominal > 0)) throw new RangeError(`nominalRpm must be positive, got ${nominal}`);
   const fraction = options.searchFraction ?? 0.1;
-  if (!(fraction > 0 && fraction < 1)) throw new RangeError(`searchFraction must be in (0, 1), got ${fraction}`);
+  if (!(fraction > 0 && fraction < 1))
+    throw new RangeError(`searchFraction must be in (0, 1), got ${fraction}`);
   const hz = nominal / 60;
   const span = Math.max(fraction * hz, 1.5 * dfHz);
   const [peak] = findPeaks(power, dfHz, {

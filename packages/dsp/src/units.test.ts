@@ -1,6 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { fromDecibels, toDecibels } from './decibels.ts';
-import { convertUnit, integrateSineAmplitude, integrationGain, MM_PER_INCH, STANDARD_GRAVITY } from './units.ts';
+import {
+  convertUnit,
+  integrateSineAmplitude,
+  integrationGain,
+  MM_PER_INCH,
+  STANDARD_GRAVITY,
+} from './units.ts';
 
 describe('units', () => {
   // issue 3 and REFERENCES.md (computed): 1 g peak at 100 Hz → 0.7071 g RMS, 15.61 mm/s peak, 24.84 µm peak

@@ -45,7 +45,9 @@ export function siPerUnit(unit: VibrationUnit): number {
  */
 export function convertUnit(value: number, from: VibrationUnit, to: VibrationUnit): number {
   if (quantityOf(from) !== quantityOf(to)) {
-    throw new RangeError(`cannot convert ${from} to ${to}: different quantities (integrate instead)`);
+    throw new RangeError(
+      `cannot convert ${from} to ${to}: different quantities (integrate instead)`,
+    );
   }
   return (value * siPerUnit(from)) / siPerUnit(to);
 }
@@ -74,7 +76,11 @@ export function integrateSineAmplitude(
  * same quantity or one or two integrations lower (acceleration → velocity →
  * displacement). Throws for differentiation or a non-positive frequency when integrating.
  */
-export function integrationGain(frequencyHz: number, from: VibrationUnit, to: VibrationUnit): number {
+export function integrationGain(
+  frequencyHz: number,
+  from: VibrationUnit,
+  to: VibrationUnit,
+): number {
   const order = { acceleration: 0, velocity: 1, displacement: 2 };
   const steps = order[quantityOf(to)] - order[quantityOf(from)];
   if (steps < 0) throw new RangeError(`cannot differentiate ${from} into ${to}`);
@@ -82,5 +88,5 @@ export function integrationGain(frequencyHz: number, from: VibrationUnit, to: Vi
     throw new RangeError(`integration needs a positive frequency, got ${frequencyHz}`);
   }
   const omega = 2 * Math.PI * frequencyHz;
-  return (siPerUnit(from) / siPerUnit(to)) / omega ** steps;
+  return siPerUnit(from) / siPerUnit(to) / omega ** steps;
 }

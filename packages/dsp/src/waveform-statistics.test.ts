@@ -6,7 +6,10 @@ import { waveformStatistics } from './waveform-statistics.ts';
 describe('waveform statistics', () => {
   // REFERENCES.md: sine peak = 1.41421 × RMS; Pearson kurtosis of a sine = 1.5 (moment definition)
   it('when a 1 g peak sine is measured, RMS 0.7071, crest factor √2 and kurtosis 1.5 come out', () => {
-    const x = Float64Array.from({ length: 25600 }, (_, i) => 0.2 + Math.sin((2 * Math.PI * 100 * i) / 25600));
+    const x = Float64Array.from(
+      { length: 25600 },
+      (_, i) => 0.2 + Math.sin((2 * Math.PI * 100 * i) / 25600),
+    );
     const s = waveformStatistics(x);
     expect(s.mean).toBeCloseTo(0.2, 12);
     expect(s.rms).toBeCloseTo(Math.SQRT1_2, 12);
@@ -22,7 +25,10 @@ describe('waveform statistics', () => {
       s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
       return (s + 0.5) / 2 ** 32;
     };
-    const x = Float64Array.from({ length: 200000 }, () => Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u()));
+    const x = Float64Array.from(
+      { length: 200000 },
+      () => Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u()),
+    );
     expect(waveformStatistics(x).kurtosis).toBeCloseTo(3, 1);
   });
 
@@ -38,7 +44,9 @@ describe('waveform integration', () => {
   // REFERENCES.md (computed): 1 g peak at 100 Hz → 15.6078 mm/s peak, 49.681 µm peak-to-peak
   it('when a 1 g peak 100 Hz sine is integrated in the frequency domain, it reads 15.6078 mm/s and 49.681 µm pk-pk', () => {
     const fs = 25600;
-    const x = Float64Array.from({ length: 65536 }, (_, i) => Math.sin((2 * Math.PI * 100 * i) / fs));
+    const x = Float64Array.from({ length: 65536 }, (_, i) =>
+      Math.sin((2 * Math.PI * 100 * i) / fs),
+    );
     const v = integrateWaveform(x, { sampleRateHz: fs, to: 'mm/s' });
     expect(trimmedPeakToPeak(v) / 2).toBeCloseTo(15.6078, 3);
     const d = integrateWaveform(x, { sampleRateHz: fs, to: 'um' });
@@ -48,22 +56,41 @@ describe('waveform integration', () => {
   });
 
   // v = a/(2πf), d = a/(2πf)² (REFERENCES.md); a fractional number of cycles must not matter (common practice, no source)
-  it.each([13.3, 24.5, 57.1])('when a %f Hz tone holds a fractional number of cycles, displacement pk-pk is within 0.5 percent', (f) => {
-    const fs = 25600;
-    const x = Float64Array.from({ length: 65536 }, (_, i) => Math.sin((2 * Math.PI * f * i) / fs + 0.4));
-    const d = integrateWaveform(x, { sampleRateHz: fs, lowCutoffHz: 10, highCutoffHz: 1000 });
-    expect(Math.abs(trimmedPeakToPeak(d) / (2 * integrateSineAmplitude(1, f, 'g', 'um')) - 1)).toBeLessThan(5e-3);
-  });
+  it.each([13.3, 24.5, 57.1])(
+    'when a %f Hz tone holds a fractional number of cycles, displacement pk-pk is within 0.5 percent',
+    (f) => {
+      const fs = 25600;
+      const x = Float64Array.from({ length: 65536 }, (_, i) =>
+        Math.sin((2 * Math.PI * f * i) / fs + 0.4),
+      );
+      const d = integrateWaveform(x, { sampleRateHz: fs, lowCutoffHz: 10, highCutoffHz: 1000 });
+      expect(
+        Math.abs(trimmedPeakToPeak(d) / (2 * integrateSineAmplitude(1, f, 'g', 'um')) - 1),
+      ).toBeLessThan(5e-3);
+    },
+  );
 
   // band-limited synthesis (common practice, no source): a shorter output is the same waveform on a coarser grid
   it('when the output is synthesised at a quarter of the rate, it equals every fourth full-rate sample', () => {
     const fs = 25600;
-    const x = Float64Array.from({ length: 16384 }, (_, i) => Math.sin((2 * Math.PI * 37.3 * i) / fs) + 0.1 * Math.sin(i));
+    const x = Float64Array.from(
+      { length: 16384 },
+      (_, i) => Math.sin((2 * Math.PI * 37.3 * i) / fs) + 0.1 * Math.sin(i),
+    );
     const full = integrateWaveform(x, { sampleRateHz: fs, lowCutoffHz: 10, highCutoffHz: 1000 });
-    const quarter = integrateWaveform(x, { sampleRateHz: fs, lowCutoffHz: 10, highCutoffHz: 1000, outputLength: 4096 });
+    const quarter = integrateWaveform(x, {
+      sampleRateHz: fs,
+      lowCutoffHz: 10,
+      highCutoffHz: 1000,
+      outputLength: 4096,
+    });
     for (let i = 0; i < 4096; i += 97) expect(quarter[i]).toBeCloseTo(full[4 * i]!, 9);
-    expect(() => integrateWaveform(x, { sampleRateHz: fs, highCutoffHz: 1000, outputLength: 1024 })).toThrow(/cannot hold/);
-    expect(() => integrateWaveform(x, { sampleRateHz: fs, outputLength: 3000 })).toThrow(/power of two/);
+    expect(() =>
+      integrateWaveform(x, { sampleRateHz: fs, highCutoffHz: 1000, outputLength: 1024 }),
+    ).toThrow(/cannot hold/);
+    expect(() => integrateWaveform(x, { sampleRateHz: fs, outputLength: 3000 })).toThrow(
+      /power of two/,
+    );
   });
 
   it('when a tone lies below the low cutoff, it is removed', () => {

@@ -2,7 +2,10 @@ import { describe, expect, it } from 'vitest';
 import { welch } from './welch.ts';
 
 function sine(n: number, fs: number, f: number, amplitude: number, phase = 0): Float64Array {
-  return Float64Array.from({ length: n }, (_, i) => amplitude * Math.sin(2 * Math.PI * f * (i / fs) + phase));
+  return Float64Array.from(
+    { length: n },
+    (_, i) => amplitude * Math.sin(2 * Math.PI * f * (i / fs) + phase),
+  );
 }
 
 describe('welch', () => {
@@ -11,11 +14,14 @@ describe('welch', () => {
     ['flattop', 2.0002],
     ['hann', 1.8369],
     ['rect', 1.5968],
-  ] as const)('when a 2 V RMS tone at 1234 Hz is read with %s (spectrum scaling), √max is %f', (window, expected) => {
-    const x = sine(100000, 10000, 1234, 2 * Math.SQRT2);
-    const r = welch(x, { sampleRateHz: 10000, nperseg: 1024, window, scaling: 'spectrum' });
-    expect(Math.sqrt(Math.max(...r.power))).toBeCloseTo(expected, 4);
-  });
+  ] as const)(
+    'when a 2 V RMS tone at 1234 Hz is read with %s (spectrum scaling), √max is %f',
+    (window, expected) => {
+      const x = sine(100000, 10000, 1234, 2 * Math.SQRT2);
+      const r = welch(x, { sampleRateHz: 10000, nperseg: 1024, window, scaling: 'spectrum' });
+      expect(Math.sqrt(Math.max(...r.power))).toBeCloseTo(expected, 4);
+    },
+  );
 
   // REFERENCES.md: Σ density·Δf = 4.0000 V² (Parseval)
   it('when the density of the same tone is summed over frequency, it gives the mean square 4.0000 V²', () => {
@@ -42,7 +48,12 @@ describe('welch', () => {
   });
 
   it('when detrend is none, the DC line keeps the mean', () => {
-    const r = welch(new Float64Array(1024).fill(2), { nperseg: 256, detrend: 'none', window: 'rect', scaling: 'spectrum' });
+    const r = welch(new Float64Array(1024).fill(2), {
+      nperseg: 256,
+      detrend: 'none',
+      window: 'rect',
+      scaling: 'spectrum',
+    });
     expect(r.power[0]).toBeCloseTo(4, 12);
   });
 

@@ -82,7 +82,9 @@ export function welch(input: ArrayLike<number>, options: WelchOptions = {}): Wel
   }
   const nperseg = options.nperseg ?? Math.min(8192, n);
   if (!Number.isInteger(nperseg) || nperseg < 2 || nperseg > n) {
-    throw new RangeError(`nperseg must be an integer in 2 … ${n} (the input length), got ${nperseg}`);
+    throw new RangeError(
+      `nperseg must be an integer in 2 … ${n} (the input length), got ${nperseg}`,
+    );
   }
   const noverlap = options.noverlap ?? Math.floor(nperseg / 2);
   if (!Number.isInteger(noverlap) || noverlap < 0 || noverlap >= nperseg) {

@@ -7,12 +7,15 @@ describe('window figures', () => {
     ['rect', 1.0, 1.0, 3.92],
     ['hann', 0.5, 1.5, 1.42],
     ['hamming', 0.54, 1.363, 1.75],
-  ] as const)('when %s is built with 4096 points, coherent gain is %f and ENBW %f bins', (name, cg, enbw, scallopDb) => {
-    const w = getWindow(name, 4096);
-    expect(w.coherentGain).toBeCloseTo(cg, 4);
-    expect(w.enbwBins).toBeCloseTo(enbw, 3);
-    expect(-20 * Math.log10(windowResponse(w, 0.5))).toBeCloseTo(scallopDb, 2);
-  });
+  ] as const)(
+    'when %s is built with 4096 points, coherent gain is %f and ENBW %f bins',
+    (name, cg, enbw, scallopDb) => {
+      const w = getWindow(name, 4096);
+      expect(w.coherentGain).toBeCloseTo(cg, 4);
+      expect(w.enbwBins).toBeCloseTo(enbw, 3);
+      expect(-20 * Math.log10(windowResponse(w, 0.5))).toBeCloseTo(scallopDb, 2);
+    },
+  );
 
   // scipy's flat-top coefficients (D'Antona & Ferrero 2006); REFERENCES.md: CG 0.2156, ENBW 3.770, scallop 0.01 dB
   it('when flat-top is built with 4096 points, ENBW is about 3.77 bins and scalloping below 0.02 dB', () => {
