@@ -27,6 +27,24 @@ const AuditRoute = lazy(() =>
 const UploadsRoute = lazy(() =>
   import('./routes/app/uploads.tsx').then((m) => ({ default: m.UploadsRoute })),
 );
+const ForgotPasswordRoute = lazy(() =>
+  import('./routes/forgot-password.tsx').then((m) => ({ default: m.ForgotPasswordRoute })),
+);
+const ResetPasswordRoute = lazy(() =>
+  import('./routes/reset-password.tsx').then((m) => ({ default: m.ResetPasswordRoute })),
+);
+const AcceptInviteRoute = lazy(() =>
+  import('./routes/accept-invite.tsx').then((m) => ({ default: m.AcceptInviteRoute })),
+);
+const UsersRoute = lazy(() =>
+  import('./routes/app/users.tsx').then((m) => ({ default: m.UsersRoute })),
+);
+const MailboxRoute = lazy(() =>
+  import('./routes/app/mailbox.tsx').then((m) => ({ default: m.MailboxRoute })),
+);
+const AccountRoute = lazy(() =>
+  import('./routes/app/account.tsx').then((m) => ({ default: m.AccountRoute })),
+);
 const NotFoundRoute = lazy(() =>
   import('./routes/not-found.tsx').then((m) => ({ default: m.NotFoundRoute })),
 );
@@ -51,6 +69,9 @@ const router = createBrowserRouter([
     errorElement: <RouteErrorBoundary />,
     children: [
       { path: paths.auth.signIn.path, element: <SignInRoute /> },
+      { path: paths.auth.forgotPassword.path, element: <ForgotPasswordRoute /> },
+      { path: paths.auth.resetPassword.path, element: <ResetPasswordRoute /> },
+      { path: paths.auth.acceptInvite.path, element: <AcceptInviteRoute /> },
       {
         path: paths.home.path,
         element: <AppRoot />,
@@ -66,6 +87,9 @@ const router = createBrowserRouter([
               { path: paths.app.gateways.path, element: <GatewaysRoute /> },
               { path: paths.app.audit.path, element: <AuditRoute /> },
               { path: paths.app.uploads.path, element: <UploadsRoute /> },
+              { path: paths.app.users.path, element: <UsersRoute /> },
+              { path: paths.app.mailbox.path, element: <MailboxRoute /> },
+              { path: paths.app.account.path, element: <AccountRoute /> },
               { path: '*', element: <NotFoundRoute /> },
             ],
           },

@@ -21,6 +21,9 @@ export const navigation: readonly NavigationItem[] = [
   { to: paths.app.setup.getHref(), label: 'Setup', roles: ['admin', 'engineer'] },
   { to: paths.app.gateways.getHref(), label: 'Gateways', roles: ['admin'] },
   { to: paths.app.audit.getHref(), label: 'Audit log', roles: ['admin', 'engineer'] },
+  { to: paths.app.users.getHref(), label: 'Users', roles: ['admin'] },
+  { to: paths.app.mailbox.getHref(), label: 'Mailbox', roles: ['admin'] },
+  { to: paths.app.account.getHref(), label: 'Account', roles },
 ];
 
 export function navigationFor(role: Role): NavigationItem[] {

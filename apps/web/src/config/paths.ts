@@ -16,6 +16,10 @@ export const paths = {
           ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}`
           : '/sign-in',
     },
+    forgotPassword: { path: '/forgot-password', getHref: () => '/forgot-password' },
+    /** Links in e-mails carry `#token=…`; the token never leaves the browser in a URL. */
+    resetPassword: { path: '/reset-password', getHref: () => '/reset-password' },
+    acceptInvite: { path: '/accept-invite', getHref: () => '/accept-invite' },
   },
   app: {
     setup: { path: '/setup', getHref: () => '/setup' },

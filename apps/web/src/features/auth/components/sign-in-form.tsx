@@ -1,6 +1,8 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { signInRequestSchema } from '@turnstone/contracts/auth';
 import { useForm } from 'react-hook-form';
+import { Link } from 'react-router-dom';
+import { paths } from '../../../config/paths.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { Field, Input } from '../../../components/ui/field.tsx';
@@ -88,6 +90,12 @@ export function SignInForm({ onSuccess }: { onSuccess: () => void }) {
         <Button type="submit" variant="primary" busy={signIn.isPending} className="mt-1 w-full">
           Sign in
         </Button>
+        <Link
+          to={paths.auth.forgotPassword.getHref()}
+          className="self-center text-sm text-accent underline underline-offset-2"
+        >
+          Forgot password?
+        </Link>
       </form>
       <p className="mt-5 border-t border-line pt-3 text-xs leading-relaxed text-ink-faint">
         Demo accounts: admin@, engineer@, planner@, operator@turnstone.local
