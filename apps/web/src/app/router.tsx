@@ -12,6 +12,12 @@ const AppRoot = lazy(() => import('./routes/app/root.tsx').then((m) => ({ defaul
 const FleetRoute = lazy(() =>
   import('./routes/app/fleet.tsx').then((m) => ({ default: m.FleetRoute })),
 );
+const AlertsRoute = lazy(() =>
+  import('./routes/app/alerts.tsx').then((m) => ({ default: m.AlertsRoute })),
+);
+const LimitsRoute = lazy(() =>
+  import('./routes/app/limits.tsx').then((m) => ({ default: m.LimitsRoute })),
+);
 const ReviewRoute = lazy(() =>
   import('./routes/app/review.tsx').then((m) => ({ default: m.ReviewRoute })),
 );
@@ -82,6 +88,8 @@ const router = createBrowserRouter([
             children: [
               { index: true, element: <Navigate to={paths.app.fleet.getHref()} replace /> },
               { path: paths.app.fleet.path, element: <FleetRoute /> },
+              { path: paths.app.alerts.path, element: <AlertsRoute /> },
+              { path: paths.app.limits.path, element: <LimitsRoute /> },
               { path: paths.app.review.path, element: <ReviewRoute /> },
               { path: paths.app.setup.path, element: <SetupRoute /> },
               { path: paths.app.gateways.path, element: <GatewaysRoute /> },

@@ -16,6 +16,8 @@ export interface NavigationItem {
  */
 export const navigation: readonly NavigationItem[] = [
   { to: paths.app.fleet.getHref(), label: 'Fleet', roles },
+  { to: paths.app.alerts.getHref(), label: 'Alerts', roles },
+  { to: paths.app.limits.getHref(), label: 'Limits', roles: ['engineer'] },
   { to: paths.app.review.getHref(), label: 'Review', roles: ['planner', 'engineer', 'admin'] },
   { to: paths.app.uploads.getHref(), label: 'Uploads', roles: ['engineer', 'admin'] },
   { to: paths.app.setup.getHref(), label: 'Setup', roles: ['admin', 'engineer'] },

@@ -36,6 +36,14 @@ export const paths = {
       path: '/fleet',
       getHref: () => '/fleet',
     },
+    alerts: {
+      path: '/alerts',
+      getHref: (alertId?: number) => (alertId ? `/alerts?alert=${alertId}` : '/alerts'),
+    },
+    limits: {
+      path: '/limits',
+      getHref: (pointId?: number) => (pointId ? `/limits?point=${pointId}` : '/limits'),
+    },
     review: {
       path: '/review',
       getHref: () => '/review',

@@ -1,0 +1,43 @@
+import { alertListSchema, type AlertListQuery } from '@turnstone/contracts/alerts';
+import { siteListSchema } from '@turnstone/contracts/fleet';
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client.ts';
+
+export type AlertFilters = Pick<AlertListQuery, 'state' | 'level' | 'siteId'>;
+
+/** How often the list is fetched again while the page is open, for a real-time feel. */
+export const ALERTS_POLL_MS = 15_000;
+
+export function getAlerts(filters: AlertFilters, { signal }: { signal?: AbortSignal } = {}) {
+  const params = new URLSearchParams();
+  if (filters.state) params.set('state', filters.state);
+  if (filters.level) params.set('level', filters.level);
+  if (filters.siteId) params.set('siteId', String(filters.siteId));
+  const qs = params.toString();
+  return api.get(`/api/v1/alerts${qs ? `?${qs}` : ''}`, { schema: alertListSchema, signal });
+}
+
+export function getAlertsQueryOptions(filters: AlertFilters) {
+  return queryOptions({
+    queryKey: ['alerts', 'list', filters] as const,
+    queryFn: ({ signal }) => getAlerts(filters, { signal }),
+    refetchInterval: ALERTS_POLL_MS,
+  });
+}
+
+export function useAlerts(filters: AlertFilters) {
+  return useQuery(getAlertsQueryOptions(filters));
+}
+
+/** The sites the user may see, for the site filter. */
+export function getSitesQueryOptions() {
+  return queryOptions({
+    queryKey: ['sites', 'list', {}] as const,
+    queryFn: ({ signal }) => api.get('/api/v1/sites', { schema: siteListSchema, signal }),
+    staleTime: 5 * 60_000,
+  });
+}
+
+export function useSites() {
+  return useQuery(getSitesQueryOptions());
+}

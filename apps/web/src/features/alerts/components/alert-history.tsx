@@ -1,0 +1,83 @@
+import { Button } from '../../../components/ui/button.tsx';
+import { ErrorState } from '../../../components/ui/error-state.tsx';
+import { LoadingPanel } from '../../../components/ui/spinner.tsx';
+import { StatusMark } from '../../../components/ui/status-mark.tsx';
+import { formatDateTime } from '../../../lib/format.ts';
+import { useAlert } from '../api/get-alert.ts';
+import { AlertStateMark, alertEventLabels, formatLevel } from './alert-labels.tsx';
+
+/** One alert: what it is and every change of its state, oldest first. */
+export function AlertHistory({ id, onClose }: { id: number; onClose: () => void }) {
+  const alert = useAlert(id);
+  if (alert.isPending) return <LoadingPanel label="Loading the alert…" />;
+  if (alert.isError)
+    return (
+      <ErrorState
+        title="Could not load the alert"
+        error={alert.error}
+        onRetry={() => void alert.refetch()}
+      />
+    );
+  const a = alert.data;
+  return (
+    <section aria-labelledby="alert-history-title" className="flex flex-col gap-4 p-4">
+      <div className="flex items-start justify-between gap-3">
+        <div>
+          <h2 id="alert-history-title" className="text-base font-semibold text-ink">
+            {a.bandName}
+          </h2>
+          <p className="text-sm text-ink-muted">
+            {a.machineName} · <span className="font-mono">{a.pointTag}</span> · {a.siteCode}
+          </p>
+        </div>
+        <Button size="sm" variant="ghost" onClick={onClose} aria-label="Close the alert history">
+          Close
+        </Button>
+      </div>
+      <dl className="grid grid-cols-2 gap-x-4 gap-y-2 text-sm">
+        <dt className="text-ink-muted">Level</dt>
+        <dd>
+          <StatusMark status={a.level} />
+        </dd>
+        <dt className="text-ink-muted">State</dt>
+        <dd>
+          <AlertStateMark state={a.state} />
+        </dd>
+        <dt className="text-ink-muted">Last value</dt>
+        <dd className="font-mono">{formatLevel(a.value, a.unit)}</dd>
+        <dt className="text-ink-muted">Peak</dt>
+        <dd className="font-mono">{formatLevel(a.peakValue, a.unit)}</dd>
+        <dt className="text-ink-muted">Level exceeded</dt>
+        <dd className="font-mono">{formatLevel(a.limit, a.unit)}</dd>
+      </dl>
+      <div>
+        <h3 className="mb-2 text-xs font-semibold tracking-wide text-ink-muted uppercase">
+          History
+        </h3>
+        <ol className="flex flex-col gap-3 border-l border-line pl-4">
+          {a.history.map((h) => (
+            <li key={h.id} className="relative text-sm">
+              <span
+                aria-hidden="true"
+                className="absolute top-1.5 -left-[21px] size-2 rounded-full bg-line-strong"
+              />
+              <p className="font-medium text-ink">
+                {alertEventLabels[h.kind]}
+                {h.value !== null && (
+                  <span className="ml-2 font-mono text-[13px] text-ink-muted">
+                    {formatLevel(h.value, a.unit)}
+                  </span>
+                )}
+              </p>
+              <p className="text-xs text-ink-muted">
+                <time dateTime={h.at}>{formatDateTime(h.at)}</time>
+                {h.userName && <> · {h.userName}</>}
+              </p>
+              {h.note && <p className="mt-1 text-[13px] text-ink">“{h.note}”</p>}
+            </li>
+          ))}
+        </ol>
+      </div>
+    </section>
+  );
+}

@@ -1,0 +1,178 @@
+import { useCallback, useMemo, useState } from 'react';
+import { useSearchParams } from 'react-router-dom';
+import type { RowSelectionState } from '@tanstack/react-table';
+import { Card } from '../../../components/ui/card.tsx';
+import { EmptyState } from '../../../components/ui/empty-state.tsx';
+import { ErrorState } from '../../../components/ui/error-state.tsx';
+import { Select } from '../../../components/ui/field.tsx';
+import { LoadingPanel, Spinner } from '../../../components/ui/spinner.tsx';
+import { useNow } from '../../../hooks/use-now.ts';
+import { useAlerts, useSites, type AlertFilters } from '../api/get-alerts.ts';
+import { AcknowledgeForm } from './acknowledge-form.tsx';
+import { AlertHistory } from './alert-history.tsx';
+import { AlertsTable } from './alerts-table.tsx';
+
+type StateFilter = 'open' | 'raised' | 'acknowledged' | 'cleared' | 'all';
+
+/** Filters, the alert table, the acknowledgement form and the selected alert's history. */
+export function AlertsExplorer({
+  canAcknowledge,
+  userName,
+}: {
+  canAcknowledge: boolean;
+  userName: string;
+}) {
+  const [params, setParams] = useSearchParams();
+  const stateFilter = (params.get('state') as StateFilter | null) ?? 'open';
+  const level = params.get('level') as AlertFilters['level'] | null;
+  const siteId = Number(params.get('site')) || undefined;
+  const openId = Number(params.get('alert')) || null;
+  const filters: AlertFilters = {
+    ...(stateFilter !== 'open' && stateFilter !== 'all' ? { state: stateFilter } : {}),
+    ...(level ? { level } : {}),
+    ...(siteId ? { siteId } : {}),
+  };
+  const alerts = useAlerts(filters);
+  const sites = useSites();
+  const now = useNow(30_000);
+  const [selection, setSelection] = useState<RowSelectionState>({});
+  const [message, setMessage] = useState<string | null>(null);
+
+  const setParam = (key: string, value: string | null) => {
+    const next = new URLSearchParams(params);
+    if (value === null || value === '') next.delete(key);
+    else next.set(key, value);
+    setParams(next, { replace: true });
+    if (key !== 'alert') setSelection({});
+  };
+  const onOpen = useCallback(
+    (id: number) => {
+      const next = new URLSearchParams(params);
+      next.set('alert', String(id));
+      setParams(next, { replace: true });
+    },
+    [params, setParams],
+  );
+
+  const rows = useMemo(() => {
+    const items = alerts.data?.items ?? [];
+    return stateFilter === 'open' ? items.filter((a) => a.state !== 'cleared') : items;
+  }, [alerts.data, stateFilter]);
+  const raisedIds = new Set(rows.filter((a) => a.state === 'raised').map((a) => a.id));
+  const selectedIds = Object.keys(selection)
+    .filter((k) => selection[k])
+    .map(Number)
+    .filter((id) => raisedIds.has(id));
+  const counts = {
+    danger: rows.filter((a) => a.level === 'danger' && a.state !== 'cleared').length,
+    alert: rows.filter((a) => a.level === 'alert' && a.state !== 'cleared').length,
+    raised: raisedIds.size,
+  };
+
+  return (
+    <div className="flex min-h-0 flex-1 flex-col gap-4 lg:flex-row">
+      <div className="flex min-w-0 flex-1 flex-col gap-3">
+        <div className="flex flex-wrap items-end gap-3" role="group" aria-label="Filters">
+          <label className="flex flex-col gap-1 text-xs font-medium text-ink-muted">
+            State
+            <Select
+              value={stateFilter}
+              onChange={(e) => setParam('state', e.target.value === 'open' ? null : e.target.value)}
+            >
+              <option value="open">Open (raised or acknowledged)</option>
+              <option value="raised">Raised</option>
+              <option value="acknowledged">Acknowledged</option>
+              <option value="cleared">Cleared</option>
+              <option value="all">All</option>
+            </Select>
+          </label>
+          <label className="flex flex-col gap-1 text-xs font-medium text-ink-muted">
+            Level
+            <Select value={level ?? ''} onChange={(e) => setParam('level', e.target.value || null)}>
+              <option value="">Alert and danger</option>
+              <option value="danger">Danger</option>
+              <option value="alert">Alert</option>
+            </Select>
+          </label>
+          <label className="flex flex-col gap-1 text-xs font-medium text-ink-muted">
+            Site
+            <Select value={siteId ?? ''} onChange={(e) => setParam('site', e.target.value || null)}>
+              <option value="">Every site</option>
+              {sites.data?.items.map((s) => (
+                <option key={s.id} value={s.id}>
+                  {s.name}
+                </option>
+              ))}
+            </Select>
+          </label>
+          <p className="ml-auto flex items-center gap-2 text-xs text-ink-muted" aria-live="polite">
+            {alerts.isFetching && !alerts.isPending && <Spinner size="sm" />}
+            <span className="font-mono">{counts.danger}</span> danger ·{' '}
+            <span className="font-mono">{counts.alert}</span> alert ·{' '}
+            <span className="font-mono">{counts.raised}</span> waiting for acknowledgement · updates
+            every 15 s
+          </p>
+        </div>
+
+        {message && (
+          <p
+            role="status"
+            className="rounded-md border border-line bg-accent-soft px-3 py-2 text-sm text-ink"
+          >
+            {message}
+          </p>
+        )}
+
+        {canAcknowledge && rows.some((a) => a.state === 'raised') && (
+          <Card className="p-4">
+            <AcknowledgeForm
+              ids={selectedIds}
+              userName={userName}
+              onDone={(m) => {
+                setMessage(m);
+                setSelection({});
+              }}
+            />
+          </Card>
+        )}
+
+        <Card className="min-h-0 flex-1 overflow-auto">
+          {alerts.isPending ? (
+            <LoadingPanel label="Loading alerts…" />
+          ) : alerts.isError ? (
+            <ErrorState
+              title="Could not load the alerts"
+              error={alerts.error}
+              onRetry={() => void alerts.refetch()}
+              retrying={alerts.isFetching}
+            />
+          ) : rows.length === 0 ? (
+            <EmptyState
+              title="No alerts match"
+              description={
+                stateFilter === 'open'
+                  ? 'Nothing is raised or waiting on your sites. New alerts appear here within 15 seconds.'
+                  : 'Change the filters to see more.'
+              }
+            />
+          ) : (
+            <AlertsTable
+              alerts={rows}
+              now={now}
+              selectable={canAcknowledge}
+              selection={selection}
+              onSelectionChange={setSelection}
+              openId={openId}
+              onOpen={onOpen}
+            />
+          )}
+        </Card>
+      </div>
+      {openId !== null && (
+        <Card className="w-full shrink-0 overflow-auto lg:w-80">
+          <AlertHistory id={openId} onClose={() => setParam('alert', null)} />
+        </Card>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,290 @@
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { useFieldArray, useForm, type FieldErrors, type Resolver } from 'react-hook-form';
+import type {
+  BandDefinitionInput,
+  LimitSetResponse,
+  ReplayResponse,
+} from '@turnstone/contracts/limits';
+import { Button } from '../../../components/ui/button.tsx';
+import { Card } from '../../../components/ui/card.tsx';
+import { Field } from '../../../components/ui/field.tsx';
+import { isApiError } from '../../../lib/api-client.ts';
+import { cn } from '../../../lib/cn.ts';
+import { formatDateTime } from '../../../lib/format.ts';
+import { getIsoDefaults } from '../api/get-limits.ts';
+import { useReplayLimits, useSaveLimits } from '../api/save-limits.ts';
+import {
+  checkForm,
+  emptyBand,
+  formPathOf,
+  reasonSchema,
+  toFormBand,
+  type LimitsFormValues,
+} from '../utils/band-form.ts';
+import { BandFields } from './band-fields.tsx';
+import { LimitHistoryList } from './limit-history-list.tsx';
+import { ReplaySummary } from './replay-summary.tsx';
+
+/** Nested RHF errors from flat `bands.0.alertLevel` paths. */
+function nest(errors: { path: string; message: string }[]): FieldErrors<LimitsFormValues> {
+  const out: Record<string, unknown> = {};
+  for (const { path, message } of errors) {
+    const parts = path.split('.');
+    let node = out as Record<string, unknown>;
+    parts.forEach((part, i) => {
+      if (i === parts.length - 1) node[part] ??= { type: 'validate', message };
+      else node = (node[part] ??= {}) as Record<string, unknown>;
+    });
+  }
+  return out as FieldErrors<LimitsFormValues>;
+}
+
+/** The band editor of one point: edit, apply defaults, replay, save with a reason. */
+export function LimitsEditor({
+  limits,
+  onSaved,
+}: {
+  limits: LimitSetResponse;
+  /** Told the outcome of a save (the editor is remounted with the new version after it). */
+  onSaved: (message: string) => void;
+}) {
+  const pointId = limits.pointId;
+  const originals = limits.bands;
+  const resolver = useMemo<Resolver<LimitsFormValues>>(
+    () => (values) => {
+      const checked = checkForm(values, originals);
+      return checked.ok ? { values, errors: {} } : { values: {}, errors: nest(checked.errors) };
+    },
+    [originals],
+  );
+  const form = useForm<LimitsFormValues>({
+    resolver,
+    defaultValues: { bands: limits.bands.map(toFormBand) },
+  });
+  const bands = useFieldArray({ control: form.control, name: 'bands' });
+  const replay = useReplayLimits(pointId);
+  const save = useSaveLimits(pointId);
+  const [replayed, setReplayed] = useState<ReplayResponse | null>(null);
+  const [iso, setIso] = useState<{ busy: boolean; text: string | null }>({
+    busy: false,
+    text: null,
+  });
+  const [reason, setReason] = useState('');
+  const [reasonError, setReasonError] = useState<string | null>(null);
+  const [asking, setAsking] = useState(false);
+  const replayRef = useRef<HTMLDivElement>(null);
+
+  const definitions = (values: LimitsFormValues): BandDefinitionInput[] => {
+    const checked = checkForm(values, originals);
+    return checked.ok ? checked.bands : [];
+  };
+
+  const serverErrors = (error: unknown) => {
+    if (isApiError(error) && error.status === 400 && Array.isArray(error.details)) {
+      for (const d of error.details as { path: string; message: string }[]) {
+        const path = formPathOf(d.path);
+        if (path !== 'root')
+          form.setError(path as `bands.${number}.alertLevel`, { message: d.message });
+      }
+    }
+  };
+
+  const onReplay = form.handleSubmit((values) => {
+    replay.mutate(definitions(values), { onSuccess: setReplayed, onError: serverErrors });
+  });
+
+  const onSave = form.handleSubmit((values) => {
+    const r = reasonSchema.safeParse(reason);
+    if (!r.success) {
+      setReasonError(r.error.issues[0]?.message ?? 'Say why.');
+      return;
+    }
+    setReasonError(null);
+    save.mutate(
+      { bands: definitions(values), reason: r.data },
+      {
+        onSuccess: (out) => {
+          onSaved(
+            `Saved as version ${out.version}.` +
+              (out.clearedAlertIds.length
+                ? ` ${out.clearedAlertIds.length} open alert(s) on removed bands were cleared.`
+                : ''),
+          );
+          setAsking(false);
+          setReason('');
+          form.reset(values);
+        },
+        onError: serverErrors,
+      },
+    );
+  });
+
+  const applyIso = async () => {
+    setIso({ busy: true, text: null });
+    try {
+      const d = await getIsoDefaults(pointId);
+      const list = form.getValues('bands');
+      const source = `ISO 20816-3 group ${d.isoGroup}, ${d.foundation}: alert B/C, danger C/D`;
+      let applied = 0;
+      list.forEach((b, i) => {
+        if (b.kind === 'overall' && b.spectrum === 'velocity' && b.measure === 'rms') {
+          form.setValue(`bands.${i}.alertLevel`, d.alertLevel, { shouldDirty: true });
+          form.setValue(`bands.${i}.dangerLevel`, d.dangerLevel, { shouldDirty: true });
+          form.setValue(`bands.${i}.levelSource`, source, { shouldDirty: true });
+          applied++;
+        }
+      });
+      if (applied === 0)
+        bands.append(
+          toFormBand({
+            key: 'overall-velocity',
+            name: 'Overall velocity (ISO 20816)',
+            kind: 'overall',
+            spectrum: 'velocity',
+            measure: 'rms',
+            unit: 'mm/s',
+            alertLevel: d.alertLevel,
+            dangerLevel: d.dangerLevel,
+            persistence: 2,
+            hysteresis: 0.9,
+            levelSource: source,
+          }),
+        );
+      setIso({
+        busy: false,
+        text: `ISO 20816-3 group ${d.isoGroup}, ${d.foundation} foundation: alert ${d.alertLevel} mm/s, danger ${d.dangerLevel} mm/s applied to the overall velocity band. ${d.source}`,
+      });
+    } catch (err) {
+      setIso({
+        busy: false,
+        text: err instanceof Error ? err.message : 'Could not load the ISO defaults.',
+      });
+    }
+  };
+
+  const dirty = form.formState.isDirty;
+  useEffect(() => {
+    if (replayed) replayRef.current?.scrollIntoView({ block: 'start', behavior: 'smooth' });
+  }, [replayed]);
+
+  return (
+    <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_22rem]">
+      {replayed && (
+        <div ref={replayRef} className="xl:col-span-2">
+          <Card className="flex scroll-mt-4 flex-col gap-3 p-4 xl:col-span-2">
+            <h2 className="text-sm font-semibold text-ink">Replay of the proposed levels</h2>
+            <ReplaySummary replay={replayed} current={limits.bands} />
+          </Card>
+        </div>
+      )}
+      <form className="flex min-w-0 flex-col gap-4" noValidate onSubmit={(e) => e.preventDefault()}>
+        <div className="flex flex-wrap items-center gap-2">
+          <Button onClick={() => void applyIso()} busy={iso.busy}>
+            Apply ISO 20816 defaults
+          </Button>
+          <Button onClick={() => bands.append(emptyBand(bands.fields.length))}>Add band</Button>
+          <span className="text-xs text-ink-muted">
+            Version <span className="font-mono">{limits.version}</span>
+            {limits.updatedAt && (
+              <>
+                {' '}
+                · saved {formatDateTime(limits.updatedAt)} by {limits.updatedBy ?? 'Turnstone'}
+              </>
+            )}
+          </span>
+        </div>
+        {iso.text && (
+          <p role="status" className="text-xs text-ink-muted">
+            {iso.text}
+          </p>
+        )}
+        {bands.fields.map((f, i) => (
+          <BandFields
+            key={f.id}
+            index={i}
+            pointId={pointId}
+            control={form.control}
+            register={form.register}
+            setValue={form.setValue}
+            errors={form.formState.errors}
+            onRemove={() => bands.remove(i)}
+          />
+        ))}
+        {bands.fields.length === 0 && (
+          <p className="text-sm text-ink-muted">
+            No bands: nothing on this point would ever raise an alert.
+          </p>
+        )}
+      </form>
+
+      <div className="flex flex-col gap-4">
+        <Card className="flex flex-col gap-3 p-4 xl:sticky xl:top-0">
+          <h2 className="text-sm font-semibold text-ink">Check, then save</h2>
+          <p className="text-xs text-ink-muted">
+            Replay runs the proposed bands over this point’s stored history with the same rules the
+            worker uses.
+          </p>
+          <Button onClick={() => void onReplay()} busy={replay.isPending}>
+            Replay history
+          </Button>
+          {replay.error && !isApiError(replay.error) && (
+            <p className="text-sm text-status-danger">{replay.error.message}</p>
+          )}
+          {replay.error && isApiError(replay.error) && (
+            <p role="alert" className="text-sm text-status-danger">
+              {replay.error.message}
+            </p>
+          )}
+          {!asking ? (
+            <Button
+              variant="primary"
+              onClick={() => setAsking(true)}
+              disabled={!dirty && bands.fields.length === limits.bands.length}
+            >
+              Save limits…
+            </Button>
+          ) : (
+            <div className="flex flex-col gap-2">
+              <Field
+                label="Reason for the change"
+                error={reasonError ?? undefined}
+                hint="Kept in the audit log with your name."
+              >
+                {(c) => (
+                  <textarea
+                    {...c}
+                    aria-invalid={c.invalid || undefined}
+                    rows={3}
+                    value={reason}
+                    onChange={(e) => setReason(e.target.value)}
+                    className={cn(
+                      'block w-full rounded-md border bg-surface px-3 py-2 text-sm text-ink focus-visible:border-accent',
+                      c.invalid ? 'border-status-danger' : 'border-line-strong',
+                    )}
+                  />
+                )}
+              </Field>
+              <div className="flex gap-2">
+                <Button variant="primary" onClick={() => void onSave()} busy={save.isPending}>
+                  Save with this reason
+                </Button>
+                <Button variant="ghost" onClick={() => setAsking(false)}>
+                  Cancel
+                </Button>
+              </div>
+            </div>
+          )}
+          {save.error && (
+            <p role="alert" className="text-sm text-status-danger">
+              {save.error.message}
+            </p>
+          )}
+        </Card>
+        <Card className="flex flex-col gap-3 p-4">
+          <h2 className="text-sm font-semibold text-ink">Recent changes</h2>
+          <LimitHistoryList pointId={pointId} />
+        </Card>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,45 @@
+/** Captures through the real ingest API and worker, for tests that need alerts or history. */
+import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import type { TestServer } from './test-server.ts';
+import { snapshotBody } from './signals.ts';
+
+/**
+ * Peak acceleration (g) of a 24.7 Hz tone of `mmS` mm/s RMS: a = v·√2·2πf / 9806.65
+ * (v = a/2πf for a sine, RMS = peak/√2; REFERENCES.md). 24.7 Hz is 1× of the demo pumps.
+ */
+export const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
+
+/** A gateway API key for a site, created by the admin. */
+export async function gatewayKey(srv: TestServer, siteId: number): Promise<string> {
+  const admin = await srv.signIn('admin');
+  const res = await srv.call('POST', '/api/v1/gateways', {
+    cookie: admin,
+    body: { siteId, name: `test-gw-${siteId}-${Date.now()}` },
+  });
+  return (await res.json()).apiKey as string;
+}
+
+/** One capture per velocity (mm/s RMS at 1×), an hour apart from `t0`, then a worker drain. */
+export async function captureVelocities(
+  srv: TestServer,
+  key: string,
+  tag: string,
+  velocities: number[],
+  t0 = Date.now() - (velocities.length + 1) * 3600_000,
+): Promise<void> {
+  let i = 0;
+  for (const v of velocities) {
+    i += 1;
+    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+      body: snapshotBody(tag, `${tag}-${t0}-${i}`, {
+        tones: [{ hz: 24.7, peakG: peakGFor(v) }],
+        noiseG: 0.001,
+        seed: i,
+        takenAt: new Date(t0 + i * 3600_000).toISOString(),
+      }),
+      headers: { authorization: `Bearer ${key}` },
+    });
+    if (res.status !== 201) throw new Error(`ingest answered ${res.status}: ${await res.text()}`);
+  }
+  await createWorker(srv.ctx, { owner: 'test-captures' }).drain();
+}
