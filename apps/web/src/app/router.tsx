@@ -51,6 +51,12 @@ const MailboxRoute = lazy(() =>
 const AccountRoute = lazy(() =>
   import('./routes/app/account.tsx').then((m) => ({ default: m.AccountRoute })),
 );
+const MachineRoute = lazy(() =>
+  import('./routes/app/machine.tsx').then((m) => ({ default: m.MachineRoute })),
+);
+const PointRoute = lazy(() =>
+  import('./routes/app/point.tsx').then((m) => ({ default: m.PointRoute })),
+);
 const NotFoundRoute = lazy(() =>
   import('./routes/not-found.tsx').then((m) => ({ default: m.NotFoundRoute })),
 );
@@ -98,6 +104,8 @@ const router = createBrowserRouter([
               { path: paths.app.users.path, element: <UsersRoute /> },
               { path: paths.app.mailbox.path, element: <MailboxRoute /> },
               { path: paths.app.account.path, element: <AccountRoute /> },
+              { path: paths.app.machine.path, element: <MachineRoute /> },
+              { path: paths.app.point.path, element: <PointRoute /> },
               { path: '*', element: <NotFoundRoute /> },
             ],
           },

@@ -52,5 +52,9 @@ export const paths = {
       path: '/points/:pointId',
       getHref: (pointId: number) => `/points/${pointId}`,
     },
+    machine: {
+      path: '/machines/:machineId',
+      getHref: (machineId: number) => `/machines/${machineId}`,
+    },
   },
 } as const;

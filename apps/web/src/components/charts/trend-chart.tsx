@@ -139,6 +139,15 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
   const times = data.map((d) => d[0]);
   if (props.now !== undefined) times.push(props.now);
   if (props.projection) times.push(toMs(props.projection.to.t));
+  // Unusable captures are drawn but do not set the scale: one clipped capture reading
+  // thousands of mm/s would flatten the trend. They are cut at the top of the chart.
+  let usableMax = 0;
+  for (const d of data) if (d[2] !== 'unusable') usableMax = Math.max(usableMax, d[1]);
+  for (const l of props.limits ?? []) usableMax = Math.max(usableMax, l.value);
+  for (const m of props.markerSeries ?? [])
+    for (const p of m.points) usableMax = Math.max(usableMax, p.v);
+  const hasUnusable = data.some((d) => d[2] === 'unusable');
+  const yMax = hasUnusable && usableMax > 0 ? usableMax * 1.15 : undefined;
   const xMin = props.range?.from !== undefined ? toMs(props.range.from) : Math.min(...times);
   const xMax = props.range?.to !== undefined ? toMs(props.range.to) : Math.max(...times);
 
@@ -157,7 +166,8 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
       name: text,
       label: {
         formatter: text,
-        position: 'insideEndTop' as const,
+        position: (l.level === 'alert' ? 'insideStartTop' : 'insideEndTop') as
+          'insideStartTop' | 'insideEndTop',
         color: colour,
         fontFamily: monoFont,
         fontSize: 11,
@@ -323,6 +333,7 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
       type: 'value',
       name: unit,
       scale: false,
+      max: yMax,
       ...ax,
       axisLabel: { ...ax.axisLabel, formatter: (v: number) => formatValue(v) },
     },

@@ -1,4 +1,6 @@
+import { Link } from 'react-router-dom';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
+import { paths } from '../../../config/paths.ts';
 import { cn } from '../../../lib/cn.ts';
 import { formatAge, formatDateTime, formatInteger } from '../../../lib/format.ts';
 import type { FleetRow } from '../utils/build-fleet-rows.ts';
@@ -82,12 +84,24 @@ function NameCell({ row }: { row: FleetRow }) {
     case 'machine':
       return (
         <>
-          <span className="truncate text-[13.5px] font-medium">{row.machine.name}</span>
+          <Link
+            to={paths.app.machine.getHref(row.machine.id)}
+            className="truncate text-[13.5px] font-medium underline-offset-2 hover:underline"
+          >
+            {row.machine.name}
+          </Link>
           <Count n={row.machine.points.length} noun="point" className="hidden lg:inline" />
         </>
       );
     case 'point':
-      return <span className="truncate text-[13px] text-ink">{row.point.name}</span>;
+      return (
+        <Link
+          to={paths.app.point.getHref(row.point.id)}
+          className="truncate text-[13px] text-ink underline-offset-2 hover:underline"
+        >
+          {row.point.name}
+        </Link>
+      );
   }
 }
 

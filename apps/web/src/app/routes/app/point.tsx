@@ -1,0 +1,186 @@
+import { useState } from 'react';
+import { Link, useParams } from 'react-router-dom';
+import type { PointDetail } from '@turnstone/contracts/points';
+import { formatValue } from '../../../components/charts/chart-theme.ts';
+import { EmptyState } from '../../../components/ui/empty-state.tsx';
+import { ErrorState } from '../../../components/ui/error-state.tsx';
+import { PageHeader } from '../../../components/ui/page-header.tsx';
+import { LoadingPanel } from '../../../components/ui/spinner.tsx';
+import { StatusMark } from '../../../components/ui/status-mark.tsx';
+import { paths } from '../../../config/paths.ts';
+import { cn } from '../../../lib/cn.ts';
+import { formatDateTime } from '../../../lib/format.ts';
+import { useAnalyses } from '../../../features/points/api/get-analyses.ts';
+import { usePoint } from '../../../features/points/api/get-point.ts';
+import { SpectrumPanel } from '../../../features/points/components/spectrum-panel.tsx';
+import { WaterfallPanel } from '../../../features/points/components/waterfall-panel.tsx';
+import { WaveformPanel } from '../../../features/points/components/waveform-panel.tsx';
+import { TrendPanel } from '../../../features/trends/components/trend-panel.tsx';
+
+const tabs = [
+  { key: 'trend', label: 'Trend' },
+  { key: 'spectrum', label: 'Spectrum' },
+  { key: 'waveform', label: 'Waveform' },
+  { key: 'waterfall', label: 'Waterfall' },
+] as const;
+type Tab = (typeof tabs)[number]['key'];
+
+const verdictText = { ok: 'OK', suspect: 'Suspect', unusable: 'Unusable' } as const;
+
+function LatestValues({ point }: { point: PointDetail }) {
+  const l = point.latest;
+  if (!l) return null;
+  const items: [string, string][] = [
+    ['Velocity RMS', `${formatValue(l.overall.velocityRmsMmS)} mm/s`],
+    ['Accel RMS', `${formatValue(l.overall.accelRmsG)} g`],
+    ['Accel peak', `${formatValue(l.overall.accelPeakG)} g`],
+    ['Displ. pk-pk', `${formatValue(l.overall.displacementPkPkUm)} µm`],
+    ['Crest factor', formatValue(l.overall.crestFactor)],
+    ['ISO 20816', l.isoZone ? `Zone ${l.isoZone}` : '—'],
+    ['Speed', l.speedRpm ? `${formatValue(l.speedRpm, 4)} r/min (${l.speedSource})` : 'unknown'],
+    ['Quality', verdictText[l.verdict]],
+  ];
+  return (
+    <dl className="flex flex-wrap gap-x-7 gap-y-2 rounded-lg border border-line bg-surface px-4 py-3">
+      {items.map(([k, v]) => (
+        <div key={k}>
+          <dt className="text-xs text-ink-muted">{k}</dt>
+          <dd className="font-mono text-[13.5px] text-ink">{v}</dd>
+        </div>
+      ))}
+      <div>
+        <dt className="text-xs text-ink-muted">Latest snapshot</dt>
+        <dd className="font-mono text-[13.5px] text-ink">{formatDateTime(l.takenAt)}</dd>
+      </div>
+    </dl>
+  );
+}
+
+export function PointRoute() {
+  const { pointId } = useParams();
+  const id = Number(pointId);
+  const point = usePoint(id);
+  const analyses = useAnalyses({ pointId: id, limit: 200 });
+  const [tab, setTab] = useState<Tab>('trend');
+  const [picked, setPicked] = useState<number | null>(null);
+
+  if (!Number.isInteger(id) || id <= 0)
+    return <EmptyState title="No such point" description="The address does not name a point." />;
+  if (point.isPending) return <LoadingPanel label="Loading point…" />;
+  if (point.isError)
+    return (
+      <div className="p-6">
+        <ErrorState
+          title="Could not load the point"
+          error={point.error}
+          onRetry={() => void point.refetch()}
+          action={
+            <Link className="text-sm text-accent underline" to={paths.app.fleet.getHref()}>
+              Back to the fleet
+            </Link>
+          }
+        />
+      </div>
+    );
+  const p = point.data;
+  const list = analyses.data?.items ?? [];
+  const selectedId = picked ?? list[0]?.id ?? null;
+
+  const snapshotBody = () => {
+    if (analyses.isPending) return <LoadingPanel label="Loading snapshots…" />;
+    if (analyses.isError)
+      return (
+        <ErrorState
+          title="Could not load the snapshots"
+          error={analyses.error}
+          onRetry={() => void analyses.refetch()}
+        />
+      );
+    if (list.length === 0)
+      return (
+        <EmptyState
+          title="No snapshots yet"
+          description="This point has no analysed capture yet."
+        />
+      );
+    return null;
+  };
+
+  return (
+    <div className="flex min-h-0 flex-1 flex-col gap-4 overflow-y-auto p-4 sm:px-6 sm:py-5">
+      <title>{`${p.tag} · Turnstone`}</title>
+      <nav aria-label="Breadcrumb" className="text-xs text-ink-muted">
+        <Link to={paths.app.fleet.getHref()} className="hover:underline">
+          Fleet
+        </Link>{' '}
+        / {p.machine.siteName} / {p.machine.areaName} /{' '}
+        <Link to={paths.app.machine.getHref(p.machine.id)} className="hover:underline">
+          {p.machine.name}
+        </Link>
+      </nav>
+      <PageHeader
+        title={p.name}
+        description={
+          <span className="inline-flex flex-wrap items-center gap-3">
+            <span className="font-mono text-ink">{p.tag}</span>
+            <StatusMark status={p.status} />
+            <span>
+              {p.location}, {p.direction}
+              {p.bearing ? ` · bearing ${p.bearing}` : ''}
+            </span>
+            <span className="font-mono">
+              {p.sensitivityMvPerG} mV/g · Fmax {p.fmaxHz} Hz · {p.lines} lines
+            </span>
+          </span>
+        }
+      />
+      <LatestValues point={p} />
+      <div role="tablist" aria-label="Analysis views" className="flex gap-1 border-b border-line">
+        {tabs.map((t) => (
+          <button
+            key={t.key}
+            id={`tab-${t.key}`}
+            role="tab"
+            type="button"
+            aria-selected={tab === t.key}
+            aria-controls={`panel-${t.key}`}
+            onClick={() => setTab(t.key)}
+            className={cn(
+              '-mb-px border-b-2 px-3 py-2 text-sm font-medium',
+              tab === t.key
+                ? 'border-accent text-ink'
+                : 'border-transparent text-ink-muted hover:text-ink',
+            )}
+          >
+            {t.label}
+          </button>
+        ))}
+      </div>
+      <div role="tabpanel" id={`panel-${tab}`} aria-labelledby={`tab-${tab}`}>
+        {tab === 'trend' &&
+          (p.bands.length === 0 ? (
+            <EmptyState
+              title="No bands yet"
+              description="The point gets its limit set with its first analysed snapshot."
+            />
+          ) : (
+            <TrendPanel pointId={p.id} bands={p.bands} />
+          ))}
+        {tab === 'spectrum' &&
+          (snapshotBody() ?? (
+            <SpectrumPanel
+              bearing={p.bearing}
+              analyses={list}
+              selectedId={selectedId}
+              onSelect={setPicked}
+            />
+          ))}
+        {tab === 'waveform' &&
+          (snapshotBody() ?? (
+            <WaveformPanel analyses={list} selectedId={selectedId} onSelect={setPicked} />
+          ))}
+        {tab === 'waterfall' && <WaterfallPanel pointId={p.id} />}
+      </div>
+    </div>
+  );
+}

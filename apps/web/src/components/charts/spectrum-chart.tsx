@@ -1,0 +1,203 @@
+/**
+ * A spectrum on a Hz or order axis, with fault-frequency markers (1×, harmonics, bearing,
+ * gear mesh, blade pass), a harmonic cursor (click the chart to put the fundamental there),
+ * a second spectrum to compare and zoom (wheel/drag and a slider).
+ */
+import { useMemo } from 'react';
+import { axisStyle, chartColours, formatValue, monoFont, sansFont } from './chart-theme.ts';
+import type { ChartOption, LineSeriesOption } from './echarts.ts';
+import { useEChart } from './use-echart.ts';
+
+export interface SpectrumTrace {
+  /** Legend and tooltip name, e.g. the capture time. */
+  label: string;
+  /** Line k sits at k · step on the x axis. */
+  values: Float32Array;
+  step: number;
+  /** The compared trace is drawn thinner, in a second colour. */
+  role: 'main' | 'compare';
+}
+
+export interface SpectrumMarker {
+  /** e.g. "1×", "Motor DE BPFO". */
+  name: string;
+  /** Position on the chart's x axis (Hz or orders). */
+  x: number;
+  kind: 'shaft' | 'bpfo' | 'bpfi' | 'bsf' | 'ftf' | 'gear-mesh' | 'blade-pass';
+}
+
+export interface SpectrumChartProps {
+  traces: readonly SpectrumTrace[];
+  axis: 'hz' | 'order';
+  /** Amplitude unit and scale, e.g. "g RMS". */
+  yName: string;
+  unit: string;
+  markers?: readonly SpectrumMarker[];
+  /** Harmonic cursor: lines at k · fundamental, k = 1 … count. */
+  cursor?: { fundamental: number; count: number } | null;
+  onPick?: (x: number) => void;
+  height?: number;
+  ariaLabel: string;
+}
+
+const markerColour: Record<SpectrumMarker['kind'], string> = {
+  shaft: chartColours.ink,
+  bpfo: chartColours.danger,
+  bpfi: chartColours.alert,
+  bsf: chartColours.quality,
+  ftf: chartColours.ok,
+  'gear-mesh': chartColours.compare,
+  'blade-pass': chartColours.compare,
+};
+const markerType: Record<SpectrumMarker['kind'], 'solid' | 'dashed' | 'dotted'> = {
+  shaft: 'solid',
+  bpfo: 'dashed',
+  bpfi: 'dashed',
+  bsf: 'dotted',
+  ftf: 'dotted',
+  'gear-mesh': 'dashed',
+  'blade-pass': 'dashed',
+};
+
+export function buildSpectrumOption(p: SpectrumChartProps): ChartOption {
+  const xName = p.axis === 'hz' ? 'Hz' : 'order';
+  let xMax = 0;
+  const series: LineSeriesOption[] = p.traces.map((t) => {
+    const data: [number, number][] = new Array(t.values.length);
+    for (let k = 0; k < t.values.length; k++) data[k] = [k * t.step, t.values[k]!];
+    xMax = Math.max(xMax, (t.values.length - 1) * t.step);
+    return {
+      name: t.label,
+      type: 'line',
+      data,
+      showSymbol: false,
+      sampling: 'max',
+      lineStyle: {
+        color: t.role === 'main' ? chartColours.accent : chartColours.compare,
+        width: t.role === 'main' ? 1.3 : 1,
+        opacity: t.role === 'main' ? 1 : 0.85,
+      },
+      itemStyle: { color: t.role === 'main' ? chartColours.accent : chartColours.compare },
+      z: t.role === 'main' ? 3 : 2,
+    };
+  });
+  const markLines = (p.markers ?? [])
+    .filter((m) => m.x > 0 && m.x <= xMax)
+    .map((m) => ({
+      xAxis: m.x,
+      name: m.name,
+      label: {
+        formatter: m.name,
+        position: 'insideEndTop' as 'insideEndTop' | 'end',
+        rotate: 90,
+        color: markerColour[m.kind],
+        fontFamily: sansFont,
+        fontSize: 10,
+      },
+      lineStyle: { color: markerColour[m.kind], type: markerType[m.kind], width: 1, opacity: 0.8 },
+    }));
+  const cursorLines: typeof markLines = [];
+  if (p.cursor && p.cursor.fundamental > 0) {
+    for (let k = 1; k <= p.cursor.count; k++) {
+      const x = k * p.cursor.fundamental;
+      if (x > xMax) break;
+      cursorLines.push({
+        xAxis: x,
+        name: `${k}× cursor`,
+        label: {
+          formatter: `${k}×`,
+          position: 'end' as const,
+          rotate: 0,
+          color: chartColours.accent,
+          fontFamily: monoFont,
+          fontSize: 10,
+        },
+        lineStyle: { color: chartColours.accent, type: 'dotted', width: 1.2, opacity: 1 },
+      });
+    }
+  }
+  const first = series[0];
+  if (first) {
+    first.markLine = {
+      symbol: ['none', 'none'],
+      silent: true,
+      animation: false,
+      data: [...markLines, ...cursorLines],
+    };
+  }
+  const ax = axisStyle();
+  return {
+    animation: false,
+    grid: { left: 64, right: 28, top: 28, bottom: 64 },
+    legend:
+      p.traces.length > 1
+        ? {
+            top: 0,
+            right: 24,
+            textStyle: { fontFamily: monoFont, fontSize: 11, color: chartColours.inkMuted },
+          }
+        : undefined,
+    tooltip: {
+      trigger: 'axis',
+      textStyle: { fontFamily: monoFont, fontSize: 12 },
+      valueFormatter: (v) => (typeof v === 'number' ? `${formatValue(v, 4)} ${p.unit}` : String(v)),
+    },
+    xAxis: {
+      type: 'value',
+      name: xName,
+      nameLocation: 'end',
+      min: 0,
+      max: xMax,
+      ...ax,
+      splitLine: { show: false },
+      axisPointer: {
+        label: { formatter: (v) => `${formatValue(Number(v.value), 4)} ${xName}` },
+      },
+    },
+    yAxis: {
+      type: 'value',
+      name: p.yName,
+      ...ax,
+      axisLabel: { ...ax.axisLabel, formatter: (v: number) => formatValue(v) },
+    },
+    dataZoom: [
+      { type: 'inside', xAxisIndex: 0, filterMode: 'none' },
+      {
+        type: 'slider',
+        xAxisIndex: 0,
+        height: 20,
+        bottom: 12,
+        filterMode: 'none',
+        textStyle: { fontFamily: monoFont, fontSize: 10, color: chartColours.inkMuted },
+      },
+    ],
+    series,
+  };
+}
+
+export function SpectrumChart(props: SpectrumChartProps) {
+  const { traces, axis, yName, unit, markers, cursor, onPick } = props;
+  const option = useMemo(
+    () => buildSpectrumOption({ traces, axis, yName, unit, markers, cursor, ariaLabel: '' }),
+    [traces, axis, yName, unit, markers, cursor],
+  );
+  const { ref } = useEChart(option, (chart) => {
+    const zr = chart.getZr();
+    const onClick = (e: { offsetX: number; offsetY: number }) => {
+      if (!chart.containPixel({ gridIndex: 0 }, [e.offsetX, e.offsetY])) return;
+      const [x] = chart.convertFromPixel({ gridIndex: 0 }, [e.offsetX, e.offsetY]) as number[];
+      if (x !== undefined && x > 0) onPick?.(x);
+    };
+    zr.on('click', onClick);
+    return () => zr.off('click', onClick);
+  });
+  return (
+    <div
+      ref={ref}
+      role="img"
+      aria-label={props.ariaLabel}
+      className="w-full cursor-crosshair"
+      style={{ height: props.height ?? 360 }}
+    />
+  );
+}

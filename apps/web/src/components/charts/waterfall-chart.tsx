@@ -1,0 +1,110 @@
+/**
+ * A waterfall of recent spectra: each spectrum is drawn as a line shifted up and to the
+ * right by its age, newest in front, filled with the paper colour so nearer traces hide
+ * the ones behind (a 3-D look on a 2-D canvas; no WebGL).
+ */
+import { useMemo } from 'react';
+import { axisStyle, chartColours, monoFont } from './chart-theme.ts';
+import type { ChartOption, LineSeriesOption } from './echarts.ts';
+import { useEChart } from './use-echart.ts';
+
+export interface WaterfallTrace {
+  label: string;
+  values: Float32Array;
+  step: number;
+}
+
+export interface WaterfallChartProps {
+  /** Newest first. */
+  traces: readonly WaterfallTrace[];
+  axis: 'hz' | 'order';
+  unit: string;
+  height?: number;
+  ariaLabel: string;
+}
+
+export function buildWaterfallOption(p: WaterfallChartProps): ChartOption {
+  let xMax = 0;
+  const maxima: number[] = [];
+  for (const t of p.traces) {
+    xMax = Math.max(xMax, (t.values.length - 1) * t.step);
+    let m = 0;
+    for (const v of t.values) m = Math.max(m, v);
+    maxima.push(m);
+  }
+  const n = p.traces.length;
+  // Scale to the median trace, so one extreme capture (e.g. clipped) does not flatten the
+  // rest; its peaks are cut at the top of the chart.
+  const sorted = [...maxima].sort((a, b) => a - b);
+  const yRef = sorted[Math.floor(sorted.length / 2)] || 1;
+  const dy = (yRef * 0.5) / Math.max(1, Math.sqrt(n) / 2);
+  const yTop = (n - 1) * dy + yRef * 1.4;
+  const dx = (xMax * 0.25) / Math.max(1, n - 1);
+  const series: LineSeriesOption[] = [];
+  // Oldest drawn first (at the back).
+  for (let i = n - 1; i >= 0; i--) {
+    const t = p.traces[i]!;
+    const data: [number, number][] = new Array(t.values.length);
+    for (let k = 0; k < t.values.length; k++)
+      data[k] = [k * t.step + i * dx, t.values[k]! + i * dy];
+    const front = i === 0;
+    series.push({
+      name: t.label,
+      type: 'line',
+      data,
+      showSymbol: false,
+      sampling: 'max',
+      silent: true,
+      lineStyle: {
+        color: front ? chartColours.accent : chartColours.ink,
+        width: front ? 1.3 : 0.8,
+        opacity: front ? 1 : 0.35 + 0.5 * (1 - i / n),
+      },
+      areaStyle: { color: chartColours.surface, opacity: 1, origin: i * dy },
+      z: n - i,
+    });
+  }
+  const ax = axisStyle();
+  return {
+    animation: false,
+    grid: { left: 56, right: 28, top: 20, bottom: 36 },
+    xAxis: {
+      type: 'value',
+      name: p.axis === 'hz' ? 'Hz (front trace)' : 'order (front trace)',
+      min: 0,
+      max: xMax + (n - 1) * dx,
+      ...ax,
+      axisLabel: { ...ax.axisLabel, hideOverlap: true, showMaxLabel: false },
+      splitLine: { show: false },
+    },
+    yAxis: {
+      type: 'value',
+      name: `${p.unit} (offset by age)`,
+      min: 0,
+      max: yTop,
+      ...ax,
+      axisLabel: { show: false },
+      splitLine: { show: false },
+    },
+    textStyle: { fontFamily: monoFont },
+    series,
+  };
+}
+
+export function WaterfallChart(props: WaterfallChartProps) {
+  const { traces, axis, unit } = props;
+  const option = useMemo(
+    () => buildWaterfallOption({ traces, axis, unit, ariaLabel: '' }),
+    [traces, axis, unit],
+  );
+  const { ref } = useEChart(option);
+  return (
+    <div
+      ref={ref}
+      role="img"
+      aria-label={props.ariaLabel}
+      className="w-full"
+      style={{ height: props.height ?? 420 }}
+    />
+  );
+}

@@ -1,0 +1,102 @@
+import type { MachineDetail } from '@turnstone/contracts/points';
+import { Card } from '../../../components/ui/card.tsx';
+
+const typeLabels: Record<MachineDetail['type'], string> = {
+  motor: 'Motor',
+  pump: 'Pump',
+  fan: 'Fan',
+  blower: 'Blower',
+  gearbox: 'Gearbox',
+  compressor: 'Compressor',
+};
+
+const fix = (v: number, d: number) => v.toFixed(d);
+
+/** Machine data, components and fault frequencies, for the engineer. */
+export function MachineData({ machine }: { machine: MachineDetail }) {
+  const m = machine;
+  const rows: [string, string][] = [
+    ['Type', typeLabels[m.type]],
+    ['Nominal speed', `${fix(m.nominalRpm, 0)} r/min (${fix(m.nominalRpm / 60, 2)} Hz)`],
+    ['ISO 20816-3 group', `Group ${m.isoGroup}, ${m.foundation} foundation`],
+    ['Criticality', m.criticality],
+    ['Power', m.powerKw === null ? '—' : `${fix(m.powerKw, 0)} kW`],
+  ];
+  if (m.bladeCount) rows.push(['Blades', String(m.bladeCount)]);
+  if (m.vaneCount) rows.push(['Vanes', String(m.vaneCount)]);
+  return (
+    <div className="grid gap-4 lg:grid-cols-[22rem_minmax(0,1fr)]">
+      <Card className="p-4">
+        <h2 className="mb-2 text-sm font-semibold text-ink">Machine data</h2>
+        <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1.5 text-sm">
+          {rows.map(([k, v]) => (
+            <div key={k} className="contents">
+              <dt className="text-ink-muted">{k}</dt>
+              <dd className="font-mono text-[13px] text-ink">{v}</dd>
+            </div>
+          ))}
+        </dl>
+        {m.bearings.length > 0 && (
+          <>
+            <h3 className="mt-4 mb-1 text-sm font-semibold text-ink">Bearings</h3>
+            <ul className="flex flex-col gap-1 text-[13px]">
+              {m.bearings.map((b) => (
+                <li key={b.id}>
+                  <span className="text-ink">{b.name}</span>{' '}
+                  <span className="font-mono text-ink-muted">
+                    {b.designation ?? ''} n={b.rollingElements} d={fix(b.ballDiameterMm, 2)}&nbsp;mm
+                    D=
+                    {fix(b.pitchDiameterMm, 1)}&nbsp;mm φ={fix(b.contactAngleDeg, 1)}°
+                  </span>
+                </li>
+              ))}
+            </ul>
+          </>
+        )}
+        {m.gears.length > 0 && (
+          <>
+            <h3 className="mt-4 mb-1 text-sm font-semibold text-ink">Gears</h3>
+            <ul className="flex flex-col gap-1 text-[13px]">
+              {m.gears.map((g) => (
+                <li key={g.id}>
+                  <span className="text-ink">{g.name}</span>{' '}
+                  <span className="font-mono text-ink-muted">
+                    {g.teeth}/{g.mateTeeth} teeth, ×{fix(g.speedRatio, 3)}
+                  </span>
+                </li>
+              ))}
+            </ul>
+          </>
+        )}
+      </Card>
+      <Card className="overflow-x-auto p-4">
+        <h2 className="mb-2 text-sm font-semibold text-ink">
+          Fault frequencies{' '}
+          <span className="font-normal text-ink-muted">
+            (at nominal speed; real bearings run 1–2 % lower)
+          </span>
+        </h2>
+        <table className="w-full text-left text-sm">
+          <thead className="text-xs text-ink-muted">
+            <tr className="border-b border-line">
+              <th className="py-1 pr-4 font-medium">Name</th>
+              <th className="py-1 pr-4 text-right font-medium">Order</th>
+              <th className="py-1 pr-4 text-right font-medium">Hz</th>
+              <th className="py-1 text-right font-medium">CPM</th>
+            </tr>
+          </thead>
+          <tbody className="font-mono text-[13px]">
+            {m.faultFrequencies.map((f) => (
+              <tr key={f.name} className="border-b border-line/60">
+                <td className="py-1 pr-4 font-sans text-ink">{f.name}</td>
+                <td className="py-1 pr-4 text-right">{fix(f.order, 3)}×</td>
+                <td className="py-1 pr-4 text-right">{f.hz === null ? '—' : fix(f.hz, 2)}</td>
+                <td className="py-1 text-right">{f.hz === null ? '—' : fix(f.hz * 60, 0)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </Card>
+    </div>
+  );
+}

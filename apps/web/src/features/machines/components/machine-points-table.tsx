@@ -1,0 +1,109 @@
+import { Link } from 'react-router-dom';
+import type { MachineDetail } from '@turnstone/contracts/points';
+import { Sparkline } from '../../../components/charts/sparkline.tsx';
+import { formatValue } from '../../../components/charts/chart-theme.ts';
+import { StatusMark } from '../../../components/ui/status-mark.tsx';
+import { paths } from '../../../config/paths.ts';
+import { formatAge, formatDateTime } from '../../../lib/format.ts';
+
+const verdictText = { ok: 'OK', suspect: 'Suspect', unusable: 'Unusable' } as const;
+const speedSourceText = {
+  tach: 'tach',
+  rpm: 'gateway',
+  estimated: 'estimated',
+  none: 'unknown',
+} as const;
+
+const num = (v: number | undefined | null, unit: string, digits = 3) =>
+  v === undefined || v === null || !Number.isFinite(v)
+    ? '—'
+    : `${formatValue(v, digits)}\u00a0${unit}`;
+
+/** The machine's points with their latest overall values, zone, speed, quality and small trend. */
+export function MachinePointsTable({ machine, now }: { machine: MachineDetail; now: number }) {
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full min-w-[68rem] text-left text-sm">
+        <thead className="text-xs text-ink-muted">
+          <tr className="border-b border-line">
+            <th className="px-3 py-2 font-medium">Point</th>
+            <th className="px-3 py-2 font-medium">Status</th>
+            <th className="px-3 py-2 text-right font-medium">Velocity RMS</th>
+            <th className="px-3 py-2 text-right font-medium">Accel RMS</th>
+            <th className="px-3 py-2 text-right font-medium">Displ. pk-pk</th>
+            <th className="px-3 py-2 font-medium">ISO 20816</th>
+            <th className="px-3 py-2 text-right font-medium">Speed</th>
+            <th className="px-3 py-2 font-medium">Quality</th>
+            <th className="px-3 py-2 font-medium">Velocity, last 50</th>
+            <th className="px-3 py-2 text-right font-medium">Last snapshot</th>
+          </tr>
+        </thead>
+        <tbody>
+          {machine.points.map((p) => {
+            const l = p.latest;
+            return (
+              <tr key={p.id} className="border-b border-line/60 align-middle hover:bg-sunken/40">
+                <td className="px-3 py-2">
+                  <Link
+                    to={paths.app.point.getHref(p.id)}
+                    className="font-medium text-accent underline-offset-2 hover:underline"
+                  >
+                    {p.name}
+                  </Link>
+                  <div className="font-mono text-xs text-ink-muted">
+                    {p.tag} · {p.direction}
+                  </div>
+                </td>
+                <td className="px-3 py-2">
+                  <StatusMark status={p.status} />
+                </td>
+                <td className="px-3 py-2 text-right font-mono text-[13px]">
+                  {num(l?.overall.velocityRmsMmS, 'mm/s')}
+                </td>
+                <td className="px-3 py-2 text-right font-mono text-[13px]">
+                  {num(l?.overall.accelRmsG, 'g')}
+                </td>
+                <td className="px-3 py-2 text-right font-mono text-[13px]">
+                  {num(l?.overall.displacementPkPkUm, 'µm')}
+                </td>
+                <td className="px-3 py-2 text-[13px]">{l?.isoZone ? `Zone ${l.isoZone}` : '—'}</td>
+                <td className="px-3 py-2 text-right font-mono text-[13px]">
+                  {l?.speedRpm ? (
+                    <>
+                      {formatValue(l.speedRpm, 4)}&nbsp;r/min
+                      <div className="font-sans text-xs text-ink-faint">
+                        {speedSourceText[l.speedSource]}
+                      </div>
+                    </>
+                  ) : (
+                    '—'
+                  )}
+                </td>
+                <td className="px-3 py-2 text-[13px]">{l ? verdictText[l.verdict] : '—'}</td>
+                <td className="px-3 py-2">
+                  <Sparkline
+                    values={p.recentVelocity.map((r) => r.v)}
+                    label={`Overall velocity of ${p.name}, last ${p.recentVelocity.length} values`}
+                  />
+                </td>
+                <td className="px-3 py-2 text-right">
+                  {l ? (
+                    <time
+                      dateTime={l.takenAt}
+                      title={formatDateTime(l.takenAt)}
+                      className="font-mono text-[12.5px] text-ink-muted"
+                    >
+                      {formatAge(l.takenAt, now)}
+                    </time>
+                  ) : (
+                    <span className="text-xs text-ink-faint">never</span>
+                  )}
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+    </div>
+  );
+}

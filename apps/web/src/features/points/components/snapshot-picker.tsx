@@ -1,0 +1,44 @@
+import type { AnalysisSummary } from '@turnstone/contracts/points';
+import { Field, Select } from '../../../components/ui/field.tsx';
+import { formatDateTime } from '../../../lib/format.ts';
+
+const verdictText = { ok: 'OK', suspect: 'suspect', unusable: 'unusable' } as const;
+
+export function snapshotLabel(a: AnalysisSummary): string {
+  return `${formatDateTime(a.takenAt)} · ${a.overall.velocityRmsMmS.toFixed(2)} mm/s · ${verdictText[a.verdict]}`;
+}
+
+/** Picks one capture of the point from its analyses list (newest first). */
+export function SnapshotPicker({
+  label,
+  analyses,
+  value,
+  onChange,
+  allowNone = false,
+}: {
+  label: string;
+  analyses: readonly AnalysisSummary[];
+  value: number | null;
+  onChange: (id: number | null) => void;
+  allowNone?: boolean;
+}) {
+  return (
+    <Field label={label} className="min-w-72">
+      {(c) => (
+        <Select
+          id={c.id}
+          value={value ?? ''}
+          onChange={(e) => onChange(e.target.value === '' ? null : Number(e.target.value))}
+          className="font-mono text-[13px]"
+        >
+          {allowNone && <option value="">None</option>}
+          {analyses.map((a) => (
+            <option key={a.id} value={a.id}>
+              {snapshotLabel(a)}
+            </option>
+          ))}
+        </Select>
+      )}
+    </Field>
+  );
+}

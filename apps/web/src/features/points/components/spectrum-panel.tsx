@@ -1,0 +1,320 @@
+import { useMemo, useState } from 'react';
+import type { AnalysisSummary, FaultFrequencyItem } from '@turnstone/contracts/points';
+import { formatValue } from '../../../components/charts/chart-theme.ts';
+import {
+  SpectrumChart,
+  type SpectrumMarker,
+  type SpectrumTrace,
+} from '../../../components/charts/spectrum-chart.tsx';
+import { Button } from '../../../components/ui/button.tsx';
+import { Card } from '../../../components/ui/card.tsx';
+import { EmptyState } from '../../../components/ui/empty-state.tsx';
+import { ErrorState } from '../../../components/ui/error-state.tsx';
+import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import { LoadingPanel } from '../../../components/ui/spinner.tsx';
+import { cn } from '../../../lib/cn.ts';
+import { formatDateTime } from '../../../lib/format.ts';
+import { useSpectrum } from '../api/get-spectrum.ts';
+import { SnapshotPicker } from './snapshot-picker.tsx';
+
+type Measure = 'acceleration' | 'velocity' | 'envelope';
+type Axis = 'hz' | 'order';
+
+const measureLabels: Record<Measure, string> = {
+  acceleration: 'Acceleration',
+  velocity: 'Velocity',
+  envelope: 'Envelope',
+};
+
+/** A row of toggle buttons (radio semantics), keyboard reachable. */
+export function Segmented<T extends string>({
+  label,
+  options,
+  value,
+  onChange,
+  disabled,
+}: {
+  label: string;
+  options: readonly { value: T; label: string; disabled?: boolean }[];
+  value: T;
+  onChange: (v: T) => void;
+  disabled?: boolean;
+}) {
+  return (
+    <div role="radiogroup" aria-label={label} className="flex flex-col gap-1.5">
+      <span className="text-sm font-medium text-ink">{label}</span>
+      <div className="inline-flex rounded-md border border-line-strong bg-surface p-0.5">
+        {options.map((o) => (
+          <button
+            key={o.value}
+            type="button"
+            role="radio"
+            aria-checked={value === o.value}
+            disabled={disabled || o.disabled}
+            onClick={() => onChange(o.value)}
+            className={cn(
+              'h-8 rounded px-3 text-[13px] font-medium disabled:cursor-not-allowed disabled:text-ink-faint',
+              value === o.value ? 'bg-accent text-white' : 'text-ink-muted hover:bg-sunken',
+            )}
+          >
+            {o.label}
+          </button>
+        ))}
+      </div>
+    </div>
+  );
+}
+
+/** The spectrum to fetch for a measure on an axis: acceleration in orders is the stored order spectrum. */
+function kindFor(measure: Measure, axis: Axis) {
+  return measure === 'acceleration' && axis === 'order' ? 'order' : measure;
+}
+
+function useTrace(
+  analysisId: number | null,
+  measure: Measure,
+  axis: Axis,
+  role: SpectrumTrace['role'],
+) {
+  const q = useSpectrum(analysisId, kindFor(measure, axis));
+  const trace = useMemo((): (SpectrumTrace & { shaftHz: number | null }) | null => {
+    const s = q.data;
+    if (!s) return null;
+    const shaftHz = s.speed.hz;
+    let step = s.axis === 'order' ? s.dOrder! : s.dfHz!;
+    // Velocity and envelope in orders: the Hz axis divided by the running speed.
+    if (axis === 'order' && s.axis === 'hz') {
+      if (!shaftHz) return null;
+      step = step / shaftHz;
+    }
+    return { label: formatDateTime(s.takenAt), values: s.decoded, step, role, shaftHz };
+  }, [q.data, axis, role]);
+  return { query: q, trace };
+}
+
+export function SpectrumPanel({
+  analyses,
+  selectedId,
+  onSelect,
+  bearing,
+}: {
+  /** The bearing the point sits on: its defect frequencies are marked by default. */
+  bearing: string | null;
+  analyses: readonly AnalysisSummary[];
+  selectedId: number | null;
+  onSelect: (id: number | null) => void;
+}) {
+  const [measure, setMeasure] = useState<Measure>('acceleration');
+  const [axis, setAxis] = useState<Axis>('hz');
+  const [compareId, setCompareId] = useState<number | null>(null);
+  const [markerSet, setMarkerSet] = useState<'point' | 'all' | 'none'>(bearing ? 'point' : 'all');
+  const [cursor, setCursor] = useState<number | null>(null);
+  const [cursorCount, setCursorCount] = useState(10);
+
+  const main = useTrace(selectedId, measure, axis, 'main');
+  const compare = useTrace(compareId, measure, axis, 'compare');
+  const selected = analyses.find((a) => a.id === selectedId) ?? null;
+  const ordersPossible = selected ? selected.speedRpm !== null : true;
+
+  const traces = useMemo(
+    () => [main.trace, compare.trace].filter((t): t is NonNullable<typeof t> => t !== null),
+    [main.trace, compare.trace],
+  );
+  const s = main.query.data;
+  const markers = useMemo((): SpectrumMarker[] => {
+    if (!s || markerSet === 'none') return [];
+    const bearingKinds = new Set(['bpfo', 'bpfi', 'bsf', 'ftf']);
+    return s.faultFrequencies
+      .filter(
+        (f) =>
+          markerSet === 'all' ||
+          !bearingKinds.has(f.kind) ||
+          (bearing !== null && f.name.startsWith(`${bearing} `)),
+      )
+      .map((f: FaultFrequencyItem) => ({
+        name: f.name,
+        kind: f.kind,
+        x: axis === 'order' ? f.order : (f.hz ?? NaN),
+      }))
+      .filter((m) => Number.isFinite(m.x));
+  }, [s, markerSet, axis, bearing]);
+  const cursorOpt = useMemo(
+    () => (cursor ? { fundamental: cursor, count: cursorCount } : null),
+    [cursor, cursorCount],
+  );
+
+  const axisName = axis === 'hz' ? 'Hz' : 'order';
+  const unit = s ? s.unit : '';
+  const yName = s ? `${unit} ${s.scale === 'rms' ? 'RMS' : 'peak'}` : '';
+
+  return (
+    <Card className="flex flex-col gap-4 p-4">
+      <div className="flex flex-wrap items-end gap-4">
+        <SnapshotPicker
+          label="Snapshot"
+          analyses={analyses}
+          value={selectedId}
+          onChange={onSelect}
+        />
+        <SnapshotPicker
+          label="Compare with"
+          analyses={analyses.filter((a) => a.id !== selectedId)}
+          value={compareId}
+          onChange={setCompareId}
+          allowNone
+        />
+      </div>
+      <div className="flex flex-wrap items-end gap-4">
+        <Segmented
+          label="Measure"
+          value={measure}
+          onChange={setMeasure}
+          options={(['acceleration', 'velocity', 'envelope'] as const).map((m) => ({
+            value: m,
+            label: measureLabels[m],
+          }))}
+        />
+        <Segmented
+          label="X axis"
+          value={axis}
+          onChange={(v) => {
+            setAxis(v);
+            setCursor(null);
+          }}
+          options={[
+            { value: 'hz', label: 'Hz' },
+            { value: 'order', label: 'Orders', disabled: !ordersPossible },
+          ]}
+        />
+        <Field label="Fault-frequency markers">
+          {(c) => (
+            <Select
+              id={c.id}
+              value={markerSet}
+              onChange={(e) => setMarkerSet(e.target.value as typeof markerSet)}
+            >
+              {bearing && <option value="point">Shaft, gears, blades, {bearing}</option>}
+              <option value="all">All components</option>
+              <option value="none">None</option>
+            </Select>
+          )}
+        </Field>
+        <div className="flex items-end gap-2">
+          <label className="flex flex-col gap-1.5 text-sm font-medium text-ink">
+            Harmonic cursor ({axisName})
+            <Input
+              type="number"
+              min={0}
+              step="any"
+              controlSize="sm"
+              className="w-28 font-mono"
+              value={cursor ?? ''}
+              placeholder="click chart"
+              onChange={(e) => setCursor(e.target.value === '' ? null : Number(e.target.value))}
+            />
+          </label>
+          <label className="flex flex-col gap-1.5 text-sm font-medium text-ink">
+            Harmonics
+            <Input
+              type="number"
+              min={1}
+              max={40}
+              controlSize="sm"
+              className="w-20 font-mono"
+              value={cursorCount}
+              onChange={(e) =>
+                setCursorCount(Math.max(1, Math.min(40, Number(e.target.value) || 1)))
+              }
+            />
+          </label>
+          {cursor !== null && (
+            <Button size="sm" variant="ghost" onClick={() => setCursor(null)}>
+              Clear cursor
+            </Button>
+          )}
+        </div>
+      </div>
+
+      {selectedId === null ? (
+        <EmptyState title="No snapshot chosen" description="Pick a snapshot above." />
+      ) : main.query.isPending ? (
+        <LoadingPanel label="Loading spectrum…" />
+      ) : main.query.isError ? (
+        <ErrorState
+          title="Could not load the spectrum"
+          error={main.query.error}
+          onRetry={() => void main.query.refetch()}
+        />
+      ) : !main.trace ? (
+        <EmptyState
+          title="No order axis for this capture"
+          description="Its running speed is not known, so the spectrum cannot be drawn in orders."
+        />
+      ) : (
+        <>
+          <SpectrumChart
+            traces={traces}
+            axis={axis}
+            yName={yName}
+            unit={unit}
+            markers={markers}
+            cursor={cursorOpt}
+            onPick={(x) => setCursor(Number(x.toPrecision(5)))}
+            ariaLabel={`${measureLabels[measure]} spectrum in ${yName} against ${axisName}${compare.trace ? ', with a second snapshot for comparison' : ''}`}
+          />
+          <p className="text-xs text-ink-muted">
+            Scroll or drag the slider to zoom. Click the chart to put the harmonic cursor&apos;s
+            fundamental there. Speed{' '}
+            <span className="font-mono text-ink">
+              {s?.speed.rpm ? `${formatValue(s.speed.rpm, 4)} r/min` : 'unknown'}
+            </span>
+            {s?.speed.source && s.speed.source !== 'none' ? ` (${s.speed.source})` : ''}.
+            {compareId !== null &&
+              compare.query.isError &&
+              ' The compared snapshot could not be loaded.'}
+          </p>
+          {s && <PeakTable peaks={s.peaks} unit={unit} axis={axis} />}
+        </>
+      )}
+    </Card>
+  );
+}
+
+function PeakTable({
+  peaks,
+  unit,
+  axis,
+}: {
+  peaks: { hz: number | null; order: number | null; amplitude: number }[];
+  unit: string;
+  axis: Axis;
+}) {
+  if (peaks.length === 0) return null;
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full max-w-xl text-left text-sm">
+        <caption className="mb-1 text-left text-sm font-semibold text-ink">Largest peaks</caption>
+        <thead className="text-xs text-ink-muted">
+          <tr className="border-b border-line">
+            <th className="py-1 pr-4 font-medium">#</th>
+            <th className="py-1 pr-4 text-right font-medium">Frequency (Hz)</th>
+            <th className="py-1 pr-4 text-right font-medium">Order</th>
+            <th className="py-1 text-right font-medium">Amplitude ({unit})</th>
+          </tr>
+        </thead>
+        <tbody className="font-mono text-[13px]">
+          {peaks.map((p, i) => (
+            <tr key={i} className={cn('border-b border-line/60', axis === 'order' && 'order-row')}>
+              <td className="py-1 pr-4 text-ink-muted">{i + 1}</td>
+              <td className="py-1 pr-4 text-right">{p.hz === null ? '—' : p.hz.toFixed(2)}</td>
+              <td className="py-1 pr-4 text-right">
+                {p.order === null ? '—' : p.order.toFixed(3)}
+              </td>
+              <td className="py-1 text-right">{formatValue(p.amplitude, 4)}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}

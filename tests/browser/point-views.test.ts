@@ -1,0 +1,149 @@
+import { readFileSync } from 'node:fs';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
+import { snapshotBody } from '../support/signals.ts';
+
+let srv: TestServer;
+let browser: Browser;
+let pointId: number;
+let machineId: number;
+let clippedAnalysisId: number;
+const TAG = 'MFP-P102-MDE-H';
+const DAY = 86_400_000;
+
+async function q(sqlText: string, params: unknown[] = []) {
+  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
+  return rows as Record<string, unknown>[];
+}
+
+beforeAll(async () => {
+  srv = await startTestServer();
+  browser = await launchBrowser();
+  const admin = await srv.signIn('admin');
+  const [site] = await q("SELECT id FROM sites WHERE code = 'MFP'");
+  const key = (
+    await (
+      await srv.call('POST', '/api/v1/gateways', {
+        cookie: admin,
+        body: { siteId: Number(site!.id), name: 'gw' },
+      })
+    ).json()
+  ).apiKey as string;
+  // Three weeks of daily captures with a slowly growing 1× (24.7 Hz at 1482 r/min) and a
+  // bearing-like tone at 212 Hz; the one in the middle clips (60 g peak on a ±50 g ADC range).
+  const now = Date.now();
+  for (let i = 0; i < 21; i++) {
+    const clipped = i === 10;
+    const body = snapshotBody(TAG, `bv-${i}`, {
+      n: 8192,
+      takenAt: new Date(now - (20 - i) * DAY - 3600_000).toISOString(),
+      tones: clipped
+        ? [{ hz: 24.7, peakG: 60 }]
+        : [
+            { hz: 24.7, peakG: 0.15 + 0.012 * i },
+            { hz: 212, peakG: 0.05 },
+          ],
+      speedRpm: 1482,
+      seed: i,
+    });
+    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+      body,
+      headers: { authorization: `Bearer ${key}` },
+    });
+    expect(res.status).toBe(201);
+  }
+  await createWorker(srv.ctx).drain();
+  const [p] = await q('SELECT id, machine_id FROM points WHERE tag = ?', [TAG]);
+  pointId = Number(p!.id);
+  machineId = Number(p!.machine_id);
+  const [a] = await q(
+    "SELECT a.id FROM analyses a JOIN snapshots s ON s.id = a.snapshot_id WHERE s.uid = 'bv-10'",
+  );
+  clippedAnalysisId = Number(a!.id);
+});
+afterAll(async () => {
+  await browser?.close();
+  await srv?.stop();
+});
+
+async function canvasIn(page: Page, label: RegExp) {
+  const chart = page.getByRole('img', { name: label });
+  await chart.waitFor();
+  await chart.locator('canvas').first().waitFor();
+  return chart;
+}
+
+describe('point analysis views in a real browser', () => {
+  it('the machine page lists its points with values, zone and small trends', async () => {
+    const page = await newPage(browser, 1280, 900);
+    await signInAs(page, srv.url, 'engineer');
+    await page.goto(`${srv.url}/machines/${machineId}`);
+    await page.getByRole('heading', { name: 'Fault frequencies' }).waitFor();
+    await page
+      .getByText(/Zone [ABCD]/)
+      .first()
+      .waitFor();
+    await page.getByRole('link', { name: 'Motor drive end, horizontal' }).waitFor();
+    await screenshot(page, 'machine-page');
+    await page.context().close();
+  });
+
+  it('opens a point from the fleet tree, sees trend and spectrum charts, switches to orders and downloads a CSV', async () => {
+    const page = await newPage(browser, 1280, 900);
+    await signInAs(page, srv.url, 'operator');
+    await page.goto(`${srv.url}/points/${pointId}`);
+    await page.getByRole('heading', { name: 'Motor drive end, horizontal' }).waitFor();
+    await canvasIn(page, /^Trend of /);
+    await page.getByText('Alert level', { exact: true }).waitFor();
+    await screenshot(page, 'point-trend');
+
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('link', { name: 'Download trend CSV' }).click(),
+    ]);
+    expect(download.suggestedFilename()).toMatch(/^MFP-P102-MDE-H_overall-velocity_.*\.csv$/);
+    const text = readFileSync((await download.path())!, 'utf8');
+    expect(text.split('\n')[0]).toBe('taken_at_utc,overall-velocity_mm_per_s,quality');
+    expect(text.trim().split('\n').length).toBe(22);
+
+    await page.getByRole('tab', { name: 'Spectrum' }).click();
+    await canvasIn(page, /^Acceleration spectrum in g RMS against Hz/);
+    await page.getByRole('table').getByText('Largest peaks').waitFor();
+    await screenshot(page, 'point-spectrum-hz');
+
+    await page.getByRole('radio', { name: 'Orders' }).click();
+    await canvasIn(page, /against order/);
+    await page.getByLabel('Compare with').selectOption({ index: 3 });
+    await canvasIn(page, /with a second snapshot/);
+    await screenshot(page, 'point-spectrum-orders');
+
+    await page.getByRole('tab', { name: 'Waveform' }).click();
+    await page.getByLabel('Snapshot', { exact: true }).selectOption(String(clippedAnalysisId));
+    await canvasIn(page, /clipped, with the ADC rails drawn/);
+    await page.getByText('Bits used').waitFor();
+    await screenshot(page, 'point-waveform-clipped');
+
+    await page.getByRole('tab', { name: 'Waterfall' }).click();
+    await canvasIn(page, /^Waterfall of the last/);
+    await screenshot(page, 'point-waterfall');
+    await page.context().close();
+  });
+
+  it('the fleet tree links a point to its page', async () => {
+    const page = await newPage(browser, 1280, 900);
+    await signInAs(page, srv.url, 'planner');
+    await page.getByRole('treeitem').first().waitFor();
+    const search = page
+      .getByRole('searchbox')
+      .or(page.getByPlaceholder(/search/i))
+      .first();
+    await search.fill(TAG);
+    await page.getByRole('link', { name: 'Motor drive end, horizontal' }).first().click();
+    await page.waitForURL(`**/points/${pointId}`);
+    await canvasIn(page, /^Trend of /);
+    await page.context().close();
+  });
+});
