@@ -6,7 +6,7 @@
  * - worker throughput (analysed snapshots/s in one process) for 8,192-sample snapshots.
  * Targets: ingest ≥ 1,000/s with p99 ≤ 250 ms and zero lost or doubled; worker ≥ 200/s.
  */
-import { spawnSync } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -20,21 +20,66 @@ const CONCURRENCY = Number(process.env.BENCH_INGEST_CONCURRENCY ?? 32);
 const WORKER_COUNT = Number(process.env.BENCH_WORKER_COUNT ?? 600);
 const dir = mkdtempSync(join(tmpdir(), 'turnstone-bench-'));
 const db = await startLocalMariadb({ dataDir: dir, database: 'bench' });
-const srv = await start({ DATABASE_URL: db.url, DATA_DIR: dir, PORT: '0', BUILD_WEB: 'false', LOG_LEVEL: 'error', RUN_WORKER: 'false', DEMO_HISTORY_WEEKS: '0', INGEST_MAX_PER_MIN: '10000000' });
+const srv = await start({
+  DATABASE_URL: db.url,
+  DATA_DIR: dir,
+  PORT: '0',
+  BUILD_WEB: 'false',
+  LOG_LEVEL: 'error',
+  RUN_WORKER: 'false',
+  DEMO_HISTORY_WEEKS: '0',
+  INGEST_MAX_PER_MIN: '10000000',
+});
 const pool = srv.ctx.dbHandle.pool;
 try {
-  const signIn = await fetch(`${srv.url}/api/v1/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'admin@turnstone.local', password: 'turnstone-demo' }) });
+  const signIn = await fetch(`${srv.url}/api/v1/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email: 'admin@turnstone.local', password: 'turnstone-demo' }),
+  });
   const cookie = (signIn.headers.get('set-cookie') ?? '').split(';')[0]!;
-  const gw = (await (await fetch(`${srv.url}/api/v1/gateways`, { method: 'POST', headers: { cookie, 'content-type': 'application/json' }, body: JSON.stringify({ siteId: 1, name: 'bench' }) })).json()) as { apiKey: string };
+  const gw = (await (
+    await fetch(`${srv.url}/api/v1/gateways`, {
+      method: 'POST',
+      headers: { cookie, 'content-type': 'application/json' },
+      body: JSON.stringify({ siteId: 1, name: 'bench' }),
+    })
+  ).json()) as { apiKey: string };
   const tsx = join(process.cwd(), 'node_modules', 'tsx', 'dist', 'cli.mjs');
-  const load = (prefix: string, count: number, samples: number) => {
-    const r = spawnSync(process.execPath, [tsx, 'tests/bench/ingest-load.ts', srv.url, gw.apiKey, String(count), String(CONCURRENCY), prefix, String(samples)], { encoding: 'utf8', maxBuffer: 1 << 24 });
-    if (r.status !== 0) throw new Error(`load generator failed: ${r.stderr}`);
-    return JSON.parse(r.stdout.trim().split('\n').pop()!) as { wallS: number; perS: number; p50: number; p99: number; statuses: Record<string, number>; retries: number };
-  };
-  load('warm', 300, 4096);
-  const ingest = load('ing', COUNT, 4096);
-  const [rows] = await pool.query("SELECT COUNT(*) AS n, COUNT(DISTINCT uid) AS u FROM snapshots WHERE uid LIKE 'ing-%'");
+  // The server runs in this process, so the load generator must not block it (no spawnSync).
+  const load = (prefix: string, count: number, samples: number) =>
+    new Promise<{
+      wallS: number;
+      perS: number;
+      p50: number;
+      p99: number;
+      statuses: Record<string, number>;
+      retries: number;
+    }>((resolve, reject) => {
+      const child = spawn(process.execPath, [
+        tsx,
+        'tests/bench/ingest-load.ts',
+        srv.url,
+        gw.apiKey,
+        String(count),
+        String(CONCURRENCY),
+        prefix,
+        String(samples),
+      ]);
+      let out = '';
+      let err = '';
+      child.stdout.on('data', (d) => (out += d));
+      child.stderr.on('data', (d) => (err += d));
+      child.on('exit', (code) => {
+        if (code !== 0) return reject(new Error(`load generator failed: ${err}`));
+        resolve(JSON.parse(out.trim().split('\n').pop()!));
+      });
+    });
+  await load('warm', 300, 4096);
+  const ingest = await load('ing', COUNT, 4096);
+  const [rows] = await pool.query(
+    "SELECT COUNT(*) AS n, COUNT(DISTINCT uid) AS u FROM snapshots WHERE uid LIKE 'ing-%'",
+  );
   const { n, u } = (rows as { n: number; u: number }[])[0]!;
   const lost = COUNT - Number(u);
   const doubled = Number(n) - Number(u);
@@ -46,10 +91,29 @@ try {
   const r0 = performance.now();
   for (let b = 0; b < COUNT / 100; b++) {
     await conn.beginTransaction();
-    const values = Array.from({ length: 100 }, (_, i) => [`raw-${b}-${i}`, s.point_id, 'gateway', s.taken_at, s.sample_rate_hz, s.sample_count, s.encoding, s.adc_bits, s.full_scale_v, s.sensitivity_mv_per_g, s.samples, s.content_hash, 'queued']);
-    const [res] = await conn.query('INSERT INTO snapshots (uid, point_id, source, taken_at, sample_rate_hz, sample_count, encoding, adc_bits, full_scale_v, sensitivity_mv_per_g, samples, content_hash, status) VALUES ?', [values]);
+    const values = Array.from({ length: 100 }, (_, i) => [
+      `raw-${b}-${i}`,
+      s.point_id,
+      'gateway',
+      s.taken_at,
+      s.sample_rate_hz,
+      s.sample_count,
+      s.encoding,
+      s.adc_bits,
+      s.full_scale_v,
+      s.sensitivity_mv_per_g,
+      s.samples,
+      s.content_hash,
+      'queued',
+    ]);
+    const [res] = await conn.query(
+      'INSERT INTO snapshots (uid, point_id, source, taken_at, sample_rate_hz, sample_count, encoding, adc_bits, full_scale_v, sensitivity_mv_per_g, samples, content_hash, status) VALUES ?',
+      [values],
+    );
     const first = (res as { insertId: number }).insertId;
-    await conn.query('INSERT INTO jobs (kind, snapshot_id, payload, state) VALUES ?', [values.map((_, i) => ['bench', first + i, '{}', 'done'])]);
+    await conn.query('INSERT INTO jobs (kind, snapshot_id, payload, state) VALUES ?', [
+      values.map((_, i) => ['bench', first + i, '{}', 'done']),
+    ]);
     await conn.commit();
   }
   const rawPerS = COUNT / ((performance.now() - r0) / 1000);
@@ -57,7 +121,7 @@ try {
 
   // Worker: analyse 8,192-sample snapshots with one in-process worker.
   await pool.query("UPDATE jobs SET state = 'done' WHERE state = 'queued'");
-  load('wrk', WORKER_COUNT, 8192);
+  await load('wrk', WORKER_COUNT, 8192);
   const worker = createWorker(srv.ctx, { owner: 'bench', batch: 16 });
   const w0 = performance.now();
   const done = await worker.drain();
@@ -67,12 +131,18 @@ try {
   console.log('| measure | value | target |');
   console.log('|---|---|---|');
   console.log(`| ingest snapshots/s | ${ingest.perS.toFixed(0)} | ≥ 1000 |`);
-  console.log(`| latency p50 / p99 (ms) | ${ingest.p50.toFixed(1)} / ${ingest.p99.toFixed(1)} | p99 ≤ 250 |`);
-  console.log(`| statuses | ${JSON.stringify(ingest.statuses)} (retries ${ingest.retries}) | all 201 |`);
+  console.log(
+    `| latency p50 / p99 (ms) | ${ingest.p50.toFixed(1)} / ${ingest.p99.toFixed(1)} | p99 ≤ 250 |`,
+  );
+  console.log(
+    `| statuses | ${JSON.stringify(ingest.statuses)} (retries ${ingest.retries}) | all 201 |`,
+  );
   console.log(`| lost / doubled | ${lost} / ${doubled} | 0 / 0 |`);
   console.log(`| raw mysql2 batch insert rows/s (reference) | ${rawPerS.toFixed(0)} | |`);
   console.log(`| ingest / raw batch insert | ${(ingest.perS / rawPerS).toFixed(3)} | |`);
-  console.log(`| worker analysed/s, 8,192 samples, 1 process | ${workerPerS.toFixed(0)} (${done} jobs) | ≥ 200 |`);
+  console.log(
+    `| worker analysed/s, 8,192 samples, 1 process | ${workerPerS.toFixed(0)} (${done} jobs) | ≥ 200 |`,
+  );
 } finally {
   await srv.stop();
   await db.stop();

@@ -13,7 +13,11 @@ const n = Number(samplesS ?? 4096);
 const template = snapshotBody('MFP-P101-MDE-H', 'x', { n, seed: 7 });
 const t0 = Date.parse('2026-06-01T00:00:00Z');
 const bodies = Array.from({ length: count }, (_, i) =>
-  JSON.stringify({ ...template, uid: `${prefix}-${i}`, takenAt: new Date(t0 + i * 1000).toISOString() }),
+  JSON.stringify({
+    ...template,
+    uid: `${prefix}-${i}`,
+    takenAt: new Date(t0 + i * 1000).toISOString(),
+  }),
 );
 
 const latencies: number[] = [];
@@ -47,5 +51,8 @@ await Promise.all(
 );
 const wallS = (performance.now() - wall0) / 1000;
 latencies.sort((a, b) => a - b);
-const q = (p: number) => latencies[Math.min(latencies.length - 1, Math.floor(p * latencies.length))]!;
-console.log(JSON.stringify({ wallS, perS: count / wallS, p50: q(0.5), p99: q(0.99), statuses, retries }));
+const q = (p: number) =>
+  latencies[Math.min(latencies.length - 1, Math.floor(p * latencies.length))]!;
+console.log(
+  JSON.stringify({ wallS, perS: count / wallS, p50: q(0.5), p99: q(0.99), statuses, retries }),
+);

@@ -32,6 +32,37 @@ export interface GatewayPrincipal {
 
 const lastTouched = new Map<number, number>();
 
+/**
+ * Short-lived caches on the hot path: a gateway looked up by key prefix, a point by tag.
+ * Revoking or rotating a key clears the gateway cache in this process at once; other API
+ * processes notice within GATEWAY_CACHE_MS.
+ */
+export const GATEWAY_CACHE_MS = 5_000;
+export const POINT_CACHE_MS = 30_000;
+type GatewayRow = Awaited<ReturnType<typeof repo.gatewayByPrefix>>;
+type PointRow = Awaited<ReturnType<typeof repo.pointByTag>>;
+const gatewayCache = new Map<string, { at: number; row: GatewayRow }>();
+const pointCache = new Map<string, { at: number; row: PointRow }>();
+
+export function forgetGatewayKeys(): void {
+  gatewayCache.clear();
+}
+
+async function cached<V>(
+  cache: Map<string, { at: number; row: V }>,
+  key: string,
+  ttlMs: number,
+  load: () => Promise<V>,
+): Promise<V> {
+  const hit = cache.get(key);
+  const now = Date.now();
+  if (hit && now - hit.at < ttlMs) return hit.row;
+  const row = await load();
+  if (cache.size > 10_000) cache.clear();
+  cache.set(key, { at: now, row });
+  return row;
+}
+
 /** The gateway behind `Authorization: Bearer <key>`, or a 401. */
 export async function authenticateGateway(
   ctx: AppContext,
@@ -46,7 +77,11 @@ export async function authenticateGateway(
     );
   const key = m[1]!;
   const prefix = prefixOf(key);
-  const gateway = prefix ? await repo.gatewayByPrefix(ctx.db, prefix) : undefined;
+  const gateway = prefix
+    ? await cached(gatewayCache, prefix, GATEWAY_CACHE_MS, () =>
+        repo.gatewayByPrefix(ctx.db, prefix),
+      )
+    : undefined;
   if (!gateway || !keyMatches(key, gateway.keyHash))
     throw new AppError('invalid_api_key', 'The API key is not valid.', 401);
   if (gateway.revokedAt)
@@ -107,12 +142,8 @@ export async function storeSnapshot(
   s: SnapshotToStore,
 ): Promise<{ status: 'created' | 'duplicate' | 'conflict'; snapshotId: number }> {
   const hash = contentHash(s);
-  const existing = await repo.snapshotByUid(ctx.db, s.uid);
-  if (existing)
-    return {
-      status: existing.contentHash === hash ? 'duplicate' : 'conflict',
-      snapshotId: existing.id,
-    };
+  // New uids are the common case: insert straight away, and read the stored row only when
+  // the unique index says the uid is taken (a repeat, or two deliveries racing).
   const compressed = await deflate(s.bytes);
   try {
     const snapshotId = await repo.insertSnapshotWithJob(ctx.db, {
@@ -137,7 +168,7 @@ export async function storeSnapshot(
     });
     return { status: 'created', snapshotId };
   } catch (err) {
-    // Two deliveries of one uid racing: the loser reads the winner's row.
+    // A repeat (or two deliveries of one uid racing): compare with the stored content.
     if (isDuplicateKey(err)) {
       const again = await repo.snapshotByUid(ctx.db, s.uid);
       if (again)
@@ -196,7 +227,9 @@ export async function ingestOne(
       { path: 'samples', message: (err as Error).message },
     ]);
   }
-  const point = await repo.pointByTag(ctx.db, s.pointTag);
+  const point = await cached(pointCache, s.pointTag, POINT_CACHE_MS, () =>
+    repo.pointByTag(ctx.db, s.pointTag),
+  );
   if (!point)
     return {
       uid: s.uid,
