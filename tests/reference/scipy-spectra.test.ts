@@ -5,7 +5,8 @@ import { maxRelativeError, runPython, scipyAvailable, testSignal } from './scipy
 
 const available = scipyAvailable();
 
-describe.skipIf(!available)('against scipy, live', () => {
+// Each case starts Python with scipy, hence the generous timeout.
+describe.skipIf(!available)('against scipy, live', { timeout: 60_000 }, () => {
   // scipy live: scipy.signal.welch(x, fs, window='hann', nperseg=8192, noverlap=4096)
   it.each(['density', 'spectrum'] as const)(
     'when 65,536 samples go through Welch (Hann, 8192, 50 %%, %s), every bin matches scipy within 1e-9',

@@ -21,6 +21,10 @@ export function voltsPerCount(bits: number, fullScaleV: number): number {
   return fullScaleV / 2 ** (bits - 1);
 }
 
+/**
+ * Throws a `RangeError` unless bits is an integer in 2 … 32 and fullScaleV a positive
+ * number. Source: definition of a bipolar N-bit converter (Kester, MT-001).
+ */
 export function checkAdc(bits: number, fullScaleV: number): void {
   if (!Number.isInteger(bits) || bits < 2 || bits > 32) {
     throw new RangeError(`ADC bits must be an integer in 2 … 32, got ${bits}`);

@@ -6,10 +6,13 @@ export const STANDARD_GRAVITY = 9.80665;
 /** Millimetres per inch, exact by definition (international yard and pound, 1959). */
 export const MM_PER_INCH = 25.4;
 
-/** Vibration amplitude units Turnstone reads and shows. */
+/** Acceleration units (vibration amplitude units Turnstone reads and shows follow). */
 export type AccelerationUnit = 'g' | 'm/s2';
+/** Velocity units. */
 export type VelocityUnit = 'mm/s' | 'in/s';
+/** Displacement units (µm is written 'um'). */
 export type DisplacementUnit = 'um' | 'mil';
+/** Any vibration amplitude unit. */
 export type VibrationUnit = AccelerationUnit | VelocityUnit | DisplacementUnit;
 
 /** The physical quantity of a unit. */

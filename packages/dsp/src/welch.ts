@@ -52,6 +52,33 @@ export interface WelchResult {
   enbwBins: number;
 }
 
+const windowSpectra = new Map<string, { lines: Int32Array; re: Float64Array; im: Float64Array }>();
+
+/** The lines (0 … ⌊n/2⌋) where the window's DFT is not negligible, with their values. */
+function windowSpectrum(
+  name: WindowName,
+  n: number,
+): { lines: Int32Array; re: Float64Array; im: Float64Array } {
+  const key = `${name}:${n}`;
+  let hit = windowSpectra.get(key);
+  if (!hit) {
+    const w = getWindow(name, n);
+    const out = new Float64Array(2 * n);
+    getFftPlan(n).realForward(out, Float64Array.from(w.values));
+    const lines: number[] = [];
+    for (let k = 0; k <= Math.floor(n / 2); k++) {
+      if (Math.hypot(out[2 * k]!, out[2 * k + 1]!) > 1e-13 * w.sum) lines.push(k);
+    }
+    hit = {
+      lines: Int32Array.from(lines),
+      re: Float64Array.from(lines, (k) => out[2 * k]!),
+      im: Float64Array.from(lines, (k) => out[2 * k + 1]!),
+    };
+    windowSpectra.set(key, hit);
+  }
+  return hit;
+}
+
 const scratch = new Map<number, { frame: Float64Array; out: Float64Array }>();
 
 function scratchFor(n: number): { frame: Float64Array; out: Float64Array } {
@@ -106,15 +133,28 @@ export function welch(input: ArrayLike<number>, options: WelchOptions = {}): Wel
   const step = nperseg - noverlap;
   const segments = Math.floor((n - nperseg) / step) + 1;
 
+  // The mean is removed after the FFT: DFT{(x − m)·w} = DFT{x·w} − m·DFT{w}, and the
+  // window's DFT is nonzero on only a few lines (2 for Hann), so one pass over the
+  // segment does both the sum and the windowing.
+  const { lines: fixLines, re: fixRe, im: fixIm } = windowSpectrum(windowName, nperseg);
+  const data = input instanceof Float64Array ? input : Float64Array.from(input);
   for (let s = 0; s < segments; s++) {
     const start = s * step;
-    let mean = 0;
-    if (detrend === 'constant') {
-      for (let i = 0; i < nperseg; i++) mean += input[start + i]!;
-      mean /= nperseg;
+    let sum = 0;
+    for (let i = 0; i < nperseg; i++) {
+      const v = data[start + i]!;
+      sum += v;
+      frame[i] = v * w[i]!;
     }
-    for (let i = 0; i < nperseg; i++) frame[i] = (input[start + i]! - mean) * w[i]!;
     plan.realForward(out, frame);
+    if (detrend === 'constant') {
+      const mean = sum / nperseg;
+      for (let j = 0; j < fixLines.length; j++) {
+        const k = fixLines[j]!;
+        out[2 * k] = out[2 * k]! - mean * fixRe[j]!;
+        out[2 * k + 1] = out[2 * k + 1]! - mean * fixIm[j]!;
+      }
+    }
     for (let k = 0; k < bins; k++) {
       const re = out[2 * k]!;
       const im = out[2 * k + 1]!;
