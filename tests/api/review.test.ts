@@ -114,6 +114,14 @@ describe('weekly review', () => {
     // Sorted by percentage rise, largest first.
     const pcts = body.movers.map((r: { changePercent: number }) => r.changePercent);
     expect([...pcts].sort((a, b) => b - a)).toEqual(pcts);
+    // The 2× band reads only the noise floor of a pure 1× tone (≈ 0.001 mm/s against its alert
+    // level 0.5 × 2.8 = 1.4 mm/s): below 10 % of the alert level a rise is not listed.
+    expect(
+      body.movers.some(
+        (r: { pointTag: string; bandKey: string }) =>
+          r.pointTag === RISING && r.bandKey === 'order-2x',
+      ),
+    ).toBe(false);
     // The alerting point has values in this week only: not a mover.
     expect(body.movers.some((r: { pointTag: string }) => r.pointTag === ALERTING)).toBe(false);
   });

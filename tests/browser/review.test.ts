@@ -11,6 +11,7 @@ import type { Browser } from 'playwright-core';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
+import type { Page } from 'playwright-core';
 import { snapshotBody } from '../support/signals.ts';
 
 let srv: TestServer;
@@ -20,6 +21,18 @@ const DAY_MS = 86_400_000;
 const DAY0 = Date.parse('2026-11-02T12:00:00Z');
 const SHAFT_HZ = 1480 / 60;
 const peakGOf = (vRms: number) => (vRms * Math.SQRT2 * 2 * Math.PI * SHAFT_HZ) / 9806.65;
+
+/** The app scrolls inside <main>; grow the viewport to the content so the shot shows it all. */
+async function tallShot(page: Page, name: string) {
+  const viewport = page.viewportSize()!;
+  // A string: the root tsconfig has no DOM types.
+  const height = await page.evaluate<number>(
+    `document.documentElement.clientHeight - document.querySelector('main').clientHeight + document.querySelector('main').scrollHeight`,
+  );
+  await page.setViewportSize({ width: viewport.width, height: Math.min(height, 8000) });
+  await screenshot(page, name);
+  await page.setViewportSize(viewport);
+}
 
 beforeAll(async () => {
   srv = await startTestServer();
@@ -78,7 +91,7 @@ describe('weekly review in a real browser', () => {
       /^\/points\/\d+$/,
     );
     await page.locator('#open-alerts').getByText('MFP-P101-MDE-H').first().waitFor();
-    await screenshot(page, 'review-planner');
+    await tallShot(page, 'review-planner');
 
     await forecasts
       .getByRole('button', { name: `Create finding for ${RISING}, 1× running speed` })
@@ -105,14 +118,18 @@ describe('weekly review in a real browser', () => {
     await row.getByText('Open', { exact: true }).waitFor();
     await row.getByRole('button', { name: /Mark planned/ }).click();
     await row.getByLabel(/Work-order reference for/).fill('WO-2026-1187');
+    const patched = page.waitForResponse(
+      (r) => r.url().includes('/api/v1/findings/') && r.request().method() === 'PATCH',
+    );
     await row.getByRole('button', { name: 'Mark planned', exact: true }).click();
+    expect((await patched).status()).toBe(200);
     await row.getByText('Planned', { exact: true }).waitFor();
     await row.getByText('WO-2026-1187').waitFor();
     const [audit] = (await srv.ctx.dbHandle.pool.query(
       "SELECT action FROM audit_log WHERE entity = 'finding' ORDER BY id",
     )) as unknown as [{ action: string }[]];
     expect(audit.map((a) => a.action)).toEqual(['finding.create', 'finding.planned']);
-    await screenshot(page, 'review-finding-planned');
+    await tallShot(page, 'review-finding-planned');
 
     const [download] = await Promise.all([
       page.waitForEvent('download'),
@@ -137,8 +154,8 @@ describe('weekly review in a real browser', () => {
         .isVisible(),
     ).toBe(false);
     // Nothing wider than the paper.
-    const overflow = await page.evaluate(() =>
-      [...document.querySelectorAll('.review-table')].map((t) => t.scrollWidth),
+    const overflow = await page.evaluate<number[]>(
+      `[...document.querySelectorAll('.review-table')].map((t) => t.scrollWidth)`,
     );
     for (const w of overflow) expect(w).toBeLessThanOrEqual(718);
     await screenshot(page, 'review-print');
@@ -150,7 +167,7 @@ describe('weekly review in a real browser', () => {
     await signInAs(page, srv.url, 'planner');
     await page.goto(`${srv.url}/review?weekEnding=2026-11-15&weeksAhead=4`);
     await page.locator('#forecasts').getByRole('link', { name: RISING }).first().waitFor();
-    await screenshot(page, 'review-tablet');
+    await tallShot(page, 'review-tablet');
     await page.context().close();
   });
 });

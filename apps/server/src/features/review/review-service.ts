@@ -27,6 +27,12 @@ import * as repo from './review-repository.ts';
 const DAY_MS = 86_400_000;
 /** How far back the forecast looks: six weeks of daily means. Common practice, no source. */
 export const FORECAST_LOOKBACK_DAYS = 42;
+/**
+ * A rise is listed only when this week's mean is at least this fraction of the band's alert
+ * level in force: below it the band reads its noise floor, where a large percentage means
+ * nothing. Common practice, no source.
+ */
+export const MOVER_FLOOR_FRACTION = 0.1;
 /** Rows kept per table; the summary counts every row. */
 export const MAX_ROWS = 100;
 
@@ -104,6 +110,13 @@ export async function buildWeeklyReview(
     });
   }
 
+  /** The levels in force for a point's band: fixed, or statistical once its baseline is complete. */
+  const levelsOf = (pointId: number, bandKey: string, definition: LimitBand) => {
+    const track = (states.get(pointId)?.[bandKey] ?? null) as BandTrackLike | null;
+    const acc = track?.band?.baselineComplete ? track.band.baseline : undefined;
+    return effectiveLevels(definition, acc ? baselineStats(acc) : null);
+  };
+
   // ---- movers
   const movers: ReviewMover[] = [];
   for (const m of means) {
@@ -113,6 +126,11 @@ export async function buildWeeklyReview(
     const change = m.thisMean - m.lastMean;
     if (!(change > 0)) continue;
     const band = bandsById.get(bandId(m.pointId, m.bandKey));
+    if (
+      band &&
+      m.thisMean < MOVER_FLOOR_FRACTION * levelsOf(m.pointId, m.bandKey, band.definition).alertLevel
+    )
+      continue;
     movers.push({
       ...ref,
       bandKey: m.bandKey,
@@ -147,9 +165,7 @@ export async function buildWeeklyReview(
     const pointId = Number(pointIdText);
     const ref = refs.get(pointId);
     if (!band || !ref) continue;
-    const track = (states.get(pointId)?.[bandKey] ?? null) as BandTrackLike | null;
-    const acc = track?.band?.baselineComplete ? track.band.baseline : undefined;
-    const levels = effectiveLevels(band.definition, acc ? baselineStats(acc) : null);
+    const levels = levelsOf(pointId, bandKey, band.definition);
     const p = projectTrend(trend, levels, { horizonDays: weeksAhead * 7 });
     if (p.outcome !== 'projected' || p.crossingAt === null || !p.fit || !p.target) continue;
     const latest = trend.reduce((a, b) => (b.takenAt > a.takenAt ? b : a));

@@ -214,7 +214,7 @@ export function FindingsList({
                       <td className="px-3 py-2 align-top text-[13px]">
                         <Link
                           to={paths.app.point.getHref(f.pointId)}
-                          className="font-mono font-medium text-accent underline-offset-2 hover:underline"
+                          className="font-mono font-medium whitespace-nowrap text-accent underline-offset-2 hover:underline"
                         >
                           {f.pointTag}
                         </Link>

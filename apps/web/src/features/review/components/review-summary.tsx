@@ -27,7 +27,10 @@ function SummaryCard({
 export function ReviewSummary({ review }: { review: WeeklyReview }) {
   const s = review.summary;
   return (
-    <section aria-label="Summary" className="grid grid-cols-2 gap-3 md:grid-cols-3 xl:grid-cols-5">
+    <section
+      aria-label="Summary"
+      className="review-summary grid grid-cols-2 gap-3 md:grid-cols-3 xl:grid-cols-5"
+    >
       <SummaryCard
         label="Rising this week"
         value={s.movers}

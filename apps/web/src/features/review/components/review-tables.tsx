@@ -91,7 +91,7 @@ function PointCell({
     <td className={td}>
       <Link
         to={paths.app.point.getHref(row.pointId)}
-        className="font-mono text-[13px] font-medium text-accent underline-offset-2 hover:underline"
+        className="font-mono text-[13px] font-medium whitespace-nowrap text-accent underline-offset-2 hover:underline"
       >
         {row.pointTag}
       </Link>

@@ -11,7 +11,9 @@ import {
 describe('review formatting', () => {
   it('shows values with about three significant figures', () => {
     expect(formatValue(1.5)).toBe('1.50');
-    expect(formatValue(0.03456)).toBe('0.035');
+    expect(formatValue(0.03456)).toBe('0.0346');
+    expect(formatValue(0.00042)).toBe('0.00042');
+    expect(formatValue(0.5)).toBe('0.500');
     expect(formatValue(22.33)).toBe('22.3');
     expect(formatValue(123.4)).toBe('123');
   });

@@ -15,9 +15,12 @@ const fixed = [0, 1, 2, 3].map(
     }),
 );
 
+const small = new Intl.NumberFormat('en-GB', { maximumSignificantDigits: 3 });
+
 /** Three significant figures or so, enough for a band value read off a spectrum. */
 export function formatValue(value: number): string {
   const abs = Math.abs(value);
+  if (abs > 0 && abs < 0.1) return small.format(value);
   const digits = abs >= 100 ? 0 : abs >= 10 ? 1 : abs >= 1 ? 2 : 3;
   return fixed[digits]!.format(value);
 }
