@@ -128,6 +128,9 @@ describe('analyzeSnapshot', () => {
     );
     expect(r.speed.source).toBe('estimated');
     expect(r.speed.rpm!).toBeCloseTo(24.61 * 60, 0);
+    // noise only: nothing stands out near nominal, so no speed is claimed
+    const noise = analyzeSnapshot(snapshot([[2000, 0.01]], { nominalRpm: 1480 }));
+    expect(noise.speed.source).toBe('none');
     const none = analyzeSnapshot(snapshot([[100, 1]]));
     expect(none.speed).toEqual({ rpm: null, hz: null, source: 'none' });
     expect(none.spectra.order).toBeNull();
