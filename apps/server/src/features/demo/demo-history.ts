@@ -18,7 +18,7 @@ import { acknowledge } from '../alerts/alerts-service.ts';
 import { createFinding, updateFinding } from '../findings/findings-service.ts';
 import { createGateway } from '../gateways/gateways-service.ts';
 import { storeSnapshot } from '../ingest/ingest-service.ts';
-import { createWorker } from '../worker/worker.ts';
+import { createWorker, queueDepth } from '../worker/worker.ts';
 
 const HOUR = 3_600_000;
 const DAY = 24 * HOUR;
@@ -29,7 +29,7 @@ const DAY = 24 * HOUR;
  * Chosen so 12 weeks seed in well under a minute on a 2-core machine (measured; see the
  * seeding time printed at start).
  */
-export const DEMO_SCHEDULE = { baseHours: 36, recentHours: 8, recentDays: 4 };
+export const DEMO_SCHEDULE = { baseHours: 48, recentHours: 8, recentDays: 3 };
 /** Gateways scan their points one after another: this many seconds apart. */
 const POINT_STAGGER_S = 20;
 
@@ -138,7 +138,12 @@ export async function seedDemoHistory(
       await storeOne(ctx, c, at, (at.getTime() - start) / (end - start), pointId, gatewayOf);
       stored++;
     });
-    await Promise.all(workers.map((w) => w.drain()));
+    // The first round creates every point's limit set and condition state: one worker, so
+    // those first inserts never deadlock each other; later rounds use both.
+    await Promise.all(
+      (roundAt === rounds[0] ? workers.slice(0, 1) : workers).map((w) => w.drain()),
+    );
+    await settleRetries(ctx, workers[0]!);
     await people.actAt(roundAt + channels.length * POINT_STAGGER_S * 1000);
   }
 
@@ -190,6 +195,15 @@ async function storeOne(
     speedRpm: s.speedRpm,
     tach: s.tach,
   });
+}
+
+/** A job that failed transiently is retried after a back-off: wait for it before moving on,
+ * so no point's captures are judged out of order. */
+async function settleRetries(ctx: AppContext, worker: ReturnType<typeof createWorker>) {
+  for (let waited = 0; (await queueDepth(ctx)) > 0 && waited < 60_000; waited += 250) {
+    await new Promise((r) => setTimeout(r, 250));
+    await worker.drain();
+  }
 }
 
 async function inParallel<T>(items: T[], limit: number, fn: (item: T) => Promise<void>) {
