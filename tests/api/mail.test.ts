@@ -162,6 +162,55 @@ describe('alert notifications', () => {
   });
 });
 
+describe('hourly summaries', () => {
+  it('when a subscriber chose hourly, changes wait for the top of the hour and go out as one summary', async () => {
+    await q(
+      "UPDATE subscriptions SET cadence = 'hourly' WHERE user_id = (SELECT id FROM users WHERE email = ?)",
+      [ENGINEER],
+    );
+    // A new exceedance after the clearing raises a new alert (alert level: planner not told).
+    await capture([3.5, 3.5]);
+    const held = await q(
+      `SELECT id, TIMESTAMPDIFF(SECOND, CURRENT_TIMESTAMP(3), next_attempt_at) AS wait_s
+         FROM outbox WHERE kind = 'alert-hourly' AND outcome IS NULL`,
+    );
+    expect(held.length).toBeGreaterThan(0);
+    // Held until the next full hour: between 0 and 3600 s away.
+    for (const h of held) {
+      expect(Number(h.wait_s)).toBeGreaterThanOrEqual(0);
+      expect(Number(h.wait_s)).toBeLessThanOrEqual(3600);
+    }
+    const before = (await received('alert change')).length;
+    await srv.mail.sender.drain();
+    expect((await received('alert change')).length).toBe(before);
+
+    // The hour has come.
+    await q(
+      "UPDATE outbox SET next_attempt_at = CURRENT_TIMESTAMP(3) - INTERVAL 1 SECOND WHERE kind = 'alert-hourly'",
+    );
+    await srv.mail.sender.drain();
+    const summaries = await received('alert change');
+    expect(summaries.length).toBe(before + 1);
+    const m = summaries.at(-1)!;
+    expect(m.mail_to).toBe(ENGINEER);
+    expect(m.subject).toBe(
+      `[Turnstone] ${held.length} alert change${held.length === 1 ? '' : 's'} in the last hour`,
+    );
+    const text = String(m.text_body);
+    expect(text).toMatch(/Alert raised: Intake pump P-101 MFP-P101-MDE-H — Overall velocity/);
+    expect(text.split(SAFETY_CAUTION).length).toBe(2); // the caution once, not per change
+    const closed = await q(
+      `SELECT outcome, lease_owner FROM outbox WHERE kind = 'alert-hourly' AND id IN (${held.map((h) => h.id).join(',')})`,
+    );
+    expect(
+      closed.every((c) => c.outcome === 'sent' && String(c.lease_owner).startsWith('summary:')),
+    ).toBe(true);
+    await srv.mail.sender.drain();
+    expect((await received('alert change')).length).toBe(before + 1);
+    await q("UPDATE subscriptions SET cadence = 'immediate'");
+  });
+});
+
 describe('outbox delivery', () => {
   async function deadSend(dedupeKey: string) {
     await enqueueMail(srv.ctx.db, {

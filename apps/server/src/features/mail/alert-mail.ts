@@ -18,7 +18,7 @@ import {
   type Rendered,
 } from './mail-templates.ts';
 import { mailBaseUrl, pointLink } from './mail-links.ts';
-import { enqueueMail, type Tx } from './outbox-repository.ts';
+import { enqueueMail, HOURLY_KIND, type Tx } from './outbox-repository.ts';
 
 export type AlertChangeKind = 'raised' | 'escalated' | 'cleared';
 
@@ -193,7 +193,8 @@ export async function queueAlertChangeMail(
   const msg = renderAlertMail(facts, pointLink(base, facts.pointId));
   for (const [userId, u] of who) {
     await enqueueMail(tx, {
-      kind: `alert-${change.kind}`,
+      // Hourly subscribers' rows wait for the hour and go out folded into one summary.
+      kind: u.immediate ? `alert-${change.kind}` : HOURLY_KIND,
       dedupeKey: `alert:${eventId}:${userId}`,
       to: u.email,
       ...msg,
@@ -201,4 +202,43 @@ export async function queueAlertChangeMail(
     });
   }
   return who.size;
+}
+
+/** One message for an hour of alert changes: each change's facts, one link each, one caution. */
+export function renderHourlySummary(rows: { subject: string; textBody: string }[]): Rendered {
+  const body = (t: string) =>
+    t
+      .split('\n')
+      .filter((l) => !l.startsWith('Safety:') && !l.startsWith('You receive this'))
+      .join('\n')
+      .trim();
+  const title = `${rows.length} alert change${rows.length === 1 ? '' : 's'} in the last hour`;
+  const footer =
+    'You receive this hourly summary because of your notification settings (Account in Turnstone).';
+  const text = [
+    `${title}.`,
+    '',
+    ...rows.flatMap((r, i) => [
+      `${i + 1}. ${r.subject.replace(/^\[Turnstone\] /, '')}`,
+      body(r.textBody),
+      '',
+    ]),
+    `Safety: ${SAFETY_CAUTION}`,
+    '',
+    footer,
+    '',
+  ].join('\n');
+  const html = htmlLayout(
+    title,
+    rows
+      .map(
+        (r, i) =>
+          `<h2 style="font-size:14px;margin:16px 0 4px">${i + 1}. ${esc(r.subject.replace(/^\[Turnstone\] /, ''))}</h2>` +
+          `<pre style="white-space:pre-wrap;font-family:'Roboto Mono',monospace;font-size:12px;margin:0">${esc(body(r.textBody))}</pre>`,
+      )
+      .join('') +
+      `<p style="border-left:3px solid #1d5c63;padding-left:8px"><strong>Safety:</strong> ${esc(SAFETY_CAUTION)}</p>`,
+    footer,
+  );
+  return { subject: `[Turnstone] ${title}`, text, html };
 }

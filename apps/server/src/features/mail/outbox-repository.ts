@@ -3,11 +3,14 @@
  * they tell about; senders claim due rows with SELECT … FOR UPDATE SKIP LOCKED (MariaDB ≥
  * 10.6, as the jobs queue does) and hold them under a lease.
  */
-import { and, asc, eq, inArray, isNull, lte, or, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNull, lte, ne, or, sql } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
 import { mailMessages, outbox, settings } from '@turnstone/db/schema';
 
 export type OutboxRow = typeof outbox.$inferSelect;
+
+/** Rows for "hourly" subscribers: never sent alone, folded into one summary per hour. */
+export const HOURLY_KIND = 'alert-hourly';
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type Writer = Pick<Db, 'insert'>;
 
@@ -55,6 +58,7 @@ export async function claimOutbox(
           isNull(outbox.sentAt),
           lte(outbox.nextAttemptAt, now),
           isNull(outbox.outcome),
+          ne(outbox.kind, HOURLY_KIND),
           or(isNull(outbox.leaseExpiresAt), lte(outbox.leaseExpiresAt, now)),
         ),
       )
@@ -163,4 +167,55 @@ export async function saveRuntime(db: Db, value: MailRuntimeSetting): Promise<vo
 export async function loadRuntime(db: Pick<Db, 'select'>): Promise<MailRuntimeSetting | null> {
   const [row] = await db.select().from(settings).where(eq(settings.key, RUNTIME_KEY)).limit(1);
   return (row?.value as MailRuntimeSetting | undefined) ?? null;
+}
+
+/**
+ * Folds due hourly rows into one summary row per recipient, in one transaction: the
+ * summary is queued and the folded rows are closed (`outcome` sent, `lease_owner` naming
+ * the summary row), so each event reaches the summary exactly once.
+ */
+export async function foldHourlyRows(
+  db: Db,
+  build: (rows: OutboxRow[]) => { subject: string; text: string; html: string },
+): Promise<number> {
+  return db.transaction(async (tx) => {
+    const due = await tx
+      .select()
+      .from(outbox)
+      .where(
+        and(
+          isNull(outbox.sentAt),
+          lte(outbox.nextAttemptAt, sql`CURRENT_TIMESTAMP(3)`),
+          isNull(outbox.outcome),
+          eq(outbox.kind, HOURLY_KIND),
+        ),
+      )
+      .orderBy(asc(outbox.id))
+      .limit(1000)
+      .for('update', { skipLocked: true });
+    const byTo = new Map<string, OutboxRow[]>();
+    for (const r of due) byTo.set(r.toAddress, [...(byTo.get(r.toAddress) ?? []), r]);
+    for (const [to, rows] of byTo) {
+      const key = `summary:${rows[0]!.id}:${to}`;
+      await enqueueMail(tx, { kind: 'alert-summary', dedupeKey: key, to, ...build(rows) });
+      const [summary] = await tx
+        .select({ id: outbox.id })
+        .from(outbox)
+        .where(eq(outbox.dedupeKey, key.slice(0, 191)));
+      await tx
+        .update(outbox)
+        .set({
+          outcome: 'sent',
+          sentAt: sql`CURRENT_TIMESTAMP(3)`,
+          leaseOwner: `summary:${summary!.id}`,
+        })
+        .where(
+          inArray(
+            outbox.id,
+            rows.map((r) => r.id),
+          ),
+        );
+    }
+    return byTo.size;
+  });
 }

@@ -25,6 +25,7 @@ import cron, { type ScheduledTask } from 'node-cron';
 import type { AppContext } from '../../lib/context.ts';
 import { isDbUnavailable } from '../../lib/error-middleware.ts';
 import * as repo from './outbox-repository.ts';
+import { renderHourlySummary } from './alert-mail.ts';
 
 export interface OutboxSenderOptions {
   smtpUrl: string;
@@ -125,6 +126,7 @@ export function createOutboxSender(ctx: AppContext, options: OutboxSenderOptions
   }
 
   async function drainInner(): Promise<SendResult[]> {
+    await repo.foldHourlyRows(ctx.db, renderHourlySummary);
     const out: SendResult[] = [];
     for (let round = 0; round < 100; round++) {
       const rows = await repo.claimOutbox(

@@ -32,13 +32,13 @@ function Editor({ data, showDigest }: { data: SubscriptionSettingsResponse; show
         {items.map((s, i) => (
           <div
             key={i}
-            className="flex flex-wrap items-center gap-2"
+            className="grid items-center gap-2 sm:grid-cols-[minmax(0,2fr)_minmax(0,1fr)_minmax(0,1fr)_auto]"
             role="group"
             aria-label={`Rule ${i + 1}`}
           >
             <Select
               aria-label="Scope"
-              className="w-64"
+
               value={scopeOf(s)}
               onChange={(e) => {
                 const [kind, id] = e.target.value.split(':');
@@ -67,7 +67,7 @@ function Editor({ data, showDigest }: { data: SubscriptionSettingsResponse; show
             </Select>
             <Select
               aria-label="From level"
-              className="w-40"
+
               value={s.minLevel}
               onChange={(e) => set(i, { minLevel: e.target.value as Subscription['minLevel'] })}
             >
@@ -76,7 +76,7 @@ function Editor({ data, showDigest }: { data: SubscriptionSettingsResponse; show
             </Select>
             <Select
               aria-label="When"
-              className="w-44"
+
               value={s.cadence}
               onChange={(e) => set(i, { cadence: e.target.value as Subscription['cadence'] })}
             >
