@@ -19,7 +19,12 @@ export default defineConfig({
         test: {
           name: 'unit',
           root: here,
-          include: ['packages/**/src/**/*.test.ts', 'apps/**/src/**/*.test.ts', 'tests/reference/**/*.test.ts'],
+          include: [
+            'packages/**/src/**/*.test.ts',
+            'apps/**/src/**/*.test.ts',
+            'tests/reference/**/*.test.ts',
+            'tests/property/**/*.test.ts',
+          ],
         },
       },
       {

@@ -1,5 +1,8 @@
 import { bytesPerSample, type Encoding } from '@turnstone/contracts/ingest';
 
+/** Largest finite float32, (2 − 2^−23) · 2^127 (IEEE 754 binary32). */
+const FLOAT32_MAX = 3.4028234663852886e38;
+
 const INT_RANGE: Record<Exclude<Encoding, 'float32'>, [number, number]> = {
   int16: [-32768, 32767],
   int24: [-8388608, 8388607],
@@ -17,7 +20,7 @@ export function encodeSamples(values: readonly number[], encoding: Encoding): Bu
   if (encoding === 'float32') {
     for (let i = 0; i < values.length; i++) {
       const v = values[i]!;
-      if (!Number.isFinite(v) || Math.abs(v) > 3.4e38)
+      if (!Number.isFinite(v) || Math.abs(v) > FLOAT32_MAX)
         throw new RangeError(`samples[${i}] is not a finite float32`);
       out.writeFloatLE(v, i * 4);
     }
