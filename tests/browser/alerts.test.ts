@@ -66,6 +66,12 @@ describe('alerts screen', () => {
     ).toBe(0);
     expect(await page.getByRole('textbox').count()).toBe(0);
     await screenshot(page, 'alerts-planner');
+    await page.setViewportSize({ width: 800, height: 1000 });
+    await page
+      .getByRole('button', { name: /History of the alert on MFP-P101-MDE-H, Overall/ })
+      .click();
+    await page.getByRole('region', { name: /Overall velocity/ }).waitFor();
+    await screenshot(page, 'alerts-planner-tablet');
     await page.context().close();
   });
 });

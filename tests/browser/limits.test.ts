@@ -61,4 +61,26 @@ describe('limits screen', () => {
     await screenshot(page, 'limits-saved');
     await page.context().close();
   });
+
+  it('an engineer edits the pump template and saves it with a reason', async () => {
+    const page = await newPage(browser, 1024, 900);
+    await signInAs(page, srv.url, 'engineer');
+    await page.goto(`${srv.url}/limits`);
+    await page.getByRole('tab', { name: 'A machine-type template' }).click();
+    await page.getByText(/Built-in pump template/).waitFor();
+    const band = page.getByRole('group', { name: /Band 1: Overall velocity/ });
+    await band.getByLabel('Alert level').fill('2.5');
+    expect(await page.getByRole('button', { name: 'Replay history' }).count()).toBe(0);
+    await page.getByRole('button', { name: 'Save limits…' }).click();
+    await page.getByLabel('Reason for the change').fill('Site standard for intake pumps');
+    await page.getByRole('button', { name: 'Save with this reason' }).click();
+    await page.getByText('Saved as version 1.').waitFor();
+    await page.getByText(/Stored pump template, version 1/).waitFor();
+    await screenshot(page, 'limits-template-tablet');
+    const cookie = await srv.signIn('engineer');
+    const stored = await (await srv.call('GET', '/api/v1/limit-templates/pump', { cookie })).json();
+    expect(stored.source).toBe('stored');
+    expect(stored.bands[0].alertLevel).toBe(2.5);
+    await page.context().close();
+  });
 });

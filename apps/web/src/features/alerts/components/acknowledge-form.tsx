@@ -30,15 +30,26 @@ export function AcknowledgeForm({
     mutation.mutate({ ids, note: values.note }, { onSuccess: () => form.reset({ note: '' }) });
   });
   const error = mutation.error;
+  if (ids.length === 0)
+    return (
+      <div className="flex flex-col gap-1">
+        <p className="text-sm text-ink-muted">
+          Select raised alerts in the table to acknowledge them with a note.
+        </p>
+        {error && (
+          <p role="alert" className="text-sm text-status-danger">
+            {error.message}
+          </p>
+        )}
+      </div>
+    );
   return (
     <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
       <Field
         label={
-          ids.length === 0
-            ? 'Note (first select raised alerts in the table)'
-            : ids.length === 1
-              ? 'Note for the selected alert'
-              : `Note for the ${ids.length} selected alerts`
+          ids.length === 1
+            ? 'Note for the selected alert'
+            : `Note for the ${ids.length} selected alerts`
         }
         hint="What you saw or did, e.g. “Checked on site, noise normal; told the shift lead.”"
         error={form.formState.errors.note?.message}

@@ -124,7 +124,7 @@ export function AlertsExplorer({
         )}
 
         {canAcknowledge && rows.some((a) => a.state === 'raised') && (
-          <Card className="p-4">
+          <Card className="px-4 py-3">
             <AcknowledgeForm
               ids={selectedIds}
               userName={userName}

@@ -2,6 +2,7 @@ import {
   isoDefaultsResponseSchema,
   limitHistoryResponseSchema,
   limitSetResponseSchema,
+  limitTemplateResponseSchema,
   suggestResponseSchema,
 } from '@turnstone/contracts/limits';
 import { queryOptions, useQuery } from '@tanstack/react-query';
@@ -44,5 +45,23 @@ export function getSuggestion(pointId: number, band: string) {
   const qs = new URLSearchParams({ band });
   return api.get(`/api/v1/points/${pointId}/limits/suggest?${qs}`, {
     schema: suggestResponseSchema,
+  });
+}
+
+export function getLimitTemplateQueryOptions(machineType: string) {
+  return queryOptions({
+    queryKey: ['limit-templates', 'detail', { machineType }] as const,
+    queryFn: ({ signal }) =>
+      api.get(`/api/v1/limit-templates/${machineType}`, {
+        schema: limitTemplateResponseSchema,
+        signal,
+      }),
+  });
+}
+
+export function useLimitTemplate(machineType: string | null) {
+  return useQuery({
+    ...getLimitTemplateQueryOptions(machineType ?? 'pump'),
+    enabled: machineType !== null,
   });
 }

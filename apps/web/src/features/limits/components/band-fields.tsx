@@ -31,7 +31,8 @@ const faultLabels = {
 
 type Props = {
   index: number;
-  pointId: number;
+  /** The point whose stored trend a suggestion is taken from; null for a template. */
+  pointId: number | null;
   control: Control<LimitsFormValues>;
   register: UseFormRegister<LimitsFormValues>;
   setValue: UseFormSetValue<LimitsFormValues>;
@@ -67,6 +68,7 @@ export function BandFields({
     register(`bands.${index}.${name}` as const);
 
   const suggest = async () => {
+    if (pointId === null) return;
     setSuggestion({ busy: true, text: null });
     try {
       const s = await getSuggestion(pointId, band.key);
@@ -384,9 +386,11 @@ export function BandFields({
           </div>
         )}
         <div className="flex flex-wrap items-center gap-2">
-          <Button size="sm" onClick={() => void suggest()} busy={suggestion.busy}>
-            Suggest from baseline
-          </Button>
+          {pointId !== null && (
+            <Button size="sm" onClick={() => void suggest()} busy={suggestion.busy}>
+              Suggest from baseline
+            </Button>
+          )}
           <Button size="sm" variant="ghost" onClick={onRemove}>
             Remove band
           </Button>

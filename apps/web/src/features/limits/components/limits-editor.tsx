@@ -12,7 +12,7 @@ import { isApiError } from '../../../lib/api-client.ts';
 import { cn } from '../../../lib/cn.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { getIsoDefaults } from '../api/get-limits.ts';
-import { useReplayLimits, useSaveLimits } from '../api/save-limits.ts';
+import { useReplayLimits, useSaveLimitsTarget, type LimitsTarget } from '../api/save-limits.ts';
 import {
   checkForm,
   emptyBand,
@@ -42,13 +42,16 @@ function nest(errors: { path: string; message: string }[]): FieldErrors<LimitsFo
 /** The band editor of one point: edit, apply defaults, replay, save with a reason. */
 export function LimitsEditor({
   limits,
+  target,
   onSaved,
 }: {
-  limits: LimitSetResponse;
+  limits: Pick<LimitSetResponse, 'bands' | 'version'> &
+    Partial<Pick<LimitSetResponse, 'updatedAt' | 'updatedBy'>>;
+  target: LimitsTarget;
   /** Told the outcome of a save (the editor is remounted with the new version after it). */
   onSaved: (message: string) => void;
 }) {
-  const pointId = limits.pointId;
+  const pointId = target.kind === 'point' ? target.pointId : null;
   const originals = limits.bands;
   const resolver = useMemo<Resolver<LimitsFormValues>>(
     () => (values) => {
@@ -62,8 +65,8 @@ export function LimitsEditor({
     defaultValues: { bands: limits.bands.map(toFormBand) },
   });
   const bands = useFieldArray({ control: form.control, name: 'bands' });
-  const replay = useReplayLimits(pointId);
-  const save = useSaveLimits(pointId);
+  const replay = useReplayLimits(pointId ?? 0);
+  const save = useSaveLimitsTarget(target);
   const [replayed, setReplayed] = useState<ReplayResponse | null>(null);
   const [iso, setIso] = useState<{ busy: boolean; text: string | null }>({
     busy: false,
@@ -120,6 +123,7 @@ export function LimitsEditor({
   });
 
   const applyIso = async () => {
+    if (pointId === null) return;
     setIso({ busy: true, text: null });
     try {
       const d = await getIsoDefaults(pointId);
@@ -179,9 +183,11 @@ export function LimitsEditor({
       )}
       <form className="flex min-w-0 flex-col gap-4" noValidate onSubmit={(e) => e.preventDefault()}>
         <div className="flex flex-wrap items-center gap-2">
-          <Button onClick={() => void applyIso()} busy={iso.busy}>
-            Apply ISO 20816 defaults
-          </Button>
+          {pointId !== null && (
+            <Button onClick={() => void applyIso()} busy={iso.busy}>
+              Apply ISO 20816 defaults
+            </Button>
+          )}
           <Button onClick={() => bands.append(emptyBand(bands.fields.length))}>Add band</Button>
           <span className="text-xs text-ink-muted">
             Version <span className="font-mono">{limits.version}</span>
@@ -212,7 +218,7 @@ export function LimitsEditor({
         ))}
         {bands.fields.length === 0 && (
           <p className="text-sm text-ink-muted">
-            No bands: nothing on this point would ever raise an alert.
+            No bands: nothing here would ever raise an alert.
           </p>
         )}
       </form>
@@ -220,19 +226,26 @@ export function LimitsEditor({
       <div className="flex flex-col gap-4">
         <Card className="flex flex-col gap-3 p-4 xl:sticky xl:top-0">
           <h2 className="text-sm font-semibold text-ink">Check, then save</h2>
-          <p className="text-xs text-ink-muted">
-            Replay runs the proposed bands over this point’s stored history with the same rules the
-            worker uses.
-          </p>
-          <Button onClick={() => void onReplay()} busy={replay.isPending}>
-            Replay history
-          </Button>
-          {replay.error && !isApiError(replay.error) && (
-            <p className="text-sm text-status-danger">{replay.error.message}</p>
-          )}
-          {replay.error && isApiError(replay.error) && (
-            <p role="alert" className="text-sm text-status-danger">
-              {replay.error.message}
+          {pointId !== null ? (
+            <>
+              <p className="text-xs text-ink-muted">
+                Replay runs the proposed bands over this point’s stored history with the same rules
+                the worker uses.
+              </p>
+              <Button onClick={() => void onReplay()} busy={replay.isPending}>
+                Replay history
+              </Button>
+              {replay.error && (
+                <p role="alert" className="text-sm text-status-danger">
+                  {replay.error.message}
+                </p>
+              )}
+            </>
+          ) : (
+            <p className="text-xs text-ink-muted">
+              A template applies to points of this machine type measured for the first time; points
+              that already have limits keep theirs. Its levels are the same for every machine of the
+              type, whatever its ISO 20816 group: check them per machine.
             </p>
           )}
           {!asking ? (
@@ -280,10 +293,12 @@ export function LimitsEditor({
             </p>
           )}
         </Card>
-        <Card className="flex flex-col gap-3 p-4">
-          <h2 className="text-sm font-semibold text-ink">Recent changes</h2>
-          <LimitHistoryList pointId={pointId} />
-        </Card>
+        {pointId !== null && (
+          <Card className="flex flex-col gap-3 p-4">
+            <h2 className="text-sm font-semibold text-ink">Recent changes</h2>
+            <LimitHistoryList pointId={pointId} />
+          </Card>
+        )}
       </div>
     </div>
   );

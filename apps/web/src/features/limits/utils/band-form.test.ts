@@ -1,0 +1,88 @@
+import { describe, expect, it } from 'vitest';
+import type { BandDefinitionInput } from '@turnstone/contracts/limits';
+import { checkForm, emptyBand, formPathOf, toDefinition, toFormBand } from './band-form.ts';
+
+// Band shapes follow @turnstone/condition's BandDefinition (Turnstone's own rules, no source).
+const overall: BandDefinitionInput = {
+  key: 'overall-velocity',
+  name: 'Overall velocity 10–1000 Hz',
+  kind: 'overall',
+  fromHz: 10,
+  toHz: 1000,
+  spectrum: 'velocity',
+  measure: 'rms',
+  unit: 'mm/s',
+  alertLevel: 2.8,
+  dangerLevel: 4.5,
+  persistence: 2,
+  hysteresis: 0.9,
+  levelSource: 'ISO 20816-3 B/C and C/D',
+};
+const bpfo: BandDefinitionInput = {
+  key: 'bpfo',
+  name: 'Bearing outer race',
+  kind: 'fault',
+  fault: 'bpfo',
+  halfWidth: 2,
+  halfWidthUnit: 'percent',
+  harmonics: 1,
+  spectrum: 'envelope',
+  measure: 'peak',
+  unit: 'g',
+  alertLevel: 0.2,
+  dangerLevel: 0.5,
+  statistical: {
+    kAlert: 3,
+    kDanger: 6,
+    baseline: { from: 'first-n', count: 20 },
+    established: { count: 20, mean: 0.05, sigma: 0.01 },
+    combine: 'min',
+  },
+};
+
+describe('band form', () => {
+  it('a stored band survives the trip through the form unchanged', () => {
+    for (const band of [overall, bpfo]) {
+      expect(toDefinition(toFormBand(band), band)).toEqual(band);
+    }
+  });
+
+  it('an established baseline is dropped when the baseline count changes', () => {
+    const f = { ...toFormBand(bpfo), baselineCount: 30 };
+    const d = toDefinition(f, bpfo) as BandDefinitionInput;
+    expect(d.statistical?.baseline).toEqual({ from: 'first-n', count: 30 });
+    expect(d.statistical?.established).toBeUndefined();
+  });
+
+  it('danger at or below alert is refused on the danger field', () => {
+    const f = { ...toFormBand(overall), dangerLevel: 2.8 };
+    const out = checkForm({ bands: [f] }, [overall]);
+    expect(out).toEqual({
+      ok: false,
+      errors: [
+        { path: 'bands.0.dangerLevel', message: 'The danger level must be above the alert level.' },
+      ],
+    });
+  });
+
+  it('an empty required number reads "Enter a number." on its field', () => {
+    const f = { ...emptyBand(0), toHz: Number.NaN };
+    const out = checkForm({ bands: [f] }, []);
+    expect(out.ok).toBe(false);
+    if (!out.ok)
+      expect(out.errors).toContainEqual({ path: 'bands.0.toHz', message: 'Enter a number.' });
+  });
+
+  it('two bands with one key are refused', () => {
+    const out = checkForm({ bands: [toFormBand(overall), toFormBand(overall)] }, [overall]);
+    expect(out.ok).toBe(false);
+    if (!out.ok) expect(out.errors.map((e) => e.path)).toEqual(['bands.1.key']);
+  });
+
+  it("maps the server's field paths onto the form's", () => {
+    expect(formPathOf('bands.2.dangerLevel')).toBe('bands.2.dangerLevel');
+    expect(formPathOf('bands.1.statistical.baseline.count')).toBe('bands.1.baselineCount');
+    expect(formPathOf('bands.0.statistical.kAlert')).toBe('bands.0.kAlert');
+    expect(formPathOf('reason')).toBe('root');
+  });
+});
