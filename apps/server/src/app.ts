@@ -30,7 +30,23 @@ import { mailboxRoutes } from './features/mailbox/mailbox-router.ts';
 
 /** The feature routes below /api/v1 (auth mounts its own, behind its rate limiters). */
 function featureRoutes(ctx: AppContext): RouteSpec[] {
-  return [...fleetRoutes(ctx), ...gatewayRoutes(ctx), ...uploadRoutes(ctx), ...snapshotRoutes(ctx), ...alertRoutes(ctx), ...limitRoutes(ctx), ...pointRoutes(ctx), ...setupRoutes(ctx), ...auditRoutes(ctx), ...reviewRoutes(ctx), ...findingRoutes(ctx), ...userRoutes(ctx), ...userLinkRoutes(ctx), ...accountRoutes(ctx), ...mailboxRoutes(ctx)];
+  return [
+    ...fleetRoutes(ctx),
+    ...gatewayRoutes(ctx),
+    ...uploadRoutes(ctx),
+    ...snapshotRoutes(ctx),
+    ...alertRoutes(ctx),
+    ...limitRoutes(ctx),
+    ...pointRoutes(ctx),
+    ...setupRoutes(ctx),
+    ...auditRoutes(ctx),
+    ...reviewRoutes(ctx),
+    ...findingRoutes(ctx),
+    ...userRoutes(ctx),
+    ...userLinkRoutes(ctx),
+    ...accountRoutes(ctx),
+    ...mailboxRoutes(ctx),
+  ];
 }
 
 /** Every dashboard route below /api/v1: the access table the role × route test walks. */
@@ -69,6 +85,17 @@ export function createApp(ctx: AppContext) {
   app.use((req, res, next) => {
     req.requestId = randomUUID();
     res.setHeader('X-Request-Id', req.requestId);
+    const t0 = process.hrtime.bigint();
+    // Access log at debug level: the path only (a query string can carry a token).
+    res.on('finish', () =>
+      ctx.log.debug('request', {
+        requestId: req.requestId,
+        method: req.method,
+        path: req.path,
+        status: res.statusCode,
+        ms: Number(process.hrtime.bigint() - t0) / 1e6,
+      }),
+    );
     next();
   });
   app.use(
