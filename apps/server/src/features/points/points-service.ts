@@ -512,16 +512,16 @@ export async function trend(
   ]);
   const levels = effectiveLevels(band, null);
   const items = rows.map((r) => ({
-    t: iso(r.takenAt),
+    t: new Date(Number(r.t)).toISOString(),
     v: r.value,
     q: r.quality,
     analysisId: r.analysisId,
   }));
-  const latestAt = rows.length ? rows[rows.length - 1]!.takenAt.getTime() : 0;
+  const latestAt = rows.length ? Number(rows[rows.length - 1]!.t) : 0;
   const recent = [];
   for (let i = rows.length - 1; i >= 0; i--) {
     const r = rows[i]!;
-    const t = r.takenAt.getTime();
+    const t = Number(r.t);
     if (latestAt - t > PROJECTION_WINDOW_DAYS * DAY_MS) break;
     recent.push({ takenAt: t, value: r.value, quality: r.quality });
   }
@@ -563,7 +563,8 @@ export async function trendCsv(
   const rows = await repo.bandTrend(ctx.db, pointId, band.key, from, to);
   const unit = band.unit === 'um' ? 'um' : band.unit.replace('/', '_per_');
   const lines = [`taken_at_utc,${band.key}_${unit},quality`];
-  for (const r of rows) lines.push(`${iso(r.takenAt)},${r.value},${r.quality}`);
+  for (const r of rows)
+    lines.push(`${new Date(Number(r.t)).toISOString()},${r.value},${r.quality}`);
   const safeTag = point.tag.replace(/[^A-Za-z0-9._-]+/g, '_');
   return {
     fileName: `${safeTag}_${band.key}_${iso(from).slice(0, 10)}_${iso(to).slice(0, 10)}.csv`,
