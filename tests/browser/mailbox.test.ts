@@ -2,6 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
+import { snapshotBody } from '../support/signals.ts';
+import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 
 let srv: TestServer;
 let browser: Browser;
@@ -44,6 +46,45 @@ describe('mailbox in a real browser', () => {
       .waitFor();
     expect(await page.getByRole('article').textContent()).toContain('engineer@turnstone.local');
     await screenshot(page, 'mailbox-text');
+    await page.context().close();
+  });
+
+  it('an alert raised by ingested captures reaches the mailbox with its facts and the caution', async () => {
+    const admin = await srv.signIn('admin');
+    const gw = await srv.call('POST', '/api/v1/gateways', {
+      cookie: admin,
+      body: { siteId: 1, name: 'gw-browser' },
+    });
+    const key = (await gw.json()).apiKey as string;
+    // 3.5 mm/s RMS at 24.7 Hz (peak g = v·√2·2πf/9806.65), twice: over P-101's 2.8 mm/s
+    // alert level with persistence 2 (template defaults, see tests/api/alerts.test.ts).
+    const peakG = (3.5 * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
+    const t0 = Date.now() - 4 * 3600_000;
+    for (let i = 0; i < 2; i++) {
+      const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+        body: snapshotBody('MFP-P101-MDE-H', `bm-${i}`, {
+          tones: [{ hz: 24.7, peakG }],
+          noiseG: 0.001,
+          seed: i + 1,
+          takenAt: new Date(t0 + i * 3600_000).toISOString(),
+        }),
+        headers: { authorization: `Bearer ${key}` },
+      });
+      expect(res.status).toBe(201);
+    }
+    await createWorker(srv.ctx, { owner: 'browser-mail' }).drain();
+    await srv.mail.sender.drain();
+    const page = await newPage(browser);
+    await signInAs(page, srv.url, 'admin');
+    await page.goto(`${srv.url}/mailbox`);
+    await page
+      .getByRole('list', { name: 'Received messages' })
+      .getByRole('button', { name: /Alert raised: .*Overall velocity/ })
+      .click();
+    const frame = page.frameLocator('iframe[sandbox=""]');
+    await frame.getByText('Intake pump P-101 (MFP · Raw water intake)').waitFor();
+    await frame.getByText(/not a machine-protection system/).waitFor();
+    await screenshot(page, 'mailbox-alert');
     await page.context().close();
   });
 
