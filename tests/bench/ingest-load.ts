@@ -2,15 +2,17 @@
  * The load generator of ingest-bench.ts, run as a second process: posts `count` prepared
  * snapshots with `concurrency` requests in flight, retrying 429/503 by Retry-After, and
  * prints one JSON line with the accepted uids' statuses and latencies.
- * argv: url key count concurrency prefix samples
+ * argv: url key count concurrency prefix samples [ratePerS] [pointTag]
+ * With ratePerS > 0 the requests are paced (a gateway's steady flow) instead of flat out.
  */
 import { snapshotBody } from '../support/signals.ts';
 
-const [url, key, countS, concS, prefix, samplesS] = process.argv.slice(2);
+const [url, key, countS, concS, prefix, samplesS, rateS, tagArg] = process.argv.slice(2);
+const ratePerS = Number(rateS ?? 0);
 const count = Number(countS);
 const concurrency = Number(concS);
 const n = Number(samplesS ?? 4096);
-const template = snapshotBody('MFP-P101-MDE-H', 'x', { n, seed: 7 });
+const template = snapshotBody(tagArg ?? 'MFP-P101-MDE-H', 'x', { n, seed: 7 });
 const t0 = Date.parse('2026-06-01T00:00:00Z');
 const bodies = Array.from({ length: count }, (_, i) =>
   JSON.stringify({
@@ -24,6 +26,7 @@ const latencies: number[] = [];
 const statuses: Record<string, number> = {};
 let retries = 0;
 let next = 0;
+const wall0 = performance.now();
 async function one(body: string) {
   for (;;) {
     const started = performance.now();
@@ -43,10 +46,17 @@ async function one(body: string) {
     return;
   }
 }
-const wall0 = performance.now();
 await Promise.all(
   Array.from({ length: concurrency }, async () => {
-    while (next < count) await one(bodies[next++]!);
+    while (next < count) {
+      const i = next++;
+      if (ratePerS > 0) {
+        const due = wall0 + (i * 1000) / ratePerS;
+        const wait = due - performance.now();
+        if (wait > 0) await new Promise((r) => setTimeout(r, wait));
+      }
+      await one(bodies[i]!);
+    }
   }),
 );
 const wallS = (performance.now() - wall0) / 1000;

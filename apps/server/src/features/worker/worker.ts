@@ -83,7 +83,11 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
         ['analyze'],
       );
       if (claimed.length === 0) break;
-      for (const job of claimed) await runOne(job);
+      for (const job of claimed) {
+        await runOne(job);
+        // Analysis is CPU work on this thread: let waiting HTTP requests in between jobs.
+        await new Promise((r) => setImmediate(r));
+      }
       done += claimed.length;
     }
     return done;
@@ -106,6 +110,14 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
     }
   };
 
+  // node-cron warns on every skipped overlapping tick; a long drain is expected, not news.
+  const cronLogger = {
+    info: () => {},
+    warn: () => {},
+    debug: () => {},
+    error: (m: string | Error) => ctx.log.error('scheduler', { err: m }),
+  };
+
   return {
     owner,
     drain,
@@ -114,21 +126,21 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
         cron.schedule(
           '* * * * * *',
           guarded('queue', () => drain()),
-          { noOverlap: true, name: 'queue' },
+          { noOverlap: true, name: 'queue', logger: cronLogger },
         ),
       );
       tasks.push(
         cron.schedule(
           '15 2 * * *',
           guarded('baselines', () => recomputeBaselines(ctx)),
-          { noOverlap: true, name: 'baselines' },
+          { noOverlap: true, name: 'baselines', logger: cronLogger },
         ),
       );
       tasks.push(
         cron.schedule(
           '45 2 * * *',
           guarded('retention', () => expireRawSamples(ctx.db, ctx.config.RETENTION_DAYS)),
-          { noOverlap: true, name: 'retention' },
+          { noOverlap: true, name: 'retention', logger: cronLogger },
         ),
       );
     },
