@@ -221,10 +221,14 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
         ]
       : [];
 
+  // Unusable values break the line (they are not measurements of the machine) and show
+  // as hollow squares, pinned to the top edge when they lie above the chart.
+  const lineData = data.map((d) => (d[2] === 'unusable' ? [d[0], null] : [d[0], d[1]]));
   const main: LineSeriesOption = {
     name,
     type: 'line',
-    data,
+    data: lineData,
+    connectNulls: false,
     showSymbol: data.length <= 200,
     symbolSize: 4,
     sampling: data.length > 3000 ? 'lttb' : undefined,
@@ -262,7 +266,13 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
   const flagged: ScatterSeriesOption = {
     name: 'Quality flagged',
     type: 'scatter',
-    data: data.filter((d) => d[2] !== 'ok'),
+    data: data
+      .filter((d) => d[2] !== 'ok')
+      .map((d) => ({
+        value: [d[0], yMax !== undefined ? Math.min(d[1], yMax) : d[1]],
+        name: `${d[2]} capture: ${formatValue(d[1])} ${unit}`,
+      })),
+    tooltip: { trigger: 'item', formatter: (p) => String((p as { name: string }).name) },
     symbol: 'rect',
     symbolSize: 7,
     itemStyle: { color: 'transparent', borderColor: chartColours.quality, borderWidth: 1.5 },
