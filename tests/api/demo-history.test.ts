@@ -34,6 +34,9 @@ describe('demo history over 2 weeks', () => {
     for (const r of perPoint) expect(Number(r.n), String(r.tag)).toBeGreaterThan(10);
     const [s] = await q(`SELECT COUNT(*) AS n, SUM(status = 'done') AS done FROM snapshots`);
     expect(Number(s!.done)).toBe(Number(s!.n));
+    // Every capture came with a tach, a speed, or a 1× the worker could estimate the speed from.
+    const [noSpeed] = await q(`SELECT COUNT(*) AS n FROM analyses WHERE speed_source = 'none'`);
+    expect(Number(noSpeed!.n)).toBe(0);
   });
 
   it('has alerts raised (one at danger), acknowledged by the operator, and cleared', async () => {

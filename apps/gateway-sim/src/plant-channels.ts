@@ -20,6 +20,16 @@ export const STANDARD_CAPTURE = {
   fmaxHz: 5000,
   lines: 1600,
 };
+/**
+ * Slow fans: 2.56 kHz for Fmax 1 kHz, 8192 samples = 3.2 s, so 0.625 Hz lines resolve 1×
+ * of a 440–740 r/min shaft (7–12 Hz) for the speed estimate.
+ */
+export const LOW_SPEED_CAPTURE = {
+  sampleRateHz: 2560,
+  sampleCount: 8192,
+  fmaxHz: 1000,
+  lines: 1600,
+};
 /** 24-bit gateway input, ±5 V (a 100 mV/g sensor reaches the rails at 50 g). */
 export const STANDARD_ADC: AdcSetup = { encoding: 'int24', bits: 24, fullScaleV: 5 };
 
@@ -74,12 +84,11 @@ function channelOf(
     orders = { bpfo: o.bpfo * r, bpfi: o.bpfi * r, bsf: o.bsf * r, ftf: o.ftf * r };
   }
   const fault = faultOf(machine, point);
-  let capture = { ...STANDARD_CAPTURE };
+  // F-330's fault is the set-up: the slow-fan rate with its anti-alias filter bypassed,
+  // so content above Nyquist folds into the band (see story-recipe.ts).
+  const capture = { ...(machine.type === 'fan' ? LOW_SPEED_CAPTURE : STANDARD_CAPTURE) };
   let adc = { ...STANDARD_ADC };
-  if (fault === 'aliasing') {
-    // Set up for a slow fan: 2.56 kHz (Fmax 1 kHz) with the anti-alias filter bypassed.
-    capture = { sampleRateHz: 2560, sampleCount: 8192, fmaxHz: 1000, lines: 1600 };
-  } else if (fault === 'clipping') {
+  if (fault === 'clipping') {
     // Input range left at ±0.5 V: a 100 mV/g sensor saturates at 5 g.
     adc = { encoding: 'int16', bits: 16, fullScaleV: 0.5 };
   } else if (fault === 'under-range') {

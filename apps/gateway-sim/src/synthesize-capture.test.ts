@@ -178,6 +178,15 @@ describe('demo channels with their faults', () => {
     expect(verdicts).toContain('ok');
   });
 
+  it('every channel gives its analysis a running speed (tach, rpm or estimated from 1×)', () => {
+    for (const c of demoChannels()) {
+      const a = analyseSim(c.tag, 0.5);
+      expect(a.speed.source, c.tag).not.toBe('none');
+      // Within the ±10 % search window around the nominal speed (dsp default).
+      expect(Math.abs(a.speed.rpm! / c.machine.nominalRpm - 1), c.tag).toBeLessThan(0.1);
+    }
+  });
+
   it('a healthy pump channel is ok', () => {
     expect(analyseSim('MFP-P102-MDE-H', 0.5).quality.verdict).toBe('ok');
   });
