@@ -18,6 +18,7 @@ import {
   type QualityVerdict,
 } from './quality-verdict.ts';
 import { scaleToAcceleration } from './scale-samples.ts';
+import { scratch } from './scratch.ts';
 import { findPeaks } from './spectral-peaks.ts';
 import { estimateSpeed } from './speed-estimate.ts';
 import { waveformStatistics } from './waveform-statistics.ts';
@@ -275,8 +276,10 @@ export function analyzeSnapshot(
 
   // ---- one FFT of the whole (end-tapered) record, shared by displacement and envelope;
   // the envelope spectrum's own Hann window already gives the tapered ends ~zero weight.
-  const tapered = taperEnds(accel.slice(), DISPLACEMENT_TAPER);
-  const full = new Float64Array(2 * n);
+  const tapered = scratch('analyze-tapered', n);
+  tapered.set(accel);
+  taperEnds(tapered, DISPLACEMENT_TAPER);
+  const full = scratch('analyze-full', 2 * n);
   getFftPlan(n).realForward(full, tapered);
   const displacement = integrateWaveform(accel, {
     sampleRateHz: fs,
@@ -321,7 +324,7 @@ export function analyzeSnapshot(
       spectrum: full,
       ...(options.envelopeFmaxHz === undefined ? {} : { fmaxHz: options.envelopeFmaxHz }),
     });
-    const values = Float32Array.from(env.amplitude);
+    const values = new Float32Array(env.amplitude);
     const power = new Float64Array(env.amplitude.length);
     for (let k = 0; k < power.length; k++) {
       const amp = env.amplitude[k]!;

@@ -1,4 +1,5 @@
 import { getFftPlan, nextPowerOfTwo } from './fft-plan.ts';
+import { scratch } from './scratch.ts';
 import { getWindow, type WindowName } from './window-functions.ts';
 
 /** Options for {@link bandEnvelope} and {@link envelopeSpectrum}. */
@@ -72,16 +73,17 @@ export function bandEnvelope(
   }
   const lines = k2 - k1 + 1;
   const m = Math.max(2, nextPowerOfTwo(lines));
-  const baseband = new Float64Array(2 * m);
-  const scale = m / n;
+  const baseband = scratch('envelope-baseband', 2 * m);
+  baseband.fill(0, 2 * lines);
+  const scale = 1 / n; // the inverse below is unscaled: 1/M folded in with M/N
   for (let j = 0; j < lines; j++) {
     const k = k1 + j;
     const h = k === 0 || 2 * k === n ? 1 : 2;
     baseband[2 * j] = h * scale * spectrum[2 * k]!;
     baseband[2 * j + 1] = h * scale * spectrum[2 * k + 1]!;
   }
-  const z = new Float64Array(2 * m);
-  getFftPlan(m).inverse(z, baseband);
+  const z = scratch('envelope-z', 2 * m);
+  getFftPlan(m).inverseUnscaled(z, baseband);
   const envelope = new Float64Array(m);
   for (let i = 0; i < m; i++) {
     const re = z[2 * i]!;
@@ -129,9 +131,9 @@ export function envelopeSpectrum(
   const m = env.envelope.length;
   const windowName = options.window ?? 'hann';
   const window = getWindow(windowName, m);
-  const frame = new Float64Array(m);
+  const frame = scratch('envelope-frame', m);
   for (let i = 0; i < m; i++) frame[i] = env.envelope[i]! * window.values[i]!;
-  const out = new Float64Array(2 * m);
+  const out = scratch('envelope-out', 2 * m);
   getFftPlan(m).realForward(out, frame);
   const df = env.sampleRateHz / m;
   const bandwidth = env.bandHz[1] - env.bandHz[0];

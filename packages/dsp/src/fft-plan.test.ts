@@ -67,6 +67,26 @@ describe('fft plans and rfft', () => {
     },
   );
 
+  // inverse DFT definition: the unscaled inverse is N × the scaled one
+  it.each([16, 12])(
+    'when a %i-point spectrum is inverted without scaling, it is N times the scaled inverse',
+    (n) => {
+      const plan = getFftPlan(n);
+      const input = Float64Array.from(
+        { length: 2 * n },
+        (_, i) => Math.cos(i * 0.7) - 0.2 * (i % 5),
+      );
+      const scaled = new Float64Array(2 * n);
+      const unscaled = new Float64Array(2 * n);
+      plan.inverse(scaled, input);
+      plan.inverseUnscaled(unscaled, input);
+      scaled.forEach((v, i) => expect(unscaled[i]).toBeCloseTo(n * v, 10));
+      const back = new Float64Array(2 * n);
+      plan.forward(back, scaled);
+      input.forEach((v, i) => expect(back[i]).toBeCloseTo(v, 10));
+    },
+  );
+
   it('when a plan is asked twice for one size, the same plan comes back', () => {
     expect(getFftPlan(4096)).toBe(getFftPlan(4096));
     expect(getFftPlan(1000)).toBe(getFftPlan(1000));

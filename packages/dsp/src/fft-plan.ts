@@ -15,6 +15,8 @@ export interface FftPlan {
   forward(out: Float64Array, input: Float64Array): void;
   /** Inverse complex DFT including the 1/N factor. `out` and `input` must differ. */
   inverse(out: Float64Array, input: Float64Array): void;
+  /** Inverse complex DFT without the 1/N factor (fold it into your own scaling). */
+  inverseUnscaled(out: Float64Array, input: Float64Array): void;
   /**
    * Forward DFT of a real input of length `size`. Fills bins 0 … ⌊size/2⌋ of `out`
    * (interleaved, `out.length ≥ 2 · size`); the upper half is left unspecified.
@@ -61,6 +63,7 @@ function trivialPlan(): FftPlan {
     size: 1,
     forward: copy,
     inverse: copy,
+    inverseUnscaled: copy,
     realForward(out, input) {
       out[0] = input[0] ?? 0;
       out[1] = 0;
@@ -74,10 +77,43 @@ function radixPlan(size: number): FftPlan {
     size,
     forward: (out, input) => fft.transform(out, input),
     inverse: (out, input) => fft.inverseTransform(out, input),
+    inverseUnscaled: unscaledInverse(fft),
     realForward: (out, input) => fft.realTransform(out, input),
   };
   if (size >= 8) plan.realForward = packedRealForward(size);
   return plan;
+}
+
+/** fft.js 4.0.x internals used to run its inverse pass without the trailing 1/N loop. */
+interface FftInternals {
+  _out: Float64Array | null;
+  _data: Float64Array | null;
+  _inv: number;
+  _transform4(): void;
+}
+
+/**
+ * fft.js's inverseTransform is its forward kernel with `_inv = 1` followed by a division
+ * of every output by N; callers that scale anyway skip that pass (fft.js ^4.0.4 pinned).
+ */
+function unscaledInverse(fft: FFT): (out: Float64Array, input: Float64Array) => void {
+  const internals = fft as unknown as FftInternals;
+  if (typeof internals._transform4 !== 'function') {
+    return (out, input) => {
+      fft.inverseTransform(out, input);
+      const size = fft.size;
+      for (let i = 0; i < out.length; i++) out[i] = out[i]! * size;
+    };
+  }
+  return (out, input) => {
+    if (out === input) throw new Error('Input and output buffers must be different');
+    internals._out = out;
+    internals._data = input;
+    internals._inv = 1;
+    internals._transform4();
+    internals._out = null;
+    internals._data = null;
+  };
 }
 
 /**
@@ -202,6 +238,14 @@ function bluesteinPlan(n: number): FftPlan {
         out[2 * k + 1] = -out[2 * k + 1]! / n;
       }
     },
+    inverseUnscaled(out, input) {
+      for (let k = 0; k < n; k++) {
+        conj[2 * k] = input[2 * k]!;
+        conj[2 * k + 1] = -input[2 * k + 1]!;
+      }
+      forward(out, conj);
+      for (let k = 0; k < n; k++) out[2 * k + 1] = -out[2 * k + 1]!;
+    },
     realForward(out, input) {
       for (let k = 0; k < n; k++) {
         complexInput[2 * k] = input[k]!;
@@ -296,16 +340,18 @@ export function realInverseInto(out: Float64Array, spectrum: Float64Array, n: nu
     halfScratch.set(n, s);
   }
   const { z, twiddle } = s;
+  const c = 0.5 / h;
   for (let k = 0; k < h; k++) {
     const ar = spectrum[2 * k]!;
     const ai = k === 0 ? 0 : spectrum[2 * k + 1]!;
     const br = spectrum[2 * (h - k)]!;
     const bi = k === 0 ? 0 : -spectrum[2 * (h - k) + 1]!; // conj(X_{h−k}); X_h is real
     // E = (X_k + conj X_{h−k}) / 2 ; O = (X_k − conj X_{h−k}) / 2 · e^(+2πik/n)
-    const er = 0.5 * (ar + br);
-    const ei = 0.5 * (ai + bi);
-    const dr = 0.5 * (ar - br);
-    const di = 0.5 * (ai - bi);
+    // 0.5 from E and O, 1/h from the inverse transform, folded into one factor
+    const er = c * (ar + br);
+    const ei = c * (ai + bi);
+    const dr = c * (ar - br);
+    const di = c * (ai - bi);
     const wr = twiddle[2 * k]!;
     const wi = twiddle[2 * k + 1]!;
     const or = dr * wr - di * wi;
@@ -314,7 +360,7 @@ export function realInverseInto(out: Float64Array, spectrum: Float64Array, n: nu
     z[2 * k] = er - oi;
     z[2 * k + 1] = ei + or;
   }
-  getFftPlan(h).inverse(s.out, z);
+  getFftPlan(h).inverseUnscaled(s.out, z);
   const res = s.out;
   for (let i = 0; i < h; i++) {
     out[2 * i] = res[2 * i]!;

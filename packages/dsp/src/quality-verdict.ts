@@ -129,7 +129,11 @@ export function assessQuality(
   const upperRail = half - 1 - 1; // at or within one code of the top code 2^(bits−1) − 1
   const lowerRail = -half + 1;
 
+  // One pass: range, rails, stuck runs and the moments (shifted by the first sample so
+  // a large offset does not cost precision in the variance).
+  const shift = samples[0]! * toCounts;
   let sum = 0;
+  let sumOfSquares = 0;
   let min = Infinity;
   let max = -Infinity;
   let railCount = 0;
@@ -140,8 +144,9 @@ export function assessQuality(
   let previous = NaN;
   for (let i = 0; i < n; i++) {
     const c = samples[i]! * toCounts;
-    if (!Number.isFinite(c)) throw new RangeError(`sample ${i} is not a finite number`);
-    sum += c;
+    const d = c - shift;
+    sum += d;
+    sumOfSquares += d * d;
     if (c < min) min = c;
     if (c > max) max = c;
     const onRail = c >= upperRail || c <= lowerRail;
@@ -160,13 +165,14 @@ export function assessQuality(
     }
     previous = c;
   }
-  const mean = sum / n;
-  let m2 = 0;
-  for (let i = 0; i < n; i++) {
-    const d = samples[i]! * toCounts - mean;
-    m2 += d * d;
+  if (!Number.isFinite(sumOfSquares)) {
+    for (let i = 0; i < n; i++) {
+      if (!Number.isFinite(samples[i]!)) throw new RangeError(`sample ${i} is not a finite number`);
+    }
+    throw new RangeError('samples are too large for a quality verdict');
   }
-  const sigma = Math.sqrt(m2 / n);
+  const mean = shift + sum / n;
+  const sigma = Math.sqrt(Math.max(0, sumOfSquares / n - (sum / n) ** 2));
 
   const peakToPeakCounts = max - min;
   const flat = peakToPeakCounts <= FLATLINE_MAX_PEAK_TO_PEAK_COUNTS;
@@ -179,8 +185,8 @@ export function assessQuality(
   // Spikes: an isolated sample far outside the rest (a real impact rings for several
   // samples once it has passed the anti-alias filter; a single-sample jump does not).
   let spikeCount = 0;
-  if (!flat && sigma > 0) {
-    const threshold = SPIKE_SIGMA_MULTIPLE * sigma;
+  const threshold = SPIKE_SIGMA_MULTIPLE * sigma;
+  if (!flat && sigma > 0 && Math.max(max - mean, mean - min) > threshold) {
     for (let i = 0; i < n; i++) {
       const d = Math.abs(samples[i]! * toCounts - mean);
       if (d <= threshold) continue;

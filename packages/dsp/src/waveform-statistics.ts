@@ -33,10 +33,17 @@ export function waveformStatistics(input: ArrayLike<number>): WaveformStatistics
   let max = -Infinity;
   for (let i = 0; i < n; i++) {
     const v = input[i]!;
-    if (!Number.isFinite(v)) throw new RangeError(`sample ${i} is not a finite number (${v})`);
     sum += v;
     if (v < min) min = v;
     if (v > max) max = v;
+  }
+  if (!Number.isFinite(sum)) {
+    // NaN or ±Infinity anywhere poisons the sum; find it only then (keeps the loop tight).
+    for (let i = 0; i < n; i++) {
+      if (!Number.isFinite(input[i]!))
+        throw new RangeError(`sample ${i} is not a finite number (${input[i]})`);
+    }
+    throw new RangeError('samples are too large to sum');
   }
   const mean = sum / n;
   let m2 = 0;
