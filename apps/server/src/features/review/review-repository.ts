@@ -60,52 +60,11 @@ export async function pointRefs(db: Db, siteIds: number[]): Promise<Map<number, 
 
 const inSites = (siteIds: number[]) => inArray(areas.siteId, siteIds);
 
-/** Per point and band: mean and count of usable values last week and this week. */
-export async function weeklyMeans(
-  db: Db,
-  siteIds: number[],
-  lastFrom: Date,
-  thisFrom: Date,
-  thisTo: Date,
-) {
-  if (siteIds.length === 0) return [];
-  const isThis = sql`${bandValues.takenAt} >= ${thisFrom}`;
-  const rows = await db
-    .select({
-      pointId: bandValues.pointId,
-      bandKey: bandValues.bandKey,
-      thisMean: sql<string | null>`AVG(CASE WHEN ${isThis} THEN ${bandValues.value} END)`,
-      thisCount: sql<string>`SUM(CASE WHEN ${isThis} THEN 1 ELSE 0 END)`,
-      lastMean: sql<string | null>`AVG(CASE WHEN NOT (${isThis}) THEN ${bandValues.value} END)`,
-      lastCount: sql<string>`SUM(CASE WHEN NOT (${isThis}) THEN 1 ELSE 0 END)`,
-    })
-    .from(bandValues)
-    .innerJoin(points, eq(points.id, bandValues.pointId))
-    .innerJoin(machines, eq(machines.id, points.machineId))
-    .innerJoin(areas, eq(areas.id, machines.areaId))
-    .where(
-      and(
-        inSites(siteIds),
-        gte(bandValues.takenAt, lastFrom),
-        lt(bandValues.takenAt, thisTo),
-        ne(bandValues.qualityVerdict, 'unusable'),
-      ),
-    )
-    .groupBy(bandValues.pointId, bandValues.bandKey);
-  return rows.map((r) => ({
-    pointId: r.pointId,
-    bandKey: r.bandKey,
-    thisMean: r.thisMean === null ? null : Number(r.thisMean),
-    thisCount: Number(r.thisCount),
-    lastMean: r.lastMean === null ? null : Number(r.lastMean),
-    lastCount: Number(r.lastCount),
-  }));
-}
-
 /**
  * Per point, band and UTC day: the mean of the usable values and the mean time they were
- * taken (epoch ms). The forecast fits these, so a point read hourly and one read daily give
- * series of the same size.
+ * taken (epoch ms), and how many. The forecast fits these, so a point read hourly and one read
+ * daily give series of the same size; the weekly means are summed from them (the weeks start
+ * at UTC midnight, so every day falls wholly in one week) and the rows are read only once.
  */
 export async function dailyMeans(db: Db, siteIds: number[], from: Date, to: Date) {
   if (siteIds.length === 0) return [];
@@ -116,6 +75,7 @@ export async function dailyMeans(db: Db, siteIds: number[], from: Date, to: Date
       bandKey: bandValues.bandKey,
       t: sql<string>`AVG(${epochMs})`,
       v: sql<string>`AVG(${bandValues.value})`,
+      n: sql<string>`COUNT(*)`,
     })
     .from(bandValues)
     .innerJoin(points, eq(points.id, bandValues.pointId))
@@ -135,6 +95,7 @@ export async function dailyMeans(db: Db, siteIds: number[], from: Date, to: Date
     bandKey: r.bandKey,
     t: Math.round(Number(r.t)),
     v: Number(r.v),
+    n: Number(r.n),
   }));
 }
 

@@ -82,11 +82,10 @@ export async function buildWeeklyReview(
   const lastFrom = thisTo - 14 * DAY_MS;
   const db = ctx.db;
 
-  const [siteRows, refs, means, daily, bandRows, states, alertRows, noticeRows, dueRows] =
+  const [siteRows, refs, daily, bandRows, states, alertRows, noticeRows, dueRows] =
     await Promise.all([
       repo.sitesIn(db, siteIds),
       repo.pointRefs(db, siteIds),
-      repo.weeklyMeans(db, siteIds, new Date(lastFrom), new Date(thisFrom), new Date(thisTo)),
       repo.dailyMeans(
         db,
         siteIds,
@@ -116,6 +115,48 @@ export async function buildWeeklyReview(
     const acc = track?.band?.baselineComplete ? track.band.baseline : undefined;
     return effectiveLevels(definition, acc ? baselineStats(acc) : null);
   };
+
+  // ---- weekly means, from the daily means
+  const weekly = new Map<
+    string,
+    {
+      pointId: number;
+      bandKey: string;
+      thisSum: number;
+      thisCount: number;
+      lastSum: number;
+      lastCount: number;
+    }
+  >();
+  for (const d of daily) {
+    if (d.t < lastFrom) continue;
+    const id = bandId(d.pointId, d.bandKey);
+    let w = weekly.get(id);
+    if (!w)
+      weekly.set(
+        id,
+        (w = {
+          pointId: d.pointId,
+          bandKey: d.bandKey,
+          thisSum: 0,
+          thisCount: 0,
+          lastSum: 0,
+          lastCount: 0,
+        }),
+      );
+    if (d.t >= thisFrom) {
+      w.thisSum += d.v * d.n;
+      w.thisCount += d.n;
+    } else {
+      w.lastSum += d.v * d.n;
+      w.lastCount += d.n;
+    }
+  }
+  const means = [...weekly.values()].map((w) => ({
+    ...w,
+    thisMean: w.thisCount > 0 ? w.thisSum / w.thisCount : null,
+    lastMean: w.lastCount > 0 ? w.lastSum / w.lastCount : null,
+  }));
 
   // ---- movers
   const movers: ReviewMover[] = [];
