@@ -1,5 +1,6 @@
 import type { AuditEntry } from '@turnstone/contracts/audit';
 import { useMemo, useState } from 'react';
+import { useSearchParams } from 'react-router-dom';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
@@ -66,8 +67,10 @@ function ChangeCell({ entry }: { entry: AuditEntry }) {
 }
 
 export function AuditLog() {
-  const [entity, setEntity] = useState('');
-  const [entityId, setEntityId] = useState('');
+  // Other screens link here with ?entity=&entityId= (paths.app.audit.getHref).
+  const [searchParams] = useSearchParams();
+  const [entity, setEntity] = useState(searchParams.get('entity') ?? '');
+  const [entityId, setEntityId] = useState(searchParams.get('entityId') ?? '');
   const [action, setAction] = useState('');
   const [actor, setActor] = useState('');
   const [fromDate, setFromDate] = useState('');
@@ -141,14 +144,14 @@ export function AuditLog() {
               />
             )}
           </Field>
-          <Field label="Action" hint="Exact, or a prefix such as “gateway.”">
+          <Field label="Action">
             {(ids) => (
               <Input
                 id={ids.id}
-                aria-describedby={ids['aria-describedby']}
+                aria-describedby="audit-action-hint"
                 controlSize="sm"
                 className="font-mono"
-                placeholder="point.update"
+                placeholder="gateway."
                 value={action}
                 onChange={(e) => setAction(e.target.value)}
               />
@@ -192,6 +195,10 @@ export function AuditLog() {
             Clear filters
           </Button>
         </form>
+        <p id="audit-action-hint" className="mt-2 text-xs text-ink-muted">
+          Action: an exact name such as <span className="font-mono">point.update</span>, or a prefix
+          ending in a dot such as <span className="font-mono">gateway.</span>
+        </p>
       </Card>
 
       <Card className="overflow-x-auto">

@@ -284,7 +284,7 @@ export function MachineForm({
                 />
                 <NumberField
                   label="Speed ratio"
-                  unit="× 1×"
+                  unit="×"
                   hint="Shaft speed ÷ machine speed."
                   error={e?.speedRatio?.message}
                   registration={form.register(`bearings.${i}.speedRatio`, { setValueAs: asNumber })}
@@ -334,7 +334,7 @@ export function MachineForm({
                 />
                 <NumberField
                   label="Speed ratio"
-                  unit="× 1×"
+                  unit="×"
                   error={e?.speedRatio?.message}
                   registration={form.register(`gears.${i}.speedRatio`, { setValueAs: asNumber })}
                 />

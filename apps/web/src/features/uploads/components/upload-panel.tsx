@@ -78,8 +78,10 @@ export function UploadPanel() {
   const update = (key: string, patch: Partial<UploadItem>) =>
     setItems((list) => list.map((it) => (it.key === key ? { ...it, ...patch } : it)));
 
-  const addFiles = (files: FileList | null) => {
-    if (!files?.length) return;
+  const addFiles = (list: FileList | null) => {
+    // Copy now: the FileList empties when the input is reset right after this call.
+    const files = list ? [...list] : [];
+    if (files.length === 0) return;
     if (pointId === null) {
       setErrors((e) => ({ ...e, point: 'Choose the point these recordings were taken at.' }));
       return;
@@ -87,7 +89,7 @@ export function UploadPanel() {
     const tag = points.data.find((p) => p.id === pointId)?.tag ?? '';
     setItems((list) => [
       ...list,
-      ...[...files].map((file) => ({
+      ...files.map((file) => ({
         key: `f${nextKey++}`,
         file,
         pointId,
@@ -283,7 +285,7 @@ export function UploadPanel() {
                 busy={sending}
                 onClick={() => void sendAll()}
               >
-                Upload {ready > 0 ? `${ready} file${ready === 1 ? '' : 's'}` : ''}
+                {ready > 0 ? `Upload ${ready} file${ready === 1 ? '' : 's'}` : 'Upload files'}
               </Button>
             </div>
             <ul>

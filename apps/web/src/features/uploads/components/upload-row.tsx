@@ -16,8 +16,12 @@ export type UploadItem = {
   error?: string;
 };
 
-const kib = (n: number) =>
-  n < 1024 * 1024 ? `${(n / 1024).toFixed(1)} KiB` : `${(n / 1048576).toFixed(2)} MiB`;
+const size = (n: number) =>
+  n < 1024
+    ? `${n} B`
+    : n < 1048576
+      ? `${(n / 1024).toFixed(1)} KiB`
+      : `${(n / 1048576).toFixed(2)} MiB`;
 
 function Findings({ findings }: { findings: unknown[] }) {
   const list = findings
@@ -99,7 +103,7 @@ export function UploadRow({ item, onRemove }: { item: UploadItem; onRemove: () =
     >
       <div className="flex flex-wrap items-baseline gap-x-3 gap-y-1">
         <span className="font-mono text-[13px] font-medium break-all">{item.file.name}</span>
-        <span className="font-mono text-xs text-ink-faint">{kib(item.file.size)}</span>
+        <span className="font-mono text-xs text-ink-faint">{size(item.file.size)}</span>
         <span className="text-xs text-ink-muted">
           for <span className="font-mono">{item.pointTag}</span>
         </span>
