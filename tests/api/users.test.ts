@@ -242,6 +242,28 @@ describe('password reset', () => {
   });
 });
 
+describe('reset request limits', () => {
+  it('after SIGN_IN_MAX_PER_ACCOUNT requests for one address, the next answers 429 with Retry-After', async () => {
+    // Default SIGN_IN_MAX_PER_ACCOUNT = 5 per 15 minutes (config.ts), shared with sign-in.
+    for (let i = 0; i < 5; i++) {
+      const ok = await srv.call('POST', '/api/v1/auth/forgot-password', {
+        body: { email: 'limit@example.test' },
+      });
+      expect(ok.status).toBe(202);
+    }
+    const limited = await srv.call('POST', '/api/v1/auth/forgot-password', {
+      body: { email: ' LIMIT@example.test' },
+    });
+    expect(limited.status).toBe(429);
+    expect(Number(limited.headers.get('retry-after'))).toBe(900);
+    // Another address from the same client is still served.
+    const other = await srv.call('POST', '/api/v1/auth/forgot-password', {
+      body: { email: 'someone-else@example.test' },
+    });
+    expect(other.status).toBe(202);
+  });
+});
+
 describe('account', () => {
   it('changing the password needs the current one, ends other sessions and keeps this one', async () => {
     const a = await srv.signIn('planner');

@@ -1,3 +1,5 @@
+import type { Request, Response } from 'express';
+import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
 import { z } from 'zod';
 import {
   acceptInviteSchema,
@@ -7,6 +9,7 @@ import {
   updateUserSchema,
 } from '@turnstone/contracts/users';
 import type { AppContext } from '../../lib/context.ts';
+import { AppError } from '../../lib/app-error.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './users-service.ts';
 
@@ -66,8 +69,49 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
   ];
 }
 
+/**
+ * Reset requests are limited per address (no one's inbox is flooded) and per client
+ * address, with the sign-in limits. A 429 says nothing about whether the account exists.
+ */
+function resetLimiters(ctx: AppContext) {
+  const make = (limit: number, key: (req: Request) => string) =>
+    rateLimit({
+      windowMs: ctx.config.SIGN_IN_WINDOW_MIN * 60_000,
+      limit,
+      keyGenerator: key,
+      standardHeaders: 'draft-7',
+      legacyHeaders: false,
+      handler: (_req, _res, next, options) =>
+        next(
+          new AppError(
+            'rate_limited',
+            'Too many reset requests. Try again later.',
+            429,
+            undefined,
+            {
+              headers: { 'Retry-After': String(Math.ceil(options.windowMs / 1000)) },
+            },
+          ),
+        ),
+    });
+  const perIp = make(ctx.config.SIGN_IN_MAX_PER_IP, (req) => `ip:${ipKeyGenerator(req.ip ?? '')}`);
+  const perAccount = make(ctx.config.SIGN_IN_MAX_PER_ACCOUNT, (req) => {
+    const email = typeof req.body?.email === 'string' ? req.body.email.trim().toLowerCase() : '';
+    return `acct:${email}`;
+  });
+  const run = (mw: typeof perIp, req: Request, res: Response) =>
+    new Promise<void>((resolve, reject) => {
+      void mw(req, res, (err?: unknown) => (err ? reject(err) : resolve()));
+    });
+  return async (req: Request, res: Response) => {
+    await run(perIp, req, res);
+    await run(perAccount, req, res);
+  };
+}
+
 /** The public link flows: no session (the link or the address is the credential). */
 export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
+  const limitResets = resetLimiters(ctx);
   return [
     {
       method: 'post',
@@ -85,8 +129,9 @@ export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
       path: '/auth/forgot-password',
       access: 'public',
       summary: 'ask for a reset link',
-      handler: (req, res) => {
+      handler: async (req, res) => {
         const { email } = forgotPasswordSchema.parse(req.body);
+        await limitResets(req, res);
         // Answer first, work after: 202 with the same timing whether or not it exists.
         setImmediate(() => {
           service
