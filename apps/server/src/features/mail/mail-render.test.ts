@@ -1,0 +1,85 @@
+import { describe, expect, it } from 'vitest';
+import { renderAlertMail, nextHour } from './alert-mail.ts';
+import { messageIdOf, outboxRetryDelayS } from './outbox-sender.ts';
+import { sanitizeHtml } from '../mailbox/mailbox-service.ts';
+import { SAFETY_CAUTION } from './mail-templates.ts';
+
+const facts = {
+  alertId: 7,
+  kind: 'raised' as const,
+  level: 'danger' as const,
+  siteCode: 'MFP',
+  siteName: 'Marlow & <Fen>',
+  areaName: 'Intake',
+  machineId: 3,
+  machineName: 'Pump "P-1" <script>alert(1)</script>',
+  pointId: 12,
+  pointTag: 'MFP-P1-H',
+  pointName: "Motor's DE",
+  bandName: 'Overall <b>velocity</b>',
+  unit: 'mm/s',
+  value: 7.234,
+  limit: 4.5,
+  peak: 7.3,
+  at: new Date('2026-11-30T02:17:00Z'),
+  verdict: 'ok',
+  suspect: false,
+};
+
+describe('alert mail rendering', () => {
+  it('escapes every value in the HTML part and keeps the text part plain', () => {
+    const m = renderAlertMail(facts, 'http://x.test/points/12');
+    expect(m.html).not.toContain('<script>');
+    expect(m.html).toContain('Pump &quot;P-1&quot; &lt;script&gt;alert(1)&lt;/script&gt;');
+    expect(m.html).toContain('Overall &lt;b&gt;velocity&lt;/b&gt;');
+    expect(m.html).toContain('Marlow &amp; &lt;Fen&gt;');
+    expect(m.html).toContain('Motor&#39;s DE');
+    expect(m.text).toContain('Pump "P-1" <script>alert(1)</script>');
+    // Three significant digits (mail-templates num()): 7.234 → 7.23, 4.5 → 4.50.
+    expect(m.text).toContain('7.23 mm/s against the danger level 4.50 mm/s');
+    expect(m.text).toContain(SAFETY_CAUTION);
+    expect(m.subject).toContain('Danger raised');
+  });
+
+  it('a cleared alert says the value is back below the level and names the peak', () => {
+    const m = renderAlertMail({ ...facts, kind: 'cleared', value: 2.1 }, 'http://x.test/points/12');
+    expect(m.text).toContain(
+      '2.10 mm/s, back below the danger level 4.50 mm/s (peak was 7.30 mm/s)',
+    );
+    expect(m.subject).toContain('Danger cleared');
+  });
+});
+
+describe('outbox rules', () => {
+  it('the Message-ID is the same on every attempt of one row and differs between rows', () => {
+    const createdAt = new Date('2026-12-01T00:00:00Z');
+    expect(messageIdOf({ id: 5, createdAt })).toBe(messageIdOf({ id: 5, createdAt }));
+    expect(messageIdOf({ id: 5, createdAt })).not.toBe(messageIdOf({ id: 6, createdAt }));
+    expect(messageIdOf({ id: 5, createdAt })).toMatch(/^<[^<>@\s]+@[^<>@\s]+>$/);
+  });
+
+  it('back-off doubles from 30 s and stops at one hour (common practice, no source)', () => {
+    expect([1, 2, 3, 4, 8, 20].map(outboxRetryDelayS)).toEqual([30, 60, 120, 240, 3600, 3600]);
+  });
+
+  it('hourly rows wait for the next full hour (UTC)', () => {
+    expect(nextHour(new Date('2026-12-01T10:59:59Z')).toISOString()).toBe(
+      '2026-12-01T11:00:00.000Z',
+    );
+    expect(nextHour(new Date('2026-12-01T23:00:00Z')).toISOString()).toBe(
+      '2026-12-02T00:00:00.000Z',
+    );
+  });
+});
+
+describe('mailbox HTML sanitising', () => {
+  it('removes scripts, frames, event handlers and javascript: links, keeps ordinary markup', () => {
+    const dirty =
+      '<p onclick="steal()">Hi <a href="javascript:alert(1)">x</a> <a href="https://ok.test/">ok</a></p>' +
+      '<script>alert(1)</script><iframe src="https://evil.test"></iframe><img src=x onerror=alert(1)>';
+    const clean = sanitizeHtml(dirty);
+    expect(clean).not.toMatch(/<script|<iframe|onclick|onerror|javascript:/i);
+    expect(clean).toContain('<a href="https://ok.test/">ok</a>');
+    expect(clean).toContain('<p>Hi');
+  });
+});
