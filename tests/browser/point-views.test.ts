@@ -32,7 +32,8 @@ beforeAll(async () => {
       })
     ).json()
   ).apiKey as string;
-  // Three weeks of daily captures with a slowly growing 1× (24.7 Hz at 1482 r/min) and a
+  // Three weeks of daily captures with a slowly growing 1× (24.7 Hz at 1482 r/min; from
+  // ≈ 1.6 to ≈ 2.5 mm/s RMS, v = a/2πf, so the alert level 2.8 mm/s lies ahead) and a
   // bearing-like tone at 212 Hz; the one in the middle clips (60 g peak on a ±50 g ADC range).
   const now = Date.now();
   for (let i = 0; i < 21; i++) {
@@ -43,7 +44,7 @@ beforeAll(async () => {
       tones: clipped
         ? [{ hz: 24.7, peakG: 60 }]
         : [
-            { hz: 24.7, peakG: 0.15 + 0.012 * i },
+            { hz: 24.7, peakG: 0.035 + 0.001 * i },
             { hz: 212, peakG: 0.05 },
           ],
       speedRpm: 1482,
@@ -98,6 +99,8 @@ describe('point analysis views in a real browser', () => {
     await page.getByRole('heading', { name: 'Motor drive end, horizontal' }).waitFor();
     await canvasIn(page, /^Trend of /);
     await page.getByText('Alert level', { exact: true }).waitFor();
+    // Rising towards alert: the projection names a crossing date.
+    await page.getByText(/^Alert by /).waitFor();
     await screenshot(page, 'point-trend');
 
     const [download] = await Promise.all([

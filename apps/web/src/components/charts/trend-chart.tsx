@@ -91,6 +91,13 @@ export interface TrendChartProps {
   onPointClick?: (index: number) => void;
 }
 
+/** The next "round" number at or above x (1, 1.2, 1.5, 2, 2.5, 3, 4, 5, 6, 8 × 10^k). */
+export function niceCeil(x: number): number {
+  const p = 10 ** Math.floor(Math.log10(x));
+  for (const m of [1, 1.2, 1.5, 2, 2.5, 3, 4, 5, 6, 8, 10]) if (m * p >= x) return m * p;
+  return 10 * p;
+}
+
 const toMs = (t: ChartTime) => (typeof t === 'number' ? t : Date.parse(t));
 export const displayUnit = (unit: string) => (unit === 'um' ? 'µm' : unit);
 
@@ -147,7 +154,7 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
   for (const m of props.markerSeries ?? [])
     for (const p of m.points) usableMax = Math.max(usableMax, p.v);
   const hasUnusable = data.some((d) => d[2] === 'unusable');
-  const yMax = hasUnusable && usableMax > 0 ? usableMax * 1.15 : undefined;
+  const yMax = hasUnusable && usableMax > 0 ? niceCeil(usableMax * 1.1) : undefined;
   const xMin = props.range?.from !== undefined ? toMs(props.range.from) : Math.min(...times);
   const xMax = props.range?.to !== undefined ? toMs(props.range.to) : Math.max(...times);
 
@@ -299,7 +306,9 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
         show: true,
         formatter: (params: { dataIndex: number }) =>
           params.dataIndex === 1 ? (p.label ?? '') : '',
-        position: 'left',
+        position: 'top',
+        distance: 8,
+        align: 'right',
         color: chartColours.ink,
         fontFamily: sansFont,
         fontSize: 11,
