@@ -223,7 +223,7 @@ export function FindingsList({
                       <td className="px-3 py-2 align-top">
                         <FindingStateMark state={f.state} />
                       </td>
-                      <td className="px-3 py-2 align-top font-mono text-[13px] text-ink">
+                      <td className="px-3 py-2 align-top font-mono text-[13px] whitespace-nowrap text-ink">
                         {f.workOrderRef ?? <span className="text-ink-faint">—</span>}
                       </td>
                       <td className="px-3 py-2 align-top font-mono text-[13px] whitespace-nowrap text-ink">

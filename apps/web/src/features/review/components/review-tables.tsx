@@ -327,7 +327,9 @@ export function OpenAlertsTable({
               </td>
               <td className={tdNum}>
                 {a.ageDays} d
-                <div className="text-xs text-ink-muted">since {formatDay(a.firstAt)}</div>
+                <div className="text-xs whitespace-normal text-ink-muted">
+                  since {formatDay(a.firstAt)}
+                </div>
               </td>
               <ActionCell
                 label={`Create finding for alert on ${a.pointTag}, ${a.bandName}`}
