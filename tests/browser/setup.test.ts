@@ -121,7 +121,17 @@ describe('admin setup screens in a real browser', () => {
     expect(await page.getByRole('button', { name: 'New site' }).count()).toBe(0);
     expect(await page.getByRole('button', { name: /Add area/ }).count()).toBe(0);
     expect(await nav.getByRole('link', { name: 'Gateways' }).count()).toBe(0);
+    await page.setViewportSize({ width: 820, height: 1100 });
+    await page.getByRole('button', { name: /^High-lift pump P-201/ }).click();
+    await page.getByRole('form', { name: 'Machine' }).waitFor();
+    await screenshot(page, 'setup-engineer-tablet');
+    await page.setViewportSize({ width: 1280, height: 860 });
+    // The machine's change history opens the audit log filtered to it.
+    await page.getByRole('link', { name: 'Change history' }).click();
+    expect(await page.getByLabel('Entity', { exact: true }).inputValue()).toBe('machine');
+    await page.getByText('No entries').waitFor();
     await nav.getByRole('link', { name: 'Audit log' }).click();
+    await page.getByRole('button', { name: 'Clear filters' }).click();
     await page.getByRole('cell', { name: 'point.create' }).first().waitFor();
     await page.getByLabel('Entity', { exact: true }).selectOption('gateway');
     await page.getByRole('cell', { name: 'gateway.create' }).first().waitFor();

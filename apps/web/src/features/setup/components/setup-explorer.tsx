@@ -1,11 +1,13 @@
 import type { Role } from '@turnstone/contracts/roles';
 import type { SetupTree } from '@turnstone/contracts/setup';
 import { useState, type ReactNode } from 'react';
+import { Link } from 'react-router-dom';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
+import { paths } from '../../../config/paths.ts';
 import { cn } from '../../../lib/cn.ts';
 import { useSetup } from '../api/get-setup.ts';
 import { AreaForm } from './area-form.tsx';
@@ -173,6 +175,10 @@ export function SetupExplorer({ role }: { role: Role }) {
 
   let title = '';
   let panel: ReactNode = null;
+  const history =
+    selection.kind !== 'none' && selection.id !== undefined
+      ? { entity: selection.kind, entityId: selection.id }
+      : null;
   switch (selection.kind) {
     case 'site': {
       const site = tree.sites.find((s) => s.id === selection.id);
@@ -268,7 +274,17 @@ export function SetupExplorer({ role }: { role: Role }) {
       <Card className="min-h-0 overflow-auto p-5">
         {panel ? (
           <section aria-label={title}>
-            <h2 className="mb-4 text-base font-semibold">{title}</h2>
+            <div className="mb-4 flex flex-wrap items-baseline justify-between gap-2">
+              <h2 className="text-base font-semibold">{title}</h2>
+              {history && (
+                <Link
+                  to={paths.app.audit.getHref(history)}
+                  className="text-sm text-accent underline-offset-2 hover:underline"
+                >
+                  Change history
+                </Link>
+              )}
+            </div>
             {panel}
           </section>
         ) : (
