@@ -6,6 +6,7 @@ import { AppError, notFound } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import { newGatewayKey } from './gateway-keys.ts';
+import { forgetGatewayKeys } from '../ingest/ingest-service.ts';
 
 export { createGatewaySchema };
 
@@ -84,6 +85,7 @@ export async function revokeGateway(db: Db, user: SessionUser, id: number) {
       after: { revokedAt },
     });
   });
+  forgetGatewayKeys();
   return publicView({ ...g, revokedAt }, row);
 }
 
@@ -114,5 +116,6 @@ export async function rotateGatewayKey(db: Db, user: SessionUser, id: number) {
       after: { keyPrefix: k.prefix },
     });
   });
+  forgetGatewayKeys();
   return { id, apiKey: k.key, keyPrefix: k.prefix };
 }
