@@ -32,6 +32,9 @@ export const paths = {
           : '/audit',
     },
     uploads: { path: '/uploads', getHref: () => '/uploads' },
+    users: { path: '/users', getHref: () => '/users' },
+    mailbox: { path: '/mailbox', getHref: () => '/mailbox' },
+    account: { path: '/account', getHref: () => '/account' },
     fleet: {
       path: '/fleet',
       getHref: () => '/fleet',
