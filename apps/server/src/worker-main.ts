@@ -8,6 +8,7 @@ import { runningLocalUrl } from '@turnstone/db/local-server';
 import { loadConfig } from './config.ts';
 import { createLogger } from './lib/logger.ts';
 import { createWorker } from './features/worker/worker.ts';
+import { startMailWorker } from './features/mail/mail-runtime.ts';
 
 const config = loadConfig();
 const log = createLogger(config.LOG_LEVEL);
@@ -20,12 +21,16 @@ if (!url) {
   process.exit(1);
 }
 const dbHandle = createDb(url);
-const worker = createWorker({ config, db: dbHandle.db, dbHandle, log, jwtSecret: '', dataDir });
+const ctx = { config, db: dbHandle.db, dbHandle, log, jwtSecret: '', dataDir };
+const worker = createWorker(ctx);
 worker.start();
+// The outbox is sent by every worker process; claims are leased, so several can share it.
+const mail = await startMailWorker(ctx);
 log.info('worker started', { owner: worker.owner });
 for (const signal of ['SIGINT', 'SIGTERM'] as const) {
   process.once(signal, async () => {
     await worker.stop();
+    await mail?.stop();
     await dbHandle.close();
     process.exit(0);
   });
