@@ -105,15 +105,13 @@ async function persistChange(
         suspect: a.suspect,
       })
       .$returningId();
-    await tx
-      .insert(repo.alertEvents)
-      .values({
-        alertId: ins!.id,
-        kind: 'raised',
-        level: a.level,
-        value: a.lastValue,
-        at: d(a.lastAt),
-      });
+    await tx.insert(repo.alertEvents).values({
+      alertId: ins!.id,
+      kind: 'raised',
+      level: a.level,
+      value: a.lastValue,
+      at: d(a.lastAt),
+    });
     await queueAlertMail(ctx, tx, { alertId: ins!.id, kind: 'raised' });
     return;
   }
@@ -142,30 +140,26 @@ async function persistChange(
         acknowledgeNote: null,
       })
       .where(eq(repo.alerts.id, open.id));
-    await tx
-      .insert(repo.alertEvents)
-      .values({
-        alertId: open.id,
-        kind: 'escalated',
-        level: a.level,
-        value: a.lastValue,
-        at: d(a.lastAt),
-      });
+    await tx.insert(repo.alertEvents).values({
+      alertId: open.id,
+      kind: 'escalated',
+      level: a.level,
+      value: a.lastValue,
+      at: d(a.lastAt),
+    });
     await queueAlertMail(ctx, tx, { alertId: open.id, kind: 'escalated' });
   } else if (change.kind === 'cleared') {
     await tx
       .update(repo.alerts)
       .set({ ...common, state: 'cleared', clearedAt: d(a.clearedAt ?? a.lastAt) })
       .where(eq(repo.alerts.id, open.id));
-    await tx
-      .insert(repo.alertEvents)
-      .values({
-        alertId: open.id,
-        kind: 'cleared',
-        level: a.level,
-        value: a.clearedValue ?? a.lastValue,
-        at: d(a.clearedAt ?? a.lastAt),
-      });
+    await tx.insert(repo.alertEvents).values({
+      alertId: open.id,
+      kind: 'cleared',
+      level: a.level,
+      value: a.clearedValue ?? a.lastValue,
+      at: d(a.clearedAt ?? a.lastAt),
+    });
     await queueAlertMail(ctx, tx, { alertId: open.id, kind: 'cleared' });
   }
 }

@@ -37,14 +37,12 @@ export type NewSnapshot = typeof snapshots.$inferInsert;
 export async function insertSnapshotWithJob(db: Db, row: NewSnapshot): Promise<number> {
   return db.transaction(async (tx) => {
     const [s] = await tx.insert(snapshots).values(row).$returningId();
-    await tx
-      .insert(jobs)
-      .values({
-        kind: 'analyze',
-        snapshotId: s!.id,
-        payload: {},
-        runAfter: sql`CURRENT_TIMESTAMP(3)`,
-      });
+    await tx.insert(jobs).values({
+      kind: 'analyze',
+      snapshotId: s!.id,
+      payload: {},
+      runAfter: sql`CURRENT_TIMESTAMP(3)`,
+    });
     return s!.id;
   });
 }

@@ -30,15 +30,13 @@ export function ingestRouter(ctx: AppContext): Router {
       legacyHeaders: false,
       handler: (_req, res) => {
         res.setHeader('Retry-After', '10');
-        res
-          .status(429)
-          .json({
-            error: {
-              code: 'rate_limited',
-              message:
-                'This gateway is sending faster than its allowed rate; retry after the delay in Retry-After.',
-            },
-          });
+        res.status(429).json({
+          error: {
+            code: 'rate_limited',
+            message:
+              'This gateway is sending faster than its allowed rate; retry after the delay in Retry-After.',
+          },
+        });
       },
     }),
     express.json({ limit: '16mb' }),
