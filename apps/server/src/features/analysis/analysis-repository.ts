@@ -98,23 +98,31 @@ export async function saveLimitSet(
     id = row!.id;
     version = 1;
   }
-  if (list.length > 0) {
-    await tx.insert(bands).values(
-      list.map((b, i) => ({
-        limitSetId: id,
-        key: b.key,
-        name: b.name,
-        kind: b.kind,
-        spectrum: b.spectrum,
-        unit: b.unit,
-        alertLevel: b.alertLevel,
-        dangerLevel: b.dangerLevel,
-        definition: b as unknown as Record<string, unknown>,
-        sortOrder: i,
-      })),
-    );
-  }
+  await insertBands(tx, id, list);
   return { id, version };
+}
+
+/** The band rows of a limit set, in order: the list columns plus the whole definition. */
+export async function insertBands(
+  tx: Tx,
+  limitSetId: number,
+  list: readonly LimitBand[],
+): Promise<void> {
+  if (list.length === 0) return;
+  await tx.insert(bands).values(
+    list.map((b, i) => ({
+      limitSetId,
+      key: b.key,
+      name: b.name,
+      kind: b.kind,
+      spectrum: b.spectrum,
+      unit: b.unit,
+      alertLevel: b.alertLevel,
+      dangerLevel: b.dangerLevel,
+      definition: b as unknown as Record<string, unknown>,
+      sortOrder: i,
+    })),
+  );
 }
 
 /** Locks the point's condition state for this transaction (creating it when missing). */

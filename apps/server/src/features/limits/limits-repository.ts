@@ -12,7 +12,7 @@ import {
   users,
 } from '@turnstone/db/schema';
 import type { BandDefinition as LimitBand } from '@turnstone/condition';
-import type { Tx } from '../analysis/analysis-repository.ts';
+import { insertBands, type Tx } from '../analysis/analysis-repository.ts';
 
 type MachineType = (typeof limitSets.$inferSelect)['machineType'] & string;
 
@@ -85,22 +85,7 @@ export async function saveTemplate(
     id = row!.id;
     version = 1;
   }
-  if (list.length > 0) {
-    await tx.insert(bands).values(
-      list.map((b, i) => ({
-        limitSetId: id,
-        key: b.key,
-        name: b.name,
-        kind: b.kind,
-        spectrum: b.spectrum,
-        unit: b.unit,
-        alertLevel: b.alertLevel,
-        dangerLevel: b.dangerLevel,
-        definition: b as unknown as Record<string, unknown>,
-        sortOrder: i,
-      })),
-    );
-  }
+  await insertBands(tx, id, list);
   return version;
 }
 
