@@ -144,7 +144,8 @@ export async function storeSnapshot(
   const hash = contentHash(s);
   // New uids are the common case: insert straight away, and read the stored row only when
   // the unique index says the uid is taken (a repeat, or two deliveries racing).
-  const compressed = await deflate(s.bytes);
+  // Level 1: vibration counts barely compress further, and this runs on every ingest.
+  const compressed = await deflate(s.bytes, { level: 1 });
   try {
     const snapshotId = await repo.insertSnapshotWithJob(ctx.db, {
       uid: s.uid,
