@@ -1,4 +1,3 @@
-import { z } from 'zod';
 import {
   acknowledgeManyRequestSchema,
   acknowledgeRequestSchema,
@@ -10,8 +9,7 @@ import {
 import type { AppContext } from '../../lib/context.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './alerts-service.ts';
-
-const idParam = z.object({ id: z.coerce.number().int().positive() });
+import { idParam } from '../../lib/route-params.ts';
 
 export function alertRoutes(ctx: AppContext): RouteSpec[] {
   return [

@@ -1,4 +1,3 @@
-import { z } from 'zod';
 import {
   createFindingSchema,
   findingListQuerySchema,
@@ -7,8 +6,8 @@ import {
 import type { AppContext } from '../../lib/context.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './findings-service.ts';
+import { idParam } from '../../lib/route-params.ts';
 
-const idParam = z.object({ id: z.coerce.number().int().positive() });
 /** Planners own findings; engineers raise them too (DESIGN.md roles). */
 const WRITERS = ['planner', 'engineer'] as const;
 

@@ -1,9 +1,7 @@
-import { z } from 'zod';
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './gateways-service.ts';
-
-const idParam = z.object({ id: z.coerce.number().int().positive() });
+import { idParam } from '../../lib/route-params.ts';
 
 export function gatewayRoutes(ctx: AppContext): RouteSpec[] {
   return [

@@ -18,8 +18,8 @@ import type { AppContext } from '../../lib/context.ts';
 import { accessiblePoint } from '../../lib/point-access.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './limits-service.ts';
+import { idParam } from '../../lib/route-params.ts';
 
-const idParam = z.object({ id: z.coerce.number().int().positive() });
 const typeParam = z.object({ machineType: machineTypeSchema });
 // The contract schema mirrors the condition package's BandDefinition.
 const asBands = (b: unknown) => b as LimitBand[];

@@ -1,9 +1,7 @@
-import { z } from 'zod';
 import type { AppContext } from '../../lib/context.ts';
 import type { RouteSpec } from '../../lib/route-table.ts';
 import * as service from './mailbox-service.ts';
-
-const idParam = z.object({ id: z.coerce.number().int().positive() });
+import { idParam } from '../../lib/route-params.ts';
 
 export function mailboxRoutes(ctx: AppContext): RouteSpec[] {
   return [

@@ -1,5 +1,4 @@
 import type { Response } from 'express';
-import { z } from 'zod';
 import {
   analysesQuerySchema,
   spectrumQuerySchema,
@@ -9,8 +8,7 @@ import { trendQuerySchema } from '@turnstone/contracts/trend';
 import type { AppContext } from '../../lib/context.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './points-service.ts';
-
-const idParam = z.object({ id: z.coerce.number().int().positive() });
+import { idParam } from '../../lib/route-params.ts';
 
 function attachment(res: Response, fileName: string, type: string) {
   res.setHeader('Content-Type', type);

@@ -1,4 +1,3 @@
-import { z } from 'zod';
 import {
   areaInputSchema,
   areaUpdateSchema,
@@ -9,8 +8,8 @@ import {
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './setup-service.ts';
+import { idParam } from '../../lib/route-params.ts';
 
-const idParam = z.object({ id: z.coerce.number().int().positive() });
 const ADMIN = ['admin'] as const;
 const BUILDERS = ['admin', 'engineer'] as const;
 

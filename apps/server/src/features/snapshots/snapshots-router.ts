@@ -1,12 +1,10 @@
 import { eq } from 'drizzle-orm';
-import { z } from 'zod';
 import { analyses, snapshots } from '@turnstone/db/schema';
 import type { AppContext } from '../../lib/context.ts';
 import { notFound } from '../../lib/app-error.ts';
 import { accessiblePoint } from '../../lib/point-access.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
-
-const idParam = z.object({ id: z.coerce.number().int().positive() });
+import { idParam } from '../../lib/route-params.ts';
 
 export function snapshotRoutes(ctx: AppContext): RouteSpec[] {
   return [

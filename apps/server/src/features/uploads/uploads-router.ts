@@ -1,12 +1,11 @@
 import type { Request, Response } from 'express';
 import multer from 'multer';
-import { z } from 'zod';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import { acceptUpload, MAX_UPLOAD_BYTES } from './uploads-service.ts';
+import { idParam } from '../../lib/route-params.ts';
 
-const idParam = z.object({ id: z.coerce.number().int().positive() });
 const upload = multer({
   storage: multer.memoryStorage(),
   limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 20, fieldSize: 1024 },

@@ -1,6 +1,5 @@
 import type { Request, Response } from 'express';
 import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
-import { z } from 'zod';
 import {
   acceptInviteSchema,
   forgotPasswordSchema,
@@ -12,8 +11,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './users-service.ts';
-
-const idParam = z.object({ id: z.coerce.number().int().positive() });
+import { idParam } from '../../lib/route-params.ts';
 
 /** Users admin: admin only. */
 export function userRoutes(ctx: AppContext): RouteSpec[] {
