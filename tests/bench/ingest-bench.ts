@@ -6,7 +6,6 @@
  * - worker throughput (analysed snapshots/s in one process) for 8,192-sample snapshots.
  * Targets: ingest ≥ 1,000/s with p99 ≤ 250 ms and zero lost or doubled; worker ≥ 200/s.
  */
-import { spawn } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -14,6 +13,7 @@ import mysql from 'mysql2/promise';
 import { startLocalMariadb } from '@turnstone/db/local-server';
 import { start } from '../../apps/server/src/server.ts';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import { createGatewayKey, runLoad, signInCookie } from './bench-support.ts';
 
 const COUNT = Number(process.env.BENCH_INGEST_COUNT ?? 6000);
 const CONCURRENCY = Number(process.env.BENCH_INGEST_CONCURRENCY ?? 32);
@@ -32,49 +32,10 @@ const srv = await start({
 });
 const pool = srv.ctx.dbHandle.pool;
 try {
-  const signIn = await fetch(`${srv.url}/api/v1/auth/sign-in`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email: 'admin@turnstone.local', password: 'turnstone-demo' }),
-  });
-  const cookie = (signIn.headers.get('set-cookie') ?? '').split(';')[0]!;
-  const gw = (await (
-    await fetch(`${srv.url}/api/v1/gateways`, {
-      method: 'POST',
-      headers: { cookie, 'content-type': 'application/json' },
-      body: JSON.stringify({ siteId: 1, name: 'bench' }),
-    })
-  ).json()) as { apiKey: string };
-  const tsx = join(process.cwd(), 'node_modules', 'tsx', 'dist', 'cli.mjs');
-  // The server runs in this process, so the load generator must not block it (no spawnSync).
+  const cookie = await signInCookie(srv.url, 'admin@turnstone.local');
+  const apiKey = await createGatewayKey(srv.url, cookie, 1, 'bench');
   const load = (prefix: string, count: number, samples: number) =>
-    new Promise<{
-      wallS: number;
-      perS: number;
-      p50: number;
-      p99: number;
-      statuses: Record<string, number>;
-      retries: number;
-    }>((resolve, reject) => {
-      const child = spawn(process.execPath, [
-        tsx,
-        'tests/bench/ingest-load.ts',
-        srv.url,
-        gw.apiKey,
-        String(count),
-        String(CONCURRENCY),
-        prefix,
-        String(samples),
-      ]);
-      let out = '';
-      let err = '';
-      child.stdout.on('data', (d) => (out += d));
-      child.stderr.on('data', (d) => (err += d));
-      child.on('exit', (code) => {
-        if (code !== 0) return reject(new Error(`load generator failed: ${err}`));
-        resolve(JSON.parse(out.trim().split('\n').pop()!));
-      });
-    });
+    runLoad({ url: srv.url, key: apiKey, count, concurrency: CONCURRENCY, prefix, samples });
   await load('warm', 300, 4096);
   const ingest = await load('ing', COUNT, 4096);
   const [rows] = await pool.query(

@@ -5,13 +5,13 @@
  * route, worker lag (queue depth over time, time to drain after the last post) and lost /
  * doubled counted in the database afterwards.
  */
-import { spawn } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { startLocalMariadb } from '@turnstone/db/local-server';
 import { start } from '../../apps/server/src/server.ts';
 import { queueDepth } from '../../apps/server/src/features/worker/worker.ts';
+import { createGatewayKey, runLoad, signInCookie } from './bench-support.ts';
 
 const SECONDS = Number(process.env.SOAK_SECONDS ?? 60);
 const GATEWAYS = Number(process.env.SOAK_GATEWAYS ?? 4);
@@ -34,66 +34,28 @@ const q = (xs: number[], p: number) => {
   return s.length ? s[Math.min(s.length - 1, Math.floor(p * s.length))]! : NaN;
 };
 try {
-  const signIn = await fetch(`${srv.url}/api/v1/auth/sign-in`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email: 'engineer@turnstone.local', password: 'turnstone-demo' }),
-  });
-  const cookie = (signIn.headers.get('set-cookie') ?? '').split(';')[0]!;
-  const adminIn = await fetch(`${srv.url}/api/v1/auth/sign-in`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email: 'admin@turnstone.local', password: 'turnstone-demo' }),
-  });
-  const admin = (adminIn.headers.get('set-cookie') ?? '').split(';')[0]!;
+  const cookie = await signInCookie(srv.url, 'engineer@turnstone.local');
+  const admin = await signInCookie(srv.url, 'admin@turnstone.local');
   const [pointRows] = await pool.query(
     'SELECT p.tag FROM points p JOIN machines m ON m.id = p.machine_id JOIN areas a ON a.id = m.area_id WHERE a.site_id = 1 ORDER BY p.id LIMIT ?',
     [GATEWAYS],
   );
   const tags = (pointRows as { tag: string }[]).map((r) => r.tag);
   const keys: string[] = [];
-  for (let g = 0; g < GATEWAYS; g++) {
-    const r = (await (
-      await fetch(`${srv.url}/api/v1/gateways`, {
-        method: 'POST',
-        headers: { cookie: admin, 'content-type': 'application/json' },
-        body: JSON.stringify({ siteId: 1, name: `soak ${g}` }),
-      })
-    ).json()) as { apiKey: string };
-    keys.push(r.apiKey);
-  }
-  const tsx = join(process.cwd(), 'node_modules', 'tsx', 'dist', 'cli.mjs');
+  for (let g = 0; g < GATEWAYS; g++)
+    keys.push(await createGatewayKey(srv.url, admin, 1, `soak ${g}`));
   const perGateway = Math.round(SECONDS * RATE);
-  const loads = keys.map(
-    (key, g) =>
-      new Promise<{
-        wallS: number;
-        perS: number;
-        p50: number;
-        p99: number;
-        statuses: Record<string, number>;
-        retries: number;
-      }>((resolve, reject) => {
-        const child = spawn(process.execPath, [
-          tsx,
-          'tests/bench/ingest-load.ts',
-          srv.url,
-          key,
-          String(perGateway),
-          '4',
-          `soak${g}`,
-          '4096',
-          String(RATE),
-          tags[g % tags.length]!,
-        ]);
-        let out = '';
-        child.stdout.on('data', (d) => (out += d));
-        child.on('exit', (code) =>
-          code === 0
-            ? resolve(JSON.parse(out.trim().split('\n').pop()!))
-            : reject(new Error(`gateway ${g} exited ${code}`)),
-        );
-      }),
+  const loads = keys.map((key, g) =>
+    runLoad({
+      url: srv.url,
+      key,
+      count: perGateway,
+      concurrency: 4,
+      prefix: `soak${g}`,
+      samples: 4096,
+      ratePerS: RATE,
+      pointTag: tags[g % tags.length]!,
+    }),
   );
   // The browser-like client: fleet every 2 s and alerts every 1 s, like open dashboards.
   const lat: Record<string, number[]> = { 'GET /api/v1/fleet': [], 'GET /api/v1/alerts': [] };

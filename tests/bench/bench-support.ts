@@ -1,0 +1,83 @@
+/** Pieces the benches share: a session cookie, a gateway key, the load generator process. */
+import { spawn } from 'node:child_process';
+import { join } from 'node:path';
+
+export async function signInCookie(
+  url: string,
+  email: string,
+  password = 'turnstone-demo',
+): Promise<string> {
+  const res = await fetch(`${url}/api/v1/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password }),
+  });
+  return (res.headers.get('set-cookie') ?? '').split(';')[0]!;
+}
+
+export async function createGatewayKey(
+  url: string,
+  adminCookie: string,
+  siteId: number,
+  name: string,
+): Promise<string> {
+  const res = await fetch(`${url}/api/v1/gateways`, {
+    method: 'POST',
+    headers: { cookie: adminCookie, 'content-type': 'application/json' },
+    body: JSON.stringify({ siteId, name }),
+  });
+  return ((await res.json()) as { apiKey: string }).apiKey;
+}
+
+export interface LoadResult {
+  wallS: number;
+  perS: number;
+  p50: number;
+  p99: number;
+  statuses: Record<string, number>;
+  retries: number;
+}
+
+export interface LoadOptions {
+  url: string;
+  key: string;
+  count: number;
+  concurrency: number;
+  prefix: string;
+  samples: number;
+  /** Paced requests per second; 0 = flat out. */
+  ratePerS?: number;
+  pointTag?: string;
+}
+
+/**
+ * Runs tests/bench/ingest-load.ts as a second process. Asynchronous on purpose: the
+ * benches run the server in their own process, which a spawnSync would freeze.
+ */
+export function runLoad(o: LoadOptions): Promise<LoadResult> {
+  const tsx = join(process.cwd(), 'node_modules', 'tsx', 'dist', 'cli.mjs');
+  const args = [
+    tsx,
+    'tests/bench/ingest-load.ts',
+    o.url,
+    o.key,
+    String(o.count),
+    String(o.concurrency),
+    o.prefix,
+    String(o.samples),
+  ];
+  if (o.ratePerS !== undefined || o.pointTag !== undefined) args.push(String(o.ratePerS ?? 0));
+  if (o.pointTag !== undefined) args.push(o.pointTag);
+  return new Promise((resolve, reject) => {
+    const child = spawn(process.execPath, args);
+    let out = '';
+    let err = '';
+    child.stdout.on('data', (d) => (out += d));
+    child.stderr.on('data', (d) => (err += d));
+    child.on('exit', (code) => {
+      if (code !== 0)
+        return reject(new Error(`load generator ${o.prefix} exited ${code}: ${err.slice(-500)}`));
+      resolve(JSON.parse(out.trim().split('\n').pop()!) as LoadResult);
+    });
+  });
+}
