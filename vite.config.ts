@@ -28,6 +28,16 @@ export default defineConfig({
         },
       },
       {
+        // The same signal-processing checks on the fft.js path (runtimes without WebAssembly
+        // SIMD), so both FFT paths stay proven against the same references.
+        test: {
+          name: 'unit-fft-js',
+          root: here,
+          include: ['packages/dsp/src/**/*.test.ts', 'tests/reference/scipy-spectra.test.ts'],
+          env: { TURNSTONE_FFT: 'js' },
+        },
+      },
+      {
         test: {
           name: 'api',
           root: here,

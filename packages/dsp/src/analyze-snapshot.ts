@@ -219,8 +219,7 @@ export function analyzeSnapshot(
 
   // ---- counts → g; quality from the counts
   const accel = scaleToAcceleration(samples, { encoding, bits, fullScaleV, sensitivityMvPerG });
-  const stats = waveformStatistics(accel);
-  for (let i = 0; i < n; i++) accel[i] = accel[i]! - stats.mean;
+  const stats = waveformStatistics(accel, { centerInPlace: true });
 
   // ---- Welch acceleration spectrum
   const maxSeg = 2 ** Math.floor(Math.log2(n));

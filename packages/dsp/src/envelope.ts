@@ -1,3 +1,4 @@
+import { fftKernel } from './fft-kernel.ts';
 import { getFftPlan, nextPowerOfTwo } from './fft-plan.ts';
 import { scratch } from './scratch.ts';
 import { getWindow, type WindowName } from './window-functions.ts';
@@ -82,13 +83,18 @@ export function bandEnvelope(
     baseband[2 * j] = h * scale * spectrum[2 * k]!;
     baseband[2 * j + 1] = h * scale * spectrum[2 * k + 1]!;
   }
-  const z = scratch('envelope-z', 2 * m);
-  getFftPlan(m).inverseUnscaled(z, baseband);
   const envelope = new Float64Array(m);
-  for (let i = 0; i < m; i++) {
-    const re = z[2 * i]!;
-    const im = z[2 * i + 1]!;
-    envelope[i] = Math.sqrt(re * re + im * im);
+  const kernel = fftKernel();
+  if (kernel) {
+    kernel.complexPlan(m).inverseMagnitude(envelope, baseband);
+  } else {
+    const z = scratch('envelope-z', 2 * m);
+    getFftPlan(m).inverseUnscaled(z, baseband);
+    for (let i = 0; i < m; i++) {
+      const re = z[2 * i]!;
+      const im = z[2 * i + 1]!;
+      envelope[i] = Math.sqrt(re * re + im * im);
+    }
   }
   const df = fs / n;
   return { envelope, sampleRateHz: (fs * m) / n, bandHz: [k1 * df, k2 * df] };

@@ -1,12 +1,15 @@
 import FFT from 'fft.js';
+import { fftKernel } from './fft-kernel.ts';
 
 /**
  * A cached FFT plan for one transform size. Buffers are interleaved complex
  * (`[re0, im0, re1, im1, …]`) of length `2 · size`, as in fft.js.
  *
- * Power-of-two sizes use fft.js (radix-4, Cooley & Tukey 1965); other sizes use
- * Bluestein's chirp-z algorithm (Bluestein 1970, IEEE Trans. Audio Electroacoust. 18(4))
- * on top of a power-of-two fft.js plan, so any length is exact to rounding.
+ * Power-of-two sizes run in the package's WebAssembly kernel (radix-4 Stockham with SIMD,
+ * wasm/fft-kernel.c), or in fft.js (radix-4, Cooley & Tukey 1965) where the runtime has no
+ * WebAssembly SIMD; other sizes use Bluestein's chirp-z algorithm (Bluestein 1970, IEEE
+ * Trans. Audio Electroacoust. 18(4)) on top of a power-of-two plan, so any length is exact
+ * to rounding.
  */
 export interface FftPlan {
   /** Transform length. */
@@ -72,6 +75,34 @@ function trivialPlan(): FftPlan {
 }
 
 function radixPlan(size: number): FftPlan {
+  const kernel = fftKernel();
+  if (kernel) {
+    const complex = kernel.complexPlan(size);
+    const real = size >= 8 ? kernel.realPlan(size) : null;
+    const plan: FftPlan = {
+      size,
+      forward: (out, input) => complex.forward(out, input),
+      inverse(out, input) {
+        complex.inverseUnscaled(out, input);
+        const scale = 1 / size;
+        for (let i = 0; i < 2 * size; i++) out[i] = out[i]! * scale;
+      },
+      inverseUnscaled: (out, input) => complex.inverseUnscaled(out, input),
+      realForward: real
+        ? (out, input) => real.realForward(out, input)
+        : (out, input) => {
+            const z = new Float64Array(2 * size);
+            for (let i = 0; i < size; i++) z[2 * i] = input[i]!;
+            complex.forward(out, z);
+          },
+    };
+    return plan;
+  }
+  return fftJsPlan(size);
+}
+
+/** The same plan on fft.js alone (runtimes without WebAssembly SIMD; tests compare both). */
+export function fftJsPlan(size: number): FftPlan {
   const fft = new FFT(size);
   const plan: FftPlan = {
     size,
@@ -312,6 +343,11 @@ const halfScratch = new Map<
  * its Applications", 1988, ch. 9; Press et al., Numerical Recipes, §12.3).
  */
 export function realInverseInto(out: Float64Array, spectrum: Float64Array, n: number): void {
+  const kernel = n >= 8 && isPowerOfTwo(n) ? fftKernel() : null;
+  if (kernel) {
+    kernel.realPlan(n).realInverse(out, spectrum);
+    return;
+  }
   if (n % 2 !== 0 || n < 4) {
     const full = new Float64Array(2 * n);
     const bins = Math.floor(n / 2) + 1;

@@ -19,13 +19,26 @@ export interface WaveformStatistics {
   kurtosis: number;
 }
 
+/** Options for {@link waveformStatistics}. */
+export interface WaveformStatisticsOptions {
+  /**
+   * Subtract the mean from `input` in place during the second pass (input must then be a
+   * Float64Array): saves the caller a pass over a long record.
+   * @default false
+   */
+  centerInPlace?: boolean;
+}
+
 /**
  * Mean, RMS, peak, peak-to-peak, crest factor and kurtosis of a waveform in two passes.
  *
  * Source: moment definitions (Pearson kurtosis β₂ = m₄/m₂²); crest factor = peak/RMS as
  * used for impulsive bearing signals (Randall & Antoni 2011, MSSP 25:485–520).
  */
-export function waveformStatistics(input: ArrayLike<number>): WaveformStatistics {
+export function waveformStatistics(
+  input: ArrayLike<number>,
+  options: WaveformStatisticsOptions = {},
+): WaveformStatistics {
   const n = input.length;
   if (n < 1) throw new RangeError('waveform statistics need at least one sample');
   let sum = 0;
@@ -48,11 +61,23 @@ export function waveformStatistics(input: ArrayLike<number>): WaveformStatistics
   const mean = sum / n;
   let m2 = 0;
   let m4 = 0;
-  for (let i = 0; i < n; i++) {
-    const d = input[i]! - mean;
-    const d2 = d * d;
-    m2 += d2;
-    m4 += d2 * d2;
+  if (options.centerInPlace) {
+    if (!(input instanceof Float64Array))
+      throw new TypeError('centerInPlace needs a Float64Array input');
+    for (let i = 0; i < n; i++) {
+      const d = input[i]! - mean;
+      input[i] = d;
+      const d2 = d * d;
+      m2 += d2;
+      m4 += d2 * d2;
+    }
+  } else {
+    for (let i = 0; i < n; i++) {
+      const d = input[i]! - mean;
+      const d2 = d * d;
+      m2 += d2;
+      m4 += d2 * d2;
+    }
   }
   m2 /= n;
   m4 /= n;

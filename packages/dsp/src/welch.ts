@@ -1,4 +1,5 @@
-import { getFftPlan } from './fft-plan.ts';
+import { fftKernel } from './fft-kernel.ts';
+import { getFftPlan, isPowerOfTwo } from './fft-plan.ts';
 import { getWindow, type WindowName } from './window-functions.ts';
 
 /** Options for {@link welch}. */
@@ -126,40 +127,18 @@ export function welch(input: ArrayLike<number>, options: WelchOptions = {}): Wel
   const window = getWindow(windowName, nperseg);
   const w = window.values;
 
-  const plan = getFftPlan(nperseg);
-  const { frame, out } = scratchFor(nperseg);
   const bins = Math.floor(nperseg / 2) + 1;
   const power = new Float64Array(bins);
   const step = nperseg - noverlap;
   const segments = Math.floor((n - nperseg) / step) + 1;
 
-  // The mean is removed after the FFT: DFT{(x − m)·w} = DFT{x·w} − m·DFT{w}, and the
-  // window's DFT is nonzero on only a few lines (2 for Hann), so one pass over the
-  // segment does both the sum and the windowing.
-  const { lines: fixLines, re: fixRe, im: fixIm } = windowSpectrum(windowName, nperseg);
   const data = input instanceof Float64Array ? input : Float64Array.from(input);
-  for (let s = 0; s < segments; s++) {
-    const start = s * step;
-    let sum = 0;
-    for (let i = 0; i < nperseg; i++) {
-      const v = data[start + i]!;
-      sum += v;
-      frame[i] = v * w[i]!;
-    }
-    plan.realForward(out, frame);
-    if (detrend === 'constant') {
-      const mean = sum / nperseg;
-      for (let j = 0; j < fixLines.length; j++) {
-        const k = fixLines[j]!;
-        out[2 * k] = out[2 * k]! - mean * fixRe[j]!;
-        out[2 * k + 1] = out[2 * k + 1]! - mean * fixIm[j]!;
-      }
-    }
-    for (let k = 0; k < bins; k++) {
-      const re = out[2 * k]!;
-      const im = out[2 * k + 1]!;
-      power[k] = power[k]! + re * re + im * im;
-    }
+  const kernel = isPowerOfTwo(nperseg) && nperseg >= 8 ? fftKernel() : null;
+  if (kernel) {
+    const used = (segments - 1) * step + nperseg;
+    kernel.welchSum(data.subarray(0, used), segments, step, w, detrend === 'constant', power);
+  } else {
+    sumPeriodograms(data, segments, step, windowName, w, detrend === 'constant', power);
   }
 
   const norm = scaling === 'density' ? fs * window.sumOfSquares : window.sum * window.sum;
@@ -180,4 +159,51 @@ export function welch(input: ArrayLike<number>, options: WelchOptions = {}): Wel
     window: windowName,
     enbwBins: window.enbwBins,
   };
+}
+
+/**
+ * Σ over segments of |DFT{(x − mean)·w}|² into `power`, on the FftPlan (fft.js or Bluestein):
+ * the path for runtimes without the WebAssembly kernel and for segment lengths that are not
+ * powers of two.
+ */
+function sumPeriodograms(
+  data: Float64Array,
+  segments: number,
+  step: number,
+  windowName: WindowName,
+  w: Float64Array,
+  detrend: boolean,
+  power: Float64Array,
+): void {
+  const nperseg = w.length;
+  const bins = power.length;
+  const plan = getFftPlan(nperseg);
+  const { frame, out } = scratchFor(nperseg);
+  // The mean is removed after the FFT: DFT{(x − m)·w} = DFT{x·w} − m·DFT{w}, and the
+  // window's DFT is nonzero on only a few lines (2 for Hann), so one pass over the
+  // segment does both the sum and the windowing.
+  const { lines: fixLines, re: fixRe, im: fixIm } = windowSpectrum(windowName, nperseg);
+  for (let s = 0; s < segments; s++) {
+    const start = s * step;
+    let sum = 0;
+    for (let i = 0; i < nperseg; i++) {
+      const v = data[start + i]!;
+      sum += v;
+      frame[i] = v * w[i]!;
+    }
+    plan.realForward(out, frame);
+    if (detrend) {
+      const mean = sum / nperseg;
+      for (let j = 0; j < fixLines.length; j++) {
+        const k = fixLines[j]!;
+        out[2 * k] = out[2 * k]! - mean * fixRe[j]!;
+        out[2 * k + 1] = out[2 * k + 1]! - mean * fixIm[j]!;
+      }
+    }
+    for (let k = 0; k < bins; k++) {
+      const re = out[2 * k]!;
+      const im = out[2 * k + 1]!;
+      power[k] = power[k]! + re * re + im * im;
+    }
+  }
 }
