@@ -307,10 +307,6 @@ export function rfft(input: ArrayLike<number>): ComplexSpectrum {
   if (n < 1) throw new RangeError('rfft needs at least one sample');
   const plan = getFftPlan(n);
   const data = input instanceof Float64Array ? input : Float64Array.from(input);
-  for (let i = 0; i < n; i++) {
-    if (!Number.isFinite(data[i]!))
-      throw new RangeError(`rfft input has a non-finite value at ${i}`);
-  }
   let out = rfftScratch.get(n);
   if (!out) {
     out = new Float64Array(2 * n);
@@ -320,9 +316,21 @@ export function rfft(input: ArrayLike<number>): ComplexSpectrum {
   const bins = Math.floor(n / 2) + 1;
   const re = new Float64Array(bins);
   const im = new Float64Array(bins);
+  let bad = 0;
   for (let k = 0; k < bins; k++) {
-    re[k] = out[2 * k]!;
-    im[k] = out[2 * k + 1]!;
+    const r = out[2 * k]!;
+    const i = out[2 * k + 1]!;
+    bad += r - r + (i - i); // NaN once any bin is NaN or ±Infinity
+    re[k] = r;
+    im[k] = i;
+  }
+  // A NaN or ±Infinity sample reaches every bin; only then look for where it is.
+  if (bad !== 0) {
+    for (let i = 0; i < n; i++) {
+      if (!Number.isFinite(data[i]!))
+        throw new RangeError(`rfft input has a non-finite value at ${i}`);
+    }
+    throw new RangeError('rfft input is too large: its transform overflows');
   }
   return { re, im };
 }
