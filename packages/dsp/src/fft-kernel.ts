@@ -87,20 +87,24 @@ export interface FftKernel {
 const BYTES = Float64Array.BYTES_PER_ELEMENT;
 
 /**
- * Twiddles of the radix-4 Stockham passes for an n-point complex DFT: for each pass of length
- * L = n, n/4, … (while L ≥ 4) and p < L/4, the powers w^p, w^2p, w^3p of w = e^(−2πi/L),
- * each as (re, re, −im, im) — the layout the kernel's complex multiply reads.
- * Each angle is computed directly (no recurrences), so rounding stays at one ulp.
+ * Twiddles of the Stockham passes for an n-point complex DFT, in the order the kernel runs
+ * them: radix-8 passes of length L = n, n/8, … while L ≥ 8, then one radix-4 pass when L = 4.
+ * For each pass and p < L/radix, the powers w^p … w^((radix−1)p) of w = e^(−2πi/L), each as
+ * (re, re, −im, im) — the layout the kernel's complex multiply reads. Each angle is computed
+ * directly (no recurrences), so rounding stays at one ulp.
  */
 function complexTwiddles(n: number): Float64Array {
-  let count = 0;
-  for (let len = n; len >= 4; len /= 4) count += len / 4;
-  const tw = new Float64Array(12 * count);
+  const passes: [length: number, radix: number][] = [];
+  let len = n;
+  for (; len >= 8; len /= 8) passes.push([len, 8]);
+  if (len === 4) passes.push([4, 4]);
+  const count = passes.reduce((a, [l, r]) => a + (l / r) * (r - 1), 0);
+  const tw = new Float64Array(4 * count);
   let o = 0;
-  for (let len = n; len >= 4; len /= 4) {
-    for (let p = 0; p < len / 4; p++) {
-      for (let m = 1; m <= 3; m++) {
-        const angle = (2 * Math.PI * ((m * p) % len)) / len;
+  for (const [l, radix] of passes) {
+    for (let p = 0; p < l / radix; p++) {
+      for (let m = 1; m < radix; m++) {
+        const angle = (2 * Math.PI * ((m * p) % l)) / l;
         const re = Math.cos(angle);
         const im = -Math.sin(angle);
         tw[o++] = re;

@@ -4,9 +4,9 @@
 // Build: packages/dsp/wasm/build.sh (Debian's clang-14 and lld-14). The build writes
 // packages/dsp/src/fft-kernel-wasm.ts; commit both files together.
 //
-// Algorithm: radix-4 Stockham autosort (Stockham 1966; Van Loan, "Computational Frameworks
-// for the Fast Fourier Transform", SIAM 1992, §1.7), decimation in frequency, with one
-// radix-2 stage when log2(n) is odd. Autosort: no bit-reversal pass, the result comes out
+// Algorithm: radix-8 Stockham autosort (Stockham 1966; Van Loan, "Computational Frameworks
+// for the Fast Fourier Transform", SIAM 1992, §1.7), decimation in frequency, finished by
+// one radix-4 or radix-2 pass when log2(n) is not a multiple of 3. Autosort: no bit-reversal pass, the result comes out
 // in natural order from ping-ponging between two buffers. Real transforms pack the n reals
 // as n/2 complex numbers and untangle the halves afterwards (Brigham 1988, ch. 9; Press et
 // al., Numerical Recipes, §12.3).
@@ -62,6 +62,53 @@ static inline __attribute__((always_inline)) void pass4(int n, int s, const doub
   }
 }
 
+// One radix-8 pass (Stockham DIF): x[q + s(p + r·n/8)], r = 0..7 → y[q + s(8p + k)], k = 0..7,
+// the 8-point DFT split once more into two 4-point DFTs (even and odd k), then w^(pk).
+// Twiddles: w^p … w^7p of this pass, 14 vectors per p.
+static inline __attribute__((always_inline)) void pass8(int n, int s, const double *x, double *y,
+                                                        const double *tw, int inv) {
+  const int n1 = n / 8;
+  const cplx jmul = inv ? wasm_f64x2_make(-1.0, 1.0) : wasm_f64x2_make(1.0, -1.0);
+  const double r = 0.70710678118654752440;  // 1/√2
+  // ω8 = e^(∓iπ/4) = (1 ∓ i)/√2 and ω8³ = (−1 ∓ i)/√2 as (re, re) and (−im, im) pairs
+  const cplx w8r = wasm_f64x2_splat(r);
+  const cplx w8i = inv ? wasm_f64x2_make(-r, r) : wasm_f64x2_make(r, -r);
+  const cplx w83r = wasm_f64x2_splat(-r);
+  for (int p = 0; p < n1; p++) {
+    const double *t = tw + 28 * p;
+    const double *xp = x + 2 * s * p;
+    double *yp = y + 2 * s * (8 * p);
+    const int st = 2 * s * n1;  // doubles between a_r and a_(r+1)
+    for (int q = 0; q < s; q++) {
+      const double *xq = xp + 2 * q;
+      const cplx a0 = LOAD(xq), a1 = LOAD(xq + st), a2 = LOAD(xq + 2 * st), a3 = LOAD(xq + 3 * st);
+      const cplx a4 = LOAD(xq + 4 * st), a5 = LOAD(xq + 5 * st), a6 = LOAD(xq + 6 * st),
+                 a7 = LOAD(xq + 7 * st);
+      // first radix-2 split: b_r = a_r + a_(r+4), c_r = (a_r − a_(r+4))·ω8^r
+      const cplx b0 = ADD(a0, a4), b1 = ADD(a1, a5), b2 = ADD(a2, a6), b3 = ADD(a3, a7);
+      const cplx c0 = SUB(a0, a4);
+      const cplx c1 = cmul(SUB(a1, a5), w8r, w8i, 0);
+      const cplx c2 = MUL(SWAP(SUB(a2, a6)), jmul);
+      const cplx c3 = cmul(SUB(a3, a7), w83r, w8i, 0);
+      // two 4-point DFTs: even outputs from b, odd outputs from c
+      const cplx b02p = ADD(b0, b2), b02m = SUB(b0, b2);
+      const cplx b13p = ADD(b1, b3), b13j = MUL(SWAP(SUB(b1, b3)), jmul);
+      const cplx c02p = ADD(c0, c2), c02m = SUB(c0, c2);
+      const cplx c13p = ADD(c1, c3), c13j = MUL(SWAP(SUB(c1, c3)), jmul);
+      double *yq = yp + 2 * q;
+      const int o = 2 * s;
+      STORE(yq, ADD(b02p, b13p));
+      STORE(yq + o, cmul(ADD(c02p, c13p), LOAD(t), LOAD(t + 2), inv));
+      STORE(yq + 2 * o, cmul(ADD(b02m, b13j), LOAD(t + 4), LOAD(t + 6), inv));
+      STORE(yq + 3 * o, cmul(ADD(c02m, c13j), LOAD(t + 8), LOAD(t + 10), inv));
+      STORE(yq + 4 * o, cmul(SUB(b02p, b13p), LOAD(t + 12), LOAD(t + 14), inv));
+      STORE(yq + 5 * o, cmul(SUB(c02p, c13p), LOAD(t + 16), LOAD(t + 18), inv));
+      STORE(yq + 6 * o, cmul(SUB(b02m, b13j), LOAD(t + 20), LOAD(t + 22), inv));
+      STORE(yq + 7 * o, cmul(SUB(c02m, c13j), LOAD(t + 24), LOAD(t + 26), inv));
+    }
+  }
+}
+
 // The last pass when log2(n) is odd: length-2 sub-transforms at stride s (no twiddles).
 static void pass2(int s, const double *x, double *y) {
   for (int q = 0; q < s; q++) {
@@ -73,12 +120,23 @@ static void pass2(int s, const double *x, double *y) {
 
 static double *stockham(int n, double *x, double *y, const double *tw, int inv) {
   int len = n, s = 1;
-  while (len >= 4) {
+  while (len >= 8) {
+    if (inv)
+      pass8(len, s, x, y, tw, 1);
+    else
+      pass8(len, s, x, y, tw, 0);
+    tw += 28 * (len / 8);
+    double *t = x;
+    x = y;
+    y = t;
+    len /= 8;
+    s *= 8;
+  }
+  if (len == 4) {
     if (inv)
       pass4(len, s, x, y, tw, 1);
     else
       pass4(len, s, x, y, tw, 0);
-    tw += 12 * (len / 4);
     double *t = x;
     x = y;
     y = t;
