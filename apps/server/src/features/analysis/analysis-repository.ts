@@ -22,25 +22,50 @@ export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 export type SnapshotRow = typeof snapshots.$inferSelect;
 export type MachineRow = typeof machines.$inferSelect;
 
-export async function loadSnapshot(db: Db, id: number): Promise<SnapshotRow | undefined> {
-  const [s] = await db.select().from(snapshots).where(eq(snapshots.id, id));
-  return s;
+/** Snapshots by id, in one statement. */
+export async function loadSnapshots(db: Db, ids: number[]): Promise<Map<number, SnapshotRow>> {
+  if (ids.length === 0) return new Map();
+  const rows = await db.select().from(snapshots).where(inArray(snapshots.id, ids));
+  return new Map(rows.map((r) => [r.id, r]));
 }
 
-/** The point with its machine, site and the machine's components. */
-export async function loadPointContext(db: Db, pointId: number) {
-  const [row] = await db
+export interface PointContext {
+  point: typeof points.$inferSelect;
+  machine: MachineRow;
+  siteId: number;
+  bearings: (typeof bearings.$inferSelect)[];
+  gears: (typeof gears.$inferSelect)[];
+}
+
+/** Points with their machine, site and the machine's components: three statements for any number. */
+export async function loadPointContexts(
+  db: Db,
+  pointIds: number[],
+): Promise<Map<number, PointContext>> {
+  if (pointIds.length === 0) return new Map();
+  const rows = await db
     .select({ point: points, machine: machines, siteId: areas.siteId })
     .from(points)
     .innerJoin(machines, eq(machines.id, points.machineId))
     .innerJoin(areas, eq(areas.id, machines.areaId))
-    .where(eq(points.id, pointId));
-  if (!row) return undefined;
-  const [bearingRows, gearRows] = await Promise.all([
-    db.select().from(bearings).where(eq(bearings.machineId, row.machine.id)),
-    db.select().from(gears).where(eq(gears.machineId, row.machine.id)),
-  ]);
-  return { ...row, bearings: bearingRows, gears: gearRows };
+    .where(inArray(points.id, pointIds));
+  const machineIds = [...new Set(rows.map((r) => r.machine.id))];
+  const [bearingRows, gearRows] = machineIds.length
+    ? await Promise.all([
+        db.select().from(bearings).where(inArray(bearings.machineId, machineIds)),
+        db.select().from(gears).where(inArray(gears.machineId, machineIds)),
+      ])
+    : [[], []];
+  return new Map(
+    rows.map((row) => [
+      row.point.id,
+      {
+        ...row,
+        bearings: bearingRows.filter((b) => b.machineId === row.machine.id),
+        gears: gearRows.filter((g) => g.machineId === row.machine.id),
+      },
+    ]),
+  );
 }
 
 export interface StoredLimitSet {
@@ -53,18 +78,37 @@ export async function loadLimitSet(
   db: Db | Tx,
   pointId: number,
 ): Promise<StoredLimitSet | undefined> {
-  const [set] = await db.select().from(limitSets).where(eq(limitSets.pointId, pointId));
-  if (!set) return undefined;
+  return (await loadLimitSets(db, [pointId])).get(pointId);
+}
+
+/** The limit sets of several points (two statements), by point id; points without one are absent. */
+export async function loadLimitSets(
+  db: Db | Tx,
+  pointIds: number[],
+): Promise<Map<number, StoredLimitSet>> {
+  const out = new Map<number, StoredLimitSet>();
+  if (pointIds.length === 0) return out;
+  const sets = await db.select().from(limitSets).where(inArray(limitSets.pointId, pointIds));
+  if (sets.length === 0) return out;
   const rows = await db
     .select()
     .from(bands)
-    .where(eq(bands.limitSetId, set.id))
+    .where(
+      inArray(
+        bands.limitSetId,
+        sets.map((s) => s.id),
+      ),
+    )
     .orderBy(asc(bands.sortOrder), asc(bands.id));
-  return {
-    id: set.id,
-    version: set.version,
-    bands: rows.map((r) => r.definition as unknown as LimitBand),
-  };
+  for (const set of sets)
+    out.set(set.pointId!, {
+      id: set.id,
+      version: set.version,
+      bands: rows
+        .filter((r) => r.limitSetId === set.id)
+        .map((r) => r.definition as unknown as LimitBand),
+    });
+  return out;
 }
 
 /** Writes a point's limit set (replacing its bands) and returns its new version. */
@@ -125,18 +169,67 @@ export async function insertBands(
   );
 }
 
+export type PointStateRow = typeof pointStates.$inferSelect;
+
 /** Locks the point's condition state for this transaction (creating it when missing). */
-export async function lockPointState(tx: Tx, pointId: number) {
+export async function lockPointState(tx: Tx, pointId: number): Promise<PointStateRow> {
+  return (await lockPointStates(tx, [pointId])).get(pointId)!;
+}
+
+/**
+ * Locks the condition states of several points for this transaction, creating missing ones.
+ * Rows are created and locked in ascending point id, so two transactions locking
+ * overlapping sets wait for each other instead of deadlocking.
+ */
+export async function lockPointStates(
+  tx: Tx,
+  pointIds: number[],
+): Promise<Map<number, PointStateRow>> {
+  const ids = [...new Set(pointIds)].sort((a, b) => a - b);
+  if (ids.length === 0) return new Map();
+  const now = new Date();
   await tx
     .insert(pointStates)
-    .values({ pointId, state: {}, updatedAt: new Date() })
+    .values(ids.map((pointId) => ({ pointId, state: {}, updatedAt: now })))
     .onDuplicateKeyUpdate({ set: { pointId: sql`point_id` } });
-  const [row] = await tx
+  const rows = await tx
     .select()
     .from(pointStates)
-    .where(eq(pointStates.pointId, pointId))
+    .where(inArray(pointStates.pointId, ids))
+    .orderBy(asc(pointStates.pointId))
     .for('update');
-  return row!;
+  return new Map(rows.map((r) => [r.pointId, r]));
+}
+
+export type NewAnalysis = typeof analyses.$inferInsert;
+
+/**
+ * Inserts analyses in one statement and returns their ids by snapshot id. RETURNING
+ * (MariaDB ≥ 10.5) rather than insertId + n: ids of a multi-row insert are consecutive only
+ * under some auto-increment lock modes (not Galera's).
+ */
+export async function insertAnalyses(tx: Tx, rows: NewAnalysis[]): Promise<Map<number, number>> {
+  if (rows.length === 0) return new Map();
+  const insert = tx.insert(analyses).values(rows).getSQL();
+  const [ret] = (await tx.execute(sql`${insert} RETURNING id, snapshot_id`)) as unknown as [
+    { id: number | string; snapshot_id: number | string }[],
+  ];
+  return new Map(ret.map((r) => [Number(r.snapshot_id), Number(r.id)]));
+}
+
+export async function insertBandValues(
+  tx: Tx,
+  rows: (typeof bandValues.$inferInsert)[],
+): Promise<void> {
+  if (rows.length) await tx.insert(bandValues).values(rows);
+}
+
+export async function markSnapshotsDone(tx: Tx, ids: number[]): Promise<void> {
+  if (ids.length === 0) return;
+  await tx
+    .update(snapshots)
+    .set({ status: 'done', statusReason: null })
+    .where(inArray(snapshots.id, ids));
 }
 
 export async function savePointState(
@@ -152,19 +245,16 @@ export async function savePointState(
     .where(eq(pointStates.pointId, pointId));
 }
 
-export async function openAlert(tx: Tx, pointId: number, bandKey: string) {
-  const [row] = await tx
-    .select()
+/** The open (raised or acknowledged) alerts of some points, oldest first. */
+export async function openAlerts(tx: Tx, pointIds: number[]) {
+  if (pointIds.length === 0) return [];
+  return tx
+    .select({ id: alerts.id, pointId: alerts.pointId, bandKey: alerts.bandKey })
     .from(alerts)
     .where(
-      and(
-        eq(alerts.pointId, pointId),
-        eq(alerts.bandKey, bandKey),
-        inArray(alerts.state, ['raised', 'acknowledged']),
-      ),
+      and(inArray(alerts.pointId, pointIds), inArray(alerts.state, ['raised', 'acknowledged'])),
     )
-    .limit(1);
-  return row;
+    .orderBy(asc(alerts.id));
 }
 
 export { alerts, alertEvents, analyses, bandValues, points, qualityNotices, snapshots };

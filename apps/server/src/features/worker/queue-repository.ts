@@ -56,11 +56,14 @@ export async function claimJobs(
 }
 
 /**
- * Marks the job done inside the transaction that wrote its results. Fenced by the lease:
- * when another worker has taken the job over, nothing matches and the caller must roll
- * back, so the results of one snapshot are committed exactly once.
+ * Marks jobs done inside the transaction that writes their results. Fenced by the lease:
+ * true only when this worker still holds every one of them; otherwise the caller must roll
+ * the whole batch back, so the results of one snapshot are committed exactly once.
+ * The matched rows stay locked to the end of the transaction, so a lease running out
+ * meanwhile cannot hand them to another worker.
  */
-export async function completeJobIn(tx: Tx, id: number, owner: string): Promise<boolean> {
+export async function completeJobsIn(tx: Tx, ids: number[], owner: string): Promise<boolean> {
+  if (ids.length === 0) return true;
   const [result] = await tx
     .update(jobs)
     .set({
@@ -70,8 +73,8 @@ export async function completeJobIn(tx: Tx, id: number, owner: string): Promise<
       leaseExpiresAt: null,
       lastError: null,
     })
-    .where(and(eq(jobs.id, id), eq(jobs.leaseOwner, owner), eq(jobs.state, 'running')));
-  return result.affectedRows === 1;
+    .where(and(inArray(jobs.id, ids), eq(jobs.leaseOwner, owner), eq(jobs.state, 'running')));
+  return result.affectedRows === new Set(ids).size;
 }
 
 /** Back-off between attempts: 2, 4, 8 … seconds, at most 10 minutes. */
@@ -109,7 +112,9 @@ export async function failJob(
 }
 
 export class LeaseLostError extends Error {
-  constructor(jobId: number) {
-    super(`job ${jobId}: lease taken over by another worker`);
+  constructor(jobIds: number[]) {
+    super(
+      `${jobIds.length === 1 ? 'job' : 'jobs'} ${jobIds.join(', ')}: lease taken over by another worker`,
+    );
   }
 }

@@ -10,13 +10,17 @@ import cron, { type ScheduledTask } from 'node-cron';
 import { jobs, snapshots } from '@turnstone/db/schema';
 import type { AppContext } from '../../lib/context.ts';
 import { isDbUnavailable } from '../../lib/error-middleware.ts';
-import { PermanentJobError, runAnalysisJob } from '../analysis/analysis-service.ts';
+import {
+  PermanentJobError,
+  runAnalysisJobs,
+  type JobFailure,
+} from '../analysis/analysis-service.ts';
 import { claimJobs, failJob, LeaseLostError, type JobRow } from './queue-repository.ts';
 import { expireRawSamples } from './retention.ts';
 import { recomputeBaselines } from '../limits/baseline-service.ts';
 
 export interface WorkerOptions {
-  /** Jobs claimed per round. @default 8 */
+  /** Jobs claimed per round; their results are committed in one transaction. @default 16 */
   batch?: number;
   /** Identity written into leases. @default host:pid:random */
   owner?: string;
@@ -33,43 +37,68 @@ export interface Worker {
 
 export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Worker {
   const owner = options.owner ?? `${hostname()}:${process.pid}:${randomUUID().slice(0, 8)}`;
-  const batch = options.batch ?? 8;
+  const batch = options.batch ?? 16;
   const tasks: ScheduledTask[] = [];
   let running: Promise<number> | null = null;
 
-  async function runOne(job: JobRow): Promise<void> {
-    try {
-      if (job.kind !== 'analyze') throw new PermanentJobError(`unknown job kind "${job.kind}"`);
-      await runAnalysisJob(ctx, job, owner);
-    } catch (err) {
-      if (err instanceof LeaseLostError) {
-        ctx.log.warn('job lease lost; another worker finishes it', { jobId: job.id });
-        return;
-      }
-      if (isDbUnavailable(err)) throw err;
-      const message = err instanceof Error ? err.message : String(err);
-      const permanent = err instanceof PermanentJobError;
-      if (permanent)
-        await ctx.db.update(jobs).set({ maxAttempts: job.attempts }).where(eq(jobs.id, job.id));
-      const outcome = await failJob(
-        ctx.db,
-        permanent ? { ...job, maxAttempts: job.attempts } : job,
-        owner,
-        message,
-      );
-      ctx.log.warn('analysis job failed', {
-        jobId: job.id,
-        snapshotId: job.snapshotId,
-        outcome,
-        message,
-      });
-      if (outcome === 'failed' && job.snapshotId) {
-        await ctx.db
-          .update(snapshots)
-          .set({ status: 'failed', statusReason: message.slice(0, 2000) })
-          .where(eq(snapshots.id, job.snapshotId));
-      }
+  /** Records a job's failure: retried after a back-off, or failed for good with its reason. */
+  async function recordFailure(job: JobRow, err: unknown): Promise<void> {
+    if (err instanceof LeaseLostError) {
+      ctx.log.warn('job lease lost; another worker finishes it', { jobId: job.id });
+      return;
     }
+    if (isDbUnavailable(err)) throw err;
+    const message = err instanceof Error ? err.message : String(err);
+    const permanent = err instanceof PermanentJobError;
+    if (permanent)
+      await ctx.db.update(jobs).set({ maxAttempts: job.attempts }).where(eq(jobs.id, job.id));
+    const outcome = await failJob(
+      ctx.db,
+      permanent ? { ...job, maxAttempts: job.attempts } : job,
+      owner,
+      message,
+    );
+    ctx.log.warn('analysis job failed', {
+      jobId: job.id,
+      snapshotId: job.snapshotId,
+      outcome,
+      message,
+    });
+    if (outcome === 'failed' && job.snapshotId) {
+      await ctx.db
+        .update(snapshots)
+        .set({ status: 'failed', statusReason: message.slice(0, 2000) })
+        .where(eq(snapshots.id, job.snapshotId));
+    }
+  }
+
+  /**
+   * Runs a claimed batch, its results committed together. When the batch cannot be
+   * written (one job's rows refused, a lease lost, a deadlock), nothing of it was stored:
+   * each job then runs alone, so only the one at fault fails.
+   */
+  async function runBatch(claimed: JobRow[]): Promise<void> {
+    const failures: JobFailure[] = [];
+    const analyze: JobRow[] = [];
+    for (const job of claimed)
+      if (job.kind === 'analyze') analyze.push(job);
+      else failures.push({ job, error: new PermanentJobError(`unknown job kind "${job.kind}"`) });
+    try {
+      if (analyze.length) failures.push(...(await runAnalysisJobs(ctx, analyze, owner)).failures);
+    } catch (err) {
+      if (isDbUnavailable(err)) throw err;
+      if (analyze.length === 1) failures.push({ job: analyze[0]!, error: err });
+      else
+        for (const job of analyze) {
+          try {
+            failures.push(...(await runAnalysisJobs(ctx, [job], owner)).failures);
+          } catch (error) {
+            if (isDbUnavailable(error)) throw error;
+            failures.push({ job, error });
+          }
+        }
+    }
+    for (const f of failures) await recordFailure(f.job, f.error);
   }
 
   async function drainInner(maxJobs: number): Promise<number> {
@@ -83,11 +112,7 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
         ['analyze'],
       );
       if (claimed.length === 0) break;
-      for (const job of claimed) {
-        await runOne(job);
-        // Analysis is CPU work on this thread: let waiting HTTP requests in between jobs.
-        await new Promise((r) => setImmediate(r));
-      }
+      await runBatch(claimed);
       done += claimed.length;
     }
     return done;
