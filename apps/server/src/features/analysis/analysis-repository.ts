@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNull, lte, or, sql } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
 import {
   alertEvents,
@@ -178,27 +178,39 @@ export async function lockPointState(tx: Tx, pointId: number): Promise<PointStat
 
 /**
  * Locks the condition states of several points for this transaction, creating missing ones.
- * Rows are created and locked in ascending point id, so two transactions locking
- * overlapping sets wait for each other instead of deadlocking.
+ * Rows are locked in ascending point id, so two transactions locking overlapping sets wait
+ * for each other instead of deadlocking. Existing rows are locked with a plain
+ * SELECT … FOR UPDATE, not an upsert: an INSERT checks the points foreign key first and
+ * holds a shared lock on the point row while it waits, and the holder's later
+ * `UPDATE points` would then deadlock with it.
  */
 export async function lockPointStates(
   tx: Tx,
   pointIds: number[],
 ): Promise<Map<number, PointStateRow>> {
   const ids = [...new Set(pointIds)].sort((a, b) => a - b);
-  if (ids.length === 0) return new Map();
-  const now = new Date();
-  await tx
-    .insert(pointStates)
-    .values(ids.map((pointId) => ({ pointId, state: {}, updatedAt: now })))
-    .onDuplicateKeyUpdate({ set: { pointId: sql`point_id` } });
-  const rows = await tx
-    .select()
-    .from(pointStates)
-    .where(inArray(pointStates.pointId, ids))
-    .orderBy(asc(pointStates.pointId))
-    .for('update');
-  return new Map(rows.map((r) => [r.pointId, r]));
+  const select = (list: number[]) =>
+    tx
+      .select()
+      .from(pointStates)
+      .where(inArray(pointStates.pointId, list))
+      .orderBy(asc(pointStates.pointId))
+      .for('update');
+  const out = new Map<number, PointStateRow>();
+  if (ids.length === 0) return out;
+  for (const r of await select(ids)) out.set(r.pointId, r);
+  const missing = ids.filter((id) => !out.has(id));
+  if (missing.length) {
+    // A point's first capture. Two workers creating the same row may deadlock here; the
+    // loser's batch is rolled back and run again.
+    const now = new Date();
+    await tx
+      .insert(pointStates)
+      .values(missing.map((pointId) => ({ pointId, state: {}, updatedAt: now })))
+      .onDuplicateKeyUpdate({ set: { pointId: sql`point_id` } });
+    for (const r of await select(missing)) out.set(r.pointId, r);
+  }
+  return out;
 }
 
 export type NewAnalysis = typeof analyses.$inferInsert;
@@ -222,6 +234,21 @@ export async function insertBandValues(
   rows: (typeof bandValues.$inferInsert)[],
 ): Promise<void> {
   if (rows.length) await tx.insert(bandValues).values(rows);
+}
+
+/** The point's latest capture, unless a newer one is already recorded. */
+export async function markPointTaken(
+  tx: Tx,
+  pointId: number,
+  takenAt: Date,
+  verdict: 'ok' | 'suspect' | 'unusable',
+): Promise<void> {
+  await tx
+    .update(points)
+    .set({ lastTakenAt: takenAt, lastVerdict: verdict })
+    .where(
+      and(eq(points.id, pointId), or(isNull(points.lastTakenAt), lte(points.lastTakenAt, takenAt))),
+    );
 }
 
 export async function markSnapshotsDone(tx: Tx, ids: number[]): Promise<void> {

@@ -6,7 +6,6 @@
  */
 import { promisify } from 'node:util';
 import { inflateRaw } from 'node:zlib';
-import { eq } from 'drizzle-orm';
 import { analyzeSnapshot, decodeSamples, type SnapshotAnalysis } from '@turnstone/dsp';
 import { isoZone, type BandDefinition as LimitBand } from '@turnstone/condition';
 import type { AppContext } from '../../lib/context.ts';
@@ -57,7 +56,7 @@ export interface AnalysisOutcome {
 }
 
 /** A job whose analysis is computed and waits to be written. */
-interface PreparedAnalysis {
+export interface PreparedAnalysis {
   job: JobRow;
   snap: repo.SnapshotRow;
   pc: repo.PointContext;
@@ -77,7 +76,7 @@ export interface JobFailure {
  * batch) and runs the analyses, outside any transaction. A job that cannot be analysed is
  * returned as a failure; the others go on.
  */
-async function prepareAnalyses(
+export async function prepareAnalyses(
   ctx: AppContext,
   jobs: JobRow[],
 ): Promise<{ prepared: PreparedAnalysis[]; failures: JobFailure[] }> {
@@ -183,7 +182,7 @@ async function prepareOne(
  * values, condition changes, points and snapshots written with multi-row statements where
  * the rows are alike. Captures are judged in job order.
  */
-async function storeAnalyses(
+export async function storeAnalyses(
   ctx: AppContext,
   batch: PreparedAnalysis[],
   owner: string,
@@ -257,14 +256,8 @@ async function storeAnalyses(
       if (!last || snap.takenAt >= last.snap.takenAt) newest.set(snap.pointId, p);
     }
     await condition.finish();
-    for (const [pointId, p] of newest) {
-      const lastTakenAt = p.pc.point.lastTakenAt;
-      if (!lastTakenAt || p.snap.takenAt >= lastTakenAt)
-        await tx
-          .update(repo.points)
-          .set({ lastTakenAt: p.snap.takenAt, lastVerdict: p.analysis.quality.verdict })
-          .where(eq(repo.points.id, pointId));
-    }
+    for (const [pointId, p] of newest)
+      await repo.markPointTaken(tx, pointId, p.snap.takenAt, p.analysis.quality.verdict);
     await repo.markSnapshotsDone(
       tx,
       batch.map((p) => p.snap.id),

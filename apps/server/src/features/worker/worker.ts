@@ -12,8 +12,11 @@ import type { AppContext } from '../../lib/context.ts';
 import { isDbUnavailable } from '../../lib/error-middleware.ts';
 import {
   PermanentJobError,
+  prepareAnalyses,
   runAnalysisJobs,
+  storeAnalyses,
   type JobFailure,
+  type PreparedAnalysis,
 } from '../analysis/analysis-service.ts';
 import { claimJobs, failJob, LeaseLostError, type JobRow } from './queue-repository.ts';
 import { expireRawSamples } from './retention.ts';
@@ -28,7 +31,10 @@ export interface WorkerOptions {
 
 export interface Worker {
   owner: string;
-  /** Claims and runs jobs until the queue has none due; returns how many ran. */
+  /**
+   * Claims and runs jobs until the queue has none due; returns how many this worker
+   * finished (analysed, or recorded as failed).
+   */
   drain(maxJobs?: number): Promise<number>;
   /** Starts the cron ticks (queue every second, nightly baselines and retention). */
   start(): void;
@@ -41,11 +47,14 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
   const tasks: ScheduledTask[] = [];
   let running: Promise<number> | null = null;
 
-  /** Records a job's failure: retried after a back-off, or failed for good with its reason. */
-  async function recordFailure(job: JobRow, err: unknown): Promise<void> {
+  /**
+   * Records a job's failure: retried after a back-off, or failed for good with its reason.
+   * False when the job is no longer this worker's (its lease was lost).
+   */
+  async function recordFailure(job: JobRow, err: unknown): Promise<boolean> {
     if (err instanceof LeaseLostError) {
       ctx.log.warn('job lease lost; another worker finishes it', { jobId: job.id });
-      return;
+      return false;
     }
     if (isDbUnavailable(err)) throw err;
     const message = err instanceof Error ? err.message : String(err);
@@ -70,50 +79,94 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
         .set({ status: 'failed', statusReason: message.slice(0, 2000) })
         .where(eq(snapshots.id, job.snapshotId));
     }
+    return true;
   }
 
-  /**
-   * Runs a claimed batch, its results committed together. When the batch cannot be
-   * written (one job's rows refused, a lease lost, a deadlock), nothing of it was stored:
-   * each job then runs alone, so only the one at fault fails.
-   */
-  async function runBatch(claimed: JobRow[]): Promise<void> {
+  /** A claimed batch, computed and waiting to be written. */
+  interface ComputedBatch {
+    prepared: PreparedAnalysis[];
+    failures: JobFailure[];
+    /** Jobs to run one by one (the batch read failed for a reason of its own). */
+    alone: JobRow[];
+  }
+
+  /** Reads and analyses a claimed batch; nothing is written. */
+  async function computeBatch(claimed: JobRow[]): Promise<ComputedBatch> {
     const failures: JobFailure[] = [];
     const analyze: JobRow[] = [];
     for (const job of claimed)
       if (job.kind === 'analyze') analyze.push(job);
       else failures.push({ job, error: new PermanentJobError(`unknown job kind "${job.kind}"`) });
     try {
-      if (analyze.length) failures.push(...(await runAnalysisJobs(ctx, analyze, owner)).failures);
+      const r = await prepareAnalyses(ctx, analyze);
+      return { prepared: r.prepared, failures: [...failures, ...r.failures], alone: [] };
     } catch (err) {
       if (isDbUnavailable(err)) throw err;
-      if (analyze.length === 1) failures.push({ job: analyze[0]!, error: err });
-      else
-        for (const job of analyze) {
-          try {
-            failures.push(...(await runAnalysisJobs(ctx, [job], owner)).failures);
-          } catch (error) {
-            if (isDbUnavailable(error)) throw error;
-            failures.push({ job, error });
-          }
-        }
+      return { prepared: [], failures, alone: analyze };
     }
-    for (const f of failures) await recordFailure(f.job, f.error);
   }
 
+  /**
+   * Commits a computed batch in one transaction. When it cannot be written (one job's rows
+   * refused, a lease lost, a deadlock), nothing of it was stored: each job then runs
+   * alone, so only the one at fault fails. Returns how many jobs this worker finished
+   * (stored, or recorded as failed); jobs whose lease it lost are the new owner's.
+   */
+  async function writeBatch(b: ComputedBatch): Promise<number> {
+    let finished = 0;
+    const failures = [...b.failures];
+    const alone = [...b.alone];
+    try {
+      finished += (await storeAnalyses(ctx, b.prepared, owner)).length;
+    } catch (err) {
+      if (isDbUnavailable(err)) throw err;
+      if (b.prepared.length === 1) failures.push({ job: b.prepared[0]!.job, error: err });
+      else alone.push(...b.prepared.map((p) => p.job));
+    }
+    for (const job of alone) {
+      try {
+        const r = await runAnalysisJobs(ctx, [job], owner);
+        finished += r.outcomes.length;
+        failures.push(...r.failures);
+      } catch (error) {
+        if (isDbUnavailable(error)) throw error;
+        failures.push({ job, error });
+      }
+    }
+    for (const f of failures) if (await recordFailure(f.job, f.error)) finished++;
+    return finished;
+  }
+
+  /**
+   * Claims and computes the next batch while the previous one is being written (the
+   * database's work and the analyses overlap); writes stay one at a time and in order.
+   */
   async function drainInner(maxJobs: number): Promise<number> {
+    let claimedCount = 0;
     let done = 0;
-    while (done < maxJobs) {
-      const claimed = await claimJobs(
-        ctx.db,
-        owner,
-        ctx.config.JOB_LEASE_S,
-        Math.min(batch, maxJobs - done),
-        ['analyze'],
-      );
-      if (claimed.length === 0) break;
-      await runBatch(claimed);
-      done += claimed.length;
+    let writing: Promise<void> = Promise.resolve();
+    try {
+      while (claimedCount < maxJobs) {
+        const claimed = await claimJobs(
+          ctx.db,
+          owner,
+          ctx.config.JOB_LEASE_S,
+          Math.min(batch, maxJobs - claimedCount),
+          ['analyze'],
+        );
+        if (claimed.length === 0) break;
+        const computed = await computeBatch(claimed);
+        await writing;
+        writing = writeBatch(computed).then((n) => {
+          done += n;
+        });
+        // Handled here so a failure while the next batch is computed is not "unhandled";
+        // the next `await writing` still throws it.
+        writing.catch(() => {});
+        claimedCount += claimed.length;
+      }
+    } finally {
+      await writing;
     }
     return done;
   }
