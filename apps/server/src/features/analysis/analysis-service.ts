@@ -9,7 +9,12 @@ import { inflateRaw } from 'node:zlib';
 import { analyzeSnapshot, decodeSamples, type SnapshotAnalysis } from '@turnstone/dsp';
 import { isoZone, type BandDefinition as LimitBand } from '@turnstone/condition';
 import type { AppContext } from '../../lib/context.ts';
-import { completeJobsIn, LeaseLostError, type JobRow } from '../worker/queue-repository.ts';
+import {
+  completeJobsIn,
+  LeaseLostError,
+  QUEUE_TX,
+  type JobRow,
+} from '../worker/queue-repository.ts';
 import * as repo from './analysis-repository.ts';
 import { combineBandValues, toDspBands } from './band-mapping.ts';
 import { startConditionBatch } from './condition-step.ts';
@@ -267,7 +272,7 @@ export async function storeAnalyses(
       analysisId: analysisId(p),
       verdict: p.analysis.quality.verdict,
     }));
-  });
+  }, QUEUE_TX);
 }
 
 /**

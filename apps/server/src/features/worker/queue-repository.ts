@@ -10,7 +10,44 @@ import { jobs } from '@turnstone/db/schema';
 export type JobRow = typeof jobs.$inferSelect;
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
+/** Deadlock or lock-wait timeout: InnoDB rolled the transaction back; running it again is safe. */
+export function isLockConflict(err: unknown): boolean {
+  for (let e: unknown = err, i = 0; e && i < 5; i++) {
+    const code = (e as { code?: string }).code;
+    if (code === 'ER_LOCK_DEADLOCK' || code === 'ER_LOCK_WAIT_TIMEOUT') return true;
+    e = (e as { cause?: unknown }).cause;
+  }
+  return false;
+}
+
+/**
+ * Queue transactions run READ COMMITTED: their scans then lock only the rows they return,
+ * not the gaps between index entries, which is what made a claim and another worker's
+ * completion deadlock on the jobs indexes.
+ */
+export const QUEUE_TX = { isolationLevel: 'read committed' } as const;
+
+/**
+ * Claims up to `limit` due jobs (queued and due, or running with an expired lease). A claim
+ * that loses a deadlock is simply taken again (it wrote nothing).
+ */
 export async function claimJobs(
+  db: Db,
+  owner: string,
+  leaseS: number,
+  limit: number,
+  kinds?: string[],
+): Promise<JobRow[]> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await claimOnce(db, owner, leaseS, limit, kinds);
+    } catch (err) {
+      if (attempt >= 3 || !isLockConflict(err)) throw err;
+    }
+  }
+}
+
+async function claimOnce(
   db: Db,
   owner: string,
   leaseS: number,
@@ -52,7 +89,7 @@ export async function claimJobs(
       })
       .where(inArray(jobs.id, ids));
     return tx.select().from(jobs).where(inArray(jobs.id, ids)).orderBy(asc(jobs.id));
-  });
+  }, QUEUE_TX);
 }
 
 /**
