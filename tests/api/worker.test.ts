@@ -267,6 +267,12 @@ describe('worker', () => {
         WHERE analysis_id IN (SELECT id FROM analyses WHERE snapshot_id IN (${ids.join(',')}))`,
     );
     expect(Number(bands[0]!.n)).toBe(48);
+    // The analyses carry their capture's time exactly (written through the binary protocol).
+    const shifted = await q(
+      `SELECT COUNT(*) AS n FROM analyses a JOIN snapshots s ON s.id = a.snapshot_id
+        WHERE s.id IN (${ids.join(',')}) AND a.taken_at <> s.taken_at`,
+    );
+    expect(Number(shifted[0]!.n)).toBe(0);
     const jobs = await q(`SELECT state FROM jobs WHERE snapshot_id IN (${ids.join(',')})`);
     expect(jobs.every((j) => j.state === 'done')).toBe(true);
     // Each point's state was judged up to its latest capture, and the point shows it.

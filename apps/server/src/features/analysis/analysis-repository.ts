@@ -218,15 +218,27 @@ export type NewAnalysis = typeof analyses.$inferInsert;
 /**
  * Inserts analyses in one statement and returns their ids by snapshot id. RETURNING
  * (MariaDB ≥ 10.5) rather than insertId + n: ids of a multi-row insert are consecutive only
- * under some auto-increment lock modes (not Galera's).
+ * under some auto-increment lock modes (not Galera's). Sent as a prepared statement on the
+ * transaction's connection: the binary protocol carries the float32 spectra as they are,
+ * where the text protocol would spell every byte as two hex digits.
  */
 export async function insertAnalyses(tx: Tx, rows: NewAnalysis[]): Promise<Map<number, number>> {
   if (rows.length === 0) return new Map();
-  const insert = tx.insert(analyses).values(rows).getSQL();
-  const [ret] = (await tx.execute(sql`${insert} RETURNING id, snapshot_id`)) as unknown as [
-    { id: number | string; snapshot_id: number | string }[],
-  ];
-  return new Map(ret.map((r) => [Number(r.snapshot_id), Number(r.id)]));
+  const { sql: text, params } = tx.insert(analyses).values(rows).toSQL();
+  const [ret] = await connectionOf(tx).execute(`${text} RETURNING id, snapshot_id`, params);
+  return new Map(
+    (ret as { id: number | string; snapshot_id: number | string }[]).map((r) => [
+      Number(r.snapshot_id),
+      Number(r.id),
+    ]),
+  );
+}
+
+/** The mysql2 connection a Drizzle transaction runs on (Drizzle only speaks the text protocol). */
+function connectionOf(tx: Tx): {
+  execute(sql: string, params: unknown[]): Promise<[unknown, unknown]>;
+} {
+  return (tx as unknown as { session: { client: ReturnType<typeof connectionOf> } }).session.client;
 }
 
 export async function insertBandValues(
