@@ -1,5 +1,6 @@
 /**
- * The queue worker: claims analysis jobs and runs them; failures retry with back-off and
+ * The queue worker: claims analysis jobs in batches, analyses a batch while the previous one
+ * is written, and commits each batch in one transaction; failures retry with back-off and
  * end as `failed` with their reason. Many workers (processes or in-process instances) can
  * share one database: claims skip locked rows, completions are fenced by the lease.
  */
