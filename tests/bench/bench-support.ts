@@ -81,3 +81,49 @@ export function runLoad(o: LoadOptions): Promise<LoadResult> {
     });
   });
 }
+
+export interface WorkerRun {
+  jobs: number;
+  perS: number;
+  /** Statements the server received per job (SHOW GLOBAL STATUS 'Questions'). */
+  queriesPerJob: number;
+  /** Explicit COMMITs per job ('Com_commit'). */
+  commitsPerJob: number;
+  /** InnoDB fsyncs per job ('Innodb_data_fsyncs'): what durable commits cost. */
+  fsyncsPerJob: number;
+  /** Bytes the server received per job ('Bytes_received'). */
+  bytesInPerJob: number;
+}
+
+/**
+ * Drains the queue with one in-process worker and counts, besides the rate, what the
+ * database did per job: figures that do not depend on the machine's load.
+ */
+export async function measureWorker(
+  pool: {
+    query(sql: string): Promise<unknown>;
+  },
+  drain: () => Promise<number>,
+): Promise<WorkerRun> {
+  const status = async () => {
+    const [rows] = (await pool.query(
+      "SHOW GLOBAL STATUS WHERE Variable_name IN ('Questions','Com_commit','Innodb_data_fsyncs','Bytes_received')",
+    )) as [{ Variable_name: string; Value: string }[]];
+    return Object.fromEntries(rows.map((r) => [r.Variable_name, Number(r.Value)]));
+  };
+  const s0 = await status();
+  const t0 = performance.now();
+  const jobs = await drain();
+  const wallS = (performance.now() - t0) / 1000;
+  const s1 = await status();
+  // The two SHOW STATUS statements themselves count as questions: one of them is inside.
+  const per = (k: string, own = 0) => (s1[k]! - s0[k]! - own) / Math.max(1, jobs);
+  return {
+    jobs,
+    perS: jobs / wallS,
+    queriesPerJob: per('Questions', 1),
+    commitsPerJob: per('Com_commit'),
+    fsyncsPerJob: per('Innodb_data_fsyncs'),
+    bytesInPerJob: per('Bytes_received'),
+  };
+}

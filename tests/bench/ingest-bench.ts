@@ -13,7 +13,7 @@ import mysql from 'mysql2/promise';
 import { startLocalMariadb } from '@turnstone/db/local-server';
 import { start } from '../../apps/server/src/server.ts';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { createGatewayKey, runLoad, signInCookie } from './bench-support.ts';
+import { createGatewayKey, measureWorker, runLoad, signInCookie } from './bench-support.ts';
 
 const COUNT = Number(process.env.BENCH_INGEST_COUNT ?? 6000);
 const CONCURRENCY = Number(process.env.BENCH_INGEST_CONCURRENCY ?? 32);
@@ -84,9 +84,7 @@ try {
   await pool.query("UPDATE jobs SET state = 'done' WHERE state = 'queued'");
   await load('wrk', WORKER_COUNT, 8192);
   const worker = createWorker(srv.ctx, { owner: 'bench', batch: 16 });
-  const w0 = performance.now();
-  const done = await worker.drain();
-  const workerPerS = done / ((performance.now() - w0) / 1000);
+  const run = await measureWorker(pool, () => worker.drain());
 
   console.log('\nIngest (4,096-sample int16, second process, loopback, %d in flight)', CONCURRENCY);
   console.log('| measure | value | target |');
@@ -102,7 +100,10 @@ try {
   console.log(`| raw mysql2 batch insert rows/s (reference) | ${rawPerS.toFixed(0)} | |`);
   console.log(`| ingest / raw batch insert | ${(ingest.perS / rawPerS).toFixed(3)} | |`);
   console.log(
-    `| worker analysed/s, 8,192 samples, 1 process | ${workerPerS.toFixed(0)} (${done} jobs) | ≥ 200 |`,
+    `| worker analysed/s, 8,192 samples, 1 process | ${run.perS.toFixed(0)} (${run.jobs} jobs) | ≥ 200 |`,
+  );
+  console.log(
+    `| worker statements / commits / fsyncs per job | ${run.queriesPerJob.toFixed(1)} / ${run.commitsPerJob.toFixed(2)} / ${run.fsyncsPerJob.toFixed(2)} | |`,
   );
 } finally {
   await srv.stop();

@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNull, lte, or, sql } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
 import {
   alertEvents,
@@ -22,25 +22,50 @@ export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 export type SnapshotRow = typeof snapshots.$inferSelect;
 export type MachineRow = typeof machines.$inferSelect;
 
-export async function loadSnapshot(db: Db, id: number): Promise<SnapshotRow | undefined> {
-  const [s] = await db.select().from(snapshots).where(eq(snapshots.id, id));
-  return s;
+/** Snapshots by id, in one statement. */
+export async function loadSnapshots(db: Db, ids: number[]): Promise<Map<number, SnapshotRow>> {
+  if (ids.length === 0) return new Map();
+  const rows = await db.select().from(snapshots).where(inArray(snapshots.id, ids));
+  return new Map(rows.map((r) => [r.id, r]));
 }
 
-/** The point with its machine, site and the machine's components. */
-export async function loadPointContext(db: Db, pointId: number) {
-  const [row] = await db
+export interface PointContext {
+  point: typeof points.$inferSelect;
+  machine: MachineRow;
+  siteId: number;
+  bearings: (typeof bearings.$inferSelect)[];
+  gears: (typeof gears.$inferSelect)[];
+}
+
+/** Points with their machine, site and the machine's components: three statements for any number. */
+export async function loadPointContexts(
+  db: Db,
+  pointIds: number[],
+): Promise<Map<number, PointContext>> {
+  if (pointIds.length === 0) return new Map();
+  const rows = await db
     .select({ point: points, machine: machines, siteId: areas.siteId })
     .from(points)
     .innerJoin(machines, eq(machines.id, points.machineId))
     .innerJoin(areas, eq(areas.id, machines.areaId))
-    .where(eq(points.id, pointId));
-  if (!row) return undefined;
-  const [bearingRows, gearRows] = await Promise.all([
-    db.select().from(bearings).where(eq(bearings.machineId, row.machine.id)),
-    db.select().from(gears).where(eq(gears.machineId, row.machine.id)),
-  ]);
-  return { ...row, bearings: bearingRows, gears: gearRows };
+    .where(inArray(points.id, pointIds));
+  const machineIds = [...new Set(rows.map((r) => r.machine.id))];
+  const [bearingRows, gearRows] = machineIds.length
+    ? await Promise.all([
+        db.select().from(bearings).where(inArray(bearings.machineId, machineIds)),
+        db.select().from(gears).where(inArray(gears.machineId, machineIds)),
+      ])
+    : [[], []];
+  return new Map(
+    rows.map((row) => [
+      row.point.id,
+      {
+        ...row,
+        bearings: bearingRows.filter((b) => b.machineId === row.machine.id),
+        gears: gearRows.filter((g) => g.machineId === row.machine.id),
+      },
+    ]),
+  );
 }
 
 export interface StoredLimitSet {
@@ -53,18 +78,37 @@ export async function loadLimitSet(
   db: Db | Tx,
   pointId: number,
 ): Promise<StoredLimitSet | undefined> {
-  const [set] = await db.select().from(limitSets).where(eq(limitSets.pointId, pointId));
-  if (!set) return undefined;
+  return (await loadLimitSets(db, [pointId])).get(pointId);
+}
+
+/** The limit sets of several points (two statements), by point id; points without one are absent. */
+export async function loadLimitSets(
+  db: Db | Tx,
+  pointIds: number[],
+): Promise<Map<number, StoredLimitSet>> {
+  const out = new Map<number, StoredLimitSet>();
+  if (pointIds.length === 0) return out;
+  const sets = await db.select().from(limitSets).where(inArray(limitSets.pointId, pointIds));
+  if (sets.length === 0) return out;
   const rows = await db
     .select()
     .from(bands)
-    .where(eq(bands.limitSetId, set.id))
+    .where(
+      inArray(
+        bands.limitSetId,
+        sets.map((s) => s.id),
+      ),
+    )
     .orderBy(asc(bands.sortOrder), asc(bands.id));
-  return {
-    id: set.id,
-    version: set.version,
-    bands: rows.map((r) => r.definition as unknown as LimitBand),
-  };
+  for (const set of sets)
+    out.set(set.pointId!, {
+      id: set.id,
+      version: set.version,
+      bands: rows
+        .filter((r) => r.limitSetId === set.id)
+        .map((r) => r.definition as unknown as LimitBand),
+    });
+  return out;
 }
 
 /** Writes a point's limit set (replacing its bands) and returns its new version. */
@@ -125,18 +169,106 @@ export async function insertBands(
   );
 }
 
+export type PointStateRow = typeof pointStates.$inferSelect;
+
 /** Locks the point's condition state for this transaction (creating it when missing). */
-export async function lockPointState(tx: Tx, pointId: number) {
+export async function lockPointState(tx: Tx, pointId: number): Promise<PointStateRow> {
+  return (await lockPointStates(tx, [pointId])).get(pointId)!;
+}
+
+/**
+ * Locks the condition states of several points for this transaction, creating missing ones.
+ * Rows are locked in ascending point id, so two transactions locking overlapping sets wait
+ * for each other instead of deadlocking. Existing rows are locked with a plain
+ * SELECT … FOR UPDATE, not an upsert: an INSERT checks the points foreign key first and
+ * holds a shared lock on the point row while it waits, and the holder's later
+ * `UPDATE points` would then deadlock with it.
+ */
+export async function lockPointStates(
+  tx: Tx,
+  pointIds: number[],
+): Promise<Map<number, PointStateRow>> {
+  const ids = [...new Set(pointIds)].sort((a, b) => a - b);
+  const select = (list: number[]) =>
+    tx
+      .select()
+      .from(pointStates)
+      .where(inArray(pointStates.pointId, list))
+      .orderBy(asc(pointStates.pointId))
+      .for('update');
+  const out = new Map<number, PointStateRow>();
+  if (ids.length === 0) return out;
+  for (const r of await select(ids)) out.set(r.pointId, r);
+  const missing = ids.filter((id) => !out.has(id));
+  if (missing.length) {
+    // A point's first capture. Two workers creating the same row may deadlock here; the
+    // loser's batch is rolled back and run again.
+    const now = new Date();
+    await tx
+      .insert(pointStates)
+      .values(missing.map((pointId) => ({ pointId, state: {}, updatedAt: now })))
+      .onDuplicateKeyUpdate({ set: { pointId: sql`point_id` } });
+    for (const r of await select(missing)) out.set(r.pointId, r);
+  }
+  return out;
+}
+
+export type NewAnalysis = typeof analyses.$inferInsert;
+
+/**
+ * Inserts analyses in one statement and returns their ids by snapshot id. RETURNING
+ * (MariaDB ≥ 10.5) rather than insertId + n: ids of a multi-row insert are consecutive only
+ * under some auto-increment lock modes (not Galera's). Sent as a prepared statement on the
+ * transaction's connection: the binary protocol carries the float32 spectra as they are,
+ * where the text protocol would spell every byte as two hex digits.
+ */
+export async function insertAnalyses(tx: Tx, rows: NewAnalysis[]): Promise<Map<number, number>> {
+  if (rows.length === 0) return new Map();
+  const { sql: text, params } = tx.insert(analyses).values(rows).toSQL();
+  const [ret] = await connectionOf(tx).execute(`${text} RETURNING id, snapshot_id`, params);
+  return new Map(
+    (ret as { id: number | string; snapshot_id: number | string }[]).map((r) => [
+      Number(r.snapshot_id),
+      Number(r.id),
+    ]),
+  );
+}
+
+/** The mysql2 connection a Drizzle transaction runs on (Drizzle only speaks the text protocol). */
+function connectionOf(tx: Tx): {
+  execute(sql: string, params: unknown[]): Promise<[unknown, unknown]>;
+} {
+  return (tx as unknown as { session: { client: ReturnType<typeof connectionOf> } }).session.client;
+}
+
+export async function insertBandValues(
+  tx: Tx,
+  rows: (typeof bandValues.$inferInsert)[],
+): Promise<void> {
+  if (rows.length) await tx.insert(bandValues).values(rows);
+}
+
+/** The point's latest capture, unless a newer one is already recorded. */
+export async function markPointTaken(
+  tx: Tx,
+  pointId: number,
+  takenAt: Date,
+  verdict: 'ok' | 'suspect' | 'unusable',
+): Promise<void> {
   await tx
-    .insert(pointStates)
-    .values({ pointId, state: {}, updatedAt: new Date() })
-    .onDuplicateKeyUpdate({ set: { pointId: sql`point_id` } });
-  const [row] = await tx
-    .select()
-    .from(pointStates)
-    .where(eq(pointStates.pointId, pointId))
-    .for('update');
-  return row!;
+    .update(points)
+    .set({ lastTakenAt: takenAt, lastVerdict: verdict })
+    .where(
+      and(eq(points.id, pointId), or(isNull(points.lastTakenAt), lte(points.lastTakenAt, takenAt))),
+    );
+}
+
+export async function markSnapshotsDone(tx: Tx, ids: number[]): Promise<void> {
+  if (ids.length === 0) return;
+  await tx
+    .update(snapshots)
+    .set({ status: 'done', statusReason: null })
+    .where(inArray(snapshots.id, ids));
 }
 
 export async function savePointState(
@@ -152,19 +284,16 @@ export async function savePointState(
     .where(eq(pointStates.pointId, pointId));
 }
 
-export async function openAlert(tx: Tx, pointId: number, bandKey: string) {
-  const [row] = await tx
-    .select()
+/** The open (raised or acknowledged) alerts of some points, oldest first. */
+export async function openAlerts(tx: Tx, pointIds: number[]) {
+  if (pointIds.length === 0) return [];
+  return tx
+    .select({ id: alerts.id, pointId: alerts.pointId, bandKey: alerts.bandKey })
     .from(alerts)
     .where(
-      and(
-        eq(alerts.pointId, pointId),
-        eq(alerts.bandKey, bandKey),
-        inArray(alerts.state, ['raised', 'acknowledged']),
-      ),
+      and(inArray(alerts.pointId, pointIds), inArray(alerts.state, ['raised', 'acknowledged'])),
     )
-    .limit(1);
-  return row;
+    .orderBy(asc(alerts.id));
 }
 
 export { alerts, alertEvents, analyses, bandValues, points, qualityNotices, snapshots };

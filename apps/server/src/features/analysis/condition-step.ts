@@ -1,8 +1,11 @@
 /**
  * The condition step of the worker: the point's limit bands and condition state
  * (`@turnstone/condition`, pure) → alert rows, alert history, data-quality notices. Runs
- * inside the analysis transaction with the point's state row locked, so captures of one
- * point are judged one at a time and in order.
+ * inside the analysis transaction with the points' state rows locked, so captures of one
+ * point are judged one at a time and in order. One `ConditionBatch` per transaction: the
+ * states and open alerts of all its points are read once, an alert updated by several
+ * captures is written once (its row holds the latest state), and each changed point state
+ * is saved once at the end.
  */
 import { eq } from 'drizzle-orm';
 import {
@@ -30,43 +33,88 @@ export interface ConditionInput {
 
 const d = (ms: number) => new Date(ms);
 
-export async function applyCondition(
+export interface ConditionBatch {
+  /** Judges one capture; false when it is older than one already judged (trended only). */
+  judge(input: ConditionInput): Promise<boolean>;
+  /** Writes the deferred alert updates and the changed point states. */
+  finish(): Promise<void>;
+}
+
+/** Locks the points' condition states (ascending point id) and reads their open alerts. */
+export async function startConditionBatch(
   ctx: AppContext,
   tx: repo.Tx,
-  input: ConditionInput,
-): Promise<PointChange[]> {
-  const row = await repo.lockPointState(tx, input.pointId);
-  if (row.evaluatedTakenAt && input.takenAt < row.evaluatedTakenAt) {
-    // A capture older than one already judged: trended, but judging it now would replay
-    // history out of order.
-    return [];
+  pointIds: number[],
+): Promise<ConditionBatch> {
+  const states = await repo.lockPointStates(tx, pointIds);
+  const open = new Map<string, number>();
+  for (const a of await repo.openAlerts(tx, [...states.keys()])) {
+    const k = alertKey(a.pointId, a.bandKey);
+    if (!open.has(k)) open.set(k, a.id);
   }
-  const qualityReason =
-    input.findings
-      .filter((f) => f.severity === 'unusable')
-      .map((f) => f.message)
-      .join('; ') || undefined;
-  const evaluation = evaluateSnapshot(input.bands, row.state as unknown as PointState, {
-    takenAt: input.takenAt.getTime(),
-    quality: input.verdict,
-    ...(qualityReason ? { qualityReason } : {}),
-    values: input.values,
-  });
-  const names = new Map(input.bands.map((b) => [b.key, b]));
-  for (const change of evaluation.changes) await persistChange(ctx, tx, input, change, names);
-  await repo.savePointState(
-    tx,
-    input.pointId,
-    evaluation.state as unknown as Record<string, unknown>,
-    input.takenAt,
-    input.limitSetVersion,
-  );
-  return evaluation.changes;
+  const w: AlertWrites = { open, pending: new Map() };
+  const judged = new Set<number>();
+  return {
+    async judge(input) {
+      const row = states.get(input.pointId)!;
+      if (row.evaluatedTakenAt && input.takenAt < row.evaluatedTakenAt) {
+        // A capture older than one already judged: trended, but judging it now would
+        // replay history out of order.
+        return false;
+      }
+      const qualityReason =
+        input.findings
+          .filter((f) => f.severity === 'unusable')
+          .map((f) => f.message)
+          .join('; ') || undefined;
+      const evaluation = evaluateSnapshot(input.bands, row.state as unknown as PointState, {
+        takenAt: input.takenAt.getTime(),
+        quality: input.verdict,
+        ...(qualityReason ? { qualityReason } : {}),
+        values: input.values,
+      });
+      const names = new Map(input.bands.map((b) => [b.key, b]));
+      for (const change of evaluation.changes)
+        await persistChange(ctx, tx, w, input, change, names);
+      row.state = evaluation.state as unknown as Record<string, unknown>;
+      row.evaluatedTakenAt = input.takenAt;
+      row.limitSetVersion = input.limitSetVersion;
+      judged.add(input.pointId);
+      return true;
+    },
+    async finish() {
+      for (const [id, set] of w.pending)
+        await tx.update(repo.alerts).set(set).where(eq(repo.alerts.id, id));
+      w.pending.clear();
+      for (const pointId of judged) {
+        const row = states.get(pointId)!;
+        await repo.savePointState(
+          tx,
+          pointId,
+          row.state,
+          row.evaluatedTakenAt!,
+          row.limitSetVersion,
+        );
+      }
+      judged.clear();
+    },
+  };
+}
+
+const alertKey = (pointId: number, bandKey: string) => `${pointId}:${bandKey}`;
+
+type AlertFields = Partial<typeof repo.alerts.$inferInsert>;
+interface AlertWrites {
+  /** Open alert id by point and band. */
+  open: Map<string, number>;
+  /** Alert rows whose update waits for the end of the batch (the last state wins). */
+  pending: Map<number, AlertFields>;
 }
 
 async function persistChange(
   ctx: AppContext,
   tx: repo.Tx,
+  w: AlertWrites,
   input: ConditionInput,
   change: PointChange,
   bands: Map<string, LimitBand>,
@@ -112,11 +160,14 @@ async function persistChange(
       value: a.lastValue,
       at: d(a.lastAt),
     });
+    w.open.set(alertKey(input.pointId, change.bandKey), ins!.id);
     await queueAlertMail(ctx, tx, { alertId: ins!.id, kind: 'raised' });
     return;
   }
-  const open = await repo.openAlert(tx, input.pointId, change.bandKey);
-  if (!open) return;
+  const key = alertKey(input.pointId, change.bandKey);
+  const openId = w.open.get(key);
+  if (openId === undefined) return;
+  const open = { id: openId };
   const common = {
     level: a.level,
     limitValue: a.limit,
@@ -127,8 +178,14 @@ async function persistChange(
     suspect: a.suspect,
   };
   if (change.kind === 'updated') {
-    await tx.update(repo.alerts).set(common).where(eq(repo.alerts.id, open.id));
-  } else if (change.kind === 'escalated') {
+    // Deferred: a later change of this alert in the batch carries the newer state.
+    w.pending.set(open.id, common);
+    return;
+  }
+  // The mail composed below reads the alert row; this write carries the whole state, so a
+  // deferred update of the same alert is superseded.
+  w.pending.delete(open.id);
+  if (change.kind === 'escalated') {
     // An escalation to danger needs a fresh acknowledgement.
     await tx
       .update(repo.alerts)
@@ -153,6 +210,7 @@ async function persistChange(
       .update(repo.alerts)
       .set({ ...common, state: 'cleared', clearedAt: d(a.clearedAt ?? a.lastAt) })
       .where(eq(repo.alerts.id, open.id));
+    w.open.delete(key);
     await tx.insert(repo.alertEvents).values({
       alertId: open.id,
       kind: 'cleared',

@@ -10,7 +10,44 @@ import { jobs } from '@turnstone/db/schema';
 export type JobRow = typeof jobs.$inferSelect;
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
+/** Deadlock or lock-wait timeout: InnoDB rolled the transaction back; running it again is safe. */
+export function isLockConflict(err: unknown): boolean {
+  for (let e: unknown = err, i = 0; e && i < 5; i++) {
+    const code = (e as { code?: string }).code;
+    if (code === 'ER_LOCK_DEADLOCK' || code === 'ER_LOCK_WAIT_TIMEOUT') return true;
+    e = (e as { cause?: unknown }).cause;
+  }
+  return false;
+}
+
+/**
+ * Queue transactions run READ COMMITTED: their scans then lock only the rows they return,
+ * not the gaps between index entries, which is what made a claim and another worker's
+ * completion deadlock on the jobs indexes.
+ */
+export const QUEUE_TX = { isolationLevel: 'read committed' } as const;
+
+/**
+ * Claims up to `limit` due jobs (queued and due, or running with an expired lease). A claim
+ * that loses a deadlock is simply taken again (it wrote nothing).
+ */
 export async function claimJobs(
+  db: Db,
+  owner: string,
+  leaseS: number,
+  limit: number,
+  kinds?: string[],
+): Promise<JobRow[]> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await claimOnce(db, owner, leaseS, limit, kinds);
+    } catch (err) {
+      if (attempt >= 3 || !isLockConflict(err)) throw err;
+    }
+  }
+}
+
+async function claimOnce(
   db: Db,
   owner: string,
   leaseS: number,
@@ -52,15 +89,18 @@ export async function claimJobs(
       })
       .where(inArray(jobs.id, ids));
     return tx.select().from(jobs).where(inArray(jobs.id, ids)).orderBy(asc(jobs.id));
-  });
+  }, QUEUE_TX);
 }
 
 /**
- * Marks the job done inside the transaction that wrote its results. Fenced by the lease:
- * when another worker has taken the job over, nothing matches and the caller must roll
- * back, so the results of one snapshot are committed exactly once.
+ * Marks jobs done inside the transaction that writes their results. Fenced by the lease:
+ * true only when this worker still holds every one of them; otherwise the caller must roll
+ * the whole batch back, so the results of one snapshot are committed exactly once.
+ * The matched rows stay locked to the end of the transaction, so a lease running out
+ * meanwhile cannot hand them to another worker.
  */
-export async function completeJobIn(tx: Tx, id: number, owner: string): Promise<boolean> {
+export async function completeJobsIn(tx: Tx, ids: number[], owner: string): Promise<boolean> {
+  if (ids.length === 0) return true;
   const [result] = await tx
     .update(jobs)
     .set({
@@ -70,8 +110,8 @@ export async function completeJobIn(tx: Tx, id: number, owner: string): Promise<
       leaseExpiresAt: null,
       lastError: null,
     })
-    .where(and(eq(jobs.id, id), eq(jobs.leaseOwner, owner), eq(jobs.state, 'running')));
-  return result.affectedRows === 1;
+    .where(and(inArray(jobs.id, ids), eq(jobs.leaseOwner, owner), eq(jobs.state, 'running')));
+  return result.affectedRows === new Set(ids).size;
 }
 
 /** Back-off between attempts: 2, 4, 8 … seconds, at most 10 minutes. */
@@ -109,7 +149,9 @@ export async function failJob(
 }
 
 export class LeaseLostError extends Error {
-  constructor(jobId: number) {
-    super(`job ${jobId}: lease taken over by another worker`);
+  constructor(jobIds: number[]) {
+    super(
+      `${jobIds.length === 1 ? 'job' : 'jobs'} ${jobIds.join(', ')}: lease taken over by another worker`,
+    );
   }
 }

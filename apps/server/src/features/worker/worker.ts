@@ -1,5 +1,6 @@
 /**
- * The queue worker: claims analysis jobs and runs them; failures retry with back-off and
+ * The queue worker: claims analysis jobs in batches, analyses a batch while the previous one
+ * is written, and commits each batch in one transaction; failures retry with back-off and
  * end as `failed` with their reason. Many workers (processes or in-process instances) can
  * share one database: claims skip locked rows, completions are fenced by the lease.
  */
@@ -10,13 +11,20 @@ import cron, { type ScheduledTask } from 'node-cron';
 import { jobs, snapshots } from '@turnstone/db/schema';
 import type { AppContext } from '../../lib/context.ts';
 import { isDbUnavailable } from '../../lib/error-middleware.ts';
-import { PermanentJobError, runAnalysisJob } from '../analysis/analysis-service.ts';
+import {
+  PermanentJobError,
+  prepareAnalyses,
+  runAnalysisJobs,
+  storeAnalyses,
+  type JobFailure,
+  type PreparedAnalysis,
+} from '../analysis/analysis-service.ts';
 import { claimJobs, failJob, LeaseLostError, type JobRow } from './queue-repository.ts';
 import { expireRawSamples } from './retention.ts';
 import { recomputeBaselines } from '../limits/baseline-service.ts';
 
 export interface WorkerOptions {
-  /** Jobs claimed per round. @default 8 */
+  /** Jobs claimed per round; their results are committed in one transaction. @default 16 */
   batch?: number;
   /** Identity written into leases. @default host:pid:random */
   owner?: string;
@@ -24,7 +32,10 @@ export interface WorkerOptions {
 
 export interface Worker {
   owner: string;
-  /** Claims and runs jobs until the queue has none due; returns how many ran. */
+  /**
+   * Claims and runs jobs until the queue has none due; returns how many this worker
+   * finished (analysed, or recorded as failed).
+   */
   drain(maxJobs?: number): Promise<number>;
   /** Starts the cron ticks (queue every second, nightly baselines and retention). */
   start(): void;
@@ -33,62 +44,130 @@ export interface Worker {
 
 export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Worker {
   const owner = options.owner ?? `${hostname()}:${process.pid}:${randomUUID().slice(0, 8)}`;
-  const batch = options.batch ?? 8;
+  const batch = options.batch ?? 16;
   const tasks: ScheduledTask[] = [];
   let running: Promise<number> | null = null;
 
-  async function runOne(job: JobRow): Promise<void> {
+  /**
+   * Records a job's failure: retried after a back-off, or failed for good with its reason.
+   * False when the job is no longer this worker's (its lease was lost).
+   */
+  async function recordFailure(job: JobRow, err: unknown): Promise<boolean> {
+    if (err instanceof LeaseLostError) {
+      ctx.log.warn('job lease lost; another worker finishes it', { jobId: job.id });
+      return false;
+    }
+    if (isDbUnavailable(err)) throw err;
+    const message = err instanceof Error ? err.message : String(err);
+    const permanent = err instanceof PermanentJobError;
+    if (permanent)
+      await ctx.db.update(jobs).set({ maxAttempts: job.attempts }).where(eq(jobs.id, job.id));
+    const outcome = await failJob(
+      ctx.db,
+      permanent ? { ...job, maxAttempts: job.attempts } : job,
+      owner,
+      message,
+    );
+    ctx.log.warn('analysis job failed', {
+      jobId: job.id,
+      snapshotId: job.snapshotId,
+      outcome,
+      message,
+    });
+    if (outcome === 'failed' && job.snapshotId) {
+      await ctx.db
+        .update(snapshots)
+        .set({ status: 'failed', statusReason: message.slice(0, 2000) })
+        .where(eq(snapshots.id, job.snapshotId));
+    }
+    return true;
+  }
+
+  /** A claimed batch, computed and waiting to be written. */
+  interface ComputedBatch {
+    prepared: PreparedAnalysis[];
+    failures: JobFailure[];
+    /** Jobs to run one by one (the batch read failed for a reason of its own). */
+    alone: JobRow[];
+  }
+
+  /** Reads and analyses a claimed batch; nothing is written. */
+  async function computeBatch(claimed: JobRow[]): Promise<ComputedBatch> {
+    const failures: JobFailure[] = [];
+    const analyze: JobRow[] = [];
+    for (const job of claimed)
+      if (job.kind === 'analyze') analyze.push(job);
+      else failures.push({ job, error: new PermanentJobError(`unknown job kind "${job.kind}"`) });
     try {
-      if (job.kind !== 'analyze') throw new PermanentJobError(`unknown job kind "${job.kind}"`);
-      await runAnalysisJob(ctx, job, owner);
+      const r = await prepareAnalyses(ctx, analyze);
+      return { prepared: r.prepared, failures: [...failures, ...r.failures], alone: [] };
     } catch (err) {
-      if (err instanceof LeaseLostError) {
-        ctx.log.warn('job lease lost; another worker finishes it', { jobId: job.id });
-        return;
-      }
       if (isDbUnavailable(err)) throw err;
-      const message = err instanceof Error ? err.message : String(err);
-      const permanent = err instanceof PermanentJobError;
-      if (permanent)
-        await ctx.db.update(jobs).set({ maxAttempts: job.attempts }).where(eq(jobs.id, job.id));
-      const outcome = await failJob(
-        ctx.db,
-        permanent ? { ...job, maxAttempts: job.attempts } : job,
-        owner,
-        message,
-      );
-      ctx.log.warn('analysis job failed', {
-        jobId: job.id,
-        snapshotId: job.snapshotId,
-        outcome,
-        message,
-      });
-      if (outcome === 'failed' && job.snapshotId) {
-        await ctx.db
-          .update(snapshots)
-          .set({ status: 'failed', statusReason: message.slice(0, 2000) })
-          .where(eq(snapshots.id, job.snapshotId));
-      }
+      return { prepared: [], failures, alone: analyze };
     }
   }
 
-  async function drainInner(maxJobs: number): Promise<number> {
-    let done = 0;
-    while (done < maxJobs) {
-      const claimed = await claimJobs(
-        ctx.db,
-        owner,
-        ctx.config.JOB_LEASE_S,
-        Math.min(batch, maxJobs - done),
-        ['analyze'],
-      );
-      if (claimed.length === 0) break;
-      for (const job of claimed) {
-        await runOne(job);
-        // Analysis is CPU work on this thread: let waiting HTTP requests in between jobs.
-        await new Promise((r) => setImmediate(r));
+  /**
+   * Commits a computed batch in one transaction. When it cannot be written (one job's rows
+   * refused, a lease lost, a deadlock), nothing of it was stored: each job then runs
+   * alone, so only the one at fault fails. Returns how many jobs this worker finished
+   * (stored, or recorded as failed); jobs whose lease it lost are the new owner's.
+   */
+  async function writeBatch(b: ComputedBatch): Promise<number> {
+    let finished = 0;
+    const failures = [...b.failures];
+    const alone = [...b.alone];
+    try {
+      finished += (await storeAnalyses(ctx, b.prepared, owner)).length;
+    } catch (err) {
+      if (isDbUnavailable(err)) throw err;
+      if (b.prepared.length === 1) failures.push({ job: b.prepared[0]!.job, error: err });
+      else alone.push(...b.prepared.map((p) => p.job));
+    }
+    for (const job of alone) {
+      try {
+        const r = await runAnalysisJobs(ctx, [job], owner);
+        finished += r.outcomes.length;
+        failures.push(...r.failures);
+      } catch (error) {
+        if (isDbUnavailable(error)) throw error;
+        failures.push({ job, error });
       }
-      done += claimed.length;
+    }
+    for (const f of failures) if (await recordFailure(f.job, f.error)) finished++;
+    return finished;
+  }
+
+  /**
+   * Claims and computes the next batch while the previous one is being written (the
+   * database's work and the analyses overlap); writes stay one at a time and in order.
+   */
+  async function drainInner(maxJobs: number): Promise<number> {
+    let claimedCount = 0;
+    let done = 0;
+    let writing: Promise<void> = Promise.resolve();
+    try {
+      while (claimedCount < maxJobs) {
+        const claimed = await claimJobs(
+          ctx.db,
+          owner,
+          ctx.config.JOB_LEASE_S,
+          Math.min(batch, maxJobs - claimedCount),
+          ['analyze'],
+        );
+        if (claimed.length === 0) break;
+        const computed = await computeBatch(claimed);
+        await writing;
+        writing = writeBatch(computed).then((n) => {
+          done += n;
+        });
+        // Handled here so a failure while the next batch is computed is not "unhandled";
+        // the next `await writing` still throws it.
+        writing.catch(() => {});
+        claimedCount += claimed.length;
+      }
+    } finally {
+      await writing;
     }
     return done;
   }
