@@ -36,6 +36,8 @@ export interface LoadResult {
   p99: number;
   statuses: Record<string, number>;
   retries: number;
+  /** CPU time (user + system) the load generator itself spent while posting. */
+  cpuMs: number;
 }
 
 export interface LoadOptions {

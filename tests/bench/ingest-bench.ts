@@ -6,7 +6,7 @@
  * - worker throughput (analysed snapshots/s in one process) for 8,192-sample snapshots.
  * Targets: ingest ≥ 1,000/s with p99 ≤ 250 ms and zero lost or doubled; worker ≥ 200/s.
  */
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import mysql from 'mysql2/promise';
@@ -37,7 +37,40 @@ try {
   const load = (prefix: string, count: number, samples: number) =>
     runLoad({ url: srv.url, key: apiKey, count, concurrency: CONCURRENCY, prefix, samples });
   await load('warm', 300, 4096);
+  // Load-independent figures: the server process's CPU time (this process: Express,
+  // mysql2, zlib, crypto; the load generator is a separate process) and the statements,
+  // commits and redo-log fsyncs MariaDB counted, each per request.
+  const status = async () => {
+    const [r] = await pool.query(
+      "SHOW GLOBAL STATUS WHERE Variable_name IN ('Questions', 'Com_commit', 'Innodb_data_fsyncs')",
+    );
+    return Object.fromEntries(
+      (r as { Variable_name: string; Value: string }[]).map((x) => [
+        x.Variable_name,
+        Number(x.Value),
+      ]),
+    );
+  };
+  // MariaDB's own CPU time, from /proc (Linux), for the share of the two cores it takes.
+  const dbCpuMs = () => {
+    try {
+      const pid = readFileSync(join(db.dir, 'mariadbd.pid'), 'utf8').trim();
+      const f = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+      return ((Number(f[11]) + Number(f[12])) * 1000) / 100; // utime + stime, 100 ticks/s
+    } catch {
+      return NaN;
+    }
+  };
+  const st0 = await status();
+  const db0 = dbCpuMs();
+  const cpu0 = process.cpuUsage();
   const ingest = await load('ing', COUNT, 4096);
+  const cpu = process.cpuUsage(cpu0);
+  const dbMsPerReq = (dbCpuMs() - db0) / COUNT;
+  const st1 = await status();
+  const perReq = (k: string) =>
+    ((st1[k]! - st0[k]! - (k === 'Questions' ? 1 : 0)) / COUNT).toFixed(2);
+  const cpuMsPerReq = (cpu.user + cpu.system) / 1000 / COUNT;
   const [rows] = await pool.query(
     "SELECT COUNT(*) AS n, COUNT(DISTINCT uid) AS u FROM snapshots WHERE uid LIKE 'ing-%'",
   );
@@ -99,6 +132,12 @@ try {
     `| statuses | ${JSON.stringify(ingest.statuses)} (retries ${ingest.retries}) | all 201 |`,
   );
   console.log(`| lost / doubled | ${lost} / ${doubled} | 0 / 0 |`);
+  console.log(
+    `| CPU ms per snapshot: server / load generator / MariaDB | ${cpuMsPerReq.toFixed(2)} / ${(ingest.cpuMs / COUNT).toFixed(2)} / ${dbMsPerReq.toFixed(2)} | |`,
+  );
+  console.log(
+    `| statements / commits / log fsyncs per snapshot | ${perReq('Questions')} / ${perReq('Com_commit')} / ${perReq('Innodb_data_fsyncs')} | |`,
+  );
   console.log(`| raw mysql2 batch insert rows/s (reference) | ${rawPerS.toFixed(0)} | |`);
   console.log(`| ingest / raw batch insert | ${(ingest.perS / rawPerS).toFixed(3)} | |`);
   console.log(
