@@ -147,7 +147,7 @@ export async function storeSnapshot(
   // Level 1: vibration counts barely compress further, and this runs on every ingest.
   const compressed = await deflate(s.bytes, { level: 1 });
   try {
-    const snapshotId = await repo.insertSnapshotWithJob(ctx.db, {
+    const snapshotId = await repo.insertSnapshotWithJob(ctx.dbHandle, {
       uid: s.uid,
       pointId: s.pointId,
       gatewayId: s.gatewayId,
