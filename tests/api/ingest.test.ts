@@ -203,6 +203,35 @@ describe('ingest', () => {
     expect((await post(keyMfp, snapshotBody(TAG, 'tx-1'))).status).toBe(201);
   });
 
+  it('a failed or repeated insert leaves its pooled connection with no transaction open', async () => {
+    // Ingest sends START TRANSACTION; INSERT; INSERT; COMMIT in one round trip; a failing
+    // statement stops the batch mid-transaction. The connection it used is the next one the
+    // pool hands out (mysql2's free list is last in, first out): it must be clean.
+    const inTransaction = () =>
+      new Promise<number>((resolve, reject) =>
+        srv.ctx.dbHandle.batchPool.query(
+          'SELECT @@in_transaction AS t',
+          (err: Error | null, rows: { t: number }[]) =>
+            err ? reject(err) : resolve(Number(rows[0]!.t)),
+        ),
+      );
+    await srv.ctx.db.execute(sql`RENAME TABLE jobs TO jobs_away`);
+    try {
+      expect((await post(keyMfp, snapshotBody(TAG, 'tx-2'))).status).toBeGreaterThanOrEqual(500);
+      expect(await inTransaction()).toBe(0);
+    } finally {
+      await srv.ctx.db.execute(sql`RENAME TABLE jobs_away TO jobs`);
+    }
+    const b = snapshotBody(TAG, 'tx-3', { takenAt: '2026-11-30T12:00:00.000Z' });
+    expect((await post(keyMfp, b)).status).toBe(201);
+    expect((await post(keyMfp, b)).status).toBe(200);
+    expect(await inTransaction()).toBe(0);
+    const [rows] = await srv.ctx.dbHandle.pool.query(
+      "SELECT COUNT(*) AS n FROM snapshots s JOIN jobs j ON j.snapshot_id = s.id WHERE s.uid IN ('tx-2', 'tx-3')",
+    );
+    expect(Number((rows as { n: number }[])[0]!.n)).toBe(1);
+  });
+
   it('serves an OpenAPI 3.1 document generated from the schemas', async () => {
     const doc = await (await srv.call('GET', '/api/ingest/v1/openapi.json')).json();
     expect(doc.openapi).toBe('3.1.0');
