@@ -273,6 +273,7 @@ describe('ingest rate', () => {
         })
       ).json();
       const statuses: number[] = [];
+      const budgets: (string | null)[] = [];
       let retryAfter: string | null = null;
       for (let i = 0; i < 5; i++) {
         const r = await limited.call('POST', '/api/ingest/v1/snapshots', {
@@ -280,10 +281,21 @@ describe('ingest rate', () => {
           headers: { authorization: `Bearer ${apiKey}` },
         });
         statuses.push(r.status);
+        budgets.push(r.headers.get('ratelimit'));
+        expect(r.headers.get('ratelimit-policy')).toBe('3;w=60');
         if (r.status === 429) retryAfter = r.headers.get('retry-after');
       }
       expect(statuses).toEqual([201, 201, 201, 429, 429]);
       expect(Number(retryAfter)).toBeGreaterThan(0);
+      // IETF draft-7 RateLimit header: what is left of the gateway's budget in this window.
+      expect(budgets.map((b) => /remaining=(\d+)/.exec(b ?? '')?.[1])).toEqual([
+        '2',
+        '1',
+        '0',
+        '0',
+        '0',
+      ]);
+      expect(Number(/reset=(\d+)/.exec(budgets[0] ?? '')?.[1])).toBeGreaterThan(50);
     } finally {
       await limited.stop();
     }

@@ -1,8 +1,8 @@
-import express, { Router, type Request } from 'express';
-import { rateLimit } from 'express-rate-limit';
+import express, { Router, type Request, type Response } from 'express';
 import { MAX_BATCH } from '@turnstone/contracts/ingest';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
+import { gatewayRateLimit } from './gateway-rate.ts';
 import { ingestOpenApi } from './ingest-openapi.ts';
 import { authenticateGateway, ingestOne, type GatewayPrincipal } from './ingest-service.ts';
 
@@ -10,6 +10,19 @@ declare module 'express-serve-static-core' {
   interface Request {
     gateway?: GatewayPrincipal;
   }
+}
+
+/**
+ * A JSON answer written straight out: res.json would also compute an ETag and check
+ * freshness, which no gateway's POST uses.
+ */
+function sendJson(res: Response, status: number, body: unknown): void {
+  const text = JSON.stringify(body);
+  res.writeHead(status, {
+    'Content-Type': 'application/json; charset=utf-8',
+    'Content-Length': Buffer.byteLength(text),
+  });
+  res.end(text);
 }
 
 /** `/api/ingest/v1`: the gateways' API. Its own 16 MiB body limit, per-gateway rate. */
@@ -22,13 +35,11 @@ export function ingestRouter(ctx: AppContext): Router {
       req.gateway = await authenticateGateway(ctx, req.get('authorization'));
       next();
     },
-    rateLimit({
+    gatewayRateLimit({
       windowMs: 60_000,
       limit: ctx.config.INGEST_MAX_PER_MIN,
-      keyGenerator: (req) => `gw:${req.gateway!.id}`,
-      standardHeaders: 'draft-7',
-      legacyHeaders: false,
-      handler: (_req, res) => {
+      gatewayId: (req) => req.gateway!.id,
+      onLimited: (_req, res) => {
         res.setHeader('Retry-After', '10');
         res.status(429).json({
           error: {
@@ -66,13 +77,12 @@ export function ingestRouter(ctx: AppContext): Router {
         }
         const results = [];
         for (const item of items) results.push(await ingestOne(ctx, req.gateway!, item));
-        res.status(200).json({ results });
+        sendJson(res, 200, { results });
         return;
       }
       const r = await ingestOne(ctx, req.gateway!, body);
-      if (r.error) res.status(r.httpStatus).json({ error: r.error });
-      else
-        res.status(r.httpStatus).json({ uid: r.uid, status: r.status, snapshotId: r.snapshotId });
+      if (r.error) sendJson(res, r.httpStatus, { error: r.error });
+      else sendJson(res, r.httpStatus, { uid: r.uid, status: r.status, snapshotId: r.snapshotId });
     },
   );
   return router;
