@@ -204,6 +204,33 @@ describe('ingest', () => {
     expect(results.map((r: { httpStatus: number }) => r.httpStatus)).toEqual([201, 404, 400, 200]);
   });
 
+  it('a batch answers repeated uids in order even when the first item is the slowest to store', async () => {
+    // Items are stored side by side; a big first item (its samples compress on the thread
+    // pool) would otherwise lose the race to a small repeat of its uid.
+    const big = snapshotBody(TAG, 'bo-1', { n: 1 << 17, seed: 3 });
+    const other = snapshotBody(TAG, 'bo-1', { seed: 4 });
+    const fresh = Array.from({ length: 8 }, (_, i) => snapshotBody(TAG, `bo-${i + 2}`));
+    const res = await post(keyMfp, { snapshots: [big, other, ...fresh, big] });
+    expect(res.status).toBe(200);
+    const { results } = await res.json();
+    expect(results.map((r: { httpStatus: number }) => r.httpStatus)).toEqual([
+      201,
+      409,
+      ...fresh.map(() => 201),
+      200,
+    ]);
+    expect(results.map((r: { uid: string }) => r.uid)).toEqual([
+      'bo-1',
+      'bo-1',
+      ...fresh.map((f) => f.uid),
+      'bo-1',
+    ]);
+    const [rows] = await srv.ctx.dbHandle.pool.query(
+      "SELECT COUNT(*) AS n, COUNT(j.id) AS j FROM snapshots s LEFT JOIN jobs j ON j.snapshot_id = s.id WHERE s.uid LIKE 'bo-%'",
+    );
+    expect(rows).toEqual([{ n: 9, j: 9 }]);
+  });
+
   it('when storing the job fails, the snapshot is not stored either (one transaction)', async () => {
     const before = await count('snapshots');
     await srv.ctx.db.execute(sql`RENAME TABLE jobs TO jobs_away`);
@@ -223,10 +250,8 @@ describe('ingest', () => {
     // pool hands out (mysql2's free list is last in, first out): it must be clean.
     const inTransaction = () =>
       new Promise<number>((resolve, reject) =>
-        srv.ctx.dbHandle.batchPool.query(
-          'SELECT @@in_transaction AS t',
-          (err: Error | null, rows: { t: number }[]) =>
-            err ? reject(err) : resolve(Number(rows[0]!.t)),
+        srv.ctx.dbHandle.batchPool.query('SELECT @@in_transaction AS t', (err, rows) =>
+          err ? reject(err) : resolve(Number((rows as { t: number }[])[0]!.t)),
         ),
       );
     await srv.ctx.db.execute(sql`RENAME TABLE jobs TO jobs_away`);
