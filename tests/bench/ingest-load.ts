@@ -2,8 +2,10 @@
  * The load generator of ingest-bench.ts, run as a second process: posts `count` prepared
  * snapshots with `concurrency` requests in flight, retrying 429/503 by Retry-After, and
  * prints one JSON line with the accepted uids' statuses and latencies.
- * argv: url key count concurrency prefix samples [ratePerS] [pointTag]
+ * argv: url key count concurrency prefix samples [ratePerS] [pointTag] [batch]
  * With ratePerS > 0 the requests are paced (a gateway's steady flow) instead of flat out.
+ * With batch > 1 each request carries { snapshots: [...] } of that many (a gateway that
+ * buffers); statuses then count the items' results, latencies and the rate the requests.
  *
  * It posts with node:http over a keep-alive agent (one connection per request in flight)
  * and bodies encoded once beforehand: on this 2-core machine the load generator shares the
@@ -14,27 +16,39 @@
 import { Agent, request } from 'node:http';
 import { snapshotBody } from '../support/signals.ts';
 
-const [url, key, countS, concS, prefix, samplesS, rateS, tagArg] = process.argv.slice(2);
+const [url, key, countS, concS, prefix, samplesS, rateS, tagArg, batchS] = process.argv.slice(2);
+const batch = Math.max(1, Number(batchS ?? 1));
 const ratePerS = Number(rateS ?? 0);
 const count = Number(countS);
 const concurrency = Number(concS);
 const n = Number(samplesS ?? 4096);
 const template = snapshotBody(tagArg ?? 'MFP-P101-MDE-H', 'x', { n, seed: 7 });
 const t0 = Date.parse('2026-06-01T00:00:00Z');
-const bodies = Array.from({ length: count }, (_, i) =>
+const snapshot = (i: number) => ({
+  ...template,
+  uid: `${prefix}-${i}`,
+  takenAt: new Date(t0 + i * 1000).toISOString(),
+});
+const bodies = Array.from({ length: Math.ceil(count / batch) }, (_, r) =>
   Buffer.from(
-    JSON.stringify({
-      ...template,
-      uid: `${prefix}-${i}`,
-      takenAt: new Date(t0 + i * 1000).toISOString(),
-    }),
+    JSON.stringify(
+      batch === 1
+        ? snapshot(r)
+        : {
+            snapshots: Array.from({ length: Math.min(batch, count - r * batch) }, (_, k) =>
+              snapshot(r * batch + k),
+            ),
+          },
+    ),
   ),
 );
 const agent = new Agent({ keepAlive: true, maxSockets: concurrency });
 const target = new URL(`${url}/api/ingest/v1/snapshots`);
 
-/** One POST; resolves with the status and the Retry-After header once the body is read. */
-function post(body: Buffer): Promise<{ status: number; retryAfter: string | undefined }> {
+/** One POST; resolves with the status, Retry-After and (batches) the body once read. */
+function post(
+  body: Buffer,
+): Promise<{ status: number; retryAfter: string | undefined; text: string }> {
   return new Promise((resolve, reject) => {
     const req = request(
       target,
@@ -48,9 +62,12 @@ function post(body: Buffer): Promise<{ status: number; retryAfter: string | unde
         },
       },
       (res) => {
-        res.on('data', () => {});
+        let text = '';
+        res.on('data', (d: Buffer) => {
+          if (batch > 1) text += d;
+        });
         res.on('end', () =>
-          resolve({ status: res.statusCode!, retryAfter: res.headers['retry-after'] }),
+          resolve({ status: res.statusCode!, retryAfter: res.headers['retry-after'], text }),
         );
         res.on('error', reject);
       },
@@ -76,13 +93,16 @@ async function one(body: Buffer) {
       await new Promise((r) => setTimeout(r, 1000 * Number(res.retryAfter ?? 1)));
       continue;
     }
-    statuses[res.status] = (statuses[res.status] ?? 0) + 1;
+    if (batch > 1 && res.status === 200) {
+      for (const r of (JSON.parse(res.text) as { results: { httpStatus: number }[] }).results)
+        statuses[r.httpStatus] = (statuses[r.httpStatus] ?? 0) + 1;
+    } else statuses[res.status] = (statuses[res.status] ?? 0) + 1;
     return;
   }
 }
 await Promise.all(
   Array.from({ length: concurrency }, async () => {
-    while (next < count) {
+    while (next < bodies.length) {
       const i = next++;
       if (ratePerS > 0) {
         const due = wall0 + (i * 1000) / ratePerS;
