@@ -6,12 +6,14 @@
 import { createHash } from 'node:crypto';
 import { promisify } from 'node:util';
 import { constants as zlibConstants, deflateRaw, deflateRawSync } from 'node:zlib';
-import { ZodError } from 'zod';
+import { z, ZodError } from 'zod';
 import {
   bytesPerSample,
   MAX_SAMPLES,
   MIN_SAMPLES,
+  sampleValuesSchema,
   snapshotInSchema,
+  type SnapshotIn,
   type Encoding,
   type IngestResult,
 } from '@turnstone/contracts/ingest';
@@ -202,6 +204,43 @@ const invalid = (uid: string | null, message: string, details?: unknown): Ingest
   error: { code: 'validation_failed', message, ...(details === undefined ? {} : { details }) },
 });
 
+/**
+ * The shared schema, except that a base64 `samples` is not matched against the pattern: it
+ * is only used for strings already known to be canonical base64 (see parseSnapshot).
+ */
+const snapshotCheckedBase64Schema = snapshotInSchema.safeExtend({
+  samples: z.union([z.string().min(1), sampleValuesSchema]),
+});
+
+/**
+ * snapshotInSchema's verdict, and the sample bytes when `samples` is base64. Matching the
+ * base64 pattern over a 4,096-sample snapshot's 11 kB string cost more CPU than all the
+ * other fields together (≈ 95 µs of ≈ 140 µs per request in the server's profile), and the
+ * string was then decoded anyway. So decode first: when the bytes encode back to exactly
+ * the string (canonical, padded base64, which is what gateways send), the string matches
+ * the pattern, and the schema runs without it. Any other string (unpadded, stray or
+ * URL-safe characters…) goes through snapshotInSchema itself, so what is accepted and the
+ * error details are unchanged.
+ */
+export function parseSnapshot(
+  raw: unknown,
+): { success: true; data: SnapshotIn; bytes: Buffer | null } | { success: false; error: ZodError } {
+  const samples = (raw as { samples?: unknown } | null)?.samples;
+  if (typeof samples === 'string' && samples.length > 0) {
+    const bytes = Buffer.from(samples, 'base64');
+    if (bytes.toString('base64') === samples) {
+      const parsed = snapshotCheckedBase64Schema.safeParse(raw);
+      return parsed.success
+        ? { success: true, data: parsed.data, bytes }
+        : { success: false, error: parsed.error };
+    }
+  }
+  const parsed = snapshotInSchema.safeParse(raw);
+  return parsed.success
+    ? { success: true, data: parsed.data, bytes: null }
+    : { success: false, error: parsed.error };
+}
+
 /** Validates and stores one item from a gateway; never throws for the item's own faults. */
 export async function ingestOne(
   ctx: AppContext,
@@ -212,7 +251,7 @@ export async function ingestOne(
     typeof (raw as { uid?: unknown })?.uid === 'string'
       ? ((raw as { uid: string }).uid.slice(0, 128) as string)
       : null;
-  const parsed = snapshotInSchema.safeParse(raw);
+  const parsed = parseSnapshot(raw);
   if (!parsed.success) {
     const details = zodDetails(parsed.error);
     return invalid(
@@ -225,9 +264,10 @@ export async function ingestOne(
   let bytes: Buffer;
   try {
     bytes =
-      typeof s.samples === 'string'
+      parsed.bytes ??
+      (typeof s.samples === 'string'
         ? Buffer.from(s.samples, 'base64')
-        : encodeSamples(s.samples, s.encoding);
+        : encodeSamples(s.samples, s.encoding));
     const n = bytes.length / bytesPerSample[s.encoding];
     if (!Number.isInteger(n))
       throw new RangeError(`${bytes.length} bytes is not a whole number of ${s.encoding} samples`);
