@@ -26,9 +26,11 @@ function sendJson(res: Response, status: number, body: unknown): void {
 }
 
 /**
- * The items of a batch, stored side by side so their commits share fsyncs (one after the
- * other, a batch of 10 waited for 10 fsyncs in a row). An item repeating an earlier item's
- * uid waits for it, so the first one is the 201 and the repeat the 200, as in order.
+ * The items of a batch, stored side by side: one after the other, each item waited for its
+ * own round trip and commit before the next one started; side by side they overlap on the
+ * pool's connections (and concurrent commits can share an fsync). An item repeating an
+ * earlier item's uid waits for it, so the first one is the 201 and the repeat the 200, as
+ * in order.
  */
 async function ingestBatch(
   ctx: AppContext,
