@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { inflateRawSync } from 'node:zlib';
 import { sql } from 'drizzle-orm';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { snapshotBody } from '../support/signals.ts';
@@ -74,6 +75,19 @@ describe('ingest', () => {
       [body.snapshotId],
     );
     expect(Number((jobs as { n: number }[])[0]!.n)).toBe(1);
+  });
+
+  it('stores the samples as raw deflate that inflates back to the posted bytes, and smaller', async () => {
+    const b = snapshotBody(TAG, 'ing-z', { takenAt: '2026-11-30T09:00:00.000Z' });
+    expect((await post(keyMfp, b)).status).toBe(201);
+    const [rows] = await srv.ctx.dbHandle.pool.query(
+      "SELECT samples, sample_count FROM snapshots WHERE uid = 'ing-z'",
+    );
+    const row = (rows as { samples: Buffer; sample_count: number }[])[0]!;
+    const posted = Buffer.from(b.samples, 'base64');
+    expect(inflateRawSync(row.samples).equals(posted)).toBe(true);
+    expect(row.sample_count).toBe(posted.length / 2);
+    expect(row.samples.length).toBeLessThan(posted.length);
   });
 
   it('when a snapshot repeats its uid with the same content, answers 200 and stores nothing new', async () => {
@@ -190,6 +204,33 @@ describe('ingest', () => {
     expect(results.map((r: { httpStatus: number }) => r.httpStatus)).toEqual([201, 404, 400, 200]);
   });
 
+  it('a batch answers repeated uids in order even when the first item is the slowest to store', async () => {
+    // Items are stored side by side; a big first item (its samples compress on the thread
+    // pool) would otherwise lose the race to a small repeat of its uid.
+    const big = snapshotBody(TAG, 'bo-1', { n: 1 << 17, seed: 3 });
+    const other = snapshotBody(TAG, 'bo-1', { seed: 4 });
+    const fresh = Array.from({ length: 8 }, (_, i) => snapshotBody(TAG, `bo-${i + 2}`));
+    const res = await post(keyMfp, { snapshots: [big, other, ...fresh, big] });
+    expect(res.status).toBe(200);
+    const { results } = await res.json();
+    expect(results.map((r: { httpStatus: number }) => r.httpStatus)).toEqual([
+      201,
+      409,
+      ...fresh.map(() => 201),
+      200,
+    ]);
+    expect(results.map((r: { uid: string }) => r.uid)).toEqual([
+      'bo-1',
+      'bo-1',
+      ...fresh.map((f) => f.uid),
+      'bo-1',
+    ]);
+    const [rows] = await srv.ctx.dbHandle.pool.query(
+      "SELECT COUNT(*) AS n, COUNT(j.id) AS j FROM snapshots s LEFT JOIN jobs j ON j.snapshot_id = s.id WHERE s.uid LIKE 'bo-%'",
+    );
+    expect(rows).toEqual([{ n: 9, j: 9 }]);
+  });
+
   it('when storing the job fails, the snapshot is not stored either (one transaction)', async () => {
     const before = await count('snapshots');
     await srv.ctx.db.execute(sql`RENAME TABLE jobs TO jobs_away`);
@@ -201,6 +242,33 @@ describe('ingest', () => {
     }
     expect(await count('snapshots')).toBe(before);
     expect((await post(keyMfp, snapshotBody(TAG, 'tx-1'))).status).toBe(201);
+  });
+
+  it('a failed or repeated insert leaves its pooled connection with no transaction open', async () => {
+    // Ingest sends START TRANSACTION; INSERT; INSERT; COMMIT in one round trip; a failing
+    // statement stops the batch mid-transaction. The connection it used is the next one the
+    // pool hands out (mysql2's free list is last in, first out): it must be clean.
+    const inTransaction = () =>
+      new Promise<number>((resolve, reject) =>
+        srv.ctx.dbHandle.batchPool.query('SELECT @@in_transaction AS t', (err, rows) =>
+          err ? reject(err) : resolve(Number((rows as { t: number }[])[0]!.t)),
+        ),
+      );
+    await srv.ctx.db.execute(sql`RENAME TABLE jobs TO jobs_away`);
+    try {
+      expect((await post(keyMfp, snapshotBody(TAG, 'tx-2'))).status).toBeGreaterThanOrEqual(500);
+      expect(await inTransaction()).toBe(0);
+    } finally {
+      await srv.ctx.db.execute(sql`RENAME TABLE jobs_away TO jobs`);
+    }
+    const b = snapshotBody(TAG, 'tx-3', { takenAt: '2026-11-30T12:00:00.000Z' });
+    expect((await post(keyMfp, b)).status).toBe(201);
+    expect((await post(keyMfp, b)).status).toBe(200);
+    expect(await inTransaction()).toBe(0);
+    const [rows] = await srv.ctx.dbHandle.pool.query(
+      "SELECT COUNT(*) AS n FROM snapshots s JOIN jobs j ON j.snapshot_id = s.id WHERE s.uid IN ('tx-2', 'tx-3')",
+    );
+    expect(Number((rows as { n: number }[])[0]!.n)).toBe(1);
   });
 
   it('serves an OpenAPI 3.1 document generated from the schemas', async () => {
@@ -230,6 +298,7 @@ describe('ingest rate', () => {
         })
       ).json();
       const statuses: number[] = [];
+      const budgets: (string | null)[] = [];
       let retryAfter: string | null = null;
       for (let i = 0; i < 5; i++) {
         const r = await limited.call('POST', '/api/ingest/v1/snapshots', {
@@ -237,10 +306,21 @@ describe('ingest rate', () => {
           headers: { authorization: `Bearer ${apiKey}` },
         });
         statuses.push(r.status);
+        budgets.push(r.headers.get('ratelimit'));
+        expect(r.headers.get('ratelimit-policy')).toBe('3;w=60');
         if (r.status === 429) retryAfter = r.headers.get('retry-after');
       }
       expect(statuses).toEqual([201, 201, 201, 429, 429]);
       expect(Number(retryAfter)).toBeGreaterThan(0);
+      // IETF draft-7 RateLimit header: what is left of the gateway's budget in this window.
+      expect(budgets.map((b) => /remaining=(\d+)/.exec(b ?? '')?.[1])).toEqual([
+        '2',
+        '1',
+        '0',
+        '0',
+        '0',
+      ]);
+      expect(Number(/reset=(\d+)/.exec(budgets[0] ?? '')?.[1])).toBeGreaterThan(50);
     } finally {
       await limited.stop();
     }

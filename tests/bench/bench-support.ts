@@ -36,6 +36,8 @@ export interface LoadResult {
   p99: number;
   statuses: Record<string, number>;
   retries: number;
+  /** CPU time (user + system) the load generator itself spent while posting. */
+  cpuMs: number;
 }
 
 export interface LoadOptions {
@@ -48,6 +50,8 @@ export interface LoadOptions {
   /** Paced requests per second; 0 = flat out. */
   ratePerS?: number;
   pointTag?: string;
+  /** Snapshots per request ({ snapshots: [...] }); 1 = one snapshot object per request. */
+  batch?: number;
 }
 
 /**
@@ -66,8 +70,10 @@ export function runLoad(o: LoadOptions): Promise<LoadResult> {
     o.prefix,
     String(o.samples),
   ];
-  if (o.ratePerS !== undefined || o.pointTag !== undefined) args.push(String(o.ratePerS ?? 0));
-  if (o.pointTag !== undefined) args.push(o.pointTag);
+  if (o.ratePerS !== undefined || o.pointTag !== undefined || o.batch !== undefined)
+    args.push(String(o.ratePerS ?? 0));
+  if (o.pointTag !== undefined || o.batch !== undefined) args.push(o.pointTag ?? 'MFP-P101-MDE-H');
+  if (o.batch !== undefined) args.push(String(o.batch));
   return new Promise((resolve, reject) => {
     const child = spawn(process.execPath, args);
     let out = '';

@@ -6,7 +6,7 @@
  * - worker throughput (analysed snapshots/s in one process) for 8,192-sample snapshots.
  * Targets: ingest ≥ 1,000/s with p99 ≤ 250 ms and zero lost or doubled; worker ≥ 200/s.
  */
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import mysql from 'mysql2/promise';
@@ -18,6 +18,9 @@ import { createGatewayKey, measureWorker, runLoad, signInCookie } from './bench-
 const COUNT = Number(process.env.BENCH_INGEST_COUNT ?? 6000);
 const CONCURRENCY = Number(process.env.BENCH_INGEST_CONCURRENCY ?? 32);
 const WORKER_COUNT = Number(process.env.BENCH_WORKER_COUNT ?? 600);
+/** The extra row: gateways that buffer post { snapshots: [...] } of BATCH per request. */
+const BATCH = Number(process.env.BENCH_INGEST_BATCH ?? 10);
+const BATCH_CONCURRENCY = Number(process.env.BENCH_INGEST_BATCH_CONCURRENCY ?? 8);
 const dir = mkdtempSync(join(tmpdir(), 'turnstone-bench-'));
 const db = await startLocalMariadb({ dataDir: dir, database: 'bench' });
 const srv = await start({
@@ -34,16 +37,66 @@ const pool = srv.ctx.dbHandle.pool;
 try {
   const cookie = await signInCookie(srv.url, 'admin@turnstone.local');
   const apiKey = await createGatewayKey(srv.url, cookie, 1, 'bench');
-  const load = (prefix: string, count: number, samples: number) =>
-    runLoad({ url: srv.url, key: apiKey, count, concurrency: CONCURRENCY, prefix, samples });
+  const load = (prefix: string, count: number, samples: number, batch?: number) =>
+    runLoad({
+      url: srv.url,
+      key: apiKey,
+      count,
+      concurrency: batch ? BATCH_CONCURRENCY : CONCURRENCY,
+      prefix,
+      samples,
+      batch,
+    });
   await load('warm', 300, 4096);
-  const ingest = await load('ing', COUNT, 4096);
-  const [rows] = await pool.query(
-    "SELECT COUNT(*) AS n, COUNT(DISTINCT uid) AS u FROM snapshots WHERE uid LIKE 'ing-%'",
-  );
-  const { n, u } = (rows as { n: number; u: number }[])[0]!;
-  const lost = COUNT - Number(u);
-  const doubled = Number(n) - Number(u);
+  // Load-independent figures: the server process's CPU time (this process: Express,
+  // mysql2, zlib, crypto; the load generator is a separate process), MariaDB's, and the
+  // statements, commits and redo-log fsyncs MariaDB counted, each per snapshot.
+  const status = async () => {
+    const [r] = await pool.query(
+      "SHOW GLOBAL STATUS WHERE Variable_name IN ('Questions', 'Com_commit', 'Innodb_data_fsyncs')",
+    );
+    return Object.fromEntries(
+      (r as { Variable_name: string; Value: string }[]).map((x) => [
+        x.Variable_name,
+        Number(x.Value),
+      ]),
+    );
+  };
+  // MariaDB's own CPU time, from /proc (Linux), for the share of the two cores it takes.
+  const dbCpuMs = () => {
+    try {
+      const pid = readFileSync(join(db.dir, 'mariadbd.pid'), 'utf8').trim();
+      const f = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+      return ((Number(f[11]) + Number(f[12])) * 1000) / 100; // utime + stime, 100 ticks/s
+    } catch {
+      return NaN;
+    }
+  };
+  /** One measured run: throughput, latency, CPU and queries per snapshot, lost/doubled. */
+  const measured = async (prefix: string, batch?: number) => {
+    const st0 = await status();
+    const db0 = dbCpuMs();
+    const cpu0 = process.cpuUsage();
+    const run = await load(prefix, COUNT, 4096, batch);
+    const cpu = process.cpuUsage(cpu0);
+    const dbMs = (dbCpuMs() - db0) / COUNT;
+    const st1 = await status();
+    const perSnapshot = (k: string) =>
+      ((st1[k]! - st0[k]! - (k === 'Questions' ? 1 : 0)) / COUNT).toFixed(2);
+    const [rows] = await pool.query(
+      `SELECT COUNT(*) AS n, COUNT(DISTINCT uid) AS u FROM snapshots WHERE uid LIKE '${prefix}-%'`,
+    );
+    const { n, u } = (rows as { n: number; u: number }[])[0]!;
+    return {
+      ...run,
+      lost: COUNT - Number(u),
+      doubled: Number(n) - Number(u),
+      cpu: `${((cpu.user + cpu.system) / 1000 / COUNT).toFixed(2)} / ${(run.cpuMs / COUNT).toFixed(2)} / ${dbMs.toFixed(2)}`,
+      queries: `${perSnapshot('Questions')} / ${perSnapshot('Com_commit')} / ${perSnapshot('Innodb_data_fsyncs')}`,
+    };
+  };
+  const ingest = await measured('ing');
+  const batched = await measured('bat', BATCH);
 
   // Reference: the same rows by raw mysql2 multi-row INSERTs of 100, one transaction each.
   const [sample] = await pool.query("SELECT * FROM snapshots WHERE uid LIKE 'ing-%' LIMIT 1");
@@ -96,7 +149,18 @@ try {
   console.log(
     `| statuses | ${JSON.stringify(ingest.statuses)} (retries ${ingest.retries}) | all 201 |`,
   );
-  console.log(`| lost / doubled | ${lost} / ${doubled} | 0 / 0 |`);
+  console.log(`| lost / doubled | ${ingest.lost} / ${ingest.doubled} | 0 / 0 |`);
+  console.log(`| CPU ms per snapshot: server / load generator / MariaDB | ${ingest.cpu} | |`);
+  console.log(`| statements / commits / log fsyncs per snapshot | ${ingest.queries} | |`);
+  const b = `batched, ${BATCH} per request, ${BATCH_CONCURRENCY} requests in flight`;
+  console.log(`| ${b}: snapshots/s | ${batched.perS.toFixed(0)} | |`);
+  console.log(
+    `| ${b}: request p50 / p99 (ms) | ${batched.p50.toFixed(1)} / ${batched.p99.toFixed(1)} | |`,
+  );
+  console.log(
+    `| ${b}: item statuses, lost / doubled | ${JSON.stringify(batched.statuses)}, ${batched.lost} / ${batched.doubled} | all 201, 0 / 0 |`,
+  );
+  console.log(`| ${b}: CPU ms per snapshot (server / load / MariaDB) | ${batched.cpu} | |`);
   console.log(`| raw mysql2 batch insert rows/s (reference) | ${rawPerS.toFixed(0)} | |`);
   console.log(`| ingest / raw batch insert | ${(ingest.perS / rawPerS).toFixed(3)} | |`);
   console.log(

@@ -45,7 +45,7 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
     localDb = await startLocalMariadb({ dataDir, port: config.DB_PORT, log: say });
     url = localDb.url;
   }
-  const dbHandle = createDb(url, { connectionLimit: 20 });
+  const dbHandle = createDb(url, { connectionLimit: 20, batchConnectionLimit: 32 });
   const cleanup: Array<() => Promise<void>> = [];
   try {
     await runMigrations(dbHandle.db);

@@ -24,6 +24,8 @@ export const MAX_FUTURE_MS = 10 * 60 * 1000;
 export const MAX_BATCH = 100;
 
 const base64Pattern = /^[A-Za-z0-9+/]*={0,2}$/;
+/** `samples` as numbers: the values themselves, checked against the encoding later. */
+export const sampleValuesSchema = z.array(z.number().finite()).min(MIN_SAMPLES).max(MAX_SAMPLES);
 
 export const snapshotInSchema = z
   .object({
@@ -42,7 +44,7 @@ export const snapshotInSchema = z
     /** Little-endian samples in `encoding`, base64; or the sample values as numbers. */
     samples: z.union([
       z.string().min(1).regex(base64Pattern, 'samples is not valid base64'),
-      z.array(z.number().finite()).min(MIN_SAMPLES).max(MAX_SAMPLES),
+      sampleValuesSchema,
     ]),
     /** Optional: the number of samples the gateway meant to send; checked when given. */
     sampleCount: z.number().int().min(MIN_SAMPLES).max(MAX_SAMPLES).optional(),

@@ -1,6 +1,7 @@
-import { eq, sql } from 'drizzle-orm';
-import type { Db } from '@turnstone/db/client';
-import { areas, gateways, jobs, machines, points, snapshots } from '@turnstone/db/schema';
+import { eq, getTableColumns } from 'drizzle-orm';
+import type { ResultSetHeader } from 'mysql2';
+import type { Db, DbHandle } from '@turnstone/db/client';
+import { areas, gateways, machines, points, snapshots } from '@turnstone/db/schema';
 
 export async function gatewayByPrefix(db: Db, prefix: string) {
   const [g] = await db.select().from(gateways).where(eq(gateways.keyPrefix, prefix)).limit(1);
@@ -33,16 +34,67 @@ export async function snapshotByUid(db: Db, uid: string) {
 
 export type NewSnapshot = typeof snapshots.$inferInsert;
 
-/** The snapshot and its analysis job, in one transaction: both or neither. */
-export async function insertSnapshotWithJob(db: Db, row: NewSnapshot): Promise<number> {
-  return db.transaction(async (tx) => {
-    const [s] = await tx.insert(snapshots).values(row).$returningId();
-    await tx.insert(jobs).values({
-      kind: 'analyze',
-      snapshotId: s!.id,
-      payload: {},
-      runAfter: sql`CURRENT_TIMESTAMP(3)`,
+const snapshotColumns = getTableColumns(snapshots);
+/** The columns ingest and uploads write; the others keep their defaults. */
+const INSERT_KEYS = [
+  'uid',
+  'pointId',
+  'gatewayId',
+  'source',
+  'takenAt',
+  'sampleRateHz',
+  'sampleCount',
+  'encoding',
+  'adcBits',
+  'fullScaleV',
+  'sensitivityMvPerG',
+  'speedRpm',
+  'tach',
+  'samples',
+  'contentHash',
+  'status',
+  'uploadedBy',
+  'fileName',
+] as const satisfies readonly (keyof typeof snapshotColumns)[];
+export type SnapshotRow = { [K in (typeof INSERT_KEYS)[number]]: NewSnapshot[K] };
+
+/**
+ * One transaction in one round trip (the batch pool runs several statements per query):
+ * the snapshot, then its job pointing at LAST_INSERT_ID(). Column names come from the
+ * Drizzle schema and values go through mysql2's placeholders.
+ */
+const INSERT_WITH_JOB = [
+  'START TRANSACTION',
+  `INSERT INTO snapshots (${INSERT_KEYS.map((k) => `\`${snapshotColumns[k].name}\``).join(', ')}) VALUES (${INSERT_KEYS.map(() => '?').join(', ')})`,
+  "INSERT INTO jobs (kind, snapshot_id, payload, run_after) VALUES ('analyze', LAST_INSERT_ID(), '{}', CURRENT_TIMESTAMP(3))",
+  'COMMIT',
+].join(';\n');
+
+/**
+ * The snapshot and its analysis job, in one transaction: both or neither. A failing
+ * statement stops the batch with the transaction still open, so it is rolled back on the
+ * same connection before the connection goes back to the pool (destroyed if that fails).
+ */
+export function insertSnapshotWithJob(handle: DbHandle, row: SnapshotRow): Promise<number> {
+  const values = INSERT_KEYS.map((k) => {
+    const v = row[k];
+    // As Drizzle does: null stays NULL, anything else is mapped by its column type.
+    return v === null || v === undefined ? null : snapshotColumns[k].mapToDriverValue(v);
+  });
+  return new Promise((resolve, reject) => {
+    handle.batchPool.getConnection((connErr, conn) => {
+      if (connErr) return reject(connErr);
+      conn.query(INSERT_WITH_JOB, values, (err, results) => {
+        if (!err) {
+          conn.release();
+          return resolve(Number((results as ResultSetHeader[])[1]!.insertId));
+        }
+        conn.query('ROLLBACK', (rollbackErr) => {
+          if (rollbackErr) conn.destroy();
+          else conn.release();
+          reject(err);
+        });
+      });
     });
-    return s!.id;
   });
 }

@@ -5,13 +5,15 @@
  */
 import { createHash } from 'node:crypto';
 import { promisify } from 'node:util';
-import { deflateRaw } from 'node:zlib';
-import { ZodError } from 'zod';
+import { constants as zlibConstants, deflateRaw, deflateRawSync } from 'node:zlib';
+import { z, ZodError } from 'zod';
 import {
   bytesPerSample,
   MAX_SAMPLES,
   MIN_SAMPLES,
+  sampleValuesSchema,
   snapshotInSchema,
+  type SnapshotIn,
   type Encoding,
   type IngestResult,
 } from '@turnstone/contracts/ingest';
@@ -24,6 +26,16 @@ import * as repo from './ingest-repository.ts';
 import { encodeSamples } from './sample-bytes.ts';
 
 const deflate = promisify(deflateRaw);
+const DEFLATE_OPTIONS = { level: 1, strategy: zlibConstants.Z_RLE };
+/** Below this size the thread-pool hop costs more CPU than the compression itself. */
+const INLINE_DEFLATE_BYTES = 64 * 1024;
+
+/** Raw deflate of sample bytes: inline for a gateway's snapshot, in the pool for uploads. */
+async function compress(bytes: Buffer): Promise<Buffer> {
+  return bytes.length <= INLINE_DEFLATE_BYTES
+    ? deflateRawSync(bytes, DEFLATE_OPTIONS)
+    : deflate(bytes, DEFLATE_OPTIONS);
+}
 
 export interface GatewayPrincipal {
   id: number;
@@ -144,10 +156,13 @@ export async function storeSnapshot(
   const hash = contentHash(s);
   // New uids are the common case: insert straight away, and read the stored row only when
   // the unique index says the uid is taken (a repeat, or two deliveries racing).
-  // Level 1: vibration counts barely compress further, and this runs on every ingest.
-  const compressed = await deflate(s.bytes, { level: 1 });
+  // Run-length strategy (still raw deflate, read back by plain inflateRaw): vibration counts
+  // hold almost no repeated strings, so the Huffman coding is where the saving is. On the
+  // simulator's int24 captures it stores 81.4 % of the raw size against 81.2 % at level 1,
+  // in about half the CPU time; this runs on every ingest.
+  const compressed = await compress(s.bytes);
   try {
-    const snapshotId = await repo.insertSnapshotWithJob(ctx.db, {
+    const snapshotId = await repo.insertSnapshotWithJob(ctx.dbHandle, {
       uid: s.uid,
       pointId: s.pointId,
       gatewayId: s.gatewayId,
@@ -189,6 +204,43 @@ const invalid = (uid: string | null, message: string, details?: unknown): Ingest
   error: { code: 'validation_failed', message, ...(details === undefined ? {} : { details }) },
 });
 
+/**
+ * The shared schema, except that a base64 `samples` is not matched against the pattern: it
+ * is only used for strings already known to be canonical base64 (see parseSnapshot).
+ */
+const snapshotCheckedBase64Schema = snapshotInSchema.safeExtend({
+  samples: z.union([z.string().min(1), sampleValuesSchema]),
+});
+
+/**
+ * snapshotInSchema's verdict, and the sample bytes when `samples` is base64. Matching the
+ * base64 pattern over a 4,096-sample snapshot's 11 kB string cost more CPU than all the
+ * other fields together (≈ 95 µs of ≈ 140 µs per request in the server's profile), and the
+ * string was then decoded anyway. So decode first: when the bytes encode back to exactly
+ * the string (canonical, padded base64, which is what gateways send), the string matches
+ * the pattern, and the schema runs without it. Any other string (unpadded, stray or
+ * URL-safe characters…) goes through snapshotInSchema itself, so what is accepted and the
+ * error details are unchanged.
+ */
+export function parseSnapshot(
+  raw: unknown,
+): { success: true; data: SnapshotIn; bytes: Buffer | null } | { success: false; error: ZodError } {
+  const samples = (raw as { samples?: unknown } | null)?.samples;
+  if (typeof samples === 'string' && samples.length > 0) {
+    const bytes = Buffer.from(samples, 'base64');
+    if (bytes.toString('base64') === samples) {
+      const parsed = snapshotCheckedBase64Schema.safeParse(raw);
+      return parsed.success
+        ? { success: true, data: parsed.data, bytes }
+        : { success: false, error: parsed.error };
+    }
+  }
+  const parsed = snapshotInSchema.safeParse(raw);
+  return parsed.success
+    ? { success: true, data: parsed.data, bytes: null }
+    : { success: false, error: parsed.error };
+}
+
 /** Validates and stores one item from a gateway; never throws for the item's own faults. */
 export async function ingestOne(
   ctx: AppContext,
@@ -199,7 +251,7 @@ export async function ingestOne(
     typeof (raw as { uid?: unknown })?.uid === 'string'
       ? ((raw as { uid: string }).uid.slice(0, 128) as string)
       : null;
-  const parsed = snapshotInSchema.safeParse(raw);
+  const parsed = parseSnapshot(raw);
   if (!parsed.success) {
     const details = zodDetails(parsed.error);
     return invalid(
@@ -212,9 +264,10 @@ export async function ingestOne(
   let bytes: Buffer;
   try {
     bytes =
-      typeof s.samples === 'string'
+      parsed.bytes ??
+      (typeof s.samples === 'string'
         ? Buffer.from(s.samples, 'base64')
-        : encodeSamples(s.samples, s.encoding);
+        : encodeSamples(s.samples, s.encoding));
     const n = bytes.length / bytesPerSample[s.encoding];
     if (!Number.isInteger(n))
       throw new RangeError(`${bytes.length} bytes is not a whole number of ${s.encoding} samples`);
