@@ -1,6 +1,52 @@
-/** Pieces the benches share: a session cookie, a gateway key, the load generator process. */
+/**
+ * Pieces the benches share: a private MariaDB with the real server on it, a session cookie,
+ * a gateway key, the load generator process.
+ */
 import { spawn } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { startLocalMariadb, type LocalMariadb } from '@turnstone/db/local-server';
+import { start } from '../../apps/server/src/server.ts';
+
+export interface BenchServer {
+  db: LocalMariadb;
+  srv: Awaited<ReturnType<typeof start>>;
+  /** Stops the server and MariaDB and removes their folder. */
+  stop(): Promise<void>;
+}
+
+/**
+ * A throw-away MariaDB and the real server on port 0 (no web build, demo plant without
+ * history, no ingest rate limit); `env` adds to or overrides those settings.
+ */
+export async function startBenchServer(
+  name: string,
+  env: Record<string, string> = {},
+): Promise<BenchServer> {
+  const dir = mkdtempSync(join(tmpdir(), `turnstone-${name}-`));
+  const db = await startLocalMariadb({ dataDir: dir, database: 'bench' });
+  const srv = await start({
+    DATABASE_URL: db.url,
+    DATA_DIR: dir,
+    PORT: '0',
+    BUILD_WEB: 'false',
+    LOG_LEVEL: 'error',
+    RUN_WORKER: 'false',
+    DEMO_HISTORY_WEEKS: '0',
+    INGEST_MAX_PER_MIN: '10000000',
+    ...env,
+  });
+  return {
+    db,
+    srv,
+    async stop() {
+      await srv.stop();
+      await db.stop();
+      rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}
 
 export async function signInCookie(
   url: string,

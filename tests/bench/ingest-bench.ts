@@ -6,14 +6,17 @@
  * - worker throughput (analysed snapshots/s in one process) for 8,192-sample snapshots.
  * Targets: ingest ≥ 1,000/s with p99 ≤ 250 ms and zero lost or doubled; worker ≥ 200/s.
  */
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import mysql from 'mysql2/promise';
-import { startLocalMariadb } from '@turnstone/db/local-server';
-import { start } from '../../apps/server/src/server.ts';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { createGatewayKey, measureWorker, runLoad, signInCookie } from './bench-support.ts';
+import {
+  createGatewayKey,
+  measureWorker,
+  runLoad,
+  signInCookie,
+  startBenchServer,
+} from './bench-support.ts';
 
 const COUNT = Number(process.env.BENCH_INGEST_COUNT ?? 6000);
 const CONCURRENCY = Number(process.env.BENCH_INGEST_CONCURRENCY ?? 32);
@@ -21,18 +24,8 @@ const WORKER_COUNT = Number(process.env.BENCH_WORKER_COUNT ?? 600);
 /** The extra row: gateways that buffer post { snapshots: [...] } of BATCH per request. */
 const BATCH = Number(process.env.BENCH_INGEST_BATCH ?? 10);
 const BATCH_CONCURRENCY = Number(process.env.BENCH_INGEST_BATCH_CONCURRENCY ?? 8);
-const dir = mkdtempSync(join(tmpdir(), 'turnstone-bench-'));
-const db = await startLocalMariadb({ dataDir: dir, database: 'bench' });
-const srv = await start({
-  DATABASE_URL: db.url,
-  DATA_DIR: dir,
-  PORT: '0',
-  BUILD_WEB: 'false',
-  LOG_LEVEL: 'error',
-  RUN_WORKER: 'false',
-  DEMO_HISTORY_WEEKS: '0',
-  INGEST_MAX_PER_MIN: '10000000',
-});
+const bench = await startBenchServer('bench');
+const { db, srv } = bench;
 const pool = srv.ctx.dbHandle.pool;
 try {
   const cookie = await signInCookie(srv.url, 'admin@turnstone.local');
@@ -170,7 +163,5 @@ try {
     `| worker statements / commits / fsyncs per job | ${run.queriesPerJob.toFixed(1)} / ${run.commitsPerJob.toFixed(2)} / ${run.fsyncsPerJob.toFixed(2)} | |`,
   );
 } finally {
-  await srv.stop();
-  await db.stop();
-  rmSync(dir, { recursive: true, force: true });
+  await bench.stop();
 }

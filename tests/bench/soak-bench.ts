@@ -5,29 +5,14 @@
  * route, worker lag (queue depth over time, time to drain after the last post) and lost /
  * doubled counted in the database afterwards.
  */
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { startLocalMariadb } from '@turnstone/db/local-server';
-import { start } from '../../apps/server/src/server.ts';
 import { queueDepth } from '../../apps/server/src/features/worker/worker.ts';
-import { createGatewayKey, runLoad, signInCookie } from './bench-support.ts';
+import { createGatewayKey, runLoad, signInCookie, startBenchServer } from './bench-support.ts';
 
 const SECONDS = Number(process.env.SOAK_SECONDS ?? 60);
 const GATEWAYS = Number(process.env.SOAK_GATEWAYS ?? 4);
 const RATE = Number(process.env.SOAK_RATE_PER_GATEWAY ?? 25);
-const dir = mkdtempSync(join(tmpdir(), 'turnstone-soak-'));
-const db = await startLocalMariadb({ dataDir: dir, database: 'soak' });
-const srv = await start({
-  DATABASE_URL: db.url,
-  DATA_DIR: dir,
-  PORT: '0',
-  BUILD_WEB: 'false',
-  LOG_LEVEL: 'error',
-  RUN_WORKER: 'true',
-  DEMO_HISTORY_WEEKS: '0',
-  INGEST_MAX_PER_MIN: '10000000',
-});
+const bench = await startBenchServer('soak', { RUN_WORKER: 'true' });
+const { srv } = bench;
 const pool = srv.ctx.dbHandle.pool;
 const q = (xs: number[], p: number) => {
   const s = [...xs].sort((a, b) => a - b);
@@ -116,7 +101,5 @@ try {
   );
   console.log(`| worker lag: time to drain after the last post (s) | ${drainS.toFixed(1)} |`);
 } finally {
-  await srv.stop();
-  await db.stop();
-  rmSync(dir, { recursive: true, force: true });
+  await bench.stop();
 }

@@ -6,31 +6,23 @@
  * Target: worker ≥ 200/s. BENCH_WORKER_COUNT (600), BENCH_WORKER_BATCH (16);
  * BENCH_CPU_PROFILE=file.cpuprofile writes a CPU profile of the drain alone.
  */
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { writeFileSync } from 'node:fs';
 import { Session } from 'node:inspector/promises';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { analyzeSnapshot, decodeSamples } from '@turnstone/dsp';
-import { startLocalMariadb } from '@turnstone/db/local-server';
-import { start } from '../../apps/server/src/server.ts';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { snapshotBody } from '../support/signals.ts';
-import { createGatewayKey, measureWorker, runLoad, signInCookie } from './bench-support.ts';
+import {
+  createGatewayKey,
+  measureWorker,
+  runLoad,
+  signInCookie,
+  startBenchServer,
+} from './bench-support.ts';
 
 const COUNT = Number(process.env.BENCH_WORKER_COUNT ?? 600);
 const BATCH = Number(process.env.BENCH_WORKER_BATCH ?? 16);
-const dir = mkdtempSync(join(tmpdir(), 'turnstone-bench-'));
-const db = await startLocalMariadb({ dataDir: dir, database: 'bench' });
-const srv = await start({
-  DATABASE_URL: db.url,
-  DATA_DIR: dir,
-  PORT: '0',
-  BUILD_WEB: 'false',
-  LOG_LEVEL: 'error',
-  RUN_WORKER: 'false',
-  DEMO_HISTORY_WEEKS: '0',
-  INGEST_MAX_PER_MIN: '10000000',
-});
+const bench = await startBenchServer('bench');
+const { srv } = bench;
 try {
   const cookie = await signInCookie(srv.url, 'admin@turnstone.local');
   const key = await createGatewayKey(srv.url, cookie, 1, 'bench');
@@ -83,7 +75,5 @@ try {
   console.log(`| analyzeSnapshot alone/s (reference) | ${refPerS.toFixed(0)} | |`);
   console.log(`| worker / analysis alone | ${(run.perS / refPerS).toFixed(3)} | |`);
 } finally {
-  await srv.stop();
-  await db.stop();
-  rmSync(dir, { recursive: true, force: true });
+  await bench.stop();
 }
