@@ -92,6 +92,24 @@ describe('fft plans and rfft', () => {
     expect(getFftPlan(1000)).toBe(getFftPlan(1000));
   });
 
+  // DFT definition; common practice, no source, for the cache bound itself
+  it('when recordings of many odd lengths are transformed, old plans make way and results stay exact', () => {
+    const first = getFftPlan(1001);
+    for (let n = 1003; n < 1003 + 2 * 12; n += 2) getFftPlan(n);
+    const again = getFftPlan(1001);
+    expect(again).not.toBe(first);
+    const x = Array.from({ length: 1001 }, (_, i) => Math.cos(i * 0.11) + (i % 5) * 0.01);
+    const ours = rfft(x);
+    const ref = naiveDft(x);
+    for (const k of [0, 1, 17, 250, 500]) {
+      expect(ours.re[k]).toBeCloseTo(ref.re[k]!, 8);
+      expect(ours.im[k]).toBeCloseTo(ref.im[k]!, 8);
+    }
+    // a shorter record after a longer one reuses the work buffers without leaking bins
+    const short = rfft([0, 1, 0, 0]);
+    expect(Array.from(short.re)).toEqual([1, 0, -1]);
+  });
+
   it('when the size or input is bad, it throws', () => {
     expect(() => getFftPlan(0)).toThrow(RangeError);
     expect(() => rfft([])).toThrow(RangeError);

@@ -1,5 +1,6 @@
 import FFT from 'fft.js';
 import { fftKernel } from './fft-kernel.ts';
+import { scratch } from './scratch.ts';
 
 /**
  * A cached FFT plan for one transform size. Buffers are interleaved complex
@@ -28,6 +29,13 @@ export interface FftPlan {
 }
 
 const plans = new Map<number, FftPlan>();
+/**
+ * Bluestein plans kept at most: recordings of many different lengths (uploads) would
+ * otherwise each keep ~8·m doubles (m ≥ 2n) for the life of the process. Power-of-two plans
+ * are few (one per size) and all kept.
+ */
+const MAX_ODD_PLANS = 8;
+const oddSizes: number[] = [];
 
 /** True when `n` is a power of two (1, 2, 4, …). */
 export function isPowerOfTwo(n: number): boolean {
@@ -53,6 +61,10 @@ export function getFftPlan(size: number): FftPlan {
   if (!plan) {
     plan = size === 1 ? trivialPlan() : isPowerOfTwo(size) ? radixPlan(size) : bluesteinPlan(size);
     plans.set(size, plan);
+    if (size > 1 && !isPowerOfTwo(size)) {
+      oddSizes.push(size);
+      if (oddSizes.length > MAX_ODD_PLANS) plans.delete(oddSizes.shift()!);
+    }
   }
   return plan;
 }
@@ -287,8 +299,6 @@ function bluesteinPlan(n: number): FftPlan {
   };
 }
 
-const rfftScratch = new Map<number, Float64Array>();
-
 /** One-sided spectrum of a real signal, bins 0 … ⌊N/2⌋. */
 export interface ComplexSpectrum {
   re: Float64Array;
@@ -307,11 +317,7 @@ export function rfft(input: ArrayLike<number>): ComplexSpectrum {
   if (n < 1) throw new RangeError('rfft needs at least one sample');
   const plan = getFftPlan(n);
   const data = input instanceof Float64Array ? input : Float64Array.from(input);
-  let out = rfftScratch.get(n);
-  if (!out) {
-    out = new Float64Array(2 * n);
-    rfftScratch.set(n, out);
-  }
+  const out = scratch('rfft-out', 2 * n);
   plan.realForward(out, data);
   const bins = Math.floor(n / 2) + 1;
   const re = new Float64Array(bins);
@@ -381,6 +387,7 @@ export function realInverseInto(out: Float64Array, spectrum: Float64Array, n: nu
       twiddle[2 * k + 1] = Math.sin((2 * Math.PI * k) / n);
     }
     s = { z: new Float64Array(2 * h), out: new Float64Array(2 * h), twiddle };
+    if (halfScratch.size >= 8) halfScratch.clear(); // records of many lengths: keep a few
     halfScratch.set(n, s);
   }
   const { z, twiddle } = s;
