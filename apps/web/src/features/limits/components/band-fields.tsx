@@ -132,62 +132,27 @@ export function BandFields({
 
         {(band?.kind === 'hz' || band?.kind === 'overall') && (
           <>
-            <Field
+            <NumberField
               label="From (Hz)"
               error={e?.fromHz?.message}
               hint={band.kind === 'overall' ? 'Empty: the analysis span' : undefined}
-            >
-              {(c) => (
-                <Input
-                  {...c}
-                  controlSize="sm"
-                  type="number"
-                  step="any"
-                  className="font-mono"
-                  {...n('fromHz')}
-                />
-              )}
-            </Field>
-            <Field label="To (Hz)" error={e?.toHz?.message}>
-              {(c) => (
-                <Input
-                  {...c}
-                  controlSize="sm"
-                  type="number"
-                  step="any"
-                  className="font-mono"
-                  {...n('toHz')}
-                />
-              )}
-            </Field>
+              registration={n('fromHz')}
+            />
+            <NumberField label="To (Hz)" error={e?.toHz?.message} registration={n('toHz')} />
           </>
         )}
         {band?.kind === 'order' && (
           <>
-            <Field label="From (orders)" error={e?.fromOrder?.message}>
-              {(c) => (
-                <Input
-                  {...c}
-                  controlSize="sm"
-                  type="number"
-                  step="any"
-                  className="font-mono"
-                  {...n('fromOrder')}
-                />
-              )}
-            </Field>
-            <Field label="To (orders)" error={e?.toOrder?.message}>
-              {(c) => (
-                <Input
-                  {...c}
-                  controlSize="sm"
-                  type="number"
-                  step="any"
-                  className="font-mono"
-                  {...n('toOrder')}
-                />
-              )}
-            </Field>
+            <NumberField
+              label="From (orders)"
+              error={e?.fromOrder?.message}
+              registration={n('fromOrder')}
+            />
+            <NumberField
+              label="To (orders)"
+              error={e?.toOrder?.message}
+              registration={n('toOrder')}
+            />
           </>
         )}
         {band?.kind === 'fault' && (
@@ -203,18 +168,11 @@ export function BandFields({
                 </Select>
               )}
             </Field>
-            <Field label="Half-width" error={e?.halfWidth?.message}>
-              {(c) => (
-                <Input
-                  {...c}
-                  controlSize="sm"
-                  type="number"
-                  step="any"
-                  className="font-mono"
-                  {...n('halfWidth')}
-                />
-              )}
-            </Field>
+            <NumberField
+              label="Half-width"
+              error={e?.halfWidth?.message}
+              registration={n('halfWidth')}
+            />
             <Field label="Half-width unit" error={e?.halfWidthUnit?.message}>
               {(c) => (
                 <Select id={c.id} {...t('halfWidthUnit')}>
@@ -224,18 +182,13 @@ export function BandFields({
                 </Select>
               )}
             </Field>
-            <Field label="Harmonics" error={e?.harmonics?.message} hint="1 = fundamental only">
-              {(c) => (
-                <Input
-                  {...c}
-                  controlSize="sm"
-                  type="number"
-                  step="1"
-                  className="font-mono"
-                  {...n('harmonics')}
-                />
-              )}
-            </Field>
+            <NumberField
+              label="Harmonics"
+              error={e?.harmonics?.message}
+              hint="1 = fundamental only"
+              step="1"
+              registration={n('harmonics')}
+            />
           </>
         )}
 
@@ -268,63 +221,31 @@ export function BandFields({
           )}
         </Field>
         <div />
-        <Field label="Alert level" error={e?.alertLevel?.message}>
-          {(c) => (
-            <Input
-              {...c}
-              controlSize="sm"
-              type="number"
-              step="any"
-              className="font-mono"
-              {...level('alertLevel')}
-            />
-          )}
-        </Field>
-        <Field label="Danger level" error={e?.dangerLevel?.message}>
-          {(c) => (
-            <Input
-              {...c}
-              controlSize="sm"
-              type="number"
-              step="any"
-              className="font-mono"
-              {...level('dangerLevel')}
-            />
-          )}
-        </Field>
-        <Field
+        <NumberField
+          label="Alert level"
+          error={e?.alertLevel?.message}
+          registration={level('alertLevel')}
+        />
+        <NumberField
+          label="Danger level"
+          error={e?.dangerLevel?.message}
+          registration={level('dangerLevel')}
+        />
+        <NumberField
           label="Persistence"
           error={e?.persistence?.message}
           hint="Exceedances in a row to raise"
-        >
-          {(c) => (
-            <Input
-              {...c}
-              controlSize="sm"
-              type="number"
-              step="1"
-              min="1"
-              className="font-mono"
-              {...n('persistence')}
-            />
-          )}
-        </Field>
-        <Field
+          step="1"
+          min="1"
+          registration={n('persistence')}
+        />
+        <NumberField
           label="Hysteresis"
           error={e?.hysteresis?.message}
           hint="Clears below this × alert level"
-        >
-          {(c) => (
-            <Input
-              {...c}
-              controlSize="sm"
-              type="number"
-              step="0.01"
-              className="font-mono"
-              {...n('hysteresis')}
-            />
-          )}
-        </Field>
+          step="0.01"
+          registration={n('hysteresis')}
+        />
       </div>
 
       <div className="mt-3 flex flex-col gap-3 border-t border-line pt-3">
@@ -334,46 +255,23 @@ export function BandFields({
         </label>
         {band?.statistical && (
           <div className="grid grid-cols-2 gap-3 md:grid-cols-4">
-            <Field label="k for alert" error={e?.kAlert?.message}>
-              {(c) => (
-                <Input
-                  {...c}
-                  controlSize="sm"
-                  type="number"
-                  step="any"
-                  className="font-mono"
-                  {...n('kAlert')}
-                />
-              )}
-            </Field>
-            <Field
+            <NumberField
+              label="k for alert"
+              error={e?.kAlert?.message}
+              registration={n('kAlert')}
+            />
+            <NumberField
               label="k for danger"
               error={e?.kDanger?.message}
               hint="Empty: danger stays fixed"
-            >
-              {(c) => (
-                <Input
-                  {...c}
-                  controlSize="sm"
-                  type="number"
-                  step="any"
-                  className="font-mono"
-                  {...n('kDanger')}
-                />
-              )}
-            </Field>
-            <Field label="Baseline: first N values" error={e?.baselineCount?.message}>
-              {(c) => (
-                <Input
-                  {...c}
-                  controlSize="sm"
-                  type="number"
-                  step="1"
-                  className="font-mono"
-                  {...n('baselineCount')}
-                />
-              )}
-            </Field>
+              registration={n('kDanger')}
+            />
+            <NumberField
+              label="Baseline: first N values"
+              error={e?.baselineCount?.message}
+              step="1"
+              registration={n('baselineCount')}
+            />
             <Field label="Combine with fixed levels" error={e?.combine?.message}>
               {(c) => (
                 <Select id={c.id} {...t('combine')}>
@@ -405,5 +303,38 @@ export function BandFields({
         )}
       </div>
     </fieldset>
+  );
+}
+
+/** A number field of the band form: compact, monospaced, registered with the form. */
+function NumberField({
+  label,
+  error,
+  hint,
+  step = 'any',
+  min,
+  registration,
+}: {
+  label: string;
+  error: string | undefined;
+  hint?: string | undefined;
+  step?: string;
+  min?: string;
+  registration: ReturnType<UseFormRegister<LimitsFormValues>>;
+}) {
+  return (
+    <Field label={label} error={error} hint={hint}>
+      {(c) => (
+        <Input
+          {...c}
+          controlSize="sm"
+          type="number"
+          step={step}
+          min={min}
+          className="font-mono"
+          {...registration}
+        />
+      )}
+    </Field>
   );
 }
