@@ -50,6 +50,13 @@ describe('limits screen', () => {
     await page
       .getByLabel('Reason for the change')
       .fill('Tighter alert after the bearing change, per OEM data sheet');
+    // Hold back the history refetch that follows the save, so the limit set (version 2)
+    // arrives first and the editor remounts before the save settles, as on a loaded
+    // machine: the outcome must still be shown (common practice, no source).
+    await page.route('**/api/v1/points/*/limits/history', async (route) => {
+      await new Promise((r) => setTimeout(r, 1500));
+      await route.continue();
+    });
     await page.getByRole('button', { name: 'Save with this reason' }).click();
     await page.getByText('Saved as version 2.').waitFor();
     const changes = page.getByRole('list', { name: 'Recent changes' });

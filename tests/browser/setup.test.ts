@@ -109,6 +109,13 @@ describe('admin setup screens in a real browser', () => {
       ['MFP-P160-PDE-H'],
     );
     expect(row).toEqual({ tag: 'MFP-P160-PDE-H', designation: '6311', nominal_rpm: 1485 });
+
+    // Deleting the point asks first, then closes the panel (not an empty "New point" form).
+    page.once('dialog', (d) => void d.accept());
+    await pf.getByRole('button', { name: 'Delete…' }).click();
+    await page.getByText('Choose something to edit').waitFor();
+    expect(await page.getByRole('heading', { name: 'New point' }).count()).toBe(0);
+    expect(await q('SELECT id FROM points WHERE tag = ?', ['MFP-P160-PDE-H'])).toEqual([]);
     await page.context().close();
   });
 

@@ -59,24 +59,23 @@ export function CreateFindingDialog({
 
   const onSubmit = form.handleSubmit((values) => {
     if (!origin) return;
-    create.mutate(
-      {
+    create
+      .mutateAsync({
         pointId: origin.pointId,
         ...(origin.alertId !== undefined ? { alertId: origin.alertId } : {}),
         ...(origin.bandKey !== undefined ? { bandKey: origin.bandKey } : {}),
         ...values,
-      },
-      {
-        onSuccess: (finding) => {
+      })
+      .then(
+        (finding) => {
           onCreated?.(finding.title);
           onClose();
         },
-        onError: (error) => {
+        (error: unknown) => {
           const byField = fieldErrorsOf(error);
           for (const f of fields) if (byField[f]) form.setError(f, { message: byField[f] });
         },
-      },
-    );
+      );
   });
 
   const serverError = create.error && Object.keys(fieldErrorsOf(create.error)).length === 0;

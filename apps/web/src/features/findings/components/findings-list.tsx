@@ -42,16 +42,13 @@ function PlanForm({ finding, onDone }: { finding: Finding; onDone: () => void })
   });
   const error = form.formState.errors.workOrderRef?.message;
   const submit = form.handleSubmit((v) =>
-    update.mutate(
-      { id: finding.id, state: 'planned', workOrderRef: v.workOrderRef },
-      {
-        onSuccess: onDone,
-        onError: (e) =>
-          form.setError('workOrderRef', {
-            message: fieldErrorsOf(e).workOrderRef ?? (e instanceof Error ? e.message : 'Failed'),
-          }),
-      },
-    ),
+    update
+      .mutateAsync({ id: finding.id, state: 'planned', workOrderRef: v.workOrderRef })
+      .then(onDone, (e: unknown) =>
+        form.setError('workOrderRef', {
+          message: fieldErrorsOf(e).workOrderRef ?? (e instanceof Error ? e.message : 'Failed'),
+        }),
+      ),
   );
   const id = `plan-${finding.id}`;
   return (

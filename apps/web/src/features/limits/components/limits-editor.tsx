@@ -103,23 +103,20 @@ export function LimitsEditor({
       return;
     }
     setReasonError(null);
-    save.mutate(
-      { bands: definitions(values), reason: r.data },
-      {
-        onSuccess: (out) => {
-          onSaved(
-            `Saved as version ${out.version}.` +
-              (out.clearedAlertIds.length
-                ? ` ${out.clearedAlertIds.length} open alert(s) on removed bands were cleared.`
-                : ''),
-          );
-          setAsking(false);
-          setReason('');
-          form.reset(values);
-        },
-        onError: serverErrors,
-      },
-    );
+    // mutateAsync, not mutate's callbacks: the save refetches the limit set, and its new
+    // version remounts this editor; TanStack Query drops the callbacks of an unmounted
+    // observer, which would lose the outcome. The parent keeps the message.
+    save.mutateAsync({ bands: definitions(values), reason: r.data }).then((out) => {
+      onSaved(
+        `Saved as version ${out.version}.` +
+          (out.clearedAlertIds.length
+            ? ` ${out.clearedAlertIds.length} open alert(s) on removed bands were cleared.`
+            : ''),
+      );
+      setAsking(false);
+      setReason('');
+      form.reset(values);
+    }, serverErrors);
   });
 
   const applyIso = async () => {

@@ -31,12 +31,9 @@ export function AreaForm({
   const { errors } = form.formState;
   const onSubmit = form.handleSubmit((values) => {
     setFormError(null);
-    save.mutate(
-      { ...values, id: area?.id },
-      {
-        onSuccess: (r) => onSaved(r?.id ?? area?.id ?? 0),
-        onError: (e) => setFormError(applyServerErrors(e, form.setError, FIELDS)),
-      },
+    save.mutateAsync({ ...values, id: area?.id }).then(
+      (r) => onSaved(r?.id ?? area?.id ?? 0),
+      (e: unknown) => setFormError(applyServerErrors(e, form.setError, FIELDS)),
     );
   });
   return (

@@ -98,14 +98,9 @@ export function MachineForm({
 
   const onSubmit = form.handleSubmit((values) => {
     setFormError(null);
-    save.mutate(
-      { ...values, id: machine?.id },
-      {
-        onSuccess: (r) => {
-          onSaved(r?.id ?? machine?.id ?? 0);
-        },
-        onError: (e) => setFormError(applyServerErrors(e, form.setError, FIELDS)),
-      },
+    save.mutateAsync({ ...values, id: machine?.id }).then(
+      (r) => onSaved(r?.id ?? machine?.id ?? 0),
+      (e: unknown) => setFormError(applyServerErrors(e, form.setError, FIELDS)),
     );
   });
 
@@ -119,10 +114,7 @@ export function MachineForm({
     )
       return;
     setFormError(null);
-    remove.mutate(machine.id, {
-      onSuccess: onDeleted,
-      onError: (e) => setFormError(e.message),
-    });
+    remove.mutateAsync(machine.id).then(onDeleted, (e: Error) => setFormError(e.message));
   };
 
   return (

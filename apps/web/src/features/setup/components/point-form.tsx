@@ -52,18 +52,15 @@ export function PointForm({
   const { errors } = form.formState;
   const onSubmit = form.handleSubmit((values) => {
     setFormError(null);
-    save.mutate(
-      { ...values, id: point?.id },
-      {
-        onSuccess: (r) => onSaved(r?.id ?? point?.id ?? 0),
-        onError: (e) => setFormError(applyServerErrors(e, form.setError, FIELDS)),
-      },
+    save.mutateAsync({ ...values, id: point?.id }).then(
+      (r) => onSaved(r?.id ?? point?.id ?? 0),
+      (e: unknown) => setFormError(applyServerErrors(e, form.setError, FIELDS)),
     );
   });
   const onDelete = () => {
     if (!point || !window.confirm(`Delete point ${point.tag}? This cannot be undone.`)) return;
     setFormError(null);
-    remove.mutate(point.id, { onSuccess: onDeleted, onError: (e) => setFormError(e.message) });
+    remove.mutateAsync(point.id).then(onDeleted, (e: Error) => setFormError(e.message));
   };
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Point">

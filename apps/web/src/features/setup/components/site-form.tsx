@@ -31,12 +31,9 @@ export function SiteForm({
   const { errors } = form.formState;
   const onSubmit = form.handleSubmit((values) => {
     setFormError(null);
-    save.mutate(
-      { ...values, id: site?.id },
-      {
-        onSuccess: (r) => onSaved(r?.id ?? site?.id ?? 0),
-        onError: (e) => setFormError(applyServerErrors(e, form.setError, FIELDS)),
-      },
+    save.mutateAsync({ ...values, id: site?.id }).then(
+      (r) => onSaved(r?.id ?? site?.id ?? 0),
+      (e: unknown) => setFormError(applyServerErrors(e, form.setError, FIELDS)),
     );
   });
   return (
