@@ -1,8 +1,8 @@
+import type { RequestListener } from 'node:http';
 import express, { Router, type Request, type Response, type NextFunction } from 'express';
 import cookieParser from 'cookie-parser';
 import helmet from 'helmet';
 import compression from 'compression';
-import { randomUUID } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import type { AppContext } from './lib/context.ts';
@@ -10,11 +10,13 @@ import { AppError } from './lib/app-error.ts';
 import { apiNotFound, errorMiddleware } from './lib/error-middleware.ts';
 import { mountRoutes, type RouteSpec } from './lib/route-table.ts';
 import { webDist } from './lib/web-build.ts';
+import { trackRequest } from './lib/request-log.ts';
 import { authRouter, authRoutes, createAuthenticate } from './features/auth/auth-router.ts';
 import { fleetRoutes } from './features/fleet/fleet-router.ts';
 import { healthRouter } from './features/health/health-router.ts';
 import { gatewayRoutes } from './features/gateways/gateways-router.ts';
 import { ingestRouter } from './features/ingest/ingest-router.ts';
+import { ingestEndpoint } from './features/ingest/ingest-endpoint.ts';
 import { uploadRoutes } from './features/uploads/uploads-router.ts';
 import { snapshotRoutes } from './features/snapshots/snapshots-router.ts';
 import { alertRoutes } from './features/alerts/alerts-router.ts';
@@ -83,25 +85,13 @@ export function createApp(ctx: AppContext) {
     app.set('trust proxy', /^\d+$/.test(v) ? Number(v) : v === 'true' ? true : v);
   }
   app.use((req, res, next) => {
-    req.requestId = randomUUID();
-    res.setHeader('X-Request-Id', req.requestId);
-    const t0 = process.hrtime.bigint();
-    // Access log at debug level: the path only (a query string can carry a token).
-    res.on('finish', () =>
-      ctx.log.debug('request', {
-        requestId: req.requestId,
-        method: req.method,
-        path: req.path,
-        status: res.statusCode,
-        ms: Number(process.hrtime.bigint() - t0) / 1e6,
-      }),
-    );
+    req.requestId = trackRequest(ctx.log, req, res, () => req.path);
     next();
   });
   // The gateways' machine-to-machine API comes before the browser middleware: helmet's
   // page headers (CSP, frame and referrer policy…) mean nothing to a gateway and gzip does
-  // not pay for answers of a hundred bytes; both cost CPU on every post.
-  app.use('/api/ingest/v1', ingestRouter(ctx));
+  // not pay for answers of a hundred bytes. (Its POST never reaches Express: httpHandler.)
+  app.use('/api/ingest/v1', ingestRouter());
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -149,4 +139,16 @@ export function createApp(ctx: AppContext) {
   });
   app.use(errorMiddleware(ctx.log));
   return app;
+}
+
+/**
+ * The server's request listener: gateways' snapshot posts go to the ingest endpoint on
+ * node:http directly (the hot path, see ingest-endpoint.ts), everything else to Express.
+ */
+export function httpHandler(ctx: AppContext): RequestListener {
+  const app = createApp(ctx);
+  const ingest = ingestEndpoint(ctx);
+  return (req, res) => {
+    if (!ingest(req, res)) app(req, res);
+  };
 }

@@ -6,12 +6,12 @@
 import { mkdirSync } from 'node:fs';
 import { resolve } from 'node:path';
 import type { AddressInfo } from 'node:net';
-import type { Server } from 'node:http';
+import { createServer, type Server } from 'node:http';
 import { createDb } from '@turnstone/db/client';
 import { runMigrations } from '@turnstone/db/migrate';
 import { startLocalMariadb, type LocalMariadb } from '@turnstone/db/local-server';
 import { loadConfig, type Config } from './config.ts';
-import { createApp } from './app.ts';
+import { httpHandler } from './app.ts';
 import type { AppContext } from './lib/context.ts';
 import { createLogger } from './lib/logger.ts';
 import { loadOrCreateSecrets } from './lib/secrets.ts';
@@ -60,10 +60,10 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
     if (config.SEED_DEMO) await seedIfEmpty(ctx, say);
     if (config.BUILD_WEB) await ensureWebBuilt(say);
 
-    const app = createApp(ctx);
     const server: Server = await new Promise((resolveListen, reject) => {
-      const s = app.listen(config.PORT, config.HOST, () => resolveListen(s));
+      const s = createServer(httpHandler(ctx));
       s.on('error', reject);
+      s.listen(config.PORT, config.HOST, () => resolveListen(s));
     });
     const port = (server.address() as AddressInfo).port;
     const mail = await startMail(ctx, {

@@ -39,50 +39,76 @@ export const apiNotFound: RequestHandler = (req, res) => {
   });
 };
 
+export interface ErrorReply {
+  status: number;
+  headers: Record<string, string>;
+  body: { error: { code: string; message: string; details?: unknown } };
+}
+
+/**
+ * How any error leaves the server: `{ error: { code, message, details? } }` with its status
+ * and headers. Shared by the Express error middleware and the gateways' ingest endpoint.
+ */
+export function errorReply(
+  err: unknown,
+  log: Logger,
+  request: { requestId?: string; path: string },
+): ErrorReply {
+  const headers: Record<string, string> = {};
+  const reply = (status: number, code: string, message: string, details?: unknown) => ({
+    status,
+    headers,
+    body: { error: details === undefined ? { code, message } : { code, message, details } },
+  });
+
+  if (err instanceof AppError) {
+    Object.assign(headers, err.headers);
+    return reply(err.httpStatus, err.code, err.message, err.details);
+  }
+  if (err instanceof ZodError) {
+    const details = zodDetails(err);
+    const first = details[0];
+    return reply(
+      400,
+      'validation_failed',
+      first ? `Invalid request: ${first.path || 'body'}: ${first.message}` : 'Invalid request.',
+      details,
+    );
+  }
+  const type = (err as { type?: string }).type;
+  if (type === 'entity.parse.failed')
+    return reply(400, 'invalid_json', 'The request body is not valid JSON.');
+  if (type === 'entity.too.large')
+    return reply(413, 'payload_too_large', 'The request body is too large.');
+  if (type === 'charset.unsupported' || type === 'encoding.unsupported')
+    return reply(415, 'unsupported_encoding', 'Unsupported request encoding.');
+  if (isDbUnavailable(err)) {
+    headers['Retry-After'] = '5';
+    log.warn('database unavailable', {
+      requestId: request.requestId,
+      path: request.path,
+      code: (err as { code?: string }).code,
+    });
+    return reply(503, 'db_unavailable', 'The database is not answering; try again shortly.');
+  }
+  const status = (err as { status?: number }).status;
+  if (typeof status === 'number' && status >= 400 && status < 500) {
+    return reply(status, 'bad_request', (err as Error).message || 'Bad request.');
+  }
+  log.error('unhandled error', { requestId: request.requestId, path: request.path, err });
+  return reply(
+    500,
+    'internal',
+    `Something went wrong on our side (request ${request.requestId ?? '?'}).`,
+  );
+}
+
 /** The last middleware: every error leaves as `{ error: { code, message, details? } }`. */
 export function errorMiddleware(log: Logger): ErrorRequestHandler {
   return (err, req, res, _next) => {
     if (res.headersSent) return;
-    const send = (status: number, code: string, message: string, details?: unknown) =>
-      res
-        .status(status)
-        .json({ error: details === undefined ? { code, message } : { code, message, details } });
-
-    if (err instanceof AppError) {
-      for (const [k, v] of Object.entries(err.headers ?? {})) res.setHeader(k, v);
-      return send(err.httpStatus, err.code, err.message, err.details);
-    }
-    if (err instanceof ZodError) {
-      const details = zodDetails(err);
-      const first = details[0];
-      return send(
-        400,
-        'validation_failed',
-        first ? `Invalid request: ${first.path || 'body'}: ${first.message}` : 'Invalid request.',
-        details,
-      );
-    }
-    const type = (err as { type?: string }).type;
-    if (type === 'entity.parse.failed')
-      return send(400, 'invalid_json', 'The request body is not valid JSON.');
-    if (type === 'entity.too.large')
-      return send(413, 'payload_too_large', 'The request body is too large.');
-    if (type === 'charset.unsupported' || type === 'encoding.unsupported')
-      return send(415, 'unsupported_encoding', 'Unsupported request encoding.');
-    if (isDbUnavailable(err)) {
-      res.setHeader('Retry-After', '5');
-      log.warn('database unavailable', {
-        requestId: req.requestId,
-        path: req.path,
-        code: (err as { code?: string }).code,
-      });
-      return send(503, 'db_unavailable', 'The database is not answering; try again shortly.');
-    }
-    const status = (err as { status?: number }).status;
-    if (typeof status === 'number' && status >= 400 && status < 500) {
-      return send(status, 'bad_request', (err as Error).message || 'Bad request.');
-    }
-    log.error('unhandled error', { requestId: req.requestId, path: req.path, err });
-    send(500, 'internal', `Something went wrong on our side (request ${req.requestId ?? '?'}).`);
+    const r = errorReply(err, log, { requestId: req.requestId, path: req.path });
+    for (const [k, v] of Object.entries(r.headers)) res.setHeader(k, v);
+    res.status(r.status).json(r.body);
   };
 }

@@ -1,25 +1,25 @@
-import type { Request, RequestHandler } from 'express';
+/** What one request is told by the per-gateway rate: its headers, and whether it is over. */
+export interface RateVerdict {
+  headers: [string, string][];
+  limited: boolean;
+}
 
 /**
  * Per-gateway request budget for ingest: `limit` requests per `windowMs`, counted from the
  * gateway's first request of the window (the window express-rate-limit's memory store
- * keeps), answered with the IETF draft-7 `RateLimit` / `RateLimit-Policy` headers, and
- * past the budget a 429 with Retry-After. Written out because it runs on every post, where
- * the general-purpose middleware (promises, per-request validations, key generators) took
- * several percent of the request's CPU.
+ * keeps), answered with the IETF draft-7 `RateLimit` / `RateLimit-Policy` headers; the
+ * caller answers 429 with Retry-After when `limited`. Written out because it runs on every
+ * post, where the general-purpose middleware (promises, per-request validations, key
+ * generators) took several percent of the request's CPU.
  */
-export function gatewayRateLimit(options: {
+export function createGatewayRate(options: {
   limit: number;
   windowMs: number;
-  gatewayId: (req: Request) => number;
-  onLimited: RequestHandler;
-}): RequestHandler {
+}): (gatewayId: number, now?: number) => RateVerdict {
   const { limit, windowMs } = options;
   const windows = new Map<number, { hits: number; resetAt: number }>();
   const policy = `${limit};w=${Math.ceil(windowMs / 1000)}`;
-  return (req, res, next) => {
-    const id = options.gatewayId(req);
-    const now = Date.now();
+  return (id, now = Date.now()) => {
     let w = windows.get(id);
     if (!w || w.resetAt <= now) {
       if (!w && windows.size > 100_000) windows.clear();
@@ -27,12 +27,15 @@ export function gatewayRateLimit(options: {
       windows.set(id, w);
     }
     w.hits++;
-    res.setHeader('RateLimit-Policy', policy);
-    res.setHeader(
-      'RateLimit',
-      `limit=${limit}, remaining=${Math.max(0, limit - w.hits)}, reset=${Math.max(0, Math.ceil((w.resetAt - now) / 1000))}`,
-    );
-    if (w.hits > limit) return options.onLimited(req, res, next);
-    next();
+    return {
+      headers: [
+        ['RateLimit-Policy', policy],
+        [
+          'RateLimit',
+          `limit=${limit}, remaining=${Math.max(0, limit - w.hits)}, reset=${Math.max(0, Math.ceil((w.resetAt - now) / 1000))}`,
+        ],
+      ],
+      limited: w.hits > limit,
+    };
   };
 }
