@@ -19,6 +19,8 @@ export function isDbUnavailable(err: unknown): boolean {
   for (let e: unknown = err, i = 0; e && i < 5; i++) {
     const code = (e as { code?: string }).code;
     if (code && DB_DOWN_CODES.has(code)) return true;
+    // The server's socket file is gone while it is stopped.
+    if (code === 'ENOENT' && (e as { syscall?: string }).syscall === 'connect') return true;
     if ((e as { fatal?: boolean }).fatal === true && (e as { errno?: number }).errno === undefined)
       return true;
     e = (e as { cause?: unknown }).cause;
