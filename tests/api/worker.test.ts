@@ -2,8 +2,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { claimJobs } from '../../apps/server/src/features/worker/queue-repository.ts';
 import {
+  prepareAnalyses,
   runAnalysisJob,
   runAnalysisJobs,
+  storeAnalyses,
 } from '../../apps/server/src/features/analysis/analysis-service.ts';
 import { expireRawSamples } from '../../apps/server/src/features/worker/retention.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
@@ -289,6 +291,70 @@ describe('worker', () => {
       expect(new Date(p.judged as Date).getTime()).toBe(new Date(p.latest as Date).getTime());
       expect(new Date(p.last as Date).getTime()).toBe(new Date(p.latest as Date).getTime());
     }
+  });
+
+  it('limits saved while a batch was being analysed are the ones its captures are judged by', async () => {
+    await quietQueue();
+    const tag = 'MFP-P101-MNDE-H';
+    const t0 = Date.now() - 1_800_000;
+    const ids: number[] = [];
+    for (let i = 0; i < 3; i++)
+      ids.push(
+        await ingest(
+          `wv-${i}`,
+          {
+            takenAt: new Date(t0 + i * 60_000).toISOString(),
+            seed: i,
+            tones: [{ hz: 24.7, peakG: 0.2 }],
+          },
+          tag,
+        ),
+      );
+    // The worker computes the batch against the point's limit set as it is now…
+    const claimed = await claimJobs(srv.ctx.db, 'wv', 60, 10, ['analyze']);
+    expect(claimed.map((j) => j.snapshotId)).toEqual(ids);
+    const { prepared } = await prepareAnalyses(srv.ctx, claimed);
+    const before = prepared[0]!.limitSet;
+    // …an engineer saves a new version with one more band before the batch is written…
+    const engineer = await srv.signIn('engineer');
+    const pointId = prepared[0]!.snap.pointId;
+    const current = await (
+      await srv.call('GET', `/api/v1/points/${pointId}/limits`, { cookie: engineer })
+    ).json();
+    const copy = {
+      ...current.bands.find((b: { key: string }) => b.key === 'order-1x'),
+      key: 'order-1x-second',
+      name: 'Second 1× band',
+    };
+    const saved = await srv.call('PUT', `/api/v1/points/${pointId}/limits`, {
+      cookie: engineer,
+      body: { bands: [...current.bands, copy], reason: 'Second 1× band for the worker test' },
+    });
+    expect(saved.status).toBe(200);
+    const version = (await saved.json()).version as number;
+    expect(version).toBe(before.version + 1);
+    // …so the batch is written with the saved version: its bands, and judged by it.
+    const out = await storeAnalyses(srv.ctx, prepared, 'wv');
+    expect(out.length).toBe(3);
+    const keys = await q(
+      `SELECT a.snapshot_id, GROUP_CONCAT(b.band_key ORDER BY b.band_key) AS k FROM analyses a
+         JOIN band_values b ON b.analysis_id = a.id
+        WHERE a.snapshot_id IN (${ids.join(',')}) GROUP BY a.snapshot_id`,
+    );
+    expect(keys.length).toBe(3);
+    for (const r of keys) expect(String(r.k).split(',')).toContain('order-1x-second');
+    // The 1× band and its copy measure the same thing: the same value (common practice, no source).
+    const pairs = await q(
+      `SELECT b.band_key, b.value FROM band_values b JOIN analyses a ON a.id = b.analysis_id
+        WHERE a.snapshot_id = ? AND b.band_key IN ('order-1x', 'order-1x-second')`,
+      [ids[0]],
+    );
+    expect(pairs.length).toBe(2);
+    expect(Number(pairs[0]!.value)).toBeCloseTo(Number(pairs[1]!.value), 9);
+    const [state] = await q('SELECT limit_set_version FROM point_states WHERE point_id = ?', [
+      pointId,
+    ]);
+    expect(Number(state!.limit_set_version)).toBe(version);
   });
 
   it('retention drops raw samples of old snapshots and keeps their analyses', async () => {

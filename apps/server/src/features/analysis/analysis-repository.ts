@@ -82,6 +82,19 @@ export async function loadLimitSet(
 }
 
 /** The limit sets of several points (two statements), by point id; points without one are absent. */
+/** The version of each point's limit set (one statement; points without a set are absent). */
+export async function limitSetVersions(
+  db: Db | Tx,
+  pointIds: number[],
+): Promise<Map<number, number>> {
+  if (pointIds.length === 0) return new Map();
+  const rows = await db
+    .select({ pointId: limitSets.pointId, version: limitSets.version })
+    .from(limitSets)
+    .where(inArray(limitSets.pointId, pointIds));
+  return new Map(rows.map((r) => [r.pointId!, r.version]));
+}
+
 export async function loadLimitSets(
   db: Db | Tx,
   pointIds: number[],

@@ -180,6 +180,39 @@ function prepareOne(
 }
 
 /**
+ * The batch as judged by the limit sets in force. A batch is computed before its write
+ * transaction, and an engineer may save a point's limits in between. Saving locks the
+ * point's condition state before writing the set, so with the batch's states locked (as
+ * they are when this runs) the versions read here are the latest. A capture computed
+ * against an older version is computed again with the saved bands: its band values and
+ * verdicts then follow the set the engineer saw saved. One statement per batch; the
+ * recomputation happens only after a save.
+ */
+async function withLimitsInForce(
+  tx: Parameters<typeof repo.loadLimitSets>[0],
+  batch: PreparedAnalysis[],
+): Promise<PreparedAnalysis[]> {
+  const pointIds = [...new Set(batch.map((p) => p.snap.pointId))];
+  const versions = await repo.limitSetVersions(tx, pointIds);
+  const stale = pointIds.filter((id) => {
+    const v = versions.get(id);
+    return v !== undefined && batch.some((p) => p.snap.pointId === id && p.limitSet.version !== v);
+  });
+  if (stale.length === 0) return batch;
+  const sets = await repo.loadLimitSets(tx, stale);
+  return batch.map((p) => {
+    const set = sets.get(p.snap.pointId);
+    if (!set || set.version === p.limitSet.version) return p;
+    return prepareOne(
+      p.job,
+      new Map([[p.snap.id, p.snap]]),
+      new Map([[p.pc.point.id, p.pc]]),
+      new Map([[p.pc.point.id, set]]),
+    );
+  });
+}
+
+/**
  * Writes a batch of computed analyses in one transaction: the jobs are marked done first,
  * fenced by their lease (a worker that lost any of them throws `LeaseLostError` and writes
  * nothing), then the point states are locked (ascending point id), and analyses, band
@@ -188,18 +221,19 @@ function prepareOne(
  */
 export async function storeAnalyses(
   ctx: AppContext,
-  batch: PreparedAnalysis[],
+  computed: PreparedAnalysis[],
   owner: string,
 ): Promise<AnalysisOutcome[]> {
-  if (batch.length === 0) return [];
+  if (computed.length === 0) return [];
   return ctx.db.transaction(async (tx) => {
-    const jobIds = batch.map((p) => p.job.id);
+    const jobIds = computed.map((p) => p.job.id);
     if (!(await completeJobsIn(tx, jobIds, owner))) throw new LeaseLostError(jobIds);
     const condition = await startConditionBatch(
       ctx,
       tx,
-      batch.map((p) => p.snap.pointId),
+      computed.map((p) => p.snap.pointId),
     );
+    const batch = await withLimitsInForce(tx, computed);
     const ids = await repo.insertAnalyses(
       tx,
       batch.map(({ snap, analysis, zone }) => ({
