@@ -32,6 +32,15 @@ describe('headers', () => {
     expect(res.headers.get('x-powered-by')).toBeNull();
     expect(res.headers.get('referrer-policy')).toBeTruthy();
   });
+
+  it('the ingest endpoint answers JSON that is not sniffed, without the page headers', async () => {
+    const res = await srv.call('POST', '/api/ingest/v1/snapshots', { body: {} });
+    expect(res.status).toBe(401);
+    expect(res.headers.get('content-type')).toMatch(/^application\/json/);
+    expect(res.headers.get('x-content-type-options')).toBe('nosniff');
+    expect(res.headers.get('x-request-id')).toMatch(/^[0-9a-f-]{36}$/);
+    expect(res.headers.get('x-powered-by')).toBeNull();
+  });
 });
 
 describe('cookies', () => {
