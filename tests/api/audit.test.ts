@@ -117,4 +117,67 @@ describe('audit log', () => {
         (await srv.call('GET', '/api/v1/audit', { cookie: await srv.signIn(role) })).status,
       ).toBe(403);
   });
+
+  it('an engineer sees the entries of their own sites only, also of a deleted machine', async () => {
+    // A machine created and deleted on site 2 (area 'Audit area' was created there above).
+    const areas = await (await srv.call('GET', '/api/v1/setup', { cookie: admin })).json();
+    const area = areas.areas.find((a: { name: string }) => a.name === 'Audit area');
+    const created = await srv.call('POST', '/api/v1/machines', {
+      cookie: admin,
+      body: {
+        areaId: area.id,
+        name: 'Audit fan',
+        type: 'fan',
+        nominalRpm: 980,
+        isoGroup: 2,
+        foundation: 'rigid',
+        criticality: 'medium',
+        powerKw: null,
+        bladeCount: 8,
+        vaneCount: null,
+        bearings: [],
+        gears: [],
+      },
+    });
+    expect(created.status, await created.clone().text()).toBe(201);
+    const machineId = (await created.json()).id;
+    expect(
+      (await srv.call('DELETE', `/api/v1/machines/${machineId}`, { cookie: admin })).status,
+    ).toBe(204);
+
+    // Both entries keep the machine's site, the delete's too (written after the row went).
+    const [rows] = await srv.ctx.dbHandle.pool.query(
+      "SELECT action, site_id FROM audit_log WHERE entity = 'machine' AND entity_id = ? ORDER BY id",
+      [String(machineId)],
+    );
+    expect(rows).toEqual([
+      { action: 'machine.create', site_id: 2 },
+      { action: 'machine.delete', site_id: 2 },
+    ]);
+
+    // The engineer is moved to site 1 alone.
+    const users = await (await srv.call('GET', '/api/v1/users', { cookie: admin })).json();
+    const eng = users.items.find((u: { role: string }) => u.role === 'engineer');
+    const moved = await srv.call('PATCH', `/api/v1/users/${eng.id}`, {
+      cookie: admin,
+      body: { siteIds: [1] },
+    });
+    expect(moved.status).toBe(200);
+    const own = await srv.signIn('engineer');
+    const list = async (cookie: string) =>
+      (
+        (await (await srv.call('GET', '/api/v1/audit?limit=200', { cookie })).json()).items as {
+          action: string;
+          entity: string;
+        }[]
+      ).map((i) => i.action);
+    const seen = await list(own);
+    expect(seen).toEqual(expect.arrayContaining(['gateway.create', 'gateway.revoke']));
+    for (const hidden of ['area.create', 'machine.create', 'machine.delete', 'user.update'])
+      expect(seen).not.toContain(hidden);
+    // The admin sees everything, the deleted machine's entries included.
+    expect(await list(admin)).toEqual(
+      expect.arrayContaining(['area.create', 'machine.create', 'machine.delete', 'user.update']),
+    );
+  });
 });

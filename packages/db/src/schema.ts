@@ -555,8 +555,18 @@ export const auditLog = mysqlTable(
     at: at('at')
       .notNull()
       .default(sql`CURRENT_TIMESTAMP(3)`),
+    /**
+     * The site the entry concerns, fixed when it is written (so it outlives a deleted
+     * machine or point); null for what belongs to no site (users, machine-type templates).
+     * No foreign key: the record stays when a site goes.
+     */
+    siteId: int('site_id'),
   },
-  (t) => [index('audit_entity_idx').on(t.entity, t.entityId), index('audit_at_idx').on(t.at)],
+  (t) => [
+    index('audit_entity_idx').on(t.entity, t.entityId),
+    index('audit_at_idx').on(t.at),
+    index('audit_site_idx').on(t.siteId, t.id),
+  ],
 );
 
 export const outbox = mysqlTable(

@@ -1,5 +1,16 @@
+import { eq } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
-import { auditLog } from '@turnstone/db/schema';
+import {
+  alerts,
+  areas,
+  auditLog,
+  findings,
+  gateways,
+  machines,
+  points,
+} from '@turnstone/db/schema';
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 export interface AuditEntry {
   actorUserId: number | null;
@@ -9,10 +20,76 @@ export interface AuditEntry {
   before?: unknown;
   after?: unknown;
   reason?: string | null;
+  /**
+   * The site the entry concerns. Left out, it is looked up from the entity, which must
+   * still exist: pass it when the entity was just deleted.
+   */
+  siteId?: number | null;
+}
+
+/**
+ * The site of an audited entity, as it is in this transaction; null for entities of no
+ * site (users, machine-type templates) and for one that no longer exists.
+ */
+async function siteOfEntity(db: Db | Tx, entity: string, id: number): Promise<number | null> {
+  const bySite = async (q: Promise<{ siteId: number | null }[]>): Promise<number | null> =>
+    (await q)[0]?.siteId ?? null;
+  const pointSite = (pointId: number) =>
+    bySite(
+      db
+        .select({ siteId: areas.siteId })
+        .from(points)
+        .innerJoin(machines, eq(machines.id, points.machineId))
+        .innerJoin(areas, eq(areas.id, machines.areaId))
+        .where(eq(points.id, pointId)),
+    );
+  switch (entity) {
+    case 'site':
+      return id;
+    case 'area':
+      return bySite(db.select({ siteId: areas.siteId }).from(areas).where(eq(areas.id, id)));
+    case 'gateway':
+      return bySite(
+        db.select({ siteId: gateways.siteId }).from(gateways).where(eq(gateways.id, id)),
+      );
+    case 'machine':
+      return bySite(
+        db
+          .select({ siteId: areas.siteId })
+          .from(machines)
+          .innerJoin(areas, eq(areas.id, machines.areaId))
+          .where(eq(machines.id, id)),
+      );
+    case 'point':
+      return pointSite(id);
+    case 'alert': {
+      const [a] = await db
+        .select({ pointId: alerts.pointId })
+        .from(alerts)
+        .where(eq(alerts.id, id));
+      return a ? pointSite(a.pointId) : null;
+    }
+    case 'finding': {
+      const [f] = await db
+        .select({ pointId: findings.pointId })
+        .from(findings)
+        .where(eq(findings.id, id));
+      return f ? pointSite(f.pointId) : null;
+    }
+    default:
+      return null;
+  }
 }
 
 /** Writes one audit row; pass the transaction so the change and its record commit together. */
-export async function writeAudit(db: Pick<Db, 'insert'>, e: AuditEntry): Promise<void> {
+export async function writeAudit(db: Db | Tx, e: AuditEntry): Promise<void> {
+  const numericId = Number(e.entityId);
+  const siteId =
+    e.siteId !== undefined
+      ? e.siteId
+      : Number.isInteger(numericId)
+        ? await siteOfEntity(db, e.entity, numericId)
+        : null;
   await db.insert(auditLog).values({
     actorUserId: e.actorUserId,
     action: e.action,
@@ -21,5 +98,6 @@ export async function writeAudit(db: Pick<Db, 'insert'>, e: AuditEntry): Promise
     before: e.before ?? null,
     after: e.after ?? null,
     reason: e.reason ?? null,
+    siteId,
   });
 }

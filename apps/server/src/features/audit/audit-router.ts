@@ -11,7 +11,7 @@ export function auditRoutes(ctx: AppContext): RouteSpec[] {
       access: ['admin', 'engineer'],
       summary: 'audit log with filters',
       handler: async (req, res) =>
-        res.json(await listAudit(ctx.db, auditQuerySchema.parse(req.query))),
+        res.json(await listAudit(ctx.db, req.user!, auditQuerySchema.parse(req.query))),
     },
   ];
 }

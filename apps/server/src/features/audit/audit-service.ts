@@ -1,8 +1,9 @@
-import { and, desc, eq, gte, like, lt, lte, type SQL } from 'drizzle-orm';
+import { and, desc, eq, gte, inArray, like, lt, lte, or, type SQL } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
 import { auditLog, users } from '@turnstone/db/schema';
 import type { AuditPage, auditQuerySchema } from '@turnstone/contracts/audit';
 import type { z } from 'zod';
+import type { SessionUser } from '../../lib/session-user.ts';
 
 type Query = z.output<typeof auditQuerySchema>;
 
@@ -11,10 +12,18 @@ const likePrefix = (s: string) => `${s.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
 
 /**
  * The audit log, newest first, with the actor's name. Keyset pagination on the id (ids
- * grow with time), so a page stays correct while new rows arrive.
+ * grow with time), so a page stays correct while new rows arrive. An admin sees every
+ * entry; anyone else the entries of their sites and the machine-type templates (which
+ * belong to no site), not user administration.
  */
-export async function listAudit(db: Db, q: Query): Promise<AuditPage> {
+export async function listAudit(db: Db, user: SessionUser, q: Query): Promise<AuditPage> {
   const where: SQL[] = [];
+  if (user.role !== 'admin') {
+    const templates = eq(auditLog.entity, 'limit-template');
+    where.push(
+      user.siteIds.length ? or(inArray(auditLog.siteId, user.siteIds), templates)! : templates,
+    );
+  }
   if (q.entity) where.push(eq(auditLog.entity, q.entity));
   if (q.entityId) where.push(eq(auditLog.entityId, q.entityId));
   if (q.actor) where.push(eq(auditLog.actorUserId, q.actor));

@@ -298,7 +298,10 @@ const keepData = (what: string) =>
 
 /** Deletes a machine and its points, only when none of them has recorded data. */
 export async function deleteMachine(db: Db, user: SessionUser, id: number) {
-  const before = await machineForUser(db, user, id);
+  const found = await repo.machineById(db, id);
+  if (!found) throw notFound('Machine');
+  if (!canSeeSite(user, found.siteId)) throw siteForbidden();
+  const before = found.machine;
   await db.transaction(async (tx) => {
     const pts = await repo.pointsOf(tx, id);
     if (
@@ -318,6 +321,7 @@ export async function deleteMachine(db: Db, user: SessionUser, id: number) {
       action: 'machine.delete',
       entity: 'machine',
       entityId: id,
+      siteId: found.siteId,
       before: { ...before, points: pts.map((p) => p.tag) },
     });
   });
@@ -408,6 +412,7 @@ export async function deletePoint(db: Db, user: SessionUser, id: number) {
       action: 'point.delete',
       entity: 'point',
       entityId: id,
+      siteId: row.siteId,
       before: pointColumns(row.point),
     });
   });
