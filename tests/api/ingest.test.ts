@@ -77,17 +77,30 @@ describe('ingest', () => {
     expect(Number((jobs as { n: number }[])[0]!.n)).toBe(1);
   });
 
-  it('stores the samples as raw deflate that inflates back to the posted bytes, and smaller', async () => {
-    const b = snapshotBody(TAG, 'ing-z', { takenAt: '2026-11-30T09:00:00.000Z' });
-    expect((await post(keyMfp, b)).status).toBe(201);
+  it('stores a gateway-sized capture as sent, and a large one as raw deflate that inflates back, smaller', async () => {
+    const small = snapshotBody(TAG, 'ing-z', { takenAt: '2026-11-30T09:00:00.000Z' });
+    // 131,072 int16 samples = 256 kB, past STORE_AS_SENT_BYTES (64 kB).
+    const large = snapshotBody(TAG, 'ing-zl', {
+      takenAt: '2026-11-30T09:05:00.000Z',
+      n: 131_072,
+      tones: [{ hz: 24.7, peakG: 0.2 }],
+      noiseG: 0.01,
+    });
+    expect((await post(keyMfp, small)).status).toBe(201);
+    expect((await post(keyMfp, large)).status).toBe(201);
     const [rows] = await srv.ctx.dbHandle.pool.query(
-      "SELECT samples, sample_count FROM snapshots WHERE uid = 'ing-z'",
+      "SELECT uid, samples, samples_codec, sample_count FROM snapshots WHERE uid IN ('ing-z', 'ing-zl') ORDER BY uid",
     );
-    const row = (rows as { samples: Buffer; sample_count: number }[])[0]!;
-    const posted = Buffer.from(b.samples, 'base64');
-    expect(inflateRawSync(row.samples).equals(posted)).toBe(true);
-    expect(row.sample_count).toBe(posted.length / 2);
-    expect(row.samples.length).toBeLessThan(posted.length);
+    const [s, l] = rows as { samples: Buffer; samples_codec: string; sample_count: number }[];
+    const postedSmall = Buffer.from(small.samples, 'base64');
+    expect(s!.samples_codec).toBe('none');
+    expect(s!.samples.equals(postedSmall)).toBe(true);
+    expect(s!.sample_count).toBe(postedSmall.length / 2);
+    const postedLarge = Buffer.from(large.samples, 'base64');
+    expect(l!.samples_codec).toBe('deflate-raw');
+    expect(inflateRawSync(l!.samples).equals(postedLarge)).toBe(true);
+    expect(l!.samples.length).toBeLessThan(postedLarge.length);
+    expect(l!.sample_count).toBe(131_072);
   });
 
   it('when a snapshot repeats its uid with the same content, answers 200 and stores nothing new', async () => {

@@ -8,6 +8,7 @@ import {
   storeAnalyses,
 } from '../../apps/server/src/features/analysis/analysis-service.ts';
 import { expireRawSamples } from '../../apps/server/src/features/worker/retention.ts';
+import { readWav } from '@turnstone/dsp';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { snapshotBody } from '../support/signals.ts';
 
@@ -69,6 +70,37 @@ describe('worker', () => {
     expect(s!.status).toBe('done');
     const [p] = await q('SELECT last_taken_at, last_verdict FROM points WHERE tag = ?', [TAG]);
     expect(p!.last_verdict).toBe('ok');
+  });
+
+  it('analyses a large capture stored as raw deflate, and its WAV reads back to the posted counts', async () => {
+    await quietQueue();
+    // 131,072 samples (256 kB) are stored deflated; 0.5 g peak at 24.7 Hz reads 0.3536 g RMS
+    // (sine: RMS = peak/√2, REFERENCES.md), as the gateway-sized capture above.
+    const body = snapshotBody(TAG, 'w-large', {
+      n: 131_072,
+      tones: [{ hz: 24.7, peakG: 0.5 }],
+      noiseG: 0.001,
+      takenAt: new Date(Date.now() - 7_200_000).toISOString(),
+    });
+    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+      body,
+      headers: { authorization: `Bearer ${key}` },
+    });
+    expect(res.status).toBe(201);
+    const id = (await res.json()).snapshotId as number;
+    const [codec] = await q('SELECT samples_codec FROM snapshots WHERE id = ?', [id]);
+    expect(codec!.samples_codec).toBe('deflate-raw');
+    expect(await createWorker(srv.ctx, { owner: 'w-large' }).drain()).toBe(1);
+    const [a] = await q('SELECT id, accel_rms_g FROM analyses WHERE snapshot_id = ?', [id]);
+    expect(Number(a!.accel_rms_g)).toBeCloseTo(0.3536, 2);
+    const wav = await srv.call('GET', `/api/v1/analyses/${a!.id}/waveform.wav`, {
+      cookie: await srv.signIn('engineer'),
+    });
+    expect(wav.status).toBe(200);
+    const rec = readWav(new Uint8Array(await wav.arrayBuffer()));
+    expect(Buffer.from(new Int16Array(Array.from(rec.samples)).buffer)).toEqual(
+      Buffer.from(body.samples, 'base64'),
+    );
   });
 
   it('with two workers draining at once, each snapshot is analysed exactly once', async () => {

@@ -269,8 +269,15 @@ export const snapshots = mysqlTable(
     sensitivityMvPerG: double('sensitivity_mv_per_g').notNull(),
     speedRpm: double('speed_rpm'),
     tach: jsonColumn<{ pulseTimesS: number[]; pulsesPerRev: number } | null>('tach'),
-    /** Little-endian samples in `encoding`, deflate-compressed; null once expired by retention. */
+    /** Little-endian samples in `encoding`, coded by `samplesCodec`; null once expired by retention. */
     samples: mediumBlob('samples'),
+    /**
+     * How `samples` is stored: raw deflate, or the bytes as sent. Gateway-sized captures are
+     * kept as sent (see the ingest service); rows written before the column are deflate.
+     */
+    samplesCodec: mysqlEnum('samples_codec', ['deflate-raw', 'none'])
+      .notNull()
+      .default('deflate-raw'),
     samplesExpiredAt: at('samples_expired_at'),
     contentHash: varchar('content_hash', { length: 64 }).notNull(),
     status: mysqlEnum('status', ['queued', 'done', 'rejected', 'failed'])

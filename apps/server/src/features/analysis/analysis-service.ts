@@ -4,7 +4,6 @@
  * marks the jobs done under their leases. Reads take a few statements per batch, the heavy
  * computation runs outside the transaction, and the batch commits once (one fsync).
  */
-import { inflateRawSync } from 'node:zlib';
 import { analyzeSnapshot, decodeSamples, type SnapshotAnalysis } from '@turnstone/dsp';
 import { isoZone, type BandDefinition as LimitBand } from '@turnstone/condition';
 import type { AppContext } from '../../lib/context.ts';
@@ -18,6 +17,7 @@ import * as repo from './analysis-repository.ts';
 import { combineBandValues, toDspBands } from './band-mapping.ts';
 import { startConditionBatch } from './condition-step.ts';
 import { templateBandsFor } from '../limits/limits-service.ts';
+import { storedSampleBytes } from '../ingest/sample-storage.ts';
 
 export class PermanentJobError extends Error {}
 
@@ -120,7 +120,7 @@ function prepareOne(
 
   // Synchronous: ~16 kB inflate in well under a millisecond; the thread pool round trip
   // and stream machinery of the async form cost more than the work.
-  const bytes = inflateRawSync(snap.samples);
+  const bytes = storedSampleBytes(snap.samples, snap.samplesCodec);
   const bearingList = pc.bearings.map((b) => ({
     name: b.name,
     rollingElements: b.rollingElements,

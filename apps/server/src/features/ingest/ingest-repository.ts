@@ -51,6 +51,7 @@ const INSERT_KEYS = [
   'speedRpm',
   'tach',
   'samples',
+  'samplesCodec',
   'contentHash',
   'status',
   'uploadedBy',

@@ -4,8 +4,6 @@
  * unique, and a repeat is compared by content hash (same → 200, different → 409).
  */
 import { createHash } from 'node:crypto';
-import { promisify } from 'node:util';
-import { constants as zlibConstants, deflateRaw, deflateRawSync } from 'node:zlib';
 import { z, ZodError } from 'zod';
 import {
   bytesPerSample,
@@ -24,23 +22,7 @@ import { zodDetails } from '../../lib/error-middleware.ts';
 import { keyMatches, prefixOf } from '../gateways/gateway-keys.ts';
 import * as repo from './ingest-repository.ts';
 import { encodeSamples } from './sample-bytes.ts';
-
-const deflate = promisify(deflateRaw);
-/**
- * memLevel 9 sizes zlib's symbol buffer so a snapshot is coded as one or two blocks instead of
- * many (one Huffman tree each): on the simulator's captures 20–35 % less CPU than the default
- * memLevel 8, and 80.9 % instead of 81.1 % of the raw size. Same raw-deflate format.
- */
-const DEFLATE_OPTIONS = { level: 1, strategy: zlibConstants.Z_RLE, memLevel: 9 };
-/** Below this size the thread-pool hop costs more CPU than the compression itself. */
-const INLINE_DEFLATE_BYTES = 64 * 1024;
-
-/** Raw deflate of sample bytes: inline for a gateway's snapshot, in the pool for uploads. */
-async function compress(bytes: Buffer): Promise<Buffer> {
-  return bytes.length <= INLINE_DEFLATE_BYTES
-    ? deflateRawSync(bytes, DEFLATE_OPTIONS)
-    : deflate(bytes, DEFLATE_OPTIONS);
-}
+import { samplesForStorage } from './sample-storage.ts';
 
 export interface GatewayPrincipal {
   id: number;
@@ -161,11 +143,7 @@ export async function storeSnapshot(
   const hash = contentHash(s);
   // New uids are the common case: insert straight away, and read the stored row only when
   // the unique index says the uid is taken (a repeat, or two deliveries racing).
-  // Run-length strategy (still raw deflate, read back by plain inflateRaw): vibration counts
-  // hold almost no repeated strings, so the Huffman coding is where the saving is. On the
-  // simulator's int24 captures it stores 81.4 % of the raw size against 81.2 % at level 1,
-  // in about half the CPU time; this runs on every ingest.
-  const compressed = await compress(s.bytes);
+  const stored = await samplesForStorage(s.bytes);
   try {
     const snapshotId = await repo.insertSnapshotWithJob(ctx.dbHandle, {
       uid: s.uid,
@@ -181,7 +159,8 @@ export async function storeSnapshot(
       sensitivityMvPerG: s.sensitivityMvPerG,
       speedRpm: s.speedRpm,
       tach: s.tach,
-      samples: compressed,
+      samples: stored.samples,
+      samplesCodec: stored.samplesCodec,
       contentHash: hash,
       status: 'queued',
       uploadedBy: s.uploadedBy ?? null,

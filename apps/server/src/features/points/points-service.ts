@@ -4,8 +4,6 @@
  * the raw snapshot, the waterfall, the band trend with levels and projection, and downloads.
  * Services take the signed-in user and check per-site access; they never see req/res.
  */
-import { promisify } from 'node:util';
-import { inflateRaw } from 'node:zlib';
 import {
   decodeSamples,
   faultFrequencies,
@@ -34,8 +32,8 @@ import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { loadLimitSet } from '../analysis/analysis-repository.ts';
 import { pointStatus, QUALITY_MARK_MS, worst } from '../fleet/fleet-service.ts';
 import * as repo from './points-repository.ts';
+import { storedSampleBytesAsync } from '../ingest/sample-storage.ts';
 
-const inflate = promisify(inflateRaw);
 const DAY_MS = 86_400_000;
 /** Default trend period when none is given (the trend contract says 90 days). */
 export const DEFAULT_TREND_DAYS = 90;
@@ -368,7 +366,7 @@ async function rawCounts(ctx: AppContext, user: SessionUser, analysisId: number)
       }; its spectra and trend values are kept.`,
       410,
     );
-  const bytes = await inflate(snap.samples);
+  const bytes = await storedSampleBytesAsync(snap.samples, snap.samplesCodec);
   const counts = decodeSamples(
     new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength),
     snap.encoding,

@@ -1,0 +1,1 @@
+ALTER TABLE `snapshots` ADD `samples_codec` enum('deflate-raw','none') DEFAULT 'deflate-raw' NOT NULL;
