@@ -76,18 +76,13 @@ describe('worker', () => {
     await quietQueue();
     // 131,072 samples (256 kB) are stored deflated; 0.5 g peak at 24.7 Hz reads 0.3536 g RMS
     // (sine: RMS = peak/√2, REFERENCES.md), as the gateway-sized capture above.
-    const body = snapshotBody(TAG, 'w-large', {
+    const opts = {
       n: 131_072,
       tones: [{ hz: 24.7, peakG: 0.5 }],
       noiseG: 0.001,
       takenAt: new Date(Date.now() - 7_200_000).toISOString(),
-    });
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body,
-      headers: { authorization: `Bearer ${key}` },
-    });
-    expect(res.status).toBe(201);
-    const id = (await res.json()).snapshotId as number;
+    };
+    const id = await ingest('w-large', opts);
     const [codec] = await q('SELECT samples_codec FROM snapshots WHERE id = ?', [id]);
     expect(codec!.samples_codec).toBe('deflate-raw');
     expect(await createWorker(srv.ctx, { owner: 'w-large' }).drain()).toBe(1);
@@ -99,7 +94,7 @@ describe('worker', () => {
     expect(wav.status).toBe(200);
     const rec = readWav(new Uint8Array(await wav.arrayBuffer()));
     expect(Buffer.from(new Int16Array(Array.from(rec.samples)).buffer)).toEqual(
-      Buffer.from(body.samples, 'base64'),
+      Buffer.from(snapshotBody(TAG, 'w-large', opts).samples, 'base64'),
     );
   });
 

@@ -43,6 +43,10 @@ async function siteOfEntity(db: Db | Tx, entity: string, id: number): Promise<nu
         .innerJoin(areas, eq(areas.id, machines.areaId))
         .where(eq(points.id, pointId)),
     );
+  const viaPoint = async (q: Promise<{ pointId: number }[]>) => {
+    const [row] = await q;
+    return row ? pointSite(row.pointId) : null;
+  };
   switch (entity) {
     case 'site':
       return id;
@@ -62,20 +66,12 @@ async function siteOfEntity(db: Db | Tx, entity: string, id: number): Promise<nu
       );
     case 'point':
       return pointSite(id);
-    case 'alert': {
-      const [a] = await db
-        .select({ pointId: alerts.pointId })
-        .from(alerts)
-        .where(eq(alerts.id, id));
-      return a ? pointSite(a.pointId) : null;
-    }
-    case 'finding': {
-      const [f] = await db
-        .select({ pointId: findings.pointId })
-        .from(findings)
-        .where(eq(findings.id, id));
-      return f ? pointSite(f.pointId) : null;
-    }
+    case 'alert':
+      return viaPoint(db.select({ pointId: alerts.pointId }).from(alerts).where(eq(alerts.id, id)));
+    case 'finding':
+      return viaPoint(
+        db.select({ pointId: findings.pointId }).from(findings).where(eq(findings.id, id)),
+      );
     default:
       return null;
   }
