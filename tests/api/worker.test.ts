@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { claimJobs } from '../../apps/server/src/features/worker/queue-repository.ts';
+import { claimJobs, failJob } from '../../apps/server/src/features/worker/queue-repository.ts';
 import {
   prepareAnalyses,
   runAnalysisJob,
@@ -266,6 +266,30 @@ describe('worker', () => {
       ['running', 'thief'],
       ['running', 'slow'],
     ]);
+  });
+
+  it('a failure reported by a worker that lost the lease changes nothing', async () => {
+    await quietQueue();
+    const id = await ingest('wf-lost', { takenAt: new Date(Date.now() - 5_400_000).toISOString() });
+    const [job] = await claimJobs(srv.ctx.db, 'first', 60, 1, ['analyze']);
+    expect(job!.snapshotId).toBe(id);
+    await srv.ctx.dbHandle.pool.query("UPDATE jobs SET lease_owner = 'second' WHERE id = ?", [
+      job!.id,
+    ]);
+    // The last attempt, so a recorded failure would be final; but the job is not first's.
+    expect(await failJob(srv.ctx.db, { ...job!, maxAttempts: job!.attempts }, 'first', 'x')).toBe(
+      'lost',
+    );
+    const [row] = await q('SELECT state, lease_owner, last_error FROM jobs WHERE id = ?', [
+      job!.id,
+    ]);
+    expect(row).toEqual({ state: 'running', lease_owner: 'second', last_error: null });
+    // Its owner's report is recorded.
+    expect(await failJob(srv.ctx.db, job!, 'second', 'refused')).toBe('retry');
+    const [after] = await q('SELECT state, lease_owner, last_error FROM jobs WHERE id = ?', [
+      job!.id,
+    ]);
+    expect(after).toEqual({ state: 'queued', lease_owner: null, last_error: 'refused' });
   });
 
   it('two workers with batch commits over several points analyse each snapshot once and judge up to the latest', async () => {

@@ -117,15 +117,19 @@ export async function completeJobsIn(tx: Tx, ids: number[], owner: string): Prom
 /** Back-off between attempts: 2, 4, 8 … seconds, at most 10 minutes. */
 export const retryDelayS = (attempts: number) => Math.min(600, 2 ** Math.max(1, attempts));
 
-/** Records a failure: queued again after a back-off, or failed for good after max attempts. */
+/**
+ * Records a failure: queued again after a back-off, or failed for good after max attempts.
+ * Fenced by the lease like a completion: `lost` when another worker holds the job now (or
+ * finished it), and then nothing is written.
+ */
 export async function failJob(
   db: Db,
   job: JobRow,
   owner: string,
   message: string,
-): Promise<'retry' | 'failed'> {
+): Promise<'retry' | 'failed' | 'lost'> {
   const final = job.attempts >= job.maxAttempts;
-  await db
+  const [result] = await db
     .update(jobs)
     .set(
       final
@@ -144,7 +148,8 @@ export async function failJob(
             runAfter: sql`CURRENT_TIMESTAMP(3) + INTERVAL ${retryDelayS(job.attempts)} SECOND`,
           },
     )
-    .where(and(eq(jobs.id, job.id), eq(jobs.leaseOwner, owner)));
+    .where(and(eq(jobs.id, job.id), eq(jobs.leaseOwner, owner), eq(jobs.state, 'running')));
+  if (result.affectedRows === 0) return 'lost';
   return final ? 'failed' : 'retry';
 }
 

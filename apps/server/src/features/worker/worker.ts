@@ -6,7 +6,7 @@
  */
 import { randomUUID } from 'node:crypto';
 import { hostname } from 'node:os';
-import { eq, sql } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import cron, { type ScheduledTask } from 'node-cron';
 import { jobs, snapshots } from '@turnstone/db/schema';
 import type { AppContext } from '../../lib/context.ts';
@@ -61,13 +61,20 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
     const message = err instanceof Error ? err.message : String(err);
     const permanent = err instanceof PermanentJobError;
     if (permanent)
-      await ctx.db.update(jobs).set({ maxAttempts: job.attempts }).where(eq(jobs.id, job.id));
+      await ctx.db
+        .update(jobs)
+        .set({ maxAttempts: job.attempts })
+        .where(and(eq(jobs.id, job.id), eq(jobs.leaseOwner, owner)));
     const outcome = await failJob(
       ctx.db,
       permanent ? { ...job, maxAttempts: job.attempts } : job,
       owner,
       message,
     );
+    if (outcome === 'lost') {
+      ctx.log.warn('job lease lost; another worker finishes it', { jobId: job.id });
+      return false;
+    }
     ctx.log.warn('analysis job failed', {
       jobId: job.id,
       snapshotId: job.snapshotId,
