@@ -324,6 +324,52 @@ describe('outbox delivery', () => {
   });
 });
 
+describe('undelivered mail', () => {
+  it('the admin sees mail not delivered and sends an uncertain message again, once; others cannot', async () => {
+    const list = async () =>
+      (await (await srv.call('GET', '/api/v1/mail/undelivered', { cookie: admin })).json())
+        .items as { id: number; subject: string; state: string; nextAttemptAt: string | null }[];
+    const items = await list();
+    const uncertain = items.find((i) => i.subject.includes('Dead worker dead-3'))!;
+    const retrying = items.find((i) => i.subject === 'Unreachable relay')!;
+    expect(uncertain).toMatchObject({ state: 'uncertain', nextAttemptAt: null });
+    expect(retrying.state).toBe('retrying');
+    expect(retrying.nextAttemptAt).not.toBeNull();
+    expect(items.some((i) => i.state === 'failed' || i.subject.includes('dead-1'))).toBe(false);
+
+    const engineer = await srv.signIn('engineer');
+    expect((await srv.call('GET', '/api/v1/mail/undelivered', { cookie: engineer })).status).toBe(
+      403,
+    );
+    // A message still being retried is the sender's business, not a person's.
+    const early = await srv.call('POST', `/api/v1/mail/undelivered/${retrying.id}/resend`, {
+      cookie: admin,
+    });
+    expect(early.status).toBe(409);
+
+    const res = await srv.call('POST', `/api/v1/mail/undelivered/${uncertain.id}/resend`, {
+      cookie: admin,
+    });
+    expect(res.status).toBe(204);
+    expect(await srv.mail.sender.drain()).toContainEqual({ id: uncertain.id, result: 'sent' });
+    expect((await received('Dead worker dead-3')).length).toBe(1);
+    expect((await list()).some((i) => i.id === uncertain.id)).toBe(false);
+    const [audit] = await q(
+      "SELECT actor_user_id, site_id FROM audit_log WHERE action = 'mail.resend' AND entity_id = ?",
+      [String(uncertain.id)],
+    );
+    expect(audit).toMatchObject({ site_id: null });
+    // Sent now: sending it again is refused.
+    expect(
+      (
+        await srv.call('POST', `/api/v1/mail/undelivered/${uncertain.id}/resend`, {
+          cookie: admin,
+        })
+      ).status,
+    ).toBe(409);
+  });
+});
+
 describe('weekly digest', () => {
   it('when the digest runs, the planner gets the review summary built from the captured data, once per week', async () => {
     const weekEnding = new Date().toISOString().slice(0, 10);

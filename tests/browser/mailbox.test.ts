@@ -4,6 +4,7 @@ import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import { enqueueMail } from '../../apps/server/src/features/mail/outbox-repository.ts';
 
 let srv: TestServer;
 let browser: Browser;
@@ -46,6 +47,41 @@ describe('mailbox in a real browser', () => {
       .waitFor();
     expect(await page.getByRole('article').textContent()).toContain('engineer@turnstone.local');
     await screenshot(page, 'mailbox-text');
+    await page.context().close();
+  });
+
+  it('the admin sees a message the relay refused for good and sends it again', async () => {
+    await enqueueMail(srv.ctx.db, {
+      kind: 'alert',
+      dedupeKey: 'browser-failed-1',
+      to: 'planner@turnstone.local',
+      subject: 'Alert raised: Backwash pump P-160, overall velocity',
+      text: 'body',
+      html: '<p>body</p>',
+    });
+    await srv.ctx.dbHandle.pool.query(
+      `UPDATE outbox SET outcome = 'failed', attempts = 8,
+              last_error = '550 5.1.1 mailbox unavailable' WHERE dedupe_key = 'browser-failed-1'`,
+    );
+    const page = await newPage(browser);
+    await signInAs(page, srv.url, 'admin');
+    await page.goto(`${srv.url}/mailbox`);
+    const panel = page.getByRole('region', { name: /Not delivered/ });
+    await panel.getByText('Failed after its last attempt').waitFor();
+    await panel.getByText('550 5.1.1 mailbox unavailable').waitFor();
+    await screenshot(page, 'mailbox-undelivered');
+    page.once('dialog', (d) => void d.accept());
+    await panel
+      .getByRole('button', { name: /Send again: Alert raised: Backwash pump P-160/ })
+      .click();
+    // Back in the queue; the fake takes it and the panel empties.
+    for (let i = 0; i < 30; i++) {
+      if ((await srv.mail.sender.drain()).length > 0) break;
+      await new Promise((r) => setTimeout(r, 100));
+    }
+    await panel.waitFor({ state: 'detached', timeout: 20_000 });
+    const list = page.getByRole('list', { name: 'Received messages' });
+    await list.getByRole('button', { name: /Alert raised: Backwash pump P-160/ }).waitFor();
     await page.context().close();
   });
 

@@ -19,3 +19,22 @@ export const mailboxMessageSchema = mailboxItemSchema.extend({
   html: z.string().nullable(),
 });
 export type MailboxMessage = z.infer<typeof mailboxMessageSchema>;
+
+/**
+ * An outgoing message that has not been delivered: still being retried after a refusal,
+ * `failed` after its last attempt, or `uncertain` (a send started and its worker died; the
+ * relay cannot say whether it arrived, so it is not sent again by itself).
+ */
+export const undeliveredMailSchema = z.object({
+  id: z.number().int(),
+  kind: z.string(),
+  to: z.string(),
+  subject: z.string(),
+  attempts: z.number().int(),
+  state: z.enum(['retrying', 'failed', 'uncertain']),
+  lastError: z.string().nullable(),
+  createdAt: z.string(),
+  nextAttemptAt: z.string().nullable(),
+});
+export type UndeliveredMail = z.infer<typeof undeliveredMailSchema>;
+export const undeliveredMailListSchema = z.object({ items: z.array(undeliveredMailSchema) });

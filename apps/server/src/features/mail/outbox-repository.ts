@@ -3,7 +3,7 @@
  * they tell about; senders claim due rows with SELECT … FOR UPDATE SKIP LOCKED (MariaDB ≥
  * 10.6, as the jobs queue does) and hold them under a lease.
  */
-import { and, asc, eq, inArray, isNull, lte, ne, or, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, gt, inArray, isNull, lte, ne, or, sql } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
 import { mailMessages, outbox, settings } from '@turnstone/db/schema';
 
@@ -218,4 +218,45 @@ export async function foldHourlyRows(
     }
     return byTo.size;
   });
+}
+
+/**
+ * Messages that need a person's eye, newest first: final `failed` or `uncertain`, and those
+ * still waiting for a retry after a refusal (hourly alert summaries being gathered are not
+ * listed: they have not been tried).
+ */
+export async function listUndelivered(db: Db, limit = 100): Promise<OutboxRow[]> {
+  return db
+    .select()
+    .from(outbox)
+    .where(
+      or(
+        inArray(outbox.outcome, ['failed', 'uncertain']),
+        and(isNull(outbox.outcome), isNull(outbox.sentAt), gt(outbox.attempts, 0)),
+      ),
+    )
+    .orderBy(desc(outbox.id))
+    .limit(limit);
+}
+
+/**
+ * Puts a failed or uncertain message back in the queue as new: the sender tries it again
+ * with its full number of attempts. Answers the row as it was, or null when it is not
+ * failed or uncertain (sent, or still being tried).
+ */
+export async function requeueUndelivered(tx: Tx, id: number): Promise<OutboxRow | null> {
+  const [row] = await tx.select().from(outbox).where(eq(outbox.id, id)).for('update');
+  if (!row || (row.outcome !== 'failed' && row.outcome !== 'uncertain')) return null;
+  await tx
+    .update(outbox)
+    .set({
+      outcome: null,
+      attempts: 0,
+      nextAttemptAt: sql`CURRENT_TIMESTAMP(3)`,
+      leaseOwner: null,
+      leaseExpiresAt: null,
+      sendingStartedAt: null,
+    })
+    .where(eq(outbox.id, id));
+  return row;
 }

@@ -22,5 +22,23 @@ export function mailboxRoutes(ctx: AppContext): RouteSpec[] {
         res.json(await service.readMessage(ctx.db, id));
       },
     },
+    {
+      method: 'get',
+      path: '/mail/undelivered',
+      access: ['admin'],
+      summary: 'outgoing mail not delivered (retrying, failed, uncertain)',
+      handler: async (_req, res) => res.json(await service.listUndeliveredMail(ctx.db)),
+    },
+    {
+      method: 'post',
+      path: '/mail/undelivered/:id/resend',
+      access: ['admin'],
+      summary: 'send a failed or uncertain message again',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        await service.resendMail(ctx.db, req.user!, id);
+        res.status(204).end();
+      },
+    },
   ];
 }

@@ -2,8 +2,11 @@
 import { desc, eq } from 'drizzle-orm';
 import { mailMessages } from '@turnstone/db/schema';
 import type { Db } from '@turnstone/db/client';
-import type { MailboxMessage } from '@turnstone/contracts/mail';
-import { notFound } from '../../lib/app-error.ts';
+import type { MailboxMessage, UndeliveredMail } from '@turnstone/contracts/mail';
+import { AppError, notFound } from '../../lib/app-error.ts';
+import type { SessionUser } from '../../lib/session-user.ts';
+import { writeAudit } from '../audit/audit-repository.ts';
+import { listUndelivered, requeueUndelivered, type OutboxRow } from '../mail/outbox-repository.ts';
 
 export async function listMailbox(db: Db, limit = 200) {
   const rows = await db
@@ -55,4 +58,52 @@ export async function readMessage(db: Db, id: number): Promise<MailboxMessage> {
     text: m.textBody,
     html: m.htmlBody === null ? null : sanitizeHtml(m.htmlBody),
   };
+}
+
+const undeliveredState = (r: OutboxRow): UndeliveredMail['state'] =>
+  r.outcome === 'failed' ? 'failed' : r.outcome === 'uncertain' ? 'uncertain' : 'retrying';
+
+/** Outgoing mail that was not delivered (any relay, the fake or a real one). */
+export async function listUndeliveredMail(db: Db): Promise<{ items: UndeliveredMail[] }> {
+  const rows = await listUndelivered(db);
+  return {
+    items: rows.map((r) => ({
+      id: r.id,
+      kind: r.kind,
+      to: r.toAddress,
+      subject: r.subject,
+      attempts: r.attempts,
+      state: undeliveredState(r),
+      lastError: r.lastError,
+      createdAt: r.createdAt.toISOString(),
+      nextAttemptAt: r.outcome ? null : r.nextAttemptAt.toISOString(),
+    })),
+  };
+}
+
+/** Sends a failed or uncertain message again (audited: an uncertain one may arrive twice). */
+export async function resendMail(db: Db, user: SessionUser, id: number): Promise<void> {
+  await db.transaction(async (tx) => {
+    const before = await requeueUndelivered(tx, id);
+    if (!before)
+      throw new AppError(
+        'not_undelivered',
+        'Only a message that failed or whose delivery is uncertain can be sent again.',
+        409,
+      );
+    await writeAudit(tx, {
+      actorUserId: user.id,
+      action: 'mail.resend',
+      entity: 'outbox',
+      entityId: id,
+      siteId: null,
+      before: {
+        to: before.toAddress,
+        subject: before.subject,
+        outcome: before.outcome,
+        attempts: before.attempts,
+        lastError: before.lastError,
+      },
+    });
+  });
 }

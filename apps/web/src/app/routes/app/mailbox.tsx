@@ -1,5 +1,6 @@
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { MailboxView } from '../../../features/mailbox/components/mailbox-view.tsx';
+import { UndeliveredMailPanel } from '../../../features/mailbox/components/undelivered-mail.tsx';
 
 export function MailboxRoute() {
   return (
@@ -7,8 +8,9 @@ export function MailboxRoute() {
       <title>Mailbox · Turnstone</title>
       <PageHeader
         title="Mailbox"
-        description="What the local mail fake received. With a real mail relay configured, messages go out and this stays empty."
+        description="Outgoing mail that was not delivered, and what the local mail fake received. With a real mail relay configured, messages go out and the received list stays empty."
       />
+      <UndeliveredMailPanel />
       <MailboxView />
     </div>
   );
