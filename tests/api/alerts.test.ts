@@ -98,6 +98,46 @@ describe('alerts through ingest', () => {
     expect(detail.history.map((h: { kind: string }) => h.kind)).toEqual(['raised', 'escalated']);
   });
 
+  it('captures turning suspect (under-range) give one notice per turn, not one per capture', async () => {
+    // Peak 0.05 g on the ±50 g int16 channel: 655 counts per g (5 V full scale, 100 mV/g),
+    // so ≈ 65 counts peak-to-peak, log2 ≈ 6 bits used: below UNDER_RANGE_SUSPECT_BITS (8),
+    // above UNDER_RANGE_UNUSABLE_BITS (4). 0.5 g uses ≈ 9.4 bits: ok.
+    const tag = 'MFP-P101-MNDE-H';
+    const peaks = [0.5, 0.05, 0.05, 0.5, 0.05];
+    for (const peakG of peaks) {
+      seq += 1;
+      const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+        body: snapshotBody(tag, `under-${seq}`, {
+          tones: [{ hz: 24.7, peakG }],
+          noiseG: 0.0005,
+          seed: seq,
+          takenAt: new Date(t0 + seq * 3600_000).toISOString(),
+        }),
+        headers: { authorization: `Bearer ${keys.get(1)}` },
+      });
+      expect(res.status).toBe(201);
+    }
+    await createWorker(srv.ctx, { owner: 'alerts-test' }).drain();
+    const [p] = await q('SELECT id FROM points WHERE tag = ?', [tag]);
+    const verdicts = await q(
+      'SELECT quality_verdict FROM analyses WHERE point_id = ? ORDER BY taken_at',
+      [p!.id],
+    );
+    expect(verdicts.map((v) => v.quality_verdict)).toEqual([
+      'ok',
+      'suspect',
+      'suspect',
+      'ok',
+      'suspect',
+    ]);
+    const notices = await q(
+      'SELECT verdict, findings FROM quality_notices WHERE point_id = ? ORDER BY taken_at',
+      [p!.id],
+    );
+    expect(notices.map((n) => n.verdict)).toEqual(['suspect', 'suspect']);
+    expect(JSON.stringify(notices[0]!.findings)).toContain('under-range');
+  });
+
   it('an unusable (clipped) capture raises only a data-quality notice, never an alert', async () => {
     // 80 g peak on a ±50 g channel (5 V full scale / 100 mV/g) is cut at the rails.
     const before = await q('SELECT COUNT(*) AS n FROM alerts WHERE point_id = 2');

@@ -70,11 +70,17 @@ describe('demo history over 2 weeks', () => {
     expect(rows).toEqual([{ state: 'done', work_order_ref: 'WO-30977', alert_state: 'cleared' }]);
   });
 
-  it('raises quality notices for the clipped and under-ranged channels only; F-330 is suspect for aliasing', async () => {
+  it('raises quality notices for the clipped and under-ranged channels; F-330, suspect for aliasing throughout, once', async () => {
     const notices = await q(
-      `SELECT DISTINCT p.tag FROM quality_notices n JOIN points p ON p.id = n.point_id ORDER BY p.tag`,
+      `SELECT DISTINCT p.tag FROM quality_notices n JOIN points p ON p.id = n.point_id
+        WHERE n.verdict = 'unusable' ORDER BY p.tag`,
     );
     expect(notices.map((r) => r.tag)).toEqual(['MFP-B302-MDE-V', 'MFP-P202-MDE-H']);
+    const suspect = await q(
+      `SELECT p.tag, COUNT(*) AS n FROM quality_notices n JOIN points p ON p.id = n.point_id
+        WHERE n.verdict = 'suspect' GROUP BY p.tag ORDER BY p.tag`,
+    );
+    expect(suspect.map((r) => [r.tag, Number(r.n)])).toContainEqual(['TRB-F330-FDE-H', 1]);
     const f330 = await q(
       `SELECT a.quality_verdict, a.quality_findings FROM analyses a JOIN points p ON p.id = a.point_id WHERE p.tag = 'TRB-F330-FDE-H'`,
     );

@@ -82,6 +82,19 @@ export async function loadLimitSet(
 }
 
 /** The limit sets of several points (two statements), by point id; points without one are absent. */
+/** The quality verdict of each point's latest judged capture (null before the first). */
+export async function lastVerdicts(
+  db: Db | Tx,
+  pointIds: number[],
+): Promise<Map<number, 'ok' | 'suspect' | 'unusable' | null>> {
+  if (pointIds.length === 0) return new Map();
+  const rows = await db
+    .select({ id: points.id, lastVerdict: points.lastVerdict })
+    .from(points)
+    .where(inArray(points.id, pointIds));
+  return new Map(rows.map((r) => [r.id, r.lastVerdict]));
+}
+
 /** The version of each point's limit set (one statement; points without a set are absent). */
 export async function limitSetVersions(
   db: Db | Tx,

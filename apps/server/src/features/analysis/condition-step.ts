@@ -54,6 +54,7 @@ export async function startConditionBatch(
   }
   const w: AlertWrites = { open, pending: new Map() };
   const judged = new Set<number>();
+  const verdicts = await repo.lastVerdicts(tx, [...states.keys()]);
   return {
     async judge(input) {
       const row = states.get(input.pointId)!;
@@ -76,6 +77,13 @@ export async function startConditionBatch(
       const names = new Map(input.bands.map((b) => [b.key, b]));
       for (const change of evaluation.changes)
         await persistChange(ctx, tx, w, input, change, names);
+      // An unusable capture is a notice of its own (above). A suspect one is judged as
+      // usual, with its alerts marked suspect; the engineer is told once, when the point's
+      // captures turn suspect, not on every capture while they stay so.
+      const previous = verdicts.get(input.pointId) ?? null;
+      if (input.verdict === 'suspect' && (previous === 'ok' || previous === null))
+        await insertQualityNotice(tx, input);
+      verdicts.set(input.pointId, input.verdict);
       row.state = evaluation.state as unknown as Record<string, unknown>;
       row.evaluatedTakenAt = input.takenAt;
       row.limitSetVersion = input.limitSetVersion;
@@ -111,6 +119,18 @@ interface AlertWrites {
   pending: Map<number, AlertFields>;
 }
 
+/** A data-quality notice for the engineer (the Review screen lists the week's). */
+async function insertQualityNotice(tx: repo.Tx, input: ConditionInput): Promise<void> {
+  await tx.insert(repo.qualityNotices).values({
+    pointId: input.pointId,
+    analysisId: input.analysisId,
+    snapshotId: input.snapshotId,
+    verdict: input.verdict,
+    findings: input.findings,
+    takenAt: input.takenAt,
+  });
+}
+
 async function persistChange(
   ctx: AppContext,
   tx: repo.Tx,
@@ -120,14 +140,7 @@ async function persistChange(
   bands: Map<string, LimitBand>,
 ) {
   if (change.kind === 'quality-notice') {
-    await tx.insert(repo.qualityNotices).values({
-      pointId: input.pointId,
-      analysisId: input.analysisId,
-      snapshotId: input.snapshotId,
-      verdict: input.verdict,
-      findings: input.findings,
-      takenAt: input.takenAt,
-    });
+    await insertQualityNotice(tx, input);
     return;
   }
   if (change.kind === 'ignored') return;

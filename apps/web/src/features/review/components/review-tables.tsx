@@ -368,7 +368,7 @@ export function QualityNoticesTable({
       id="quality-notices"
       title="Quality notices of the week"
       count={total}
-      description="Captures judged suspect or unusable that nobody has reviewed yet; their values were not trusted."
+      description="Not yet reviewed: captures judged unusable (their values were not used), and the first capture of each run of suspect ones (their values were used, and alerts they raised are marked suspect)."
     >
       {rows.length === 0 ? (
         <Empty>No unreviewed quality notices this week.</Empty>
