@@ -2,6 +2,7 @@ import type { UndeliveredMail } from '@turnstone/contracts/mail';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
+import { TableHead } from '../../../components/ui/table-head.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
 import { useResendMail, useUndeliveredMail } from '../api/undelivered-mail.ts';
 
@@ -72,18 +73,10 @@ export function UndeliveredMailPanel() {
         </p>
       </div>
       <table className="mt-2 w-full text-sm">
-        <thead className="bg-sunken text-left text-xs text-ink-muted">
-          <tr>
-            <th className="px-3 py-2 font-medium">To</th>
-            <th className="px-3 py-2 font-medium">Subject</th>
-            <th className="px-3 py-2 font-medium">State</th>
-            <th className="px-3 py-2 font-medium">Attempts</th>
-            <th className="px-3 py-2 font-medium">Last error</th>
-            <th className="px-3 py-2 text-right font-medium">
-              <span className="sr-only">Action</span>
-            </th>
-          </tr>
-        </thead>
+        <TableHead
+          columns={['To', 'Subject', 'State', 'Attempts', 'Last error']}
+          actions={{ label: 'Action', visible: false }}
+        />
         <tbody>
           {items.map((m) => (
             <tr key={m.id} className="border-t border-line align-top">

@@ -4,6 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { inviteUserSchema, type InviteUser, type UserSummary } from '@turnstone/contracts/users';
 import { roleLabels, roles, type Role } from '@turnstone/contracts/roles';
 import { Button } from '../../../components/ui/button.tsx';
+import { TableHead } from '../../../components/ui/table-head.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
@@ -280,15 +281,10 @@ export function UsersAdmin({ meId }: { meId: number }) {
           <EmptyState title="No users" />
         ) : (
           <table className="w-full text-sm">
-            <thead className="bg-sunken text-left text-xs text-ink-muted">
-              <tr>
-                <th className="px-3 py-2 font-medium">User</th>
-                <th className="px-3 py-2 font-medium">Role</th>
-                <th className="px-3 py-2 font-medium">Sites</th>
-                <th className="px-3 py-2 font-medium">State</th>
-                <th className="px-3 py-2 text-right font-medium">Actions</th>
-              </tr>
-            </thead>
+            <TableHead
+              columns={['User', 'Role', 'Sites', 'State']}
+              actions={{ label: 'Actions', visible: true }}
+            />
             <tbody>
               {items.map((u) => (
                 <UserRow
