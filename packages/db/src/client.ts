@@ -8,6 +8,8 @@ import mysqlCore from 'mysql2';
 import * as schema from './schema.ts';
 
 export type Db = MySql2Database<typeof schema>;
+/** The handle a `db.transaction(async (tx) => …)` callback gets; repositories take `Db | Tx`. */
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 export type BatchPool = mysqlCore.Pool;
 export interface DbHandle {
   db: Db;

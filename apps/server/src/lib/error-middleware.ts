@@ -2,31 +2,7 @@ import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
 import { AppError } from './app-error.ts';
 import type { Logger } from './logger.ts';
-
-const DB_DOWN_CODES = new Set([
-  'ECONNREFUSED',
-  'PROTOCOL_CONNECTION_LOST',
-  'ETIMEDOUT',
-  'ECONNRESET',
-  'EPIPE',
-  'ER_SERVER_SHUTDOWN',
-  'ER_CON_COUNT_ERROR',
-  'PROTOCOL_SEQUENCE_TIMEOUT',
-]);
-
-/** True for errors that mean "the database is away", as opposed to a bad query. */
-export function isDbUnavailable(err: unknown): boolean {
-  for (let e: unknown = err, i = 0; e && i < 5; i++) {
-    const code = (e as { code?: string }).code;
-    if (code && DB_DOWN_CODES.has(code)) return true;
-    // The server's socket file is gone while it is stopped.
-    if (code === 'ENOENT' && (e as { syscall?: string }).syscall === 'connect') return true;
-    if ((e as { fatal?: boolean }).fatal === true && (e as { errno?: number }).errno === undefined)
-      return true;
-    e = (e as { cause?: unknown }).cause;
-  }
-  return false;
-}
+import { isDbUnavailable } from '@turnstone/db/errors';
 
 export function zodDetails(err: ZodError) {
   return err.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));

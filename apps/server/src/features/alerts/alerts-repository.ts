@@ -2,7 +2,7 @@ import { and, asc, desc, eq, inArray, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import type { Db } from '@turnstone/db/client';
 import { alertEvents, alerts, areas, machines, points, sites, users } from '@turnstone/db/schema';
-import type { Tx } from '../analysis/analysis-repository.ts';
+import type { Tx } from '@turnstone/db/client';
 
 export interface AlertFilter {
   state?: 'raised' | 'acknowledged' | 'cleared';

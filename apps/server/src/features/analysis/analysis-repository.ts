@@ -1,5 +1,5 @@
 import { and, asc, eq, inArray, isNull, lte, or, sql } from 'drizzle-orm';
-import type { Db } from '@turnstone/db/client';
+import type { Db, Tx } from '@turnstone/db/client';
 import {
   alertEvents,
   alerts,
@@ -18,7 +18,6 @@ import {
 } from '@turnstone/db/schema';
 import type { BandDefinition as LimitBand } from '@turnstone/condition';
 
-export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 export type SnapshotRow = typeof snapshots.$inferSelect;
 export type MachineRow = typeof machines.$inferSelect;
 

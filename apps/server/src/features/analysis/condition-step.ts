@@ -7,6 +7,7 @@
  * captures is written once (its row holds the latest state), and each changed point state
  * is saved once at the end.
  */
+import type { Tx } from '@turnstone/db/client';
 import { eq } from 'drizzle-orm';
 import {
   evaluateSnapshot,
@@ -43,7 +44,7 @@ export interface ConditionBatch {
 /** Locks the points' condition states (ascending point id) and reads their open alerts. */
 export async function startConditionBatch(
   ctx: AppContext,
-  tx: repo.Tx,
+  tx: Tx,
   pointIds: number[],
 ): Promise<ConditionBatch> {
   const states = await repo.lockPointStates(tx, pointIds);
@@ -120,7 +121,7 @@ interface AlertWrites {
 }
 
 /** A data-quality notice for the engineer (the Review screen lists the week's). */
-async function insertQualityNotice(tx: repo.Tx, input: ConditionInput): Promise<void> {
+async function insertQualityNotice(tx: Tx, input: ConditionInput): Promise<void> {
   await tx.insert(repo.qualityNotices).values({
     pointId: input.pointId,
     analysisId: input.analysisId,
@@ -133,7 +134,7 @@ async function insertQualityNotice(tx: repo.Tx, input: ConditionInput): Promise<
 
 async function persistChange(
   ctx: AppContext,
-  tx: repo.Tx,
+  tx: Tx,
   w: AlertWrites,
   input: ConditionInput,
   change: PointChange,

@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import type { Db } from '@turnstone/db/client';
+import type { Db, Tx } from '@turnstone/db/client';
 import {
   alerts,
   areas,
@@ -9,8 +9,6 @@ import {
   machines,
   points,
 } from '@turnstone/db/schema';
-
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 export interface AuditEntry {
   actorUserId: number | null;

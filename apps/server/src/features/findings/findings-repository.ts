@@ -1,8 +1,7 @@
 import { and, asc, desc, eq, inArray, lte, ne, type SQL } from 'drizzle-orm';
-import type { Db } from '@turnstone/db/client';
+import type { Db, Tx } from '@turnstone/db/client';
 import { alerts, areas, findings, machines, points, sites, users } from '@turnstone/db/schema';
 
-export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 export type FindingRow = typeof findings.$inferSelect;
 
 const listColumns = {

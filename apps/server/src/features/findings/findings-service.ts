@@ -1,3 +1,4 @@
+import type { Tx } from '@turnstone/db/client';
 import { z } from 'zod';
 import type {
   Finding,
@@ -72,7 +73,7 @@ export async function listFindings(
   return { items: rows.map(toFinding) };
 }
 
-async function loadOne(ctx: AppContext, user: SessionUser, id: number, tx?: repo.Tx) {
+async function loadOne(ctx: AppContext, user: SessionUser, id: number, tx?: Tx) {
   const [row] = await repo.listFindings(tx ?? ctx.db, { siteIds: user.siteIds, ids: [id] });
   if (!row) throw notFound('Finding');
   return toFinding(row);

@@ -3,6 +3,7 @@
  * No signal processing here. Exactly-once effect over at-least-once delivery: the uid is
  * unique, and a repeat is compared by content hash (same → 200, different → 409).
  */
+import { isDuplicateKey } from '@turnstone/db/errors';
 import { createHash } from 'node:crypto';
 import { z, ZodError } from 'zod';
 import {
@@ -127,13 +128,6 @@ export function contentHash(
   ]);
   return createHash('sha256').update(meta).update(s.bytes).digest('hex');
 }
-
-const isDuplicateKey = (err: unknown) => {
-  for (let e: unknown = err; e; e = (e as { cause?: unknown }).cause) {
-    if ((e as { code?: string }).code === 'ER_DUP_ENTRY') return true;
-  }
-  return false;
-};
 
 /** Stores one snapshot (gateway or upload). Shared by the ingest API and uploads. */
 export async function storeSnapshot(

@@ -12,7 +12,8 @@ import {
   users,
 } from '@turnstone/db/schema';
 import type { BandDefinition as LimitBand } from '@turnstone/condition';
-import { insertBands, type Tx } from '../analysis/analysis-repository.ts';
+import type { Tx } from '@turnstone/db/client';
+import { insertBands } from '../analysis/analysis-repository.ts';
 
 type MachineType = (typeof limitSets.$inferSelect)['machineType'] & string;
 

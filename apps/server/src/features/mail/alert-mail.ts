@@ -18,7 +18,8 @@ import {
   type Rendered,
 } from './mail-templates.ts';
 import { mailBaseUrl, pointLink } from './mail-links.ts';
-import { enqueueMail, HOURLY_KIND, type Tx } from './outbox-repository.ts';
+import type { Tx } from '@turnstone/db/client';
+import { enqueueMail, HOURLY_KIND } from './outbox-repository.ts';
 
 export type AlertChangeKind = 'raised' | 'escalated' | 'cleared';
 

@@ -4,14 +4,13 @@
  * 10.6, as the jobs queue does) and hold them under a lease.
  */
 import { and, asc, desc, eq, gt, inArray, isNull, lte, ne, or, sql } from 'drizzle-orm';
-import type { Db } from '@turnstone/db/client';
+import type { Db, Tx } from '@turnstone/db/client';
 import { mailMessages, outbox, settings } from '@turnstone/db/schema';
 
 export type OutboxRow = typeof outbox.$inferSelect;
 
 /** Rows for "hourly" subscribers: never sent alone, folded into one summary per hour. */
 export const HOURLY_KIND = 'alert-hourly';
-export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type Writer = Pick<Db, 'insert'>;
 
 export interface NewMail {

@@ -23,7 +23,7 @@ import { hostname } from 'node:os';
 import nodemailer, { type Transporter } from 'nodemailer';
 import cron, { type ScheduledTask } from 'node-cron';
 import type { AppContext } from '../../lib/context.ts';
-import { isDbUnavailable } from '../../lib/error-middleware.ts';
+import { isDbUnavailable } from '@turnstone/db/errors';
 import * as repo from './outbox-repository.ts';
 import { renderHourlySummary } from './alert-mail.ts';
 

@@ -1,5 +1,5 @@
 import { and, count, eq, inArray, ne } from 'drizzle-orm';
-import type { Db } from '@turnstone/db/client';
+import type { Db, Tx } from '@turnstone/db/client';
 import {
   alerts,
   analyses,
@@ -14,8 +14,6 @@ import {
   snapshots,
   sites,
 } from '@turnstone/db/schema';
-
-export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 export async function listSites(db: Db, siteIds: number[]) {
   if (siteIds.length === 0) return [];

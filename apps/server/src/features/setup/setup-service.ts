@@ -3,6 +3,8 @@
  * commit in one transaction. Engineers may change machines and points of their own sites;
  * sites and areas are the administrator's.
  */
+import type { Tx } from '@turnstone/db/client';
+import { isDuplicateKey } from '@turnstone/db/errors';
 import { eq } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
 import { areas, bearings, gears, machines, points, sites } from '@turnstone/db/schema';
@@ -27,14 +29,6 @@ const invalid = (path: string, message: string) =>
     { path, message },
   ]);
 const siteForbidden = () => forbidden('This belongs to a site you are not assigned to.');
-
-function isDuplicateKey(err: unknown): boolean {
-  for (let e: unknown = err, i = 0; e && i < 4; i++) {
-    if ((e as { code?: string }).code === 'ER_DUP_ENTRY') return true;
-    e = (e as { cause?: unknown }).cause;
-  }
-  return false;
-}
 
 export async function setupTree(db: Db, user: SessionUser): Promise<SetupTree> {
   const siteRows = await repo.listSites(db, user.siteIds);
@@ -219,7 +213,7 @@ const gearColumns = (g: GearInput) => ({
  * machine are updated in place (so points keep their bearing), the rest inserted, and
  * those left out deleted.
  */
-async function replaceComponents(tx: repo.Tx, machineId: number, input: MachineInput) {
+async function replaceComponents(tx: Tx, machineId: number, input: MachineInput) {
   const [oldBearings, oldGears] = await Promise.all([
     repo.bearingsOf(tx, machineId),
     repo.gearsOf(tx, machineId),

@@ -6,12 +6,11 @@
  */
 import { createHash, randomBytes } from 'node:crypto';
 import { and, eq, gt, isNull } from 'drizzle-orm';
-import type { Db } from '@turnstone/db/client';
+import type { Db, Tx } from '@turnstone/db/client';
 import { userTokens } from '@turnstone/db/schema';
 
 export const TOKEN_HOURS = { invite: 72, reset: 1 } as const;
 export type TokenPurpose = keyof typeof TOKEN_HOURS;
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 export const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
 

@@ -1,9 +1,8 @@
 import { asc, eq, inArray } from 'drizzle-orm';
-import type { Db } from '@turnstone/db/client';
+import type { Db, Tx } from '@turnstone/db/client';
 import { sites, userSites, users } from '@turnstone/db/schema';
 
 export type UserRow = typeof users.$inferSelect;
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 export async function listUsers(db: Db) {
   const rows = await db.select().from(users).orderBy(asc(users.name));

@@ -4,21 +4,11 @@
  * the same job; a claim is a lease that expires, so a dead worker's job is claimed again.
  */
 import { and, asc, eq, inArray, lte, sql } from 'drizzle-orm';
-import type { Db } from '@turnstone/db/client';
+import type { Db, Tx } from '@turnstone/db/client';
+import { isLockConflict } from '@turnstone/db/errors';
 import { jobs } from '@turnstone/db/schema';
 
 export type JobRow = typeof jobs.$inferSelect;
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
-
-/** Deadlock or lock-wait timeout: InnoDB rolled the transaction back; running it again is safe. */
-export function isLockConflict(err: unknown): boolean {
-  for (let e: unknown = err, i = 0; e && i < 5; i++) {
-    const code = (e as { code?: string }).code;
-    if (code === 'ER_LOCK_DEADLOCK' || code === 'ER_LOCK_WAIT_TIMEOUT') return true;
-    e = (e as { cause?: unknown }).cause;
-  }
-  return false;
-}
 
 /**
  * Queue transactions run READ COMMITTED: their scans then lock only the rows they return,

@@ -10,7 +10,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import cron, { type ScheduledTask } from 'node-cron';
 import { jobs, snapshots } from '@turnstone/db/schema';
 import type { AppContext } from '../../lib/context.ts';
-import { isDbUnavailable } from '../../lib/error-middleware.ts';
+import { isDbUnavailable } from '@turnstone/db/errors';
 import {
   PermanentJobError,
   prepareAnalyses,

@@ -1,0 +1,68 @@
+/**
+ * What a database error means, decided in one place. Drizzle (0.45) wraps the driver's error
+ * in its own (`DrizzleQueryError`) with the mysql2 error as `.cause`, so every check walks
+ * the `.cause` chain rather than reading `err.code` of the outermost error.
+ */
+
+/** The errors of `err`'s `.cause` chain, outermost first (a few levels at most). */
+function* chain(
+  err: unknown,
+): Generator<{ code?: unknown; errno?: unknown; fatal?: unknown; syscall?: unknown }> {
+  for (let e: unknown = err, i = 0; e && typeof e === 'object' && i < 6; i++) {
+    yield e as { code?: unknown };
+    e = (e as { cause?: unknown }).cause;
+  }
+}
+
+function hasCode(err: unknown, codes: ReadonlySet<string>): boolean {
+  for (const e of chain(err)) if (typeof e.code === 'string' && codes.has(e.code)) return true;
+  return false;
+}
+
+const UNAVAILABLE = new Set([
+  'ECONNREFUSED',
+  'PROTOCOL_CONNECTION_LOST',
+  'ETIMEDOUT',
+  'ECONNRESET',
+  'EPIPE',
+  'ER_SERVER_SHUTDOWN',
+  'ER_CON_COUNT_ERROR',
+  'PROTOCOL_SEQUENCE_TIMEOUT',
+]);
+
+/** The database is away (connection refused or lost, server shutting down), not a bad query. */
+export function isDbUnavailable(err: unknown): boolean {
+  for (const e of chain(err)) {
+    if (typeof e.code === 'string' && UNAVAILABLE.has(e.code)) return true;
+    // The server's socket file is gone while it is stopped.
+    if (e.code === 'ENOENT' && e.syscall === 'connect') return true;
+    if (e.fatal === true && e.errno === undefined) return true;
+  }
+  return false;
+}
+
+const LOCK_CONFLICT = new Set(['ER_LOCK_DEADLOCK', 'ER_LOCK_WAIT_TIMEOUT']);
+
+/**
+ * Deadlock or lock-wait timeout. InnoDB has rolled the transaction back (a deadlock always,
+ * a lock-wait timeout too when the caller cannot tell which statement took effect): the
+ * transaction must not carry on; running it again from the start is safe.
+ */
+export function isLockConflict(err: unknown): boolean {
+  return hasCode(err, LOCK_CONFLICT);
+}
+
+const DUPLICATE = new Set(['ER_DUP_ENTRY']);
+
+/** A unique index refused the row. */
+export function isDuplicateKey(err: unknown): boolean {
+  return hasCode(err, DUPLICATE);
+}
+
+/**
+ * Errors after which the current transaction is gone (rolled back by the server, or its
+ * connection lost): nothing more may be written in it, and the caller must let it fail.
+ */
+export function abortsTransaction(err: unknown): boolean {
+  return isDbUnavailable(err) || isLockConflict(err);
+}

@@ -1,0 +1,151 @@
+/**
+ * A real InnoDB deadlock while an alert's e-mail is queued inside the worker's batch
+ * transaction. InnoDB has then rolled the whole transaction back, so the worker must not
+ * carry on as if only the mail failed: the batch is written again (its jobs one by one) and
+ * afterwards every job is done, every capture analysed once, the alert raised once and its
+ * mail queued — nothing half-written, nothing lost.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import mysql from 'mysql2/promise';
+import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import { peakGFor } from '../support/alert-captures.ts';
+import { snapshotBody } from '../support/signals.ts';
+import { startTestServer, type TestServer } from '../support/test-server.ts';
+
+let srv: TestServer;
+let key = '';
+const TAG = 'MFP-P101-MDE-H';
+const t0 = Date.now() - 48 * 3600_000;
+let seq = 0;
+
+type Row = Record<string, unknown>;
+async function q(sqlText: string, params: unknown[] = []) {
+  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
+  return rows as Row[];
+}
+
+async function ingest(velocities: number[]) {
+  for (const v of velocities) {
+    seq += 1;
+    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+      body: snapshotBody(TAG, `dl-${seq}`, {
+        tones: [{ hz: 24.7, peakG: peakGFor(v) }],
+        noiseG: 0.001,
+        seed: seq,
+        takenAt: new Date(t0 + seq * 3600_000).toISOString(),
+      }),
+      headers: { authorization: `Bearer ${key}` },
+    });
+    expect(res.status).toBe(201);
+  }
+}
+
+async function waitFor(what: string, check: () => Promise<boolean>, ms = 30_000) {
+  const until = Date.now() + ms;
+  while (Date.now() < until) {
+    if (await check()) return;
+    await new Promise((r) => setTimeout(r, 20));
+  }
+  throw new Error(`timed out waiting for ${what}`);
+}
+
+beforeAll(async () => {
+  srv = await startTestServer();
+  const admin = await srv.signIn('admin');
+  const res = await srv.call('POST', '/api/v1/gateways', {
+    cookie: admin,
+    body: { siteId: 1, name: 'gw-deadlock' },
+  });
+  key = (await res.json()).apiKey;
+});
+afterAll(async () => {
+  await srv?.stop();
+});
+
+describe('a deadlock while alert mail is queued', () => {
+  it('is not swallowed: the batch is written again whole and the alert and its mail are stored once', async () => {
+    // P-101 overall velocity: template alert level 2.8 mm/s, persistence 2 (the condition
+    // package's template defaults, ISO 20816-3 group 2 rigid; from memory). Two quiet
+    // captures first, judged on their own.
+    await ingest([1.5, 1.5]);
+    await createWorker(srv.ctx, { owner: 'deadlock-warmup' }).drain();
+    const [point] = await q('SELECT id FROM points WHERE tag = ?', [TAG]);
+    const pointId = Number(point!.id);
+
+    // The two loud captures of one batch raise the alert on the second: its mail is queued
+    // inside the batch transaction, which by then holds the point's state row.
+    await ingest([3.5, 3.5]);
+    const jobIds = (
+      await q(
+        `SELECT j.id FROM jobs j JOIN snapshots s ON s.id = j.snapshot_id
+          WHERE s.point_id = ? AND j.state <> 'done'`,
+        [pointId],
+      )
+    ).map((r) => Number(r.id));
+    expect(jobIds.length).toBe(2);
+
+    // Another session makes itself the heavier transaction (InnoDB rolls back the lighter
+    // one of a deadlock: MariaDB's documentation on deadlocks), then locks the outbox's
+    // rows and gaps so the worker's mail insert waits for it.
+    const url = new URL(srv.databaseUrl);
+    const other = await mysql.createConnection({
+      host: url.hostname,
+      port: Number(url.port),
+      user: decodeURIComponent(url.username),
+      password: decodeURIComponent(url.password),
+      database: url.pathname.slice(1),
+      socketPath: url.searchParams.get('socketPath') ?? undefined,
+    });
+    try {
+      await other.query('CREATE TABLE ballast (id INT PRIMARY KEY, pad CHAR(50)) ENGINE=InnoDB');
+      await other.query('SET SESSION TRANSACTION ISOLATION LEVEL REPEATABLE READ');
+      await other.query('START TRANSACTION');
+      const rows = Array.from({ length: 3000 }, (_, i) => [i + 1, 'x']);
+      await other.query('INSERT INTO ballast (id, pad) VALUES ?', [rows]);
+      await other.query('SELECT id FROM outbox WHERE id >= 0 FOR UPDATE');
+
+      const worker = createWorker(srv.ctx, { owner: 'deadlock-worker', batch: 2 });
+      const drained = worker.drain();
+      drained.catch(() => {});
+      await waitFor('the worker to wait on the outbox', async () => {
+        const waiting = await q(
+          `SELECT trx_id FROM information_schema.innodb_trx
+            WHERE trx_state = 'LOCK WAIT' AND trx_query LIKE '%outbox%'`,
+        );
+        return waiting.length > 0;
+      });
+      // Close the cycle: the worker holds the point's state row, this session the outbox.
+      const closing = other.query('SELECT * FROM point_states WHERE point_id = ? FOR UPDATE', [
+        pointId,
+      ]);
+      await closing;
+      await other.query('ROLLBACK');
+      await drained;
+    } finally {
+      await other.end();
+    }
+
+    const jobs = await q(`SELECT id, state FROM jobs WHERE id IN (?)`, [jobIds]);
+    expect(jobs.map((j) => j.state)).toEqual(['done', 'done']);
+    const analyses = await q(
+      `SELECT snapshot_id, COUNT(*) AS n FROM analyses WHERE point_id = ? GROUP BY snapshot_id`,
+      [pointId],
+    );
+    expect(analyses.length).toBe(4);
+    expect(analyses.every((a) => Number(a.n) === 1)).toBe(true);
+    const alerts = await q(
+      `SELECT id FROM alerts WHERE point_id = ? AND band_key = 'overall-velocity'`,
+      [pointId],
+    );
+    expect(alerts.length).toBe(1);
+    const raised = await q(`SELECT id FROM alert_events WHERE alert_id = ? AND kind = 'raised'`, [
+      alerts[0]!.id,
+    ]);
+    expect(raised.length).toBe(1);
+    const mail = await q(`SELECT id FROM outbox WHERE dedupe_key LIKE ?`, [
+      `alert:${String(raised[0]!.id)}:%`,
+    ]);
+    // The engineer subscribes to every alert on site 1 (demo seed).
+    expect(mail.length).toBeGreaterThan(0);
+  });
+});
