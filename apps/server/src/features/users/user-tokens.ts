@@ -6,7 +6,7 @@
  */
 import { createHash, randomBytes } from 'node:crypto';
 import { and, eq, gt, isNull } from 'drizzle-orm';
-import type { Tx } from '@turnstone/db/client';
+import type { Db, Tx } from '@turnstone/db/client';
 import { userTokens } from '@turnstone/db/schema';
 
 export const TOKEN_HOURS = { invite: 72, reset: 1 } as const;
