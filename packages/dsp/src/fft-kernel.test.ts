@@ -58,7 +58,7 @@ describe('the WebAssembly FFT kernel', () => {
       const direct = new Float64Array(4096);
       kernel.complexPlan(2048).forward(direct, x);
       expect(Array.from(out)).toEqual(Array.from(direct));
-      welch(signal(1024, 9), { fs: 1000, nperseg: 256 });
+      welch(signal(1024, 9), { sampleRateHz: 1000, nperseg: 256 });
       expect(welchSum).toHaveBeenCalledTimes(1);
     } finally {
       complexPlan.mockRestore();
