@@ -255,7 +255,6 @@ describe('trend', () => {
       body.projection.outcome,
     );
     expect(body.projection.model).not.toBeNull();
-    console.log('PROBE', JSON.stringify({ levels: body.levels, projection: body.projection, v: body.items.map((i) => [i.t, i.v]) }));
   });
 
   it('the trend CSV has a header with the unit and one row per value', async () => {
@@ -287,7 +286,6 @@ describe('machine and point detail', () => {
     const p = body.points.find((x) => x.id === pointId)!;
     expect(p.latest).not.toBeNull();
     expect(['A', 'B', 'C', 'D']).toContain(p.latest!.isoZone);
-    console.log('PROBE2', JSON.stringify(p.latest), JSON.stringify(body).slice(0, 600));
     expect(p.recentVelocity.length).toBeGreaterThan(5);
     const ts = p.recentVelocity.map((r) => Date.parse(r.t));
     expect(ts).toEqual([...ts].sort((a, b) => a - b));
