@@ -23,3 +23,4 @@ export * from './units.ts';
 export * from './waveform-statistics.ts';
 export * from './welch.ts';
 export * from './window-functions.ts';
+export * from './shaft-vector.ts';
