@@ -19,6 +19,7 @@ import {
 } from './quality-verdict.ts';
 import { scaleToAcceleration } from './scale-samples.ts';
 import { scratch } from './scratch.ts';
+import { shaftVectors, type ShaftVector } from './shaft-vector.ts';
 import { findPeaks } from './spectral-peaks.ts';
 import { estimateSpeed } from './speed-estimate.ts';
 import { waveformStatistics } from './waveform-statistics.ts';
@@ -156,6 +157,8 @@ export interface SnapshotAnalysis {
   peaks: { hz: number; order: number | null; amplitude: number }[];
   faultFrequencies: FaultFrequency[];
   bandValues: BandValue[];
+  /** 1× and 2× vectors (amplitude, phase lag against the tach pulse; see {@link ShaftVector}), or null without a tach. */
+  shaftVectors: ShaftVector[] | null;
 }
 
 function positive(value: unknown, what: string): number {
@@ -457,6 +460,10 @@ export function analyzeSnapshot(
     peaks,
     faultFrequencies: faults,
     bandValues: values,
+    shaftVectors:
+      speed.source === 'tach' && input.tach
+        ? shaftVectors(accel, input.tach, { sampleRateHz: fs, orders: [1, 2] })
+        : null,
   };
 }
 
