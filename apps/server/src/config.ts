@@ -31,6 +31,17 @@ const envSchema = z.object({
   DEMO_HISTORY_WEEKS: z.coerce.number().int().min(0).max(52).default(12),
   /** Password of the demo accounts. */
   DEMO_PASSWORD: z.string().min(8).max(64).default('turnstone-demo'),
+  /**
+   * Start on every interface (HOST=0.0.0.0 or ::) although demo accounts still accept the
+   * default demo password. Refused without it: anyone on the network could sign in as admin.
+   */
+  ALLOW_DEMO_PASSWORD_ON_NETWORK: bool(false),
+  /**
+   * Further host names (comma-separated) the server answers to, besides PUBLIC_URL's host,
+   * the listen address and loopback names. Requests naming any other host get 421: a page
+   * on a rebound DNS name cannot reach the API.
+   */
+  ALLOWED_HOSTS: z.string().default(''),
   /** Run the queue worker inside the web process. */
   RUN_WORKER: bool(true),
   /** Build the web app at start when it is missing or older than its sources. */
