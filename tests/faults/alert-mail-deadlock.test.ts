@@ -40,13 +40,14 @@ async function ingest(velocities: number[]) {
   }
 }
 
-async function waitFor(what: string, check: () => Promise<boolean>, ms = 30_000) {
+async function waitFor(what: string, check: () => Promise<boolean>, ms = 60_000) {
   const until = Date.now() + ms;
   while (Date.now() < until) {
     if (await check()) return;
     await new Promise((r) => setTimeout(r, 20));
   }
-  throw new Error(`timed out waiting for ${what}`);
+  const trx = await q('SELECT trx_state, trx_query FROM information_schema.innodb_trx');
+  throw new Error(`timed out waiting for ${what}: ${JSON.stringify(trx)}`);
 }
 
 beforeAll(async () => {
@@ -105,9 +106,16 @@ describe('a deadlock while alert mail is queued', () => {
       await other.query('SELECT id FROM outbox WHERE id >= 0 FOR UPDATE');
 
       const worker = createWorker(srv.ctx, { owner: 'deadlock-worker', batch: 2 });
-      const drained = worker.drain();
+      let finished = false;
+      const drained = worker.drain().finally(() => {
+        finished = true;
+      });
       drained.catch(() => {});
       await waitFor('the worker to wait on the outbox', async () => {
+        if (finished)
+          throw new Error(
+            `the worker finished without waiting: ${JSON.stringify(await q('SELECT id, state, last_error FROM jobs WHERE id IN (?)', [jobIds]))} ${JSON.stringify(await q('SELECT id, state FROM alerts'))}`,
+          );
         const waiting = await q(
           `SELECT trx_id FROM information_schema.innodb_trx
             WHERE trx_state = 'LOCK WAIT' AND trx_query LIKE '%outbox%'`,
