@@ -203,6 +203,18 @@ describe('projectTrend — the recent regime', () => {
     expect(((result.window?.fromAt ?? 0) - T0) / DAY).toBeLessThanOrEqual(60);
   });
 
+  it('when a trend rises in a straight line, it is one regime and the line fit gives the crossing', () => {
+    // v = 1 + 0.05·d for 14 days: curved in ln(v) but by less than 1 %, so no break; the line
+    // reaches 2.24 at d = 24.8 (hand arithmetic)
+    const result = projectTrend(daily(Array.from({ length: 14 }, (_, d) => 1 + 0.05 * d)), {
+      alertLevel: 2.24,
+      dangerLevel: 4,
+    });
+    expect(result.window).toMatchObject({ changed: false, points: 14 });
+    expect(result.fit?.model).toBe('linear');
+    expect(((result.crossingAt ?? 0) - T0) / DAY).toBeCloseTo(24.8, 6);
+  });
+
   it('when every point is fitted, the same turn is projected far too late (why the window matters)', () => {
     const result = projectTrend(daily(turn), turnLevels, { changePoints: false });
     expect(((result.crossingAt ?? 0) - latestAt) / DAY).toBeGreaterThan(10);

@@ -155,7 +155,9 @@ const BREAK_PENALTY = 8;
  * Bayesian information criterion n·ln(SSE/n) + p·ln n (one line p = 2; two lines and the
  * break p = 5, with the 3 added parameters counted twice, p = 8, so that scatter alone seldom
  * makes a break when the search repeats on ever shorter later parts); repeated on the later
- * part until no break is accepted. Each part keeps at least `minPoints` points.
+ * part until no break is accepted. Each part keeps at least `minPoints` points. Residual
+ * scatter below `noise` (RMS, in y's unit) counts as `noise`: a curve smoother than the
+ * measurement repeats is not split into regimes.
  *
  * Source: change-point detection by binary segmentation (Scott & Knott 1974) with BIC
  * (Schwarz 1978); the use here is Turnstone's, no source.
@@ -164,6 +166,7 @@ export function recentRegimeStart(
   xs: readonly number[],
   ys: readonly number[],
   minPoints: number,
+  noise = 0,
 ): number {
   const p = prefixSums(xs, ys);
   let start = 0;
@@ -172,20 +175,22 @@ export function recentRegimeStart(
     const n = end - start;
     if (n < 2 * minPoints) return start;
     const scale = (lineSse(p, start, end) + 1e-12 * ((p.yy[end] ?? 0) - (p.yy[start] ?? 0))) / n;
-    const floor = 1e-9 * scale + Number.MIN_VALUE;
+    const floor = Math.max(noise * noise, 1e-9 * scale) + Number.MIN_VALUE;
     const one = n * Math.log(Math.max(lineSse(p, start, end) / n, floor)) + 2 * Math.log(n);
+    // the break with the least residual, then whether it beats one line once scatter finer
+    // than `noise` counts as `noise`
     let best = -1;
-    let bestScore = one;
+    let bestSse = Number.POSITIVE_INFINITY;
     for (let k = start + minPoints; k <= end - minPoints; k += 1) {
       if ((xs[k] ?? 0) === (xs[k - 1] ?? 0)) continue;
       const sse = lineSse(p, start, k) + lineSse(p, k, end);
-      const score = n * Math.log(Math.max(sse / n, floor)) + BREAK_PENALTY * Math.log(n);
-      if (score < bestScore) {
-        bestScore = score;
+      if (sse < bestSse) {
+        bestSse = sse;
         best = k;
       }
     }
-    if (best < 0) return start;
+    const two = n * Math.log(Math.max(bestSse / n, floor)) + BREAK_PENALTY * Math.log(n);
+    if (best < 0 || !(two < one)) return start;
     start = best;
   }
 }
@@ -195,7 +200,8 @@ export function recentRegimeStart(
  *
  * Window: the recent regime only — the points after the latest change point
  * ({@link recentRegimeStart}, found on ln(value) when every value is above 0, else on the
- * values), so a flat history that turns upward is projected from the turn, not averaged with
+ * values; scatter under 1 % — finer than repeat measurements agree, common practice, no
+ * source — is not taken for a change), so a flat history that turns upward is projected from the turn, not averaged with
  * months of flat values. The window is reported.
  *
  * Method: least-squares straight line through (t, value) (linear), and through (t, ln value)
@@ -255,7 +261,9 @@ export function projectTrend(
     const allDays = points.map((p) => (p.takenAt - head.takenAt) / DAY_MS);
     const positive = points.every((p) => p.value > 0);
     const ys = points.map((p) => (positive ? Math.log(p.value) : p.value));
-    start = recentRegimeStart(allDays, ys, minPoints);
+    // 1 % repeatability: ln units when fitting ln(value), else 1 % of the mean magnitude
+    const meanAbs = points.reduce((a, p) => a + Math.abs(p.value), 0) / points.length;
+    start = recentRegimeStart(allDays, ys, minPoints, positive ? 0.01 : 0.01 * meanAbs);
   }
   const recent = points.slice(start);
   const first = recent[0] ?? head;
