@@ -24,3 +24,4 @@ export * from './wav-capture.ts';
 export * from './waveform-statistics.ts';
 export * from './welch.ts';
 export * from './window-functions.ts';
+export * from './shaft-vector.ts';
