@@ -238,6 +238,7 @@ export function analyzeSnapshot(
     encoding,
     bits,
     fullScaleV,
+    sensitivityMvPerG,
     sampleRateHz: fs,
     fmaxHz,
     ...(input.antiAliasCutoffHz === undefined
