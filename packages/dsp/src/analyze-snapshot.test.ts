@@ -44,7 +44,7 @@ describe('analyzeSnapshot', () => {
     // on the middle 80 % (204.8 cycles) a sine's kurtosis is 1.5 to within 1e-3
     expect(r.overall.kurtosis).toBeCloseTo(1.5, 2);
     expect(r.overall.isoBandHz).toEqual([10, 1000]);
-    expect(r.overall.accelBandHz).toEqual([10, FS / 2]);
+    expect(r.overall.accelBandHz).toEqual([10, FS / 2.56]);
     expect(r.quality.verdict).toBe('ok');
   });
 
@@ -89,7 +89,11 @@ describe('analyzeSnapshot', () => {
       Float64Array.from(samples, (c) => c / COUNTS_PER_G),
       { sampleRateHz: FS, scaling: 'spectrum' },
     );
-    const fromSpectrum = bandRms({ power: full.power, dfHz: full.dfHz, enbwBins: full.enbwBins });
+    // over the band the overall acceleration states (10 Hz … Fmax)
+    const fromSpectrum = bandRms(
+      { power: full.power, dfHz: full.dfHz, enbwBins: full.enbwBins },
+      { loHz: r.overall.accelBandHz[0], hiHz: r.overall.accelBandHz[1] },
+    );
     expect(Math.abs(fromSpectrum / r.overall.accelRmsG - 1)).toBeLessThan(0.01);
     const stored = r.spectra.acceleration;
     expect(stored.values).toBeInstanceOf(Float32Array);
@@ -330,7 +334,7 @@ describe('overall values over ideal bands', () => {
 
   // A sensor settling after power-up: an offset of 0.4 V (4 g at 100 mV/g) decaying with
   // τ = 1.5 s (first-order response, common practice, no source) on top of a 50 Hz tone of
-  // 0.3 g peak. Over [10 Hz, Nyquist] the overall acceleration is the tone's 0.3/√2 g,
+  // 0.3 g peak. Over [10 Hz, Fmax] the overall acceleration is the tone's 0.3/√2 g,
   // its kurtosis a sine's 1.5 and its crest factor √2 (moment definitions).
   it('when a settling offset decays under the machine signal, the high-passed overall values ignore it', () => {
     const fs = 12800;
@@ -347,7 +351,7 @@ describe('overall values over ideal bands', () => {
       speedRpm: 1480,
     };
     const r = analyzeSnapshot(input);
-    expect(r.overall.accelBandHz).toEqual([10, fs / 2]);
+    expect(r.overall.accelBandHz).toEqual([10, fs / 2.56]);
     expect(Math.abs(r.overall.accelRmsG / (0.3 / Math.SQRT2) - 1)).toBeLessThan(0.02);
     expect(r.overall.kurtosis).toBeCloseTo(1.5, 1);
     expect(r.overall.crestFactor).toBeCloseTo(Math.SQRT2, 1);
@@ -369,9 +373,75 @@ describe('overall values over ideal bands', () => {
     );
     const at10 = analyzeSnapshot(input);
     const at2 = analyzeSnapshot(input, { accelerationHighPassHz: 2 });
-    expect(at10.overall.accelBandHz).toEqual([10, 1280]);
-    expect(at2.overall.accelBandHz).toEqual([2, 1280]);
+    expect(at10.overall.accelBandHz).toEqual([10, 1000]);
+    expect(at2.overall.accelBandHz).toEqual([2, 1000]);
     expect(at10.overall.accelRmsG).toBeCloseTo(0.1 / Math.SQRT2, 3);
     expect(at2.overall.accelRmsG).toBeCloseTo(0.1, 3); // √(2 · (0.1/√2)²)
+  });
+
+  // v = a/(2πf) per tone: a velocity band with its own span 10–5000 Hz counts a 3 kHz tone
+  // the ISO 10–1000 Hz value leaves out (ISO 20816-3 band edges, from memory).
+  it('when an overall velocity band has its own span, it reads that span, not the ISO band', () => {
+    const tones: [number, number][] = [
+      [100, 0.2],
+      [3000, 5],
+    ];
+    const r = analyzeSnapshot(
+      toneRecord(25600, 65536, tones, {
+        speedRpm: 1480,
+        bands: [
+          { key: 'iso', kind: 'overall', unit: 'mm/s' },
+          { key: 'wide', kind: 'overall', loHz: 10, hiHz: 5000, unit: 'mm/s' },
+        ],
+      }),
+    );
+    const v = Object.fromEntries(r.bandValues.map((b) => [b.key, b.value]));
+    const iso = toneVelocityRms(100, 0.2);
+    const wide = Math.hypot(iso, toneVelocityRms(3000, 5));
+    expect(Math.abs(v.iso! / iso - 1)).toBeLessThan(0.01);
+    expect(Math.abs(v.wide! / wide - 1)).toBeLessThan(0.01);
+    expect(v.wide! / v.iso!).toBeGreaterThan(1.2);
+  });
+
+  // d = a/(2πf)² per tone (µm: a in mm/s² over (2πf)², × 1000); the peak-to-peak of the sum
+  // is taken from its definition on a fine grid over one period, not from the largest line.
+  it('when a displacement band has a span, its peak-to-peak is the waveform’s, not twice the largest line', () => {
+    const tones: [number, number][] = [
+      [25, 0.2],
+      [50, 0.5],
+      [75, 0.6],
+    ];
+    const r = analyzeSnapshot(
+      toneRecord(25600, 65536, tones, {
+        speedRpm: 1500,
+        bands: [
+          { key: 'd', kind: 'overall', loHz: 10, hiHz: 1000, unit: 'um', measure: 'peak' },
+          { key: 'line', kind: 'hz', loHz: 10, hiHz: 1000, unit: 'um', measure: 'peak' },
+        ],
+      }),
+    );
+    let min = Infinity;
+    let max = -Infinity;
+    for (let i = 0; i < 100_000; i++) {
+      const t = i / 100_000 / 25;
+      let d = 0;
+      for (const [f, a] of tones) {
+        d -= ((a * G_MM_S2 * 1000) / (2 * Math.PI * f) ** 2) * Math.sin(2 * Math.PI * f * t + 0.3);
+      }
+      min = Math.min(min, d);
+      max = Math.max(max, d);
+    }
+    const pkpk = max - min;
+    const v = Object.fromEntries(r.bandValues.map((b) => [b.key, b.value]));
+    expect(Math.abs((2 * v.d!) / pkpk - 1)).toBeLessThan(0.01);
+    // the largest line alone (the 25 Hz tone's 159 µm pk-pk) is not the waveform's
+    expect(Math.abs((2 * v.line!) / pkpk - 1)).toBeGreaterThan(0.1);
+  });
+
+  it('when an overall span is malformed, the band list is refused', () => {
+    const input = toneRecord(2560, 4096, [[30, 0.1]], {
+      bands: [{ key: 'bad', kind: 'overall', loHz: 100, hiHz: 10 }],
+    });
+    expect(() => analyzeSnapshot(input)).toThrow(/overall span/);
   });
 });

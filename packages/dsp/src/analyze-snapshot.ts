@@ -74,7 +74,7 @@ export interface AnalyzeSnapshotOptions {
   speedSearchFraction?: number;
   /**
    * High-pass edge of the overall acceleration, crest factor and kurtosis, Hz (they are
-   * taken over [this, Nyquist], so a settling offset or slow drift does not count).
+   * taken over [this, Fmax], so a settling offset or slow drift does not count).
    * @default the ISO band's lower edge (10 Hz, or 2 Hz for slow machines)
    */
   accelerationHighPassHz?: number;
@@ -109,7 +109,7 @@ export interface SnapshotAnalysis {
     accelRmsG: number;
     /** Largest |a| of the acceleration high-passed at accelBandHz[0], on the record's middle 80 %, g. */
     accelPeakG: number;
-    /** Band of the acceleration figures (accelRmsG, accelPeakG, crestFactor, kurtosis): [high-pass, Nyquist], Hz. */
+    /** Band of the acceleration figures (accelRmsG, accelPeakG, crestFactor, kurtosis): [high-pass, Fmax], Hz. */
     accelBandHz: [number, number];
     /** Velocity RMS over the ISO band isoBandHz (an ideal band of the whole record), mm/s. */
     velocityRmsMmS: number;
@@ -269,11 +269,11 @@ export function analyzeSnapshot(
   const velocityRmsMmS = idealBandRms(record, { loHz: isoLo, hiHz: isoHi, to: 'mm/s' });
   const displacementRmsUm = idealBandRms(record, { loHz: isoLo, hiHz: isoHi, to: 'um' });
   const accelLo = options.accelerationHighPassHz ?? isoLo;
-  if (!(accelLo > 0 && accelLo < fs / 2)) {
-    throw new RangeError(`accelerationHighPassHz must be in (0, ${fs / 2}), got ${accelLo}`);
+  if (!(accelLo > 0 && accelLo < fmaxHz)) {
+    throw new RangeError(`accelerationHighPassHz must be in (0, ${fmaxHz}), got ${accelLo}`);
   }
-  const accelBandHz: [number, number] = [accelLo, fs / 2];
-  const accelRmsG = idealBandRms(record, { loHz: accelLo, hiHz: fs / 2, to: 'g' });
+  const accelBandHz: [number, number] = [accelLo, fmaxHz];
+  const accelRmsG = idealBandRms(record, { loHz: accelLo, hiHz: fmaxHz, to: 'g' });
 
   // ---- one FFT of the whole (end-tapered) record, shared by displacement, the
   // high-passed acceleration waveform and the envelope; the envelope spectrum's own Hann
@@ -304,7 +304,7 @@ export function analyzeSnapshot(
   );
   // Peak, crest factor and kurtosis of the high-passed acceleration, on the middle of the
   // record (its tapered ends are not valid output).
-  const accelWave = bandWaveform('g', accelLo, fs / 2);
+  const accelWave = bandWaveform('g', accelLo, fmaxHz);
   const skip = Math.floor(accelWave.length * 2 * DISPLACEMENT_TAPER);
   const accelStats = waveformStatistics(accelWave.subarray(skip, accelWave.length - skip));
 
@@ -405,6 +405,19 @@ export function analyzeSnapshot(
     envelope: envelopePower,
     shaftHz,
     faultFrequencies: faults,
+    overallOver: (unit, measure, loHz, hiHz) => {
+      // What the analysis holds of the span: up to Fmax, and above 0 Hz when integrating.
+      const hi = Math.min(hiHz, fmaxHz);
+      const lo = Math.max(loHz, unit === 'g' ? 0 : record.dfHz);
+      if (!(hi > lo)) return null;
+      if (measure === 'rms') return idealBandRms(record, { loHz: lo, hiHz: hi, to: unit });
+      const wave = bandWaveform(unit, Math.max(lo, record.dfHz), hi);
+      if (unit === 'um') return trimmedPeakToPeak(wave, 2 * DISPLACEMENT_TAPER) / 2;
+      const edge = Math.floor(wave.length * 2 * DISPLACEMENT_TAPER);
+      let peak = 0;
+      for (let i = edge; i < wave.length - edge; i++) peak = Math.max(peak, Math.abs(wave[i]!));
+      return peak;
+    },
     overall: {
       accelRmsG,
       accelPeakG: accelStats.peak,
