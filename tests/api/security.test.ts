@@ -1,6 +1,7 @@
 /** Security baseline (OWASP ASVS 5.0 level 2 where it applies): headers, cookies, logs. */
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import bcrypt from 'bcryptjs';
+import { request } from 'node:http';
 import { redact } from '../../apps/server/src/lib/logger.ts';
 import { passwordTasksRun } from '../../apps/server/src/lib/passwords.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
@@ -162,4 +163,52 @@ describe('password links under a flood of made-up tokens', () => {
       expect(other.status).toBe(400);
     }
   });
+});
+
+describe('DNS rebinding and demo accounts on a network', () => {
+  const withHost = (host: string, method = 'GET', path = '/api/health') =>
+    new Promise<{ status: number; body: string }>((resolve, reject) => {
+      const req = request(
+        `${srv.url}${path}`,
+        { method, headers: { host, origin: `http://${host}`, 'content-type': 'application/json' } },
+        (res) => {
+          let body = '';
+          res.on('data', (d) => (body += d));
+          res.on('end', () => resolve({ status: res.statusCode ?? 0, body }));
+        },
+      );
+      req.on('error', reject);
+      req.end(
+        method === 'POST'
+          ? JSON.stringify({ email: 'admin@turnstone.local', password: 'turnstone-demo' })
+          : undefined,
+      );
+    });
+
+  it('answers 421 to a host name it is not known by, also for a same-origin sign-in', async () => {
+    // A rebound name: the page's Origin and the Host agree, so only the name gives it away.
+    const health = await withHost('rebound.example:8080');
+    expect(health.status).toBe(421);
+    expect(JSON.parse(health.body).error.code).toBe('unknown_host');
+    const signIn = await withHost('rebound.example:8080', 'POST', '/api/v1/auth/sign-in');
+    expect(signIn.status).toBe(421);
+    const page = await withHost('rebound.example', 'GET', '/');
+    expect(page.status).toBe(421);
+    for (const known of ['localhost', '127.0.0.1', '[::1]'])
+      expect((await withHost(`${known}:${srv.port}`)).status).toBe(200);
+  });
+
+  it('refuses HOST=0.0.0.0 while demo accounts accept the published password, unless allowed', async () => {
+    await expect(startTestServer({ HOST: '0.0.0.0' })).rejects.toThrow(
+      /ALLOW_DEMO_PASSWORD_ON_NETWORK/,
+    );
+    const before = logged.length;
+    const open = await startTestServer({
+      HOST: '0.0.0.0',
+      ALLOW_DEMO_PASSWORD_ON_NETWORK: 'true',
+      LOG_LEVEL: 'warn',
+    });
+    await open.stop();
+    expect(logged.slice(before).join('')).toMatch(/Demo accounts accept the demo password/);
+  }, 150_000);
 });
