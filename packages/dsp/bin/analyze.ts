@@ -14,10 +14,19 @@ import {
   type SnapshotAnalysis,
   type SnapshotInput,
 } from '../src/index.ts';
+import {
+  DIAGNOSIS_OPTIONS,
+  DIAGNOSIS_USAGE,
+  formatDiagnosis,
+  machineOf,
+  parseDiagnosisFlags,
+  runDiagnosis,
+} from './diagnosis-options.ts';
 
 const USAGE = `usage: npm run analyze -- <file.wav|file.csv> [--rpm N] [--sensitivity MV_PER_G] [--bits N]
        [--full-scale VOLTS] [--fmax HZ] [--lines N] [--window hann|flattop|hamming|rect]
        [--rate HZ] [--unit g|volts] [--json]
+${DIAGNOSIS_USAGE}
 WAV: --full-scale is the volts at the container's full scale (PCM) and at 1.0 (float), default 1;
      --bits defaults to the file's valid bits (24 for float). Uploads read WAV the same way.
 CSV: values in g (or volts with --unit volts); --bits and --full-scale default to 24 and 10.`;
@@ -180,6 +189,7 @@ function main(argv: string[]): number {
         unit: { type: 'string' },
         json: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
+        ...DIAGNOSIS_OPTIONS,
       },
     });
   } catch (error) {
@@ -205,11 +215,14 @@ function main(argv: string[]): number {
     return 2;
   }
   try {
-    const result = analyzeSnapshot(buildInput(file, bytes, parsed.values));
+    const diagnosis = parseDiagnosisFlags(parsed.values);
+    const input = buildInput(file, bytes, parsed.values as Record<string, string | boolean>);
+    const result = analyzeSnapshot({ ...input, machine: machineOf(diagnosis) });
+    const hints = runDiagnosis(diagnosis, result);
     process.stdout.write(
       parsed.values.json
-        ? `${JSON.stringify(toJson(result), null, 2)}\n`
-        : `${summary(file, result)}\n`,
+        ? `${JSON.stringify({ ...(toJson(result) as object), diagnosis: hints.diagnosis, diagnosisNotes: hints.notes }, null, 2)}\n`
+        : `${[summary(file, result), ...formatDiagnosis(hints)].join('\n')}\n`,
     );
     return 0;
   } catch (error) {
