@@ -56,6 +56,10 @@ describe('npm run analyze', { timeout: 60_000 }, () => {
     expect(j.overall.accelRmsG).toBeCloseTo(0.7071, 3);
     expect(j.overall.velocityRmsMmS).toBeCloseTo(11.04, 1);
     expect(j.overall.displacementPkPkUm).toBeCloseTo(49.68, 0);
+    // each overall value comes with its band: acceleration high-passed at the ISO band's
+    // lower edge up to Fmax (fs / 2.56), velocity and displacement over the ISO band
+    expect(j.overall.accelBandHz).toEqual([10, 10000]);
+    expect(j.overall.isoBandHz).toEqual([10, 1000]);
     expect(j.speed).toEqual({ rpm: 1500, hz: 25, source: 'rpm' });
     expect(j.spectrum).toMatchObject({ unit: 'g', window: 'hann', dfHz: 3.125 });
     expect(j.spectrum.peaks).toHaveLength(10);
