@@ -1,5 +1,12 @@
 import { describe, it, expect } from 'vitest';
-import { ISO_20816_3_ZONE_BOUNDARIES, isoZone, isoZoneBoundaries } from './iso-zones.ts';
+import {
+  displacementGovernsBelowRpm,
+  ISO_20816_3_ZONE_BOUNDARIES,
+  isoDisplacementZone,
+  isoZone,
+  isoZoneBoth,
+  isoZoneBoundaries,
+} from './iso-zones.ts';
 import { isoBand } from './iso-band.ts';
 import { isoDefaultLevels } from './iso-default-levels.ts';
 
@@ -123,5 +130,35 @@ describe('isoDefaultLevels', () => {
     const { alertLevel, dangerLevel } = isoDefaultLevels(2, 'rigid');
     expect(isoZone(alertLevel, 2, 'rigid')).toBe('C');
     expect(isoZone(dangerLevel, 2, 'rigid')).toBe('D');
+  });
+});
+
+describe('ISO 20816-3 displacement criteria', () => {
+  it('when displacement sits on a boundary, it is in the higher zone (group 2 rigid 45 µm → C)', () => {
+    // ISO 10816-3 / 20816-3 displacement boundaries 22 / 45 / 71 µm RMS, from memory
+    expect(isoDisplacementZone(21.9, 2, 'rigid')).toBe('A');
+    expect(isoDisplacementZone(22, 2, 'rigid')).toBe('B');
+    expect(isoDisplacementZone(45, 2, 'rigid')).toBe('C');
+    expect(isoDisplacementZone(71, 2, 'rigid')).toBe('D');
+    expect(isoDisplacementZone(90, 1, 'rigid')).toBe('D');
+    expect(() => isoDisplacementZone(-1, 2, 'rigid')).toThrow(RangeError);
+  });
+
+  it('when a slow shaft moves 60 µm at 1.9 mm/s, displacement governs: the worse zone is C', () => {
+    // a 5 Hz sine (300 r/min) with 60 µm RMS has v = 2π·5·0.060 = 1.885 mm/s RMS (definition):
+    // zone B by velocity (1.4 ≤ 1.885 < 2.8, group 2 rigid), zone C by displacement (45 ≤ 60 < 71),
+    // boundaries from memory
+    const v = 2 * Math.PI * 5 * 0.06;
+    expect(isoZone(v, 2, 'rigid')).toBe('B');
+    expect(isoZoneBoth(v, 60, 2, 'rigid')).toBe('C');
+    expect(isoZoneBoth(5, 10, 2, 'rigid')).toBe('D');
+  });
+
+  it('when velocity and displacement boundaries meet, it is where v = 2πf·d', () => {
+    // group 2 rigid: 2.8 mm/s and 45 µm meet at f = 2.8 / (2π·0.045) Hz (definition of a sine)
+    const rpm = displacementGovernsBelowRpm(2, 'rigid');
+    expect(rpm).toBeCloseTo((60 * 2.8) / (2 * Math.PI * 0.045), 9);
+    const f = rpm / 60;
+    expect(2 * Math.PI * f * 0.045).toBeCloseTo(2.8, 12);
   });
 });
