@@ -17,7 +17,7 @@ let seq = 0;
 const TAG = 'MFP-P102-MDE-H';
 let pointId: number;
 
-/** Peak g of a 24.7 Hz tone of `mmS` mm/s RMS: a = v·√2·2πf (sine; REFERENCES.md). */
+/** Peak g of a 24.7 Hz tone of `mmS` mm/s RMS: a = v·√2·2πf (calculus of a sinusoid, textbook). */
 const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
 
 async function q(sqlText: string, params: unknown[] = []) {
