@@ -33,7 +33,7 @@ export interface LocalMariadb {
 const SEARCH_DIRS = ['/usr/sbin', '/usr/bin', '/usr/local/sbin', '/usr/local/bin'];
 const SERVER_USER = 'turnstone';
 
-function findProgram(names: string[]): string | null {
+export function findProgram(names: string[]): string | null {
   for (const name of names) {
     for (const dir of SEARCH_DIRS) {
       const path = join(dir, name);
@@ -41,6 +41,49 @@ function findProgram(names: string[]): string | null {
     }
   }
   return null;
+}
+
+/** A program the product runs and the Debian package that provides it. */
+export interface DebianProgram {
+  /** Names to look for, preferred first (e.g. `mariadb-dump`, then `mysqldump`). */
+  programs: string[];
+  pkg: string;
+}
+
+/**
+ * Finds each program; when any is missing and we run as root, installs the Debian packages
+ * that provide the missing ones with apt-get, otherwise stops with a message naming them.
+ * Returns the programs' paths in the order asked.
+ */
+export function ensureDebianPrograms(
+  wanted: DebianProgram[],
+  log: (m: string) => void = () => {},
+): string[] {
+  const missing = wanted.filter((w) => !findProgram(w.programs)).map((w) => w.pkg);
+  const pkgs = [...new Set(missing)];
+  if (pkgs.length > 0) {
+    if (process.getuid?.() !== 0) {
+      throw new Error(
+        `Missing Debian package(s): ${pkgs.join(', ')}. Install them ` +
+          `(sudo apt-get install ${pkgs.join(' ')})` +
+          (pkgs.includes('mariadb-server') ? ' or set DATABASE_URL to an existing server.' : '.'),
+      );
+    }
+    log(`Installing Debian's ${pkgs.join(', ')} (first use only)…`);
+    const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+    for (const args of [
+      ['update', '-qq'],
+      ['install', '-y', '-qq', ...pkgs],
+    ]) {
+      const r = spawnSync('apt-get', args, { stdio: 'inherit', env });
+      if (r.status !== 0) throw new Error(`apt-get ${args.join(' ')} failed (exit ${r.status}).`);
+    }
+  }
+  return wanted.map((w) => {
+    const path = findProgram(w.programs);
+    if (!path) throw new Error(`${w.pkg} was installed but ${w.programs[0]} was not found.`);
+    return path;
+  });
 }
 
 /**
@@ -51,29 +94,14 @@ export function ensureMariadbInstalled(log: (m: string) => void = () => {}): {
   server: string;
   installDb: string;
 } {
-  let server = findProgram(['mariadbd', 'mysqld']);
-  let installDb = findProgram(['mariadb-install-db', 'mysql_install_db']);
-  if (server && installDb) return { server, installDb };
-  if (process.getuid?.() !== 0) {
-    throw new Error(
-      "MariaDB is not installed. Install Debian's package 'mariadb-server' " +
-        '(sudo apt-get install mariadb-server) or set DATABASE_URL to an existing server.',
-    );
-  }
-  log("Installing Debian's mariadb-server (first start only)…");
-  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
-  for (const args of [
-    ['update', '-qq'],
-    ['install', '-y', '-qq', 'mariadb-server'],
-  ]) {
-    const r = spawnSync('apt-get', args, { stdio: 'inherit', env });
-    if (r.status !== 0) throw new Error(`apt-get ${args.join(' ')} failed (exit ${r.status}).`);
-  }
-  server = findProgram(['mariadbd', 'mysqld']);
-  installDb = findProgram(['mariadb-install-db', 'mysql_install_db']);
-  if (!server || !installDb)
-    throw new Error('mariadb-server was installed but mariadbd was not found.');
-  return { server, installDb };
+  const [server, installDb] = ensureDebianPrograms(
+    [
+      { programs: ['mariadbd', 'mysqld'], pkg: 'mariadb-server' },
+      { programs: ['mariadb-install-db', 'mysql_install_db'], pkg: 'mariadb-server' },
+    ],
+    log,
+  );
+  return { server: server!, installDb: installDb! };
 }
 
 export async function freePort(): Promise<number> {
