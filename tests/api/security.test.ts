@@ -1,6 +1,9 @@
 /** Security baseline (OWASP ASVS 5.0 level 2 where it applies): headers, cookies, logs. */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import bcrypt from 'bcryptjs';
+import { request } from 'node:http';
 import { redact } from '../../apps/server/src/lib/logger.ts';
+import { passwordTasksRun } from '../../apps/server/src/lib/passwords.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { snapshotBody } from '../support/signals.ts';
 
@@ -105,4 +108,107 @@ describe('logs', () => {
     ])
       expect(all).not.toContain(secret);
   });
+});
+
+describe('password links under a flood of made-up tokens', () => {
+  it('a made-up token costs no bcrypt on any thread, and bcrypt never runs on the event loop', async () => {
+    // OWASP ASVS 5.0 V6 (authentication): verify the link before any costly work.
+    const onMainThread = [
+      vi.spyOn(bcrypt, 'hash'),
+      vi.spyOn(bcrypt, 'hashSync'),
+      vi.spyOn(bcrypt, 'compare'),
+      vi.spyOn(bcrypt, 'compareSync'),
+    ];
+    try {
+      const before = passwordTasksRun();
+      for (const path of ['/api/v1/auth/reset-password', '/api/v1/auth/accept-invite']) {
+        const res = await srv.call('POST', path, {
+          body: { token: 'x'.repeat(43), password: 'a-new-password-1' },
+          headers: { 'x-forwarded-for': '198.51.100.7' },
+        });
+        expect(res.status).toBe(400);
+        expect((await res.json()).error.code).toBe('link_invalid');
+      }
+      expect(passwordTasksRun()).toBe(before);
+      // A real check (sign-in) goes to the pool, not the main thread.
+      await srv.signIn('admin');
+      expect(passwordTasksRun()).toBe(before + 1);
+      for (const spy of onMainThread) expect(spy).not.toHaveBeenCalled();
+    } finally {
+      for (const spy of onMainThread) spy.mockRestore();
+    }
+  });
+
+  it('both link routes are rate-limited per client, with the seconds left in Retry-After', async () => {
+    // Limit: SIGN_IN_MAX_PER_IP (default 50) failed link attempts per window per client.
+    for (const path of ['/api/v1/auth/reset-password', '/api/v1/auth/accept-invite']) {
+      const ip = path.includes('reset') ? '198.51.100.20' : '198.51.100.21';
+      const send = () =>
+        srv.call('POST', path, {
+          body: { token: 'y'.repeat(43), password: 'a-new-password-1' },
+          headers: { 'x-forwarded-for': ip },
+        });
+      for (let i = 0; i < 50; i++) expect((await send()).status).toBe(400);
+      const res = await send();
+      expect(res.status).toBe(429);
+      expect((await res.json()).error.code).toBe('rate_limited');
+      const retry = Number(res.headers.get('retry-after'));
+      expect(retry).toBeGreaterThan(0);
+      expect(retry).toBeLessThanOrEqual(15 * 60);
+      // Another client is not affected.
+      const other = await srv.call('POST', path, {
+        body: { token: 'y'.repeat(43), password: 'a-new-password-1' },
+        headers: { 'x-forwarded-for': '198.51.100.99' },
+      });
+      expect(other.status).toBe(400);
+    }
+  });
+});
+
+describe('DNS rebinding and demo accounts on a network', () => {
+  const withHost = (host: string, method = 'GET', path = '/api/health') =>
+    new Promise<{ status: number; body: string }>((resolve, reject) => {
+      const req = request(
+        `${srv.url}${path}`,
+        { method, headers: { host, origin: `http://${host}`, 'content-type': 'application/json' } },
+        (res) => {
+          let body = '';
+          res.on('data', (d) => (body += d));
+          res.on('end', () => resolve({ status: res.statusCode ?? 0, body }));
+        },
+      );
+      req.on('error', reject);
+      req.end(
+        method === 'POST'
+          ? JSON.stringify({ email: 'admin@turnstone.local', password: 'turnstone-demo' })
+          : undefined,
+      );
+    });
+
+  it('answers 421 to a host name it is not known by, also for a same-origin sign-in', async () => {
+    // A rebound name: the page's Origin and the Host agree, so only the name gives it away.
+    const health = await withHost('rebound.example:8080');
+    expect(health.status).toBe(421);
+    expect(JSON.parse(health.body).error.code).toBe('unknown_host');
+    const signIn = await withHost('rebound.example:8080', 'POST', '/api/v1/auth/sign-in');
+    expect(signIn.status).toBe(421);
+    const page = await withHost('rebound.example', 'GET', '/');
+    expect(page.status).toBe(421);
+    for (const known of ['localhost', '127.0.0.1', '[::1]'])
+      expect((await withHost(`${known}:${srv.port}`)).status).toBe(200);
+  });
+
+  it('refuses HOST=0.0.0.0 while demo accounts accept the published password, unless allowed', async () => {
+    await expect(startTestServer({ HOST: '0.0.0.0' })).rejects.toThrow(
+      /ALLOW_DEMO_PASSWORD_ON_NETWORK/,
+    );
+    const before = logged.length;
+    const open = await startTestServer({
+      HOST: '0.0.0.0',
+      ALLOW_DEMO_PASSWORD_ON_NETWORK: 'true',
+      LOG_LEVEL: 'warn',
+    });
+    await open.stop();
+    expect(logged.slice(before).join('')).toMatch(/Demo accounts accept the demo password/);
+  }, 150_000);
 });

@@ -1,8 +1,15 @@
+import { execFile } from 'node:child_process';
+import { promisify } from 'node:util';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeWav } from '@turnstone/dsp';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { toneCounts } from '../support/signals.ts';
+import { prng, toneCounts } from '../support/signals.ts';
+import { floatWavBytes, pcmWavBytes } from '../support/wav-bytes.ts';
 
 let srv: TestServer;
 let engineer: string;
@@ -160,5 +167,101 @@ describe('uploads of recordings', () => {
       raw: form,
     });
     expect(denied.status).toBe(403);
+  });
+});
+
+// The analyzer CLI (npm run analyze) and an upload read the same file the same way: one
+// reader, full scale of the container, float 1.0 = full scale = the given volts.
+describe('the analyzer CLI and an upload of the same file', { timeout: 120_000 }, () => {
+  const root = resolve(fileURLToPath(new URL('.', import.meta.url)), '../..');
+  const dir = mkdtempSync(join(tmpdir(), 'turnstone-same-'));
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+  const FS = 25600;
+  const N = 16384;
+  /** 120 Hz at `fraction` of full scale plus 1 % of noise and a 3.1 kHz tone (definition). */
+  const signal = (fraction: number, seed: number) => {
+    const r = prng(seed);
+    return Array.from(
+      { length: N },
+      (_, i) =>
+        fraction *
+        (Math.sin((2 * Math.PI * 120 * i) / FS) +
+          0.2 * Math.sin((2 * Math.PI * 3100 * i) / FS + 1) +
+          0.01 * (r() - 0.5)),
+    );
+  };
+  const toCodes = (x: number[], bits: number) => x.map((v) => Math.round(v * 2 ** (bits - 1)) || 0);
+  const files = [
+    // Microsoft WAVEFORMATEXTENSIBLE: 20 valid bits in a 24-bit container
+    {
+      name: 'extensible-20in24.wav',
+      bytes: pcmWavBytes(toCodes(signal(0.4, 1), 20), FS, 24, 20),
+      fullScaleV: '2.5',
+    },
+    // IEEE float: ±1.0 is full scale, here 5 V
+    {
+      name: 'float.wav',
+      bytes: floatWavBytes(signal(0.3, 2), FS),
+      fullScaleV: '5',
+    },
+    {
+      name: 'plain-16.wav',
+      bytes: pcmWavBytes(toCodes(signal(0.5, 3), 16), FS, 16),
+      fullScaleV: '1',
+    },
+  ];
+
+  it.each(files)('$name gives the same overall values, verdict and bits used', async (f) => {
+    const path = join(dir, f.name);
+    writeFileSync(path, f.bytes);
+    const res = await upload(f.bytes, f.name, {
+      sensitivityMvPerG: '100',
+      fullScaleV: f.fullScaleV,
+      speedRpm: '1480',
+    });
+    expect(res.status).toBe(201);
+    const { snapshotId } = await res.json();
+    await createWorker(srv.ctx).drain();
+    const snap = await (
+      await srv.call('GET', `/api/v1/snapshots/${snapshotId}`, { cookie: engineer })
+    ).json();
+    expect(snap.status).toBe('done');
+    const [p] = await q('SELECT fmax_hz, `lines` FROM points WHERE id = ?', [pointId]);
+    const fmax = Math.min(Number(p!.fmax_hz), FS / 2.56);
+    // Asynchronously: the server runs in this process and must keep serving meanwhile.
+    const cli = await promisify(execFile)(
+      join(root, 'node_modules', '.bin', 'tsx'),
+      [
+        join(root, 'packages/dsp/bin/analyze.ts'),
+        path,
+        '--json',
+        '--rpm',
+        '1480',
+        '--sensitivity',
+        '100',
+        '--full-scale',
+        f.fullScaleV,
+        '--fmax',
+        String(fmax),
+        '--lines',
+        String(p!.lines),
+      ],
+      { encoding: 'utf8', cwd: root },
+    );
+    expect(cli.stderr).toBe('');
+    const j = JSON.parse(cli.stdout);
+    const a = snap.analysis;
+    expect(a.qualityVerdict).toBe(j.quality.verdict);
+    expect(a.qualityVerdict).toBe('ok'); // not "clipped", not 16× too high
+    expect(a.bitsUsed).toBeCloseTo(j.quality.bitsUsed, 9);
+    for (const [ours, theirs] of [
+      [a.accelRmsG, j.overall.accelRmsG],
+      [a.accelPeakG, j.overall.accelPeakG],
+      [a.velocityRmsMmS, j.overall.velocityRmsMmS],
+      [a.displacementPkPkUm, j.overall.displacementPkPkUm],
+      [a.crestFactor, j.overall.crestFactor],
+      [a.kurtosis, j.overall.kurtosis],
+    ])
+      expect(ours / theirs).toBeCloseTo(1, 9);
   });
 });

@@ -3,7 +3,7 @@
  * while it is away, recovers by itself, and afterwards every snapshot is stored exactly once.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdtempSync } from 'node:fs';
+import { mkdtempSync, readFileSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import mysql from 'mysql2/promise';
@@ -34,6 +34,31 @@ beforeAll(async () => {
 afterAll(async () => {
   await srv?.stop();
   await db?.stop();
+});
+
+describe('the private MariaDB is private', () => {
+  it('root needs the generated password, the folder and password files are private, no TCP', async () => {
+    // common practice, no source: a database of one user, reachable by that user alone.
+    await expect(
+      mysql.createConnection({ socketPath: db.socket, user: 'root', password: '' }),
+    ).rejects.toMatchObject({ code: 'ER_ACCESS_DENIED_ERROR' });
+    const rootPassword = readFileSync(join(db.dir, 'root-password'), 'utf8').trim();
+    expect(rootPassword.length).toBeGreaterThanOrEqual(20);
+    expect(statSync(join(db.dir, 'root-password')).mode & 0o777).toBe(0o600);
+    expect(statSync(join(db.dir, 'password')).mode & 0o777).toBe(0o600);
+    expect(statSync(db.dir).mode & 0o777).toBe(0o700);
+    expect(statSync(db.socket).mode & 0o077).toBe(0);
+    const root = await mysql.createConnection({
+      socketPath: db.socket,
+      user: 'root',
+      password: rootPassword,
+    });
+    const [rows] = await root.query('SELECT @@skip_networking AS off');
+    await root.end();
+    expect(Number((rows as { off: number }[])[0]!.off)).toBe(1);
+    expect(db.port).toBe(0);
+    expect(db.url).not.toMatch(/@127\.0\.0\.1:/);
+  });
 });
 
 async function signInAdmin(): Promise<string> {

@@ -11,6 +11,7 @@ import { apiNotFound, errorMiddleware } from './lib/error-middleware.ts';
 import { mountRoutes, type RouteSpec } from './lib/route-table.ts';
 import { webDist } from './lib/web-build.ts';
 import { trackRequest } from './lib/request-log.ts';
+import { hostCheck } from './lib/allowed-hosts.ts';
 import { authRouter, authRoutes, createAuthenticate } from './features/auth/auth-router.ts';
 import { fleetRoutes } from './features/fleet/fleet-router.ts';
 import { healthRouter } from './features/health/health-router.ts';
@@ -92,6 +93,9 @@ export function createApp(ctx: AppContext) {
   // page headers (CSP, frame and referrer policy…) mean nothing to a gateway and gzip does
   // not pay for answers of a hundred bytes. (Its POST never reaches Express: httpHandler.)
   app.use('/api/ingest/v1', ingestRouter());
+  // Browser-facing routes answer only to the names this server is known by (gateways
+  // authenticate with a key, which a rebound page does not have).
+  app.use(hostCheck(ctx.config));
   app.use(
     helmet({
       contentSecurityPolicy: {

@@ -18,6 +18,7 @@ import { loadOrCreateSecrets } from './lib/secrets.ts';
 import { ensureWebBuilt } from './lib/web-build.ts';
 import { backup } from './backup/backup.ts';
 import { seedIfEmpty } from './features/demo/demo-seed.ts';
+import { checkDemoExposure } from './features/demo/demo-exposure.ts';
 import { createWorker, type Worker } from './features/worker/worker.ts';
 import { startMail, type MailRuntime } from './features/mail/mail-runtime.ts';
 
@@ -73,6 +74,7 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
       dataDir,
     };
     if (config.SEED_DEMO) await seedIfEmpty(ctx, say);
+    await checkDemoExposure(ctx);
     if (config.BUILD_WEB) await ensureWebBuilt(say);
 
     const server: Server = await new Promise((resolveListen, reject) => {

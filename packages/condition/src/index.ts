@@ -17,3 +17,4 @@ export * from './replay.ts';
 export * from './least-squares.ts';
 export * from './trend-projection.ts';
 export * from './machine-templates.ts';
+export * from './diagnosis.ts';

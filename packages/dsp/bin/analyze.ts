@@ -6,16 +6,21 @@ import { basename } from 'node:path';
 import { parseArgs } from 'node:util';
 import {
   analyzeSnapshot,
+  CSV_DEFAULT_BITS,
+  CSV_DEFAULT_FULL_SCALE_V,
   parseWindowName,
   readCsv,
-  readWav,
+  wavCapture,
   type SnapshotAnalysis,
   type SnapshotInput,
 } from '../src/index.ts';
 
 const USAGE = `usage: npm run analyze -- <file.wav|file.csv> [--rpm N] [--sensitivity MV_PER_G] [--bits N]
        [--full-scale VOLTS] [--fmax HZ] [--lines N] [--window hann|flattop|hamming|rect]
-       [--rate HZ] [--unit g|volts] [--json]`;
+       [--rate HZ] [--unit g|volts] [--json]
+WAV: --full-scale is the volts at the container's full scale (PCM) and at 1.0 (float), default 1;
+     --bits defaults to the file's valid bits (24 for float). Uploads read WAV the same way.
+CSV: values in g (or volts with --unit volts); --bits and --full-scale default to 24 and 10.`;
 
 class UsageError extends Error {}
 
@@ -36,7 +41,7 @@ function buildInput(
   flags: Record<string, string | boolean | undefined>,
 ): SnapshotInput {
   const sensitivityMvPerG = number(flags.sensitivity as string | undefined, 'sensitivity') ?? 100; // common practice
-  const fullScaleV = number(flags['full-scale'] as string | undefined, 'full-scale') ?? 1.0;
+  const fullScaleFlag = number(flags['full-scale'] as string | undefined, 'full-scale');
   const bitsFlag = number(flags.bits as string | undefined, 'bits', true);
   const rpm = number(flags.rpm as string | undefined, 'rpm');
   const fmaxHz = number(flags.fmax as string | undefined, 'fmax');
@@ -51,12 +56,16 @@ function buildInput(
   };
   const isRiff = bytes.length >= 4 && String.fromCharCode(...bytes.subarray(0, 4)) === 'RIFF';
   if (isRiff || /\.wav$/i.test(file)) {
-    const wav = readWav(bytes);
+    // The same reading as uploads: full scale of the container, float 1.0 = full scale.
+    const wav = wavCapture(bytes, {
+      ...(fullScaleFlag === undefined ? {} : { fullScaleV: fullScaleFlag }),
+      ...(bitsFlag === undefined ? {} : { bits: bitsFlag }),
+    });
     return {
       samples: wav.samples,
       encoding: wav.encoding,
       sampleRateHz: wav.sampleRateHz,
-      adc: { bits: bitsFlag ?? (wav.encoding === 'float32' ? 24 : wav.validBits), fullScaleV },
+      adc: wav.adc,
       ...common,
     };
   }
@@ -81,7 +90,10 @@ function buildInput(
     samples,
     encoding: 'float32',
     sampleRateHz: rate,
-    adc: { bits: bitsFlag ?? 24, fullScaleV },
+    adc: {
+      bits: bitsFlag ?? CSV_DEFAULT_BITS,
+      fullScaleV: fullScaleFlag ?? CSV_DEFAULT_FULL_SCALE_V,
+    },
     ...common,
   };
 }

@@ -1,7 +1,7 @@
 import { bandRms, type PowerSpectrum } from './band-rms.ts';
 import { bandValues, checkBands, type BandDefinition, type BandValue } from './band-values.ts';
 import { parseEncoding, type SampleEncoding } from './decode-samples.ts';
-import { envelopeSpectrum } from './envelope.ts';
+import { defaultEnvelopeBandHz, envelopeSpectrum } from './envelope.ts';
 import {
   faultFrequencies,
   type FaultFrequency,
@@ -19,6 +19,7 @@ import {
 } from './quality-verdict.ts';
 import { scaleToAcceleration } from './scale-samples.ts';
 import { scratch } from './scratch.ts';
+import { shaftVectors, type ShaftVector } from './shaft-vector.ts';
 import { findPeaks } from './spectral-peaks.ts';
 import { estimateSpeed } from './speed-estimate.ts';
 import { waveformStatistics } from './waveform-statistics.ts';
@@ -68,12 +69,17 @@ export interface SnapshotInput {
   isoBand?: IsoBand;
   /** Bands to report (see {@link BandDefinition}). @default [] */
   bands?: BandDefinition[];
+  /**
+   * Envelope band-pass edges, Hz: the point's own, set by the engineer around the
+   * resonance its bearing impacts excite. Independent of Fmax (the resonance usually lies
+   * far above a point's analysis Fmax).
+   * @default defaultEnvelopeBandHz(sampleRateHz), [fs/10.24, fs/2.56]
+   */
+  envelopeBandHz?: readonly [number, number];
 }
 
 /** Secondary settings of {@link analyzeSnapshot}. */
 export interface AnalyzeSnapshotOptions {
-  /** Envelope band-pass edges, Hz. @default [Fmax/4, Fmax] */
-  envelopeBandHz?: readonly [number, number];
   /** Highest envelope-spectrum frequency stored, Hz. @default min(1000, envelope band width) */
   envelopeFmaxHz?: number;
   /** Highest order stored in the order spectrum. @default min(100, Fmax / shaft speed) */
@@ -135,8 +141,9 @@ export interface SnapshotAnalysis {
     };
     /** Velocity by frequency-domain integration, mm/s RMS, zero below the ISO band's lower edge. */
     velocity: HzSpectrum & { unit: 'mm/s'; scale: 'rms'; lowCutoffHz: number };
-    /** Envelope spectrum, g peak (line 0 = mean envelope), or null when the record is too short. */
-    envelope: (HzSpectrum & { unit: 'g'; scale: 'peak'; bandHz: [number, number] }) | null;
+    /** Envelope spectrum, g peak (mean removed first: line 0 is 0, the mean is `meanG`), or null when the record is too short. */
+    envelope:
+      (HzSpectrum & { unit: 'g'; scale: 'peak'; bandHz: [number, number]; meanG: number }) | null;
     /** Acceleration in orders (g RMS per line at k · dOrder), or null without a speed. */
     order: {
       unit: 'g';
@@ -150,6 +157,8 @@ export interface SnapshotAnalysis {
   peaks: { hz: number; order: number | null; amplitude: number }[];
   faultFrequencies: FaultFrequency[];
   bandValues: BandValue[];
+  /** 1× and 2× vectors (amplitude, phase lag against the tach pulse; see {@link ShaftVector}), or null without a tach. */
+  shaftVectors: ShaftVector[] | null;
 }
 
 function positive(value: unknown, what: string): number {
@@ -238,6 +247,7 @@ export function analyzeSnapshot(
     encoding,
     bits,
     fullScaleV,
+    sensitivityMvPerG,
     sampleRateHz: fs,
     fmaxHz,
     ...(input.antiAliasCutoffHz === undefined
@@ -315,7 +325,7 @@ export function analyzeSnapshot(
   // ---- envelope
   let envelope: SnapshotAnalysis['spectra']['envelope'] = null;
   let envelopePower: PowerSpectrum | null = null;
-  const envBand = options.envelopeBandHz ?? [fmaxHz / 4, fmaxHz];
+  const envBand = envelopeBandFor(input.envelopeBandHz, fs);
   if (n >= 256) {
     const env = envelopeSpectrum(accel, {
       sampleRateHz: fs,
@@ -336,6 +346,7 @@ export function analyzeSnapshot(
       values,
       window: env.window,
       bandHz: env.bandHz,
+      meanG: env.mean,
     };
     envelopePower = { power, dfHz: env.dfHz, enbwBins: env.enbwBins };
   }
@@ -449,7 +460,28 @@ export function analyzeSnapshot(
     peaks,
     faultFrequencies: faults,
     bandValues: values,
+    shaftVectors:
+      speed.source === 'tach' && input.tach
+        ? shaftVectors(accel, input.tach, { sampleRateHz: fs, orders: [1, 2] })
+        : null,
   };
+}
+
+/**
+ * The point's envelope band as this capture can hold it: its top limited to the alias-free
+ * fs/2.56; a band that leaves nothing below that (a capture at a lower rate than the band
+ * was set for) falls back to the default from the sample rate. The band used is reported.
+ */
+function envelopeBandFor(
+  band: readonly [number, number] | undefined,
+  fs: number,
+): readonly [number, number] {
+  if (band === undefined) return defaultEnvelopeBandHz(fs);
+  const [lo, hi] = band;
+  if (!(lo >= 0) || !(hi > lo) || !Number.isFinite(hi))
+    throw new RangeError(`envelopeBandHz must satisfy 0 ≤ lo < hi, got [${lo}, ${hi}]`);
+  const top = Math.min(hi, fs / 2.56);
+  return top > lo ? [lo, top] : defaultEnvelopeBandHz(fs);
 }
 
 /** Power-of-two length giving ≥ 12.8 samples per cycle at `hiHz`, or n when that is not shorter. */

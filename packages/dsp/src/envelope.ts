@@ -10,7 +10,7 @@ export interface EnvelopeOptions {
   /**
    * Band-pass edges [lo, hi] in Hz around the structural resonance the bearing impacts
    * excite.
-   * @default [fs/10.24, fs/2.56] (Fmax/4 … Fmax; common practice, no source)
+   * @default {@link defaultEnvelopeBandHz}(fs)
    */
   bandHz?: readonly [number, number];
   /**
@@ -31,13 +31,26 @@ export interface BandEnvelope {
   bandHz: [number, number];
 }
 
+/**
+ * Default envelope band from the sample rate, not from a point's analysis Fmax:
+ * [fs/10.24, fs/2.56], the upper three quarters of the alias-free band (2.5–10 kHz at
+ * 25.6 kHz), where the structural resonances that bearing impacts excite usually lie.
+ * Source: Randall & Antoni 2011, MSSP 25:485–520 (demodulate a high-frequency band where
+ * the impacts dominate); the edges are common practice, no source.
+ */
+export function defaultEnvelopeBandHz(sampleRateHz: number): [number, number] {
+  if (!(sampleRateHz > 0))
+    throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
+  return [sampleRateHz / 10.24, sampleRateHz / 2.56];
+}
+
 function checkBand(
   fs: number,
   n: number,
   band: readonly [number, number] | undefined,
 ): [number, number] {
   if (!(fs > 0)) throw new RangeError(`sampleRateHz must be positive, got ${fs}`);
-  const [lo, hi] = band ?? [fs / 10.24, fs / 2.56];
+  const [lo, hi] = band ?? defaultEnvelopeBandHz(fs);
   if (!(lo >= 0) || !(hi > lo) || hi > fs / 2) {
     throw new RangeError(`envelope band must satisfy 0 ≤ lo < hi ≤ fs/2, got [${lo}, ${hi}]`);
   }
@@ -110,8 +123,10 @@ export interface EnvelopeSpectrumOptions extends EnvelopeOptions {
 
 /** Envelope spectrum in peak amplitude (a modulation of depth m on a carrier of amplitude A reads m·A). */
 export interface EnvelopeSpectrum {
-  /** Peak amplitude per line, input unit (line 0 is the envelope's mean). */
+  /** Peak amplitude per line, input unit; the mean is removed first, so line 0 is 0. */
   amplitude: Float64Array;
+  /** The envelope's (window-weighted) mean, input unit: the carrier's amplitude. */
+  mean: number;
   /** Line spacing in Hz (fs / N of the input). */
   dfHz: number;
   bandHz: [number, number];
@@ -121,10 +136,12 @@ export interface EnvelopeSpectrum {
 }
 
 /**
- * Envelope spectrum for bearing diagnostics: band-pass, envelope (analytic signal), FFT
- * of the whole envelope through a window, single-sided peak amplitude with the window's
- * coherent gain removed (the DC line is the envelope's mean).
- * (1 + 0.5 cos 2π·100t)·cos 2π·3000t reads 1.0 at DC and 0.5 at 100 Hz.
+ * Envelope spectrum for bearing diagnostics: band-pass, envelope (analytic signal), mean
+ * removed, FFT of the whole envelope through a window, single-sided peak amplitude with
+ * the window's coherent gain removed. The mean (returned apart) would otherwise fill line
+ * 0 and, through the window's main lobe, the lowest lines where the fault lines of slow
+ * shafts sit; it is the window-weighted mean, so a constant envelope leaves nothing at all.
+ * (1 + 0.5 cos 2π·100t)·cos 2π·3000t reads mean 1.0 and 0.5 at 100 Hz.
  *
  * Source: Randall & Antoni 2011, MSSP 25:485–520 (envelope analysis); Harris 1978
  * (coherent gain).
@@ -137,8 +154,11 @@ export function envelopeSpectrum(
   const m = env.envelope.length;
   const windowName = options.window ?? 'hann';
   const window = getWindow(windowName, m);
+  let weighted = 0;
+  for (let i = 0; i < m; i++) weighted += env.envelope[i]! * window.values[i]!;
+  const mean = weighted / window.sum;
   const frame = scratch('envelope-frame', m);
-  for (let i = 0; i < m; i++) frame[i] = env.envelope[i]! * window.values[i]!;
+  for (let i = 0; i < m; i++) frame[i] = (env.envelope[i]! - mean) * window.values[i]!;
   const out = scratch('envelope-out', 2 * m);
   getFftPlan(m).realForward(out, frame);
   const df = env.sampleRateHz / m;
@@ -153,5 +173,12 @@ export function envelopeSpectrum(
     const mag = Math.sqrt(re * re + im * im);
     amplitude[k] = ((k === 0 ? 1 : 2) * mag) / window.sum;
   }
-  return { amplitude, dfHz: df, bandHz: env.bandHz, window: windowName, enbwBins: window.enbwBins };
+  return {
+    amplitude,
+    mean,
+    dfHz: df,
+    bandHz: env.bandHz,
+    window: windowName,
+    enbwBins: window.enbwBins,
+  };
 }

@@ -20,6 +20,8 @@ export * from './scale-samples.ts';
 export * from './spectral-peaks.ts';
 export * from './speed-estimate.ts';
 export * from './units.ts';
+export * from './wav-capture.ts';
 export * from './waveform-statistics.ts';
 export * from './welch.ts';
 export * from './window-functions.ts';
+export * from './shaft-vector.ts';

@@ -6,7 +6,16 @@ import { welch } from './welch.ts';
 /** Overall judgement of a capture. */
 export type QualityVerdict = 'ok' | 'suspect' | 'unusable';
 /** What a finding is about. */
-export type QualityCode = 'clipped' | 'under-range' | 'alias-risk' | 'bias' | 'flatline' | 'spikes';
+export type QualityCode =
+  | 'clipped'
+  | 'flat-top'
+  | 'under-range'
+  | 'no-signal'
+  | 'alias-risk'
+  | 'bias'
+  | 'drift'
+  | 'flatline'
+  | 'spikes';
 
 /** One thing wrong with a capture, in words an engineer can act on. */
 export interface QualityFinding {
@@ -34,6 +43,12 @@ export interface QualityMetrics {
   stuckFraction: number;
   /** Isolated impulses found. */
   spikeCount: number;
+  /** Fraction of samples on flat tops away from the rails (runs held within a hair of the extreme). */
+  flatTopFraction: number;
+  /** RMS of the straight line fitted over the capture ÷ RMS of what is left (0 for none). */
+  driftRatio: number;
+  /** RMS of the capture (mean removed) in g, or null when no sensitivity was given. */
+  rmsG: number | null;
 }
 
 /** Result of {@link assessQuality}. */
@@ -62,8 +77,16 @@ export const UNDER_RANGE_SUSPECT_BITS = 8;
 export const UNDER_RANGE_UNUSABLE_BITS = 4;
 /** Minimum samples per Fmax: fs ≥ 2.56·Fmax (common practice for analyser anti-alias filters). */
 export const ALIAS_MIN_SAMPLES_PER_FMAX = 2.56;
-/** More than this fraction of the power between fs/2.56 and Nyquist makes the capture `suspect`. */
-export const ALIAS_GUARD_BAND_POWER_FRACTION = 0.5;
+/**
+ * More than this fraction of the power between fs/2.56 and Nyquist (the guard band, where
+ * the anti-alias filter rolls off) makes the capture `suspect`. Rule: a working filter has
+ * started attenuating at fs/2.56, so the guard band's mean power density must stay below
+ * that of the band under it. Equal density (white noise, or broadband content folded from
+ * above Nyquist) puts the guard band's share of the width, (fs/2 − fs/2.56)/(fs/2) = 0.28/1.28
+ * = 21.9 %, of the power there; more than that is flagged. Derived from the definition of
+ * the guard band; 2.56 is common practice, no source.
+ */
+export const ALIAS_GUARD_BAND_POWER_FRACTION = 1 - 2 / ALIAS_MIN_SAMPLES_PER_FMAX;
 /** |mean| above this fraction of full scale makes the capture `suspect` (sensor bias or coupling fault). */
 export const BIAS_FRACTION_SUSPECT = 0.1;
 /** |mean| above this fraction of full scale makes the capture `unusable`. */
@@ -74,8 +97,47 @@ export const FLATLINE_MAX_PEAK_TO_PEAK_COUNTS = 1;
 export const FLATLINE_STUCK_FRACTION_SUSPECT = 0.05;
 /** A spike deviates from the mean by more than this many standard deviations… */
 export const SPIKE_SIGMA_MULTIPLE = 10;
-/** …while both neighbours deviate by less than this fraction of it (an isolated sample). */
+/** …while every other sample within ±{@link SPIKE_NEIGHBOUR_SPAN} deviates by less than this fraction of it. */
 export const SPIKE_NEIGHBOUR_RATIO = 0.3;
+/**
+ * Samples each side that must stay quiet for an impulse to count as a spike. An impact
+ * that rings a structural resonance below 0.45·fs (damping ratio ≤ 0.1) puts another
+ * sample of at least a third of its largest one within 3 samples of it, so it is never an
+ * isolated sample; a single-sample electrical spike is. (Damped-sine definition; the span
+ * and ratio are engineering judgement, no source.)
+ */
+export const SPIKE_NEIGHBOUR_SPAN = 3;
+/**
+ * Flat tops away from the rails (a saturated sensor or amplifier): a run of at least
+ * {@link FLAT_TOP_MIN_RUN} samples within this fraction of the peak-to-peak of the
+ * extreme value…
+ */
+export const FLAT_TOP_TOLERANCE = 0.002;
+/** …at least this many consecutive samples (rules out the few samples of a fast tone's crest)… */
+export const FLAT_TOP_MIN_RUN = 3;
+/**
+ * …where the samples within one tolerance of the extreme outnumber those in the next four
+ * tolerances by this factor. A smooth crest cannot: a sine's values follow the arcsine law,
+ * whose ratio tends to √2/(√10 − √2) = 0.81 near the crest; a held level is a pile-up.
+ */
+export const FLAT_TOP_PILE_UP_RATIO = 3;
+/** …on more than this fraction of the samples (0.5 %) on either side. Engineering judgement. */
+export const FLAT_TOP_MIN_FRACTION = 0.005;
+/**
+ * Drift/settling: a straight line fitted over the whole capture with an RMS above this
+ * fraction of the RMS left around it. A stationary signal cannot get there: the line
+ * explains little of a sine with k cycles in the capture (the projection of a sine onto a
+ * line, ≈ 6/(πk)² of its variance): the ratio stays below 0.44 for any sine with 1.5
+ * cycles or more in the capture, while a sensor settling after power-up (an exponential
+ * over the capture) is mostly line. Engineering judgement for the value.
+ */
+export const DRIFT_LINE_RATIO = 0.5;
+/**
+ * A capture whose RMS is below this many g carries no machine signal: a dead or
+ * disconnected sensor, or a stopped machine (0.5 mg RMS is a few times the broadband noise
+ * of a general-purpose 100 mV/g accelerometer, from memory; engineering judgement).
+ */
+export const NO_SIGNAL_RMS_G = 0.5e-3;
 
 /** Options for {@link assessQuality}. */
 export interface QualityOptions {
@@ -87,6 +149,11 @@ export interface QualityOptions {
   fullScaleV?: number;
   /** Sample rate in Hz; needed for the alias checks. @default undefined (alias checks skipped) */
   sampleRateHz?: number;
+  /**
+   * Sensor sensitivity in mV/g; needed for the no-signal check (a level in g).
+   * @default undefined (no-signal check skipped)
+   */
+  sensitivityMvPerG?: number;
   /** Analysis Fmax in Hz. @default sampleRateHz / 2.56 */
   fmaxHz?: number;
   /** Anti-alias filter cutoff in Hz, when the gateway reports it. @default undefined */
@@ -106,13 +173,13 @@ function fmt(value: number, digits = 3): string {
 }
 
 /**
- * Measurement-quality verdict of a capture from its raw ADC counts: clipping, bits used
- * (under-range), alias risk, DC bias, flatline and spikes. The verdict is the worst
- * severity among the findings.
+ * Measurement-quality verdict of a capture from its raw ADC counts: clipping at the rails,
+ * flat tops below them, bits used (under-range), no machine signal, alias risk, DC bias,
+ * drift/settling, flatline and spikes. The verdict is the worst severity among the findings.
  *
  * Sources: ideal quantization SNR 6.02·N + 1.76 dB (Kester, Analog Devices MT-001);
  * fs ≥ 2.56·Fmax and guard band (common practice for FFT analysers, no source);
- * thresholds are the exported constants above.
+ * thresholds are the exported constants above, each with its rule.
  */
 export function assessQuality(
   samples: ArrayLike<number>,
@@ -182,19 +249,33 @@ export function assessQuality(
   const biasFraction = mean / half;
   const stuckFraction = longestStuck / n;
 
-  // Spikes: an isolated sample far outside the rest (a real impact rings for several
-  // samples once it has passed the anti-alias filter; a single-sample jump does not).
+  // Spikes: an isolated sample far outside the rest. A real impact rings a resonance for
+  // several samples (see SPIKE_NEIGHBOUR_SPAN); a single-sample jump does not.
   let spikeCount = 0;
   const threshold = SPIKE_SIGMA_MULTIPLE * sigma;
   if (!flat && sigma > 0 && Math.max(max - mean, mean - min) > threshold) {
     for (let i = 0; i < n; i++) {
       const d = Math.abs(samples[i]! * toCounts - mean);
       if (d <= threshold) continue;
-      const before = i > 0 ? Math.abs(samples[i - 1]! * toCounts - mean) : 0;
-      const after = i < n - 1 ? Math.abs(samples[i + 1]! * toCounts - mean) : 0;
-      if (before < SPIKE_NEIGHBOUR_RATIO * d && after < SPIKE_NEIGHBOUR_RATIO * d) spikeCount++;
+      let isolated = true;
+      const from = Math.max(0, i - SPIKE_NEIGHBOUR_SPAN);
+      const to = Math.min(n - 1, i + SPIKE_NEIGHBOUR_SPAN);
+      for (let j = from; j <= to && isolated; j++) {
+        if (j !== i && Math.abs(samples[j]! * toCounts - mean) >= SPIKE_NEIGHBOUR_RATIO * d)
+          isolated = false;
+      }
+      if (isolated) spikeCount++;
     }
   }
+
+  const flatTop = flat ? null : flatTops(samples, toCounts, min, max, half);
+  const drift = flat ? 0 : driftRatio(samples, toCounts, mean, sigma);
+  const sensitivity = options.sensitivityMvPerG;
+  if (sensitivity !== undefined && !(sensitivity > 0 && Number.isFinite(sensitivity)))
+    throw new RangeError(`sensitivityMvPerG must be a positive number, got ${sensitivity}`);
+  const rmsG =
+    sensitivity === undefined ? null : ((sigma / half) * fullScaleV) / (sensitivity / 1000);
+  const noSignal = !flat && rmsG !== null && rmsG < NO_SIGNAL_RMS_G;
 
   let guardBandPowerFraction = 0;
   const fs = options.sampleRateHz;
@@ -228,7 +309,8 @@ export function assessQuality(
         options.antiAliasCutoffHz,
       );
     }
-    if (!flat) {
+    // Without a machine signal the spectrum is the input's own noise: nothing to alias.
+    if (!flat && !noSignal) {
       const spectrum =
         options.spectrum ??
         (() => {
@@ -271,12 +353,30 @@ export function assessQuality(
       railFraction,
     );
   }
+  if (flatTop && flatTop.fraction > 0) {
+    add(
+      'flat-top',
+      'unusable',
+      `the waveform is held flat at ${fmt(100 * flatTop.levelFraction)} % of full scale on ` +
+        `${fmt(100 * flatTop.fraction)} % of samples, below the ADC rails: the sensor or its amplifier ` +
+        'saturated (too much vibration for its range, or a failing sensor); the spectrum is distorted',
+      flatTop.fraction,
+    );
+  }
   if (flat) {
     add(
       'flatline',
       'unusable',
       `no signal: peak-to-peak is ${fmt(peakToPeakCounts)} counts (sensor, cable or power fault?)`,
       peakToPeakCounts,
+    );
+  } else if (noSignal) {
+    add(
+      'no-signal',
+      'unusable',
+      `no machine signal: ${fmt(rmsG! * 1000)} mg RMS is sensor noise and pick-up, not vibration; ` +
+        'check that the sensor is connected (cable, connector, sensor power) and that the machine was running — raising the gain will not help',
+      rmsG!,
     );
   } else {
     if (bitsUsed < UNDER_RANGE_SUSPECT_BITS) {
@@ -304,6 +404,15 @@ export function assessQuality(
       biasFraction,
     );
   }
+  if (drift > DRIFT_LINE_RATIO) {
+    add(
+      'drift',
+      'suspect',
+      `the signal drifts across the capture (a straight line holds ${fmt(drift)} × the RMS of the rest): ` +
+        'a sensor still settling after power-up or a thermal transient; let it settle before capturing',
+      drift,
+    );
+  }
   if (spikeCount > 0) {
     add(
       'spikes',
@@ -329,6 +438,72 @@ export function assessQuality(
       guardBandPowerFraction,
       stuckFraction,
       spikeCount,
+      flatTopFraction: flatTop?.fraction ?? 0,
+      driftRatio: drift,
+      rmsG,
     },
   };
+}
+
+/**
+ * Flat tops at either extreme that is not on a rail (see {@link FLAT_TOP_TOLERANCE} and
+ * the constants after it). Returns the fraction of samples on flat tops, summed over the
+ * sides that qualify, and the held level as a fraction of full scale.
+ */
+function flatTops(
+  samples: ArrayLike<number>,
+  toCounts: number,
+  min: number,
+  max: number,
+  half: number,
+): { fraction: number; levelFraction: number } {
+  const n = samples.length;
+  const tol = Math.max(2, FLAT_TOP_TOLERANCE * (max - min));
+  const upperRail = half - 2;
+  const lowerRail = -half + 1;
+  let fraction = 0;
+  let levelFraction = 0;
+  for (const side of [1, -1] as const) {
+    const extreme = side === 1 ? max : -min;
+    if (side === 1 ? max >= upperRail : min <= lowerRail) continue; // the rails: 'clipped'
+    let top = 0;
+    let near = 0;
+    let inRuns = 0;
+    let run = 0;
+    for (let i = 0; i <= n; i++) {
+      const x = i < n ? side * samples[i]! * toCounts : -Infinity;
+      if (x >= extreme - tol) {
+        top++;
+        run++;
+        continue;
+      }
+      if (run >= FLAT_TOP_MIN_RUN) inRuns += run;
+      run = 0;
+      if (x >= extreme - (1 + 4) * tol) near++;
+    }
+    if (top >= FLAT_TOP_PILE_UP_RATIO * Math.max(near, 1) && inRuns / n > FLAT_TOP_MIN_FRACTION) {
+      fraction += inRuns / n;
+      levelFraction = Math.max(levelFraction, extreme / half);
+    }
+  }
+  return { fraction, levelFraction };
+}
+
+/** RMS of the least-squares line through the capture ÷ RMS of the rest (0 when flat). */
+function driftRatio(
+  samples: ArrayLike<number>,
+  toCounts: number,
+  mean: number,
+  sigma: number,
+): number {
+  const n = samples.length;
+  const centre = (n - 1) / 2;
+  let sxy = 0;
+  for (let i = 0; i < n; i++) sxy += (i - centre) * (samples[i]! * toCounts - mean);
+  const sxx = (n * (n * n - 1)) / 12; // Σ (i − centre)²
+  const lineVariance = (sxy * sxy) / sxx / n;
+  const rest = sigma * sigma - lineVariance;
+  if (!(lineVariance > 0)) return 0;
+  // A capture that is all line gets a large finite ratio (findings travel as JSON).
+  return Math.sqrt(lineVariance / Math.max(rest, lineVariance * 1e-12));
 }

@@ -1,6 +1,15 @@
 import Papa from 'papaparse';
 
 /** A waveform read from CSV text. */
+/**
+ * A CSV carries no ADC facts; unless told, every path that reads one (uploads, the
+ * analyzer CLI) takes it as from a 24-bit, ±10 V front end (common practice for portable
+ * data collectors, no source). These only matter to the quality checks: the values are volts.
+ */
+export const CSV_DEFAULT_BITS = 24;
+/** Volts at full scale assumed for a CSV (see {@link CSV_DEFAULT_BITS}). */
+export const CSV_DEFAULT_FULL_SCALE_V = 10;
+
 export interface CsvRecording {
   values: Float64Array;
   /** From an evenly spaced time column, else null (the caller must know the rate). */

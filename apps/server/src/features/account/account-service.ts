@@ -1,5 +1,4 @@
 /** The signed-in user's own account: password change and notification settings. */
-import bcrypt from 'bcryptjs';
 import { asc, eq, inArray } from 'drizzle-orm';
 import { areas, machines, sites, subscriptions, users } from '@turnstone/db/schema';
 import type { ChangePassword, SubscriptionSettings } from '@turnstone/contracts/account';
@@ -7,7 +6,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
-import { hashPassword } from '../auth/auth-service.ts';
+import { hashPassword, verifyPassword } from '../../lib/passwords.ts';
 
 /** Checks the current password, sets the new one and returns the new token version. */
 export async function changePassword(
@@ -16,7 +15,7 @@ export async function changePassword(
   input: ChangePassword,
 ): Promise<number> {
   const [row] = await ctx.db.select().from(users).where(eq(users.id, user.id)).limit(1);
-  if (!row?.passwordHash || !(await bcrypt.compare(input.currentPassword, row.passwordHash)))
+  if (!row?.passwordHash || !(await verifyPassword(input.currentPassword, row.passwordHash)))
     throw new AppError('invalid_credentials', 'The current password is not correct.', 400, [
       { path: ['currentPassword'], message: 'The current password is not correct.' },
     ]);

@@ -1,21 +1,17 @@
-import bcrypt from 'bcryptjs';
 import type { Db } from '@turnstone/db/client';
 import type { Me } from '@turnstone/contracts/auth';
 import { AppError } from '../../lib/app-error.ts';
+import { verifyPassword } from '../../lib/passwords.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import * as repo from './auth-repository.ts';
 import { verifySession } from './session-token.ts';
 
-export const BCRYPT_COST = 11;
-// Compared against when the address is unknown, so both paths take the same time.
-const DUMMY_HASH = bcrypt.hashSync('not-a-real-password', BCRYPT_COST);
+// Compared against when the address is unknown, so both paths take the same time
+// (a bcrypt hash of a throw-away word at the same cost as real ones).
+const DUMMY_HASH = '$2b$11$bUFSeS2eEuXqD8d4R2a5tuUXsFFjXhNrCas19YGZnf7tMF7hN1bgK';
 
 export const invalidCredentials = () =>
   new AppError('invalid_credentials', 'E-mail address or password is not correct.', 401);
-
-export async function hashPassword(password: string): Promise<string> {
-  return bcrypt.hash(password, BCRYPT_COST);
-}
 
 export async function checkCredentials(
   db: Db,
@@ -23,7 +19,7 @@ export async function checkCredentials(
   password: string,
 ): Promise<repo.UserRow> {
   const user = await repo.findUserByEmail(db, email);
-  const ok = await bcrypt.compare(password, user?.passwordHash ?? DUMMY_HASH);
+  const ok = await verifyPassword(password, user?.passwordHash ?? DUMMY_HASH);
   if (!user || !user.passwordHash || !ok || user.disabledAt) throw invalidCredentials();
   await repo.touchSignIn(db, user.id);
   return user;

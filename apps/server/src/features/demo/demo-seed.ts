@@ -16,7 +16,7 @@ import {
   users,
 } from '@turnstone/db/schema';
 import type { AppContext } from '../../lib/context.ts';
-import { hashPassword } from '../auth/auth-service.ts';
+import { hashPassword } from '../../lib/passwords.ts';
 import { seedDemoSubscriptions } from '../mail/mail-seed.ts';
 import { demoPlant, demoUsers } from '../../../../../seed/demo-plant.ts';
 import { seedDemoHistory } from './demo-history.ts';

@@ -5,7 +5,7 @@
  */
 import { createHash } from 'node:crypto';
 import { eq } from 'drizzle-orm';
-import { readCsv, readWav } from '@turnstone/dsp';
+import { CSV_DEFAULT_BITS, CSV_DEFAULT_FULL_SCALE_V, readCsv, wavCapture } from '@turnstone/dsp';
 import { snapshots } from '@turnstone/db/schema';
 import { MAX_SAMPLES, MIN_SAMPLES } from '@turnstone/contracts/ingest';
 import { uploadFieldsSchema, type UploadFields } from '@turnstone/contracts/uploads';
@@ -17,9 +17,6 @@ import { storeSnapshot } from '../ingest/ingest-service.ts';
 import { encodeSamples } from '../ingest/sample-bytes.ts';
 
 export const MAX_UPLOAD_BYTES = 32 * 1024 * 1024;
-/** A CSV carries no ADC facts; unless told, it is read as from a 24-bit, ±10 V front end. */
-export const CSV_DEFAULT_BITS = 24;
-export const CSV_DEFAULT_FULL_SCALE_V = 10;
 
 export { uploadFieldsSchema, type UploadFields };
 
@@ -71,27 +68,23 @@ export async function acceptUpload(
   let fullScaleV: number;
   let count: number;
   if (isWav) {
+    // The same reading as the analyzer CLI: full scale of the container (PCM samples are
+    // left-justified), float 1.0 = full scale; float samples come back as volts.
     let wav;
     try {
-      wav = readWav(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength));
+      wav = wavCapture(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), {
+        ...(fields.bits === undefined ? {} : { bits: fields.bits }),
+        ...(fields.fullScaleV === undefined ? {} : { fullScaleV: fields.fullScaleV }),
+      });
     } catch (err) {
       throw bad(`Not a readable WAV file: ${(err as Error).message}`);
     }
     encoding = wav.encoding;
     sampleRateHz = wav.sampleRateHz;
-    // PCM samples are left-justified in their container, so the rails are those of the
-    // container width even when fewer bits are valid (WAVE_FORMAT_EXTENSIBLE).
-    adcBits = fields.bits ?? (encoding === 'float32' ? 24 : wav.bitsPerSample);
-    fullScaleV = fields.fullScaleV ?? 1.0;
+    adcBits = wav.adc.bits;
+    fullScaleV = wav.adc.fullScaleV;
     count = wav.samples.length;
-    // Float WAV holds fractions of full scale (±1.0); stored float32 samples are volts.
-    sampleBytes =
-      encoding === 'float32'
-        ? encodeSamples(
-            Array.from(wav.samples, (v) => v * fullScaleV),
-            'float32',
-          )
-        : encodeSamples(Array.from(wav.samples), encoding);
+    sampleBytes = encodeSamples(Array.from(wav.samples), encoding);
   } else if (looksLikeText(bytes)) {
     let csv;
     try {

@@ -38,6 +38,30 @@ export async function issueToken(tx: Tx, userId: number, purpose: TokenPurpose):
 }
 
 /**
+ * The user of a token that could be used now (known, of this purpose, unused, not expired),
+ * or null; reads only, so a caller can refuse a bad link before doing any costly work.
+ */
+export async function findUsableToken(
+  db: Db | Tx,
+  token: string,
+  purpose: TokenPurpose,
+): Promise<number | null> {
+  const [row] = await db
+    .select({ userId: userTokens.userId })
+    .from(userTokens)
+    .where(
+      and(
+        eq(userTokens.tokenHash, hashToken(token)),
+        eq(userTokens.purpose, purpose),
+        isNull(userTokens.usedAt),
+        gt(userTokens.expiresAt, new Date()),
+      ),
+    )
+    .limit(1);
+  return row?.userId ?? null;
+}
+
+/**
  * Uses a token once: marks it used inside the caller's transaction and returns its user,
  * or null when it is unknown, expired, used or of another purpose. The conditional
  * UPDATE makes two concurrent uses of one link succeed at most once.

@@ -1,5 +1,3 @@
-import type { Request, Response } from 'express';
-import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
 import {
   acceptInviteSchema,
   forgotPasswordSchema,
@@ -8,7 +6,7 @@ import {
   updateUserSchema,
 } from '@turnstone/contracts/users';
 import type { AppContext } from '../../lib/context.ts';
-import { AppError } from '../../lib/app-error.ts';
+import { attemptLimiter, clientKey, runLimits } from '../../lib/attempt-limits.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './users-service.ts';
 import { idParam } from '../../lib/route-params.ts';
@@ -72,44 +70,50 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
  * address, with the sign-in limits. A 429 says nothing about whether the account exists.
  */
 function resetLimiters(ctx: AppContext) {
-  const make = (limit: number, key: (req: Request) => string) =>
-    rateLimit({
+  const windowMs = ctx.config.SIGN_IN_WINDOW_MIN * 60_000;
+  const message = () => 'Too many reset requests. Try again later.';
+  return [
+    attemptLimiter({
+      windowMs,
+      limit: ctx.config.SIGN_IN_MAX_PER_IP,
+      key: (req) => `ip:${clientKey(req)}`,
+      message,
+    }),
+    attemptLimiter({
+      windowMs,
+      limit: ctx.config.SIGN_IN_MAX_PER_ACCOUNT,
+      key: (req) => {
+        const email =
+          typeof req.body?.email === 'string' ? req.body.email.trim().toLowerCase() : '';
+        return `acct:${email}`;
+      },
+      message,
+    }),
+  ];
+}
+
+/**
+ * Link submissions (accept an invite, set a new password) are limited per client address:
+ * failed attempts count, so a flood of made-up tokens is refused early, while a person
+ * with a real link is not held up by it.
+ */
+function linkLimiters(ctx: AppContext) {
+  return [
+    attemptLimiter({
       windowMs: ctx.config.SIGN_IN_WINDOW_MIN * 60_000,
-      limit,
-      keyGenerator: key,
-      standardHeaders: 'draft-7',
-      legacyHeaders: false,
-      handler: (_req, _res, next, options) =>
-        next(
-          new AppError(
-            'rate_limited',
-            'Too many reset requests. Try again later.',
-            429,
-            undefined,
-            {
-              headers: { 'Retry-After': String(Math.ceil(options.windowMs / 1000)) },
-            },
-          ),
-        ),
-    });
-  const perIp = make(ctx.config.SIGN_IN_MAX_PER_IP, (req) => `ip:${ipKeyGenerator(req.ip ?? '')}`);
-  const perAccount = make(ctx.config.SIGN_IN_MAX_PER_ACCOUNT, (req) => {
-    const email = typeof req.body?.email === 'string' ? req.body.email.trim().toLowerCase() : '';
-    return `acct:${email}`;
-  });
-  const run = (mw: typeof perIp, req: Request, res: Response) =>
-    new Promise<void>((resolve, reject) => {
-      void mw(req, res, (err?: unknown) => (err ? reject(err) : resolve()));
-    });
-  return async (req: Request, res: Response) => {
-    await run(perIp, req, res);
-    await run(perAccount, req, res);
-  };
+      limit: ctx.config.SIGN_IN_MAX_PER_IP,
+      key: (req) => `link-ip:${clientKey(req)}`,
+      failuresOnly: true,
+      message: (minutes) =>
+        `Too many attempts with invalid links from this address. Try again in ${minutes} minutes.`,
+    }),
+  ];
 }
 
 /** The public link flows: no session (the link or the address is the credential). */
 export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
   const limitResets = resetLimiters(ctx);
+  const limitLinks = linkLimiters(ctx);
   return [
     {
       method: 'post',
@@ -117,6 +121,7 @@ export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
       access: 'public',
       summary: 'accept an invite',
       handler: async (req, res) => {
+        await runLimits(limitLinks, req, res);
         const body = acceptInviteSchema.parse(req.body);
         await service.acceptInvite(ctx, body.token, body.password);
         res.status(204).end();
@@ -129,7 +134,7 @@ export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'ask for a reset link',
       handler: async (req, res) => {
         const { email } = forgotPasswordSchema.parse(req.body);
-        await limitResets(req, res);
+        await runLimits(limitResets, req, res);
         // Answer first, work after: 202 with the same timing whether or not it exists.
         setImmediate(() => {
           service
@@ -145,6 +150,7 @@ export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
       access: 'public',
       summary: 'set a new password from a reset link',
       handler: async (req, res) => {
+        await runLimits(limitLinks, req, res);
         const body = resetPasswordSchema.parse(req.body);
         await service.resetPassword(ctx, body.token, body.password);
         res.status(204).end();

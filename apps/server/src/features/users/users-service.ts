@@ -10,11 +10,11 @@ import type { AppContext } from '../../lib/context.ts';
 import { AppError, notFound } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
-import { hashPassword } from '../auth/auth-service.ts';
+import { hashPassword } from '../../lib/passwords.ts';
 import { enqueueMail } from '../mail/outbox-repository.ts';
 import { mailBaseUrl } from '../mail/mail-links.ts';
 import * as repo from './users-repository.ts';
-import { consumeToken, issueToken } from './user-tokens.ts';
+import { consumeToken, findUsableToken, issueToken, type TokenPurpose } from './user-tokens.ts';
 import { renderInvite, renderReset } from './user-mail.ts';
 
 const iso = (d: Date | null) => d?.toISOString() ?? null;
@@ -170,11 +170,24 @@ const badLink = () =>
     400,
   );
 
-/** Sets the password of an invited user; the link works once. */
-export async function acceptInvite(ctx: AppContext, token: string, password: string) {
+/**
+ * Sets a password from a single-use link (invite or reset); every session of the user ends.
+ * The link is checked before any hashing, so an unknown, used or expired token costs one
+ * indexed read and no bcrypt; the hash runs off the event loop, then one transaction uses
+ * the token (a conditional UPDATE: two concurrent uses succeed at most once) and stores it.
+ * Using the token only after hashing means a refused hash (pool full) does not burn the link.
+ */
+async function setPasswordFromLink(
+  ctx: AppContext,
+  token: string,
+  password: string,
+  purpose: TokenPurpose,
+) {
+  const pending = await findUsableToken(ctx.db, token, purpose);
+  if (pending === null) throw badLink();
   const hash = await hashPassword(password);
   await ctx.db.transaction(async (tx) => {
-    const userId = await consumeToken(tx, token, 'invite');
+    const userId = await consumeToken(tx, token, purpose);
     if (userId === null) throw badLink();
     const u = await repo.findUser(tx, userId);
     if (!u || u.disabledAt) throw badLink();
@@ -184,12 +197,16 @@ export async function acceptInvite(ctx: AppContext, token: string, password: str
       .where(eq(users.id, userId));
     await writeAudit(tx, {
       actorUserId: userId,
-      action: 'user.accept-invite',
+      action: purpose === 'invite' ? 'user.accept-invite' : 'user.reset-password',
       entity: 'user',
       entityId: userId,
     });
   });
 }
+
+/** Sets the password of an invited user; the link works once. */
+export const acceptInvite = (ctx: AppContext, token: string, password: string) =>
+  setPasswordFromLink(ctx, token, password, 'invite');
 
 /**
  * Queues a reset link when the address belongs to an active user; does nothing otherwise.
@@ -211,22 +228,5 @@ export async function requestPasswordReset(ctx: AppContext, email: string) {
 }
 
 /** Sets a new password from a reset link; every session of the user ends. */
-export async function resetPassword(ctx: AppContext, token: string, password: string) {
-  const hash = await hashPassword(password);
-  await ctx.db.transaction(async (tx) => {
-    const userId = await consumeToken(tx, token, 'reset');
-    if (userId === null) throw badLink();
-    const u = await repo.findUser(tx, userId);
-    if (!u || u.disabledAt) throw badLink();
-    await tx
-      .update(users)
-      .set({ passwordHash: hash, tokenVersion: sql`${users.tokenVersion} + 1` })
-      .where(eq(users.id, userId));
-    await writeAudit(tx, {
-      actorUserId: userId,
-      action: 'user.reset-password',
-      entity: 'user',
-      entityId: userId,
-    });
-  });
-}
+export const resetPassword = (ctx: AppContext, token: string, password: string) =>
+  setPasswordFromLink(ctx, token, password, 'reset');
