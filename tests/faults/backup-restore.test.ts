@@ -135,7 +135,7 @@ describe('backup while ingest runs, restore into a new data folder, start on it'
     expect(manifest.database.source).toBe('private');
     expect(manifest.rows.snapshots).toBeGreaterThanOrEqual(ackedBefore.length);
     expect(manifest.files.map((f: { path: string }) => f.path)).toEqual(
-      expect.arrayContaining(['secrets.json', 'mariadb/password']),
+      expect.arrayContaining(['secrets.json', 'mariadb/password', 'mariadb/root-password']),
     );
     await a.stop();
     a = null;
@@ -153,8 +153,9 @@ describe('backup while ingest runs, restore into a new data folder, start on it'
     });
     expect(restored.out).toMatch(/Restored the backup/);
     expect(restored.code).toBe(0);
-    // The generated secrets came along: the private server's password and the session key.
-    for (const f of ['secrets.json', 'mariadb/password'])
+    // The generated secrets came along: the private server's passwords and the session key
+    // (the restored server was set up with the carried root password and answered to it).
+    for (const f of ['secrets.json', 'mariadb/password', 'mariadb/root-password'])
       expect(readFileSync(join(dataB, f), 'utf8')).toBe(readFileSync(join(dataA, f), 'utf8'));
 
     b = await start({

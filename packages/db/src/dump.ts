@@ -16,7 +16,7 @@ import { join } from 'node:path';
 import { Transform, type TransformCallback } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import { createGunzip, createGzip, constants as zlibConstants } from 'node:zlib';
-import { ensureDebianPrograms } from './local-server.ts';
+import { findProgram, MARIADB_CLIENT, MARIADB_DUMP, provision } from './provision.ts';
 
 /** Connection details of a mysql:// URL as the MariaDB command-line clients take them. */
 export interface ClientTarget {
@@ -63,18 +63,14 @@ function escapeOption(value: string): string {
   return value.replace(/\\/g, '\\\\').replace(/"/g, '\\"');
 }
 
-const CLIENT_PACKAGE = 'mariadb-client';
-
-/** Finds the `mariadb-dump` and `mariadb` programs, installing Debian's client when root. */
+/** Finds `mariadb-dump` and `mariadb`, provisioning Debian's `mariadb-client` when missing. */
 export function ensureClientTools(log?: (m: string) => void): { dump: string; client: string } {
-  const [dump, client] = ensureDebianPrograms(
-    [
-      { programs: ['mariadb-dump', 'mysqldump'], pkg: CLIENT_PACKAGE },
-      { programs: ['mariadb', 'mysql'], pkg: CLIENT_PACKAGE },
-    ],
-    log,
-  );
-  return { dump: dump!, client: client! };
+  provision('backup', { log: log ?? (() => {}) });
+  const dump = findProgram(MARIADB_DUMP);
+  const client = findProgram(MARIADB_CLIENT);
+  if (!dump || !client)
+    throw new Error('mariadb-client is installed but mariadb-dump was not found.');
+  return { dump, client };
 }
 
 /**

@@ -15,6 +15,7 @@ import { chmodSync, existsSync, mkdirSync, readFileSync, rmSync, writeFileSync }
 import { createServer } from 'node:net';
 import { join, resolve } from 'node:path';
 import mysql from 'mysql2/promise';
+import { findProgram, MARIADB_INSTALL_DB, MARIADB_SERVER, provision } from './provision.ts';
 
 export interface LocalMariadbOptions {
   /** Folder that holds everything; the server's files go into `<dataDir>/mariadb`. */
@@ -40,78 +41,23 @@ export interface LocalMariadb {
   stop(): Promise<void>;
 }
 
-const SEARCH_DIRS = ['/usr/sbin', '/usr/bin', '/usr/local/sbin', '/usr/local/bin'];
 const SERVER_USER = 'turnstone';
 
-export function findProgram(names: string[]): string | null {
-  for (const name of names) {
-    for (const dir of SEARCH_DIRS) {
-      const path = join(dir, name);
-      if (existsSync(path)) return path;
-    }
-  }
-  return null;
-}
-
-/** A program the product runs and the Debian package that provides it. */
-export interface DebianProgram {
-  /** Names to look for, preferred first (e.g. `mariadb-dump`, then `mysqldump`). */
-  programs: string[];
-  pkg: string;
-}
-
 /**
- * Finds each program; when any is missing and we run as root, installs the Debian packages
- * that provide the missing ones with apt-get, otherwise stops with a message naming them.
- * Returns the programs' paths in the order asked.
- */
-export function ensureDebianPrograms(
-  wanted: DebianProgram[],
-  log: (m: string) => void = () => {},
-): string[] {
-  const missing = wanted.filter((w) => !findProgram(w.programs)).map((w) => w.pkg);
-  const pkgs = [...new Set(missing)];
-  if (pkgs.length > 0) {
-    if (process.getuid?.() !== 0) {
-      throw new Error(
-        `Missing Debian package(s): ${pkgs.join(', ')}. Install them ` +
-          `(sudo apt-get install ${pkgs.join(' ')})` +
-          (pkgs.includes('mariadb-server') ? ' or set DATABASE_URL to an existing server.' : '.'),
-      );
-    }
-    log(`Installing Debian's ${pkgs.join(', ')} (first use only)…`);
-    const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
-    for (const args of [
-      ['update', '-qq'],
-      ['install', '-y', '-qq', ...pkgs],
-    ]) {
-      const r = spawnSync('apt-get', args, { stdio: 'inherit', env });
-      if (r.status !== 0) throw new Error(`apt-get ${args.join(' ')} failed (exit ${r.status}).`);
-    }
-  }
-  return wanted.map((w) => {
-    const path = findProgram(w.programs);
-    if (!path) throw new Error(`${w.pkg} was installed but ${w.programs[0]} was not found.`);
-    return path;
-  });
-}
-
-/**
- * Finds `mariadbd` and `mariadb-install-db`; when they are missing and we run as root,
- * installs Debian's `mariadb-server` with apt-get, otherwise stops with a clear message.
+ * Finds `mariadbd` and `mariadb-install-db`; when they are missing, provisions Debian's
+ * `mariadb-server` (installed as root with apt-get, otherwise a clear error naming the
+ * package and the command).
  */
 export function ensureMariadbInstalled(log: (m: string) => void = () => {}): {
   server: string;
   installDb: string;
 } {
-  const [server, installDb] = ensureDebianPrograms(
-    [
-      { programs: ['mariadbd', 'mysqld'], pkg: 'mariadb-server' },
-      { programs: ['mariadb-install-db', 'mysql_install_db'], pkg: 'mariadb-server' },
-    ],
-    log,
-  );
-  return { server: server!, installDb: installDb! };
+  provision('start', { log });
+  const server = findProgram(MARIADB_SERVER);
+  const installDb = findProgram(MARIADB_INSTALL_DB);
+  if (!server || !installDb)
+    throw new Error('mariadb-server is installed but mariadbd was not found.');
+  return { server, installDb };
 }
 
 export async function freePort(): Promise<number> {
