@@ -63,8 +63,8 @@ function stripComments(sql: string): string {
 }
 
 /**
- * Whether a migration statement only adds (a table, an index, a column, rows) and so can
- * lose nothing already stored. Decided from the SQL itself, so no one has to remember to
+ * Whether a migration statement only adds (a table, an index, a column, rows) or drops an
+ * index, and so can lose nothing already stored. Decided from the SQL itself, so no one has to remember to
  * mark a migration: anything not recognised as additive — DROP, RENAME, MODIFY/CHANGE of a
  * column, UPDATE, DELETE, TRUNCATE, or any statement of another form — counts as
  * destructive, and the product backs the database up before applying it.
@@ -79,6 +79,12 @@ export function isAdditive(statement: string): boolean {
   if (/;\s*\S/.test(bare)) return false; // several statements in one: judge none of them as safe
   if (/^CREATE TABLE (IF NOT EXISTS )?`x`/i.test(bare)) return true;
   if (/^CREATE (UNIQUE )?INDEX /i.test(bare)) return true;
+  // An index holds no data of its own (it is rebuilt from the rows).
+  if (
+    /^DROP INDEX `x` ON `x`;?$/i.test(bare) ||
+    /^ALTER TABLE `x` DROP (INDEX|KEY) `x`;?$/i.test(bare)
+  )
+    return true;
   if (/^INSERT (IGNORE )?INTO /i.test(bare)) return !/\bON DUPLICATE KEY\b/i.test(bare);
   if (/^ALTER TABLE `x` ADD /i.test(bare))
     return !/\b(DROP|MODIFY|CHANGE|RENAME|ALTER COLUMN|ORDER BY|CONVERT|ENGINE)\b/i.test(bare);
