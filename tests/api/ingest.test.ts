@@ -131,6 +131,30 @@ describe('ingest', () => {
     expect((await res.json()).error.code).toBe('uid_conflict');
   });
 
+  it("one site's gateway cannot take another's uid, nor learn its snapshot ids", async () => {
+    // common practice, no source: idempotency keys are scoped to their sender.
+    // Gateway of site MFP posts first, with a uid site TRB's gateway is about to use.
+    const mfpBody = snapshotBody(TAG, 'shared-uid-1', { seed: 3 });
+    const trbBody = snapshotBody('TRB-P120-MDE-H', 'shared-uid-1', { seed: 4 });
+    const first = await post(keyMfp, mfpBody);
+    expect(first.status).toBe(201);
+    const mfpId = (await first.json()).snapshotId;
+    const trb = await post(keyTrb, trbBody);
+    expect(trb.status).toBe(201);
+    const trbId = (await trb.json()).snapshotId;
+    expect(trbId).not.toBe(mfpId);
+    // In a batch too: the answer names only the sender's own snapshots.
+    const batch = await post(keyTrb, {
+      snapshots: [trbBody],
+    });
+    const text = await batch.text();
+    expect(JSON.parse(text).results[0].status).toBe('duplicate');
+    expect(JSON.parse(text).results[0].snapshotId).toBe(trbId);
+    expect(text).not.toContain(`"snapshotId":${mfpId}`);
+    // Each gateway's repeat is still recognised as its own.
+    expect((await post(keyMfp, mfpBody)).status).toBe(200);
+  });
+
   it.each([
     ['an unknown encoding', { encoding: 'int12' }, 'encoding'],
     ['a takenAt far in the future', { takenAt: '2099-01-01T00:00:00Z' }, 'takenAt'],

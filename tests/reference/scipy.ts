@@ -1,23 +1,28 @@
-// Runs Debian's Python with scipy for live reference checks. Missing scipy fails with a
-// clear message when CI is set and skips (with a warning) elsewhere.
+// Runs Debian's Python with scipy for live reference checks. The checks run, or the run
+// fails: `npm test` installs python3-scipy first (packages/db/src/provision.ts). They are
+// skipped only when TURNSTONE_SKIP_REFERENCES=1 asks for it, and the run's closing line says so.
 import { spawnSync } from 'node:child_process';
+import { REFERENCE_PYTHON, referencesSkipped } from '@turnstone/db/provision';
 
 function probe(candidate: string): boolean {
   const r = spawnSync(candidate, ['-c', 'import scipy, numpy'], { encoding: 'utf8' });
   return r.status === 0;
 }
 
-export const python: string | null = ['/usr/bin/python3', 'python3'].find(probe) ?? null;
+export const python: string | null = probe(REFERENCE_PYTHON) ? REFERENCE_PYTHON : null;
 
 export const MISSING_SCIPY =
-  'scipy is not available: install python3-scipy (Debian) so /usr/bin/python3 can import scipy and numpy';
+  `scipy is not available: install python3-scipy (Debian) so ${REFERENCE_PYTHON} can import ` +
+  'scipy and numpy (`npm test` installs it as root), or set TURNSTONE_SKIP_REFERENCES=1 to skip';
 
-/** True when the reference checks can run; throws in CI, warns and returns false elsewhere. */
+/**
+ * False only when TURNSTONE_SKIP_REFERENCES=1 (the caller skips its checks); true when scipy
+ * runs; throws otherwise, so a missing scipy fails the run instead of skipping quietly.
+ */
 export function scipyAvailable(): boolean {
+  if (referencesSkipped()) return false;
   if (python) return true;
-  if (process.env.CI) throw new Error(MISSING_SCIPY);
-  console.warn(`skipping scipy reference checks: ${MISSING_SCIPY}`);
-  return false;
+  throw new Error(MISSING_SCIPY);
 }
 
 /**

@@ -6,9 +6,10 @@
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
+import { chromiumPath } from '@turnstone/db/provision';
 import { DEMO_PASSWORD, demoEmail } from './test-server.ts';
 
-export const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+export const CHROMIUM = chromiumPath();
 export const OUTPUT_DIR = join(process.cwd(), 'test-output');
 
 export async function launchBrowser(): Promise<Browser> {

@@ -16,16 +16,14 @@ function probe(): { available: boolean; reason: string } {
 }
 
 const status = probe();
-const inCi = process.env.CI === 'true';
-if (!status.available && !inCi) {
-  console.warn(`numpy live checks skipped (${status.reason}); under CI=true they fail instead`);
-}
+// Same switch as packages/db/src/provision.ts (not imported: condition stays free of db).
+const skipReferences = process.env.TURNSTONE_SKIP_REFERENCES === '1';
 
 /**
- * `it` for tests that run numpy live: skipped with a warning when numpy is missing, except
- * under CI=true, where the test runs and fails with the reason.
+ * `it` for tests that run numpy live: they run (and fail with the reason when numpy is
+ * missing), in and out of CI alike; skipped only when TURNSTONE_SKIP_REFERENCES=1.
  */
-export const itWithNumpy = status.available || inCi ? it : it.skip;
+export const itWithNumpy = skipReferences ? it.skip : it;
 
 /** Runs a Python snippet that prints one JSON value, and returns it parsed. */
 export function runNumpy(code: string): unknown {

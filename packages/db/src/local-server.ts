@@ -15,6 +15,7 @@ import { chmodSync, existsSync, mkdirSync, readFileSync, rmSync, writeFileSync }
 import { createServer } from 'node:net';
 import { join, resolve } from 'node:path';
 import mysql from 'mysql2/promise';
+import { findProgram, MARIADB_INSTALL_DB, MARIADB_SERVER, provision } from './provision.ts';
 
 export interface LocalMariadbOptions {
   /** Folder that holds everything; the server's files go into `<dataDir>/mariadb`. */
@@ -40,49 +41,22 @@ export interface LocalMariadb {
   stop(): Promise<void>;
 }
 
-const SEARCH_DIRS = ['/usr/sbin', '/usr/bin', '/usr/local/sbin', '/usr/local/bin'];
 const SERVER_USER = 'turnstone';
 
-function findProgram(names: string[]): string | null {
-  for (const name of names) {
-    for (const dir of SEARCH_DIRS) {
-      const path = join(dir, name);
-      if (existsSync(path)) return path;
-    }
-  }
-  return null;
-}
-
 /**
- * Finds `mariadbd` and `mariadb-install-db`; when they are missing and we run as root,
- * installs Debian's `mariadb-server` with apt-get, otherwise stops with a clear message.
+ * Finds `mariadbd` and `mariadb-install-db`; when they are missing, provisions Debian's
+ * `mariadb-server` (installed as root with apt-get, otherwise a clear error naming the
+ * package and the command).
  */
 export function ensureMariadbInstalled(log: (m: string) => void = () => {}): {
   server: string;
   installDb: string;
 } {
-  let server = findProgram(['mariadbd', 'mysqld']);
-  let installDb = findProgram(['mariadb-install-db', 'mysql_install_db']);
-  if (server && installDb) return { server, installDb };
-  if (process.getuid?.() !== 0) {
-    throw new Error(
-      "MariaDB is not installed. Install Debian's package 'mariadb-server' " +
-        '(sudo apt-get install mariadb-server) or set DATABASE_URL to an existing server.',
-    );
-  }
-  log("Installing Debian's mariadb-server (first start only)…");
-  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
-  for (const args of [
-    ['update', '-qq'],
-    ['install', '-y', '-qq', 'mariadb-server'],
-  ]) {
-    const r = spawnSync('apt-get', args, { stdio: 'inherit', env });
-    if (r.status !== 0) throw new Error(`apt-get ${args.join(' ')} failed (exit ${r.status}).`);
-  }
-  server = findProgram(['mariadbd', 'mysqld']);
-  installDb = findProgram(['mariadb-install-db', 'mysql_install_db']);
+  provision('start', { log });
+  const server = findProgram(MARIADB_SERVER);
+  const installDb = findProgram(MARIADB_INSTALL_DB);
   if (!server || !installDb)
-    throw new Error('mariadb-server was installed but mariadbd was not found.');
+    throw new Error('mariadb-server is installed but mariadbd was not found.');
   return { server, installDb };
 }
 

@@ -262,6 +262,14 @@ export const snapshots = mysqlTable(
       .notNull()
       .references(() => points.id),
     gatewayId: ref('gateway_id').references(() => gateways.id),
+    /**
+     * Who the uid belongs to: the gateway, or 0 for uploads. A uid is unique per sender
+     * (idempotency is the sender's), so one site's gateway cannot take another's uids.
+     * (Never NULL; MariaDB does not allow NOT NULL on a generated column.)
+     */
+    senderId: int('sender_id').generatedAlwaysAs(sql`coalesce(\`gateway_id\`, 0)`, {
+      mode: 'stored',
+    }),
     source: mysqlEnum('source', ['gateway', 'upload']).notNull(),
     takenAt: at('taken_at').notNull(),
     receivedAt: at('received_at')
@@ -294,7 +302,7 @@ export const snapshots = mysqlTable(
     fileName: varchar('file_name', { length: 255 }),
   },
   (t) => [
-    uniqueIndex('snapshots_uid_uq').on(t.uid),
+    uniqueIndex('snapshots_sender_uid_uq').on(t.senderId, t.uid),
     index('snapshots_point_taken_idx').on(t.pointId, t.takenAt),
     index('snapshots_status_idx').on(t.status),
     index('snapshots_received_idx').on(t.receivedAt),

@@ -1,12 +1,12 @@
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { fftKernel } from './fft-kernel.ts';
-import { fftJsPlan } from './fft-plan.ts';
+import { fftJsPlan, getFftPlan } from './fft-plan.ts';
+import { welch } from './welch.ts';
 
 // The WebAssembly kernel against the direct DFT sum (the definition, Oppenheim & Schafer)
 // and against fft.js on the same input. The scipy checks in tests/reference run on
-// whichever path is active; the project `unit-fft-js` runs every dsp test on fft.js too.
-
-const forcedJs = process.env.TURNSTONE_FFT === 'js';
+// whichever path is active; the project `unit-fft-js` runs every other dsp test on fft.js
+// too (not this file: it tests the kernel itself, which TURNSTONE_FFT=js switches off).
 
 function directDft(re: number[], im: number[], sign: -1 | 1): { re: number[]; im: number[] } {
   const n = re.length;
@@ -40,11 +40,42 @@ function maxAbs(a: ArrayLike<number>): number {
   return m;
 }
 
-describe.skipIf(forcedJs)('the WebAssembly FFT kernel', () => {
-  const kernel = fftKernel()!;
+describe('the WebAssembly FFT kernel', () => {
+  const found = fftKernel();
+  if (!found) throw new Error('no WebAssembly kernel (TURNSTONE_FFT=js, or no WebAssembly SIMD)');
+  const kernel = found;
 
-  it('when the runtime has WebAssembly SIMD, the kernel is the one in use', () => {
-    expect(kernel).not.toBeNull();
+  it('when the runtime has WebAssembly SIMD, the plans and Welch run on the kernel', () => {
+    const complexPlan = vi.spyOn(kernel, 'complexPlan');
+    const welchSum = vi.spyOn(kernel, 'welchSum');
+    try {
+      // 2048 points: a size no other test in this file plans, so the plan is built here.
+      const plan = getFftPlan(2048);
+      expect(complexPlan).toHaveBeenCalledWith(2048);
+      const x = signal(4096, 5);
+      const out = new Float64Array(4096);
+      plan.forward(out, x);
+      const direct = new Float64Array(4096);
+      kernel.complexPlan(2048).forward(direct, x);
+      expect(Array.from(out)).toEqual(Array.from(direct));
+      welch(signal(1024, 9), { sampleRateHz: 1000, nperseg: 256 });
+      expect(welchSum).toHaveBeenCalledTimes(1);
+    } finally {
+      complexPlan.mockRestore();
+      welchSum.mockRestore();
+    }
+  });
+
+  it('when TURNSTONE_FFT=js, a fresh module has no kernel (callers fall back to fft.js)', async () => {
+    vi.stubEnv('TURNSTONE_FFT', 'js');
+    vi.resetModules();
+    try {
+      const fresh = await import('./fft-kernel.ts');
+      expect(fresh.fftKernel()).toBeNull();
+    } finally {
+      vi.unstubAllEnvs();
+      vi.resetModules();
+    }
   });
 
   it.each([2, 4, 8, 16, 32, 128, 512])(

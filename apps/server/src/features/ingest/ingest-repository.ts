@@ -1,4 +1,4 @@
-import { eq, getTableColumns } from 'drizzle-orm';
+import { and, eq, getTableColumns } from 'drizzle-orm';
 import type { ResultSetHeader } from 'mysql2';
 import type { Db, DbHandle } from '@turnstone/db/client';
 import { areas, gateways, machines, points, snapshots } from '@turnstone/db/schema';
@@ -23,11 +23,12 @@ export async function pointByTag(db: Db, tag: string) {
   return p;
 }
 
-export async function snapshotByUid(db: Db, uid: string) {
+/** The snapshot a sender (a gateway, or null for uploads) stored under `uid`. */
+export async function snapshotByUid(db: Db, gatewayId: number | null, uid: string) {
   const [s] = await db
-    .select({ id: snapshots.id, contentHash: snapshots.contentHash })
+    .select({ id: snapshots.id, contentHash: snapshots.contentHash, takenAt: snapshots.takenAt })
     .from(snapshots)
-    .where(eq(snapshots.uid, uid))
+    .where(and(eq(snapshots.senderId, gatewayId ?? 0), eq(snapshots.uid, uid)))
     .limit(1);
   return s;
 }

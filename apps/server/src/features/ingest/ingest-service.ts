@@ -169,8 +169,9 @@ export async function storeSnapshot(
     return { status: 'created', snapshotId };
   } catch (err) {
     // A repeat (or two deliveries of one uid racing): compare with the stored content.
+    // Uids are unique per sender, so the row found is this sender's own.
     if (isDuplicateKey(err)) {
-      const again = await repo.snapshotByUid(ctx.db, s.uid);
+      const again = await repo.snapshotByUid(ctx.db, s.gatewayId, s.uid);
       if (again)
         return {
           status: again.contentHash === hash ? 'duplicate' : 'conflict',

@@ -82,4 +82,31 @@ describe('mailbox HTML sanitising', () => {
     expect(clean).toContain('<a href="https://ok.test/">ok</a>');
     expect(clean).toContain('<p>Hi');
   });
+
+  it.each([
+    // Payloads that got past the earlier pattern-based cleaner (OWASP XSS filter evasion
+    // cheat sheet: slash as separator, entity-encoded scheme, tab inside the scheme).
+    ['<img/onerror=alert(1) src=x>', /onerror|alert/i],
+    ['<a href="jav&#x61;script:alert(1)">x</a>', /script:|alert|href/i],
+    ['<a href="java\tscript:alert(1)">x</a>', /script:|alert|href/i],
+    ['<a href="&#106;avascript:alert(1)">x</a>', /script:|alert|href/i],
+    ['<svg><script>alert(1)</script></svg>', /<svg|script|alert/i],
+    ['<math><mi xlink:href="javascript:alert(1)">x</mi></math>', /xlink|script:|alert/i],
+    ['<p style="background:url(javascript:alert(1))">x</p>', /url\(|script:|alert/i],
+    ['<div style="width: expression(alert(1))">x</div>', /expression|alert/i],
+    ['<img src="data:image/svg+xml;base64,PHN2ZyBvbmxvYWQ9YWxlcnQoMSk+">', /data:|src=/i],
+    [
+      '<form action="https://evil.test"><button formaction="javascript:alert(1)">go</button></form>',
+      /<form|formaction|script:/i,
+    ],
+    ['<meta http-equiv="refresh" content="0;url=https://evil.test">', /<meta|refresh/i],
+    ['<<script>script>alert(1)<</script>/script>', /<script|<\/script/i],
+  ])('neutralises %s', (dirty, bad) => {
+    expect(sanitizeHtml(dirty)).not.toMatch(bad);
+  });
+
+  it('keeps the inline styles our own mails use', () => {
+    const ours = '<p style="font-size:18px;margin:0 0 12px;color:#555">Alert</p>';
+    expect(sanitizeHtml(ours)).toBe(ours);
+  });
 });

@@ -1,5 +1,6 @@
 /** What the local SMTP fake received, for the admin's Mailbox screen. */
 import { desc, eq } from 'drizzle-orm';
+import sanitize from 'sanitize-html';
 import { mailMessages } from '@turnstone/db/schema';
 import type { Db } from '@turnstone/db/client';
 import type { MailboxMessage, UndeliveredMail } from '@turnstone/contracts/mail';
@@ -23,25 +24,50 @@ export async function listMailbox(db: Db, limit = 200) {
 }
 
 /**
- * Strips what could run or reach out from received HTML: scripts, frames, objects,
- * forms, event-handler attributes and javascript:/data: URLs. The screen also shows the
- * result in an iframe with an empty `sandbox`, so this is the second fence, not the only.
+ * Received HTML through sanitize-html (an allow-list parser, not patterns): only ordinary
+ * markup survives, links keep http(s)/mailto only, inline styles only from a short list of
+ * safe properties (no url()). The screen also shows the result in an iframe with an empty
+ * `sandbox`, so this is the second fence, not the only.
  */
+const SAFE_VALUE = [/^[-#%.,\w\s/'"]+$/];
+const SAFE_STYLE = Object.fromEntries(
+  [
+    'margin',
+    'margin-top',
+    'margin-bottom',
+    'padding',
+    'background',
+    'background-color',
+    'color',
+    'font-family',
+    'font-size',
+    'font-weight',
+    'line-height',
+    'text-align',
+    'vertical-align',
+    'border',
+    'border-collapse',
+    'max-width',
+    'width',
+  ].map((p) => [p, SAFE_VALUE]),
+);
+
 export function sanitizeHtml(html: string): string {
-  return html
-    .replace(
-      /<(script|style|iframe|object|embed|form|frame|frameset|meta|link|base)\b[\s\S]*?<\/\1\s*>/gi,
-      '',
-    )
-    .replace(
-      /<\/?(script|style|iframe|object|embed|form|frame|frameset|meta|link|base)\b[^>]*>/gi,
-      '',
-    )
-    .replace(/\s+on[a-z]+\s*=\s*("[^"]*"|'[^']*'|[^\s>]+)/gi, '')
-    .replace(
-      /\s+(href|src|action|formaction|xlink:href)\s*=\s*("\s*(javascript|data|vbscript):[^"]*"|'\s*(javascript|data|vbscript):[^']*'|(javascript|data|vbscript):[^\s>]*)/gi,
-      ' $1="#"',
-    );
+  return sanitize(html, {
+    allowedTags: [...sanitize.defaults.allowedTags, 'img', 'h1', 'h2'],
+    allowedAttributes: {
+      a: ['href', 'title'],
+      img: ['src', 'alt', 'width', 'height'],
+      td: ['colspan', 'rowspan'],
+      th: ['colspan', 'rowspan', 'scope'],
+      '*': ['style'],
+    },
+    allowedSchemes: ['http', 'https', 'mailto'],
+    allowedSchemesByTag: { img: ['cid'] },
+    allowProtocolRelative: false,
+    allowedStyles: { '*': SAFE_STYLE },
+    disallowedTagsMode: 'discard',
+  });
 }
 
 export async function readMessage(db: Db, id: number): Promise<MailboxMessage> {

@@ -4,9 +4,7 @@
  * files become snapshots and go through the same queue and analysis as gateway captures.
  */
 import { createHash } from 'node:crypto';
-import { eq } from 'drizzle-orm';
 import { CSV_DEFAULT_BITS, CSV_DEFAULT_FULL_SCALE_V, readCsv, wavCapture } from '@turnstone/dsp';
-import { snapshots } from '@turnstone/db/schema';
 import { MAX_SAMPLES, MIN_SAMPLES } from '@turnstone/contracts/ingest';
 import { uploadFieldsSchema, type UploadFields } from '@turnstone/contracts/uploads';
 import { AppError } from '../../lib/app-error.ts';
@@ -14,6 +12,7 @@ import type { AppContext } from '../../lib/context.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { accessiblePoint } from '../../lib/point-access.ts';
 import { storeSnapshot } from '../ingest/ingest-service.ts';
+import { snapshotByUid } from '../ingest/ingest-repository.ts';
 import { encodeSamples } from '../ingest/sample-bytes.ts';
 
 export const MAX_UPLOAD_BYTES = 32 * 1024 * 1024;
@@ -118,13 +117,7 @@ export async function acceptUpload(
   const uid = `upload-${pointId}-${digest.slice(0, 40)}`;
   // Without a stated time the upload time stands in; a repeat of the same file keeps the
   // first one's, so it is recognised as the same upload rather than a conflict.
-  const [earlier] = fields.takenAt
-    ? []
-    : await ctx.db
-        .select({ takenAt: snapshots.takenAt })
-        .from(snapshots)
-        .where(eq(snapshots.uid, uid))
-        .limit(1);
+  const earlier = fields.takenAt ? undefined : await snapshotByUid(ctx.db, null, uid);
   const takenAt = fields.takenAt ? new Date(fields.takenAt) : (earlier?.takenAt ?? new Date());
   const result = await storeSnapshot(ctx, {
     uid,
