@@ -55,6 +55,10 @@ describe('npm run analyze', { timeout: 60_000 }, () => {
     expect(j.overall.accelRmsG).toBeCloseTo(0.7071, 3);
     expect(j.overall.velocityRmsMmS).toBeCloseTo(11.04, 1);
     expect(j.overall.displacementPkPkUm).toBeCloseTo(49.68, 0);
+    // each overall value comes with its band: acceleration high-passed at the ISO band's
+    // lower edge up to Fmax (fs / 2.56), velocity and displacement over the ISO band
+    expect(j.overall.accelBandHz).toEqual([10, 10000]);
+    expect(j.overall.isoBandHz).toEqual([10, 1000]);
     expect(j.speed).toEqual({ rpm: 1500, hz: 25, source: 'rpm' });
     expect(j.spectrum).toMatchObject({ unit: 'g', window: 'hann', dfHz: 3.125 });
     expect(j.spectrum.peaks).toHaveLength(10);
@@ -119,6 +123,47 @@ describe('npm run analyze', { timeout: 60_000 }, () => {
       expect(r.stderr).toMatch(message);
     },
   );
+
+  // v = a/(2πf): 4 mm/s RMS at 1× (24.667 Hz) is 0.0894 g peak; 1× dominant above the
+  // ISO 20816-3 A/B boundary is the unbalance pattern (common practice, no source).
+  it('when --rpm and components are given, the JSON has a diagnosis with evidence and the summary lists it', () => {
+    const f = 1480 / 60;
+    const g = (mmS: number, hz: number) => (Math.SQRT2 * mmS * 1e-3 * 2 * Math.PI * hz) / 9.80665;
+    const rows = Array.from({ length: 65536 }, (_, i) =>
+      (
+        g(4, f) * Math.cos((2 * Math.PI * f * i) / 25600) +
+        g(0.4, 2 * f) * Math.cos((4 * Math.PI * f * i) / 25600)
+      ).toFixed(7),
+    );
+    const csv = file('unbalance.csv', `accel_g\n${rows.join('\n')}\n`);
+    const flags = [
+      '--rate',
+      '25600',
+      '--rpm',
+      '1480',
+      '--bearing',
+      '9,7.94,39.04,0',
+      '--line-hz',
+      '50',
+    ];
+    const j = JSON.parse(analyze(csv, '--json', ...flags).stdout);
+    expect(j.diagnosis.map((h: { code: string }) => h.code)).toEqual(['unbalance']);
+    const e = j.diagnosis[0].evidence[0];
+    expect(e.label).toBe('1×');
+    expect(Math.abs(e.amplitude / 4 - 1)).toBeLessThan(0.03);
+    expect(Object.keys(j.diagnosis[0]).sort()).toEqual([
+      'code',
+      'confidence',
+      'evidence',
+      'summary',
+    ]);
+    const text = analyze(csv, ...flags).stdout;
+    expect(text).toMatch(/unbalance \(confidence/);
+    expect(text).toMatch(/1×\s+24\.\d+ Hz/);
+    const bad = analyze(csv, ...flags, '--iso-group', '3');
+    expect(bad.status).toBe(2);
+    expect(bad.stderr).toMatch(/--iso-group must be 1 or 2/);
+  });
 
   it('when the file does not exist or a flag is bad, the exit code is 2', () => {
     expect(analyze(join(dir, 'absent.wav')).status).toBe(2);

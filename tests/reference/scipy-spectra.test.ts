@@ -1,6 +1,15 @@
 // Live reference checks against scipy (Debian python3-scipy 1.10): welch, rfft, hilbert.
 import { describe, expect, it } from 'vitest';
-import { analyticSignal, bandEnvelope, hilbertEnvelope, irfft, rfft, welch } from '@turnstone/dsp';
+import {
+  analyticSignal,
+  bandEnvelope,
+  hilbertEnvelope,
+  idealBandRms,
+  irfft,
+  recordSpectrum,
+  rfft,
+  welch,
+} from '@turnstone/dsp';
 import { maxRelativeError, runPython, scipyAvailable, testSignal } from './scipy.ts';
 
 const available = scipyAvailable();
@@ -129,5 +138,42 @@ print(json.dumps(np.abs(signal.hilbert(np.fft.irfft(X, n))).tolist()))`,
     const shared = Array.from({ length: m }, (_, i) => ref[i * stride]!);
     expect(maxRelativeError(ours.envelope, shared)).toBeLessThanOrEqual(1e-9);
     expect(ours.sampleRateHz).toBe((fs * m) / n);
+  });
+
+  // scipy live: scipy.signal.periodogram(x, fs, window='hann', scaling='spectrum') — the
+  // whole record at its full resolution, an odd length so the Bluestein path is used too.
+  it.each([65536, 20001])(
+    'when a record of %i samples is taken whole, its spectrum matches scipy’s Hann periodogram within 1e-9',
+    (n) => {
+      const x = testSignal(n, 12800, 3);
+      const ref = runPython<number[]>(
+        `from scipy import signal
+f, p = signal.periodogram(np.array(data['x']), fs=12800, window='hann', scaling='spectrum')
+print(json.dumps(p.tolist()))`,
+        { x },
+      );
+      const ours = recordSpectrum(x, 12800);
+      expect(ours.power.length).toBe(ref.length);
+      expect(ours.dfHz).toBe(12800 / n);
+      expect(maxRelativeError(Array.from(ours.power).slice(1), ref.slice(1))).toBeLessThanOrEqual(
+        1e-9,
+      );
+    },
+  );
+
+  // scipy live: velocity over an ideal 10–1000 Hz band from scipy's Hann periodogram,
+  // v = a/(2πf) line by line (g → mm/s with 9806.65 mm/s² per g), power / ENBW (1.5 bins).
+  it('when velocity is read over an ideal band, it equals the band sum of scipy’s periodogram integrated line by line', () => {
+    const x = testSignal(32768, 12800, 5);
+    const ref = runPython<number>(
+      `from scipy import signal
+f, p = signal.periodogram(np.array(data['x']), fs=12800, window='hann', scaling='spectrum')
+sel = (f >= 10) & (f <= 1000)
+v2 = p[sel] * (9806.65 / (2 * np.pi * f[sel])) ** 2
+print(json.dumps(float(np.sqrt(v2.sum() / 1.5))))`,
+      { x },
+    );
+    const ours = idealBandRms(recordSpectrum(x, 12800), { loHz: 10, hiHz: 1000, to: 'mm/s' });
+    expect(Math.abs(ours / ref - 1)).toBeLessThanOrEqual(1e-9);
   });
 });

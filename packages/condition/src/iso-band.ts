@@ -1,3 +1,5 @@
+import { ISO_BAND_HZ, ISO_BAND_SPLIT_RPM, isoBandForSpeed } from '@turnstone/dsp/iso-overall-band';
+
 /** Frequency span over which ISO 20816-3 overall velocity is measured. */
 export interface IsoBand {
   /** Lower edge, Hz. */
@@ -11,15 +13,17 @@ export const ISO_20816_3_MIN_RPM = 120;
 /** Highest speed ISO 20816-3 covers, r/min. Source: ISO 20816-3:2022 abstract (confirmed). */
 export const ISO_20816_3_MAX_RPM = 30_000;
 /**
- * Speed above which the 10–1000 Hz band applies (at or below it, 2–1000 Hz).
- * Source: ISO 20816-3 (from memory, REFERENCES.md).
+ * Speed above which the 10–1000 Hz band applies (at or below it, 2–1000 Hz): the rule
+ * `@turnstone/dsp` analyses with, read from there so the two cannot disagree.
+ * Source: ISO 20816-3 (from memory).
  */
-export const ISO_20816_3_BAND_SPLIT_RPM = 600;
+export const ISO_20816_3_BAND_SPLIT_RPM = ISO_BAND_SPLIT_RPM;
 
+const span = ([fromHz, toHz]: readonly [number, number]): IsoBand => ({ fromHz, toHz });
 /** 10–1000 Hz, for machines above 600 r/min. Source: ISO 20816-3 (from memory). */
-export const ISO_BAND_ABOVE_600_RPM: IsoBand = { fromHz: 10, toHz: 1000 };
+export const ISO_BAND_ABOVE_600_RPM: IsoBand = span(ISO_BAND_HZ.above600);
 /** 2–1000 Hz, for machines from 120 to 600 r/min. Source: ISO 20816-3 (from memory). */
-export const ISO_BAND_120_TO_600_RPM: IsoBand = { fromHz: 2, toHz: 1000 };
+export const ISO_BAND_120_TO_600_RPM: IsoBand = span(ISO_BAND_HZ.below600);
 
 /**
  * Which ISO 20816-3 measurement band applies at a running speed: 10–1000 Hz above 600 r/min,
@@ -32,5 +36,5 @@ export const ISO_BAND_120_TO_600_RPM: IsoBand = { fromHz: 2, toHz: 1000 };
 export function isoBand(rpm: number): IsoBand | null {
   if (!Number.isFinite(rpm)) throw new RangeError(`speed must be finite, got ${rpm}`);
   if (rpm < ISO_20816_3_MIN_RPM || rpm > ISO_20816_3_MAX_RPM) return null;
-  return rpm > ISO_20816_3_BAND_SPLIT_RPM ? ISO_BAND_ABOVE_600_RPM : ISO_BAND_120_TO_600_RPM;
+  return isoBandForSpeed(rpm) === 'above600' ? ISO_BAND_ABOVE_600_RPM : ISO_BAND_120_TO_600_RPM;
 }

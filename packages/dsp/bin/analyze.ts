@@ -14,10 +14,19 @@ import {
   type SnapshotAnalysis,
   type SnapshotInput,
 } from '../src/index.ts';
+import {
+  DIAGNOSIS_OPTIONS,
+  DIAGNOSIS_USAGE,
+  formatDiagnosis,
+  machineOf,
+  parseDiagnosisFlags,
+  runDiagnosis,
+} from './diagnosis-options.ts';
 
 const USAGE = `usage: npm run analyze -- <file.wav|file.csv> [--rpm N] [--sensitivity MV_PER_G] [--bits N]
        [--full-scale VOLTS] [--fmax HZ] [--lines N] [--window hann|flattop|hamming|rect]
        [--rate HZ] [--unit g|volts] [--json]
+${DIAGNOSIS_USAGE}
 WAV: --full-scale is the volts at the container's full scale (PCM) and at 1.0 (float), default 1;
      --bits defaults to the file's valid bits (24 for float). Uploads read WAV the same way.
 CSV: values in g (or volts with --unit volts); --bits and --full-scale default to 24 and 10.`;
@@ -123,6 +132,7 @@ export function toJson(result: SnapshotAnalysis): unknown {
       displacementPkPkUm: result.overall.displacementPkPkUm,
       crestFactor: result.overall.crestFactor,
       kurtosis: result.overall.kurtosis,
+      accelBandHz: result.overall.accelBandHz,
       isoBandHz: result.overall.isoBandHz,
     },
     speed: result.speed,
@@ -149,8 +159,8 @@ function summary(file: string, r: SnapshotAnalysis): string {
     `${basename(file)}: ${r.sampleCount} samples at ${fmt(r.sampleRateHz, 6)} Hz (${fmt(r.durationS)} s)`,
     `quality: ${r.quality.verdict} — ${fmt(r.quality.bitsUsed, 3)} bits used, ideal SNR ${fmt(r.quality.snrDb, 4)} dB`,
     ...r.quality.findings.map((f) => `  [${f.severity}] ${f.code}: ${f.message}`),
-    `overall: ${fmt(o.accelRmsG)} g RMS, ${fmt(o.accelPeakG)} g peak, crest factor ${fmt(o.crestFactor, 3)}, kurtosis ${fmt(o.kurtosis, 3)}`,
-    `         ${fmt(o.velocityRmsMmS)} mm/s RMS (${o.isoBandHz[0]}–${fmt(o.isoBandHz[1])} Hz), ${fmt(o.displacementPkPkUm)} µm pk-pk`,
+    `overall: ${fmt(o.accelRmsG)} g RMS, ${fmt(o.accelPeakG)} g peak, crest factor ${fmt(o.crestFactor, 3)}, kurtosis ${fmt(o.kurtosis, 3)} (${fmt(o.accelBandHz[0])}–${fmt(o.accelBandHz[1], 6)} Hz)`,
+    `         ${fmt(o.velocityRmsMmS)} mm/s RMS, ${fmt(o.displacementPkPkUm)} µm pk-pk (${o.isoBandHz[0]}–${fmt(o.isoBandHz[1])} Hz)`,
     `speed: ${r.speed.rpm === null ? 'unknown' : `${fmt(r.speed.rpm, 5)} r/min (${r.speed.source})`}`,
     `spectrum: ${r.spectra.acceleration.values.length - 1} lines to ${fmt(r.fmaxHz, 5)} Hz, Δf ${fmt(r.spectra.acceleration.dfHz)} Hz, ${r.spectra.acceleration.window}, ${r.spectra.acceleration.averages} averages`,
     '  peak        Hz      order     g RMS',
@@ -180,6 +190,7 @@ function main(argv: string[]): number {
         unit: { type: 'string' },
         json: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
+        ...DIAGNOSIS_OPTIONS,
       },
     });
   } catch (error) {
@@ -205,11 +216,14 @@ function main(argv: string[]): number {
     return 2;
   }
   try {
-    const result = analyzeSnapshot(buildInput(file, bytes, parsed.values));
+    const diagnosis = parseDiagnosisFlags(parsed.values);
+    const input = buildInput(file, bytes, parsed.values as Record<string, string | boolean>);
+    const result = analyzeSnapshot({ ...input, machine: machineOf(diagnosis) });
+    const hints = runDiagnosis(diagnosis, result);
     process.stdout.write(
       parsed.values.json
-        ? `${JSON.stringify(toJson(result), null, 2)}\n`
-        : `${summary(file, result)}\n`,
+        ? `${JSON.stringify({ ...(toJson(result) as object), diagnosis: hints.diagnosis, diagnosisNotes: hints.notes }, null, 2)}\n`
+        : `${[summary(file, result), ...formatDiagnosis(hints)].join('\n')}\n`,
     );
     return 0;
   } catch (error) {

@@ -1,4 +1,4 @@
-import { bandRms, type PowerSpectrum } from './band-rms.ts';
+import type { PowerSpectrum } from './band-rms.ts';
 import { bandValues, checkBands, type BandDefinition, type BandValue } from './band-values.ts';
 import { parseEncoding, type SampleEncoding } from './decode-samples.ts';
 import { defaultEnvelopeBandHz, envelopeSpectrum } from './envelope.ts';
@@ -9,7 +9,9 @@ import {
 } from './fault-frequencies.ts';
 import { getFftPlan, nextPowerOfTwo } from './fft-plan.ts';
 import { integratePowerSpectrum } from './integrate-spectrum.ts';
+import { idealBandRms, recordSpectrum } from './ideal-band-rms.ts';
 import { integrateWaveform, taperEnds, trimmedPeakToPeak } from './integrate-waveform.ts';
+import { ISO_BAND_HZ, isoBandForSpeed, type IsoBand } from './iso-overall-band.ts';
 import { computedOrderTracking, tachSpeedRpm, type TachPulses } from './order-tracking.ts';
 import {
   assessQuality,
@@ -28,18 +30,6 @@ import { parseWindowName, type WindowName } from './window-functions.ts';
 
 /** Version of the {@link SnapshotAnalysis} shape; bumped on any breaking change. */
 export const ANALYSIS_SCHEMA_VERSION = 1;
-
-/** ISO 20816 overall-velocity band: 10–1000 Hz above 600 r/min, 2–1000 Hz for slower machines. */
-export type IsoBand = 'above600' | 'below600';
-
-/** Edges in Hz of each ISO 20816 overall band (ISO 20816-1 / -3; REFERENCES.md, from memory). */
-export const ISO_BAND_HZ: Record<IsoBand, readonly [number, number]> = {
-  above600: [10, 1000],
-  below600: [2, 1000],
-};
-
-/** Speed below which the 2–1000 Hz band applies, r/min (ISO 20816-3; REFERENCES.md, from memory). */
-export const ISO_SLOW_MACHINE_RPM = 600;
 
 /** One snapshot as stored: raw samples plus the facts needed to read them. */
 export interface SnapshotInput {
@@ -65,7 +55,7 @@ export interface SnapshotInput {
   lines?: number;
   /** Window for the Hz spectra. @default 'hann' */
   window?: WindowName;
-  /** ISO 20816 overall band. @default 'below600' when the known or nominal speed is under 600 r/min, else 'above600' */
+  /** ISO 20816 overall band. @default from the known or nominal speed by {@link isoBandForSpeed} ('below600' at or below 600 r/min) */
   isoBand?: IsoBand;
   /** Bands to report (see {@link BandDefinition}). @default [] */
   bands?: BandDefinition[];
@@ -88,6 +78,12 @@ export interface AnalyzeSnapshotOptions {
   peakCount?: number;
   /** Speed search window around the nominal speed, ± fraction. @default 0.1 */
   speedSearchFraction?: number;
+  /**
+   * High-pass edge of the overall acceleration, crest factor and kurtosis, Hz (they are
+   * taken over [this, Fmax], so a settling offset or slow drift does not count).
+   * @default the ISO band's lower edge (10 Hz, or 2 Hz for slow machines)
+   */
+  accelerationHighPassHz?: number;
 }
 
 /** A stored spectrum on a Hz axis: values[k] at k · dfHz. */
@@ -115,18 +111,22 @@ export interface SnapshotAnalysis {
     metrics: QualityMetrics;
   };
   overall: {
-    /** Acceleration RMS of the whole record, mean removed, g. */
+    /** Acceleration RMS over {@link accelBandHz} (an ideal band of the whole record), g. */
     accelRmsG: number;
-    /** Largest |a − mean|, g. */
+    /** Largest |a| of the acceleration high-passed at accelBandHz[0], on the record's middle 80 %, g. */
     accelPeakG: number;
-    /** Velocity RMS over the ISO band, mm/s. */
+    /** Band of the acceleration figures (accelRmsG, accelPeakG, crestFactor, kurtosis): [high-pass, Fmax], Hz. */
+    accelBandHz: [number, number];
+    /** Velocity RMS over the ISO band isoBandHz (an ideal band of the whole record), mm/s. */
     velocityRmsMmS: number;
-    /** Displacement peak-to-peak over the ISO band, µm: frequency-domain double integration of the waveform, measured on its middle 80 %. */
+    /** Displacement peak-to-peak over the ISO band, µm: frequency-domain double integration of the waveform (raised-cosine rise from half the lower edge), measured on its middle 80 %. */
     displacementPkPkUm: number;
+    /** Peak / RMS of the high-passed acceleration waveform (over accelBandHz). */
     crestFactor: number;
-    /** Pearson kurtosis (sine 1.5, Gaussian 3). */
+    /** Pearson kurtosis of the high-passed acceleration waveform (sine 1.5, Gaussian 3). */
     kurtosis: number;
     isoBand: IsoBand;
+    /** Band of velocityRmsMmS and displacementPkPkUm, Hz (upper edge capped at Fmax). */
     isoBandHz: [number, number];
   };
   speed: { rpm: number | null; hz: number | null; source: 'tach' | 'rpm' | 'estimated' | 'none' };
@@ -228,7 +228,7 @@ export function analyzeSnapshot(
 
   // ---- counts → g; quality from the counts
   const accel = scaleToAcceleration(samples, { encoding, bits, fullScaleV, sensitivityMvPerG });
-  const stats = waveformStatistics(accel, { centerInPlace: true });
+  waveformStatistics(accel, { centerInPlace: true }); // removes the mean (and checks finiteness)
 
   // ---- Welch acceleration spectrum
   const maxSeg = 2 ** Math.floor(Math.log2(n));
@@ -258,11 +258,10 @@ export function analyzeSnapshot(
 
   // ---- ISO band and velocity
   const bandRpm = tachRpm ?? input.speedRpm ?? input.nominalRpm;
-  const isoBand: IsoBand =
-    input.isoBand ??
-    (bandRpm !== undefined && bandRpm < ISO_SLOW_MACHINE_RPM ? 'below600' : 'above600');
+  const isoBand: IsoBand = input.isoBand ?? isoBandForSpeed(bandRpm);
   const [isoLo, isoHiNominal] = ISO_BAND_HZ[isoBand];
   const isoHi = Math.min(isoHiNominal, fmaxHz);
+  // Welch lines for the stored velocity spectrum and for `hz` bands in mm/s and µm.
   const velocityPower = integratePowerSpectrum(spec.power, df, {
     from: 'g',
     to: 'mm/s',
@@ -274,35 +273,49 @@ export function analyzeSnapshot(
     lowCutoffHz: isoLo,
   });
   const enbw = spec.enbwBins;
-  const velocityRmsMmS = bandRms(
-    { power: velocityPower, dfHz: df, enbwBins: enbw },
-    { loHz: isoLo, hiHz: isoHi },
-  );
-  const displacementRmsUm = bandRms(
-    { power: displacementPower, dfHz: df, enbwBins: enbw },
-    { loHz: isoLo, hiHz: isoHi },
-  );
+  // Overall values over ideal bands, read from the whole record at its full resolution.
+  const record = recordSpectrum(accel, fs);
+  const velocityRmsMmS = idealBandRms(record, { loHz: isoLo, hiHz: isoHi, to: 'mm/s' });
+  const displacementRmsUm = idealBandRms(record, { loHz: isoLo, hiHz: isoHi, to: 'um' });
+  const accelLo = options.accelerationHighPassHz ?? isoLo;
+  if (!(accelLo > 0 && accelLo < fmaxHz)) {
+    throw new RangeError(`accelerationHighPassHz must be in (0, ${fmaxHz}), got ${accelLo}`);
+  }
+  const accelBandHz: [number, number] = [accelLo, fmaxHz];
+  const accelRmsG = idealBandRms(record, { loHz: accelLo, hiHz: fmaxHz, to: 'g' });
 
-  // ---- one FFT of the whole (end-tapered) record, shared by displacement and envelope;
-  // the envelope spectrum's own Hann window already gives the tapered ends ~zero weight.
+  // ---- one FFT of the whole (end-tapered) record, shared by displacement, the
+  // high-passed acceleration waveform and the envelope; the envelope spectrum's own Hann
+  // window already gives the tapered ends ~zero weight.
   const tapered = scratch('analyze-tapered', n);
   tapered.set(accel);
   taperEnds(tapered, DISPLACEMENT_TAPER);
   const full = scratch('analyze-full', 2 * n);
   getFftPlan(n).realForward(full, tapered);
-  const displacement = integrateWaveform(accel, {
-    sampleRateHz: fs,
-    from: 'g',
-    to: 'um',
-    lowCutoffHz: isoLo,
-    highCutoffHz: Math.max(isoHi, isoLo * 1.5),
-    taperFraction: DISPLACEMENT_TAPER,
-    spectrum: full,
-    // Synthesised at ≥ 12.8 samples per cycle of the band's top: peaks are read to better
-    // than 1 − cos(π/12.8) = 3 % at the band's top and 0.03 % a decade below.
-    outputLength: displacementLength(n, fs, Math.max(isoHi, isoLo * 1.5)),
-  });
-  const displacementPkPkUm = trimmedPeakToPeak(displacement, 2 * DISPLACEMENT_TAPER);
+  const bandWaveform = (to: 'g' | 'mm/s' | 'um', loHz: number, hiHz: number) => {
+    const top = Math.min(Math.max(hiHz, loHz * 1.5), fs / 2);
+    return integrateWaveform(accel, {
+      sampleRateHz: fs,
+      from: 'g',
+      to,
+      lowCutoffHz: loHz,
+      highCutoffHz: top,
+      taperFraction: DISPLACEMENT_TAPER,
+      spectrum: full,
+      // Synthesised at ≥ 12.8 samples per cycle of the band's top: peaks are read to better
+      // than 1 − cos(π/12.8) = 3 % at the band's top and 0.03 % a decade below.
+      outputLength: displacementLength(n, fs, top),
+    });
+  };
+  const displacementPkPkUm = trimmedPeakToPeak(
+    bandWaveform('um', isoLo, isoHi),
+    2 * DISPLACEMENT_TAPER,
+  );
+  // Peak, crest factor and kurtosis of the high-passed acceleration, on the middle of the
+  // record (its tapered ends are not valid output).
+  const accelWave = bandWaveform('g', accelLo, fmaxHz);
+  const skip = Math.floor(accelWave.length * 2 * DISPLACEMENT_TAPER);
+  const accelStats = waveformStatistics(accelWave.subarray(skip, accelWave.length - skip));
 
   // ---- speed
   let speed: SnapshotAnalysis['speed'] = { rpm: null, hz: null, source: 'none' };
@@ -402,9 +415,22 @@ export function analyzeSnapshot(
     envelope: envelopePower,
     shaftHz,
     faultFrequencies: faults,
+    overallOver: (unit, measure, loHz, hiHz) => {
+      // What the analysis holds of the span: up to Fmax, and above 0 Hz when integrating.
+      const hi = Math.min(hiHz, fmaxHz);
+      const lo = Math.max(loHz, unit === 'g' ? 0 : record.dfHz);
+      if (!(hi > lo)) return null;
+      if (measure === 'rms') return idealBandRms(record, { loHz: lo, hiHz: hi, to: unit });
+      const wave = bandWaveform(unit, Math.max(lo, record.dfHz), hi);
+      if (unit === 'um') return trimmedPeakToPeak(wave, 2 * DISPLACEMENT_TAPER) / 2;
+      const edge = Math.floor(wave.length * 2 * DISPLACEMENT_TAPER);
+      let peak = 0;
+      for (let i = edge; i < wave.length - edge; i++) peak = Math.max(peak, Math.abs(wave[i]!));
+      return peak;
+    },
     overall: {
-      accelRmsG: stats.rms,
-      accelPeakG: stats.peak,
+      accelRmsG,
+      accelPeakG: accelStats.peak,
       velocityRmsMmS,
       displacementPkPkUm,
       displacementRmsUm,
@@ -425,12 +451,13 @@ export function analyzeSnapshot(
       metrics: quality.metrics,
     },
     overall: {
-      accelRmsG: stats.rms,
-      accelPeakG: stats.peak,
+      accelRmsG,
+      accelPeakG: accelStats.peak,
+      accelBandHz,
       velocityRmsMmS,
       displacementPkPkUm,
-      crestFactor: stats.crestFactor,
-      kurtosis: stats.kurtosis,
+      crestFactor: accelStats.rms > 0 ? accelStats.peak / accelStats.rms : 0,
+      kurtosis: accelStats.kurtosis,
       isoBand,
       isoBandHz: [isoLo, isoHi],
     },

@@ -6,7 +6,8 @@ export type BandUnit = 'g' | 'mm/s' | 'um';
 
 /**
  * A band to trend and to set limits on. `kind` says how its edges are found:
- * - `overall`: the overall value (see {@link bandValues} for the exact figure);
+ * - `overall`: the overall value (see {@link bandValues} for the exact figure); with
+ *   loHz/hiHz, the overall value over that span instead of the ISO band;
  * - `hz`: lines in [loHz, hiHz];
  * - `order`: lines in [loOrder, hiOrder] × shaft speed (null without a speed);
  * - `fault`: lines within ±widthPercent of harmonic × a named fault frequency (null
@@ -16,9 +17,9 @@ export interface BandDefinition {
   /** Stable identifier stored with each value. */
   key: string;
   kind: 'overall' | 'hz' | 'order' | 'fault';
-  /** `hz` bands: lower edge, Hz. */
+  /** `hz` bands: lower edge, Hz; `overall` bands: lower edge of their own span (both edges or neither). */
   loHz?: number;
-  /** `hz` bands: upper edge, Hz. */
+  /** `hz` bands: upper edge, Hz; `overall` bands: upper edge of their own span. */
   hiHz?: number;
   /** `order` bands: lower edge, orders. */
   loOrder?: number;
@@ -55,7 +56,18 @@ export interface BandContext {
   /** Shaft speed in Hz, or null. */
   shaftHz: number | null;
   faultFrequencies: FaultFrequency[];
-  /** Overall figures: `overall` bands report these. */
+  /**
+   * Overall value over a span of the record, for `overall` bands with loHz/hiHz: `rms` over
+   * the ideal band, `peak` from the band-limited waveform (µm: half its peak-to-peak), or
+   * null when the record holds nothing of the span. Without it such bands read null.
+   */
+  overallOver?: (
+    unit: BandUnit,
+    measure: 'rms' | 'peak',
+    loHz: number,
+    hiHz: number,
+  ) => number | null;
+  /** Overall figures: `overall` bands without a span report these. */
   overall: {
     accelRmsG: number;
     accelPeakG: number;
@@ -89,6 +101,13 @@ export function checkBands(bands: readonly BandDefinition[]): void {
     if (b.kind === 'hz' && !(b.loHz! >= 0 && b.hiHz! > b.loHz!)) {
       throw new RangeError(`band "${b.key}": needs 0 ≤ loHz < hiHz`);
     }
+    if (
+      b.kind === 'overall' &&
+      (b.loHz !== undefined || b.hiHz !== undefined) &&
+      !(b.loHz! >= 0 && b.hiHz! > b.loHz!)
+    ) {
+      throw new RangeError(`band "${b.key}": an overall span needs 0 ≤ loHz < hiHz`);
+    }
     if (b.kind === 'order' && !(b.loOrder! >= 0 && b.hiOrder! > b.loOrder!)) {
       throw new RangeError(`band "${b.key}": needs 0 ≤ loOrder < hiOrder`);
     }
@@ -110,7 +129,10 @@ export function checkBands(bands: readonly BandDefinition[]): void {
  * line as a sine amplitude √(2·max P). `overall` bands report the overall figures:
  * g rms → accelRmsG, g peak → accelPeakG (true peak), mm/s rms → velocityRmsMmS,
  * mm/s peak → √2 × velocityRmsMmS, µm rms → displacement RMS over the ISO band,
- * µm peak → displacementPkPkUm / 2.
+ * µm peak → displacementPkPkUm / 2. `overall` bands with their own span [loHz, hiHz]
+ * report {@link BandContext.overallOver} over that span instead (so a 10–5000 Hz velocity
+ * band is not the ISO value, and a displacement band's peak is the waveform's, not the
+ * largest line's).
  *
  * Source: Harris 1978 (ENBW); ISO 20816-1 (overall velocity band); fault-band width:
  * Randall & Antoni 2011 (1–2 % slip), widened to ±3 % by default (common practice, no source).
@@ -133,6 +155,9 @@ function readBand(
 ): number | null {
   const o = context.overall;
   if (band.kind === 'overall' && band.source !== 'envelope') {
+    if (band.loHz !== undefined && band.hiHz !== undefined) {
+      return context.overallOver ? context.overallOver(unit, measure, band.loHz, band.hiHz) : null;
+    }
     if (unit === 'g') return measure === 'rms' ? o.accelRmsG : o.accelPeakG;
     if (unit === 'mm/s')
       return measure === 'rms' ? o.velocityRmsMmS : Math.SQRT2 * o.velocityRmsMmS;
@@ -143,8 +168,8 @@ function readBand(
   let lo: number;
   let hi: number;
   if (band.kind === 'overall') {
-    lo = spectrum.dfHz;
-    hi = (spectrum.power.length - 1) * spectrum.dfHz;
+    lo = band.loHz ?? spectrum.dfHz;
+    hi = band.hiHz ?? (spectrum.power.length - 1) * spectrum.dfHz;
   } else if (band.kind === 'hz') {
     lo = band.loHz!;
     hi = band.hiHz!;

@@ -60,12 +60,12 @@ export function toDspBands(
     const source = b.spectrum === 'envelope' ? 'envelope' : 'spectrum';
     const measure = b.measure === 'rms' ? 'rms' : 'peak';
     if (b.kind === 'overall') {
-      if (
-        b.fromHz !== undefined &&
-        b.toHz !== undefined &&
-        !(unit === 'mm/s' && measure === 'rms')
-      ) {
+      const span = b.fromHz !== undefined && b.toHz !== undefined;
+      if (span && source === 'envelope') {
         out.push({ key: b.key, kind: 'hz', loHz: b.fromHz, hiHz: b.toHz, unit, measure, source });
+      } else if (span) {
+        // The overall value over the band's own span (not the ISO value, not the largest line).
+        out.push({ key: b.key, kind: 'overall', loHz: b.fromHz, hiHz: b.toHz, unit, measure });
       } else {
         out.push({ key: b.key, kind: 'overall', unit, measure, source });
       }
