@@ -69,7 +69,7 @@ describe('uploads of recordings', () => {
     ).json();
     expect(snap.status).toBe('done');
     expect(snap.fileName).toBe('pump-de.wav');
-    // A sine's RMS is its peak / √2 (REFERENCES.md): 0.5 g peak → 0.3536 g RMS.
+    // A sine's RMS is its peak / √2 (definition of RMS): 0.5 g peak → 0.3536 g RMS.
     expect(snap.analysis.accelRmsG).toBeCloseTo(0.3536, 2);
     expect(snap.analysis.qualityVerdict).toBe('ok');
     expect(snap.analysis.speedRpm).toBe(1480);
