@@ -79,6 +79,18 @@ describe('logs', () => {
     expect(out).toContain('"ok":1');
   });
 
+  it("a failed query's bound values never reach the log (message or stack)", () => {
+    // The shape Drizzle 0.45 gives a failing query (DrizzleQueryError): SQL, then params.
+    const err = new Error(
+      'Failed query: insert into `mail_outbox` (`text_body`) values (?, ?)\n' +
+        'params: Reset: https://x.test/reset-password#token=live-secret-token,other',
+    );
+    const out = JSON.stringify(redact({ err }));
+    expect(out).not.toContain('live-secret-token');
+    expect(out).toContain('Failed query: insert into');
+    expect(out).toContain('params: [redacted]');
+  });
+
   it('no password, token, cookie or API key reaches the log during real traffic', async () => {
     const password = 'Wr0ng-Secret-Passw0rd';
     await srv.call('POST', '/api/v1/auth/sign-in', {
