@@ -112,6 +112,12 @@ describe('audit log', () => {
       400,
     );
     expect((await srv.call('GET', '/api/v1/audit?limit=5000', { cookie: admin })).status).toBe(400);
+    // A cursor of 400 digits is no id (it used to reach the query as Infinity: 500).
+    const huge = await srv.call('GET', `/api/v1/audit?cursor=${'9'.repeat(400)}`, {
+      cookie: admin,
+    });
+    expect(huge.status).toBe(400);
+    expect((await huge.json()).error.code).toBe('validation_failed');
     for (const role of ['planner', 'operator'])
       expect(
         (await srv.call('GET', '/api/v1/audit', { cookie: await srv.signIn(role) })).status,

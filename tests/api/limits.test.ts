@@ -17,7 +17,7 @@ let seq = 0;
 const TAG = 'MFP-P102-MDE-H';
 let pointId: number;
 
-/** Peak g of a 24.7 Hz tone of `mmS` mm/s RMS: a = v·√2·2πf (sine; REFERENCES.md). */
+/** Peak g of a 24.7 Hz tone of `mmS` mm/s RMS: a = v·√2·2πf (calculus of a sinusoid, textbook). */
 const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
 
 async function q(sqlText: string, params: unknown[] = []) {
@@ -230,26 +230,38 @@ describe('limit set of a point', () => {
     });
   });
 
-  it('suggests mean + k·σ of the first N stored values of a band', async () => {
-    const rows = await q(
-      "SELECT value FROM band_values WHERE point_id = ? AND band_key = 'overall-velocity' ORDER BY taken_at LIMIT 4",
-      [pointId],
+  it('refuses a statistical level from a baseline too small to mean anything, with a clear message', async () => {
+    // minimum baseline 30 values over 7 days: common practice, no source
+    const res = await srv.call(
+      'GET',
+      `/api/v1/points/${pointId}/limits/suggest?band=overall-velocity&count=4&kAlert=3&kDanger=6`,
+      { cookie: cookies.get('engineer') },
     );
-    const xs = rows.map((r) => Number(r.value));
-    const mean = xs.reduce((s, x) => s + x, 0) / xs.length;
-    // Sample σ (n − 1), as numpy.std(ddof=1).
-    const sigma = Math.sqrt(xs.reduce((s, x) => s + (x - mean) ** 2, 0) / (xs.length - 1));
-    const body = await (
-      await srv.call(
-        'GET',
-        `/api/v1/points/${pointId}/limits/suggest?band=overall-velocity&count=4&kAlert=3&kDanger=6`,
-        { cookie: cookies.get('engineer') },
-      )
-    ).json();
-    expect(body.baseline.count).toBe(4);
-    expect(body.baseline.mean).toBeCloseTo(mean, 9);
-    expect(body.alertLevel).toBeCloseTo(mean + 3 * sigma, 9);
-    expect(body.dangerLevel).toBeCloseTo(mean + 6 * sigma, 9);
+    expect(res.status).toBe(400);
+    const body = await res.json();
+    expect(JSON.stringify(body.error)).toMatch(/at least 30 usable values over at least 7 days/);
+
+    const put = await srv.call('PUT', `/api/v1/points/${pointId}/limits`, {
+      cookie: cookies.get('engineer'),
+      body: {
+        bands: [
+          {
+            ...velocityBand(3, 5),
+            statistical: { kAlert: 3, baseline: { from: 'first-n', count: 2 } },
+          },
+        ],
+        reason: 'two values are enough?',
+      },
+    });
+    expect(put.status).toBe(400);
+    const refused = await put.json();
+    expect(refused.error.details).toEqual([
+      {
+        path: 'bands.0.statistical.baseline.count',
+        message: expect.stringMatching(/at least 30 usable values over at least 7 days; 2 value/),
+      },
+    ]);
+
     const none = await (
       await srv.call('GET', `/api/v1/points/${pointId}/limits/suggest?band=nothing-here`, {
         cookie: cookies.get('engineer'),

@@ -28,7 +28,7 @@ const TAG = 'MFP-P101-MDE-H';
 const ENGINEER = 'engineer@turnstone.local';
 const PLANNER = 'planner@turnstone.local';
 
-/** Peak g of a 24.7 Hz tone of `mmS` mm/s RMS (v = a/2πf, RMS = peak/√2; REFERENCES.md). */
+/** Peak g of a 24.7 Hz tone of `mmS` mm/s RMS (v = a/2πf, RMS = peak/√2; calculus of a sinusoid, textbook). */
 const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
 
 type Row = Record<string, unknown>;
@@ -84,7 +84,7 @@ afterAll(async () => {
 describe('alert notifications', () => {
   it('when captures raise an alert, each subscribed user gets exactly one message per alert with machine, point, band, value vs level, verdict, link and caution', async () => {
     // P-101: ISO 20816-3 group 2 rigid → template alert 2.8 mm/s, danger 4.5 mm/s,
-    // persistence 2 (condition package template defaults; levels from memory per REFERENCES.md).
+    // persistence 2 (condition package template defaults; ISO 20816-3 zone boundaries, from memory).
     await capture([1.5, 1.5, 3.5, 3.5]);
     const raisedEvents = await q(
       `SELECT e.id, e.alert_id FROM alert_events e WHERE e.kind = 'raised'`,

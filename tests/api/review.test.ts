@@ -98,7 +98,7 @@ describe('weekly review', () => {
     expect(m.lastWeekCount).toBe(7);
     expect(m.thisWeekCount).toBe(7);
     expect(m.unit).toBe('mm/s');
-    // Absolute values: v = a/(2πf) (REFERENCES.md), within 5 % for band RMS leakage.
+    // Absolute values: v = a/(2πf) (calculus of a sinusoid, textbook), within 5 % for band RMS leakage.
     expect(m.lastWeekMean).toBeGreaterThan(1.15 * 0.95);
     expect(m.lastWeekMean).toBeLessThan(1.15 * 1.05);
     // The means are those of the stored trend values (the same rows the point view reads).

@@ -79,6 +79,18 @@ describe('logs', () => {
     expect(out).toContain('"ok":1');
   });
 
+  it("a failed query's bound values never reach the log (message or stack)", () => {
+    // The shape Drizzle 0.45 gives a failing query (DrizzleQueryError): SQL, then params.
+    const err = new Error(
+      'Failed query: insert into `mail_outbox` (`text_body`) values (?, ?)\n' +
+        'params: Reset: https://x.test/reset-password#token=live-secret-token,other',
+    );
+    const out = JSON.stringify(redact({ err }));
+    expect(out).not.toContain('live-secret-token');
+    expect(out).toContain('Failed query: insert into');
+    expect(out).toContain('params: [redacted]');
+  });
+
   it('no password, token, cookie or API key reaches the log during real traffic', async () => {
     const password = 'Wr0ng-Secret-Passw0rd';
     await srv.call('POST', '/api/v1/auth/sign-in', {
@@ -211,4 +223,51 @@ describe('DNS rebinding and demo accounts on a network', () => {
     await open.stop();
     expect(logged.slice(before).join('')).toMatch(/Demo accounts accept the demo password/);
   }, 150_000);
+});
+
+describe('attempt limits that do not lock the owner out', () => {
+  const signIn = (password: string, ip: string, cookie?: string) =>
+    srv.call('POST', '/api/v1/auth/sign-in', {
+      body: { email: 'planner@turnstone.local', password },
+      headers: { 'x-forwarded-for': ip },
+      cookie,
+    });
+
+  it('wrong passwords from one client limit that client, not the owner elsewhere; a known client is never locked out', async () => {
+    // OWASP ASVS 5.0 V6.3 / OWASP authentication cheat sheet: lockout must not become a
+    // denial of service against the account's owner.
+    const owner = await signIn('turnstone-demo', '203.0.113.1');
+    expect(owner.status).toBe(200);
+    const known = owner.headers
+      .getSetCookie()
+      .find((c) => c.startsWith('turnstone_client='))!
+      .split(';')[0]!;
+    for (let i = 0; i < 5; i++)
+      expect((await signIn('wrong-guess-1', '198.18.0.1')).status).toBe(401);
+    const limited = await signIn('wrong-guess-1', '198.18.0.1');
+    expect(limited.status).toBe(429);
+    const retry = Number(limited.headers.get('retry-after'));
+    expect(retry).toBeGreaterThan(0);
+    expect(retry).toBeLessThanOrEqual(15 * 60);
+    // The owner, from another address, is not affected.
+    expect((await signIn('turnstone-demo', '203.0.113.2')).status).toBe(200);
+    // A guess spread over many addresses: the account-wide back-off (4 × 5) stops unknown
+    // clients, while the owner's known browser still gets in.
+    for (let i = 0; i < 20; i++) await signIn('wrong-guess-2', `198.18.1.${i}`);
+    expect((await signIn('turnstone-demo', '198.18.2.1')).status).toBe(429);
+    expect((await signIn('turnstone-demo', '203.0.113.3', known)).status).toBe(200);
+  });
+
+  it('/account/password allows five wrong current passwords per window, then 429', async () => {
+    const cookie = await srv.signIn('operator');
+    const change = (currentPassword: string) =>
+      srv.call('POST', '/api/v1/account/password', {
+        cookie,
+        body: { currentPassword, newPassword: 'another-password-1' },
+      });
+    for (let i = 0; i < 5; i++) expect((await change(`wrong-${i}-password`)).status).toBe(400);
+    const limited = await change('wrong-5-password');
+    expect(limited.status).toBe(429);
+    expect(Number(limited.headers.get('retry-after'))).toBeGreaterThan(0);
+  });
 });

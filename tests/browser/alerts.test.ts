@@ -37,7 +37,7 @@ describe('alerts screen', () => {
     await page.getByRole('status').filter({ hasText: 'Alert acknowledged.' }).waitFor();
     const row = page.locator('tr', { hasText: 'Overall velocity' });
     await row.getByText('Acknowledged', { exact: true }).waitFor();
-    await expect(row.getByText('Oli Operator')).toBeTruthy();
+    await row.getByText('Oli Operator').waitFor();
     await row.getByRole('button', { name: /History of the alert/ }).click();
     const history = page.getByRole('region', { name: /Overall velocity/ });
     await history

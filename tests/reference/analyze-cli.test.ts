@@ -28,7 +28,8 @@ function file(name: string, content: Uint8Array | string): string {
 
 // Each case starts tsx (a second or more on a busy machine), hence the generous timeout.
 describe('npm run analyze', { timeout: 60_000 }, () => {
-  // REFERENCES.md: 1 g peak at 100 Hz → 0.7071 g RMS, 15.6078 mm/s peak (11.04 RMS), 49.681 µm pk-pk.
+  // Calculus of a sinusoid (v = a/2πf, d = a/(2πf)², RMS = peak/√2), g₀ = 9.80665 m/s²:
+  // 1 g peak at 100 Hz → 0.7071 g RMS, 15.6078 mm/s peak (11.04 RMS), 49.681 µm pk-pk.
   // Defaults: 100 mV/g, 1.0 V full scale, so 0.1 × 2^15 counts of a 16-bit WAV is 1 g.
   it('when a 16-bit WAV of a 1 g 100 Hz tone is analysed with --json, the documented shape and values come out', () => {
     const x = Array.from({ length: 65536 }, (_, i) =>

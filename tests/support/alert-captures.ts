@@ -5,7 +5,7 @@ import { snapshotBody } from './signals.ts';
 
 /**
  * Peak acceleration (g) of a 24.7 Hz tone of `mmS` mm/s RMS: a = v·√2·2πf / 9806.65
- * (v = a/2πf for a sine, RMS = peak/√2; REFERENCES.md). 24.7 Hz is 1× of the demo pumps.
+ * (v = a/2πf for a sine, RMS = peak/√2; calculus of a sinusoid, textbook). 24.7 Hz is 1× of the demo pumps.
  */
 export const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
 

@@ -48,7 +48,7 @@ function analyse(
 
 describe('synthesizeCapture', () => {
   it('when asked for 4 mm/s RMS at 1×, analyzeSnapshot reads 4 mm/s in the 1× band', () => {
-    // v = a/(2πf) and RMS = peak/√2 (REFERENCES.md): the synthesiser converts, the dsp reads back.
+    // v = a/(2πf) and RMS = peak/√2 (calculus of a sinusoid, textbook): the synthesiser converts, the dsp reads back.
     const a = analyse({ ...base, tones: [{ order: 1, velocityMmS: 4 }] }, [
       { key: '1x', kind: 'order', loOrder: 0.8, hiOrder: 1.2, unit: 'mm/s', measure: 'rms' },
     ]);

@@ -89,6 +89,15 @@ export interface BaselineStats {
   readonly mean: number;
   /** Sample standard deviation (n − 1 in the denominator). */
   readonly sigma: number;
+  /**
+   * Mean and sample standard deviation (n − 1) of ln(value): the statistical level is set in
+   * the log domain. Absent in baselines stored before it was kept; then derived from mean
+   * and σ by the log-normal moments (see {@link logStatsOf}).
+   */
+  readonly logMean?: number;
+  readonly logSigma?: number;
+  /** Days between the first and the last value (absent in baselines stored before). */
+  readonly spanDays?: number;
 }
 
 /**
@@ -141,6 +150,11 @@ interface BandCommon {
   /** Consecutive exceedances needed to raise (or escalate). @default 1 */
   readonly persistence?: number;
   /**
+   * Consecutive values strictly below h × the alert level needed to clear a raised band
+   * (persistence on clearing, as on raising). @default 1 (new bands and templates: 3)
+   */
+  readonly clearPersistence?: number;
+  /**
    * Hysteresis fraction h (0 < h ≤ 1): a raised band clears when a value falls strictly below
    * h × the alert level. @default 0.9
    */
@@ -156,8 +170,28 @@ interface BandCommon {
  */
 export type BandDefinition = BandCommon & BandRange;
 
-/** Persistence when a band does not set it. Common practice, no source. */
+/**
+ * Persistence when a stored band does not set it (bands saved before it had a default of its
+ * own keep behaving as they did). New bands get {@link NEW_BAND_RULES}. Common practice, no
+ * source.
+ */
 export const DEFAULT_PERSISTENCE = 1;
+/** Clear persistence when a stored band does not set it (as before it existed). */
+export const DEFAULT_CLEAR_PERSISTENCE = 1;
+/**
+ * Persistence a new band (and every template band) starts with: raise on 2 consecutive
+ * values, so one spike (a knock, a loose cable) does not alarm while a real step is still
+ * seen on its second value; clear after 3 consecutive values below the clear level, so a
+ * value scattering around its level raises and clears once, not every few days.
+ * Common practice, no source.
+ */
+export const NEW_BAND_RULES = { persistence: 2, clearPersistence: 3, hysteresis: 0.9 } as const;
+/**
+ * Smallest baseline a statistical level is set from: at least 30 usable values spread over at
+ * least 7 days (fewer values make σ, and so mean + kσ, mostly noise; a shorter span misses
+ * the machine's daily cycle of load and temperature). Common practice, no source.
+ */
+export const MIN_BASELINE = { count: 30, days: 7 } as const;
 /** Hysteresis fraction when a band does not set it. Common practice, no source. */
 export const DEFAULT_HYSTERESIS = 0.9;
 
@@ -170,9 +204,10 @@ export interface LimitSet {
 
 /**
  * Problems with a band definition, as readable sentences keyed by field; empty when the band
- * can be evaluated. Rules: finite levels with 0 ≤ alert < danger, integer persistence ≥ 1,
- * 0 < hysteresis ≤ 1, ranges with from < to, positive half-width and harmonics, k > 0,
- * kDanger > kAlert, baseline count ≥ 2 and period from < to.
+ * can be evaluated. Rules: finite levels with 0 ≤ alert < danger, integer persistence and
+ * clear persistence ≥ 1, 0 < hysteresis ≤ 1, ranges with from < to, positive half-width and
+ * harmonics, k > 0, kDanger > kAlert, a baseline of at least {@link MIN_BASELINE} (count, and
+ * period length or established baseline), period from < to.
  *
  * Source: Turnstone rules, no external source.
  */
@@ -187,6 +222,9 @@ export function checkBandDefinition(band: BandDefinition): { field: string; mess
   const persistence = band.persistence ?? DEFAULT_PERSISTENCE;
   if (!Number.isInteger(persistence) || persistence < 1)
     bad('persistence', 'persistence must be a whole number ≥ 1');
+  const clearPersistence = band.clearPersistence ?? DEFAULT_CLEAR_PERSISTENCE;
+  if (!Number.isInteger(clearPersistence) || clearPersistence < 1)
+    bad('clearPersistence', 'clear persistence must be a whole number ≥ 1');
   const hysteresis = band.hysteresis ?? DEFAULT_HYSTERESIS;
   if (!(hysteresis > 0 && hysteresis <= 1))
     bad('hysteresis', 'hysteresis must be a fraction above 0 and at most 1');
@@ -217,12 +255,29 @@ export function checkBandDefinition(band: BandDefinition): { field: string; mess
     if (!(rule.kAlert > 0)) bad('statistical.kAlert', 'k for alert must be above 0');
     if (rule.kDanger !== undefined && !(rule.kDanger > rule.kAlert))
       bad('statistical.kDanger', 'k for danger must be above k for alert');
+    const least = `a statistical level needs a baseline of at least ${MIN_BASELINE.count} usable values over at least ${MIN_BASELINE.days} days`;
     if (rule.baseline.from === 'first-n') {
-      if (!(Number.isInteger(rule.baseline.count) && rule.baseline.count >= 2))
-        bad('statistical.baseline.count', 'a baseline needs at least 2 values');
+      if (!(Number.isInteger(rule.baseline.count) && rule.baseline.count >= MIN_BASELINE.count))
+        bad(
+          'statistical.baseline.count',
+          `${least}; ${rule.baseline.count} value(s) would make mean + kσ mostly noise`,
+        );
     } else if (!(rule.baseline.fromAt < rule.baseline.toAt)) {
       bad('statistical.baseline.toAt', 'the baseline period must end after it starts');
+    } else if (rule.baseline.toAt - rule.baseline.fromAt < MIN_BASELINE.days * 86_400_000) {
+      bad('statistical.baseline.toAt', `${least}; this period is shorter`);
     }
+    const est = rule.established;
+    if (est !== undefined && est.count < MIN_BASELINE.count)
+      bad(
+        'statistical.established.count',
+        `${least}; the given baseline has ${est.count} value(s)`,
+      );
+    else if (est !== undefined && est.spanDays !== undefined && est.spanDays < MIN_BASELINE.days)
+      bad(
+        'statistical.established.spanDays',
+        `${least}; the given baseline spans ${est.spanDays.toFixed(1)} days`,
+      );
   }
   return problems;
 }

@@ -24,17 +24,18 @@ const band: BandDefinition = {
   dangerLevel: 8,
 };
 
-/** Feeds values one hour apart; returns the final state and every sample's events. */
+/** Feeds values one hour (or `step` ms) apart; returns the final state and every sample's events. */
 function feed(
   definition: BandDefinition,
   values: readonly (number | [number, QualityVerdict])[],
   start: BandState = INITIAL_BAND_STATE,
+  step = HOUR,
 ): { state: BandState; events: BandEvent[][] } {
   let state = start;
   const events: BandEvent[][] = [];
   values.forEach((entry, i) => {
     const [value, quality] = typeof entry === 'number' ? [entry, 'ok' as const] : entry;
-    const sample: BandSample = { takenAt: T0 + i * HOUR, value, quality };
+    const sample: BandSample = { takenAt: T0 + i * step, value, quality };
     const result = evaluateBand(definition, state, sample);
     state = result.state;
     events.push(result.events);
@@ -148,6 +149,53 @@ describe('evaluateBand — hysteresis and clearing', () => {
   });
 });
 
+describe('evaluateBand — clear persistence', () => {
+  const chattery: BandDefinition = { ...band, hysteresis: 0.95 };
+  // a value sitting at the alert level ± 8 %, 4 values a day for a year: a cosine sweep
+  // 4·(1 + 0.08·cos(2π·i/7)) visits 0.92–1.08 × alert; values below 0.95 × 4 = 3.8 come in runs
+  // of at most 2 (cos(2π·i/7) < −0.625 for i ≡ 3, 4 mod 7; hand arithmetic)
+  const year = Array.from(
+    { length: 4 * 365 },
+    (_, i) => 4 * (1 + 0.08 * Math.cos((2 * Math.PI * i) / 7)),
+  );
+  const cycles = (def: BandDefinition) =>
+    feed(def, year)
+      .events.flat()
+      .filter((e) => e.kind === 'exceedance').length;
+
+  it('when clearing takes one value, a value at its level ± 8 % raises and clears every week', () => {
+    // one cycle per 7-value period: 1460 / 7 → 208 or 209 (hand arithmetic)
+    expect(cycles(chattery)).toBeGreaterThan(200);
+  });
+
+  it('when clearing takes 3 consecutive values below the clear level, it raises once', () => {
+    expect(cycles({ ...chattery, clearPersistence: 3 })).toBe(1);
+  });
+
+  it('when 3 values in a row fall below the clear level, the third clears it and names the run', () => {
+    const { state, events } = feed({ ...band, clearPersistence: 3 }, [5, 3, 3, 3.7, 3, 3, 3]);
+    expect(kinds(events)).toEqual([
+      'exceedance',
+      'observation',
+      'observation',
+      'observation',
+      'observation',
+      'observation',
+      'inside-limits',
+    ]);
+    expect(events[6]?.[0]).toMatchObject({ kind: 'inside-limits', run: 3 });
+    expect(state.condition).toBe('normal');
+    expect(state.clearRun).toBe(0);
+  });
+
+  it('when a state stored before clear persistence existed is read, its run counts from 0', () => {
+    const old = { ...INITIAL_BAND_STATE, condition: 'alert' as const, alertRun: 1 };
+    delete (old as { clearRun?: number }).clearRun;
+    const { events } = feed({ ...band, clearPersistence: 2 }, [3, 3], old);
+    expect(kinds(events)).toEqual(['observation', 'inside-limits']);
+  });
+});
+
 describe('evaluateBand — quality gating', () => {
   it('when a snapshot is unusable, it raises nothing and gives a quality notice', () => {
     const { state, events } = feed(band, [[20, 'unusable']]);
@@ -221,8 +269,13 @@ describe('evaluateBand — order of values', () => {
 describe('evaluateBand — statistical levels', () => {
   const statistical: BandDefinition = {
     ...band,
-    statistical: { kAlert: 3, baseline: { from: 'first-n', count: 4 } },
+    statistical: { kAlert: 3, baseline: { from: 'first-n', count: 30 } },
   };
+  const DAY = 24 * HOUR;
+  // 30 daily baseline values e^(±0.2), 15 each: ln mean 0, sample σ 0.2·√(30/29) (hand
+  // arithmetic); the log-domain 3σ level is e^(0.6·√(30/29)) = 1.8401
+  const baseline = Array.from({ length: 30 }, (_, i) => Math.exp(i % 2 ? 0.2 : -0.2));
+  const level = Math.exp(0.6 * Math.sqrt(30 / 29));
 
   it('when the baseline is still being collected, the fixed levels apply', () => {
     // baseline 1, 1.2, 1.4 not complete; 5 ≥ fixed alert 4
@@ -230,27 +283,36 @@ describe('evaluateBand — statistical levels', () => {
     expect(events[2]?.[0]).toMatchObject({ kind: 'exceedance', limit: 4 });
   });
 
-  it('when the first-n baseline completes, mean + 3σ becomes the alert level', () => {
-    // baseline 1, 1, 1, 1.4: mean 1.1, sample σ = √(0.12 / 3) = 0.2 (hand arithmetic, n − 1);
-    // alert = min(fixed 4, 1.1 + 3·0.2) = 1.7
-    const { state, events } = feed(statistical, [1, 1, 1, 1.4, 1.69, 1.7]);
-    expect(events[3]?.[0]).toMatchObject({ kind: 'baseline-complete' });
-    const stats = (events[3]?.[0] as { stats: { mean: number; sigma: number } }).stats;
-    expect(stats.mean).toBeCloseTo(1.1, 12);
-    expect(stats.sigma).toBeCloseTo(0.2, 12);
-    expect(kinds(events).slice(4)).toEqual(['', 'exceedance']);
-    expect((events[5]?.[0] as { limit: number }).limit).toBeCloseTo(1.7, 12);
+  it('when the first-n baseline completes, the log-domain 3σ level becomes the alert level', () => {
+    const { state, events } = feed(
+      statistical,
+      [...baseline, level * 0.999, level * 1.001],
+      undefined,
+      DAY,
+    );
+    expect(events[29]?.[0]).toMatchObject({ kind: 'baseline-complete' });
+    const stats = (events[29]?.[0] as { stats: { logMean: number; logSigma: number } }).stats;
+    expect(stats.logMean).toBeCloseTo(0, 12);
+    expect(stats.logSigma).toBeCloseTo(0.2 * Math.sqrt(30 / 29), 12);
+    expect(kinds(events).slice(30)).toEqual(['', 'exceedance']);
+    expect((events[31]?.[0] as { limit: number }).limit).toBeCloseTo(level, 10);
     expect(state.baselineComplete).toBe(true);
   });
 
+  it('when 4 values are all a baseline has, the fixed levels stay in force', () => {
+    const { events } = feed(statistical, [1, 1, 1, 1.4, 3.9, 4], undefined, DAY);
+    expect(kinds(events)).toEqual(['', '', '', '', '', 'exceedance']);
+    expect(events[5]?.[0]).toMatchObject({ limit: 4 });
+  });
+
   it('when the baseline is complete, later values do not change it', () => {
-    const { state } = feed(statistical, [1, 1, 1, 1.4, 3, 3]);
-    expect(state.baseline.count).toBe(4);
+    const { state } = feed(statistical, [...baseline, 3, 3], undefined, DAY);
+    expect(state.baseline.count).toBe(30);
   });
 
   it('when unusable values come first, the baseline skips them', () => {
     const { state } = feed(statistical, [[50, 'unusable'], 1, 1, 1, 1.4]);
-    expect(state.baseline).toMatchObject({ count: 4 });
+    expect(state.baseline).toMatchObject({ count: 4, logCount: 4 });
     expect(state.baseline.mean).toBeCloseTo(1.1, 12);
   });
 
@@ -261,9 +323,10 @@ describe('evaluateBand — statistical levels', () => {
   });
 
   it('when the rule carries an established baseline, it applies from the first value', () => {
-    const rule = { ...statistical.statistical!, established: { count: 10, mean: 1, sigma: 0.1 } };
-    // alert = min(4, 1 + 3·0.1) = 1.3
-    const { events } = feed({ ...statistical, statistical: rule }, [1.29, 1.3]);
+    const established = { count: 30, mean: 1, sigma: 0.1, logMean: 0, logSigma: 0.1 };
+    const rule = { ...statistical.statistical!, established };
+    // alert = min(4, e^(3·0.1)) = 1.3499 (hand arithmetic)
+    const { events } = feed({ ...statistical, statistical: rule }, [1.349, 1.35]);
     expect(kinds(events)).toEqual(['', 'exceedance']);
   });
 });

@@ -7,7 +7,12 @@ import {
   EMPTY_BASELINE,
   type BaselineAccumulator,
 } from './baseline.ts';
-import { bandHysteresis, bandPersistence, effectiveLevels } from './effective-levels.ts';
+import {
+  bandClearPersistence,
+  bandHysteresis,
+  bandPersistence,
+  levelsInForce,
+} from './effective-levels.ts';
 import type { QualityVerdict } from './quality.ts';
 
 /** Alert levels, in increasing severity. */
@@ -32,6 +37,11 @@ export interface BandState {
   readonly alertRunSuspect: boolean;
   /** Whether any value of the current danger run was `suspect`. */
   readonly dangerRunSuspect: boolean;
+  /**
+   * Consecutive usable values strictly below the clear level while raised (absent in states
+   * stored before it was kept: read as 0).
+   */
+  readonly clearRun?: number;
   /** The baseline collected so far for a statistical rule. */
   readonly baseline: BaselineAccumulator;
   /** Whether the collected baseline is complete (then it no longer changes). */
@@ -47,6 +57,7 @@ export const INITIAL_BAND_STATE: BandState = {
   dangerRun: 0,
   alertRunSuspect: false,
   dangerRunSuspect: false,
+  clearRun: 0,
   baseline: EMPTY_BASELINE,
   baselineComplete: false,
   lastTakenAt: null,
@@ -84,13 +95,17 @@ export type BandEvent =
       readonly takenAt: number;
       readonly suspect: boolean;
     }
-  /** The band is back inside limits: `value` is strictly below `limit` = h × alert level. */
+  /**
+   * The band is back inside limits: `run` consecutive values (the clear persistence) strictly
+   * below `limit` = h × alert level; `value` is the latest of them.
+   */
   | {
       readonly kind: 'inside-limits';
       readonly value: number;
       readonly limit: number;
       readonly takenAt: number;
       readonly suspect: boolean;
+      readonly run?: number;
     }
   /** An `unusable` snapshot: nothing was evaluated; the engineer should look at the data. */
   | {
@@ -131,7 +146,8 @@ export interface BandEvaluation {
  *    `late` event and changes nothing: limit evaluation needs time order, and a late value
  *    must not re-open or clear a present alert.
  * 3. Baseline. A statistical rule's baseline takes the value first (see `baselineTakes`); the
- *    levels in force are then computed by `effectiveLevels`.
+ *    levels in force are then computed by `levelsInForce` (the one function the trend page
+ *    and review use too).
  * 4. Exceedance. A value **at or above** a level exceeds it (the same "on the boundary is the
  *    higher side" rule as `isoZone`). Each level counts its consecutive exceedances; a value
  *    below the level resets its count.
@@ -139,8 +155,10 @@ export interface BandEvaluation {
  *    the band is not at danger, an `exceedance` at danger follows (raising directly, or
  *    escalating from alert); otherwise when the count for alert reaches n and the band is
  *    normal, an `exceedance` at alert follows.
- * 6. Clearing. A raised band (alert or danger) clears on the first value **strictly below**
- *    h × the alert level in force (hysteresis h, default 0.9): an `inside-limits` event.
+ * 6. Clearing. A raised band (alert or danger) clears after `clearPersistence` (default 3)
+ *    consecutive values **strictly below** h × the alert level in force (hysteresis h,
+ *    default 0.9): an `inside-limits` event. A value at or above the clear level resets the
+ *    count, so a value scattering around its level raises and clears once, not every day.
  *    A raised band never steps down from danger to alert; it stays at its highest level
  *    until it clears.
  * 7. Any other value while raised is an `observation` (for last and peak values).
@@ -182,7 +200,7 @@ export function evaluateBand(
   const rule = band.statistical;
   if (rule !== undefined && rule.established === undefined && !complete) {
     if (baselineTakes(rule.baseline, baseline, sample, rule.includeSuspect ?? true)) {
-      baseline = addToBaseline(baseline, sample.value);
+      baseline = addToBaseline(baseline, sample.value, sample.takenAt);
     }
     if (baselineComplete(rule.baseline, baseline, sample.takenAt)) {
       complete = true;
@@ -191,7 +209,7 @@ export function evaluateBand(
         events.push({ kind: 'baseline-complete', takenAt: sample.takenAt, stats });
     }
   }
-  const levels = effectiveLevels(band, complete ? baselineStats(baseline) : null);
+  const levels = levelsInForce(band, { baseline, baselineComplete: complete });
 
   // 4. consecutive exceedances per level
   const overAlert = sample.value >= levels.alertLevel;
@@ -204,6 +222,8 @@ export function evaluateBand(
 
   const n = bandPersistence(band);
   const clearBelow = bandHysteresis(band) * levels.alertLevel;
+  const below = state.condition !== 'normal' && sample.value < clearBelow;
+  let clearRun = below ? (state.clearRun ?? 0) + 1 : 0;
   let condition = state.condition;
 
   if (condition !== 'danger' && dangerRun >= n) {
@@ -228,7 +248,7 @@ export function evaluateBand(
       run: alertRun,
       suspect: alertRunSuspect,
     });
-  } else if (condition !== 'normal' && sample.value < clearBelow) {
+  } else if (condition !== 'normal' && below && clearRun >= bandClearPersistence(band)) {
     condition = 'normal';
     events.push({
       kind: 'inside-limits',
@@ -236,7 +256,9 @@ export function evaluateBand(
       limit: clearBelow,
       takenAt: sample.takenAt,
       suspect,
+      run: clearRun,
     });
+    clearRun = 0;
   } else if (condition !== 'normal') {
     events.push({ kind: 'observation', value: sample.value, takenAt: sample.takenAt, suspect });
   }
@@ -248,6 +270,7 @@ export function evaluateBand(
       dangerRun,
       alertRunSuspect,
       dangerRunSuspect,
+      clearRun,
       baseline,
       baselineComplete: complete,
       lastTakenAt: sample.takenAt,

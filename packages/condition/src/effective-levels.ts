@@ -1,11 +1,12 @@
 import {
+  DEFAULT_CLEAR_PERSISTENCE,
   DEFAULT_HYSTERESIS,
   DEFAULT_PERSISTENCE,
   type BandDefinition,
   type BaselineStats,
   type StatisticalCombine,
 } from './band-definition.ts';
-import { statisticalLevel } from './baseline.ts';
+import { baselineStats, statisticalLevel, type BaselineAccumulator } from './baseline.ts';
 
 /** The levels in force for a band at one moment. */
 export interface EffectiveLevels {
@@ -28,8 +29,9 @@ function combine(fixed: number, statistical: number, how: StatisticalCombine): n
  * one on the rule, else the accumulated one once complete, else none).
  *
  * Rule: without a statistical rule or baseline, the fixed levels. With one, alert =
- * combine(fixed alert, mean + kAlert·σ) and, when `kDanger` is set, danger =
- * combine(fixed danger, mean + kDanger·σ), where combine is `min` (default: the earlier
+ * combine(fixed alert, L(kAlert)) and, when `kDanger` is set, danger =
+ * combine(fixed danger, L(kDanger)), L(k) the log-domain k-sigma level of
+ * {@link statisticalLevel}, where combine is `min` (default: the earlier
  * warning, fixed level as ceiling), `max` (fixed level as floor) or `statistical` (statistical
  * level alone). If the combined alert level ends above the danger level, it is lowered to the
  * danger level, so danger is never easier to reach than alert is.
@@ -62,9 +64,40 @@ export function effectiveLevels(
   return { alertLevel, dangerLevel, source: 'statistical', baseline: stats };
 }
 
+/** What {@link levelsInForce} reads of a band's evaluation state (see `BandState`). */
+export interface BaselineProgress {
+  readonly baseline: BaselineAccumulator;
+  readonly baselineComplete: boolean;
+}
+
+/**
+ * The levels in force for a band given its stored evaluation state (or null before its first
+ * value): {@link effectiveLevels} with the rule's established baseline, else the collected
+ * one once complete. The **one** place that decides which levels apply: the worker
+ * (`evaluateBand`), the trend answer and chart, the projection and the weekly review all call
+ * it, so they draw, project and alarm to the same levels.
+ *
+ * Source: Turnstone rule, no external source.
+ */
+export function levelsInForce(
+  band: BandDefinition,
+  state: BaselineProgress | null | undefined,
+): EffectiveLevels {
+  const collected =
+    state !== null && state !== undefined && state.baselineComplete
+      ? baselineStats(state.baseline)
+      : null;
+  return effectiveLevels(band, collected);
+}
+
 /** Persistence of a band with its default applied. Common practice, no source. */
 export function bandPersistence(band: BandDefinition): number {
   return band.persistence ?? DEFAULT_PERSISTENCE;
+}
+
+/** Clear persistence of a band with its default applied. Common practice, no source. */
+export function bandClearPersistence(band: BandDefinition): number {
+  return band.clearPersistence ?? DEFAULT_CLEAR_PERSISTENCE;
 }
 
 /** Hysteresis fraction of a band with its default applied. Common practice, no source. */

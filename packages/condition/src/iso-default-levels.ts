@@ -1,4 +1,9 @@
-import { isoZoneBoundaries, type Foundation, type MachineGroup } from './iso-zones.ts';
+import {
+  isoDisplacementBoundaries,
+  isoZoneBoundaries,
+  type Foundation,
+  type MachineGroup,
+} from './iso-zones.ts';
 
 /** Alert and danger levels for overall velocity, mm/s RMS. */
 export interface IsoDefaultLevels {
@@ -20,5 +25,18 @@ export interface IsoDefaultLevels {
  */
 export function isoDefaultLevels(group: MachineGroup, foundation: Foundation): IsoDefaultLevels {
   const { bc, cd } = isoZoneBoundaries(group, foundation);
+  return { alertLevel: bc, dangerLevel: cd };
+}
+
+/**
+ * Default alert and danger levels for overall displacement (µm RMS), alert at the B/C and
+ * danger at the C/D displacement boundary, for machines where displacement governs.
+ * Source: ISO 20816-3 displacement boundaries (from memory); the placement is common practice.
+ */
+export function isoDisplacementDefaultLevels(
+  group: MachineGroup,
+  foundation: Foundation,
+): IsoDefaultLevels {
+  const { bc, cd } = isoDisplacementBoundaries(group, foundation);
   return { alertLevel: bc, dangerLevel: cd };
 }

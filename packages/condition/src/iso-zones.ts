@@ -94,3 +94,92 @@ export function isoZone(velocityMmS: number, group: MachineGroup, foundation: Fo
   if (velocityMmS >= ab) return 'B';
   return 'A';
 }
+
+/** The three zone boundaries of one machine class, overall displacement in µm RMS. */
+export type DisplacementBoundaries = ZoneBoundaries;
+
+/**
+ * Displacement zone boundaries in µm RMS by machine group and foundation, for machines where
+ * displacement governs (low speeds, where a constant-velocity boundary would admit large
+ * excursions).
+ *
+ * Source: ISO 10816-3:2009 Annex A tables (displacement beside velocity), carried into ISO
+ * 20816-3 — values **from memory**, not read from the purchased text; check them against the
+ * standard before relying on them.
+ */
+export const ISO_20816_3_DISPLACEMENT_BOUNDARIES: Readonly<
+  Record<MachineGroup, Readonly<Record<Foundation, DisplacementBoundaries>>>
+> = {
+  1: {
+    // group 1 (large), µm RMS, from memory
+    rigid: { ab: 29, bc: 57, cd: 90 },
+    flexible: { ab: 45, bc: 90, cd: 140 },
+  },
+  2: {
+    // group 2 (medium), µm RMS, from memory
+    rigid: { ab: 22, bc: 45, cd: 71 },
+    flexible: { ab: 37, bc: 71, cd: 113 },
+  },
+};
+
+/** Displacement zone boundaries (µm RMS). Source: ISO 20816-3 / 10816-3, from memory. */
+export function isoDisplacementBoundaries(
+  group: MachineGroup,
+  foundation: Foundation,
+): DisplacementBoundaries {
+  const boundaries = ISO_20816_3_DISPLACEMENT_BOUNDARIES[group]?.[foundation];
+  if (boundaries === undefined)
+    throw new RangeError(`unknown ISO 20816-3 class: group ${group}, ${foundation}`);
+  return boundaries;
+}
+
+/**
+ * ISO 20816-3 zone of an overall displacement (µm RMS), on the same boundary rule as
+ * {@link isoZone} (on a boundary is the higher zone). Source: boundaries from memory (see
+ * {@link ISO_20816_3_DISPLACEMENT_BOUNDARIES}); boundary rule Turnstone's.
+ */
+export function isoDisplacementZone(
+  displacementUm: number,
+  group: MachineGroup,
+  foundation: Foundation,
+): IsoZone {
+  if (!Number.isFinite(displacementUm) || displacementUm < 0) {
+    throw new RangeError(
+      `overall displacement must be a finite value ≥ 0 µm, got ${displacementUm}`,
+    );
+  }
+  const { ab, bc, cd } = isoDisplacementBoundaries(group, foundation);
+  if (displacementUm >= cd) return 'D';
+  if (displacementUm >= bc) return 'C';
+  if (displacementUm >= ab) return 'B';
+  return 'A';
+}
+
+/**
+ * The zone when both criteria apply: the worse of the velocity and the displacement zone
+ * (ISO 20816-3 evaluates both and the more severe governs; from memory).
+ */
+export function isoZoneBoth(
+  velocityMmS: number,
+  displacementUm: number,
+  group: MachineGroup,
+  foundation: Foundation,
+): IsoZone {
+  const v = isoZone(velocityMmS, group, foundation);
+  const d = isoDisplacementZone(displacementUm, group, foundation);
+  return v > d ? v : d;
+}
+
+/**
+ * Running speed (r/min) below which the displacement B/C boundary is the stricter one for a
+ * machine vibrating at its running speed: a sine at f Hz with velocity v (mm/s RMS) has
+ * displacement v / (2πf) (mm RMS), so the two boundaries meet where f = v_BC / (2π·d_BC).
+ * Group 2 rigid: 2.8 / (2π · 0.045) = 9.9 Hz ≈ 594 r/min.
+ *
+ * Source: v = 2πf·d for a sine (definition); boundaries from memory (see above).
+ */
+export function displacementGovernsBelowRpm(group: MachineGroup, foundation: Foundation): number {
+  const v = isoZoneBoundaries(group, foundation).bc;
+  const d = isoDisplacementBoundaries(group, foundation).bc / 1000;
+  return (60 * v) / (2 * Math.PI * d);
+}

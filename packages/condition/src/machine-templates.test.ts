@@ -20,6 +20,42 @@ describe('limitSetFromTemplate', () => {
     ]);
   });
 
+  it('when the shaft turns at 300 r/min, displacement governs and an overall displacement band is added', () => {
+    // ISO 20816-3 displacement boundaries group 2 rigid B/C 45, C/D 71 µm RMS (from memory)
+    const slow = limitSetFromTemplate({
+      type: 'fan',
+      isoGroup: 2,
+      foundation: 'rigid',
+      nominalRpm: 300,
+    });
+    const band = slow.bands.find((b) => b.key === 'overall-displacement');
+    expect(band).toMatchObject({
+      kind: 'overall',
+      spectrum: 'displacement',
+      measure: 'rms',
+      unit: 'um',
+      fromHz: 2,
+      toHz: 1000,
+      alertLevel: 45,
+      dangerLevel: 71,
+    });
+    expect(band?.levelSource).toMatch(/from memory/);
+    expect(checkBandDefinition(band!)).toEqual([]);
+    expect(keys('fan')).not.toContain('overall-displacement');
+  });
+
+  it('when built, every band raises on 2 values and clears on 3', () => {
+    // common practice, no source
+    for (const b of limitSetFromTemplate({
+      type: 'pump',
+      isoGroup: 1,
+      foundation: 'flexible',
+      nominalRpm: 1480,
+    }).bands) {
+      expect([b.persistence, b.clearPersistence]).toEqual([2, 3]);
+    }
+  });
+
   it('when built for a gearbox, it adds a gear-mesh band and no blade pass', () => {
     expect(keys('gearbox')).toContain('gear-mesh');
     expect(keys('gearbox')).not.toContain('blade-pass');

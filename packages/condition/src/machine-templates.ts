@@ -1,7 +1,7 @@
-import type { BandDefinition, LimitSet } from './band-definition.ts';
+import { NEW_BAND_RULES, type BandDefinition, type LimitSet } from './band-definition.ts';
 import { isoBand } from './iso-band.ts';
-import { isoDefaultLevels } from './iso-default-levels.ts';
-import type { Foundation, MachineGroup } from './iso-zones.ts';
+import { isoDefaultLevels, isoDisplacementDefaultLevels } from './iso-default-levels.ts';
+import { displacementGovernsBelowRpm, type Foundation, type MachineGroup } from './iso-zones.ts';
 
 /** Machine types that have a limit-set template. */
 export type MachineType = 'motor' | 'pump' | 'fan' | 'blower' | 'gearbox' | 'compressor';
@@ -35,9 +35,11 @@ export interface TemplateMachine {
  */
 export const TEMPLATE_DEFAULTS = {
   /** Consecutive exceedances to raise, for template bands (one spike does not alarm). */
-  persistence: 2,
+  persistence: NEW_BAND_RULES.persistence,
+  /** Consecutive values below the clear level to clear (a scattering value clears once). */
+  clearPersistence: NEW_BAND_RULES.clearPersistence,
   /** Clear below this fraction of the alert level. */
-  hysteresis: 0.9,
+  hysteresis: NEW_BAND_RULES.hysteresis,
   /** Band used when the speed is outside ISO 20816-3's 120–30 000 r/min, Hz. */
   fallbackIsoBand: { fromHz: 10, toHz: 1000 },
   /** Overall acceleration span, Hz. */
@@ -67,10 +69,14 @@ const NO_SOURCE = 'template default, common practice, no source';
  * - every type: overall velocity over the ISO band with the ISO 20816-3 default levels
  *   (alert B/C, danger C/D), overall acceleration, a 1× and a 2× order band;
  * - with rolling bearings (default): BPFO, BPFI and BSF bands on the envelope spectrum;
+ * - at speeds where displacement governs (below {@link displacementGovernsBelowRpm}, about
+ *   600 r/min), an overall displacement band (µm RMS over the ISO band) at the ISO 20816-3
+ *   displacement boundaries (alert B/C, danger C/D, from memory);
  * - gearbox: a gear-mesh band (and a doubled acceleration level);
  * - fan and blower: a blade-pass band; pump: the same band for vane pass.
  *
- * Band keys are stable: `overall-velocity`, `overall-acceleration`, `order-1x`, `order-2x`,
+ * Band keys are stable: `overall-velocity`, `overall-displacement`, `overall-acceleration`,
+ * `order-1x`, `order-2x`,
  * `bpfo`, `bpfi`, `bsf`, `gear-mesh`, `blade-pass`.
  *
  * Source: ISO 20816-3 for the overall velocity levels (from memory); everything else
@@ -81,7 +87,11 @@ export function limitSetFromTemplate(machine: TemplateMachine): LimitSet {
   const iso = isoDefaultLevels(machine.isoGroup, machine.foundation);
   const span = isoBand(machine.nominalRpm);
   const velocitySpan = span ?? d.fallbackIsoBand;
-  const common = { persistence: d.persistence, hysteresis: d.hysteresis };
+  const common = {
+    persistence: d.persistence,
+    clearPersistence: d.clearPersistence,
+    hysteresis: d.hysteresis,
+  };
   const scaled = (fraction: number) => ({
     alertLevel: round(iso.alertLevel * fraction),
     dangerLevel: round(iso.dangerLevel * fraction),
@@ -105,6 +115,23 @@ export function limitSetFromTemplate(machine: TemplateMachine): LimitSet {
           ? `ISO 20816-3 zones B/C and C/D (from memory); speed outside the standard's scope, ${NO_SOURCE} band`
           : `ISO 20816-3 zones B/C and C/D, group ${machine.isoGroup} ${machine.foundation} (from memory)`,
     },
+    ...(machine.nominalRpm < displacementGovernsBelowRpm(machine.isoGroup, machine.foundation)
+      ? [
+          {
+            key: 'overall-displacement',
+            name: `Overall displacement ${velocitySpan.fromHz}–${velocitySpan.toHz} Hz`,
+            kind: 'overall' as const,
+            fromHz: velocitySpan.fromHz,
+            toHz: velocitySpan.toHz,
+            spectrum: 'displacement' as const,
+            measure: 'rms' as const,
+            unit: 'um' as const,
+            ...isoDisplacementDefaultLevels(machine.isoGroup, machine.foundation),
+            ...common,
+            levelSource: `ISO 20816-3 displacement zones B/C and C/D, group ${machine.isoGroup} ${machine.foundation} (from memory); displacement governs at ${machine.nominalRpm} r/min`,
+          },
+        ]
+      : []),
     {
       key: 'overall-acceleration',
       name: `Overall acceleration ${d.accelerationBand.fromHz}–${d.accelerationBand.toHz} Hz`,

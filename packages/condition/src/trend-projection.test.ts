@@ -179,3 +179,99 @@ print(json.dumps([float(p[0]), float(p[1]), float(r2)]))`,
     expect(result.outcome).toBe('not-rising');
   });
 });
+
+describe('projectTrend — the recent regime', () => {
+  // 60 flat days at 1, then +5 %/day for 15 days: v = 1.05^j on day 59 + j (definition).
+  // Alert is set where the rise will be 2.2 days after the latest point: 1.05^(15 + 2.2).
+  const turn = [
+    ...Array.from({ length: 60 }, () => 1),
+    ...Array.from({ length: 15 }, (_, j) => 1.05 ** (j + 1)),
+  ];
+  const alert = 1.05 ** 17.2;
+  const turnLevels = { alertLevel: alert, dangerLevel: 2 * alert };
+  const latestAt = T0 + 74 * DAY;
+
+  it('when a flat trend turns upward at +5 %/day, the crossing is projected 2.2 days ahead from the turn', () => {
+    // hand arithmetic: 1.05^(15 + x) = 1.05^17.2 → x = 2.2 days after the latest point
+    const result = projectTrend(daily(turn), turnLevels);
+    expect(result.outcome).toBe('projected');
+    expect(result.fit?.model).toBe('exponential');
+    expect(((result.crossingAt ?? 0) - latestAt) / DAY).toBeCloseTo(2.2, 6);
+    expect(result.window).toMatchObject({ changed: true, toAt: latestAt });
+    // the regime starts at the turn (day 59, where ln v = (d − 59)·ln 1.05 begins, or day 60)
+    expect(((result.window?.fromAt ?? 0) - T0) / DAY).toBeGreaterThanOrEqual(59);
+    expect(((result.window?.fromAt ?? 0) - T0) / DAY).toBeLessThanOrEqual(60);
+  });
+
+  it('when a trend rises in a straight line, it is one regime and the line fit gives the crossing', () => {
+    // v = 1 + 0.05·d for 14 days: curved in ln(v) but by less than 1 %, so no break; the line
+    // reaches 2.24 at d = 24.8 (hand arithmetic)
+    const result = projectTrend(daily(Array.from({ length: 14 }, (_, d) => 1 + 0.05 * d)), {
+      alertLevel: 2.24,
+      dangerLevel: 4,
+    });
+    expect(result.window).toMatchObject({ changed: false, points: 14 });
+    expect(result.fit?.model).toBe('linear');
+    expect(((result.crossingAt ?? 0) - T0) / DAY).toBeCloseTo(24.8, 6);
+  });
+
+  it('when every point is fitted, the same turn is projected far too late (why the window matters)', () => {
+    const result = projectTrend(daily(turn), turnLevels, { changePoints: false });
+    expect(((result.crossingAt ?? 0) - latestAt) / DAY).toBeGreaterThan(10);
+    expect(result.window).toMatchObject({ changed: false, points: 75 });
+  });
+
+  it('when the fit puts the crossing before now, it is reported at now and marked overdue', () => {
+    // the trend stopped 30 days ago; the rise crossed alert 2.2 days after its last value
+    const now = latestAt + 30 * DAY;
+    const result = projectTrend(daily(turn), turnLevels, { now });
+    expect(result.crossingAt).toBe(now);
+    expect(result.overdue).toBe(true);
+    const ahead = projectTrend(daily(turn), turnLevels);
+    expect(ahead.overdue).toBe(false);
+  });
+
+  // seeded log-normal scatter (mulberry32 + Box–Muller, definitions) for the noisy cases
+  const noisy = (seed: number, n: number, median: (d: number) => number, s: number) => {
+    let a = seed;
+    const u = () => {
+      a = (a + 0x6d2b79f5) >>> 0;
+      let t = a;
+      t = Math.imul(t ^ (t >>> 15), t | 1);
+      t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+      return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+    };
+    return Array.from({ length: n }, (_, d) => {
+      const z = Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());
+      return median(d) * Math.exp(s * z);
+    });
+  };
+
+  it('when a healthy trend only scatters (20 %), no change point is found in most seeds', () => {
+    // BIC penalises the extra line: a spurious break should be rare (common practice, no source)
+    let changed = 0;
+    for (let seed = 1; seed <= 20; seed++) {
+      const r = projectTrend(daily(noisy(seed, 60, () => 1, 0.2)), levels);
+      if (r.window?.changed) changed++;
+    }
+    expect(changed).toBeLessThanOrEqual(3);
+  });
+
+  itWithNumpy(
+    'when a noisy trend turns upward, the window starts near the turn and its fit agrees with numpy',
+    () => {
+      // 90 days at 1 then +4 %/day for 25 days, 10 % log-normal scatter
+      const values = noisy(7, 115, (d) => (d < 90 ? 1 : Math.exp(0.04 * (d - 90))), 0.1);
+      const result = projectTrend(daily(values), { alertLevel: 4, dangerLevel: 8 });
+      const from = Math.round(((result.window?.fromAt ?? 0) - T0) / DAY);
+      expect(Math.abs(from - 90)).toBeLessThanOrEqual(6);
+      // numpy live: polyfit over the same window
+      const [rate] = runNumpy(
+        `y = np.array(${JSON.stringify(values.slice(from))}); t = np.arange(len(y), dtype=float)
+print(json.dumps([float(np.polyfit(t, np.log(y), 1)[0])]))`,
+      ) as [number];
+      expect(result.exponential?.ratePerDay).toBeCloseTo(rate, 10);
+      expect(rate).toBeGreaterThan(0.03);
+    },
+  );
+});

@@ -54,10 +54,25 @@ export interface TrendProjection {
   readonly exponential: ExponentialTrendFit | null;
   /** The next level above the latest value, or null when the latest is at/above danger. */
   readonly target: { readonly level: AlertLevel; readonly value: number } | null;
-  /** When the fit reaches the target (epoch ms), when `outcome` is `projected`. */
+  /**
+   * When the fit reaches the target (epoch ms), when `outcome` is `projected`; never before
+   * `now` (a crossing the fit puts in the past is due now, see `overdue`).
+   */
   readonly crossingAt: number | null;
-  /** Points used. */
+  /** The fit already reached the target at or before `now`: the level is due now. */
+  readonly overdue: boolean;
+  /** Usable points given. */
   readonly points: number;
+  /**
+   * The span the fits ran over: the recent regime after the latest change point found
+   * (`changed` true), else every usable point. Null with too few points.
+   */
+  readonly window: {
+    readonly fromAt: number;
+    readonly toAt: number;
+    readonly points: number;
+    readonly changed: boolean;
+  } | null;
 }
 
 /** Options of {@link projectTrend}. */
@@ -73,10 +88,121 @@ export interface ProjectionOptions {
    * @default 365
    */
   readonly horizonDays?: number;
+  /**
+   * The present (epoch ms): a crossing is never reported before it.
+   * @default the latest point's time
+   */
+  readonly now?: number;
+  /**
+   * Look for change points and fit only the recent regime. Turn off to fit every point.
+   * @default true
+   */
+  readonly changePoints?: boolean;
+}
+
+/** Least-squares line sums of a run of points, so a line's residual is O(1) per range. */
+interface Prefix {
+  readonly n: Float64Array;
+  readonly x: Float64Array;
+  readonly y: Float64Array;
+  readonly xx: Float64Array;
+  readonly xy: Float64Array;
+  readonly yy: Float64Array;
+}
+
+function prefixSums(xs: readonly number[], ys: readonly number[]): Prefix {
+  const len = xs.length + 1;
+  const p = {
+    n: new Float64Array(len),
+    x: new Float64Array(len),
+    y: new Float64Array(len),
+    xx: new Float64Array(len),
+    xy: new Float64Array(len),
+    yy: new Float64Array(len),
+  };
+  for (let i = 0; i < xs.length; i += 1) {
+    const x = xs[i] ?? 0;
+    const y = ys[i] ?? 0;
+    p.n[i + 1] = i + 1;
+    p.x[i + 1] = (p.x[i] ?? 0) + x;
+    p.y[i + 1] = (p.y[i] ?? 0) + y;
+    p.xx[i + 1] = (p.xx[i] ?? 0) + x * x;
+    p.xy[i + 1] = (p.xy[i] ?? 0) + x * y;
+    p.yy[i + 1] = (p.yy[i] ?? 0) + y * y;
+  }
+  return p;
+}
+
+/** Residual sum of squares of the least-squares line through points [from, to). */
+function lineSse(p: Prefix, from: number, to: number): number {
+  const d = (a: Float64Array) => (a[to] ?? 0) - (a[from] ?? 0);
+  const n = to - from;
+  const sx = d(p.x);
+  const sy = d(p.y);
+  const sxx = d(p.xx) - (sx * sx) / n;
+  const sxy = d(p.xy) - (sx * sy) / n;
+  const syy = d(p.yy) - (sy * sy) / n;
+  const sse = sxx > 0 ? syy - (sxy * sxy) / sxx : syy;
+  return Math.max(0, sse);
+}
+
+/** BIC parameter count of two lines and their break (see {@link recentRegimeStart}). */
+const BREAK_PENALTY = 8;
+
+/**
+ * Index of the first point of the recent regime: binary segmentation with two separate
+ * straight lines (a step, a turn or both at the break) against one line, accepted by the
+ * Bayesian information criterion n·ln(SSE/n) + p·ln n (one line p = 2; two lines and the
+ * break p = 5, with the 3 added parameters counted twice, p = 8, so that scatter alone seldom
+ * makes a break when the search repeats on ever shorter later parts); repeated on the later
+ * part until no break is accepted. Each part keeps at least `minPoints` points. Residual
+ * scatter below `noise` (RMS, in y's unit) counts as `noise`: a curve smoother than the
+ * measurement repeats is not split into regimes.
+ *
+ * Source: change-point detection by binary segmentation (Scott & Knott 1974) with BIC
+ * (Schwarz 1978); the use here is Turnstone's, no source.
+ */
+export function recentRegimeStart(
+  xs: readonly number[],
+  ys: readonly number[],
+  minPoints: number,
+  noise = 0,
+): number {
+  const p = prefixSums(xs, ys);
+  let start = 0;
+  const end = xs.length;
+  for (;;) {
+    const n = end - start;
+    if (n < 2 * minPoints) return start;
+    const scale = (lineSse(p, start, end) + 1e-12 * ((p.yy[end] ?? 0) - (p.yy[start] ?? 0))) / n;
+    const floor = Math.max(noise * noise, 1e-9 * scale) + Number.MIN_VALUE;
+    const one = n * Math.log(Math.max(lineSse(p, start, end) / n, floor)) + 2 * Math.log(n);
+    // the break with the least residual, then whether it beats one line once scatter finer
+    // than `noise` counts as `noise`
+    let best = -1;
+    let bestSse = Number.POSITIVE_INFINITY;
+    for (let k = start + minPoints; k <= end - minPoints; k += 1) {
+      if ((xs[k] ?? 0) === (xs[k - 1] ?? 0)) continue;
+      const sse = lineSse(p, start, k) + lineSse(p, k, end);
+      if (sse < bestSse) {
+        bestSse = sse;
+        best = k;
+      }
+    }
+    const two = n * Math.log(Math.max(bestSse / n, floor)) + BREAK_PENALTY * Math.log(n);
+    if (best < 0 || !(two < one)) return start;
+    start = best;
+  }
 }
 
 /**
  * Projects a band's recent trend to the date it crosses the next level.
+ *
+ * Window: the recent regime only — the points after the latest change point
+ * ({@link recentRegimeStart}, found on ln(value) when every value is above 0, else on the
+ * values; scatter under 1 % — finer than repeat measurements agree, common practice, no
+ * source — is not taken for a change), so a flat history that turns upward is projected from the turn, not averaged with
+ * months of flat values. The window is reported.
  *
  * Method: least-squares straight line through (t, value) (linear), and through (t, ln value)
  * (exponential, only when every value is > 0; it fits ln, i.e. weights relative errors, the
@@ -87,7 +213,8 @@ export interface ProjectionOptions {
  * The next level is alert when the latest value is below alert, else danger when it is below
  * danger, else there is none (`above-danger`). The crossing is where the chosen fit reaches
  * that level after the latest point; when the fit is already above it at the latest point,
- * the crossing is the latest point's time (the level is due now). No crossing when the
+ * the crossing is due now. A crossing is never reported before `now` (default the latest
+ * point's time): one the fit puts earlier is reported at `now` with `overdue`. No crossing when the
  * chosen fit is flat or falling (`not-rising`), when it lies more than `horizonDays` after
  * the latest point (`beyond-horizon`), or with fewer than `minPoints` points or no spread in
  * time (`too-few-points`).
@@ -106,6 +233,8 @@ export function projectTrend(
   const points = trend
     .filter((p) => p.quality !== 'unusable' && Number.isFinite(p.value))
     .sort((a, b) => a.takenAt - b.takenAt);
+  const given = points.length;
+  let window: TrendProjection['window'] = null;
   const none = (
     outcome: ProjectionOutcome,
     rest: Partial<TrendProjection> = {},
@@ -116,17 +245,36 @@ export function projectTrend(
     exponential: null,
     target: null,
     crossingAt: null,
-    points: points.length,
+    overdue: false,
+    points: given,
+    window,
     ...rest,
   });
 
-  const first = points[0];
+  const head = points[0];
   const latest = points[points.length - 1];
-  if (first === undefined || latest === undefined || points.length < minPoints) {
+  if (head === undefined || latest === undefined || points.length < minPoints) {
     return none('too-few-points');
   }
-  const days = points.map((p) => (p.takenAt - first.takenAt) / DAY_MS);
-  const values = points.map((p) => p.value);
+  let start = 0;
+  if (options.changePoints ?? true) {
+    const allDays = points.map((p) => (p.takenAt - head.takenAt) / DAY_MS);
+    const positive = points.every((p) => p.value > 0);
+    const ys = points.map((p) => (positive ? Math.log(p.value) : p.value));
+    // 1 % repeatability: ln units when fitting ln(value), else 1 % of the mean magnitude
+    const meanAbs = points.reduce((a, p) => a + Math.abs(p.value), 0) / points.length;
+    start = recentRegimeStart(allDays, ys, minPoints, positive ? 0.01 : 0.01 * meanAbs);
+  }
+  const recent = points.slice(start);
+  const first = recent[0] ?? head;
+  window = {
+    fromAt: first.takenAt,
+    toAt: latest.takenAt,
+    points: recent.length,
+    changed: start > 0,
+  };
+  const days = recent.map((p) => (p.takenAt - first.takenAt) / DAY_MS);
+  const values = recent.map((p) => p.value);
   const line = fitLine(days, values);
   if (line === null) return none('too-few-points');
   const linear: LinearTrendFit = {
@@ -174,13 +322,18 @@ export function projectTrend(
     if (!(fit.ratePerDay > 0)) return none('not-rising', { ...fits, target });
     crossingDay = Math.log(target.value / fit.amplitude) / fit.ratePerDay;
   }
-  crossingDay = Math.max(crossingDay, latestDay);
+  const now = options.now ?? latest.takenAt;
+  const nowDay = Math.max(latestDay, (now - first.takenAt) / DAY_MS);
   if (crossingDay - latestDay > horizonDays) return none('beyond-horizon', { ...fits, target });
+  const overdue = crossingDay <= nowDay;
+  crossingDay = Math.max(crossingDay, nowDay);
   return {
     outcome: 'projected',
     ...fits,
     target,
     crossingAt: first.takenAt + Math.round(crossingDay * DAY_MS),
-    points: points.length,
+    overdue,
+    points: given,
+    window,
   };
 }

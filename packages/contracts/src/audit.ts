@@ -12,7 +12,11 @@ export const auditQuerySchema = z.object({
   to: z.iso.datetime({ offset: true }).optional(),
   limit: z.coerce.number().int().min(1).max(200).default(50),
   /** Opaque: the `nextCursor` of the previous page. */
-  cursor: z.string().regex(/^\d+$/, 'cursor is the nextCursor of the previous page').optional(),
+  // An id: at most 15 digits stays an exact JavaScript number (no Infinity in the query).
+  cursor: z
+    .string()
+    .regex(/^\d{1,15}$/, 'cursor is the nextCursor of the previous page')
+    .optional(),
 });
 export type AuditQuery = z.input<typeof auditQuerySchema>;
 

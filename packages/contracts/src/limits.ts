@@ -34,6 +34,11 @@ export const baselineStatsSchema = z.object({
   count: z.number().int(),
   mean: finite,
   sigma: finite,
+  /** Mean and σ of ln(value): the statistical level is set in the log domain. */
+  logMean: finite.optional(),
+  logSigma: finite.optional(),
+  /** Days between the baseline's first and last value. */
+  spanDays: finite.optional(),
 });
 
 export const statisticalRuleSchema = z.object({
@@ -59,6 +64,7 @@ const bandCommon = {
   alertLevel: finite.min(0, 'The alert level must be 0 or more.'),
   dangerLevel: finite.min(0, 'The danger level must be 0 or more.'),
   persistence: z.number().int().min(1).max(100).optional(),
+  clearPersistence: z.number().int().min(1).max(100).optional(),
   hysteresis: finite.gt(0).max(1).optional(),
   statistical: statisticalRuleSchema.optional(),
   levelSource: z.string().max(200).optional(),
@@ -189,7 +195,15 @@ export const suggestQuerySchema = z.object({
   band: z.string().min(1).max(64),
   kAlert: z.coerce.number().positive().max(20).default(3),
   kDanger: z.coerce.number().positive().max(40).default(6),
-  count: z.coerce.number().int().min(2).max(10_000).default(20),
+  count: z.coerce
+    .number()
+    .int()
+    .min(
+      30,
+      'A statistical level needs a baseline of at least 30 usable values over at least 7 days.',
+    )
+    .max(10_000)
+    .default(30),
 });
 export const suggestResponseSchema = z.object({
   bandKey: z.string(),

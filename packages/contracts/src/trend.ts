@@ -44,6 +44,13 @@ export const trendResponseSchema = z.object({
     r2: z.number().nullable(),
     target: z.object({ level: z.enum(['alert', 'danger']), value: z.number() }).nullable(),
     crossingAt: z.string().nullable(),
+    /** The fit already reached the target: the level is due now (crossingAt is now). */
+    overdue: z.boolean().optional(),
+    /** The values the fit ran over: the recent regime after the latest change point. */
+    window: z
+      .object({ from: z.string(), to: z.string(), points: z.number().int(), changed: z.boolean() })
+      .nullable()
+      .optional(),
   }),
   /** Alert raises/escalations/acks/clears of this band in the period, for markers. */
   events: z.array(

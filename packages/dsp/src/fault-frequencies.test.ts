@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { bearingOrders, faultFrequencies } from './fault-frequencies.ts';
 
-// CWRU bearing data, drive end 6205-2RS: n = 9, d = 0.3126 in, D = 1.537 in (geometry from memory, REFERENCES.md)
+// CWRU bearing data, drive end 6205-2RS: n = 9, d = 0.3126 in, D = 1.537 in (geometry from memory of the Case Western Reserve University bearing data centre's page)
 const cwru = {
   name: 'DE 6205',
   rollingElements: 9,

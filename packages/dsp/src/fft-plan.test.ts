@@ -19,7 +19,7 @@ function naiveDft(x: number[]): { re: number[]; im: number[] } {
 }
 
 describe('fft plans and rfft', () => {
-  // REFERENCES.md: numpy rfft([0, 1, 0, 0]) = [1, −1j, −1]
+  // numpy.fft.rfft([0, 1, 0, 0]) = [1, −1j, −1] (computed with numpy; also the DFT definition by hand)
   it('when rfft runs on [0, 1, 0, 0], it gives [1, −1j, −1] as numpy does', () => {
     const { re, im } = rfft([0, 1, 0, 0]);
     expect(Array.from(re)).toEqual([1, 0, -1]);

@@ -20,7 +20,7 @@ function runUp(fs = 5000, seconds = 10): { x: Float64Array; pulses: number[] } {
 }
 
 describe('computed order tracking', () => {
-  // issue 3 (Fyfe & Munck 1997, MSSP 11(2)): run-up 10 → 20 rev/s of sin(3θ) gives one line at order 3.000
+  // Fyfe & Munck 1997, Mech. Systems and Signal Processing 11(2): run-up 10 → 20 rev/s of sin(3θ) gives one line at order 3.000
   it('when a run-up from 10 to 20 rev/s of sin(3θ) is tracked, one line stands at order 3.000 with 0.7071 RMS', () => {
     const { x, pulses } = runUp();
     const r = computedOrderTracking(

@@ -63,7 +63,7 @@ function ringingImpacts(
 const codes = (q: ReturnType<typeof assessQuality>): string[] => q.findings.map((f) => f.code);
 
 describe('quality verdict', () => {
-  // issue 3: a clean 24-bit capture is ok (common practice, no source)
+  // A clean 24-bit capture is ok (common practice, no source)
   it('when a clean 24-bit capture uses half the range, the verdict is ok with no findings', () => {
     const q = assessQuality(capture24(0.5), { bits: 24, sampleRateHz: FS });
     expect(q.verdict).toBe('ok');
@@ -71,7 +71,7 @@ describe('quality verdict', () => {
     expect(q.bitsUsed).toBeCloseTo(Math.log2(HALF24), 1); // peak-to-peak ≈ one full scale
   });
 
-  // issue 3: clipping is flagged; above a small fraction the capture is unusable
+  // Clipping is flagged; above a small fraction the capture is unusable (common practice, no source)
   it('when a tone is driven past full scale, it is clipped and unusable', () => {
     const top = HALF24 - 1;
     const x = capture24(1.4).map((c) => Math.max(-HALF24, Math.min(top, c)));
@@ -91,7 +91,7 @@ describe('quality verdict', () => {
     expect(q.metrics.longestRailRun).toBe(1);
   });
 
-  // issue 3: 3-bit signals are flagged; Kester MT-001 for the SNR of the bits used
+  // 3-bit signals are flagged (common practice, no source); Kester MT-001 for the SNR of the bits used
   it('when a 16-bit capture only moves over 3 bits, it is under-range and unusable', () => {
     const x = Int32Array.from({ length: 8192 }, (_, i) =>
       Math.round(3.5 * Math.sin((2 * Math.PI * 117 * i) / FS)),
@@ -114,7 +114,7 @@ describe('quality verdict', () => {
     expect(codes(q)).toEqual(['under-range']);
   });
 
-  // issue 3: aliased tones are flagged. A 1450 Hz tone sampled at 1 kHz folds to 450 Hz,
+  // Aliased tones are flagged (sampling theorem: Shannon 1949, Nyquist 1928). A 1450 Hz tone sampled at 1 kHz folds to 450 Hz,
   // inside the guard band between fs/2.56 and Nyquist that an anti-alias filter keeps empty.
   it('when an unfiltered 1450 Hz tone is sampled at 1 kHz, the guard-band energy raises alias-risk', () => {
     const x = Int32Array.from({ length: 8192 }, (_, i) =>

@@ -5,7 +5,7 @@ import { findPeaks } from './spectral-peaks.ts';
 import { welch } from './welch.ts';
 
 describe('ideal quantization SNR', () => {
-  // Kester, Analog Devices MT-001: 6.02·N + 1.76 dB; REFERENCES.md: 12 → 74.01, 16 → 98.09, 24 → 146.26 dB
+  // Kester, Analog Devices MT-001: 6.02·N + 1.76 dB; computed from it: 12 → 74.01, 16 → 98.09, 24 → 146.26 dB
   it.each([
     [12, 74.01],
     [16, 98.09],
@@ -35,7 +35,7 @@ describe('ideal quantization SNR', () => {
 });
 
 describe('aliasing', () => {
-  // REFERENCES.md (computed): at fs = 1 kHz, 1300 → 300, 900 → 100, 2600 → 400 Hz
+  // Sampling theorem (Shannon 1949; Nyquist 1928), |f − k·fs| computed: at fs = 1 kHz, 1300 → 300, 900 → 100, 2600 → 400 Hz
   it.each([
     [1300, 300],
     [900, 100],
@@ -45,7 +45,7 @@ describe('aliasing', () => {
     expect(aliasFrequency(f, 1000)).toBeCloseTo(alias, 9);
   });
 
-  // issue 3: a 1300 Hz tone sampled at 1 kHz appears at 300 Hz (|f − k·fs|), in the spectrum too
+  // Sampling theorem (Shannon 1949): a 1300 Hz tone sampled at 1 kHz appears at 300 Hz (|f − k·fs|), in the spectrum too
   it('when a 1300 Hz tone is sampled at 1 kHz, the spectrum peaks at 300 Hz', () => {
     const x = Float64Array.from({ length: 8192 }, (_, i) =>
       Math.sin((2 * Math.PI * 1300 * i) / 1000),

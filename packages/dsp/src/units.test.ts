@@ -9,7 +9,7 @@ import {
 } from './units.ts';
 
 describe('units', () => {
-  // issue 3 and REFERENCES.md (computed): 1 g peak at 100 Hz → 15.61 mm/s peak, 24.84 µm peak (0.7071 g RMS: waveform-statistics.test.ts)
+  // Calculus of a sinusoid (v = a/2πf, d = a/(2πf)²), g₀ = 9.80665 m/s² (3rd CGPM 1901): 1 g peak at 100 Hz → 15.61 mm/s peak, 24.84 µm peak (0.7071 g RMS: waveform-statistics.test.ts)
   it('when a 1 g peak sine at 100 Hz is integrated, it reads 15.6078 mm/s and 24.8405 µm peak', () => {
     expect(integrateSineAmplitude(1, 100, 'g', 'mm/s')).toBeCloseTo(15.6078, 4);
     expect(integrateSineAmplitude(1, 100, 'g', 'um')).toBeCloseTo(24.8405, 4);
@@ -32,7 +32,7 @@ describe('units', () => {
     expect(() => integrationGain(0, 'g', 'mm/s')).toThrow(/positive frequency/);
   });
 
-  // REFERENCES.md (computed), ISO 1683 references: 1 mm/s → 120.00 dB; 1 g → 139.83 dB
+  // ISO 1683 reference values (1 nm/s, 1 µm/s²), computed as 20·log10(x/ref): 1 mm/s → 120.00 dB; 1 g → 139.83 dB
   it('when levels are given in dB re ISO 1683, 1 mm/s is 120.00 dB and 1 g is 139.83 dB', () => {
     expect(toDecibels(1, 'mm/s')).toBeCloseTo(120.0, 2);
     expect(toDecibels(1, 'g')).toBeCloseTo(139.83, 2);

@@ -4,7 +4,7 @@ import { integrateSineAmplitude } from './units.ts';
 import { waveformStatistics } from './waveform-statistics.ts';
 
 describe('waveform statistics', () => {
-  // REFERENCES.md: sine peak = 1.41421 × RMS; Pearson kurtosis of a sine = 1.5 (moment definition)
+  // Definitions: sine peak = √2 × RMS = 1.41421 × RMS; Pearson kurtosis of a sine = 1.5 (moment definition)
   it('when a 1 g peak sine is measured, RMS 0.7071, crest factor √2 and kurtosis 1.5 come out', () => {
     const x = Float64Array.from(
       { length: 25600 },
@@ -41,7 +41,7 @@ describe('waveform statistics', () => {
 });
 
 describe('waveform integration', () => {
-  // REFERENCES.md (computed): 1 g peak at 100 Hz → 15.6078 mm/s peak, 49.681 µm peak-to-peak
+  // Calculus of a sinusoid, g₀ = 9.80665 m/s² (computed): 1 g peak at 100 Hz → 15.6078 mm/s peak, 49.681 µm peak-to-peak
   it('when a 1 g peak 100 Hz sine is integrated in the frequency domain, it reads 15.6078 mm/s and 49.681 µm pk-pk', () => {
     const fs = 25600;
     const x = Float64Array.from({ length: 65536 }, (_, i) =>
@@ -55,7 +55,7 @@ describe('waveform integration', () => {
     expect(v[32768]).toBeCloseTo(-15.6078, 2);
   });
 
-  // v = a/(2πf), d = a/(2πf)² (REFERENCES.md); a fractional number of cycles must not matter (common practice, no source)
+  // v = a/(2πf), d = a/(2πf)² (calculus of a sinusoid, textbook); a fractional number of cycles must not matter (common practice, no source)
   it.each([13.3, 24.5, 57.1])(
     'when a %f Hz tone holds a fractional number of cycles, displacement pk-pk is within 0.5 percent',
     (f) => {

@@ -9,7 +9,7 @@ function sine(n: number, fs: number, f: number, amplitude: number, phase = 0): F
 }
 
 describe('welch', () => {
-  // REFERENCES.md (computed with scipy 1.10): 2 V RMS sine at 1234 Hz, fs 10 kHz, 100,000 samples, nperseg 1024
+  // Computed with scipy.signal.welch (Debian scipy 1.10): 2 V RMS sine at 1234 Hz, fs 10 kHz, 100,000 samples, nperseg 1024
   it.each([
     ['flattop', 2.0002],
     ['hann', 1.8369],
@@ -23,7 +23,7 @@ describe('welch', () => {
     },
   );
 
-  // REFERENCES.md: Σ density·Δf = 4.0000 V² (Parseval)
+  // Parseval: Σ density·Δf = mean square = 2² = 4.0000 V² (Welch 1967; Oppenheim & Schafer)
   it('when the density of the same tone is summed over frequency, it gives the mean square 4.0000 V²', () => {
     const x = sine(100000, 10000, 1234, 2 * Math.SQRT2);
     const r = welch(x, { sampleRateHz: 10000, nperseg: 1024 });
@@ -31,7 +31,7 @@ describe('welch', () => {
     expect(total).toBeCloseTo(4.0, 4);
   });
 
-  // REFERENCES.md: 'spectrum' / 'density' = fs·Σw²/(Σw)² = ENBW·Δf
+  // 'spectrum' / 'density' = fs·Σw²/(Σw)² = ENBW·Δf (Harris 1978, Proc. IEEE 66(1); scipy.signal.welch's two scalings)
   it('when spectrum and density scalings are compared, their ratio is ENBW·Δf', () => {
     const x = sine(8192, 1000, 77, 1);
     const d = welch(x, { sampleRateHz: 1000, nperseg: 1024 });

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { getWindow, parseWindowName, windowResponse } from './window-functions.ts';
 
 describe('window figures', () => {
-  // Harris 1978, Proc. IEEE 66(1), table 1; REFERENCES.md (periodic, N = 4096)
+  // Harris 1978, Proc. IEEE 66(1), table 1 (periodic windows, N = 4096)
   it.each([
     ['rect', 1.0, 1.0, 3.92],
     ['hann', 0.5, 1.5, 1.42],
@@ -17,7 +17,7 @@ describe('window figures', () => {
     },
   );
 
-  // scipy's flat-top coefficients (D'Antona & Ferrero 2006); REFERENCES.md: CG 0.2156, ENBW 3.770, scallop 0.01 dB
+  // scipy's flat-top coefficients (D'Antona & Ferrero 2006), computed from them: CG 0.2156, ENBW 3.770, scallop 0.01 dB
   it('when flat-top is built with 4096 points, ENBW is about 3.77 bins and scalloping below 0.02 dB', () => {
     const w = getWindow('flattop', 4096);
     expect(w.enbwBins).toBeCloseTo(3.77, 2);

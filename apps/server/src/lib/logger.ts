@@ -7,10 +7,19 @@ export type LogLevel = keyof typeof levels;
 
 const SECRET_KEY = /pass(word)?|secret|token|cookie|authorization|api[-_]?key|jwt/i;
 
+// Drizzle's "Failed query: … \nparams: …" carries the bound values (a reset link, a hash):
+// they are cut from an error's message and stack wherever they appear.
+const QUERY_PARAMS = /\nparams: [\s\S]*?(?=\n\s+at |$)/g;
+const withoutParams = (s: string | undefined) => s?.replace(QUERY_PARAMS, '\nparams: [redacted]');
+
 export function redact(value: unknown, depth = 0): unknown {
   if (depth > 6 || value === null || typeof value !== 'object') return value;
   if (value instanceof Error)
-    return { name: value.name, message: value.message, stack: value.stack };
+    return {
+      name: value.name,
+      message: withoutParams(value.message),
+      stack: withoutParams(value.stack),
+    };
   if (Array.isArray(value)) return value.slice(0, 50).map((v) => redact(v, depth + 1));
   const out: Record<string, unknown> = {};
   for (const [k, v] of Object.entries(value))

@@ -1,11 +1,24 @@
 import type { Request } from 'express';
 import { changePasswordSchema, subscriptionSettingsSchema } from '@turnstone/contracts/account';
 import type { AppContext } from '../../lib/context.ts';
+import { attemptLimiter, runLimits } from '../../lib/attempt-limits.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import { COOKIE_NAME, signSession } from '../auth/session-token.ts';
 import * as service from './account-service.ts';
 
 export function accountRoutes(ctx: AppContext): RouteSpec[] {
+  // A stolen session must not become a password oracle: wrong current passwords are
+  // limited per user as sign-in limits them per account.
+  const passwordLimits = [
+    attemptLimiter({
+      windowMs: ctx.config.SIGN_IN_WINDOW_MIN * 60_000,
+      limit: ctx.config.SIGN_IN_MAX_PER_ACCOUNT,
+      key: (req) => `change-password:${requireUser(req).id}`,
+      failuresOnly: true,
+      message: (minutes) =>
+        `Too many wrong current passwords. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`,
+    }),
+  ];
   const cookie = (req: Request) => ({
     httpOnly: true,
     sameSite: 'lax' as const,
@@ -21,6 +34,7 @@ export function accountRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'change my password',
       handler: async (req, res) => {
         const user = requireUser(req);
+        await runLimits(passwordLimits, req, res);
         const body = changePasswordSchema.parse(req.body);
         const version = await service.changePassword(ctx, user, body);
         // Other sessions end with the old version; this one continues on a new cookie.

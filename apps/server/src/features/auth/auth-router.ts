@@ -1,7 +1,8 @@
 import { Router, type Request, type Response, type CookieOptions } from 'express';
-import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
+import { createHmac, timingSafeEqual } from 'node:crypto';
 import { signInRequestSchema } from '@turnstone/contracts/auth';
 import { AppError } from '../../lib/app-error.ts';
+import { attemptLimiter, clientKey } from '../../lib/attempt-limits.ts';
 import type { AppContext } from '../../lib/context.ts';
 import {
   ALL_ROLES,
@@ -34,27 +35,6 @@ function cookieOptions(ctx: AppContext, req: Request): CookieOptions {
   };
 }
 
-function limiter(ctx: AppContext, limit: number, key: (req: Request) => string, what: string) {
-  return rateLimit({
-    windowMs: ctx.config.SIGN_IN_WINDOW_MIN * 60_000,
-    limit,
-    keyGenerator: key,
-    standardHeaders: 'draft-7',
-    legacyHeaders: false,
-    skipSuccessfulRequests: true,
-    handler: (_req, res, _next, options) => {
-      const retryAfter = Math.ceil(options.windowMs / 1000);
-      res.setHeader('Retry-After', String(retryAfter));
-      res.status(429).json({
-        error: {
-          code: 'rate_limited',
-          message: `Too many sign-in attempts ${what}. Try again in ${Math.ceil(retryAfter / 60)} minutes.`,
-        },
-      });
-    },
-  });
-}
-
 export function authRoutes(ctx: AppContext): RouteSpec[] {
   return [
     {
@@ -73,6 +53,10 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
           ctx.config.SESSION_HOURS,
         );
         res.cookie(COOKIE_NAME, token, cookieOptions(ctx, req));
+        res.cookie(KNOWN_CLIENT_COOKIE, knownClientValue(ctx, row.email.toLowerCase()), {
+          ...cookieOptions(ctx, req),
+          maxAge: 180 * 24 * 3600 * 1000,
+        });
         res.json({ user: service.toMe(user) });
       },
     },
@@ -101,18 +85,66 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
   ];
 }
 
+/**
+ * A client that has signed in to an account before carries this cookie (an HMAC of the
+ * address under the session secret, so it cannot be made up without signing in). The
+ * account-wide back-off does not apply to it, so a stranger's wrong guesses never lock the
+ * owner out of a browser they have used before (OWASP's "device cookie" lockout defence).
+ */
+const KNOWN_CLIENT_COOKIE = 'turnstone_client';
+const knownClientValue = (ctx: AppContext, email: string) =>
+  createHmac('sha256', ctx.jwtSecret).update(`known-client:${email}`).digest('base64url');
+const emailOf = (req: Request) =>
+  typeof req.body?.email === 'string' ? req.body.email.trim().toLowerCase() : '';
+function isKnownClient(ctx: AppContext, req: Request): boolean {
+  const v = (req.cookies as Record<string, string> | undefined)?.[KNOWN_CLIENT_COOKIE];
+  if (!v) return false;
+  const want = Buffer.from(knownClientValue(ctx, emailOf(req)));
+  const got = Buffer.from(v);
+  return got.length === want.length && timingSafeEqual(got, want);
+}
+
+/**
+ * Sign-in limits, counting failed attempts only:
+ * - per client address (SIGN_IN_MAX_PER_IP in the window): one client guessing many accounts;
+ * - per account and client (SIGN_IN_MAX_PER_ACCOUNT): one client guessing one account;
+ * - per account from all clients together, four times as many: a slower back-off against a
+ *   guess spread over many addresses, which a known client of the account is exempt from.
+ * Wrong guesses from elsewhere therefore never lock the owner out of their own browser.
+ */
+function signInLimits(ctx: AppContext) {
+  const windowMs = ctx.config.SIGN_IN_WINDOW_MIN * 60_000;
+  const message = (what: string) => (minutes: number) =>
+    `Too many sign-in attempts ${what}. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`;
+  return [
+    attemptLimiter({
+      windowMs,
+      limit: ctx.config.SIGN_IN_MAX_PER_IP,
+      key: (req) => `ip:${clientKey(req)}`,
+      failuresOnly: true,
+      message: message('from this address'),
+    }),
+    attemptLimiter({
+      windowMs,
+      limit: ctx.config.SIGN_IN_MAX_PER_ACCOUNT,
+      key: (req) => `acct-client:${emailOf(req)}|${clientKey(req)}`,
+      failuresOnly: true,
+      message: message('for this account from this address'),
+    }),
+    attemptLimiter({
+      windowMs,
+      limit: ctx.config.SIGN_IN_MAX_PER_ACCOUNT * 4,
+      key: (req) => `acct:${emailOf(req)}`,
+      failuresOnly: true,
+      skip: (req) => isKnownClient(ctx, req),
+      message: message('for this account'),
+    }),
+  ];
+}
+
 export function authRouter(ctx: AppContext, authenticate: Authenticate): Router {
   const router = Router();
-  const accountKey = (req: Request) => {
-    const email = typeof req.body?.email === 'string' ? req.body.email.trim().toLowerCase() : '';
-    return `acct:${email}`;
-  };
-  const ipKey = (req: Request) => `ip:${ipKeyGenerator(req.ip ?? 'unknown')}`;
-  router.post(
-    '/auth/sign-in',
-    limiter(ctx, ctx.config.SIGN_IN_MAX_PER_IP, ipKey, 'from this address'),
-    limiter(ctx, ctx.config.SIGN_IN_MAX_PER_ACCOUNT, accountKey, 'for this account'),
-  );
+  router.post('/auth/sign-in', ...signInLimits(ctx));
   mountRoutes(router, authRoutes(ctx), authenticate);
   return router;
 }

@@ -269,24 +269,16 @@ export async function ingestOne(
   const point = await cached(pointCache, s.pointTag, POINT_CACHE_MS, () =>
     repo.pointByTag(ctx.db, s.pointTag),
   );
-  if (!point)
+  // Another site's point is answered as if it did not exist: a gateway learns nothing
+  // about other sites' tags.
+  if (!point || point.siteId !== gateway.siteId)
     return {
       uid: s.uid,
       status: 'unknown_point',
       httpStatus: 404,
       error: {
         code: 'unknown_point',
-        message: `No measurement point has the tag "${s.pointTag}".`,
-      },
-    };
-  if (point.siteId !== gateway.siteId)
-    return {
-      uid: s.uid,
-      status: 'forbidden_point',
-      httpStatus: 403,
-      error: {
-        code: 'forbidden_point',
-        message: `Point "${s.pointTag}" belongs to another site than this gateway.`,
+        message: `No measurement point of this gateway's site has the tag "${s.pointTag}".`,
       },
     };
   const r = await storeSnapshot(ctx, {

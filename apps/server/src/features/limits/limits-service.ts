@@ -12,7 +12,9 @@
 import { eq } from 'drizzle-orm';
 import {
   checkBandDefinition,
+  baselineShortfall,
   computeBaseline,
+  MIN_BASELINE,
   isoDefaultLevels,
   limitSetFromTemplate,
   replayLimitSet,
@@ -244,7 +246,10 @@ export function isoDefaults(p: PointRow) {
   };
 }
 
-/** mean + k·σ over the first `count` usable values of the band's stored trend. */
+/**
+ * The log-domain k-sigma levels (`statisticalLevel`) over the first `count` usable values of
+ * the band's stored trend (at least 30, over at least 7 days; the query refuses fewer).
+ */
 export async function suggest(
   ctx: AppContext,
   p: PointRow,
@@ -255,16 +260,17 @@ export async function suggest(
     { from: 'first-n', count: q.count },
     rows.map((r) => ({ takenAt: r.takenAt.getTime(), value: r.value, quality: r.quality })),
   );
+  const short = baselineShortfall(stats);
   return {
     bandKey: q.band,
     baseline: stats,
-    alertLevel: stats ? statisticalLevel(stats, q.kAlert) : null,
-    dangerLevel: stats ? statisticalLevel(stats, q.kDanger) : null,
+    alertLevel: stats && !short ? statisticalLevel(stats, q.kAlert) : null,
+    dangerLevel: stats && !short ? statisticalLevel(stats, q.kDanger) : null,
     kAlert: q.kAlert,
     kDanger: q.kDanger,
-    message: stats
-      ? null
-      : `This band has ${rows.length} stored value(s); a baseline needs ${q.count} usable ones.`,
+    message: !stats
+      ? `This band has ${rows.length} stored value(s); a baseline needs ${q.count} usable ones over at least ${MIN_BASELINE.days} days.`
+      : short,
   };
 }
 

@@ -1,4 +1,5 @@
 import { and, asc, desc, eq, gte, inArray, isNull, lte, or, sql } from 'drizzle-orm';
+import type { BandState } from '@turnstone/condition';
 import type { Db } from '@turnstone/db/client';
 import {
   alertEvents,
@@ -11,6 +12,7 @@ import {
   gears,
   machines,
   points,
+  pointStates,
   qualityNotices,
   sites,
   snapshots,
@@ -117,6 +119,23 @@ export async function recentBandValues(db: Db, pointId: number, bandKey: string,
  * hourly values is ≈ 8,800 rows, and building a Date per row through the ORM cost more
  * than the query itself.
  */
+/**
+ * The remembered evaluation state of each band of a point (its baseline), by band key; a band
+ * before its first value is absent. What `levelsInForce` needs to decide the levels the
+ * worker uses.
+ */
+export async function bandStatesOf(db: Db, pointId: number) {
+  const [row] = await db
+    .select({ state: pointStates.state })
+    .from(pointStates)
+    .where(eq(pointStates.pointId, pointId))
+    .limit(1);
+  const tracks = (row?.state ?? {}) as Record<string, { band?: BandState } | undefined>;
+  const out = new Map<string, BandState>();
+  for (const [key, track] of Object.entries(tracks)) if (track?.band) out.set(key, track.band);
+  return out;
+}
+
 export async function bandTrend(
   db: Db,
   pointId: number,

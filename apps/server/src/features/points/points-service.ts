@@ -12,7 +12,7 @@ import {
   type FaultFrequency,
   type MachineComponents,
 } from '@turnstone/dsp';
-import { effectiveLevels, projectTrend } from '@turnstone/condition';
+import { levelsInForce, projectTrend } from '@turnstone/condition';
 import type {
   AnalysisSummary,
   MachineDetail,
@@ -203,11 +203,12 @@ export async function pointDetail(
 ): Promise<PointDetail> {
   const { point, machine } = await accessiblePoint(ctx.db, user, pointId);
   const place = await repo.machineWithPlace(ctx.db, machine.id);
-  const [latest, statuses, limitSet, components] = await Promise.all([
+  const [latest, statuses, limitSet, components, bandStates] = await Promise.all([
     repo.latestAnalyses(ctx.db, [pointId]),
     statusesOf(ctx.db, [point], now),
     loadLimitSet(ctx.db, pointId),
     repo.machineComponents(ctx.db, machine.id),
+    repo.bandStatesOf(ctx.db, pointId),
   ]);
   const l = latest.get(pointId);
   return {
@@ -231,7 +232,7 @@ export async function pointDetail(
     },
     latest: l ? summaryOf(l) : null,
     bands: (limitSet?.bands ?? []).map((b) => {
-      const lv = effectiveLevels(b, null);
+      const lv = levelsInForce(b, bandStates.get(b.key));
       return {
         key: b.key,
         name: b.name,
@@ -512,13 +513,15 @@ export async function trend(
   const { from, to } = period(q, now);
   // All reads at once (the trend budget is 200 ms at p95); nothing is answered before the
   // access check has passed, and its error wins over any other.
-  const [access, bandResult, rowsResult, eventsResult, findingsResult] = await Promise.allSettled([
-    accessiblePoint(ctx.db, user, pointId),
-    trendBand(ctx, pointId, q.band),
-    repo.bandTrend(ctx.db, pointId, q.band, from, to),
-    repo.alertEventsOf(ctx.db, pointId, q.band, from, to),
-    repo.findingsOf(ctx.db, pointId, q.band, from, to),
-  ]);
+  const [access, bandResult, rowsResult, eventsResult, findingsResult, stateResult] =
+    await Promise.allSettled([
+      accessiblePoint(ctx.db, user, pointId),
+      trendBand(ctx, pointId, q.band),
+      repo.bandTrend(ctx.db, pointId, q.band, from, to),
+      repo.alertEventsOf(ctx.db, pointId, q.band, from, to),
+      repo.findingsOf(ctx.db, pointId, q.band, from, to),
+      repo.bandStatesOf(ctx.db, pointId),
+    ]);
   const settled = <T>(r: PromiseSettledResult<T>): T => {
     if (r.status === 'rejected') throw r.reason;
     return r.value;
@@ -528,7 +531,9 @@ export async function trend(
   const rows = settled(rowsResult);
   const events = settled(eventsResult);
   const findingRows = settled(findingsResult);
-  const levels = effectiveLevels(band, null);
+  // the levels the worker alerts at (statistical once the baseline is complete), drawn and
+  // projected to by the trend page
+  const levels = levelsInForce(band, settled(stateResult).get(band.key));
   const items = rows.map((r) => ({
     t: new Date(Number(r.t)).toISOString(),
     v: r.value,
@@ -543,7 +548,7 @@ export async function trend(
     if (latestAt - t > PROJECTION_WINDOW_DAYS * DAY_MS) break;
     recent.push({ takenAt: t, value: r.value, quality: r.quality });
   }
-  const p = projectTrend(recent, levels);
+  const p = projectTrend(recent, levels, { now: Math.min(now, to.getTime()) });
   return {
     pointId,
     band: { key: band.key, name: band.name, unit: band.unit, spectrum: band.spectrum },
@@ -558,6 +563,13 @@ export async function trend(
       r2: p.fit?.r2 ?? null,
       target: p.target ? { level: p.target.level, value: p.target.value } : null,
       crossingAt: p.crossingAt === null ? null : new Date(p.crossingAt).toISOString(),
+      overdue: p.overdue,
+      window: p.window && {
+        from: new Date(p.window.fromAt).toISOString(),
+        to: new Date(p.window.toAt).toISOString(),
+        points: p.window.points,
+        changed: p.window.changed,
+      },
     },
     events: events.map((e) => ({ t: iso(e.at), kind: e.kind, level: e.level, alertId: e.alertId })),
     findings: findingRows.map((f) => ({

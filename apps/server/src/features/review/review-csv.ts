@@ -8,12 +8,15 @@ import type { WeeklyReview } from '@turnstone/contracts/review';
 
 type Cell = string | number | boolean | null | undefined;
 
-/** Neutralises =, +, -, @, tab and CR at the start of a text cell. */
+/**
+ * Neutralises =, +, -, @, tab and CR at the start of a text cell (OWASP CSV injection), and
+ * their full-width forms (＝ ＋ － ＠), which spreadsheet programs may read as the same.
+ */
 export function safeCell(v: Cell): string | number {
   if (v === null || v === undefined) return '';
   if (typeof v === 'number') return Number.isFinite(v) ? Number(v.toPrecision(6)) : '';
   if (typeof v === 'boolean') return v ? 'yes' : 'no';
-  return /^[=+\-@\t\r]/.test(v) ? `'${v}` : v;
+  return /^[=+\-@\t\r\uFF1D\uFF0B\uFF0D\uFF20]/.test(v) ? `'${v}` : v;
 }
 
 function section(title: string, header: string[], rows: Cell[][]): string {

@@ -3,8 +3,7 @@
  * CSV export and the weekly digest mail (`buildWeeklyReview` takes no request).
  */
 import {
-  baselineStats,
-  effectiveLevels,
+  levelsInForce,
   projectTrend,
   type BandDefinition as LimitBand,
   type BaselineAccumulator,
@@ -109,11 +108,16 @@ export async function buildWeeklyReview(
     });
   }
 
-  /** The levels in force for a point's band: fixed, or statistical once its baseline is complete. */
+  /** The levels in force for a point's band (the worker's own decision, `levelsInForce`). */
   const levelsOf = (pointId: number, bandKey: string, definition: LimitBand) => {
     const track = (states.get(pointId)?.[bandKey] ?? null) as BandTrackLike | null;
-    const acc = track?.band?.baselineComplete ? track.band.baseline : undefined;
-    return effectiveLevels(definition, acc ? baselineStats(acc) : null);
+    const band = track?.band;
+    return levelsInForce(
+      definition,
+      band?.baseline && band.baselineComplete
+        ? { baseline: band.baseline, baselineComplete: true }
+        : null,
+    );
   };
 
   // ---- weekly means, from the daily means
@@ -207,7 +211,7 @@ export async function buildWeeklyReview(
     const ref = refs.get(pointId);
     if (!band || !ref) continue;
     const levels = levelsOf(pointId, bandKey, band.definition);
-    const p = projectTrend(trend, levels, { horizonDays: weeksAhead * 7 });
+    const p = projectTrend(trend, levels, { horizonDays: weeksAhead * 7, now: thisTo });
     if (p.outcome !== 'projected' || p.crossingAt === null || !p.fit || !p.target) continue;
     const latest = trend.reduce((a, b) => (b.takenAt > a.takenAt ? b : a));
     forecasts.push({

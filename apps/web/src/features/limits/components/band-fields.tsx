@@ -240,6 +240,14 @@ export function BandFields({
           registration={n('persistence')}
         />
         <NumberField
+          label="Clear persistence"
+          error={e?.clearPersistence?.message}
+          hint="Values in a row below the clear level to clear"
+          step="1"
+          min="1"
+          registration={n('clearPersistence')}
+        />
+        <NumberField
           label="Hysteresis"
           error={e?.hysteresis?.message}
           hint="Clears below this × alert level"

@@ -147,6 +147,7 @@ export function LimitsEditor({
             alertLevel: d.alertLevel,
             dangerLevel: d.dangerLevel,
             persistence: 2,
+            clearPersistence: 3,
             hysteresis: 0.9,
             levelSource: source,
           }),

@@ -15,6 +15,7 @@ const overall: BandDefinitionInput = {
   alertLevel: 2.8,
   dangerLevel: 4.5,
   persistence: 2,
+  clearPersistence: 3,
   hysteresis: 0.9,
   levelSource: 'ISO 20816-3 B/C and C/D',
 };

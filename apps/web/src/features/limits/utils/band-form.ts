@@ -16,6 +16,7 @@ export interface BandFormValues {
   alertLevel: number;
   dangerLevel: number;
   persistence: number;
+  clearPersistence: number;
   hysteresis: number;
   fromHz: number;
   toHz: number;
@@ -53,6 +54,7 @@ export function toFormBand(b: BandDefinitionInput): BandFormValues {
     alertLevel: b.alertLevel,
     dangerLevel: b.dangerLevel,
     persistence: num(b.persistence),
+    clearPersistence: num(b.clearPersistence),
     hysteresis: num(b.hysteresis),
     fromHz: b.kind === 'overall' || b.kind === 'hz' ? num(b.fromHz) : Number.NaN,
     toHz: b.kind === 'overall' || b.kind === 'hz' ? num(b.toHz) : Number.NaN,
@@ -66,7 +68,7 @@ export function toFormBand(b: BandDefinitionInput): BandFormValues {
     statistical: s !== undefined,
     kAlert: s?.kAlert ?? 3,
     kDanger: num(s?.kDanger),
-    baselineCount: s?.baseline.from === 'first-n' ? s.baseline.count : 20,
+    baselineCount: s?.baseline.from === 'first-n' ? s.baseline.count : 30,
     combine: s?.combine ?? 'min',
     levelSource: b.levelSource ?? '',
   };
@@ -86,6 +88,7 @@ export function emptyBand(index: number): BandFormValues {
     alertLevel: 2.8,
     dangerLevel: 4.5,
     persistence: 2,
+    clearPersistence: 3,
     hysteresis: 0.9,
   });
 }
@@ -101,6 +104,7 @@ export function toDefinition(f: BandFormValues, original?: BandDefinitionInput):
     alertLevel: f.alertLevel,
     dangerLevel: f.dangerLevel,
     ...(opt(f.persistence) !== undefined ? { persistence: f.persistence } : {}),
+    ...(opt(f.clearPersistence) !== undefined ? { clearPersistence: f.clearPersistence } : {}),
     ...(opt(f.hysteresis) !== undefined ? { hysteresis: f.hysteresis } : {}),
     ...(f.levelSource.trim() ? { levelSource: f.levelSource.trim() } : {}),
     ...(f.statistical

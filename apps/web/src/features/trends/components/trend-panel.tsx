@@ -188,7 +188,17 @@ function TrendBody({ trend, now }: { trend: ReturnType<typeof useTrend>; now: nu
               ? `${p.target.level === 'danger' ? 'Danger' : 'Alert'} by ${formatDateTime(p.crossingAt)}`
               : projectionText[p.outcome]
           }
-          hint={p.model ? `${p.model} fit, R² ${formatValue(p.r2 ?? 0, 2)}` : undefined}
+          hint={
+            p.model
+              ? `${p.model} fit, R² ${formatValue(p.r2 ?? 0, 2)}${
+                  p.window
+                    ? `, over ${p.window.points} values since ${formatDateTime(p.window.from)}${
+                        p.window.changed ? ' (the trend changed then)' : ''
+                      }`
+                    : ''
+                }${p.overdue ? '; already due' : ''}`
+              : undefined
+          }
           wide
           sentence={p.outcome !== 'projected'}
         />
