@@ -265,3 +265,45 @@ describe('the analyzer CLI and an upload of the same file', { timeout: 120_000 }
       expect(ours / theirs).toBeCloseTo(1, 9);
   });
 });
+
+describe('a point’s envelope band', () => {
+  it('is saved with the point, refused when half given, and used by the worker for its captures', async () => {
+    const tree = await (await srv.call('GET', '/api/v1/setup', { cookie: engineer })).json();
+    const point = tree.machines
+      .flatMap((m: { points: { id: number }[] }) => m.points)
+      .find((p: { id: number }) => p.id === pointId);
+    const { id: _id, ...body } = point;
+    const half = await srv.call('PATCH', `/api/v1/points/${pointId}`, {
+      cookie: engineer,
+      body: { ...body, envelopeLoHz: 4000, envelopeHiHz: null },
+    });
+    expect(half.status).toBe(400);
+    expect((await half.json()).error.details).toEqual([
+      expect.objectContaining({ path: 'envelopeHiHz' }),
+    ]);
+    const saved = await srv.call('PATCH', `/api/v1/points/${pointId}`, {
+      cookie: engineer,
+      body: { ...body, envelopeLoHz: 4000, envelopeHiHz: 7000 },
+    });
+    expect(saved.status).toBe(200);
+    const again = await (await srv.call('GET', '/api/v1/setup', { cookie: engineer })).json();
+    expect(
+      again.machines
+        .flatMap((m: { points: { id: number }[] }) => m.points)
+        .find((p: { id: number }) => p.id === pointId),
+    ).toMatchObject({ envelopeLoHz: 4000, envelopeHiHz: 7000 });
+
+    // a 25.6 kHz capture: the band holds below fs/2.56 = 10 kHz, so it is used as set
+    const counts = toneCounts({ n: 8192, fs: 25600, tones: [TONE], noiseG: 0.01, seed: 9 });
+    const res = await upload(writeWav(counts, 25600, 'int16'), 'band.wav', wavFields);
+    expect(res.status).toBe(201);
+    const { snapshotId } = await res.json();
+    await createWorker(srv.ctx).drain();
+    const [row] = await q('SELECT summary FROM analyses WHERE snapshot_id = ?', [snapshotId]);
+    const summary = typeof row!.summary === 'string' ? JSON.parse(row!.summary) : row!.summary;
+    const [lo, hi] = summary.spectra.envelope.bandHz;
+    // snapped to the capture's lines, 25600 / 8192 = 3.125 Hz apart
+    expect(Math.abs(lo - 4000)).toBeLessThan(3.2);
+    expect(Math.abs(hi - 7000)).toBeLessThan(3.2);
+  });
+});

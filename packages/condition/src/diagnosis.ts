@@ -211,6 +211,9 @@ export const BELT_MIN_SHARE = 0.3;
 /** Belt: at least this many belt-frequency harmonics present. Common practice, no source. */
 export const BELT_MIN_LINES = 2;
 
+/** Standard gravity, m/s² (ISO 80000-3). */
+const STANDARD_GRAVITY = 9.80665;
+
 // ---------------------------------------------------------------- spectrum reading
 
 interface Lines {
@@ -465,7 +468,19 @@ export function diagnose(input: DiagnosisInput): DiagnosisResult {
       }
     }
 
-    // ---- belts
+    // ---- belts: read from the acceleration spectrum turned into velocity (v = a / 2πf), since
+    // belt frequencies often fall below the velocity spectrum's ISO cut-off (10 Hz).
+    const beltLines: Lines | null =
+      (components.belts ?? []).length === 0
+        ? null
+        : {
+            values: Float64Array.from(acc.values, (a, k) =>
+              k === 0 ? 0 : (a * STANDARD_GRAVITY * 1000) / (2 * Math.PI * k * acc.dfHz),
+            ),
+            dfHz: acc.dfHz,
+            enbwBins: acc.enbwBins,
+            firstLine: 1,
+          };
     for (const belt of components.belts ?? []) {
       if (!(belt.pulleyDiameterMm > 0) || !(belt.lengthMm > belt.pulleyDiameterMm)) {
         throw new RangeError(
@@ -474,7 +489,7 @@ export function diagnose(input: DiagnosisInput): DiagnosisResult {
       }
       const fb = (f1 * Math.PI * belt.pulleyDiameterMm) / belt.lengthMm;
       const found = [1, 2, 3, 4]
-        .map((k) => ({ k, p: at(velocity, k * fb, 0.01) }))
+        .map((k) => ({ k, p: at(beltLines!, k * fb, 0.01) }))
         .filter((x) => amp(x.p) > 0 && Math.abs(x.k * fb - f1) > 3 * df);
       const total = Math.sqrt(found.reduce((s, x) => s + amp(x.p) ** 2, 0));
       if (found.length >= BELT_MIN_LINES && total >= BELT_MIN_SHARE * overall) {
@@ -482,6 +497,7 @@ export function diagnose(input: DiagnosisInput): DiagnosisResult {
           code: 'belt',
           confidence: clamp01(total / overall + 0.1 * found.length),
           summary: `${found.length} lines at the belt frequency of "${belt.name}" (${fmt(fb)} Hz) and its harmonics, ${fmt((100 * total) / overall, 2)} % of overall: belt wear, tension or a pulley problem is likely.`,
+          // mm/s RMS from the acceleration lines (may lie below the velocity spectrum's cut-off)
           evidence: found.map((x) => ev('velocity', x.p!, `${belt.name} belt ×${x.k}`)),
         });
       }

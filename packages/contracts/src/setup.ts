@@ -118,22 +118,48 @@ export const machineInputSchema = z.object({
 });
 export type MachineInput = z.infer<typeof machineInputSchema>;
 
-export const pointInputSchema = z.object({
-  machineId: z.number().int().positive('Choose a machine.'),
-  tag: z
-    .string()
-    .trim()
-    .min(1, 'Tag is required.')
-    .max(64, 'Tag is at most 64 characters.')
-    .regex(/^[A-Za-z0-9][A-Za-z0-9._-]*$/, 'Tag uses letters, digits, dot, hyphen and underscore.'),
-  name: text(200, 'Name'),
-  location: text(100, 'Location'),
-  direction: directionSchema,
-  sensitivityMvPerG: num(0.1, 100_000, 'Sensitivity'),
-  bearingId: z.number().int().positive().nullable(),
-  fmaxHz: num(10, 100_000, 'Fmax'),
-  lines: int(100, 102_400, 'Lines'),
-});
+export const pointInputSchema = z
+  .object({
+    machineId: z.number().int().positive('Choose a machine.'),
+    tag: z
+      .string()
+      .trim()
+      .min(1, 'Tag is required.')
+      .max(64, 'Tag is at most 64 characters.')
+      .regex(
+        /^[A-Za-z0-9][A-Za-z0-9._-]*$/,
+        'Tag uses letters, digits, dot, hyphen and underscore.',
+      ),
+    name: text(200, 'Name'),
+    location: text(100, 'Location'),
+    direction: directionSchema,
+    sensitivityMvPerG: num(0.1, 100_000, 'Sensitivity'),
+    bearingId: z.number().int().positive().nullable(),
+    fmaxHz: num(10, 100_000, 'Fmax'),
+    lines: int(100, 102_400, 'Lines'),
+    /**
+     * Envelope band edges, Hz, around the resonance the bearing impacts excite (independent
+     * of Fmax); both left empty = the default from each capture's sample rate.
+     */
+    envelopeLoHz: num(1, 500_000, 'Envelope band low edge').nullish(),
+    envelopeHiHz: num(1, 500_000, 'Envelope band high edge').nullish(),
+  })
+  .superRefine((p, ctx) => {
+    const lo = p.envelopeLoHz ?? null;
+    const hi = p.envelopeHiHz ?? null;
+    if ((lo === null) !== (hi === null))
+      ctx.addIssue({
+        code: 'custom',
+        path: [lo === null ? 'envelopeLoHz' : 'envelopeHiHz'],
+        message: 'Give both edges of the envelope band, or neither for the default.',
+      });
+    else if (lo !== null && hi !== null && !(hi > lo))
+      ctx.addIssue({
+        code: 'custom',
+        path: ['envelopeHiHz'],
+        message: 'The high edge must be above the low edge.',
+      });
+  });
 export type PointInput = z.infer<typeof pointInputSchema>;
 
 // ---------------------------------------------------------------- answers
@@ -177,6 +203,8 @@ export const setupPointSchema = z.object({
   bearingId: z.number().int().nullable(),
   fmaxHz: z.number(),
   lines: z.number(),
+  envelopeLoHz: z.number().nullable(),
+  envelopeHiHz: z.number().nullable(),
 });
 export const setupMachineSchema = z.object({
   id: z.number().int(),

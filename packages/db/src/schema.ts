@@ -145,6 +145,12 @@ export const points = mysqlTable(
     bearingId: ref('bearing_id').references(() => bearings.id, { onDelete: 'set null' }),
     fmaxHz: double('fmax_hz').notNull().default(1000),
     lines: int('lines').notNull().default(1600),
+    /**
+     * Envelope band-pass edges in Hz, set by the engineer around the resonance the bearing
+     * impacts excite; both null = the default from each capture's sample rate.
+     */
+    envelopeLoHz: double('envelope_lo_hz'),
+    envelopeHiHz: double('envelope_hi_hz'),
     /** Latest analysed capture, kept by the worker so the fleet view needs no scan. */
     lastTakenAt: at('last_taken_at'),
     lastVerdict: mysqlEnum('last_verdict', verdictEnum),

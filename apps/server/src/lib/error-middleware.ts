@@ -28,6 +28,23 @@ export function isDbUnavailable(err: unknown): boolean {
   return false;
 }
 
+/** An outage ends when no request has met the database away for this long. */
+export const OUTAGE_QUIET_MS = 30_000;
+const outages = new WeakMap<Logger, { last: number; answers: number }>();
+
+/** One log line per database outage, not one per 503 answered during it. */
+function noteDbDown(log: Logger, fields: Record<string, unknown>): void {
+  const now = Date.now();
+  const o = outages.get(log);
+  if (o && now - o.last < OUTAGE_QUIET_MS) {
+    o.last = now;
+    o.answers++;
+    return;
+  }
+  outages.set(log, { last: now, answers: 1 });
+  log.warn('database unavailable; answering 503 with Retry-After until it is back', fields);
+}
+
 export function zodDetails(err: ZodError) {
   return err.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));
 }
@@ -86,7 +103,7 @@ export function errorReply(
     return reply(415, 'unsupported_encoding', 'Unsupported request encoding.');
   if (isDbUnavailable(err)) {
     headers['Retry-After'] = '5';
-    log.warn('database unavailable', {
+    noteDbDown(log, {
       requestId: request.requestId,
       path: request.path,
       code: (err as { code?: string }).code,

@@ -165,6 +165,9 @@ function prepareOne(
       fmaxHz,
       lines: pc.point.lines,
       bands: dspBands,
+      ...(pc.point.envelopeLoHz !== null && pc.point.envelopeHiHz !== null
+        ? { envelopeBandHz: [pc.point.envelopeLoHz, pc.point.envelopeHiHz] as const }
+        : {}),
     });
   } catch (err) {
     if (err instanceof RangeError || err instanceof TypeError)

@@ -83,6 +83,8 @@ export async function setupTree(db: Db, user: SessionUser): Promise<SetupTree> {
           bearingId: p.bearingId,
           fmaxHz: p.fmaxHz,
           lines: p.lines,
+          envelopeLoHz: p.envelopeLoHz,
+          envelopeHiHz: p.envelopeHiHz,
         })),
     })),
   };
@@ -352,6 +354,8 @@ const pointColumns = (input: PointInput) => ({
   bearingId: input.bearingId,
   fmaxHz: input.fmaxHz,
   lines: input.lines,
+  envelopeLoHz: input.envelopeLoHz ?? null,
+  envelopeHiHz: input.envelopeHiHz ?? null,
 });
 
 export async function createPoint(db: Db, user: SessionUser, input: PointInput) {

@@ -17,6 +17,8 @@ const FIELDS = [
   'bearingId',
   'fmaxHz',
   'lines',
+  'envelopeLoHz',
+  'envelopeHiHz',
 ] as const;
 
 export function PointForm({
@@ -47,6 +49,8 @@ export function PointForm({
       bearingId: null,
       fmaxHz: 1000,
       lines: 1600,
+      envelopeLoHz: null,
+      envelopeHiHz: null,
     },
   });
   const { errors } = form.formState;
@@ -131,6 +135,19 @@ export function PointForm({
           step="1"
           error={errors.lines?.message}
           registration={form.register('lines', { setValueAs: asNumber })}
+        />
+        <NumberField
+          label="Envelope band from"
+          unit="Hz"
+          hint="Around the resonance the bearing impacts ring; leave both empty for the default from the sample rate (fs/10.24 to fs/2.56)."
+          error={errors.envelopeLoHz?.message}
+          registration={form.register('envelopeLoHz', { setValueAs: asNullableNumber })}
+        />
+        <NumberField
+          label="Envelope band to"
+          unit="Hz"
+          error={errors.envelopeHiHz?.message}
+          registration={form.register('envelopeHiHz', { setValueAs: asNullableNumber })}
         />
       </div>
       <FormActions
