@@ -16,6 +16,7 @@ import type { AppContext } from './lib/context.ts';
 import { createLogger } from './lib/logger.ts';
 import { loadOrCreateSecrets } from './lib/secrets.ts';
 import { ensureWebBuilt } from './lib/web-build.ts';
+import { backup } from './backup/backup.ts';
 import { seedIfEmpty } from './features/demo/demo-seed.ts';
 import { checkDemoExposure } from './features/demo/demo-exposure.ts';
 import { createWorker, type Worker } from './features/worker/worker.ts';
@@ -49,7 +50,21 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
   const dbHandle = createDb(url, { connectionLimit: 20, batchConnectionLimit: 32 });
   const cleanup: Array<() => Promise<void>> = [];
   try {
-    await runMigrations(dbHandle.db);
+    await runMigrations(dbHandle, {
+      log: say,
+      // A destructive migration (see packages/db/src/migrate.ts) is preceded by a backup.
+      beforeDestructive: async (pending) => {
+        const tags = pending.filter((m) => m.destructive.length > 0).map((m) => m.tag);
+        say(`Migration(s) ${tags.join(', ')} change or remove stored data; backing up first…`);
+        const { dir } = await backup({
+          dataDir,
+          databaseUrl: url,
+          reason: `before migrations ${pending.map((m) => m.tag).join(', ')}`,
+          log: say,
+        });
+        say(`Backup before the upgrade written to ${dir}.`);
+      },
+    });
     const ctx: AppContext = {
       config,
       db: dbHandle.db,

@@ -5,6 +5,7 @@
 import { resolve } from 'node:path';
 import { createDb } from '@turnstone/db/client';
 import { runningLocalUrl } from '@turnstone/db/local-server';
+import { assertNotNewer } from '@turnstone/db/migrate';
 import { loadConfig } from './config.ts';
 import { createLogger } from './lib/logger.ts';
 import { createWorker } from './features/worker/worker.ts';
@@ -21,6 +22,11 @@ if (!url) {
   process.exit(1);
 }
 const dbHandle = createDb(url);
+// The web process migrates; a worker never runs on a database newer than its code.
+await assertNotNewer(dbHandle.pool).catch((err: Error) => {
+  process.stderr.write(`Turnstone worker could not start: ${err.message}\n`);
+  process.exit(1);
+});
 const ctx = { config, db: dbHandle.db, dbHandle, log, jwtSecret: '', dataDir };
 const worker = createWorker(ctx);
 worker.start();

@@ -34,6 +34,8 @@ export function findProgram(names: string[]): string | null {
 
 export const MARIADB_SERVER = ['mariadbd', 'mysqld'];
 export const MARIADB_INSTALL_DB = ['mariadb-install-db', 'mysql_install_db'];
+export const MARIADB_DUMP = ['mariadb-dump', 'mysqldump'];
+export const MARIADB_CLIENT = ['mariadb', 'mysql'];
 
 function pythonImports(module: string): boolean {
   const r = spawnSync(REFERENCE_PYTHON, ['-c', `import ${module}`], { stdio: 'ignore' });
@@ -53,6 +55,13 @@ const PACKAGES: Record<string, DebianPackage> = {
     reference: false,
     present: () => !!findProgram(MARIADB_SERVER) && !!findProgram(MARIADB_INSTALL_DB),
   },
+  // The dump and load of npm run backup / restore (mariadb-server depends on it; a product
+  // on DATABASE_URL may have only the client).
+  'mariadb-client': {
+    name: 'mariadb-client',
+    reference: false,
+    present: () => !!findProgram(MARIADB_DUMP) && !!findProgram(MARIADB_CLIENT),
+  },
   chromium: { name: 'chromium', reference: false, present: () => existsSync(chromiumPath()) },
   'python3-numpy': {
     name: 'python3-numpy',
@@ -70,8 +79,10 @@ const PACKAGES: Record<string, DebianPackage> = {
 export const DEBIAN_PACKAGES = {
   /** `npm start`: a private MariaDB (unless DATABASE_URL points elsewhere). */
   start: ['mariadb-server'],
+  /** `npm run backup` / `restore`, and a start's backup before a destructive migration. */
+  backup: ['mariadb-client'],
   /** `npm test`: MariaDB, Chromium for the browser tests, scipy and numpy for the references. */
-  test: ['mariadb-server', 'chromium', 'python3-numpy', 'python3-scipy'],
+  test: ['mariadb-server', 'mariadb-client', 'chromium', 'python3-numpy', 'python3-scipy'],
 } as const satisfies Record<string, readonly (keyof typeof PACKAGES)[]>;
 
 export type Purpose = keyof typeof DEBIAN_PACKAGES;
