@@ -308,6 +308,12 @@ describe('machine and point detail', () => {
     const body = pointDetailSchema.parse(await (await get(`/points/${pointId}`)).json());
     expect(body.tag).toBe(TAG);
     expect(body.latest).not.toBeNull();
+    // every overall value states its band: velocity over the ISO band, acceleration from
+    // the ISO band's lower edge to Fmax (ISO 20816-3 band edges, from memory)
+    const velocityBand = body.latest!.overall.velocityBandHz!;
+    expect([2, 10]).toContain(velocityBand[0]);
+    expect(velocityBand[1]).toBeLessThanOrEqual(1000);
+    expect(body.latest!.overall.accelBandHz![0]).toBe(velocityBand[0]);
     const band = body.bands.find((b) => b.key === 'overall-velocity')!;
     expect(band.unit).toBe('mm/s');
     expect(band.dangerLevel).toBeGreaterThan(band.alertLevel);

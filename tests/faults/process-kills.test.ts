@@ -10,7 +10,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import mysql from 'mysql2/promise';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { snapshotBody } from '../support/signals.ts';
+import { prng, snapshotBody } from '../support/signals.ts';
 
 const TAG = 'MFP-P102-MDE-V';
 const tsx = join(process.cwd(), 'node_modules', 'tsx', 'dist', 'cli.mjs');
@@ -98,11 +98,13 @@ describe('a worker killed mid-analysis, ten times', () => {
       ).toBe(201);
     }
     const env = { DATABASE_URL: srv.databaseUrl, JOB_LEASE_S: '1', LOG_LEVEL: 'info' };
+    // Seeded kill delays: every run kills at the same moments after start-up.
+    const delay = prng(13);
     let kills = 0;
     while (kills < 10) {
       const child = spawnNode('apps/server/src/worker-main.ts', env);
       await waitForOutput(child, /worker started/);
-      await new Promise((r) => setTimeout(r, 300 + Math.random() * 700));
+      await new Promise((r) => setTimeout(r, 300 + delay() * 700));
       child.kill('SIGKILL');
       await exited(child);
       kills++;

@@ -45,6 +45,10 @@ export const overallValuesSchema = z.object({
   displacementPkPkUm: z.number(),
   crestFactor: z.number(),
   kurtosis: z.number(),
+  /** Band of accelRmsG, accelPeakG, crestFactor and kurtosis, Hz; null for analyses stored before bands were recorded. */
+  accelBandHz: z.tuple([z.number(), z.number()]).nullable(),
+  /** Band of velocityRmsMmS and displacementPkPkUm (the ISO band), Hz; null when not recorded. */
+  velocityBandHz: z.tuple([z.number(), z.number()]).nullable(),
 });
 
 export const analysisSummarySchema = z.object({

@@ -348,6 +348,7 @@ function summaryOf(a: SnapshotAnalysis) {
     fmaxHz: a.fmaxHz,
     isoBand: a.overall.isoBand,
     isoBandHz: a.overall.isoBandHz,
+    accelBandHz: a.overall.accelBandHz,
     snrDb: a.quality.snrDb,
     qualityMetrics: a.quality.metrics,
     speed: a.speed,

@@ -30,6 +30,8 @@ const summaryColumns = {
   displacementPkPkUm: analyses.displacementPkPkUm,
   crestFactor: analyses.crestFactor,
   kurtosis: analyses.kurtosis,
+  /** The stored analysis summary: its isoBandHz and accelBandHz label the overall values. */
+  summary: analyses.summary,
   speedRpm: analyses.speedRpm,
   speedSource: analyses.speedSource,
   isoZone: analyses.isoZone,

@@ -45,6 +45,13 @@ export const SPARK_POINTS = 50;
 
 const iso = (d: Date) => d.toISOString();
 
+/** A [lo, hi] band in Hz from a stored summary field, or null (analyses stored before it). */
+function bandHz(v: unknown): [number, number] | null {
+  return Array.isArray(v) && v.length === 2 && v.every((x) => typeof x === 'number')
+    ? [v[0] as number, v[1] as number]
+    : null;
+}
+
 function summaryOf(r: repo.AnalysisSummaryRow): AnalysisSummary {
   return {
     id: r.id,
@@ -62,6 +69,8 @@ function summaryOf(r: repo.AnalysisSummaryRow): AnalysisSummary {
       displacementPkPkUm: r.displacementPkPkUm,
       crestFactor: r.crestFactor,
       kurtosis: r.kurtosis,
+      accelBandHz: bandHz(r.summary.accelBandHz),
+      velocityBandHz: bandHz(r.summary.isoBandHz),
     },
   };
 }

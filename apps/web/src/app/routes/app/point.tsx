@@ -9,7 +9,7 @@ import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { paths } from '../../../config/paths.ts';
 import { cn } from '../../../lib/cn.ts';
-import { formatDateTime } from '../../../lib/format.ts';
+import { formatBandHz, formatDateTime } from '../../../lib/format.ts';
 import { useAnalyses } from '../../../features/points/api/get-analyses.ts';
 import { usePoint } from '../../../features/points/api/get-point.ts';
 import { SpectrumPanel } from '../../../features/points/components/spectrum-panel.tsx';
@@ -30,12 +30,15 @@ const verdictText = { ok: 'OK', suspect: 'Suspect', unusable: 'Unusable' } as co
 function LatestValues({ point }: { point: PointDetail }) {
   const l = point.latest;
   if (!l) return null;
+  // Every overall value is shown with the band it was taken over.
+  const vBand = formatBandHz(l.overall.velocityBandHz);
+  const aBand = formatBandHz(l.overall.accelBandHz);
   const items: [string, string][] = [
-    ['Velocity RMS', `${formatValue(l.overall.velocityRmsMmS)} mm/s`],
-    ['Accel RMS', `${formatValue(l.overall.accelRmsG)} g`],
-    ['Accel peak', `${formatValue(l.overall.accelPeakG)} g`],
-    ['Displ. pk-pk', `${formatValue(l.overall.displacementPkPkUm)} µm`],
-    ['Crest factor', formatValue(l.overall.crestFactor)],
+    [`Velocity RMS · ${vBand}`, `${formatValue(l.overall.velocityRmsMmS)} mm/s`],
+    [`Accel RMS · ${aBand}`, `${formatValue(l.overall.accelRmsG)} g`],
+    [`Accel peak · ${aBand}`, `${formatValue(l.overall.accelPeakG)} g`],
+    [`Displ. pk-pk · ${vBand}`, `${formatValue(l.overall.displacementPkPkUm)} µm`],
+    [`Crest factor · ${aBand}`, formatValue(l.overall.crestFactor)],
     ['ISO 20816', l.isoZone ? `Zone ${l.isoZone}` : '—'],
     ['Speed', l.speedRpm ? `${formatValue(l.speedRpm, 4)} r/min (${l.speedSource})` : 'unknown'],
     ['Quality', verdictText[l.verdict]],

@@ -4,7 +4,7 @@ import { Sparkline } from '../../../components/charts/sparkline.tsx';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { paths } from '../../../config/paths.ts';
-import { formatAge, formatDateTime } from '../../../lib/format.ts';
+import { formatAge, formatBandHz, formatDateTime } from '../../../lib/format.ts';
 
 const verdictText = { ok: 'OK', suspect: 'Suspect', unusable: 'Unusable' } as const;
 const speedSourceText = {
@@ -59,12 +59,27 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
                 </td>
                 <td className="px-3 py-2 text-right font-mono text-[13px]">
                   {num(l?.overall.velocityRmsMmS, 'mm/s')}
+                  {l ? (
+                    <div className="font-sans text-xs text-ink-faint">
+                      {formatBandHz(l.overall.velocityBandHz)}
+                    </div>
+                  ) : null}
                 </td>
                 <td className="px-3 py-2 text-right font-mono text-[13px]">
                   {num(l?.overall.accelRmsG, 'g')}
+                  {l ? (
+                    <div className="font-sans text-xs text-ink-faint">
+                      {formatBandHz(l.overall.accelBandHz)}
+                    </div>
+                  ) : null}
                 </td>
                 <td className="px-3 py-2 text-right font-mono text-[13px]">
                   {num(l?.overall.displacementPkPkUm, 'µm')}
+                  {l ? (
+                    <div className="font-sans text-xs text-ink-faint">
+                      {formatBandHz(l.overall.velocityBandHz)}
+                    </div>
+                  ) : null}
                 </td>
                 <td className="px-3 py-2 text-[13px]">{l?.isoZone ? `Zone ${l.isoZone}` : '—'}</td>
                 <td className="px-3 py-2 text-right font-mono text-[13px]">
