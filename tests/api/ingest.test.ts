@@ -77,6 +77,15 @@ describe('ingest', () => {
     expect(Number((jobs as { n: number }[])[0]!.n)).toBe(1);
   });
 
+  it('keeps idle connections open longer than a gateway waits between posts, and says so', async () => {
+    // RFC 9112 §9.3 / the Keep-Alive header's `timeout` hint: the server announces 65 s, so a
+    // client reusing the connection never races the server closing it (common practice, no
+    // source, for the value: longer than the usual 60 s idle timeout of load balancers).
+    const res = await post(keyMfp, snapshotBody(TAG, 'ing-keepalive'));
+    expect(res.status).toBe(201);
+    expect(res.headers.get('keep-alive')).toBe('timeout=65');
+  });
+
   it('stores a gateway-sized capture as sent, and a large one as raw deflate that inflates back, smaller', async () => {
     const small = snapshotBody(TAG, 'ing-z', { takenAt: '2026-11-30T09:00:00.000Z' });
     // 131,072 int16 samples = 256 kB, past STORE_AS_SENT_BYTES (64 kB).

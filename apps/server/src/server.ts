@@ -79,6 +79,11 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
 
     const server: Server = await new Promise((resolveListen, reject) => {
       const s = createServer(httpHandler(ctx));
+      // Idle keep-alive connections are closed by the client, not raced by the server: with
+      // Node's 5 s default, a gateway (or a test client in this process, after the event loop
+      // was busy) could send a request on a socket the server was closing (ECONNRESET). The
+      // server announces the longer timeout in its Keep-Alive header, so clients stay below it.
+      s.keepAliveTimeout = 65_000;
       s.on('error', reject);
       s.listen(config.PORT, config.HOST, () => resolveListen(s));
     });
