@@ -26,15 +26,18 @@ describe('limits screen', () => {
     await page
       .getByText('Turnstone is not a machine-protection system; alarm limits must be set')
       .waitFor();
-    await page.getByLabel('Point').selectOption({ label: `${TAG} — Motor drive end, horizontal` });
+    await page
+      .getByLabel('Point', { exact: true })
+      .selectOption({ label: `${TAG} — Motor drive end, horizontal` });
     const band = page.getByRole('group', { name: /Band 1: Overall velocity/ });
     await band.waitFor();
     await band.getByLabel('Alert level').fill('3');
     await band.getByLabel('Danger level').fill('5');
-    await band.getByLabel('Persistence').fill('1');
+    await band.getByLabel('Persistence', { exact: true }).fill('1');
+    await band.getByLabel('Clear persistence', { exact: true }).fill('1');
     await page.getByRole('button', { name: 'Replay history' }).click();
     await page.getByTestId('replay-total').waitFor();
-    // Persistence 1, alert 3, danger 5, clear below 2.7 over 1.5 1.5 3.5 3.5 1.0 1.0 3.5 3.5
+    // Persistence 1 (raise and clear), alert 3, danger 5, clear below 2.7 over 1.5 1.5 3.5 3.5 1.0 1.0 3.5 3.5
     // 6 1.0: raised twice, once reaching danger (worked by hand; the API test checks times).
     const row = page.locator('tr', { hasText: /^Overall velocity/ });
     await expect(await row.locator('td').nth(2).textContent()).toBe('2');

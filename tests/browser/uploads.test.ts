@@ -32,7 +32,7 @@ describe('uploads in a real browser', () => {
     await signInAs(page, srv.url, 'engineer');
     await page.getByRole('navigation').first().getByRole('link', { name: 'Uploads' }).click();
     await page
-      .getByLabel('Point')
+      .getByLabel('Point', { exact: true })
       .selectOption({ label: 'MFP-P102-MDE-H — Motor drive end, horizontal' });
     await page.getByLabel('Sensitivity').fill('100');
     await page.getByLabel('Full scale').fill('5');
