@@ -7,7 +7,7 @@
  */
 import { gaussian, mulberry32 } from './prng.ts';
 
-/** Standard gravity, m/s² (3rd CGPM, 1901; REFERENCES.md). */
+/** Standard gravity, m/s² (3rd CGPM, 1901). */
 const G = 9.80665;
 
 /** A tone at an order of the shaft speed, given as velocity (what a vibration analyst reads). */
@@ -100,7 +100,7 @@ export interface SynthCapture {
 
 /**
  * Peak acceleration (g) of a tone of `velocityMmS` RMS at `hz`: a = 2πf·v, peak = √2·RMS
- * (REFERENCES.md: v = a/(2πf); sine peak = 1.41421 × RMS).
+ * (calculus of a sinusoid: v = a/(2πf); sine peak = 1.41421 × RMS).
  */
 export function toneAccelPeakG(velocityMmS: number, hz: number): number {
   return (Math.SQRT2 * velocityMmS * 1e-3 * 2 * Math.PI * hz) / G;

@@ -13,7 +13,7 @@
 
 /**
  * ISO 20816-3 machine group: 1 = large machines (300 kW to 50 MW), 2 = medium-sized machines
- * (15 kW to 300 kW). Source: ISO 20816-3 (from memory, see REFERENCES.md).
+ * (15 kW to 300 kW). Source: ISO 20816-3 (from memory).
  */
 export type MachineGroup = 1 | 2;
 
@@ -40,8 +40,7 @@ export interface ZoneBoundaries {
  * Zone boundaries in mm/s RMS by machine group and foundation.
  *
  * Source: ISO 20816-3 / ISO 10816-3, zone boundary table for groups 1 and 2, values **from
- * memory** (nobody on the project has read the primary text; see REFERENCES.md, "Severity
- * zones"). Check them against the purchased standard before relying on them.
+ * memory** (nobody on the project has read the primary text). Check them against the purchased standard before relying on them.
  */
 export const ISO_20816_3_ZONE_BOUNDARIES: Readonly<
   Record<MachineGroup, Readonly<Record<Foundation, ZoneBoundaries>>>

@@ -107,7 +107,7 @@ function buildInput(
   };
 }
 
-/** The --json document (issue 3's shape, with a few more fields). */
+/** The --json document (the analysis' shape, with a few more fields). */
 export function toJson(result: SnapshotAnalysis): unknown {
   const a = result.spectra.acceleration;
   return {

@@ -2,7 +2,7 @@
  * Frequency at which a tone of `frequencyHz` appears after sampling at `sampleRateHz`:
  * |f − k·fs| folded into [0, fs/2] (at fs = 1 kHz: 1300 → 300, 900 → 100, 2600 → 400 Hz).
  *
- * Source: the sampling theorem (Shannon 1949; Nyquist 1928); REFERENCES.md (computed).
+ * Source: the sampling theorem (Shannon 1949; Nyquist 1928) (computed).
  */
 export function aliasFrequency(frequencyHz: number, sampleRateHz: number): number {
   if (!(sampleRateHz > 0))

@@ -28,7 +28,7 @@ export interface BandRmsOptions {
  * so a tone and broadband noise are both read right (Parseval).
  *
  * Source: Harris 1978, Proc. IEEE 66(1) (equivalent noise bandwidth); scipy.signal.welch
- * 'spectrum' / 'density' = ENBW · Δf (REFERENCES.md).
+ * 'spectrum' / 'density' = ENBW · Δf (computed from scipy's definitions).
  */
 export function bandRms(spectrum: PowerSpectrum, options: BandRmsOptions = {}): number {
   const { power, dfHz, enbwBins } = spectrum;

@@ -13,7 +13,7 @@ export const ISO_1683_REFERENCE = {
 
 /**
  * Level in dB re the ISO 1683 reference of the quantity: 20·log10(x / x₀).
- * 1 mm/s → 120.00 dB; 1 g → 139.83 dB (REFERENCES.md, computed).
+ * 1 mm/s → 120.00 dB; 1 g → 139.83 dB (computed from the definition).
  */
 export function toDecibels(value: number, unit: VibrationUnit): number {
   if (!(value > 0)) throw new RangeError(`a level in dB needs a positive amplitude, got ${value}`);

@@ -62,7 +62,7 @@ export const SINE_PEAK_PER_RMS = Math.SQRT2;
  * Amplitude of a sine at `frequencyHz` after integrating it `from` one quantity `to` a
  * lower one (v = a/2πf, d = a/(2πf)² = v/2πf), in the requested units.
  *
- * Source: calculus of a sinusoid; values as in REFERENCES.md (1 g peak at 100 Hz →
+ * Source: calculus of a sinusoid (computed: 1 g peak at 100 Hz →
  * 15.6078 mm/s, 24.8405 µm peak).
  */
 export function integrateSineAmplitude(
