@@ -1,4 +1,3 @@
-import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
@@ -9,7 +8,11 @@ import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { Field, Input } from '../../../components/ui/field.tsx';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
-import { useForgotPassword, useSetPasswordFromLink } from '../api/password-links.ts';
+import {
+  useForgotPassword,
+  useForgotPasswordSentTo,
+  useSetPasswordFromLink,
+} from '../api/password-links.ts';
 
 const setPasswordForm = z
   .object({ password: passwordSchema, confirm: z.string() })
@@ -120,14 +123,12 @@ export function SetPasswordForm({
 
 export function ForgotPasswordForm({ signInHref }: { signInHref: string }) {
   const forgot = useForgotPassword();
-  const [sentTo, setSentTo] = useState<string | null>(null);
+  const sentTo = useForgotPasswordSentTo();
   const form = useForm<z.infer<typeof forgotPasswordSchema>>({
     resolver: zodResolver(forgotPasswordSchema),
     defaultValues: { email: '' },
   });
-  const onSubmit = form.handleSubmit((values) =>
-    forgot.mutate(values, { onSuccess: () => setSentTo(values.email) }),
-  );
+  const onSubmit = form.handleSubmit((values) => forgot.mutate(values));
   return (
     <Card className="p-6">
       <h1 className="text-base font-semibold">Forgot your password?</h1>
