@@ -86,6 +86,9 @@ describe('users admin in a real browser', () => {
     const page = await newPage(browser);
     await page.goto(`${srv.url}/sign-in`);
     await page.getByRole('link', { name: 'Forgot password?' }).click();
+    // The sign-in page has an E-mail field too and stays on screen while the lazy page
+    // loads: wait for the new page before typing, or the address lands in the old form.
+    await page.getByRole('heading', { name: 'Forgot your password?' }).waitFor();
     await page.getByLabel('E-mail').fill('nobody@example.test');
     await page.getByRole('button', { name: 'Send me a link' }).click();
     await page
