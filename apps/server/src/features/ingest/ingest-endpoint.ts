@@ -3,6 +3,7 @@ import express from 'express';
 import { MAX_BATCH, type IngestResult } from '@turnstone/contracts/ingest';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
+import { countIngest } from '../../lib/metrics.ts';
 import { errorReply } from '../../lib/error-middleware.ts';
 import { trackRequest } from '../../lib/request-log.ts';
 import { createGatewayRate } from './gateway-rate.ts';
@@ -125,9 +126,12 @@ export function ingestEndpoint(
           400,
           [{ path: 'snapshots', message: `1 to ${MAX_BATCH} items` }],
         );
-      return { status: 200, body: { results: await ingestBatch(ctx, gateway, items) } };
+      const results = await ingestBatch(ctx, gateway, items);
+      for (const r of results) countIngest(r.status);
+      return { status: 200, body: { results } };
     }
     const r = await ingestOne(ctx, gateway, body);
+    countIngest(r.status);
     if (r.error) return { status: r.httpStatus, body: { error: r.error }, code: r.error.code };
     const { httpStatus: _status, ...result } = r;
     return { status: r.httpStatus, body: result };
@@ -165,6 +169,7 @@ export function ingestEndpoint(
         });
     } catch (err) {
       if (res.headersSent) return;
+      countIngest('rejected');
       const reply = errorReply(err, ctx.log, { requestId, path });
       if (reply.status === 401)
         // RFC 6750 §3: a 401 names the scheme (and, for a bad key, the error).
