@@ -171,9 +171,13 @@ describe('axe-core on every screen of every role (WCAG 2.0/2.1 A and AA)', () =>
     await check(page, 'engineer limits replay');
     await page.getByRole('button', { name: 'Save limits…' }).click();
     await page.getByLabel('Reason for the change').waitFor();
-    await check(page, 'engineer limits save dialog');
-    await page.keyboard.press('Escape');
+    await check(page, 'engineer limits reason');
+    await page.getByRole('button', { name: 'Cancel' }).click();
+    // Leaving with unsaved edits asks first.
     await page.getByRole('tab', { name: 'A machine-type template' }).click();
+    await page.getByRole('dialog', { name: 'Discard the unsaved limit changes?' }).waitFor();
+    await check(page, 'engineer limits discard dialog');
+    await page.getByRole('button', { name: 'Discard changes' }).click();
     await page.getByText(/Built-in pump template/).waitFor();
     await check(page, 'engineer limits template');
     await visit(page, '/review', 'engineer review');
