@@ -15,6 +15,7 @@ import { hostCheck } from './lib/allowed-hosts.ts';
 import { authRouter, authRoutes, createAuthenticate } from './features/auth/auth-router.ts';
 import { fleetRoutes } from './features/fleet/fleet-router.ts';
 import { healthRouter } from './features/health/health-router.ts';
+import { metricsRouter } from './features/metrics/metrics-router.ts';
 import { gatewayRoutes } from './features/gateways/gateways-router.ts';
 import { ingestRouter } from './features/ingest/ingest-router.ts';
 import { ingestEndpoint } from './features/ingest/ingest-endpoint.ts';
@@ -128,6 +129,7 @@ export function createApp(ctx: AppContext) {
   api.use(authRouter(ctx, authenticate));
   mountRoutes(api, featureRoutes(ctx), authenticate);
   app.use('/api', healthRouter(ctx));
+  app.use(metricsRouter(ctx, authenticate));
   app.use('/api/v1', api);
   app.use('/api', apiNotFound);
 

@@ -60,6 +60,11 @@ const envSchema = z.object({
   INGEST_MAX_PER_MIN: z.coerce.number().int().positive().default(6000),
   /** Days to keep raw waveforms; analyses and trends stay. 0 keeps them for ever. */
   RETENTION_DAYS: z.coerce.number().int().min(0).default(90),
+  /**
+   * Bearer token a remote Prometheus sends to read /metrics (at least 32 characters). Without
+   * it, /metrics answers loopback clients and signed-in administrators only.
+   */
+  METRICS_TOKEN: z.string().min(32, 'METRICS_TOKEN must be at least 32 characters').optional(),
   /** Queue: how long a claimed job is leased before another worker may take it (s). */
   JOB_LEASE_S: z.coerce.number().positive().default(60),
   /**

@@ -89,14 +89,4 @@ export async function lockAlerts(tx: Tx, ids: number[]) {
   return tx.select().from(alerts).where(inArray(alerts.id, ids)).for('update');
 }
 
-export async function siteOfPoint(db: Db | Tx, pointId: number) {
-  const [row] = await db
-    .select({ siteId: areas.siteId })
-    .from(points)
-    .innerJoin(machines, eq(machines.id, points.machineId))
-    .innerJoin(areas, eq(areas.id, machines.areaId))
-    .where(eq(points.id, pointId));
-  return row?.siteId;
-}
-
 export { alerts, alertEvents };

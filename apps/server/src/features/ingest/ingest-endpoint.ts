@@ -3,6 +3,7 @@ import express from 'express';
 import { MAX_BATCH, type IngestResult } from '@turnstone/contracts/ingest';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
+import { countIngest } from '../../lib/metrics.ts';
 import { errorReply } from '../../lib/error-middleware.ts';
 import { trackRequest } from '../../lib/request-log.ts';
 import { createGatewayRate } from './gateway-rate.ts';
@@ -111,14 +112,18 @@ export function ingestEndpoint(
             400,
             [{ path: 'snapshots', message: `1 to ${MAX_BATCH} items` }],
           );
-        sendJson(res, 200, { results: await ingestBatch(ctx, gateway, items) });
+        const results = await ingestBatch(ctx, gateway, items);
+        for (const r of results) countIngest(r.status);
+        sendJson(res, 200, { results });
         return;
       }
       const r = await ingestOne(ctx, gateway, body);
+      countIngest(r.status);
       if (r.error) sendJson(res, r.httpStatus, { error: r.error });
       else sendJson(res, r.httpStatus, { uid: r.uid, status: r.status, snapshotId: r.snapshotId });
     } catch (err) {
       if (res.headersSent) return;
+      countIngest('rejected');
       const reply = errorReply(err, ctx.log, { requestId, path });
       sendJson(res, reply.status, reply.body, reply.headers);
     }

@@ -22,6 +22,7 @@ import {
 import { claimJobs, failJob, LeaseLostError, type JobRow } from './queue-repository.ts';
 import { expireRawSamples } from './retention.ts';
 import { recomputeBaselines } from '../limits/baseline-service.ts';
+import { countAnalyses, observeAnalyses, recordRetention } from '../../lib/metrics.ts';
 
 export interface WorkerOptions {
   /** Jobs claimed per round; their results are committed in one transaction. @default 16 */
@@ -75,6 +76,7 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
       ctx.log.warn('job lease lost; another worker finishes it', { jobId: job.id });
       return false;
     }
+    countAnalyses(outcome === 'failed' ? 'failed' : 'retried', 1);
     ctx.log.warn('analysis job failed', {
       jobId: job.id,
       snapshotId: job.snapshotId,
@@ -106,7 +108,9 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
       if (job.kind === 'analyze') analyze.push(job);
       else failures.push({ job, error: new PermanentJobError(`unknown job kind "${job.kind}"`) });
     try {
+      const t0 = performance.now();
       const r = await prepareAnalyses(ctx, analyze);
+      observeAnalyses(r.prepared.length, (performance.now() - t0) / 1000);
       return { prepared: r.prepared, failures: [...failures, ...r.failures], alone: [] };
     } catch (err) {
       if (isDbUnavailable(err)) throw err;
@@ -125,7 +129,9 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
     const failures = [...b.failures];
     const alone = [...b.alone];
     try {
-      finished += (await storeAnalyses(ctx, b.prepared, owner)).length;
+      const stored = (await storeAnalyses(ctx, b.prepared, owner)).length;
+      countAnalyses('stored', stored);
+      finished += stored;
     } catch (err) {
       if (isDbUnavailable(err)) throw err;
       if (b.prepared.length === 1) failures.push({ job: b.prepared[0]!.job, error: err });
@@ -134,6 +140,7 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
     for (const job of alone) {
       try {
         const r = await runAnalysisJobs(ctx, [job], owner);
+        countAnalyses('stored', r.outcomes.length);
         finished += r.outcomes.length;
         failures.push(...r.failures);
       } catch (error) {
@@ -225,7 +232,11 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
       tasks.push(
         cron.schedule(
           '45 2 * * *',
-          guarded('retention', () => expireRawSamples(ctx.db, ctx.config.RETENTION_DAYS)),
+          guarded('retention', async () => {
+            const t0 = performance.now();
+            const n = await expireRawSamples(ctx.db, ctx.config.RETENTION_DAYS);
+            recordRetention(n, (performance.now() - t0) / 1000);
+          }),
           { noOverlap: true, name: 'retention', logger: cronLogger },
         ),
       );
