@@ -18,7 +18,11 @@ export function UserMenu({
         <p className="text-sm font-medium text-ink">{user.name}</p>
         <p className="text-xs text-ink-muted">{roleLabels[user.role]}</p>
       </div>
-      <Button size="sm" onClick={() => void confirmLeaving().then((ok) => ok && signOut.mutate())} busy={signOut.isPending}>
+      <Button
+        size="sm"
+        onClick={() => void confirmLeaving().then((ok) => ok && signOut.mutate())}
+        busy={signOut.isPending}
+      >
         Sign out
       </Button>
       {signOut.error && (
