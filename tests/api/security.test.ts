@@ -4,6 +4,9 @@ import bcrypt from 'bcryptjs';
 import { request } from 'node:http';
 import { redact } from '../../apps/server/src/lib/logger.ts';
 import { passwordTasksRun } from '../../apps/server/src/lib/passwords.ts';
+import { uploadsInFlight } from '../../apps/server/src/features/uploads/upload-pool.ts';
+import { MAX_SAMPLES } from '@turnstone/contracts/ingest';
+import { writeWav } from '@turnstone/dsp';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { snapshotBody } from '../support/signals.ts';
 
@@ -223,6 +226,114 @@ describe('DNS rebinding and demo accounts on a network', () => {
     await open.stop();
     expect(logged.slice(before).join('')).toMatch(/Demo accounts accept the demo password/);
   }, 150_000);
+});
+
+describe('large uploads', () => {
+  let engineer: string;
+  let pointId: number;
+  const count = async () => {
+    const [rows] = await srv.ctx.dbHandle.pool.query('SELECT COUNT(*) AS n FROM snapshots');
+    return Number((rows as { n: number }[])[0]!.n);
+  };
+  const upload = (cookie: string, bytes: Uint8Array | string, name: string) => {
+    const form = new FormData();
+    form.append('sampleRateHz', '25600');
+    const data = typeof bytes === 'string' ? new TextEncoder().encode(bytes) : bytes;
+    form.append('file', new Blob([data as Uint8Array<ArrayBuffer>]), name);
+    return srv.call('POST', `/api/v1/points/${pointId}/uploads`, { cookie, raw: form });
+  };
+  /** An upload whose body keeps coming: it holds its slot until `abort()`. */
+  const held = (cookie: string) => {
+    const boundary = `held${Math.random().toString(16).slice(2)}`;
+    const req = request(`${srv.url}/api/v1/points/${pointId}/uploads`, {
+      method: 'POST',
+      headers: { cookie, 'content-type': `multipart/form-data; boundary=${boundary}` },
+    });
+    req.on('error', () => undefined);
+    req.write(
+      `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="held.csv"\r\n` +
+        'Content-Type: text/csv\r\n\r\n1\n2\n3\n',
+    );
+    return { abort: () => req.destroy() };
+  };
+  const until = async (what: () => boolean) => {
+    for (let i = 0; i < 200 && !what(); i++) await new Promise((r) => setTimeout(r, 25));
+    expect(what()).toBe(true);
+  };
+
+  beforeAll(async () => {
+    engineer = await srv.signIn('engineer');
+    const [rows] = await srv.ctx.dbHandle.pool.query('SELECT id FROM points WHERE tag = ?', [
+      'MFP-P101-MDE-H',
+    ]);
+    pointId = Number((rows as { id: number }[])[0]!.id);
+  });
+
+  it('a CSV past the sample limit is refused 413 with the limit, before its rows are parsed', async () => {
+    // A bad value far past the limit: a parser would name it (400); the bound stops first.
+    const lines = Array.from({ length: MAX_SAMPLES + 50_000 }, (_, i) =>
+      i === MAX_SAMPLES + 40_000 ? 'not-a-number' : String(i % 7),
+    );
+    const before = await count();
+    const res = await upload(engineer, lines.join('\n'), 'long.csv');
+    expect(res.status).toBe(413);
+    const body = (await res.json()) as { error: { code: string; message: string } };
+    expect(body.error.code).toBe('payload_too_large');
+    expect(body.error.message).toContain(String(MAX_SAMPLES));
+    expect(await count()).toBe(before);
+  });
+
+  it('a WAV whose header announces more frames than the limit is refused 413 before decoding', async () => {
+    // A NaN sample a decoder would report (400); the frame count from the header comes first.
+    const samples = new Float32Array(MAX_SAMPLES + 1);
+    samples[10] = NaN;
+    const res = await upload(engineer, writeWav(samples, 25600, 'float32'), 'long.wav');
+    expect(res.status).toBe(413);
+    const body = (await res.json()) as { error: { message: string } };
+    expect(body.error.message).toContain(`${MAX_SAMPLES + 1} samples`);
+    expect(body.error.message).toContain(String(MAX_SAMPLES));
+  });
+
+  it('caps uploads in flight per user (429) and in all (503), with Retry-After, and frees the slots', async () => {
+    const admin = await srv.signIn('admin');
+    // A third person who may upload: a copy of the demo engineer.
+    const pool = srv.ctx.dbHandle.pool;
+    await pool.query(
+      `INSERT INTO users (email, name, role, password_hash)
+       SELECT 'second.engineer@turnstone.local', 'Sam Second', role, password_hash FROM users
+       WHERE email = 'engineer@turnstone.local'`,
+    );
+    await pool.query(
+      `INSERT INTO user_sites (user_id, site_id)
+       SELECT (SELECT id FROM users WHERE email = 'second.engineer@turnstone.local'), site_id
+       FROM user_sites WHERE user_id = (SELECT id FROM users WHERE email = 'engineer@turnstone.local')`,
+    );
+    const signedIn = await srv.call('POST', '/api/v1/auth/sign-in', {
+      body: { email: 'second.engineer@turnstone.local', password: 'turnstone-demo' },
+    });
+    const third = (signedIn.headers.get('set-cookie') ?? '').split(';')[0]!;
+    const good = '1\n2\n'.repeat(300);
+
+    const holds = [held(engineer), held(engineer)];
+    await until(() => uploadsInFlight() === 2);
+    const mine = await upload(engineer, good, 'third.csv');
+    expect(mine.status).toBe(429);
+    expect(mine.headers.get('retry-after')).toMatch(/^[1-9]\d*$/);
+    expect(((await mine.json()) as { error: { message: string } }).error.message).toMatch(
+      /at most 2 at a time/,
+    );
+
+    holds.push(held(admin), held(admin));
+    await until(() => uploadsInFlight() === 4);
+    const all = await upload(third, good, 'fifth.csv');
+    expect(all.status).toBe(503);
+    expect(all.headers.get('retry-after')).toMatch(/^[1-9]\d*$/);
+
+    // Uploads that break off give their slots back; the next one is taken.
+    for (const h of holds) h.abort();
+    await until(() => uploadsInFlight() === 0);
+    expect((await upload(third, good, 'after.csv')).status).toBe(201);
+  });
 });
 
 describe('attempt limits that do not lock the owner out', () => {

@@ -32,31 +32,37 @@ function fourcc(bytes: Uint8Array, offset: number): string {
   );
 }
 
-/**
- * Parses a RIFF/WAVE file held in memory: PCM 16/24/32-bit or IEEE float 32-bit, plain
- * or WAVE_FORMAT_EXTENSIBLE, any channel count (one is returned). Rejects anything else
- * with an `Error` whose message says what is wrong: not RIFF/WAVE, a truncated chunk, a
- * data chunk claiming more bytes than the file holds, missing fmt/data, zero samples,
- * unsupported formats and non-finite float samples.
- *
- * Source: Microsoft/IBM "Multimedia Programming Interface and Data Specifications 1.0"
- * (1991, RIFF/WAVE) and Microsoft's WAVEFORMATEXTENSIBLE documentation.
- */
-export function readWav(bytes: Uint8Array, options: ReadWavOptions = {}): WavRecording {
-  if (!(bytes instanceof Uint8Array)) throw new TypeError('readWav expects a Uint8Array');
-  if (bytes.length < 12 || fourcc(bytes, 0) !== 'RIFF' || fourcc(bytes, 8) !== 'WAVE') {
-    throw new Error('not a WAV file: the RIFF/WAVE header is missing');
-  }
-  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  let offset = 12;
-  let fmt: {
+/** Where a WAV file's format and samples are: its fmt chunk and the place of its data chunk. */
+export interface WavLayout {
+  fmt: {
     format: number;
     channels: number;
     rate: number;
     blockAlign: number;
     bits: number;
     validBits: number;
-  } | null = null;
+  };
+  data: { start: number; size: number };
+  /** Whole frames the data chunk holds (its size ÷ block align; 0 when block align is 0). */
+  frames: number;
+}
+
+/**
+ * Walks the chunks of a RIFF/WAVE file without decoding a sample: cheap enough to bound a
+ * file (frames from the header) before reading it. Throws an `Error` saying what is wrong
+ * (not RIFF/WAVE, a truncated chunk, a missing fmt or data chunk).
+ *
+ * Source: Microsoft/IBM "Multimedia Programming Interface and Data Specifications 1.0"
+ * (1991, RIFF/WAVE) and Microsoft's WAVEFORMATEXTENSIBLE documentation.
+ */
+export function readWavLayout(bytes: Uint8Array): WavLayout {
+  if (!(bytes instanceof Uint8Array)) throw new TypeError('readWav expects a Uint8Array');
+  if (bytes.length < 12 || fourcc(bytes, 0) !== 'RIFF' || fourcc(bytes, 8) !== 'WAVE') {
+    throw new Error('not a WAV file: the RIFF/WAVE header is missing');
+  }
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  let offset = 12;
+  let fmt: WavLayout['fmt'] | null = null;
   let data: { start: number; size: number } | null = null;
   while (offset + 8 <= bytes.length) {
     const id = fourcc(bytes, offset);
@@ -97,6 +103,22 @@ export function readWav(bytes: Uint8Array, options: ReadWavOptions = {}): WavRec
   }
   if (!fmt) throw new Error('invalid WAV: no fmt chunk');
   if (!data) throw new Error('invalid WAV: no data chunk');
+  const frames = fmt.blockAlign > 0 ? Math.floor(data.size / fmt.blockAlign) : 0;
+  return { fmt, data, frames };
+}
+
+/**
+ * Parses a RIFF/WAVE file held in memory: PCM 16/24/32-bit or IEEE float 32-bit, plain
+ * or WAVE_FORMAT_EXTENSIBLE, any channel count (one is returned). Rejects anything else
+ * with an `Error` whose message says what is wrong: not RIFF/WAVE, a truncated chunk, a
+ * data chunk claiming more bytes than the file holds, missing fmt/data, zero samples,
+ * unsupported formats and non-finite float samples.
+ *
+ * Source: Microsoft/IBM "Multimedia Programming Interface and Data Specifications 1.0"
+ * (1991, RIFF/WAVE) and Microsoft's WAVEFORMATEXTENSIBLE documentation.
+ */
+export function readWav(bytes: Uint8Array, options: ReadWavOptions = {}): WavRecording {
+  const { fmt, data } = readWavLayout(bytes);
 
   let encoding: SampleEncoding;
   if (fmt.format === PCM && (fmt.bits === 16 || fmt.bits === 24 || fmt.bits === 32)) {

@@ -14,7 +14,7 @@ const INT_RANGE: Record<Exclude<Encoding, 'float32'>, [number, number]> = {
  * have sent in base64, so both forms store (and hash) the same. Throws RangeError naming
  * the first value that does not fit the encoding.
  */
-export function encodeSamples(values: readonly number[], encoding: Encoding): Buffer {
+export function encodeSamples(values: ArrayLike<number>, encoding: Encoding): Buffer {
   const width = bytesPerSample[encoding];
   const out = Buffer.alloc(values.length * width);
   if (encoding === 'float32') {

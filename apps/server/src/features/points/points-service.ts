@@ -16,6 +16,9 @@ import { decimateTrend } from '@turnstone/condition/trend-decimation';
 import { levelsInForce, projectTrend } from '@turnstone/condition';
 import type {
   AnalysisSummary,
+  CurrentDiagnosis,
+  Diagnosis,
+  ShaftVectorItem,
   MachineDetail,
   PointDetail,
   Spectrum,
@@ -73,7 +76,17 @@ function summaryOf(r: repo.AnalysisSummaryRow): AnalysisSummary {
       accelBandHz: bandHz(r.summary.accelBandHz),
       velocityBandHz: bandHz(r.summary.isoBandHz),
     },
+    diagnosis: (r.diagnosis as Diagnosis | null) ?? null,
+    shaftVectors: (r.shaftVectors as ShaftVectorItem[] | null) ?? null,
   };
+}
+
+/** The hints of the point's newest capture, for the alert detail and the alert mail. */
+export async function currentDiagnosis(db: Db, pointId: number): Promise<CurrentDiagnosis | null> {
+  const row = await repo.latestDiagnosis(db, pointId);
+  return row
+    ? { analysisId: row.id, takenAt: iso(row.takenAt), diagnosis: row.diagnosis as Diagnosis }
+    : null;
 }
 
 function componentsOf(
