@@ -59,7 +59,8 @@ export interface SimChannel {
   resonanceHz: number;
 }
 
-const TACH_MACHINES = new Set(['P101', 'G401', 'M110']);
+/** Machines whose gateway has a once-per-revolution tach input (P-201: the developing unbalance is followed by its 1× vector). */
+const TACH_MACHINES = new Set(['P101', 'P201', 'G401', 'M110']);
 const NO_SPEED_TYPES = new Set(['fan', 'blower']);
 
 function faultOf(machine: DemoMachine, point: DemoPoint): MeasurementFault | null {

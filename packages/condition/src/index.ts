@@ -18,3 +18,4 @@ export * from './least-squares.ts';
 export * from './trend-projection.ts';
 export * from './machine-templates.ts';
 export * from './diagnosis.ts';
+export * from './diagnosis-severity.ts';

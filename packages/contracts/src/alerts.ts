@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { currentDiagnosisSchema } from './points.ts';
 
 /** Alerts of the limit evaluation: level, lifecycle, and the Alerts screen's requests. */
 
@@ -61,7 +62,11 @@ export const alertEventSchema = z.object({
 export type AlertEvent = z.infer<typeof alertEventSchema>;
 
 /** `GET /api/v1/alerts/:id` */
-export const alertDetailSchema = alertSchema.extend({ history: z.array(alertEventSchema) });
+export const alertDetailSchema = alertSchema.extend({
+  history: z.array(alertEventSchema),
+  /** Diagnosis hints of the point's newest capture; null when it has none stored. */
+  currentDiagnosis: currentDiagnosisSchema.nullable(),
+});
 export type AlertDetail = z.infer<typeof alertDetailSchema>;
 
 export const acknowledgeNoteSchema = z

@@ -51,6 +51,77 @@ export const overallValuesSchema = z.object({
   velocityBandHz: z.tuple([z.number(), z.number()]).nullable(),
 });
 
+/** Diagnosis hint codes (trade terms). */
+export const diagnosisCodeSchema = z.enum([
+  'unbalance',
+  'misalignment',
+  'looseness',
+  'bearing-outer-race',
+  'bearing-inner-race',
+  'bearing-rolling-element',
+  'bearing-cage',
+  'gear-mesh',
+  'blade-pass',
+  'electrical',
+  'belt',
+]);
+export type DiagnosisCodeName = z.infer<typeof diagnosisCodeSchema>;
+
+/** One spectral peak that supports a hint. */
+export const diagnosisEvidenceSchema = z.object({
+  hz: z.number(),
+  order: z.number(),
+  /** mm/s RMS (velocity), g RMS (acceleration), g peak (envelope). */
+  amplitude: z.number(),
+  /** "1×", "2×", "DE BPFO ×2", "GMF+1×" … */
+  label: z.string(),
+  spectrum: z.enum(['velocity', 'acceleration', 'envelope']),
+});
+export type DiagnosisEvidenceItem = z.infer<typeof diagnosisEvidenceSchema>;
+
+/** A likely cause with the peaks that support it: a hint, never a verdict. */
+export const diagnosisHintSchema = z.object({
+  code: diagnosisCodeSchema,
+  /** A heuristic score in [0, 1] that orders the hints, not a probability. */
+  confidence: z.number(),
+  summary: z.string(),
+  evidence: z.array(diagnosisEvidenceSchema),
+});
+export type DiagnosisHintItem = z.infer<typeof diagnosisHintSchema>;
+
+/** The hints of one capture (highest confidence first), notes, and the severity they counted from. */
+export const diagnosisSchema = z.object({
+  hints: z.array(diagnosisHintSchema),
+  notes: z.array(z.string()),
+  /** Overall velocity (mm/s RMS) from which velocity-spectrum hints counted. */
+  severityMmS: z.number(),
+  severitySource: z.string(),
+});
+export type Diagnosis = z.infer<typeof diagnosisSchema>;
+
+/**
+ * A shaft-order vector against the tach pulse. Phase is a lag in degrees (0 ≤ φ < 360): how
+ * far the order's positive peak comes after the pulse, in degrees of its own cycle.
+ */
+export const shaftVectorSchema = z.object({
+  order: z.number(),
+  hz: z.number(),
+  accelPeakG: z.number(),
+  accelPhaseDeg: z.number(),
+  velocityRmsMmS: z.number(),
+  velocityPhaseDeg: z.number(),
+  revolutions: z.number().int(),
+});
+export type ShaftVectorItem = z.infer<typeof shaftVectorSchema>;
+
+/** The hints of a point's newest analysis ("current hints"), with the capture they come from. */
+export const currentDiagnosisSchema = z.object({
+  analysisId: z.number().int(),
+  takenAt: z.string(),
+  diagnosis: diagnosisSchema,
+});
+export type CurrentDiagnosis = z.infer<typeof currentDiagnosisSchema>;
+
 export const analysisSummarySchema = z.object({
   id: z.number().int(),
   snapshotId: z.number().int(),
@@ -61,6 +132,10 @@ export const analysisSummarySchema = z.object({
   speedSource: speedSourceSchema,
   bitsUsed: z.number().nullable(),
   overall: overallValuesSchema,
+  /** Null for analyses stored before hints were kept. */
+  diagnosis: diagnosisSchema.nullable(),
+  /** 1× and 2× vectors; null without a tach. */
+  shaftVectors: z.array(shaftVectorSchema).nullable(),
 });
 export type AnalysisSummary = z.infer<typeof analysisSummarySchema>;
 

@@ -366,6 +366,14 @@ export const analyses = mysqlTable(
     velocitySpectrum: mediumBlob('velocity_spectrum'),
     envelopeSpectrum: mediumBlob('envelope_spectrum'),
     orderSpectrum: mediumBlob('order_spectrum'),
+    /**
+     * Diagnosis hints of the capture with their evidence, the notes, and the severity from
+     * which 1×-family hints counted (`@turnstone/condition` diagnose); null for analyses
+     * stored before hints were kept.
+     */
+    diagnosis: jsonColumn<Record<string, unknown> | null>('diagnosis'),
+    /** 1× and 2× vectors against the tach pulse (`@turnstone/dsp` shaftVectors); null without a tach. */
+    shaftVectors: jsonColumn<Record<string, unknown>[] | null>('shaft_vectors'),
     createdAt: createdAt(),
   },
   (t) => [

@@ -14,6 +14,7 @@ import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { lockPointState } from '../analysis/analysis-repository.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
+import { currentDiagnosis } from '../points/points-service.ts';
 import * as repo from './alerts-repository.ts';
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
@@ -48,10 +49,14 @@ export async function getAlert(
   if (!row) throw notFound('Alert');
   if (!canSeeSite(user, row.siteId))
     throw forbidden('This alert belongs to a site you are not assigned to.');
-  const history = await repo.alertHistory(ctx.db, id);
+  const [history, current] = await Promise.all([
+    repo.alertHistory(ctx.db, id),
+    currentDiagnosis(ctx.db, row.pointId),
+  ]);
   return {
     ...toAlert(row),
     history: history.map((h) => ({ ...h, at: h.at.toISOString(), userName: h.userName ?? null })),
+    currentDiagnosis: current,
   };
 }
 

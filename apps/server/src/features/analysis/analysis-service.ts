@@ -5,7 +5,14 @@
  * computation runs outside the transaction, and the batch commits once (one fsync).
  */
 import { analyzeSnapshot, decodeSamples, type SnapshotAnalysis } from '@turnstone/dsp';
-import { isoZone, type BandDefinition as LimitBand } from '@turnstone/condition';
+import {
+  diagnose,
+  diagnosisSeverity,
+  isoZone,
+  type BandDefinition as LimitBand,
+  type DiagnosisComponents,
+  type PointState,
+} from '@turnstone/condition';
 import type { AppContext } from '../../lib/context.ts';
 import {
   completeJobsIn,
@@ -239,28 +246,33 @@ export async function storeAnalyses(
     const batch = await withLimitsInForce(tx, computed);
     const ids = await repo.insertAnalyses(
       tx,
-      batch.map(({ snap, analysis, zone }) => ({
-        snapshotId: snap.id,
-        pointId: snap.pointId,
-        takenAt: snap.takenAt,
-        accelRmsG: analysis.overall.accelRmsG,
-        accelPeakG: analysis.overall.accelPeakG,
-        velocityRmsMmS: analysis.overall.velocityRmsMmS,
-        displacementPkPkUm: analysis.overall.displacementPkPkUm,
-        crestFactor: analysis.overall.crestFactor,
-        kurtosis: analysis.overall.kurtosis,
-        speedRpm: analysis.speed.rpm,
-        speedSource: analysis.speed.source,
-        isoZone: zone,
-        qualityVerdict: analysis.quality.verdict,
-        bitsUsed: analysis.quality.bitsUsed,
-        qualityFindings: analysis.quality.findings,
-        summary: summaryOf(analysis),
-        accelSpectrum: f32(analysis.spectra.acceleration.values),
-        velocitySpectrum: f32(analysis.spectra.velocity.values),
-        envelopeSpectrum: f32(analysis.spectra.envelope?.values),
-        orderSpectrum: f32(analysis.spectra.order?.values),
-      })),
+      batch.map((p) => {
+        const { snap, analysis, zone } = p;
+        return {
+          snapshotId: snap.id,
+          pointId: snap.pointId,
+          takenAt: snap.takenAt,
+          accelRmsG: analysis.overall.accelRmsG,
+          accelPeakG: analysis.overall.accelPeakG,
+          velocityRmsMmS: analysis.overall.velocityRmsMmS,
+          displacementPkPkUm: analysis.overall.displacementPkPkUm,
+          crestFactor: analysis.overall.crestFactor,
+          kurtosis: analysis.overall.kurtosis,
+          speedRpm: analysis.speed.rpm,
+          speedSource: analysis.speed.source,
+          isoZone: zone,
+          qualityVerdict: analysis.quality.verdict,
+          bitsUsed: analysis.quality.bitsUsed,
+          qualityFindings: analysis.quality.findings,
+          summary: summaryOf(analysis),
+          accelSpectrum: f32(analysis.spectra.acceleration.values),
+          velocitySpectrum: f32(analysis.spectra.velocity.values),
+          envelopeSpectrum: f32(analysis.spectra.envelope?.values),
+          orderSpectrum: f32(analysis.spectra.order?.values),
+          diagnosis: diagnosisOf(p, condition.stateOf(snap.pointId)),
+          shaftVectors: analysis.shaftVectors as unknown as Record<string, unknown>[] | null,
+        };
+      }),
     );
     const analysisId = (p: PreparedAnalysis) => ids.get(p.snap.id)!;
     await repo.insertBandValues(
@@ -336,6 +348,72 @@ export async function runAnalysisJob(
   const { outcomes, failures } = await runAnalysisJobs(ctx, [job], owner);
   if (failures[0]) throw failures[0].error;
   return outcomes[0]!;
+}
+
+/** The machine's parts that make known frequencies, as the diagnosis reads them. */
+function diagnosisComponentsOf(pc: repo.PointContext): DiagnosisComponents {
+  const m = pc.machine;
+  const blades = m.bladeCount ?? m.vaneCount ?? undefined;
+  return {
+    bearings: pc.bearings.map((b) => ({
+      name: b.name,
+      rollingElements: b.rollingElements,
+      ballDiameterMm: b.ballDiameterMm,
+      pitchDiameterMm: b.pitchDiameterMm,
+      contactAngleDeg: b.contactAngleDeg,
+      speedRatio: b.speedRatio,
+    })),
+    gears: pc.gears.map((g) => ({ name: g.name, teeth: g.teeth, speedRatio: g.speedRatio })),
+    ...(blades ? { blades } : {}),
+    // The machine's speed is its driver's: the belt frequency is read on the driver sheave.
+    ...(m.belt
+      ? {
+          belts: [
+            {
+              name: 'belt',
+              pulleyDiameterMm: m.belt.driverSheaveMm,
+              lengthMm: m.belt.beltLengthMm,
+            },
+          ],
+        }
+      : {}),
+  };
+}
+
+/**
+ * The capture's diagnosis hints as stored with the analysis: the hints count from the point's
+ * own levels (`diagnosisSeverity`: its overall velocity alert level in force, or its baseline
+ * by a stated margin) as judged before this batch. A machine record the diagnosis refuses (a
+ * belt longer than nothing, say) leaves a note instead of failing the capture.
+ */
+function diagnosisOf(p: PreparedAnalysis, state: PointState | null): Record<string, unknown> {
+  const severity = diagnosisSeverity(p.limitSet.bands as LimitBand[], state, {
+    isoGroup: p.pc.machine.isoGroup === 1 ? 1 : 2,
+    foundation: p.pc.machine.foundation,
+  });
+  try {
+    const result = diagnose({
+      analysis: p.analysis,
+      direction: p.pc.point.direction,
+      components: diagnosisComponentsOf(p.pc),
+      severityMmS: severity.severityMmS,
+      severitySource: severity.source,
+    });
+    return {
+      hints: result.diagnosis,
+      notes: result.notes,
+      severityMmS: severity.severityMmS,
+      severitySource: severity.source,
+    };
+  } catch (err) {
+    if (!(err instanceof RangeError)) throw err;
+    return {
+      hints: [],
+      notes: [`No diagnosis: ${err.message}.`],
+      severityMmS: severity.severityMmS,
+      severitySource: severity.source,
+    };
+  }
 }
 
 /** What the web app needs to draw the stored spectra, besides the float32 arrays. */

@@ -39,6 +39,8 @@ export interface ConditionBatch {
   judge(input: ConditionInput): Promise<boolean>;
   /** Writes the deferred alert updates and the changed point states. */
   finish(): Promise<void>;
+  /** The point's condition state as judged so far (locked; null before its first capture). */
+  stateOf(pointId: number): PointState | null;
 }
 
 /** Locks the points' condition states (ascending point id) and reads their open alerts. */
@@ -57,6 +59,9 @@ export async function startConditionBatch(
   const judged = new Set<number>();
   const verdicts = await repo.lastVerdicts(tx, [...states.keys()]);
   return {
+    stateOf(pointId) {
+      return (states.get(pointId)?.state as unknown as PointState | undefined) ?? null;
+    },
     async judge(input) {
       const row = states.get(input.pointId)!;
       if (row.evaluatedTakenAt && input.takenAt < row.evaluatedTakenAt) {

@@ -37,6 +37,8 @@ const summaryColumns = {
   isoZone: analyses.isoZone,
   qualityVerdict: analyses.qualityVerdict,
   bitsUsed: analyses.bitsUsed,
+  diagnosis: analyses.diagnosis,
+  shaftVectors: analyses.shaftVectors,
 };
 export type AnalysisSummaryRow = Awaited<ReturnType<typeof listAnalyses>>[number];
 
@@ -101,6 +103,17 @@ export async function listAnalyses(
     )
     .orderBy(desc(analyses.takenAt), desc(analyses.id))
     .limit(limit);
+}
+
+/** The newest analysis of a point that has diagnosis hints stored (null when none has). */
+export async function latestDiagnosis(db: Db, pointId: number) {
+  const [row] = await db
+    .select({ id: analyses.id, takenAt: analyses.takenAt, diagnosis: analyses.diagnosis })
+    .from(analyses)
+    .where(eq(analyses.pointId, pointId))
+    .orderBy(desc(analyses.takenAt), desc(analyses.id))
+    .limit(1);
+  return row?.diagnosis ? row : null;
 }
 
 /** The last `limit` values of one band, newest first (served by band_values_trend_idx). */

@@ -148,6 +148,7 @@ export function LimitsEditor({
             dangerLevel: d.dangerLevel,
             persistence: 2,
             clearPersistence: 3,
+            clearAfterHours: 120,
             hysteresis: 0.9,
             levelSource: source,
           }),

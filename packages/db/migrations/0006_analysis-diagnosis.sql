@@ -1,0 +1,2 @@
+ALTER TABLE `analyses` ADD `diagnosis` json;--> statement-breakpoint
+ALTER TABLE `analyses` ADD `shaft_vectors` json;
