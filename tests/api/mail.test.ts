@@ -125,6 +125,10 @@ describe('alert notifications', () => {
     expect(html).toContain(`href="${srv.url}/points/${a.point_id}"`);
     expect(html).toContain('Turnstone is not a machine-protection system');
     expect(html).not.toMatch(/<script/i);
+    // The document names its language and has a title (WCAG 2.1 SC 3.1.1 and 2.4.2).
+    expect(html).toMatch(
+      /^<!doctype html><html lang="en"><head>.*<title>Alert raised[^<]*Intake pump P-101<\/title>/i,
+    );
   });
 
   it('when the same alert event is queued again, no second row or message appears', async () => {
