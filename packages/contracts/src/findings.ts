@@ -23,11 +23,19 @@ export const isoDateSchema = z.iso.date({ message: 'Use a date like 2026-11-30' 
 const blankable = <T extends z.ZodType>(schema: T) =>
   z.union([z.literal('').transform(() => null), z.null(), schema]).optional();
 
+/**
+ * A maintenance system's work-order reference as that system writes it (`WO 2026:0042`,
+ * `PM-17/3 (B)`, `Auftrag Nr. 4711`): any printable text up to 64 characters — no control,
+ * format or unassigned characters, no line breaks.
+ */
 export const workOrderRefSchema = z
   .string()
   .trim()
   .max(64, 'At most 64 characters')
-  .regex(/^[\w./#-]*$/, 'Letters, digits and - _ . / # only');
+  .regex(
+    /^[^\p{C}\u2028\u2029]*$/u,
+    'Printable characters only (no line breaks or control characters)',
+  );
 
 const titleSchema = z
   .string()

@@ -10,6 +10,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './alerts-service.ts';
 import { idParam } from '../../lib/route-params.ts';
+import { parseQuery } from '../../lib/query.ts';
 
 export function alertRoutes(ctx: AppContext): RouteSpec[] {
   return [
@@ -19,7 +20,7 @@ export function alertRoutes(ctx: AppContext): RouteSpec[] {
       access: ALL_ROLES,
       summary: 'list alerts of my sites',
       handler: async (req, res) => {
-        const query = alertListQuerySchema.parse(req.query);
+        const query = parseQuery(alertListQuerySchema, req.query);
         res.json(alertListSchema.parse(await service.listAlerts(ctx, requireUser(req), query)));
       },
     },

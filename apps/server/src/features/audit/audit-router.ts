@@ -2,6 +2,7 @@ import { auditQuerySchema } from '@turnstone/contracts/audit';
 import type { AppContext } from '../../lib/context.ts';
 import type { RouteSpec } from '../../lib/route-table.ts';
 import { listAudit } from './audit-service.ts';
+import { parseQuery } from '../../lib/query.ts';
 
 export function auditRoutes(ctx: AppContext): RouteSpec[] {
   return [
@@ -11,7 +12,7 @@ export function auditRoutes(ctx: AppContext): RouteSpec[] {
       access: ['admin', 'engineer'],
       summary: 'audit log with filters',
       handler: async (req, res) =>
-        res.json(await listAudit(ctx.db, req.user!, auditQuerySchema.parse(req.query))),
+        res.json(await listAudit(ctx.db, req.user!, parseQuery(auditQuerySchema, req.query))),
     },
   ];
 }

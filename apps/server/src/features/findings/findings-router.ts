@@ -7,6 +7,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './findings-service.ts';
 import { idParam } from '../../lib/route-params.ts';
+import { parseQuery } from '../../lib/query.ts';
 
 /** Planners own findings; engineers raise them too (DESIGN.md roles). */
 const WRITERS = ['planner', 'engineer'] as const;
@@ -24,7 +25,7 @@ export function findingRoutes(ctx: AppContext): RouteSpec[] {
           await service.listFindings(
             ctx,
             requireUser(req),
-            findingListQuerySchema.parse(req.query),
+            parseQuery(findingListQuerySchema, req.query),
           ),
         ),
     },

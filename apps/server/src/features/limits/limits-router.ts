@@ -19,6 +19,7 @@ import { accessiblePoint } from '../../lib/point-access.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './limits-service.ts';
 import { idParam } from '../../lib/route-params.ts';
+import { parseQuery } from '../../lib/query.ts';
 
 const typeParam = z.object({ machineType: machineTypeSchema });
 // The contract schema mirrors the condition package's BandDefinition.
@@ -80,7 +81,7 @@ export function limitRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'levels from the baseline of a band',
       handler: async (req, res) => {
         const p = await point(req);
-        const q = suggestQuerySchema.parse(req.query);
+        const q = parseQuery(suggestQuerySchema, req.query);
         res.json(suggestResponseSchema.parse(await service.suggest(ctx, p, q)));
       },
     },

@@ -9,6 +9,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './points-service.ts';
 import { idParam } from '../../lib/route-params.ts';
+import { parseQuery } from '../../lib/query.ts';
 
 function attachment(res: Response, fileName: string, type: string) {
   res.setHeader('Content-Type', type);
@@ -48,7 +49,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'analyses of a point',
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        const q = analysesQuerySchema.parse(req.query);
+        const q = parseQuery(analysesQuerySchema, req.query);
         res.json(await service.listAnalyses(ctx, requireUser(req), id, q));
       },
     },
@@ -59,7 +60,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'band trend with levels and projection',
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        const q = trendQuerySchema.parse(req.query);
+        const q = parseQuery(trendQuerySchema, req.query);
         res.setHeader('Cache-Control', 'private, no-cache');
         res.json(await service.trend(ctx, requireUser(req), id, q));
       },
@@ -71,7 +72,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'band trend as CSV',
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        const q = trendQuerySchema.parse(req.query);
+        const q = parseQuery(trendQuerySchema, req.query);
         const file = await service.trendCsv(ctx, requireUser(req), id, q);
         attachment(res, file.fileName, 'text/csv; charset=utf-8');
         res.send(file.text);
@@ -84,7 +85,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'last spectra of a point',
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        const q = waterfallQuerySchema.parse(req.query);
+        const q = parseQuery(waterfallQuerySchema, req.query);
         res.json(await service.waterfall(ctx, requireUser(req), id, q.kind, q.limit));
       },
     },
@@ -95,7 +96,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'stored spectrum of an analysis',
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        const q = spectrumQuerySchema.parse(req.query);
+        const q = parseQuery(spectrumQuerySchema, req.query);
         // Stored spectra never change once written.
         res.setHeader('Cache-Control', 'private, max-age=3600');
         res.json(await service.spectrum(ctx, requireUser(req), id, q.kind));

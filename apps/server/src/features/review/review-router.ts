@@ -3,6 +3,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import { reviewCsv } from './review-csv.ts';
 import { buildWeeklyReview } from './review-service.ts';
+import { parseQuery } from '../../lib/query.ts';
 
 /** The weekly review is the planner's screen; engineers and admins read it too. */
 const READERS = ['planner', 'engineer', 'admin'] as const;
@@ -15,7 +16,7 @@ export function reviewRoutes(ctx: AppContext): RouteSpec[] {
       access: READERS,
       summary: 'weekly review: movers, forecasts, open alerts, quality notices, findings due',
       handler: async (req, res) => {
-        const q = reviewQuerySchema.parse(req.query);
+        const q = parseQuery(reviewQuerySchema, req.query);
         res.setHeader('Cache-Control', 'no-store');
         res.json(await buildWeeklyReview(ctx, requireUser(req), q));
       },
@@ -26,7 +27,7 @@ export function reviewRoutes(ctx: AppContext): RouteSpec[] {
       access: READERS,
       summary: 'weekly review as CSV',
       handler: async (req, res) => {
-        const q = reviewQuerySchema.parse(req.query);
+        const q = parseQuery(reviewQuerySchema, req.query);
         const review = await buildWeeklyReview(ctx, requireUser(req), q);
         const sites =
           review.sites.length === 1 ? `-${review.sites[0]!.code.replace(/[^\w-]/g, '')}` : '';
