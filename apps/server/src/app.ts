@@ -82,10 +82,8 @@ function sameOriginWrites(req: Request, _res: Response, next: NextFunction) {
 export function createApp(ctx: AppContext) {
   const app = express();
   app.disable('x-powered-by');
-  if (ctx.config.TRUST_PROXY) {
-    const v = ctx.config.TRUST_PROXY;
-    app.set('trust proxy', /^\d+$/.test(v) ? Number(v) : v === 'true' ? true : v);
-  }
+  // Checked and converted in config.ts (a value Express refuses would fail only here).
+  if (ctx.config.TRUST_PROXY !== undefined) app.set('trust proxy', ctx.config.TRUST_PROXY);
   app.use((req, res, next) => {
     req.requestId = trackRequest(ctx.log, req, res, () => req.path);
     next();
