@@ -91,7 +91,7 @@ export function createApp(ctx: AppContext) {
   // The gateways' machine-to-machine API comes before the browser middleware: helmet's
   // page headers (CSP, frame and referrer policy…) mean nothing to a gateway and gzip does
   // not pay for answers of a hundred bytes. (Its POST never reaches Express: httpHandler.)
-  app.use('/api/ingest/v1', ingestRouter());
+  app.use('/api/ingest/v1', ingestRouter(ctx.config));
   // Browser-facing routes answer only to the names this server is known by (gateways
   // authenticate with a key, which a rebound page does not have).
   app.use(hostCheck(ctx.config));
