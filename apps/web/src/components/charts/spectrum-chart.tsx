@@ -14,6 +14,7 @@ import {
 } from './chart-theme.ts';
 import type { ChartOption, LineSeriesOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
+import { ZoomKeys } from './zoom-keys.tsx';
 
 export interface SpectrumTrace {
   /** Legend and tooltip name, e.g. the capture time. */
@@ -186,7 +187,7 @@ export function SpectrumChart(props: SpectrumChartProps) {
     () => buildSpectrumOption({ traces, axis, yName, unit, markers, cursor, ariaLabel: '' }),
     [traces, axis, yName, unit, markers, cursor],
   );
-  const { ref } = useEChart(option, (chart) => {
+  const { ref, chartRef } = useEChart(option, (chart) => {
     const zr = chart.getZr();
     const onClick = (e: { offsetX: number; offsetY: number }) => {
       if (!chart.containPixel({ gridIndex: 0 }, [e.offsetX, e.offsetY])) return;
@@ -207,6 +208,9 @@ export function SpectrumChart(props: SpectrumChartProps) {
         style={{ height: props.height ?? 360 }}
       />
       {shown.length > 0 && <MarkerKey markers={shown} unit={axis === 'hz' ? 'Hz' : 'order'} />}
+      <div className="mt-2 px-2">
+        <ZoomKeys chartRef={chartRef} label="spectrum" />
+      </div>
     </div>
   );
 }
