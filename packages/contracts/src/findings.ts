@@ -26,17 +26,10 @@ const blankable = <T extends z.ZodType>(schema: T) =>
 
 /**
  * A maintenance system's work-order reference as that system writes it (`WO 2026:0042`,
- * `PM-17/3 (B)`, `Auftrag Nr. 4711`): any printable text up to 64 characters — no control,
- * format or unassigned characters, no line breaks.
+ * `PM-17/3 (B)`, `Auftrag Nr. 4711`): any one line of text up to 64 characters (text.ts:
+ * no line breaks or control characters).
  */
-export const workOrderRefSchema = z
-  .string()
-  .trim()
-  .max(64, 'At most 64 characters')
-  .regex(
-    /^[^\p{C}\u2028\u2029]*$/u,
-    'Printable characters only (no line breaks or control characters)',
-  );
+export const workOrderRefSchema = oneLine(z.string().trim().max(64, 'At most 64 characters'));
 
 const titleSchema = oneLine(
   z.string().trim().min(1, 'Give the finding a title').max(200, 'At most 200 characters'),
