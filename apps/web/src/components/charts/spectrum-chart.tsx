@@ -5,7 +5,7 @@
  */
 import { useMemo } from 'react';
 import { axisStyle, chartColours, formatValue, monoFont, sansFont } from './chart-theme.ts';
-import type { ChartOption, LineSeriesOption } from './echarts.ts';
+import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
 
 export interface SpectrumTrace {
@@ -26,6 +26,12 @@ export interface SpectrumMarker {
   kind: 'shaft' | 'bpfo' | 'bpfi' | 'bsf' | 'ftf' | 'gear-mesh' | 'blade-pass';
 }
 
+export interface SpectrumHighlight {
+  x: number;
+  y: number;
+  label: string;
+}
+
 export interface SpectrumChartProps {
   traces: readonly SpectrumTrace[];
   axis: 'hz' | 'order';
@@ -36,6 +42,8 @@ export interface SpectrumChartProps {
   /** Harmonic cursor: lines at k · fundamental, k = 1 … count. */
   cursor?: { fundamental: number; count: number } | null;
   onPick?: (x: number) => void;
+  /** Peaks to highlight (a diagnosis hint's evidence): position on the axes and a label. */
+  highlights?: readonly SpectrumHighlight[];
   height?: number;
   ariaLabel: string;
 }
@@ -125,6 +133,32 @@ export function buildSpectrumOption(p: SpectrumChartProps): ChartOption {
       data: [...markLines, ...cursorLines],
     };
   }
+  const highlights = (p.highlights ?? []).filter((h) => h.x > 0 && h.x <= xMax);
+  const evidence: ScatterSeriesOption | null =
+    highlights.length === 0
+      ? null
+      : {
+          name: 'Hint evidence',
+          type: 'scatter',
+          data: highlights.map((h) => ({ value: [h.x, h.y], name: h.label })),
+          symbol: 'diamond',
+          symbolSize: 12,
+          itemStyle: {
+            color: chartColours.danger,
+            borderColor: chartColours.surface,
+            borderWidth: 1,
+          },
+          label: {
+            show: true,
+            position: 'top',
+            formatter: (d: { name: string }) => d.name,
+            color: chartColours.danger,
+            fontFamily: sansFont,
+            fontSize: 11,
+            fontWeight: 600,
+          },
+          z: 5,
+        };
   const ax = axisStyle();
   return {
     animation: false,
@@ -171,15 +205,25 @@ export function buildSpectrumOption(p: SpectrumChartProps): ChartOption {
         textStyle: { fontFamily: monoFont, fontSize: 10, color: chartColours.inkMuted },
       },
     ],
-    series,
+    series: evidence ? [...series, evidence] : series,
   };
 }
 
 export function SpectrumChart(props: SpectrumChartProps) {
-  const { traces, axis, yName, unit, markers, cursor, onPick } = props;
+  const { traces, axis, yName, unit, markers, cursor, onPick, highlights } = props;
   const option = useMemo(
-    () => buildSpectrumOption({ traces, axis, yName, unit, markers, cursor, ariaLabel: '' }),
-    [traces, axis, yName, unit, markers, cursor],
+    () =>
+      buildSpectrumOption({
+        traces,
+        axis,
+        yName,
+        unit,
+        markers,
+        cursor,
+        highlights,
+        ariaLabel: '',
+      }),
+    [traces, axis, yName, unit, markers, cursor, highlights],
   );
   const { ref } = useEChart(option, (chart) => {
     const zr = chart.getZr();

@@ -15,6 +15,7 @@ import { usePoint } from '../../../features/points/api/get-point.ts';
 import { SpectrumPanel } from '../../../features/points/components/spectrum-panel.tsx';
 import { WaterfallPanel } from '../../../features/points/components/waterfall-panel.tsx';
 import { WaveformPanel } from '../../../features/points/components/waveform-panel.tsx';
+import { VectorPanel, hasVectors } from '../../../features/points/components/vector-panel.tsx';
 import { TrendPanel } from '../../../features/trends/components/trend-panel.tsx';
 
 const tabs = [
@@ -22,6 +23,7 @@ const tabs = [
   { key: 'spectrum', label: 'Spectrum' },
   { key: 'waveform', label: 'Waveform' },
   { key: 'waterfall', label: 'Waterfall' },
+  { key: 'vector', label: '1× vector' },
 ] as const;
 type Tab = (typeof tabs)[number]['key'];
 
@@ -139,25 +141,27 @@ export function PointRoute() {
       />
       <LatestValues point={p} />
       <div role="tablist" aria-label="Analysis views" className="flex gap-1 border-b border-line">
-        {tabs.map((t) => (
-          <button
-            key={t.key}
-            id={`tab-${t.key}`}
-            role="tab"
-            type="button"
-            aria-selected={tab === t.key}
-            aria-controls={`panel-${t.key}`}
-            onClick={() => setTab(t.key)}
-            className={cn(
-              '-mb-px border-b-2 px-3 py-2 text-sm font-medium',
-              tab === t.key
-                ? 'border-accent text-ink'
-                : 'border-transparent text-ink-muted hover:text-ink',
-            )}
-          >
-            {t.label}
-          </button>
-        ))}
+        {tabs
+          .filter((t) => t.key !== 'vector' || hasVectors(list))
+          .map((t) => (
+            <button
+              key={t.key}
+              id={`tab-${t.key}`}
+              role="tab"
+              type="button"
+              aria-selected={tab === t.key}
+              aria-controls={`panel-${t.key}`}
+              onClick={() => setTab(t.key)}
+              className={cn(
+                '-mb-px border-b-2 px-3 py-2 text-sm font-medium',
+                tab === t.key
+                  ? 'border-accent text-ink'
+                  : 'border-transparent text-ink-muted hover:text-ink',
+              )}
+            >
+              {t.label}
+            </button>
+          ))}
       </div>
       <div role="tabpanel" id={`panel-${tab}`} aria-labelledby={`tab-${tab}`}>
         {tab === 'trend' &&
@@ -183,6 +187,7 @@ export function PointRoute() {
             <WaveformPanel analyses={list} selectedId={selectedId} onSelect={setPicked} />
           ))}
         {tab === 'waterfall' && <WaterfallPanel pointId={p.id} />}
+        {tab === 'vector' && (snapshotBody() ?? <VectorPanel analyses={list} />)}
       </div>
     </div>
   );
