@@ -10,7 +10,8 @@ import { snapshotBody } from '../support/signals.ts';
 let srv: TestServer;
 const keys = new Map<number, string>();
 const cookies = new Map<string, string>();
-const t0 = Date.now() - 48 * 3600_000;
+// 30 days back, so a capture after the 5-day clear off-delay is not in the future
+const t0 = Date.now() - 30 * 24 * 3600_000;
 let seq = 0;
 
 /**
@@ -279,8 +280,10 @@ describe('alerts through ingest', () => {
 
   it('a new exceedance after an alert cleared raises a new alert', async () => {
     // 1.0 mm/s three times is below 0.9 × 2.8 (hysteresis) for the template's clear
-    // persistence of 3 (TEMPLATE_DEFAULTS, common practice, no source): every open P-101 alert
-    // clears.
+    // persistence of 3, taken after the template's 5-day off-delay with nothing above the
+    // clear level in it (TEMPLATE_DEFAULTS, common practice, no source): every open P-101
+    // alert clears.
+    seq += 6 * 24;
     await capture(1, TAG, [1.0, 1.0, 1.0]);
     const vel = (await alertsOf('engineer', `?pointId=1`)).filter(
       (a) => a.bandKey === 'overall-velocity',

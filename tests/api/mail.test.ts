@@ -22,7 +22,8 @@ import { snapshotBody } from '../support/signals.ts';
 let srv: TestServer;
 let key = '';
 let admin = '';
-const t0 = Date.now() - 48 * 3600_000;
+// 30 days back, so a capture after the 5-day clear off-delay is not in the future
+const t0 = Date.now() - 30 * 24 * 3600_000;
 let seq = 0;
 const TAG = 'MFP-P101-MDE-H';
 const ENGINEER = 'engineer@turnstone.local';
@@ -124,6 +125,10 @@ describe('alert notifications', () => {
     expect(html).toContain(`href="${srv.url}/points/${a.point_id}"`);
     expect(html).toContain('Turnstone is not a machine-protection system');
     expect(html).not.toMatch(/<script/i);
+    // The document names its language and has a title (WCAG 2.1 SC 3.1.1 and 2.4.2).
+    expect(html).toMatch(
+      /^<!doctype html><html lang="en"><head>.*<title>Alert raised[^<]*Intake pump P-101<\/title>/i,
+    );
   });
 
   it('when the same alert event is queued again, no second row or message appears', async () => {
@@ -150,6 +155,9 @@ describe('alert notifications', () => {
   });
 
   it('when values fall back inside the levels, clearing sends one message per subscribed user', async () => {
+    // three values below the clear level after the template's 5-day off-delay
+    // (TEMPLATE_DEFAULTS, common practice, no source)
+    seq += 6 * 24;
     await capture([1.0, 1.0, 1.0]);
     const a = await overallAlert();
     expect(a.state).toBe('cleared');

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readWav } from '@turnstone/dsp';
 import { decodeFloat32Base64 } from '@turnstone/contracts/points';
 import { trendResponseSchema } from '@turnstone/contracts/trend';
+import { TREND_MAX_BUCKETS } from '@turnstone/condition/trend-decimation';
 import {
   machineDetailSchema,
   pointDetailSchema,
@@ -260,6 +261,83 @@ describe('trend', () => {
     expect(body.projection.outcome).toBe('above-danger');
     expect(body.projection.target).toBeNull();
     expect(body.projection.crossingAt).toBeNull();
+  });
+
+  it('answers a year of hourly values thinned for a chart, keeping its peak and alert values', async () => {
+    // Only the trend's read path is under test, so a year of band values is written straight
+    // into the table (foreign keys off on this one connection: no analyses behind them).
+    // The year before this file's other values, so theirs stay the latest.
+    const yearPoint = pointId;
+    const from = Date.parse('2024-11-01T00:00:00Z');
+    const hours = 365 * 24;
+    const valueAt = (h: number) => (h === 5000 ? 9.9 : 2 + Math.sin(h / 50) * 0.3 + (h % 7) * 0.01);
+    const conn = await srv.ctx.dbHandle.pool.getConnection();
+    try {
+      await conn.query('SET FOREIGN_KEY_CHECKS = 0');
+      for (let h0 = 0; h0 < hours; h0 += 2000) {
+        const rows = [];
+        for (let h = h0; h < Math.min(hours, h0 + 2000); h++)
+          rows.push([
+            50_000_000 + h,
+            yearPoint,
+            'overall-velocity',
+            new Date(from + h * 3_600_000),
+            valueAt(h),
+            'ok',
+          ]);
+        await conn.query(
+          'INSERT INTO band_values (analysis_id, point_id, band_key, taken_at, value, quality_verdict) VALUES ?',
+          [rows],
+        );
+      }
+      // An alert raised 20 minutes after hour 7000's capture (a value of no note of its own).
+      const [a] = (await conn.query(
+        `INSERT INTO alerts (point_id, band_key, band_name, level, state, unit, limit_value,
+           first_value, last_value, peak_value, first_at, last_at, peak_at)
+         VALUES (?, 'overall-velocity', 'Overall velocity', 'alert', 'cleared', 'mm/s', 2.8,
+           2.9, 2.9, 2.9, ?, ?, ?)`,
+        [yearPoint, ...Array(3).fill(new Date(from + 7000 * 3_600_000))],
+      )) as unknown as [{ insertId: number }];
+      await conn.query(
+        "INSERT INTO alert_events (alert_id, kind, level, value, at) VALUES (?, 'raised', 'alert', 2.9, ?)",
+        [a.insertId, new Date(from + 7000 * 3_600_000 + 20 * 60_000)],
+      );
+    } finally {
+      await conn.query('SET FOREIGN_KEY_CHECKS = 1');
+      conn.release();
+    }
+    const res = await get(
+      `/points/${yearPoint}/trend?band=overall-velocity&from=2024-11-01T00:00:00Z&to=2025-10-31T23:59:59Z`,
+    );
+    expect(res.status).toBe(200);
+    const text = await res.text();
+    const body = trendResponseSchema.parse(JSON.parse(text));
+    expect(body.decimation).toEqual({ total: hours, bucketMs: expect.any(Number) });
+    expect(body.items.length).toBeLessThanOrEqual(2 * TREND_MAX_BUCKETS + 3);
+    expect(body.items.length).toBeGreaterThan(TREND_MAX_BUCKETS);
+    // The answer a chart needs, not the year: the issue's bound for a one-year trend.
+    expect(Buffer.byteLength(text)).toBeLessThanOrEqual(60_000);
+    const at = (h: number) => new Date(from + h * 3_600_000).toISOString();
+    const values = new Map(body.items.map((i) => [i.t, i.v]));
+    expect(values.get(at(5000))).toBe(9.9); // the peak
+    expect(values.get(at(7000))).toBe(valueAt(7000)); // the value behind the alert
+    expect(values.get(at(0))).toBe(valueAt(0));
+    expect(values.get(at(hours - 1))).toBe(valueAt(hours - 1)); // the latest value
+    // A short period comes whole.
+    const week = trendResponseSchema.parse(
+      await (
+        await get(
+          `/points/${yearPoint}/trend?band=overall-velocity&from=2025-06-01T00:00:00Z&to=2025-06-07T23:59:59Z`,
+        )
+      ).json(),
+    );
+    expect(week.decimation).toBeNull();
+    expect(week.items).toHaveLength(7 * 24);
+    await q('DELETE FROM band_values WHERE analysis_id >= 50000000');
+    await q('DELETE FROM alerts WHERE point_id = ? AND first_at < ?', [
+      yearPoint,
+      new Date(from + hours * 3_600_000),
+    ]);
   });
 
   it('the trend CSV has a header with the unit and one row per value', async () => {

@@ -197,6 +197,7 @@ function runPoint(band: BandDefinition, s: Scenario, perDay: number, u: () => nu
     atQuarter: null,
   };
   const pending = s.exceedances.map(([from, to]) => ({ from, to, detected: false }));
+  let quarterDone = false;
   const quarterDay =
     s.onset !== null && s.alertCross !== null ? s.onset + 0.25 * (s.alertCross - s.onset) : null;
   const trueCross = (level: 'alert' | 'danger') =>
@@ -215,7 +216,9 @@ function runPoint(band: BandDefinition, s: Scenario, perDay: number, u: () => nu
       values: { [band.key]: value },
     });
     state = r.state;
-    if (quarterDay !== null && result.atQuarter === null && day >= quarterDay) {
+    if (quarterDay !== null && !quarterDone && day >= quarterDay) {
+      // once, at the first value on or after the quarter (a null answer is not retried)
+      quarterDone = true;
       const levels = levelsInForce(band, state[band.key]?.band ?? null);
       result.atQuarter = relativeError(window(day), levels, day, trueCross);
     }

@@ -38,7 +38,7 @@ describe('alerts screen', () => {
     const row = page.locator('tr', { hasText: 'Overall velocity' });
     await row.getByText('Acknowledged', { exact: true }).waitFor();
     await row.getByText('Oli Operator').waitFor();
-    await row.getByRole('button', { name: /History of the alert/ }).click();
+    await row.getByRole('button', { name: /history of the alert/i }).click();
     const history = page.getByRole('region', { name: /Overall velocity/ });
     await history
       .getByText('“Checked on the walkway; louder than usual. Told the shift lead.”')
@@ -68,7 +68,7 @@ describe('alerts screen', () => {
     await screenshot(page, 'alerts-planner');
     await page.setViewportSize({ width: 800, height: 1000 });
     await page
-      .getByRole('button', { name: /History of the alert on MFP-P101-MDE-H, Overall/ })
+      .getByRole('button', { name: /history of the alert on MFP-P101-MDE-H, Overall/i })
       .click();
     await page.getByRole('region', { name: /Overall velocity/ }).waitFor();
     await screenshot(page, 'alerts-planner-tablet');

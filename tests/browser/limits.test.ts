@@ -35,9 +35,12 @@ describe('limits screen', () => {
     await band.getByLabel('Danger level').fill('5');
     await band.getByLabel('Persistence', { exact: true }).fill('1');
     await band.getByLabel('Clear persistence', { exact: true }).fill('1');
+    // No off-delay: the captures are an hour apart, the template's 120 h would hold the first
+    // alert open through the dip.
+    await band.getByLabel('Clear after (h)').fill('0');
     await page.getByRole('button', { name: 'Replay history' }).click();
     await page.getByTestId('replay-total').waitFor();
-    // Persistence 1 (raise and clear), alert 3, danger 5, clear below 2.7 over 1.5 1.5 3.5 3.5 1.0 1.0 3.5 3.5
+    // Persistence 1 (raise and clear), no off-delay, alert 3, danger 5, clear below 2.7 over 1.5 1.5 3.5 3.5 1.0 1.0 3.5 3.5
     // 6 1.0: raised twice, once reaching danger (worked by hand; the API test checks times).
     const row = page.locator('tr', { hasText: /^Overall velocity/ });
     await expect(await row.locator('td').nth(2).textContent()).toBe('2');

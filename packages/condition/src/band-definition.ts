@@ -155,6 +155,15 @@ interface BandCommon {
    */
   readonly clearPersistence?: number;
   /**
+   * Alarm off-delay, hours: a raised band clears only when the raise rule (`persistence`
+   * values in a row at or above the alert level) has not held for this long, as well as after
+   * `clearPersistence` values below the clear level. A slow degradation with scatter wanders
+   * across its level for weeks; counted in values alone it clears and raises again many times
+   * over one fault, with the off-delay it raises once. Every run that would raise re-arms it.
+   * @default 0 (new bands and templates: {@link NEW_BAND_RULES}.clearAfterHours)
+   */
+  readonly clearAfterHours?: number;
+  /**
    * Hysteresis fraction h (0 < h ≤ 1): a raised band clears when a value falls strictly below
    * h × the alert level. @default 0.9
    */
@@ -178,14 +187,25 @@ export type BandDefinition = BandCommon & BandRange;
 export const DEFAULT_PERSISTENCE = 1;
 /** Clear persistence when a stored band does not set it (as before it existed). */
 export const DEFAULT_CLEAR_PERSISTENCE = 1;
+/** Clear off-delay when a stored band does not set it (as before it existed), hours. */
+export const DEFAULT_CLEAR_AFTER_HOURS = 0;
 /**
  * Persistence a new band (and every template band) starts with: raise on 2 consecutive
  * values, so one spike (a knock, a loose cable) does not alarm while a real step is still
  * seen on its second value; clear after 3 consecutive values below the clear level, so a
- * value scattering around its level raises and clears once, not every few days.
+ * value scattering around its level raises and clears once, not every few days, and only
+ * once the raise rule has been quiet for 5 days with at most 5 % of those days' values at
+ * h × the clear level (a slow degradation drifting through its level with 15–30 % scatter then
+ * raises once: tests/bench/alarm-bench.ts, 1.00 raise per degradation at 4 and 24 values a
+ * day, against 4–32 without; episodes 3 weeks apart still raise each).
  * Common practice, no source.
  */
-export const NEW_BAND_RULES = { persistence: 2, clearPersistence: 3, hysteresis: 0.9 } as const;
+export const NEW_BAND_RULES = {
+  persistence: 2,
+  clearPersistence: 3,
+  clearAfterHours: 120,
+  hysteresis: 0.9,
+} as const;
 /**
  * Smallest baseline a statistical level is set from: at least 30 usable values spread over at
  * least 7 days (fewer values make σ, and so mean + kσ, mostly noise; a shorter span misses
@@ -225,6 +245,9 @@ export function checkBandDefinition(band: BandDefinition): { field: string; mess
   const clearPersistence = band.clearPersistence ?? DEFAULT_CLEAR_PERSISTENCE;
   if (!Number.isInteger(clearPersistence) || clearPersistence < 1)
     bad('clearPersistence', 'clear persistence must be a whole number ≥ 1');
+  const clearAfterHours = band.clearAfterHours ?? DEFAULT_CLEAR_AFTER_HOURS;
+  if (!(Number.isFinite(clearAfterHours) && clearAfterHours >= 0 && clearAfterHours <= 8760))
+    bad('clearAfterHours', 'clear off-delay must be between 0 and 8760 hours (a year)');
   const hysteresis = band.hysteresis ?? DEFAULT_HYSTERESIS;
   if (!(hysteresis > 0 && hysteresis <= 1))
     bad('hysteresis', 'hysteresis must be a fraction above 0 and at most 1');

@@ -196,6 +196,79 @@ describe('evaluateBand — clear persistence', () => {
   });
 });
 
+describe('evaluateBand — clear off-delay', () => {
+  // Deadband and off-delay against chattering alarms: ANSI/ISA-18.2-2016 and EEMUA 191 (from
+  // memory); the 5 % share is Turnstone's, common practice, no source. Values 1 h apart,
+  // alert 4, clear level 0.9 × 4 = 3.6, persistence 1 (hand arithmetic throughout).
+  const delayed: BandDefinition = { ...band, clearPersistence: 3, clearAfterHours: 48 };
+  const below = (count: number) => Array.from({ length: count }, () => 3);
+
+  it('when values stay below the clear level, the band clears on the first value 48 h after the raise', () => {
+    const { events } = feed(delayed, [5, ...below(60)]);
+    expect(kinds(events).indexOf('inside-limits')).toBe(48);
+    expect(events[48]?.[0]).toMatchObject({ kind: 'inside-limits', run: 48 });
+  });
+
+  it('when values come a day apart, the count and the hours both hold: 3 values, 48 h', () => {
+    const { events } = feed(delayed, [5, 3, 3, 3, 3], INITIAL_BAND_STATE, 24 * HOUR);
+    expect(kinds(events)).toEqual([
+      'exceedance',
+      'observation',
+      'observation',
+      'inside-limits',
+      '',
+    ]);
+  });
+
+  it('when a run that would raise comes inside the delay, the delay starts again from it', () => {
+    // 5 at 31 h holds the raise rule again: clears 48 h later, at 79 h
+    const { events } = feed(delayed, [5, ...below(30), 5, ...below(60)]);
+    expect(kinds(events).indexOf('inside-limits')).toBe(79);
+  });
+
+  it('when one value in 45 reaches the clear level, the band still clears on time', () => {
+    // 3.6 at 31 h restarts the 3-value count only; 1 of the 48 values of the window is high
+    const { events } = feed(delayed, [5, ...below(30), 3.6, ...below(60)]);
+    expect(kinds(events).indexOf('inside-limits')).toBe(48);
+  });
+
+  it('when more than 5 % of the values over the delay reach the clear level, it holds until the share falls', () => {
+    // 3.7 at every 4th hour up to 60 h, 3 otherwise. The window counts 12 slices of 4 h: at
+    // t = 4k + r it holds the values from 4k − 44 on, 45 + r of them. At t = 100 h the highs in
+    // it are 56 and 60 h, 2/45 = 4.4 %; at t = 99 h 52, 56, 60 h, 3/48 = 6.3 %.
+    const values = [
+      5,
+      ...Array.from({ length: 150 }, (_, i) => ((i + 1) % 4 === 0 && i < 60 ? 3.7 : 3)),
+    ];
+    const { events } = feed(delayed, values);
+    expect(kinds(events).indexOf('inside-limits')).toBe(100);
+  });
+
+  it('when a state stored before the off-delay was kept is read, the count and the share decide', () => {
+    const old = { ...INITIAL_BAND_STATE, condition: 'alert' as const, clearRun: 5 };
+    delete (old as { raiseHeldAt?: number | null }).raiseHeldAt;
+    delete (old as { offDelay?: unknown }).offDelay;
+    const { events } = feed(delayed, below(5), old);
+    expect(kinds(events)[0]).toBe('inside-limits');
+  });
+
+  it('when a slow degradation with scatter crosses its level, counting values alone clears and raises again, the off-delay raises once', () => {
+    // median rising linearly from 0.5 to 1.5 × alert over 100 days, 4 values a day, times a
+    // scatter pattern 1 + 0.25·cos(2π·i/10) (a periodic stand-in for log-normal scatter:
+    // half of every 10 values lie below the median); common practice, no source
+    const values = Array.from({ length: 400 }, (_, i) => {
+      const median = 4 * (0.5 + i / 400);
+      return median * (1 + 0.25 * Math.cos((2 * Math.PI * i) / 10));
+    });
+    const raises = (def: BandDefinition) =>
+      feed({ ...def, persistence: 2, clearPersistence: 3 }, values, INITIAL_BAND_STATE, 6 * HOUR)
+        .events.flat()
+        .filter((e) => e.kind === 'exceedance' && e.level === 'alert').length;
+    expect(raises(band)).toBeGreaterThan(3);
+    expect(raises({ ...band, clearAfterHours: 120 })).toBe(1);
+  });
+});
+
 describe('evaluateBand — quality gating', () => {
   it('when a snapshot is unusable, it raises nothing and gives a quality notice', () => {
     const { state, events } = feed(band, [[20, 'unusable']]);

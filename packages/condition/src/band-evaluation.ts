@@ -8,12 +8,56 @@ import {
   type BaselineAccumulator,
 } from './baseline.ts';
 import {
+  bandClearAfterHours,
   bandClearPersistence,
   bandHysteresis,
   bandPersistence,
   levelsInForce,
 } from './effective-levels.ts';
 import type { QualityVerdict } from './quality.ts';
+
+const HOUR_MS = 3_600_000;
+
+/** Slices an off-delay window is counted in (see `BandState.offDelay`). */
+export const OFF_DELAY_BUCKETS = 12;
+
+/**
+ * Largest share of the values over the off-delay that may reach h × the clear level (h² × the
+ * alert level) for a raised band to clear: 5 %, i.e. that level lies above the recent values'
+ * 95th percentile. Common practice, no source.
+ */
+export const OFF_DELAY_SHARE = 0.05;
+
+type OffDelay = NonNullable<BandState['offDelay']>;
+
+/** Adds one value to the off-delay slices (a new window when the width changed). */
+function countOffDelay(
+  window: OffDelay | null,
+  widthMs: number,
+  takenAt: number,
+  high: boolean,
+): OffDelay {
+  const index = Math.floor(takenAt / widthMs);
+  const slices = (window?.widthMs === widthMs ? window.slices : []).filter(
+    ([i]) => i > index - OFF_DELAY_BUCKETS,
+  );
+  const last = slices[slices.length - 1];
+  if (last !== undefined && last[0] === index) {
+    slices[slices.length - 1] = [index, last[1] + 1, last[2] + (high ? 1 : 0)];
+  } else slices.push([index, 1, high ? 1 : 0]);
+  return { widthMs, slices };
+}
+
+/** Share of the counted values at or above the clear level. */
+function offDelayShare(window: OffDelay): number {
+  let values = 0;
+  let high = 0;
+  for (const [, n, h] of window.slices) {
+    values += n;
+    high += h;
+  }
+  return values === 0 ? 0 : high / values;
+}
 
 /** Alert levels, in increasing severity. */
 export type AlertLevel = 'alert' | 'danger';
@@ -42,6 +86,23 @@ export interface BandState {
    * stored before it was kept: read as 0).
    */
   readonly clearRun?: number;
+  /**
+   * takenAt (epoch ms) of the latest value at which the raise rule held: a run of
+   * `persistence` or more values at or above the alert level in force. The clear off-delay
+   * (`clearAfterHours`) counts from it. Null before any; absent in states stored before it
+   * was kept (read as null: no off-delay for an alert raised before).
+   */
+  readonly raiseHeldAt?: number | null;
+  /**
+   * While raised with an off-delay: how many values, and how many of them at or above h × the
+   * clear level, fell in each of the latest {@link OFF_DELAY_BUCKETS} slices of
+   * `clearAfterHours` (`[slice index, values, at or above]`, slice = ⌊takenAt / width⌋). Null
+   * while normal; absent in states stored before it was kept (read as null).
+   */
+  readonly offDelay?: {
+    readonly widthMs: number;
+    readonly slices: [number, number, number][];
+  } | null;
   /** The baseline collected so far for a statistical rule. */
   readonly baseline: BaselineAccumulator;
   /** Whether the collected baseline is complete (then it no longer changes). */
@@ -58,6 +119,7 @@ export const INITIAL_BAND_STATE: BandState = {
   alertRunSuspect: false,
   dangerRunSuspect: false,
   clearRun: 0,
+  raiseHeldAt: null,
   baseline: EMPTY_BASELINE,
   baselineComplete: false,
   lastTakenAt: null,
@@ -155,10 +217,19 @@ export interface BandEvaluation {
  *    the band is not at danger, an `exceedance` at danger follows (raising directly, or
  *    escalating from alert); otherwise when the count for alert reaches n and the band is
  *    normal, an `exceedance` at alert follows.
- * 6. Clearing. A raised band (alert or danger) clears after `clearPersistence` (default 3)
- *    consecutive values **strictly below** h × the alert level in force (hysteresis h,
- *    default 0.9): an `inside-limits` event. A value at or above the clear level resets the
- *    count, so a value scattering around its level raises and clears once, not every day.
+ * 6. Clearing. A raised band (alert or danger) clears when its latest `clearPersistence`
+ *    values lie **strictly below** h × the alert level in force (hysteresis h, default 0.9)
+ *    **and** the raise rule (rule 5's run of `persistence` values at or above the alert level)
+ *    has not held for at least `clearAfterHours` (an alarm off-delay, re-armed by every run
+ *    that would raise) **and** at most 5 % of the values over the last `clearAfterHours`
+ *    reached h × the clear level (h² × alert, 0.81 × with h = 0.9; counted in {@link OFF_DELAY_BUCKETS} slices of it, so the window
+ *    is `clearAfterHours` to 11/12 of it long): an `inside-limits` event. A value at or above
+ *    the clear level resets the count, so a value scattering around its level, or a slow
+ *    degradation wandering across it, raises and clears once, not every few days; the rare
+ *    high values of a healthy band's scatter stay under 5 %, so a fault that went away still
+ *    clears. Deadband (hysteresis) and off-delay against
+ *    chattering alarms: ANSI/ISA-18.2-2016 and EEMUA 191 (from memory); the values are
+ *    Turnstone's, common practice, no source.
  *    A raised band never steps down from danger to alert; it stays at its highest level
  *    until it clears.
  * 7. Any other value while raised is an `observation` (for last and peak values).
@@ -224,6 +295,25 @@ export function evaluateBand(
   const clearBelow = bandHysteresis(band) * levels.alertLevel;
   const below = state.condition !== 'normal' && sample.value < clearBelow;
   let clearRun = below ? (state.clearRun ?? 0) + 1 : 0;
+  const raiseHeldAt = alertRun >= n ? sample.takenAt : (state.raiseHeldAt ?? null);
+  const offDelayMs = bandClearAfterHours(band) * HOUR_MS;
+  // the off-delay's own deadband: one more hysteresis step below the clear level
+  const quietBelow = bandHysteresis(band) * clearBelow;
+  let offDelay: OffDelay | null =
+    state.condition !== 'normal' && offDelayMs > 0
+      ? countOffDelay(
+          state.offDelay ?? null,
+          offDelayMs / OFF_DELAY_BUCKETS,
+          sample.takenAt,
+          sample.value >= quietBelow,
+        )
+      : null;
+  const clears =
+    below &&
+    clearRun >= bandClearPersistence(band) &&
+    (offDelay === null ||
+      ((raiseHeldAt === null || sample.takenAt - raiseHeldAt >= offDelayMs) &&
+        offDelayShare(offDelay) <= OFF_DELAY_SHARE));
   let condition = state.condition;
 
   if (condition !== 'danger' && dangerRun >= n) {
@@ -248,7 +338,7 @@ export function evaluateBand(
       run: alertRun,
       suspect: alertRunSuspect,
     });
-  } else if (condition !== 'normal' && below && clearRun >= bandClearPersistence(band)) {
+  } else if (condition !== 'normal' && clears) {
     condition = 'normal';
     events.push({
       kind: 'inside-limits',
@@ -259,6 +349,7 @@ export function evaluateBand(
       run: clearRun,
     });
     clearRun = 0;
+    offDelay = null;
   } else if (condition !== 'normal') {
     events.push({ kind: 'observation', value: sample.value, takenAt: sample.takenAt, suspect });
   }
@@ -271,6 +362,8 @@ export function evaluateBand(
       alertRunSuspect,
       dangerRunSuspect,
       clearRun,
+      raiseHeldAt,
+      offDelay,
       baseline,
       baselineComplete: complete,
       lastTakenAt: sample.takenAt,

@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import type { BandDefinition, StatisticalRule } from './band-definition.ts';
 import {
+  bandClearAfterHours,
   bandClearPersistence,
   bandHysteresis,
   bandPersistence,
@@ -123,6 +124,13 @@ describe('band defaults', () => {
     expect(bandClearPersistence(band)).toBe(1);
     expect(bandClearPersistence({ ...band, clearPersistence: 3 })).toBe(3);
     expect(NEW_BAND_RULES).toMatchObject({ persistence: 2, clearPersistence: 3 });
+  });
+
+  it('when a band sets no clear off-delay it has none; new bands start at 5 days', () => {
+    // common practice, no source
+    expect(bandClearAfterHours(band)).toBe(0);
+    expect(bandClearAfterHours({ ...band, clearAfterHours: 12 })).toBe(12);
+    expect(NEW_BAND_RULES.clearAfterHours).toBe(120);
   });
 
   it('when a band sets no persistence or hysteresis, they default to 1 and 0.9', () => {

@@ -1,4 +1,5 @@
 import {
+  DEFAULT_CLEAR_AFTER_HOURS,
   DEFAULT_CLEAR_PERSISTENCE,
   DEFAULT_HYSTERESIS,
   DEFAULT_PERSISTENCE,
@@ -98,6 +99,11 @@ export function bandPersistence(band: BandDefinition): number {
 /** Clear persistence of a band with its default applied. Common practice, no source. */
 export function bandClearPersistence(band: BandDefinition): number {
   return band.clearPersistence ?? DEFAULT_CLEAR_PERSISTENCE;
+}
+
+/** Clear off-delay of a band in hours, with its default applied. Common practice, no source. */
+export function bandClearAfterHours(band: BandDefinition): number {
+  return band.clearAfterHours ?? DEFAULT_CLEAR_AFTER_HOURS;
 }
 
 /** Hysteresis fraction of a band with its default applied. Common practice, no source. */

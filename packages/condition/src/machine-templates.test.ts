@@ -52,7 +52,7 @@ describe('limitSetFromTemplate', () => {
       foundation: 'flexible',
       nominalRpm: 1480,
     }).bands) {
-      expect([b.persistence, b.clearPersistence]).toEqual([2, 3]);
+      expect([b.persistence, b.clearPersistence, b.clearAfterHours]).toEqual([2, 3, 120]);
     }
   });
 

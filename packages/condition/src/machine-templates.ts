@@ -38,6 +38,8 @@ export const TEMPLATE_DEFAULTS = {
   persistence: NEW_BAND_RULES.persistence,
   /** Consecutive values below the clear level to clear (a scattering value clears once). */
   clearPersistence: NEW_BAND_RULES.clearPersistence,
+  /** Hours below the clear level to clear as well (a slow degradation raises once). */
+  clearAfterHours: NEW_BAND_RULES.clearAfterHours,
   /** Clear below this fraction of the alert level. */
   hysteresis: NEW_BAND_RULES.hysteresis,
   /** Band used when the speed is outside ISO 20816-3's 120–30 000 r/min, Hz. */
@@ -90,6 +92,7 @@ export function limitSetFromTemplate(machine: TemplateMachine): LimitSet {
   const common = {
     persistence: d.persistence,
     clearPersistence: d.clearPersistence,
+    clearAfterHours: d.clearAfterHours,
     hysteresis: d.hysteresis,
   };
   const scaled = (fraction: number) => ({

@@ -65,6 +65,8 @@ const bandCommon = {
   dangerLevel: finite.min(0, 'The danger level must be 0 or more.'),
   persistence: z.number().int().min(1).max(100).optional(),
   clearPersistence: z.number().int().min(1).max(100).optional(),
+  /** Hours the values must stay below the clear level before a raised band clears. */
+  clearAfterHours: finite.min(0).max(8760).optional(),
   hysteresis: finite.gt(0).max(1).optional(),
   statistical: statisticalRuleSchema.optional(),
   levelSource: z.string().max(200).optional(),

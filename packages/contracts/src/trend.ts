@@ -31,7 +31,20 @@ export const trendResponseSchema = z.object({
     source: z.enum(['fixed', 'statistical']),
   }),
   baseline: z.object({ mean: z.number(), sigma: z.number(), count: z.number() }).nullable(),
+  /**
+   * Oldest first. A long period comes thinned to each time bucket's lowest and highest value
+   * (with the first, the last and those behind alert transitions): see `decimation`.
+   */
   items: z.array(trendPointSchema),
+  /** How `items` were thinned; null when every value of the period is there. */
+  decimation: z
+    .object({
+      /** Values in the period. */
+      total: z.number().int(),
+      /** Width of one bucket in milliseconds. */
+      bucketMs: z.number().int(),
+    })
+    .nullable(),
   projection: z.object({
     outcome: z.enum([
       'projected',

@@ -39,10 +39,13 @@ export interface Rendered {
   html: string;
 }
 
-/** Wraps already-escaped HTML rows in the one plain layout all messages share. */
+/**
+ * Wraps already-escaped HTML rows in the one plain layout all messages share; the document
+ * names its language and carries the title (WCAG 3.1.1, 2.4.2), as every message is English.
+ */
 export function htmlLayout(title: string, bodyHtml: string, footer: string): string {
   return [
-    '<!doctype html><html><head><meta charset="utf-8"></head>',
+    `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${esc(title)}</title></head>`,
     '<body style="margin:0;padding:24px;background:#f6f2ea;color:#1f2328;font-family:system-ui,sans-serif;font-size:14px;line-height:1.5">',
     '<div style="max-width:640px;margin:0 auto;background:#fffdf8;border:1px solid #d9d2c3;padding:20px">',
     `<h1 style="font-size:18px;margin:0 0 12px">${esc(title)}</h1>`,

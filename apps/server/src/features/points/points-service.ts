@@ -12,6 +12,7 @@ import {
   type FaultFrequency,
   type MachineComponents,
 } from '@turnstone/dsp';
+import { decimateTrend } from '@turnstone/condition/trend-decimation';
 import { levelsInForce, projectTrend } from '@turnstone/condition';
 import type {
   AnalysisSummary,
@@ -516,6 +517,29 @@ function period(q: { from?: string; to?: string }, now: number) {
   return { from, to };
 }
 
+/**
+ * Indices of the values behind alert transitions: the latest value taken at or before each
+ * event (rows oldest first), so thinning a long trend never hides why an alert changed.
+ */
+function valuesAt(rows: readonly { t: unknown }[], events: readonly { at: Date }[]): Set<number> {
+  const keep = new Set<number>();
+  for (const e of events) {
+    const at = e.at.getTime();
+    let lo = 0;
+    let hi = rows.length - 1;
+    let found = -1;
+    while (lo <= hi) {
+      const mid = (lo + hi) >> 1;
+      if (Number(rows[mid]!.t) <= at) {
+        found = mid;
+        lo = mid + 1;
+      } else hi = mid - 1;
+    }
+    if (found >= 0) keep.add(found);
+  }
+  return keep;
+}
+
 export async function trend(
   ctx: AppContext,
   user: SessionUser,
@@ -547,7 +571,11 @@ export async function trend(
   // the levels the worker alerts at (statistical once the baseline is complete), drawn and
   // projected to by the trend page
   const levels = levelsInForce(band, settled(stateResult).get(band.key));
-  const items = rows.map((r) => ({
+  const thinned = decimateTrend(
+    rows.map((r) => ({ t: Number(r.t), v: r.value, row: r })),
+    { from: from.getTime(), to: to.getTime(), keep: valuesAt(rows, events) },
+  );
+  const items = thinned.items.map(({ row: r }) => ({
     t: new Date(Number(r.t)).toISOString(),
     v: r.value,
     q: r.quality,
@@ -570,6 +598,7 @@ export async function trend(
       ? { mean: levels.baseline.mean, sigma: levels.baseline.sigma, count: levels.baseline.count }
       : null,
     items,
+    decimation: thinned.decimation,
     projection: {
       outcome: p.outcome,
       model: p.fit?.model ?? null,

@@ -4,16 +4,19 @@
  */
 export const chartColours = {
   ink: '#22262b',
-  inkMuted: '#5b6068',
-  inkFaint: '#80858c',
+  inkMuted: '#50555c',
+  inkFaint: '#63686f',
   line: '#dedad2',
-  lineStrong: '#c8c3b9',
+  lineStrong: '#8a857c',
   paper: '#f5f3ef',
   surface: '#fffefc',
   accent: '#1b5a60',
+  accentStrong: '#134449',
   accentSoft: '#e1ecec',
   ok: '#3f7a55',
   alert: '#a8741a',
+  /** The alert amber for text: 5.6:1 on the chart's surface (the line colour is 4.0:1). */
+  alertText: '#8a5f16',
   danger: '#a53d33',
   quality: '#66548f',
   compare: '#8a5a2b',
@@ -41,4 +44,34 @@ export function formatValue(v: number, digits = 3): string {
   if (a >= 1000) return v.toFixed(0);
   if (a >= 100) return v.toFixed(1);
   return v.toPrecision(digits);
+}
+
+/**
+ * The zoom slider in the app's palette (the library's default blue is ~1.5–2.2:1 on paper):
+ * handles and the selected span at 3:1 or more, labels in the muted ink.
+ */
+export function zoomSliderStyle() {
+  return {
+    height: 20,
+    bottom: 12,
+    filterMode: 'none' as const,
+    borderColor: chartColours.lineStrong,
+    backgroundColor: chartColours.surface,
+    fillerColor: 'rgba(27, 90, 96, 0.14)',
+    dataBackground: {
+      lineStyle: { color: chartColours.lineStrong },
+      areaStyle: { color: chartColours.line },
+    },
+    selectedDataBackground: {
+      lineStyle: { color: chartColours.accent },
+      areaStyle: { color: chartColours.accentSoft },
+    },
+    handleStyle: { color: chartColours.surface, borderColor: chartColours.accent },
+    moveHandleStyle: { color: chartColours.accent, opacity: 0.6 },
+    emphasis: {
+      handleStyle: { borderColor: chartColours.accentStrong },
+      moveHandleStyle: { color: chartColours.accentStrong },
+    },
+    textStyle: { fontFamily: monoFont, fontSize: 11, color: chartColours.inkMuted },
+  };
 }

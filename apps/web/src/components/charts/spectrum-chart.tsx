@@ -4,7 +4,14 @@
  * a second spectrum to compare and zoom (wheel/drag and a slider).
  */
 import { useMemo } from 'react';
-import { axisStyle, chartColours, formatValue, monoFont, sansFont } from './chart-theme.ts';
+import {
+  axisStyle,
+  chartColours,
+  formatValue,
+  monoFont,
+  sansFont,
+  zoomSliderStyle,
+} from './chart-theme.ts';
 import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
 
@@ -94,14 +101,17 @@ export function buildSpectrumOption(p: SpectrumChartProps): ChartOption {
     .map((m) => ({
       xAxis: m.x,
       name: m.name,
+      // Named in the key under the chart and on hover, not in stacked rotated text.
       label: {
+        show: false,
         formatter: m.name,
         position: 'insideEndTop' as 'insideEndTop' | 'end',
-        rotate: 90,
-        color: markerColour[m.kind],
+        rotate: 0,
+        color: chartColours.ink as string,
         fontFamily: sansFont,
-        fontSize: 10,
+        fontSize: 12,
       },
+      emphasis: { label: { show: true } },
       lineStyle: { color: markerColour[m.kind], type: markerType[m.kind], width: 1, opacity: 0.8 },
     }));
   const cursorLines: typeof markLines = [];
@@ -113,14 +123,16 @@ export function buildSpectrumOption(p: SpectrumChartProps): ChartOption {
         xAxis: x,
         name: `${k}× cursor`,
         label: {
+          show: true,
           formatter: `${k}×`,
           position: 'end' as const,
           rotate: 0,
           color: chartColours.accent,
           fontFamily: monoFont,
-          fontSize: 10,
+          fontSize: 11,
         },
         lineStyle: { color: chartColours.accent, type: 'dotted', width: 1.2, opacity: 1 },
+        emphasis: { label: { show: true } },
       });
     }
   }
@@ -128,7 +140,7 @@ export function buildSpectrumOption(p: SpectrumChartProps): ChartOption {
   if (first) {
     first.markLine = {
       symbol: ['none', 'none'],
-      silent: true,
+      silent: false,
       animation: false,
       data: [...markLines, ...cursorLines],
     };
@@ -196,14 +208,7 @@ export function buildSpectrumOption(p: SpectrumChartProps): ChartOption {
     },
     dataZoom: [
       { type: 'inside', xAxisIndex: 0, filterMode: 'none' },
-      {
-        type: 'slider',
-        xAxisIndex: 0,
-        height: 20,
-        bottom: 12,
-        filterMode: 'none',
-        textStyle: { fontFamily: monoFont, fontSize: 10, color: chartColours.inkMuted },
-      },
+      { type: 'slider', xAxisIndex: 0, ...zoomSliderStyle() },
     ],
     series: evidence ? [...series, evidence] : series,
   };
@@ -235,13 +240,53 @@ export function SpectrumChart(props: SpectrumChartProps) {
     zr.on('click', onClick);
     return () => zr.off('click', onClick);
   });
+  const shown = (markers ?? []).filter((m) => m.x > 0);
   return (
-    <div
-      ref={ref}
-      role="img"
-      aria-label={props.ariaLabel}
-      className="w-full cursor-crosshair"
-      style={{ height: props.height ?? 360 }}
-    />
+    <div>
+      <div
+        ref={ref}
+        role="img"
+        aria-label={props.ariaLabel}
+        className="w-full cursor-crosshair"
+        style={{ height: props.height ?? 360 }}
+      />
+      {shown.length > 0 && <MarkerKey markers={shown} unit={axis === 'hz' ? 'Hz' : 'order'} />}
+    </div>
+  );
+}
+
+const dash: Record<'solid' | 'dashed' | 'dotted', string> = {
+  solid: '',
+  dashed: '4 3',
+  dotted: '1.5 2.5',
+};
+
+/** The markers' key: line style, colour, name and position, as text. */
+function MarkerKey({ markers, unit }: { markers: readonly SpectrumMarker[]; unit: string }) {
+  return (
+    <ul
+      aria-label="Frequency markers"
+      className="mt-1 flex flex-wrap gap-x-4 gap-y-1 px-2 text-xs text-ink-muted"
+    >
+      {markers.map((m) => (
+        <li key={`${m.kind}-${m.name}-${m.x}`} className="inline-flex items-center gap-1.5">
+          <svg viewBox="0 0 18 6" aria-hidden="true" className="h-1.5 w-[18px]">
+            <line
+              x1="0"
+              y1="3"
+              x2="18"
+              y2="3"
+              stroke={markerColour[m.kind]}
+              strokeWidth="2"
+              strokeDasharray={dash[markerType[m.kind]]}
+            />
+          </svg>
+          <span className="text-ink">{m.name}</span>
+          <span className="font-mono">
+            {formatValue(m.x, 4)} {unit}
+          </span>
+        </li>
+      ))}
+    </ul>
   );
 }

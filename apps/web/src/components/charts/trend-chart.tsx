@@ -7,8 +7,15 @@
  * are in `unit`. Status is never colour alone: alert lines are dashed, danger lines solid
  * and thicker, and each has a text label; markers differ in shape.
  */
-import { useMemo } from 'react';
-import { axisStyle, chartColours, formatValue, monoFont, sansFont } from './chart-theme.ts';
+import { useMemo, useState } from 'react';
+import {
+  axisStyle,
+  chartColours,
+  formatValue,
+  monoFont,
+  sansFont,
+  zoomSliderStyle,
+} from './chart-theme.ts';
 import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
 
@@ -165,6 +172,7 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
         : l.level === 'alert'
           ? chartColours.alert
           : chartColours.ink;
+    const textColour = l.level === 'alert' ? chartColours.alertText : colour;
     const text =
       l.label ??
       `${l.level === 'danger' ? 'Danger' : l.level === 'alert' ? 'Alert' : 'Level'} ${formatValue(l.value)} ${unit}`;
@@ -175,7 +183,7 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
         formatter: text,
         position: (l.level === 'alert' ? 'insideStartTop' : 'insideEndTop') as
           'insideStartTop' | 'insideEndTop',
-        color: colour,
+        color: textColour,
         fontFamily: monoFont,
         fontSize: 11,
       },
@@ -362,11 +370,8 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
           {
             type: 'slider',
             xAxisIndex: 0,
-            height: 20,
-            bottom: 12,
-            filterMode: 'none',
+            ...zoomSliderStyle(),
             labelFormatter: (v: number) => dateLabel.format(v),
-            textStyle: { fontFamily: monoFont, fontSize: 10, color: chartColours.inkMuted },
           },
         ]
       : [],
@@ -416,12 +421,72 @@ export function TrendChart(props: TrendChartProps) {
     });
   });
   return (
-    <div
-      ref={ref}
-      role="img"
-      aria-label={props.ariaLabel}
-      className="w-full"
-      style={{ height: props.height ?? 320 }}
-    />
+    <div>
+      <div
+        ref={ref}
+        role="img"
+        aria-label={props.ariaLabel}
+        className="w-full"
+        style={{ height: props.height ?? 320 }}
+      />
+      <TrendValues points={points} unit={unit} name={name ?? 'Values'} />
+    </div>
+  );
+}
+
+const verdicts = { ok: 'OK', suspect: 'Suspect', unusable: 'Unusable' } as const;
+
+/** The chart's values as a table, for the keyboard and screen readers; built when opened. */
+function TrendValues({
+  points,
+  unit,
+  name,
+}: {
+  points: readonly TrendChartPoint[];
+  unit: string;
+  name: string;
+}) {
+  const [open, setOpen] = useState(false);
+  if (points.length === 0) return null;
+  return (
+    <details
+      className="px-2 text-sm"
+      onToggle={(e) => setOpen((e.currentTarget as HTMLDetailsElement).open)}
+    >
+      <summary className="cursor-pointer text-xs font-medium text-ink-muted hover:text-ink">
+        Values as a table ({points.length})
+      </summary>
+      {open && (
+        <div className="mt-2 max-h-72 overflow-auto rounded-md border border-line" tabIndex={0}>
+          <table className="w-full text-left">
+            <caption className="sr-only">
+              {name} in {unit}, newest first
+            </caption>
+            <thead className="sticky top-0 bg-surface">
+              <tr className="border-b border-line text-xs text-ink-muted">
+                <th scope="col" className="px-3 py-1.5 font-medium">
+                  Taken
+                </th>
+                <th scope="col" className="px-3 py-1.5 font-medium">
+                  {unit}
+                </th>
+                <th scope="col" className="px-3 py-1.5 font-medium">
+                  Quality
+                </th>
+              </tr>
+            </thead>
+            <tbody className="font-mono text-[13px]">
+              {[...points].reverse().map((p, i) => (
+                <tr key={i} className="border-b border-line/60 last:border-0">
+                  <td className="px-3 py-1">{dateTimeLabel.format(toMs(p.t))}</td>
+                  <td className="px-3 py-1">{formatValue(p.v)}</td>
+                  <td className="px-3 py-1">{verdicts[p.q ?? 'ok']}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </details>
   );
 }

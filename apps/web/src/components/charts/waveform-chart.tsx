@@ -3,7 +3,7 @@
  * with labels, so the flattened peaks can be seen against them.
  */
 import { useMemo } from 'react';
-import { axisStyle, chartColours, formatValue, monoFont } from './chart-theme.ts';
+import { axisStyle, chartColours, formatValue, monoFont, zoomSliderStyle } from './chart-theme.ts';
 import type { ChartOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
 
@@ -70,7 +70,7 @@ export function buildWaveformOption(p: WaveformChartProps): ChartOption {
     },
     dataZoom: [
       { type: 'inside', xAxisIndex: 0, filterMode: 'none' },
-      { type: 'slider', xAxisIndex: 0, height: 20, bottom: 12, filterMode: 'none' },
+      { type: 'slider', xAxisIndex: 0, ...zoomSliderStyle() },
     ],
     series: [
       {

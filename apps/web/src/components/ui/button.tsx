@@ -30,15 +30,22 @@ export function Button({
   className,
   disabled,
   children,
+  onClick,
   ...props
 }: ButtonProps) {
+  // Busy is aria-disabled, not disabled: a disabled button loses the keyboard focus.
   return (
     <button
       type={type}
-      disabled={disabled || busy}
+      disabled={disabled}
+      aria-disabled={busy || undefined}
       aria-busy={busy || undefined}
+      onClick={(e) => {
+        if (busy) e.preventDefault();
+        else onClick?.(e);
+      }}
       className={cn(
-        'inline-flex shrink-0 items-center justify-center rounded-md font-medium whitespace-nowrap transition-colors disabled:cursor-not-allowed',
+        'inline-flex shrink-0 items-center justify-center rounded-md font-medium whitespace-nowrap transition-colors disabled:cursor-not-allowed aria-disabled:cursor-progress',
         variants[variant],
         sizes[size],
         className,

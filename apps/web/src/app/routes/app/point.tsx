@@ -7,6 +7,7 @@ import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
+import { TabList, TabPanel } from '../../../components/ui/tabs.tsx';
 import { paths } from '../../../config/paths.ts';
 import { cn } from '../../../lib/cn.ts';
 import { formatBandHz, formatDateTime } from '../../../lib/format.ts';
@@ -140,30 +141,23 @@ export function PointRoute() {
         }
       />
       <LatestValues point={p} />
-      <div role="tablist" aria-label="Analysis views" className="flex gap-1 border-b border-line">
-        {tabs
-          .filter((t) => t.key !== 'vector' || hasVectors(list))
-          .map((t) => (
-            <button
-              key={t.key}
-              id={`tab-${t.key}`}
-              role="tab"
-              type="button"
-              aria-selected={tab === t.key}
-              aria-controls={`panel-${t.key}`}
-              onClick={() => setTab(t.key)}
-              className={cn(
-                '-mb-px border-b-2 px-3 py-2 text-sm font-medium',
-                tab === t.key
-                  ? 'border-accent text-ink'
-                  : 'border-transparent text-ink-muted hover:text-ink',
-              )}
-            >
-              {t.label}
-            </button>
-          ))}
-      </div>
-      <div role="tabpanel" id={`panel-${tab}`} aria-labelledby={`tab-${tab}`}>
+      <TabList
+        group="point"
+        label="Analysis views"
+        tabs={tabs.filter((t) => t.key !== 'vector' || hasVectors(list))}
+        value={tab}
+        onChange={setTab}
+        className="flex gap-1 border-b border-line"
+        tabClassName={(selected) =>
+          cn(
+            '-mb-px border-b-2 px-3 py-2 text-sm font-medium',
+            selected
+              ? 'border-accent text-ink'
+              : 'border-transparent text-ink-muted hover:text-ink',
+          )
+        }
+      />
+      <TabPanel group="point" value={tab}>
         {tab === 'trend' &&
           (p.bands.length === 0 ? (
             <EmptyState
@@ -188,7 +182,7 @@ export function PointRoute() {
           ))}
         {tab === 'waterfall' && <WaterfallPanel pointId={p.id} />}
         {tab === 'vector' && (snapshotBody() ?? <VectorPanel analyses={list} />)}
-      </div>
+      </TabPanel>
     </div>
   );
 }

@@ -10,10 +10,13 @@ import { useAcknowledgeAlerts } from '../api/acknowledge-alerts.ts';
 /** The note and the button that acknowledge the selected alerts. */
 export function AcknowledgeForm({
   ids,
+  label,
   userName,
   onDone,
 }: {
   ids: number[];
+  /** The note's label; by default it speaks of the selection in the table. */
+  label?: string;
   userName: string;
   onDone: (message: string) => void;
 }) {
@@ -47,9 +50,10 @@ export function AcknowledgeForm({
     <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
       <Field
         label={
-          ids.length === 1
+          label ??
+          (ids.length === 1
             ? 'Note for the selected alert'
-            : `Note for the ${ids.length} selected alerts`
+            : `Note for the ${ids.length} selected alerts`)
         }
         hint="What you saw or did, e.g. “Checked on site, noise normal; told the shift lead.”"
         error={form.formState.errors.note?.message}

@@ -1,3 +1,4 @@
+import { useEffect, useRef } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
@@ -5,11 +6,30 @@ import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
 import { useAlert } from '../api/get-alert.ts';
 import { HINTS_CAUTION, HintList } from '../../points/components/diagnosis-hints.tsx';
+import { AcknowledgeForm } from './acknowledge-form.tsx';
 import { AlertStateMark, alertEventLabels, formatLevel } from './alert-labels.tsx';
 
-/** One alert: what it is and every change of its state, oldest first. */
-export function AlertHistory({ id, onClose }: { id: number; onClose: () => void }) {
+/**
+ * One alert: what it is and every change of its state, oldest first; a raised alert can be
+ * acknowledged here. Opening it moves the focus to its title (so it is announced and next in
+ * Tab order); Escape closes it.
+ */
+export function AlertHistory({
+  id,
+  onClose,
+  acknowledge,
+}: {
+  id: number;
+  onClose: () => void;
+  /** Given to those who may acknowledge. */
+  acknowledge?: { userName: string; onDone: (message: string) => void };
+}) {
   const alert = useAlert(id);
+  const title = useRef<HTMLHeadingElement>(null);
+  const loaded = alert.data !== undefined;
+  useEffect(() => {
+    if (loaded) title.current?.focus();
+  }, [id, loaded]);
   if (alert.isPending) return <LoadingPanel label="Loading the alert…" />;
   if (alert.isError)
     return (
@@ -21,10 +41,24 @@ export function AlertHistory({ id, onClose }: { id: number; onClose: () => void 
     );
   const a = alert.data;
   return (
-    <section aria-labelledby="alert-history-title" className="flex flex-col gap-4 p-4">
+    <section
+      aria-labelledby="alert-history-title"
+      className="flex flex-col gap-4 p-4"
+      onKeyDown={(e) => {
+        if (e.key === 'Escape') {
+          e.preventDefault();
+          onClose();
+        }
+      }}
+    >
       <div className="flex items-start justify-between gap-3">
         <div>
-          <h2 id="alert-history-title" className="text-base font-semibold text-ink">
+          <h2
+            id="alert-history-title"
+            ref={title}
+            tabIndex={-1}
+            className="text-base font-semibold text-ink focus-visible:outline-none"
+          >
             {a.bandName}
           </h2>
           <p className="text-sm text-ink-muted">
@@ -51,6 +85,18 @@ export function AlertHistory({ id, onClose }: { id: number; onClose: () => void 
         <dt className="text-ink-muted">Level exceeded</dt>
         <dd className="font-mono">{formatLevel(a.limit, a.unit)}</dd>
       </dl>
+      {acknowledge && a.state === 'raised' && (
+        <AcknowledgeForm
+          ids={[a.id]}
+          label="Note for this alert"
+          userName={acknowledge.userName}
+          onDone={(m) => {
+            acknowledge.onDone(m);
+            // The form goes once the alert is acknowledged: keep the focus in the panel.
+            title.current?.focus();
+          }}
+        />
+      )}
       <div>
         <h3 className="text-xs font-semibold tracking-wide text-ink-muted uppercase">
           Current diagnosis hints

@@ -1,4 +1,4 @@
-import { useCallback, useMemo, useState } from 'react';
+import { useCallback, useMemo, useRef, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import type { RowSelectionState } from '@tanstack/react-table';
 import { Card } from '../../../components/ui/card.tsx';
@@ -37,6 +37,7 @@ export function AlertsExplorer({
   const now = useNow(30_000);
   const [selection, setSelection] = useState<RowSelectionState>({});
   const [message, setMessage] = useState<string | null>(null);
+  const messageRef = useRef<HTMLParagraphElement>(null);
 
   const setParam = (key: string, value: string | null) => {
     const next = new URLSearchParams(params);
@@ -53,6 +54,15 @@ export function AlertsExplorer({
     },
     [params, setParams],
   );
+
+  // Closing the panel gives the focus back to the row's button that opened it.
+  const closePanel = () => {
+    const id = openId;
+    setParam('alert', null);
+    requestAnimationFrame(() =>
+      document.querySelector<HTMLElement>(`[data-alert-open="${id}"]`)?.focus(),
+    );
+  };
 
   const rows = useMemo(() => {
     const items = alerts.data?.items ?? [];
@@ -114,14 +124,18 @@ export function AlertsExplorer({
           </p>
         </div>
 
-        {message && (
-          <p
-            role="status"
-            className="rounded-md border border-line bg-accent-soft px-3 py-2 text-sm text-ink"
-          >
-            {message}
-          </p>
-        )}
+        {/* Always in the page, so screen readers announce what is written into it. */}
+        <div role="status">
+          {message && (
+            <p
+              ref={messageRef}
+              tabIndex={-1}
+              className="rounded-md border border-line bg-accent-soft px-3 py-2 text-sm text-ink focus-visible:outline-none"
+            >
+              {message}
+            </p>
+          )}
+        </div>
 
         {canAcknowledge && rows.some((a) => a.state === 'raised') && (
           <Card className="px-4 py-3">
@@ -131,6 +145,8 @@ export function AlertsExplorer({
               onDone={(m) => {
                 setMessage(m);
                 setSelection({});
+                // The button goes with the selection: the focus moves to the outcome.
+                requestAnimationFrame(() => messageRef.current?.focus());
               }}
             />
           </Card>
@@ -170,7 +186,13 @@ export function AlertsExplorer({
       </div>
       {openId !== null && (
         <Card className="w-full shrink-0 overflow-auto lg:w-80">
-          <AlertHistory id={openId} onClose={() => setParam('alert', null)} />
+          <AlertHistory
+            id={openId}
+            onClose={closePanel}
+            acknowledge={
+              canAcknowledge ? { userName, onDone: (m: string) => setMessage(m) } : undefined
+            }
+          />
         </Card>
       )}
     </div>

@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { createContext, useContext, useLayoutEffect, useMemo, useRef, useState } from 'react';
 import {
   createColumnHelper,
   flexRender,
@@ -17,6 +17,26 @@ import { AlertStateMark, formatLevel } from './alert-labels.tsx';
 const column = createColumnHelper<Alert>();
 const levelRank = { alert: 1, danger: 2 } as const;
 const stateRank = { raised: 3, acknowledged: 2, cleared: 1 } as const;
+
+/**
+ * The clock the "Last" cells read. A context, not a column dependency: columns built anew
+ * every tick would be new cell components, so React would remount every cell and the
+ * keyboard focus in the table would drop to the page.
+ */
+const NowContext = createContext(0);
+
+function LastAt({ at }: { at: string }) {
+  const now = useContext(NowContext);
+  return (
+    <time
+      dateTime={at}
+      title={formatDateTime(at)}
+      className="text-[13px] whitespace-nowrap text-ink-muted"
+    >
+      {formatAge(at, now)}
+    </time>
+  );
+}
 
 export function AlertsTable({
   alerts,
@@ -37,6 +57,11 @@ export function AlertsTable({
   onOpen: (id: number) => void;
 }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: 'level', desc: true }]);
+  // The latest onOpen without rebuilding the columns when it changes (see NowContext).
+  const openRef = useRef(onOpen);
+  useLayoutEffect(() => {
+    openRef.current = onOpen;
+  }, [onOpen]);
   const columns = useMemo(
     () => [
       ...(selectable
@@ -88,16 +113,20 @@ export function AlertsTable({
         cell: (c) => (
           <button
             type="button"
+            data-alert-open={c.row.original.id}
             className="flex flex-col items-start text-left"
             onClick={(e) => {
               e.stopPropagation();
-              onOpen(c.row.original.id);
+              openRef.current(c.row.original.id);
             }}
-            aria-label={`History of the alert on ${c.row.original.pointTag}, ${c.row.original.bandName}`}
           >
+            {/* The name starts with what is seen (WCAG 2.5.3 label in name). */}
             <span className="text-sm whitespace-nowrap text-ink">{c.row.original.machineName}</span>
             <span className="font-mono text-xs whitespace-nowrap text-ink-muted">
               {c.row.original.pointTag}
+            </span>
+            <span className="sr-only">
+              : history of the alert on {c.row.original.pointTag}, {c.row.original.bandName}
             </span>
           </button>
         ),
@@ -134,15 +163,7 @@ export function AlertsTable({
       column.accessor((a) => Date.parse(a.lastAt), {
         id: 'lastAt',
         header: 'Last',
-        cell: ({ row: { original: a } }) => (
-          <time
-            dateTime={a.lastAt}
-            title={formatDateTime(a.lastAt)}
-            className="text-[13px] whitespace-nowrap text-ink-muted"
-          >
-            {formatAge(a.lastAt, now)}
-          </time>
-        ),
+        cell: ({ row: { original: a } }) => <LastAt at={a.lastAt} />,
       }),
       column.accessor((a) => a.acknowledgedBy ?? '', {
         id: 'ack',
@@ -165,7 +186,7 @@ export function AlertsTable({
           ),
       }),
     ],
-    [selectable, now, onOpen],
+    [selectable],
   );
 
   // eslint-disable-next-line react-hooks/incompatible-library -- TanStack Table is used as documented
@@ -183,63 +204,68 @@ export function AlertsTable({
   });
 
   return (
-    <div className="overflow-x-auto">
-      <table className="w-full border-collapse text-left">
-        <thead>
-          {table.getHeaderGroups().map((group) => (
-            <tr key={group.id} className="border-b border-line">
-              {group.headers.map((header) => {
-                const sorted = header.column.getIsSorted();
-                return (
-                  <th
-                    key={header.id}
-                    scope="col"
-                    aria-sort={
-                      sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined
-                    }
-                    className="px-3 py-2 text-xs font-semibold tracking-wide text-ink-muted uppercase"
-                  >
-                    {header.column.getCanSort() ? (
-                      <button
-                        type="button"
-                        className="inline-flex items-center gap-1 uppercase hover:text-ink"
-                        onClick={header.column.getToggleSortingHandler()}
-                      >
-                        {flexRender(header.column.columnDef.header, header.getContext())}
-                        <span aria-hidden="true" className="font-mono">
-                          {sorted === 'asc' ? '↑' : sorted === 'desc' ? '↓' : '↕'}
-                        </span>
-                      </button>
-                    ) : (
-                      flexRender(header.column.columnDef.header, header.getContext())
-                    )}
-                  </th>
-                );
-              })}
-            </tr>
-          ))}
-        </thead>
-        <tbody>
-          {table.getRowModel().rows.map((row) => (
-            <tr
-              key={row.id}
-              data-alert-id={row.original.id}
-              onClick={() => onOpen(row.original.id)}
-              className={cn(
-                'cursor-pointer border-b border-line last:border-b-0 hover:bg-sunken/60',
-                openId === row.original.id && 'bg-accent-soft hover:bg-accent-soft',
-                row.original.state === 'cleared' && 'opacity-75',
-              )}
-            >
-              {row.getVisibleCells().map((cell) => (
-                <td key={cell.id} className="px-3 py-2.5 align-top">
-                  {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                </td>
-              ))}
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
+    <NowContext.Provider value={now}>
+      <div className="overflow-x-auto">
+        <table className="w-full border-collapse text-left">
+          <thead>
+            {table.getHeaderGroups().map((group) => (
+              <tr key={group.id} className="border-b border-line">
+                {group.headers.map((header) => {
+                  const sorted = header.column.getIsSorted();
+                  return (
+                    <th
+                      key={header.id}
+                      scope="col"
+                      aria-sort={
+                        sorted === 'asc'
+                          ? 'ascending'
+                          : sorted === 'desc'
+                            ? 'descending'
+                            : undefined
+                      }
+                      className="px-3 py-2 text-xs font-semibold tracking-wide text-ink-muted uppercase"
+                    >
+                      {header.column.getCanSort() ? (
+                        <button
+                          type="button"
+                          className="inline-flex items-center gap-1 uppercase hover:text-ink"
+                          onClick={header.column.getToggleSortingHandler()}
+                        >
+                          {flexRender(header.column.columnDef.header, header.getContext())}
+                          <span aria-hidden="true" className="font-mono">
+                            {sorted === 'asc' ? '↑' : sorted === 'desc' ? '↓' : '↕'}
+                          </span>
+                        </button>
+                      ) : (
+                        flexRender(header.column.columnDef.header, header.getContext())
+                      )}
+                    </th>
+                  );
+                })}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {table.getRowModel().rows.map((row) => (
+              <tr
+                key={row.id}
+                data-alert-id={row.original.id}
+                onClick={() => onOpen(row.original.id)}
+                className={cn(
+                  'cursor-pointer border-b border-line last:border-b-0 hover:bg-sunken/60',
+                  openId === row.original.id && 'bg-accent-soft hover:bg-accent-soft',
+                )}
+              >
+                {row.getVisibleCells().map((cell) => (
+                  <td key={cell.id} className="px-3 py-2.5 align-top">
+                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </NowContext.Provider>
   );
 }

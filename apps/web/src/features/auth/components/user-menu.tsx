@@ -1,6 +1,7 @@
 import { roleLabels } from '@turnstone/contracts/roles';
 import type { Me } from '@turnstone/contracts/auth';
 import { Button } from '../../../components/ui/button.tsx';
+import { confirmLeaving } from '../../../lib/unsaved-changes.ts';
 import { useSignOut } from '../api/sign-out.ts';
 
 export function UserMenu({
@@ -17,7 +18,11 @@ export function UserMenu({
         <p className="text-sm font-medium text-ink">{user.name}</p>
         <p className="text-xs text-ink-muted">{roleLabels[user.role]}</p>
       </div>
-      <Button size="sm" onClick={() => signOut.mutate()} busy={signOut.isPending}>
+      <Button
+        size="sm"
+        onClick={() => void confirmLeaving().then((ok) => ok && signOut.mutate())}
+        busy={signOut.isPending}
+      >
         Sign out
       </Button>
       {signOut.error && (

@@ -40,8 +40,9 @@ export function FleetStatusCounts({
                   'flex w-full items-center justify-between gap-2 rounded-lg border px-3 py-2 text-left transition-colors',
                   pressed
                     ? 'border-accent bg-accent-soft shadow-[inset_0_0_0_1px_var(--color-accent)]'
-                    : 'border-line bg-surface hover:border-line-strong',
-                  count === 0 && !pressed && 'opacity-70',
+                    : count === 0
+                      ? 'border-line bg-paper hover:border-line-strong'
+                      : 'border-line bg-surface hover:border-line-strong',
                 )}
               >
                 <span className="flex min-w-0 items-center gap-1.5 text-[13px] whitespace-nowrap text-ink-muted">

@@ -1,7 +1,7 @@
 import type { GatewayKey } from '@turnstone/contracts/gateways';
 import { useState } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
-import { Modal } from './modal.tsx';
+import { Modal } from '../../../components/ui/modal.tsx';
 
 /** The API key, shown this once. Closing needs a deliberate click, not a stray Escape. */
 export function GatewayKeyDialog({

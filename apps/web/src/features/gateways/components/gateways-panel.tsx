@@ -14,7 +14,7 @@ import { formatAge, formatDateTime } from '../../../lib/format.ts';
 import { useCreateGateway, useRevokeGateway, useRotateGateway } from '../api/change-gateway.ts';
 import { useGateways, useSites } from '../api/get-gateways.ts';
 import { GatewayKeyDialog } from './gateway-key-dialog.tsx';
-import { Modal } from './modal.tsx';
+import { Modal } from '../../../components/ui/modal.tsx';
 
 function CreateGatewayForm({ onCreated }: { onCreated: (name: string, key: GatewayKey) => void }) {
   const sites = useSites();

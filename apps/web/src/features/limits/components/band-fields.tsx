@@ -248,6 +248,14 @@ export function BandFields({
           registration={n('clearPersistence')}
         />
         <NumberField
+          label="Clear after (h)"
+          error={e?.clearAfterHours?.message}
+          hint="Hours below the clear level to clear, as well"
+          step="1"
+          min="0"
+          registration={n('clearAfterHours')}
+        />
+        <NumberField
           label="Hysteresis"
           error={e?.hysteresis?.message}
           hint="Clears below this × alert level"

@@ -1,5 +1,6 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { useFieldArray, useForm, type FieldErrors, type Resolver } from 'react-hook-form';
+import { useBlocker } from 'react-router-dom';
 import type {
   BandDefinitionInput,
   LimitSetResponse,
@@ -8,9 +9,11 @@ import type {
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { Field } from '../../../components/ui/field.tsx';
+import { Modal } from '../../../components/ui/modal.tsx';
 import { isApiError } from '../../../lib/api-client.ts';
 import { cn } from '../../../lib/cn.ts';
 import { formatDateTime } from '../../../lib/format.ts';
+import { registerUnsavedChanges } from '../../../lib/unsaved-changes.ts';
 import { getIsoDefaults } from '../api/get-limits.ts';
 import { useReplayLimits, useSaveLimitsTarget, type LimitsTarget } from '../api/save-limits.ts';
 import {
@@ -76,6 +79,14 @@ export function LimitsEditor({
   const [reasonError, setReasonError] = useState<string | null>(null);
   const [asking, setAsking] = useState(false);
   const replayRef = useRef<HTMLDivElement>(null);
+  const saveButton = useRef<HTMLButtonElement>(null);
+  const reasonBox = useRef<HTMLTextAreaElement>(null);
+  // Where the focus goes when the reason field opens or closes (the button it replaces is gone).
+  const [focusAfter, setFocusAfter] = useState<'reason' | 'save' | null>(null);
+  useEffect(() => {
+    if (focusAfter === 'reason') reasonBox.current?.focus();
+    if (focusAfter === 'save') saveButton.current?.focus();
+  }, [focusAfter, asking]);
 
   const definitions = (values: LimitsFormValues): BandDefinitionInput[] => {
     const checked = checkForm(values, originals);
@@ -93,7 +104,7 @@ export function LimitsEditor({
   };
 
   const onReplay = form.handleSubmit((values) => {
-    replay.mutate(definitions(values), { onSuccess: setReplayed, onError: serverErrors });
+    replay.mutateAsync(definitions(values)).then(setReplayed, serverErrors);
   });
 
   const onSave = form.handleSubmit((values) => {
@@ -148,6 +159,7 @@ export function LimitsEditor({
             dangerLevel: d.dangerLevel,
             persistence: 2,
             clearPersistence: 3,
+            clearAfterHours: 120,
             hysteresis: 0.9,
             levelSource: source,
           }),
@@ -165,12 +177,65 @@ export function LimitsEditor({
   };
 
   const dirty = form.formState.isDirty;
+  const unsaved = dirty || bands.fields.length !== limits.bands.length;
   useEffect(() => {
     if (replayed) replayRef.current?.scrollIntoView({ block: 'start', behavior: 'smooth' });
   }, [replayed]);
 
+  // Unsaved edits are never dropped silently: another point, the other tab, another page
+  // (blocked route changes), signing out (asks through registerUnsavedChanges) and closing
+  // or reloading the page (the browser's own question) all ask first.
+  const discarding = useRef(false);
+  const blocker = useBlocker(
+    ({ currentLocation: from, nextLocation: to }) =>
+      unsaved &&
+      !discarding.current &&
+      (from.pathname !== to.pathname || from.search !== to.search),
+  );
+  const [asked, setAsked] = useState<((discard: boolean) => void) | null>(null);
+  useEffect(() => {
+    if (!unsaved) return;
+    const unregister = registerUnsavedChanges(
+      () => new Promise<boolean>((resolve) => setAsked(() => resolve)),
+    );
+    const onUnload = (e: BeforeUnloadEvent) => e.preventDefault();
+    window.addEventListener('beforeunload', onUnload);
+    return () => {
+      unregister();
+      window.removeEventListener('beforeunload', onUnload);
+    };
+  }, [unsaved]);
+  const leaveOpen = blocker.state === 'blocked' || asked !== null;
+  const answerLeave = (discard: boolean) => {
+    if (discard) discarding.current = true;
+    if (blocker.state === 'blocked') {
+      if (discard) blocker.proceed();
+      else blocker.reset();
+    }
+    asked?.(discard);
+    setAsked(null);
+  };
+
   return (
     <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_22rem]">
+      <Modal
+        open={leaveOpen}
+        title="Discard the unsaved limit changes?"
+        onClose={() => {
+          if (leaveOpen) answerLeave(false);
+        }}
+      >
+        <p className="text-sm text-ink-muted">
+          The bands have changes that are not saved. Keep editing to replay or save them, or discard
+          them and go on.
+        </p>
+        <div className="flex justify-end gap-2">
+          <Button onClick={() => answerLeave(false)}>Keep editing</Button>
+          <Button className="text-status-danger" onClick={() => answerLeave(true)}>
+            Discard changes
+          </Button>
+        </div>
+      </Modal>
       {replayed && (
         <div ref={replayRef} className="xl:col-span-2">
           <Card className="flex scroll-mt-4 flex-col gap-3 p-4 xl:col-span-2">
@@ -179,6 +244,100 @@ export function LimitsEditor({
           </Card>
         </div>
       )}
+      {/* Before the bands in Tab order (after them on screen): Replay and Save are reached at once. */}
+      <div className="order-last flex flex-col gap-4">
+        <Card className="flex flex-col gap-3 p-4 xl:sticky xl:top-0">
+          <h2 className="text-sm font-semibold text-ink">Check, then save</h2>
+          {pointId !== null ? (
+            <>
+              <p className="text-xs text-ink-muted">
+                Replay runs the proposed bands over this point’s stored history with the same rules
+                the worker uses.
+              </p>
+              <Button onClick={() => void onReplay()} busy={replay.isPending}>
+                Replay history
+              </Button>
+              <p role="status" className="sr-only">
+                {replayed
+                  ? `Replay done: ${replayed.totals.alerts} alert(s) over ${replayed.snapshots} snapshot(s), ${replayed.totals.reachedDanger} reaching danger. The details are above the bands.`
+                  : ''}
+              </p>
+              {replay.error && (
+                <p role="alert" className="text-sm text-status-danger">
+                  {replay.error.message}
+                </p>
+              )}
+            </>
+          ) : (
+            <p className="text-xs text-ink-muted">
+              A template applies to points of this machine type measured for the first time; points
+              that already have limits keep theirs. Its levels are the same for every machine of the
+              type, whatever its ISO 20816 group: check them per machine.
+            </p>
+          )}
+          {!asking ? (
+            <Button
+              ref={saveButton}
+              variant="primary"
+              onClick={() => {
+                setAsking(true);
+                setFocusAfter('reason');
+              }}
+              disabled={!unsaved}
+            >
+              Save limits…
+            </Button>
+          ) : (
+            <div className="flex flex-col gap-2">
+              <Field
+                label="Reason for the change"
+                error={reasonError ?? undefined}
+                hint="Kept in the audit log with your name."
+              >
+                {(c) => (
+                  <textarea
+                    {...c}
+                    ref={reasonBox}
+                    aria-invalid={c.invalid || undefined}
+                    rows={3}
+                    value={reason}
+                    onChange={(e) => setReason(e.target.value)}
+                    className={cn(
+                      'block w-full rounded-md border bg-surface px-3 py-2 text-sm text-ink focus-visible:border-accent',
+                      c.invalid ? 'border-status-danger' : 'border-line-strong',
+                    )}
+                  />
+                )}
+              </Field>
+              <div className="flex gap-2">
+                <Button variant="primary" onClick={() => void onSave()} busy={save.isPending}>
+                  Save with this reason
+                </Button>
+                <Button
+                  variant="ghost"
+                  onClick={() => {
+                    setAsking(false);
+                    setFocusAfter('save');
+                  }}
+                >
+                  Cancel
+                </Button>
+              </div>
+            </div>
+          )}
+          {save.error && (
+            <p role="alert" className="text-sm text-status-danger">
+              {save.error.message}
+            </p>
+          )}
+        </Card>
+        {pointId !== null && (
+          <Card className="flex flex-col gap-3 p-4">
+            <h2 className="text-sm font-semibold text-ink">Recent changes</h2>
+            <LimitHistoryList pointId={pointId} />
+          </Card>
+        )}
+      </div>
       <form className="flex min-w-0 flex-col gap-4" noValidate onSubmit={(e) => e.preventDefault()}>
         <div className="flex flex-wrap items-center gap-2">
           {pointId !== null && (
@@ -220,84 +379,6 @@ export function LimitsEditor({
           </p>
         )}
       </form>
-
-      <div className="flex flex-col gap-4">
-        <Card className="flex flex-col gap-3 p-4 xl:sticky xl:top-0">
-          <h2 className="text-sm font-semibold text-ink">Check, then save</h2>
-          {pointId !== null ? (
-            <>
-              <p className="text-xs text-ink-muted">
-                Replay runs the proposed bands over this point’s stored history with the same rules
-                the worker uses.
-              </p>
-              <Button onClick={() => void onReplay()} busy={replay.isPending}>
-                Replay history
-              </Button>
-              {replay.error && (
-                <p role="alert" className="text-sm text-status-danger">
-                  {replay.error.message}
-                </p>
-              )}
-            </>
-          ) : (
-            <p className="text-xs text-ink-muted">
-              A template applies to points of this machine type measured for the first time; points
-              that already have limits keep theirs. Its levels are the same for every machine of the
-              type, whatever its ISO 20816 group: check them per machine.
-            </p>
-          )}
-          {!asking ? (
-            <Button
-              variant="primary"
-              onClick={() => setAsking(true)}
-              disabled={!dirty && bands.fields.length === limits.bands.length}
-            >
-              Save limits…
-            </Button>
-          ) : (
-            <div className="flex flex-col gap-2">
-              <Field
-                label="Reason for the change"
-                error={reasonError ?? undefined}
-                hint="Kept in the audit log with your name."
-              >
-                {(c) => (
-                  <textarea
-                    {...c}
-                    aria-invalid={c.invalid || undefined}
-                    rows={3}
-                    value={reason}
-                    onChange={(e) => setReason(e.target.value)}
-                    className={cn(
-                      'block w-full rounded-md border bg-surface px-3 py-2 text-sm text-ink focus-visible:border-accent',
-                      c.invalid ? 'border-status-danger' : 'border-line-strong',
-                    )}
-                  />
-                )}
-              </Field>
-              <div className="flex gap-2">
-                <Button variant="primary" onClick={() => void onSave()} busy={save.isPending}>
-                  Save with this reason
-                </Button>
-                <Button variant="ghost" onClick={() => setAsking(false)}>
-                  Cancel
-                </Button>
-              </div>
-            </div>
-          )}
-          {save.error && (
-            <p role="alert" className="text-sm text-status-danger">
-              {save.error.message}
-            </p>
-          )}
-        </Card>
-        {pointId !== null && (
-          <Card className="flex flex-col gap-3 p-4">
-            <h2 className="text-sm font-semibold text-ink">Recent changes</h2>
-            <LimitHistoryList pointId={pointId} />
-          </Card>
-        )}
-      </div>
     </div>
   );
 }

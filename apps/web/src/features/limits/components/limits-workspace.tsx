@@ -1,26 +1,44 @@
-import { useState, type ReactNode } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Field, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
+import { TabList, TabPanel } from '../../../components/ui/tabs.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { useLimits, useLimitTemplate } from '../api/get-limits.ts';
 import { LimitsEditor } from './limits-editor.tsx';
 import { PointPicker } from './point-picker.tsx';
 
+const editTabs = [
+  { key: 'point', label: 'A point' },
+  { key: 'template', label: 'A machine-type template' },
+] as const;
+
 const machineTypes = ['motor', 'pump', 'fan', 'blower', 'gearbox', 'compressor'] as const;
 
+/**
+ * The outcome of a save: a live region always in the page (so it is announced), and the
+ * focus goes to it, since the editor that held the focus is remounted with the new version.
+ */
 function SavedNote({ text }: { text: string | null }) {
-  if (!text) return null;
+  const note = useRef<HTMLParagraphElement>(null);
+  useEffect(() => {
+    if (text) note.current?.focus();
+  }, [text]);
   return (
-    <p
-      role="status"
-      className="rounded-md border border-line bg-accent-soft px-3 py-2 text-sm text-ink"
-    >
-      {text} The change and its reason are in the audit log.
-    </p>
+    <div role="status">
+      {text && (
+        <p
+          ref={note}
+          tabIndex={-1}
+          className="rounded-md border border-line bg-accent-soft px-3 py-2 text-sm text-ink focus-visible:outline-none"
+        >
+          {text} The change and its reason are in the audit log.
+        </p>
+      )}
+    </div>
   );
 }
 
@@ -34,76 +52,70 @@ export function LimitsWorkspace() {
   const mode: 'point' | 'template' = template ? 'template' : 'point';
   const pointId = Number(params.get('point')) || null;
   const [saved, setSaved] = useState<string | null>(null);
-  const tab = (value: 'point' | 'template', label: ReactNode) => (
-    <button
-      type="button"
-      role="tab"
-      aria-selected={mode === value}
-      onClick={() => {
-        setSaved(null);
-        setParams(value === 'template' ? { template: 'pump' } : {}, { replace: true });
-      }}
-      className={cn(
-        'rounded-md px-3 py-1.5 text-sm font-medium',
-        mode === value ? 'bg-surface text-ink shadow-sm' : 'text-ink-muted hover:text-ink',
-      )}
-    >
-      {label}
-    </button>
-  );
   return (
     <div className="flex flex-col gap-4">
-      <div
-        role="tablist"
-        aria-label="What to edit"
+      <TabList
+        group="limits"
+        label="What to edit"
+        tabs={editTabs}
+        value={mode}
+        onChange={(value) => {
+          setSaved(null);
+          setParams(value === 'template' ? { template: 'pump' } : {}, { replace: true });
+        }}
         className="flex w-fit gap-1 rounded-lg bg-sunken p-1"
-      >
-        {tab('point', 'A point')}
-        {tab('template', 'A machine-type template')}
-      </div>
-      {mode === 'point' ? (
-        <>
-          <PointPicker
-            value={pointId}
-            onChange={(id) => {
-              setSaved(null);
-              setParams(id ? { point: String(id) } : {}, { replace: true });
-            }}
-          />
-          {pointId === null ? (
-            <Card>
-              <EmptyState
-                title="Choose a point"
-                description="Pick a measurement point to see and edit its alarm bands."
-              />
-            </Card>
-          ) : (
-            <PointLimits pointId={pointId} saved={saved} onSaved={setSaved} />
-          )}
-        </>
-      ) : (
-        <>
-          <Field label="Machine type" className="max-w-xs">
-            {(c) => (
-              <Select
-                id={c.id}
-                value={template ?? 'pump'}
-                onChange={(e) => {
-                  setSaved(null);
-                  setParams({ template: e.target.value }, { replace: true });
-                }}
-              >
-                {machineTypes.map((t) => (
-                  <option key={t} value={t}>
-                    {t}
-                  </option>
-                ))}
-              </Select>
+        tabClassName={(selected) =>
+          cn(
+            'rounded-md px-3 py-1.5 text-sm font-medium',
+            selected ? 'bg-surface text-ink shadow-sm' : 'text-ink-muted hover:text-ink',
+          )
+        }
+      />
+      <TabPanel group="limits" value={mode} className="flex flex-col gap-4">
+        {mode === 'point' ? (
+          <>
+            <PointPicker
+              value={pointId}
+              onChange={(id) => {
+                setSaved(null);
+                setParams(id ? { point: String(id) } : {}, { replace: true });
+              }}
+            />
+            {pointId === null ? (
+              <Card>
+                <EmptyState
+                  title="Choose a point"
+                  description="Pick a measurement point to see and edit its alarm bands."
+                />
+              </Card>
+            ) : (
+              <PointLimits pointId={pointId} saved={saved} onSaved={setSaved} />
             )}
-          </Field>
-          <TemplateLimits machineType={template ?? 'pump'} saved={saved} onSaved={setSaved} />
-        </>
-      )}
+          </>
+        ) : (
+          <>
+            <Field label="Machine type" className="max-w-xs">
+              {(c) => (
+                <Select
+                  id={c.id}
+                  value={template ?? 'pump'}
+                  onChange={(e) => {
+                    setSaved(null);
+                    setParams({ template: e.target.value }, { replace: true });
+                  }}
+                >
+                  {machineTypes.map((t) => (
+                    <option key={t} value={t}>
+                      {t}
+                    </option>
+                  ))}
+                </Select>
+              )}
+            </Field>
+            <TemplateLimits machineType={template ?? 'pump'} saved={saved} onSaved={setSaved} />
+          </>
+        )}
+      </TabPanel>
     </div>
   );
 }

@@ -16,6 +16,7 @@ const overall: BandDefinitionInput = {
   dangerLevel: 4.5,
   persistence: 2,
   clearPersistence: 3,
+  clearAfterHours: 120,
   hysteresis: 0.9,
   levelSource: 'ISO 20816-3 B/C and C/D',
 };

@@ -17,6 +17,7 @@ export interface BandFormValues {
   dangerLevel: number;
   persistence: number;
   clearPersistence: number;
+  clearAfterHours: number;
   hysteresis: number;
   fromHz: number;
   toHz: number;
@@ -55,6 +56,7 @@ export function toFormBand(b: BandDefinitionInput): BandFormValues {
     dangerLevel: b.dangerLevel,
     persistence: num(b.persistence),
     clearPersistence: num(b.clearPersistence),
+    clearAfterHours: num(b.clearAfterHours),
     hysteresis: num(b.hysteresis),
     fromHz: b.kind === 'overall' || b.kind === 'hz' ? num(b.fromHz) : Number.NaN,
     toHz: b.kind === 'overall' || b.kind === 'hz' ? num(b.toHz) : Number.NaN,
@@ -89,6 +91,7 @@ export function emptyBand(index: number): BandFormValues {
     dangerLevel: 4.5,
     persistence: 2,
     clearPersistence: 3,
+    clearAfterHours: 120,
     hysteresis: 0.9,
   });
 }
@@ -105,6 +108,7 @@ export function toDefinition(f: BandFormValues, original?: BandDefinitionInput):
     dangerLevel: f.dangerLevel,
     ...(opt(f.persistence) !== undefined ? { persistence: f.persistence } : {}),
     ...(opt(f.clearPersistence) !== undefined ? { clearPersistence: f.clearPersistence } : {}),
+    ...(opt(f.clearAfterHours) !== undefined ? { clearAfterHours: f.clearAfterHours } : {}),
     ...(opt(f.hysteresis) !== undefined ? { hysteresis: f.hysteresis } : {}),
     ...(f.levelSource.trim() ? { levelSource: f.levelSource.trim() } : {}),
     ...(f.statistical

@@ -17,6 +17,7 @@ import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Field, Input, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
+import { Segmented } from '../../../components/ui/segmented.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { useSpectrum } from '../api/get-spectrum.ts';
@@ -31,45 +32,6 @@ const measureLabels: Record<Measure, string> = {
   velocity: 'Velocity',
   envelope: 'Envelope',
 };
-
-/** A row of toggle buttons (radio semantics), keyboard reachable. */
-export function Segmented<T extends string>({
-  label,
-  options,
-  value,
-  onChange,
-  disabled,
-}: {
-  label: string;
-  options: readonly { value: T; label: string; disabled?: boolean }[];
-  value: T;
-  onChange: (v: T) => void;
-  disabled?: boolean;
-}) {
-  return (
-    <div role="radiogroup" aria-label={label} className="flex flex-col gap-1.5">
-      <span className="text-sm font-medium text-ink">{label}</span>
-      <div className="inline-flex rounded-md border border-line-strong bg-surface p-0.5">
-        {options.map((o) => (
-          <button
-            key={o.value}
-            type="button"
-            role="radio"
-            aria-checked={value === o.value}
-            disabled={disabled || o.disabled}
-            onClick={() => onChange(o.value)}
-            className={cn(
-              'h-8 rounded px-3 text-[13px] font-medium disabled:cursor-not-allowed disabled:text-ink-faint',
-              value === o.value ? 'bg-accent text-white' : 'text-ink-muted hover:bg-sunken',
-            )}
-          >
-            {o.label}
-          </button>
-        ))}
-      </div>
-    </div>
-  );
-}
 
 /** The spectrum to fetch for a measure on an axis: acceleration in orders is the stored order spectrum. */
 function kindFor(measure: Measure, axis: Axis) {

@@ -9,7 +9,7 @@ import {
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
-import { Segmented } from './spectrum-panel.tsx';
+import { Segmented } from '../../../components/ui/segmented.tsx';
 
 /** Captures with a tach carry their 1× and 2× vectors. */
 export function hasVectors(analyses: readonly AnalysisSummary[]): boolean {

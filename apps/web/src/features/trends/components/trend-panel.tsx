@@ -219,13 +219,29 @@ function TrendBody({ trend, now }: { trend: ReturnType<typeof useTrend>; now: nu
             events={chartProps.events}
             projection={chartProps.projection}
             now={now}
-            ariaLabel={`Trend of ${data.band.name} in ${unit}, ${data.items.length} values`}
+            ariaLabel={`Trend of ${data.band.name} in ${unit}, ${data.decimation ? `${data.items.length} of ${data.decimation.total}` : data.items.length} values`}
           />
           <TrendLegend />
+          {data.decimation && (
+            <p className="text-[13px] text-ink-muted">
+              {data.decimation.total.toLocaleString('en')} values in this period: the chart shows
+              the lowest and highest of each {bucketText(data.decimation.bucketMs)}, so every peak
+              is there. Pick a shorter period to see each value; the CSV has them all.
+            </p>
+          )}
         </>
       )}
     </div>
   );
+}
+
+/** A bucket width in words: "6 hours", "day", "2 days". */
+function bucketText(ms: number): string {
+  const hours = ms / 3_600_000;
+  if (hours < 1) return `${Math.max(1, Math.round(ms / 60_000))} minutes`;
+  if (hours < 23.5) return `${Math.round(hours)} hours`;
+  const days = Math.round(hours / 24);
+  return days === 1 ? 'day' : `${days} days`;
 }
 
 function Stat({

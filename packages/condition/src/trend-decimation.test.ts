@@ -1,0 +1,83 @@
+import { describe, expect, it } from 'vitest';
+import { decimateTrend, TREND_MAX_BUCKETS } from './trend-decimation.ts';
+
+// The checks follow from the definition of min/max bucket aggregation (Jugel et al., "M4: a
+// visualization-oriented time series data aggregation", PVLDB 7(10), 2014): every bucket's
+// extremes survive, nothing else is invented, order is kept. The reference below groups by
+// bucket independently (a Map over the bucket index), not with the code under test.
+
+/** A seeded generator (mulberry32, common practice, no source) so a failure repeats. */
+function rng(seed: number) {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+const DAY = 86_400_000;
+
+/** A year of values every 10 minutes with log-normal scatter and one short burst. */
+function yearOfValues(seed: number) {
+  const r = rng(seed);
+  const from = Date.UTC(2026, 0, 1);
+  const items: { t: number; v: number; id: number }[] = [];
+  for (let i = 0, t = from; t < from + 365 * DAY; i++, t += 600_000) {
+    const burst = i >= 30_000 && i < 30_003 ? 8 : 1;
+    items.push({ t, v: 2 * Math.exp(0.25 * (r() + r() + r() - 1.5)) * burst, id: i });
+  }
+  return { from, to: from + 365 * DAY, items };
+}
+
+describe('decimateTrend', () => {
+  it('keeps every bucket’s lowest and highest value, in time order, and nothing else', () => {
+    const { from, to, items } = yearOfValues(7);
+    const { items: out, decimation } = decimateTrend(items, { from, to });
+    expect(decimation).toEqual({
+      total: items.length,
+      bucketMs: Math.ceil((to - from + 1) / TREND_MAX_BUCKETS),
+    });
+    const bucketMs = decimation!.bucketMs;
+    const byBucket = new Map<number, { min: number; max: number }>();
+    for (const x of items) {
+      const b = Math.floor((x.t - from) / bucketMs);
+      const m = byBucket.get(b) ?? { min: Infinity, max: -Infinity };
+      byBucket.set(b, { min: Math.min(m.min, x.v), max: Math.max(m.max, x.v) });
+    }
+    const outBy = new Map<number, number[]>();
+    for (const x of out) {
+      const b = Math.floor((x.t - from) / bucketMs);
+      outBy.set(b, [...(outBy.get(b) ?? []), x.v]);
+    }
+    for (const [b, m] of byBucket) {
+      expect(Math.min(...outBy.get(b)!)).toBe(m.min);
+      expect(Math.max(...outBy.get(b)!)).toBe(m.max);
+    }
+    // A subset of the input, oldest first, with at most two values a bucket (+ first/last).
+    for (let i = 1; i < out.length; i++) expect(out[i]!.id).toBeGreaterThan(out[i - 1]!.id);
+    expect(out.length).toBeLessThanOrEqual(2 * TREND_MAX_BUCKETS + 2);
+    expect(out[0]).toBe(items[0]);
+    expect(out.at(-1)).toBe(items.at(-1));
+    // The three-value burst's peak is drawn at its own time.
+    const peak = items.reduce((a, b) => (b.v > a.v ? b : a));
+    expect(out).toContain(peak);
+  });
+
+  it('keeps the values it is told to keep, whatever their bucket', () => {
+    const { from, to, items } = yearOfValues(11);
+    const keep = new Set([1234, 40_000, items.length - 2]);
+    const { items: out } = decimateTrend(items, { from, to, keep });
+    for (const i of keep) expect(out).toContain(items[i]);
+  });
+
+  it('answers a short trend as it is', () => {
+    const items = Array.from({ length: 2 * TREND_MAX_BUCKETS }, (_, i) => ({ t: i * 1000, v: i }));
+    const r = decimateTrend(items, { from: 0, to: items.length * 1000 });
+    expect(r.decimation).toBeNull();
+    expect(r.items).toEqual(items);
+    expect(decimateTrend([], { from: 0, to: 1 })).toEqual({ items: [], decimation: null });
+  });
+});
