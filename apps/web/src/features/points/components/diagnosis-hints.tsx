@@ -2,6 +2,7 @@
  * Diagnosis hints: likely causes of a capture's vibration with the peaks that support them.
  * Hints, never verdicts — every view says so and shows the evidence.
  */
+import { diagnosisCodeNames, evidenceUnits } from '@turnstone/contracts/points';
 import type {
   Diagnosis,
   DiagnosisCodeName,
@@ -11,29 +12,10 @@ import type {
 import { formatValue } from '../../../components/charts/chart-theme.ts';
 import { cn } from '../../../lib/cn.ts';
 
-const codeNames: Record<DiagnosisCodeName, string> = {
-  unbalance: 'Unbalance',
-  misalignment: 'Misalignment',
-  looseness: 'Mechanical looseness',
-  'bearing-outer-race': 'Bearing outer race',
-  'bearing-inner-race': 'Bearing inner race',
-  'bearing-rolling-element': 'Bearing rolling element',
-  'bearing-cage': 'Bearing cage',
-  'gear-mesh': 'Gear mesh',
-  'blade-pass': 'Blade/vane pass',
-  electrical: 'Electrical',
-  belt: 'Belt drive',
-};
-
 export function hintName(code: DiagnosisCodeName): string {
-  return codeNames[code];
+  return diagnosisCodeNames[code];
 }
 
-const spectrumUnits: Record<DiagnosisEvidenceItem['spectrum'], string> = {
-  velocity: 'mm/s RMS',
-  acceleration: 'g RMS',
-  envelope: 'g pk',
-};
 const spectrumNames: Record<DiagnosisEvidenceItem['spectrum'], string> = {
   velocity: 'velocity',
   acceleration: 'acceleration',
@@ -68,7 +50,7 @@ function EvidenceTable({
             <td className="py-0.5 pr-2 text-right">{e.hz.toFixed(2)}</td>
             <td className="py-0.5 pr-2 text-right">{e.order.toFixed(2)}</td>
             <td className="py-0.5 text-right">
-              {formatValue(e.amplitude, 3)} {spectrumUnits[e.spectrum]}
+              {formatValue(e.amplitude, 3)} {evidenceUnits[e.spectrum]}
               <span className="sr-only"> ({spectrumNames[e.spectrum]} spectrum)</span>
             </td>
           </tr>
