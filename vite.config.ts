@@ -11,7 +11,13 @@ export default defineConfig({
   root: 'apps/web',
   plugins: [react(), tailwindcss()],
   build: { outDir: 'dist', emptyOutDir: true, chunkSizeWarningLimit: 1200 },
-  server: { host: '127.0.0.1', port: 5173, proxy: { '/api': apiTarget } },
+  // The browser's Host goes through to the API (changeOrigin off), so its same-origin and
+  // host checks accept sign-in through the proxy (npm run dev: apps/server/src/dev-vite.ts).
+  server: {
+    host: '127.0.0.1',
+    port: 5173,
+    proxy: { '/api': { target: apiTarget, changeOrigin: false } },
+  },
   test: {
     root: here,
     projects: [

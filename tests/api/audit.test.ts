@@ -47,9 +47,12 @@ describe('audit log', () => {
     const gw = await (
       await srv.call('GET', '/api/v1/audit?entity=gateway', { cookie: admin })
     ).json();
+    // Then the demo seed's two gateway.create entries (one gateway per site).
     expect(gw.items.map((i: { action: string }) => i.action)).toEqual([
       'gateway.revoke',
       'gateway.rotate',
+      'gateway.create',
+      'gateway.create',
       'gateway.create',
     ]);
     const one = await (

@@ -83,6 +83,24 @@ describe('sign-in', () => {
 });
 
 describe('sessions', () => {
+  it('the session probe answers 200 with the user, or null without a session or after sign-out', async () => {
+    const probe = async (cookie?: string) => {
+      const res = await srv.call('GET', '/api/v1/auth/session', { cookie });
+      expect(res.status).toBe(200);
+      expect(res.headers.get('cache-control')).toBe('no-store');
+      return (await res.json()).user;
+    };
+    expect(await probe()).toBeNull();
+    expect(await probe('turnstone_session=not-a-token')).toBeNull();
+    const cookie = await srv.signIn('planner');
+    expect(await probe(cookie)).toMatchObject({
+      email: 'planner@turnstone.local',
+      role: 'planner',
+    });
+    await srv.call('POST', '/api/v1/auth/sign-out', { cookie });
+    expect(await probe(cookie)).toBeNull();
+  });
+
   it('sign-out really ends the session: the old cookie no longer works', async () => {
     const cookie = await srv.signIn('operator');
     expect((await srv.call('GET', '/api/v1/me', { cookie })).status).toBe(200);

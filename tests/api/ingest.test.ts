@@ -41,7 +41,13 @@ afterAll(async () => {
 describe('gateways', () => {
   it('shows the key once: the list carries only its prefix', async () => {
     const list = await (await srv.call('GET', '/api/v1/gateways', { cookie: admin })).json();
-    expect(list.items.length).toBe(2);
+    // The demo seed's two gateways (one per site) and the two made here.
+    expect(list.items.map((g: { name: string }) => g.name).sort()).toEqual([
+      'Demo gateway MFP',
+      'Demo gateway TRB',
+      'MFP gateway A',
+      'TRB gateway A',
+    ]);
     expect(JSON.stringify(list)).not.toContain(keyMfp);
     expect(
       keyMfp.startsWith(
@@ -171,7 +177,6 @@ describe('ingest', () => {
     ['base64 that is not', { samples: 'this is not base64!!' }, 'samples'],
     ['NaN as a sample', { samples: [1, 2, 'NaN'] }, 'samples'],
     ['a missing sensor', { sensor: undefined }, 'sensor'],
-    ['an unknown field', { extra: 1 }, ''],
     [
       'a byte count that is not whole samples',
       { samples: Buffer.alloc(1025).toString('base64') },
@@ -185,6 +190,20 @@ describe('ingest', () => {
     expect(body.error.code).toBe('validation_failed');
     expect(body.error.message).toContain(field);
     expect(await count('snapshots')).toBe(before);
+  });
+
+  it('accepts and ignores fields it does not know (newer firmware), naming them in the answer', async () => {
+    // The forward-compatibility rule of the ingest contract (packages/contracts/src/ingest.ts).
+    const body = snapshotBody(TAG, 'ing-fwd-1');
+    const res = await post(keyMfp, { ...body, firmware: '4.2', batteryV: 3.6 });
+    expect(res.status).toBe(201);
+    const answer = await res.json();
+    expect(answer).toMatchObject({ uid: 'ing-fwd-1', status: 'created' });
+    expect(answer.ignoredFields).toEqual(['firmware', 'batteryV']);
+    // Nothing of them is stored: the same capture without them is a plain repeat.
+    const again = await post(keyMfp, body);
+    expect(again.status).toBe(200);
+    expect((await again.json()).ignoredFields).toBeUndefined();
   });
 
   it("answers an unknown tag and another site's tag the same way (no tag discovery)", async () => {

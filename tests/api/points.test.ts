@@ -349,8 +349,20 @@ describe('trend', () => {
       'filename="MFP-P102-MDE-H_overall-velocity_2026-10-30_2026-11-10.csv"',
     );
     const lines = (await res.text()).trim().split('\n');
-    expect(lines[0]).toBe('taken_at_utc,overall-velocity_mm_per_s,quality');
+    expect(lines[0]).toBe('taken_at_utc,overall-velocity_mm_per_s,quality,band_from_hz,band_to_hz');
     expect(lines).toHaveLength(7);
+    // each row names the band its value covers: the same band the analyses list gives for
+    // that capture (the stored summary's ISO band)
+    const analyses = (await (await get(`/points/${pointId}/analyses?limit=100`)).json()).items as {
+      takenAt: string;
+      overall: { velocityBandHz: [number, number] | null };
+    }[];
+    for (const line of lines.slice(1)) {
+      const [t, , , from, to] = line.split(',');
+      const a = analyses.find((x) => Date.parse(x.takenAt) === Date.parse(t!))!;
+      expect(a.overall.velocityBandHz).not.toBeNull();
+      expect([Number(from), Number(to)]).toEqual(a.overall.velocityBandHz);
+    }
   });
 
   it('an unknown band answers 404 naming the band', async () => {

@@ -73,6 +73,10 @@ describe('uploads of recordings', () => {
     expect(snap.analysis.accelRmsG).toBeCloseTo(0.3536, 2);
     expect(snap.analysis.qualityVerdict).toBe('ok');
     expect(snap.analysis.speedRpm).toBe(1480);
+    // every overall value states its band: at 1480 r/min the ISO 20816-3 band is 10–1000 Hz
+    // (above 600 r/min, from memory), and overall acceleration runs from its lower edge
+    expect(snap.analysis.velocityBandHz).toEqual([10, 1000]);
+    expect(snap.analysis.accelBandHz[0]).toBe(10);
   });
 
   it('the same file again answers 200 already-uploaded and stores nothing new', async () => {

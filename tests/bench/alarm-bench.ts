@@ -4,6 +4,9 @@
 // simulated year at 4 and at 24 values a day. Prints one table; no pass/fail.
 // Run: npx tsx tests/bench/alarm-bench.ts   (or npm run bench for every bench file)
 //
+// The projection's error is measured against when the median reaches the level the
+// projection aims at (the level in force: a statistical level lies below the fixed one).
+//
 // Every value is drawn from a definition: a median path (flat, step, straight line,
 // exponential, episodes) times log-normal scatter exp(s·z), z standard normal (vibration
 // amplitudes scatter roughly log-normally; 15–30 % is common practice, no source). The random
@@ -171,11 +174,11 @@ function relativeError(
   trend: TrendPoint[],
   levels: { alertLevel: number; dangerLevel: number },
   nowDay: number,
-  trueCross: (level: 'alert' | 'danger') => number | null,
+  trueCross: (value: number) => number | null,
 ): number | null {
   const p = projectTrend(trend, levels);
   if (p.target === null) return null;
-  const truth = trueCross(p.target.level);
+  const truth = trueCross(p.target.value);
   if (truth === null || truth <= nowDay) return null;
   const remaining = truth - nowDay;
   if (p.crossingAt === null) return Number.POSITIVE_INFINITY; // no forecast: a miss
@@ -200,8 +203,13 @@ function runPoint(band: BandDefinition, s: Scenario, perDay: number, u: () => nu
   let quarterDone = false;
   const quarterDay =
     s.onset !== null && s.alertCross !== null ? s.onset + 0.25 * (s.alertCross - s.onset) : null;
-  const trueCross = (level: 'alert' | 'danger') =>
-    level === 'alert' ? s.alertCross : s.dangerCross;
+  // when the median first reaches a level in force (a statistical level lies below the
+  // fixed one, so its crossing comes earlier), searched in steps of 0.01 day from the onset
+  const trueCross = (value: number) => {
+    if (s.onset === null) return null;
+    for (let t = s.onset; t < 2 * YEAR_DAYS; t += 0.01) if (s.median(t) >= value) return t;
+    return null;
+  };
   const window = (nowDay: number) =>
     trend.filter((p) => p.takenAt >= T0 + (nowDay - PROJECTION_WINDOW_DAYS) * DAY);
 

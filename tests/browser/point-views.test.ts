@@ -109,7 +109,9 @@ describe('point analysis views in a real browser', () => {
     ]);
     expect(download.suggestedFilename()).toMatch(/^MFP-P102-MDE-H_overall-velocity_.*\.csv$/);
     const text = readFileSync((await download.path())!, 'utf8');
-    expect(text.split('\n')[0]).toBe('taken_at_utc,overall-velocity_mm_per_s,quality');
+    expect(text.split('\n')[0]).toBe(
+      'taken_at_utc,overall-velocity_mm_per_s,quality,band_from_hz,band_to_hz',
+    );
     expect(text.trim().split('\n').length).toBe(22);
 
     await page.getByRole('tab', { name: 'Spectrum' }).click();

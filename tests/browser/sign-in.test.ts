@@ -17,9 +17,16 @@ afterAll(async () => {
 describe('sign-in in a real browser', () => {
   it('shows the sign-in page to a visitor', async () => {
     const page = await newPage(browser);
+    // A visitor's first load asks whether anyone is signed in; the answer must not be an
+    // error in the console (a 401 there is logged as "Failed to load resource").
+    const errors: string[] = [];
+    page.on('console', (m) => {
+      if (m.type() === 'error') errors.push(m.text());
+    });
     await page.goto(srv.url + '/');
     await page.getByRole('button', { name: /sign in/i }).waitFor();
     expect(page.url()).toContain('/sign-in');
+    expect(errors).toEqual([]);
     await screenshot(page, 'sign-in');
     await page.context().close();
   });

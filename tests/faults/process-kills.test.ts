@@ -4,55 +4,15 @@
  * half-written analysis is visible.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawn, type ChildProcess } from 'node:child_process';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import mysql from 'mysql2/promise';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { prng, snapshotBody } from '../support/signals.ts';
+import { exited, spawnNode, waitForOutput } from '../support/product-process.ts';
 
 const TAG = 'MFP-P102-MDE-V';
-const tsx = join(process.cwd(), 'node_modules', 'tsx', 'dist', 'cli.mjs');
-
-function spawnNode(script: string, env: Record<string, string>): ChildProcess {
-  return spawn(process.execPath, [tsx, script], {
-    env: { ...process.env, ...env },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
-}
-function waitForOutput(
-  child: ChildProcess,
-  pattern: RegExp,
-  ms = 60_000,
-): Promise<RegExpMatchArray> {
-  return new Promise((resolve, reject) => {
-    let buf = '';
-    const timer = setTimeout(
-      () => reject(new Error(`no ${pattern} within ${ms} ms; got: ${buf.slice(-1000)}`)),
-      ms,
-    );
-    const on = (d: Buffer) => {
-      buf += d.toString();
-      const m = buf.match(pattern);
-      if (m) {
-        clearTimeout(timer);
-        resolve(m);
-      }
-    };
-    child.stdout!.on('data', on);
-    child.stderr!.on('data', on);
-    child.once('exit', (code) => {
-      clearTimeout(timer);
-      reject(new Error(`exited (${code}) before ${pattern}: ${buf.slice(-1000)}`));
-    });
-  });
-}
-const exited = (child: ChildProcess) =>
-  new Promise<void>((r) =>
-    child.exitCode !== null || child.signalCode !== null ? r() : child.once('exit', () => r()),
-  );
-
 async function rows<T>(url: string, sql: string): Promise<T[]> {
   const conn = await mysql.createConnection(url);
   try {

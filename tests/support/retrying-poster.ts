@@ -6,6 +6,8 @@ export interface PostOutcome {
   uid: string;
   status: number;
   attempts: number;
+  /** Date.now() when the final answer came. */
+  answeredAt: number;
 }
 
 export async function postUntilAnswered(
@@ -28,7 +30,7 @@ export async function postUntilAnswered(
       });
       if (res.status !== 429 && res.status < 500) {
         await res.arrayBuffer();
-        return { uid: body.uid, status: res.status, attempts };
+        return { uid: body.uid, status: res.status, attempts, answeredAt: Date.now() };
       }
       const retryAfter = Number(res.headers.get('retry-after'));
       await res.arrayBuffer();

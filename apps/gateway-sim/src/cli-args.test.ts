@@ -27,6 +27,14 @@ describe('parseSimArgs', () => {
     });
   });
 
+  it('without --url posts to the product on this machine: 127.0.0.1 on PORT, else 8080', () => {
+    // README: `npm run sim -- --key <key>` works as written.
+    expect(parseSimArgs(['--key', 'k']).url).toBe('http://127.0.0.1:8080');
+    expect(parseSimArgs(['--key', 'k'], { PORT: '9090' }).url).toBe('http://127.0.0.1:9090');
+    expect(parseSimArgs(['--key', 'k'], { PORT: '0' }).url).toBe('http://127.0.0.1:8080');
+    expect(() => parseSimArgs([])).toThrow(/--key is required/);
+  });
+
   it('refuses a remote URL unless --allow-remote', () => {
     expect(() => parseSimArgs(['--url', 'http://example.com', '--key', 'k'])).toThrow(UsageError);
     expect(parseSimArgs(['--url', 'http://example.com', '--key', 'k', '--allow-remote']).url).toBe(

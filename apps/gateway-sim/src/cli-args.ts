@@ -22,15 +22,17 @@ export interface SimOptions {
   allowRemote: boolean;
 }
 
-export const USAGE = `Usage: npm run sim -- --url http://127.0.0.1:8080 --key <gatewayApiKey>
-  [--site MFP] [--interval-s 60] [--count N] [--batch N] [--rate-per-s N] [--faults]
+export const USAGE = `Usage: npm run sim -- --key <gatewayApiKey> [--site MFP]
+  [--url http://127.0.0.1:8080] [--interval-s 60] [--count N] [--batch N] [--rate-per-s N] [--faults]
   [--from 2026-11-01T00:00:00Z] [--max-retries 10] [--allow-remote]
 
 Behaves like a field gateway of the demo plant: every interval it captures each point of
-its site and posts the snapshots to POST /api/ingest/v1/snapshots, retrying network
+its site (--site: MFP or TRB, the site the key's gateway belongs to; the demo seed writes
+one "SITE key" line per site to DATA_DIR/demo-gateway-keys.txt) and posts the snapshots to POST /api/ingest/v1/snapshots, retrying network
 errors and 5xx with exponential back-off and honouring Retry-After on 429/503. A retry
 reuses the capture's uid, so nothing is dropped or stored twice. Without --count it runs
-until Ctrl+C. Only loopback URLs unless --allow-remote.`;
+until Ctrl+C. --url defaults to the product on this machine, http://127.0.0.1:$PORT (8080).
+Only loopback URLs unless --allow-remote.`;
 
 export class UsageError extends Error {}
 
@@ -51,7 +53,16 @@ function positiveNumber(flag: string, raw: string | undefined, integer: boolean)
   return n;
 }
 
-export function parseSimArgs(argv: readonly string[]): SimOptions {
+/** Where `npm start` listens with the same environment: 127.0.0.1 on PORT (8080). */
+export function defaultUrl(env: Record<string, string | undefined> = {}): string {
+  const port = env.PORT && /^\d+$/.test(env.PORT) && env.PORT !== '0' ? env.PORT : '8080';
+  return `http://127.0.0.1:${port}`;
+}
+
+export function parseSimArgs(
+  argv: readonly string[],
+  env: Record<string, string | undefined> = {},
+): SimOptions {
   const o: Partial<SimOptions> & { faults: boolean; allowRemote: boolean } = {
     faults: false,
     allowRemote: false,
@@ -113,7 +124,7 @@ export function parseSimArgs(argv: readonly string[]): SimOptions {
         throw new UsageError(`unknown option ${arg}\n\n${USAGE}`);
     }
   }
-  if (!o.url) throw new UsageError(`--url is required\n\n${USAGE}`);
+  o.url ??= defaultUrl(env);
   if (!o.key) throw new UsageError(`--key is required\n\n${USAGE}`);
   let url: URL;
   try {

@@ -1,5 +1,5 @@
 /**
- * `npm run sim -- --url http://127.0.0.1:8080 --key <gatewayApiKey> …` — a field gateway
+ * `npm run sim -- --key <gatewayApiKey> [--site MFP] [--url http://127.0.0.1:8080] …` — a field gateway
  * for the demo plant (see cli-args.ts for the options). Exit 0 when every capture was
  * confirmed, 1 when some failed, 2 on a usage error.
  */
@@ -9,7 +9,7 @@ import { runSimulator, summaryLine } from './run-simulator.ts';
 async function main(): Promise<number> {
   let options;
   try {
-    options = parseSimArgs(process.argv.slice(2));
+    options = parseSimArgs(process.argv.slice(2), process.env);
   } catch (err) {
     if (err instanceof UsageError) {
       console.error(err.message);

@@ -82,10 +82,8 @@ function sameOriginWrites(req: Request, _res: Response, next: NextFunction) {
 export function createApp(ctx: AppContext) {
   const app = express();
   app.disable('x-powered-by');
-  if (ctx.config.TRUST_PROXY) {
-    const v = ctx.config.TRUST_PROXY;
-    app.set('trust proxy', /^\d+$/.test(v) ? Number(v) : v === 'true' ? true : v);
-  }
+  // Checked and converted in config.ts (a value Express refuses would fail only here).
+  if (ctx.config.TRUST_PROXY !== undefined) app.set('trust proxy', ctx.config.TRUST_PROXY);
   app.use((req, res, next) => {
     req.requestId = trackRequest(ctx.log, req, res, () => req.path);
     next();
@@ -93,7 +91,7 @@ export function createApp(ctx: AppContext) {
   // The gateways' machine-to-machine API comes before the browser middleware: helmet's
   // page headers (CSP, frame and referrer policy…) mean nothing to a gateway and gzip does
   // not pay for answers of a hundred bytes. (Its POST never reaches Express: httpHandler.)
-  app.use('/api/ingest/v1', ingestRouter());
+  app.use('/api/ingest/v1', ingestRouter(ctx.config));
   // Browser-facing routes answer only to the names this server is known by (gateways
   // authenticate with a key, which a rebound page does not have).
   app.use(hostCheck(ctx.config));

@@ -9,12 +9,14 @@ import type { AddressInfo } from 'node:net';
 import { createServer, type Server } from 'node:http';
 import { createDb } from '@turnstone/db/client';
 import { runMigrations } from '@turnstone/db/migrate';
+import { describeConnectionError } from '@turnstone/db/errors';
 import { startLocalMariadb, type LocalMariadb } from '@turnstone/db/local-server';
 import { loadConfig, type Config } from './config.ts';
 import { httpHandler } from './app.ts';
 import type { AppContext } from './lib/context.ts';
 import { createLogger } from './lib/logger.ts';
 import { loadOrCreateSecrets } from './lib/secrets.ts';
+import { checkSessionKey } from './lib/session-key-check.ts';
 import { ensureWebBuilt } from './lib/web-build.ts';
 import { backup } from './backup/backup.ts';
 import { seedIfEmpty } from './features/demo/demo-seed.ts';
@@ -64,6 +66,10 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
         });
         say(`Backup before the upgrade written to ${dir}.`);
       },
+    }).catch((err: unknown) => {
+      // The first query is the migrations table; name the real reason it failed.
+      const why = describeConnectionError(err, url);
+      throw why ? new Error(why, { cause: err }) : err;
     });
     const ctx: AppContext = {
       config,
@@ -73,6 +79,10 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
       jwtSecret: config.JWT_SECRET ?? secrets.jwtSecret,
       dataDir,
     };
+    const keyCheck = await checkSessionKey(ctx.db, ctx.jwtSecret, {
+      replace: config.JWT_SECRET_REPLACE,
+    });
+    if (keyCheck === 'replaced') log.warn('session key replaced: every earlier session has ended');
     if (config.SEED_DEMO) await seedIfEmpty(ctx, say);
     await checkDemoExposure(ctx);
     if (config.BUILD_WEB) await ensureWebBuilt(say);

@@ -6,12 +6,19 @@ import { resolve } from 'node:path';
 import { createDb } from '@turnstone/db/client';
 import { runningLocalUrl } from '@turnstone/db/local-server';
 import { assertNotNewer } from '@turnstone/db/migrate';
+import { describeConnectionError } from '@turnstone/db/errors';
 import { loadConfig } from './config.ts';
 import { createLogger } from './lib/logger.ts';
 import { createWorker } from './features/worker/worker.ts';
 import { startMailWorker } from './features/mail/mail-runtime.ts';
 
-const config = loadConfig();
+let config;
+try {
+  config = loadConfig();
+} catch (err) {
+  process.stderr.write(`Turnstone worker could not start: ${(err as Error).message}\n`);
+  process.exit(1);
+}
 const log = createLogger(config.LOG_LEVEL);
 const dataDir = resolve(config.DATA_DIR);
 const url = config.DATABASE_URL ?? runningLocalUrl(dataDir);
@@ -24,7 +31,8 @@ if (!url) {
 const dbHandle = createDb(url);
 // The web process migrates; a worker never runs on a database newer than its code.
 await assertNotNewer(dbHandle.pool).catch((err: Error) => {
-  process.stderr.write(`Turnstone worker could not start: ${err.message}\n`);
+  const why = describeConnectionError(err, url) ?? err.message;
+  process.stderr.write(`Turnstone worker could not start: ${why}\n`);
   process.exit(1);
 });
 const ctx = { config, db: dbHandle.db, dbHandle, log, jwtSecret: '', dataDir };

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { projectTrend, type TrendPoint } from './trend-projection.ts';
+import { fitHinge, projectTrend, type TrendPoint } from './trend-projection.ts';
 import { itWithNumpy, runNumpy } from './numpy-live.test-support.ts';
 
 const T0 = Date.UTC(2025, 0, 1);
@@ -274,4 +274,51 @@ print(json.dumps([float(np.polyfit(t, np.log(y), 1)[0])]))`,
       expect(rate).toBeGreaterThan(0.03);
     },
   );
+});
+
+describe('fitHinge — a flat level that turns upward', () => {
+  it('when a series is 2 until day 10 and rises 0.5 a day after, the hinge finds day 10, 2 and 0.5 exactly', () => {
+    // y = 2 + 0.5·max(0, x − 10): the model itself, noise-free (definition of the hinge)
+    const xs = Array.from({ length: 30 }, (_, i) => i);
+    const ys = xs.map((x) => 2 + 0.5 * Math.max(0, x - 10));
+    const h = fitHinge(xs, ys, 5);
+    expect(h?.k).toBe(10);
+    expect(h?.a).toBeCloseTo(2, 12);
+    expect(h?.b).toBeCloseTo(0.5, 12);
+    expect(h?.sse).toBeLessThan(1e-18);
+  });
+
+  itWithNumpy(
+    'when the series scatters, the break and the line agree with numpy.linalg.lstsq tried at every break',
+    () => {
+      // numpy live: brute force over breaks k with at least 5 points from k, lstsq on [1, z]
+      const xs = Array.from({ length: 40 }, (_, i) => i * 0.5);
+      const ys = xs.map((x, i) => 1 + 0.3 * Math.max(0, x - 12) + 0.2 * Math.sin(i * 2.3));
+      const [k, a, b, sse] = runNumpy(
+        `x = np.array(${JSON.stringify(xs)}); y = np.array(${JSON.stringify(ys)})
+best = None
+for k in range(0, len(x) - 5 + 1):
+    z = np.maximum(0, x - x[k]); A = np.vstack([np.ones_like(z), z]).T
+    c, *_ = np.linalg.lstsq(A, y, rcond=None); r = float(np.sum((y - A @ c) ** 2))
+    if best is None or r < best[3]: best = (k, float(c[0]), float(c[1]), r)
+print(json.dumps(best))`,
+      ) as [number, number, number, number];
+      const h = fitHinge(xs, ys, 5);
+      expect(h?.k).toBe(k);
+      expect(h?.a).toBeCloseTo(a, 9);
+      expect(h?.b).toBeCloseTo(b, 9);
+      expect(h?.sse).toBeCloseTo(sse, 9);
+    },
+  );
+
+  it('when a 40-day flat history turns into a young straight rise, the projection fits from the turn', () => {
+    // 1.0 to day 40, then +0.05 a day to day 48, noise-free: alert 4 is reached where
+    // 1 + 0.05·(d − 40) = 4, day 100 (hand arithmetic); the rise's own points are days 41–48
+    const values = Array.from({ length: 49 }, (_, d) => 1 + 0.05 * Math.max(0, d - 40));
+    const result = projectTrend(daily(values), levels);
+    expect(result.outcome).toBe('projected');
+    expect(result.fit?.model).toBe('linear');
+    expect(result.window).toMatchObject({ changed: true, points: 8, fromAt: T0 + 41 * DAY });
+    expect(((result.crossingAt ?? 0) - T0) / DAY).toBeCloseTo(100, 6);
+  });
 });

@@ -195,6 +195,99 @@ export function recentRegimeStart(
   }
 }
 
+/** Least-squares hinge y = a + b·max(0, x − x[k]) with its break at point k. */
+export interface HingeFit {
+  /** Index of the break (the first point of the rising part). */
+  readonly k: number;
+  /** Level before the break (and at it). */
+  readonly a: number;
+  /** Slope after the break, per unit of x. */
+  readonly b: number;
+  /** Residual sum of squares. */
+  readonly sse: number;
+}
+
+/**
+ * The continuous hinge ("broken stick") y = a + b·max(0, x − x[k]) of least squared residual
+ * over every break k with at least `minPoints` points from it to the end (k = 0 is the plain
+ * straight line). A flat history that turns upward is fitted as one curve: the flat part pins
+ * the level the rise starts from, so a young rise is not extrapolated from its few points
+ * alone. `xs` ascending. O(n) with suffix sums. Null with fewer than `minPoints` points.
+ *
+ * Source: segmented (piecewise linear) regression with a continuous break, fitted by a grid
+ * over the break and least squares for the rest (Hudson 1966; Muggeo 2003); the use here is
+ * Turnstone's, no source.
+ */
+export function fitHinge(
+  xs: readonly number[],
+  ys: readonly number[],
+  minPoints: number,
+): HingeFit | null {
+  const n = xs.length;
+  if (n < Math.max(2, minPoints)) return null;
+  let sy = 0;
+  let syy = 0;
+  for (let i = 0; i < n; i += 1) {
+    const y = ys[i] ?? 0;
+    sy += y;
+    syy += y * y;
+  }
+  // suffix sums of x, x², x·y, y from point k to the end
+  let tx = 0;
+  let txx = 0;
+  let txy = 0;
+  let ty = 0;
+  let best: HingeFit | null = null;
+  const syyc = syy - (sy * sy) / n;
+  for (let k = n - 1; k >= 0; k -= 1) {
+    const x = xs[k] ?? 0;
+    const y = ys[k] ?? 0;
+    tx += x;
+    txx += x * x;
+    txy += x * y;
+    ty += y;
+    const m = n - k;
+    if (m < minPoints || (k > 0 && x === (xs[k - 1] ?? 0))) continue;
+    // z = max(0, x − x_k): Σz, Σz², Σz·y over the points from k
+    const sz = tx - m * x;
+    const szz = txx - 2 * x * tx + m * x * x;
+    const szy = txy - x * ty;
+    const czz = szz - (sz * sz) / n;
+    if (!(czz > 0)) continue;
+    const czy = szy - (sz * sy) / n;
+    const b = czy / czz;
+    const a = (sy - b * sz) / n;
+    const sse = Math.max(0, syyc - b * czy);
+    if (best === null || sse < best.sse) best = { k, a, b, sse };
+  }
+  return best;
+}
+
+/**
+ * Where a regime that is flat and then turns upward turns: the break of the best
+ * {@link fitHinge}, accepted when it beats one straight line by the Bayesian information
+ * criterion (hinge: level, slope and break, p = 3; line: p = 2), else 0. Scatter below `noise`
+ * counts as `noise`. A young rise is found before the two-line test of
+ * {@link recentRegimeStart} can see it, because the flat part is not given a slope of its own.
+ *
+ * Source: Hudson (1966) segmented regression; BIC (Schwarz 1978); use here Turnstone's.
+ */
+export function turnWithin(
+  xs: readonly number[],
+  ys: readonly number[],
+  minPoints: number,
+  noise = 0,
+): number {
+  const n = xs.length;
+  const hinge = fitHinge(xs, ys, minPoints);
+  if (hinge === null || hinge.k === 0 || !(hinge.b > 0)) return 0;
+  const p = prefixSums(xs, ys);
+  const floor = Math.max(noise * noise, Number.MIN_VALUE);
+  const one = n * Math.log(Math.max(lineSse(p, 0, n) / n, floor)) + 2 * Math.log(n);
+  const bent = n * Math.log(Math.max(hinge.sse / n, floor)) + 3 * Math.log(n);
+  return bent < one ? hinge.k : 0;
+}
+
 /**
  * Projects a band's recent trend to the date it crosses the next level.
  *
@@ -206,7 +299,10 @@ export function recentRegimeStart(
  *
  * Method: least-squares straight line through (t, value) (linear), and through (t, ln value)
  * (exponential, only when every value is > 0; it fits ln, i.e. weights relative errors, the
- * usual log-linear fit). The better fit is the one with the higher R² **computed in value
+ * usual log-linear fit). Each is fitted as a hinge (flat, then rising from a break;
+ * {@link fitHinge}) when that beats the straight line by BIC ({@link turnWithin}): a young
+ * rise is then fitted from the level its flat history pins, and the window starts at the
+ * break. The better fit is chosen by residual in value space over the same points. The better fit is the one with the higher R² **computed in value
  * space for both**, so the two are compared on the same footing; a tie goes to the linear
  * fit (the simpler model). `unusable` points are left out.
  *
@@ -265,45 +361,73 @@ export function projectTrend(
     const meanAbs = points.reduce((a, p) => a + Math.abs(p.value), 0) / points.length;
     start = recentRegimeStart(allDays, ys, minPoints, positive ? 0.01 : 0.01 * meanAbs);
   }
-  const recent = points.slice(start);
-  const first = recent[0] ?? head;
+  // The fits run over the regime from `start`; each is a hinge (flat, then rising from its
+  // break) accepted over a straight line by BIC, so a young rise is fitted from the level the
+  // flat part pins instead of from its own few points.
+  const regime = points.slice(start);
+  const origin = (regime[0] ?? head).takenAt;
+  const xs = regime.map((p) => (p.takenAt - origin) / DAY_MS);
+  const vs = regime.map((p) => p.value);
+  const positive = vs.every((v) => v > 0);
+  const meanAbs = vs.reduce((acc, v) => acc + Math.abs(v), 0) / Math.max(1, vs.length);
+  const hingeOf = (ys: readonly number[], noise: number) => {
+    const line = fitLine(xs, ys);
+    if (line === null) return null;
+    const plain = { k: 0, a: line.intercept, b: line.slope };
+    if (!(options.changePoints ?? true)) return plain;
+    const k = turnWithin(xs, ys, minPoints, noise);
+    if (k === 0) return plain;
+    const hinge = fitHinge(xs, ys, minPoints);
+    return hinge === null ? plain : { k: hinge.k, a: hinge.a, b: hinge.b };
+  };
+  const lin = hingeOf(vs, 0.01 * meanAbs);
+  if (lin === null) return none('too-few-points');
+  const exp = positive
+    ? hingeOf(
+        vs.map((v) => Math.log(v)),
+        0.01,
+      )
+    : null;
+  const x0 = (k: number) => xs[k] ?? 0;
+  const linAt = (x: number) => lin.a + lin.b * Math.max(0, x - x0(lin.k));
+  const expAt = (x: number) =>
+    exp === null ? Number.NaN : Math.exp(exp.a + exp.b * Math.max(0, x - x0(exp.k)));
+  const sseOf = (f: (x: number) => number) =>
+    vs.reduce((acc, v, i) => acc + (v - f(xs[i] ?? 0)) ** 2, 0);
+  const linSse = sseOf(linAt);
+  const expSse = exp === null ? Number.POSITIVE_INFINITY : sseOf(expAt);
+  const r2Over = (k: number, f: (x: number) => number) =>
+    rSquared(vs.slice(k), (i) => f(xs[k + i] ?? 0));
+  const linear: LinearTrendFit = {
+    model: 'linear',
+    intercept: lin.a,
+    slopePerDay: lin.b,
+    r2: r2Over(lin.k, linAt),
+  };
+  let exponential: ExponentialTrendFit | null = null;
+  if (exp !== null) {
+    const logs = vs.slice(exp.k).map((v) => Math.log(v));
+    exponential = {
+      model: 'exponential',
+      amplitude: Math.exp(exp.a),
+      ratePerDay: exp.b,
+      r2: r2Over(exp.k, expAt),
+      r2Log: rSquared(logs, (i) => exp.a + exp.b * (x0(exp.k + i) - x0(exp.k))),
+    };
+  }
+  // the better fit by residual in value space over the same points; a tie goes to the line
+  const useExp = exponential !== null && expSse < linSse;
+  const fit: TrendFit = useExp && exponential !== null ? exponential : linear;
+  const k = useExp && exp !== null ? exp.k : lin.k;
+  const fits = { fit, linear, exponential };
+  const first = regime[k] ?? head;
   window = {
     fromAt: first.takenAt,
     toAt: latest.takenAt,
-    points: recent.length,
-    changed: start > 0,
+    points: regime.length - k,
+    changed: start + k > 0,
   };
-  const days = recent.map((p) => (p.takenAt - first.takenAt) / DAY_MS);
-  const values = recent.map((p) => p.value);
-  const line = fitLine(days, values);
-  if (line === null) return none('too-few-points');
-  const linear: LinearTrendFit = {
-    model: 'linear',
-    intercept: line.intercept,
-    slopePerDay: line.slope,
-    r2: line.r2,
-  };
-
-  let exponential: ExponentialTrendFit | null = null;
-  if (values.every((v) => v > 0)) {
-    const logLine = fitLine(
-      days,
-      values.map((v) => Math.log(v)),
-    );
-    if (logLine !== null) {
-      const amplitude = Math.exp(logLine.intercept);
-      const rate = logLine.slope;
-      exponential = {
-        model: 'exponential',
-        amplitude,
-        ratePerDay: rate,
-        r2: rSquared(values, (i) => amplitude * Math.exp(rate * (days[i] ?? 0))),
-        r2Log: logLine.r2,
-      };
-    }
-  }
-  const fit: TrendFit = exponential !== null && exponential.r2 > linear.r2 ? exponential : linear;
-  const fits = { fit, linear, exponential };
+  const days = regime.slice(k).map((p) => (p.takenAt - first.takenAt) / DAY_MS);
 
   const target =
     latest.value < levels.alertLevel

@@ -29,4 +29,11 @@ export const meSchema = z.object({
 export type Me = z.infer<typeof meSchema>;
 
 export const signInResponseSchema = z.object({ user: meSchema });
+
+/**
+ * `GET /api/v1/auth/session`: the signed-in user, or null. Always 200, so a page's first
+ * question ("is anyone signed in?") is not an error in the browser's console.
+ */
+export const sessionResponseSchema = z.object({ user: meSchema.nullable() });
+export type SessionResponse = z.infer<typeof sessionResponseSchema>;
 export type SignInResponse = z.infer<typeof signInResponseSchema>;

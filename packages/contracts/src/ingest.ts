@@ -27,6 +27,13 @@ const base64Pattern = /^[A-Za-z0-9+/]*={0,2}$/;
 /** `samples` as numbers: the values themselves, checked against the encoding later. */
 export const sampleValuesSchema = z.array(z.number().finite()).min(MIN_SAMPLES).max(MAX_SAMPLES);
 
+/**
+ * One snapshot as a gateway posts it. Forward compatibility: fields this version does not
+ * know (from newer gateway firmware) are accepted and ignored — not stored — and named in
+ * the answer's `ignoredFields`, so an integrator sees a misspelt field at once. Known
+ * fields are checked strictly. A change to a known field's meaning gets a new path
+ * (/api/ingest/v2), never a silent reinterpretation under v1.
+ */
 export const snapshotInSchema = z
   .object({
     uid: z
@@ -61,7 +68,6 @@ export const snapshotInSchema = z
       })
       .optional(),
   })
-  .strict()
   .superRefine((s, ctx) => {
     const t = Date.parse(s.takenAt);
     if (t > Date.now() + MAX_FUTURE_MS)
@@ -88,6 +94,8 @@ export const snapshotInSchema = z
     }
   });
 export type SnapshotIn = z.infer<typeof snapshotInSchema>;
+/** The top-level fields a snapshot may carry; any other is ignored (see snapshotInSchema). */
+export const SNAPSHOT_FIELDS: ReadonlySet<string> = new Set(Object.keys(snapshotInSchema.shape));
 
 export const ingestBodySchema = z.union([
   z.object({ snapshots: z.array(z.unknown()).min(1).max(MAX_BATCH) }).strict(),
@@ -107,6 +115,8 @@ export const ingestResultSchema = z.object({
   status: z.enum(ingestItemStatus),
   httpStatus: z.number().int(),
   snapshotId: z.number().int().optional(),
+  /** Top-level fields of the item this version does not know: accepted, not stored. */
+  ignoredFields: z.array(z.string()).optional(),
   error: z
     .object({ code: z.string(), message: z.string(), details: z.unknown().optional() })
     .optional(),

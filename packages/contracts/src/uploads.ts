@@ -70,6 +70,10 @@ export const snapshotStatusSchema = z.object({
       speedRpm: z.number().nullable(),
       speedSource: z.string(),
       isoZone: z.enum(['A', 'B', 'C', 'D']).nullable(),
+      /** The band accelRmsG, crest factor and kurtosis cover, Hz; null for older analyses. */
+      accelBandHz: z.tuple([z.number(), z.number()]).nullable().optional(),
+      /** The band velocityRmsMmS covers (the ISO band), Hz; null for older analyses. */
+      velocityBandHz: z.tuple([z.number(), z.number()]).nullable().optional(),
     })
     .nullable(),
 });

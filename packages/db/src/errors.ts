@@ -66,3 +66,50 @@ export function isDuplicateKey(err: unknown): boolean {
 export function abortsTransaction(err: unknown): boolean {
   return isDbUnavailable(err) || isLockConflict(err);
 }
+
+/**
+ * What went wrong reaching the database, in words an installer can act on, or null when
+ * `err` is not a connection problem (a bad query, say). Drizzle reports a failed first
+ * query as `Failed query: create table … params:`, which hides the driver's reason.
+ */
+export function describeConnectionError(err: unknown, url: string): string | null {
+  let where = url;
+  try {
+    const u = new URL(url);
+    const socket = u.searchParams.get('socketPath');
+    where = socket ? `the socket file ${socket}` : `${u.hostname}:${u.port || '3306'}`;
+    const db = u.pathname.replace(/^\//, '');
+    for (const e of chain(err)) {
+      const code = typeof e.code === 'string' ? e.code : '';
+      const text = (e as { message?: unknown }).message;
+      const reason = typeof text === 'string' && text ? ` (${text})` : '';
+      switch (code) {
+        case 'ER_ACCESS_DENIED_ERROR':
+        case 'ER_ACCESS_DENIED_NO_PASSWORD_ERROR':
+          return `The database at ${where} refused the user "${decodeURIComponent(u.username)}": wrong user name or password in DATABASE_URL${reason}.`;
+        case 'ER_DBACCESS_DENIED_ERROR':
+        case 'ER_TABLEACCESS_DENIED_ERROR':
+          return `The user "${decodeURIComponent(u.username)}" may not use the database "${db}" at ${where}: grant it ALL PRIVILEGES on ${db}.*${reason}.`;
+        case 'ER_BAD_DB_ERROR':
+          return `The database "${db}" does not exist at ${where}: create it (CREATE DATABASE \`${db}\`) or fix the name in DATABASE_URL${reason}.`;
+        case 'ECONNREFUSED':
+          return `Nothing is listening at ${where}: is MariaDB running, and are the host and port in DATABASE_URL right?${reason}`;
+        case 'ENOENT':
+          return `Nothing is at ${where}: is MariaDB running, and is the socketPath in DATABASE_URL right?${reason}`;
+        case 'EACCES':
+          return `This user may not open ${where}${reason}.`;
+        case 'ENOTFOUND':
+        case 'EAI_AGAIN':
+          return `The database host "${u.hostname}" does not resolve${reason}.`;
+        case 'ETIMEDOUT':
+          return `The database at ${where} did not answer in time (firewall, or the wrong host?)${reason}.`;
+        case 'ER_NOT_SUPPORTED_AUTH_MODE':
+        case 'HANDSHAKE_SSL_ERROR':
+          return `The database at ${where} refused the connection set-up${reason}.`;
+      }
+    }
+  } catch {
+    // an unparsable URL: config.ts refuses those before anything starts
+  }
+  return isDbUnavailable(err) ? `The database at ${where} is not answering.` : null;
+}

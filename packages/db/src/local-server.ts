@@ -8,6 +8,13 @@
  * MariaDB's root has a generated password kept in `<folder>/root-password` (mode 0600),
  * as does the product's account (`<folder>/password`). A folder made by an earlier version,
  * whose root had no password, gets one at the next start.
+ *
+ * Supervised: when `mariadbd` dies on its own (a crash, the kernel's out-of-memory killer, a
+ * stray kill), it is started again after a back-off ({@link RESTART_BACKOFF_MS}, doubling
+ * while restarts keep failing), with a log line when it stops and when it is back. InnoDB's
+ * crash recovery replays every committed transaction (commits are flushed to the redo log,
+ * `--innodb-flush-log-at-trx-commit=1`), so nothing acknowledged is lost; the product's
+ * pool reconnects by itself and answers 503 with Retry-After meanwhile.
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
@@ -29,7 +36,16 @@ export interface LocalMariadbOptions {
   port?: number;
   /** Progress messages. @default silent */
   log?: (message: string) => void;
+  /** Start `mariadbd` again when it dies on its own. @default true */
+  supervise?: boolean;
 }
+
+/** First wait before restarting a server that died; doubles per failed restart. */
+export const RESTART_BACKOFF_MS = 500;
+/** Longest wait between restart attempts. */
+export const RESTART_BACKOFF_MAX_MS = 30_000;
+/** A server up this long counts as healthy again: the next death waits the first back-off. */
+const HEALTHY_AFTER_MS = 60_000;
 
 export interface LocalMariadb {
   url: string;
@@ -37,8 +53,12 @@ export interface LocalMariadb {
   port: number;
   dir: string;
   socket: string;
-  /** Stops the server cleanly (SIGTERM, then waits). Safe to call twice. */
+  /** Stops the server cleanly (SIGTERM, then waits) and ends supervision. Safe to call twice. */
   stop(): Promise<void>;
+  /** Process id of the running `mariadbd` (it changes when supervision restarts it). */
+  readonly pid: number | undefined;
+  /** How many times supervision has started the server again. */
+  readonly restarts: number;
 }
 
 const SERVER_USER = 'turnstone';
@@ -180,51 +200,111 @@ export async function startLocalMariadb(options: LocalMariadbOptions): Promise<L
   const port = options.port ?? 0;
   const socket = join(dir, 'mariadbd.sock');
   const errorLog = join(dir, 'error.log');
-  const child: ChildProcess = spawn(
-    server,
-    [
-      '--no-defaults',
-      `--datadir=${join(dir, 'data')}`,
-      `--socket=${socket}`,
-      `--pid-file=${join(dir, 'mariadbd.pid')}`,
-      `--log-error=${errorLog}`,
-      ...(port > 0 ? [`--port=${port}`, '--bind-address=127.0.0.1'] : ['--skip-networking']),
-      '--skip-name-resolve',
-      ...userArgs,
-      '--default-time-zone=+00:00',
-      '--character-set-server=utf8mb4',
-      '--collation-server=utf8mb4_unicode_ci',
-      // Durable commits: an acknowledged snapshot survives a crash (README, operations).
-      '--innodb-flush-log-at-trx-commit=1',
-      '--skip-log-bin',
-      '--max-connections=400',
-      '--max-allowed-packet=64M',
-      '--innodb-buffer-pool-size=256M',
-    ],
-    { stdio: 'ignore' },
-  );
-  let exited = false;
-  child.on('exit', () => {
-    exited = true;
-  });
+  const args = [
+    '--no-defaults',
+    `--datadir=${join(dir, 'data')}`,
+    `--socket=${socket}`,
+    `--pid-file=${join(dir, 'mariadbd.pid')}`,
+    `--log-error=${errorLog}`,
+    ...(port > 0 ? [`--port=${port}`, '--bind-address=127.0.0.1'] : ['--skip-networking']),
+    '--skip-name-resolve',
+    ...userArgs,
+    '--default-time-zone=+00:00',
+    '--character-set-server=utf8mb4',
+    '--collation-server=utf8mb4_unicode_ci',
+    // Durable commits: an acknowledged snapshot survives a crash (README, operations).
+    '--innodb-flush-log-at-trx-commit=1',
+    '--skip-log-bin',
+    '--max-connections=400',
+    '--max-allowed-packet=64M',
+    '--innodb-buffer-pool-size=256M',
+  ];
+  const exitedChildren = new WeakSet<ChildProcess>();
+  let child!: ChildProcess;
+  let supervising = false;
+  let stopped = false;
+  const launch = () => {
+    const c = spawn(server, args, { stdio: 'ignore' });
+    child = c;
+    c.on('exit', (code, signal) => {
+      exitedChildren.add(c);
+      if (c === child && supervising && !stopped) onUnexpectedExit(code, signal);
+    });
+    return c;
+  };
 
-  const deadline = Date.now() + 60_000;
-  let admin: mysql.Connection | null = null;
-  while (!admin) {
-    if (exited) {
+  /** Connects as root once the server answers; null when it exited or did not answer in 60 s. */
+  const waitUntilUp = async (c: ChildProcess): Promise<mysql.Connection | null> => {
+    const deadline = Date.now() + 60_000;
+    for (;;) {
+      if (exitedChildren.has(c) || stopped) return null;
+      try {
+        return await connectRoot(socket, rootPassword);
+      } catch (err) {
+        if (accessDenied(err)) throw new Error(`MariaDB in ${dir} refused its root password.`);
+        if (Date.now() > deadline) {
+          c.kill('SIGKILL');
+          return null;
+        }
+        await new Promise((r) => setTimeout(r, 150));
+      }
+    }
+  };
+
+  const first = launch();
+  const admin = await waitUntilUp(first);
+  if (!admin) {
+    if (exitedChildren.has(first)) {
       const tail = existsSync(errorLog) ? readFileSync(errorLog, 'utf8').slice(-2000) : '';
       throw new Error(`mariadbd exited during start-up. Its log ends:\n${tail}`);
     }
+    throw new Error(`MariaDB did not answer within 60 s (log: ${errorLog}).`);
+  }
+
+  // Supervision: restart with back-off, one line when it stops and one when it is back.
+  let restarts = 0;
+  let backoff = RESTART_BACKOFF_MS;
+  let upSince = Date.now();
+  let downSince = 0;
+  let timer: NodeJS.Timeout | null = null;
+  function onUnexpectedExit(code: number | null, signal: NodeJS.Signals | null) {
+    const now = Date.now();
+    if (downSince === 0) downSince = now;
+    if (upSince > 0 && now - upSince >= HEALTHY_AFTER_MS) backoff = RESTART_BACKOFF_MS;
+    const wait = backoff;
+    backoff = Math.min(backoff * 2, RESTART_BACKOFF_MAX_MS);
+    upSince = 0;
+    log(
+      `MariaDB stopped unexpectedly (${signal ?? `exit code ${code}`}); starting it again in ` +
+        `${wait / 1000} s (log: ${errorLog}).`,
+    );
+    timer = setTimeout(() => void restart(), wait);
+  }
+  async function restart() {
+    timer = null;
+    if (stopped) return;
+    restarts++;
+    const c = launch();
+    let conn: mysql.Connection | null = null;
     try {
-      admin = await connectRoot(socket, rootPassword);
+      conn = await waitUntilUp(c);
     } catch (err) {
-      if (accessDenied(err)) throw new Error(`MariaDB in ${dir} refused its root password.`);
-      if (Date.now() > deadline) {
-        child.kill('SIGKILL');
-        throw new Error(`MariaDB did not answer within 60 s (log: ${errorLog}).`);
-      }
-      await new Promise((r) => setTimeout(r, 150));
+      log(`MariaDB restart failed: ${(err as Error).message}`);
+      c.kill('SIGKILL');
+      return; // Its exit schedules the next attempt.
     }
+    if (!conn) return; // It exited (the next attempt is scheduled) or was stopped.
+    try {
+      chmodSync(socket, 0o600);
+    } finally {
+      await conn.end().catch(() => undefined);
+    }
+    if (stopped) return;
+    upSince = Date.now();
+    log(
+      `MariaDB is running again (restart ${restarts}, ${((upSince - downSince) / 1000).toFixed(1)} s after it stopped).`,
+    );
+    downSince = 0;
   }
 
   const password = readOrCreatePassword(join(dir, 'password'));
@@ -249,10 +329,13 @@ export async function startLocalMariadb(options: LocalMariadbOptions): Promise<L
   let stopping: Promise<void> | null = null;
   const stop = () => {
     stopping ??= (async () => {
+      stopped = true;
+      if (timer) clearTimeout(timer);
       rmSync(join(dir, 'url'), { force: true });
-      if (exited || child.pid === undefined) return;
-      child.kill('SIGTERM');
-      if (!(await waitForExit(child.pid, 30_000))) child.kill('SIGKILL');
+      const c = child;
+      if (exitedChildren.has(c) || c.pid === undefined) return;
+      c.kill('SIGTERM');
+      if (!(await waitForExit(c.pid, 30_000))) c.kill('SIGKILL');
     })();
     return stopping;
   };
@@ -269,7 +352,20 @@ export async function startLocalMariadb(options: LocalMariadbOptions): Promise<L
       ? `MariaDB is up on 127.0.0.1:${port} and its socket file (data in ${dir}).`
       : `MariaDB is up on its socket file, no TCP (data in ${dir}).`,
   );
-  return { url, port, dir, socket, stop };
+  supervising = options.supervise ?? true;
+  return {
+    url,
+    port,
+    dir,
+    socket,
+    stop,
+    get pid() {
+      return child.pid;
+    },
+    get restarts() {
+      return restarts;
+    },
+  };
 }
 
 /** The URL of a private server started by another process on the same data folder, if up. */

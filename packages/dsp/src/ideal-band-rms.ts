@@ -43,7 +43,10 @@ export interface IdealBandRmsOptions {
  * {@link recordSpectrum} the lines are 1/T apart, so the band edge is as sharp as the
  * record allows: a tone two lines or more inside the edge reads within 0.1 % (and within
  * about (Δf/f)² of the 1/f weight across Hann's main lobe), one two lines or more outside
- * reads under 2 % of its amplitude.
+ * reads under 2 % of its amplitude. "Two lines" is 2/T: a short record blurs the edge — at
+ * T = 0.5 s (lines 2 Hz apart) a tone on the 10 Hz edge line reads 88 % of its velocity and
+ * one at 8 Hz still 33 %, because the Hann main lobe spans the lines k − 1 … k + 1 and each
+ * is counted wholly on its own side of the edge.
  *
  * Source: Parseval / ENBW (Harris 1978); integration of a sinusoid (e.g. Randall,
  * "Vibration-based Condition Monitoring", Wiley 2011, ch. 2); ideal band edges:

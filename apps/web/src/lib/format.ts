@@ -41,9 +41,5 @@ export function formatInteger(value: number): string {
   return integer.format(value);
 }
 
-/** "10–1000 Hz" for an overall value's band; "band not recorded" for older analyses. */
-export function formatBandHz(band: readonly [number, number] | null | undefined): string {
-  if (!band) return 'band not recorded';
-  const hz = (v: number) => String(Number(v.toPrecision(5)));
-  return `${hz(band[0])}–${hz(band[1])} Hz`;
-}
+/** The band label's one home is shared with the server (API, CSV exports). */
+export { formatBandHz } from '@turnstone/contracts/band-label';

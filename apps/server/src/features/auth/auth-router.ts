@@ -36,6 +36,7 @@ function cookieOptions(ctx: AppContext, req: Request): CookieOptions {
 }
 
 export function authRoutes(ctx: AppContext): RouteSpec[] {
+  const authenticate = createAuthenticate(ctx);
   return [
     {
       method: 'post',
@@ -70,6 +71,17 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
         await service.endSessions(ctx.db, user.id);
         res.clearCookie(COOKIE_NAME, { ...cookieOptions(ctx, req), maxAge: undefined });
         res.status(204).end();
+      },
+    },
+    {
+      method: 'get',
+      path: '/auth/session',
+      access: 'public',
+      summary: 'the session, if any',
+      handler: async (req: Request, res: Response) => {
+        await authenticate(req);
+        res.setHeader('Cache-Control', 'no-store');
+        res.json({ user: req.user ? service.toMe(req.user) : null });
       },
     },
     {

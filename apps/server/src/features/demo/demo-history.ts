@@ -80,20 +80,13 @@ const ACK_NOTES: Record<string, string> = {
   'overall-velocity': 'Overall velocity in zone C; same cause as the 1× alert, work requested.',
 };
 
-export async function seedDemoHistory(
-  ctx: AppContext,
-  weeks: number,
-  say: (m: string) => void,
-  now = new Date(),
-): Promise<DemoHistoryResult> {
-  const t0 = Date.now();
-  const cpu0 = process.cpuUsage();
+/**
+ * Commissioning, done at every demo seed (with or without history): one gateway per site,
+ * its key written to DATA_DIR/demo-gateway-keys.txt for `npm run sim`, and each point's
+ * Fmax and lines set to match its capture set-up. Returns the gateway id per site code.
+ */
+export async function commissionDemoGateways(ctx: AppContext): Promise<Map<string, number>> {
   const admin = await sessionUser(ctx, 'admin@turnstone.local');
-  const operator = await sessionUser(ctx, 'operator@turnstone.local');
-  const engineer = await sessionUser(ctx, 'engineer@turnstone.local');
-  const planner = await sessionUser(ctx, 'planner@turnstone.local');
-
-  // Commissioning: one gateway per site; each point's Fmax and lines match its capture set-up.
   const siteRows = await ctx.db.select().from(sites);
   const gatewayOf = new Map<string, number>();
   const keys: string[] = [];
@@ -103,21 +96,39 @@ export async function seedDemoHistory(
     keys.push(`${s.code} ${g.apiKey}`);
   }
   try {
-    writeFileSync(join(ctx.dataDir, 'demo-gateway-keys.txt'), keys.join('\n') + '\n', {
-      mode: 0o600,
-    });
+    writeFileSync(join(ctx.dataDir, DEMO_KEYS_FILE), keys.join('\n') + '\n', { mode: 0o600 });
   } catch {
     // The keys are a convenience for `npm run sim`; an admin can rotate new ones.
   }
-  const channels = demoChannels();
   const pointRows = await ctx.db.select({ id: points.id, tag: points.tag }).from(points);
   const pointId = new Map(pointRows.map((p) => [p.tag, p.id]));
-  for (const c of channels) {
+  for (const c of demoChannels()) {
     await ctx.db
       .update(points)
       .set({ fmaxHz: c.fmaxHz, lines: c.lines })
       .where(eq(points.id, pointId.get(c.tag)!));
   }
+  return gatewayOf;
+}
+
+/** The demo gateways' keys, one `SITE key` line per site, in DATA_DIR. */
+export const DEMO_KEYS_FILE = 'demo-gateway-keys.txt';
+
+export async function seedDemoHistory(
+  ctx: AppContext,
+  weeks: number,
+  say: (m: string) => void,
+  gatewayOf: Map<string, number>,
+  now = new Date(),
+): Promise<DemoHistoryResult> {
+  const t0 = Date.now();
+  const cpu0 = process.cpuUsage();
+  const operator = await sessionUser(ctx, 'operator@turnstone.local');
+  const engineer = await sessionUser(ctx, 'engineer@turnstone.local');
+  const planner = await sessionUser(ctx, 'planner@turnstone.local');
+  const channels = demoChannels();
+  const pointRows = await ctx.db.select({ id: points.id, tag: points.tag }).from(points);
+  const pointId = new Map(pointRows.map((p) => [p.tag, p.id]));
 
   const end =
     Math.floor((now.getTime() - channels.length * POINT_STAGGER_S * 1000) / 60_000) * 60_000;

@@ -19,7 +19,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { hashPassword } from '../../lib/passwords.ts';
 import { seedDemoSubscriptions } from '../mail/mail-seed.ts';
 import { demoPlant, demoUsers } from '../../../../../seed/demo-plant.ts';
-import { seedDemoHistory } from './demo-history.ts';
+import { commissionDemoGateways, seedDemoHistory } from './demo-history.ts';
 
 export const DEMO_ACCOUNTS = demoUsers.map((u) => ({ email: u.email, role: u.role }));
 
@@ -29,11 +29,12 @@ export async function seedIfEmpty(ctx: AppContext, say: (m: string) => void): Pr
   const t0 = Date.now();
   await seedPlant(ctx);
   await seedDemoSubscriptions(ctx);
+  const gatewayOf = await commissionDemoGateways(ctx);
   say(`Seeded the demo plant in ${Date.now() - t0} ms.`);
   const weeks = ctx.config.DEMO_HISTORY_WEEKS;
   if (weeks > 0) {
     say(`Generating ${weeks} weeks of demo history through the analysis pipeline…`);
-    await seedDemoHistory(ctx, weeks, say);
+    await seedDemoHistory(ctx, weeks, say, gatewayOf);
   }
   return true;
 }

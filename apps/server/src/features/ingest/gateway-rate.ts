@@ -2,6 +2,8 @@
 export interface RateVerdict {
   headers: [string, string][];
   limited: boolean;
+  /** Whole seconds until the window resets (the 429's Retry-After). */
+  resetS: number;
 }
 
 /**
@@ -27,13 +29,12 @@ export function createGatewayRate(options: {
       windows.set(id, w);
     }
     w.hits++;
+    const resetS = Math.max(1, Math.ceil((w.resetAt - now) / 1000));
     return {
+      resetS,
       headers: [
         ['RateLimit-Policy', policy],
-        [
-          'RateLimit',
-          `limit=${limit}, remaining=${Math.max(0, limit - w.hits)}, reset=${Math.max(0, Math.ceil((w.resetAt - now) / 1000))}`,
-        ],
+        ['RateLimit', `limit=${limit}, remaining=${Math.max(0, limit - w.hits)}, reset=${resetS}`],
       ],
       limited: w.hits > limit,
     };

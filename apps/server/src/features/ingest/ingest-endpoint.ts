@@ -7,6 +7,7 @@ import { countIngest } from '../../lib/metrics.ts';
 import { errorReply } from '../../lib/error-middleware.ts';
 import { trackRequest } from '../../lib/request-log.ts';
 import { createGatewayRate } from './gateway-rate.ts';
+import { createRejectionLog } from './rejection-log.ts';
 import { authenticateGateway, ingestOne, type GatewayPrincipal } from './ingest-service.ts';
 
 /** Where gateways post snapshots; matched as Express matched it (any case, one trailing slash). */
@@ -74,6 +75,8 @@ export function ingestEndpoint(
 ): (req: IncomingMessage, res: ServerResponse) => boolean {
   const readJson = express.json({ limit: '16mb' });
   const rate = createGatewayRate({ windowMs: 60_000, limit: ctx.config.INGEST_MAX_PER_MIN });
+  const noteRejected = createRejectionLog(ctx.log);
+  const deadlineMs = ctx.config.INGEST_TIMEOUT_S * 1000;
   const bodyOf = (req: IncomingMessage, res: ServerResponse) =>
     new Promise<unknown>((resolve, reject) =>
       readJson(req as express.Request, res as express.Response, (err?: unknown) =>
@@ -81,51 +84,111 @@ export function ingestEndpoint(
       ),
     );
 
-  async function handle(req: IncomingMessage, res: ServerResponse, path: string) {
-    const requestId = trackRequest(ctx.log, req, res, () => path);
-    try {
-      const gateway = await authenticateGateway(ctx, req.headers.authorization);
-      const verdict = rate(gateway.id);
-      for (const [k, v] of verdict.headers) res.setHeader(k, v);
-      if (verdict.limited)
-        throw new AppError(
-          'rate_limited',
-          'This gateway is sending faster than its allowed rate; retry after the delay in Retry-After.',
-          429,
-          undefined,
-          { headers: { 'Retry-After': '10' } },
-        );
-      // undefined when the body is not application/json (body-parser leaves it unread).
-      const body = await bodyOf(req, res);
-      if (typeof body !== 'object' || body === null || Array.isArray(body))
+  async function answer(
+    req: IncomingMessage,
+    res: ServerResponse,
+    state: { gatewayId?: number },
+  ): Promise<{ status: number; body: unknown; code?: string }> {
+    const gateway = await authenticateGateway(ctx, req.headers.authorization);
+    state.gatewayId = gateway.id;
+    const verdict = rate(gateway.id);
+    for (const [k, v] of verdict.headers) res.setHeader(k, v);
+    if (verdict.limited)
+      throw new AppError(
+        'rate_limited',
+        'This gateway is sending faster than its allowed rate; retry after the delay in Retry-After.',
+        429,
+        undefined,
+        // The real time to the window's reset: a retry sooner would be refused again.
+        { headers: { 'Retry-After': String(verdict.resetS) } },
+      );
+    if (!isJson(req.headers['content-type']))
+      throw new AppError(
+        'unsupported_media_type',
+        'Send the body as application/json (optionally gzip, deflate or br Content-Encoding).',
+        415,
+        undefined,
+        { headers: { Accept: 'application/json' } },
+      );
+    const body = await bodyOf(req, res);
+    if (typeof body !== 'object' || body === null || Array.isArray(body))
+      throw new AppError(
+        'validation_failed',
+        'Send one snapshot object, or { "snapshots": [...] }, as application/json.',
+        400,
+      );
+    if ('snapshots' in body) {
+      const items = (body as { snapshots: unknown }).snapshots;
+      if (!Array.isArray(items) || items.length === 0 || items.length > MAX_BATCH)
         throw new AppError(
           'validation_failed',
-          'Send one snapshot object, or { "snapshots": [...] }, as application/json.',
+          `snapshots must be an array of 1 to ${MAX_BATCH} snapshots.`,
           400,
+          [{ path: 'snapshots', message: `1 to ${MAX_BATCH} items` }],
         );
-      if ('snapshots' in body) {
-        const items = (body as { snapshots: unknown }).snapshots;
-        if (!Array.isArray(items) || items.length === 0 || items.length > MAX_BATCH)
-          throw new AppError(
-            'validation_failed',
-            `snapshots must be an array of 1 to ${MAX_BATCH} snapshots.`,
-            400,
-            [{ path: 'snapshots', message: `1 to ${MAX_BATCH} items` }],
-          );
-        const results = await ingestBatch(ctx, gateway, items);
-        for (const r of results) countIngest(r.status);
-        sendJson(res, 200, { results });
-        return;
-      }
-      const r = await ingestOne(ctx, gateway, body);
-      countIngest(r.status);
-      if (r.error) sendJson(res, r.httpStatus, { error: r.error });
-      else sendJson(res, r.httpStatus, { uid: r.uid, status: r.status, snapshotId: r.snapshotId });
+      const results = await ingestBatch(ctx, gateway, items);
+      for (const r of results) countIngest(r.status);
+      return { status: 200, body: { results } };
+    }
+    const r = await ingestOne(ctx, gateway, body);
+    countIngest(r.status);
+    if (r.error) return { status: r.httpStatus, body: { error: r.error }, code: r.error.code };
+    const { httpStatus: _status, ...result } = r;
+    return { status: r.httpStatus, body: result };
+  }
+
+  async function handle(req: IncomingMessage, res: ServerResponse, path: string) {
+    const requestId = trackRequest(ctx.log, req, res, () => path);
+    const state: { gatewayId?: number } = {};
+    let timer: NodeJS.Timeout | undefined;
+    try {
+      // A database that is frozen (not down: no error ever comes back) would hold the
+      // gateway's request open for ever; past the deadline it gets the outage's 503.
+      const deadline = new Promise<never>((_, reject) => {
+        timer = setTimeout(
+          () =>
+            reject(
+              Object.assign(new Error('the database did not answer within INGEST_TIMEOUT_S'), {
+                code: 'PROTOCOL_SEQUENCE_TIMEOUT',
+              }),
+            ),
+          deadlineMs,
+        );
+      });
+      const a = await Promise.race([answer(req, res, state), deadline]);
+      if (res.headersSent) return;
+      sendJson(res, a.status, a.body);
+      if (a.code)
+        noteRejected({
+          status: a.status,
+          code: a.code,
+          gatewayId: state.gatewayId,
+          client: req.socket.remoteAddress ?? '?',
+          path,
+          requestId,
+        });
     } catch (err) {
       if (res.headersSent) return;
       countIngest('rejected');
       const reply = errorReply(err, ctx.log, { requestId, path });
+      if (reply.status === 401)
+        // RFC 6750 §3: a 401 names the scheme (and, for a bad key, the error).
+        reply.headers['WWW-Authenticate'] =
+          reply.body.error.code === 'unauthenticated'
+            ? 'Bearer realm="turnstone-ingest"'
+            : `Bearer realm="turnstone-ingest", error="invalid_token", error_description="${reply.body.error.message}"`;
       sendJson(res, reply.status, reply.body, reply.headers);
+      noteRejected({
+        status: reply.status,
+        code: reply.body.error.code,
+        gatewayId: state.gatewayId,
+        client: req.socket.remoteAddress ?? '?',
+        path,
+        requestId,
+        message: reply.body.error.message,
+      });
+    } finally {
+      clearTimeout(timer);
     }
   }
 
@@ -139,4 +202,11 @@ export function ingestEndpoint(
     void handle(req, res, path);
     return true;
   };
+}
+
+/** `application/json`, with or without parameters (charset); what body-parser reads. */
+function isJson(contentType: string | undefined): boolean {
+  if (!contentType) return false;
+  const type = contentType.split(';', 1)[0]!.trim().toLowerCase();
+  return type === 'application/json';
 }

@@ -77,7 +77,15 @@ const INSERT_WITH_JOB = [
  * statement stops the batch with the transaction still open, so it is rolled back on the
  * same connection before the connection goes back to the pool (destroyed if that fails).
  */
-export function insertSnapshotWithJob(handle: DbHandle, row: SnapshotRow): Promise<number> {
+export function insertSnapshotWithJob(
+  handle: DbHandle,
+  row: SnapshotRow,
+  /**
+   * A frozen server never answers: past this the driver closes the connection (the server
+   * then rolls back whatever did not commit) and the caller gets PROTOCOL_SEQUENCE_TIMEOUT.
+   */
+  timeoutMs?: number,
+): Promise<number> {
   const values = INSERT_KEYS.map((k) => {
     const v = row[k];
     // As Drizzle does: null stays NULL, anything else is mapped by its column type.
@@ -86,10 +94,15 @@ export function insertSnapshotWithJob(handle: DbHandle, row: SnapshotRow): Promi
   return new Promise((resolve, reject) => {
     handle.batchPool.getConnection((connErr, conn) => {
       if (connErr) return reject(connErr);
-      conn.query(INSERT_WITH_JOB, values, (err, results) => {
+      conn.query({ sql: INSERT_WITH_JOB, values, timeout: timeoutMs }, (err, results) => {
         if (!err) {
           conn.release();
           return resolve(Number((results as ResultSetHeader[])[1]!.insertId));
+        }
+        // A timed-out query has closed its connection already (fatal): nothing to roll back.
+        if ((err as { fatal?: boolean }).fatal) {
+          conn.destroy();
+          return reject(err);
         }
         conn.query('ROLLBACK', (rollbackErr) => {
           if (rollbackErr) conn.destroy();

@@ -11,6 +11,7 @@ import {
   MAX_SAMPLES,
   MIN_SAMPLES,
   sampleValuesSchema,
+  SNAPSHOT_FIELDS,
   snapshotInSchema,
   type SnapshotIn,
   type Encoding,
@@ -139,27 +140,31 @@ export async function storeSnapshot(
   // the unique index says the uid is taken (a repeat, or two deliveries racing).
   const stored = await samplesForStorage(s.bytes);
   try {
-    const snapshotId = await repo.insertSnapshotWithJob(ctx.dbHandle, {
-      uid: s.uid,
-      pointId: s.pointId,
-      gatewayId: s.gatewayId,
-      source: s.source,
-      takenAt: s.takenAt,
-      sampleRateHz: s.sampleRateHz,
-      sampleCount: s.bytes.length / bytesPerSample[s.encoding],
-      encoding: s.encoding,
-      adcBits: s.adcBits,
-      fullScaleV: s.fullScaleV,
-      sensitivityMvPerG: s.sensitivityMvPerG,
-      speedRpm: s.speedRpm,
-      tach: s.tach,
-      samples: stored.samples,
-      samplesCodec: stored.samplesCodec,
-      contentHash: hash,
-      status: 'queued',
-      uploadedBy: s.uploadedBy ?? null,
-      fileName: s.fileName ?? null,
-    });
+    const snapshotId = await repo.insertSnapshotWithJob(
+      ctx.dbHandle,
+      {
+        uid: s.uid,
+        pointId: s.pointId,
+        gatewayId: s.gatewayId,
+        source: s.source,
+        takenAt: s.takenAt,
+        sampleRateHz: s.sampleRateHz,
+        sampleCount: s.bytes.length / bytesPerSample[s.encoding],
+        encoding: s.encoding,
+        adcBits: s.adcBits,
+        fullScaleV: s.fullScaleV,
+        sensitivityMvPerG: s.sensitivityMvPerG,
+        speedRpm: s.speedRpm,
+        tach: s.tach,
+        samples: stored.samples,
+        samplesCodec: stored.samplesCodec,
+        contentHash: hash,
+        status: 'queued',
+        uploadedBy: s.uploadedBy ?? null,
+        fileName: s.fileName ?? null,
+      },
+      ctx.config.INGEST_TIMEOUT_S * 1000,
+    );
     return { status: 'created', snapshotId };
   } catch (err) {
     // A repeat (or two deliveries of one uid racing): compare with the stored content.
@@ -301,11 +306,13 @@ export async function ingestOne(
         message: `A different snapshot with uid "${s.uid}" is already stored.`,
       },
     };
+  const ignoredFields = Object.keys(raw as object).filter((k) => !SNAPSHOT_FIELDS.has(k));
   return {
     uid: s.uid,
     status: r.status,
     httpStatus: r.status === 'created' ? 201 : 200,
     snapshotId: r.snapshotId,
+    ...(ignoredFields.length > 0 ? { ignoredFields: ignoredFields.slice(0, 50) } : {}),
   };
 }
 

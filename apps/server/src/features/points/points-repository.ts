@@ -170,6 +170,26 @@ export async function bandTrend(
   return rows;
 }
 
+/** The overall-value bands (isoBandHz, accelBandHz) recorded in analyses' summaries. */
+export async function analysisBandsOf(
+  db: Db,
+  ids: readonly number[],
+): Promise<Map<number, { isoBandHz: unknown; accelBandHz: unknown }>> {
+  const out = new Map<number, { isoBandHz: unknown; accelBandHz: unknown }>();
+  const unique = [...new Set(ids)];
+  for (let i = 0; i < unique.length; i += 1000) {
+    const rows = await db
+      .select({ id: analyses.id, summary: analyses.summary })
+      .from(analyses)
+      .where(inArray(analyses.id, unique.slice(i, i + 1000)));
+    for (const r of rows) {
+      const summary = (r.summary ?? {}) as { isoBandHz?: unknown; accelBandHz?: unknown };
+      out.set(r.id, { isoBandHz: summary.isoBandHz, accelBandHz: summary.accelBandHz });
+    }
+  }
+  return out;
+}
+
 export async function alertEventsOf(
   db: Db,
   pointId: number,

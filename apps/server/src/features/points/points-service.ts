@@ -27,6 +27,7 @@ import type {
   Waveform,
 } from '@turnstone/contracts/points';
 import type { TrendResponse } from '@turnstone/contracts/trend';
+import { bandHzOf } from '@turnstone/contracts/band-label';
 import type { NodeStatus } from '@turnstone/contracts/fleet';
 import type { Db } from '@turnstone/db/client';
 import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
@@ -50,11 +51,7 @@ export const SPARK_POINTS = 50;
 const iso = (d: Date) => d.toISOString();
 
 /** A [lo, hi] band in Hz from a stored summary field, or null (analyses stored before it). */
-function bandHz(v: unknown): [number, number] | null {
-  return Array.isArray(v) && v.length === 2 && v.every((x) => typeof x === 'number')
-    ? [v[0] as number, v[1] as number]
-    : null;
-}
+const bandHz = bandHzOf;
 
 function summaryOf(r: repo.AnalysisSummaryRow): AnalysisSummary {
   return {
@@ -634,9 +631,33 @@ export async function trendCsv(
   const { from, to } = period(q, now);
   const rows = await repo.bandTrend(ctx.db, pointId, band.key, from, to);
   const unit = band.unit === 'um' ? 'um' : band.unit.replace('/', '_per_');
-  const lines = [`taken_at_utc,${band.key}_${unit},quality`];
-  for (const r of rows)
-    lines.push(`${new Date(Number(r.t)).toISOString()},${r.value},${r.quality}`);
+  // an overall value's band, per row (it follows each capture's speed and sample rate)
+  const own =
+    band.kind === 'overall' && band.fromHz !== undefined && band.toHz !== undefined
+      ? ([band.fromHz, band.toHz] as [number, number])
+      : null;
+  const bands =
+    band.kind === 'overall' && own === null && band.spectrum !== 'envelope'
+      ? await repo.analysisBandsOf(
+          ctx.db,
+          rows.map((r) => r.analysisId),
+        )
+      : null;
+  const bandOf = (analysisId: number) => {
+    if (own !== null) return own;
+    const b = bands?.get(analysisId);
+    if (b === undefined) return null;
+    return bandHzOf(band.spectrum === 'acceleration' ? b.accelBandHz : b.isoBandHz);
+  };
+  const overall = band.kind === 'overall';
+  const lines = [
+    `taken_at_utc,${band.key}_${unit},quality${overall ? ',band_from_hz,band_to_hz' : ''}`,
+  ];
+  for (const r of rows) {
+    const hz = overall ? bandOf(r.analysisId) : null;
+    const tail = overall ? `,${hz?.[0] ?? ''},${hz?.[1] ?? ''}` : '';
+    lines.push(`${new Date(Number(r.t)).toISOString()},${r.value},${r.quality}${tail}`);
+  }
   const safeTag = point.tag.replace(/[^A-Za-z0-9._-]+/g, '_');
   return {
     fileName: `${safeTag}_${band.key}_${iso(from).slice(0, 10)}_${iso(to).slice(0, 10)}.csv`,

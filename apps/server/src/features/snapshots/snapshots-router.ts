@@ -1,3 +1,4 @@
+import { bandHzOf } from '@turnstone/contracts/band-label';
 import { eq } from 'drizzle-orm';
 import { analyses, snapshots } from '@turnstone/db/schema';
 import type { AppContext } from '../../lib/context.ts';
@@ -47,14 +48,25 @@ export function snapshotRoutes(ctx: AppContext): RouteSpec[] {
             speedRpm: analyses.speedRpm,
             speedSource: analyses.speedSource,
             isoZone: analyses.isoZone,
+            summary: analyses.summary,
           })
           .from(analyses)
           .where(eq(analyses.snapshotId, id));
+        let analysis = null;
+        if (a) {
+          const { summary, ...rest } = a;
+          const bands = (summary ?? {}) as { isoBandHz?: unknown; accelBandHz?: unknown };
+          analysis = {
+            ...rest,
+            accelBandHz: bandHzOf(bands.accelBandHz),
+            velocityBandHz: bandHzOf(bands.isoBandHz),
+          };
+        }
         res.json({
           ...s,
           takenAt: s.takenAt.toISOString(),
           receivedAt: s.receivedAt.toISOString(),
-          analysis: a ?? null,
+          analysis,
         });
       },
     },

@@ -230,3 +230,59 @@ export async function requestPasswordReset(ctx: AppContext, email: string) {
 /** Sets a new password from a reset link; every session of the user ends. */
 export const resetPassword = (ctx: AppContext, token: string, password: string) =>
   setPasswordFromLink(ctx, token, password, 'reset');
+
+/**
+ * An administrator created from the command line (`npm run admin -- create`), the way into
+ * an install without demo accounts; or, with `resetIfExists`, a new password for an existing
+ * administrator who is locked out. Audited with no acting user (the machine's operator).
+ */
+export async function createAdministrator(
+  db: Db,
+  input: { email: string; name: string; password: string; resetIfExists?: boolean },
+): Promise<{ id: number; created: boolean }> {
+  const passwordHash = await hashPassword(input.password);
+  return db.transaction(async (tx) => {
+    const [existing] = await tx
+      .select({ id: users.id, role: users.role })
+      .from(users)
+      .where(eq(users.email, input.email))
+      .for('update');
+    if (existing) {
+      if (!input.resetIfExists)
+        throw new AppError('email_taken', `A user with the e-mail ${input.email} exists.`, 409);
+      if (existing.role !== 'admin')
+        throw new AppError(
+          'not_admin',
+          `${input.email} is not an administrator; change roles on the Users screen.`,
+          409,
+        );
+      await tx
+        .update(users)
+        .set({
+          passwordHash,
+          disabledAt: null,
+          tokenVersion: sql`${users.tokenVersion} + 1`,
+        })
+        .where(eq(users.id, existing.id));
+      await writeAudit(tx, {
+        actorUserId: null,
+        action: 'user.password_set_by_cli',
+        entity: 'user',
+        entityId: existing.id,
+      });
+      return { id: existing.id, created: false };
+    }
+    const [row] = await tx
+      .insert(users)
+      .values({ email: input.email, name: input.name, role: 'admin', passwordHash })
+      .$returningId();
+    await writeAudit(tx, {
+      actorUserId: null,
+      action: 'user.create_by_cli',
+      entity: 'user',
+      entityId: row!.id,
+      after: { email: input.email, name: input.name, role: 'admin' },
+    });
+    return { id: row!.id, created: true };
+  });
+}

@@ -1,15 +1,15 @@
-import { meSchema, type Me } from '@turnstone/contracts/auth';
+import { sessionResponseSchema, type Me } from '@turnstone/contracts/auth';
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api, isApiError } from '../../../lib/api-client.ts';
+import { api } from '../../../lib/api-client.ts';
 
-/** The signed-in user, or `null` when there is no session (401). */
+/**
+ * The signed-in user, or `null` when there is no session. Asked of `/auth/session`, which
+ * answers 200 either way: a 401 here would be logged by the browser as an error on every
+ * visit to the sign-in page.
+ */
 export async function getMe({ signal }: { signal?: AbortSignal } = {}): Promise<Me | null> {
-  try {
-    return await api.get('/api/v1/me', { schema: meSchema, signal, quiet401: true });
-  } catch (error) {
-    if (isApiError(error) && error.status === 401) return null;
-    throw error;
-  }
+  const session = await api.get('/api/v1/auth/session', { schema: sessionResponseSchema, signal });
+  return session.user;
 }
 
 export function getMeQueryOptions() {

@@ -1,11 +1,11 @@
 import type { AnalysisSummary } from '@turnstone/contracts/points';
 import { Field, Select } from '../../../components/ui/field.tsx';
-import { formatDateTime } from '../../../lib/format.ts';
+import { formatBandHz, formatDateTime } from '../../../lib/format.ts';
 
 const verdictText = { ok: 'OK', suspect: 'suspect', unusable: 'unusable' } as const;
 
 export function snapshotLabel(a: AnalysisSummary): string {
-  return `${formatDateTime(a.takenAt)} · ${a.overall.velocityRmsMmS.toFixed(2)} mm/s · ${verdictText[a.verdict]}`;
+  return `${formatDateTime(a.takenAt)} · ${a.overall.velocityRmsMmS.toFixed(2)} mm/s (${formatBandHz(a.overall.velocityBandHz)}) · ${verdictText[a.verdict]}`;
 }
 
 /** Picks one capture of the point from its analyses list (newest first). */

@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 import { Spinner } from '../../../components/ui/spinner.tsx';
 import { paths } from '../../../config/paths.ts';
+import { formatBandHz } from '../../../lib/format.ts';
 import { useSnapshot } from '../api/get-snapshot.ts';
 import { VerdictMark } from './verdict-mark.tsx';
 
@@ -71,10 +72,12 @@ function Result({ item }: { item: UploadItem }) {
         <span>
           <span className="text-ink-muted">accel </span>
           <span className="font-mono">{a.accelRmsG.toFixed(3)} g RMS</span>
+          <span className="text-ink-muted"> ({formatBandHz(a.accelBandHz)})</span>
         </span>
         <span>
           <span className="text-ink-muted">velocity </span>
           <span className="font-mono">{a.velocityRmsMmS.toFixed(2)} mm/s RMS</span>
+          <span className="text-ink-muted"> ({formatBandHz(a.velocityBandHz)})</span>
         </span>
         {a.speedRpm !== null && (
           <span>

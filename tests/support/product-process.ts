@@ -1,0 +1,43 @@
+/** The product (or a worker) as a separate process, for fault tests that kill things. */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { join } from 'node:path';
+
+const tsx = join(process.cwd(), 'node_modules', 'tsx', 'dist', 'cli.mjs');
+
+export function spawnNode(script: string, env: Record<string, string>): ChildProcess {
+  return spawn(process.execPath, [tsx, script], {
+    env: { ...process.env, ...env },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+}
+export function waitForOutput(
+  child: ChildProcess,
+  pattern: RegExp,
+  ms = 60_000,
+): Promise<RegExpMatchArray> {
+  return new Promise((resolve, reject) => {
+    let buf = '';
+    const timer = setTimeout(
+      () => reject(new Error(`no ${pattern} within ${ms} ms; got: ${buf.slice(-1000)}`)),
+      ms,
+    );
+    const on = (d: Buffer) => {
+      buf += d.toString();
+      const m = buf.match(pattern);
+      if (m) {
+        clearTimeout(timer);
+        resolve(m);
+      }
+    };
+    child.stdout!.on('data', on);
+    child.stderr!.on('data', on);
+    child.once('exit', (code) => {
+      clearTimeout(timer);
+      reject(new Error(`exited (${code}) before ${pattern}: ${buf.slice(-1000)}`));
+    });
+  });
+}
+export const exited = (child: ChildProcess) =>
+  new Promise<void>((r) =>
+    child.exitCode !== null || child.signalCode !== null ? r() : child.once('exit', () => r()),
+  );
