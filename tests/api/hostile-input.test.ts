@@ -241,6 +241,48 @@ function corpus(): BadRequest[] {
       auth: 'admin',
     });
   }
+  // Control characters in one-line fields: a line break in a name would forge a line of
+  // its own in a plain-text alert e-mail (Unicode §5.8 line ends, ISO/IEC 6429 controls).
+  const CONTROL_STRINGS = [
+    'Pump 7\r\nBcc: someone@example.org',
+    'Pump 7\nSubject: forged',
+    'tab\there',
+    'bell\u0007',
+    'next line\u0085x',
+    'line separator\u2028x',
+    'escape\u001b[31m',
+  ];
+  for (const s of CONTROL_STRINGS) {
+    const what = JSON.stringify(s).slice(1, 24);
+    list.push({
+      name: `gateway name with control character ${what}`,
+      method: 'POST',
+      path: '/api/v1/gateways',
+      body: { siteId: 1, name: s },
+      auth: 'admin',
+    });
+    list.push({
+      name: `area name with control character ${what}`,
+      method: 'POST',
+      path: '/api/v1/areas',
+      body: { siteId: 1, name: s },
+      auth: 'admin',
+    });
+    list.push({
+      name: `invited user name with control character ${what}`,
+      method: 'POST',
+      path: '/api/v1/users/invite',
+      body: { email: 'new.person@example.org', name: s, role: 'operator', siteIds: [1] },
+      auth: 'admin',
+    });
+    list.push({
+      name: `finding title with control character ${what}`,
+      method: 'POST',
+      path: '/api/v1/findings',
+      body: { pointId: 1, title: s },
+      auth: 'admin',
+    });
+  }
   // Batches.
   list.push(ingest('empty batch', { body: { snapshots: [] } }));
   list.push(

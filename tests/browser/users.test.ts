@@ -34,10 +34,18 @@ describe('users admin in a real browser', () => {
     await page.getByRole('navigation').first().getByRole('link', { name: 'Mailbox' }).click();
     await page.getByRole('button', { name: /You are invited to Turnstone/ }).click();
     await page.getByRole('button', { name: 'Text' }).click();
-    const link = page.getByRole('link', { name: /accept-invite#token=/ });
-    const href = (await link.getAttribute('href'))!;
-    expect(href.startsWith(`${srv.url}/accept-invite#token=`)).toBe(true);
+    // The admin sees that the link went out, not a working link to someone else's account.
+    await page.getByRole('link', { name: /accept-invite#token=hidden/ }).waitFor();
     await screenshot(page, 'mailbox-invite');
+    // The invitee's copy, as the relay received it.
+    const [received] = await srv.ctx.dbHandle.pool.query(
+      'SELECT text_body FROM mail_messages WHERE mail_to = ? ORDER BY id DESC LIMIT 1',
+      ['rowan@example.test'],
+    );
+    const text = String((received as { text_body: string }[])[0]!.text_body);
+    const href = /(http\S+\/accept-invite#token=[A-Za-z0-9_-]+)/.exec(text)![1]!;
+    expect(href.startsWith(`${srv.url}/accept-invite#token=`)).toBe(true);
+    expect(href).not.toContain('token=hidden');
 
     // The invitee, in a browser of their own.
     const invitee = await newPage(browser);

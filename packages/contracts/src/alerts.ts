@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { currentDiagnosisSchema } from './points.ts';
+import { freeText } from './text.ts';
 
 /** Alerts of the limit evaluation: level, lifecycle, and the Alerts screen's requests. */
 
@@ -69,11 +70,13 @@ export const alertDetailSchema = alertSchema.extend({
 });
 export type AlertDetail = z.infer<typeof alertDetailSchema>;
 
-export const acknowledgeNoteSchema = z
-  .string()
-  .trim()
-  .min(2, 'Write a short note (what you saw or did).')
-  .max(1000, 'Keep the note under 1000 characters.');
+export const acknowledgeNoteSchema = freeText(
+  z
+    .string()
+    .trim()
+    .min(2, 'Write a short note (what you saw or did).')
+    .max(1000, 'Keep the note under 1000 characters.'),
+);
 
 /** `POST /api/v1/alerts/:id/acknowledge` */
 export const acknowledgeRequestSchema = z.object({ note: acknowledgeNoteSchema });

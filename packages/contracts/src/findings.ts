@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { freeText, oneLine } from './text.ts';
 
 /**
  * Findings: the planner's follow-ups on a point (from a trend, a forecast, an alert or a
@@ -29,12 +30,10 @@ export const workOrderRefSchema = z
   .max(64, 'At most 64 characters')
   .regex(/^[\w./#-]*$/, 'Letters, digits and - _ . / # only');
 
-const titleSchema = z
-  .string()
-  .trim()
-  .min(1, 'Give the finding a title')
-  .max(200, 'At most 200 characters');
-const noteSchema = z.string().trim().max(2000, 'At most 2000 characters');
+const titleSchema = oneLine(
+  z.string().trim().min(1, 'Give the finding a title').max(200, 'At most 200 characters'),
+);
+const noteSchema = freeText(z.string().trim().max(2000, 'At most 2000 characters'));
 
 /** `POST /api/v1/findings` */
 export const createFindingSchema = z.object({

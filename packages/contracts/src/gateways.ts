@@ -1,8 +1,11 @@
 import { z } from 'zod';
+import { oneLine } from './text.ts';
 
 export const createGatewaySchema = z.object({
   siteId: z.number({ error: 'Choose a site.' }).int().positive('Choose a site.'),
-  name: z.string().trim().min(1, 'Name is required.').max(200, 'Name is at most 200 characters.'),
+  name: oneLine(
+    z.string().trim().min(1, 'Name is required.').max(200, 'Name is at most 200 characters.'),
+  ),
 });
 export type CreateGatewayInput = z.infer<typeof createGatewaySchema>;
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { freeText, oneLine } from './text.ts';
 
 /**
  * Limit sets: the bands of a point (or of a machine-type template) as
@@ -57,7 +58,7 @@ const bandCommon = {
     .min(1, 'Give the band a key.')
     .max(64)
     .regex(/^[a-z0-9][a-z0-9-]*$/, 'Use lower-case letters, digits and dashes.'),
-  name: z.string().trim().min(1, 'Give the band a name.').max(200),
+  name: oneLine(z.string().trim().min(1, 'Give the band a name.').max(200)),
   spectrum: bandSpectrumSchema,
   measure: bandMeasureSchema,
   unit: bandUnitSchema,
@@ -69,7 +70,7 @@ const bandCommon = {
   clearAfterHours: finite.min(0).max(8760).optional(),
   hysteresis: finite.gt(0).max(1).optional(),
   statistical: statisticalRuleSchema.optional(),
-  levelSource: z.string().max(200).optional(),
+  levelSource: oneLine(z.string().max(200)).optional(),
 };
 
 export const bandDefinitionSchema = z.discriminatedUnion('kind', [
@@ -98,7 +99,7 @@ export const bandDefinitionSchema = z.discriminatedUnion('kind', [
     halfWidth: finite.positive(),
     halfWidthUnit: halfWidthUnitSchema,
     harmonics: z.number().int().min(1).max(20).optional(),
-    component: z.string().max(100).optional(),
+    component: oneLine(z.string().max(100)).optional(),
   }),
 ]);
 export type BandDefinitionInput = z.infer<typeof bandDefinitionSchema>;
@@ -133,7 +134,9 @@ export type LimitSetResponse = z.infer<typeof limitSetResponseSchema>;
 /** `PUT /api/v1/points/:id/limits` (engineer): the whole set and why. */
 export const saveLimitSetRequestSchema = z.object({
   bands: bandList,
-  reason: z.string().trim().min(3, 'Say why the limits change (at least 3 characters).').max(1000),
+  reason: freeText(
+    z.string().trim().min(3, 'Say why the limits change (at least 3 characters).').max(1000),
+  ),
 });
 export type SaveLimitSetRequest = z.infer<typeof saveLimitSetRequestSchema>;
 

@@ -3,6 +3,7 @@
  * The same schemas validate the server's input and the web forms.
  */
 import { z } from 'zod';
+import { freeText, oneLine } from './text.ts';
 import {
   criticalitySchema,
   directionSchema,
@@ -30,11 +31,13 @@ export function isIanaTimeZone(zone: string): boolean {
 }
 
 const text = (max: number, label = 'This field') =>
-  z
-    .string()
-    .trim()
-    .min(1, `${label} is required.`)
-    .max(max, `${label} is at most ${max} characters.`);
+  oneLine(
+    z
+      .string()
+      .trim()
+      .min(1, `${label} is required.`)
+      .max(max, `${label} is at most ${max} characters.`),
+  );
 
 /** A number from a form field or JSON; empty input reads as "missing". */
 const num = (min: number, max: number, what: string) =>
@@ -76,7 +79,7 @@ export const bearingInputSchema = z
     /** Present for a bearing that already exists: it keeps its id, and points stay linked. */
     id: z.number().int().positive().optional(),
     name: text(100, 'Position'),
-    designation: z.string().trim().max(64).nullish(),
+    designation: oneLine(z.string().trim().max(64)).nullish(),
     rollingElements: int(3, 200, 'Rolling elements'),
     ballDiameterMm: num(0.1, 1000, 'Ball diameter'),
     pitchDiameterMm: num(1, 5000, 'Pitch diameter'),
@@ -111,7 +114,7 @@ export const machineInputSchema = z.object({
   powerKw: num(0.01, 1_000_000, 'Power').nullable(),
   bladeCount: int(1, 500, 'Blade count').nullable(),
   vaneCount: int(1, 500, 'Vane count').nullable(),
-  notes: z.string().max(2000).nullish(),
+  notes: freeText(z.string().max(2000)).nullish(),
   /** The whole list: bearings left out are removed (points on them lose the link). */
   bearings: z.array(bearingInputSchema).max(50),
   gears: z.array(gearInputSchema).max(50),

@@ -1,9 +1,10 @@
 import { z } from 'zod';
+import { oneLine } from './text.ts';
 import { roleSchema } from './roles.ts';
 import { passwordSchema } from './auth.ts';
 
 const email = z.string().trim().toLowerCase().email('Enter a valid e-mail address.').max(254);
-const name = z.string().trim().min(1, 'Enter a name.').max(200, 'At most 200 characters.');
+const name = oneLine(z.string().trim().min(1, 'Enter a name.').max(200, 'At most 200 characters.'));
 const siteIds = z.array(z.number().int().positive()).max(500);
 
 export const userSummarySchema = z.object({

@@ -6,6 +6,7 @@
 import { and, asc, desc, eq, gt, inArray, isNull, lte, ne, or, sql } from 'drizzle-orm';
 import type { Db, Tx } from '@turnstone/db/client';
 import { mailMessages, outbox, settings } from '@turnstone/db/schema';
+import { LINK_TOKEN_KINDS, TOKEN_IN_LINK_SQL } from './mail-links.ts';
 
 export type OutboxRow = typeof outbox.$inferSelect;
 
@@ -90,7 +91,18 @@ export async function markSendingStarted(db: Db, id: number, owner: string): Pro
   return res.affectedRows === 1;
 }
 
+/**
+ * Marks a message sent. The outbox keeps what a re-send would need, and a sent message is
+ * never sent again: so the single-use link of an invite or reset is masked once it is out
+ * (a failed or uncertain one keeps it until an administrator sends it again).
+ */
 export async function markSent(db: Db, id: number, sentAt?: Date): Promise<void> {
+  const kinds = sql.join(
+    LINK_TOKEN_KINDS.map((k) => sql`${k}`),
+    sql`, `,
+  );
+  const masked = (column: typeof outbox.textBody | typeof outbox.htmlBody) =>
+    sql`CASE WHEN ${outbox.kind} IN (${kinds}) THEN REGEXP_REPLACE(${column}, ${TOKEN_IN_LINK_SQL}, ${'\\1hidden'}) ELSE ${column} END`;
   await db
     .update(outbox)
     .set({
@@ -98,6 +110,8 @@ export async function markSent(db: Db, id: number, sentAt?: Date): Promise<void>
       outcome: 'sent',
       leaseOwner: null,
       leaseExpiresAt: null,
+      textBody: masked(outbox.textBody),
+      htmlBody: masked(outbox.htmlBody),
     })
     .where(and(eq(outbox.id, id), isNull(outbox.sentAt)));
 }

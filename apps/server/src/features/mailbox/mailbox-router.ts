@@ -1,5 +1,5 @@
 import type { AppContext } from '../../lib/context.ts';
-import type { RouteSpec } from '../../lib/route-table.ts';
+import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './mailbox-service.ts';
 import { idParam } from '../../lib/route-params.ts';
 
@@ -19,7 +19,7 @@ export function mailboxRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'read one received message',
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        res.json(await service.readMessage(ctx.db, id));
+        res.json(await service.readMessage(ctx.db, id, requireUser(req)));
       },
     },
     {

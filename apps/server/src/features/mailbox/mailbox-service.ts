@@ -8,6 +8,7 @@ import { AppError, notFound } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import { listUndelivered, requeueUndelivered, type OutboxRow } from '../mail/outbox-repository.ts';
+import { maskLinkTokens } from '../mail/mail-links.ts';
 
 export async function listMailbox(db: Db, limit = 200) {
   const rows = await db
@@ -70,9 +71,28 @@ export function sanitizeHtml(html: string): string {
   });
 }
 
-export async function readMessage(db: Db, id: number): Promise<MailboxMessage> {
-  const [m] = await db.select().from(mailMessages).where(eq(mailMessages.id, id)).limit(1);
-  if (!m) throw notFound('Message');
+/**
+ * One received message. A sign-in link (invite, password reset) in mail to someone else is
+ * shown with its token hidden: the administrator sees that it was sent, not a working link
+ * to another person's account.
+ */
+export async function readMessage(
+  db: Db,
+  id: number,
+  viewer: Pick<SessionUser, 'email'>,
+): Promise<MailboxMessage> {
+  const [found] = await db.select().from(mailMessages).where(eq(mailMessages.id, id)).limit(1);
+  if (!found) throw notFound('Message');
+  const own = found.mailTo
+    .split(',')
+    .every((to) => to.trim().toLowerCase() === viewer.email.toLowerCase());
+  const m = own
+    ? found
+    : {
+        ...found,
+        textBody: maskLinkTokens(found.textBody),
+        htmlBody: maskLinkTokens(found.htmlBody),
+      };
   return {
     id: m.id,
     to: m.mailTo,
