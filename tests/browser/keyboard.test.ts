@@ -205,6 +205,13 @@ describe('keyboard only', () => {
     expect(await focused(page)).toMatchObject({ text: 'Orders', state: 'true' });
     await page.getByRole('img', { name: /against order/ }).waitFor();
     await screenshot(page, 'keyboard-spectrum-velocity-orders');
+    // Zoom without a pointer: the middle half, then a step right.
+    await tabTo(page, (f) => f.text === 'Zoom in', 'Zoom in');
+    await page.keyboard.press('Enter');
+    await page.getByText('Showing 25 %–75 % of the range').waitFor();
+    await tabTo(page, (f) => f.name === 'Move right', 'Move right');
+    await page.keyboard.press('Enter');
+    await page.getByText('Showing 50 %–100 % of the range').waitFor();
     await tabTo(page, (f) => f.role === 'tab', 'the view tabs', { back: true });
     expect((await focused(page)).text).toBe('Spectrum');
     await page.keyboard.press('End');

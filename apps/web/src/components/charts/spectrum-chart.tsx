@@ -14,6 +14,7 @@ import {
 } from './chart-theme.ts';
 import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
+import { ZoomKeys } from './zoom-keys.tsx';
 
 export interface SpectrumTrace {
   /** Legend and tooltip name, e.g. the capture time. */
@@ -230,7 +231,7 @@ export function SpectrumChart(props: SpectrumChartProps) {
       }),
     [traces, axis, yName, unit, markers, cursor, highlights],
   );
-  const { ref } = useEChart(option, (chart) => {
+  const { ref, chartRef } = useEChart(option, (chart) => {
     const zr = chart.getZr();
     const onClick = (e: { offsetX: number; offsetY: number }) => {
       if (!chart.containPixel({ gridIndex: 0 }, [e.offsetX, e.offsetY])) return;
@@ -251,6 +252,9 @@ export function SpectrumChart(props: SpectrumChartProps) {
         style={{ height: props.height ?? 360 }}
       />
       {shown.length > 0 && <MarkerKey markers={shown} unit={axis === 'hz' ? 'Hz' : 'order'} />}
+      <div className="mt-2 px-2">
+        <ZoomKeys chartRef={chartRef} label="spectrum" />
+      </div>
     </div>
   );
 }

@@ -18,6 +18,7 @@ import {
 } from './chart-theme.ts';
 import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
+import { ZoomKeys } from './zoom-keys.tsx';
 
 /** A time as epoch milliseconds or an ISO 8601 string. */
 export type ChartTime = number | string;
@@ -413,7 +414,7 @@ export function TrendChart(props: TrendChartProps) {
     [points, unit, name, limits, baseline, events, projection, markerSeries, now, range, zoom],
   );
   const { onPointClick } = props;
-  const { ref } = useEChart(option, (chart) => {
+  const { ref, chartRef } = useEChart(option, (chart) => {
     if (!onPointClick) return;
     chart.on('click', (params) => {
       if (params.seriesIndex === 0 && typeof params.dataIndex === 'number')
@@ -429,6 +430,11 @@ export function TrendChart(props: TrendChartProps) {
         className="w-full"
         style={{ height: props.height ?? 320 }}
       />
+      {zoom && (
+        <div className="mb-1 px-2">
+          <ZoomKeys chartRef={chartRef} label="trend" />
+        </div>
+      )}
       <TrendValues points={points} unit={unit} name={name ?? 'Values'} />
     </div>
   );
