@@ -106,6 +106,17 @@ describe('diagnosis hints stored with the analysis', () => {
     const alert = alertDetailSchema.parse(await (await get(`/alerts/${Number(a!.id)}`)).json());
     expect(alert.currentDiagnosis!.analysisId).toBe(latest!.id);
     expect(alert.currentDiagnosis!.diagnosis.hints[0]!.code).toBe('unbalance');
+
+    // The alert mail names the top hint with its evidence and keeps the safety caution.
+    const [mail] = await q(
+      "SELECT text_body FROM outbox WHERE kind = 'alert-raised' AND subject LIKE ? AND subject LIKE '%Overall%'",
+      [`%${TAG}%`],
+    );
+    const text = String(mail!.text_body);
+    expect(text).toContain('Likely cause (hint)');
+    expect(text).toMatch(/Unbalance: 1× dominant/);
+    expect(text).toMatch(/Evidence: +1× 2\d\.\d Hz \(1\.00×\) \d\.\d\d mm\/s RMS/);
+    expect(text).toContain('not a machine-protection system');
   });
 
   it('a healthy capture (P-102, same pump size and speed) gives no hint', async () => {

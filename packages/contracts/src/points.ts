@@ -67,6 +67,28 @@ export const diagnosisCodeSchema = z.enum([
 ]);
 export type DiagnosisCodeName = z.infer<typeof diagnosisCodeSchema>;
 
+/** The hint codes in words, for screens and mails. */
+export const diagnosisCodeNames: Record<DiagnosisCodeName, string> = {
+  unbalance: 'Unbalance',
+  misalignment: 'Misalignment',
+  looseness: 'Mechanical looseness',
+  'bearing-outer-race': 'Bearing outer race',
+  'bearing-inner-race': 'Bearing inner race',
+  'bearing-rolling-element': 'Bearing rolling element',
+  'bearing-cage': 'Bearing cage',
+  'gear-mesh': 'Gear mesh',
+  'blade-pass': 'Blade/vane pass',
+  electrical: 'Electrical',
+  belt: 'Belt drive',
+};
+
+/** Unit of an evidence peak's amplitude, by the spectrum it was read from. */
+export const evidenceUnits = {
+  velocity: 'mm/s RMS',
+  acceleration: 'g RMS',
+  envelope: 'g pk',
+} as const;
+
 /** One spectral peak that supports a hint. */
 export const diagnosisEvidenceSchema = z.object({
   hz: z.number(),

@@ -19,6 +19,12 @@ import {
 } from './mail-templates.ts';
 import { mailBaseUrl, pointLink } from './mail-links.ts';
 import type { Tx } from '@turnstone/db/client';
+import {
+  diagnosisCodeNames,
+  evidenceUnits,
+  type Diagnosis,
+  type DiagnosisHintItem,
+} from '@turnstone/contracts/points';
 import { enqueueMail, HOURLY_KIND } from './outbox-repository.ts';
 
 export type AlertChangeKind = 'raised' | 'escalated' | 'cleared';
@@ -49,7 +55,22 @@ export interface AlertMailFacts {
   at: Date;
   verdict: string;
   suspect: boolean;
+  /** The top diagnosis hint of the capture that changed the alert, when it has one. */
+  topHint?: DiagnosisHintItem | null;
 }
+
+/** "1× 24.7 Hz (1.00×) 6.40 mm/s RMS; 2× …" */
+function evidenceText(h: DiagnosisHintItem): string {
+  return h.evidence
+    .map(
+      (e) =>
+        `${e.label} ${num(e.hz)} Hz (${e.order.toFixed(2)}×) ${num(e.amplitude)} ${evidenceUnits[e.spectrum]}`,
+    )
+    .join('; ');
+}
+
+const HINT_CAUTION =
+  'A likely cause read from the spectral pattern — a hint, not a verdict; confirm on the machine.';
 
 const VERDICT_TEXT: Record<string, string> = {
   ok: 'ok — the capture passed the quality checks',
@@ -76,6 +97,11 @@ export function renderAlertMail(f: AlertMailFacts, link: string): Rendered {
     ['Capture quality', VERDICT_TEXT[f.verdict] ?? f.verdict],
     ['Taken', utc(f.at)],
   ];
+  const hint = f.kind === 'cleared' ? null : (f.topHint ?? null);
+  if (hint) {
+    facts.push(['Likely cause (hint)', `${diagnosisCodeNames[hint.code]}: ${hint.summary}`]);
+    facts.push(['Evidence', evidenceText(hint)]);
+  }
   const subject = `[Turnstone] ${what}: ${f.machineName} ${f.pointTag} — ${f.bandName} ${num(f.value)} ${f.unit}`;
   const footer = 'You receive this because of your notification settings (Account in Turnstone).';
   const text = [
@@ -83,6 +109,7 @@ export function renderAlertMail(f: AlertMailFacts, link: string): Rendered {
     '',
     textFacts(facts),
     '',
+    ...(hint ? [HINT_CAUTION, ''] : []),
     `Point view: ${link}`,
     '',
     `Safety: ${SAFETY_CAUTION}`,
@@ -95,12 +122,20 @@ export function renderAlertMail(f: AlertMailFacts, link: string): Rendered {
     [
       `<p>${esc(what)} on ${esc(f.machineName)}, ${esc(f.siteName)}.</p>`,
       htmlFacts(facts),
+      ...(hint ? [`<p>${esc(HINT_CAUTION)}</p>`] : []),
       htmlLink(link, 'Open the point view'),
       `<p style="border-left:3px solid #1d5c63;padding-left:8px"><strong>Safety:</strong> ${esc(SAFETY_CAUTION)}</p>`,
     ].join(''),
     footer,
   );
   return { subject, text, html };
+}
+
+/** The first hint of a stored diagnosis (JSON text or parsed), or null. */
+function topHintOf(stored: unknown): DiagnosisHintItem | null {
+  if (stored === null || stored === undefined) return null;
+  const d = (typeof stored === 'string' ? JSON.parse(stored) : stored) as Diagnosis;
+  return d.hints?.[0] ?? null;
 }
 
 async function loadFacts(tx: Tx, alertId: number, kind: AlertChangeKind) {
@@ -124,7 +159,7 @@ async function loadFacts(tx: Tx, alertId: number, kind: AlertChangeKind) {
   const at = new Date(ev.at as Date);
   const [an] = await rows(
     tx,
-    sql`SELECT quality_verdict FROM analyses WHERE point_id = ${a.point_id} AND taken_at <= ${at}
+    sql`SELECT quality_verdict, diagnosis FROM analyses WHERE point_id = ${a.point_id} AND taken_at <= ${at}
          ORDER BY taken_at DESC, id DESC LIMIT 1`,
   );
   const facts: AlertMailFacts = {
@@ -147,6 +182,7 @@ async function loadFacts(tx: Tx, alertId: number, kind: AlertChangeKind) {
     at,
     verdict: String(an?.quality_verdict ?? (a.suspect ? 'suspect' : 'ok')),
     suspect: Boolean(a.suspect),
+    topHint: topHintOf(an?.diagnosis),
   };
   return { facts, eventId: Number(ev.id), siteId: Number(a.site_id) };
 }

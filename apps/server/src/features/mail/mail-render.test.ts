@@ -48,6 +48,30 @@ describe('alert mail rendering', () => {
     );
     expect(m.subject).toContain('Danger cleared');
   });
+
+  it('names the top diagnosis hint with its evidence, keeps the safety caution, and escapes it', () => {
+    const topHint = {
+      code: 'unbalance' as const,
+      confidence: 0.9,
+      summary: '1× dominant <with> little harmonic content',
+      evidence: [
+        { hz: 24.72, order: 1, amplitude: 6.4, label: '1×', spectrum: 'velocity' as const },
+        { hz: 49.45, order: 2, amplitude: 0.323, label: '2×', spectrum: 'velocity' as const },
+      ],
+    };
+    const m = renderAlertMail({ ...facts, topHint }, 'http://x.test/points/12');
+    expect(m.text).toContain('Likely cause (hint)');
+    expect(m.text).toContain('Unbalance: 1× dominant <with> little harmonic content');
+    // num() gives three significant digits (mail-templates).
+    expect(m.text).toContain('1× 24.7 Hz (1.00×) 6.40 mm/s RMS; 2× 49.5 Hz (2.00×) 0.323 mm/s RMS');
+    expect(m.text).toContain('a hint, not a verdict');
+    expect(m.text).toContain(SAFETY_CAUTION);
+    expect(m.html).toContain('1× dominant &lt;with&gt; little');
+    expect(m.html).toContain('Unbalance');
+    // A cleared alert names no cause.
+    const cleared = renderAlertMail({ ...facts, kind: 'cleared', topHint }, 'http://x.test/p');
+    expect(cleared.text).not.toContain('Likely cause');
+  });
 });
 
 describe('outbox rules', () => {

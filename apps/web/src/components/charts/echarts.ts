@@ -1,6 +1,6 @@
 /**
  * ECharts through `echarts/core` with only what Turnstone's charts use (line and scatter
- * series, grid, tooltip, zoom, mark lines/areas, legend, canvas renderer). Only the chart
+ * series, grid, polar axes, tooltip, zoom, mark lines/areas, legend, canvas renderer). Only the chart
  * components import this module, and only lazily loaded pages import them, so ECharts stays
  * out of the first download.
  */
@@ -13,6 +13,7 @@ import {
   MarkAreaComponent,
   MarkLineComponent,
   MarkPointComponent,
+  PolarComponent,
   TooltipComponent,
 } from 'echarts/components';
 import { CanvasRenderer } from 'echarts/renderers';
@@ -25,6 +26,7 @@ import type {
   MarkAreaComponentOption,
   MarkLineComponentOption,
   MarkPointComponentOption,
+  PolarComponentOption,
   TooltipComponentOption,
 } from 'echarts/components';
 
@@ -38,6 +40,7 @@ echarts.use([
   MarkLineComponent,
   MarkAreaComponent,
   MarkPointComponent,
+  PolarComponent,
   CanvasRenderer,
 ]);
 
@@ -51,6 +54,7 @@ export type ChartOption = ComposeOption<
   | MarkLineComponentOption
   | MarkAreaComponentOption
   | MarkPointComponentOption
+  | PolarComponentOption
 >;
 
 export type { LineSeriesOption, ScatterSeriesOption };

@@ -12,7 +12,7 @@ import {
   sansFont,
   zoomSliderStyle,
 } from './chart-theme.ts';
-import type { ChartOption, LineSeriesOption } from './echarts.ts';
+import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
 import { ZoomKeys } from './zoom-keys.tsx';
 
@@ -34,6 +34,12 @@ export interface SpectrumMarker {
   kind: 'shaft' | 'bpfo' | 'bpfi' | 'bsf' | 'ftf' | 'gear-mesh' | 'blade-pass';
 }
 
+export interface SpectrumHighlight {
+  x: number;
+  y: number;
+  label: string;
+}
+
 export interface SpectrumChartProps {
   traces: readonly SpectrumTrace[];
   axis: 'hz' | 'order';
@@ -44,6 +50,8 @@ export interface SpectrumChartProps {
   /** Harmonic cursor: lines at k · fundamental, k = 1 … count. */
   cursor?: { fundamental: number; count: number } | null;
   onPick?: (x: number) => void;
+  /** Peaks to highlight (a diagnosis hint's evidence): position on the axes and a label. */
+  highlights?: readonly SpectrumHighlight[];
   height?: number;
   ariaLabel: string;
 }
@@ -138,6 +146,32 @@ export function buildSpectrumOption(p: SpectrumChartProps): ChartOption {
       data: [...markLines, ...cursorLines],
     };
   }
+  const highlights = (p.highlights ?? []).filter((h) => h.x > 0 && h.x <= xMax);
+  const evidence: ScatterSeriesOption | null =
+    highlights.length === 0
+      ? null
+      : {
+          name: 'Hint evidence',
+          type: 'scatter',
+          data: highlights.map((h) => ({ value: [h.x, h.y], name: h.label })),
+          symbol: 'diamond',
+          symbolSize: 12,
+          itemStyle: {
+            color: chartColours.danger,
+            borderColor: chartColours.surface,
+            borderWidth: 1,
+          },
+          label: {
+            show: true,
+            position: 'top',
+            formatter: (d: { name: string }) => d.name,
+            color: chartColours.danger,
+            fontFamily: sansFont,
+            fontSize: 11,
+            fontWeight: 600,
+          },
+          z: 5,
+        };
   const ax = axisStyle();
   return {
     animation: false,
@@ -177,15 +211,25 @@ export function buildSpectrumOption(p: SpectrumChartProps): ChartOption {
       { type: 'inside', xAxisIndex: 0, filterMode: 'none' },
       { type: 'slider', xAxisIndex: 0, ...zoomSliderStyle() },
     ],
-    series,
+    series: evidence ? [...series, evidence] : series,
   };
 }
 
 export function SpectrumChart(props: SpectrumChartProps) {
-  const { traces, axis, yName, unit, markers, cursor, onPick } = props;
+  const { traces, axis, yName, unit, markers, cursor, onPick, highlights } = props;
   const option = useMemo(
-    () => buildSpectrumOption({ traces, axis, yName, unit, markers, cursor, ariaLabel: '' }),
-    [traces, axis, yName, unit, markers, cursor],
+    () =>
+      buildSpectrumOption({
+        traces,
+        axis,
+        yName,
+        unit,
+        markers,
+        cursor,
+        highlights,
+        ariaLabel: '',
+      }),
+    [traces, axis, yName, unit, markers, cursor, highlights],
   );
   const { ref, chartRef } = useEChart(option, (chart) => {
     const zr = chart.getZr();

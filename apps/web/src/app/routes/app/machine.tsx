@@ -10,6 +10,7 @@ import { useNow } from '../../../hooks/use-now.ts';
 import { useMachine } from '../../../features/machines/api/get-machine.ts';
 import { MachineData } from '../../../features/machines/components/machine-data.tsx';
 import { MachinePointsTable } from '../../../features/machines/components/machine-points-table.tsx';
+import { MachineHints } from '../../../features/machines/components/machine-hints.tsx';
 
 export function MachineRoute() {
   const { machineId } = useParams();
@@ -67,6 +68,7 @@ export function MachineRoute() {
           <MachinePointsTable machine={m} now={now} />
         )}
       </Card>
+      {m.points.length > 0 && <MachineHints machine={m} />}
       <MachineData machine={m} />
       <p className="text-xs text-ink-muted">
         ISO 20816 zones and alerts are guidance, not machine protection. Limits are set by competent

@@ -16,6 +16,7 @@ import { usePoint } from '../../../features/points/api/get-point.ts';
 import { SpectrumPanel } from '../../../features/points/components/spectrum-panel.tsx';
 import { WaterfallPanel } from '../../../features/points/components/waterfall-panel.tsx';
 import { WaveformPanel } from '../../../features/points/components/waveform-panel.tsx';
+import { VectorPanel, hasVectors } from '../../../features/points/components/vector-panel.tsx';
 import { TrendPanel } from '../../../features/trends/components/trend-panel.tsx';
 
 const tabs = [
@@ -23,6 +24,7 @@ const tabs = [
   { key: 'spectrum', label: 'Spectrum' },
   { key: 'waveform', label: 'Waveform' },
   { key: 'waterfall', label: 'Waterfall' },
+  { key: 'vector', label: '1× vector' },
 ] as const;
 type Tab = (typeof tabs)[number]['key'];
 
@@ -142,7 +144,7 @@ export function PointRoute() {
       <TabList
         group="point"
         label="Analysis views"
-        tabs={tabs}
+        tabs={tabs.filter((t) => t.key !== 'vector' || hasVectors(list))}
         value={tab}
         onChange={setTab}
         className="flex gap-1 border-b border-line"
@@ -179,6 +181,7 @@ export function PointRoute() {
             <WaveformPanel analyses={list} selectedId={selectedId} onSelect={setPicked} />
           ))}
         {tab === 'waterfall' && <WaterfallPanel pointId={p.id} />}
+        {tab === 'vector' && (snapshotBody() ?? <VectorPanel analyses={list} />)}
       </TabPanel>
     </div>
   );

@@ -5,6 +5,7 @@ import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
 import { useAlert } from '../api/get-alert.ts';
+import { HINTS_CAUTION, HintList } from '../../points/components/diagnosis-hints.tsx';
 import { AcknowledgeForm } from './acknowledge-form.tsx';
 import { AlertStateMark, alertEventLabels, formatLevel } from './alert-labels.tsx';
 
@@ -96,6 +97,18 @@ export function AlertHistory({
           }}
         />
       )}
+      <div>
+        <h3 className="text-xs font-semibold tracking-wide text-ink-muted uppercase">
+          Current diagnosis hints
+        </h3>
+        <p className="mb-2 text-xs text-ink-muted">
+          {a.currentDiagnosis
+            ? `From the point's latest capture, ${formatDateTime(a.currentDiagnosis.takenAt)}. `
+            : ''}
+          {HINTS_CAUTION}
+        </p>
+        <HintList diagnosis={a.currentDiagnosis?.diagnosis ?? null} headingLevel={4} />
+      </div>
       <div>
         <h3 className="mb-2 text-xs font-semibold tracking-wide text-ink-muted uppercase">
           History

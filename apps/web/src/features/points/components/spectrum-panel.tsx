@@ -1,8 +1,13 @@
 import { useMemo, useState } from 'react';
-import type { AnalysisSummary, FaultFrequencyItem } from '@turnstone/contracts/points';
+import type {
+  AnalysisSummary,
+  DiagnosisHintItem,
+  FaultFrequencyItem,
+} from '@turnstone/contracts/points';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
 import {
   SpectrumChart,
+  type SpectrumHighlight,
   type SpectrumMarker,
   type SpectrumTrace,
 } from '../../../components/charts/spectrum-chart.tsx';
@@ -17,6 +22,7 @@ import { cn } from '../../../lib/cn.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { useSpectrum } from '../api/get-spectrum.ts';
 import { SnapshotPicker } from './snapshot-picker.tsx';
+import { HintsSidePanel } from './diagnosis-hints.tsx';
 
 type Measure = 'acceleration' | 'velocity' | 'envelope';
 type Axis = 'hz' | 'order';
@@ -72,6 +78,11 @@ export function SpectrumPanel({
   const [markerSet, setMarkerSet] = useState<'point' | 'all' | 'none'>(bearing ? 'point' : 'all');
   const [cursor, setCursor] = useState<number | null>(null);
   const [cursorCount, setCursorCount] = useState(10);
+  // The hint whose evidence is marked, per snapshot (a new snapshot starts with none).
+  const [hintPick, setHintPick] = useState<{ analysisId: number | null; index: number | null }>({
+    analysisId: null,
+    index: null,
+  });
 
   const main = useTrace(selectedId, measure, axis, 'main');
   const compare = useTrace(compareId, measure, axis, 'compare');
@@ -100,6 +111,27 @@ export function SpectrumPanel({
       }))
       .filter((m) => Number.isFinite(m.x));
   }, [s, markerSet, axis, bearing]);
+  const diagnosis = selected?.diagnosis ?? null;
+  const hintIndex = hintPick.analysisId === selectedId ? hintPick.index : null;
+  const hint: DiagnosisHintItem | null =
+    hintIndex !== null ? (diagnosis?.hints[hintIndex] ?? null) : null;
+  const mainTrace = main.trace;
+  const highlights = useMemo((): SpectrumHighlight[] => {
+    if (!hint || !mainTrace) return [];
+    const out: SpectrumHighlight[] = [];
+    for (const e of hint.evidence) {
+      if (e.spectrum !== measure) continue;
+      const x = axis === 'order' ? e.order : e.hz;
+      // On the drawn line's own peak (within ±2 lines of the evidence frequency).
+      const k = Math.round(x / mainTrace.step);
+      let y = 0;
+      for (let j = Math.max(0, k - 2); j <= Math.min(mainTrace.values.length - 1, k + 2); j++)
+        y = Math.max(y, mainTrace.values[j]!);
+      if (Number.isFinite(x) && y > 0) out.push({ x, y, label: e.label });
+    }
+    return out;
+  }, [hint, mainTrace, measure, axis]);
+  const elsewhere = hint ? hint.evidence.filter((e) => e.spectrum !== measure) : [];
   const cursorOpt = useMemo(
     () => (cursor ? { fundamental: cursor, count: cursorCount } : null),
     [cursor, cursorCount],
@@ -197,47 +229,75 @@ export function SpectrumPanel({
         </div>
       </div>
 
-      {selectedId === null ? (
-        <EmptyState title="No snapshot chosen" description="Pick a snapshot above." />
-      ) : main.query.isPending ? (
-        <LoadingPanel label="Loading spectrum…" />
-      ) : main.query.isError ? (
-        <ErrorState
-          title="Could not load the spectrum"
-          error={main.query.error}
-          onRetry={() => void main.query.refetch()}
+      <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_20rem]">
+        <div className="flex min-w-0 flex-col gap-4">
+          {selectedId === null ? (
+            <EmptyState title="No snapshot chosen" description="Pick a snapshot above." />
+          ) : main.query.isPending ? (
+            <LoadingPanel label="Loading spectrum…" />
+          ) : main.query.isError ? (
+            <ErrorState
+              title="Could not load the spectrum"
+              error={main.query.error}
+              onRetry={() => void main.query.refetch()}
+            />
+          ) : !main.trace ? (
+            <EmptyState
+              title="No order axis for this capture"
+              description="Its running speed is not known, so the spectrum cannot be drawn in orders."
+            />
+          ) : (
+            <>
+              <SpectrumChart
+                traces={traces}
+                axis={axis}
+                yName={yName}
+                unit={unit}
+                markers={markers}
+                highlights={highlights}
+                cursor={cursorOpt}
+                onPick={(x) => setCursor(Number(x.toPrecision(5)))}
+                ariaLabel={`${measureLabels[measure]} spectrum in ${yName} against ${axisName}${compare.trace ? ', with a second snapshot for comparison' : ''}${highlights.length ? `, with ${highlights.length} evidence peaks of the ${hint ? hint.code : ''} hint marked` : ''}`}
+              />
+              <p className="text-xs text-ink-muted">
+                Scroll or drag the slider to zoom. Click the chart to put the harmonic cursor&apos;s
+                fundamental there. Speed{' '}
+                <span className="font-mono text-ink">
+                  {s?.speed.rpm ? `${formatValue(s.speed.rpm, 4)} r/min` : 'unknown'}
+                </span>
+                {s?.speed.source && s.speed.source !== 'none' ? ` (${s.speed.source})` : ''}.
+                {compareId !== null &&
+                  compare.query.isError &&
+                  ' The compared snapshot could not be loaded.'}
+              </p>
+              {hint && elsewhere.length > 0 && (
+                <p className="text-xs text-ink-muted" role="status">
+                  {elsewhere.length} evidence peak{elsewhere.length > 1 ? 's' : ''} of this hint{' '}
+                  {elsewhere.length > 1 ? 'are' : 'is'} in the {elsewhere[0]!.spectrum} spectrum
+                  {new Set(elsewhere.map((e) => e.spectrum)).size > 1 ? ' and others' : ''}.{' '}
+                  <button
+                    type="button"
+                    className="font-medium text-accent underline"
+                    onClick={() => setMeasure(elsewhere[0]!.spectrum)}
+                  >
+                    Show {measureLabels[elsewhere[0]!.spectrum].toLowerCase()}
+                  </button>
+                </p>
+              )}
+              {s && <PeakTable peaks={s.peaks} unit={unit} axis={axis} />}
+            </>
+          )}
+        </div>
+        <HintsSidePanel
+          diagnosis={diagnosis}
+          selected={hintIndex}
+          onSelect={(index, h) => {
+            setHintPick({ analysisId: selectedId, index });
+            const first = h?.evidence[0];
+            if (first) setMeasure(first.spectrum);
+          }}
         />
-      ) : !main.trace ? (
-        <EmptyState
-          title="No order axis for this capture"
-          description="Its running speed is not known, so the spectrum cannot be drawn in orders."
-        />
-      ) : (
-        <>
-          <SpectrumChart
-            traces={traces}
-            axis={axis}
-            yName={yName}
-            unit={unit}
-            markers={markers}
-            cursor={cursorOpt}
-            onPick={(x) => setCursor(Number(x.toPrecision(5)))}
-            ariaLabel={`${measureLabels[measure]} spectrum in ${yName} against ${axisName}${compare.trace ? ', with a second snapshot for comparison' : ''}`}
-          />
-          <p className="text-xs text-ink-muted">
-            Scroll or drag the slider to zoom. Click the chart to put the harmonic cursor&apos;s
-            fundamental there. Speed{' '}
-            <span className="font-mono text-ink">
-              {s?.speed.rpm ? `${formatValue(s.speed.rpm, 4)} r/min` : 'unknown'}
-            </span>
-            {s?.speed.source && s.speed.source !== 'none' ? ` (${s.speed.source})` : ''}.
-            {compareId !== null &&
-              compare.query.isError &&
-              ' The compared snapshot could not be loaded.'}
-          </p>
-          {s && <PeakTable peaks={s.peaks} unit={unit} axis={axis} />}
-        </>
-      )}
+      </div>
     </Card>
   );
 }
