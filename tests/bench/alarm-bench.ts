@@ -22,6 +22,7 @@ import {
   type PointState,
   type TrendPoint,
 } from '@turnstone/condition';
+import { mulberry32 } from '@turnstone/dsp/seeded-random';
 
 const DAY = 86_400_000;
 const YEAR_DAYS = 365;
@@ -31,18 +32,6 @@ const PROJECTION_WINDOW_DAYS = 60;
 const SEED = 20_816;
 
 // ---------------------------------------------------------------- seeded randomness
-
-/** mulberry32 (Tommy Ettinger's 32-bit generator, public domain), uniform in [0, 1). */
-function generator(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Standard normal by Box–Muller (Box & Muller 1958). */
 function normal(u: () => number): number {
@@ -297,7 +286,7 @@ function run() {
   const rows: string[][] = [];
   for (const config of ['template', 'template + 3σ rule'] as Config[]) {
     for (const perDay of [4, 24]) {
-      const u = generator(SEED + perDay);
+      const u = mulberry32(SEED + perDay);
       const by = new Map<Shape, PointResult[]>();
       for (const template of templateBands()) {
         const band = withConfig(template, config);

@@ -1,16 +1,8 @@
 /** Deterministic test captures: tones of known amplitude in ADC counts. Not demo data. */
+import { mulberry32 } from '@turnstone/dsp/seeded-random';
 
-/** Mulberry32: small seeded PRNG so every run sends the same noise. */
-export function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Mulberry32, seeded, so every run sends the same noise. */
+export const prng = mulberry32;
 
 export interface ToneOptions {
   n?: number;

@@ -11,7 +11,7 @@ import {
   type DemoPoint,
 } from '../../../seed/demo-plant.ts';
 import type { AdcSetup } from './synthesize-capture.ts';
-import { fnv1a } from './prng.ts';
+import { fnv1a } from '@turnstone/dsp/seeded-random';
 
 /** Standard capture: 12.8 kHz for Fmax 5 kHz (fs = 2.56·Fmax), 8192 samples = 0.64 s. */
 export const STANDARD_CAPTURE = {

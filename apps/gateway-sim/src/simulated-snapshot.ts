@@ -5,7 +5,7 @@
  */
 import type { SnapshotIn } from '@turnstone/contracts/ingest';
 import type { SimChannel } from './plant-channels.ts';
-import { fnv1a } from './prng.ts';
+import { fnv1a } from '@turnstone/dsp/seeded-random';
 import { countsToBytes } from './sample-bytes.ts';
 import { storyRecipe } from './story-recipe.ts';
 import { synthesizeCapture } from './synthesize-capture.ts';

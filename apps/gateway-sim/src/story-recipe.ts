@@ -9,7 +9,7 @@
  */
 import type { DemoMachine } from '../../../seed/demo-plant.ts';
 import type { SimChannel } from './plant-channels.ts';
-import { gaussian, mulberry32 } from './prng.ts';
+import { gaussian, mulberry32 } from '@turnstone/dsp/seeded-random';
 import type { CaptureRecipe, GearMeshTone, ImpactTrain, OrderTone } from './synthesize-capture.ts';
 
 /** When the misalignment of B-301 is corrected (laser alignment), as progress. */

@@ -5,7 +5,7 @@
  * frequency tones, bursts, white noise; sensor sensitivity, ADC range and rails.
  * Pure and deterministic: the same recipe and seed give the same counts.
  */
-import { gaussian, mulberry32 } from './prng.ts';
+import { gaussian, mulberry32 } from '@turnstone/dsp/seeded-random';
 
 /** Standard gravity, m/s² (3rd CGPM, 1901). */
 const G = 9.80665;

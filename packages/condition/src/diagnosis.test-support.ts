@@ -5,6 +5,7 @@
  * and Gaussian noise — never from Turnstone's own output.
  */
 import type { SnapshotInput, TachPulses } from '@turnstone/dsp';
+import { mulberry32 } from '@turnstone/dsp/seeded-random';
 
 /** Standard gravity, m/s² (ISO 80000-3). */
 const G = 9.80665;
@@ -54,17 +55,6 @@ export interface CaptureSpec {
   /** White Gaussian noise, g RMS. */
   noiseG: number;
   seed: number;
-}
-
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 /** Acceleration peak (g) of a tone of `mmS` RMS velocity at `hz`. */

@@ -1,28 +1,17 @@
 import { describe, expect, it } from 'vitest';
 import { decimateTrend, TREND_MAX_BUCKETS } from './trend-decimation.ts';
+import { mulberry32 } from '@turnstone/dsp/seeded-random';
 
 // The checks follow from the definition of min/max bucket aggregation (Jugel et al., "M4: a
 // visualization-oriented time series data aggregation", PVLDB 7(10), 2014): every bucket's
 // extremes survive, nothing else is invented, order is kept. The reference below groups by
 // bucket independently (a Map over the bucket index), not with the code under test.
 
-/** A seeded generator (mulberry32, common practice, no source) so a failure repeats. */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 const DAY = 86_400_000;
 
 /** A year of values every 10 minutes with log-normal scatter and one short burst. */
 function yearOfValues(seed: number) {
-  const r = rng(seed);
+  const r = mulberry32(seed); // seeded, so a failure repeats
   const from = Date.UTC(2026, 0, 1);
   const items: { t: number; v: number; id: number }[] = [];
   for (let i = 0, t = from; t < from + 365 * DAY; i++, t += 600_000) {

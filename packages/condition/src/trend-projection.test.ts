@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { fitHinge, projectTrend, type TrendPoint } from './trend-projection.ts';
 import { itWithNumpy, runNumpy } from './numpy-live.test-support.ts';
+import { mulberry32 } from '@turnstone/dsp/seeded-random';
 
 const T0 = Date.UTC(2025, 0, 1);
 const DAY = 86_400_000;
@@ -233,14 +234,7 @@ describe('projectTrend — the recent regime', () => {
 
   // seeded log-normal scatter (mulberry32 + Box–Muller, definitions) for the noisy cases
   const noisy = (seed: number, n: number, median: (d: number) => number, s: number) => {
-    let a = seed;
-    const u = () => {
-      a = (a + 0x6d2b79f5) >>> 0;
-      let t = a;
-      t = Math.imul(t ^ (t >>> 15), t | 1);
-      t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-      return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-    };
+    const u = mulberry32(seed);
     return Array.from({ length: n }, (_, d) => {
       const z = Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());
       return median(d) * Math.exp(s * z);

@@ -1,6 +1,8 @@
 /**
- * Seeded pseudo-random numbers, so a capture is the same bytes every time it is generated
- * (a retry or a second run sends identical content under the same uid).
+ * Seeded pseudo-random numbers, one home for every generator of the project: the simulator
+ * (a capture is the same bytes every time it is generated, so a retry or a second run sends
+ * identical content under the same uid), test captures and the benchmarks' fault libraries
+ * (a failure repeats with its seed).
  */
 
 /** Mulberry32 (Tommy Ettinger's public-domain generator): uniform in [0, 1). */
