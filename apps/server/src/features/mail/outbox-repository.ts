@@ -6,7 +6,7 @@
 import { and, asc, desc, eq, gt, inArray, isNull, lte, ne, or, sql } from 'drizzle-orm';
 import type { Db, Tx } from '@turnstone/db/client';
 import { mailMessages, outbox, settings } from '@turnstone/db/schema';
-import { LINK_TOKEN_KINDS, TOKEN_IN_LINK_SQL } from './mail-links.ts';
+import { LINK_TOKEN_KINDS, TOKEN_IN_LINK_SQL } from './link-tokens.ts';
 
 export type OutboxRow = typeof outbox.$inferSelect;
 

@@ -8,7 +8,7 @@ import { AppError, notFound } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import { listUndelivered, requeueUndelivered, type OutboxRow } from '../mail/outbox-repository.ts';
-import { maskLinkTokens } from '../mail/mail-links.ts';
+import { maskLinkTokens } from '../mail/link-tokens.ts';
 
 export async function listMailbox(db: Db, limit = 200) {
   const rows = await db
