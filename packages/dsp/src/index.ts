@@ -9,6 +9,7 @@ export * from './decode-samples.ts';
 export * from './envelope.ts';
 export * from './fault-frequencies.ts';
 export * from './fft-plan.ts';
+export * from './real-fft.ts';
 export * from './ideal-band-rms.ts';
 export * from './integrate-spectrum.ts';
 export * from './integrate-waveform.ts';

@@ -1,4 +1,5 @@
-import { getFftPlan, realInverseInto } from './fft-plan.ts';
+import { getFftPlan } from './fft-plan.ts';
+import { realInverseInto } from './real-fft.ts';
 import { integrationGain, type VibrationUnit } from './units.ts';
 
 /** Options for {@link integrateWaveform}. */
