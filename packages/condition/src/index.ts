@@ -16,6 +16,7 @@ export * from './snapshot-evaluation.ts';
 export * from './replay.ts';
 export * from './least-squares.ts';
 export * from './trend-projection.ts';
+export * from './trend-regime.ts';
 export * from './machine-templates.ts';
 export * from './diagnosis.ts';
 export * from './diagnosis-severity.ts';

@@ -1,5 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { fitHinge, projectTrend, type TrendPoint } from './trend-projection.ts';
+import { projectTrend, type TrendPoint } from './trend-projection.ts';
+import { fitHinge } from './trend-regime.ts';
 import { itWithNumpy, runNumpy } from './numpy-live.test-support.ts';
 import { mulberry32 } from '@turnstone/dsp/seeded-random';
 
