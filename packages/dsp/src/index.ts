@@ -16,6 +16,7 @@ export * from './integrate-waveform.ts';
 export * from './iso-overall-band.ts';
 export * from './order-tracking.ts';
 export * from './quality-verdict.ts';
+export * from './quality-waveform.ts';
 export * from './quantization-snr.ts';
 export * from './read-csv.ts';
 export * from './read-wav.ts';

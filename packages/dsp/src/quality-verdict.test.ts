@@ -3,11 +3,11 @@ import {
   ALIAS_GUARD_BAND_POWER_FRACTION,
   assessQuality,
   CLIPPED_FRACTION_UNUSABLE,
-  DRIFT_LINE_RATIO,
   NO_SIGNAL_RMS_G,
   UNDER_RANGE_SUSPECT_BITS,
   UNDER_RANGE_UNUSABLE_BITS,
 } from './quality-verdict.ts';
+import { DRIFT_LINE_RATIO } from './quality-waveform.ts';
 
 const FS = 25600;
 const HALF24 = 2 ** 23;
