@@ -1,174 +1,35 @@
 import type { PowerSpectrum } from './band-rms.ts';
-import { bandValues, checkBands, type BandDefinition, type BandValue } from './band-values.ts';
-import { parseEncoding, type SampleEncoding } from './decode-samples.ts';
-import { defaultEnvelopeBandHz, envelopeSpectrum } from './envelope.ts';
-import {
-  faultFrequencies,
-  type FaultFrequency,
-  type MachineComponents,
-} from './fault-frequencies.ts';
+import { bandValues } from './band-values.ts';
+import { envelopeBandFor, envelopeSpectrum } from './envelope.ts';
+import { faultFrequencies } from './fault-frequencies.ts';
 import { getFftPlan, nextPowerOfTwo } from './fft-plan.ts';
 import { integratePowerSpectrum } from './integrate-spectrum.ts';
 import { idealBandRms, recordSpectrum } from './ideal-band-rms.ts';
 import { integrateWaveform, taperEnds, trimmedPeakToPeak } from './integrate-waveform.ts';
 import { ISO_BAND_HZ, isoBandForSpeed, type IsoBand } from './iso-overall-band.ts';
-import { computedOrderTracking, tachSpeedRpm, type TachPulses } from './order-tracking.ts';
-import {
-  assessQuality,
-  type QualityFinding,
-  type QualityMetrics,
-  type QualityVerdict,
-} from './quality-verdict.ts';
+import { computedOrderTracking } from './order-tracking.ts';
+import { assessQuality } from './quality-verdict.ts';
 import { scaleToAcceleration } from './scale-samples.ts';
 import { scratch } from './scratch.ts';
-import { shaftVectors, type ShaftVector } from './shaft-vector.ts';
+import { shaftVectors } from './shaft-vector.ts';
+import { ANALYSIS_SCHEMA_VERSION, type SnapshotAnalysis } from './snapshot-analysis.ts';
+import {
+  readSnapshotInput,
+  type AnalyzeSnapshotOptions,
+  type SnapshotInput,
+} from './snapshot-input.ts';
 import { findPeaks } from './spectral-peaks.ts';
 import { estimateSpeed } from './speed-estimate.ts';
 import { waveformStatistics } from './waveform-statistics.ts';
 import { welch } from './welch.ts';
-import { parseWindowName, type WindowName } from './window-functions.ts';
 
-/** Version of the {@link SnapshotAnalysis} shape; bumped on any breaking change. */
-export const ANALYSIS_SCHEMA_VERSION = 1;
+export {
+  ANALYSIS_SCHEMA_VERSION,
+  type HzSpectrum,
+  type SnapshotAnalysis,
+} from './snapshot-analysis.ts';
+export type { AnalyzeSnapshotOptions, SnapshotInput } from './snapshot-input.ts';
 
-/** One snapshot as stored: raw samples plus the facts needed to read them. */
-export interface SnapshotInput {
-  /** ADC counts for integer encodings; volts for float32. */
-  samples: Int16Array | Int32Array | Float32Array | Float64Array;
-  encoding: SampleEncoding;
-  sampleRateHz: number;
-  /** ADC resolution and the volts at code 2^(bits−1). */
-  adc: { bits: number; fullScaleV: number };
-  sensor: { sensitivityMvPerG: number };
-  /** Measured running speed, r/min (used when there is no tach). */
-  speedRpm?: number;
-  /** Tach pulse times for computed order tracking (wins over speedRpm). */
-  tach?: TachPulses;
-  /** Nominal speed from the machine record; running speed is estimated near it when neither tach nor speedRpm is given. */
-  nominalRpm?: number;
-  machine?: MachineComponents;
-  /** Anti-alias filter cutoff, when the gateway reports it (Hz). */
-  antiAliasCutoffHz?: number;
-  /** Analysis Fmax, Hz. @default sampleRateHz / 2.56 */
-  fmaxHz?: number;
-  /** Spectral lines from 0 to Fmax (sets the segment length, rounded up to a power of two). @default 3200 */
-  lines?: number;
-  /** Window for the Hz spectra. @default 'hann' */
-  window?: WindowName;
-  /** ISO 20816 overall band. @default from the known or nominal speed by {@link isoBandForSpeed} ('below600' at or below 600 r/min) */
-  isoBand?: IsoBand;
-  /** Bands to report (see {@link BandDefinition}). @default [] */
-  bands?: BandDefinition[];
-  /**
-   * Envelope band-pass edges, Hz: the point's own, set by the engineer around the
-   * resonance its bearing impacts excite. Independent of Fmax (the resonance usually lies
-   * far above a point's analysis Fmax).
-   * @default defaultEnvelopeBandHz(sampleRateHz), [fs/10.24, fs/2.56]
-   */
-  envelopeBandHz?: readonly [number, number];
-}
-
-/** Secondary settings of {@link analyzeSnapshot}. */
-export interface AnalyzeSnapshotOptions {
-  /** Highest envelope-spectrum frequency stored, Hz. @default min(1000, envelope band width) */
-  envelopeFmaxHz?: number;
-  /** Highest order stored in the order spectrum. @default min(100, Fmax / shaft speed) */
-  maxOrder?: number;
-  /** Number of spectral peaks reported. @default 10 */
-  peakCount?: number;
-  /** Speed search window around the nominal speed, ± fraction. @default 0.1 */
-  speedSearchFraction?: number;
-  /**
-   * High-pass edge of the overall acceleration, crest factor and kurtosis, Hz (they are
-   * taken over [this, Fmax], so a settling offset or slow drift does not count).
-   * @default the ISO band's lower edge (10 Hz, or 2 Hz for slow machines)
-   */
-  accelerationHighPassHz?: number;
-}
-
-/** A stored spectrum on a Hz axis: values[k] at k · dfHz. */
-export interface HzSpectrum {
-  unit: 'g' | 'mm/s';
-  /** 'rms': each line is the RMS of a tone on it; 'peak': its amplitude. */
-  scale: 'rms' | 'peak';
-  dfHz: number;
-  values: Float32Array;
-  window: WindowName;
-}
-
-/** The analysis of one snapshot; the worker stores it and the web app plots it. */
-export interface SnapshotAnalysis {
-  schemaVersion: typeof ANALYSIS_SCHEMA_VERSION;
-  sampleRateHz: number;
-  sampleCount: number;
-  durationS: number;
-  fmaxHz: number;
-  quality: {
-    verdict: QualityVerdict;
-    bitsUsed: number;
-    snrDb: number;
-    findings: QualityFinding[];
-    metrics: QualityMetrics;
-  };
-  overall: {
-    /** Acceleration RMS over {@link accelBandHz} (an ideal band of the whole record), g. */
-    accelRmsG: number;
-    /** Largest |a| of the acceleration high-passed at accelBandHz[0], on the record's middle 80 %, g. */
-    accelPeakG: number;
-    /** Band of the acceleration figures (accelRmsG, accelPeakG, crestFactor, kurtosis): [high-pass, Fmax], Hz. */
-    accelBandHz: [number, number];
-    /** Velocity RMS over the ISO band isoBandHz (an ideal band of the whole record), mm/s. */
-    velocityRmsMmS: number;
-    /** Displacement peak-to-peak over the ISO band, µm: frequency-domain double integration of the waveform (raised-cosine rise from half the lower edge), measured on its middle 80 %. */
-    displacementPkPkUm: number;
-    /** Peak / RMS of the high-passed acceleration waveform (over accelBandHz). */
-    crestFactor: number;
-    /** Pearson kurtosis of the high-passed acceleration waveform (sine 1.5, Gaussian 3). */
-    kurtosis: number;
-    isoBand: IsoBand;
-    /** Band of velocityRmsMmS and displacementPkPkUm, Hz (upper edge capped at Fmax). */
-    isoBandHz: [number, number];
-  };
-  speed: { rpm: number | null; hz: number | null; source: 'tach' | 'rpm' | 'estimated' | 'none' };
-  spectra: {
-    /** Welch-averaged acceleration, g RMS per line, 0 … Fmax. */
-    acceleration: HzSpectrum & {
-      unit: 'g';
-      scale: 'rms';
-      nperseg: number;
-      averages: number;
-      enbwBins: number;
-    };
-    /** Velocity by frequency-domain integration, mm/s RMS, zero below the ISO band's lower edge. */
-    velocity: HzSpectrum & { unit: 'mm/s'; scale: 'rms'; lowCutoffHz: number };
-    /** Envelope spectrum, g peak (mean removed first: line 0 is 0, the mean is `meanG`), or null when the record is too short. */
-    envelope:
-      (HzSpectrum & { unit: 'g'; scale: 'peak'; bandHz: [number, number]; meanG: number }) | null;
-    /** Acceleration in orders (g RMS per line at k · dOrder), or null without a speed. */
-    order: {
-      unit: 'g';
-      scale: 'rms';
-      dOrder: number;
-      values: Float32Array;
-      method: 'computed-order-tracking' | 'hz-axis';
-    } | null;
-  };
-  /** Largest peaks of the acceleration spectrum, largest first, interpolated between lines. */
-  peaks: { hz: number; order: number | null; amplitude: number }[];
-  faultFrequencies: FaultFrequency[];
-  bandValues: BandValue[];
-  /** 1× and 2× vectors (amplitude, phase lag against the tach pulse; see {@link ShaftVector}), or null without a tach. */
-  shaftVectors: ShaftVector[] | null;
-}
-
-function positive(value: unknown, what: string): number {
-  if (typeof value !== 'number' || !(value > 0) || !Number.isFinite(value)) {
-    throw new RangeError(`${what} must be a positive number, got ${String(value)}`);
-  }
-  return value;
-}
-
-const MIN_SAMPLES = 64;
 /** Fraction of the record tapered at each end before waveform integration (2× it is skipped when measuring). */
 const DISPLACEMENT_TAPER = 0.05;
 
@@ -188,43 +49,21 @@ export function analyzeSnapshot(
   input: SnapshotInput,
   options: AnalyzeSnapshotOptions = {},
 ): SnapshotAnalysis {
-  // ---- input checks
-  if (!input || typeof input !== 'object')
-    throw new TypeError('analyzeSnapshot expects a snapshot object');
-  const samples = input.samples;
-  if (!(
-    samples instanceof Int16Array ||
-    samples instanceof Int32Array ||
-    samples instanceof Float32Array ||
-    samples instanceof Float64Array
-  )) {
-    throw new TypeError('samples must be an Int16Array, Int32Array, Float32Array or Float64Array');
-  }
-  const n = samples.length;
-  if (n < MIN_SAMPLES)
-    throw new RangeError(`a snapshot needs at least ${MIN_SAMPLES} samples, got ${n}`);
-  const encoding = parseEncoding(String(input.encoding));
-  const fs = positive(input.sampleRateHz, 'sampleRateHz');
-  if (!input.adc) throw new TypeError('adc { bits, fullScaleV } is required');
-  if (!input.sensor) throw new TypeError('sensor { sensitivityMvPerG } is required');
-  const bits = input.adc.bits;
-  const fullScaleV = input.adc.fullScaleV;
-  const sensitivityMvPerG = positive(input.sensor.sensitivityMvPerG, 'sensor.sensitivityMvPerG');
-  const fmaxHz = input.fmaxHz === undefined ? fs / 2.56 : positive(input.fmaxHz, 'fmaxHz');
-  if (fmaxHz > fs / 2) throw new RangeError(`fmaxHz ${fmaxHz} is above Nyquist (${fs / 2} Hz)`);
-  const lines = input.lines ?? 3200;
-  if (!Number.isInteger(lines) || lines < 1)
-    throw new RangeError(`lines must be a positive integer, got ${lines}`);
-  const windowName = parseWindowName(String(input.window ?? 'hann'));
-  if (input.speedRpm !== undefined) positive(input.speedRpm, 'speedRpm');
-  if (input.nominalRpm !== undefined) positive(input.nominalRpm, 'nominalRpm');
-  if (input.isoBand !== undefined && !(input.isoBand in ISO_BAND_HZ)) {
-    throw new TypeError(`isoBand must be 'above600' or 'below600', got ${String(input.isoBand)}`);
-  }
-  const bands = input.bands ?? [];
-  checkBands(bands);
+  const {
+    samples,
+    n,
+    encoding,
+    fs,
+    bits,
+    fullScaleV,
+    sensitivityMvPerG,
+    fmaxHz,
+    lines,
+    windowName,
+    bands,
+    tachRpm,
+  } = readSnapshotInput(input);
   const peakCount = options.peakCount ?? 10;
-  const tachRpm = input.tach ? tachSpeedRpm(input.tach) : null;
 
   // ---- counts → g; quality from the counts
   const accel = scaleToAcceleration(samples, { encoding, bits, fullScaleV, sensitivityMvPerG });
@@ -492,23 +331,6 @@ export function analyzeSnapshot(
         ? shaftVectors(accel, input.tach, { sampleRateHz: fs, orders: [1, 2] })
         : null,
   };
-}
-
-/**
- * The point's envelope band as this capture can hold it: its top limited to the alias-free
- * fs/2.56; a band that leaves nothing below that (a capture at a lower rate than the band
- * was set for) falls back to the default from the sample rate. The band used is reported.
- */
-function envelopeBandFor(
-  band: readonly [number, number] | undefined,
-  fs: number,
-): readonly [number, number] {
-  if (band === undefined) return defaultEnvelopeBandHz(fs);
-  const [lo, hi] = band;
-  if (!(lo >= 0) || !(hi > lo) || !Number.isFinite(hi))
-    throw new RangeError(`envelopeBandHz must satisfy 0 ≤ lo < hi, got [${lo}, ${hi}]`);
-  const top = Math.min(hi, fs / 2.56);
-  return top > lo ? [lo, top] : defaultEnvelopeBandHz(fs);
 }
 
 /** Power-of-two length giving ≥ 12.8 samples per cycle at `hiHz`, or n when that is not shorter. */

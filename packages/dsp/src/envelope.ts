@@ -182,3 +182,20 @@ export function envelopeSpectrum(
     enbwBins: window.enbwBins,
   };
 }
+
+/**
+ * The point's envelope band as this capture can hold it: its top limited to the alias-free
+ * fs/2.56; a band that leaves nothing below that (a capture at a lower rate than the band
+ * was set for) falls back to the default from the sample rate. The band used is reported.
+ */
+export function envelopeBandFor(
+  band: readonly [number, number] | undefined,
+  fs: number,
+): readonly [number, number] {
+  if (band === undefined) return defaultEnvelopeBandHz(fs);
+  const [lo, hi] = band;
+  if (!(lo >= 0) || !(hi > lo) || !Number.isFinite(hi))
+    throw new RangeError(`envelopeBandHz must satisfy 0 ≤ lo < hi, got [${lo}, ${hi}]`);
+  const top = Math.min(hi, fs / 2.56);
+  return top > lo ? [lo, top] : defaultEnvelopeBandHz(fs);
+}
