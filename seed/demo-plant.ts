@@ -41,6 +41,12 @@ export interface DemoMachine {
   powerKw: number;
   bladeCount?: number;
   vaneCount?: number;
+  /**
+   * Supply frequency of the machine's motor, Hz. Both sites are on 50 Hz grids; null where
+   * the machine record holds no mains-fed motor (a gearbox measured on its own shafts) or
+   * the motor runs on an inverter (the supply at the motor is not the grid's).
+   */
+  lineHz: 50 | 60 | null;
   bearings: DemoBearing[];
   gears?: DemoGear[];
   points: DemoPoint[];
@@ -162,6 +168,7 @@ const pump = (
   criticality: 'high',
   powerKw: kw,
   vaneCount: 6,
+  lineHz: 50, // four-pole motor, direct on line
   bearings: [b6316, b6314, b7313],
   points: [
     ...motorPoints('Motor DE', 'Motor NDE'),
@@ -209,6 +216,7 @@ export const demoPlant: DemoSite[] = [
             foundation: 'flexible',
             criticality: 'medium',
             powerKw: 90,
+            lineHz: 50, // two-pole motor, direct on line
             bladeCount: 3,
             bearings: [b6310, b6308],
             points: motorPoints('Motor DE', 'Motor NDE'),
@@ -223,6 +231,7 @@ export const demoPlant: DemoSite[] = [
             foundation: 'flexible',
             criticality: 'medium',
             powerKw: 90,
+            lineHz: 50, // two-pole motor, direct on line
             bladeCount: 3,
             bearings: [b6310, b6308],
             points: motorPoints('Motor DE', 'Motor NDE'),
@@ -237,6 +246,7 @@ export const demoPlant: DemoSite[] = [
             foundation: 'rigid',
             criticality: 'medium',
             powerKw: 30,
+            lineHz: null, // the gearbox alone: its motor is not part of this record
             bearings: [
               { ...b6310, name: 'Input shaft' },
               { ...b6308, name: 'Output shaft', speedRatio: 23 / 79 },
@@ -283,6 +293,7 @@ export const demoPlant: DemoSite[] = [
             foundation: 'rigid',
             criticality: 'high',
             powerKw: 1200,
+            lineHz: 50, // six-pole refiner motor on the mill's 50 Hz supply
             bearings: [b6316, b6314],
             points: motorPoints('Motor DE', 'Motor NDE'),
             story: 'inner-race-early',
@@ -302,6 +313,7 @@ export const demoPlant: DemoSite[] = [
             foundation: 'flexible',
             criticality: 'medium',
             powerKw: 75,
+            lineHz: 50, // eight-pole motor, direct on line
             bladeCount: 10,
             bearings: [b22220, { ...b22220, name: 'Fan NDE' }],
             points: [
@@ -341,6 +353,7 @@ export const demoPlant: DemoSite[] = [
             foundation: 'rigid',
             criticality: 'high',
             powerKw: 200,
+            lineHz: null, // the gearbox alone: its motor is not part of this record
             bearings: [
               { ...b6316, name: 'Input shaft' },
               { ...b6314, name: 'Output shaft', speedRatio: 28 / 97 },
@@ -375,6 +388,7 @@ export const demoPlant: DemoSite[] = [
             foundation: 'flexible',
             criticality: 'low',
             powerKw: 22,
+            lineHz: null, // on an inverter: its supply frequency follows the fan speed
             bladeCount: 6,
             bearings: [b22220],
             points: [
@@ -403,6 +417,7 @@ export const demoPlant: DemoSite[] = [
             foundation: 'rigid',
             criticality: 'high',
             powerKw: 132,
+            lineHz: 50, // two-pole motor, direct on line
             bearings: [b6310, b6308],
             points: motorPoints('Motor DE', 'Motor NDE'),
             story: 'healthy',
@@ -416,6 +431,7 @@ export const demoPlant: DemoSite[] = [
             foundation: 'rigid',
             criticality: 'high',
             powerKw: 132,
+            lineHz: 50, // two-pole motor, direct on line
             bearings: [b6310, b6308],
             points: motorPoints('Motor DE', 'Motor NDE'),
             story: 'healthy',

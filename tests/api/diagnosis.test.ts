@@ -2,7 +2,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { alertDetailSchema } from '@turnstone/contracts/alerts';
 import { analysisListSchema, machineDetailSchema } from '@turnstone/contracts/points';
 import { demoChannels } from '../../apps/gateway-sim/src/plant-channels.ts';
+import { countsToBytes } from '../../apps/gateway-sim/src/sample-bytes.ts';
 import { simulateSnapshot, toIngestItem } from '../../apps/gateway-sim/src/simulated-snapshot.ts';
+import {
+  synthesizeCapture,
+  toneAccelPeakG,
+} from '../../apps/gateway-sim/src/synthesize-capture.ts';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { base64Of, prng } from '../support/signals.ts';
@@ -177,5 +182,155 @@ describe('diagnosis hints stored with the analysis', () => {
     expect(v2!.accelPhaseDeg).toBeCloseTo(200, 0);
     // 0.5 g peak at 25 Hz = 0.5·9806.65/(2π·25)/√2 = 22.07 mm/s RMS (v = a/2πf, definition).
     expect(v1!.velocityRmsMmS).toBeCloseTo(22.07, 1);
+  });
+});
+
+describe("electrical hints from the machine's supply frequency", () => {
+  // A two-pole motor at 2975 r/min (49.58 Hz) on a 50 Hz supply: 2× running speed is
+  // 99.17 Hz, 0.83 Hz from 2 × line frequency (100 Hz) — the classic confusion. The magnetic
+  // pull of a stator peaks twice per electrical cycle, so an electrical cause shows at
+  // 2 × line frequency (common practice, no source). The capture carries 1× 2.5 mm/s, 2×
+  // 0.5 mm/s and a 6.5 mm/s line at 100 Hz: overall ≈ 7 mm/s, above the motors' 2.8 mm/s
+  // alert level (ISO 20816-3 group 2 rigid B/C, from memory).
+  const RPM = 2975;
+  const capture = synthesizeCapture({
+    sampleRateHz: 2560,
+    sampleCount: 32_768, // 12.8 s
+    rpm: RPM,
+    tones: [
+      { order: 1, velocityMmS: 2.5 },
+      { order: 2, velocityMmS: 0.5 },
+    ],
+    hzTones: [{ hz: 100, g: toneAccelPeakG(6.5, 100) / Math.SQRT2 }],
+    noiseG: 0.005,
+    sensitivityMvPerG: 100,
+    adc: { encoding: 'int24', bits: 24, fullScaleV: 5 },
+    tach: true,
+    seed: 1717,
+  });
+  let areaId: number;
+
+  async function machineWithPoints(name: string, lineHz: 50 | null, points: [string, number][]) {
+    const res = await srv.call('POST', '/api/v1/machines', {
+      cookie: admin,
+      body: {
+        areaId,
+        name,
+        type: 'motor',
+        nominalRpm: RPM,
+        isoGroup: 2,
+        foundation: 'rigid',
+        criticality: 'medium',
+        powerKw: 55,
+        bladeCount: null,
+        vaneCount: null,
+        lineHz,
+        bearings: [],
+        gears: [],
+      },
+    });
+    expect(res.status).toBe(201);
+    const machineId = (await res.json()).id as number;
+    for (const [tag, lines] of points) {
+      const p = await srv.call('POST', '/api/v1/points', {
+        cookie: admin,
+        body: {
+          machineId,
+          tag,
+          name: 'Motor drive end, horizontal',
+          location: 'Motor DE',
+          direction: 'H',
+          sensitivityMvPerG: 100,
+          bearingId: null,
+          fmaxHz: 1000,
+          lines,
+        },
+      });
+      expect(p.status).toBe(201);
+    }
+  }
+  async function capturedOn(tag: string) {
+    await ingest({
+      uid: `electrical-${tag}`,
+      pointTag: tag,
+      takenAt: '2026-11-22T08:00:00Z',
+      sampleRateHz: capture.sampleRateHz,
+      encoding: capture.encoding,
+      samples: countsToBytes(capture.counts, capture.encoding).toString('base64'),
+      adc: capture.adc,
+      sensor: { sensitivityMvPerG: 100 },
+      tach: capture.tach!,
+    });
+  }
+
+  beforeAll(async () => {
+    const [a] = await q(
+      "SELECT a.id FROM areas a JOIN sites s ON s.id = a.site_id WHERE s.code = 'MFP' ORDER BY a.id LIMIT 1",
+    );
+    areaId = Number(a!.id);
+    // Fine lines: 6400 lines to 1 kHz at 2560 S/s → 16384-sample segments, Δf 0.156 Hz, so
+    // 100 Hz and 99.17 Hz are 5.3 lines apart. Coarse: 800 lines → Δf 1.25 Hz, 0.67 lines.
+    await machineWithPoints('Filter wash motor M-160', 50, [
+      ['MFP-M160-FINE-H', 6400],
+      ['MFP-M160-COARSE-H', 800],
+    ]);
+    await machineWithPoints('Filter wash motor M-161', null, [['MFP-M161-FINE-H', 6400]]);
+    for (const tag of ['MFP-M160-FINE-H', 'MFP-M160-COARSE-H', 'MFP-M161-FINE-H'])
+      await capturedOn(tag);
+    await createWorker(srv.ctx).drain();
+  });
+
+  it('a 50 Hz machine whose resolution separates 2 × line from 2× gets an electrical hint with the 100 Hz line as evidence', async () => {
+    const [a] = await analysesOf('MFP-M160-FINE-H');
+    expect(a!.speedSource).toBe('tach');
+    const d = a!.diagnosis!;
+    const hint = d.hints.find((h) => h.code === 'electrical')!;
+    expect(hint, JSON.stringify(d)).toBeDefined();
+    expect(d.hints[0]!.code).toBe('electrical');
+    expect(hint.summary).toMatch(/2 × line frequency \(100 Hz, resolved from 2× at 99\.\d+ Hz\)/);
+    expect(hint.evidence).toHaveLength(1);
+    const e = hint.evidence[0]!;
+    expect(e.label).toBe('2 × line');
+    expect(e.spectrum).toBe('velocity');
+    // 2 × 50 Hz (definition); interpolated between 0.156 Hz lines.
+    expect(e.hz).toBeGreaterThan(99.95);
+    expect(e.hz).toBeLessThan(100.05);
+    // In orders of the tach-measured 49.58 Hz: 100 / 49.58 = 2.017.
+    expect(e.order).toBeCloseTo(100 / (RPM / 60), 2);
+    // The synthesised 6.5 mm/s RMS, within the Hann amplitude error between lines (a few
+    // percent; Harris 1978, Proc. IEEE 66(1):51–83, scalloping loss ≤ 1.42 dB before the
+    // main-lobe sum that recovers most of it).
+    expect(e.amplitude).toBeGreaterThan(6.5 * 0.95);
+    expect(e.amplitude).toBeLessThan(6.5 * 1.05);
+    expect(d.notes.join(' ')).not.toMatch(/not resolved/);
+    // The machine page shows the supply frequency the hint came from.
+    const [m] = await q('SELECT machine_id FROM points WHERE tag = ?', ['MFP-M160-FINE-H']);
+    const machine = machineDetailSchema.parse(
+      await (await get(`/machines/${Number(m!.machine_id)}`)).json(),
+    );
+    expect(machine.lineHz).toBe(50);
+  });
+
+  it('the same capture on a machine without a supply frequency gives no electrical hint', async () => {
+    const [a] = await analysesOf('MFP-M161-FINE-H');
+    const d = a!.diagnosis!;
+    expect(d.hints.map((h) => h.code)).not.toContain('electrical');
+    expect(d.notes.join(' ')).not.toMatch(/line frequency/);
+  });
+
+  it('when the lines cannot separate 2 × line frequency from 2×, there is no electrical hint and the hints say so', async () => {
+    const [a] = await analysesOf('MFP-M160-COARSE-H');
+    const d = a!.diagnosis!;
+    expect(d.hints.map((h) => h.code)).not.toContain('electrical');
+    // 0.83 Hz apart at Δf 1.25 Hz is under one line (< 4, a Hann main lobe; Harris 1978).
+    expect(d.notes.join(' ')).toMatch(
+      /2 × line frequency \(100 Hz\) and 2× running speed \(99\.\d+ Hz\) are 0\.\d+ lines apart at Δf 1\.25 Hz: not resolved/,
+    );
+    // 2× reads the 100 Hz line: the misalignment hint carries the same caution.
+    const mis = d.hints.find((h) => h.code === 'misalignment')!;
+    expect(mis, JSON.stringify(d)).toBeDefined();
+    expect(mis.summary).toContain(
+      'At this resolution 2× cannot be told from 2 × line frequency (100 Hz)',
+    );
   });
 });

@@ -236,6 +236,54 @@ describe('machines and points', () => {
     expect(paths).toEqual(expect.arrayContaining(['name', 'nominalRpm', 'isoGroup']));
   });
 
+  it('the supply frequency is 50 Hz, 60 Hz or none; anything else answers 400 on lineHz and changes nothing', async () => {
+    const body = machineBody(areaId, 'Backwash pump P-151');
+    const res = await srv.call('POST', '/api/v1/machines', {
+      cookie: engineer,
+      body: { ...body, lineHz: 60 },
+    });
+    expect(res.status).toBe(201);
+    const id = (await res.json()).id;
+    const lineHzOf = async () => {
+      const tree = await (await srv.call('GET', '/api/v1/setup', { cookie: engineer })).json();
+      return tree.machines.find((x: { id: number }) => x.id === id).lineHz;
+    };
+    expect(await lineHzOf()).toBe(60);
+    for (const wrong of [55, '50', 0]) {
+      const bad = await srv.call('PATCH', `/api/v1/machines/${id}`, {
+        cookie: engineer,
+        body: { ...body, lineHz: wrong },
+      });
+      expect(bad.status).toBe(400);
+      const err = (await bad.json()).error;
+      expect(err.details).toEqual([
+        {
+          path: 'lineHz',
+          message: 'Line frequency is 50 Hz, 60 Hz, or none (no mains-fed motor, or not known).',
+        },
+      ]);
+      expect(await lineHzOf()).toBe(60);
+    }
+    // An edit that leaves the field out (an older client) keeps it; null clears it.
+    const kept = await srv.call('PATCH', `/api/v1/machines/${id}`, {
+      cookie: engineer,
+      body: { ...body, powerKw: 90 },
+    });
+    expect(kept.status).toBe(200);
+    expect(await lineHzOf()).toBe(60);
+    await srv.call('PATCH', `/api/v1/machines/${id}`, {
+      cookie: engineer,
+      body: { ...body, lineHz: null },
+    });
+    expect(await lineHzOf()).toBeNull();
+    // A machine created without it has none.
+    expect(
+      (await (await srv.call('GET', '/api/v1/setup', { cookie: engineer })).json()).machines.find(
+        (x: { id: number }) => x.id === machineId,
+      ).lineHz,
+    ).toBeNull();
+  });
+
   it('a planner or operator may not create or change machines and points (403)', async () => {
     for (const cookie of [planner, operator]) {
       expect(

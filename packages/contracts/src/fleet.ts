@@ -11,6 +11,14 @@ export const machineTypeSchema = z.enum([
 ]);
 export const foundationSchema = z.enum(['rigid', 'flexible']);
 export const criticalitySchema = z.enum(['low', 'medium', 'high']);
+/**
+ * Electrical supply (line) frequency of a machine's motor: 50 or 60 Hz (the two public mains
+ * frequencies, IEC 60038). A machine without a mains-fed motor, or on an inverter, has none.
+ */
+export const lineHzSchema = z.union([z.literal(50), z.literal(60)], {
+  error: 'Line frequency is 50 Hz, 60 Hz, or none (no mains-fed motor, or not known).',
+});
+export type LineHz = z.infer<typeof lineHzSchema>;
 
 /** Worst status of a node, shown with text and shape as well as colour. */
 export const nodeStatusSchema = z.enum(['ok', 'alert', 'danger', 'quality', 'stale', 'none']);

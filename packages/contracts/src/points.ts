@@ -188,6 +188,8 @@ export const machineDetailSchema = z.object({
   powerKw: z.number().nullable(),
   bladeCount: z.number().int().nullable(),
   vaneCount: z.number().int().nullable(),
+  /** Supply frequency of the machine's motor, Hz (50 or 60); null when none or not known. */
+  lineHz: z.number().int().nullable(),
   notes: z.string().nullable(),
   site: z.object({ id: z.number().int(), name: z.string(), code: z.string() }),
   area: z.object({ id: z.number().int(), name: z.string() }),

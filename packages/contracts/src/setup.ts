@@ -8,6 +8,7 @@ import {
   criticalitySchema,
   directionSchema,
   foundationSchema,
+  lineHzSchema,
   machineTypeSchema,
 } from './fleet.ts';
 
@@ -114,6 +115,11 @@ export const machineInputSchema = z.object({
   powerKw: num(0.01, 1_000_000, 'Power').nullable(),
   bladeCount: int(1, 500, 'Blade count').nullable(),
   vaneCount: int(1, 500, 'Vane count').nullable(),
+  /**
+   * Supply frequency of the machine's motor, Hz (50 or 60), or null: no mains-fed motor on
+   * the measured train, or not known. Left out of an edit, the stored value stays.
+   */
+  lineHz: lineHzSchema.nullable().optional(),
   notes: freeText(z.string().max(2000)).nullish(),
   /** The whole list: bearings left out are removed (points on them lose the link). */
   bearings: z.array(bearingInputSchema).max(50),
@@ -221,6 +227,7 @@ export const setupMachineSchema = z.object({
   powerKw: z.number().nullable(),
   bladeCount: z.number().nullable(),
   vaneCount: z.number().nullable(),
+  lineHz: z.number().int().nullable(),
   notes: z.string().nullable(),
   bearings: z.array(setupBearingSchema),
   gears: z.array(setupGearSchema),

@@ -81,6 +81,12 @@ export const machines = mysqlTable(
     powerKw: double('power_kw'),
     bladeCount: smallint('blade_count'),
     vaneCount: smallint('vane_count'),
+    /**
+     * Electrical supply (line) frequency of the machine's motor, Hz: 50 or 60; null when the
+     * machine has no mains-fed motor on the measured train or the frequency is unknown (an
+     * inverter drive, say). The diagnosis looks for 2 × this frequency.
+     */
+    lineHz: smallint('line_hz'),
     /** Belt drive: driver and driven sheave diameters and belt length, millimetres. */
     belt: jsonColumn<{
       driverSheaveMm: number;

@@ -365,6 +365,8 @@ function diagnosisComponentsOf(pc: repo.PointContext): DiagnosisComponents {
     })),
     gears: pc.gears.map((g) => ({ name: g.name, teeth: g.teeth, speedRatio: g.speedRatio })),
     ...(blades ? { blades } : {}),
+    // The supply frequency the engineer recorded; none, no electrical hint (and no note).
+    ...(m.lineHz !== null ? { lineHz: m.lineHz } : {}),
     // The machine's speed is its driver's: the belt frequency is read on the driver sheave.
     ...(m.belt
       ? {

@@ -68,6 +68,7 @@ export async function seedPlant(ctx: AppContext): Promise<void> {
               powerKw: m.powerKw,
               bladeCount: m.bladeCount ?? null,
               vaneCount: m.vaneCount ?? null,
+              lineHz: m.lineHz,
               notes: `Demo story: ${m.story}.`,
             })
             .$returningId();

@@ -177,6 +177,7 @@ export async function machineDetail(
     powerKw: machine.powerKw,
     bladeCount: machine.bladeCount,
     vaneCount: machine.vaneCount,
+    lineHz: machine.lineHz,
     notes: machine.notes,
     site: { id: row.site.id, name: row.site.name, code: row.site.code },
     area: { id: row.area.id, name: row.area.name },

@@ -59,6 +59,7 @@ export async function setupTree(db: Db, user: SessionUser): Promise<SetupTree> {
       powerKw: m.powerKw,
       bladeCount: m.bladeCount,
       vaneCount: m.vaneCount,
+      lineHz: m.lineHz,
       notes: m.notes,
       bearings: bearingRows
         .filter((b) => b.machineId === m.id)
@@ -191,6 +192,8 @@ const machineColumns = (input: MachineInput) => ({
   powerKw: input.powerKw,
   bladeCount: input.bladeCount,
   vaneCount: input.vaneCount,
+  // Left out (an older client's edit): the stored supply frequency stays.
+  ...(input.lineHz !== undefined ? { lineHz: input.lineHz } : {}),
   notes: input.notes ?? null,
 });
 

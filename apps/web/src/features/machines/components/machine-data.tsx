@@ -24,6 +24,10 @@ export function MachineData({ machine }: { machine: MachineDetail }) {
   ];
   if (m.bladeCount) rows.push(['Blades', String(m.bladeCount)]);
   if (m.vaneCount) rows.push(['Vanes', String(m.vaneCount)]);
+  rows.push([
+    'Supply frequency',
+    m.lineHz === null ? 'none or not known' : `${m.lineHz} Hz (2 × line ${2 * m.lineHz} Hz)`,
+  ]);
   return (
     <div className="grid gap-4 lg:grid-cols-[22rem_minmax(0,1fr)]">
       <Card className="p-4">

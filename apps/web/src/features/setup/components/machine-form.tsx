@@ -24,6 +24,7 @@ const FIELDS = [
   'powerKw',
   'bladeCount',
   'vaneCount',
+  'lineHz',
   'notes',
   'bearings',
   'gears',
@@ -73,6 +74,7 @@ export function MachineForm({
       ? {
           ...machine,
           isoGroup: machine.isoGroup === 1 ? (1 as const) : (2 as const),
+          lineHz: machine.lineHz === 50 || machine.lineHz === 60 ? machine.lineHz : null,
           bearings: machine.bearings.map((b) => ({ ...b, designation: b.designation ?? '' })),
         }
       : {
@@ -86,6 +88,7 @@ export function MachineForm({
           powerKw: null,
           bladeCount: null,
           vaneCount: null,
+          lineHz: null,
           notes: '',
           bearings: [],
           gears: [],
@@ -199,6 +202,19 @@ export function MachineForm({
           error={errors.vaneCount?.message}
           registration={form.register('vaneCount', { setValueAs: asNullableNumber })}
         />
+        <Field
+          label="Supply frequency"
+          hint="Of the motor on this machine; none for a machine without a mains-fed motor or on an inverter."
+          error={errors.lineHz?.message}
+        >
+          {({ invalid: _i, ...ids }) => (
+            <Select {...ids} {...form.register('lineHz', { setValueAs: asNullableNumber })}>
+              <option value="">None or not known</option>
+              <option value={50}>50 Hz</option>
+              <option value={60}>60 Hz</option>
+            </Select>
+          )}
+        </Field>
       </div>
 
       <FormSection title="Rolling-element bearings">
