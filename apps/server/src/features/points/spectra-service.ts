@@ -7,7 +7,7 @@ import type { Spectrum, SpectrumKind, Waterfall } from '@turnstone/contracts/poi
 
 import { AppError } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
-import { accessiblePoint } from '../../lib/point-access.ts';
+import { accessiblePoint } from '../places/point-access.ts';
 import { type SessionUser } from '../../lib/session-user.ts';
 
 import * as repo from './points-repository.ts';
