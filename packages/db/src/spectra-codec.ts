@@ -124,7 +124,7 @@ export function decodeSpectra(blob: Uint8Array): SpectraOut {
   const total = heads.reduce((s, h) => s + 2 * h.lines, at);
   if (total !== body.length)
     throw new RangeError(`stored spectra: ${body.length} bytes where the header says ${total}`);
-  const stepDecades = SPECTRA_STEP_DB / 20;
+  const factor = levelFactors();
   kinds.forEach((kind, k) => {
     const { lines: n, ref } = heads[k]!;
     const values = new Float32Array(n);
@@ -132,12 +132,23 @@ export function decodeSpectra(blob: Uint8Array): SpectraOut {
     for (let i = 0; i < n; i++) {
       const z = (body[at + i]! << 8) | body[at + n + i]!;
       c = (c + ((z >>> 1) ^ -(z & 1))) & 0xffff;
-      if (c !== 0) values[i] = ref * 10 ** (-(TOP - c) * stepDecades);
+      values[i] = ref * factor[c]!;
     }
     at += 2 * n;
     out[kind] = values;
   });
   return out;
+}
+
+let factors: Float64Array | null = null;
+
+/** 10^(−(65535 − code)·STEP/20) for every code, 0 for code 0: one multiplication a line. */
+function levelFactors(): Float64Array {
+  if (!factors) {
+    factors = new Float64Array(TOP + 1);
+    for (let c = 1; c <= TOP; c++) factors[c] = 10 ** ((-(TOP - c) * SPECTRA_STEP_DB) / 20);
+  }
+  return factors;
 }
 
 /** The column of a row written before `analyses.spectra` existed (float32 little-endian). */
