@@ -114,6 +114,9 @@ describe('stored spectra: 16-bit log-amplitude code, deflated', () => {
     expect(out.velocity!.length).toBe(2);
     expect(out.envelope).toBeNull();
     expect(out.order).toBeNull();
+    const one = decodeSpectra(encodeSpectra({ acceleration: [], velocity: [1, 2] }), 'velocity');
+    expect(one.acceleration).toBeNull();
+    expect(one.velocity![1]).toBe(2); // the largest line is stored exactly
     expect(decodeSpectra(encodeSpectra({}))).toEqual({
       acceleration: null,
       velocity: null,

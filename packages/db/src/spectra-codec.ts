@@ -107,8 +107,11 @@ function encodeOne(
   return { lines: n, ref, codes };
 }
 
-/** The stored BLOB → the spectra (float32, as the API sends them). Throws on a damaged BLOB. */
-export function decodeSpectra(blob: Uint8Array): SpectraOut {
+/**
+ * The stored BLOB → the spectra (float32, as the API sends them); with `only`, the others
+ * stay null (a reader of one spectrum skips decoding the rest). Throws on a damaged BLOB.
+ */
+export function decodeSpectra(blob: Uint8Array, only?: SpectrumKind): SpectraOut {
   if (blob.length < 1 || blob[0] !== FORMAT)
     throw new RangeError(`stored spectra: unknown format ${blob[0] ?? 'of an empty BLOB'}`);
   const body = inflateRawSync(blob.subarray(1));
@@ -127,6 +130,10 @@ export function decodeSpectra(blob: Uint8Array): SpectraOut {
   const factor = levelFactors();
   kinds.forEach((kind, k) => {
     const { lines: n, ref } = heads[k]!;
+    if (only !== undefined && kind !== only) {
+      at += 2 * n;
+      return;
+    }
     const values = new Float32Array(n);
     let c = 0;
     for (let i = 0; i < n; i++) {
@@ -173,7 +180,7 @@ export interface StoredSpectraRow {
  * from the old float32 column. Null when the analysis has no such spectrum.
  */
 export function storedSpectrum(row: StoredSpectraRow, kind: SpectrumKind): Float32Array | null {
-  if (row.spectra) return decodeSpectra(row.spectra)[kind];
+  if (row.spectra) return decodeSpectra(row.spectra, kind)[kind];
   return float32Of(row[legacySpectrumColumn[kind]]);
 }
 
