@@ -180,8 +180,17 @@ export interface StoredSpectraRow {
  * from the old float32 column. Null when the analysis has no such spectrum.
  */
 export function storedSpectrum(row: StoredSpectraRow, kind: SpectrumKind): Float32Array | null {
-  if (row.spectra) return decodeSpectra(row.spectra, kind)[kind];
-  return float32Of(row[legacySpectrumColumn[kind]]);
+  return readSpectrum(kind, row.spectra, row[legacySpectrumColumn[kind]]);
+}
+
+/** {@link storedSpectrum} from the two columns a reader selected: the compact BLOB and `kind`'s old one. */
+export function readSpectrum(
+  kind: SpectrumKind,
+  compact: Uint8Array | null | undefined,
+  legacy: Uint8Array | null | undefined,
+): Float32Array | null {
+  if (compact) return decodeSpectra(compact, kind)[kind];
+  return float32Of(legacy);
 }
 
 /** A little-endian float32 BLOB → its values (copied: a Buffer may sit at any byte offset). */
