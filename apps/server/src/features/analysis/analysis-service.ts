@@ -22,6 +22,7 @@ import {
   type JobRow,
 } from '../worker/queue-repository.ts';
 import * as repo from './analysis-repository.ts';
+import { storedSummaryOf } from './stored-summary.ts';
 import { combineBandValues, toDspBands } from './band-mapping.ts';
 import { startConditionBatch } from './condition-step.ts';
 import { templateBandsFor } from '../limits/limits-service.ts';
@@ -273,7 +274,7 @@ export async function storeAnalyses(
           qualityVerdict: analysis.quality.verdict,
           bitsUsed: analysis.quality.bitsUsed,
           qualityFindings: analysis.quality.findings,
-          summary: summaryOf(analysis),
+          summary: storedSummaryOf(analysis),
           spectra,
           diagnosis: diagnosisOf(p, condition.stateOf(snap.pointId)),
           shaftVectors: analysis.shaftVectors as unknown as Record<string, unknown>[] | null,
@@ -422,59 +423,4 @@ function diagnosisOf(p: PreparedAnalysis, state: PointState | null): Record<stri
       severitySource: severity.source,
     };
   }
-}
-
-/** What the web app needs to draw the stored spectra, besides their values. */
-function summaryOf(a: SnapshotAnalysis) {
-  return {
-    schemaVersion: a.schemaVersion,
-    sampleRateHz: a.sampleRateHz,
-    sampleCount: a.sampleCount,
-    durationS: a.durationS,
-    fmaxHz: a.fmaxHz,
-    isoBand: a.overall.isoBand,
-    isoBandHz: a.overall.isoBandHz,
-    accelBandHz: a.overall.accelBandHz,
-    snrDb: a.quality.snrDb,
-    qualityMetrics: a.quality.metrics,
-    speed: a.speed,
-    spectra: {
-      acceleration: {
-        unit: a.spectra.acceleration.unit,
-        scale: a.spectra.acceleration.scale,
-        dfHz: a.spectra.acceleration.dfHz,
-        window: a.spectra.acceleration.window,
-        nperseg: a.spectra.acceleration.nperseg,
-        averages: a.spectra.acceleration.averages,
-        lines: a.spectra.acceleration.values.length,
-      },
-      velocity: {
-        unit: a.spectra.velocity.unit,
-        scale: a.spectra.velocity.scale,
-        dfHz: a.spectra.velocity.dfHz,
-        lowCutoffHz: a.spectra.velocity.lowCutoffHz,
-        lines: a.spectra.velocity.values.length,
-      },
-      envelope: a.spectra.envelope
-        ? {
-            unit: a.spectra.envelope.unit,
-            scale: a.spectra.envelope.scale,
-            dfHz: a.spectra.envelope.dfHz,
-            bandHz: a.spectra.envelope.bandHz,
-            lines: a.spectra.envelope.values.length,
-          }
-        : null,
-      order: a.spectra.order
-        ? {
-            unit: a.spectra.order.unit,
-            scale: a.spectra.order.scale,
-            dOrder: a.spectra.order.dOrder,
-            method: a.spectra.order.method,
-            lines: a.spectra.order.values.length,
-          }
-        : null,
-    },
-    peaks: a.peaks,
-    faultFrequencies: a.faultFrequencies,
-  };
 }

@@ -1,3 +1,4 @@
+import { readStoredSummary, type StoredSummary } from '../analysis/stored-summary.ts';
 import { and, asc, desc, eq, gte, inArray, isNull, lte, or, sql } from 'drizzle-orm';
 import type { BandState } from '@turnstone/condition';
 import type { Db } from '@turnstone/db/client';
@@ -175,8 +176,8 @@ export async function bandTrend(
 export async function analysisBandsOf(
   db: Db,
   ids: readonly number[],
-): Promise<Map<number, { isoBandHz: unknown; accelBandHz: unknown }>> {
-  const out = new Map<number, { isoBandHz: unknown; accelBandHz: unknown }>();
+): Promise<Map<number, Pick<StoredSummary, 'isoBandHz' | 'accelBandHz'>>> {
+  const out = new Map<number, Pick<StoredSummary, 'isoBandHz' | 'accelBandHz'>>();
   const unique = [...new Set(ids)];
   for (let i = 0; i < unique.length; i += 1000) {
     const rows = await db
@@ -184,7 +185,7 @@ export async function analysisBandsOf(
       .from(analyses)
       .where(inArray(analyses.id, unique.slice(i, i + 1000)));
     for (const r of rows) {
-      const summary = (r.summary ?? {}) as { isoBandHz?: unknown; accelBandHz?: unknown };
+      const summary = readStoredSummary(r.summary);
       out.set(r.id, { isoBandHz: summary.isoBandHz, accelBandHz: summary.accelBandHz });
     }
   }
@@ -294,5 +295,34 @@ export async function recentSpectra(db: Db, pointId: number, kind: SpectrumKind,
 
 export async function snapshotRow(db: Db, snapshotId: number) {
   const [row] = await db.select().from(snapshots).where(eq(snapshots.id, snapshotId));
+  return row;
+}
+
+/** A snapshot's status, for the upload screen's poll. */
+export async function snapshotStatusRow(db: Db, snapshotId: number) {
+  const [row] = await db
+    .select({
+      id: snapshots.id,
+      pointId: snapshots.pointId,
+      source: snapshots.source,
+      status: snapshots.status,
+      statusReason: snapshots.statusReason,
+      takenAt: snapshots.takenAt,
+      receivedAt: snapshots.receivedAt,
+      sampleRateHz: snapshots.sampleRateHz,
+      sampleCount: snapshots.sampleCount,
+      fileName: snapshots.fileName,
+    })
+    .from(snapshots)
+    .where(eq(snapshots.id, snapshotId));
+  return row;
+}
+
+/** The analysis of a snapshot (summary columns and quality findings), if it has one. */
+export async function analysisOfSnapshot(db: Db, snapshotId: number) {
+  const [row] = await db
+    .select({ ...summaryColumns, qualityFindings: analyses.qualityFindings })
+    .from(analyses)
+    .where(eq(analyses.snapshotId, snapshotId));
   return row;
 }
