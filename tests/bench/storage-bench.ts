@@ -31,6 +31,9 @@ const pool = srv.ctx.dbHandle.pool;
 const q = async <T>(text: string, params: unknown[] = []) =>
   (await pool.query(text, params))[0] as T;
 
+const count = async () =>
+  Number((await q<{ n: number }[]>('SELECT COUNT(*) AS n FROM analyses'))[0]!.n);
+
 /** Data + index bytes (InnoDB statistics) and the tablespace file's allocated bytes. */
 async function sizes(): Promise<Record<string, TableSize>> {
   await q(`ANALYZE TABLE ${TABLES.join(', ')}`);
@@ -65,7 +68,7 @@ try {
     keys.set(s.code, await createGatewayKey(srv.url, cookie, s.id, `storage-${s.code}`));
   const channels = demoChannels().filter((c) => keys.has(c.siteCode));
   await q("UPDATE jobs SET state = 'done' WHERE state = 'queued'");
-  const [{ n: analysesBefore }] = await q<{ n: number }[]>('SELECT COUNT(*) AS n FROM analyses');
+  const analysesBefore = await count();
   const before = await sizes();
 
   // Captures ten minutes apart per channel, the story's progress running 0 → 1 over the run.
@@ -94,11 +97,11 @@ try {
   const jobs = await worker.drain();
   const drainS = (performance.now() - t1) / 1000;
 
-  const [{ n: analysesAfter }] = await q<{ n: number }[]>('SELECT COUNT(*) AS n FROM analyses');
+  const analysesAfter = await count();
   const captures = analysesAfter - analysesBefore;
   if (captures < COUNT * 0.9) throw new Error(`only ${captures} of ${COUNT} captures analysed`);
   // Reference: the float64 bytes of the spectra these analyses hold (lines from the summary).
-  const [{ nlines }] = await q<{ nlines: number | string }[]>(
+  const [{ nlines }] = await q<[{ nlines: number | string }]>(
     `SELECT SUM(COALESCE(JSON_VALUE(summary, '$.spectra.acceleration.lines'), 0)
               + COALESCE(JSON_VALUE(summary, '$.spectra.velocity.lines'), 0)
               + COALESCE(JSON_VALUE(summary, '$.spectra.envelope.lines'), 0)
