@@ -5,6 +5,7 @@
  * computation runs outside the transaction, and the batch commits once (one fsync).
  */
 import { analyzeSnapshot, decodeSamples, type SnapshotAnalysis } from '@turnstone/dsp';
+import { encodeSpectra } from '@turnstone/db/spectra-codec';
 import {
   diagnose,
   diagnosisSeverity,
@@ -28,9 +29,6 @@ import { templateBandsFor } from '../limits/limits-service.ts';
 import { storedSampleBytes } from '../ingest/sample-storage.ts';
 
 export class PermanentJobError extends Error {}
-
-const f32 = (a: Float32Array | null | undefined) =>
-  a ? Buffer.from(a.buffer, a.byteOffset, a.byteLength) : null;
 
 /** The points' limit sets, each created from its machine type's template the first time. */
 async function ensureLimitSets(
@@ -72,6 +70,8 @@ export interface PreparedAnalysis {
   pc: repo.PointContext;
   limitSet: repo.StoredLimitSet;
   analysis: SnapshotAnalysis;
+  /** The analysis's spectra in their stored form (one compact BLOB). */
+  spectra: Buffer;
   values: Record<string, number | null>;
   zone: 'A' | 'B' | 'C' | 'D' | null;
 }
@@ -159,6 +159,7 @@ function prepareOne(
     snap.encoding,
   );
   let analysis: SnapshotAnalysis;
+  let spectra: Buffer;
   try {
     analysis = analyzeSnapshot({
       samples,
@@ -177,6 +178,14 @@ function prepareOne(
         ? { envelopeBandHz: [pc.point.envelopeLoHz, pc.point.envelopeHiHz] as const }
         : {}),
     });
+    // Encoded here, outside the batch's transaction: a spectrum the code cannot hold (a
+    // NaN line) fails its own job, not the batch.
+    spectra = encodeSpectra({
+      acceleration: analysis.spectra.acceleration.values,
+      velocity: analysis.spectra.velocity.values,
+      envelope: analysis.spectra.envelope?.values,
+      order: analysis.spectra.order?.values,
+    });
   } catch (err) {
     if (err instanceof RangeError || err instanceof TypeError)
       throw new PermanentJobError(`analysis refused the snapshot: ${err.message}`);
@@ -187,7 +196,7 @@ function prepareOne(
   const zone = Number.isFinite(analysis.overall.velocityRmsMmS)
     ? isoZone(analysis.overall.velocityRmsMmS, group, pc.machine.foundation)
     : null;
-  return { job, snap, pc, limitSet, analysis, values, zone };
+  return { job, snap, pc, limitSet, analysis, spectra, values, zone };
 }
 
 /**
@@ -248,7 +257,7 @@ export async function storeAnalyses(
     const ids = await repo.insertAnalyses(
       tx,
       batch.map((p) => {
-        const { snap, analysis, zone } = p;
+        const { snap, analysis, spectra, zone } = p;
         return {
           snapshotId: snap.id,
           pointId: snap.pointId,
@@ -266,10 +275,7 @@ export async function storeAnalyses(
           bitsUsed: analysis.quality.bitsUsed,
           qualityFindings: analysis.quality.findings,
           summary: storedSummaryOf(analysis),
-          accelSpectrum: f32(analysis.spectra.acceleration.values),
-          velocitySpectrum: f32(analysis.spectra.velocity.values),
-          envelopeSpectrum: f32(analysis.spectra.envelope?.values),
-          orderSpectrum: f32(analysis.spectra.order?.values),
+          spectra,
           diagnosis: diagnosisOf(p, condition.stateOf(snap.pointId)),
           shaftVectors: analysis.shaftVectors as unknown as Record<string, unknown>[] | null,
         };

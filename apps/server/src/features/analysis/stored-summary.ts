@@ -1,6 +1,6 @@
 /**
  * The analysis summary JSON stored with every analysis (`analyses.summary`): what the web app
- * needs to draw the stored spectra besides the float32 arrays, the speed, the peaks and the
+ * needs to draw the stored spectra besides their values, the speed, the peaks and the
  * fault frequencies. One schema serves the writer (`storedSummaryOf`, typed by it) and every
  * reader (`readStoredSummary`, parsed by it). Fields added over time are optional, so rows
  * written by older versions still read.

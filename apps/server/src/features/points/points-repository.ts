@@ -2,6 +2,7 @@ import { readStoredSummary, type StoredSummary } from '../analysis/stored-summar
 import { and, asc, desc, eq, gte, inArray, isNull, lte, or, sql } from 'drizzle-orm';
 import type { BandState } from '@turnstone/condition';
 import type { Db } from '@turnstone/db/client';
+import { legacySpectrumColumn, type SpectrumKind } from '@turnstone/db/spectra-codec';
 import {
   alertEvents,
   alerts,
@@ -271,19 +272,20 @@ export async function analysisRow(db: Db, analysisId: number) {
   return row;
 }
 
-/** The spectra of the last `limit` analyses of a point, newest first. */
-export async function recentSpectra(
-  db: Db,
-  pointId: number,
-  column: 'accelSpectrum' | 'velocitySpectrum' | 'envelopeSpectrum' | 'orderSpectrum',
-  limit: number,
-) {
+/**
+ * The stored spectra of the last `limit` analyses of a point, newest first: the compact
+ * BLOB, and for rows written before it the old float32 column of `kind` as `legacy`
+ * (read either with `readSpectrum`).
+ */
+export async function recentSpectra(db: Db, pointId: number, kind: SpectrumKind, limit: number) {
+  const legacy = legacySpectrumColumn[kind];
   return db
     .select({
       id: analyses.id,
       takenAt: analyses.takenAt,
       summary: analyses.summary,
-      values: analyses[column],
+      spectra: analyses.spectra,
+      legacy: analyses[legacy],
     })
     .from(analyses)
     .where(eq(analyses.pointId, pointId))

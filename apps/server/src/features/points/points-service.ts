@@ -1,6 +1,6 @@
 /**
  * The Machine and Point analysis views: machine data with fault frequencies, point detail,
- * the analyses list, stored spectra (float32 BLOBs sent as base64), the time waveform from
+ * the analyses list, stored spectra (one compact BLOB, sent as base64 float32), the time waveform from
  * the raw snapshot, the waterfall, the band trend with levels and projection, and downloads.
  * Services take the signed-in user and check per-site access; they never see req/res.
  */

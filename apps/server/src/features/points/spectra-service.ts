@@ -1,9 +1,12 @@
 /**
  * Stored spectra of a point's captures: one spectrum with its peaks and fault frequencies, and
- * the waterfall of recent captures. Spectra are float32 BLOBs, sent to the browser as base64.
+ * the waterfall of recent captures. Spectra are stored in one compact BLOB per analysis (or,
+ * for rows written before it, four float32 BLOBs), read through `@turnstone/db/spectra-codec`
+ * and sent to the browser as base64 of float32.
  */
 
 import type { Spectrum, SpectrumKind, Waterfall } from '@turnstone/contracts/points';
+import { readSpectrum, storedSpectrum } from '@turnstone/db/spectra-codec';
 
 import { AppError } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
@@ -15,13 +18,6 @@ import { readStoredSummary } from '../analysis/stored-summary.ts';
 import { accessibleAnalysis } from './points-service.ts';
 
 const iso = (d: Date) => d.toISOString();
-
-const columnOf = {
-  acceleration: 'accelSpectrum',
-  velocity: 'velocitySpectrum',
-  envelope: 'envelopeSpectrum',
-  order: 'orderSpectrum',
-} as const;
 
 /** Largest local maxima of a stored spectrum (line values, no interpolation), largest first. */
 export function simplePeaks(
@@ -36,13 +32,6 @@ export function simplePeaks(
   return found.sort((a, b) => b.amplitude - a.amplitude).slice(0, count);
 }
 
-function float32Of(blob: Buffer | null | undefined): Float32Array | null {
-  if (!blob) return null;
-  const copy = new Uint8Array(blob.byteLength);
-  copy.set(blob);
-  return new Float32Array(copy.buffer, 0, Math.floor(copy.byteLength / 4));
-}
-
 export async function spectrum(
   ctx: AppContext,
   user: SessionUser,
@@ -52,8 +41,7 @@ export async function spectrum(
   const { analysis } = await accessibleAnalysis(ctx, user, analysisId);
   const summary = readStoredSummary(analysis.summary);
   const meta = summary.spectra?.[kind] ?? null;
-  const blob = analysis[columnOf[kind]];
-  const values = float32Of(blob);
+  const values = storedSpectrum(analysis, kind);
   if (!meta || !values)
     throw new AppError(
       'spectrum_unavailable',
@@ -105,13 +93,13 @@ export async function waterfall(
   limit: number,
 ): Promise<Waterfall> {
   await accessiblePoint(ctx.db, user, pointId);
-  const rows = await repo.recentSpectra(ctx.db, pointId, columnOf[kind], limit);
+  const rows = await repo.recentSpectra(ctx.db, pointId, kind, limit);
   const axis = kind === 'order' ? 'order' : 'hz';
   let unit = kind === 'velocity' ? 'mm/s' : 'g';
   const items: Waterfall['items'] = [];
   for (const r of rows) {
     const meta = readStoredSummary(r.summary).spectra?.[kind];
-    const values = float32Of(r.values);
+    const values = readSpectrum(kind, r.spectra, r.legacy);
     if (!meta || !values) continue;
     unit = meta.unit;
     items.push({
