@@ -495,7 +495,9 @@ describe('point tags are unique per site, not across the installation', () => {
     const pointOf = async (res: Response) =>
       Number(
         (
-          await q('SELECT point_id FROM snapshots WHERE id = ?', [(await res.json()).snapshotId])
+          await q('SELECT point_id FROM snapshots WHERE id = ?', [
+            ((await res.json()) as { snapshotId: number }).snapshotId,
+          ])
         )[0]!.point_id,
       );
     const notYet = await ingest(trbKey, 'mover-trb-0');
