@@ -22,7 +22,7 @@ import type { SnapshotStatus } from '@turnstone/contracts/uploads';
 import type { Db } from '@turnstone/db/client';
 import { forbidden, notFound } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
-import { accessiblePoint } from '../../lib/point-access.ts';
+import { accessiblePoint } from '../places/point-access.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { loadLimitSet } from '../analysis/analysis-repository.ts';
 import { pointStatus, QUALITY_MARK_MS, worst } from '../fleet/fleet-service.ts';

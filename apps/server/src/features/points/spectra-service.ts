@@ -10,7 +10,7 @@ import { readSpectrum, storedSpectrum } from '@turnstone/db/spectra-codec';
 
 import { AppError } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
-import { accessiblePoint } from '../../lib/point-access.ts';
+import { accessiblePoint } from '../places/point-access.ts';
 import { type SessionUser } from '../../lib/session-user.ts';
 
 import * as repo from './points-repository.ts';

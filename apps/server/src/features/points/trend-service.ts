@@ -11,7 +11,7 @@ import type { TrendResponse } from '@turnstone/contracts/trend';
 
 import { AppError } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
-import { accessiblePoint } from '../../lib/point-access.ts';
+import { accessiblePoint } from '../places/point-access.ts';
 import { type SessionUser } from '../../lib/session-user.ts';
 import { loadLimitSet } from '../analysis/analysis-repository.ts';
 
