@@ -100,7 +100,8 @@ function encodeOne(
     for (let i = 0; i < n; i++) {
       const v = values[i]!;
       if (v === 0) continue;
-      const c = TOP - Math.round((logRef - Math.log10(v)) * perDecade);
+      // Non-negative and below 2^31 for any finite doubles: | 0 rounds like Math.round.
+      const c = TOP - (((logRef - Math.log10(v)) * perDecade + 0.5) | 0);
       codes[i] = c < 1 ? 0 : c;
     }
   }
