@@ -244,7 +244,7 @@ export type NewAnalysis = typeof analyses.$inferInsert;
  * Inserts analyses in one statement and returns their ids by snapshot id. RETURNING
  * (MariaDB ≥ 10.5) rather than insertId + n: ids of a multi-row insert are consecutive only
  * under some auto-increment lock modes (not Galera's). Sent as a prepared statement on the
- * transaction's connection: the binary protocol carries the float32 spectra as they are,
+ * transaction's connection: the binary protocol carries the spectra BLOBs as they are,
  * where the text protocol would spell every byte as two hex digits.
  */
 export async function insertAnalyses(tx: Tx, rows: NewAnalysis[]): Promise<Map<number, number>> {

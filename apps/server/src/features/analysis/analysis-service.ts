@@ -5,6 +5,7 @@
  * computation runs outside the transaction, and the batch commits once (one fsync).
  */
 import { analyzeSnapshot, decodeSamples, type SnapshotAnalysis } from '@turnstone/dsp';
+import { encodeSpectra } from '@turnstone/db/spectra-codec';
 import {
   diagnose,
   diagnosisSeverity,
@@ -21,15 +22,13 @@ import {
   type JobRow,
 } from '../worker/queue-repository.ts';
 import * as repo from './analysis-repository.ts';
+import { storedSummaryOf } from './stored-summary.ts';
 import { combineBandValues, toDspBands } from './band-mapping.ts';
 import { startConditionBatch } from './condition-step.ts';
 import { templateBandsFor } from '../limits/limits-service.ts';
 import { storedSampleBytes } from '../ingest/sample-storage.ts';
 
 export class PermanentJobError extends Error {}
-
-const f32 = (a: Float32Array | null | undefined) =>
-  a ? Buffer.from(a.buffer, a.byteOffset, a.byteLength) : null;
 
 /** The points' limit sets, each created from its machine type's template the first time. */
 async function ensureLimitSets(
@@ -71,6 +70,8 @@ export interface PreparedAnalysis {
   pc: repo.PointContext;
   limitSet: repo.StoredLimitSet;
   analysis: SnapshotAnalysis;
+  /** The analysis's spectra in their stored form (one compact BLOB). */
+  spectra: Buffer;
   values: Record<string, number | null>;
   zone: 'A' | 'B' | 'C' | 'D' | null;
 }
@@ -158,6 +159,7 @@ function prepareOne(
     snap.encoding,
   );
   let analysis: SnapshotAnalysis;
+  let spectra: Buffer;
   try {
     analysis = analyzeSnapshot({
       samples,
@@ -176,6 +178,14 @@ function prepareOne(
         ? { envelopeBandHz: [pc.point.envelopeLoHz, pc.point.envelopeHiHz] as const }
         : {}),
     });
+    // Encoded here, outside the batch's transaction: a spectrum the code cannot hold (a
+    // NaN line) fails its own job, not the batch.
+    spectra = encodeSpectra({
+      acceleration: analysis.spectra.acceleration.values,
+      velocity: analysis.spectra.velocity.values,
+      envelope: analysis.spectra.envelope?.values,
+      order: analysis.spectra.order?.values,
+    });
   } catch (err) {
     if (err instanceof RangeError || err instanceof TypeError)
       throw new PermanentJobError(`analysis refused the snapshot: ${err.message}`);
@@ -186,7 +196,7 @@ function prepareOne(
   const zone = Number.isFinite(analysis.overall.velocityRmsMmS)
     ? isoZone(analysis.overall.velocityRmsMmS, group, pc.machine.foundation)
     : null;
-  return { job, snap, pc, limitSet, analysis, values, zone };
+  return { job, snap, pc, limitSet, analysis, spectra, values, zone };
 }
 
 /**
@@ -247,7 +257,7 @@ export async function storeAnalyses(
     const ids = await repo.insertAnalyses(
       tx,
       batch.map((p) => {
-        const { snap, analysis, zone } = p;
+        const { snap, analysis, spectra, zone } = p;
         return {
           snapshotId: snap.id,
           pointId: snap.pointId,
@@ -264,11 +274,8 @@ export async function storeAnalyses(
           qualityVerdict: analysis.quality.verdict,
           bitsUsed: analysis.quality.bitsUsed,
           qualityFindings: analysis.quality.findings,
-          summary: summaryOf(analysis),
-          accelSpectrum: f32(analysis.spectra.acceleration.values),
-          velocitySpectrum: f32(analysis.spectra.velocity.values),
-          envelopeSpectrum: f32(analysis.spectra.envelope?.values),
-          orderSpectrum: f32(analysis.spectra.order?.values),
+          summary: storedSummaryOf(analysis),
+          spectra,
           diagnosis: diagnosisOf(p, condition.stateOf(snap.pointId)),
           shaftVectors: analysis.shaftVectors as unknown as Record<string, unknown>[] | null,
         };
@@ -416,59 +423,4 @@ function diagnosisOf(p: PreparedAnalysis, state: PointState | null): Record<stri
       severitySource: severity.source,
     };
   }
-}
-
-/** What the web app needs to draw the stored spectra, besides the float32 arrays. */
-function summaryOf(a: SnapshotAnalysis) {
-  return {
-    schemaVersion: a.schemaVersion,
-    sampleRateHz: a.sampleRateHz,
-    sampleCount: a.sampleCount,
-    durationS: a.durationS,
-    fmaxHz: a.fmaxHz,
-    isoBand: a.overall.isoBand,
-    isoBandHz: a.overall.isoBandHz,
-    accelBandHz: a.overall.accelBandHz,
-    snrDb: a.quality.snrDb,
-    qualityMetrics: a.quality.metrics,
-    speed: a.speed,
-    spectra: {
-      acceleration: {
-        unit: a.spectra.acceleration.unit,
-        scale: a.spectra.acceleration.scale,
-        dfHz: a.spectra.acceleration.dfHz,
-        window: a.spectra.acceleration.window,
-        nperseg: a.spectra.acceleration.nperseg,
-        averages: a.spectra.acceleration.averages,
-        lines: a.spectra.acceleration.values.length,
-      },
-      velocity: {
-        unit: a.spectra.velocity.unit,
-        scale: a.spectra.velocity.scale,
-        dfHz: a.spectra.velocity.dfHz,
-        lowCutoffHz: a.spectra.velocity.lowCutoffHz,
-        lines: a.spectra.velocity.values.length,
-      },
-      envelope: a.spectra.envelope
-        ? {
-            unit: a.spectra.envelope.unit,
-            scale: a.spectra.envelope.scale,
-            dfHz: a.spectra.envelope.dfHz,
-            bandHz: a.spectra.envelope.bandHz,
-            lines: a.spectra.envelope.values.length,
-          }
-        : null,
-      order: a.spectra.order
-        ? {
-            unit: a.spectra.order.unit,
-            scale: a.spectra.order.scale,
-            dOrder: a.spectra.order.dOrder,
-            method: a.spectra.order.method,
-            lines: a.spectra.order.values.length,
-          }
-        : null,
-    },
-    peaks: a.peaks,
-    faultFrequencies: a.faultFrequencies,
-  };
 }

@@ -26,7 +26,7 @@ import {
 import type { ReplayResponse } from '@turnstone/contracts/limits';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
-import type { accessiblePoint } from '../../lib/point-access.ts';
+import type { accessiblePoint } from '../places/point-access.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import {
   loadLimitSet,
