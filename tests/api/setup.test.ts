@@ -475,17 +475,8 @@ describe('point tags are unique per site, not across the installation', () => {
     const [stayed] = await q('SELECT area_id FROM machines WHERE id = ?', [machine.id]);
     expect(Number(stayed!.area_id)).not.toBe(trbArea);
 
-    // Renamed, the point's tag is free at TRB: the machine moves, and a TRB gateway now
-    // reaches the point while an MFP gateway does not.
-    expect(
-      (
-        await srv.call('PATCH', `/api/v1/points/${point.id}`, {
-          cookie: engineer,
-          body: pointBody(machine.id, 'MOVER-P190-H'),
-        })
-      ).status,
-    ).toBe(200);
-    expect((await move()).status).toBe(200);
+    // Renamed, the point's tag is free at TRB: the machine moves, and from that moment a TRB
+    // gateway reaches the point while an MFP gateway (which reached it just before) does not.
     const gatewayOf = async (siteId: number) =>
       (
         await (
@@ -495,18 +486,42 @@ describe('point tags are unique per site, not across the installation', () => {
           })
         ).json()
       ).apiKey as string;
+    const [mfpKey, trbKey] = [await gatewayOf(1), await gatewayOf(2)];
     const ingest = (key: string, uid: string) =>
       srv.call('POST', '/api/ingest/v1/snapshots', {
-        body: snapshotBody('MOVER-P190-H', uid),
+        body: snapshotBody('MOVER-P190-H', uid, { seed: uid.length }),
         headers: { authorization: `Bearer ${key}` },
       });
-    const atTrb = await ingest(await gatewayOf(2), 'mover-trb');
-    expect(atTrb.status).toBe(201);
-    const [stored] = await q('SELECT point_id FROM snapshots WHERE id = ?', [
-      (await atTrb.json()).snapshotId,
+    const pointOf = async (res: Response) =>
+      Number(
+        (
+          await q('SELECT point_id FROM snapshots WHERE id = ?', [
+            ((await res.json()) as { snapshotId: number }).snapshotId,
+          ])
+        )[0]!.point_id,
+      );
+    const notYet = await ingest(trbKey, 'mover-trb-0');
+    expect(notYet.status).toBe(404);
+    expect(
+      (
+        await srv.call('PATCH', `/api/v1/points/${point.id}`, {
+          cookie: engineer,
+          body: pointBody(machine.id, 'MOVER-P190-H'),
+        })
+      ).status,
+    ).toBe(200);
+    const beforeMove = await ingest(mfpKey, 'mover-mfp-1');
+    expect(beforeMove.status).toBe(201);
+    expect(await pointOf(beforeMove)).toBe(point.id);
+
+    expect((await move()).status).toBe(200);
+    expect(await q('SELECT site_id FROM points WHERE id = ?', [point.id])).toEqual([
+      { site_id: 2 },
     ]);
-    expect(Number(stored!.point_id)).toBe(point.id);
-    const atMfp = await ingest(await gatewayOf(1), 'mover-mfp');
+    const atTrb = await ingest(trbKey, 'mover-trb-22');
+    expect(atTrb.status).toBe(201);
+    expect(await pointOf(atTrb)).toBe(point.id);
+    const atMfp = await ingest(mfpKey, 'mover-mfp-222');
     expect(atMfp.status).toBe(404);
     expect((await atMfp.json()).error.code).toBe('unknown_point');
   });

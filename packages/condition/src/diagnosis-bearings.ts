@@ -70,10 +70,10 @@ export function bearingHints(
     const o = bearingOrders(bearing);
     const ratio = bearing.speedRatio ?? 1;
     const kinds: { code: DiagnosisCode; name: string; order: number; what: string }[] = [
-      { code: 'bearing-outer-race', name: 'BPFO', order: o.bpfo, what: 'outer race' },
-      { code: 'bearing-inner-race', name: 'BPFI', order: o.bpfi, what: 'inner race' },
-      { code: 'bearing-rolling-element', name: 'BSF', order: o.bsf, what: 'rolling element' },
-      { code: 'bearing-cage', name: 'FTF', order: o.ftf, what: 'cage' },
+      { code: 'bearing-outer-race', name: 'BPFO', order: o.bpfo, what: 'an outer race' },
+      { code: 'bearing-inner-race', name: 'BPFI', order: o.bpfi, what: 'an inner race' },
+      { code: 'bearing-rolling-element', name: 'BSF', order: o.bsf, what: 'a rolling element' },
+      { code: 'bearing-cage', name: 'FTF', order: o.ftf, what: 'a cage' },
     ];
     for (const kind of kinds) {
       const f = kind.order * ratio * f1;
@@ -144,7 +144,7 @@ export function bearingHints(
               0.05 * sidebands +
               (inSpectrum > 0 ? 0.1 : 0),
           ),
-          summary: `${lines.length} envelope lines at ${bearing.name} ${kind.name} (${fmt(f)} Hz) and harmonics${sidebands ? ` with ${sidebands} 1× sidebands` : ''}: a ${kind.what} defect is likely, ${stage}.`,
+          summary: `${lines.length} envelope lines at ${bearing.name} ${kind.name} (${fmt(f)} Hz) and harmonics${sidebands ? ` with ${sidebands} 1× sidebands` : ''}: ${kind.what} defect is likely, ${stage}.`,
           evidence,
         },
       });

@@ -22,9 +22,10 @@ import {
   type JobRow,
 } from '../worker/queue-repository.ts';
 import * as repo from './analysis-repository.ts';
+import * as limitSets from '../limits/limit-set-repository.ts';
 import { storedSummaryOf } from './stored-summary.ts';
 import { combineBandValues, toDspBands } from './band-mapping.ts';
-import { startConditionBatch } from './condition-step.ts';
+import { startConditionBatch } from '../condition/condition-step.ts';
 import { templateBandsFor } from '../limits/limits-service.ts';
 import { storedSampleBytes } from '../ingest/sample-storage.ts';
 
@@ -34,8 +35,8 @@ export class PermanentJobError extends Error {}
 async function ensureLimitSets(
   ctx: AppContext,
   contexts: repo.PointContext[],
-): Promise<Map<number, repo.StoredLimitSet>> {
-  const sets = await repo.loadLimitSets(
+): Promise<Map<number, limitSets.StoredLimitSet>> {
+  const sets = await limitSets.loadLimitSets(
     ctx.db,
     contexts.map((pc) => pc.point.id),
   );
@@ -44,11 +45,11 @@ async function ensureLimitSets(
     // A machine-type template an engineer stored wins over the built-in one.
     const template = await templateBandsFor(ctx, pc.machine);
     await ctx.db.transaction((tx) =>
-      repo.saveLimitSet(tx, pc.point.id, `${pc.machine.type} template`, template.bands, null),
+      limitSets.saveLimitSet(tx, pc.point.id, `${pc.machine.type} template`, template.bands, null),
     );
   }
   if (missing.length) {
-    const created = await repo.loadLimitSets(
+    const created = await limitSets.loadLimitSets(
       ctx.db,
       missing.map((pc) => pc.point.id),
     );
@@ -68,7 +69,7 @@ export interface PreparedAnalysis {
   job: JobRow;
   snap: repo.SnapshotRow;
   pc: repo.PointContext;
-  limitSet: repo.StoredLimitSet;
+  limitSet: limitSets.StoredLimitSet;
   analysis: SnapshotAnalysis;
   /** The analysis's spectra in their stored form (one compact BLOB). */
   spectra: Buffer;
@@ -116,7 +117,7 @@ function prepareOne(
   job: JobRow,
   snaps: Map<number, repo.SnapshotRow>,
   contexts: Map<number, repo.PointContext>,
-  limitSets: Map<number, repo.StoredLimitSet>,
+  limitSets: Map<number, limitSets.StoredLimitSet>,
 ): PreparedAnalysis {
   if (!job.snapshotId) throw new PermanentJobError('analysis job without a snapshot');
   const snap = snaps.get(job.snapshotId);
@@ -209,17 +210,17 @@ function prepareOne(
  * recomputation happens only after a save.
  */
 async function withLimitsInForce(
-  tx: Parameters<typeof repo.loadLimitSets>[0],
+  tx: Parameters<typeof limitSets.loadLimitSets>[0],
   batch: PreparedAnalysis[],
 ): Promise<PreparedAnalysis[]> {
   const pointIds = [...new Set(batch.map((p) => p.snap.pointId))];
-  const versions = await repo.limitSetVersions(tx, pointIds);
+  const versions = await limitSets.limitSetVersions(tx, pointIds);
   const stale = pointIds.filter((id) => {
     const v = versions.get(id);
     return v !== undefined && batch.some((p) => p.snap.pointId === id && p.limitSet.version !== v);
   });
   if (stale.length === 0) return batch;
-  const sets = await repo.loadLimitSets(tx, stale);
+  const sets = await limitSets.loadLimitSets(tx, stale);
   return batch.map((p) => {
     const set = sets.get(p.snap.pointId);
     if (!set || set.version === p.limitSet.version) return p;

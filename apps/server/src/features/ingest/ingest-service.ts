@@ -35,7 +35,7 @@ const lastTouched = new Map<number, number>();
 
 /**
  * Short-lived caches on the hot path: a gateway looked up by key prefix, a point by its
- * site and tag.
+ * site and tag (set-up changes clear the latter in this process).
  * Revoking or rotating a key clears the gateway cache in this process at once; other API
  * processes notice within GATEWAY_CACHE_MS.
  */
@@ -48,6 +48,15 @@ const pointCache = new Map<string, { at: number; row: PointRow }>();
 
 export function forgetGatewayKeys(): void {
   gatewayCache.clear();
+}
+
+/**
+ * Set-up changed which point a (site, tag) names (a point created, retagged, moved or
+ * deleted): this process looks again at once, so a gateway of the site a machine left stops
+ * reaching its points. Other API processes notice within POINT_CACHE_MS.
+ */
+export function forgetPointTags(): void {
+  pointCache.clear();
 }
 
 async function cached<V>(

@@ -24,7 +24,7 @@ import { forbidden, notFound } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
 import { accessiblePoint } from '../places/point-access.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
-import { loadLimitSet } from '../analysis/analysis-repository.ts';
+import { loadLimitSet } from '../limits/limit-set-repository.ts';
 import { pointStatus, QUALITY_MARK_MS, worst } from '../fleet/fleet-service.ts';
 import * as repo from './points-repository.ts';
 import { readStoredSummary } from '../analysis/stored-summary.ts';

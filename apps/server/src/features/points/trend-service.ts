@@ -13,7 +13,7 @@ import { AppError } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
 import { accessiblePoint } from '../places/point-access.ts';
 import { type SessionUser } from '../../lib/session-user.ts';
-import { loadLimitSet } from '../analysis/analysis-repository.ts';
+import { loadLimitSet } from '../limits/limit-set-repository.ts';
 
 import * as repo from './points-repository.ts';
 

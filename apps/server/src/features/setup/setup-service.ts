@@ -20,6 +20,7 @@ import type {
 import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
+import { forgetPointTags } from '../ingest/ingest-service.ts';
 import * as repo from './setup-repository.ts';
 
 const conflict = (path: string, message: string) =>
@@ -310,6 +311,7 @@ export async function updateMachine(db: Db, user: SessionUser, id: number, input
       after: input,
     });
   });
+  if (movesSite) forgetPointTags();
   return { id };
 }
 
@@ -349,6 +351,7 @@ export async function deleteMachine(db: Db, user: SessionUser, id: number) {
       before: { ...before, points: pts.map((p) => p.tag) },
     });
   });
+  forgetPointTags();
 }
 
 // ---------------------------------------------------------------- points
@@ -393,7 +396,7 @@ const pointColumns = (input: PointInput) => ({
 export async function createPoint(db: Db, user: SessionUser, input: PointInput) {
   const siteId = await checkPointInput(db, user, input);
   try {
-    return await db.transaction(async (tx) => {
+    const created = await db.transaction(async (tx) => {
       const [row] = await tx
         .insert(points)
         .values({ ...pointColumns(input), siteId })
@@ -407,6 +410,8 @@ export async function createPoint(db: Db, user: SessionUser, input: PointInput) 
       });
       return { id: row!.id };
     });
+    forgetPointTags();
+    return created;
   } catch (err) {
     if (isDuplicateKey(err)) throw tagTaken(input.tag);
     throw err;
@@ -433,6 +438,7 @@ export async function updatePoint(db: Db, user: SessionUser, id: number, input: 
         after: input,
       });
     });
+    forgetPointTags();
   } catch (err) {
     if (isDuplicateKey(err)) throw tagTaken(input.tag);
     throw err;
@@ -456,4 +462,5 @@ export async function deletePoint(db: Db, user: SessionUser, id: number) {
       before: pointColumns(row.point),
     });
   });
+  forgetPointTags();
 }
