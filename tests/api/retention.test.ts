@@ -157,7 +157,7 @@ describe('tiered thinning', () => {
     al: '2026-05-10T15:00:00.000Z',
     d3: '2026-05-10T17:00:00.000Z',
     d4: '2026-05-10T21:00:00.000Z',
-    // daily tier; a quality notice on 05:00
+    // daily tier; a suspect quality notice on 05:00, an unusable one on 06:00
     e1: '2026-05-11T00:30:00.000Z',
     qn: '2026-05-11T05:00:00.000Z',
     e2: '2026-05-11T06:00:00.000Z',
@@ -203,6 +203,11 @@ describe('tiered thinning', () => {
     await q(
       "INSERT INTO quality_notices (point_id, analysis_id, verdict, findings, taken_at) VALUES (?, ?, 'suspect', '[]', ?)",
       [pointId, id('qn'), new Date(T.qn)],
+    );
+    // An unusable capture's notice does not keep it (a dead sensor would keep a year whole).
+    await q(
+      "INSERT INTO quality_notices (point_id, analysis_id, verdict, findings, taken_at) VALUES (?, ?, 'unusable', '[]', ?)",
+      [pointId, id('e2'), new Date(T.e2)],
     );
     await q(
       "INSERT INTO audit_log (action, entity, entity_id, at) VALUES ('limits.update', 'point', ?, ?)",

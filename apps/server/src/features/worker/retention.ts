@@ -14,7 +14,8 @@
  *   an alert's peak;
  * - captures of a point taken within ±`keepWindowMinutes` of the creation of a finding on
  *   that point (findings name a point and an alert, not a capture);
- * - captures a quality notice refers to;
+ * - the capture a `suspect` quality notice refers to (where a point's captures turned suspect;
+ *   unusable captures are thinned like any other, or a dead sensor would keep them all);
  * - uploads (`snapshots.source = 'upload'`);
  * - the first capture of a point after each change of its limits (the audit log's
  *   `limits.update` / `limits.baseline` entries, and the point's limit set's `updated_at`).
@@ -239,7 +240,9 @@ export async function thinSpectra(
               WHERE f.point_id = a.point_id
                 AND f.created_at BETWEEN a.taken_at - INTERVAL ${win} MINUTE
                                      AND a.taken_at + INTERVAL ${win} MINUTE)
-           AND NOT EXISTS (SELECT 1 FROM quality_notices qn WHERE qn.analysis_id = a.id)
+           -- the capture where a point's captures turned suspect (unusable ones thin like any other)
+           AND NOT EXISTS (
+             SELECT 1 FROM quality_notices qn WHERE qn.analysis_id = a.id AND qn.verdict = 'suspect')
            -- the first capture after a change of the point's limits
            AND NOT EXISTS (
              SELECT 1 FROM audit_log l
