@@ -124,7 +124,7 @@ export function WaterfallChart(props: WaterfallChartProps) {
           shown={shown}
           label="waterfall"
           extent={xExtent(option)}
-          format={(v) => `${formatValue(v, 4)} ${xUnit} (front trace)`}
+          format={(v) => `${formatValue(v, 4)} ${xUnit}`}
         />
       </div>
       <WaterfallValues traces={traces} axis={axis} unit={unit} shown={shown} option={option} />
