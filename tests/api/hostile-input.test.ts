@@ -326,6 +326,11 @@ function corpus(): BadRequest[] {
       auth: 'none',
     });
   list.push(ingest('revoked key', { body: good(), auth: 'revoked' }));
+  // The key is site MFP's: a tag of site TRB is not found, like a tag no site has.
+  list.push(
+    ingest("another site's point tag", { body: { ...good(), pointTag: 'TRB-P120-MDE-H' } }),
+  );
+  list.push(ingest('a point tag no site has', { body: { ...good(), pointTag: 'NO-SUCH-TAG' } }));
   // Tokens.
   const secret = srv.ctx.jwtSecret;
   const claims = { ver: 0 };

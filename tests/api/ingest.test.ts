@@ -217,6 +217,69 @@ describe('ingest', () => {
     expect(b.message.replace(TAG, 'X')).toBe(a.message.replace('NO-SUCH-TAG', 'X'));
   });
 
+  it("in a batch too, another site's tag gets exactly the answer of a tag no site has", async () => {
+    // Site TRB's gateway; TRB-NOWHERE-H exists at no site, MFP-P101-MDE-V only at MFP.
+    const res = await post(keyTrb, {
+      snapshots: [
+        snapshotBody('MFP-P101-MDE-V', 'ing-b-foreign'),
+        snapshotBody('TRB-NOWHERE-H', 'ing-b-nowhere'),
+      ],
+    });
+    expect(res.status).toBe(200);
+    const [foreign, nowhere] = (await res.json()).results;
+    const same = (r: object, tag: string, uid: string) =>
+      JSON.parse(JSON.stringify(r).replaceAll(tag, 'TAG').replaceAll(uid, 'UID'));
+    expect(same(foreign, 'MFP-P101-MDE-V', 'ing-b-foreign')).toEqual(
+      same(nowhere, 'TRB-NOWHERE-H', 'ing-b-nowhere'),
+    );
+    expect(nowhere).toMatchObject({ status: 'unknown_point', httpStatus: 404 });
+    // The single post's answer is the batch item's error, with the same status.
+    const single = await post(keyTrb, snapshotBody('MFP-P101-MDE-V', 'ing-b-foreign-1'));
+    expect(single.status).toBe(404);
+    expect((await single.json()).error).toEqual(foreign.error);
+  });
+
+  it('two sites may use the same tag: each gateway stores to the point of its own site', async () => {
+    const engineer = await srv.signIn('engineer');
+    const [rows] = await srv.ctx.dbHandle.pool.query(
+      `SELECT p.tag, p.id, (SELECT m2.id FROM machines m2 JOIN areas a2 ON a2.id = m2.area_id
+                             WHERE a2.site_id = 2 ORDER BY m2.id LIMIT 1) AS trbMachine
+         FROM points p JOIN machines m ON m.id = p.machine_id JOIN areas a ON a.id = m.area_id
+        WHERE a.site_id = 1 AND p.tag = 'MFP-P101-MNDE-H'`,
+    );
+    const mfp = (rows as { tag: string; id: number; trbMachine: number }[])[0]!;
+    // Site TRB gets a point with the tag MFP already uses (set-up allows it: unique per site).
+    const created = await srv.call('POST', '/api/v1/points', {
+      cookie: engineer,
+      body: {
+        machineId: mfp.trbMachine,
+        tag: mfp.tag,
+        name: 'Shared-tag point',
+        location: 'Motor NDE',
+        direction: 'H',
+        sensitivityMvPerG: 100,
+        bearingId: null,
+        fmaxHz: 1000,
+        lines: 1600,
+      },
+    });
+    expect(created.status).toBe(201);
+    const trbPointId = (await created.json()).id as number;
+    expect(trbPointId).not.toBe(mfp.id);
+
+    const toMfp = await post(keyMfp, snapshotBody(mfp.tag, 'shared-tag-mfp'));
+    const toTrb = await post(keyTrb, snapshotBody(mfp.tag, 'shared-tag-trb', { seed: 9 }));
+    expect([toMfp.status, toTrb.status]).toEqual([201, 201]);
+    const pointOf = async (snapshotId: number) => {
+      const [r] = await srv.ctx.dbHandle.pool.query('SELECT point_id FROM snapshots WHERE id = ?', [
+        snapshotId,
+      ]);
+      return Number((r as { point_id: number }[])[0]!.point_id);
+    };
+    expect(await pointOf((await toMfp.json()).snapshotId)).toBe(mfp.id);
+    expect(await pointOf((await toTrb.json()).snapshotId)).toBe(trbPointId);
+  });
+
   it('answers 401 for a missing, wrong or revoked key', async () => {
     expect(
       (await srv.call('POST', '/api/ingest/v1/snapshots', { body: snapshotBody(TAG, 'k1') }))

@@ -5,7 +5,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { loadLimitSet } from '../../apps/server/src/features/analysis/analysis-repository.ts';
+import { loadLimitSet } from '../../apps/server/src/features/limits/limit-set-repository.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { snapshotBody } from '../support/signals.ts';
 

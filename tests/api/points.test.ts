@@ -138,6 +138,67 @@ describe('spectrum', () => {
     expect(JSON.stringify(body.error.details)).toContain('kind');
   });
 
+  it('stores all of an analysis’s spectra in the one compact column, the old float32 columns empty', async () => {
+    const [row] = await q(
+      `SELECT LENGTH(spectra) AS compact, accel_spectrum, velocity_spectrum, envelope_spectrum,
+              order_spectrum FROM analyses WHERE id = ?`,
+      [analysisId],
+    );
+    expect(Number(row!.compact)).toBeGreaterThan(0);
+    expect([
+      row!.accel_spectrum,
+      row!.velocity_spectrum,
+      row!.envelope_spectrum,
+      row!.order_spectrum,
+    ]).toEqual([null, null, null, null]);
+  });
+
+  it('an analysis stored before the compact column still reads its float32 spectra, alone and in the waterfall', async () => {
+    // Rows written before migration 0008 hold each spectrum as little-endian float32 in its
+    // own column and nothing in `spectra`: make one such row from a fresh capture.
+    const id = await ingest(TAG, 'sp-old-form', {
+      n: 16384,
+      tones: [{ hz: 100, peakG: 1 }],
+      noiseG: 0.0005,
+      speedRpm: 1500,
+      takenAt: new Date(Date.now() + 60_000).toISOString(),
+    });
+    await createWorker(srv.ctx).drain();
+    const old = await analysisOf(id);
+    const newForm = spectrumSchema.parse(
+      await (await get(`/analyses/${old}/spectrum?kind=acceleration`)).json(),
+    );
+    // Values unlike the compact ones (× 1.5), so an answer from the wrong column shows.
+    const accel = Float32Array.from(decodeFloat32Base64(newForm.values), (v) => v * 1.5);
+    const velocity = Float32Array.from({ length: 801 }, (_, k) => k / 1024);
+    await q(
+      `UPDATE analyses SET spectra = NULL, accel_spectrum = ?, velocity_spectrum = ?,
+              envelope_spectrum = NULL, order_spectrum = NULL WHERE id = ?`,
+      [Buffer.from(accel.buffer), Buffer.from(velocity.buffer), old],
+    );
+    const a = spectrumSchema.parse(
+      await (await get(`/analyses/${old}/spectrum?kind=acceleration`)).json(),
+    );
+    expect(a.values).toBe(Buffer.from(accel.buffer).toString('base64'));
+    expect(a.lines).toBe(accel.length);
+    const v = spectrumSchema.parse(
+      await (await get(`/analyses/${old}/spectrum?kind=velocity`)).json(),
+    );
+    expect(v.values).toBe(Buffer.from(velocity.buffer).toString('base64'));
+    const none = await get(`/analyses/${old}/spectrum?kind=envelope`);
+    expect(none.status).toBe(404);
+    expect((await none.json()).error.code).toBe('spectrum_unavailable');
+
+    // The waterfall mixes the old row (newest) with compact ones.
+    const wf = await (await get(`/points/${pointId}/waterfall?kind=acceleration&limit=5`)).json();
+    expect(wf.items[0].analysisId).toBe(old);
+    expect(wf.items[0].values).toBe(Buffer.from(accel.buffer).toString('base64'));
+    const compact = wf.items.find((i: { analysisId: number }) => i.analysisId === analysisId);
+    const line = Math.round(100 / newForm.dfHz!);
+    // The compact row's 100 Hz line: 0.7071 g RMS within 0.5 % (see the first test).
+    expect(decodeFloat32Base64(compact.values)[line]).toBeCloseTo(0.7071, 2);
+  });
+
   it('the waterfall lists the newest spectra first, at most the limit', async () => {
     const res = await get(`/points/${pointId}/waterfall?kind=acceleration&limit=1`);
     expect(res.status).toBe(200);

@@ -70,13 +70,13 @@ describe('uploads of recordings', () => {
     expect(snap.status).toBe('done');
     expect(snap.fileName).toBe('pump-de.wav');
     // A sine's RMS is its peak / √2 (definition of RMS): 0.5 g peak → 0.3536 g RMS.
-    expect(snap.analysis.accelRmsG).toBeCloseTo(0.3536, 2);
-    expect(snap.analysis.qualityVerdict).toBe('ok');
+    expect(snap.analysis.overall.accelRmsG).toBeCloseTo(0.3536, 2);
+    expect(snap.analysis.verdict).toBe('ok');
     expect(snap.analysis.speedRpm).toBe(1480);
     // every overall value states its band: at 1480 r/min the ISO 20816-3 band is 10–1000 Hz
     // (above 600 r/min, from memory), and overall acceleration runs from its lower edge
-    expect(snap.analysis.velocityBandHz).toEqual([10, 1000]);
-    expect(snap.analysis.accelBandHz[0]).toBe(10);
+    expect(snap.analysis.overall.velocityBandHz).toEqual([10, 1000]);
+    expect(snap.analysis.overall.accelBandHz[0]).toBe(10);
   });
 
   it('the same file again answers 200 already-uploaded and stores nothing new', async () => {
@@ -115,7 +115,7 @@ describe('uploads of recordings', () => {
       await srv.call('GET', `/api/v1/snapshots/${body.snapshotId}`, { cookie: engineer })
     ).json();
     expect(snap.status).toBe('done');
-    expect(snap.analysis.accelRmsG).toBeCloseTo(0.1414, 2);
+    expect(snap.analysis.overall.accelRmsG).toBeCloseTo(0.1414, 2);
   });
 
   it('a one-column CSV without a sample rate is refused with a message naming the field', async () => {
@@ -255,16 +255,16 @@ describe('the analyzer CLI and an upload of the same file', { timeout: 120_000 }
     expect(cli.stderr).toBe('');
     const j = JSON.parse(cli.stdout);
     const a = snap.analysis;
-    expect(a.qualityVerdict).toBe(j.quality.verdict);
-    expect(a.qualityVerdict).toBe('ok'); // not "clipped", not 16× too high
+    expect(a.verdict).toBe(j.quality.verdict);
+    expect(a.verdict).toBe('ok'); // not "clipped", not 16× too high
     expect(a.bitsUsed).toBeCloseTo(j.quality.bitsUsed, 9);
     for (const [ours, theirs] of [
-      [a.accelRmsG, j.overall.accelRmsG],
-      [a.accelPeakG, j.overall.accelPeakG],
-      [a.velocityRmsMmS, j.overall.velocityRmsMmS],
-      [a.displacementPkPkUm, j.overall.displacementPkPkUm],
-      [a.crestFactor, j.overall.crestFactor],
-      [a.kurtosis, j.overall.kurtosis],
+      [a.overall.accelRmsG, j.overall.accelRmsG],
+      [a.overall.accelPeakG, j.overall.accelPeakG],
+      [a.overall.velocityRmsMmS, j.overall.velocityRmsMmS],
+      [a.overall.displacementPkPkUm, j.overall.displacementPkPkUm],
+      [a.overall.crestFactor, j.overall.crestFactor],
+      [a.overall.kurtosis, j.overall.kurtosis],
     ])
       expect(ours / theirs).toBeCloseTo(1, 9);
   });

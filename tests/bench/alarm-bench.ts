@@ -16,6 +16,7 @@ import {
   levelsInForce,
   limitSetFromTemplate,
   MACHINE_TYPES,
+  PROJECTION_WINDOW_DAYS,
   projectTrend,
   type BandDefinition,
   type MachineType,
@@ -27,8 +28,6 @@ import { mulberry32 } from '@turnstone/dsp/seeded-random';
 const DAY = 86_400_000;
 const YEAR_DAYS = 365;
 const T0 = Date.UTC(2026, 0, 1);
-/** The trend page projects through the last 60 days (as the server's trend answer does). */
-const PROJECTION_WINDOW_DAYS = 60;
 const SEED = 20_816;
 
 // ---------------------------------------------------------------- seeded randomness

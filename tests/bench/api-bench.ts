@@ -91,11 +91,12 @@ async function main() {
       [area!.id],
     );
     await q(
-      `INSERT INTO points (machine_id, tag, name, location, direction, last_taken_at, last_verdict)
-       SELECT m.id, CONCAT('BENCH-', m.id, '-', d.dir), CONCAT('Point ', d.dir), 'DE', d.dir,
+      `INSERT INTO points (machine_id, site_id, tag, name, location, direction, last_taken_at, last_verdict)
+       SELECT m.id, ?, CONCAT('BENCH-', m.id, '-', d.dir), CONCAT('Point ', d.dir), 'DE', d.dir,
          NOW(3) - INTERVAL 2 HOUR, 'ok'
        FROM machines m JOIN (SELECT 'H' AS dir UNION ALL SELECT 'V') d
        WHERE m.name LIKE 'Bench machine %'`,
+      [site!.id],
     );
     await q('ANALYZE TABLE band_values, analyses, points, machines');
     const [counts] = await q(

@@ -63,7 +63,7 @@ export interface components {
         BatchItemResult: {
             uid: string | null;
             /** @enum {string} */
-            status: "created" | "duplicate" | "conflict" | "invalid" | "unknown_point" | "forbidden_point";
+            status: "created" | "duplicate" | "conflict" | "invalid" | "unknown_point";
             httpStatus: number;
             snapshotId?: number;
             ignoredFields?: string[];
@@ -77,7 +77,7 @@ export interface components {
             results: {
                 uid: string | null;
                 /** @enum {string} */
-                status: "created" | "duplicate" | "conflict" | "invalid" | "unknown_point" | "forbidden_point";
+                status: "created" | "duplicate" | "conflict" | "invalid" | "unknown_point";
                 httpStatus: number;
                 snapshotId?: number;
                 ignoredFields?: string[];

@@ -9,7 +9,7 @@
  */
 import type { DemoMachine } from '../../../seed/demo-plant.ts';
 import type { SimChannel } from './plant-channels.ts';
-import { gaussian, mulberry32 } from '@turnstone/dsp/seeded-random';
+import { fnv1a, gaussian, mulberry32 } from '@turnstone/dsp/seeded-random';
 import type { CaptureRecipe, GearMeshTone, ImpactTrain, OrderTone } from './synthesize-capture.ts';
 
 /** When the misalignment of B-301 is corrected (laser alignment), as progress. */
@@ -56,6 +56,41 @@ function bearingWeight(c: SimChannel, location: string): number {
 
 const clamp = (x: number, lo: number, hi: number) => Math.min(hi, Math.max(lo, x));
 
+/**
+ * Where the unbalance force that builds up on P-201's impeller (deposits, wear) sits relative
+ * to the rotor's residual unbalance, degrees of shaft angle: the measured 1× is the sum of the
+ * two vectors, so its phase moves slowly from the residual's towards the build-up's as the
+ * build-up grows (by about 25° over the story) — ours, demo only.
+ */
+const BUILD_UP_ANGLE_DEG = 30;
+/**
+ * Capture-to-capture scatter of the order tones' phase, degrees (1σ): load and temperature
+ * move the response a little. A few degrees is what a steady machine shows from one capture
+ * to the next (common practice, no source).
+ */
+const PHASE_SCATTER_DEG = 1.5;
+
+const wrap360 = (deg: number) => ((deg % 360) + 360) % 360;
+
+/**
+ * The fixed angles of one channel, degrees: the rotor's residual unbalance (per machine) and
+ * the structure's response lag from force to this sensor at k× (per point and order). Stable
+ * hashes of the names, so every capture of a point sees the same shaft.
+ */
+function shaftAngles(c: SimChannel) {
+  return {
+    residualDeg: fnv1a(`${c.machine.code}/residual`) % 360,
+    responseDeg: (order: number) => fnv1a(`${c.tag}/${order}x`) % 360,
+  };
+}
+
+/** Magnitude and angle (degrees) of the sum of two vectors given as magnitude and angle. */
+function addVectors(a: number, aDeg: number, b: number, bDeg: number) {
+  const re = a * Math.cos((aDeg * Math.PI) / 180) + b * Math.cos((bDeg * Math.PI) / 180);
+  const im = a * Math.sin((aDeg * Math.PI) / 180) + b * Math.sin((bDeg * Math.PI) / 180);
+  return { magnitude: Math.hypot(re, im), deg: (Math.atan2(im, re) * 180) / Math.PI };
+}
+
 /** The recipe of one capture of `c` at `m`. */
 export function storyRecipe(c: SimChannel, m: StoryMoment): CaptureRecipe {
   const uniform = mulberry32(m.seed ^ 0x9e3779b9);
@@ -78,6 +113,8 @@ export function storyRecipe(c: SimChannel, m: StoryMoment): CaptureRecipe {
   const meshes: GearMeshTone[] = [];
   const hzTones: { hz: number; g: number }[] = [];
   let bursts: CaptureRecipe['bursts'];
+  /** How far the 1× force has turned from the residual unbalance, degrees. */
+  let unbalanceShiftDeg = 0;
 
   switch (story) {
     case 'outer-race-growing': {
@@ -106,10 +143,13 @@ export function storyRecipe(c: SimChannel, m: StoryMoment): CaptureRecipe {
     }
     case 'unbalance-rising': {
       // P-201 (group 1, 1× alert 3.6 / danger 5.68 mm/s) crosses danger near the end;
-      // F-210 (flexible, same 1× levels) reaches alert only.
+      // F-210 (flexible, same 1× levels) reaches alert only. The build-up adds to the
+      // residual unbalance as a vector BUILD_UP_ANGLE_DEG away from it.
       const rise = mach.type === 'pump' ? 5.4 * u ** 1.5 : 3.4 * u ** 2;
-      v1 = (BASE_1X[mach.type] + 0.4 + rise) * dir * (c.point.location.endsWith('NDE') ? 0.9 : 1);
+      const sum = addVectors(BASE_1X[mach.type] + 0.4, 0, rise, BUILD_UP_ANGLE_DEG);
+      v1 = sum.magnitude * dir * (c.point.location.endsWith('NDE') ? 0.9 : 1);
       if (c.point.direction === 'A') v1 *= 0.8;
+      unbalanceShiftDeg = sum.deg;
       break;
     }
     case 'misalignment': {
@@ -152,6 +192,14 @@ export function storyRecipe(c: SimChannel, m: StoryMoment): CaptureRecipe {
   ];
   const passCount = mach.vaneCount ?? mach.bladeCount;
   if (passCount) tones.push({ order: passCount, velocityMmS: 0.4 * jitter(0.1) });
+  // Every order tone is locked to the shaft: force angle plus the point's response lag, with
+  // a little scatter (its own generator, so the story's other draws stay as they were).
+  const angles = shaftAngles(c);
+  const scatter = gaussian(mulberry32(m.seed ^ 0x5bd1e995));
+  for (const t of tones) {
+    const forceDeg = t.order === 1 ? angles.residualDeg + unbalanceShiftDeg : 0;
+    t.phaseLagDeg = wrap360(forceDeg + angles.responseDeg(t.order) + PHASE_SCATTER_DEG * scatter());
+  }
 
   const faults = m.faults ?? true;
   let speedNote = 1;

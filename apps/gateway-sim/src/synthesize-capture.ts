@@ -15,6 +15,14 @@ export interface OrderTone {
   order: number;
   /** Velocity, mm/s RMS. */
   velocityMmS: number;
+  /**
+   * Where the tone sits on the shaft: velocity phase lag in degrees after the tach mark, in
+   * the convention of the dsp's `ShaftVector` (the tone reads v·cos(k·θ − φ), θ the shaft
+   * angle from the once-per-revolution mark). A real machine's order tones are locked to the
+   * shaft (a heavy spot, a coupling offset), so this is a property of the machine and point,
+   * not of the capture. Absent: a random phase (a recipe that does not care).
+   */
+  phaseLagDeg?: number;
 }
 
 /**
@@ -142,8 +150,12 @@ export function synthesizeCapture(recipe: CaptureRecipe): SynthCapture {
   // rotation that itself rotates at a constant rate (a chirp recurrence, two complex
   // multiplications per sample instead of a sine; rounding drift over 8192 samples < 1e-12).
   const dt = 1 / fs;
-  const addOrderTone = (order: number, peak: number) => {
-    const ph = 2 * Math.PI * uniform();
+  // `phase` is the tone's sine phase at the tach mark (θ = 0, where the shaft has turned a
+  // whole number of revolutions since θ0), radians; null draws one.
+  const addOrderTone = (order: number, peak: number, phase: number | null = null) => {
+    // Drawn even when the phase is given, so a recipe's noise and impacts stay the same.
+    const drawn = 2 * Math.PI * uniform();
+    const ph = phase ?? drawn;
     const k = 2 * Math.PI * order;
     const start = k * theta0 + ph;
     // θ(t+dt) − θ(t) = f0·dt + a2·(2t·dt + dt²): increment at t = 0 and its constant change.
@@ -166,7 +178,11 @@ export function synthesizeCapture(recipe: CaptureRecipe): SynthCapture {
     }
   };
   for (const tone of recipe.tones ?? []) {
-    addOrderTone(tone.order, toneAccelPeakG(tone.velocityMmS, tone.order * f0));
+    // Velocity v·cos(kθ − φ) is acceleration a·cos(kθ − φ + 90°) (a = dv/dt) = a·sin(kθ + π − φ):
+    // the sine phase at the mark is π − φ.
+    const phase =
+      tone.phaseLagDeg === undefined ? null : Math.PI - (tone.phaseLagDeg * Math.PI) / 180;
+    addOrderTone(tone.order, toneAccelPeakG(tone.velocityMmS, tone.order * f0), phase);
   }
 
   for (const mesh of recipe.meshes ?? []) {

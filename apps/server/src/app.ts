@@ -20,7 +20,6 @@ import { gatewayRoutes } from './features/gateways/gateways-router.ts';
 import { ingestRouter } from './features/ingest/ingest-router.ts';
 import { ingestEndpoint } from './features/ingest/ingest-endpoint.ts';
 import { uploadRoutes } from './features/uploads/uploads-router.ts';
-import { snapshotRoutes } from './features/snapshots/snapshots-router.ts';
 import { alertRoutes } from './features/alerts/alerts-router.ts';
 import { limitRoutes } from './features/limits/limits-router.ts';
 import { setupRoutes } from './features/setup/setup-router.ts';
@@ -38,7 +37,6 @@ function featureRoutes(ctx: AppContext): RouteSpec[] {
     ...fleetRoutes(ctx),
     ...gatewayRoutes(ctx),
     ...uploadRoutes(ctx),
-    ...snapshotRoutes(ctx),
     ...alertRoutes(ctx),
     ...limitRoutes(ctx),
     ...pointRoutes(ctx),

@@ -5,6 +5,9 @@ import { fitHinge, recentRegimeStart, turnWithin } from './trend-regime.ts';
 
 const DAY_MS = 86_400_000;
 
+/** Projection fits the values of this many days before the latest (recent behaviour, not last year's). Common practice, no source. */
+export const PROJECTION_WINDOW_DAYS = 60;
+
 /** One trend value of a band. */
 export interface TrendPoint {
   /** Epoch milliseconds (UTC). */

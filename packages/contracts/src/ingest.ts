@@ -107,8 +107,8 @@ export const ingestItemStatus = [
   'duplicate',
   'conflict',
   'invalid',
+  // Another site's tag is unknown_point too: a gateway cannot tell it from a tag no site has.
   'unknown_point',
-  'forbidden_point',
 ] as const;
 export const ingestResultSchema = z.object({
   uid: z.string().nullable(),

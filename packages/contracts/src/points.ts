@@ -36,6 +36,7 @@ export const qualityFindingSchema = z.object({
   message: z.string(),
   value: z.number(),
 });
+export type QualityFinding = z.infer<typeof qualityFindingSchema>;
 
 /** Overall values of one analysis. */
 export const overallValuesSchema = z.object({

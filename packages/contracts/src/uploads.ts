@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { analysisSummarySchema, qualityFindingSchema } from './points.ts';
 
 /**
  * Capture settings sent with an upload (multipart text fields, so numbers arrive as text).
@@ -36,14 +37,6 @@ export const uploadResultSchema = z.object({
 });
 export type UploadResult = z.infer<typeof uploadResultSchema>;
 
-export const qualityFindingSchema = z
-  .object({
-    code: z.string().optional(),
-    severity: z.string().optional(),
-    message: z.string().optional(),
-  })
-  .passthrough();
-
 export const snapshotStatusSchema = z.object({
   id: z.number().int(),
   pointId: z.number().int(),
@@ -55,26 +48,7 @@ export const snapshotStatusSchema = z.object({
   sampleRateHz: z.number(),
   sampleCount: z.number().int(),
   fileName: z.string().nullable(),
-  analysis: z
-    .object({
-      id: z.number().int(),
-      qualityVerdict: z.enum(['ok', 'suspect', 'unusable']),
-      qualityFindings: z.array(z.unknown()),
-      bitsUsed: z.number().nullable(),
-      accelRmsG: z.number(),
-      accelPeakG: z.number(),
-      velocityRmsMmS: z.number(),
-      displacementPkPkUm: z.number(),
-      crestFactor: z.number(),
-      kurtosis: z.number(),
-      speedRpm: z.number().nullable(),
-      speedSource: z.string(),
-      isoZone: z.enum(['A', 'B', 'C', 'D']).nullable(),
-      /** The band accelRmsG, crest factor and kurtosis cover, Hz; null for older analyses. */
-      accelBandHz: z.tuple([z.number(), z.number()]).nullable().optional(),
-      /** The band velocityRmsMmS covers (the ISO band), Hz; null for older analyses. */
-      velocityBandHz: z.tuple([z.number(), z.number()]).nullable().optional(),
-    })
-    .nullable(),
+  /** The capture's analysis in the same shape as a point's analyses, with its quality findings. */
+  analysis: analysisSummarySchema.extend({ findings: z.array(qualityFindingSchema) }).nullable(),
 });
 export type SnapshotStatus = z.infer<typeof snapshotStatusSchema>;

@@ -142,7 +142,19 @@ export const points = mysqlTable(
     machineId: ref('machine_id')
       .notNull()
       .references(() => machines.id),
-    /** External tag the gateway uses; unique across the installation. */
+    /**
+     * The site of the point's machine's area, kept here so a tag can be unique per site (a
+     * database index cannot reach through machines and areas). The set-up service writes it
+     * with the machine: on creating a point, moving it to another machine, and moving a
+     * machine to an area of another site.
+     */
+    siteId: ref('site_id')
+      .notNull()
+      .references(() => sites.id),
+    /**
+     * External tag the gateway uses; unique within the point's site. Another site may use
+     * the same tag: a gateway only ever addresses the points of its own site.
+     */
     tag: varchar('tag', { length: 64 }).notNull(),
     name: varchar('name', { length: 200 }).notNull(),
     location: varchar('location', { length: 100 }).notNull(),
@@ -162,7 +174,10 @@ export const points = mysqlTable(
     lastVerdict: mysqlEnum('last_verdict', verdictEnum),
     createdAt: createdAt(),
   },
-  (t) => [uniqueIndex('points_tag_uq').on(t.tag), index('points_machine_idx').on(t.machineId)],
+  (t) => [
+    uniqueIndex('points_site_tag_uq').on(t.siteId, t.tag),
+    index('points_machine_idx').on(t.machineId),
+  ],
 );
 
 // ---------------------------------------------------------------- users and access
@@ -368,6 +383,13 @@ export const analyses = mysqlTable(
     qualityFindings: jsonColumn<unknown[]>('quality_findings').notNull(),
     /** Peaks, fault frequencies and spectrum axes (df, units) as the dsp package returns them. */
     summary: jsonColumn<Record<string, unknown>>('summary').notNull(),
+    /**
+     * All of the analysis's spectra in one BLOB: 16-bit log-amplitude codes, deflated
+     * (`@turnstone/db/spectra-codec`, worst-case relative error 5.76e-4). Null on rows
+     * written before it, whose spectra sit in the four float32 columns below.
+     */
+    spectra: mediumBlob('spectra'),
+    /** Float32 spectra of rows written before `spectra`; no longer written. */
     accelSpectrum: mediumBlob('accel_spectrum'),
     velocitySpectrum: mediumBlob('velocity_spectrum'),
     envelopeSpectrum: mediumBlob('envelope_spectrum'),

@@ -1,120 +1,171 @@
-import { lazy, Suspense } from 'react';
-import { createBrowserRouter, Navigate, Outlet, RouterProvider } from 'react-router-dom';
+import { useEffect, type ComponentType } from 'react';
+import {
+  createBrowserRouter,
+  matchRoutes,
+  Outlet,
+  redirect,
+  RouterProvider,
+  type RouteObject,
+} from 'react-router-dom';
 import { RouteErrorBoundary } from '../components/errors/route-error-boundary.tsx';
 import { LoadingPanel } from '../components/ui/spinner.tsx';
 import { paths } from '../config/paths.ts';
+import { getMeQueryOptions } from '../features/auth/api/get-me.ts';
+import { queryClient } from '../lib/query-client.ts';
+import { preloadLinksOnIntent, setRoutePreloader } from '../lib/route-preload.ts';
+import {
+  alertsData,
+  fleetData,
+  gatewaysData,
+  limitsData,
+  machineData,
+  mailboxData,
+  pointData,
+  prefetching,
+  reviewData,
+  setupData,
+  usersData,
+} from './route-data.ts';
 
-// Pages load on demand so the first download stays small.
-const SignInRoute = lazy(() =>
-  import('./routes/sign-in.tsx').then((m) => ({ default: m.SignInRoute })),
-);
-const AppRoot = lazy(() => import('./routes/app/root.tsx').then((m) => ({ default: m.AppRoot })));
-const FleetRoute = lazy(() =>
-  import('./routes/app/fleet.tsx').then((m) => ({ default: m.FleetRoute })),
-);
-const AlertsRoute = lazy(() =>
-  import('./routes/app/alerts.tsx').then((m) => ({ default: m.AlertsRoute })),
-);
-const LimitsRoute = lazy(() =>
-  import('./routes/app/limits.tsx').then((m) => ({ default: m.LimitsRoute })),
-);
-const ReviewRoute = lazy(() =>
-  import('./routes/app/review.tsx').then((m) => ({ default: m.ReviewRoute })),
-);
-const SetupRoute = lazy(() =>
-  import('./routes/app/setup.tsx').then((m) => ({ default: m.SetupRoute })),
-);
-const GatewaysRoute = lazy(() =>
-  import('./routes/app/gateways.tsx').then((m) => ({ default: m.GatewaysRoute })),
-);
-const AuditRoute = lazy(() =>
-  import('./routes/app/audit.tsx').then((m) => ({ default: m.AuditRoute })),
-);
-const UploadsRoute = lazy(() =>
-  import('./routes/app/uploads.tsx').then((m) => ({ default: m.UploadsRoute })),
-);
-const ForgotPasswordRoute = lazy(() =>
-  import('./routes/forgot-password.tsx').then((m) => ({ default: m.ForgotPasswordRoute })),
-);
-const ResetPasswordRoute = lazy(() =>
-  import('./routes/reset-password.tsx').then((m) => ({ default: m.ResetPasswordRoute })),
-);
-const AcceptInviteRoute = lazy(() =>
-  import('./routes/accept-invite.tsx').then((m) => ({ default: m.AcceptInviteRoute })),
-);
-const UsersRoute = lazy(() =>
-  import('./routes/app/users.tsx').then((m) => ({ default: m.UsersRoute })),
-);
-const MailboxRoute = lazy(() =>
-  import('./routes/app/mailbox.tsx').then((m) => ({ default: m.MailboxRoute })),
-);
-const AccountRoute = lazy(() =>
-  import('./routes/app/account.tsx').then((m) => ({ default: m.AccountRoute })),
-);
-const MachineRoute = lazy(() =>
-  import('./routes/app/machine.tsx').then((m) => ({ default: m.MachineRoute })),
-);
-const PointRoute = lazy(() =>
-  import('./routes/app/point.tsx').then((m) => ({ default: m.PointRoute })),
-);
-const NotFoundRoute = lazy(() =>
-  import('./routes/not-found.tsx').then((m) => ({ default: m.NotFoundRoute })),
-);
+/**
+ * A page whose code loads on demand (`route.lazy`): the router loads it together with the
+ * layout above it and runs the route's loader meanwhile, instead of one after the other.
+ */
+function page<K extends string>(load: () => Promise<Record<K, ComponentType>>, name: K) {
+  return async () => ({ Component: (await load())[name] });
+}
 
-function RootLayout() {
+function Loading() {
   return (
-    <Suspense
-      fallback={
-        <div className="flex h-dvh">
-          <LoadingPanel />
-        </div>
-      }
-    >
-      <Outlet />
-    </Suspense>
+    <div className="flex h-dvh">
+      <LoadingPanel />
+    </div>
   );
 }
 
-const router = createBrowserRouter([
+const appRoutes: RouteObject[] = [
+  { index: true, loader: () => redirect(paths.app.fleet.getHref()) },
   {
-    element: <RootLayout />,
+    path: paths.app.fleet.path,
+    loader: prefetching(fleetData),
+    lazy: page(() => import('./routes/app/fleet.tsx'), 'FleetRoute'),
+  },
+  {
+    path: paths.app.alerts.path,
+    loader: prefetching(alertsData),
+    lazy: page(() => import('./routes/app/alerts.tsx'), 'AlertsRoute'),
+  },
+  {
+    path: paths.app.limits.path,
+    loader: prefetching(limitsData),
+    lazy: page(() => import('./routes/app/limits.tsx'), 'LimitsRoute'),
+  },
+  {
+    path: paths.app.review.path,
+    loader: prefetching(reviewData),
+    lazy: page(() => import('./routes/app/review.tsx'), 'ReviewRoute'),
+  },
+  {
+    path: paths.app.setup.path,
+    loader: prefetching(setupData),
+    lazy: page(() => import('./routes/app/setup.tsx'), 'SetupRoute'),
+  },
+  {
+    path: paths.app.gateways.path,
+    loader: prefetching(gatewaysData),
+    lazy: page(() => import('./routes/app/gateways.tsx'), 'GatewaysRoute'),
+  },
+  { path: paths.app.audit.path, lazy: page(() => import('./routes/app/audit.tsx'), 'AuditRoute') },
+  {
+    path: paths.app.uploads.path,
+    lazy: page(() => import('./routes/app/uploads.tsx'), 'UploadsRoute'),
+  },
+  {
+    path: paths.app.users.path,
+    loader: prefetching(usersData),
+    lazy: page(() => import('./routes/app/users.tsx'), 'UsersRoute'),
+  },
+  {
+    path: paths.app.mailbox.path,
+    loader: prefetching(mailboxData),
+    lazy: page(() => import('./routes/app/mailbox.tsx'), 'MailboxRoute'),
+  },
+  {
+    path: paths.app.account.path,
+    lazy: page(() => import('./routes/app/account.tsx'), 'AccountRoute'),
+  },
+  {
+    path: paths.app.machine.path,
+    loader: prefetching(machineData),
+    lazy: page(() => import('./routes/app/machine.tsx'), 'MachineRoute'),
+  },
+  {
+    path: paths.app.point.path,
+    loader: prefetching(pointData),
+    lazy: page(() => import('./routes/app/point.tsx'), 'PointRoute'),
+  },
+  { path: '*', lazy: page(() => import('./routes/not-found.tsx'), 'NotFoundRoute') },
+];
+
+const routes: RouteObject[] = [
+  {
+    element: <Outlet />,
     errorElement: <RouteErrorBoundary />,
+    hydrateFallbackElement: <Loading />,
     children: [
-      { path: paths.auth.signIn.path, element: <SignInRoute /> },
-      { path: paths.auth.forgotPassword.path, element: <ForgotPasswordRoute /> },
-      { path: paths.auth.resetPassword.path, element: <ResetPasswordRoute /> },
-      { path: paths.auth.acceptInvite.path, element: <AcceptInviteRoute /> },
+      {
+        path: paths.auth.signIn.path,
+        lazy: page(() => import('./routes/sign-in.tsx'), 'SignInRoute'),
+      },
+      {
+        path: paths.auth.forgotPassword.path,
+        lazy: page(() => import('./routes/forgot-password.tsx'), 'ForgotPasswordRoute'),
+      },
+      {
+        path: paths.auth.resetPassword.path,
+        lazy: page(() => import('./routes/reset-password.tsx'), 'ResetPasswordRoute'),
+      },
+      {
+        path: paths.auth.acceptInvite.path,
+        lazy: page(() => import('./routes/accept-invite.tsx'), 'AcceptInviteRoute'),
+      },
       {
         path: paths.home.path,
-        element: <AppRoot />,
-        children: [
-          {
-            // Errors in a page show inside the layout, so navigation stays usable.
-            errorElement: <RouteErrorBoundary />,
-            children: [
-              { index: true, element: <Navigate to={paths.app.fleet.getHref()} replace /> },
-              { path: paths.app.fleet.path, element: <FleetRoute /> },
-              { path: paths.app.alerts.path, element: <AlertsRoute /> },
-              { path: paths.app.limits.path, element: <LimitsRoute /> },
-              { path: paths.app.review.path, element: <ReviewRoute /> },
-              { path: paths.app.setup.path, element: <SetupRoute /> },
-              { path: paths.app.gateways.path, element: <GatewaysRoute /> },
-              { path: paths.app.audit.path, element: <AuditRoute /> },
-              { path: paths.app.uploads.path, element: <UploadsRoute /> },
-              { path: paths.app.users.path, element: <UsersRoute /> },
-              { path: paths.app.mailbox.path, element: <MailboxRoute /> },
-              { path: paths.app.account.path, element: <AccountRoute /> },
-              { path: paths.app.machine.path, element: <MachineRoute /> },
-              { path: paths.app.point.path, element: <PointRoute /> },
-              { path: '*', element: <NotFoundRoute /> },
-            ],
-          },
-        ],
+        // The session check starts with the layout's code and the page's code and data.
+        loader: () => {
+          queryClient.prefetchQuery(getMeQueryOptions()).catch(() => undefined);
+          return null;
+        },
+        lazy: page(() => import('./routes/app/root.tsx'), 'AppRoot'),
+        // Errors in a page show inside the layout, so navigation stays usable.
+        children: [{ errorElement: <RouteErrorBoundary />, children: appRoutes }],
       },
     ],
   },
-]);
+];
+
+/** Loads the code and data of the screen at `href` without opening it. */
+function preloadScreen(href: string) {
+  const url = new URL(href, window.location.origin);
+  for (const match of matchRoutes(routes, url.pathname) ?? []) {
+    const { route, params } = match;
+    if (typeof route.lazy === 'function') route.lazy().catch(() => undefined);
+    if (typeof route.loader === 'function')
+      Promise.resolve(
+        route.loader({
+          params,
+          request: new Request(url),
+          context: undefined,
+        } as Parameters<typeof route.loader>[0]),
+      ).catch(() => undefined);
+  }
+}
+
+setRoutePreloader(preloadScreen);
+
+const router = createBrowserRouter(routes);
 
 export function AppRouter() {
+  useEffect(() => preloadLinksOnIntent(), []);
   return <RouterProvider router={router} />;
 }

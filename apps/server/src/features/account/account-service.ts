@@ -1,11 +1,12 @@
 /** The signed-in user's own account: password change and notification settings. */
-import { asc, eq, inArray } from 'drizzle-orm';
-import { areas, machines, sites, subscriptions, users } from '@turnstone/db/schema';
+
 import type { ChangePassword, SubscriptionSettings } from '@turnstone/contracts/account';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
+import * as userRepo from '../users/users-repository.ts';
+import * as repo from './account-repository.ts';
 import { hashPassword, verifyPassword } from '../../lib/passwords.ts';
 
 /** Checks the current password, sets the new one and returns the new token version. */
@@ -14,7 +15,7 @@ export async function changePassword(
   user: SessionUser,
   input: ChangePassword,
 ): Promise<number> {
-  const [row] = await ctx.db.select().from(users).where(eq(users.id, user.id)).limit(1);
+  const row = await userRepo.findUser(ctx.db, user.id);
   if (!row?.passwordHash || !(await verifyPassword(input.currentPassword, row.passwordHash)))
     throw new AppError('invalid_credentials', 'The current password is not correct.', 400, [
       { path: ['currentPassword'], message: 'The current password is not correct.' },
@@ -23,10 +24,7 @@ export async function changePassword(
   const version = row.tokenVersion + 1;
   await ctx.db.transaction(async (tx) => {
     // A new token version ends every other session; the caller gets a fresh cookie.
-    await tx
-      .update(users)
-      .set({ passwordHash: hash, tokenVersion: version })
-      .where(eq(users.id, user.id));
+    await userRepo.setPasswordHash(tx, user.id, hash);
     await writeAudit(tx, {
       actorUserId: user.id,
       action: 'user.change-password',
@@ -38,33 +36,16 @@ export async function changePassword(
 }
 
 async function options(ctx: AppContext, user: SessionUser) {
-  const siteRows = await ctx.db
-    .select({ id: sites.id, code: sites.code, name: sites.name })
-    .from(sites)
-    .where(inArray(sites.id, user.siteIds.length ? user.siteIds : [-1]))
-    .orderBy(asc(sites.code));
-  const machineRows = siteRows.length
-    ? await ctx.db
-        .select({ id: machines.id, siteId: areas.siteId, name: machines.name })
-        .from(machines)
-        .innerJoin(areas, eq(areas.id, machines.areaId))
-        .where(
-          inArray(
-            areas.siteId,
-            siteRows.map((s) => s.id),
-          ),
-        )
-        .orderBy(asc(machines.name))
-    : [];
+  const siteRows = await repo.sitesOf(ctx.db, user.siteIds);
+  const machineRows = await repo.machinesOfSites(
+    ctx.db,
+    siteRows.map((s) => s.id),
+  );
   return { sites: siteRows, machines: machineRows };
 }
 
 export async function getSubscriptions(ctx: AppContext, user: SessionUser) {
-  const rows = await ctx.db
-    .select()
-    .from(subscriptions)
-    .where(eq(subscriptions.userId, user.id))
-    .orderBy(asc(subscriptions.id));
+  const rows = await repo.subscriptionsOf(ctx.db, user.id);
   return {
     items: rows
       .filter((r) => r.siteId !== null || r.machineId !== null)
@@ -95,27 +76,24 @@ export async function putSubscriptions(
         { path: ['items', i], message: 'Not one of your sites or machines.' },
       ]);
   });
-  await ctx.db.transaction(async (tx) => {
-    await tx.delete(subscriptions).where(eq(subscriptions.userId, user.id));
-    const rows = input.items.map((s) => ({
+  const rows: repo.SubscriptionRow[] = input.items.map((s) => ({
+    userId: user.id,
+    siteId: s.siteId,
+    machineId: s.machineId,
+    minLevel: s.minLevel,
+    cadence: s.cadence,
+    weeklyDigest: input.weeklyDigest,
+  }));
+  // The digest alone is a row without scope.
+  if (rows.length === 0 && input.weeklyDigest)
+    rows.push({
       userId: user.id,
-      siteId: s.siteId,
-      machineId: s.machineId,
-      minLevel: s.minLevel,
-      cadence: s.cadence,
-      weeklyDigest: input.weeklyDigest,
-    }));
-    // The digest alone is a row without scope.
-    if (rows.length === 0 && input.weeklyDigest)
-      rows.push({
-        userId: user.id,
-        siteId: null,
-        machineId: null,
-        minLevel: 'alert',
-        cadence: 'immediate',
-        weeklyDigest: true,
-      });
-    if (rows.length) await tx.insert(subscriptions).values(rows);
-  });
+      siteId: null,
+      machineId: null,
+      minLevel: 'alert',
+      cadence: 'immediate',
+      weeklyDigest: true,
+    });
+  await repo.replaceSubscriptions(ctx.db, user.id, rows);
   return getSubscriptions(ctx, user);
 }

@@ -83,10 +83,3 @@ export async function alertHistory(db: Db, alertId: number) {
     .where(eq(alertEvents.alertId, alertId))
     .orderBy(asc(alertEvents.at), asc(alertEvents.id));
 }
-
-/** The alert rows, locked for this transaction. */
-export async function lockAlerts(tx: Tx, ids: number[]) {
-  return tx.select().from(alerts).where(inArray(alerts.id, ids)).for('update');
-}
-
-export { alerts, alertEvents };

@@ -4,15 +4,15 @@
  * goes through `@turnstone/condition`'s state machine on the point's locked state row, so it
  * cannot race the worker judging a new capture of the same point.
  */
-import { eq } from 'drizzle-orm';
+
 import { acknowledgeAlert, type PointState } from '@turnstone/condition';
 import type { Alert, AlertDetail, AlertListQuery } from '@turnstone/contracts/alerts';
 import { alertListQuerySchema } from '@turnstone/contracts/alerts';
-import { pointStates } from '@turnstone/db/schema';
+
 import type { AppContext } from '../../lib/context.ts';
 import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
-import { lockPointState } from '../analysis/analysis-repository.ts';
+import * as conditionRepo from '../condition/condition-repository.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import { currentDiagnosis } from '../points/points-service.ts';
 import * as repo from './alerts-repository.ts';
@@ -85,10 +85,10 @@ export async function acknowledge(
   await ctx.db.transaction(async (tx) => {
     const states = new Map<number, PointState>();
     for (const pointId of pointIds) {
-      const row = await lockPointState(tx, pointId);
+      const row = await conditionRepo.lockPointState(tx, pointId);
       states.set(pointId, row.state as unknown as PointState);
     }
-    const locked = await repo.lockAlerts(tx, unique);
+    const locked = await conditionRepo.lockAlerts(tx, unique);
     const refused = locked.filter((a) => a.state !== 'raised');
     if (refused.length > 0) {
       throw new AppError(
@@ -116,24 +116,24 @@ export async function acknowledge(
       // 'no-alert': the point's state no longer tracks this band (its band was removed
       // from the limit set); the row alone is acknowledged.
       states.set(a.pointId, result.state);
-      await tx
-        .update(repo.alerts)
-        .set({
+      await conditionRepo.changeAlert(
+        tx,
+        a.id,
+        {
           state: 'acknowledged',
           acknowledgedBy: user.id,
           acknowledgedAt: now,
           acknowledgeNote: note,
-        })
-        .where(eq(repo.alerts.id, a.id));
-      await tx.insert(repo.alertEvents).values({
-        alertId: a.id,
-        kind: 'acknowledged',
-        level: a.level,
-        value: a.lastValue,
-        userId: user.id,
-        note,
-        at: now,
-      });
+        },
+        {
+          kind: 'acknowledged',
+          level: a.level,
+          value: a.lastValue,
+          userId: user.id,
+          note,
+          at: now,
+        },
+      );
       await writeAudit(tx, {
         actorUserId: user.id,
         action: 'alert.acknowledge',
@@ -144,12 +144,13 @@ export async function acknowledge(
         reason: note,
       });
     }
-    for (const [pointId, state] of states) {
-      await tx
-        .update(pointStates)
-        .set({ state: state as unknown as Record<string, unknown>, updatedAt: now })
-        .where(eq(pointStates.pointId, pointId));
-    }
+    for (const [pointId, state] of states)
+      await conditionRepo.replacePointState(
+        tx,
+        pointId,
+        state as unknown as Record<string, unknown>,
+        now,
+      );
   });
   const rows = await repo.listAlerts(ctx.db, { ids: unique, siteIds: null, limit: unique.length });
   return { items: rows.map(toAlert) };

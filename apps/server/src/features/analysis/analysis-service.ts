@@ -5,6 +5,7 @@
  * computation runs outside the transaction, and the batch commits once (one fsync).
  */
 import { analyzeSnapshot, decodeSamples, type SnapshotAnalysis } from '@turnstone/dsp';
+import { encodeSpectra } from '@turnstone/db/spectra-codec';
 import {
   diagnose,
   diagnosisSeverity,
@@ -21,22 +22,21 @@ import {
   type JobRow,
 } from '../worker/queue-repository.ts';
 import * as repo from './analysis-repository.ts';
+import * as limitSets from '../limits/limit-set-repository.ts';
+import { storedSummaryOf } from './stored-summary.ts';
 import { combineBandValues, toDspBands } from './band-mapping.ts';
-import { startConditionBatch } from './condition-step.ts';
+import { startConditionBatch } from '../condition/condition-step.ts';
 import { templateBandsFor } from '../limits/limits-service.ts';
 import { storedSampleBytes } from '../ingest/sample-storage.ts';
 
 export class PermanentJobError extends Error {}
 
-const f32 = (a: Float32Array | null | undefined) =>
-  a ? Buffer.from(a.buffer, a.byteOffset, a.byteLength) : null;
-
 /** The points' limit sets, each created from its machine type's template the first time. */
 async function ensureLimitSets(
   ctx: AppContext,
   contexts: repo.PointContext[],
-): Promise<Map<number, repo.StoredLimitSet>> {
-  const sets = await repo.loadLimitSets(
+): Promise<Map<number, limitSets.StoredLimitSet>> {
+  const sets = await limitSets.loadLimitSets(
     ctx.db,
     contexts.map((pc) => pc.point.id),
   );
@@ -45,11 +45,11 @@ async function ensureLimitSets(
     // A machine-type template an engineer stored wins over the built-in one.
     const template = await templateBandsFor(ctx, pc.machine);
     await ctx.db.transaction((tx) =>
-      repo.saveLimitSet(tx, pc.point.id, `${pc.machine.type} template`, template.bands, null),
+      limitSets.saveLimitSet(tx, pc.point.id, `${pc.machine.type} template`, template.bands, null),
     );
   }
   if (missing.length) {
-    const created = await repo.loadLimitSets(
+    const created = await limitSets.loadLimitSets(
       ctx.db,
       missing.map((pc) => pc.point.id),
     );
@@ -69,8 +69,10 @@ export interface PreparedAnalysis {
   job: JobRow;
   snap: repo.SnapshotRow;
   pc: repo.PointContext;
-  limitSet: repo.StoredLimitSet;
+  limitSet: limitSets.StoredLimitSet;
   analysis: SnapshotAnalysis;
+  /** The analysis's spectra in their stored form (one compact BLOB). */
+  spectra: Buffer;
   values: Record<string, number | null>;
   zone: 'A' | 'B' | 'C' | 'D' | null;
 }
@@ -115,7 +117,7 @@ function prepareOne(
   job: JobRow,
   snaps: Map<number, repo.SnapshotRow>,
   contexts: Map<number, repo.PointContext>,
-  limitSets: Map<number, repo.StoredLimitSet>,
+  limitSets: Map<number, limitSets.StoredLimitSet>,
 ): PreparedAnalysis {
   if (!job.snapshotId) throw new PermanentJobError('analysis job without a snapshot');
   const snap = snaps.get(job.snapshotId);
@@ -158,6 +160,7 @@ function prepareOne(
     snap.encoding,
   );
   let analysis: SnapshotAnalysis;
+  let spectra: Buffer;
   try {
     analysis = analyzeSnapshot({
       samples,
@@ -176,6 +179,14 @@ function prepareOne(
         ? { envelopeBandHz: [pc.point.envelopeLoHz, pc.point.envelopeHiHz] as const }
         : {}),
     });
+    // Encoded here, outside the batch's transaction: a spectrum the code cannot hold (a
+    // NaN line) fails its own job, not the batch.
+    spectra = encodeSpectra({
+      acceleration: analysis.spectra.acceleration.values,
+      velocity: analysis.spectra.velocity.values,
+      envelope: analysis.spectra.envelope?.values,
+      order: analysis.spectra.order?.values,
+    });
   } catch (err) {
     if (err instanceof RangeError || err instanceof TypeError)
       throw new PermanentJobError(`analysis refused the snapshot: ${err.message}`);
@@ -186,7 +197,7 @@ function prepareOne(
   const zone = Number.isFinite(analysis.overall.velocityRmsMmS)
     ? isoZone(analysis.overall.velocityRmsMmS, group, pc.machine.foundation)
     : null;
-  return { job, snap, pc, limitSet, analysis, values, zone };
+  return { job, snap, pc, limitSet, analysis, spectra, values, zone };
 }
 
 /**
@@ -199,17 +210,17 @@ function prepareOne(
  * recomputation happens only after a save.
  */
 async function withLimitsInForce(
-  tx: Parameters<typeof repo.loadLimitSets>[0],
+  tx: Parameters<typeof limitSets.loadLimitSets>[0],
   batch: PreparedAnalysis[],
 ): Promise<PreparedAnalysis[]> {
   const pointIds = [...new Set(batch.map((p) => p.snap.pointId))];
-  const versions = await repo.limitSetVersions(tx, pointIds);
+  const versions = await limitSets.limitSetVersions(tx, pointIds);
   const stale = pointIds.filter((id) => {
     const v = versions.get(id);
     return v !== undefined && batch.some((p) => p.snap.pointId === id && p.limitSet.version !== v);
   });
   if (stale.length === 0) return batch;
-  const sets = await repo.loadLimitSets(tx, stale);
+  const sets = await limitSets.loadLimitSets(tx, stale);
   return batch.map((p) => {
     const set = sets.get(p.snap.pointId);
     if (!set || set.version === p.limitSet.version) return p;
@@ -247,7 +258,7 @@ export async function storeAnalyses(
     const ids = await repo.insertAnalyses(
       tx,
       batch.map((p) => {
-        const { snap, analysis, zone } = p;
+        const { snap, analysis, spectra, zone } = p;
         return {
           snapshotId: snap.id,
           pointId: snap.pointId,
@@ -264,11 +275,8 @@ export async function storeAnalyses(
           qualityVerdict: analysis.quality.verdict,
           bitsUsed: analysis.quality.bitsUsed,
           qualityFindings: analysis.quality.findings,
-          summary: summaryOf(analysis),
-          accelSpectrum: f32(analysis.spectra.acceleration.values),
-          velocitySpectrum: f32(analysis.spectra.velocity.values),
-          envelopeSpectrum: f32(analysis.spectra.envelope?.values),
-          orderSpectrum: f32(analysis.spectra.order?.values),
+          summary: storedSummaryOf(analysis),
+          spectra,
           diagnosis: diagnosisOf(p, condition.stateOf(snap.pointId)),
           shaftVectors: analysis.shaftVectors as unknown as Record<string, unknown>[] | null,
         };
@@ -416,59 +424,4 @@ function diagnosisOf(p: PreparedAnalysis, state: PointState | null): Record<stri
       severitySource: severity.source,
     };
   }
-}
-
-/** What the web app needs to draw the stored spectra, besides the float32 arrays. */
-function summaryOf(a: SnapshotAnalysis) {
-  return {
-    schemaVersion: a.schemaVersion,
-    sampleRateHz: a.sampleRateHz,
-    sampleCount: a.sampleCount,
-    durationS: a.durationS,
-    fmaxHz: a.fmaxHz,
-    isoBand: a.overall.isoBand,
-    isoBandHz: a.overall.isoBandHz,
-    accelBandHz: a.overall.accelBandHz,
-    snrDb: a.quality.snrDb,
-    qualityMetrics: a.quality.metrics,
-    speed: a.speed,
-    spectra: {
-      acceleration: {
-        unit: a.spectra.acceleration.unit,
-        scale: a.spectra.acceleration.scale,
-        dfHz: a.spectra.acceleration.dfHz,
-        window: a.spectra.acceleration.window,
-        nperseg: a.spectra.acceleration.nperseg,
-        averages: a.spectra.acceleration.averages,
-        lines: a.spectra.acceleration.values.length,
-      },
-      velocity: {
-        unit: a.spectra.velocity.unit,
-        scale: a.spectra.velocity.scale,
-        dfHz: a.spectra.velocity.dfHz,
-        lowCutoffHz: a.spectra.velocity.lowCutoffHz,
-        lines: a.spectra.velocity.values.length,
-      },
-      envelope: a.spectra.envelope
-        ? {
-            unit: a.spectra.envelope.unit,
-            scale: a.spectra.envelope.scale,
-            dfHz: a.spectra.envelope.dfHz,
-            bandHz: a.spectra.envelope.bandHz,
-            lines: a.spectra.envelope.values.length,
-          }
-        : null,
-      order: a.spectra.order
-        ? {
-            unit: a.spectra.order.unit,
-            scale: a.spectra.order.scale,
-            dOrder: a.spectra.order.dOrder,
-            method: a.spectra.order.method,
-            lines: a.spectra.order.values.length,
-          }
-        : null,
-    },
-    peaks: a.peaks,
-    faultFrequencies: a.faultFrequencies,
-  };
 }

@@ -100,15 +100,25 @@ export async function commissionDemoGateways(ctx: AppContext): Promise<Map<strin
   } catch {
     // The keys are a convenience for `npm run sim`; an admin can rotate new ones.
   }
-  const pointRows = await ctx.db.select({ id: points.id, tag: points.tag }).from(points);
-  const pointId = new Map(pointRows.map((p) => [p.tag, p.id]));
+  const pointId = await demoPointIds(ctx);
   for (const c of demoChannels()) {
     await ctx.db
       .update(points)
       .set({ fmaxHz: c.fmaxHz, lines: c.lines })
-      .where(eq(points.id, pointId.get(c.tag)!));
+      .where(eq(points.id, pointId.get(channelKey(c))!));
   }
   return gatewayOf;
+}
+
+/** A channel's point is found by its site and tag (tags are unique per site only). */
+const channelKey = (c: { siteCode: string; tag: string }) => `${c.siteCode}\u0000${c.tag}`;
+
+async function demoPointIds(ctx: AppContext): Promise<Map<string, number>> {
+  const rows = await ctx.db
+    .select({ id: points.id, tag: points.tag, siteCode: sites.code })
+    .from(points)
+    .innerJoin(sites, eq(sites.id, points.siteId));
+  return new Map(rows.map((p) => [channelKey(p), p.id]));
 }
 
 /** The demo gateways' keys, one `SITE key` line per site, in DATA_DIR. */
@@ -127,8 +137,7 @@ export async function seedDemoHistory(
   const engineer = await sessionUser(ctx, 'engineer@turnstone.local');
   const planner = await sessionUser(ctx, 'planner@turnstone.local');
   const channels = demoChannels();
-  const pointRows = await ctx.db.select({ id: points.id, tag: points.tag }).from(points);
-  const pointId = new Map(pointRows.map((p) => [p.tag, p.id]));
+  const pointId = await demoPointIds(ctx);
 
   const end =
     Math.floor((now.getTime() - channels.length * POINT_STAGGER_S * 1000) / 60_000) * 60_000;
@@ -200,7 +209,7 @@ async function storeOne(
   const s = simulateSnapshot(c, at, progress);
   await storeSnapshot(ctx, {
     uid: s.uid,
-    pointId: pointId.get(c.tag)!,
+    pointId: pointId.get(channelKey(c))!,
     gatewayId: gatewayOf.get(c.siteCode) ?? null,
     source: 'gateway',
     takenAt: s.takenAt,
@@ -253,6 +262,7 @@ class PeoplePlayer {
       .select({
         id: alerts.id,
         tag: points.tag,
+        siteCode: sites.code,
         pointId: alerts.pointId,
         bandKey: alerts.bandKey,
         level: alerts.level,
@@ -260,9 +270,10 @@ class PeoplePlayer {
       })
       .from(alerts)
       .innerJoin(points, eq(points.id, alerts.pointId))
+      .innerJoin(sites, eq(sites.id, points.siteId))
       .where(and(eq(alerts.state, 'raised'), eq(alerts.level, 'alert')));
     for (const a of raised) {
-      const mfp = a.tag.startsWith('MFP-');
+      const mfp = a.siteCode === 'MFP';
       const delay = mfp ? Math.min(4 * HOUR, span / 50) : Math.max(DAY, span / 10);
       const ackAt = a.firstAt.getTime() + delay;
       if (ackAt > t) continue;
@@ -273,7 +284,7 @@ class PeoplePlayer {
         ACK_NOTES[a.bandKey] ?? 'Seen; watching the trend.',
         new Date(ackAt),
       );
-      if (a.bandKey === 'bpfo' && a.tag === 'MFP-P101-MDE-H')
+      if (mfp && a.bandKey === 'bpfo' && a.tag === 'MFP-P101-MDE-H')
         await this.finding(`p101:${a.id}`, ackAt + Math.min(DAY, span / 20), {
           pointId: a.pointId,
           alertId: a.id,
@@ -283,7 +294,7 @@ class PeoplePlayer {
           note: 'Outer-race defect confirmed by the envelope spectrum; bearing and seals ordered. Work under the site lock-out procedure.',
           state: 'planned',
         });
-      if (a.bandKey === 'order-1x' && a.tag === 'MFP-P201-MDE-H')
+      if (mfp && a.bandKey === 'order-1x' && a.tag === 'MFP-P201-MDE-H')
         await this.finding(`p201:${a.id}`, ackAt + Math.min(DAY, span / 20), {
           pointId: a.pointId,
           alertId: a.id,
@@ -298,7 +309,14 @@ class PeoplePlayer {
         .select({ id: alerts.id, pointId: alerts.pointId })
         .from(alerts)
         .innerJoin(points, eq(points.id, alerts.pointId))
-        .where(and(eq(points.tag, 'MFP-B301-MDE-H'), eq(alerts.bandKey, 'order-2x')))
+        .innerJoin(sites, eq(sites.id, points.siteId))
+        .where(
+          and(
+            eq(sites.code, 'MFP'),
+            eq(points.tag, 'MFP-B301-MDE-H'),
+            eq(alerts.bandKey, 'order-2x'),
+          ),
+        )
         .limit(1);
       if (a)
         await this.finding('b301', t - 3 * HOUR, {

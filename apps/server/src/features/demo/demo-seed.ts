@@ -85,6 +85,7 @@ export async function seedPlant(ctx: AppContext): Promise<void> {
           for (const p of m.points) {
             await tx.insert(points).values({
               machineId: mach!.id,
+              siteId: s!.id,
               tag: `${site.code}-${m.code}-${p.suffix}`,
               name: p.name,
               location: p.location,

@@ -9,7 +9,7 @@ import type {
 } from '@turnstone/contracts/findings';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
-import { accessiblePoint } from '../../lib/point-access.ts';
+import { accessiblePoint } from '../places/point-access.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import * as repo from './findings-repository.ts';

@@ -1,17 +1,17 @@
-import { desc, eq, inArray } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
 import { createGatewaySchema, type CreateGatewayInput } from '@turnstone/contracts/gateways';
-import { gateways, sites } from '@turnstone/db/schema';
+
 import { AppError, notFound } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import { newGatewayKey } from './gateway-keys.ts';
+import * as repo from './gateways-repository.ts';
 import { forgetGatewayKeys } from '../ingest/ingest-service.ts';
 
 export { createGatewaySchema };
 
 type SiteNames = { siteName: string; siteCode: string };
-const publicView = (g: typeof gateways.$inferSelect, site: SiteNames) => ({
+const publicView = (g: repo.GatewayRow, site: SiteNames) => ({
   id: g.id,
   siteId: g.siteId,
   siteName: site.siteName,
@@ -24,46 +24,38 @@ const publicView = (g: typeof gateways.$inferSelect, site: SiteNames) => ({
 });
 
 export async function listGateways(db: Db, user: SessionUser) {
-  const rows = await db
-    .select({ g: gateways, siteName: sites.name, siteCode: sites.code })
-    .from(gateways)
-    .innerJoin(sites, eq(sites.id, gateways.siteId))
-    .where(inArray(gateways.siteId, user.siteIds.length ? user.siteIds : [-1]))
-    .orderBy(desc(gateways.createdAt), desc(gateways.id));
+  const rows = await repo.gatewaysOfSites(db, user.siteIds);
   return { items: rows.map((r) => publicView(r.g, r)) };
 }
 
 /** Creates a gateway; the key is in the answer only, never stored or shown again. */
 export async function createGateway(db: Db, user: SessionUser, input: CreateGatewayInput) {
-  const [site] = await db.select({ id: sites.id }).from(sites).where(eq(sites.id, input.siteId));
-  if (!site)
+  if (!(await repo.siteExists(db, input.siteId)))
     throw new AppError('validation_failed', 'That site does not exist.', 400, [
       { path: 'siteId', message: 'unknown site' },
     ]);
   const k = newGatewayKey();
   const id = await db.transaction(async (tx) => {
-    const [row] = await tx
-      .insert(gateways)
-      .values({ siteId: input.siteId, name: input.name, keyPrefix: k.prefix, keyHash: k.hash })
-      .$returningId();
+    const gatewayId = await repo.insertGateway(tx, {
+      siteId: input.siteId,
+      name: input.name,
+      keyPrefix: k.prefix,
+      keyHash: k.hash,
+    });
     await writeAudit(tx, {
       actorUserId: user.id,
       action: 'gateway.create',
       entity: 'gateway',
-      entityId: row!.id,
+      entityId: gatewayId,
       after: { siteId: input.siteId, name: input.name, keyPrefix: k.prefix },
     });
-    return row!.id;
+    return gatewayId;
   });
   return { id, apiKey: k.key, keyPrefix: k.prefix };
 }
 
 async function load(db: Db, id: number) {
-  const [row] = await db
-    .select({ g: gateways, siteName: sites.name, siteCode: sites.code })
-    .from(gateways)
-    .innerJoin(sites, eq(sites.id, gateways.siteId))
-    .where(eq(gateways.id, id));
+  const row = await repo.gatewayWithSite(db, id);
   if (!row) throw notFound('Gateway');
   return row;
 }
@@ -75,7 +67,7 @@ export async function revokeGateway(db: Db, user: SessionUser, id: number) {
   if (g.revokedAt) return publicView(g, row);
   const revokedAt = new Date();
   await db.transaction(async (tx) => {
-    await tx.update(gateways).set({ revokedAt }).where(eq(gateways.id, id));
+    await repo.setRevoked(tx, id, revokedAt);
     await writeAudit(tx, {
       actorUserId: user.id,
       action: 'gateway.revoke',
@@ -103,10 +95,7 @@ export async function rotateGatewayKey(db: Db, user: SessionUser, id: number) {
     );
   const k = newGatewayKey();
   await db.transaction(async (tx) => {
-    await tx
-      .update(gateways)
-      .set({ keyPrefix: k.prefix, keyHash: k.hash })
-      .where(eq(gateways.id, id));
+    await repo.setKey(tx, id, { keyPrefix: k.prefix, keyHash: k.hash });
     await writeAudit(tx, {
       actorUserId: user.id,
       action: 'gateway.rotate',

@@ -1,7 +1,7 @@
 import { and, eq, getTableColumns } from 'drizzle-orm';
 import type { ResultSetHeader } from 'mysql2';
 import type { Db, DbHandle } from '@turnstone/db/client';
-import { areas, gateways, machines, points, snapshots } from '@turnstone/db/schema';
+import { gateways, points, snapshots } from '@turnstone/db/schema';
 
 export async function gatewayByPrefix(db: Db, prefix: string) {
   const [g] = await db.select().from(gateways).where(eq(gateways.keyPrefix, prefix)).limit(1);
@@ -12,13 +12,12 @@ export async function touchGateway(db: Db, id: number): Promise<void> {
   await db.update(gateways).set({ lastSeenAt: new Date() }).where(eq(gateways.id, id));
 }
 
-export async function pointByTag(db: Db, tag: string) {
+/** The site's point with this tag (tags are unique per site), or undefined. */
+export async function pointOfSite(db: Db, siteId: number, tag: string) {
   const [p] = await db
-    .select({ id: points.id, siteId: areas.siteId })
+    .select({ id: points.id })
     .from(points)
-    .innerJoin(machines, eq(machines.id, points.machineId))
-    .innerJoin(areas, eq(areas.id, machines.areaId))
-    .where(eq(points.tag, tag))
+    .where(and(eq(points.siteId, siteId), eq(points.tag, tag)))
     .limit(1);
   return p;
 }

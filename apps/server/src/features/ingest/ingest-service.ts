@@ -34,19 +34,29 @@ export interface GatewayPrincipal {
 const lastTouched = new Map<number, number>();
 
 /**
- * Short-lived caches on the hot path: a gateway looked up by key prefix, a point by tag.
+ * Short-lived caches on the hot path: a gateway looked up by key prefix, a point by its
+ * site and tag (set-up changes clear the latter in this process).
  * Revoking or rotating a key clears the gateway cache in this process at once; other API
  * processes notice within GATEWAY_CACHE_MS.
  */
 export const GATEWAY_CACHE_MS = 5_000;
 export const POINT_CACHE_MS = 30_000;
 type GatewayRow = Awaited<ReturnType<typeof repo.gatewayByPrefix>>;
-type PointRow = Awaited<ReturnType<typeof repo.pointByTag>>;
+type PointRow = Awaited<ReturnType<typeof repo.pointOfSite>>;
 const gatewayCache = new Map<string, { at: number; row: GatewayRow }>();
 const pointCache = new Map<string, { at: number; row: PointRow }>();
 
 export function forgetGatewayKeys(): void {
   gatewayCache.clear();
+}
+
+/**
+ * Set-up changed which point a (site, tag) names (a point created, retagged, moved or
+ * deleted): this process looks again at once, so a gateway of the site a machine left stops
+ * reaching its points. Other API processes notice within POINT_CACHE_MS.
+ */
+export function forgetPointTags(): void {
+  pointCache.clear();
 }
 
 async function cached<V>(
@@ -265,12 +275,13 @@ export async function ingestOne(
       { path: 'samples', message: (err as Error).message },
     ]);
   }
-  const point = await cached(pointCache, s.pointTag, POINT_CACHE_MS, () =>
-    repo.pointByTag(ctx.db, s.pointTag),
+  // Only the gateway's own site is looked at: a tag that exists at another site is simply
+  // not found, the same answer as a tag that exists nowhere, so a gateway learns nothing
+  // about other sites' tags (and two sites may use the same tag).
+  const point = await cached(pointCache, `${gateway.siteId}:${s.pointTag}`, POINT_CACHE_MS, () =>
+    repo.pointOfSite(ctx.db, gateway.siteId, s.pointTag),
   );
-  // Another site's point is answered as if it did not exist: a gateway learns nothing
-  // about other sites' tags.
-  if (!point || point.siteId !== gateway.siteId)
+  if (!point)
     return {
       uid: s.uid,
       status: 'unknown_point',

@@ -7,7 +7,8 @@
  * about 0.3 ms of the server's CPU per post (1,001 → 1,372 and 956 → 1,264 posts/s in
  * interleaved runs of tests/bench/ingest-bench.ts with and without it), and saved little:
  * on the demo history a capture's raw samples shrink from 24.6 to 20.0 kB (int24) while its
- * analysis keeps about 23 kB of spectra and summaries, and raw samples expire after
+ * analysis kept about 23 kB of spectra and summaries (since then its spectra are
+ * compacted: tests/bench/storage-bench.ts), and raw samples expire after
  * RETENTION_DAYS while analyses stay.
  */
 import { promisify } from 'node:util';

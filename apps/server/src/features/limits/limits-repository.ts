@@ -1,21 +1,6 @@
-import { and, asc, desc, eq, gte, inArray, isNull, like } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, like } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
-import {
-  alertEvents,
-  alerts,
-  analyses,
-  auditLog,
-  bands,
-  bandValues,
-  limitSets,
-  pointStates,
-  users,
-} from '@turnstone/db/schema';
-import type { BandDefinition as LimitBand } from '@turnstone/condition';
-import type { Tx } from '@turnstone/db/client';
-import { insertBands } from '../analysis/analysis-repository.ts';
-
-type MachineType = (typeof limitSets.$inferSelect)['machineType'] & string;
+import { analyses, auditLog, bandValues, limitSets, users } from '@turnstone/db/schema';
 
 /** The point's limit set row with who saved it last. */
 export async function limitSetMeta(db: Db, pointId: number) {
@@ -30,64 +15,6 @@ export async function limitSetMeta(db: Db, pointId: number) {
     .leftJoin(users, eq(users.id, limitSets.updatedBy))
     .where(eq(limitSets.pointId, pointId));
   return row;
-}
-
-/** A machine type's stored template (point_id null), if an engineer saved one. */
-export async function loadTemplate(db: Db | Tx, machineType: MachineType) {
-  const [set] = await db
-    .select()
-    .from(limitSets)
-    .where(and(eq(limitSets.machineType, machineType), isNull(limitSets.pointId)));
-  if (!set) return undefined;
-  const rows = await db
-    .select()
-    .from(bands)
-    .where(eq(bands.limitSetId, set.id))
-    .orderBy(asc(bands.sortOrder), asc(bands.id));
-  return {
-    id: set.id,
-    version: set.version,
-    bands: rows.map((r) => r.definition as unknown as LimitBand),
-  };
-}
-
-export async function saveTemplate(
-  tx: Tx,
-  machineType: MachineType,
-  list: readonly LimitBand[],
-  userId: number,
-): Promise<number> {
-  const [existing] = await tx
-    .select()
-    .from(limitSets)
-    .where(and(eq(limitSets.machineType, machineType), isNull(limitSets.pointId)))
-    .for('update');
-  let id: number;
-  let version: number;
-  if (existing) {
-    id = existing.id;
-    version = existing.version + 1;
-    await tx
-      .update(limitSets)
-      .set({ version, updatedBy: userId, updatedAt: new Date() })
-      .where(eq(limitSets.id, id));
-    await tx.delete(bands).where(eq(bands.limitSetId, id));
-  } else {
-    const [row] = await tx
-      .insert(limitSets)
-      .values({
-        pointId: null,
-        machineType,
-        name: `${machineType} template`,
-        version: 1,
-        updatedBy: userId,
-      })
-      .$returningId();
-    id = row!.id;
-    version = 1;
-  }
-  await insertBands(tx, id, list);
-  return version;
 }
 
 /**
@@ -130,21 +57,6 @@ export async function bandTrend(db: Db, pointId: number, bandKey: string, limit 
     .limit(limit);
 }
 
-export async function openAlertsOfBands(tx: Tx, pointId: number, bandKeys: string[]) {
-  if (bandKeys.length === 0) return [];
-  return tx
-    .select()
-    .from(alerts)
-    .where(
-      and(
-        eq(alerts.pointId, pointId),
-        inArray(alerts.bandKey, bandKeys),
-        inArray(alerts.state, ['raised', 'acknowledged']),
-      ),
-    )
-    .for('update');
-}
-
 export async function limitAudit(db: Db, pointId: number, limit = 20) {
   return db
     .select({
@@ -168,5 +80,3 @@ export async function limitAudit(db: Db, pointId: number, limit = 20) {
     .orderBy(desc(auditLog.at), desc(auditLog.id))
     .limit(limit);
 }
-
-export { alertEvents, alerts, pointStates };

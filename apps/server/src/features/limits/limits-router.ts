@@ -15,7 +15,7 @@ import {
   suggestResponseSchema,
 } from '@turnstone/contracts/limits';
 import type { AppContext } from '../../lib/context.ts';
-import { accessiblePoint } from '../../lib/point-access.ts';
+import { accessiblePoint } from '../places/point-access.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './limits-service.ts';
 import { idParam } from '../../lib/route-params.ts';

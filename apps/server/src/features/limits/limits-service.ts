@@ -9,7 +9,7 @@
  * state — nothing would ever evaluate (and so clear) it again. Bands that stay keep their
  * state; new levels apply from the next capture (an open alert clears then by hysteresis).
  */
-import { eq } from 'drizzle-orm';
+
 import {
   checkBandDefinition,
   baselineShortfall,
@@ -26,16 +26,15 @@ import {
 import type { ReplayResponse } from '@turnstone/contracts/limits';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
-import type { accessiblePoint } from '../../lib/point-access.ts';
+import type { accessiblePoint } from '../places/point-access.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
-import {
-  loadLimitSet,
-  lockPointState,
-  saveLimitSet,
-  type MachineRow,
-} from '../analysis/analysis-repository.ts';
+import type { machines } from '@turnstone/db/schema';
 import { writeAudit } from '../audit/audit-repository.ts';
 import * as repo from './limits-repository.ts';
+import * as limitSets from './limit-set-repository.ts';
+import * as conditionRepo from '../condition/condition-repository.ts';
+
+type MachineRow = typeof machines.$inferSelect;
 
 type PointRow = Awaited<ReturnType<typeof accessiblePoint>>;
 type MachineType = MachineRow['type'];
@@ -59,7 +58,7 @@ export async function templateBandsFor(
   ctx: AppContext,
   machine: MachineRow,
 ): Promise<{ bands: LimitBand[]; source: 'stored' | 'built-in' }> {
-  const stored = await repo.loadTemplate(ctx.db, machine.type);
+  const stored = await limitSets.loadTemplate(ctx.db, machine.type);
   if (stored && stored.bands.length > 0) return { bands: stored.bands, source: 'stored' };
   return {
     bands: [
@@ -85,7 +84,7 @@ export async function getLimitSet(ctx: AppContext, p: PointRow) {
     nominalRpm: p.machine.nominalRpm,
   };
   const point = { id: p.point.id, tag: p.point.tag, name: p.point.name };
-  const set = await loadLimitSet(ctx.db, p.point.id);
+  const set = await limitSets.loadLimitSet(ctx.db, p.point.id);
   if (!set) {
     // Not yet created (the worker creates it with the first capture): show what it would be.
     const t = await templateBandsFor(ctx, p.machine);
@@ -125,9 +124,9 @@ export async function saveLimits(
   const pointId = p.point.id;
   return ctx.db.transaction(async (tx) => {
     // Point state first, as the worker locks it, then the limit set row (in saveLimitSet).
-    const stateRow = await lockPointState(tx, pointId);
-    const before = await loadLimitSet(tx, pointId);
-    const saved = await saveLimitSet(
+    const stateRow = await conditionRepo.lockPointState(tx, pointId);
+    const before = await limitSets.loadLimitSet(tx, pointId);
+    const saved = await limitSets.saveLimitSet(
       tx,
       pointId,
       before ? 'limits' : `${p.machine.type} limits`,
@@ -136,22 +135,21 @@ export async function saveLimits(
     );
     const kept = new Set(list.map((b) => b.key));
     const removed = (before?.bands ?? []).map((b) => b.key).filter((k) => !kept.has(k));
-    const open = await repo.openAlertsOfBands(tx, pointId, removed);
-    for (const a of open) {
-      await tx
-        .update(repo.alerts)
-        .set({ state: 'cleared', clearedAt: now })
-        .where(eq(repo.alerts.id, a.id));
-      await tx.insert(repo.alertEvents).values({
-        alertId: a.id,
-        kind: 'cleared',
-        level: a.level,
-        value: null,
-        userId: user.id,
-        note: 'band removed from the limit set',
-        at: now,
-      });
-    }
+    const open = await conditionRepo.lockOpenAlertsOfBands(tx, pointId, removed);
+    for (const a of open)
+      await conditionRepo.changeAlert(
+        tx,
+        a.id,
+        { state: 'cleared', clearedAt: now },
+        {
+          kind: 'cleared',
+          level: a.level,
+          value: null,
+          userId: user.id,
+          note: 'band removed from the limit set',
+          at: now,
+        },
+      );
     const state = { ...(stateRow.state as unknown as Record<string, unknown>) };
     let stateChanged = false;
     for (const key of Object.keys(state)) {
@@ -160,11 +158,7 @@ export async function saveLimits(
         stateChanged = true;
       }
     }
-    if (stateChanged)
-      await tx
-        .update(repo.pointStates)
-        .set({ state, updatedAt: now })
-        .where(eq(repo.pointStates.pointId, pointId));
+    if (stateChanged) await conditionRepo.replacePointState(tx, pointId, state, now);
     await writeAudit(tx, {
       actorUserId: user.id,
       action: 'limits.update',
@@ -311,7 +305,7 @@ export async function history(ctx: AppContext, pointId: number) {
 }
 
 export async function getTemplate(ctx: AppContext, machineType: MachineType) {
-  const stored = await repo.loadTemplate(ctx.db, machineType);
+  const stored = await limitSets.loadTemplate(ctx.db, machineType);
   if (stored)
     return { machineType, source: 'stored' as const, version: stored.version, bands: stored.bands };
   // The built-in template depends on the machine's ISO group, foundation and speed; shown
@@ -334,8 +328,8 @@ export async function saveTemplate(
 ) {
   checkBands(list);
   return ctx.db.transaction(async (tx) => {
-    const before = await repo.loadTemplate(tx, machineType);
-    const version = await repo.saveTemplate(tx, machineType, list, user.id);
+    const before = await limitSets.loadTemplate(tx, machineType);
+    const version = await limitSets.saveTemplate(tx, machineType, list, user.id);
     await writeAudit(tx, {
       actorUserId: user.id,
       action: 'limits.template',

@@ -1,6 +1,8 @@
+import { readStoredSummary, type StoredSummary } from '../analysis/stored-summary.ts';
 import { and, asc, desc, eq, gte, inArray, isNull, lte, or, sql } from 'drizzle-orm';
 import type { BandState } from '@turnstone/condition';
 import type { Db } from '@turnstone/db/client';
+import { legacySpectrumColumn, type SpectrumKind } from '@turnstone/db/spectra-codec';
 import {
   alertEvents,
   alerts,
@@ -174,8 +176,8 @@ export async function bandTrend(
 export async function analysisBandsOf(
   db: Db,
   ids: readonly number[],
-): Promise<Map<number, { isoBandHz: unknown; accelBandHz: unknown }>> {
-  const out = new Map<number, { isoBandHz: unknown; accelBandHz: unknown }>();
+): Promise<Map<number, Pick<StoredSummary, 'isoBandHz' | 'accelBandHz'>>> {
+  const out = new Map<number, Pick<StoredSummary, 'isoBandHz' | 'accelBandHz'>>();
   const unique = [...new Set(ids)];
   for (let i = 0; i < unique.length; i += 1000) {
     const rows = await db
@@ -183,7 +185,7 @@ export async function analysisBandsOf(
       .from(analyses)
       .where(inArray(analyses.id, unique.slice(i, i + 1000)));
     for (const r of rows) {
-      const summary = (r.summary ?? {}) as { isoBandHz?: unknown; accelBandHz?: unknown };
+      const summary = readStoredSummary(r.summary);
       out.set(r.id, { isoBandHz: summary.isoBandHz, accelBandHz: summary.accelBandHz });
     }
   }
@@ -270,19 +272,20 @@ export async function analysisRow(db: Db, analysisId: number) {
   return row;
 }
 
-/** The spectra of the last `limit` analyses of a point, newest first. */
-export async function recentSpectra(
-  db: Db,
-  pointId: number,
-  column: 'accelSpectrum' | 'velocitySpectrum' | 'envelopeSpectrum' | 'orderSpectrum',
-  limit: number,
-) {
+/**
+ * The stored spectra of the last `limit` analyses of a point, newest first: the compact
+ * BLOB, and for rows written before it the old float32 column of `kind` as `legacy`
+ * (read either with `readSpectrum`).
+ */
+export async function recentSpectra(db: Db, pointId: number, kind: SpectrumKind, limit: number) {
+  const legacy = legacySpectrumColumn[kind];
   return db
     .select({
       id: analyses.id,
       takenAt: analyses.takenAt,
       summary: analyses.summary,
-      values: analyses[column],
+      spectra: analyses.spectra,
+      legacy: analyses[legacy],
     })
     .from(analyses)
     .where(eq(analyses.pointId, pointId))
@@ -292,5 +295,34 @@ export async function recentSpectra(
 
 export async function snapshotRow(db: Db, snapshotId: number) {
   const [row] = await db.select().from(snapshots).where(eq(snapshots.id, snapshotId));
+  return row;
+}
+
+/** A snapshot's status, for the upload screen's poll. */
+export async function snapshotStatusRow(db: Db, snapshotId: number) {
+  const [row] = await db
+    .select({
+      id: snapshots.id,
+      pointId: snapshots.pointId,
+      source: snapshots.source,
+      status: snapshots.status,
+      statusReason: snapshots.statusReason,
+      takenAt: snapshots.takenAt,
+      receivedAt: snapshots.receivedAt,
+      sampleRateHz: snapshots.sampleRateHz,
+      sampleCount: snapshots.sampleCount,
+      fileName: snapshots.fileName,
+    })
+    .from(snapshots)
+    .where(eq(snapshots.id, snapshotId));
+  return row;
+}
+
+/** The analysis of a snapshot (summary columns and quality findings), if it has one. */
+export async function analysisOfSnapshot(db: Db, snapshotId: number) {
+  const [row] = await db
+    .select({ ...summaryColumns, qualityFindings: analyses.qualityFindings })
+    .from(analyses)
+    .where(eq(analyses.snapshotId, snapshotId));
   return row;
 }

@@ -8,6 +8,9 @@ import { trendQuerySchema } from '@turnstone/contracts/trend';
 import type { AppContext } from '../../lib/context.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './points-service.ts';
+import * as spectra from './spectra-service.ts';
+import * as trends from './trend-service.ts';
+import * as waveforms from './waveform-service.ts';
 import { idParam } from '../../lib/route-params.ts';
 import { parseQuery } from '../../lib/query.ts';
 
@@ -44,6 +47,16 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
     },
     {
       method: 'get',
+      path: '/snapshots/:id',
+      access: ALL_ROLES,
+      summary: 'snapshot status and its analysis',
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        res.json(await service.snapshotStatus(ctx, requireUser(req), id));
+      },
+    },
+    {
+      method: 'get',
       path: '/points/:id/analyses',
       access: ALL_ROLES,
       summary: 'analyses of a point',
@@ -62,7 +75,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
         const { id } = idParam.parse(req.params);
         const q = parseQuery(trendQuerySchema, req.query);
         res.setHeader('Cache-Control', 'private, no-cache');
-        res.json(await service.trend(ctx, requireUser(req), id, q));
+        res.json(await trends.trend(ctx, requireUser(req), id, q));
       },
     },
     {
@@ -73,7 +86,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const q = parseQuery(trendQuerySchema, req.query);
-        const file = await service.trendCsv(ctx, requireUser(req), id, q);
+        const file = await trends.trendCsv(ctx, requireUser(req), id, q);
         attachment(res, file.fileName, 'text/csv; charset=utf-8');
         res.send(file.text);
       },
@@ -86,7 +99,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const q = parseQuery(waterfallQuerySchema, req.query);
-        res.json(await service.waterfall(ctx, requireUser(req), id, q.kind, q.limit));
+        res.json(await spectra.waterfall(ctx, requireUser(req), id, q.kind, q.limit));
       },
     },
     {
@@ -99,7 +112,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
         const q = parseQuery(spectrumQuerySchema, req.query);
         // Stored spectra never change once written.
         res.setHeader('Cache-Control', 'private, max-age=3600');
-        res.json(await service.spectrum(ctx, requireUser(req), id, q.kind));
+        res.json(await spectra.spectrum(ctx, requireUser(req), id, q.kind));
       },
     },
     {
@@ -109,7 +122,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'time waveform of an analysis',
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        res.json(await service.waveform(ctx, requireUser(req), id));
+        res.json(await waveforms.waveform(ctx, requireUser(req), id));
       },
     },
     {
@@ -119,7 +132,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'raw capture as WAV',
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        const file = await service.waveformWav(ctx, requireUser(req), id);
+        const file = await waveforms.waveformWav(ctx, requireUser(req), id);
         attachment(res, file.fileName, 'audio/wav');
         res.send(Buffer.from(file.bytes.buffer, file.bytes.byteOffset, file.bytes.byteLength));
       },
@@ -131,7 +144,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'capture as CSV in g',
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        const file = await service.waveformCsv(ctx, requireUser(req), id);
+        const file = await waveforms.waveformCsv(ctx, requireUser(req), id);
         attachment(res, file.fileName, 'text/csv; charset=utf-8');
         res.send(file.text);
       },

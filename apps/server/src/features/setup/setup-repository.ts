@@ -87,12 +87,38 @@ export async function pointById(db: Db | Tx, id: number) {
     .where(eq(points.id, id));
   return row;
 }
-export async function pointByTag(db: Db | Tx, tag: string, exceptId = 0) {
+/** The point of the site with this tag (tags are unique per site), other than `exceptId`. */
+export async function pointByTag(db: Db | Tx, siteId: number, tag: string, exceptId = 0) {
   const [row] = await db
     .select({ id: points.id, machineId: points.machineId })
     .from(points)
-    .where(and(eq(points.tag, tag), ne(points.id, exceptId)));
+    .where(and(eq(points.siteId, siteId), eq(points.tag, tag), ne(points.id, exceptId)));
   return row;
+}
+/** The tags among `tags` that points of the site other than the machine's own use. */
+export async function tagsTakenAtSite(
+  db: Db | Tx,
+  siteId: number,
+  tags: string[],
+  exceptMachineId: number,
+): Promise<string[]> {
+  if (tags.length === 0) return [];
+  const rows = await db
+    .select({ tag: points.tag })
+    .from(points)
+    .where(
+      and(
+        eq(points.siteId, siteId),
+        inArray(points.tag, tags),
+        ne(points.machineId, exceptMachineId),
+      ),
+    )
+    .orderBy(points.tag);
+  return rows.map((r) => r.tag);
+}
+/** Keeps the points' site in step with their machine's, after the machine moved site. */
+export async function movePointsToSite(tx: Tx, machineId: number, siteId: number) {
+  await tx.update(points).set({ siteId }).where(eq(points.machineId, machineId));
 }
 export async function bearingsOf(db: Db | Tx, machineId: number) {
   return db.select().from(bearings).where(eq(bearings.machineId, machineId)).orderBy(bearings.id);

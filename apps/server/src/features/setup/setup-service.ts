@@ -20,6 +20,7 @@ import type {
 import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
+import { forgetPointTags } from '../ingest/ingest-service.ts';
 import * as repo from './setup-repository.ts';
 
 const conflict = (path: string, message: string) =>
@@ -178,7 +179,7 @@ async function machineForUser(db: Db, user: SessionUser, id: number) {
   const row = await repo.machineById(db, id);
   if (!row) throw notFound('Machine');
   if (!canSeeSite(user, row.siteId)) throw siteForbidden();
-  return row.machine;
+  return row;
 }
 
 const machineColumns = (input: MachineInput) => ({
@@ -268,13 +269,38 @@ export async function createMachine(db: Db, user: SessionUser, input: MachineInp
   return { id };
 }
 
+/**
+ * A machine moving to an area of another site takes its points along; their tags must be
+ * free at that site (tags are unique per site). The user may see both sites.
+ */
+async function checkTagsFreeAt(db: Db | Tx, machineId: number, siteId: number) {
+  const tags = (await repo.pointsOf(db, machineId)).map((p) => p.tag);
+  const taken = await repo.tagsTakenAtSite(db, siteId, tags, machineId);
+  if (taken.length > 0)
+    throw conflict(
+      'areaId',
+      `The site of that area already has points tagged ${taken.join(', ')}; rename this machine's points before moving it there.`,
+    );
+}
+
 export async function updateMachine(db: Db, user: SessionUser, id: number, input: MachineInput) {
-  const before = await machineForUser(db, user, id);
-  await areaForUser(db, user, input.areaId);
+  const { machine: before, siteId: fromSiteId } = await machineForUser(db, user, id);
+  const area = await areaForUser(db, user, input.areaId);
   if (await repo.machineByName(db, input.areaId, input.name, id))
     throw conflict('name', `This area already has a machine named "${input.name}".`);
+  const movesSite = area.siteId !== fromSiteId;
+  if (movesSite) await checkTagsFreeAt(db, id, area.siteId);
   await db.transaction(async (tx) => {
     await tx.update(machines).set(machineColumns(input)).where(eq(machines.id, id));
+    if (movesSite) {
+      // A point tagged in between: the unique index refuses it; answer as above.
+      try {
+        await repo.movePointsToSite(tx, id, area.siteId);
+      } catch (err) {
+        if (isDuplicateKey(err)) await checkTagsFreeAt(tx, id, area.siteId);
+        throw err;
+      }
+    }
     const old = await replaceComponents(tx, id, input);
     await writeAudit(tx, {
       actorUserId: user.id,
@@ -285,6 +311,7 @@ export async function updateMachine(db: Db, user: SessionUser, id: number, input
       after: input,
     });
   });
+  if (movesSite) forgetPointTags();
   return { id };
 }
 
@@ -324,11 +351,18 @@ export async function deleteMachine(db: Db, user: SessionUser, id: number) {
       before: { ...before, points: pts.map((p) => p.tag) },
     });
   });
+  forgetPointTags();
 }
 
 // ---------------------------------------------------------------- points
 
-async function checkPointInput(db: Db, user: SessionUser, input: PointInput, exceptId = 0) {
+/** Checks a point's input; answers the site of its machine, which the point takes (siteId). */
+async function checkPointInput(
+  db: Db,
+  user: SessionUser,
+  input: PointInput,
+  exceptId = 0,
+): Promise<number> {
   const m = await repo.machineById(db, input.machineId);
   if (!m) throw invalid('machineId', 'That machine does not exist.');
   if (!canSeeSite(user, m.siteId)) throw siteForbidden();
@@ -337,9 +371,13 @@ async function checkPointInput(db: Db, user: SessionUser, input: PointInput, exc
     if (!own.some((b) => b.id === input.bearingId))
       throw invalid('bearingId', 'Choose a bearing of this machine.');
   }
-  const taken = await repo.pointByTag(db, input.tag, exceptId);
-  if (taken) throw conflict('tag', `Tag ${input.tag} is already used by another point.`);
+  // Tags are unique per site: another site's tags are neither checked nor revealed.
+  if (await repo.pointByTag(db, m.siteId, input.tag, exceptId)) throw tagTaken(input.tag);
+  return m.siteId;
 }
+
+const tagTaken = (tag: string) =>
+  conflict('tag', `Tag ${tag} is already used by another point of this site.`);
 
 const pointColumns = (input: PointInput) => ({
   machineId: input.machineId,
@@ -356,10 +394,13 @@ const pointColumns = (input: PointInput) => ({
 });
 
 export async function createPoint(db: Db, user: SessionUser, input: PointInput) {
-  await checkPointInput(db, user, input);
+  const siteId = await checkPointInput(db, user, input);
   try {
-    return await db.transaction(async (tx) => {
-      const [row] = await tx.insert(points).values(pointColumns(input)).$returningId();
+    const created = await db.transaction(async (tx) => {
+      const [row] = await tx
+        .insert(points)
+        .values({ ...pointColumns(input), siteId })
+        .$returningId();
       await writeAudit(tx, {
         actorUserId: user.id,
         action: 'point.create',
@@ -369,9 +410,10 @@ export async function createPoint(db: Db, user: SessionUser, input: PointInput) 
       });
       return { id: row!.id };
     });
+    forgetPointTags();
+    return created;
   } catch (err) {
-    if (isDuplicateKey(err))
-      throw conflict('tag', `Tag ${input.tag} is already used by another point.`);
+    if (isDuplicateKey(err)) throw tagTaken(input.tag);
     throw err;
   }
 }
@@ -380,10 +422,13 @@ export async function updatePoint(db: Db, user: SessionUser, id: number, input: 
   const row = await repo.pointById(db, id);
   if (!row) throw notFound('Point');
   if (!canSeeSite(user, row.siteId)) throw siteForbidden();
-  await checkPointInput(db, user, input, id);
+  const siteId = await checkPointInput(db, user, input, id);
   try {
     await db.transaction(async (tx) => {
-      await tx.update(points).set(pointColumns(input)).where(eq(points.id, id));
+      await tx
+        .update(points)
+        .set({ ...pointColumns(input), siteId })
+        .where(eq(points.id, id));
       await writeAudit(tx, {
         actorUserId: user.id,
         action: 'point.update',
@@ -393,9 +438,9 @@ export async function updatePoint(db: Db, user: SessionUser, id: number, input: 
         after: input,
       });
     });
+    forgetPointTags();
   } catch (err) {
-    if (isDuplicateKey(err))
-      throw conflict('tag', `Tag ${input.tag} is already used by another point.`);
+    if (isDuplicateKey(err)) throw tagTaken(input.tag);
     throw err;
   }
   return { id };
@@ -417,4 +462,5 @@ export async function deletePoint(db: Db, user: SessionUser, id: number) {
       before: pointColumns(row.point),
     });
   });
+  forgetPointTags();
 }

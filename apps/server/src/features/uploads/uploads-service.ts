@@ -7,7 +7,7 @@ import { uploadFieldsSchema, type UploadFields } from '@turnstone/contracts/uplo
 import { AppError } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
-import { accessiblePoint } from '../../lib/point-access.ts';
+import { accessiblePoint } from '../places/point-access.ts';
 import { storeSnapshot } from '../ingest/ingest-service.ts';
 import { snapshotByUid } from '../ingest/ingest-repository.ts';
 import { checkWavFrames, isWavBytes, MAX_UPLOAD_BYTES } from './upload-bounds.ts';

@@ -1,4 +1,4 @@
-import { asc, eq, inArray } from 'drizzle-orm';
+import { asc, eq, inArray, sql } from 'drizzle-orm';
 import type { Db, Tx } from '@turnstone/db/client';
 import { sites, userSites, users } from '@turnstone/db/schema';
 
@@ -42,4 +42,65 @@ export async function setSites(tx: Tx, userId: number, siteIds: number[]) {
   await tx.delete(userSites).where(eq(userSites.userId, userId));
   if (siteIds.length)
     await tx.insert(userSites).values(siteIds.map((siteId) => ({ userId, siteId })));
+}
+
+export async function findUserByEmail(
+  db: Db | Tx,
+  email: string,
+  opts: { forUpdate?: boolean } = {},
+) {
+  const q = db.select().from(users).where(eq(users.email, email)).limit(1);
+  const [u] = opts.forUpdate ? await q.for('update') : await q;
+  return u;
+}
+
+export type NewUser = Pick<typeof users.$inferInsert, 'email' | 'name' | 'role' | 'passwordHash'>;
+
+export async function insertUser(tx: Tx, values: NewUser): Promise<number> {
+  const [row] = await tx.insert(users).values(values).$returningId();
+  return row!.id;
+}
+
+export async function updateProfile(
+  tx: Tx,
+  id: number,
+  set: { role?: UserRow['role']; name?: string },
+) {
+  if (set.role === undefined && set.name === undefined) return;
+  await tx.update(users).set(set).where(eq(users.id, id));
+}
+
+/**
+ * A new password hash; bumping token_version ends every session of the user at once (OWASP
+ * ASVS 5.0 7.4). With `enable`, a disabled account is enabled again (the CLI's reset).
+ */
+export async function setPasswordHash(
+  tx: Tx,
+  id: number,
+  passwordHash: string,
+  opts: { enable?: boolean } = {},
+) {
+  await tx
+    .update(users)
+    .set({
+      passwordHash,
+      tokenVersion: sql`${users.tokenVersion} + 1`,
+      ...(opts.enable ? { disabledAt: null } : {}),
+    })
+    .where(eq(users.id, id));
+}
+
+/** Disabling also bumps token_version, which ends every session at once (OWASP ASVS 5.0 7.4). */
+export async function setDisabled(tx: Tx, id: number, disabled: boolean) {
+  await tx
+    .update(users)
+    .set(
+      disabled
+        ? {
+            disabledAt: sql`COALESCE(${users.disabledAt}, CURRENT_TIMESTAMP(3))`,
+            tokenVersion: sql`${users.tokenVersion} + 1`,
+          }
+        : { disabledAt: null },
+    )
+    .where(eq(users.id, id));
 }

@@ -2,9 +2,9 @@
  * Users admin (invite, edit role/sites/name, disable/enable) and the public link flows
  * (accept an invite, forgot / reset password). Every admin change is audited.
  */
-import { eq, sql } from 'drizzle-orm';
+
 import type { Db } from '@turnstone/db/client';
-import { users } from '@turnstone/db/schema';
+
 import type { InviteUser, UpdateUser, UserSummary } from '@turnstone/contracts/users';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError, notFound } from '../../lib/app-error.ts';
@@ -57,21 +57,19 @@ async function loadSummary(db: Db, id: number) {
 
 export async function inviteUser(ctx: AppContext, actor: SessionUser, input: InviteUser) {
   const siteIds = await checkSites(ctx.db, input.siteIds);
-  const [dup] = await ctx.db
-    .select({ id: users.id })
-    .from(users)
-    .where(eq(users.email, input.email));
+  const dup = await repo.findUserByEmail(ctx.db, input.email);
   if (dup)
     throw new AppError('email_taken', 'A user with this e-mail address exists.', 409, [
       { path: ['email'], message: 'A user with this e-mail address exists.' },
     ]);
   const base = await mailBaseUrl(ctx);
   const id = await ctx.db.transaction(async (tx) => {
-    const [row] = await tx
-      .insert(users)
-      .values({ email: input.email, name: input.name, role: input.role, passwordHash: null })
-      .$returningId();
-    const userId = row!.id;
+    const userId = await repo.insertUser(tx, {
+      email: input.email,
+      name: input.name,
+      role: input.role,
+      passwordHash: null,
+    });
     await repo.setSites(tx, userId, siteIds);
     const token = await issueToken(tx, userId, 'invite');
     await enqueueMail(tx, {
@@ -103,14 +101,10 @@ export async function updateUser(
     throw new AppError('own_role', 'You cannot change your own role.', 400);
   const siteIds = input.siteIds ? await checkSites(ctx.db, input.siteIds) : undefined;
   await ctx.db.transaction(async (tx) => {
-    if (input.role || input.name)
-      await tx
-        .update(users)
-        .set({
-          ...(input.role ? { role: input.role } : {}),
-          ...(input.name ? { name: input.name } : {}),
-        })
-        .where(eq(users.id, id));
+    await repo.updateProfile(tx, id, {
+      ...(input.role ? { role: input.role } : {}),
+      ...(input.name ? { name: input.name } : {}),
+    });
     if (siteIds) await repo.setSites(tx, id, siteIds);
     await writeAudit(tx, {
       actorUserId: actor.id,
@@ -139,18 +133,7 @@ export async function setDisabled(
   if (id === actor.id && disabled)
     throw new AppError('own_account', 'You cannot disable your own account.', 400);
   await ctx.db.transaction(async (tx) => {
-    await tx
-      .update(users)
-      .set(
-        disabled
-          ? // Bumping token_version ends every session at once (OWASP ASVS 5.0 7.4).
-            {
-              disabledAt: sql`COALESCE(${users.disabledAt}, CURRENT_TIMESTAMP(3))`,
-              tokenVersion: sql`${users.tokenVersion} + 1`,
-            }
-          : { disabledAt: null },
-      )
-      .where(eq(users.id, id));
+    await repo.setDisabled(tx, id, disabled);
     await writeAudit(tx, {
       actorUserId: actor.id,
       action: disabled ? 'user.disable' : 'user.enable',
@@ -191,10 +174,7 @@ async function setPasswordFromLink(
     if (userId === null) throw badLink();
     const u = await repo.findUser(tx, userId);
     if (!u || u.disabledAt) throw badLink();
-    await tx
-      .update(users)
-      .set({ passwordHash: hash, tokenVersion: sql`${users.tokenVersion} + 1` })
-      .where(eq(users.id, userId));
+    await repo.setPasswordHash(tx, userId, hash);
     await writeAudit(tx, {
       actorUserId: userId,
       action: purpose === 'invite' ? 'user.accept-invite' : 'user.reset-password',
@@ -213,7 +193,7 @@ export const acceptInvite = (ctx: AppContext, token: string, password: string) =
  * The route answers 202 before this finishes, so the answer's timing says nothing either.
  */
 export async function requestPasswordReset(ctx: AppContext, email: string) {
-  const [u] = await ctx.db.select().from(users).where(eq(users.email, email)).limit(1);
+  const u = await repo.findUserByEmail(ctx.db, email);
   if (!u || u.disabledAt) return;
   const base = await mailBaseUrl(ctx);
   await ctx.db.transaction(async (tx) => {
@@ -242,11 +222,7 @@ export async function createAdministrator(
 ): Promise<{ id: number; created: boolean }> {
   const passwordHash = await hashPassword(input.password);
   return db.transaction(async (tx) => {
-    const [existing] = await tx
-      .select({ id: users.id, role: users.role })
-      .from(users)
-      .where(eq(users.email, input.email))
-      .for('update');
+    const existing = await repo.findUserByEmail(tx, input.email, { forUpdate: true });
     if (existing) {
       if (!input.resetIfExists)
         throw new AppError('email_taken', `A user with the e-mail ${input.email} exists.`, 409);
@@ -256,14 +232,7 @@ export async function createAdministrator(
           `${input.email} is not an administrator; change roles on the Users screen.`,
           409,
         );
-      await tx
-        .update(users)
-        .set({
-          passwordHash,
-          disabledAt: null,
-          tokenVersion: sql`${users.tokenVersion} + 1`,
-        })
-        .where(eq(users.id, existing.id));
+      await repo.setPasswordHash(tx, existing.id, passwordHash, { enable: true });
       await writeAudit(tx, {
         actorUserId: null,
         action: 'user.password_set_by_cli',
@@ -272,17 +241,19 @@ export async function createAdministrator(
       });
       return { id: existing.id, created: false };
     }
-    const [row] = await tx
-      .insert(users)
-      .values({ email: input.email, name: input.name, role: 'admin', passwordHash })
-      .$returningId();
+    const id = await repo.insertUser(tx, {
+      email: input.email,
+      name: input.name,
+      role: 'admin',
+      passwordHash,
+    });
     await writeAudit(tx, {
       actorUserId: null,
       action: 'user.create_by_cli',
       entity: 'user',
-      entityId: row!.id,
+      entityId: id,
       after: { email: input.email, name: input.name, role: 'admin' },
     });
-    return { id: row!.id, created: true };
+    return { id, created: true };
   });
 }

@@ -75,6 +75,16 @@ const markerType: Record<SpectrumMarker['kind'], 'solid' | 'dashed' | 'dotted'> 
   'blade-pass': 'dashed',
 };
 
+/** The evidence window runs from 0 to this many times the highest evidence peak (rounded up). */
+const EVIDENCE_ZOOM = 2;
+
+/** The next 1, 2 or 5 × 10ⁿ at or above x (0 for 0). */
+function niceCeil(x: number): number {
+  if (!(x > 0)) return 0;
+  const p = 10 ** Math.floor(Math.log10(x));
+  return ([1, 2, 5, 10].find((m) => m * p >= x) ?? 10) * p;
+}
+
 export function buildSpectrumOption(p: SpectrumChartProps): ChartOption {
   const xName = p.axis === 'hz' ? 'Hz' : 'order';
   let xMax = 0;
@@ -172,6 +182,9 @@ export function buildSpectrumOption(p: SpectrumChartProps): ChartOption {
           },
           z: 5,
         };
+  const windowEnd = niceCeil(EVIDENCE_ZOOM * Math.max(0, ...highlights.map((h) => h.x)));
+  const evidenceWindow =
+    windowEnd > 0 && windowEnd < xMax ? { startValue: 0, endValue: windowEnd } : {};
   const ax = axisStyle();
   return {
     animation: false,
@@ -197,6 +210,7 @@ export function buildSpectrumOption(p: SpectrumChartProps): ChartOption {
       max: xMax,
       ...ax,
       splitLine: { show: false },
+      axisLabel: { ...ax.axisLabel, formatter: (v: number) => formatValue(v) },
       axisPointer: {
         label: { formatter: (v) => `${formatValue(Number(v.value), 4)} ${xName}` },
       },
@@ -207,9 +221,19 @@ export function buildSpectrumOption(p: SpectrumChartProps): ChartOption {
       ...ax,
       axisLabel: { ...ax.axisLabel, formatter: (v: number) => formatValue(v) },
     },
+    // With evidence to show, the window opens on it (the peaks of a shaft-family hint sit in
+    // the first percent of a 5 kHz axis); the slider and wheel still reach the whole axis.
+    // Filtering to the window makes the line's down-sampling count only the lines shown, so a
+    // zoomed peak is drawn at its own line, not merged with its neighbour.
     dataZoom: [
-      { type: 'inside', xAxisIndex: 0, filterMode: 'none' },
-      { type: 'slider', xAxisIndex: 0, ...zoomSliderStyle() },
+      { type: 'inside', xAxisIndex: 0, filterMode: 'filter', ...evidenceWindow },
+      {
+        type: 'slider',
+        xAxisIndex: 0,
+        ...zoomSliderStyle(),
+        filterMode: 'filter',
+        ...evidenceWindow,
+      },
     ],
     series: evidence ? [...series, evidence] : series,
   };

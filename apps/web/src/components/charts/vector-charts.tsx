@@ -4,7 +4,7 @@
  * clockwise from the top, amplitude as the radius), the newest marked with a larger symbol.
  */
 import { useMemo } from 'react';
-import { axisStyle, chartColours, formatValue, monoFont, sansFont } from './chart-theme.ts';
+import { axisStyle, chartColours, formatValue, monoFont } from './chart-theme.ts';
 import type { ChartOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
 
@@ -115,13 +115,19 @@ export function buildVectorPolarOption(p: VectorChartProps): ChartOption {
       axisLabel: { ...ax.axisLabel, formatter: (v: number) => `${v}°` },
       splitLine: ax.splitLine,
     },
+    // The radius labels run up the 0° line: the unit is named above the chart and the outer
+    // and centre labels are left out, so nothing sits on "0°" or on points at the centre.
     radiusAxis: {
       type: 'value',
       min: 0,
-      name: p.unit,
-      nameTextStyle: { color: chartColours.inkMuted, fontFamily: sansFont, fontSize: 11 },
+      splitNumber: 4,
       axisLine: ax.axisLine,
-      axisLabel: { ...ax.axisLabel, formatter: (v: number) => formatValue(v) },
+      axisLabel: {
+        ...ax.axisLabel,
+        showMinLabel: false,
+        showMaxLabel: false,
+        formatter: (v: number) => String(Number(v.toPrecision(3))),
+      },
       splitLine: ax.splitLine,
     },
     tooltip: {
@@ -178,12 +184,15 @@ export function VectorPolarChart(props: VectorChartProps) {
   );
   const { ref } = useEChart(option);
   return (
-    <div
-      ref={ref}
-      role="img"
-      aria-label={props.ariaLabel}
-      className="w-full"
-      style={{ height: props.height ?? 360 }}
-    />
+    <div>
+      <p className="text-xs text-ink-muted">Radius: amplitude in {unit}</p>
+      <div
+        ref={ref}
+        role="img"
+        aria-label={props.ariaLabel}
+        className="w-full"
+        style={{ height: props.height ?? 360 }}
+      />
+    </div>
   );
 }

@@ -11,7 +11,7 @@ import { TabList, TabPanel } from '../../../components/ui/tabs.tsx';
 import { paths } from '../../../config/paths.ts';
 import { cn } from '../../../lib/cn.ts';
 import { formatBandHz, formatDateTime } from '../../../lib/format.ts';
-import { useAnalyses } from '../../../features/points/api/get-analyses.ts';
+import { POINT_PAGE_ANALYSES, useAnalyses } from '../../../features/points/api/get-analyses.ts';
 import { usePoint } from '../../../features/points/api/get-point.ts';
 import { SpectrumPanel } from '../../../features/points/components/spectrum-panel.tsx';
 import { WaterfallPanel } from '../../../features/points/components/waterfall-panel.tsx';
@@ -66,7 +66,7 @@ export function PointRoute() {
   const { pointId } = useParams();
   const id = Number(pointId);
   const point = usePoint(id);
-  const analyses = useAnalyses({ pointId: id, limit: 200 });
+  const analyses = useAnalyses({ pointId: id, limit: POINT_PAGE_ANALYSES });
   const [tab, setTab] = useState<Tab>('trend');
   const [picked, setPicked] = useState<number | null>(null);
 

@@ -8,6 +8,7 @@ import { Button } from '../../../components/ui/button.tsx';
 import { useMe } from '../../../features/auth/api/get-me.ts';
 import {
   reviewCsvHref,
+  reviewParamsFromSearch,
   useReview,
   type ReviewParams,
 } from '../../../features/review/api/get-review.ts';
@@ -21,24 +22,15 @@ import {
   QualityNoticesTable,
   type FindingDraft,
 } from '../../../features/review/components/review-tables.tsx';
-import { formatDay, isIsoDate, todayIso } from '../../../features/review/utils/format-review.ts';
+import { formatDay } from '../../../features/review/utils/format-review.ts';
 import { CreateFindingDialog } from '../../../features/findings/components/create-finding-dialog.tsx';
 import { FindingsList } from '../../../features/findings/components/findings-list.tsx';
 import '../../../features/review/components/review-print.css';
 
-const AHEAD_DEFAULT = 4;
-
 /** Week, horizon and site live in the address, so a review can be shared or printed again. */
 function useReviewParams(): [ReviewParams, (p: ReviewParams) => void] {
   const [search, setSearch] = useSearchParams();
-  const week = search.get('weekEnding');
-  const ahead = Number(search.get('weeksAhead'));
-  const site = Number(search.get('siteId'));
-  const params: ReviewParams = {
-    weekEnding: isIsoDate(week) ? week : todayIso(),
-    weeksAhead: Number.isInteger(ahead) && ahead >= 1 && ahead <= 52 ? ahead : AHEAD_DEFAULT,
-    siteId: Number.isInteger(site) && site > 0 ? site : undefined,
-  };
+  const params = reviewParamsFromSearch(search);
   const set = (p: ReviewParams) => {
     const next = new URLSearchParams({
       weekEnding: p.weekEnding,

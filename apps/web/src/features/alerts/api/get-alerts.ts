@@ -5,6 +5,26 @@ import { api } from '../../../lib/api-client.ts';
 
 export type AlertFilters = Pick<AlertListQuery, 'state' | 'level' | 'siteId'>;
 
+export type AlertStateFilter = 'open' | 'raised' | 'acknowledged' | 'cleared' | 'all';
+
+/** The list's filters as the address holds them (?state=&level=&site=); default open alerts. */
+export function alertFiltersFromSearch(params: URLSearchParams): {
+  stateFilter: AlertStateFilter;
+  filters: AlertFilters;
+} {
+  const stateFilter = (params.get('state') as AlertStateFilter | null) ?? 'open';
+  const level = params.get('level') as AlertFilters['level'] | null;
+  const siteId = Number(params.get('site')) || undefined;
+  return {
+    stateFilter,
+    filters: {
+      ...(stateFilter !== 'open' && stateFilter !== 'all' ? { state: stateFilter } : {}),
+      ...(level ? { level } : {}),
+      ...(siteId ? { siteId } : {}),
+    },
+  };
+}
+
 /** How often the list is fetched again while the page is open, for a real-time feel. */
 export const ALERTS_POLL_MS = 15_000;
 

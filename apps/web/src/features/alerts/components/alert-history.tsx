@@ -3,7 +3,9 @@ import { Button } from '../../../components/ui/button.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
+import { paths } from '../../../config/paths.ts';
 import { formatDateTime } from '../../../lib/format.ts';
+import { preloadRoute } from '../../../lib/route-preload.ts';
 import { useAlert } from '../api/get-alert.ts';
 import { HINTS_CAUTION, HintList } from '../../points/components/diagnosis-hints.tsx';
 import { AcknowledgeForm } from './acknowledge-form.tsx';
@@ -30,6 +32,11 @@ export function AlertHistory({
   useEffect(() => {
     if (loaded) title.current?.focus();
   }, [id, loaded]);
+  // The alert's point is where an engineer goes next: its page loads meanwhile.
+  const pointId = alert.data?.pointId;
+  useEffect(() => {
+    if (pointId) preloadRoute(paths.app.point.getHref(pointId));
+  }, [pointId]);
   if (alert.isPending) return <LoadingPanel label="Loading the alert…" />;
   if (alert.isError)
     return (

@@ -7,12 +7,10 @@ import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel, Spinner } from '../../../components/ui/spinner.tsx';
 import { useNow } from '../../../hooks/use-now.ts';
-import { useAlerts, useSites, type AlertFilters } from '../api/get-alerts.ts';
+import { alertFiltersFromSearch, useAlerts, useSites } from '../api/get-alerts.ts';
 import { AcknowledgeForm } from './acknowledge-form.tsx';
 import { AlertHistory } from './alert-history.tsx';
 import { AlertsTable } from './alerts-table.tsx';
-
-type StateFilter = 'open' | 'raised' | 'acknowledged' | 'cleared' | 'all';
 
 /** Filters, the alert table, the acknowledgement form and the selected alert's history. */
 export function AlertsExplorer({
@@ -23,15 +21,10 @@ export function AlertsExplorer({
   userName: string;
 }) {
   const [params, setParams] = useSearchParams();
-  const stateFilter = (params.get('state') as StateFilter | null) ?? 'open';
-  const level = params.get('level') as AlertFilters['level'] | null;
+  const { stateFilter, filters } = alertFiltersFromSearch(params);
+  const level = filters.level;
   const siteId = Number(params.get('site')) || undefined;
   const openId = Number(params.get('alert')) || null;
-  const filters: AlertFilters = {
-    ...(stateFilter !== 'open' && stateFilter !== 'all' ? { state: stateFilter } : {}),
-    ...(level ? { level } : {}),
-    ...(siteId ? { siteId } : {}),
-  };
   const alerts = useAlerts(filters);
   const sites = useSites();
   const now = useNow(30_000);

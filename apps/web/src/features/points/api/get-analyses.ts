@@ -2,6 +2,9 @@ import { analysisListSchema } from '@turnstone/contracts/points';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 
+/** How many of a point's analyses its page lists (the snapshot picker). */
+export const POINT_PAGE_ANALYSES = 200;
+
 export interface AnalysesParams {
   pointId: number;
   limit?: number;

@@ -1,12 +1,27 @@
 import { reviewSchema } from '@turnstone/contracts/review';
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
+import { isIsoDate, todayIso } from '../utils/format-review.ts';
 
 export interface ReviewParams {
   weekEnding: string;
   weeksAhead: number;
   /** One site, or every site the user may see. */
   siteId?: number | undefined;
+}
+
+const AHEAD_DEFAULT = 4;
+
+/** The review the address asks for (?weekEnding=&weeksAhead=&siteId=); default this week. */
+export function reviewParamsFromSearch(search: URLSearchParams): ReviewParams {
+  const week = search.get('weekEnding');
+  const ahead = Number(search.get('weeksAhead'));
+  const site = Number(search.get('siteId'));
+  return {
+    weekEnding: isIsoDate(week) ? week : todayIso(),
+    weeksAhead: Number.isInteger(ahead) && ahead >= 1 && ahead <= 52 ? ahead : AHEAD_DEFAULT,
+    siteId: Number.isInteger(site) && site > 0 ? site : undefined,
+  };
 }
 
 export function reviewSearch(p: ReviewParams): string {

@@ -10,6 +10,39 @@ export interface TrendParams {
   to?: string;
 }
 
+const DAY_MS = 86_400_000;
+
+/** The band a point's trend opens on: overall velocity when the point has it. */
+export function defaultTrendBand(bands: readonly { key: string }[]): string {
+  return (
+    bands.find((b) => b.key === 'overall-velocity')?.key ?? bands[0]?.key ?? 'overall-velocity'
+  );
+}
+
+/** The period a point's trend opens on, in days. */
+export const DEFAULT_TREND_DAYS = 90;
+
+/**
+ * The window's end: the next whole minute, so the query key stays the same between renders
+ * and between the page and a prefetch made just before it opened.
+ */
+export const trendAnchor = (now = Date.now()) => Math.ceil(now / 60_000) * 60_000;
+
+/** The trend query of `band` over the `days` up to `anchor`. */
+export function trendParams(
+  pointId: number,
+  band: string,
+  days: number,
+  anchor: number,
+): TrendParams {
+  return {
+    pointId,
+    band,
+    from: new Date(anchor - days * DAY_MS).toISOString(),
+    to: new Date(anchor).toISOString(),
+  };
+}
+
 function query(p: TrendParams) {
   const qs = new URLSearchParams({ band: p.band });
   if (p.from) qs.set('from', p.from);

@@ -13,9 +13,15 @@ import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Field, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
-import { trendCsvHref, useTrend } from '../api/get-trend.ts';
+import {
+  DEFAULT_TREND_DAYS,
+  defaultTrendBand,
+  trendAnchor,
+  trendCsvHref,
+  trendParams,
+  useTrend,
+} from '../api/get-trend.ts';
 
-const DAY = 86_400_000;
 export const trendPeriods = [
   { key: '7d', label: 'Last 7 days', days: 7 },
   { key: '30d', label: 'Last 30 days', days: 30 },
@@ -54,22 +60,17 @@ export function TrendPanel({
   pointId: number;
   bands: readonly TrendPanelBand[];
 }) {
-  const [band, setBand] = useState(
-    bands.find((b) => b.key === 'overall-velocity')?.key ?? bands[0]?.key ?? 'overall-velocity',
+  const [band, setBand] = useState(() => defaultTrendBand(bands));
+  const [period, setPeriod] = useState<PeriodKey>(
+    trendPeriods.find((p) => p.days === DEFAULT_TREND_DAYS)!.key,
   );
-  const [period, setPeriod] = useState<PeriodKey>('90d');
   // The window is fixed when the period is picked (a minute's resolution), so the query key
   // stays stable between renders.
-  const [anchor] = useState(() => Math.ceil(Date.now() / 60_000) * 60_000);
-  const params = useMemo(() => {
-    const days = trendPeriods.find((p) => p.key === period)!.days;
-    return {
-      pointId,
-      band,
-      from: new Date(anchor - days * DAY).toISOString(),
-      to: new Date(anchor).toISOString(),
-    };
-  }, [pointId, band, period, anchor]);
+  const [anchor] = useState(() => trendAnchor());
+  const params = useMemo(
+    () => trendParams(pointId, band, trendPeriods.find((p) => p.key === period)!.days, anchor),
+    [pointId, band, period, anchor],
+  );
   const trend = useTrend(params);
 
   return (

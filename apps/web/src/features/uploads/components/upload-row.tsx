@@ -1,4 +1,5 @@
 import { Link } from 'react-router-dom';
+import type { QualityFinding } from '@turnstone/contracts/points';
 import { Spinner } from '../../../components/ui/spinner.tsx';
 import { paths } from '../../../config/paths.ts';
 import { formatBandHz } from '../../../lib/format.ts';
@@ -24,19 +25,13 @@ const size = (n: number) =>
       ? `${(n / 1024).toFixed(1)} KiB`
       : `${(n / 1048576).toFixed(2)} MiB`;
 
-function Findings({ findings }: { findings: unknown[] }) {
-  const list = findings
-    .map((f) =>
-      f && typeof f === 'object' ? (f as { message?: unknown; severity?: unknown }) : {},
-    )
-    .filter((f) => typeof f.message === 'string');
-  if (list.length === 0) return <p className="text-xs text-ink-muted">No quality findings.</p>;
+function Findings({ findings }: { findings: QualityFinding[] }) {
+  if (findings.length === 0) return <p className="text-xs text-ink-muted">No quality findings.</p>;
   return (
     <ul className="list-disc pl-5 text-xs text-ink-muted">
-      {list.map((f, i) => (
-        <li key={i}>
-          <span className="font-medium text-ink">{String(f.severity ?? '')}</span>{' '}
-          {String(f.message)}
+      {findings.map((f, i) => (
+        <li key={`${f.code}-${i}`}>
+          <span className="font-medium text-ink">{f.severity}</span> {f.message}
         </li>
       ))}
     </ul>
@@ -68,16 +63,16 @@ function Result({ item }: { item: UploadItem }) {
   return (
     <div className="flex flex-col gap-1.5">
       <div className="flex flex-wrap items-center gap-x-4 gap-y-1 text-sm">
-        <VerdictMark verdict={a.qualityVerdict} />
+        <VerdictMark verdict={a.verdict} />
         <span>
           <span className="text-ink-muted">accel </span>
-          <span className="font-mono">{a.accelRmsG.toFixed(3)} g RMS</span>
-          <span className="text-ink-muted"> ({formatBandHz(a.accelBandHz)})</span>
+          <span className="font-mono">{a.overall.accelRmsG.toFixed(3)} g RMS</span>
+          <span className="text-ink-muted"> ({formatBandHz(a.overall.accelBandHz)})</span>
         </span>
         <span>
           <span className="text-ink-muted">velocity </span>
-          <span className="font-mono">{a.velocityRmsMmS.toFixed(2)} mm/s RMS</span>
-          <span className="text-ink-muted"> ({formatBandHz(a.velocityBandHz)})</span>
+          <span className="font-mono">{a.overall.velocityRmsMmS.toFixed(2)} mm/s RMS</span>
+          <span className="text-ink-muted"> ({formatBandHz(a.overall.velocityBandHz)})</span>
         </span>
         {a.speedRpm !== null && (
           <span>
@@ -92,7 +87,7 @@ function Result({ item }: { item: UploadItem }) {
           Open point {item.pointTag}
         </Link>
       </div>
-      <Findings findings={a.qualityFindings} />
+      <Findings findings={a.findings} />
     </div>
   );
 }

@@ -8,7 +8,7 @@
  * is saved once at the end.
  */
 import type { Tx } from '@turnstone/db/client';
-import { eq } from 'drizzle-orm';
+
 import {
   evaluateSnapshot,
   type AlertState,
@@ -17,7 +17,8 @@ import {
   type PointState,
 } from '@turnstone/condition';
 import type { AppContext } from '../../lib/context.ts';
-import * as repo from './analysis-repository.ts';
+import { lastVerdicts } from '../analysis/analysis-repository.ts';
+import * as repo from './condition-repository.ts';
 import { queueAlertMail } from './alert-mail-hook.ts';
 
 export interface ConditionInput {
@@ -57,7 +58,7 @@ export async function startConditionBatch(
   }
   const w: AlertWrites = { open, pending: new Map() };
   const judged = new Set<number>();
-  const verdicts = await repo.lastVerdicts(tx, [...states.keys()]);
+  const verdicts = await lastVerdicts(tx, [...states.keys()]);
   return {
     stateOf(pointId) {
       return (states.get(pointId)?.state as unknown as PointState | undefined) ?? null;
@@ -97,8 +98,7 @@ export async function startConditionBatch(
       return true;
     },
     async finish() {
-      for (const [id, set] of w.pending)
-        await tx.update(repo.alerts).set(set).where(eq(repo.alerts.id, id));
+      for (const [id, set] of w.pending) await repo.changeAlert(tx, id, set);
       w.pending.clear();
       for (const pointId of judged) {
         const row = states.get(pointId)!;
@@ -117,7 +117,7 @@ export async function startConditionBatch(
 
 const alertKey = (pointId: number, bandKey: string) => `${pointId}:${bandKey}`;
 
-type AlertFields = Partial<typeof repo.alerts.$inferInsert>;
+type AlertFields = repo.AlertChange;
 interface AlertWrites {
   /** Open alert id by point and band. */
   open: Map<string, number>;
@@ -127,7 +127,7 @@ interface AlertWrites {
 
 /** A data-quality notice for the engineer (the Review screen lists the week's). */
 async function insertQualityNotice(tx: Tx, input: ConditionInput): Promise<void> {
-  await tx.insert(repo.qualityNotices).values({
+  await repo.insertQualityNotice(tx, {
     pointId: input.pointId,
     analysisId: input.analysisId,
     snapshotId: input.snapshotId,
@@ -153,9 +153,9 @@ async function persistChange(
   const band = bands.get(change.bandKey);
   const a: AlertState = change.alert;
   if (change.kind === 'raised') {
-    const [ins] = await tx
-      .insert(repo.alerts)
-      .values({
+    const alertId = await repo.raiseAlert(
+      tx,
+      {
         pointId: input.pointId,
         bandKey: change.bandKey,
         bandName: band?.name ?? change.bandKey,
@@ -170,17 +170,11 @@ async function persistChange(
         lastAt: d(a.lastAt),
         peakAt: d(a.peakAt),
         suspect: a.suspect,
-      })
-      .$returningId();
-    await tx.insert(repo.alertEvents).values({
-      alertId: ins!.id,
-      kind: 'raised',
-      level: a.level,
-      value: a.lastValue,
-      at: d(a.lastAt),
-    });
-    w.open.set(alertKey(input.pointId, change.bandKey), ins!.id);
-    await queueAlertMail(ctx, tx, { alertId: ins!.id, kind: 'raised' });
+      },
+      { level: a.level, value: a.lastValue, at: d(a.lastAt) },
+    );
+    w.open.set(alertKey(input.pointId, change.bandKey), alertId);
+    await queueAlertMail(ctx, tx, { alertId, kind: 'raised' });
     return;
   }
   const key = alertKey(input.pointId, change.bandKey);
@@ -206,37 +200,32 @@ async function persistChange(
   w.pending.delete(open.id);
   if (change.kind === 'escalated') {
     // An escalation to danger needs a fresh acknowledgement.
-    await tx
-      .update(repo.alerts)
-      .set({
+    await repo.changeAlert(
+      tx,
+      open.id,
+      {
         ...common,
         state: 'raised',
         acknowledgedBy: null,
         acknowledgedAt: null,
         acknowledgeNote: null,
-      })
-      .where(eq(repo.alerts.id, open.id));
-    await tx.insert(repo.alertEvents).values({
-      alertId: open.id,
-      kind: 'escalated',
-      level: a.level,
-      value: a.lastValue,
-      at: d(a.lastAt),
-    });
+      },
+      { kind: 'escalated', level: a.level, value: a.lastValue, at: d(a.lastAt) },
+    );
     await queueAlertMail(ctx, tx, { alertId: open.id, kind: 'escalated' });
   } else if (change.kind === 'cleared') {
-    await tx
-      .update(repo.alerts)
-      .set({ ...common, state: 'cleared', clearedAt: d(a.clearedAt ?? a.lastAt) })
-      .where(eq(repo.alerts.id, open.id));
+    await repo.changeAlert(
+      tx,
+      open.id,
+      { ...common, state: 'cleared', clearedAt: d(a.clearedAt ?? a.lastAt) },
+      {
+        kind: 'cleared',
+        level: a.level,
+        value: a.clearedValue ?? a.lastValue,
+        at: d(a.clearedAt ?? a.lastAt),
+      },
+    );
     w.open.delete(key);
-    await tx.insert(repo.alertEvents).values({
-      alertId: open.id,
-      kind: 'cleared',
-      level: a.level,
-      value: a.clearedValue ?? a.lastValue,
-      at: d(a.clearedAt ?? a.lastAt),
-    });
     await queueAlertMail(ctx, tx, { alertId: open.id, kind: 'cleared' });
   }
 }

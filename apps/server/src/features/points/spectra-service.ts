@@ -1,0 +1,113 @@
+/**
+ * Stored spectra of a point's captures: one spectrum with its peaks and fault frequencies, and
+ * the waterfall of recent captures. Spectra are stored in one compact BLOB per analysis (or,
+ * for rows written before it, four float32 BLOBs), read through `@turnstone/db/spectra-codec`
+ * and sent to the browser as base64 of float32.
+ */
+
+import type { Spectrum, SpectrumKind, Waterfall } from '@turnstone/contracts/points';
+import { readSpectrum, storedSpectrum } from '@turnstone/db/spectra-codec';
+
+import { AppError } from '../../lib/app-error.ts';
+import type { AppContext } from '../../lib/context.ts';
+import { accessiblePoint } from '../places/point-access.ts';
+import { type SessionUser } from '../../lib/session-user.ts';
+
+import * as repo from './points-repository.ts';
+import { readStoredSummary } from '../analysis/stored-summary.ts';
+import { accessibleAnalysis } from './points-service.ts';
+
+const iso = (d: Date) => d.toISOString();
+
+/** Largest local maxima of a stored spectrum (line values, no interpolation), largest first. */
+export function simplePeaks(
+  values: Float32Array,
+  count = 10,
+): { index: number; amplitude: number }[] {
+  const found: { index: number; amplitude: number }[] = [];
+  for (let i = 2; i < values.length - 1; i++) {
+    const v = values[i]!;
+    if (v > values[i - 1]! && v >= values[i + 1]!) found.push({ index: i, amplitude: v });
+  }
+  return found.sort((a, b) => b.amplitude - a.amplitude).slice(0, count);
+}
+
+export async function spectrum(
+  ctx: AppContext,
+  user: SessionUser,
+  analysisId: number,
+  kind: SpectrumKind,
+): Promise<Spectrum> {
+  const { analysis } = await accessibleAnalysis(ctx, user, analysisId);
+  const summary = readStoredSummary(analysis.summary);
+  const meta = summary.spectra?.[kind] ?? null;
+  const values = storedSpectrum(analysis, kind);
+  if (!meta || !values)
+    throw new AppError(
+      'spectrum_unavailable',
+      kind === 'order'
+        ? 'This capture has no order spectrum: its running speed was not known.'
+        : `This capture has no ${kind} spectrum.`,
+      404,
+    );
+  const axis = kind === 'order' ? 'order' : 'hz';
+  const speed = summary.speed ?? { rpm: analysis.speedRpm, hz: null, source: analysis.speedSource };
+  const shaftHz = speed.hz ?? (speed.rpm ? speed.rpm / 60 : null);
+  const step = axis === 'order' ? (meta.dOrder ?? 0) : (meta.dfHz ?? 0);
+  const peaks =
+    kind === 'acceleration' && summary.peaks
+      ? summary.peaks.map((p) => ({ hz: p.hz, order: p.order, amplitude: p.amplitude }))
+      : simplePeaks(values).map((p) => {
+          const x = p.index * step;
+          return axis === 'order'
+            ? { hz: shaftHz ? x * shaftHz : null, order: x, amplitude: p.amplitude }
+            : { hz: x, order: shaftHz ? x / shaftHz : null, amplitude: p.amplitude };
+        });
+  return {
+    analysisId: analysis.id,
+    takenAt: iso(analysis.takenAt),
+    kind,
+    unit: meta.unit,
+    scale: meta.scale,
+    axis,
+    dfHz: axis === 'hz' ? step : null,
+    dOrder: axis === 'order' ? step : null,
+    lines: values.length,
+    values: Buffer.from(values.buffer, values.byteOffset, values.byteLength).toString('base64'),
+    peaks,
+    faultFrequencies: (summary.faultFrequencies ?? []).map((f) => ({
+      name: f.name,
+      kind: f.kind,
+      hz: f.hz,
+      order: f.order,
+    })),
+    speed: { rpm: speed.rpm, hz: shaftHz, source: speed.source },
+  };
+}
+
+export async function waterfall(
+  ctx: AppContext,
+  user: SessionUser,
+  pointId: number,
+  kind: SpectrumKind,
+  limit: number,
+): Promise<Waterfall> {
+  await accessiblePoint(ctx.db, user, pointId);
+  const rows = await repo.recentSpectra(ctx.db, pointId, kind, limit);
+  const axis = kind === 'order' ? 'order' : 'hz';
+  let unit = kind === 'velocity' ? 'mm/s' : 'g';
+  const items: Waterfall['items'] = [];
+  for (const r of rows) {
+    const meta = readStoredSummary(r.summary).spectra?.[kind];
+    const values = readSpectrum(kind, r.spectra, r.legacy);
+    if (!meta || !values) continue;
+    unit = meta.unit;
+    items.push({
+      analysisId: r.id,
+      takenAt: iso(r.takenAt),
+      step: (axis === 'order' ? meta.dOrder : meta.dfHz) ?? 0,
+      values: Buffer.from(values.buffer, values.byteOffset, values.byteLength).toString('base64'),
+    });
+  }
+  return { kind, unit, axis, items };
+}

@@ -1,0 +1,119 @@
+/**
+ * What each screen asks the API for first, started by the route's loader: at the same time
+ * as the screen's code and the session check instead of after them, and on the intent to
+ * open a link (lib/route-preload.ts). The loaders return at once; the answers land in
+ * TanStack Query's cache, where the page's own queries (same options, same keys) find them,
+ * and the page keeps showing its own loading and error states.
+ *
+ * Each prefetch imports its feature's API module on demand, so the zod schemas of every
+ * feature stay out of the first download.
+ */
+import type { LoaderFunctionArgs, Params } from 'react-router-dom';
+import { getMeQueryOptions } from '../features/auth/api/get-me.ts';
+import { queryClient } from '../lib/query-client.ts';
+
+type Prefetch = (params: Params, url: URL) => Promise<unknown>;
+
+/**
+ * A route loader that starts `prefetch` and does not wait for it. The data is asked for once
+ * the session is known (the session check answers in milliseconds, and is cached after the
+ * first screen): a visitor without one is sent to sign-in, not shown a row of 401s.
+ */
+export function prefetching(prefetch: Prefetch) {
+  return ({ params, request }: LoaderFunctionArgs) => {
+    const url = new URL(request.url);
+    // A failed prefetch is the page's query failing: the page shows it (and retries).
+    queryClient
+      .ensureQueryData(getMeQueryOptions())
+      .then((me) => (me ? prefetch(params, url) : undefined))
+      .catch(() => undefined);
+    return null;
+  };
+}
+
+const idOf = (value: string | undefined) => {
+  const id = Number(value);
+  return Number.isInteger(id) && id > 0 ? id : null;
+};
+
+export const fleetData: Prefetch = async () => {
+  const { getFleetQueryOptions } = await import('../features/fleet/api/get-fleet.ts');
+  return queryClient.prefetchQuery(getFleetQueryOptions());
+};
+
+export const alertsData: Prefetch = async (_params, url) => {
+  const m = await import('../features/alerts/api/get-alerts.ts');
+  const { filters } = m.alertFiltersFromSearch(url.searchParams);
+  return Promise.all([
+    queryClient.prefetchQuery(m.getAlertsQueryOptions(filters)),
+    queryClient.prefetchQuery(m.getSitesQueryOptions()),
+  ]);
+};
+
+export const machineData: Prefetch = async (params) => {
+  const id = idOf(params.machineId);
+  if (!id) return;
+  const { getMachineQueryOptions } = await import('../features/machines/api/get-machine.ts');
+  return queryClient.prefetchQuery(getMachineQueryOptions(id));
+};
+
+/** The point, its snapshots, and (once the point names its bands) the trend it opens on. */
+export const pointData: Prefetch = async (params) => {
+  const id = idOf(params.pointId);
+  if (!id) return;
+  const [points, analyses, trends] = await Promise.all([
+    import('../features/points/api/get-point.ts'),
+    import('../features/points/api/get-analyses.ts'),
+    import('../features/trends/api/get-trend.ts'),
+  ]);
+  const analysesDone = queryClient.prefetchQuery(
+    analyses.getAnalysesQueryOptions({ pointId: id, limit: analyses.POINT_PAGE_ANALYSES }),
+  );
+  const point = await queryClient.ensureQueryData(points.getPointQueryOptions(id));
+  const band = trends.defaultTrendBand(point.bands);
+  return Promise.all([
+    analysesDone,
+    queryClient.prefetchQuery(
+      trends.getTrendQueryOptions(
+        trends.trendParams(id, band, trends.DEFAULT_TREND_DAYS, trends.trendAnchor()),
+      ),
+    ),
+  ]);
+};
+
+export const limitsData: Prefetch = async (_params, url) => {
+  const id = idOf(url.searchParams.get('point') ?? undefined);
+  if (!id) return;
+  const { getLimitsQueryOptions } = await import('../features/limits/api/get-limits.ts');
+  return queryClient.prefetchQuery(getLimitsQueryOptions(id));
+};
+
+export const reviewData: Prefetch = async (_params, url) => {
+  const m = await import('../features/review/api/get-review.ts');
+  return queryClient.prefetchQuery(
+    m.getReviewQueryOptions(m.reviewParamsFromSearch(url.searchParams)),
+  );
+};
+
+export const usersData: Prefetch = async () => {
+  const { getUsersQueryOptions } = await import('../features/users/api/get-users.ts');
+  return queryClient.prefetchQuery(getUsersQueryOptions());
+};
+
+export const setupData: Prefetch = async () => {
+  const { getSetupQueryOptions } = await import('../features/setup/api/get-setup.ts');
+  return queryClient.prefetchQuery(getSetupQueryOptions());
+};
+
+export const gatewaysData: Prefetch = async () => {
+  const m = await import('../features/gateways/api/get-gateways.ts');
+  return Promise.all([
+    queryClient.prefetchQuery(m.getGatewaysQueryOptions()),
+    queryClient.prefetchQuery(m.getSitesQueryOptions()),
+  ]);
+};
+
+export const mailboxData: Prefetch = async () => {
+  const { getMailboxQueryOptions } = await import('../features/mailbox/api/get-mailbox.ts');
+  return queryClient.prefetchQuery(getMailboxQueryOptions());
+};

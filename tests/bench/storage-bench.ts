@@ -1,0 +1,155 @@
+/**
+ * Bytes on disk per capture (issue 18): demo-plant captures from the gateway simulator
+ * (every channel of both sites, its story advancing over the run, so spectra vary) posted
+ * through ingest, drained by one in-process worker (the real analysis and persistence
+ * path), then InnoDB data + index bytes per table from information_schema.TABLES after
+ * ANALYZE TABLE, and the tablespace files' allocated bytes, divided by the captures.
+ *
+ * Reference measured in the same run: the bytes the spectra of those same analyses take as
+ * float64 (8 bytes a line, summed over the four spectra the worker produced). Issue 18's
+ * plant-year target is ≤ 2 kB per capture amortised (after retention thinning, which this
+ * bench does not run). BENCH_STORAGE_COUNT (3000) captures.
+ */
+import { simulateSnapshot, toIngestItem } from '../../apps/gateway-sim/src/simulated-snapshot.ts';
+import { demoChannels } from '../../apps/gateway-sim/src/plant-channels.ts';
+import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import { createGatewayKey, signInCookie, startBenchServer } from './bench-support.ts';
+
+const COUNT = Number(process.env.BENCH_STORAGE_COUNT ?? 3000);
+const POST_BATCH = 10;
+const TABLES = ['analyses', 'snapshots', 'band_values'] as const;
+
+interface TableSize {
+  dataIndex: number;
+  allocated: number;
+  rows: number;
+}
+
+const bench = await startBenchServer('storage');
+const { srv } = bench;
+const pool = srv.ctx.dbHandle.pool;
+const q = async <T>(text: string, params: unknown[] = []) =>
+  (await pool.query(text, params))[0] as T;
+
+const count = async () =>
+  Number((await q<{ n: number }[]>('SELECT COUNT(*) AS n FROM analyses'))[0]!.n);
+
+/** Data + index bytes (InnoDB statistics) and the tablespace file's allocated bytes. */
+async function sizes(): Promise<Record<string, TableSize>> {
+  await q(`ANALYZE TABLE ${TABLES.join(', ')}`);
+  const rows = await q<
+    { name: string; data: number; idx: number; tableRows: number; allocated: number | null }[]
+  >(
+    `SELECT t.TABLE_NAME AS name, t.DATA_LENGTH AS data, t.INDEX_LENGTH AS idx,
+            t.TABLE_ROWS AS tableRows, s.ALLOCATED_SIZE AS allocated
+       FROM information_schema.TABLES t
+       LEFT JOIN information_schema.INNODB_SYS_TABLESPACES s
+         ON s.NAME = CONCAT(t.TABLE_SCHEMA, '/', t.TABLE_NAME)
+      WHERE t.TABLE_SCHEMA = DATABASE() AND t.TABLE_NAME IN (?)`,
+    [TABLES],
+  );
+  return Object.fromEntries(
+    rows.map((r) => [
+      r.name,
+      {
+        dataIndex: Number(r.data) + Number(r.idx),
+        allocated: Number(r.allocated ?? 0),
+        rows: Number(r.tableRows),
+      },
+    ]),
+  );
+}
+
+try {
+  const cookie = await signInCookie(srv.url, 'admin@turnstone.local');
+  const sites = await q<{ id: number; code: string }[]>('SELECT id, code FROM sites');
+  const keys = new Map<string, string>();
+  for (const s of sites)
+    keys.set(s.code, await createGatewayKey(srv.url, cookie, s.id, `storage-${s.code}`));
+  const channels = demoChannels().filter((c) => keys.has(c.siteCode));
+  await q("UPDATE jobs SET state = 'done' WHERE state = 'queued'");
+  const analysesBefore = await count();
+  const before = await sizes();
+
+  // Captures ten minutes apart per channel, the story's progress running 0 → 1 over the run.
+  const t0 = Date.parse('2026-01-05T00:00:00Z');
+  const perChannel = Math.ceil(COUNT / channels.length);
+  const items: { site: string; body: ReturnType<typeof toIngestItem> }[] = [];
+  for (let i = 0; i < COUNT; i++) {
+    const ch = channels[i % channels.length]!;
+    const round = Math.floor(i / channels.length);
+    const snap = simulateSnapshot(ch, new Date(t0 + round * 600_000), round / perChannel);
+    items.push({ site: ch.siteCode, body: toIngestItem(snap) });
+  }
+  for (const site of keys.keys()) {
+    const mine = items.filter((it) => it.site === site).map((it) => it.body);
+    for (let i = 0; i < mine.length; i += POST_BATCH) {
+      const res = await fetch(`${srv.url}/api/ingest/v1/snapshots`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json', authorization: `Bearer ${keys.get(site)}` },
+        body: JSON.stringify({ snapshots: mine.slice(i, i + POST_BATCH) }),
+      });
+      if (res.status >= 300) throw new Error(`ingest answered ${res.status}: ${await res.text()}`);
+    }
+  }
+  const worker = createWorker(srv.ctx, { owner: 'storage-bench', batch: 16 });
+  const t1 = performance.now();
+  const jobs = await worker.drain();
+  const drainS = (performance.now() - t1) / 1000;
+
+  const analysesAfter = await count();
+  const captures = analysesAfter - analysesBefore;
+  if (captures < COUNT * 0.9) throw new Error(`only ${captures} of ${COUNT} captures analysed`);
+  // Reference: the float64 bytes of the spectra these analyses hold (lines from the summary).
+  const [{ nlines }] = await q<[{ nlines: number | string }]>(
+    `SELECT SUM(COALESCE(JSON_VALUE(summary, '$.spectra.acceleration.lines'), 0)
+              + COALESCE(JSON_VALUE(summary, '$.spectra.velocity.lines'), 0)
+              + COALESCE(JSON_VALUE(summary, '$.spectra.envelope.lines'), 0)
+              + COALESCE(JSON_VALUE(summary, '$.spectra.order.lines'), 0)) AS nlines
+       FROM analyses WHERE id > (SELECT COALESCE(MAX(id), 0) FROM analyses) - ?`,
+    [captures],
+  );
+  const float64PerCapture = (Number(nlines) * 8) / captures;
+  const after = await sizes();
+  // The long columns of the new analyses, average stored bytes: what decides whether a row
+  // fits its page (DYNAMIC keeps a row whole up to about half a 16 kB page) or sends its
+  // longest columns off-page, each to pages of its own.
+  const longColumns = await q<{ name: string }[]>(
+    `SELECT COLUMN_NAME AS name FROM information_schema.COLUMNS
+      WHERE TABLE_SCHEMA = DATABASE() AND TABLE_NAME = 'analyses'
+        AND DATA_TYPE IN ('mediumblob', 'blob', 'longblob', 'longtext', 'mediumtext', 'text')
+      ORDER BY ORDINAL_POSITION`,
+  );
+  const [avg] = await q<Record<string, number | string | null>[]>(
+    `SELECT ${longColumns.map((c) => `AVG(LENGTH(\`${c.name}\`)) AS \`${c.name}\``).join(', ')}
+       FROM analyses WHERE id > (SELECT COALESCE(MAX(id), 0) FROM analyses) - ?`,
+    [captures],
+  );
+  const per = (t: string, k: 'dataIndex' | 'allocated') =>
+    (after[t]![k] - before[t]![k]) / captures;
+  const total = (k: 'dataIndex' | 'allocated') => TABLES.reduce((s, t) => s + per(t, k), 0);
+
+  console.log(
+    `\nStorage per capture (${captures} demo-plant captures, ${jobs} jobs drained in ${drainS.toFixed(0)} s)`,
+  );
+  console.log('| table | data+index B/capture | file allocated B/capture | / float64 spectra |');
+  console.log('|---|---|---|---|');
+  for (const t of TABLES)
+    console.log(
+      `| ${t} | ${per(t, 'dataIndex').toFixed(0)} | ${per(t, 'allocated').toFixed(0)} | ${(per(t, 'dataIndex') / float64PerCapture).toFixed(3)} |`,
+    );
+  console.log(
+    `| total | ${total('dataIndex').toFixed(0)} | ${total('allocated').toFixed(0)} | ${(total('dataIndex') / float64PerCapture).toFixed(3)} |`,
+  );
+  console.log(`| float64 spectra (reference) | ${float64PerCapture.toFixed(0)} | | 1.000 |`);
+  console.log(
+    `analyses / float64 spectra: ${(per('analyses', 'dataIndex') / float64PerCapture).toFixed(3)}; target for a year amortised after thinning: ≤ 2048 B/capture (total now ${total('dataIndex').toFixed(0)})`,
+  );
+  console.log(
+    `analyses long columns, mean stored bytes: ${longColumns
+      .map((c) => `${c.name} ${Number(avg![c.name] ?? 0).toFixed(0)}`)
+      .join(', ')}`,
+  );
+} finally {
+  await bench.stop();
+}
