@@ -18,12 +18,12 @@ interface ZoomEventRange {
 /**
  * Follows the x-axis window of a chart's first dataZoom, whatever moved it: the zoom keys,
  * the mouse wheel or a drag inside the chart (ECharts sends those as a `batch`), or the
- * slider. `option` is the chart's current option: replacing it (new data) resets the chart
- * to the whole range, so the window is reset with it.
+ * slider. `option` is the chart's current option: a new one (new data) puts the chart back
+ * on the window the option opens with, so the window is read from it again.
  */
-export function useChartZoom(chart: echarts.ECharts | null, option: unknown): ZoomWindow {
-  const [zoom, setZoom] = useState({ option, shown: whole });
-  if (zoom.option !== option) setZoom({ option, shown: whole });
+export function useChartZoom(chart: echarts.ECharts | null, option: ChartOption): ZoomWindow {
+  const [zoom, setZoom] = useState(() => ({ option, shown: openingWindow(option) }));
+  if (zoom.option !== option) setZoom({ option, shown: openingWindow(option) });
   useEffect(() => {
     if (!chart) return;
     const onZoom = (params: unknown) => {
@@ -44,7 +44,27 @@ export function useChartZoom(chart: echarts.ECharts | null, option: unknown): Zo
       chart.off('datazoom', onZoom);
     };
   }, [chart]);
-  return zoom.option === option ? zoom.shown : whole;
+  return zoom.option === option ? zoom.shown : openingWindow(option);
+}
+
+/** The window an option opens on: its first dataZoom's start/end, or its values on the axis. */
+export function openingWindow(option: ChartOption): ZoomWindow {
+  const dz = (Array.isArray(option.dataZoom) ? option.dataZoom[0] : option.dataZoom) as
+    | (ZoomEventRange & { startValue?: unknown; endValue?: unknown; xAxisIndex?: unknown })
+    | undefined;
+  if (!dz) return whole;
+  let { start = 0, end = 100 } = dz;
+  const axes = Array.isArray(option.xAxis) ? option.xAxis : [option.xAxis];
+  const axis = axes[typeof dz.xAxisIndex === 'number' ? dz.xAxisIndex : 0] as
+    { min?: unknown; max?: unknown } | undefined;
+  const min = axis?.min;
+  const max = axis?.max;
+  if (typeof min === 'number' && typeof max === 'number' && max > min) {
+    const pct = (v: number) => Math.max(0, Math.min(100, ((v - min) / (max - min)) * 100));
+    if (typeof dz.startValue === 'number') start = pct(dz.startValue);
+    if (typeof dz.endValue === 'number') end = pct(dz.endValue);
+  }
+  return start === 0 && end === 100 ? whole : { start, end };
 }
 
 /** The x axis's fixed extent in an option, when it sets a numeric min and max. */
