@@ -14,10 +14,7 @@ afterAll(async () => {
   await srv?.stop();
 });
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 
 describe('admin setup screens in a real browser', () => {
   it('an admin creates a gateway and sees its key once, in a dialog with a copy button', async () => {
