@@ -9,6 +9,7 @@ import {
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './setup-service.ts';
+import * as points from './setup-points-service.ts';
 import { idParam } from '../../lib/route-params.ts';
 
 const ADMIN = ['admin'] as const;
@@ -114,7 +115,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       schemas: { body: pointInputSchema, status: 201 },
       handler: async (req, res) => {
         const body = pointInputSchema.parse(req.body);
-        res.status(201).json(await service.createPoint(db, requireUser(req), body));
+        res.status(201).json(await points.createPoint(db, requireUser(req), body));
       },
     },
     {
@@ -126,7 +127,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = pointInputSchema.parse(req.body);
-        res.json(await service.updatePoint(db, requireUser(req), id, body));
+        res.json(await points.updatePoint(db, requireUser(req), id, body));
       },
     },
     {
@@ -137,7 +138,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       schemas: { params: idParam, status: 204 },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        await service.deletePoint(db, requireUser(req), id);
+        await points.deletePoint(db, requireUser(req), id);
         res.status(204).end();
       },
     },
