@@ -17,6 +17,7 @@ import { fleetRoutes } from './features/fleet/fleet-router.ts';
 import { healthRouter } from './features/health/health-router.ts';
 import { metricsRouter } from './features/metrics/metrics-router.ts';
 import { gatewayRoutes } from './features/gateways/gateways-router.ts';
+import { retentionRoutes } from './features/retention/retention-router.ts';
 import { ingestRouter } from './features/ingest/ingest-router.ts';
 import { ingestEndpoint } from './features/ingest/ingest-endpoint.ts';
 import { uploadRoutes } from './features/uploads/uploads-router.ts';
@@ -36,6 +37,7 @@ function featureRoutes(ctx: AppContext): RouteSpec[] {
   return [
     ...fleetRoutes(ctx),
     ...gatewayRoutes(ctx),
+    ...retentionRoutes(ctx),
     ...uploadRoutes(ctx),
     ...alertRoutes(ctx),
     ...limitRoutes(ctx),
