@@ -1,6 +1,7 @@
 /**
  * WCAG 2.1 A/AA in a real browser: axe-core on every screen of every role — the opened alert
- * detail panel, the dialogs, the machine page, the point page on each view and measure, the
+ * detail panel, the dialogs, the machine page, the point page on each view and measure (the
+ * waveform, waterfall and trend zoomed by their keys with their values tables open), the
  * limits editor with a point chosen — fails on any serious or critical violation. The totals
  * per rule are written to test-output/axe-totals.json. Data: three weeks of daily captures on
  * MFP-P102-MDE-H (a slowly rising 1× and a 212 Hz tone) and two captures over the alert level
@@ -111,8 +112,22 @@ async function pointScreens(page: Page, role: string) {
   await check(page, `${role} point spectrum velocity`);
   await page.getByRole('tab', { name: 'Waveform' }).click();
   await check(page, `${role} point waveform`);
+  // Zoomed in by its keys, with the values table open.
+  await page.getByRole('button', { name: 'Zoom in' }).click();
+  await page.getByText(/^Values as a table/).click();
+  await page.getByRole('region', { name: 'Waveform values' }).waitFor();
+  await check(page, `${role} point waveform values`);
   await page.getByRole('tab', { name: 'Waterfall' }).click();
   await check(page, `${role} point waterfall`);
+  await page.getByRole('button', { name: 'Zoom in' }).click();
+  await page.getByText(/^Largest peaks as a table/).click();
+  await page.getByRole('region', { name: 'Waterfall peaks' }).waitFor();
+  await check(page, `${role} point waterfall peaks`);
+  // The trend's values table too.
+  await page.getByRole('tab', { name: 'Trend' }).click();
+  await page.getByText(/^Values as a table/).click();
+  await page.getByRole('region', { name: /values$/ }).waitFor();
+  await check(page, `${role} point trend values`);
 }
 
 async function alertScreens(page: Page, role: string) {

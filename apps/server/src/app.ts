@@ -8,7 +8,7 @@ import { join } from 'node:path';
 import type { AppContext } from './lib/context.ts';
 import { AppError } from './lib/app-error.ts';
 import { apiNotFound, errorMiddleware } from './lib/error-middleware.ts';
-import { mountRoutes, type RouteSpec } from './lib/route-table.ts';
+import { mountRoutes, type RouteGroup, type RouteSpec } from './lib/route-table.ts';
 import { webDist } from './lib/web-build.ts';
 import { trackRequest } from './lib/request-log.ts';
 import { hostCheck } from './lib/allowed-hosts.ts';
@@ -30,30 +30,59 @@ import { findingRoutes } from './features/findings/findings-router.ts';
 import { userLinkRoutes, userRoutes } from './features/users/users-router.ts';
 import { accountRoutes } from './features/account/account-router.ts';
 import { mailboxRoutes } from './features/mailbox/mailbox-router.ts';
+import { apiDocsRoutes } from './features/api-docs/api-docs-router.ts';
 
-/** The feature routes below /api/v1 (auth mounts its own, behind its rate limiters). */
-function featureRoutes(ctx: AppContext): RouteSpec[] {
+/** The feature routes below /api/v1, by feature (auth mounts its own, behind its rate limiters). */
+function featureRouteGroups(ctx: AppContext): RouteGroup[] {
   return [
-    ...fleetRoutes(ctx),
-    ...gatewayRoutes(ctx),
-    ...uploadRoutes(ctx),
-    ...alertRoutes(ctx),
-    ...limitRoutes(ctx),
-    ...pointRoutes(ctx),
-    ...setupRoutes(ctx),
-    ...auditRoutes(ctx),
-    ...reviewRoutes(ctx),
-    ...findingRoutes(ctx),
-    ...userRoutes(ctx),
-    ...userLinkRoutes(ctx),
-    ...accountRoutes(ctx),
-    ...mailboxRoutes(ctx),
+    { tag: 'fleet', description: 'Sites and the fleet tree.', routes: fleetRoutes(ctx) },
+    { tag: 'gateways', description: 'Field gateways and their keys.', routes: gatewayRoutes(ctx) },
+    { tag: 'uploads', description: 'Captures uploaded by hand.', routes: uploadRoutes(ctx) },
+    { tag: 'alerts', description: 'Alerts and their acknowledgement.', routes: alertRoutes(ctx) },
+    { tag: 'limits', description: 'Alarm limits and templates.', routes: limitRoutes(ctx) },
+    {
+      tag: 'points',
+      description: 'Machines, points, analyses, trends, spectra and waveforms.',
+      routes: pointRoutes(ctx),
+    },
+    { tag: 'setup', description: 'Sites, areas, machines and points.', routes: setupRoutes(ctx) },
+    { tag: 'audit', description: 'The audit log.', routes: auditRoutes(ctx) },
+    { tag: 'review', description: 'The weekly review.', routes: reviewRoutes(ctx) },
+    { tag: 'findings', description: 'Follow-ups and work orders.', routes: findingRoutes(ctx) },
+    {
+      tag: 'users',
+      description: 'Accounts and their site links.',
+      routes: [...userRoutes(ctx), ...userLinkRoutes(ctx)],
+    },
+    {
+      tag: 'account',
+      description: "The signed-in person's own account.",
+      routes: accountRoutes(ctx),
+    },
+    {
+      tag: 'mailbox',
+      description: 'Mail the product sent (the local mailbox).',
+      routes: mailboxRoutes(ctx),
+    },
+    {
+      tag: 'api',
+      description: 'This description of the API.',
+      routes: apiDocsRoutes(ctx, () => dashboardRouteGroups(ctx)),
+    },
+  ];
+}
+
+/** Every dashboard route below /api/v1 by feature: the OpenAPI document's source. */
+export function dashboardRouteGroups(ctx: AppContext): RouteGroup[] {
+  return [
+    { tag: 'auth', description: 'Sign-in, sign-out and the session.', routes: authRoutes(ctx) },
+    ...featureRouteGroups(ctx),
   ];
 }
 
 /** Every dashboard route below /api/v1: the access table the role × route test walks. */
 export function dashboardRoutes(ctx: AppContext): RouteSpec[] {
-  return [...authRoutes(ctx), ...featureRoutes(ctx)];
+  return dashboardRouteGroups(ctx).flatMap((g) => g.routes);
 }
 
 /**
@@ -123,7 +152,11 @@ export function createApp(ctx: AppContext) {
   api.use(cookieParser());
   api.use(sameOriginWrites);
   api.use(authRouter(ctx, authenticate));
-  mountRoutes(api, featureRoutes(ctx), authenticate);
+  mountRoutes(
+    api,
+    featureRouteGroups(ctx).flatMap((g) => g.routes),
+    authenticate,
+  );
   app.use('/api', healthRouter(ctx));
   app.use(metricsRouter(ctx, authenticate));
   app.use('/api/v1', api);

@@ -96,6 +96,21 @@ const envSchema = z.object({
   /** Days to keep raw waveforms; analyses and trends stay. 0 keeps them for ever. */
   RETENTION_DAYS: z.coerce.number().int().min(0).default(90),
   /**
+   * Days every capture keeps its spectra; after that only one capture per point per hour does
+   * (until SPECTRA_HOURLY_DAYS), then one per day (features/worker/retention.ts). Captures
+   * around alerts and findings, uploads and the first after a limit change always stay whole.
+   * 0 keeps every spectrum for ever.
+   */
+  SPECTRA_WHOLE_DAYS: z.coerce.number().int().min(0).max(3650).default(14),
+  /** Days (from now) one capture per point per hour keeps its spectra; older: one per day. */
+  SPECTRA_HOURLY_DAYS: z.coerce.number().int().min(0).max(36500).default(90),
+  /** Captures taken within ± this many minutes of an alert event or a finding stay whole. */
+  RETENTION_KEEP_WINDOW_MIN: z.coerce.number().int().min(0).max(10080).default(60),
+  /** Rows the retention passes change per statement (bounded batches, never long locks). */
+  RETENTION_BATCH_SIZE: z.coerce.number().int().min(1).max(10000).default(500),
+  /** Pause between two retention batches (ms), so ingest and the queue get the database. */
+  RETENTION_BATCH_PAUSE_MS: z.coerce.number().int().min(0).max(60000).default(200),
+  /**
    * Bearer token a remote Prometheus sends to read /metrics (at least 32 characters). Without
    * it, /metrics answers loopback clients and signed-in administrators only.
    */
@@ -167,7 +182,12 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const present = Object.fromEntries(
     Object.entries(env).filter(([, v]) => v !== undefined && v !== ''),
   );
-  const parsed = envSchema.safeParse(present);
+  const parsed = envSchema
+    .refine((c) => c.SPECTRA_WHOLE_DAYS === 0 || c.SPECTRA_HOURLY_DAYS >= c.SPECTRA_WHOLE_DAYS, {
+      message: 'must be at least SPECTRA_WHOLE_DAYS (the hourly tier follows the whole one)',
+      path: ['SPECTRA_HOURLY_DAYS'],
+    })
+    .safeParse(present);
   if (!parsed.success) {
     const lines = parsed.error.issues.map(
       (i) => `  ${i.path.join('.') || '(environment)'}: ${i.message}`,

@@ -395,6 +395,12 @@ export const analyses = mysqlTable(
     envelopeSpectrum: mediumBlob('envelope_spectrum'),
     orderSpectrum: mediumBlob('order_spectrum'),
     /**
+     * When the tiered retention pass cleared this capture's spectra (`spectra` and the four
+     * float32 columns above); null while they are kept. Scalars, band values, summary and
+     * diagnosis stay.
+     */
+    spectraThinnedAt: at('spectra_thinned_at'),
+    /**
      * Diagnosis hints of the capture with their evidence, the notes, and the severity from
      * which 1×-family hints counted (`@turnstone/condition` diagnose); null for analyses
      * stored before hints were kept.

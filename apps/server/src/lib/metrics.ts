@@ -88,6 +88,12 @@ const retentionExpired = new Counter({
   registers: [registry],
 });
 
+const retentionThinned = new Counter({
+  name: 'turnstone_retention_spectra_thinned_total',
+  help: 'Captures whose spectra the tiered retention pass cleared (scalars and band values stay).',
+  registers: [registry],
+});
+
 const retentionLastRun = new Gauge({
   name: 'turnstone_retention_last_run_timestamp_seconds',
   help: 'When the retention pass of this process last finished (Unix time).',
@@ -100,8 +106,14 @@ const retentionDuration = new Gauge({
   registers: [registry],
 });
 
-export function recordRetention(expired: number, seconds: number, at = new Date()): void {
+export function recordRetention(
+  expired: number,
+  seconds: number,
+  at = new Date(),
+  thinned = 0,
+): void {
   retentionExpired.inc(expired);
+  retentionThinned.inc(thinned);
   retentionLastRun.set(at.getTime() / 1000);
   retentionDuration.set(seconds);
 }

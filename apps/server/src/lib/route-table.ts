@@ -4,11 +4,32 @@
  * without a rule cannot slip through.
  */
 import type { Request, Response, NextFunction, Router } from 'express';
+import type { z } from 'zod';
 import type { Role } from '@turnstone/contracts/roles';
 import { forbidden, unauthenticated } from './app-error.ts';
 
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 export const ALL_ROLES: readonly Role[] = ['admin', 'engineer', 'planner', 'operator'];
+
+/**
+ * The contracts schemas a route already parses or produces, so the OpenAPI document of
+ * `/api/v1` (api-openapi.ts) is generated from them. Give the very schema objects the
+ * handler uses, never a copy.
+ */
+export interface RouteSchemas {
+  /** Path parameters (`idParam`); without it each `:name` is documented as a string. */
+  params?: z.ZodType;
+  /** Query parameters (parsed with `parseQuery`: an unknown one is a 400). */
+  query?: z.ZodType;
+  /** The JSON request body. */
+  body?: z.ZodType;
+  /** The JSON body of the success answer. */
+  response?: z.ZodType;
+  /** Status of the success answer: 200 unless said (201 for a creation, 204 without a body). */
+  status?: 200 | 201 | 204;
+  /** Media type of a success answer that is not JSON (a CSV or WAV download). */
+  produces?: string;
+}
 
 export interface RouteSpec {
   method: Method;
@@ -18,7 +39,16 @@ export interface RouteSpec {
   access: 'public' | readonly Role[];
   /** Short description, shown in the matrix test's names. */
   summary: string;
+  /** What it takes and answers, for the OpenAPI document; routes without it are listed bare. */
+  schemas?: RouteSchemas;
   handler: (req: Request, res: Response) => unknown;
+}
+
+/** One feature's routes under the tag that groups them in the OpenAPI document. */
+export interface RouteGroup {
+  tag: string;
+  description: string;
+  routes: RouteSpec[];
 }
 
 export type Authenticate = (req: Request) => Promise<void>;

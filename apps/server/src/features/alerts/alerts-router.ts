@@ -19,6 +19,7 @@ export function alertRoutes(ctx: AppContext): RouteSpec[] {
       path: '/alerts',
       access: ALL_ROLES,
       summary: 'list alerts of my sites',
+      schemas: { query: alertListQuerySchema, response: alertListSchema },
       handler: async (req, res) => {
         const query = parseQuery(alertListQuerySchema, req.query);
         res.json(alertListSchema.parse(await service.listAlerts(ctx, requireUser(req), query)));
@@ -30,6 +31,7 @@ export function alertRoutes(ctx: AppContext): RouteSpec[] {
       path: '/alerts/acknowledge',
       access: ['operator', 'engineer'],
       summary: 'acknowledge several alerts',
+      schemas: { body: acknowledgeManyRequestSchema, response: acknowledgeResponseSchema },
       handler: async (req, res) => {
         const body = acknowledgeManyRequestSchema.parse(req.body);
         const out = await service.acknowledge(ctx, requireUser(req), body.ids, body.note);
@@ -41,6 +43,7 @@ export function alertRoutes(ctx: AppContext): RouteSpec[] {
       path: '/alerts/:id',
       access: ALL_ROLES,
       summary: 'one alert with its history',
+      schemas: { params: idParam, response: alertDetailSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         res.json(alertDetailSchema.parse(await service.getAlert(ctx, requireUser(req), id)));
@@ -51,6 +54,7 @@ export function alertRoutes(ctx: AppContext): RouteSpec[] {
       path: '/alerts/:id/acknowledge',
       access: ['operator', 'engineer'],
       summary: 'acknowledge an alert',
+      schemas: { params: idParam, body: acknowledgeRequestSchema, response: alertDetailSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = acknowledgeRequestSchema.parse(req.body);

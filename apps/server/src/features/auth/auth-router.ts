@@ -1,6 +1,11 @@
 import { Router, type Request, type Response, type CookieOptions } from 'express';
 import { createHmac, timingSafeEqual } from 'node:crypto';
-import { signInRequestSchema } from '@turnstone/contracts/auth';
+import {
+  meSchema,
+  sessionResponseSchema,
+  signInRequestSchema,
+  signInResponseSchema,
+} from '@turnstone/contracts/auth';
 import { AppError } from '../../lib/app-error.ts';
 import { attemptLimiter, clientKey } from '../../lib/attempt-limits.ts';
 import type { AppContext } from '../../lib/context.ts';
@@ -43,6 +48,7 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
       path: '/auth/sign-in',
       access: 'public',
       summary: 'sign in',
+      schemas: { body: signInRequestSchema, response: signInResponseSchema },
       handler: async (req: Request, res: Response) => {
         const body = signInRequestSchema.parse(req.body);
         const row = await service.checkCredentials(ctx.db, body.email, body.password);
@@ -66,6 +72,7 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
       path: '/auth/sign-out',
       access: ALL_ROLES,
       summary: 'sign out',
+      schemas: { status: 204 },
       handler: async (req: Request, res: Response) => {
         const user = requireUser(req);
         await service.endSessions(ctx.db, user.id);
@@ -78,6 +85,7 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
       path: '/auth/session',
       access: 'public',
       summary: 'the session, if any',
+      schemas: { response: sessionResponseSchema },
       handler: async (req: Request, res: Response) => {
         await authenticate(req);
         res.setHeader('Cache-Control', 'no-store');
@@ -89,6 +97,7 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
       path: '/me',
       access: ALL_ROLES,
       summary: 'who am I',
+      schemas: { response: meSchema },
       handler: (req: Request, res: Response) => {
         res.setHeader('Cache-Control', 'no-store');
         res.json(service.toMe(requireUser(req)));

@@ -1,6 +1,8 @@
 import {
   createFindingSchema,
   findingListQuerySchema,
+  findingListSchema,
+  findingSchema,
   updateFindingSchema,
 } from '@turnstone/contracts/findings';
 import type { AppContext } from '../../lib/context.ts';
@@ -20,6 +22,7 @@ export function findingRoutes(ctx: AppContext): RouteSpec[] {
       // Every role reads them (the point view marks findings on the trend), per site.
       access: ALL_ROLES,
       summary: 'list findings',
+      schemas: { query: findingListQuerySchema, response: findingListSchema },
       handler: async (req, res) =>
         res.json(
           await service.listFindings(
@@ -34,6 +37,7 @@ export function findingRoutes(ctx: AppContext): RouteSpec[] {
       path: '/findings',
       access: WRITERS,
       summary: 'create a finding',
+      schemas: { body: createFindingSchema, response: findingSchema, status: 201 },
       handler: async (req, res) =>
         res
           .status(201)
@@ -46,6 +50,7 @@ export function findingRoutes(ctx: AppContext): RouteSpec[] {
       path: '/findings/:id',
       access: WRITERS,
       summary: 'update a finding (state, work order, due date, note)',
+      schemas: { params: idParam, body: updateFindingSchema, response: findingSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         res.json(

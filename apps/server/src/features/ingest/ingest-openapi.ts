@@ -1,19 +1,10 @@
-import { z } from 'zod';
 import {
   ingestBatchResponseSchema,
   ingestResultSchema,
   MAX_BATCH,
   snapshotInSchema,
 } from '@turnstone/contracts/ingest';
-import { errorBodySchema } from '@turnstone/contracts/errors';
-
-const schema = (s: z.ZodType, io: 'input' | 'output' = 'input') => {
-  const { $schema: _ignored, ...rest } = z.toJSONSchema(s, {
-    io,
-    unrepresentable: 'any',
-  }) as Record<string, unknown>;
-  return rest;
-};
+import { errorComponent, errorResponse, jsonSchema as schema } from '../../lib/openapi.ts';
 
 /**
  * Every error code the ingest endpoint answers with, by status. The conformance test
@@ -45,27 +36,8 @@ export function ingestOpenApi(serverUrl: string): object {
 function buildDocument(): Record<string, unknown> {
   const h = (name: string) => ({ $ref: `#/components/headers/${name}` });
   const rate = { RateLimit: h('RateLimit'), 'RateLimit-Policy': h('RateLimit-Policy') };
-  const err = (status: keyof typeof INGEST_ERROR_CODES, description: string) => ({
-    description: `${description} Codes: ${INGEST_ERROR_CODES[status].join(', ')}.`,
-    content: {
-      'application/json': {
-        schema: {
-          allOf: [
-            { $ref: '#/components/schemas/Error' },
-            {
-              type: 'object',
-              properties: {
-                error: {
-                  type: 'object',
-                  properties: { code: { enum: [...INGEST_ERROR_CODES[status]] } },
-                },
-              },
-            },
-          ],
-        },
-      },
-    },
-  });
+  const err = (status: keyof typeof INGEST_ERROR_CODES, description: string) =>
+    errorResponse(INGEST_ERROR_CODES[status], description);
   const json = (ref: string) => ({ 'application/json': { schema: { $ref: ref } } });
   return {
     openapi: '3.1.0',
@@ -155,7 +127,7 @@ function buildDocument(): Record<string, unknown> {
         },
         BatchItemResult: schema(ingestResultSchema, 'output'),
         BatchResult: schema(ingestBatchResponseSchema, 'output'),
-        Error: schema(errorBodySchema, 'output'),
+        Error: errorComponent(),
       },
     },
     security: [{ gatewayKey: [] }],

@@ -1,5 +1,5 @@
 import { readStoredSummary, type StoredSummary } from '../analysis/stored-summary.ts';
-import { and, asc, desc, eq, gte, inArray, isNull, lte, or, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, isNull, lte, ne, or, sql } from 'drizzle-orm';
 import type { BandState } from '@turnstone/condition';
 import type { Db } from '@turnstone/db/client';
 import { legacySpectrumColumn, type SpectrumKind } from '@turnstone/db/spectra-codec';
@@ -288,9 +288,42 @@ export async function recentSpectra(db: Db, pointId: number, kind: SpectrumKind,
       legacy: analyses[legacy],
     })
     .from(analyses)
-    .where(eq(analyses.pointId, pointId))
+    .where(and(eq(analyses.pointId, pointId), isNull(analyses.spectraThinnedAt)))
     .orderBy(desc(analyses.takenAt), desc(analyses.id))
     .limit(limit);
+}
+
+/**
+ * The capture of a point nearest in time to `takenAt` that still has its spectra (retention
+ * thinning left it whole), other than `exceptId`; null when there is none.
+ */
+export async function nearestWholeAnalysis(
+  db: Db,
+  pointId: number,
+  takenAt: Date,
+  exceptId: number,
+): Promise<{ id: number; takenAt: Date } | null> {
+  const base = and(
+    eq(analyses.pointId, pointId),
+    isNull(analyses.spectraThinnedAt),
+    ne(analyses.id, exceptId),
+  );
+  const cols = { id: analyses.id, takenAt: analyses.takenAt };
+  const [before] = await db
+    .select(cols)
+    .from(analyses)
+    .where(and(base, lte(analyses.takenAt, takenAt)))
+    .orderBy(desc(analyses.takenAt), desc(analyses.id))
+    .limit(1);
+  const [after] = await db
+    .select(cols)
+    .from(analyses)
+    .where(and(base, gte(analyses.takenAt, takenAt)))
+    .orderBy(asc(analyses.takenAt), asc(analyses.id))
+    .limit(1);
+  if (!before || !after) return before ?? after ?? null;
+  const t = takenAt.getTime();
+  return t - before.takenAt.getTime() <= after.takenAt.getTime() - t ? before : after;
 }
 
 export async function snapshotRow(db: Db, snapshotId: number) {

@@ -1,10 +1,17 @@
 import type { Response } from 'express';
 import {
   analysesQuerySchema,
+  analysisListSchema,
+  machineDetailSchema,
+  pointDetailSchema,
   spectrumQuerySchema,
+  spectrumSchema,
   waterfallQuerySchema,
+  waterfallSchema,
+  waveformSchema,
 } from '@turnstone/contracts/points';
-import { trendQuerySchema } from '@turnstone/contracts/trend';
+import { trendQuerySchema, trendResponseSchema } from '@turnstone/contracts/trend';
+import { snapshotStatusSchema } from '@turnstone/contracts/uploads';
 import type { AppContext } from '../../lib/context.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './points-service.ts';
@@ -30,6 +37,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       path: '/machines/:id',
       access: ALL_ROLES,
       summary: 'machine data, fault frequencies and its points',
+      schemas: { params: idParam, response: machineDetailSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         res.json(await service.machineDetail(ctx.db, requireUser(req), id));
@@ -40,6 +48,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id',
       access: ALL_ROLES,
       summary: 'point detail with its bands',
+      schemas: { params: idParam, response: pointDetailSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         res.json(await service.pointDetail(ctx, requireUser(req), id));
@@ -50,6 +59,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       path: '/snapshots/:id',
       access: ALL_ROLES,
       summary: 'snapshot status and its analysis',
+      schemas: { params: idParam, response: snapshotStatusSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         res.json(await service.snapshotStatus(ctx, requireUser(req), id));
@@ -60,6 +70,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id/analyses',
       access: ALL_ROLES,
       summary: 'analyses of a point',
+      schemas: { params: idParam, query: analysesQuerySchema, response: analysisListSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const q = parseQuery(analysesQuerySchema, req.query);
@@ -71,6 +82,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id/trend',
       access: ALL_ROLES,
       summary: 'band trend with levels and projection',
+      schemas: { params: idParam, query: trendQuerySchema, response: trendResponseSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const q = parseQuery(trendQuerySchema, req.query);
@@ -83,6 +95,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id/trend.csv',
       access: ALL_ROLES,
       summary: 'band trend as CSV',
+      schemas: { params: idParam, query: trendQuerySchema, produces: 'text/csv' },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const q = parseQuery(trendQuerySchema, req.query);
@@ -96,6 +109,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id/waterfall',
       access: ALL_ROLES,
       summary: 'last spectra of a point',
+      schemas: { params: idParam, query: waterfallQuerySchema, response: waterfallSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const q = parseQuery(waterfallQuerySchema, req.query);
@@ -107,6 +121,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       path: '/analyses/:id/spectrum',
       access: ALL_ROLES,
       summary: 'stored spectrum of an analysis',
+      schemas: { params: idParam, query: spectrumQuerySchema, response: spectrumSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const q = parseQuery(spectrumQuerySchema, req.query);
@@ -120,6 +135,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       path: '/analyses/:id/waveform',
       access: ALL_ROLES,
       summary: 'time waveform of an analysis',
+      schemas: { params: idParam, response: waveformSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         res.json(await waveforms.waveform(ctx, requireUser(req), id));
@@ -130,6 +146,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       path: '/analyses/:id/waveform.wav',
       access: ALL_ROLES,
       summary: 'raw capture as WAV',
+      schemas: { params: idParam, produces: 'audio/wav' },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const file = await waveforms.waveformWav(ctx, requireUser(req), id);
@@ -142,6 +159,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       path: '/analyses/:id/waveform.csv',
       access: ALL_ROLES,
       summary: 'capture as CSV in g',
+      schemas: { params: idParam, produces: 'text/csv' },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const file = await waveforms.waveformCsv(ctx, requireUser(req), id);

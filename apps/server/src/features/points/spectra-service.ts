@@ -32,6 +32,33 @@ export function simplePeaks(
   return found.sort((a, b) => b.amplitude - a.amplitude).slice(0, count);
 }
 
+/**
+ * 410 for a capture whose spectra the tiered retention cleared, naming the nearest capture of
+ * the same point that still has them (`details.nearest`, or null when there is none).
+ */
+async function thinnedError(
+  ctx: AppContext,
+  analysis: { id: number; pointId: number; takenAt: Date; spectraThinnedAt: Date | null },
+): Promise<AppError> {
+  const near = await repo.nearestWholeAnalysis(
+    ctx.db,
+    analysis.pointId,
+    analysis.takenAt,
+    analysis.id,
+  );
+  const nearest = near ? { analysisId: near.id, takenAt: iso(near.takenAt) } : null;
+  return new AppError(
+    'spectrum_thinned',
+    `The spectra of this capture were removed by the retention policy (older captures keep one per hour, then one per day)${
+      nearest
+        ? `; the nearest capture of this point with its spectra was taken at ${nearest.takenAt}.`
+        : '.'
+    } Its overall values and band values are kept.`,
+    410,
+    { nearest, thinnedAt: analysis.spectraThinnedAt ? iso(analysis.spectraThinnedAt) : null },
+  );
+}
+
 export async function spectrum(
   ctx: AppContext,
   user: SessionUser,
@@ -39,6 +66,7 @@ export async function spectrum(
   kind: SpectrumKind,
 ): Promise<Spectrum> {
   const { analysis } = await accessibleAnalysis(ctx, user, analysisId);
+  if (analysis.spectraThinnedAt) throw await thinnedError(ctx, analysis);
   const summary = readStoredSummary(analysis.summary);
   const meta = summary.spectra?.[kind] ?? null;
   const values = storedSpectrum(analysis, kind);

@@ -1,23 +1,291 @@
-import { and, isNotNull, lt, sql } from 'drizzle-orm';
+/**
+ * Tiered retention: what a plant-year of captures keeps.
+ *
+ * Spectra (the policy; defaults are common practice, no source):
+ * - younger than `spectraWholeDays` (14): every capture keeps its spectra;
+ * - then until `spectraHourlyDays` (90): the first capture of each point in each UTC hour;
+ * - older: the first capture of each point in each UTC day (for ever).
+ * The hourly/daily boundary is moved back to a UTC midnight, so a day's captures are all in
+ * the same tier and every bucket keeps exactly its first capture.
+ *
+ * Always kept whole, whatever their age:
+ * - captures of a point taken within ±`keepWindowMinutes` (60) of any event of one of its
+ *   alerts (raised, escalated, acknowledged — with its note — cleared), and the capture at
+ *   an alert's peak;
+ * - captures of a point taken within ±`keepWindowMinutes` of the creation of a finding on
+ *   that point (findings name a point and an alert, not a capture);
+ * - the capture a `suspect` quality notice refers to (where a point's captures turned suspect;
+ *   unusable captures are thinned like any other, or a dead sensor would keep them all);
+ * - uploads (`snapshots.source = 'upload'`);
+ * - the first capture of a point after each change of its limits (the audit log's
+ *   `limits.update` / `limits.baseline` entries, and the point's limit set's `updated_at`).
+ *
+ * Thinning clears `spectra` and the four float32 columns of the rows written before it and
+ * sets `spectra_thinned_at`; scalars, band values, summary (peaks, fault frequencies) and
+ * diagnosis stay, so trends and alert history are whole.
+ *
+ * Raw waveforms keep their own horizon, `RETENTION_DAYS` (90, by received time), for every
+ * capture: they are ten times larger than the spectra, and an engineer who needs a waveform
+ * for a report exports it within that time.
+ *
+ * Both passes work in bounded batches (a SELECT of at most `batchSize` ids over at most
+ * `scanSpan` primary keys, then an UPDATE of those ids by primary key, then a pause), so no
+ * statement holds locks on more than one batch of rows and ingest is never waiting long.
+ */
+import { setTimeout as sleep } from 'node:timers/promises';
+import { and, inArray, isNotNull, lt, sql } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
 import { snapshots } from '@turnstone/db/schema';
+
+import type { Config } from '../../config.ts';
+
+export interface RetentionPolicy {
+  /** Days raw waveforms are kept (received time); 0 keeps them for ever. */
+  rawSamplesDays: number;
+  /** Days every capture keeps its spectra; 0 turns spectra thinning off. */
+  spectraWholeDays: number;
+  /** Days (from now) until which one capture per point per hour keeps its spectra. */
+  spectraHourlyDays: number;
+  /** Captures within ± this many minutes of an alert event or a finding stay whole. */
+  keepWindowMinutes: number;
+  /** Rows per batch (one SELECT and one UPDATE). */
+  batchSize: number;
+  /** Pause between batches (ms). */
+  batchPauseMs: number;
+}
+
+/** The policy of a configuration (`RETENTION_*` and `SPECTRA_*` keys of config.ts). */
+export function retentionPolicy(config: Config): RetentionPolicy {
+  return {
+    rawSamplesDays: config.RETENTION_DAYS,
+    spectraWholeDays: config.SPECTRA_WHOLE_DAYS,
+    spectraHourlyDays: config.SPECTRA_HOURLY_DAYS,
+    keepWindowMinutes: config.RETENTION_KEEP_WINDOW_MIN,
+    batchSize: config.RETENTION_BATCH_SIZE,
+    batchPauseMs: config.RETENTION_BATCH_PAUSE_MS,
+  };
+}
+
+export interface PassResult {
+  /** Rows changed. */
+  rows: number;
+  /** Batches that changed rows. */
+  batches: number;
+}
+
+interface BatchOptions {
+  batchSize?: number;
+  batchPauseMs?: number;
+  /** Primary keys one SELECT looks at, at most (bounds a statement over long kept runs). */
+  scanSpan?: number;
+}
+
+const DAY_MS = 86_400_000;
+
+/** `now - days`, moved back to the UTC midnight before it. */
+function midnightBefore(now: Date, days: number): Date {
+  const t = now.getTime() - days * DAY_MS;
+  return new Date(t - (((t % DAY_MS) + DAY_MS) % DAY_MS));
+}
+
+/**
+ * Runs `select(lo, hi, limit)` over primary keys (lo, hi] in spans of `scanSpan`, hands each
+ * non-empty batch of ids to `update`, pausing between batches.
+ */
+async function inBatches(
+  maxId: number,
+  opts: Required<BatchOptions>,
+  select: (lo: number, hi: number, limit: number) => Promise<number[]>,
+  update: (ids: number[]) => Promise<number>,
+): Promise<PassResult> {
+  let cursor = 0;
+  let rows = 0;
+  let batches = 0;
+  while (cursor < maxId) {
+    const hi = Math.min(cursor + opts.scanSpan, maxId);
+    const ids = await select(cursor, hi, opts.batchSize);
+    cursor = ids.length === opts.batchSize ? ids[ids.length - 1]! : hi;
+    if (ids.length === 0) continue;
+    rows += await update(ids);
+    batches++;
+    if (opts.batchPauseMs > 0) await sleep(opts.batchPauseMs);
+  }
+  return { rows, batches };
+}
+
+function batchOptions(o: BatchOptions): Required<BatchOptions> {
+  const batchSize = Math.max(1, Math.floor(o.batchSize ?? 500));
+  return {
+    batchSize,
+    batchPauseMs: o.batchPauseMs ?? 0,
+    scanSpan: Math.max(batchSize, o.scanSpan ?? batchSize * 50),
+  };
+}
+
+type Row = Record<string, unknown>;
+async function rowsOf(db: Db, query: ReturnType<typeof sql>): Promise<Row[]> {
+  const [rows] = (await db.execute(query)) as unknown as [Row[]];
+  return rows;
+}
+async function affected(db: Db, query: ReturnType<typeof sql>): Promise<number> {
+  const [result] = (await db.execute(query)) as unknown as [{ affectedRows: number }];
+  return result.affectedRows;
+}
 
 /**
  * Drops raw waveforms older than `days` (received time); analyses, spectra and trends stay.
  * Only analysed snapshots lose samples, so nothing still queued is cut. 0 keeps all.
+ * Returns the number of snapshots that lost their samples.
  */
-export async function expireRawSamples(db: Db, days: number, now = new Date()): Promise<number> {
-  if (days <= 0) return 0;
-  const cutoff = new Date(now.getTime() - days * 86_400_000);
-  const [result] = await db
-    .update(snapshots)
-    .set({ samples: null, samplesExpiredAt: sql`CURRENT_TIMESTAMP(3)` })
-    .where(
-      and(
-        isNotNull(snapshots.samples),
-        lt(snapshots.receivedAt, cutoff),
-        sql`${snapshots.status} IN ('done','failed','rejected')`,
+export async function expireRawSamples(
+  db: Db,
+  days: number,
+  now = new Date(),
+  opts: BatchOptions = {},
+): Promise<number> {
+  return (await expireRawSamplesPass(db, days, now, opts)).rows;
+}
+
+export async function expireRawSamplesPass(
+  db: Db,
+  days: number,
+  now = new Date(),
+  opts: BatchOptions = {},
+): Promise<PassResult> {
+  if (days <= 0) return { rows: 0, batches: 0 };
+  const cutoff = new Date(now.getTime() - days * DAY_MS);
+  const o = batchOptions(opts);
+  const [top] = await rowsOf(db, sql`SELECT COALESCE(MAX(id), 0) AS maxId FROM snapshots`);
+  return inBatches(
+    Number(top?.maxId ?? 0),
+    o,
+    async (lo, hi, limit) =>
+      (
+        await db
+          .select({ id: snapshots.id })
+          .from(snapshots)
+          .where(
+            and(
+              sql`${snapshots.id} > ${lo} AND ${snapshots.id} <= ${hi}`,
+              isNotNull(snapshots.samples),
+              lt(snapshots.receivedAt, cutoff),
+              sql`${snapshots.status} IN ('done','failed','rejected')`,
+            ),
+          )
+          .orderBy(snapshots.id)
+          .limit(limit)
+      ).map((r) => r.id),
+    async (ids) => {
+      const [result] = await db
+        .update(snapshots)
+        .set({ samples: null, samplesExpiredAt: sql`CURRENT_TIMESTAMP(3)` })
+        .where(and(inArray(snapshots.id, ids), isNotNull(snapshots.samples)));
+      return result.affectedRows;
+    },
+  );
+}
+
+/**
+ * Clears the spectra of captures outside their tier's keep set (see the file comment);
+ * `now` fixes the tiers. Returns the rows thinned and the batches it took.
+ */
+export async function thinSpectra(
+  db: Db,
+  policy: Pick<RetentionPolicy, 'spectraWholeDays' | 'spectraHourlyDays' | 'keepWindowMinutes'>,
+  now = new Date(),
+  opts: BatchOptions = {},
+): Promise<PassResult> {
+  if (policy.spectraWholeDays <= 0) return { rows: 0, batches: 0 };
+  const wholeCutoff = new Date(now.getTime() - policy.spectraWholeDays * DAY_MS);
+  const dailyCutoff = midnightBefore(
+    now,
+    Math.max(policy.spectraHourlyDays, policy.spectraWholeDays),
+  );
+  const win = Math.max(0, Math.floor(policy.keepWindowMinutes));
+  const o = batchOptions(opts);
+  const [top] = await rowsOf(db, sql`SELECT COALESCE(MAX(id), 0) AS maxId FROM analyses`);
+  return inBatches(
+    Number(top?.maxId ?? 0),
+    o,
+    async (lo, hi, limit) => {
+      const rows = await rowsOf(
+        db,
+        sql`
+        SELECT a.id FROM analyses a JOIN snapshots s ON s.id = a.snapshot_id
+         WHERE a.id > ${lo} AND a.id <= ${hi}
+           AND a.taken_at < ${wholeCutoff}
+           AND a.spectra_thinned_at IS NULL
+           AND (a.spectra IS NOT NULL OR a.accel_spectrum IS NOT NULL
+                OR a.velocity_spectrum IS NOT NULL OR a.envelope_spectrum IS NOT NULL
+                OR a.order_spectrum IS NOT NULL)
+           AND s.source <> 'upload'
+           -- not the first capture of its point in its bucket (hour, or day before dailyCutoff)
+           AND EXISTS (
+             SELECT 1 FROM analyses b
+              WHERE b.point_id = a.point_id
+                AND b.taken_at >= IF(a.taken_at < ${dailyCutoff},
+                                     TIMESTAMP(DATE(a.taken_at)),
+                                     TIMESTAMP(DATE(a.taken_at), MAKETIME(HOUR(a.taken_at), 0, 0)))
+                AND (b.taken_at < a.taken_at OR (b.taken_at = a.taken_at AND b.id < a.id)))
+           -- alert events of the point (raise, escalation, acknowledgement, clearance)
+           AND NOT EXISTS (
+             SELECT 1 FROM alerts al JOIN alert_events e ON e.alert_id = al.id
+              WHERE al.point_id = a.point_id
+                AND e.at BETWEEN a.taken_at - INTERVAL ${win} MINUTE
+                             AND a.taken_at + INTERVAL ${win} MINUTE)
+           AND NOT EXISTS (
+             SELECT 1 FROM alerts al WHERE al.point_id = a.point_id AND al.peak_at = a.taken_at)
+           AND NOT EXISTS (
+             SELECT 1 FROM findings f
+              WHERE f.point_id = a.point_id
+                AND f.created_at BETWEEN a.taken_at - INTERVAL ${win} MINUTE
+                                     AND a.taken_at + INTERVAL ${win} MINUTE)
+           -- the capture where a point's captures turned suspect (unusable ones thin like any other)
+           AND NOT EXISTS (
+             SELECT 1 FROM quality_notices qn WHERE qn.analysis_id = a.id AND qn.verdict = 'suspect')
+           -- the first capture after a change of the point's limits
+           AND NOT EXISTS (
+             SELECT 1 FROM audit_log l
+              WHERE l.entity = 'point' AND l.entity_id = CAST(a.point_id AS CHAR)
+                AND l.action IN ('limits.update', 'limits.baseline') AND l.at <= a.taken_at
+                AND NOT EXISTS (
+                  SELECT 1 FROM analyses c
+                   WHERE c.point_id = a.point_id AND c.taken_at >= l.at
+                     AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
+           AND NOT EXISTS (
+             SELECT 1 FROM limit_sets ls
+              WHERE ls.point_id = a.point_id AND ls.updated_at <= a.taken_at
+                AND NOT EXISTS (
+                  SELECT 1 FROM analyses c
+                   WHERE c.point_id = a.point_id AND c.taken_at >= ls.updated_at
+                     AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
+         ORDER BY a.id
+         LIMIT ${limit}`,
+      );
+      return rows.map((r) => Number(r.id));
+    },
+    (ids) =>
+      affected(
+        db,
+        sql`UPDATE analyses
+               SET spectra = NULL, accel_spectrum = NULL, velocity_spectrum = NULL,
+                   envelope_spectrum = NULL, order_spectrum = NULL, spectra_thinned_at = ${now}
+             WHERE id IN (${sql.join(
+               ids.map((id) => sql`${id}`),
+               sql`, `,
+             )}) AND spectra_thinned_at IS NULL`,
       ),
-    );
-  return result.affectedRows;
+  );
+}
+
+/** The nightly pass: thin spectra, then expire raw waveforms. */
+export async function runRetention(
+  db: Db,
+  policy: RetentionPolicy,
+  now = new Date(),
+): Promise<{ thinned: PassResult; expired: PassResult }> {
+  const opts = { batchSize: policy.batchSize, batchPauseMs: policy.batchPauseMs };
+  const thinned = await thinSpectra(db, policy, now, opts);
+  const expired = await expireRawSamplesPass(db, policy.rawSamplesDays, now, opts);
+  return { thinned, expired };
 }

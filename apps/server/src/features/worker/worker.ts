@@ -20,7 +20,7 @@ import {
   type PreparedAnalysis,
 } from '../analysis/analysis-service.ts';
 import { claimJobs, failJob, LeaseLostError, type JobRow } from './queue-repository.ts';
-import { expireRawSamples } from './retention.ts';
+import { retentionPolicy, runRetention } from './retention.ts';
 import { recomputeBaselines } from '../limits/baseline-service.ts';
 import { countAnalyses, observeAnalyses, recordRetention } from '../../lib/metrics.ts';
 
@@ -234,8 +234,13 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
           '45 2 * * *',
           guarded('retention', async () => {
             const t0 = performance.now();
-            const n = await expireRawSamples(ctx.db, ctx.config.RETENTION_DAYS);
-            recordRetention(n, (performance.now() - t0) / 1000);
+            const { thinned, expired } = await runRetention(ctx.db, retentionPolicy(ctx.config));
+            recordRetention(
+              expired.rows,
+              (performance.now() - t0) / 1000,
+              new Date(),
+              thinned.rows,
+            );
           }),
           { noOverlap: true, name: 'retention', logger: cronLogger },
         ),

@@ -14,7 +14,7 @@ import {
 } from './chart-theme.ts';
 import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
-import { ZoomKeys } from './zoom-keys.tsx';
+import { useChartZoom, xExtent, ZoomKeys } from './zoom-keys.tsx';
 
 export interface SpectrumTrace {
   /** Legend and tooltip name, e.g. the capture time. */
@@ -255,7 +255,7 @@ export function SpectrumChart(props: SpectrumChartProps) {
       }),
     [traces, axis, yName, unit, markers, cursor, highlights],
   );
-  const { ref, chartRef } = useEChart(option, (chart) => {
+  const { ref, chart } = useEChart(option, (chart) => {
     const zr = chart.getZr();
     const onClick = (e: { offsetX: number; offsetY: number }) => {
       if (!chart.containPixel({ gridIndex: 0 }, [e.offsetX, e.offsetY])) return;
@@ -265,7 +265,9 @@ export function SpectrumChart(props: SpectrumChartProps) {
     zr.on('click', onClick);
     return () => zr.off('click', onClick);
   });
+  const zoom = useChartZoom(chart, option);
   const shown = (markers ?? []).filter((m) => m.x > 0);
+  const xUnit = axis === 'hz' ? 'Hz' : 'order';
   return (
     <div>
       <div
@@ -275,9 +277,15 @@ export function SpectrumChart(props: SpectrumChartProps) {
         className="w-full cursor-crosshair"
         style={{ height: props.height ?? 360 }}
       />
-      {shown.length > 0 && <MarkerKey markers={shown} unit={axis === 'hz' ? 'Hz' : 'order'} />}
+      {shown.length > 0 && <MarkerKey markers={shown} unit={xUnit} />}
       <div className="mt-2 px-2">
-        <ZoomKeys chartRef={chartRef} label="spectrum" />
+        <ZoomKeys
+          chart={chart}
+          shown={zoom}
+          label="spectrum"
+          extent={xExtent(option)}
+          format={(v) => `${formatValue(v, 4)} ${xUnit}`}
+        />
       </div>
     </div>
   );

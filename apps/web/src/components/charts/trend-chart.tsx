@@ -7,7 +7,7 @@
  * are in `unit`. Status is never colour alone: alert lines are dashed, danger lines solid
  * and thicker, and each has a text label; markers differ in shape.
  */
-import { useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import {
   axisStyle,
   chartColours,
@@ -18,7 +18,8 @@ import {
 } from './chart-theme.ts';
 import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
-import { ZoomKeys } from './zoom-keys.tsx';
+import { ValuesTable } from './values-table.tsx';
+import { useChartZoom, xExtent, ZoomKeys } from './zoom-keys.tsx';
 
 /** A time as epoch milliseconds or an ISO 8601 string. */
 export type ChartTime = number | string;
@@ -414,13 +415,14 @@ export function TrendChart(props: TrendChartProps) {
     [points, unit, name, limits, baseline, events, projection, markerSeries, now, range, zoom],
   );
   const { onPointClick } = props;
-  const { ref, chartRef } = useEChart(option, (chart) => {
+  const { ref, chart } = useEChart(option, (chart) => {
     if (!onPointClick) return;
     chart.on('click', (params) => {
       if (params.seriesIndex === 0 && typeof params.dataIndex === 'number')
         onPointClick(params.dataIndex);
     });
   });
+  const shown = useChartZoom(chart, option);
   return (
     <div>
       <div
@@ -430,19 +432,25 @@ export function TrendChart(props: TrendChartProps) {
         className="w-full"
         style={{ height: props.height ?? 320 }}
       />
-      {zoom && (
+      {(zoom ?? true) && (
         <div className="mb-1 px-2">
-          <ZoomKeys chartRef={chartRef} label="trend" />
+          <ZoomKeys
+            chart={chart}
+            shown={shown}
+            label="trend"
+            extent={xExtent(option)}
+            format={(v) => dateLabel.format(v)}
+          />
         </div>
       )}
-      <TrendValues points={points} unit={unit} name={name ?? 'Values'} />
+      <TrendValues points={points} unit={displayUnit(unit)} name={name ?? 'Values'} />
     </div>
   );
 }
 
 const verdicts = { ok: 'OK', suspect: 'Suspect', unusable: 'Unusable' } as const;
 
-/** The chart's values as a table, for the keyboard and screen readers; built when opened. */
+/** The chart's values as a table, for the keyboard and screen readers. */
 function TrendValues({
   points,
   unit,
@@ -452,47 +460,18 @@ function TrendValues({
   unit: string;
   name: string;
 }) {
-  const [open, setOpen] = useState(false);
   if (points.length === 0) return null;
   return (
-    <details
-      className="px-2 text-sm"
-      onToggle={(e) => setOpen((e.currentTarget as HTMLDetailsElement).open)}
-    >
-      <summary className="cursor-pointer text-xs font-medium text-ink-muted hover:text-ink">
-        Values as a table ({points.length})
-      </summary>
-      {open && (
-        <div className="mt-2 max-h-72 overflow-auto rounded-md border border-line" tabIndex={0}>
-          <table className="w-full text-left">
-            <caption className="sr-only">
-              {name} in {unit}, newest first
-            </caption>
-            <thead className="sticky top-0 bg-surface">
-              <tr className="border-b border-line text-xs text-ink-muted">
-                <th scope="col" className="px-3 py-1.5 font-medium">
-                  Taken
-                </th>
-                <th scope="col" className="px-3 py-1.5 font-medium">
-                  {unit}
-                </th>
-                <th scope="col" className="px-3 py-1.5 font-medium">
-                  Quality
-                </th>
-              </tr>
-            </thead>
-            <tbody className="font-mono text-[13px]">
-              {[...points].reverse().map((p, i) => (
-                <tr key={i} className="border-b border-line/60 last:border-0">
-                  <td className="px-3 py-1">{dateTimeLabel.format(toMs(p.t))}</td>
-                  <td className="px-3 py-1">{formatValue(p.v)}</td>
-                  <td className="px-3 py-1">{verdicts[p.q ?? 'ok']}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
-      )}
-    </details>
+    <ValuesTable
+      summary={`Values as a table (${points.length})`}
+      caption={`${name} in ${unit}, newest first`}
+      label={`${name} values`}
+      columns={[{ header: 'Taken' }, { header: unit, numeric: true }, { header: 'Quality' }]}
+      rows={() =>
+        [...points]
+          .reverse()
+          .map((p) => [dateTimeLabel.format(toMs(p.t)), formatValue(p.v), verdicts[p.q ?? 'ok']])
+      }
+    />
   );
 }

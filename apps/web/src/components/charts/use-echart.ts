@@ -1,10 +1,12 @@
-import { useEffect, useRef } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { echarts, type ChartOption } from './echarts.ts';
 
 /**
  * Mounts one ECharts instance on the returned ref's element, applies `option` whenever it
  * changes (replacing, not merging, so removed series disappear) and follows the element's
- * size. `onReady` receives the instance once (for pointer handlers).
+ * size. `onReady` receives the instance once (for pointer handlers); `chart` is the instance
+ * once mounted, for children that subscribe to its events (their effects run before this
+ * hook's, so they cannot read `chartRef` at mount).
  */
 export function useEChart(
   option: ChartOption,
@@ -12,6 +14,7 @@ export function useEChart(
 ) {
   const ref = useRef<HTMLDivElement | null>(null);
   const chartRef = useRef<echarts.ECharts | null>(null);
+  const [chart, setChart] = useState<echarts.ECharts | null>(null);
   const readyRef = useRef(onReady);
   useEffect(() => {
     readyRef.current = onReady;
@@ -22,6 +25,7 @@ export function useEChart(
     if (!el) return;
     const chart = echarts.init(el, undefined, { renderer: 'canvas' });
     chartRef.current = chart;
+    setChart(chart);
     const cleanup = readyRef.current?.(chart);
     const observer = new ResizeObserver(() => chart.resize());
     observer.observe(el);
@@ -30,6 +34,7 @@ export function useEChart(
       if (typeof cleanup === 'function') cleanup();
       chart.dispose();
       chartRef.current = null;
+      setChart(null);
     };
   }, []);
 
@@ -37,5 +42,5 @@ export function useEChart(
     chartRef.current?.setOption(option, { notMerge: true });
   }, [option]);
 
-  return { ref, chartRef };
+  return { ref, chartRef, chart };
 }

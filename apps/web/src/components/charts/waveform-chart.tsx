@@ -1,11 +1,15 @@
 /**
  * A time waveform in g. When the capture clipped, the ADC rails are drawn as solid lines
- * with labels, so the flattened peaks can be seen against them.
+ * with labels, so the flattened peaks can be seen against them. Zoom keys and a values
+ * table of the window shown serve the keyboard and screen readers.
  */
 import { useMemo } from 'react';
 import { axisStyle, chartColours, formatValue, monoFont, zoomSliderStyle } from './chart-theme.ts';
 import type { ChartOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
+import { WAVEFORM_TABLE_ROWS, waveformRows } from './chart-values.ts';
+import { ValuesTable } from './values-table.tsx';
+import { useChartZoom, xExtent, zoomedExtent, ZoomKeys, type ZoomWindow } from './zoom-keys.tsx';
 
 export interface WaveformChartProps {
   values: Float32Array;
@@ -95,14 +99,70 @@ export function WaveformChart(props: WaveformChartProps) {
     () => buildWaveformOption({ values, sampleRateHz, rails, showRails, ariaLabel: '' }),
     [values, sampleRateHz, rails, showRails],
   );
-  const { ref } = useEChart(option);
+  const { ref, chart } = useEChart(option);
+  const shown = useChartZoom(chart, option);
+  const extent = xExtent(option);
   return (
-    <div
-      ref={ref}
-      role="img"
-      aria-label={props.ariaLabel}
-      className="w-full"
-      style={{ height: props.height ?? 300 }}
+    <div className="flex flex-col gap-2">
+      <div
+        ref={ref}
+        role="img"
+        aria-label={props.ariaLabel}
+        className="w-full"
+        style={{ height: props.height ?? 300 }}
+      />
+      <div className="px-2">
+        <ZoomKeys
+          chart={chart}
+          shown={shown}
+          label="waveform"
+          extent={extent}
+          format={(v) => `${formatValue(v, 4)} ms`}
+        />
+      </div>
+      <WaveformValues values={values} sampleRateHz={sampleRateHz} shown={shown} />
+    </div>
+  );
+}
+
+function WaveformValues({
+  values,
+  sampleRateHz,
+  shown,
+}: {
+  values: Float32Array;
+  sampleRateHz: number;
+  shown: ZoomWindow;
+}) {
+  const dtMs = 1000 / sampleRateHz;
+  const [fromMs, toMs] = zoomedExtent([0, (values.length - 1) * dtMs], shown);
+  const first = Math.ceil(fromMs / dtMs - 1e-9);
+  const last = Math.floor(toMs / dtMs + 1e-9);
+  const inWindow = Math.max(0, Math.min(values.length - 1, last) - Math.max(0, first) + 1);
+  const thinned = inWindow > WAVEFORM_TABLE_ROWS;
+  const span = `${formatValue(fromMs, 4)} to ${formatValue(toMs, 4)} ms`;
+  return (
+    <ValuesTable
+      summary={`Values as a table (${Math.min(inWindow, WAVEFORM_TABLE_ROWS)} rows, ${span})`}
+      caption={`Acceleration in g from ${span}, ${inWindow} samples${thinned ? `, each row the largest of about ${Math.round(inWindow / WAVEFORM_TABLE_ROWS)} samples` : ''}`}
+      note={
+        thinned
+          ? `${inWindow} samples in the window shown: each row is the sample of largest magnitude in a run of about ${Math.round(inWindow / WAVEFORM_TABLE_ROWS)}, so peaks are kept. Zoom in to read every sample.`
+          : `Every sample in the window shown (${inWindow}).`
+      }
+      label="Waveform values"
+      columns={[
+        { header: 'Sample', numeric: true },
+        { header: 'Time (ms)', numeric: true },
+        { header: 'Acceleration (g)', numeric: true },
+      ]}
+      rows={() =>
+        waveformRows(values, first, last).rows.map((r) => [
+          String(r.index),
+          (r.index * dtMs).toFixed(3),
+          formatValue(r.value, 4),
+        ])
+      }
     />
   );
 }

@@ -18,6 +18,7 @@ import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Field, Input, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { Segmented } from '../../../components/ui/segmented.tsx';
+import { type ApiError, isApiError } from '../../../lib/api-client.ts';
 import { cn } from '../../../lib/cn.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { useSpectrum } from '../api/get-spectrum.ts';
@@ -235,6 +236,14 @@ export function SpectrumPanel({
             <EmptyState title="No snapshot chosen" description="Pick a snapshot above." />
           ) : main.query.isPending ? (
             <LoadingPanel label="Loading spectrum…" />
+          ) : main.query.isError && thinnedSpectrum(main.query.error) ? (
+            <ThinnedSpectrum
+              error={main.query.error as ApiError}
+              onOpen={(id) => {
+                setCompareId(null);
+                onSelect(id);
+              }}
+            />
           ) : main.query.isError ? (
             <ErrorState
               title="Could not load the spectrum"
@@ -299,6 +308,43 @@ export function SpectrumPanel({
         />
       </div>
     </Card>
+  );
+}
+
+/** The nearest capture with its spectra, as a 410 `spectrum_thinned` names it. */
+interface ThinnedDetails {
+  nearest: { analysisId: number; takenAt: string } | null;
+}
+
+function thinnedSpectrum(error: unknown): boolean {
+  return isApiError(error) && error.code === 'spectrum_thinned';
+}
+
+/** A capture whose spectra retention thinned away: say so and offer the nearest whole one. */
+function ThinnedSpectrum({ error, onOpen }: { error: ApiError; onOpen: (id: number) => void }) {
+  const nearest = (error.details as ThinnedDetails | undefined)?.nearest ?? null;
+  return (
+    <div role="status">
+      <EmptyState
+        title="Spectrum no longer stored"
+        description={
+          <>
+            Older captures keep their spectra only at a reduced rate (retention policy); this one
+            keeps its overall and band values in the trend.
+            {nearest
+              ? ` The nearest capture of this point with its spectrum was taken ${formatDateTime(nearest.takenAt)}.`
+              : ' No capture of this point still has its spectrum.'}
+          </>
+        }
+        action={
+          nearest ? (
+            <Button onClick={() => onOpen(nearest.analysisId)}>
+              Open the capture of {formatDateTime(nearest.takenAt)}
+            </Button>
+          ) : undefined
+        }
+      />
+    </div>
   );
 }
 

@@ -1,0 +1,185 @@
+/**
+ * The OpenAPI 3.1 document of the dashboard API `/api/v1`, generated from the route table:
+ * every `RouteSpec` becomes an operation (its method, path, summary and roles), described
+ * with the contracts schemas it declares (`RouteSpec.schemas`). Nothing here is written by
+ * hand per route, so a route and its description cannot drift apart.
+ */
+import { ALL_ROLES, type Method, type RouteGroup, type RouteSpec } from '../../lib/route-table.ts';
+import { ERROR_REF, errorComponent, jsonSchema } from '../../lib/openapi.ts';
+import { COOKIE_NAME } from '../auth/session-token.ts';
+
+const WRITES: readonly Method[] = ['post', 'put', 'patch', 'delete'];
+
+/** `/alerts/:id/acknowledge` → `/alerts/{id}/acknowledge`. */
+export const openApiPath = (path: string) => path.replace(/:(\w+)/g, '{$1}');
+
+/** A stable, unique name per method and path: `get /alerts/:id` → `getAlertsById`. */
+export function operationId(method: Method, path: string): string {
+  const words = path
+    .split('/')
+    .filter(Boolean)
+    .flatMap((seg) => (seg.startsWith(':') ? ['by', seg.slice(1)] : seg.split(/[^A-Za-z0-9]+/)))
+    .filter(Boolean);
+  return method + words.map((w) => w[0]!.toUpperCase() + w.slice(1)).join('');
+}
+
+const errorAnswer = (description: string) => ({
+  description,
+  content: { 'application/json': { schema: { $ref: ERROR_REF } } },
+});
+
+function parameters(spec: RouteSpec) {
+  const out: Record<string, unknown>[] = [];
+  const params = spec.schemas?.params ? jsonSchema(spec.schemas.params) : null;
+  const paramProps = (params?.properties ?? {}) as Record<string, Record<string, unknown>>;
+  for (const [, name] of spec.path.matchAll(/:(\w+)/g)) {
+    out.push({
+      name,
+      in: 'path',
+      required: true,
+      schema: paramProps[name!] ?? { type: 'string' },
+    });
+  }
+  if (spec.schemas?.query) {
+    const q = jsonSchema(spec.schemas.query);
+    const required = new Set((q.required as string[] | undefined) ?? []);
+    for (const [name, schema] of Object.entries(
+      (q.properties ?? {}) as Record<string, Record<string, unknown>>,
+    )) {
+      const { description, ...rest } = schema;
+      out.push({
+        name,
+        in: 'query',
+        required: required.has(name),
+        ...(typeof description === 'string' ? { description } : {}),
+        schema: rest,
+      });
+    }
+  }
+  return out;
+}
+
+function successAnswer(spec: RouteSpec) {
+  const s = spec.schemas ?? {};
+  const status = String(s.status ?? 200);
+  if (s.status === 204) return { [status]: { description: 'Done; no body.' } };
+  if (s.produces)
+    return {
+      [status]: {
+        description: `A file (${s.produces}).`,
+        content: { [s.produces]: { schema: { type: 'string', format: 'binary' } } },
+      },
+    };
+  if (s.response)
+    return {
+      [status]: {
+        description: 'Success.',
+        content: { 'application/json': { schema: jsonSchema(s.response, 'output') } },
+      },
+    };
+  return {
+    [status]: {
+      description: 'Success: a JSON body not yet described by a schema.',
+      content: { 'application/json': {} },
+    },
+  };
+}
+
+function operation(spec: RouteSpec, tag: string) {
+  const isPublic = spec.access === 'public';
+  const roles = isPublic ? [] : [...spec.access];
+  const isWrite = WRITES.includes(spec.method);
+  const s = spec.schemas ?? {};
+  const responses: Record<string, unknown> = { ...successAnswer(spec) };
+  if (s.body || s.query || s.params || spec.path.includes(':'))
+    responses['400'] = errorAnswer(
+      'Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, or a rule of the operation.',
+    );
+  if (!isPublic) {
+    responses['401'] = errorAnswer('`unauthenticated`: no valid session.');
+  }
+  if (!isPublic || isWrite)
+    responses['403'] = errorAnswer(
+      [
+        !isPublic ? '`forbidden`: the role may not do this, or the site is not yours.' : '',
+        isWrite ? '`cross_origin`: the Origin header names another host.' : '',
+      ]
+        .filter(Boolean)
+        .join(' '),
+    );
+  if (spec.path.includes(':')) responses['404'] = errorAnswer('`not_found`.');
+  responses['503'] = errorAnswer(
+    '`db_unavailable`: the database is away; retry after the Retry-After seconds.',
+  );
+  responses.default = errorAnswer('Any other error, in the same shape.');
+  const summary = spec.summary[0]!.toUpperCase() + spec.summary.slice(1);
+  return {
+    operationId: operationId(spec.method, spec.path),
+    summary,
+    description: isPublic
+      ? 'No session needed.'
+      : `Roles: ${roles.join(', ')}${roles.length === ALL_ROLES.length ? ' (every role)' : ''}.`,
+    tags: [tag],
+    'x-roles': isPublic ? 'public' : roles,
+    ...(isPublic ? { security: [] } : {}),
+    ...(parameters(spec).length ? { parameters: parameters(spec) } : {}),
+    ...(s.body
+      ? {
+          requestBody: {
+            required: true,
+            content: { 'application/json': { schema: jsonSchema(s.body, 'input') } },
+          },
+        }
+      : {}),
+    responses,
+  };
+}
+
+const DESCRIPTION = [
+  'The API behind the Turnstone screens: fleet, alerts, points and their trends, findings, the audit log, setup.',
+  '',
+  `**Authentication**: the session cookie \`${COOKIE_NAME}\` that \`POST /auth/sign-in\` sets (HttpOnly, SameSite=Lax). Each operation lists the roles it admits in \`x-roles\` (and its description); any other role gets 403 \`forbidden\`, no session 401 \`unauthenticated\`. Data of sites a user is not assigned to answers 403 or is left out of lists.`,
+  '',
+  "**Writes** (POST, PUT, PATCH, DELETE) must come from this server's own origin: a request whose `Origin` header names another host than `Host` (or `X-Forwarded-Host` behind a trusted proxy) gets 403 `cross_origin`. A client that sends no `Origin` (not a browser) is not affected.",
+  '',
+  '**Errors** all have one shape, `{ "error": { "code", "message", "details"? } }` (`components.schemas.Error`). Query parameters an operation does not know are a 400 `unknown_query_parameter`, never ignored.',
+  '',
+  'This document is generated from the server\'s route table and its zod schemas; an operation whose success answer says "not yet described" has no schema declared yet.',
+].join('\n');
+
+let cached: { paths: object; tags: object[] } | null = null;
+
+/** The document, with `serverUrl` (absolute) as its server. */
+export function apiOpenApi(groups: () => RouteGroup[], serverUrl: string): object {
+  if (!cached) {
+    const paths: Record<string, Record<string, unknown>> = {};
+    const tags: object[] = [];
+    for (const group of groups()) {
+      tags.push({ name: group.tag, description: group.description });
+      for (const spec of group.routes) {
+        const p = (paths[openApiPath(spec.path)] ??= {});
+        p[spec.method] = operation(spec, group.tag);
+      }
+    }
+    cached = { paths, tags };
+  }
+  return {
+    openapi: '3.1.0',
+    info: { title: 'Turnstone dashboard API', version: '1.0.0', description: DESCRIPTION },
+    servers: [{ url: serverUrl, description: 'This Turnstone server' }],
+    tags: cached.tags,
+    components: {
+      securitySchemes: {
+        sessionCookie: {
+          type: 'apiKey',
+          in: 'cookie',
+          name: COOKIE_NAME,
+          description: 'The session a person gets by signing in (POST /auth/sign-in).',
+        },
+      },
+      schemas: { Error: errorComponent() },
+    },
+    security: [{ sessionCookie: [] }],
+    paths: cached.paths,
+  };
+}

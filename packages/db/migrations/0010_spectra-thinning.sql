@@ -1,0 +1,1 @@
+ALTER TABLE `analyses` ADD `spectra_thinned_at` datetime(3);

@@ -1,0 +1,292 @@
+/**
+ * The dashboard API's contract as an integrator meets it: `GET /api/v1/openapi.json` is
+ * served without a session and passes a standard validator
+ * (@seriousme/openapi-schema-validator); every RouteSpec of the route table is in it with its
+ * roles (the table is walked, so a new route cannot be left out); and answers to real
+ * requests — reads an integrator pulls, the writes it pushes, and the error answers — are
+ * checked against it (status documented, JSON body valid under ajv's JSON Schema 2020-12).
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { Validator } from '@seriousme/openapi-schema-validator';
+import { Ajv2020 } from 'ajv/dist/2020.js';
+import addFormats from 'ajv-formats';
+import { dashboardRoutes } from '../../apps/server/src/app.ts';
+import { openApiPath, operationId } from '../../apps/server/src/features/api-docs/api-openapi.ts';
+import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { snapshotBody } from '../support/signals.ts';
+
+let srv: TestServer;
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+let doc: any;
+let ajv: InstanceType<typeof Ajv2020>;
+const cookies = new Map<string, string>();
+/** Every operation and status answered here, to show which the test met. */
+const met = new Set<string>();
+
+/**
+ * Peak acceleration (g) of a 24.7 Hz tone of `mmS` mm/s RMS: a = v·√2·2πf / 9806.65
+ * (calculus of a sinusoid, textbook); 24.7 Hz is 1× of the demo pump P-101.
+ */
+const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
+
+beforeAll(async () => {
+  srv = await startTestServer();
+  for (const role of ['admin', 'engineer', 'planner', 'operator'])
+    cookies.set(role, await srv.signIn(role));
+  const gw = await srv.call('POST', '/api/v1/gateways', {
+    cookie: cookies.get('admin'),
+    body: { siteId: 1, name: 'contract gw' },
+  });
+  const key = ((await gw.json()) as { apiKey: string }).apiKey;
+  // P-101 template levels: alert 2.8, danger 4.5 mm/s, persistence 2 (condition package's
+  // template defaults, common practice, no source): two captures at 3.5 raise an alert.
+  const t0 = Date.now() - 10 * 24 * 3600_000;
+  for (const [i, v] of [1.5, 1.5, 3.5, 3.5].entries()) {
+    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+      body: snapshotBody('MFP-P101-MDE-H', `api-contract-${i}`, {
+        tones: [{ hz: 24.7, peakG: peakGFor(v) }],
+        noiseG: 0.001,
+        seed: i + 1,
+        takenAt: new Date(t0 + i * 3600_000).toISOString(),
+      }),
+      headers: { authorization: `Bearer ${key}` },
+    });
+    expect(res.status).toBe(201);
+  }
+  await createWorker(srv.ctx, { owner: 'api-contract-test' }).drain();
+  const res = await srv.call('GET', '/api/v1/openapi.json');
+  expect(res.status).toBe(200);
+  doc = await res.json();
+  ajv = new Ajv2020({ strict: false, allErrors: true });
+  addFormats.default(ajv);
+  ajv.addSchema(doc, 'api');
+});
+afterAll(async () => {
+  await srv?.stop();
+});
+
+const pointer = (...parts: string[]) =>
+  parts.map((p) => encodeURIComponent(p.replace(/~/g, '~0').replace(/\//g, '~1'))).join('/');
+
+/**
+ * Calls a route and checks the answer against the document: the status is documented for
+ * the operation and a JSON body is valid under its schema. Returns the body.
+ */
+async function conforms(
+  method: string,
+  template: string,
+  path: string,
+  init: { role?: string; body?: unknown; headers?: Record<string, string> } = {},
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+): Promise<{ status: number; body: any }> {
+  const res = await srv.call(method, `/api/v1${path}`, {
+    cookie: init.role ? cookies.get(init.role) : undefined,
+    body: init.body,
+    headers: init.headers,
+  });
+  const op = doc.paths[openApiPath(template)]?.[method.toLowerCase()];
+  expect(op, `${method} ${template} is not in the document`).toBeDefined();
+  const status = String(res.status);
+  const key = op.responses[status] ? status : 'default';
+  expect(
+    op.responses[status] ?? (res.status >= 400 ? op.responses.default : undefined),
+    `${method} ${template}: status ${status} is not documented`,
+  ).toBeDefined();
+  met.add(`${op.operationId} ${status}`);
+  if (res.status === 204) return { status: res.status, body: null };
+  expect(res.headers.get('content-type')).toMatch(/^application\/json\b/);
+  const body = await res.json();
+  const schemaPath = pointer(
+    'paths',
+    openApiPath(template),
+    method.toLowerCase(),
+    'responses',
+    key,
+    'content',
+    'application/json',
+    'schema',
+  );
+  const validate = ajv.getSchema(`api#/${schemaPath}`);
+  expect(validate, `${method} ${template} ${status}: no schema`).toBeDefined();
+  expect(
+    validate!(body),
+    `${method} ${template} ${status}: ${ajv.errorsText(validate!.errors)}`,
+  ).toBe(true);
+  return { status: res.status, body };
+}
+
+describe('the /api/v1 OpenAPI document', () => {
+  it('is valid OpenAPI 3.1, served without a session, with an absolute server URL', async () => {
+    const result = await new Validator().validate(doc);
+    expect(result.errors ?? [], JSON.stringify(result.errors)).toEqual([]);
+    expect(result.valid).toBe(true);
+    expect(doc.openapi).toBe('3.1.0');
+    expect(doc.servers[0].url).toBe(`${srv.url}/api/v1`);
+    expect(doc.components.securitySchemes.sessionCookie).toMatchObject({
+      type: 'apiKey',
+      in: 'cookie',
+      name: 'turnstone_session',
+    });
+    expect(doc.info.description).toMatch(/cross_origin/);
+  });
+
+  it('has every route of the route table, with its roles, tag and error answers', () => {
+    const specs = dashboardRoutes(srv.ctx);
+    const ids = new Set<string>();
+    let described = 0;
+    for (const spec of specs) {
+      const op = doc.paths[openApiPath(spec.path)]?.[spec.method];
+      expect(op, `${spec.method} ${spec.path} (${spec.summary}) is not documented`).toBeDefined();
+      expect(op.operationId).toBe(operationId(spec.method, spec.path));
+      ids.add(op.operationId);
+      expect(op['x-roles']).toEqual(spec.access === 'public' ? 'public' : [...spec.access]);
+      expect(op.tags).toHaveLength(1);
+      if (spec.access === 'public') expect(op.security).toEqual([]);
+      else {
+        expect(op.security).toBeUndefined(); // the document's default: the session cookie
+        expect(op.responses['401'].content['application/json'].schema).toEqual({
+          $ref: '#/components/schemas/Error',
+        });
+        expect(op.responses['403']).toBeDefined();
+      }
+      if (spec.method !== 'get') expect(op.responses['403'].description).toMatch(/cross_origin/);
+      if (spec.schemas?.response || spec.schemas?.produces || spec.schemas?.status === 204)
+        described++;
+    }
+    // operationIds are unique, and the document has no operation the table lacks.
+    expect(ids.size).toBe(specs.length);
+    const documented = Object.values(doc.paths).flatMap((p) => Object.keys(p as object));
+    expect(documented.length).toBe(specs.length);
+    // The routes an integrator pulls and pushes have their answers described.
+    for (const id of [
+      'getFleet',
+      'getSites',
+      'getAlerts',
+      'getAlertsById',
+      'postAlertsByIdAcknowledge',
+      'postAlertsAcknowledge',
+      'getPointsById',
+      'getPointsByIdTrend',
+      'getPointsByIdAnalyses',
+      'getFindings',
+      'postFindings',
+      'patchFindingsById',
+      'getAudit',
+      'getMe',
+    ]) {
+      const op = Object.values(doc.paths)
+        .flatMap((p) => Object.values(p as object))
+        .find((o) => o.operationId === id);
+      expect(op, id).toBeDefined();
+      const ok = op.responses['200'] ?? op.responses['201'];
+      expect(ok.content['application/json'].schema, id).toBeDefined();
+    }
+    console.info(`api-contract: ${described} of ${specs.length} routes describe their answer`);
+  });
+
+  it('describes query, path and body parameters from the zod schemas', () => {
+    const list = doc.paths['/alerts'].get;
+    expect(list.parameters.map((p: { name: string }) => p.name)).toEqual([
+      'state',
+      'level',
+      'siteId',
+      'pointId',
+      'limit',
+    ]);
+    expect(list.parameters.find((p: { name: string }) => p.name === 'limit').schema).toMatchObject({
+      type: 'integer',
+      minimum: 1,
+      maximum: 1000,
+      default: 500,
+    });
+    const ack = doc.paths['/alerts/{id}/acknowledge'].post;
+    expect(ack.parameters[0]).toMatchObject({ name: 'id', in: 'path', required: true });
+    expect(ack.parameters[0].schema.type).toBe('integer');
+    expect(ack.requestBody.content['application/json'].schema.required).toEqual(['note']);
+    expect(doc.paths['/findings'].post.responses['201']).toBeDefined();
+    expect(doc.paths['/auth/sign-out'].post.responses['204']).toBeDefined();
+  });
+});
+
+describe('real answers conform to the document', () => {
+  it('reads: fleet, sites, alerts, alert detail, point, trend, analyses, audit, me', async () => {
+    await conforms('GET', '/fleet', '/fleet', { role: 'operator' });
+    await conforms('GET', '/sites', '/sites', { role: 'admin' });
+    const alerts = await conforms('GET', '/alerts', '/alerts?state=raised', { role: 'planner' });
+    expect(alerts.body.items.length).toBeGreaterThan(0);
+    const alert = alerts.body.items[0];
+    await conforms('GET', '/alerts/:id', `/alerts/${alert.id}`, { role: 'planner' });
+    await conforms('GET', '/points/:id', `/points/${alert.pointId}`, { role: 'engineer' });
+    const trend = await conforms(
+      'GET',
+      '/points/:id/trend',
+      `/points/${alert.pointId}/trend?band=overall-velocity`,
+      { role: 'engineer' },
+    );
+    expect(trend.body.items.length).toBe(4);
+    await conforms('GET', '/points/:id/analyses', `/points/${alert.pointId}/analyses?limit=2`, {
+      role: 'engineer',
+    });
+    await conforms('GET', '/machines/:id', `/machines/1`, { role: 'engineer' });
+    await conforms('GET', '/audit', '/audit?limit=5', { role: 'admin' });
+    await conforms('GET', '/me', '/me', { role: 'operator' });
+    await conforms('GET', '/auth/session', '/auth/session');
+  });
+
+  it('writes: acknowledge an alert, create and update a finding', async () => {
+    const { body } = await conforms('GET', '/alerts', '/alerts?state=raised', {
+      role: 'operator',
+    });
+    const alert = body.items[0];
+    const acked = await conforms(
+      'POST',
+      '/alerts/:id/acknowledge',
+      `/alerts/${alert.id}/acknowledge`,
+      {
+        role: 'operator',
+        body: { note: 'Checked on site, guard loose; bolted.' },
+      },
+    );
+    expect(acked.body.state).toBe('acknowledged');
+    const created = await conforms('POST', '/findings', '/findings', {
+      role: 'planner',
+      body: { pointId: alert.pointId, alertId: alert.id, title: 'Check guard of P-101' },
+    });
+    expect(created.status).toBe(201);
+    const updated = await conforms('PATCH', '/findings/:id', `/findings/${created.body.id}`, {
+      role: 'planner',
+      body: { state: 'planned', workOrderRef: 'WO 2026:0042' },
+    });
+    expect(updated.body).toMatchObject({ state: 'planned', workOrderRef: 'WO 2026:0042' });
+    const list = await conforms('GET', '/findings', `/findings?pointId=${alert.pointId}`, {
+      role: 'operator',
+    });
+    expect(list.body.items.map((f: { id: number }) => f.id)).toContain(created.body.id);
+  });
+
+  it('error answers: 400, 401, 403 (role and cross-origin), 404', async () => {
+    const bad = await conforms('GET', '/findings', '/findings?alertId=31', { role: 'planner' });
+    expect(bad).toMatchObject({
+      status: 400,
+      body: { error: { code: 'unknown_query_parameter' } },
+    });
+    const invalid = await conforms('POST', '/findings', '/findings', {
+      role: 'planner',
+      body: { pointId: 'one' },
+    });
+    expect(invalid.body.error.code).toBe('validation_failed');
+    expect((await conforms('GET', '/alerts', '/alerts')).status).toBe(401);
+    const role = await conforms('GET', '/audit', '/audit', { role: 'operator' });
+    expect(role).toMatchObject({ status: 403, body: { error: { code: 'forbidden' } } });
+    const cross = await conforms('POST', '/findings', '/findings', {
+      role: 'planner',
+      body: { pointId: 1, title: 'x' },
+      headers: { origin: 'https://elsewhere.example' },
+    });
+    expect(cross).toMatchObject({ status: 403, body: { error: { code: 'cross_origin' } } });
+    const missing = await conforms('GET', '/alerts/:id', '/alerts/999999', { role: 'planner' });
+    expect(missing.status).toBe(404);
+    expect([...met].length).toBeGreaterThan(15);
+  });
+});

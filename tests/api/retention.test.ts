@@ -1,0 +1,296 @@
+/**
+ * Tiered retention of spectra and the bounded raw-sample expiry, on a real MariaDB with
+ * captures stored by the real ingest and worker (taken at chosen past times).
+ *
+ * The tiers are the policy's defaults, which are common practice, no source: every spectrum
+ * for 14 days, then the first capture per point per UTC hour until 90 days (moved back to
+ * a UTC midnight), then the first per UTC day. The expectations below follow from that
+ * definition, capture by capture.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import {
+  expireRawSamplesPass,
+  retentionPolicy,
+  thinSpectra,
+} from '../../apps/server/src/features/worker/retention.ts';
+import { loadConfig } from '../../apps/server/src/config.ts';
+import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { snapshotBody } from '../support/signals.ts';
+
+let srv: TestServer;
+let key: string;
+let cookie: string;
+const TAG = 'MFP-P102-MDE-H';
+const TAG_BATCH = 'MFP-P102-MDE-V';
+/** The fixed "now" of every pass here. */
+const NOW = new Date('2026-10-01T12:00:00.000Z');
+const POLICY = { spectraWholeDays: 14, spectraHourlyDays: 90, keepWindowMinutes: 60 };
+
+async function q(sqlText: string, params: unknown[] = []) {
+  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
+  return rows as Record<string, unknown>[];
+}
+
+/** Ingests one capture per time through the gateway API and analyses it; returns analysis ids. */
+async function captures(tag: string, times: string[]): Promise<Map<string, number>> {
+  const out = new Map<string, number>();
+  for (const [i, t] of times.entries()) {
+    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+      body: snapshotBody(tag, `${tag}-${t}`, {
+        takenAt: t,
+        tones: [{ hz: 24.7, peakG: 0.02 + 0.0005 * i }],
+        seed: i,
+      }),
+      headers: { authorization: `Bearer ${key}` },
+    });
+    expect(res.status).toBe(201);
+    const snapshotId = (await res.json()).snapshotId as number;
+    await createWorker(srv.ctx, { owner: 'retention-test' }).drain();
+    const [a] = await q('SELECT id FROM analyses WHERE snapshot_id = ?', [snapshotId]);
+    out.set(t, Number(a!.id));
+  }
+  return out;
+}
+
+async function pointIdOf(tag: string) {
+  const [p] = await q('SELECT id FROM points WHERE tag = ?', [tag]);
+  return Number(p!.id);
+}
+
+async function whole(id: number) {
+  const [r] = await q(
+    'SELECT spectra IS NOT NULL AS kept, spectra_thinned_at FROM analyses WHERE id = ?',
+    [id],
+  );
+  return Number(r!.kept) === 1 && r!.spectra_thinned_at === null;
+}
+
+beforeAll(async () => {
+  srv = await startTestServer();
+  cookie = await srv.signIn('admin');
+  key = (
+    await (
+      await srv.call('POST', '/api/v1/gateways', { cookie, body: { siteId: 1, name: 'gw' } })
+    ).json()
+  ).apiKey;
+});
+afterAll(async () => {
+  await srv?.stop();
+});
+
+describe('retention policy', () => {
+  it('has the documented defaults and refuses an hourly tier shorter than the whole one', () => {
+    const p = retentionPolicy(loadConfig({}));
+    // Defaults: common practice, no source.
+    expect(p).toEqual({
+      rawSamplesDays: 90,
+      spectraWholeDays: 14,
+      spectraHourlyDays: 90,
+      keepWindowMinutes: 60,
+      batchSize: 500,
+      batchPauseMs: 200,
+    });
+    expect(() => loadConfig({ SPECTRA_WHOLE_DAYS: '30', SPECTRA_HOURLY_DAYS: '7' })).toThrow(
+      /SPECTRA_HOURLY_DAYS: must be at least SPECTRA_WHOLE_DAYS/,
+    );
+  });
+});
+
+describe('bounded batches', () => {
+  it('a thinning pass with batch size 2 over 5 candidates takes 3 batches', async () => {
+    // Six captures of one point on one day 200 days back: the first stays, five are thinned.
+    const day = ['01:00', '03:00', '05:00', '07:00', '09:00', '11:00'].map(
+      (h) => `2026-03-15T${h}:00.000Z`,
+    );
+    const ids = await captures(TAG_BATCH, day);
+    const pass = await thinSpectra(srv.ctx.db, POLICY, NOW, { batchSize: 2 });
+    expect(pass).toEqual({ rows: 5, batches: 3 });
+    expect(await whole(ids.get(day[0]!)!)).toBe(true);
+    for (const t of day.slice(1)) expect(await whole(ids.get(t)!)).toBe(false);
+    // A second pass finds nothing left to do.
+    expect(await thinSpectra(srv.ctx.db, POLICY, NOW, { batchSize: 2 })).toEqual({
+      rows: 0,
+      batches: 0,
+    });
+  });
+
+  it('raw-sample expiry runs in bounded batches too', async () => {
+    const pointId = await pointIdOf(TAG_BATCH);
+    await q(
+      'UPDATE snapshots SET received_at = ? - INTERVAL 100 DAY WHERE point_id = ? AND samples IS NOT NULL',
+      [NOW, pointId],
+    );
+    const pass = await expireRawSamplesPass(srv.ctx.db, 90, NOW, { batchSize: 4 });
+    // Six snapshots in batches of at most 4: 4 + 2.
+    expect(pass).toEqual({ rows: 6, batches: 2 });
+    const [r] = await q(
+      'SELECT COUNT(*) AS n FROM snapshots WHERE point_id = ? AND samples IS NULL AND samples_expired_at IS NOT NULL',
+      [pointId],
+    );
+    expect(Number(r!.n)).toBe(6);
+  });
+});
+
+describe('tiered thinning', () => {
+  const T = {
+    // whole tier (younger than 14 days)
+    w1: '2026-09-29T10:05:00.000Z',
+    w2: '2026-09-29T10:15:00.000Z',
+    // hourly tier
+    h1: '2026-09-01T10:05:00.000Z',
+    h2: '2026-09-01T10:35:00.000Z',
+    h3: '2026-09-01T10:55:00.000Z',
+    h4: '2026-09-01T11:05:00.000Z',
+    // hourly tier, finding created at 09:35 (±60 min keeps 08:40, not 08:20)
+    f0: '2026-09-02T08:00:00.000Z',
+    f1: '2026-09-02T08:20:00.000Z',
+    f2: '2026-09-02T08:40:00.000Z',
+    // NOW − 90 d is 07-03 12:00, moved back to 07-03 00:00: both are first of their hour in
+    // the hourly tier (without the move, b2 would be the second of its day in the daily tier)
+    b1: '2026-07-03T06:00:00.000Z',
+    b2: '2026-07-03T07:20:00.000Z',
+    // daily tier; upload at 12:00, alert event at 15:30
+    d1: '2026-05-10T03:00:00.000Z',
+    d2: '2026-05-10T09:00:00.000Z',
+    up: '2026-05-10T12:00:00.000Z',
+    al: '2026-05-10T15:00:00.000Z',
+    d3: '2026-05-10T17:00:00.000Z',
+    d4: '2026-05-10T21:00:00.000Z',
+    // daily tier; a suspect quality notice on 05:00, an unusable one on 06:00
+    e1: '2026-05-11T00:30:00.000Z',
+    qn: '2026-05-11T05:00:00.000Z',
+    e2: '2026-05-11T06:00:00.000Z',
+    // daily tier; limits changed at 06:00
+    l1: '2026-05-12T01:00:00.000Z',
+    l2: '2026-05-12T07:00:00.000Z',
+    l3: '2026-05-12T08:00:00.000Z',
+  } as const;
+  type Label = keyof typeof T;
+  const keep: Label[] = ['w1', 'w2', 'h1', 'h4', 'f0', 'f2', 'b1', 'b2', 'd1', 'up', 'al', 'e1'];
+  keep.push('qn', 'l1', 'l2');
+  const thin: Label[] = ['h2', 'h3', 'f1', 'd2', 'd3', 'd4', 'e2', 'l3'];
+  let ids: Map<string, number>;
+  let pointId: number;
+  const id = (l: Label) => ids.get(T[l])!;
+  let before: Map<number, { v: number; bands: number }>;
+
+  beforeAll(async () => {
+    pointId = await pointIdOf(TAG);
+    ids = await captures(TAG, Object.values(T));
+    const [snap] = await q('SELECT snapshot_id FROM analyses WHERE id = ?', [id('up')]);
+    await q("UPDATE snapshots SET source = 'upload', gateway_id = NULL WHERE id = ?", [
+      snap!.snapshot_id,
+    ]);
+    const [user] = await q("SELECT id FROM users WHERE email = 'admin@turnstone.local'");
+    const [alert] = (await srv.ctx.dbHandle.pool.query(
+      `INSERT INTO alerts (point_id, band_key, band_name, level, state, unit, limit_value,
+         first_value, last_value, peak_value, first_at, last_at, peak_at)
+       VALUES (?, 'overall-velocity', 'Overall velocity', 'alert', 'cleared', 'mm/s', 4.5,
+         5, 5, 5, ?, ?, ?)`,
+      [pointId, new Date(T.al), new Date(T.al), new Date(T.al)],
+    )) as unknown as [{ insertId: number }];
+    await q(
+      "INSERT INTO alert_events (alert_id, kind, level, value, at) VALUES (?, 'raised', 'alert', 5, ?)",
+      [alert.insertId, new Date('2026-05-10T15:30:00.000Z')],
+    );
+    await q('INSERT INTO findings (point_id, title, created_by, created_at) VALUES (?, ?, ?, ?)', [
+      pointId,
+      'Check coupling',
+      user!.id,
+      new Date('2026-09-02T09:35:00.000Z'),
+    ]);
+    await q(
+      "INSERT INTO quality_notices (point_id, analysis_id, verdict, findings, taken_at) VALUES (?, ?, 'suspect', '[]', ?)",
+      [pointId, id('qn'), new Date(T.qn)],
+    );
+    // An unusable capture's notice does not keep it (a dead sensor would keep a year whole).
+    await q(
+      "INSERT INTO quality_notices (point_id, analysis_id, verdict, findings, taken_at) VALUES (?, ?, 'unusable', '[]', ?)",
+      [pointId, id('e2'), new Date(T.e2)],
+    );
+    await q(
+      "INSERT INTO audit_log (action, entity, entity_id, at) VALUES ('limits.update', 'point', ?, ?)",
+      [String(pointId), new Date('2026-05-12T06:00:00.000Z')],
+    );
+    // A row written before the compact column: its float32 column goes too.
+    await q('UPDATE analyses SET spectra = NULL, accel_spectrum = ? WHERE id = ?', [
+      Buffer.alloc(16),
+      id('d4'),
+    ]);
+    before = new Map();
+    for (const l of [...keep, ...thin]) {
+      const [a] = await q(
+        `SELECT a.velocity_rms_mm_s AS v, (SELECT COUNT(*) FROM band_values b WHERE b.analysis_id = a.id) AS bands
+           FROM analyses a WHERE a.id = ?`,
+        [id(l)],
+      );
+      before.set(id(l), { v: Number(a!.v), bands: Number(a!.bands) });
+    }
+    const pass = await thinSpectra(srv.ctx.db, POLICY, NOW, { batchSize: 3 });
+    expect(pass.rows).toBe(thin.length);
+  });
+
+  it('keeps exactly the tier keepers and the protected captures whole', async () => {
+    const kept = [];
+    for (const l of [...keep, ...thin]) if (await whole(id(l))) kept.push(l);
+    expect(kept.sort()).toEqual([...keep].sort());
+    for (const l of thin) {
+      const [r] = await q(
+        `SELECT spectra, accel_spectrum, velocity_spectrum, envelope_spectrum, order_spectrum,
+                spectra_thinned_at FROM analyses WHERE id = ?`,
+        [id(l)],
+      );
+      expect(r).toMatchObject({
+        spectra: null,
+        accel_spectrum: null,
+        velocity_spectrum: null,
+        envelope_spectrum: null,
+        order_spectrum: null,
+      });
+      expect((r!.spectra_thinned_at as Date).getTime()).toBe(NOW.getTime());
+    }
+  });
+
+  it('keeps the scalars, band values, summary and diagnosis of thinned captures', async () => {
+    for (const l of thin) {
+      const [a] = await q(
+        `SELECT a.velocity_rms_mm_s AS v, a.summary IS NOT NULL AS s,
+                (SELECT COUNT(*) FROM band_values b WHERE b.analysis_id = a.id) AS bands
+           FROM analyses a WHERE a.id = ?`,
+        [id(l)],
+      );
+      const b = before.get(id(l))!;
+      expect(Number(a!.v)).toBe(b.v);
+      expect(Number(a!.bands)).toBe(b.bands);
+      expect(b.bands).toBeGreaterThan(0);
+      expect(Number(a!.s)).toBe(1);
+    }
+  });
+
+  it('the spectrum of a thinned capture answers 410 naming the nearest whole capture', async () => {
+    const res = await srv.call('GET', `/api/v1/analyses/${id('h3')}/spectrum?kind=velocity`, {
+      cookie,
+    });
+    expect(res.status).toBe(410);
+    const body = await res.json();
+    expect(body.error.code).toBe('spectrum_thinned');
+    expect(body.error.message).toMatch(/retention/);
+    // h3 (10:55): h1 is 50 min before, h4 10 min after.
+    expect(body.error.details.nearest).toEqual({ analysisId: id('h4'), takenAt: T.h4 });
+    const ok = await srv.call('GET', `/api/v1/analyses/${id('h4')}/spectrum?kind=velocity`, {
+      cookie,
+    });
+    expect(ok.status).toBe(200);
+  });
+
+  it('the waterfall skips thinned captures', async () => {
+    const res = await srv.call('GET', `/api/v1/points/${pointId}/waterfall?limit=50`, { cookie });
+    expect(res.status).toBe(200);
+    const shown = new Set(
+      (await res.json()).items.map((i: { analysisId: number }) => i.analysisId),
+    );
+    for (const l of thin) expect(shown.has(id(l))).toBe(false);
+    for (const l of ['w1', 'h1', 'd1'] as Label[]) expect(shown.has(id(l))).toBe(true);
+  });
+});
