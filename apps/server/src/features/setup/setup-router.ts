@@ -8,6 +8,7 @@ import {
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './setup-service.ts';
+import * as points from './setup-points-service.ts';
 import { idParam } from '../../lib/route-params.ts';
 
 const ADMIN = ['admin'] as const;
@@ -104,7 +105,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'create a measurement point',
       handler: async (req, res) => {
         const body = pointInputSchema.parse(req.body);
-        res.status(201).json(await service.createPoint(db, requireUser(req), body));
+        res.status(201).json(await points.createPoint(db, requireUser(req), body));
       },
     },
     {
@@ -115,7 +116,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = pointInputSchema.parse(req.body);
-        res.json(await service.updatePoint(db, requireUser(req), id, body));
+        res.json(await points.updatePoint(db, requireUser(req), id, body));
       },
     },
     {
@@ -125,7 +126,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       summary: 'delete a point without data',
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        await service.deletePoint(db, requireUser(req), id);
+        await points.deletePoint(db, requireUser(req), id);
         res.status(204).end();
       },
     },
