@@ -3,6 +3,7 @@ import {
   areaUpdateSchema,
   machineInputSchema,
   pointInputSchema,
+  setupTreeSchema,
   siteInputSchema,
 } from '@turnstone/contracts/setup';
 import type { AppContext } from '../../lib/context.ts';
@@ -22,6 +23,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/setup',
       access: BUILDERS,
       summary: 'plant setup tree with components',
+      schemas: { response: setupTreeSchema },
       handler: async (req, res) => res.json(await service.setupTree(db, requireUser(req))),
     },
     {
@@ -29,6 +31,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/sites',
       access: ADMIN,
       summary: 'create a site',
+      schemas: { body: siteInputSchema, status: 201 },
       handler: async (req, res) => {
         const body = siteInputSchema.parse(req.body);
         res.status(201).json(await service.createSite(db, requireUser(req), body));
@@ -39,6 +42,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/sites/:id',
       access: ADMIN,
       summary: 'update a site',
+      schemas: { params: idParam, body: siteInputSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = siteInputSchema.parse(req.body);
@@ -50,6 +54,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/areas',
       access: ADMIN,
       summary: 'create an area',
+      schemas: { body: areaInputSchema, status: 201 },
       handler: async (req, res) => {
         const body = areaInputSchema.parse(req.body);
         res.status(201).json(await service.createArea(db, requireUser(req), body));
@@ -60,6 +65,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/areas/:id',
       access: ADMIN,
       summary: 'rename an area',
+      schemas: { params: idParam, body: areaUpdateSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = areaUpdateSchema.parse(req.body);
@@ -71,6 +77,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/machines',
       access: BUILDERS,
       summary: 'create a machine with its components',
+      schemas: { body: machineInputSchema, status: 201 },
       handler: async (req, res) => {
         const body = machineInputSchema.parse(req.body);
         res.status(201).json(await service.createMachine(db, requireUser(req), body));
@@ -81,6 +88,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/machines/:id',
       access: BUILDERS,
       summary: 'update a machine and replace its components',
+      schemas: { params: idParam, body: machineInputSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = machineInputSchema.parse(req.body);
@@ -92,6 +100,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/machines/:id',
       access: BUILDERS,
       summary: 'delete a machine without data',
+      schemas: { params: idParam, status: 204 },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         await service.deleteMachine(db, requireUser(req), id);
@@ -103,6 +112,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points',
       access: BUILDERS,
       summary: 'create a measurement point',
+      schemas: { body: pointInputSchema, status: 201 },
       handler: async (req, res) => {
         const body = pointInputSchema.parse(req.body);
         res.status(201).json(await points.createPoint(db, requireUser(req), body));
@@ -113,6 +123,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id',
       access: BUILDERS,
       summary: 'update a measurement point',
+      schemas: { params: idParam, body: pointInputSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = pointInputSchema.parse(req.body);
@@ -124,6 +135,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id',
       access: BUILDERS,
       summary: 'delete a point without data',
+      schemas: { params: idParam, status: 204 },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         await points.deletePoint(db, requireUser(req), id);
