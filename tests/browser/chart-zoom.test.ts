@@ -293,6 +293,8 @@ describe('chart zoom and values by keyboard', () => {
     const amps = low.map((r) => Number(r[2]));
     for (let r = 1; r < amps.length; r++) expect(amps[r]!).toBeLessThan(amps[r - 1]!);
     await screenshot(page, 'chart-zoom-waterfall-keyboard-values');
+    await tabTo(page, (f) => f.name === 'Waterfall peaks', 'the peaks table');
+    await screenshot(page, 'chart-zoom-waterfall-table-focus');
     await page.context().close();
   });
 
