@@ -21,10 +21,7 @@ let seq = 0;
  */
 const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 
 /** One capture per value (mm/s RMS at 1×), an hour apart, then the worker drains. */
 async function capture(siteId: number, tag: string, velocities: number[], extra = {}) {

@@ -265,6 +265,56 @@ describe('real answers conform to the document', () => {
     expect(list.body.items.map((f: { id: number }) => f.id)).toContain(created.body.id);
   });
 
+  it('setup, limits, review, users, gateways, mail and account answers', async () => {
+    await conforms('GET', '/setup', '/setup', { role: 'admin' });
+    await conforms('GET', '/points/:id/limits', '/points/1/limits', { role: 'operator' });
+    await conforms('GET', '/points/:id/limits/iso-defaults', '/points/1/limits/iso-defaults', {
+      role: 'engineer',
+    });
+    await conforms('GET', '/points/:id/limits/history', '/points/1/limits/history', {
+      role: 'engineer',
+    });
+    await conforms('GET', '/limit-templates/:machineType', '/limit-templates/pump', {
+      role: 'engineer',
+    });
+    await conforms('GET', '/review', '/review?weeksAhead=8', { role: 'planner' });
+    await conforms('GET', '/users', '/users', { role: 'admin' });
+    await conforms('GET', '/gateways', '/gateways', { role: 'admin' });
+    const gw = await conforms('POST', '/gateways', '/gateways', {
+      role: 'admin',
+      body: { siteId: 1, name: 'contract second' },
+    });
+    expect(gw.status).toBe(201);
+    await conforms('POST', '/gateways/:id/rotate', `/gateways/${gw.body.id}/rotate`, {
+      role: 'admin',
+    });
+    const mail = await conforms('GET', '/mailbox', '/mailbox', { role: 'admin' });
+    if (mail.body.items.length > 0)
+      await conforms('GET', '/mailbox/:id', `/mailbox/${mail.body.items[0].id}`, { role: 'admin' });
+    await conforms('GET', '/mail/undelivered', '/mail/undelivered', { role: 'admin' });
+    const subs = await conforms('GET', '/account/subscriptions', '/account/subscriptions', {
+      role: 'engineer',
+    });
+    await conforms('PUT', '/account/subscriptions', '/account/subscriptions', {
+      role: 'engineer',
+      body: {
+        items: [
+          {
+            siteId: subs.body.options.sites[0].id,
+            machineId: null,
+            minLevel: 'danger',
+            cadence: 'hourly',
+          },
+        ],
+        weeklyDigest: false,
+      },
+    });
+    const forgot = await conforms('POST', '/auth/forgot-password', '/auth/forgot-password', {
+      body: { email: 'nobody@turnstone.local' },
+    });
+    expect(forgot.status).toBe(202);
+  });
+
   it('error answers: 400, 401, 403 (role and cross-origin), 404', async () => {
     const bad = await conforms('GET', '/findings', '/findings?alertId=31', { role: 'planner' });
     expect(bad).toMatchObject({

@@ -12,10 +12,7 @@ import { startTestServer, type TestServer } from '../support/test-server.ts';
 let srv: TestServer;
 let engineer: string;
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 
 beforeAll(async () => {
   srv = await startTestServer({ DEMO_HISTORY_WEEKS: '2' });

@@ -18,10 +18,7 @@ let srv: TestServer;
 let admin: string;
 let key: string;
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 const get = (path: string) => srv.call('GET', `/api/v1${path}`, { cookie: admin });
 async function ingest(body: unknown) {
   const res = await srv.call('POST', '/api/ingest/v1/snapshots', {

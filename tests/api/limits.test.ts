@@ -20,10 +20,7 @@ let pointId: number;
 /** Peak g of a 24.7 Hz tone of `mmS` mm/s RMS: a = v·√2·2πf (calculus of a sinusoid, textbook). */
 const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 
 async function capture(tag: string, velocities: number[]) {
   for (const v of velocities) {

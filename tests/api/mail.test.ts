@@ -33,10 +33,7 @@ const PLANNER = 'planner@turnstone.local';
 const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
 
 type Row = Record<string, unknown>;
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Row[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q<Row>(sqlText, params);
 
 async function capture(velocities: number[]) {
   for (const v of velocities) {

@@ -22,10 +22,7 @@ let operator: string;
 let pointId: number;
 let trbTag: string;
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 async function ingest(
   tag: string,
   uid: string,

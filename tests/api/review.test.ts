@@ -36,10 +36,7 @@ const SENSOR = { sensitivityMvPerG: 1000, fullScaleV: 0.5 } as const;
 const peakGOf = (vRms: number, hz: number) => (vRms * Math.SQRT2 * 2 * Math.PI * hz) / 9806.65;
 const rising = (day: number) => 1.0 + 0.05 * day;
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 async function ingest(tag: string, uid: string, day: number, peakG: number) {
   const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
     body: snapshotBody(tag, uid, {

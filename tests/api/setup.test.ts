@@ -8,10 +8,7 @@ let engineer: string;
 let planner: string;
 let operator: string;
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 
 /** A medium pump on a rigid foundation (ISO 20816-3 group 2); bearing 6309 from memory. */
 const machineBody = (areaId: number, name: string) => ({

@@ -15,10 +15,7 @@ let srv: TestServer;
 let engineer: string;
 let pointId: number;
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 const snapshotCount = async () => Number((await q('SELECT COUNT(*) AS n FROM snapshots'))[0]!.n);
 
 function upload(

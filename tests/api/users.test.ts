@@ -9,10 +9,7 @@ import { requestPasswordReset } from '../../apps/server/src/features/users/users
 let srv: TestServer;
 let admin = '';
 type Row = Record<string, unknown>;
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Row[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q<Row>(sqlText, params);
 
 /**
  * Sends what is due, then the newest message the SMTP fake received for `to`, as its

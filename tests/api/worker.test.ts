@@ -16,10 +16,7 @@ let srv: TestServer;
 let key: string;
 const TAG = 'MFP-P102-MDE-H';
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 async function ingest(uid: string, o: Parameters<typeof snapshotBody>[2] = {}, tag = TAG) {
   const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
     body: snapshotBody(tag, uid, o),

@@ -28,10 +28,7 @@ const DAY = 86_400_000;
 const totals: Record<string, number> = {};
 const perScreen: Record<string, AxeFinding[]> = {};
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 
 beforeAll(async () => {
   srv = await startTestServer();

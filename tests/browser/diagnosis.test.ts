@@ -17,24 +17,13 @@ let alertId: number;
 const TAG = 'MFP-P201-MDE-H';
 const DAY = 86_400_000;
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 
 beforeAll(async () => {
   srv = await startTestServer();
   browser = await launchBrowser();
-  const admin = await srv.signIn('admin');
   const [site] = await q("SELECT id FROM sites WHERE code = 'MFP'");
-  const key = (
-    await (
-      await srv.call('POST', '/api/v1/gateways', {
-        cookie: admin,
-        body: { siteId: Number(site!.id), name: 'gw' },
-      })
-    ).json()
-  ).apiKey as string;
+  const key = await srv.gatewayKey(Number(site!.id));
   const channel = demoChannels('MFP').find((c) => c.tag === TAG)!;
   const now = Date.now();
   for (let i = 0; i < 8; i++) {

@@ -86,12 +86,7 @@ describe('mailbox in a real browser', () => {
   });
 
   it('an alert raised by ingested captures reaches the mailbox with its facts and the caution', async () => {
-    const admin = await srv.signIn('admin');
-    const gw = await srv.call('POST', '/api/v1/gateways', {
-      cookie: admin,
-      body: { siteId: 1, name: 'gw-browser' },
-    });
-    const key = (await gw.json()).apiKey as string;
+    const key = await srv.gatewayKey(1, 'gw-browser');
     // 3.5 mm/s RMS at 24.7 Hz (peak g = v·√2·2πf/9806.65), twice: over P-101's 2.8 mm/s
     // alert level with persistence 2 (template defaults, see tests/api/alerts.test.ts).
     const peakG = (3.5 * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;

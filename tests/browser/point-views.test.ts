@@ -14,24 +14,13 @@ let clippedAnalysisId: number;
 const TAG = 'MFP-P102-MDE-H';
 const DAY = 86_400_000;
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 
 beforeAll(async () => {
   srv = await startTestServer();
   browser = await launchBrowser();
-  const admin = await srv.signIn('admin');
   const [site] = await q("SELECT id FROM sites WHERE code = 'MFP'");
-  const key = (
-    await (
-      await srv.call('POST', '/api/v1/gateways', {
-        cookie: admin,
-        body: { siteId: Number(site!.id), name: 'gw' },
-      })
-    ).json()
-  ).apiKey as string;
+  const key = await srv.gatewayKey(Number(site!.id));
   // Three weeks of daily captures with a slowly growing 1× (24.7 Hz at 1482 r/min; from
   // ≈ 1.6 to ≈ 2.5 mm/s RMS, v = a/2πf, so the alert level 2.8 mm/s lies ahead) and a
   // bearing-like tone at 212 Hz; the one in the middle clips (60 g peak on a ±50 g ADC range).

@@ -36,12 +36,7 @@ async function tallShot(page: Page, name: string) {
 
 beforeAll(async () => {
   srv = await startTestServer();
-  const admin = await srv.signIn('admin');
-  const key = (
-    await (
-      await srv.call('POST', '/api/v1/gateways', { cookie: admin, body: { siteId: 1, name: 'gw' } })
-    ).json()
-  ).apiKey;
+  const key = await srv.gatewayKey();
   const send = async (tag: string, uid: string, day: number, vRms: number) => {
     const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
       body: snapshotBody(tag, uid, {

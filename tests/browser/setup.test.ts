@@ -14,10 +14,7 @@ afterAll(async () => {
   await srv?.stop();
 });
 
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 
 describe('admin setup screens in a real browser', () => {
   it('an admin creates a gateway and sees its key once, in a dialog with a copy button', async () => {
@@ -96,7 +93,7 @@ describe('admin setup screens in a real browser', () => {
     await pf.getByLabel('Location').fill('Pump DE');
     await pf.getByLabel('Bearing').selectOption({ label: 'Pump DE (6311)' });
     await pf.getByRole('button', { name: 'Create point' }).click();
-    await pf.getByText('Tag MFP-P102-MDE-H is already used by another point.').waitFor();
+    await pf.getByText('Tag MFP-P102-MDE-H is already used by another point of this site.').waitFor();
     await screenshot(page, 'setup-point-duplicate-tag');
     await pf.getByLabel('Tag').fill('MFP-P160-PDE-H');
     await pf.getByRole('button', { name: 'Create point' }).click();

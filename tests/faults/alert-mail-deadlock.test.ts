@@ -19,10 +19,7 @@ const t0 = Date.now() - 48 * 3600_000;
 let seq = 0;
 
 type Row = Record<string, unknown>;
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Row[];
-}
+const q = (sqlText: string, params: unknown[] = []) => srv.q<Row>(sqlText, params);
 
 async function ingest(velocities: number[]) {
   for (const v of velocities) {
@@ -54,12 +51,7 @@ async function waitFor(what: string, check: () => Promise<boolean>, ms = 60_000)
 
 beforeAll(async () => {
   srv = await startTestServer();
-  const admin = await srv.signIn('admin');
-  const res = await srv.call('POST', '/api/v1/gateways', {
-    cookie: admin,
-    body: { siteId: 1, name: 'gw-deadlock' },
-  });
-  key = (await res.json()).apiKey;
+  key = await srv.gatewayKey(1, 'gw-deadlock');
 });
 afterAll(async () => {
   await srv?.stop();

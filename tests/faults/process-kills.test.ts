@@ -33,13 +33,7 @@ describe('a worker killed mid-analysis, ten times', () => {
   });
 
   it('every job ends analysed exactly once', async () => {
-    const admin = await srv.signIn('admin');
-    const { apiKey } = await (
-      await srv.call('POST', '/api/v1/gateways', {
-        cookie: admin,
-        body: { siteId: 1, name: 'kill gw' },
-      })
-    ).json();
+    const apiKey = await srv.gatewayKey(1, 'kill gw');
     const total = 80;
     for (let i = 0; i < total; i++) {
       const body = snapshotBody(TAG, `kill-${i}`, {

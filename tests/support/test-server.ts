@@ -32,6 +32,10 @@ export interface TestServer extends RunningServer {
     },
   ): Promise<TestResponse>;
   signIn(role: string, password?: string): Promise<string>;
+  /** A new gateway of the site (created by the demo administrator); its ingest key. */
+  gatewayKey(siteId?: number, name?: string): Promise<string>;
+  /** A plain SQL query on the server's own pool (placeholders only); rows as objects. */
+  q<T = Record<string, unknown>>(sqlText: string, params?: unknown[]): Promise<T[]>;
 }
 
 let ownDb: LocalMariadb | null = null;
@@ -99,5 +103,18 @@ export async function startTestServer(env: Record<string, string> = {}): Promise
   const stop = async () => {
     await server.stop();
   };
-  return { ...server, stop, databaseUrl, call, signIn };
+  const q: TestServer['q'] = async <T>(sqlText: string, params: unknown[] = []) => {
+    const [rows] = await server.ctx.dbHandle.pool.query(sqlText, params);
+    return rows as T[];
+  };
+  const gatewayKey: TestServer['gatewayKey'] = async (siteId = 1, name = 'gw') => {
+    const res = await call('POST', '/api/v1/gateways', {
+      cookie: await signIn('admin'),
+      body: { siteId, name },
+    });
+    if (res.status !== 201)
+      throw new Error(`creating a gateway answered ${res.status}: ${await res.text()}`);
+    return (await res.json()).apiKey as string;
+  };
+  return { ...server, stop, databaseUrl, call, signIn, q, gatewayKey };
 }

@@ -43,4 +43,6 @@ export const linkTokenSchema = z.string().trim().min(20).max(200);
 
 export const acceptInviteSchema = z.object({ token: linkTokenSchema, password: passwordSchema });
 export const forgotPasswordSchema = z.object({ email });
+/** Always the same answer, whether or not the address has an account. */
+export const forgotPasswordResponseSchema = z.object({ accepted: z.literal(true) });
 export const resetPasswordSchema = z.object({ token: linkTokenSchema, password: passwordSchema });

@@ -499,6 +499,15 @@ export const bandValues = mysqlTable(
   (t) => [
     uniqueIndex('band_values_analysis_band_uq').on(t.analysisId, t.bandKey),
     index('band_values_trend_idx').on(t.pointId, t.bandKey, t.takenAt),
+    // The weekly review's daily means of every band of a point over six weeks: a range of
+    // this index per point, covering, so no row is read (review-repository dailyMeans).
+    index('band_values_point_time_idx').on(
+      t.pointId,
+      t.takenAt,
+      t.bandKey,
+      t.qualityVerdict,
+      t.value,
+    ),
   ],
 );
 

@@ -25,8 +25,8 @@ export interface RouteSchemas {
   body?: z.ZodType;
   /** The JSON body of the success answer. */
   response?: z.ZodType;
-  /** Status of the success answer: 200 unless said (201 for a creation, 204 without a body). */
-  status?: 200 | 201 | 204;
+  /** Status of the success answer: 200 unless said (201 for a creation, 202 accepted, 204 without a body). */
+  status?: 200 | 201 | 202 | 204;
   /** Media type of a success answer that is not JSON (a CSV or WAV download). */
   produces?: string;
 }

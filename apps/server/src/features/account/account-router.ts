@@ -1,5 +1,9 @@
 import type { Request } from 'express';
-import { changePasswordSchema, subscriptionSettingsSchema } from '@turnstone/contracts/account';
+import {
+  changePasswordSchema,
+  subscriptionSettingsResponseSchema,
+  subscriptionSettingsSchema,
+} from '@turnstone/contracts/account';
 import type { AppContext } from '../../lib/context.ts';
 import { attemptLimiter, runLimits } from '../../lib/attempt-limits.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
@@ -32,6 +36,7 @@ export function accountRoutes(ctx: AppContext): RouteSpec[] {
       path: '/account/password',
       access: ALL_ROLES,
       summary: 'change my password',
+      schemas: { body: changePasswordSchema, status: 204 },
       handler: async (req, res) => {
         const user = requireUser(req);
         await runLimits(passwordLimits, req, res);
@@ -51,6 +56,7 @@ export function accountRoutes(ctx: AppContext): RouteSpec[] {
       path: '/account/subscriptions',
       access: ALL_ROLES,
       summary: 'my notification settings',
+      schemas: { response: subscriptionSettingsResponseSchema },
       handler: async (req, res) => res.json(await service.getSubscriptions(ctx, requireUser(req))),
     },
     {
@@ -58,6 +64,7 @@ export function accountRoutes(ctx: AppContext): RouteSpec[] {
       path: '/account/subscriptions',
       access: ALL_ROLES,
       summary: 'change my notification settings',
+      schemas: { body: subscriptionSettingsSchema, response: subscriptionSettingsResponseSchema },
       handler: async (req, res) => {
         const body = subscriptionSettingsSchema.parse(req.body);
         res.json(await service.putSubscriptions(ctx, requireUser(req), body));

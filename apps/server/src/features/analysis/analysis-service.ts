@@ -6,14 +6,7 @@
  */
 import { analyzeSnapshot, decodeSamples, type SnapshotAnalysis } from '@turnstone/dsp';
 import { encodeSpectra } from '@turnstone/db/spectra-codec';
-import {
-  diagnose,
-  diagnosisSeverity,
-  isoZone,
-  type BandDefinition as LimitBand,
-  type DiagnosisComponents,
-  type PointState,
-} from '@turnstone/condition';
+import { isoZone, type BandDefinition as LimitBand } from '@turnstone/condition';
 import type { AppContext } from '../../lib/context.ts';
 import {
   completeJobsIn,
@@ -24,6 +17,7 @@ import {
 import * as repo from './analysis-repository.ts';
 import * as limitSets from '../limits/limit-set-repository.ts';
 import { storedSummaryOf } from './stored-summary.ts';
+import { diagnosisOf } from './diagnosis-step.ts';
 import { combineBandValues, toDspBands } from './band-mapping.ts';
 import { startConditionBatch } from '../condition/condition-step.ts';
 import { templateBandsFor } from '../limits/limits-service.ts';
@@ -356,72 +350,4 @@ export async function runAnalysisJob(
   const { outcomes, failures } = await runAnalysisJobs(ctx, [job], owner);
   if (failures[0]) throw failures[0].error;
   return outcomes[0]!;
-}
-
-/** The machine's parts that make known frequencies, as the diagnosis reads them. */
-function diagnosisComponentsOf(pc: repo.PointContext): DiagnosisComponents {
-  const m = pc.machine;
-  const blades = m.bladeCount ?? m.vaneCount ?? undefined;
-  return {
-    bearings: pc.bearings.map((b) => ({
-      name: b.name,
-      rollingElements: b.rollingElements,
-      ballDiameterMm: b.ballDiameterMm,
-      pitchDiameterMm: b.pitchDiameterMm,
-      contactAngleDeg: b.contactAngleDeg,
-      speedRatio: b.speedRatio,
-    })),
-    gears: pc.gears.map((g) => ({ name: g.name, teeth: g.teeth, speedRatio: g.speedRatio })),
-    ...(blades ? { blades } : {}),
-    // The supply frequency the engineer recorded; none, no electrical hint (and no note).
-    ...(m.lineHz !== null ? { lineHz: m.lineHz } : {}),
-    // The machine's speed is its driver's: the belt frequency is read on the driver sheave.
-    ...(m.belt
-      ? {
-          belts: [
-            {
-              name: 'belt',
-              pulleyDiameterMm: m.belt.driverSheaveMm,
-              lengthMm: m.belt.beltLengthMm,
-            },
-          ],
-        }
-      : {}),
-  };
-}
-
-/**
- * The capture's diagnosis hints as stored with the analysis: the hints count from the point's
- * own levels (`diagnosisSeverity`: its overall velocity alert level in force, or its baseline
- * by a stated margin) as judged before this batch. A machine record the diagnosis refuses (a
- * belt longer than nothing, say) leaves a note instead of failing the capture.
- */
-function diagnosisOf(p: PreparedAnalysis, state: PointState | null): Record<string, unknown> {
-  const severity = diagnosisSeverity(p.limitSet.bands as LimitBand[], state, {
-    isoGroup: p.pc.machine.isoGroup === 1 ? 1 : 2,
-    foundation: p.pc.machine.foundation,
-  });
-  try {
-    const result = diagnose({
-      analysis: p.analysis,
-      direction: p.pc.point.direction,
-      components: diagnosisComponentsOf(p.pc),
-      severityMmS: severity.severityMmS,
-      severitySource: severity.source,
-    });
-    return {
-      hints: result.diagnosis,
-      notes: result.notes,
-      severityMmS: severity.severityMmS,
-      severitySource: severity.source,
-    };
-  } catch (err) {
-    if (!(err instanceof RangeError)) throw err;
-    return {
-      hints: [],
-      notes: [`No diagnosis: ${err.message}.`],
-      severityMmS: severity.severityMmS,
-      severitySource: severity.source,
-    };
-  }
 }

@@ -1,3 +1,4 @@
+import { gatewayKeySchema, gatewayListSchema } from '@turnstone/contracts/gateways';
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './gateways-service.ts';
@@ -10,6 +11,7 @@ export function gatewayRoutes(ctx: AppContext): RouteSpec[] {
       path: '/gateways',
       access: ['admin'],
       summary: 'list gateways',
+      schemas: { response: gatewayListSchema },
       handler: async (req, res) => res.json(await service.listGateways(ctx.db, requireUser(req))),
     },
     {
@@ -17,6 +19,7 @@ export function gatewayRoutes(ctx: AppContext): RouteSpec[] {
       path: '/gateways',
       access: ['admin'],
       summary: 'create a gateway',
+      schemas: { body: service.createGatewaySchema, response: gatewayKeySchema, status: 201 },
       handler: async (req, res) => {
         const body = service.createGatewaySchema.parse(req.body);
         res.status(201).json(await service.createGateway(ctx.db, requireUser(req), body));
@@ -27,6 +30,7 @@ export function gatewayRoutes(ctx: AppContext): RouteSpec[] {
       path: '/gateways/:id/revoke',
       access: ['admin'],
       summary: 'revoke a gateway key',
+      schemas: { params: idParam },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         res.json(await service.revokeGateway(ctx.db, requireUser(req), id));
@@ -37,6 +41,7 @@ export function gatewayRoutes(ctx: AppContext): RouteSpec[] {
       path: '/gateways/:id/rotate',
       access: ['admin'],
       summary: 'rotate a gateway key',
+      schemas: { params: idParam, response: gatewayKeySchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         res.json(await service.rotateGatewayKey(ctx.db, requireUser(req), id));

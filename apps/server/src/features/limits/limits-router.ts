@@ -34,6 +34,7 @@ export function limitRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id/limits',
       access: ALL_ROLES,
       summary: "a point's limit set",
+      schemas: { params: idParam, response: limitSetResponseSchema },
       handler: async (req, res) =>
         res.json(limitSetResponseSchema.parse(await service.getLimitSet(ctx, await point(req)))),
     },
@@ -42,6 +43,11 @@ export function limitRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id/limits',
       access: ['engineer'],
       summary: "save a point's limit set (audited)",
+      schemas: {
+        params: idParam,
+        body: saveLimitSetRequestSchema,
+        response: saveLimitSetResponseSchema,
+      },
       handler: async (req, res) => {
         const p = await point(req);
         const body = saveLimitSetRequestSchema.parse(req.body);
@@ -60,6 +66,7 @@ export function limitRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id/limits/replay',
       access: ['engineer'],
       summary: 'replay proposed limits over the stored history',
+      schemas: { params: idParam, body: replayRequestSchema, response: replayResponseSchema },
       handler: async (req, res) => {
         const p = await point(req);
         const body = replayRequestSchema.parse(req.body);
@@ -71,6 +78,7 @@ export function limitRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id/limits/iso-defaults',
       access: ['engineer'],
       summary: 'ISO 20816-3 default levels for the machine',
+      schemas: { params: idParam, response: isoDefaultsResponseSchema },
       handler: async (req, res) =>
         res.json(isoDefaultsResponseSchema.parse(service.isoDefaults(await point(req)))),
     },
@@ -79,6 +87,7 @@ export function limitRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id/limits/suggest',
       access: ['engineer'],
       summary: 'levels from the baseline of a band',
+      schemas: { params: idParam, query: suggestQuerySchema, response: suggestResponseSchema },
       handler: async (req, res) => {
         const p = await point(req);
         const q = parseQuery(suggestQuerySchema, req.query);
@@ -90,6 +99,7 @@ export function limitRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id/limits/history',
       access: ALL_ROLES,
       summary: "audit entries of a point's limits",
+      schemas: { params: idParam, response: limitHistoryResponseSchema },
       handler: async (req, res) => {
         const p = await point(req);
         res.json(limitHistoryResponseSchema.parse(await service.history(ctx, p.point.id)));
@@ -100,6 +110,7 @@ export function limitRoutes(ctx: AppContext): RouteSpec[] {
       path: '/limit-templates/:machineType',
       access: ['engineer'],
       summary: 'a machine-type limit template',
+      schemas: { params: typeParam, response: limitTemplateResponseSchema },
       handler: async (req, res) => {
         const { machineType } = typeParam.parse(req.params);
         res.json(limitTemplateResponseSchema.parse(await service.getTemplate(ctx, machineType)));
@@ -110,6 +121,11 @@ export function limitRoutes(ctx: AppContext): RouteSpec[] {
       path: '/limit-templates/:machineType',
       access: ['engineer'],
       summary: 'save a machine-type limit template (audited)',
+      schemas: {
+        params: typeParam,
+        body: saveLimitTemplateRequestSchema,
+        response: limitTemplateResponseSchema,
+      },
       handler: async (req, res) => {
         const { machineType } = typeParam.parse(req.params);
         const body = saveLimitTemplateRequestSchema.parse(req.body);

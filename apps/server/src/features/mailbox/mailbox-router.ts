@@ -1,3 +1,8 @@
+import {
+  mailboxListSchema,
+  mailboxMessageSchema,
+  undeliveredMailListSchema,
+} from '@turnstone/contracts/mail';
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './mailbox-service.ts';
@@ -10,6 +15,7 @@ export function mailboxRoutes(ctx: AppContext): RouteSpec[] {
       path: '/mailbox',
       access: ['admin'],
       summary: 'list received mail',
+      schemas: { response: mailboxListSchema },
       handler: async (_req, res) => res.json(await service.listMailbox(ctx.db)),
     },
     {
@@ -17,6 +23,7 @@ export function mailboxRoutes(ctx: AppContext): RouteSpec[] {
       path: '/mailbox/:id',
       access: ['admin'],
       summary: 'read one received message',
+      schemas: { params: idParam, response: mailboxMessageSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         res.json(await service.readMessage(ctx.db, id, requireUser(req)));
@@ -27,6 +34,7 @@ export function mailboxRoutes(ctx: AppContext): RouteSpec[] {
       path: '/mail/undelivered',
       access: ['admin'],
       summary: 'outgoing mail not delivered (retrying, failed, uncertain)',
+      schemas: { response: undeliveredMailListSchema },
       handler: async (_req, res) => res.json(await service.listUndeliveredMail(ctx.db)),
     },
     {
@@ -34,6 +42,7 @@ export function mailboxRoutes(ctx: AppContext): RouteSpec[] {
       path: '/mail/undelivered/:id/resend',
       access: ['admin'],
       summary: 'send a failed or uncertain message again',
+      schemas: { params: idParam, status: 204 },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         await service.resendMail(ctx.db, req.user!, id);

@@ -4,7 +4,7 @@
  * the raw snapshot, the waterfall, the band trend with levels and projection, and downloads.
  * Services take the signed-in user and check per-site access; they never see req/res.
  */
-import { faultFrequencies, type MachineComponents } from '@turnstone/dsp';
+import { faultFrequencies } from '@turnstone/dsp';
 
 import { levelsInForce } from '@turnstone/condition';
 import type {
@@ -28,6 +28,7 @@ import { loadLimitSet } from '../limits/limit-set-repository.ts';
 import { pointStatus, QUALITY_MARK_MS, worst } from '../fleet/fleet-service.ts';
 import * as repo from './points-repository.ts';
 import { readStoredSummary } from '../analysis/stored-summary.ts';
+import { machineComponentsOf } from '../analysis/diagnosis-step.ts';
 
 /** Default trend period when none is given (the trend contract says 90 days). */
 export const DEFAULT_TREND_DAYS = 90;
@@ -71,25 +72,6 @@ export async function currentDiagnosis(db: Db, pointId: number): Promise<Current
   return row
     ? { analysisId: row.id, takenAt: iso(row.takenAt), diagnosis: row.diagnosis as Diagnosis }
     : null;
-}
-
-function componentsOf(
-  machine: { bladeCount: number | null; vaneCount: number | null },
-  c: Awaited<ReturnType<typeof repo.machineComponents>>,
-): MachineComponents {
-  const blades = machine.bladeCount ?? machine.vaneCount ?? undefined;
-  return {
-    bearings: c.bearings.map((b) => ({
-      name: b.name,
-      rollingElements: b.rollingElements,
-      ballDiameterMm: b.ballDiameterMm,
-      pitchDiameterMm: b.pitchDiameterMm,
-      contactAngleDeg: b.contactAngleDeg,
-      speedRatio: b.speedRatio,
-    })),
-    gears: c.gears.map((g) => ({ name: g.name, teeth: g.teeth, speedRatio: g.speedRatio })),
-    ...(blades ? { blades } : {}),
-  };
 }
 
 async function statusesOf(
@@ -187,7 +169,7 @@ export async function machineDetail(
       speedRatio: g.speedRatio,
     })),
     faultFrequencies: faultFrequencies(
-      componentsOf(machine, components),
+      machineComponentsOf(machine, components),
       machine.nominalRpm > 0 ? machine.nominalRpm / 60 : null,
     ),
     points: pointsOut,

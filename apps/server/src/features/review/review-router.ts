@@ -1,4 +1,4 @@
-import { reviewQuerySchema } from '@turnstone/contracts/review';
+import { reviewQuerySchema, reviewSchema } from '@turnstone/contracts/review';
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import { reviewCsv } from './review-csv.ts';
@@ -15,6 +15,7 @@ export function reviewRoutes(ctx: AppContext): RouteSpec[] {
       path: '/review',
       access: READERS,
       summary: 'weekly review: movers, forecasts, open alerts, quality notices, findings due',
+      schemas: { query: reviewQuerySchema, response: reviewSchema },
       handler: async (req, res) => {
         const q = parseQuery(reviewQuerySchema, req.query);
         res.setHeader('Cache-Control', 'no-store');
@@ -26,6 +27,7 @@ export function reviewRoutes(ctx: AppContext): RouteSpec[] {
       path: '/review.csv',
       access: READERS,
       summary: 'weekly review as CSV',
+      schemas: { query: reviewQuerySchema, produces: 'text/csv' },
       handler: async (req, res) => {
         const q = parseQuery(reviewQuerySchema, req.query);
         const review = await buildWeeklyReview(ctx, requireUser(req), q);

@@ -1,4 +1,5 @@
 import { and, count, eq, inArray, ne } from 'drizzle-orm';
+import type { MySqlTable } from 'drizzle-orm/mysql-core';
 import type { Db, Tx } from '@turnstone/db/client';
 import {
   alerts,
@@ -145,4 +146,40 @@ export async function deletePoints(tx: Tx, pointIds: number[]) {
   if (pointIds.length === 0) return;
   await tx.delete(limitSets).where(inArray(limitSets.pointId, pointIds));
   await tx.delete(points).where(inArray(points.id, pointIds));
+}
+
+// ---------------------------------------------------------------- writes of the tree
+
+/** The tables of the machine tree, each with an auto-increment `id`. */
+type TreeTable =
+  typeof sites | typeof areas | typeof machines | typeof points | typeof bearings | typeof gears;
+
+/** Inserts one row of the tree and returns its id. */
+export async function insertRow<T extends TreeTable>(
+  tx: Tx,
+  table: T,
+  values: T['$inferInsert'],
+): Promise<number> {
+  // Drizzle cannot check a value against a union of tables; the signature above does.
+  const [row] = await tx
+    .insert(table as MySqlTable)
+    .values(values as never)
+    .$returningId();
+  return (row as { id: number }).id;
+}
+
+export async function updateRow<T extends TreeTable>(
+  tx: Tx,
+  table: T,
+  id: number,
+  set: Partial<T['$inferInsert']>,
+): Promise<void> {
+  await tx
+    .update(table)
+    .set(set as never)
+    .where(eq(table.id, id));
+}
+
+export async function deleteRow(tx: Tx, table: TreeTable, id: number): Promise<void> {
+  await tx.delete(table).where(eq(table.id, id));
 }

@@ -3,11 +3,13 @@ import {
   areaUpdateSchema,
   machineInputSchema,
   pointInputSchema,
+  setupTreeSchema,
   siteInputSchema,
 } from '@turnstone/contracts/setup';
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './setup-service.ts';
+import * as points from './setup-points-service.ts';
 import { idParam } from '../../lib/route-params.ts';
 
 const ADMIN = ['admin'] as const;
@@ -21,6 +23,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/setup',
       access: BUILDERS,
       summary: 'plant setup tree with components',
+      schemas: { response: setupTreeSchema },
       handler: async (req, res) => res.json(await service.setupTree(db, requireUser(req))),
     },
     {
@@ -28,6 +31,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/sites',
       access: ADMIN,
       summary: 'create a site',
+      schemas: { body: siteInputSchema, status: 201 },
       handler: async (req, res) => {
         const body = siteInputSchema.parse(req.body);
         res.status(201).json(await service.createSite(db, requireUser(req), body));
@@ -38,6 +42,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/sites/:id',
       access: ADMIN,
       summary: 'update a site',
+      schemas: { params: idParam, body: siteInputSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = siteInputSchema.parse(req.body);
@@ -49,6 +54,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/areas',
       access: ADMIN,
       summary: 'create an area',
+      schemas: { body: areaInputSchema, status: 201 },
       handler: async (req, res) => {
         const body = areaInputSchema.parse(req.body);
         res.status(201).json(await service.createArea(db, requireUser(req), body));
@@ -59,6 +65,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/areas/:id',
       access: ADMIN,
       summary: 'rename an area',
+      schemas: { params: idParam, body: areaUpdateSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = areaUpdateSchema.parse(req.body);
@@ -70,6 +77,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/machines',
       access: BUILDERS,
       summary: 'create a machine with its components',
+      schemas: { body: machineInputSchema, status: 201 },
       handler: async (req, res) => {
         const body = machineInputSchema.parse(req.body);
         res.status(201).json(await service.createMachine(db, requireUser(req), body));
@@ -80,6 +88,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/machines/:id',
       access: BUILDERS,
       summary: 'update a machine and replace its components',
+      schemas: { params: idParam, body: machineInputSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = machineInputSchema.parse(req.body);
@@ -91,6 +100,7 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/machines/:id',
       access: BUILDERS,
       summary: 'delete a machine without data',
+      schemas: { params: idParam, status: 204 },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         await service.deleteMachine(db, requireUser(req), id);
@@ -102,9 +112,10 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points',
       access: BUILDERS,
       summary: 'create a measurement point',
+      schemas: { body: pointInputSchema, status: 201 },
       handler: async (req, res) => {
         const body = pointInputSchema.parse(req.body);
-        res.status(201).json(await service.createPoint(db, requireUser(req), body));
+        res.status(201).json(await points.createPoint(db, requireUser(req), body));
       },
     },
     {
@@ -112,10 +123,11 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id',
       access: BUILDERS,
       summary: 'update a measurement point',
+      schemas: { params: idParam, body: pointInputSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = pointInputSchema.parse(req.body);
-        res.json(await service.updatePoint(db, requireUser(req), id, body));
+        res.json(await points.updatePoint(db, requireUser(req), id, body));
       },
     },
     {
@@ -123,9 +135,10 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id',
       access: BUILDERS,
       summary: 'delete a point without data',
+      schemas: { params: idParam, status: 204 },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        await service.deletePoint(db, requireUser(req), id);
+        await points.deletePoint(db, requireUser(req), id);
         res.status(204).end();
       },
     },

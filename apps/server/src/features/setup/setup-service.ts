@@ -5,15 +5,14 @@
  */
 import type { Tx } from '@turnstone/db/client';
 import { isDuplicateKey } from '@turnstone/db/errors';
-import { eq } from 'drizzle-orm';
+
 import type { Db } from '@turnstone/db/client';
-import { areas, bearings, gears, machines, points, sites } from '@turnstone/db/schema';
+import { areas, bearings, gears, machines, sites } from '@turnstone/db/schema';
 import type {
   AreaInput,
   BearingInput,
   GearInput,
   MachineInput,
-  PointInput,
   SetupTree,
   SiteInput,
 } from '@turnstone/contracts/setup';
@@ -23,13 +22,13 @@ import { writeAudit } from '../audit/audit-repository.ts';
 import { forgetPointTags } from '../ingest/ingest-service.ts';
 import * as repo from './setup-repository.ts';
 
-const conflict = (path: string, message: string) =>
+export const conflict = (path: string, message: string) =>
   new AppError('conflict', message, 409, [{ path, message }]);
-const invalid = (path: string, message: string) =>
+export const invalid = (path: string, message: string) =>
   new AppError('validation_failed', `Invalid request: ${path}: ${message}`, 400, [
     { path, message },
   ]);
-const siteForbidden = () => forbidden('This belongs to a site you are not assigned to.');
+export const siteForbidden = () => forbidden('This belongs to a site you are not assigned to.');
 
 export async function setupTree(db: Db, user: SessionUser): Promise<SetupTree> {
   const siteRows = await repo.listSites(db, user.siteIds);
@@ -93,7 +92,7 @@ export async function createSite(db: Db, user: SessionUser, input: SiteInput) {
     throw conflict('code', `A site with code ${input.code} already exists.`);
   try {
     return await db.transaction(async (tx) => {
-      const [row] = await tx.insert(sites).values(input).$returningId();
+      const row = { id: await repo.insertRow(tx, sites, input) };
       await writeAudit(tx, {
         actorUserId: user.id,
         action: 'site.create',
@@ -116,7 +115,7 @@ export async function updateSite(db: Db, user: SessionUser, id: number, input: S
   if (await repo.siteByCode(db, input.code, id))
     throw conflict('code', `A site with code ${input.code} already exists.`);
   await db.transaction(async (tx) => {
-    await tx.update(sites).set(input).where(eq(sites.id, id));
+    await repo.updateRow(tx, sites, id, input);
     await writeAudit(tx, {
       actorUserId: user.id,
       action: 'site.update',
@@ -135,7 +134,7 @@ export async function createArea(db: Db, user: SessionUser, input: AreaInput) {
   if (await repo.areaByName(db, input.siteId, input.name))
     throw conflict('name', `This site already has an area named "${input.name}".`);
   return db.transaction(async (tx) => {
-    const [row] = await tx.insert(areas).values(input).$returningId();
+    const row = { id: await repo.insertRow(tx, areas, input) };
     await writeAudit(tx, {
       actorUserId: user.id,
       action: 'area.create',
@@ -153,7 +152,7 @@ export async function updateArea(db: Db, user: SessionUser, id: number, input: {
   if (await repo.areaByName(db, before.siteId, input.name, id))
     throw conflict('name', `This site already has an area named "${input.name}".`);
   await db.transaction(async (tx) => {
-    await tx.update(areas).set({ name: input.name }).where(eq(areas.id, id));
+    await repo.updateRow(tx, areas, id, { name: input.name });
     await writeAudit(tx, {
       actorUserId: user.id,
       action: 'area.update',
@@ -236,16 +235,15 @@ async function replaceComponents(tx: Tx, machineId: number, input: MachineInput)
   });
   const keepB = new Set(input.bearings.flatMap((b) => (b.id ? [b.id] : [])));
   const keepG = new Set(input.gears.flatMap((g) => (g.id ? [g.id] : [])));
-  for (const b of oldBearings)
-    if (!keepB.has(b.id)) await tx.delete(bearings).where(eq(bearings.id, b.id));
-  for (const g of oldGears) if (!keepG.has(g.id)) await tx.delete(gears).where(eq(gears.id, g.id));
+  for (const b of oldBearings) if (!keepB.has(b.id)) await repo.deleteRow(tx, bearings, b.id);
+  for (const g of oldGears) if (!keepG.has(g.id)) await repo.deleteRow(tx, gears, g.id);
   for (const b of input.bearings) {
-    if (b.id) await tx.update(bearings).set(bearingColumns(b)).where(eq(bearings.id, b.id));
-    else await tx.insert(bearings).values({ machineId, ...bearingColumns(b) });
+    if (b.id) await repo.updateRow(tx, bearings, b.id, bearingColumns(b));
+    else await repo.insertRow(tx, bearings, { machineId, ...bearingColumns(b) });
   }
   for (const g of input.gears) {
-    if (g.id) await tx.update(gears).set(gearColumns(g)).where(eq(gears.id, g.id));
-    else await tx.insert(gears).values({ machineId, ...gearColumns(g) });
+    if (g.id) await repo.updateRow(tx, gears, g.id, gearColumns(g));
+    else await repo.insertRow(tx, gears, { machineId, ...gearColumns(g) });
   }
   return { before: { bearings: oldBearings, gears: oldGears } };
 }
@@ -255,7 +253,7 @@ export async function createMachine(db: Db, user: SessionUser, input: MachineInp
   if (await repo.machineByName(db, input.areaId, input.name))
     throw conflict('name', `This area already has a machine named "${input.name}".`);
   const id = await db.transaction(async (tx) => {
-    const [row] = await tx.insert(machines).values(machineColumns(input)).$returningId();
+    const row = { id: await repo.insertRow(tx, machines, machineColumns(input)) };
     await replaceComponents(tx, row!.id, input);
     await writeAudit(tx, {
       actorUserId: user.id,
@@ -291,7 +289,7 @@ export async function updateMachine(db: Db, user: SessionUser, id: number, input
   const movesSite = area.siteId !== fromSiteId;
   if (movesSite) await checkTagsFreeAt(db, id, area.siteId);
   await db.transaction(async (tx) => {
-    await tx.update(machines).set(machineColumns(input)).where(eq(machines.id, id));
+    await repo.updateRow(tx, machines, id, machineColumns(input));
     if (movesSite) {
       // A point tagged in between: the unique index refuses it; answer as above.
       try {
@@ -315,7 +313,7 @@ export async function updateMachine(db: Db, user: SessionUser, id: number, input
   return { id };
 }
 
-const keepData = (what: string) =>
+export const keepData = (what: string) =>
   new AppError(
     'has_data',
     `This ${what} has recorded data (snapshots, analyses, alerts or findings), so it cannot be deleted. Rename it instead, e.g. add "(retired)".`,
@@ -341,7 +339,7 @@ export async function deleteMachine(db: Db, user: SessionUser, id: number) {
       tx,
       pts.map((p) => p.id),
     );
-    await tx.delete(machines).where(eq(machines.id, id));
+    await repo.deleteRow(tx, machines, id);
     await writeAudit(tx, {
       actorUserId: user.id,
       action: 'machine.delete',
@@ -349,117 +347,6 @@ export async function deleteMachine(db: Db, user: SessionUser, id: number) {
       entityId: id,
       siteId: found.siteId,
       before: { ...before, points: pts.map((p) => p.tag) },
-    });
-  });
-  forgetPointTags();
-}
-
-// ---------------------------------------------------------------- points
-
-/** Checks a point's input; answers the site of its machine, which the point takes (siteId). */
-async function checkPointInput(
-  db: Db,
-  user: SessionUser,
-  input: PointInput,
-  exceptId = 0,
-): Promise<number> {
-  const m = await repo.machineById(db, input.machineId);
-  if (!m) throw invalid('machineId', 'That machine does not exist.');
-  if (!canSeeSite(user, m.siteId)) throw siteForbidden();
-  if (input.bearingId !== null) {
-    const own = await repo.bearingsOf(db, input.machineId);
-    if (!own.some((b) => b.id === input.bearingId))
-      throw invalid('bearingId', 'Choose a bearing of this machine.');
-  }
-  // Tags are unique per site: another site's tags are neither checked nor revealed.
-  if (await repo.pointByTag(db, m.siteId, input.tag, exceptId)) throw tagTaken(input.tag);
-  return m.siteId;
-}
-
-const tagTaken = (tag: string) =>
-  conflict('tag', `Tag ${tag} is already used by another point of this site.`);
-
-const pointColumns = (input: PointInput) => ({
-  machineId: input.machineId,
-  tag: input.tag,
-  name: input.name,
-  location: input.location,
-  direction: input.direction,
-  sensitivityMvPerG: input.sensitivityMvPerG,
-  bearingId: input.bearingId,
-  fmaxHz: input.fmaxHz,
-  lines: input.lines,
-  envelopeLoHz: input.envelopeLoHz ?? null,
-  envelopeHiHz: input.envelopeHiHz ?? null,
-});
-
-export async function createPoint(db: Db, user: SessionUser, input: PointInput) {
-  const siteId = await checkPointInput(db, user, input);
-  try {
-    const created = await db.transaction(async (tx) => {
-      const [row] = await tx
-        .insert(points)
-        .values({ ...pointColumns(input), siteId })
-        .$returningId();
-      await writeAudit(tx, {
-        actorUserId: user.id,
-        action: 'point.create',
-        entity: 'point',
-        entityId: row!.id,
-        after: input,
-      });
-      return { id: row!.id };
-    });
-    forgetPointTags();
-    return created;
-  } catch (err) {
-    if (isDuplicateKey(err)) throw tagTaken(input.tag);
-    throw err;
-  }
-}
-
-export async function updatePoint(db: Db, user: SessionUser, id: number, input: PointInput) {
-  const row = await repo.pointById(db, id);
-  if (!row) throw notFound('Point');
-  if (!canSeeSite(user, row.siteId)) throw siteForbidden();
-  const siteId = await checkPointInput(db, user, input, id);
-  try {
-    await db.transaction(async (tx) => {
-      await tx
-        .update(points)
-        .set({ ...pointColumns(input), siteId })
-        .where(eq(points.id, id));
-      await writeAudit(tx, {
-        actorUserId: user.id,
-        action: 'point.update',
-        entity: 'point',
-        entityId: id,
-        before: pointColumns({ ...row.point, bearingId: row.point.bearingId }),
-        after: input,
-      });
-    });
-    forgetPointTags();
-  } catch (err) {
-    if (isDuplicateKey(err)) throw tagTaken(input.tag);
-    throw err;
-  }
-  return { id };
-}
-
-export async function deletePoint(db: Db, user: SessionUser, id: number) {
-  const row = await repo.pointById(db, id);
-  if (!row) throw notFound('Point');
-  if (!canSeeSite(user, row.siteId)) throw siteForbidden();
-  await db.transaction(async (tx) => {
-    if ((await repo.dataCount(tx, [id])) > 0) throw keepData('point');
-    await repo.deletePoints(tx, [id]);
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'point.delete',
-      entity: 'point',
-      entityId: id,
-      siteId: row.siteId,
-      before: pointColumns(row.point),
     });
   });
   forgetPointTags();

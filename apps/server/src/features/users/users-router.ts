@@ -1,9 +1,11 @@
 import {
   acceptInviteSchema,
+  forgotPasswordResponseSchema,
   forgotPasswordSchema,
   inviteUserSchema,
   resetPasswordSchema,
   updateUserSchema,
+  userListSchema,
 } from '@turnstone/contracts/users';
 import type { AppContext } from '../../lib/context.ts';
 import { attemptLimiter, clientKey, runLimits } from '../../lib/attempt-limits.ts';
@@ -19,6 +21,7 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
       path: '/users',
       access: ['admin'],
       summary: 'list users',
+      schemas: { response: userListSchema },
       handler: async (_req, res) => res.json(await service.listUsers(ctx.db)),
     },
     {
@@ -26,6 +29,7 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
       path: '/users/invite',
       access: ['admin'],
       summary: 'invite a user',
+      schemas: { body: inviteUserSchema, status: 201 },
       handler: async (req, res) => {
         const body = inviteUserSchema.parse(req.body);
         res.status(201).json(await service.inviteUser(ctx, requireUser(req), body));
@@ -36,6 +40,7 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
       path: '/users/:id',
       access: ['admin'],
       summary: 'change a user',
+      schemas: { params: idParam, body: updateUserSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = updateUserSchema.parse(req.body);
@@ -47,6 +52,7 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
       path: '/users/:id/disable',
       access: ['admin'],
       summary: 'disable a user',
+      schemas: { params: idParam },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         res.json(await service.setDisabled(ctx, requireUser(req), id, true));
@@ -57,6 +63,7 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
       path: '/users/:id/enable',
       access: ['admin'],
       summary: 'enable a user',
+      schemas: { params: idParam },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         res.json(await service.setDisabled(ctx, requireUser(req), id, false));
@@ -120,6 +127,7 @@ export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
       path: '/auth/accept-invite',
       access: 'public',
       summary: 'accept an invite',
+      schemas: { body: acceptInviteSchema, status: 204 },
       handler: async (req, res) => {
         await runLimits(limitLinks, req, res);
         const body = acceptInviteSchema.parse(req.body);
@@ -132,6 +140,7 @@ export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
       path: '/auth/forgot-password',
       access: 'public',
       summary: 'ask for a reset link',
+      schemas: { body: forgotPasswordSchema, response: forgotPasswordResponseSchema, status: 202 },
       handler: async (req, res) => {
         const { email } = forgotPasswordSchema.parse(req.body);
         await runLimits(limitResets, req, res);
@@ -141,7 +150,7 @@ export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
             .requestPasswordReset(ctx, email)
             .catch((err: unknown) => ctx.log.error('password reset mail failed', { err }));
         });
-        res.status(202).json({ accepted: true });
+        res.status(202).json(forgotPasswordResponseSchema.parse({ accepted: true }));
       },
     },
     {
@@ -149,6 +158,7 @@ export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
       path: '/auth/reset-password',
       access: 'public',
       summary: 'set a new password from a reset link',
+      schemas: { body: resetPasswordSchema, status: 204 },
       handler: async (req, res) => {
         await runLimits(limitLinks, req, res);
         const body = resetPasswordSchema.parse(req.body);

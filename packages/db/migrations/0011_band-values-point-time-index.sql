@@ -1,0 +1,1 @@
+CREATE INDEX `band_values_point_time_idx` ON `band_values` (`point_id`,`taken_at`,`band_key`,`quality_verdict`,`value`);
