@@ -193,6 +193,8 @@ describe('the /api/v1 OpenAPI document', () => {
       'siteId',
       'pointId',
       'limit',
+      'since',
+      'cursor',
     ]);
     expect(list.parameters.find((p: { name: string }) => p.name === 'limit').schema).toMatchObject({
       type: 'integer',

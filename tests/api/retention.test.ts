@@ -97,6 +97,25 @@ describe('retention policy', () => {
   });
 });
 
+describe('the policy for the administrator', () => {
+  it('GET /retention shows the policy in force to administrators only', async () => {
+    const res = await srv.call('GET', '/api/v1/retention', { cookie });
+    expect(res.status).toBe(200);
+    // The test server runs on the defaults (common practice, no source).
+    expect(await res.json()).toEqual({
+      rawSamplesDays: 90,
+      spectraWholeDays: 14,
+      spectraHourlyDays: 90,
+      keepWindowMinutes: 60,
+      batchSize: 500,
+      batchPauseMs: 200,
+      schedule: '45 2 * * *',
+    });
+    const engineer = await srv.signIn('engineer');
+    expect((await srv.call('GET', '/api/v1/retention', { cookie: engineer })).status).toBe(403);
+  });
+});
+
 describe('bounded batches', () => {
   it('a thinning pass with batch size 2 over 5 candidates takes 3 batches', async () => {
     // Six captures of one point on one day 200 days back: the first stays, five are thinned.

@@ -7,12 +7,24 @@
  *
  * Reference measured in the same run: the bytes the spectra of those same analyses take as
  * float64 (8 bytes a line, summed over the four spectra the worker produced). Issue 18's
- * plant-year target is ≤ 2 kB per capture amortised (after retention thinning, which this
- * bench does not run). BENCH_STORAGE_COUNT (3000) captures.
+ * plant-year target is ≤ 2 kB per capture amortised after retention thinning.
+ *
+ * Then the tiered retention pass (apps/server/src/features/worker/retention.ts, default
+ * policy) runs over the same captures at simulated ages — all in the hourly tier, then all
+ * in the daily tier, then raw waveforms past RETENTION_DAYS — with OPTIMIZE TABLE before each
+ * measurement (InnoDB reuses freed pages but does not return them on its own), and the
+ * plant-year amortised bytes per capture are worked out from the measured whole and thinned
+ * row sizes for the captures' cadence. BENCH_STORAGE_COUNT (3000) captures.
  */
 import { simulateSnapshot, toIngestItem } from '../../apps/gateway-sim/src/simulated-snapshot.ts';
 import { demoChannels } from '../../apps/gateway-sim/src/plant-channels.ts';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import {
+  expireRawSamplesPass,
+  retentionPolicy,
+  thinSpectra,
+} from '../../apps/server/src/features/worker/retention.ts';
+import { loadConfig } from '../../apps/server/src/config.ts';
 import { createGatewayKey, signInCookie, startBenchServer } from './bench-support.ts';
 
 const COUNT = Number(process.env.BENCH_STORAGE_COUNT ?? 3000);
@@ -149,6 +161,115 @@ try {
     `analyses long columns, mean stored bytes: ${longColumns
       .map((c) => `${c.name} ${Number(avg![c.name] ?? 0).toFixed(0)}`)
       .join(', ')}`,
+  );
+
+  // ---- tiered retention over these captures at simulated ages
+  const policy = retentionPolicy(loadConfig({}));
+  const [span] = await q<[{ first: Date; last: Date }]>(
+    `SELECT MIN(taken_at) AS first, MAX(taken_at) AS last FROM analyses
+      WHERE id > (SELECT COALESCE(MAX(id), 0) FROM analyses) - ?`,
+    [captures],
+  );
+  const perHour =
+    captures /
+    channels.length /
+    Math.max(1, (span.last.getTime() - span.first.getTime()) / 3_600_000);
+  const optimized = async () => {
+    await q(`OPTIMIZE TABLE ${TABLES.join(', ')}`);
+    return sizes();
+  };
+  const delta = (s: Record<string, TableSize>, t: string) =>
+    (s[t]!.dataIndex - before[t]!.dataIndex) / captures;
+  const kept = async () =>
+    Number(
+      (
+        await q<{ n: number }[]>(
+          `SELECT COUNT(*) AS n FROM analyses WHERE spectra_thinned_at IS NULL
+             AND id > (SELECT COALESCE(MAX(id), 0) FROM analyses) - ?`,
+          [captures],
+        )
+      )[0]!.n,
+    );
+  const DAY = 86_400_000;
+  const stages: { name: string; s: Record<string, TableSize>; kept: number; seconds: number }[] =
+    [];
+  stages.push({
+    name: 'whole (after OPTIMIZE)',
+    s: await optimized(),
+    kept: await kept(),
+    seconds: 0,
+  });
+  const opts = { batchSize: policy.batchSize, batchPauseMs: 0 };
+  let t2 = performance.now();
+  await thinSpectra(srv.ctx.db, policy, new Date(span.last.getTime() + 30 * DAY), opts);
+  let secs = (performance.now() - t2) / 1000;
+  stages.push({
+    name: 'aged 30 d (hourly tier)',
+    s: await optimized(),
+    kept: await kept(),
+    seconds: secs,
+  });
+  t2 = performance.now();
+  await thinSpectra(srv.ctx.db, policy, new Date(span.last.getTime() + 200 * DAY), opts);
+  secs = (performance.now() - t2) / 1000;
+  stages.push({
+    name: 'aged 200 d (daily tier)',
+    s: await optimized(),
+    kept: await kept(),
+    seconds: secs,
+  });
+  t2 = performance.now();
+  await expireRawSamplesPass(
+    srv.ctx.db,
+    policy.rawSamplesDays,
+    new Date(Date.now() + 100 * DAY),
+    opts,
+  );
+  secs = (performance.now() - t2) / 1000;
+  stages.push({
+    name: '+ raw waveforms expired',
+    s: await optimized(),
+    kept: await kept(),
+    seconds: secs,
+  });
+
+  console.log(
+    `\nTiered retention over the same captures (${perHour.toFixed(1)} captures per point per hour)`,
+  );
+  console.log(
+    '| stage | whole spectra kept | pass s | analyses B/capture | snapshots B/capture | band_values B/capture | total B/capture |',
+  );
+  console.log('|---|---|---|---|---|---|---|');
+  for (const st of stages)
+    console.log(
+      `| ${st.name} | ${st.kept} | ${st.seconds.toFixed(2)} | ${delta(st.s, 'analyses').toFixed(0)} | ${delta(st.s, 'snapshots').toFixed(0)} | ${delta(st.s, 'band_values').toFixed(0)} | ${TABLES.reduce((a, t) => a + delta(st.s, t), 0).toFixed(0)} |`,
+    );
+  // Whole and thinned analyses row bytes, solved from the whole stage and the daily stage.
+  const whole = delta(stages[0]!.s, 'analyses');
+  const daily = stages[2]!;
+  const thinnedRow =
+    daily.kept < captures
+      ? (delta(daily.s, 'analyses') * captures - daily.kept * whole) / (captures - daily.kept)
+      : whole;
+  const rawPart = delta(stages[2]!.s, 'snapshots') - delta(stages[3]!.s, 'snapshots');
+  // A plant-year at this cadence under the default policy (protected captures not counted):
+  // the share of captures that keep their spectra, and raw waveforms kept 90 of 365 days.
+  const wholeShare =
+    (policy.spectraWholeDays +
+      (policy.spectraHourlyDays - policy.spectraWholeDays) / Math.max(1, perHour) +
+      (365 - policy.spectraHourlyDays) / Math.max(1, 24 * perHour)) /
+    365;
+  const year =
+    thinnedRow +
+    wholeShare * (whole - thinnedRow) +
+    delta(stages[3]!.s, 'snapshots') +
+    (rawPart * policy.rawSamplesDays) / 365 +
+    delta(stages[3]!.s, 'band_values');
+  console.log(
+    `analyses row: whole ${whole.toFixed(0)} B, thinned ${thinnedRow.toFixed(0)} B; share keeping spectra over a year ${(wholeShare * 100).toFixed(1)} %; raw waveform ${rawPart.toFixed(0)} B while kept`,
+  );
+  console.log(
+    `plant-year amortised at this cadence: ${year.toFixed(0)} B/capture (target ≤ 2048; before retention ${total('dataIndex').toFixed(0)})`,
   );
 } finally {
   await bench.stop();

@@ -73,4 +73,18 @@ describe('a thinned capture on the point page', () => {
     await screenshot(page, 'retention-nearest-spectrum');
     await page.context().close();
   });
+
+  it('the administrator reads the retention policy on the gateways screen', async () => {
+    const page = await newPage(browser, 1366, 900);
+    await signInAs(page, srv.url, 'admin');
+    await page.goto(`${srv.url}/gateways`);
+    const table = page.getByRole('table', { name: 'Retention policy' });
+    await table.waitFor();
+    await table.getByText('under 14 days').waitFor();
+    await table.getByText('the first capture of each point in each hour (UTC)').waitFor();
+    await page.getByText('kept 90 days after they arrive').waitFor();
+    await page.getByRole('heading', { name: 'Data retention' }).scrollIntoViewIfNeeded();
+    await screenshot(page, 'retention-policy-admin');
+    await page.context().close();
+  });
 });

@@ -17,6 +17,7 @@ import { fleetRoutes } from './features/fleet/fleet-router.ts';
 import { healthRouter } from './features/health/health-router.ts';
 import { metricsRouter } from './features/metrics/metrics-router.ts';
 import { gatewayRoutes } from './features/gateways/gateways-router.ts';
+import { retentionRoutes } from './features/retention/retention-router.ts';
 import { ingestRouter } from './features/ingest/ingest-router.ts';
 import { ingestEndpoint } from './features/ingest/ingest-endpoint.ts';
 import { uploadRoutes } from './features/uploads/uploads-router.ts';
@@ -37,6 +38,11 @@ function featureRouteGroups(ctx: AppContext): RouteGroup[] {
   return [
     { tag: 'fleet', description: 'Sites and the fleet tree.', routes: fleetRoutes(ctx) },
     { tag: 'gateways', description: 'Field gateways and their keys.', routes: gatewayRoutes(ctx) },
+    {
+      tag: 'retention',
+      description: 'The retention policy in force (read-only).',
+      routes: retentionRoutes(ctx),
+    },
     { tag: 'uploads', description: 'Captures uploaded by hand.', routes: uploadRoutes(ctx) },
     { tag: 'alerts', description: 'Alerts and their acknowledgement.', routes: alertRoutes(ctx) },
     { tag: 'limits', description: 'Alarm limits and templates.', routes: limitRoutes(ctx) },

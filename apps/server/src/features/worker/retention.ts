@@ -39,6 +39,9 @@ import { snapshots } from '@turnstone/db/schema';
 
 import type { Config } from '../../config.ts';
 
+/** When the worker runs the nightly retention pass (node-cron, server time). */
+export const RETENTION_CRON = '45 2 * * *';
+
 export interface RetentionPolicy {
   /** Days raw waveforms are kept (received time); 0 keeps them for ever. */
   rawSamplesDays: number;

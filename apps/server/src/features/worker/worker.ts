@@ -20,7 +20,7 @@ import {
   type PreparedAnalysis,
 } from '../analysis/analysis-service.ts';
 import { claimJobs, failJob, LeaseLostError, type JobRow } from './queue-repository.ts';
-import { retentionPolicy, runRetention } from './retention.ts';
+import { RETENTION_CRON, retentionPolicy, runRetention } from './retention.ts';
 import { recomputeBaselines } from '../limits/baseline-service.ts';
 import { countAnalyses, observeAnalyses, recordRetention } from '../../lib/metrics.ts';
 
@@ -231,7 +231,7 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
       );
       tasks.push(
         cron.schedule(
-          '45 2 * * *',
+          RETENTION_CRON,
           guarded('retention', async () => {
             const t0 = performance.now();
             const { thinned, expired } = await runRetention(ctx.db, retentionPolicy(ctx.config));

@@ -1,5 +1,6 @@
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { GatewaysPanel } from '../../../features/gateways/components/gateways-panel.tsx';
+import { RetentionCard } from '../../../features/retention/components/retention-card.tsx';
 
 export function GatewaysRoute() {
   return (
@@ -10,6 +11,7 @@ export function GatewaysRoute() {
         description="Field gateways that post snapshots, one API key each. A key is shown once, when it is made."
       />
       <GatewaysPanel />
+      <RetentionCard />
     </div>
   );
 }
