@@ -10,6 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Validator } from '@seriousme/openapi-schema-validator';
 import { Ajv2020 } from 'ajv/dist/2020.js';
 import addFormats from 'ajv-formats';
+import openapiTS, { astToString } from 'openapi-typescript';
 import { dashboardRoutes } from '../../apps/server/src/app.ts';
 import { openApiPath, operationId } from '../../apps/server/src/features/api-docs/api-openapi.ts';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
@@ -185,6 +186,15 @@ describe('the /api/v1 OpenAPI document', () => {
     console.info(`api-contract: ${described} of ${specs.length} routes describe their answer`);
   });
 
+  it('generates a typed client with openapi-typescript, as an integrator would', async () => {
+    const types = astToString(await openapiTS(doc));
+    // One operation per route, named by its operationId, with the paged list's cursor.
+    expect(types).toMatch(/getAlerts: \{/);
+    expect(types).toMatch(/patchFindingsById: \{/);
+    expect(types).toMatch(/nextCursor: string \| null;/);
+    expect(types).toMatch(/"\/alerts\/\{id\}\/acknowledge": \{/);
+  });
+
   it('describes query, path and body parameters from the zod schemas', () => {
     const list = doc.paths['/alerts'].get;
     expect(list.parameters.map((p: { name: string }) => p.name)).toEqual([
@@ -193,6 +203,8 @@ describe('the /api/v1 OpenAPI document', () => {
       'siteId',
       'pointId',
       'limit',
+      'since',
+      'cursor',
     ]);
     expect(list.parameters.find((p: { name: string }) => p.name === 'limit').schema).toMatchObject({
       type: 'integer',

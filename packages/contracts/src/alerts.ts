@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { currentDiagnosisSchema } from './points.ts';
 import { freeText } from './text.ts';
+import { pageCursorSchema, sinceSchema } from './paging.ts';
 
 /** Alerts of the limit evaluation: level, lifecycle, and the Alerts screen's requests. */
 
@@ -9,13 +10,19 @@ export const alertStateSchema = z.enum(['raised', 'acknowledged', 'cleared']);
 export type AlertLevelName = z.infer<typeof alertLevelSchema>;
 export type AlertStateName = z.infer<typeof alertStateSchema>;
 
-/** `GET /api/v1/alerts?state=&siteId=&pointId=&level=` */
+/**
+ * `GET /api/v1/alerts?state=&siteId=&pointId=&level=&since=&cursor=&limit=`, newest activity
+ * first: ordered by (lastAt, id) descending. `since` keeps alerts whose lastAt (raised, or
+ * the latest value while open) is at or after it.
+ */
 export const alertListQuerySchema = z.object({
   state: alertStateSchema.optional(),
   level: alertLevelSchema.optional(),
   siteId: z.coerce.number().int().positive().optional(),
   pointId: z.coerce.number().int().positive().optional(),
   limit: z.coerce.number().int().min(1).max(1000).default(500),
+  since: sinceSchema.optional(),
+  cursor: pageCursorSchema.optional(),
 });
 export type AlertListQuery = z.input<typeof alertListQuerySchema>;
 
@@ -50,6 +57,9 @@ export type Alert = z.infer<typeof alertSchema>;
 
 export const alertListSchema = z.object({ items: z.array(alertSchema) });
 export type AlertList = z.infer<typeof alertListSchema>;
+/** The list as the API answers it: a page with the cursor of the next (null: the last). */
+export const alertPageSchema = alertListSchema.extend({ nextCursor: z.string().nullable() });
+export type AlertPage = z.infer<typeof alertPageSchema>;
 
 export const alertEventSchema = z.object({
   id: z.number().int(),

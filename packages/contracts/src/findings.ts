@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { freeText, oneLine } from './text.ts';
+import { pageCursorSchema, sinceSchema } from './paging.ts';
 
 /**
  * Findings: the planner's follow-ups on a point (from a trend, a forecast, an alert or a
@@ -76,11 +77,17 @@ export const updateFindingSchema = z
   });
 export type UpdateFindingInput = z.input<typeof updateFindingSchema>;
 
-/** `GET /api/v1/findings?state=&pointId=&siteId=` */
+/**
+ * `GET /api/v1/findings?state=&pointId=&siteId=&since=&cursor=&limit=`, newest first:
+ * ordered by (createdAt, id) descending. `since` keeps findings created at or after it.
+ */
 export const findingListQuerySchema = z.object({
   state: findingStateSchema.optional(),
   pointId: z.coerce.number().int().positive().optional(),
   siteId: z.coerce.number().int().positive().optional(),
+  since: sinceSchema.optional(),
+  cursor: pageCursorSchema.optional(),
+  limit: z.coerce.number().int().min(1).max(1000).default(1000),
 });
 
 export const findingSchema = z.object({
@@ -105,3 +112,6 @@ export type Finding = z.infer<typeof findingSchema>;
 
 export const findingListSchema = z.object({ items: z.array(findingSchema) });
 export type FindingList = z.infer<typeof findingListSchema>;
+/** The list as the API answers it: a page with the cursor of the next (null: the last). */
+export const findingPageSchema = findingListSchema.extend({ nextCursor: z.string().nullable() });
+export type FindingPage = z.infer<typeof findingPageSchema>;

@@ -1,8 +1,9 @@
-import { and, asc, desc, eq, inArray, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, lt, or, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import type { Db } from '@turnstone/db/client';
 import { alertEvents, alerts, areas, machines, points, sites, users } from '@turnstone/db/schema';
 import type { Tx } from '@turnstone/db/client';
+import type { CursorPosition } from '../../lib/cursor.ts';
 
 export interface AlertFilter {
   state?: 'raised' | 'acknowledged' | 'cleared';
@@ -13,6 +14,10 @@ export interface AlertFilter {
   /** Sites the caller may see; null for every site (admin). */
   siteIds: number[] | null;
   limit?: number;
+  /** lastAt at or after. */
+  since?: Date;
+  /** Rows after this (lastAt, id) in the list's descending order. */
+  after?: CursorPosition;
 }
 
 const ackUser = alias(users, 'ack_user');
@@ -54,6 +59,14 @@ export async function listAlerts(db: Db | Tx, f: AlertFilter) {
   if (f.pointId) where.push(eq(alerts.pointId, f.pointId));
   if (f.ids) where.push(inArray(alerts.id, f.ids.length ? f.ids : [0]));
   if (f.siteIds) where.push(inArray(areas.siteId, f.siteIds.length ? f.siteIds : [0]));
+  if (f.since) where.push(gte(alerts.lastAt, f.since));
+  if (f.after)
+    where.push(
+      or(
+        lt(alerts.lastAt, f.after.at),
+        and(eq(alerts.lastAt, f.after.at), lt(alerts.id, f.after.id)),
+      )!,
+    );
   return db
     .select(columns)
     .from(alerts)

@@ -4,7 +4,7 @@ import {
   acknowledgeResponseSchema,
   alertDetailSchema,
   alertListQuerySchema,
-  alertListSchema,
+  alertPageSchema,
 } from '@turnstone/contracts/alerts';
 import type { AppContext } from '../../lib/context.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
@@ -19,10 +19,10 @@ export function alertRoutes(ctx: AppContext): RouteSpec[] {
       path: '/alerts',
       access: ALL_ROLES,
       summary: 'list alerts of my sites',
-      schemas: { query: alertListQuerySchema, response: alertListSchema },
+      schemas: { query: alertListQuerySchema, response: alertPageSchema },
       handler: async (req, res) => {
         const query = parseQuery(alertListQuerySchema, req.query);
-        res.json(alertListSchema.parse(await service.listAlerts(ctx, requireUser(req), query)));
+        res.json(alertPageSchema.parse(await service.listAlerts(ctx, requireUser(req), query)));
       },
     },
     {

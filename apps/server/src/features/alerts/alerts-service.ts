@@ -16,6 +16,7 @@ import * as conditionRepo from '../condition/condition-repository.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import { currentDiagnosis } from '../points/points-service.ts';
 import * as repo from './alerts-repository.ts';
+import { decodeCursor, pageOf } from '../../lib/cursor.ts';
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
 
@@ -35,9 +36,16 @@ function toAlert(r: repo.AlertRow): Alert {
 const visibleSites = (user: SessionUser) => (user.role === 'admin' ? null : user.siteIds);
 
 export async function listAlerts(ctx: AppContext, user: SessionUser, query: AlertListQuery) {
-  const q = alertListQuerySchema.parse(query);
-  const rows = await repo.listAlerts(ctx.db, { ...q, siteIds: visibleSites(user) });
-  return { items: rows.map(toAlert) };
+  const { since, cursor, ...q } = alertListQuerySchema.parse(query);
+  const rows = await repo.listAlerts(ctx.db, {
+    ...q,
+    siteIds: visibleSites(user),
+    limit: q.limit + 1,
+    ...(since ? { since: new Date(since) } : {}),
+    ...(cursor ? { after: decodeCursor(cursor) } : {}),
+  });
+  const page = pageOf(rows, q.limit, (r) => ({ at: r.lastAt, id: r.id }));
+  return { items: page.items.map(toAlert), nextCursor: page.nextCursor };
 }
 
 export async function getAlert(

@@ -93,7 +93,7 @@ function operation(spec: RouteSpec, tag: string) {
   const responses: Record<string, unknown> = { ...successAnswer(spec) };
   if (s.body || s.query || s.params || spec.path.includes(':'))
     responses['400'] = errorAnswer(
-      'Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, or a rule of the operation.',
+      'Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation.',
     );
   if (!isPublic) {
     responses['401'] = errorAnswer('`unauthenticated`: no valid session.');
@@ -141,6 +141,8 @@ const DESCRIPTION = [
   `**Authentication**: the session cookie \`${COOKIE_NAME}\` that \`POST /auth/sign-in\` sets (HttpOnly, SameSite=Lax). Each operation lists the roles it admits in \`x-roles\` (and its description); any other role gets 403 \`forbidden\`, no session 401 \`unauthenticated\`. Data of sites a user is not assigned to answers 403 or is left out of lists.`,
   '',
   "**Writes** (POST, PUT, PATCH, DELETE) must come from this server's own origin: a request whose `Origin` header names another host than `Host` (or `X-Forwarded-Host` behind a trusted proxy) gets 403 `cross_origin`. A client that sends no `Origin` (not a browser) is not affected.",
+  '',
+  '**Paging**: the alerts and findings lists answer a page with `nextCursor` (null on the last page); pass it back as `cursor`, with the same filters, for the next page. Cursors are opaque (at most 64 characters) and position by (time, id), newest first, so rows arriving meanwhile are neither repeated nor skipped within a walk; `since` keeps rows at or after an instant (alerts: last activity; findings: creation). The audit log pages the same way by its own `nextCursor` and filters by `from`/`to`. A cursor the server did not issue is a 400.',
   '',
   '**Errors** all have one shape, `{ "error": { "code", "message", "details"? } }` (`components.schemas.Error`). Query parameters an operation does not know are a 400 `unknown_query_parameter`, never ignored.',
   '',

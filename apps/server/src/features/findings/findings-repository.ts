@@ -1,4 +1,5 @@
-import { and, asc, desc, eq, inArray, lte, ne, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, lt, lte, ne, or, type SQL } from 'drizzle-orm';
+import type { CursorPosition } from '../../lib/cursor.ts';
 import type { Db, Tx } from '@turnstone/db/client';
 import { alerts, areas, findings, machines, points, sites, users } from '@turnstone/db/schema';
 
@@ -30,9 +31,18 @@ export interface FindingFilter {
   ids?: number[];
   /** Not done and due on or before this date (YYYY-MM-DD). */
   dueBy?: string;
+  /** createdAt at or after. */
+  since?: Date;
+  /** Rows after this (createdAt, id) in the list's descending order. */
+  after?: CursorPosition;
+  /** At most this many rows (1000 unless said). */
+  limit?: number;
 }
 
-/** Findings on points of the given sites, newest first (or by due date for `dueBy`). */
+/**
+ * Findings on points of the given sites, newest first by (createdAt, id), or by due date for
+ * `dueBy`.
+ */
 export async function listFindings(db: Db | Tx, f: FindingFilter): Promise<FindingListRow[]> {
   if (f.siteIds.length === 0) return [];
   const where: SQL[] = [inArray(sites.id, f.siteIds)];
@@ -40,6 +50,14 @@ export async function listFindings(db: Db | Tx, f: FindingFilter): Promise<Findi
   if (f.pointId !== undefined) where.push(eq(findings.pointId, f.pointId));
   if (f.ids) where.push(inArray(findings.id, f.ids.length ? f.ids : [0]));
   if (f.dueBy) where.push(ne(findings.state, 'done'), lte(findings.dueDate, f.dueBy));
+  if (f.since) where.push(gte(findings.createdAt, f.since));
+  if (f.after)
+    where.push(
+      or(
+        lt(findings.createdAt, f.after.at),
+        and(eq(findings.createdAt, f.after.at), lt(findings.id, f.after.id)),
+      )!,
+    );
   return db
     .select(listColumns)
     .from(findings)
@@ -49,8 +67,12 @@ export async function listFindings(db: Db | Tx, f: FindingFilter): Promise<Findi
     .innerJoin(sites, eq(sites.id, areas.siteId))
     .innerJoin(users, eq(users.id, findings.createdBy))
     .where(and(...where))
-    .orderBy(...(f.dueBy ? [asc(findings.dueDate), asc(findings.id)] : [desc(findings.id)]))
-    .limit(1000);
+    .orderBy(
+      ...(f.dueBy
+        ? [asc(findings.dueDate), asc(findings.id)]
+        : [desc(findings.createdAt), desc(findings.id)]),
+    )
+    .limit(f.limit ?? 1000);
 }
 
 export async function insertFinding(tx: Tx, values: typeof findings.$inferInsert) {

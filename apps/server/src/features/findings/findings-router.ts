@@ -1,7 +1,7 @@
 import {
   createFindingSchema,
   findingListQuerySchema,
-  findingListSchema,
+  findingPageSchema,
   findingSchema,
   updateFindingSchema,
 } from '@turnstone/contracts/findings';
@@ -22,7 +22,7 @@ export function findingRoutes(ctx: AppContext): RouteSpec[] {
       // Every role reads them (the point view marks findings on the trend), per site.
       access: ALL_ROLES,
       summary: 'list findings',
-      schemas: { query: findingListQuerySchema, response: findingListSchema },
+      schemas: { query: findingListQuerySchema, response: findingPageSchema },
       handler: async (req, res) =>
         res.json(
           await service.listFindings(

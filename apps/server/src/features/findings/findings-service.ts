@@ -2,7 +2,7 @@ import type { Tx } from '@turnstone/db/client';
 import { z } from 'zod';
 import type {
   Finding,
-  FindingList,
+  FindingPage,
   createFindingSchema,
   findingListQuerySchema,
   updateFindingSchema,
@@ -13,6 +13,7 @@ import { accessiblePoint } from '../places/point-access.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import * as repo from './findings-repository.ts';
+import { decodeCursor, pageOf } from '../../lib/cursor.ts';
 
 type CreateInput = z.output<typeof createFindingSchema>;
 type UpdateInput = z.output<typeof updateFindingSchema>;
@@ -63,14 +64,18 @@ export async function listFindings(
   ctx: AppContext,
   user: SessionUser,
   q: ListQuery,
-): Promise<FindingList> {
+): Promise<FindingPage> {
   if (q.pointId !== undefined) await accessiblePoint(ctx.db, user, q.pointId);
   const rows = await repo.listFindings(ctx.db, {
     siteIds: siteScope(user, q.siteId),
     ...(q.state ? { state: q.state } : {}),
     ...(q.pointId !== undefined ? { pointId: q.pointId } : {}),
+    ...(q.since ? { since: new Date(q.since) } : {}),
+    ...(q.cursor ? { after: decodeCursor(q.cursor) } : {}),
+    limit: q.limit + 1,
   });
-  return { items: rows.map(toFinding) };
+  const page = pageOf(rows, q.limit, (r) => ({ at: r.finding.createdAt, id: r.finding.id }));
+  return { items: page.items.map(toFinding), nextCursor: page.nextCursor };
 }
 
 async function loadOne(ctx: AppContext, user: SessionUser, id: number, tx?: Tx) {

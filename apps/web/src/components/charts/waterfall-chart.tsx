@@ -4,13 +4,13 @@
  * the ones behind (a 3-D look on a 2-D canvas; no WebGL). Zoom keys and a table of each
  * spectrum's largest peaks in the band shown serve the keyboard and screen readers.
  */
-import { useMemo } from 'react';
+import { useEffect, useMemo } from 'react';
 import { axisStyle, chartColours, formatValue, monoFont, zoomSliderStyle } from './chart-theme.ts';
 import type { ChartOption, LineSeriesOption } from './echarts.ts';
 import { largestPeaks, WATERFALL_TABLE_PEAKS } from './chart-values.ts';
 import { useEChart } from './use-echart.ts';
 import { ValuesTable, type ValuesColumn } from './values-table.tsx';
-import { useChartZoom, xExtent, zoomedExtent, ZoomKeys, type ZoomWindow } from './zoom-keys.tsx';
+import { useChartZoom, zoomedExtent, ZoomKeys, type ZoomWindow } from './zoom-keys.tsx';
 
 export interface WaterfallTrace {
   /** When the spectrum was taken, as shown (legend, table). */
@@ -28,30 +28,47 @@ export interface WaterfallChartProps {
   ariaLabel: string;
 }
 
-export function buildWaterfallOption(p: WaterfallChartProps): ChartOption {
+/** The front trace's axis: 0 to the last line of the longest spectrum. */
+export function waterfallExtent(traces: readonly WaterfallTrace[]): [number, number] {
   let xMax = 0;
-  const maxima: number[] = [];
-  for (const t of p.traces) {
-    xMax = Math.max(xMax, (t.values.length - 1) * t.step);
-    let m = 0;
-    for (const v of t.values) m = Math.max(m, v);
-    maxima.push(m);
-  }
+  for (const t of traces) xMax = Math.max(xMax, (t.values.length - 1) * t.step);
+  return [0, xMax];
+}
+
+/**
+ * The waterfall of the band `band` (the front trace's frequencies; all by default): each
+ * older trace shifted right by a quarter of the band over the stack and up by its age, so a
+ * zoom into a narrow band still shows every capture in it. The zoom works on a hidden second
+ * x axis spanning the front trace's whole range; the chart redraws the band it chooses.
+ */
+export function buildWaterfallOption(
+  p: WaterfallChartProps,
+  band: readonly [number, number] = waterfallExtent(p.traces),
+): ChartOption {
+  const [, xMax] = waterfallExtent(p.traces);
+  const [a, b] = band;
   const n = p.traces.length;
-  // Scale to the median trace, so one extreme capture (e.g. clipped) does not flatten the
-  // rest; its peaks are cut at the top of the chart.
-  const sorted = [...maxima].sort((a, b) => a - b);
+  // Scale to the median trace's largest line in the band, so one extreme capture (e.g.
+  // clipped) does not flatten the rest; its peaks are cut at the top of the chart.
+  const maxima = p.traces.map((t) => {
+    let m = 0;
+    const last = Math.min(t.values.length - 1, Math.ceil(b / t.step));
+    for (let k = Math.max(0, Math.floor(a / t.step)); k <= last; k++) m = Math.max(m, t.values[k]!);
+    return m;
+  });
+  const sorted = [...maxima].sort((x, y) => x - y);
   const yRef = sorted[Math.floor(sorted.length / 2)] || 1;
   const dy = (yRef * 0.5) / Math.max(1, Math.sqrt(n) / 2);
   const yTop = (n - 1) * dy + yRef * 1.4;
-  const dx = (xMax * 0.25) / Math.max(1, n - 1);
+  const dx = ((b - a) * 0.25) / Math.max(1, n - 1);
   const series: LineSeriesOption[] = [];
   // Oldest drawn first (at the back).
   for (let i = n - 1; i >= 0; i--) {
     const t = p.traces[i]!;
-    const data: [number, number][] = new Array(t.values.length);
-    for (let k = 0; k < t.values.length; k++)
-      data[k] = [k * t.step + i * dx, t.values[k]! + i * dy];
+    const first = Math.max(0, Math.floor(a / t.step));
+    const last = Math.min(t.values.length - 1, Math.ceil(b / t.step));
+    const data: [number, number][] = [];
+    for (let k = first; k <= last; k++) data.push([k * t.step + i * dx, t.values[k]! + i * dy]);
     const front = i === 0;
     series.push({
       name: t.label,
@@ -73,15 +90,25 @@ export function buildWaterfallOption(p: WaterfallChartProps): ChartOption {
   return {
     animation: false,
     grid: { left: 56, right: 28, top: 20, bottom: 64 },
-    xAxis: {
-      type: 'value',
-      name: p.axis === 'hz' ? 'Hz (front trace)' : 'order (front trace)',
-      min: 0,
-      max: xMax + (n - 1) * dx,
-      ...ax,
-      axisLabel: { ...ax.axisLabel, hideOverlap: true, showMaxLabel: false },
-      splitLine: { show: false },
-    },
+    xAxis: [
+      {
+        type: 'value',
+        name: p.axis === 'hz' ? 'Hz (front trace)' : 'order (front trace)',
+        min: a,
+        max: b + (n - 1) * dx,
+        ...ax,
+        axisLabel: {
+          ...ax.axisLabel,
+          hideOverlap: true,
+          showMaxLabel: false,
+          // Four significant digits, no trailing zeros ("30", "62.5").
+          formatter: (v: number) => String(Number(v.toPrecision(4))),
+        },
+        splitLine: { show: false },
+      },
+      // What the zoom moves: the front trace's whole range, not drawn.
+      { type: 'value', min: 0, max: xMax, show: false },
+    ],
     yAxis: {
       type: 'value',
       name: `${p.unit} (offset by age)`,
@@ -93,8 +120,8 @@ export function buildWaterfallOption(p: WaterfallChartProps): ChartOption {
     },
     textStyle: { fontFamily: monoFont },
     dataZoom: [
-      { type: 'inside', xAxisIndex: 0, filterMode: 'none' },
-      { type: 'slider', xAxisIndex: 0, ...zoomSliderStyle(), showDataShadow: false },
+      { type: 'inside', xAxisIndex: 1, filterMode: 'none' },
+      { type: 'slider', xAxisIndex: 1, ...zoomSliderStyle(), showDataShadow: false },
     ],
     series,
   };
@@ -108,6 +135,17 @@ export function WaterfallChart(props: WaterfallChartProps) {
   );
   const { ref, chart } = useEChart(option);
   const shown = useChartZoom(chart, option);
+  const extent = useMemo(() => waterfallExtent(traces), [traces]);
+  // Redraw the band the zoom chose; merged, so the zoom (and a slider drag) stays as it is.
+  useEffect(() => {
+    if (!chart) return;
+    const band = zoomedExtent(extent, shown);
+    const { dataZoom: _kept, ...drawn } = buildWaterfallOption(
+      { traces, axis, unit, ariaLabel: '' },
+      band,
+    );
+    chart.setOption(drawn, { replaceMerge: ['series'] });
+  }, [chart, shown, extent, traces, axis, unit]);
   const xUnit = axis === 'hz' ? 'Hz' : 'order';
   return (
     <div className="flex flex-col gap-2">
@@ -123,11 +161,11 @@ export function WaterfallChart(props: WaterfallChartProps) {
           chart={chart}
           shown={shown}
           label="waterfall"
-          extent={xExtent(option)}
+          extent={extent}
           format={(v) => `${formatValue(v, 4)} ${xUnit}`}
         />
       </div>
-      <WaterfallValues traces={traces} axis={axis} unit={unit} shown={shown} option={option} />
+      <WaterfallValues traces={traces} axis={axis} unit={unit} shown={shown} extent={extent} />
     </div>
   );
 }
@@ -137,20 +175,16 @@ function WaterfallValues({
   axis,
   unit,
   shown,
-  option,
+  extent,
 }: {
   traces: readonly WaterfallTrace[];
   axis: 'hz' | 'order';
   unit: string;
   shown: ZoomWindow;
-  option: ChartOption;
+  extent: readonly [number, number];
 }) {
-  // The band is the window of the front trace (the axis's own frequencies), within its lines.
-  let xMax = 0;
-  for (const t of traces) xMax = Math.max(xMax, (t.values.length - 1) * t.step);
-  const [lo, hi] = zoomedExtent(xExtent(option) ?? [0, xMax], shown);
-  const from = Math.max(0, lo);
-  const to = Math.min(xMax, hi);
+  // The band is the zoom's window of the front trace's axis.
+  const [from, to] = zoomedExtent(extent, shown);
   const xUnit = axis === 'hz' ? 'Hz' : 'order';
   const digits = axis === 'hz' ? 2 : 3;
   const band = `${formatValue(from, 4)} to ${formatValue(to, 4)} ${xUnit}`;

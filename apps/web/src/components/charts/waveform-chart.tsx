@@ -72,9 +72,11 @@ export function buildWaveformOption(p: WaveformChartProps): ChartOption {
       ...ax,
       axisLabel: { ...ax.axisLabel, formatter: (v: number) => formatValue(v) },
     },
+    // Filtering to the window makes the line's down-sampling (LTTB) count only the samples
+    // shown: zoomed in, every sample is drawn, not a thinning of the whole capture.
     dataZoom: [
-      { type: 'inside', xAxisIndex: 0, filterMode: 'none' },
-      { type: 'slider', xAxisIndex: 0, ...zoomSliderStyle() },
+      { type: 'inside', xAxisIndex: 0, filterMode: 'filter' },
+      { type: 'slider', xAxisIndex: 0, ...zoomSliderStyle(), filterMode: 'filter' },
     ],
     series: [
       {

@@ -20,8 +20,8 @@ import {
   MoversTable,
   OpenAlertsTable,
   QualityNoticesTable,
-  type FindingDraft,
 } from '../../../features/review/components/review-tables.tsx';
+import type { FindingDraft } from '../../../features/review/components/review-table-parts.tsx';
 import { formatDay } from '../../../features/review/utils/format-review.ts';
 import { CreateFindingDialog } from '../../../features/findings/components/create-finding-dialog.tsx';
 import { FindingsList } from '../../../features/findings/components/findings-list.tsx';
