@@ -1,0 +1,186 @@
+/**
+ * The demo scenario's shapes and parts: the record of a site, area, machine and point, the
+ * catalogue bearings used (geometry typical of the sizes named; demo only) and the point
+ * sets and pump shape the plant repeats.
+ */
+
+export interface DemoBearing {
+  name: string;
+  designation: string;
+  rollingElements: number;
+  ballDiameterMm: number;
+  pitchDiameterMm: number;
+  contactAngleDeg: number;
+  speedRatio?: number;
+}
+
+export interface DemoGear {
+  name: string;
+  teeth: number;
+  mateTeeth: number;
+  speedRatio: number;
+}
+
+export interface DemoPoint {
+  /** Suffix of the tag; the full tag is `<site>-<machine>-<suffix>`. */
+  suffix: string;
+  name: string;
+  location: string;
+  direction: 'H' | 'V' | 'A';
+  sensitivityMvPerG: number;
+  bearing?: string;
+}
+
+export interface DemoMachine {
+  code: string;
+  name: string;
+  type: 'motor' | 'pump' | 'fan' | 'blower' | 'gearbox' | 'compressor';
+  nominalRpm: number;
+  isoGroup: 1 | 2;
+  foundation: 'rigid' | 'flexible';
+  criticality: 'low' | 'medium' | 'high';
+  powerKw: number;
+  bladeCount?: number;
+  vaneCount?: number;
+  /**
+   * Supply frequency of the machine's motor, Hz. Both sites are on 50 Hz grids; null where
+   * the machine record holds no mains-fed motor (a gearbox measured on its own shafts) or
+   * the motor runs on an inverter (the supply at the motor is not the grid's).
+   */
+  lineHz: 50 | 60 | null;
+  bearings: DemoBearing[];
+  gears?: DemoGear[];
+  points: DemoPoint[];
+  /** What the generated history does on this machine (gateway simulator and seed). */
+  story:
+    | 'healthy'
+    | 'outer-race-growing'
+    | 'inner-race-early'
+    | 'unbalance-rising'
+    | 'misalignment'
+    | 'gear-wear'
+    | 'clipped-sensor'
+    | 'under-ranged'
+    | 'aliasing-setup';
+}
+
+export interface DemoArea {
+  name: string;
+  machines: DemoMachine[];
+}
+
+export interface DemoSite {
+  code: string;
+  name: string;
+  timeZone: string;
+  areas: DemoArea[];
+}
+
+export const b6316: DemoBearing = {
+  name: 'Motor DE',
+  designation: '6316',
+  rollingElements: 8,
+  ballDiameterMm: 28.58,
+  pitchDiameterMm: 125,
+  contactAngleDeg: 0,
+};
+export const b6314: DemoBearing = {
+  name: 'Motor NDE',
+  designation: '6314',
+  rollingElements: 8,
+  ballDiameterMm: 25.4,
+  pitchDiameterMm: 110,
+  contactAngleDeg: 0,
+};
+export const b6310: DemoBearing = {
+  name: 'Motor DE',
+  designation: '6310',
+  rollingElements: 8,
+  ballDiameterMm: 19.05,
+  pitchDiameterMm: 80,
+  contactAngleDeg: 0,
+};
+export const b6308: DemoBearing = {
+  name: 'Motor NDE',
+  designation: '6308',
+  rollingElements: 8,
+  ballDiameterMm: 15.08,
+  pitchDiameterMm: 65,
+  contactAngleDeg: 0,
+};
+export const b7313: DemoBearing = {
+  name: 'Pump DE',
+  designation: '7313 BEP',
+  rollingElements: 14,
+  ballDiameterMm: 23.81,
+  pitchDiameterMm: 102.5,
+  contactAngleDeg: 40,
+};
+export const b22220: DemoBearing = {
+  name: 'Fan DE',
+  designation: '22220 E',
+  rollingElements: 19,
+  ballDiameterMm: 23.5,
+  pitchDiameterMm: 141,
+  contactAngleDeg: 9.5,
+};
+
+export const motorPoints = (de: string, nde: string): DemoPoint[] => [
+  {
+    suffix: 'MDE-H',
+    name: 'Motor drive end, horizontal',
+    location: 'Motor DE',
+    direction: 'H',
+    sensitivityMvPerG: 100,
+    bearing: de,
+  },
+  {
+    suffix: 'MDE-V',
+    name: 'Motor drive end, vertical',
+    location: 'Motor DE',
+    direction: 'V',
+    sensitivityMvPerG: 100,
+    bearing: de,
+  },
+  {
+    suffix: 'MNDE-H',
+    name: 'Motor non-drive end, horizontal',
+    location: 'Motor NDE',
+    direction: 'H',
+    sensitivityMvPerG: 100,
+    bearing: nde,
+  },
+];
+
+export const pump = (
+  code: string,
+  name: string,
+  rpm: number,
+  kw: number,
+  group: 1 | 2,
+  story: DemoMachine['story'],
+): DemoMachine => ({
+  code,
+  name,
+  type: 'pump',
+  nominalRpm: rpm,
+  isoGroup: group,
+  foundation: 'rigid',
+  criticality: 'high',
+  powerKw: kw,
+  vaneCount: 6,
+  lineHz: 50, // four-pole motor, direct on line
+  bearings: [b6316, b6314, b7313],
+  points: [
+    ...motorPoints('Motor DE', 'Motor NDE'),
+    {
+      suffix: 'PDE-A',
+      name: 'Pump drive end, axial',
+      location: 'Pump DE',
+      direction: 'A',
+      sensitivityMvPerG: 100,
+      bearing: 'Pump DE',
+    },
+  ],
+  story,
+});
