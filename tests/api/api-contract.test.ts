@@ -300,6 +300,40 @@ describe('real answers conform to the document', () => {
     await conforms('POST', '/gateways/:id/rotate', `/gateways/${gw.body.id}/rotate`, {
       role: 'admin',
     });
+    await conforms('POST', '/gateways/:id/revoke', `/gateways/${gw.body.id}/revoke`, {
+      role: 'admin',
+    });
+    const site = await conforms('POST', '/sites', '/sites', {
+      role: 'admin',
+      body: { name: 'Contract works', code: 'CW', timeZone: 'Europe/Lisbon' },
+    });
+    expect(site.status).toBe(201);
+    await conforms('PATCH', '/sites/:id', `/sites/${site.body.id}`, {
+      role: 'admin',
+      body: { name: 'Contract works 2', code: 'CW', timeZone: 'Europe/Lisbon' },
+    });
+    const area = await conforms('POST', '/areas', '/areas', {
+      role: 'admin',
+      body: { siteId: site.body.id, name: 'Boiler house' },
+    });
+    expect(area.status).toBe(201);
+    await conforms('PATCH', '/areas/:id', `/areas/${area.body.id}`, {
+      role: 'admin',
+      body: { name: 'Boiler hall' },
+    });
+    const user = await conforms('POST', '/users/invite', '/users/invite', {
+      role: 'admin',
+      body: { email: 'contract@turnstone.local', name: 'Contract', role: 'planner', siteIds: [1] },
+    });
+    expect(user.status).toBe(201);
+    await conforms('PATCH', '/users/:id', `/users/${user.body.id}`, {
+      role: 'admin',
+      body: { siteIds: [1, site.body.id] },
+    });
+    await conforms('POST', '/users/:id/disable', `/users/${user.body.id}/disable`, {
+      role: 'admin',
+    });
+    await conforms('POST', '/users/:id/enable', `/users/${user.body.id}/enable`, { role: 'admin' });
     const mail = await conforms('GET', '/mailbox', '/mailbox', { role: 'admin' });
     if (mail.body.items.length > 0)
       await conforms('GET', '/mailbox/:id', `/mailbox/${mail.body.items[0].id}`, { role: 'admin' });
