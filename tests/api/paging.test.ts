@@ -1,6 +1,7 @@
 /**
  * Cursor paging and `since` on the lists an integrator pulls: alerts and findings walk page
- * by page (limit 1 and 2) to exactly the unpaged list, in (time, id) order, without a
+ * by page (limit 1 and 2) to exactly the unpaged list, in (time, id) order — alerts by last
+ * activity, findings by last change (updatedAt) — without a
  * duplicate while new rows arrive mid-walk; `since` keeps the rows at or after it; a cursor
  * that is not one the server issued (garbage, overlong, 400 digits) is a 400, never a 500.
  * The audit log's cursor answers the same way.
@@ -124,18 +125,37 @@ describe('findings', () => {
       expect(res.status).toBe(201);
     });
     expect(walked).toEqual(ids);
-    const after = (await get('/api/v1/findings')).body.items;
-    expect(after.length).toBe(6);
-    expect(after[0].title).toBe('Arrived mid-walk');
+    const now = (await get('/api/v1/findings')).body.items;
+    expect(now.length).toBe(6);
+    expect(now[0].title).toBe('Arrived mid-walk');
   });
 
-  it('since keeps findings created at or after it', async () => {
-    const all = (await get('/api/v1/findings')).body.items as { id: number; createdAt: string }[];
-    const pivot = all[2]!.createdAt;
+  it('since keeps findings changed at or after it; a change moves a finding first', async () => {
+    type F = { id: number; createdAt: string; updatedAt: string; title: string };
+    const all = (await get('/api/v1/findings')).body.items as F[];
+    for (const f of all) expect(f.updatedAt >= f.createdAt).toBe(true);
+    const pivot = all[2]!.updatedAt;
     const since = await get(`/api/v1/findings?since=${encodeURIComponent(pivot)}&limit=1000`);
     expect(since.body.items.map((f: { id: number }) => f.id)).toEqual(
-      all.filter((f) => f.createdAt >= pivot).map((f) => f.id),
+      all.filter((f) => f.updatedAt >= pivot).map((f) => f.id),
     );
+    // The oldest finding is changed: it is now first, and a pull since just before the
+    // change answers it alone — how an integrator picks up changes, not only new rows.
+    const oldest = all[all.length - 1]!;
+    const before = new Date(Date.parse(all[0]!.updatedAt) + 1).toISOString();
+    await new Promise((r) => setTimeout(r, 5));
+    const patched = await srv.call('PATCH', `/api/v1/findings/${oldest.id}`, {
+      cookie: cookies.get('planner'),
+      body: { state: 'planned', workOrderRef: 'WO 2026:0042' },
+    });
+    expect(patched.status).toBe(200);
+    const changed = (await patched.json()) as F;
+    expect(changed.updatedAt > oldest.updatedAt).toBe(true);
+    expect(changed.createdAt).toBe(oldest.createdAt);
+    const after = (await get('/api/v1/findings')).body.items as F[];
+    expect(after[0]!.id).toBe(oldest.id);
+    const pulled = await get(`/api/v1/findings?since=${encodeURIComponent(before)}`);
+    expect(pulled.body.items.map((f: F) => f.id)).toEqual([oldest.id]);
   });
 });
 

@@ -78,8 +78,9 @@ export const updateFindingSchema = z
 export type UpdateFindingInput = z.input<typeof updateFindingSchema>;
 
 /**
- * `GET /api/v1/findings?state=&pointId=&siteId=&since=&cursor=&limit=`, newest first:
- * ordered by (createdAt, id) descending. `since` keeps findings created at or after it.
+ * `GET /api/v1/findings?state=&pointId=&siteId=&since=&cursor=&limit=`, last changed first:
+ * ordered by (updatedAt, id) descending. `since` keeps findings changed (or created) at or
+ * after it, so a pull with the previous pull's time gets every new and changed finding.
  */
 export const findingListQuerySchema = z.object({
   state: findingStateSchema.optional(),
@@ -107,6 +108,8 @@ export const findingSchema = z.object({
   note: z.string().nullable(),
   createdBy: z.object({ id: z.number().int(), name: z.string() }),
   createdAt: z.string(),
+  /** Last change: creation, or any field written since. */
+  updatedAt: z.string(),
 });
 export type Finding = z.infer<typeof findingSchema>;
 

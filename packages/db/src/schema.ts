@@ -606,6 +606,10 @@ export const findings = mysqlTable(
       .notNull()
       .references(() => users.id),
     createdAt: createdAt(),
+    /** Last change (creation, or any field written); rows older than the column: when it came. */
+    updatedAt: at('updated_at')
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [
     index('findings_point_idx').on(t.pointId),

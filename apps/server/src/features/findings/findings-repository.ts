@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, gte, inArray, lt, lte, ne, or, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, lt, lte, ne, or, sql, type SQL } from 'drizzle-orm';
 import type { CursorPosition } from '../../lib/cursor.ts';
 import type { Db, Tx } from '@turnstone/db/client';
 import { alerts, areas, findings, machines, points, sites, users } from '@turnstone/db/schema';
@@ -31,16 +31,16 @@ export interface FindingFilter {
   ids?: number[];
   /** Not done and due on or before this date (YYYY-MM-DD). */
   dueBy?: string;
-  /** createdAt at or after. */
+  /** updatedAt at or after. */
   since?: Date;
-  /** Rows after this (createdAt, id) in the list's descending order. */
+  /** Rows after this (updatedAt, id) in the list's descending order. */
   after?: CursorPosition;
   /** At most this many rows (1000 unless said). */
   limit?: number;
 }
 
 /**
- * Findings on points of the given sites, newest first by (createdAt, id), or by due date for
+ * Findings on points of the given sites, last changed first by (updatedAt, id), or by due date for
  * `dueBy`.
  */
 export async function listFindings(db: Db | Tx, f: FindingFilter): Promise<FindingListRow[]> {
@@ -50,12 +50,12 @@ export async function listFindings(db: Db | Tx, f: FindingFilter): Promise<Findi
   if (f.pointId !== undefined) where.push(eq(findings.pointId, f.pointId));
   if (f.ids) where.push(inArray(findings.id, f.ids.length ? f.ids : [0]));
   if (f.dueBy) where.push(ne(findings.state, 'done'), lte(findings.dueDate, f.dueBy));
-  if (f.since) where.push(gte(findings.createdAt, f.since));
+  if (f.since) where.push(gte(findings.updatedAt, f.since));
   if (f.after)
     where.push(
       or(
-        lt(findings.createdAt, f.after.at),
-        and(eq(findings.createdAt, f.after.at), lt(findings.id, f.after.id)),
+        lt(findings.updatedAt, f.after.at),
+        and(eq(findings.updatedAt, f.after.at), lt(findings.id, f.after.id)),
       )!,
     );
   return db
@@ -70,7 +70,7 @@ export async function listFindings(db: Db | Tx, f: FindingFilter): Promise<Findi
     .orderBy(
       ...(f.dueBy
         ? [asc(findings.dueDate), asc(findings.id)]
-        : [desc(findings.createdAt), desc(findings.id)]),
+        : [desc(findings.updatedAt), desc(findings.id)]),
     )
     .limit(f.limit ?? 1000);
 }
@@ -90,7 +90,10 @@ export async function updateFinding(
   id: number,
   set: Partial<Pick<FindingRow, 'state' | 'title' | 'workOrderRef' | 'dueDate' | 'note'>>,
 ) {
-  await tx.update(findings).set(set).where(eq(findings.id, id));
+  await tx
+    .update(findings)
+    .set({ ...set, updatedAt: sql`CURRENT_TIMESTAMP(3)` })
+    .where(eq(findings.id, id));
 }
 
 export async function alertOfPoint(db: Db | Tx, alertId: number) {

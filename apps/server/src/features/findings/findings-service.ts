@@ -38,6 +38,7 @@ export function toFinding(r: repo.FindingListRow): Finding {
     note: f.note,
     createdBy: { id: f.createdBy, name: r.createdByName },
     createdAt: f.createdAt.toISOString(),
+    updatedAt: f.updatedAt.toISOString(),
   };
 }
 
@@ -74,7 +75,7 @@ export async function listFindings(
     ...(q.cursor ? { after: decodeCursor(q.cursor) } : {}),
     limit: q.limit + 1,
   });
-  const page = pageOf(rows, q.limit, (r) => ({ at: r.finding.createdAt, id: r.finding.id }));
+  const page = pageOf(rows, q.limit, (r) => ({ at: r.finding.updatedAt, id: r.finding.id }));
   return { items: page.items.map(toFinding), nextCursor: page.nextCursor };
 }
 

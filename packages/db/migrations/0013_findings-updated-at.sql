@@ -1,0 +1,1 @@
+ALTER TABLE `findings` ADD `updated_at` datetime(3) DEFAULT CURRENT_TIMESTAMP(3) NOT NULL;
