@@ -15,7 +15,8 @@ import { dashboardRoutes } from '../../apps/server/src/app.ts';
 import { openApiPath, operationId } from '../../apps/server/src/features/api-docs/api-openapi.ts';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { snapshotBody } from '../support/signals.ts';
+import { snapshotBody, toneCounts } from '../support/signals.ts';
+import { pcmWavBytes } from '../support/wav-bytes.ts';
 
 let srv: TestServer;
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
@@ -78,12 +79,13 @@ async function conforms(
   method: string,
   template: string,
   path: string,
-  init: { role?: string; body?: unknown; headers?: Record<string, string> } = {},
+  init: { role?: string; body?: unknown; raw?: FormData; headers?: Record<string, string> } = {},
   // eslint-disable-next-line @typescript-eslint/no-explicit-any
 ): Promise<{ status: number; body: any }> {
   const res = await srv.call(method, `/api/v1${path}`, {
     cookie: init.role ? cookies.get(init.role) : undefined,
     body: init.body,
+    raw: init.raw,
     headers: init.headers,
   });
   const op = doc.paths[openApiPath(template)]?.[method.toLowerCase()];
@@ -218,6 +220,11 @@ describe('the /api/v1 OpenAPI document', () => {
     expect(ack.requestBody.content['application/json'].schema.required).toEqual(['note']);
     expect(doc.paths['/findings'].post.responses['201']).toBeDefined();
     expect(doc.paths['/auth/sign-out'].post.responses['204']).toBeDefined();
+    const upload = doc.paths['/points/{id}/uploads'].post;
+    const form = upload.requestBody.content['multipart/form-data'].schema;
+    expect(form.required).toEqual(['file']);
+    expect(form.properties.file).toEqual({ type: 'string', format: 'binary' });
+    expect(Object.keys(upload.responses)).toEqual(expect.arrayContaining(['200', '201']));
   });
 });
 
@@ -300,6 +307,67 @@ describe('real answers conform to the document', () => {
     await conforms('POST', '/gateways/:id/rotate', `/gateways/${gw.body.id}/rotate`, {
       role: 'admin',
     });
+    await conforms('POST', '/gateways/:id/revoke', `/gateways/${gw.body.id}/revoke`, {
+      role: 'admin',
+    });
+    const site = await conforms('POST', '/sites', '/sites', {
+      role: 'admin',
+      body: { name: 'Contract works', code: 'CW', timeZone: 'Europe/Lisbon' },
+    });
+    expect(site.status).toBe(201);
+    await conforms('PATCH', '/sites/:id', `/sites/${site.body.id}`, {
+      role: 'admin',
+      body: { name: 'Contract works 2', code: 'CW', timeZone: 'Europe/Lisbon' },
+    });
+    const area = await conforms('POST', '/areas', '/areas', {
+      role: 'admin',
+      body: { siteId: site.body.id, name: 'Boiler house' },
+    });
+    expect(area.status).toBe(201);
+    await conforms('PATCH', '/areas/:id', `/areas/${area.body.id}`, {
+      role: 'admin',
+      body: { name: 'Boiler hall' },
+    });
+    const user = await conforms('POST', '/users/invite', '/users/invite', {
+      role: 'admin',
+      body: { email: 'contract@turnstone.local', name: 'Contract', role: 'planner', siteIds: [1] },
+    });
+    expect(user.status).toBe(201);
+    await conforms('PATCH', '/users/:id', `/users/${user.body.id}`, {
+      role: 'admin',
+      body: { siteIds: [1, site.body.id] },
+    });
+    await conforms('POST', '/users/:id/disable', `/users/${user.body.id}/disable`, {
+      role: 'admin',
+    });
+    await conforms('POST', '/users/:id/enable', `/users/${user.body.id}/enable`, { role: 'admin' });
+    // A recording upload (multipart): 201 when stored, 200 for the same file again.
+    const wav = pcmWavBytes(
+      toneCounts({ n: 8192, fs: 10240, tones: [{ hz: 100, peakG: 0.5 }] }),
+      10240,
+      16,
+    );
+    const form = () => {
+      const f = new FormData();
+      for (const [k, v] of Object.entries({
+        sensitivityMvPerG: '100',
+        fullScaleV: '5',
+        bits: '16',
+      }))
+        f.append(k, v);
+      f.append('file', new Blob([wav as Uint8Array<ArrayBuffer>]), 'contract.wav');
+      return f;
+    };
+    const up = await conforms('POST', '/points/:id/uploads', '/points/2/uploads', {
+      role: 'engineer',
+      raw: form(),
+    });
+    expect(up).toMatchObject({ status: 201, body: { status: 'queued' } });
+    const again = await conforms('POST', '/points/:id/uploads', '/points/2/uploads', {
+      role: 'engineer',
+      raw: form(),
+    });
+    expect(again).toMatchObject({ status: 200, body: { status: 'already-uploaded' } });
     const mail = await conforms('GET', '/mailbox', '/mailbox', { role: 'admin' });
     if (mail.body.items.length > 0)
       await conforms('GET', '/mailbox/:id', `/mailbox/${mail.body.items[0].id}`, { role: 'admin' });

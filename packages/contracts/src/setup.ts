@@ -75,6 +75,13 @@ export const areaInputSchema = z.object({
 export const areaUpdateSchema = areaInputSchema.pick({ name: true });
 export type AreaInput = z.infer<typeof areaInputSchema>;
 
+/** The answer to creating or changing a site: the saved values with the id. */
+export const savedSiteSchema = siteInputSchema.extend({ id: z.number().int() });
+/** The answer to creating or renaming an area: the saved values with the id. */
+export const savedAreaSchema = areaInputSchema.extend({ id: z.number().int() });
+/** The answer to creating or changing a machine or a point: its id. */
+export const savedIdSchema = z.object({ id: z.number().int() });
+
 export const bearingInputSchema = z
   .object({
     /** Present for a bearing that already exists: it keeps its id, and points stay linked. */

@@ -413,6 +413,8 @@ export const analyses = mysqlTable(
   (t) => [
     uniqueIndex('analyses_snapshot_uq').on(t.snapshotId),
     index('analyses_point_taken_idx').on(t.pointId, t.takenAt),
+    /** The retention pass walks captures still holding spectra by id, not the whole table. */
+    index('analyses_thinned_idx').on(t.spectraThinnedAt, t.id),
   ],
 );
 

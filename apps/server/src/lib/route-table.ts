@@ -16,6 +16,8 @@ export const ALL_ROLES: readonly Role[] = ['admin', 'engineer', 'planner', 'oper
  * `/api/v1` (api-openapi.ts) is generated from them. Give the very schema objects the
  * handler uses, never a copy.
  */
+export type SuccessStatus = 200 | 201 | 202 | 204;
+
 export interface RouteSchemas {
   /** Path parameters (`idParam`); without it each `:name` is documented as a string. */
   params?: z.ZodType;
@@ -23,10 +25,12 @@ export interface RouteSchemas {
   query?: z.ZodType;
   /** The JSON request body. */
   body?: z.ZodType;
+  /** A multipart/form-data body instead: its text fields, and the name of its file field. */
+  form?: { fields: z.ZodType; file: string };
   /** The JSON body of the success answer. */
   response?: z.ZodType;
   /** Status of the success answer: 200 unless said (201 for a creation, 202 accepted, 204 without a body). */
-  status?: 200 | 201 | 202 | 204;
+  status?: SuccessStatus | readonly SuccessStatus[];
   /** Media type of a success answer that is not JSON (a CSV or WAV download). */
   produces?: string;
 }

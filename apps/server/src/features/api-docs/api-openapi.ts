@@ -61,28 +61,56 @@ function parameters(spec: RouteSpec) {
 
 function successAnswer(spec: RouteSpec) {
   const s = spec.schemas ?? {};
-  const status = String(s.status ?? 200);
-  if (s.status === 204) return { [status]: { description: 'Done; no body.' } };
-  if (s.produces)
-    return {
-      [status]: {
+  const statuses = [s.status ?? 200].flat();
+  const answer = (status: number) => {
+    if (status === 204) return { description: 'Done; no body.' };
+    if (s.produces)
+      return {
         description: `A file (${s.produces}).`,
         content: { [s.produces]: { schema: { type: 'string', format: 'binary' } } },
-      },
-    };
-  if (s.response)
-    return {
-      [status]: {
+      };
+    if (s.response)
+      return {
         description: 'Success.',
         content: { 'application/json': { schema: jsonSchema(s.response, 'output') } },
-      },
-    };
-  return {
-    [status]: {
+      };
+    return {
       description: 'Success: a JSON body not yet described by a schema.',
       content: { 'application/json': {} },
-    },
+    };
   };
+  return Object.fromEntries(statuses.map((status) => [String(status), answer(status)]));
+}
+
+function requestBody(s: NonNullable<RouteSpec['schemas']>) {
+  if (s.body)
+    return {
+      requestBody: {
+        required: true,
+        content: { 'application/json': { schema: jsonSchema(s.body, 'input') } },
+      },
+    };
+  if (s.form) {
+    const fields = jsonSchema(s.form.fields, 'input');
+    return {
+      requestBody: {
+        required: true,
+        content: {
+          'multipart/form-data': {
+            schema: {
+              ...fields,
+              properties: {
+                ...(fields.properties as object),
+                [s.form.file]: { type: 'string', format: 'binary' },
+              },
+              required: [...((fields.required as string[] | undefined) ?? []), s.form.file],
+            },
+          },
+        },
+      },
+    };
+  }
+  return {};
 }
 
 function operation(spec: RouteSpec, tag: string) {
@@ -91,7 +119,7 @@ function operation(spec: RouteSpec, tag: string) {
   const isWrite = WRITES.includes(spec.method);
   const s = spec.schemas ?? {};
   const responses: Record<string, unknown> = { ...successAnswer(spec) };
-  if (s.body || s.query || s.params || spec.path.includes(':'))
+  if (s.body || s.form || s.query || s.params || spec.path.includes(':'))
     responses['400'] = errorAnswer(
       'Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation.',
     );
@@ -123,14 +151,7 @@ function operation(spec: RouteSpec, tag: string) {
     'x-roles': isPublic ? 'public' : roles,
     ...(isPublic ? { security: [] } : {}),
     ...(parameters(spec).length ? { parameters: parameters(spec) } : {}),
-    ...(s.body
-      ? {
-          requestBody: {
-            required: true,
-            content: { 'application/json': { schema: jsonSchema(s.body, 'input') } },
-          },
-        }
-      : {}),
+    ...requestBody(s),
     responses,
   };
 }

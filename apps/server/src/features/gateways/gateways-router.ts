@@ -1,4 +1,4 @@
-import { gatewayKeySchema, gatewayListSchema } from '@turnstone/contracts/gateways';
+import { gatewayKeySchema, gatewayListSchema, gatewaySchema } from '@turnstone/contracts/gateways';
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './gateways-service.ts';
@@ -30,10 +30,10 @@ export function gatewayRoutes(ctx: AppContext): RouteSpec[] {
       path: '/gateways/:id/revoke',
       access: ['admin'],
       summary: 'revoke a gateway key',
-      schemas: { params: idParam },
+      schemas: { params: idParam, response: gatewaySchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        res.json(await service.revokeGateway(ctx.db, requireUser(req), id));
+        res.json(gatewaySchema.parse(await service.revokeGateway(ctx.db, requireUser(req), id)));
       },
     },
     {

@@ -5,6 +5,9 @@ import {
   pointInputSchema,
   setupTreeSchema,
   siteInputSchema,
+  savedAreaSchema,
+  savedIdSchema,
+  savedSiteSchema,
 } from '@turnstone/contracts/setup';
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
@@ -31,10 +34,12 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/sites',
       access: ADMIN,
       summary: 'create a site',
-      schemas: { body: siteInputSchema, status: 201 },
+      schemas: { body: siteInputSchema, response: savedSiteSchema, status: 201 },
       handler: async (req, res) => {
         const body = siteInputSchema.parse(req.body);
-        res.status(201).json(await service.createSite(db, requireUser(req), body));
+        res
+          .status(201)
+          .json(savedSiteSchema.parse(await service.createSite(db, requireUser(req), body)));
       },
     },
     {
@@ -42,11 +47,11 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/sites/:id',
       access: ADMIN,
       summary: 'update a site',
-      schemas: { params: idParam, body: siteInputSchema },
+      schemas: { params: idParam, body: siteInputSchema, response: savedSiteSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = siteInputSchema.parse(req.body);
-        res.json(await service.updateSite(db, requireUser(req), id, body));
+        res.json(savedSiteSchema.parse(await service.updateSite(db, requireUser(req), id, body)));
       },
     },
     {
@@ -54,10 +59,12 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/areas',
       access: ADMIN,
       summary: 'create an area',
-      schemas: { body: areaInputSchema, status: 201 },
+      schemas: { body: areaInputSchema, response: savedAreaSchema, status: 201 },
       handler: async (req, res) => {
         const body = areaInputSchema.parse(req.body);
-        res.status(201).json(await service.createArea(db, requireUser(req), body));
+        res
+          .status(201)
+          .json(savedAreaSchema.parse(await service.createArea(db, requireUser(req), body)));
       },
     },
     {
@@ -65,11 +72,11 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/areas/:id',
       access: ADMIN,
       summary: 'rename an area',
-      schemas: { params: idParam, body: areaUpdateSchema },
+      schemas: { params: idParam, body: areaUpdateSchema, response: savedAreaSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = areaUpdateSchema.parse(req.body);
-        res.json(await service.updateArea(db, requireUser(req), id, body));
+        res.json(savedAreaSchema.parse(await service.updateArea(db, requireUser(req), id, body)));
       },
     },
     {
@@ -77,10 +84,12 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/machines',
       access: BUILDERS,
       summary: 'create a machine with its components',
-      schemas: { body: machineInputSchema, status: 201 },
+      schemas: { body: machineInputSchema, response: savedIdSchema, status: 201 },
       handler: async (req, res) => {
         const body = machineInputSchema.parse(req.body);
-        res.status(201).json(await service.createMachine(db, requireUser(req), body));
+        res
+          .status(201)
+          .json(savedIdSchema.parse(await service.createMachine(db, requireUser(req), body)));
       },
     },
     {
@@ -88,11 +97,11 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/machines/:id',
       access: BUILDERS,
       summary: 'update a machine and replace its components',
-      schemas: { params: idParam, body: machineInputSchema },
+      schemas: { params: idParam, body: machineInputSchema, response: savedIdSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = machineInputSchema.parse(req.body);
-        res.json(await service.updateMachine(db, requireUser(req), id, body));
+        res.json(savedIdSchema.parse(await service.updateMachine(db, requireUser(req), id, body)));
       },
     },
     {
@@ -112,10 +121,12 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points',
       access: BUILDERS,
       summary: 'create a measurement point',
-      schemas: { body: pointInputSchema, status: 201 },
+      schemas: { body: pointInputSchema, response: savedIdSchema, status: 201 },
       handler: async (req, res) => {
         const body = pointInputSchema.parse(req.body);
-        res.status(201).json(await points.createPoint(db, requireUser(req), body));
+        res
+          .status(201)
+          .json(savedIdSchema.parse(await points.createPoint(db, requireUser(req), body)));
       },
     },
     {
@@ -123,11 +134,11 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id',
       access: BUILDERS,
       summary: 'update a measurement point',
-      schemas: { params: idParam, body: pointInputSchema },
+      schemas: { params: idParam, body: pointInputSchema, response: savedIdSchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = pointInputSchema.parse(req.body);
-        res.json(await points.updatePoint(db, requireUser(req), id, body));
+        res.json(savedIdSchema.parse(await points.updatePoint(db, requireUser(req), id, body)));
       },
     },
     {

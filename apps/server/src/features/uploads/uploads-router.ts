@@ -1,5 +1,6 @@
 import type { Request, Response } from 'express';
 import multer from 'multer';
+import { uploadFieldsSchema, uploadResultSchema } from '@turnstone/contracts/uploads';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
@@ -38,6 +39,12 @@ export function uploadRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id/uploads',
       access: ['engineer', 'admin'],
       summary: 'upload a recording',
+      schemas: {
+        params: idParam,
+        form: { fields: uploadFieldsSchema, file: 'file' },
+        response: uploadResultSchema,
+        status: [201, 200],
+      },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         if (!req.is('multipart/form-data'))

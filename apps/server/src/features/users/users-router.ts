@@ -6,6 +6,7 @@ import {
   resetPasswordSchema,
   updateUserSchema,
   userListSchema,
+  userSummarySchema,
 } from '@turnstone/contracts/users';
 import type { AppContext } from '../../lib/context.ts';
 import { attemptLimiter, clientKey, runLimits } from '../../lib/attempt-limits.ts';
@@ -29,10 +30,12 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
       path: '/users/invite',
       access: ['admin'],
       summary: 'invite a user',
-      schemas: { body: inviteUserSchema, status: 201 },
+      schemas: { body: inviteUserSchema, response: userSummarySchema, status: 201 },
       handler: async (req, res) => {
         const body = inviteUserSchema.parse(req.body);
-        res.status(201).json(await service.inviteUser(ctx, requireUser(req), body));
+        res
+          .status(201)
+          .json(userSummarySchema.parse(await service.inviteUser(ctx, requireUser(req), body)));
       },
     },
     {
@@ -40,11 +43,13 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
       path: '/users/:id',
       access: ['admin'],
       summary: 'change a user',
-      schemas: { params: idParam, body: updateUserSchema },
+      schemas: { params: idParam, body: updateUserSchema, response: userSummarySchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         const body = updateUserSchema.parse(req.body);
-        res.json(await service.updateUser(ctx, requireUser(req), id, body));
+        res.json(
+          userSummarySchema.parse(await service.updateUser(ctx, requireUser(req), id, body)),
+        );
       },
     },
     {
@@ -52,10 +57,12 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
       path: '/users/:id/disable',
       access: ['admin'],
       summary: 'disable a user',
-      schemas: { params: idParam },
+      schemas: { params: idParam, response: userSummarySchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        res.json(await service.setDisabled(ctx, requireUser(req), id, true));
+        res.json(
+          userSummarySchema.parse(await service.setDisabled(ctx, requireUser(req), id, true)),
+        );
       },
     },
     {
@@ -63,10 +70,12 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
       path: '/users/:id/enable',
       access: ['admin'],
       summary: 'enable a user',
-      schemas: { params: idParam },
+      schemas: { params: idParam, response: userSummarySchema },
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
-        res.json(await service.setDisabled(ctx, requireUser(req), id, false));
+        res.json(
+          userSummarySchema.parse(await service.setDisabled(ctx, requireUser(req), id, false)),
+        );
       },
     },
   ];

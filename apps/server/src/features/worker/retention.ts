@@ -188,6 +188,81 @@ export async function expireRawSamplesPass(
   );
 }
 
+/** The tier boundaries of a pass at `now`. */
+export function thinningCutoffs(
+  policy: Pick<RetentionPolicy, 'spectraWholeDays' | 'spectraHourlyDays' | 'keepWindowMinutes'>,
+  now: Date,
+) {
+  return {
+    wholeCutoff: new Date(now.getTime() - policy.spectraWholeDays * DAY_MS),
+    dailyCutoff: midnightBefore(now, Math.max(policy.spectraHourlyDays, policy.spectraWholeDays)),
+    win: Math.max(0, Math.floor(policy.keepWindowMinutes)),
+  };
+}
+
+/**
+ * The ids in (lo, hi] whose spectra the pass clears, at most `limit`, ascending (exported so
+ * the storage bench can EXPLAIN it).
+ */
+export function thinningCandidates(
+  { wholeCutoff, dailyCutoff, win }: ReturnType<typeof thinningCutoffs>,
+  lo: number,
+  hi: number,
+  limit: number,
+) {
+  return sql`
+        SELECT a.id FROM analyses a JOIN snapshots s ON s.id = a.snapshot_id
+     WHERE a.id > ${lo} AND a.id <= ${hi}
+       AND a.taken_at < ${wholeCutoff}
+       AND a.spectra_thinned_at IS NULL
+       AND (a.spectra IS NOT NULL OR a.accel_spectrum IS NOT NULL
+            OR a.velocity_spectrum IS NOT NULL OR a.envelope_spectrum IS NOT NULL
+            OR a.order_spectrum IS NOT NULL)
+       AND s.source <> 'upload'
+       -- not the first capture of its point in its bucket (hour, or day before dailyCutoff)
+       AND EXISTS (
+         SELECT 1 FROM analyses b
+          WHERE b.point_id = a.point_id
+            AND b.taken_at >= IF(a.taken_at < ${dailyCutoff},
+                                 TIMESTAMP(DATE(a.taken_at)),
+                                 TIMESTAMP(DATE(a.taken_at), MAKETIME(HOUR(a.taken_at), 0, 0)))
+            AND (b.taken_at < a.taken_at OR (b.taken_at = a.taken_at AND b.id < a.id)))
+       -- alert events of the point (raise, escalation, acknowledgement, clearance)
+       AND NOT EXISTS (
+         SELECT 1 FROM alerts al JOIN alert_events e ON e.alert_id = al.id
+          WHERE al.point_id = a.point_id
+            AND e.at BETWEEN a.taken_at - INTERVAL ${win} MINUTE
+                         AND a.taken_at + INTERVAL ${win} MINUTE)
+       AND NOT EXISTS (
+         SELECT 1 FROM alerts al WHERE al.point_id = a.point_id AND al.peak_at = a.taken_at)
+       AND NOT EXISTS (
+         SELECT 1 FROM findings f
+          WHERE f.point_id = a.point_id
+            AND f.created_at BETWEEN a.taken_at - INTERVAL ${win} MINUTE
+                                 AND a.taken_at + INTERVAL ${win} MINUTE)
+       -- the capture where a point's captures turned suspect (unusable ones thin like any other)
+       AND NOT EXISTS (
+         SELECT 1 FROM quality_notices qn WHERE qn.analysis_id = a.id AND qn.verdict = 'suspect')
+       -- the first capture after a change of the point's limits
+       AND NOT EXISTS (
+         SELECT 1 FROM audit_log l
+          WHERE l.entity = 'point' AND l.entity_id = CAST(a.point_id AS CHAR)
+            AND l.action IN ('limits.update', 'limits.baseline') AND l.at <= a.taken_at
+            AND NOT EXISTS (
+              SELECT 1 FROM analyses c
+               WHERE c.point_id = a.point_id AND c.taken_at >= l.at
+                 AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
+       AND NOT EXISTS (
+         SELECT 1 FROM limit_sets ls
+          WHERE ls.point_id = a.point_id AND ls.updated_at <= a.taken_at
+            AND NOT EXISTS (
+              SELECT 1 FROM analyses c
+               WHERE c.point_id = a.point_id AND c.taken_at >= ls.updated_at
+                 AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
+     ORDER BY a.id
+     LIMIT ${limit}`;
+}
+
 /**
  * Clears the spectra of captures outside their tier's keep set (see the file comment);
  * `now` fixes the tiers. Returns the rows thinned and the batches it took.
@@ -199,72 +274,14 @@ export async function thinSpectra(
   opts: BatchOptions = {},
 ): Promise<PassResult> {
   if (policy.spectraWholeDays <= 0) return { rows: 0, batches: 0 };
-  const wholeCutoff = new Date(now.getTime() - policy.spectraWholeDays * DAY_MS);
-  const dailyCutoff = midnightBefore(
-    now,
-    Math.max(policy.spectraHourlyDays, policy.spectraWholeDays),
-  );
-  const win = Math.max(0, Math.floor(policy.keepWindowMinutes));
+  const cut = thinningCutoffs(policy, now);
   const o = batchOptions(opts);
   const [top] = await rowsOf(db, sql`SELECT COALESCE(MAX(id), 0) AS maxId FROM analyses`);
   return inBatches(
     Number(top?.maxId ?? 0),
     o,
     async (lo, hi, limit) => {
-      const rows = await rowsOf(
-        db,
-        sql`
-        SELECT a.id FROM analyses a JOIN snapshots s ON s.id = a.snapshot_id
-         WHERE a.id > ${lo} AND a.id <= ${hi}
-           AND a.taken_at < ${wholeCutoff}
-           AND a.spectra_thinned_at IS NULL
-           AND (a.spectra IS NOT NULL OR a.accel_spectrum IS NOT NULL
-                OR a.velocity_spectrum IS NOT NULL OR a.envelope_spectrum IS NOT NULL
-                OR a.order_spectrum IS NOT NULL)
-           AND s.source <> 'upload'
-           -- not the first capture of its point in its bucket (hour, or day before dailyCutoff)
-           AND EXISTS (
-             SELECT 1 FROM analyses b
-              WHERE b.point_id = a.point_id
-                AND b.taken_at >= IF(a.taken_at < ${dailyCutoff},
-                                     TIMESTAMP(DATE(a.taken_at)),
-                                     TIMESTAMP(DATE(a.taken_at), MAKETIME(HOUR(a.taken_at), 0, 0)))
-                AND (b.taken_at < a.taken_at OR (b.taken_at = a.taken_at AND b.id < a.id)))
-           -- alert events of the point (raise, escalation, acknowledgement, clearance)
-           AND NOT EXISTS (
-             SELECT 1 FROM alerts al JOIN alert_events e ON e.alert_id = al.id
-              WHERE al.point_id = a.point_id
-                AND e.at BETWEEN a.taken_at - INTERVAL ${win} MINUTE
-                             AND a.taken_at + INTERVAL ${win} MINUTE)
-           AND NOT EXISTS (
-             SELECT 1 FROM alerts al WHERE al.point_id = a.point_id AND al.peak_at = a.taken_at)
-           AND NOT EXISTS (
-             SELECT 1 FROM findings f
-              WHERE f.point_id = a.point_id
-                AND f.created_at BETWEEN a.taken_at - INTERVAL ${win} MINUTE
-                                     AND a.taken_at + INTERVAL ${win} MINUTE)
-           -- the capture where a point's captures turned suspect (unusable ones thin like any other)
-           AND NOT EXISTS (
-             SELECT 1 FROM quality_notices qn WHERE qn.analysis_id = a.id AND qn.verdict = 'suspect')
-           -- the first capture after a change of the point's limits
-           AND NOT EXISTS (
-             SELECT 1 FROM audit_log l
-              WHERE l.entity = 'point' AND l.entity_id = CAST(a.point_id AS CHAR)
-                AND l.action IN ('limits.update', 'limits.baseline') AND l.at <= a.taken_at
-                AND NOT EXISTS (
-                  SELECT 1 FROM analyses c
-                   WHERE c.point_id = a.point_id AND c.taken_at >= l.at
-                     AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
-           AND NOT EXISTS (
-             SELECT 1 FROM limit_sets ls
-              WHERE ls.point_id = a.point_id AND ls.updated_at <= a.taken_at
-                AND NOT EXISTS (
-                  SELECT 1 FROM analyses c
-                   WHERE c.point_id = a.point_id AND c.taken_at >= ls.updated_at
-                     AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
-         ORDER BY a.id
-         LIMIT ${limit}`,
-      );
+      const rows = await rowsOf(db, thinningCandidates(cut, lo, hi, limit));
       return rows.map((r) => Number(r.id));
     },
     (ids) =>

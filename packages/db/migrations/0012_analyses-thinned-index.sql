@@ -1,0 +1,1 @@
+CREATE INDEX `analyses_thinned_idx` ON `analyses` (`spectra_thinned_at`,`id`);
