@@ -28,6 +28,8 @@ let seq = 0;
 const TAG = 'MFP-P101-MDE-H';
 const ENGINEER = 'engineer@turnstone.local';
 const PLANNER = 'planner@turnstone.local';
+/** The demo operator works at MFP and has every operator's default: its alerts, at once. */
+const OPERATOR = 'operator@turnstone.local';
 
 /** Peak g of a 24.7 Hz tone of `mmS` mm/s RMS (v = a/2πf, RMS = peak/√2; calculus of a sinusoid, textbook). */
 const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
@@ -89,9 +91,10 @@ describe('alert notifications', () => {
     );
     expect(raisedEvents.length).toBeGreaterThan(0);
     const rows = await q(`SELECT * FROM outbox WHERE kind = 'alert-raised'`);
-    // Engineer subscribes to every alert on both sites; planner only to danger.
-    expect(rows.length).toBe(raisedEvents.length);
-    expect(new Set(rows.map((r) => r.to_address))).toEqual(new Set([ENGINEER]));
+    // Engineer subscribes to every alert on both sites, the operator (by default) to those of
+    // MFP; the planner only to danger.
+    expect(rows.length).toBe(2 * raisedEvents.length);
+    expect(new Set(rows.map((r) => r.to_address))).toEqual(new Set([ENGINEER, OPERATOR]));
 
     const results = await srv.mail.sender.drain();
     expect(results.filter((r) => r.result === 'sent').length).toBe(rows.length);
@@ -100,9 +103,8 @@ describe('alert notifications', () => {
     const mails = (await received('Alert raised')).filter((m) =>
       String(m.subject).includes('Overall'),
     );
-    expect(mails.length).toBe(1);
-    const m = mails[0]!;
-    expect(m.mail_to).toBe(ENGINEER);
+    expect(mails.map((x) => x.mail_to).sort()).toEqual([ENGINEER, OPERATOR]);
+    const m = mails.find((x) => x.mail_to === ENGINEER)!;
     const text = String(m.text_body);
     expect(text).toContain('Intake pump P-101');
     expect(text).toContain(TAG);
@@ -142,13 +144,13 @@ describe('alert notifications', () => {
     expect(await srv.mail.sender.drain()).toEqual([]);
   });
 
-  it('when the alert escalates to danger, the planner (danger only) and the engineer each get one', async () => {
+  it('when the alert escalates to danger, the planner (danger only), the operator and the engineer each get one', async () => {
     await capture([6, 6]);
     await srv.mail.sender.drain();
     const esc = (await received('Escalated to danger')).filter((m) =>
       String(m.subject).includes('Overall'),
     );
-    expect(esc.map((m) => m.mail_to).sort()).toEqual([ENGINEER, PLANNER]);
+    expect(esc.map((m) => m.mail_to).sort()).toEqual([ENGINEER, OPERATOR, PLANNER]);
     expect(String(esc[0]!.text_body)).toMatch(/against the danger level 4\.50 mm\/s/);
   });
 
@@ -163,7 +165,7 @@ describe('alert notifications', () => {
     const cleared = (await received('cleared')).filter((m) =>
       String(m.subject).includes('Overall'),
     );
-    expect(cleared.map((m) => m.mail_to).sort()).toEqual([ENGINEER, PLANNER]);
+    expect(cleared.map((m) => m.mail_to).sort()).toEqual([ENGINEER, OPERATOR, PLANNER]);
     expect(String(cleared[0]!.text_body)).toMatch(/back below the danger level 4\.50 mm\/s/);
   });
 });

@@ -303,6 +303,19 @@ describe('tiered thinning', () => {
     expect(ok.status).toBe(200);
   });
 
+  it('the analyses list marks which captures had their spectra thinned', async () => {
+    const res = await srv.call('GET', `/api/v1/points/${pointId}/analyses?limit=200`, { cookie });
+    expect(res.status).toBe(200);
+    const flags = new Map(
+      (await res.json()).items.map((i: { id: number; spectraThinned: boolean }) => [
+        i.id,
+        i.spectraThinned,
+      ]),
+    );
+    for (const l of thin) expect(flags.get(id(l))).toBe(true);
+    for (const l of keep) expect(flags.get(id(l))).toBe(false);
+  });
+
   it('the waterfall skips thinned captures', async () => {
     const res = await srv.call('GET', `/api/v1/points/${pointId}/waterfall?limit=50`, { cookie });
     expect(res.status).toBe(200);

@@ -177,6 +177,36 @@ describe('users admin', () => {
     expect((a!.after as { siteIds: number[] }).siteIds).toEqual([1, 2]);
   });
 
+  it('an operator is subscribed to the alerts of each site they are given; their own change stays', async () => {
+    const subs = async (userId: number) =>
+      (
+        await q(
+          'SELECT site_id, machine_id, min_level, cadence FROM subscriptions WHERE user_id = ? ORDER BY site_id',
+          [userId],
+        )
+      ).map((r) => [Number(r.site_id), r.machine_id, r.min_level, r.cadence]);
+    const op = await invite('oona@example.test', 'operator', [1]);
+    expect(await subs(op.id)).toEqual([[1, null, 'alert', 'immediate']]);
+    // The operator chooses danger only at site 1; a second site later gets the default, and
+    // their choice at site 1 stays.
+    await q("UPDATE subscriptions SET min_level = 'danger' WHERE user_id = ?", [op.id]);
+    const patched = await srv.call('PATCH', `/api/v1/users/${op.id}`, {
+      cookie: admin,
+      body: { siteIds: [1, 2] },
+    });
+    expect(patched.status).toBe(200);
+    expect(await subs(op.id)).toEqual([
+      [1, null, 'danger', 'immediate'],
+      [2, null, 'alert', 'immediate'],
+    ]);
+    // Taking a site away takes its subscriptions with it.
+    await srv.call('PATCH', `/api/v1/users/${op.id}`, { cookie: admin, body: { siteIds: [2] } });
+    expect(await subs(op.id)).toEqual([[2, null, 'alert', 'immediate']]);
+    // Other roles choose for themselves: an invited engineer starts with none.
+    const eng = await invite('enzo@example.test', 'engineer', [1]);
+    expect(await subs(eng.id)).toEqual([]);
+  });
+
   it('disabling a user ends their session at once; enabling lets them sign in again', async () => {
     const [pl] = await q("SELECT id FROM users WHERE email = 'planner@turnstone.local'");
     const c = await srv.signIn('planner');
@@ -319,7 +349,10 @@ describe('account', () => {
     const got = await (
       await srv.call('GET', '/api/v1/account/subscriptions', { cookie: op })
     ).json();
-    expect(got.items).toEqual([]);
+    // Every operator hears of their sites' alerts by default (the demo operator too).
+    expect(got.items).toEqual([
+      { siteId: 1, machineId: null, minLevel: 'alert', cadence: 'immediate' },
+    ]);
     expect(got.options.sites.map((s: { code: string }) => s.code)).toEqual(['MFP']);
     const machineId = got.options.machines[0].id;
     const put = await srv.call('PUT', '/api/v1/account/subscriptions', {

@@ -63,6 +63,9 @@ describe('a thinned capture on the point page', () => {
     await page.getByRole('tab', { name: 'Spectrum' }).click();
     // The newest capture (09:00) is chosen first; its spectra were thinned.
     await page.getByText('Spectrum no longer stored').waitFor();
+    // The picker marks the thinned captures.
+    const picker = page.getByLabel('Snapshot', { exact: true });
+    expect(await picker.locator('option', { hasText: 'values only' }).count()).toBe(2);
     await page.getByText(/retention policy/).waitFor();
     await screenshot(page, 'retention-thinned-spectrum');
     await page.getByRole('button', { name: /^Open the capture of/ }).click();

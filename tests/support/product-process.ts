@@ -2,10 +2,13 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { join } from 'node:path';
 
-const tsx = join(process.cwd(), 'node_modules', 'tsx', 'dist', 'cli.mjs');
-
+/**
+ * One process, not tsx's command-line wrapper: the wrapper runs the script in a child of its
+ * own, so a SIGKILL sent to it would leave the real product running, unkilled and orphaned.
+ * With tsx's loader imported into node itself, the pid is the product's.
+ */
 export function spawnNode(script: string, env: Record<string, string>): ChildProcess {
-  return spawn(process.execPath, [tsx, script], {
+  return spawn(process.execPath, ['--import', 'tsx', join(process.cwd(), script)], {
     env: { ...process.env, ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
   });

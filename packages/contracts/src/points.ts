@@ -159,6 +159,8 @@ export const analysisSummarySchema = z.object({
   diagnosis: diagnosisSchema.nullable(),
   /** 1× and 2× vectors; null without a tach. */
   shaftVectors: z.array(shaftVectorSchema).nullable(),
+  /** True when the retention policy cleared this capture's spectra (its values stay). */
+  spectraThinned: z.boolean().optional(),
 });
 export type AnalysisSummary = z.infer<typeof analysisSummarySchema>;
 

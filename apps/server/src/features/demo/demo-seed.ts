@@ -18,6 +18,7 @@ import {
 import type { AppContext } from '../../lib/context.ts';
 import { hashPassword } from '../../lib/passwords.ts';
 import { seedDemoSubscriptions } from '../mail/mail-seed.ts';
+import { subscribeToSiteAlerts } from '../account/account-repository.ts';
 import { demoPlant, demoUsers } from '../../../../../seed/demo-plant.ts';
 import { commissionDemoGateways, seedDemoHistory } from './demo-history.ts';
 
@@ -104,6 +105,13 @@ export async function seedPlant(ctx: AppContext): Promise<void> {
         .$returningId();
       for (const code of u.sites)
         await tx.insert(userSites).values({ userId: ui!.id, siteId: siteIds.get(code)! });
+      // The default every operator gets when made (see users-service): their sites' alerts.
+      if (u.role === 'operator')
+        await subscribeToSiteAlerts(
+          tx,
+          ui!.id,
+          u.sites.map((code) => siteIds.get(code)!),
+        );
     }
   });
 }

@@ -4,7 +4,8 @@ import type { AppContext } from '../../lib/context.ts';
 
 /**
  * Demo notification settings: the engineer hears of every alert at once on both sites;
- * the planner hears of danger at once and gets the Monday digest.
+ * the planner hears of danger at once and gets the Monday digest. The operator has the
+ * default every operator gets (their sites' alerts at once), given when the user was made.
  */
 export async function seedDemoSubscriptions(ctx: AppContext): Promise<void> {
   const people = await ctx.db

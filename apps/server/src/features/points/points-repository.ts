@@ -41,6 +41,7 @@ const summaryColumns = {
   bitsUsed: analyses.bitsUsed,
   diagnosis: analyses.diagnosis,
   shaftVectors: analyses.shaftVectors,
+  spectraThinnedAt: analyses.spectraThinnedAt,
 };
 export type AnalysisSummaryRow = Awaited<ReturnType<typeof listAnalyses>>[number];
 

@@ -63,6 +63,7 @@ function summaryOf(r: repo.AnalysisSummaryRow): AnalysisSummary {
     },
     diagnosis: (r.diagnosis as Diagnosis | null) ?? null,
     shaftVectors: (r.shaftVectors as ShaftVectorItem[] | null) ?? null,
+    spectraThinned: r.spectraThinnedAt !== null,
   };
 }
 

@@ -14,6 +14,7 @@ import { hashPassword } from '../../lib/passwords.ts';
 import { enqueueMail } from '../mail/outbox-repository.ts';
 import { mailBaseUrl } from '../mail/mail-links.ts';
 import * as repo from './users-repository.ts';
+import { dropSubscriptionsOutside, subscribeToSiteAlerts } from '../account/account-repository.ts';
 import { consumeToken, findUsableToken, issueToken, type TokenPurpose } from './user-tokens.ts';
 import { renderInvite, renderReset } from './user-mail.ts';
 
@@ -71,6 +72,8 @@ export async function inviteUser(ctx: AppContext, actor: SessionUser, input: Inv
       passwordHash: null,
     });
     await repo.setSites(tx, userId, siteIds);
+    // Operators hear of their sites' alerts unless they choose otherwise (Account screen).
+    if (input.role === 'operator') await subscribeToSiteAlerts(tx, userId, siteIds);
     const token = await issueToken(tx, userId, 'invite');
     await enqueueMail(tx, {
       kind: 'invite',
@@ -105,7 +108,18 @@ export async function updateUser(
       ...(input.role ? { role: input.role } : {}),
       ...(input.name ? { name: input.name } : {}),
     });
-    if (siteIds) await repo.setSites(tx, id, siteIds);
+    if (siteIds) {
+      await repo.setSites(tx, id, siteIds);
+      await dropSubscriptionsOutside(tx, id, siteIds);
+    }
+    // An operator given sites (or a user made operator) hears of their alerts by default.
+    const role = input.role ?? before.role;
+    if (role === 'operator') {
+      const now = siteIds ?? before.siteIds;
+      const added =
+        before.role === 'operator' ? now.filter((s) => !before.siteIds.includes(s)) : now;
+      await subscribeToSiteAlerts(tx, id, added);
+    }
     await writeAudit(tx, {
       actorUserId: actor.id,
       action: 'user.update',

@@ -16,6 +16,11 @@ describe('snapshotLabel', () => {
     expect(snapshotLabel(analysis)).toMatch(/ · 4\.60 mm\/s \(10–1000 Hz\) · OK$/);
   });
 
+  it('a capture whose spectra retention thinned is marked as values only', () => {
+    expect(snapshotLabel({ ...analysis, spectraThinned: true })).toMatch(/ · OK · values only$/);
+    expect(snapshotLabel({ ...analysis, spectraThinned: false })).toMatch(/ · OK$/);
+  });
+
   it('when an older capture has no band, the label says so', () => {
     const old = { ...analysis, overall: { ...analysis.overall, velocityBandHz: null } };
     expect(snapshotLabel(old as AnalysisSummary)).toContain('4.60 mm/s (band not recorded)');

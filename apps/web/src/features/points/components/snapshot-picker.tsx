@@ -5,7 +5,7 @@ import { formatBandHz, formatDateTime } from '../../../lib/format.ts';
 const verdictText = { ok: 'OK', suspect: 'suspect', unusable: 'unusable' } as const;
 
 export function snapshotLabel(a: AnalysisSummary): string {
-  return `${formatDateTime(a.takenAt)} · ${a.overall.velocityRmsMmS.toFixed(2)} mm/s (${formatBandHz(a.overall.velocityBandHz)}) · ${verdictText[a.verdict]}`;
+  return `${formatDateTime(a.takenAt)} · ${a.overall.velocityRmsMmS.toFixed(2)} mm/s (${formatBandHz(a.overall.velocityBandHz)}) · ${verdictText[a.verdict]}${a.spectraThinned ? ' · values only' : ''}`;
 }
 
 /** Picks one capture of the point from its analyses list (newest first). */
