@@ -93,7 +93,9 @@ describe('admin setup screens in a real browser', () => {
     await pf.getByLabel('Location').fill('Pump DE');
     await pf.getByLabel('Bearing').selectOption({ label: 'Pump DE (6311)' });
     await pf.getByRole('button', { name: 'Create point' }).click();
-    await pf.getByText('Tag MFP-P102-MDE-H is already used by another point of this site.').waitFor();
+    await pf
+      .getByText('Tag MFP-P102-MDE-H is already used by another point of this site.')
+      .waitFor();
     await screenshot(page, 'setup-point-duplicate-tag');
     await pf.getByLabel('Tag').fill('MFP-P160-PDE-H');
     await pf.getByRole('button', { name: 'Create point' }).click();
