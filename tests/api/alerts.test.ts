@@ -94,6 +94,16 @@ describe('alerts through ingest', () => {
       await srv.call('GET', `/api/v1/alerts/${raised!.id}`, { cookie: cookies.get('planner') })
     ).json();
     expect(detail.history.map((h: { kind: string }) => h.kind)).toEqual(['raised', 'escalated']);
+    // How it clears, from the point's limit set in force: clear level = hysteresis 0.9 ×
+    // alert level 2.8 = 2.52 mm/s, 3 values in a row, off-delay 120 h (the template's rules,
+    // TEMPLATE_DEFAULTS / NEW_BAND_RULES; common practice, no source).
+    expect(detail.clearRule).toMatchObject({
+      alertLevel: 2.8,
+      dangerLevel: 4.5,
+      clearPersistence: 3,
+      clearAfterHours: 120,
+    });
+    expect(detail.clearRule.clearLevel).toBeCloseTo(0.9 * 2.8, 10);
   });
 
   it('captures turning suspect (under-range) give one notice per turn, not one per capture', async () => {

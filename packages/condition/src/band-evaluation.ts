@@ -9,6 +9,7 @@ import {
 } from './baseline.ts';
 import {
   bandClearAfterHours,
+  bandClearLevel,
   bandClearPersistence,
   bandHysteresis,
   bandPersistence,
@@ -292,7 +293,7 @@ export function evaluateBand(
     overDanger && ((state.dangerRun > 0 && state.dangerRunSuspect) || suspect);
 
   const n = bandPersistence(band);
-  const clearBelow = bandHysteresis(band) * levels.alertLevel;
+  const clearBelow = bandClearLevel(band, levels);
   const below = state.condition !== 'normal' && sample.value < clearBelow;
   let clearRun = below ? (state.clearRun ?? 0) + 1 : 0;
   const raiseHeldAt = alertRun >= n ? sample.takenAt : (state.raiseHeldAt ?? null);

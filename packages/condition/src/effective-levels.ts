@@ -110,3 +110,11 @@ export function bandClearAfterHours(band: BandDefinition): number {
 export function bandHysteresis(band: BandDefinition): number {
   return band.hysteresis ?? DEFAULT_HYSTERESIS;
 }
+
+/**
+ * The clear level of a raised band: h × the alert level in force; a value strictly below it
+ * counts towards clearing (`evaluateBand` rule 6). Common practice, no source.
+ */
+export function bandClearLevel(band: BandDefinition, levels: EffectiveLevels): number {
+  return bandHysteresis(band) * levels.alertLevel;
+}

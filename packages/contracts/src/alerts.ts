@@ -72,8 +72,28 @@ export const alertEventSchema = z.object({
 });
 export type AlertEvent = z.infer<typeof alertEventSchema>;
 
+/**
+ * How an open alert of this band clears, from the point's limit set in force (levels as the
+ * worker judges: statistical once the baseline is complete).
+ */
+export const alertClearRuleSchema = z.object({
+  /** The alert level in force, in the alert's unit. */
+  alertLevel: z.number(),
+  /** The danger level in force. */
+  dangerLevel: z.number(),
+  /** Values strictly below it count towards clearing (hysteresis × the alert level). */
+  clearLevel: z.number(),
+  /** Consecutive values below the clear level needed to clear. */
+  clearPersistence: z.number().int(),
+  /** Off-delay, hours: the raise rule must not have held for this long (0: none). */
+  clearAfterHours: z.number(),
+});
+export type AlertClearRule = z.infer<typeof alertClearRuleSchema>;
+
 /** `GET /api/v1/alerts/:id` */
 export const alertDetailSchema = alertSchema.extend({
+  /** Null when the point's limit set no longer has the band. */
+  clearRule: alertClearRuleSchema.nullable(),
   history: z.array(alertEventSchema),
   /** Diagnosis hints of the point's newest capture; null when it has none stored. */
   currentDiagnosis: currentDiagnosisSchema.nullable(),

@@ -5,8 +5,20 @@
  * cannot race the worker judging a new capture of the same point.
  */
 
-import { acknowledgeAlert, type PointState } from '@turnstone/condition';
-import type { Alert, AlertDetail, AlertListQuery } from '@turnstone/contracts/alerts';
+import {
+  acknowledgeAlert,
+  bandClearAfterHours,
+  bandClearLevel,
+  bandClearPersistence,
+  levelsInForce,
+  type PointState,
+} from '@turnstone/condition';
+import type {
+  Alert,
+  AlertClearRule,
+  AlertDetail,
+  AlertListQuery,
+} from '@turnstone/contracts/alerts';
 import { alertListQuerySchema } from '@turnstone/contracts/alerts';
 
 import type { AppContext } from '../../lib/context.ts';
@@ -15,6 +27,8 @@ import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import * as conditionRepo from '../condition/condition-repository.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import { currentDiagnosis } from '../points/points-service.ts';
+import { loadLimitSet } from '../limits/limit-set-repository.ts';
+import { bandStatesOf } from '../points/points-repository.ts';
 import * as repo from './alerts-repository.ts';
 import { decodeCursor, pageOf } from '../../lib/cursor.ts';
 
@@ -48,6 +62,32 @@ export async function listAlerts(ctx: AppContext, user: SessionUser, query: Aler
   return { items: page.items.map(toAlert), nextCursor: page.nextCursor };
 }
 
+/**
+ * How the band's open alert clears under the point's limit set in force: the levels the
+ * worker judges at (`levelsInForce`), its clear level and clear rules (`evaluateBand` rule 6).
+ * Null when the set no longer has the band.
+ */
+async function clearRuleOf(
+  ctx: AppContext,
+  pointId: number,
+  bandKey: string,
+): Promise<AlertClearRule | null> {
+  const [set, states] = await Promise.all([
+    loadLimitSet(ctx.db, pointId),
+    bandStatesOf(ctx.db, pointId),
+  ]);
+  const band = set?.bands.find((b) => b.key === bandKey);
+  if (!band) return null;
+  const levels = levelsInForce(band, states.get(bandKey));
+  return {
+    alertLevel: levels.alertLevel,
+    dangerLevel: levels.dangerLevel,
+    clearLevel: bandClearLevel(band, levels),
+    clearPersistence: bandClearPersistence(band),
+    clearAfterHours: bandClearAfterHours(band),
+  };
+}
+
 export async function getAlert(
   ctx: AppContext,
   user: SessionUser,
@@ -57,12 +97,14 @@ export async function getAlert(
   if (!row) throw notFound('Alert');
   if (!canSeeSite(user, row.siteId))
     throw forbidden('This alert belongs to a site you are not assigned to.');
-  const [history, current] = await Promise.all([
+  const [history, current, clearRule] = await Promise.all([
     repo.alertHistory(ctx.db, id),
     currentDiagnosis(ctx.db, row.pointId),
+    clearRuleOf(ctx, row.pointId, row.bandKey),
   ]);
   return {
     ...toAlert(row),
+    clearRule,
     history: history.map((h) => ({ ...h, at: h.at.toISOString(), userName: h.userName ?? null })),
     currentDiagnosis: current,
   };
