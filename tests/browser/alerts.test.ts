@@ -12,7 +12,8 @@ beforeAll(async () => {
   // P-101 (ISO group 2, rigid: template alert 2.8, danger 4.5 mm/s, persistence 2):
   // two captures at 3.5 mm/s raise alerts on overall velocity and the 1× band.
   const key = await gatewayKey(srv, 1);
-  await captureVelocities(srv, key, 'MFP-P101-MDE-H', [1.5, 3.5, 3.5]);
+  // Ten hours back, so a later test's captures (the last two hours) come after them.
+  await captureVelocities(srv, key, 'MFP-P101-MDE-H', [1.5, 3.5, 3.5], Date.now() - 10 * 3600_000);
 }, 60_000);
 afterAll(async () => {
   await browser?.close();
@@ -72,6 +73,67 @@ describe('alerts screen', () => {
       .click();
     await page.getByRole('region', { name: /Overall velocity/ }).waitFor();
     await screenshot(page, 'alerts-planner-tablet');
+    await page.context().close();
+  });
+
+  it('the alert detail explains its state from the API answer and links to the point and the band trend', async () => {
+    // The overall velocity alert was acknowledged above; two values at 6 mm/s (danger 4.5,
+    // persistence 2) escalate it, which withdraws the acknowledgement.
+    const key = await gatewayKey(srv, 1);
+    await captureVelocities(srv, key, 'MFP-P101-MDE-H', [6, 6]);
+    const cookie = await srv.signIn('operator');
+    const list = await (await srv.call('GET', '/api/v1/alerts', { cookie })).json();
+    type Item = { id: number; pointTag: string; bandKey: string };
+    const ofTag = (list.items as Item[]).filter((a) => a.pointTag === 'MFP-P101-MDE-H');
+    const overall = ofTag.find((a) => a.bandKey === 'overall-velocity')!;
+    const other = ofTag.find((a) => a.bandKey !== 'overall-velocity')!;
+    expect(other).toBeDefined();
+    const detail = await (await srv.call('GET', `/api/v1/alerts/${overall.id}`, { cookie })).json();
+    expect(detail).toMatchObject({ state: 'raised', level: 'danger' });
+    type Event = { kind: string; value: number };
+    const raised = (detail.history as Event[]).find((h) => h.kind === 'raised')!;
+    const escalated = (detail.history as Event[]).find((h) => h.kind === 'escalated')!;
+    // Two decimals below 10 mm/s, as the panel writes levels (common practice, no source).
+    const fmt = (v: number) => `${v.toFixed(2)} mm/s`;
+
+    const page = await newPage(browser);
+    await signInAs(page, srv.url, 'operator');
+    await page.goto(`${srv.url}/alerts?alert=${overall.id}`);
+    const panel = page.getByRole('region', { name: detail.bandName });
+    const explained = panel.getByTestId('alert-state-explained');
+    await explained.waitFor();
+    const text = (await explained.textContent()) ?? '';
+    expect(text).toContain(`Raised at ${fmt(raised.value)} against the alert level`);
+    expect(text).toContain(
+      `escalated to danger at ${fmt(escalated.value)} against the danger level ${fmt(detail.limit)}`,
+    );
+    expect(text).toContain('Escalated to danger after it was acknowledged; acknowledge again.');
+    expect(text).toContain(
+      `${detail.clearRule.clearPersistence} values in a row fall below ${fmt(detail.clearRule.clearLevel)}`,
+    );
+    const highest = panel.locator('dt', { hasText: 'Highest while open' }).locator('+ dd');
+    expect(await highest.textContent()).toBe(fmt(detail.peakValue));
+    await screenshot(page, 'alerts-detail-explained');
+
+    // The band's trend: the point page opens its Trend view on this alert's band (not the
+    // default overall velocity), and Back returns to the open alert.
+    const otherDetail = await (
+      await srv.call('GET', `/api/v1/alerts/${other.id}`, { cookie })
+    ).json();
+    await page.goto(`${srv.url}/alerts?alert=${other.id}`);
+    const otherPanel = page.getByRole('region', { name: otherDetail.bandName });
+    await otherPanel.getByRole('link', { name: `Trend of ${otherDetail.bandName}` }).click();
+    await page.waitForURL(
+      `**/points/${otherDetail.pointId}?band=${encodeURIComponent(otherDetail.bandKey)}`,
+    );
+    const band = page.getByLabel('Band', { exact: true });
+    await band.waitFor();
+    expect(await band.inputValue()).toBe(otherDetail.bandKey);
+    await screenshot(page, 'alerts-detail-trend');
+    await page.goBack();
+    await otherPanel.getByRole('link', { name: `Point ${otherDetail.pointTag}` }).click();
+    await page.waitForURL(`**/points/${otherDetail.pointId}`);
+    await page.getByRole('heading', { name: otherDetail.pointName }).first().waitFor();
     await page.context().close();
   });
 });

@@ -53,7 +53,9 @@ export const paths = {
     },
     point: {
       path: '/points/:pointId',
-      getHref: (pointId: number) => `/points/${pointId}`,
+      /** `band`: open the point's Trend view on this band (its key, `?band=`). */
+      getHref: (pointId: number, band?: string) =>
+        band ? `/points/${pointId}?band=${encodeURIComponent(band)}` : `/points/${pointId}`,
     },
     machine: {
       path: '/machines/:machineId',

@@ -87,7 +87,7 @@ export function renderAlertMail(f: AlertMailFacts, link: string): Rendered {
         : `${f.level === 'danger' ? 'Danger' : 'Alert'} cleared`;
   const valueLine =
     f.kind === 'cleared'
-      ? `${num(f.value)} ${f.unit}, back below the ${f.level} level ${num(f.limit)} ${f.unit} (peak was ${num(f.peak)} ${f.unit})`
+      ? `${num(f.value)} ${f.unit}, back below the ${f.level} level ${num(f.limit)} ${f.unit} (highest while open: ${num(f.peak)} ${f.unit})`
       : `${num(f.value)} ${f.unit} against the ${f.level} level ${num(f.limit)} ${f.unit}`;
   const facts: [string, string][] = [
     ['Machine', `${f.machineName} (${f.siteCode} · ${f.areaName})`],

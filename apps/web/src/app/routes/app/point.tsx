@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { Link, useParams, useSearchParams } from 'react-router-dom';
 import type { PointDetail } from '@turnstone/contracts/points';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
@@ -64,6 +64,7 @@ function LatestValues({ point }: { point: PointDetail }) {
 
 export function PointRoute() {
   const { pointId } = useParams();
+  const [search] = useSearchParams();
   const id = Number(pointId);
   const point = usePoint(id);
   const analyses = useAnalyses({ pointId: id, limit: POINT_PAGE_ANALYSES });
@@ -165,7 +166,7 @@ export function PointRoute() {
               description="The point gets its limit set with its first analysed snapshot."
             />
           ) : (
-            <TrendPanel pointId={p.id} bands={p.bands} />
+            <TrendPanel pointId={p.id} bands={p.bands} initialBand={search.get('band')} />
           ))}
         {tab === 'spectrum' &&
           (snapshotBody() ?? (

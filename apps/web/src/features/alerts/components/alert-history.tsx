@@ -1,4 +1,5 @@
 import { useEffect, useRef } from 'react';
+import { Link } from 'react-router-dom';
 import { Button } from '../../../components/ui/button.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
@@ -9,7 +10,12 @@ import { preloadRoute } from '../../../lib/route-preload.ts';
 import { useAlert } from '../api/get-alert.ts';
 import { HINTS_CAUTION, HintList } from '../../points/components/diagnosis-hints.tsx';
 import { AcknowledgeForm } from './acknowledge-form.tsx';
-import { AlertStateMark, alertEventLabels, formatLevel } from './alert-labels.tsx';
+import {
+  AlertStateMark,
+  alertEventLabels,
+  alertStateSentences,
+  formatLevel,
+} from './alert-labels.tsx';
 
 /**
  * One alert: what it is and every change of its state, oldest first; a raised alert can be
@@ -87,11 +93,22 @@ export function AlertHistory({
         </dd>
         <dt className="text-ink-muted">Last value</dt>
         <dd className="font-mono">{formatLevel(a.value, a.unit)}</dd>
-        <dt className="text-ink-muted">Peak</dt>
+        <dt className="text-ink-muted">Highest while open</dt>
         <dd className="font-mono">{formatLevel(a.peakValue, a.unit)}</dd>
         <dt className="text-ink-muted">Level exceeded</dt>
         <dd className="font-mono">{formatLevel(a.limit, a.unit)}</dd>
       </dl>
+      <p className="text-sm text-ink" data-testid="alert-state-explained">
+        {alertStateSentences(a).join(' ')}
+      </p>
+      <nav aria-label="Where to look next" className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
+        <Link className="text-accent underline" to={paths.app.point.getHref(a.pointId)}>
+          Point {a.pointTag}
+        </Link>
+        <Link className="text-accent underline" to={paths.app.point.getHref(a.pointId, a.bandKey)}>
+          Trend of {a.bandName}
+        </Link>
+      </nav>
       {acknowledge && a.state === 'raised' && (
         <AcknowledgeForm
           ids={[a.id]}

@@ -1,4 +1,4 @@
-import type { AlertStateName } from '@turnstone/contracts/alerts';
+import type { AlertDetail, AlertStateName } from '@turnstone/contracts/alerts';
 import { cn } from '../../../lib/cn.ts';
 
 export const alertStateLabels: Record<AlertStateName, string> = {
@@ -21,6 +21,60 @@ export const unitLabel = (unit: string) => (unit === 'um' ? 'µm' : unit);
 export function formatLevel(value: number, unit: string): string {
   const digits = Math.abs(value) >= 100 ? 0 : Math.abs(value) >= 10 ? 1 : 2;
   return `${value.toFixed(digits)} ${unitLabel(unit)}`;
+}
+
+/** Hours as people say them: "5 days", "12 hours". */
+function formatHours(hours: number): string {
+  if (hours >= 24 && hours % 24 === 0) return hours === 24 ? '1 day' : `${hours / 24} days`;
+  return hours === 1 ? '1 hour' : `${hours} hours`;
+}
+
+/**
+ * The alert's state in plain sentences, from its history and the band's clear rule: what
+ * raised it against which level, an escalation after an acknowledgement, why it is still open
+ * while the latest value is below the level, and what clears it.
+ */
+export function alertStateSentences(a: AlertDetail): string[] {
+  const f = (v: number) => formatLevel(v, a.unit);
+  const out: string[] = [];
+  const raised = a.history.find((h) => h.kind === 'raised');
+  const escalated = a.history.findLast((h) => h.kind === 'escalated');
+  if (a.state === 'cleared') {
+    const cleared = a.history.findLast((h) => h.kind === 'cleared');
+    out.push(
+      `Raised${raised?.value != null ? ` at ${f(raised.value)}` : ''} against the ${a.level} level ${f(a.limit)}; cleared${cleared?.value != null ? ` at ${f(cleared.value)}` : ''}${a.clearRule ? `, below the clear level ${f(a.clearRule.clearLevel)}` : ''}.`,
+    );
+    return out;
+  }
+  if (escalated && raised && raised.level === 'alert') {
+    out.push(
+      `Raised${raised.value !== null ? ` at ${f(raised.value)}` : ''} against the alert level${a.clearRule ? ` ${f(a.clearRule.alertLevel)}` : ''}; escalated to danger${escalated.value !== null ? ` at ${f(escalated.value)}` : ''} against the danger level ${f(a.limit)}.`,
+    );
+  } else {
+    const at = raised?.value ?? null;
+    out.push(
+      `Raised${at !== null ? ` at ${f(at)}` : ''} against the ${a.level} level ${f(a.limit)}.`,
+    );
+  }
+  // Written in the order things happened (event ids), not by the capture time an
+  // escalation carries, which may precede an acknowledgement made while it was in transit.
+  const ackBeforeEscalation =
+    escalated !== undefined &&
+    a.history.some((h) => h.kind === 'acknowledged' && h.id < escalated.id);
+  if (ackBeforeEscalation && a.state === 'raised')
+    out.push('Escalated to danger after it was acknowledged; acknowledge again.');
+  const rule = a.clearRule;
+  if (rule) {
+    if (a.value < rule.alertLevel && a.value >= rule.clearLevel)
+      out.push(
+        `The latest value, ${f(a.value)}, is below the alert level ${f(rule.alertLevel)} but not below the clear level ${f(rule.clearLevel)}, so the alert stays open.`,
+      );
+    const n = rule.clearPersistence;
+    out.push(
+      `It clears when ${n === 1 ? 'a value falls' : `${n} values in a row fall`} below ${f(rule.clearLevel)}${rule.clearAfterHours > 0 ? `, once ${formatHours(rule.clearAfterHours)} ${rule.clearAfterHours === 1 || rule.clearAfterHours === 24 ? 'has' : 'have'} passed without the alert level ${f(rule.alertLevel)} being reached again` : ''}.`,
+    );
+  }
+  return out;
 }
 
 /** The lifecycle state as text and a shape (filled: raised; ring with tick: acknowledged; hollow: cleared). */

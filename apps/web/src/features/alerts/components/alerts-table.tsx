@@ -144,7 +144,7 @@ export function AlertsTable({
             <span className="text-ink-muted"> / {formatLevel(a.limit, a.unit)}</span>
             {a.peakValue > a.value && (
               <span className="block text-xs text-ink-faint">
-                peak {formatLevel(a.peakValue, a.unit)}
+                highest while open {formatLevel(a.peakValue, a.unit)}
               </span>
             )}
             {a.suspect && <span className="block text-xs text-status-quality">suspect data</span>}

@@ -56,11 +56,16 @@ export interface TrendPanelBand {
 export function TrendPanel({
   pointId,
   bands,
+  initialBand,
 }: {
   pointId: number;
   bands: readonly TrendPanelBand[];
+  /** The band to open on (a link's `?band=`); the default band when the point has no such band. */
+  initialBand?: string | null;
 }) {
-  const [band, setBand] = useState(() => defaultTrendBand(bands));
+  const [band, setBand] = useState(() =>
+    initialBand && bands.some((b) => b.key === initialBand) ? initialBand : defaultTrendBand(bands),
+  );
   const [period, setPeriod] = useState<PeriodKey>(
     trendPeriods.find((p) => p.days === DEFAULT_TREND_DAYS)!.key,
   );
