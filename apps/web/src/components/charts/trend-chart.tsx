@@ -20,6 +20,7 @@ import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echar
 import { useEChart } from './use-echart.ts';
 import { ValuesTable } from './values-table.tsx';
 import { useChartZoom, xExtent, ZoomKeys } from './zoom-keys.tsx';
+import { ChartCanvas } from './chart-canvas.tsx';
 
 /** A time as epoch milliseconds or an ISO 8601 string. */
 export type ChartTime = number | string;
@@ -425,13 +426,7 @@ export function TrendChart(props: TrendChartProps) {
   const shown = useChartZoom(chart, option);
   return (
     <div>
-      <div
-        ref={ref}
-        role="img"
-        aria-label={props.ariaLabel}
-        className="w-full"
-        style={{ height: props.height ?? 320 }}
-      />
+      <ChartCanvas canvasRef={ref} ariaLabel={props.ariaLabel} height={props.height ?? 320} />
       {(zoom ?? true) && (
         <div className="mb-1 px-2">
           <ZoomKeys
