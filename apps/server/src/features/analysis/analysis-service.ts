@@ -17,7 +17,7 @@ import {
 import * as repo from './analysis-repository.ts';
 import * as limitSets from '../limits/limit-set-repository.ts';
 import { storedSummaryOf } from './stored-summary.ts';
-import { diagnosisOf } from './diagnosis-step.ts';
+import { diagnosisOf, machineComponentsOf } from './diagnosis-step.ts';
 import { combineBandValues, toDspBands } from './band-mapping.ts';
 import { startConditionBatch } from '../condition/condition-step.ts';
 import { templateBandsFor } from '../limits/limits-service.ts';
@@ -124,23 +124,7 @@ function prepareOne(
   // Synchronous: ~16 kB inflate in well under a millisecond; the thread pool round trip
   // and stream machinery of the async form cost more than the work.
   const bytes = storedSampleBytes(snap.samples, snap.samplesCodec);
-  const bearingList = pc.bearings.map((b) => ({
-    name: b.name,
-    rollingElements: b.rollingElements,
-    ballDiameterMm: b.ballDiameterMm,
-    pitchDiameterMm: b.pitchDiameterMm,
-    contactAngleDeg: b.contactAngleDeg,
-    speedRatio: b.speedRatio,
-  }));
-  const machine = {
-    bearings: bearingList,
-    gears: pc.gears.map((g) => ({ name: g.name, teeth: g.teeth, speedRatio: g.speedRatio })),
-    ...(pc.machine.bladeCount
-      ? { blades: pc.machine.bladeCount }
-      : pc.machine.vaneCount
-        ? { blades: pc.machine.vaneCount }
-        : {}),
-  };
+  const machine = machineComponentsOf(pc.machine, pc);
   const pointBearing = pc.bearings.find((b) => b.id === pc.point.bearingId)?.name ?? null;
   const dspBands = toDspBands(
     limitSet.bands,

@@ -15,12 +15,16 @@ import type { PointContext } from './analysis-repository.ts';
 
 type MachineRow = typeof machines.$inferSelect;
 
-/** Bearings, gears and blades (or vanes) of a machine: what makes its fault frequencies. */
+/**
+ * Bearings, gears and blades (or vanes) of a machine: what makes its fault frequencies, for
+ * the analysis (bands at fault frequencies), the diagnosis and the machine page alike.
+ */
 export function machineComponentsOf(
   machine: Pick<MachineRow, 'bladeCount' | 'vaneCount'>,
   parts: { bearings: (typeof bearings.$inferSelect)[]; gears: (typeof gears.$inferSelect)[] },
 ): MachineComponents {
-  const blades = machine.bladeCount ?? machine.vaneCount ?? undefined;
+  // A count of 0 means none (a form left at 0), as null does.
+  const blades = machine.bladeCount || machine.vaneCount || undefined;
   return {
     bearings: parts.bearings.map((b) => ({
       name: b.name,

@@ -15,6 +15,7 @@ import {
 import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
 import { useChartZoom, xExtent, ZoomKeys } from './zoom-keys.tsx';
+import { ChartCanvas } from './chart-canvas.tsx';
 
 export interface SpectrumTrace {
   /** Legend and tooltip name, e.g. the capture time. */
@@ -270,12 +271,11 @@ export function SpectrumChart(props: SpectrumChartProps) {
   const xUnit = axis === 'hz' ? 'Hz' : 'order';
   return (
     <div>
-      <div
-        ref={ref}
-        role="img"
-        aria-label={props.ariaLabel}
+      <ChartCanvas
+        canvasRef={ref}
+        ariaLabel={props.ariaLabel}
+        height={props.height ?? 360}
         className="w-full cursor-crosshair"
-        style={{ height: props.height ?? 360 }}
       />
       {shown.length > 0 && <MarkerKey markers={shown} unit={xUnit} />}
       <div className="mt-2 px-2">

@@ -7,6 +7,7 @@ import { useMemo } from 'react';
 import { axisStyle, chartColours, formatValue, monoFont } from './chart-theme.ts';
 import type { ChartOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
+import { ChartCanvas } from './chart-canvas.tsx';
 
 export interface VectorPoint {
   /** Epoch milliseconds. */
@@ -165,15 +166,7 @@ export function VectorTrendChart(props: VectorChartProps) {
     [points, unit],
   );
   const { ref } = useEChart(option);
-  return (
-    <div
-      ref={ref}
-      role="img"
-      aria-label={props.ariaLabel}
-      className="w-full"
-      style={{ height: props.height ?? 360 }}
-    />
-  );
+  return <ChartCanvas canvasRef={ref} ariaLabel={props.ariaLabel} height={props.height ?? 360} />;
 }
 
 export function VectorPolarChart(props: VectorChartProps) {
@@ -186,13 +179,7 @@ export function VectorPolarChart(props: VectorChartProps) {
   return (
     <div>
       <p className="text-xs text-ink-muted">Radius: amplitude in {unit}</p>
-      <div
-        ref={ref}
-        role="img"
-        aria-label={props.ariaLabel}
-        className="w-full"
-        style={{ height: props.height ?? 360 }}
-      />
+      <ChartCanvas canvasRef={ref} ariaLabel={props.ariaLabel} height={props.height ?? 360} />
     </div>
   );
 }

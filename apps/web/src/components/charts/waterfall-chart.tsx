@@ -11,6 +11,7 @@ import { largestPeaks, WATERFALL_TABLE_PEAKS } from './chart-values.ts';
 import { useEChart } from './use-echart.ts';
 import { ValuesTable, type ValuesColumn } from './values-table.tsx';
 import { useChartZoom, zoomedExtent, ZoomKeys, type ZoomWindow } from './zoom-keys.tsx';
+import { ChartCanvas } from './chart-canvas.tsx';
 
 export interface WaterfallTrace {
   /** When the spectrum was taken, as shown (legend, table). */
@@ -149,13 +150,7 @@ export function WaterfallChart(props: WaterfallChartProps) {
   const xUnit = axis === 'hz' ? 'Hz' : 'order';
   return (
     <div className="flex flex-col gap-2">
-      <div
-        ref={ref}
-        role="img"
-        aria-label={props.ariaLabel}
-        className="w-full"
-        style={{ height: props.height ?? 420 }}
-      />
+      <ChartCanvas canvasRef={ref} ariaLabel={props.ariaLabel} height={props.height ?? 420} />
       <div className="px-2">
         <ZoomKeys
           chart={chart}

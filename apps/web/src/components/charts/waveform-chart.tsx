@@ -10,6 +10,7 @@ import { useEChart } from './use-echart.ts';
 import { WAVEFORM_TABLE_ROWS, waveformRows } from './chart-values.ts';
 import { ValuesTable } from './values-table.tsx';
 import { useChartZoom, xExtent, zoomedExtent, ZoomKeys, type ZoomWindow } from './zoom-keys.tsx';
+import { ChartCanvas } from './chart-canvas.tsx';
 
 export interface WaveformChartProps {
   values: Float32Array;
@@ -106,13 +107,7 @@ export function WaveformChart(props: WaveformChartProps) {
   const extent = xExtent(option);
   return (
     <div className="flex flex-col gap-2">
-      <div
-        ref={ref}
-        role="img"
-        aria-label={props.ariaLabel}
-        className="w-full"
-        style={{ height: props.height ?? 300 }}
-      />
+      <ChartCanvas canvasRef={ref} ariaLabel={props.ariaLabel} height={props.height ?? 300} />
       <div className="px-2">
         <ZoomKeys
           chart={chart}

@@ -7,12 +7,17 @@ export function getFleet({ signal }: { signal?: AbortSignal } = {}) {
   return api.get('/api/v1/fleet', { schema: fleetSchema, signal });
 }
 
+/**
+ * The one cache entry of the fleet tree. Point pickers (limits, uploads) read it through
+ * their own `select`, so every screen shares one request and one set of settings.
+ */
 export function getFleetQueryOptions() {
   return queryOptions({
     queryKey: ['fleet', 'list', {}] as const,
     queryFn: ({ signal }) => getFleet({ signal }),
     // Status changes as snapshots arrive; a minute is fresh enough for a tree view.
     refetchInterval: 60_000,
+    staleTime: 30_000,
   });
 }
 

@@ -1,6 +1,5 @@
-import { fleetSchema } from '@turnstone/contracts/fleet';
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../../../lib/api-client.ts';
+import { getFleetQueryOptions } from '../../fleet/api/get-fleet.ts';
 
 export interface PointChoice {
   id: number;
@@ -13,8 +12,7 @@ export interface PointChoice {
 /** Every point the user may see, from the fleet tree, for the point picker. */
 export function getFleetPointsQueryOptions() {
   return queryOptions({
-    queryKey: ['fleet', 'list', {}] as const,
-    queryFn: ({ signal }) => api.get('/api/v1/fleet', { schema: fleetSchema, signal }),
+    ...getFleetQueryOptions(),
     select: (fleet): PointChoice[] =>
       fleet.items.flatMap((site) =>
         site.areas.flatMap((area) =>
@@ -29,7 +27,6 @@ export function getFleetPointsQueryOptions() {
           ),
         ),
       ),
-    staleTime: 60_000,
   });
 }
 

@@ -1,6 +1,6 @@
-import { fleetSchema, type Fleet } from '@turnstone/contracts/fleet';
+import type { Fleet } from '@turnstone/contracts/fleet';
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../../../lib/api-client.ts';
+import { getFleetQueryOptions } from '../../fleet/api/get-fleet.ts';
 
 export interface UploadPoint {
   id: number;
@@ -26,12 +26,7 @@ export function flattenPoints(fleet: Fleet): UploadPoint[] {
 }
 
 export function getUploadPointsQueryOptions() {
-  return queryOptions({
-    // Same key and data as the fleet tree, so the two share one cache entry.
-    queryKey: ['fleet', 'list', {}] as const,
-    queryFn: ({ signal }) => api.get('/api/v1/fleet', { schema: fleetSchema, signal }),
-    select: flattenPoints,
-  });
+  return queryOptions({ ...getFleetQueryOptions(), select: flattenPoints });
 }
 
 export function useUploadPoints() {
