@@ -110,7 +110,7 @@ describe('mailbox in a real browser', () => {
     await page.goto(`${srv.url}/mailbox`);
     await page
       .getByRole('list', { name: 'Received messages' })
-      .getByRole('button', { name: /Alert raised: .*Overall velocity/ })
+      .getByRole('button', { name: /Alert raised: .*Overall velocity.*engineer@turnstone\.local/ })
       .click();
     const frame = page.frameLocator('iframe[sandbox=""]');
     await frame.getByText('Intake pump P-101 (MFP · Raw water intake)').waitFor();
