@@ -41,10 +41,10 @@ describe('alert mail rendering', () => {
     expect(m.subject).toContain('Danger raised');
   });
 
-  it('a cleared alert says the value is back below the level and names the peak', () => {
+  it('a cleared alert says the value is back below the level and names the highest value while it was open', () => {
     const m = renderAlertMail({ ...facts, kind: 'cleared', value: 2.1 }, 'http://x.test/points/12');
     expect(m.text).toContain(
-      '2.10 mm/s, back below the danger level 4.50 mm/s (peak was 7.30 mm/s)',
+      '2.10 mm/s, back below the danger level 4.50 mm/s (highest while open: 7.30 mm/s)',
     );
     expect(m.subject).toContain('Danger cleared');
   });
