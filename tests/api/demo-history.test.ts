@@ -27,7 +27,7 @@ describe('demo history over 2 weeks', () => {
     const perPoint = await q(
       `SELECT p.tag, COUNT(a.id) AS n FROM points p LEFT JOIN analyses a ON a.point_id = p.id GROUP BY p.id`,
     );
-    expect(perPoint.length).toBe(43); // points in seed/demo-plant.ts
+    expect(perPoint.length).toBe(43); // points in packages/demo-scenario/src/demo-plant.ts
     for (const r of perPoint) expect(Number(r.n), String(r.tag)).toBeGreaterThan(10);
     const [s] = await q(`SELECT COUNT(*) AS n, SUM(status = 'done') AS done FROM snapshots`);
     expect(Number(s!.done)).toBe(Number(s!.n));
@@ -132,7 +132,7 @@ describe('gateway simulator against the server', () => {
       '--faults',
     ]);
     const first = await runSimulator(options);
-    const mfpPoints = 24; // MFP points in seed/demo-plant.ts
+    const mfpPoints = 24; // MFP points in packages/demo-scenario/src/demo-plant.ts
     expect(first).toMatchObject({
       rounds: 2,
       sent: 2 * mfpPoints,

@@ -1,13 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { alertDetailSchema } from '@turnstone/contracts/alerts';
 import { analysisListSchema, machineDetailSchema } from '@turnstone/contracts/points';
-import { demoChannels } from '../../apps/gateway-sim/src/plant-channels.ts';
-import { countsToBytes } from '../../apps/gateway-sim/src/sample-bytes.ts';
-import { simulateSnapshot, toIngestItem } from '../../apps/gateway-sim/src/simulated-snapshot.ts';
-import {
-  synthesizeCapture,
-  toneAccelPeakG,
-} from '../../apps/gateway-sim/src/synthesize-capture.ts';
+import { demoChannels } from '@turnstone/demo-scenario/plant-channels';
+import { countsToBytes } from '@turnstone/demo-scenario/sample-bytes';
+import { simulateSnapshot, toIngestItem } from '@turnstone/demo-scenario/simulated-snapshot';
+import { synthesizeCapture, toneAccelPeakG } from '@turnstone/demo-scenario/synthesize-capture';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { base64Of, prng } from '../support/signals.ts';

@@ -16,8 +16,8 @@
  * plant-year amortised bytes per capture are worked out from the measured whole and thinned
  * row sizes for the captures' cadence. BENCH_STORAGE_COUNT (3000) captures.
  */
-import { simulateSnapshot, toIngestItem } from '../../apps/gateway-sim/src/simulated-snapshot.ts';
-import { demoChannels } from '../../apps/gateway-sim/src/plant-channels.ts';
+import { simulateSnapshot, toIngestItem } from '@turnstone/demo-scenario/simulated-snapshot';
+import { demoChannels } from '@turnstone/demo-scenario/plant-channels';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import {
   expireRawSamplesPass,

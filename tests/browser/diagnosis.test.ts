@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { demoChannels } from '../../apps/gateway-sim/src/plant-channels.ts';
-import { simulateSnapshot, toIngestItem } from '../../apps/gateway-sim/src/simulated-snapshot.ts';
+import { demoChannels } from '@turnstone/demo-scenario/plant-channels';
+import { simulateSnapshot, toIngestItem } from '@turnstone/demo-scenario/simulated-snapshot';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';

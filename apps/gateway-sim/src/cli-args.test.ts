@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { isLoopbackUrl, parseSimArgs, UsageError } from './cli-args.ts';
 import { backoffMs, retryAfterMs } from './ingest-client.ts';
-import { captureUid } from './simulated-snapshot.ts';
+import { captureUid } from '@turnstone/demo-scenario/simulated-snapshot';
 
 describe('parseSimArgs', () => {
   it('reads every option and fills the defaults', () => {

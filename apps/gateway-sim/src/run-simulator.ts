@@ -5,8 +5,8 @@
 import type { SnapshotIn } from '@turnstone/contracts/ingest';
 import type { SimOptions } from './cli-args.ts';
 import { newTally, sendBatch, type SendTally } from './ingest-client.ts';
-import { demoChannels } from './plant-channels.ts';
-import { simulateSnapshot, toIngestItem } from './simulated-snapshot.ts';
+import { demoChannels } from '@turnstone/demo-scenario/plant-channels';
+import { simulateSnapshot, toIngestItem } from '@turnstone/demo-scenario/simulated-snapshot';
 
 /** The span over which the stories run (progress 0 → 1); the simulator continues from 1. */
 const STORY_SPAN_MS = 12 * 7 * 86_400_000;

@@ -1,5 +1,5 @@
 /**
- * Seeds the demo plant (seed/demo-plant.ts) and one user per role into an empty database.
+ * Seeds the demo plant (@turnstone/demo-scenario) and one user per role into an empty database.
  * Runs at start when SEED_DEMO is not false and there are no users yet; then, when
  * DEMO_HISTORY_WEEKS > 0, that many weeks of captures through the real pipeline
  * (demo-history.ts).
@@ -19,7 +19,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { hashPassword } from '../../lib/passwords.ts';
 import { seedDemoSubscriptions } from '../mail/mail-seed.ts';
 import { subscribeToSiteAlerts } from '../account/account-repository.ts';
-import { demoPlant, demoUsers } from '../../../../../seed/demo-plant.ts';
+import { demoPlant, demoUsers } from '@turnstone/demo-scenario/demo-plant';
 import { commissionDemoGateways, seedDemoHistory } from './demo-history.ts';
 
 export const DEMO_ACCOUNTS = demoUsers.map((u) => ({ email: u.email, role: u.role }));

@@ -1,15 +1,10 @@
 /**
- * The demo plant (seed/demo-plant.ts) as a gateway sees it: one channel per point, with its
+ * The demo plant (demo-plant.ts) as a gateway sees it: one channel per point, with its
  * capture set-up (sample rate, length, ADC), speed input, bearing defect orders and the
  * measurement fault it carries, if any.
  */
 import { bearingOrders, type BearingOrders } from '@turnstone/dsp/fault-frequencies';
-import {
-  demoPlant,
-  type DemoBearing,
-  type DemoMachine,
-  type DemoPoint,
-} from '../../../seed/demo-plant.ts';
+import { demoPlant, type DemoBearing, type DemoMachine, type DemoPoint } from './demo-plant.ts';
 import type { AdcSetup } from './synthesize-capture.ts';
 import { fnv1a } from '@turnstone/dsp/seeded-random';
 

@@ -1,5 +1,5 @@
 /**
- * What each machine's story (seed/demo-plant.ts) puts into a capture at a given moment of
+ * What each machine's story (demo-plant.ts) puts into a capture at a given moment of
  * its history: the levels of 1×, 2×, bearing impacts, gear mesh, noise and the channel's
  * measurement fault, as a {@link CaptureRecipe}. `progress` runs 0 → 1 over the history
  * (the seed's weeks, ending now); the stories are written in it so a short history tells
@@ -7,7 +7,7 @@
  * of @turnstone/condition (ISO 20816-3 zones, from memory) so the alerts fall where the
  * story says.
  */
-import type { DemoMachine } from '../../../seed/demo-plant.ts';
+import type { DemoMachine } from './demo-plant.ts';
 import type { SimChannel } from './plant-channels.ts';
 import { fnv1a, gaussian, mulberry32 } from '@turnstone/dsp/seeded-random';
 import type { CaptureRecipe, GearMeshTone, ImpactTrain, OrderTone } from './synthesize-capture.ts';
