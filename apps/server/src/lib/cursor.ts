@@ -3,6 +3,8 @@
  * last row of a page, as base64url of `<epoch ms>.<id>`. A cursor that does not decode to
  * that is a 400 `invalid_cursor`, never a 500.
  */
+import { and, eq, lt, or, type SQL } from 'drizzle-orm';
+import type { MySqlColumn } from 'drizzle-orm/mysql-core';
 import { AppError } from './app-error.ts';
 
 export interface CursorPosition {
@@ -34,4 +36,9 @@ export function pageOf<T>(rows: T[], limit: number, position: (row: T) => Cursor
     items,
     nextCursor: rows.length > limit ? encodeCursor(position(items[items.length - 1]!)) : null,
   };
+}
+
+/** Rows after a cursor position in the order (time, id) descending: the keyset condition. */
+export function afterPosition(time: MySqlColumn, id: MySqlColumn, p: CursorPosition): SQL {
+  return or(lt(time, p.at), and(eq(time, p.at), lt(id, p.id)))!;
 }

@@ -1,9 +1,10 @@
-import { and, asc, desc, eq, gte, inArray, lt, or, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import type { Db } from '@turnstone/db/client';
 import { alertEvents, alerts, areas, machines, points, sites, users } from '@turnstone/db/schema';
 import type { Tx } from '@turnstone/db/client';
 import type { CursorPosition } from '../../lib/cursor.ts';
+import { afterPosition } from '../../lib/cursor.ts';
 
 export interface AlertFilter {
   state?: 'raised' | 'acknowledged' | 'cleared';
@@ -60,13 +61,7 @@ export async function listAlerts(db: Db | Tx, f: AlertFilter) {
   if (f.ids) where.push(inArray(alerts.id, f.ids.length ? f.ids : [0]));
   if (f.siteIds) where.push(inArray(areas.siteId, f.siteIds.length ? f.siteIds : [0]));
   if (f.since) where.push(gte(alerts.lastAt, f.since));
-  if (f.after)
-    where.push(
-      or(
-        lt(alerts.lastAt, f.after.at),
-        and(eq(alerts.lastAt, f.after.at), lt(alerts.id, f.after.id)),
-      )!,
-    );
+  if (f.after) where.push(afterPosition(alerts.lastAt, alerts.id, f.after));
   return db
     .select(columns)
     .from(alerts)

@@ -1,7 +1,8 @@
-import { and, asc, desc, eq, gte, inArray, lt, lte, ne, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, lte, ne, sql, type SQL } from 'drizzle-orm';
 import type { CursorPosition } from '../../lib/cursor.ts';
 import type { Db, Tx } from '@turnstone/db/client';
 import { alerts, areas, findings, machines, points, sites, users } from '@turnstone/db/schema';
+import { afterPosition } from '../../lib/cursor.ts';
 
 export type FindingRow = typeof findings.$inferSelect;
 
@@ -51,13 +52,7 @@ export async function listFindings(db: Db | Tx, f: FindingFilter): Promise<Findi
   if (f.ids) where.push(inArray(findings.id, f.ids.length ? f.ids : [0]));
   if (f.dueBy) where.push(ne(findings.state, 'done'), lte(findings.dueDate, f.dueBy));
   if (f.since) where.push(gte(findings.updatedAt, f.since));
-  if (f.after)
-    where.push(
-      or(
-        lt(findings.updatedAt, f.after.at),
-        and(eq(findings.updatedAt, f.after.at), lt(findings.id, f.after.id)),
-      )!,
-    );
+  if (f.after) where.push(afterPosition(findings.updatedAt, findings.id, f.after));
   return db
     .select(listColumns)
     .from(findings)
