@@ -149,6 +149,33 @@ describe('reads from a MariaDB replica', () => {
     expect(own).not.toContain('seen on the replica');
   });
 
+  it('checks sessions on the primary: a session ended a moment ago does not pass on a replica that is behind', async () => {
+    const { session } = await signIn();
+    const signOut = await fetch(`${srv.url}/api/v1/auth/sign-out`, {
+      method: 'POST',
+      headers: { cookie: session, origin: srv.url },
+    });
+    expect(signOut.status).toBeLessThan(300);
+    await until('the sign-out on the replica', async () => {
+      const [rows] = await replicaRoot.query(
+        `SELECT token_version AS v FROM ${DB}.users WHERE email = 'admin@turnstone.local'`,
+      );
+      const [prim] = await primaryRoot.query(
+        `SELECT token_version AS v FROM ${DB}.users WHERE email = 'admin@turnstone.local'`,
+      );
+      return (rows as { v: number }[])[0]!.v === (prim as { v: number }[])[0]!.v;
+    });
+    // The replica as it was a moment before the sign-out (a replica that is behind).
+    await replicaRoot.query(
+      `UPDATE ${DB}.users SET token_version = token_version - 1 WHERE email = 'admin@turnstone.local'`,
+    );
+    const res = await fetch(`${srv.url}/api/v1/sites`, { headers: { cookie: session } });
+    expect(res.status).toBe(401);
+    await replicaRoot.query(
+      `UPDATE ${DB}.users SET token_version = token_version + 1 WHERE email = 'admin@turnstone.local'`,
+    );
+  });
+
   it('skips a replica whose replication stopped, and uses it again when it catches up', async () => {
     const { session } = await signIn();
     await replicaRoot.query('STOP SLAVE SQL_THREAD');

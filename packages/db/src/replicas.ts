@@ -31,6 +31,14 @@ export function readFromReplica<T>(fn: () => T): T {
   return context.run({ replica: true }, fn);
 }
 
+/**
+ * Runs `fn` with its reads on the primary even inside {@link readFromReplica}: checks that
+ * must see the latest state (a session revoked a moment ago, a disabled account).
+ */
+export function readFromPrimary<T>(fn: () => T): T {
+  return context.run({ replica: false }, fn);
+}
+
 /** True inside {@link readFromReplica}. */
 export function replicaReadsAllowed(): boolean {
   return context.getStore()?.replica === true;
