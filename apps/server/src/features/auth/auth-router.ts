@@ -28,7 +28,7 @@ export function createAuthenticate(ctx: AppContext): Authenticate {
     if (!token) return;
     // On the primary even for a replica read: a session ended or an account disabled a
     // moment ago must not pass on a replica that is a few seconds behind.
-    const user = await service.userFromToken(ctx.db, ctx.jwtSecret, token);
+    const user = await readFromPrimary(() => service.userFromToken(ctx.db, ctx.jwtSecret, token));
     if (user) req.user = user;
   };
 }
