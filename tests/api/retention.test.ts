@@ -136,18 +136,37 @@ describe('bounded batches', () => {
 
   it('raw-sample expiry runs in bounded batches too', async () => {
     const pointId = await pointIdOf(TAG_BATCH);
+    // The thinning pass above dropped the waveforms of the five captures it thinned.
+    const [gone] = await q(
+      'SELECT COUNT(*) AS n FROM snapshots WHERE point_id = ? AND samples IS NULL',
+      [pointId],
+    );
+    expect(Number(gone!.n)).toBe(5);
+    // Five more captures in the whole tier, then all received 100 days back. Captures near
+    // an alert event, or where captures turned suspect, keep their waveform (tested below):
+    // this point's alerts and quality notices go first.
+    await q(
+      'DELETE e FROM alert_events e JOIN alerts al ON al.id = e.alert_id WHERE al.point_id = ?',
+      [pointId],
+    );
+    await q('DELETE FROM alerts WHERE point_id = ?', [pointId]);
+    await q('DELETE FROM quality_notices WHERE point_id = ?', [pointId]);
+    await captures(
+      TAG_BATCH,
+      ['01:00', '02:00', '03:00', '04:00', '05:00'].map((h) => `2026-09-28T${h}:00.000Z`),
+    );
     await q(
       'UPDATE snapshots SET received_at = ? - INTERVAL 100 DAY WHERE point_id = ? AND samples IS NOT NULL',
       [NOW, pointId],
     );
     const pass = await expireRawSamplesPass(srv.ctx.db, 90, NOW, { batchSize: 4 });
-    // Six snapshots in batches of at most 4: 4 + 2.
+    // Six snapshots (the day's kept one and the five new) in batches of at most 4: 4 + 2.
     expect(pass).toEqual({ rows: 6, batches: 2 });
     const [r] = await q(
       'SELECT COUNT(*) AS n FROM snapshots WHERE point_id = ? AND samples IS NULL AND samples_expired_at IS NOT NULL',
       [pointId],
     );
-    expect(Number(r!.n)).toBe(6);
+    expect(Number(r!.n)).toBe(11);
   });
 });
 
@@ -184,10 +203,13 @@ describe('tiered thinning', () => {
     l1: '2026-05-12T01:00:00.000Z',
     l2: '2026-05-12T07:00:00.000Z',
     l3: '2026-05-12T08:00:00.000Z',
+    // daily tier; the second of its day is pinned by a person
+    p1: '2026-05-13T01:00:00.000Z',
+    pn: '2026-05-13T09:00:00.000Z',
   } as const;
   type Label = keyof typeof T;
   const keep: Label[] = ['w1', 'w2', 'h1', 'h4', 'f0', 'f2', 'b1', 'b2', 'd1', 'up', 'al', 'e1'];
-  keep.push('qn', 'l1', 'l2');
+  keep.push('qn', 'l1', 'l2', 'p1', 'pn');
   const thin: Label[] = ['h2', 'h3', 'f1', 'd2', 'd3', 'd4', 'e2', 'l3'];
   let ids: Map<string, number>;
   let pointId: number;
@@ -237,6 +259,13 @@ describe('tiered thinning', () => {
       Buffer.alloc(16),
       id('d4'),
     ]);
+    const engineer = await srv.signIn('engineer');
+    const pin = await srv.call('PUT', `/api/v1/analyses/${id('pn')}/pin`, {
+      cookie: engineer,
+      body: { note: 'Reference capture before the bearing change' },
+    });
+    expect(pin.status).toBe(200);
+    expect((await pin.json()).note).toBe('Reference capture before the bearing change');
     before = new Map();
     for (const l of [...keep, ...thin]) {
       const [a] = await q(
@@ -269,6 +298,76 @@ describe('tiered thinning', () => {
       });
       expect((r!.spectra_thinned_at as Date).getTime()).toBe(NOW.getTime());
     }
+  });
+
+  it('drops the raw waveform of thinned captures and keeps that of whole ones', async () => {
+    const samples = async (l: Label) =>
+      Number(
+        (
+          await q(
+            'SELECT s.samples IS NOT NULL AS has FROM snapshots s JOIN analyses a ON a.snapshot_id = s.id WHERE a.id = ?',
+            [id(l)],
+          )
+        )[0]!.has,
+      );
+    for (const l of thin) expect([l, await samples(l)]).toEqual([l, 0]);
+    for (const l of keep) expect([l, await samples(l)]).toEqual([l, 1]);
+    const res = await srv.call('GET', `/api/v1/analyses/${id('h3')}/waveform`, { cookie });
+    expect(res.status).toBeGreaterThanOrEqual(400);
+  });
+
+  it('raw-waveform expiry spares the captures kept whole (pinned, uploads, alert and finding windows, limit changes, suspect)', async () => {
+    // 20 days: every capture here except w1/w2 is older (received time set to taken time).
+    await q(
+      'UPDATE snapshots s JOIN analyses a ON a.snapshot_id = s.id SET s.received_at = a.taken_at WHERE a.point_id = ?',
+      [pointId],
+    );
+    await expireRawSamplesPass(srv.ctx.db, 20, NOW, { batchSize: 4, keepWindowMinutes: 60 });
+    const has = async (l: Label) =>
+      Number(
+        (
+          await q(
+            'SELECT s.samples IS NOT NULL AS has FROM snapshots s JOIN analyses a ON a.snapshot_id = s.id WHERE a.id = ?',
+            [id(l)],
+          )
+        )[0]!.has,
+      );
+    const spared: Label[] = ['w1', 'w2', 'f2', 'up', 'al', 'qn', 'l2', 'pn'];
+    const expired: Label[] = ['h1', 'h4', 'f0', 'b1', 'b2', 'd1', 'e1', 'l1', 'p1'];
+    for (const l of spared) expect([l, await has(l)]).toEqual([l, 1]);
+    for (const l of expired) expect([l, await has(l)]).toEqual([l, 0]);
+  });
+
+  it('lists who pinned a capture; unpinning is audited and a second unpin is 404', async () => {
+    const engineer = await srv.signIn('engineer');
+    const list = await srv.call('GET', `/api/v1/points/${pointId}/analyses?limit=200`, {
+      cookie: engineer,
+    });
+    const items = (await list.json()).items as { id: number; pinned: { note: string } | null }[];
+    expect(items.find((i) => i.id === id('pn'))!.pinned!.note).toBe(
+      'Reference capture before the bearing change',
+    );
+    expect(items.find((i) => i.id === id('p1'))!.pinned).toBeNull();
+    const operator = await srv.signIn('operator');
+    const denied = await srv.call('DELETE', `/api/v1/analyses/${id('pn')}/pin`, {
+      cookie: operator,
+    });
+    expect(denied.status).toBe(403);
+    const bad = await srv.call('PUT', `/api/v1/analyses/${id('p1')}/pin`, {
+      cookie: engineer,
+      body: { note: 'x'.repeat(201) },
+    });
+    expect(bad.status).toBe(400);
+    const un = await srv.call('DELETE', `/api/v1/analyses/${id('pn')}/pin`, { cookie: engineer });
+    expect(un.status).toBe(204);
+    const again = await srv.call('DELETE', `/api/v1/analyses/${id('pn')}/pin`, {
+      cookie: engineer,
+    });
+    expect(again.status).toBe(404);
+    const audit = await q(
+      "SELECT action FROM audit_log WHERE action IN ('capture.pin', 'capture.unpin') ORDER BY id",
+    );
+    expect(audit.map((a) => a.action)).toEqual(['capture.pin', 'capture.unpin']);
   });
 
   it('keeps the scalars, band values, summary and diagnosis of thinned captures', async () => {

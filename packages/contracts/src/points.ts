@@ -161,6 +161,26 @@ export const analysisSummarySchema = z.object({
   shaftVectors: z.array(shaftVectorSchema).nullable(),
   /** True when the retention policy cleared this capture's spectra (its values stay). */
   spectraThinned: z.boolean().optional(),
+  /** Set when a person pinned the capture: retention keeps it whole. */
+  pinned: z.object({ by: z.string(), at: z.string(), note: z.string() }).nullable().optional(),
+});
+
+/** PUT /analyses/:id/pin */
+export const pinInputSchema = z
+  .object({
+    note: z
+      .string()
+      .trim()
+      .max(200, 'A pin note is at most 200 characters.')
+      .refine((v) => !/[\u0000-\u001f\u007f]/.test(v), 'A pin note is one line of text.')
+      .default(''),
+  })
+  .strict();
+export const pinSchema = z.object({
+  analysisId: z.number().int(),
+  by: z.string(),
+  at: z.string(),
+  note: z.string(),
 });
 export type AnalysisSummary = z.infer<typeof analysisSummarySchema>;
 

@@ -1,7 +1,7 @@
 import { readStoredSummary, type StoredSummary } from '../analysis/stored-summary.ts';
 import { and, asc, desc, eq, gte, inArray, isNull, lte, ne, or, sql } from 'drizzle-orm';
 import type { BandState } from '@turnstone/condition';
-import type { Db } from '@turnstone/db/client';
+import type { Db, Tx } from '@turnstone/db/client';
 import { legacySpectrumColumn, type SpectrumKind } from '@turnstone/db/spectra-codec';
 import {
   alertEvents,
@@ -10,6 +10,7 @@ import {
   areas,
   bandValues,
   bearings,
+  capturePins,
   findings,
   gears,
   machines,
@@ -18,6 +19,7 @@ import {
   qualityNotices,
   sites,
   snapshots,
+  users,
 } from '@turnstone/db/schema';
 
 /** Columns of an analysis the lists show (no spectra). */
@@ -359,4 +361,40 @@ export async function analysisOfSnapshot(db: Db, snapshotId: number) {
     .from(analyses)
     .where(eq(analyses.snapshotId, snapshotId));
   return row;
+}
+
+/** Who pinned which of `analysisIds`, when, and why. */
+export async function pinsOf(db: Db, analysisIds: number[]) {
+  if (analysisIds.length === 0) return new Map<number, { by: string; at: Date; note: string }>();
+  const rows = await db
+    .select({
+      analysisId: capturePins.analysisId,
+      by: users.name,
+      at: capturePins.pinnedAt,
+      note: capturePins.note,
+    })
+    .from(capturePins)
+    .innerJoin(users, eq(users.id, capturePins.pinnedBy))
+    .where(inArray(capturePins.analysisId, analysisIds));
+  return new Map(rows.map((r) => [r.analysisId, { by: r.by, at: r.at, note: r.note }]));
+}
+
+/** Pins (or re-notes) a capture. */
+export async function pinCapture(
+  db: Db | Tx,
+  analysisId: number,
+  userId: number,
+  note: string,
+  at: Date,
+): Promise<void> {
+  await db
+    .insert(capturePins)
+    .values({ analysisId, pinnedBy: userId, pinnedAt: at, note })
+    .onDuplicateKeyUpdate({ set: { pinnedBy: userId, pinnedAt: at, note } });
+}
+
+/** Removes a pin; whether there was one. */
+export async function unpinCapture(db: Db | Tx, analysisId: number): Promise<boolean> {
+  const [r] = await db.delete(capturePins).where(eq(capturePins.analysisId, analysisId));
+  return r.affectedRows > 0;
 }

@@ -3,6 +3,8 @@ import {
   analysesQuerySchema,
   analysisListSchema,
   machineDetailSchema,
+  pinInputSchema,
+  pinSchema,
   pointDetailSchema,
   spectrumQuerySchema,
   spectrumSchema,
@@ -16,6 +18,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './points-service.ts';
 import * as spectra from './spectra-service.ts';
+import * as pins from './pins-service.ts';
 import * as trends from './trend-service.ts';
 import * as waveforms from './waveform-service.ts';
 import { idParam } from '../../lib/route-params.ts';
@@ -114,6 +117,30 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
         const { id } = idParam.parse(req.params);
         const q = parseQuery(waterfallQuerySchema, req.query);
         res.json(await spectra.waterfall(ctx, requireUser(req), id, q.kind, q.limit));
+      },
+    },
+    {
+      method: 'put',
+      path: '/analyses/:id/pin',
+      access: ['admin', 'engineer', 'planner'],
+      summary: 'pin a capture: retention keeps its spectra and waveform whole',
+      schemas: { params: idParam, body: pinInputSchema, response: pinSchema },
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const body = pinInputSchema.parse(req.body ?? {});
+        res.json(await pins.pinCapture(ctx, requireUser(req), id, body));
+      },
+    },
+    {
+      method: 'delete',
+      path: '/analyses/:id/pin',
+      access: ['admin', 'engineer', 'planner'],
+      summary: 'unpin a capture (retention treats it like any other again)',
+      schemas: { params: idParam, status: 204 },
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        await pins.unpinCapture(ctx, requireUser(req), id);
+        res.status(204).end();
       },
     },
     {

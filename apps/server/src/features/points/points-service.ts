@@ -243,7 +243,16 @@ export async function listAnalyses(
     q.to ? new Date(q.to) : undefined,
     q.limit,
   );
-  return { items: rows.map(summaryOf) };
+  const pins = await repo.pinsOf(
+    ctx.db,
+    rows.map((r) => r.id),
+  );
+  return {
+    items: rows.map((r) => {
+      const pin = pins.get(r.id);
+      return { ...summaryOf(r), pinned: pin ? { ...pin, at: iso(pin.at) } : null };
+    }),
+  };
 }
 
 /** The analysis, if the user may see its point. */

@@ -1,5 +1,5 @@
 /** The queries of the retention passes (policy and batching: retention.ts). */
-import { and, inArray, isNotNull, lt, sql } from 'drizzle-orm';
+import { and, inArray, isNotNull, sql } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
 import { snapshots } from '@turnstone/db/schema';
 
@@ -23,28 +23,30 @@ export async function maxAnalysisId(db: Db): Promise<number> {
   return Number(top?.maxId ?? 0);
 }
 
-/** Analysed snapshots in (lo, hi] received before `cutoff` that still hold samples. */
+/**
+ * Analysed snapshots in (lo, hi] received before `cutoff` that still hold samples, except
+ * the captures kept whole (within ±`win` minutes of an alert event or finding, pinned…).
+ */
 export async function rawSampleCandidates(
   db: Db,
   cutoff: Date,
+  win: number,
   lo: number,
   hi: number,
   limit: number,
 ): Promise<number[]> {
-  const rows = await db
-    .select({ id: snapshots.id })
-    .from(snapshots)
-    .where(
-      and(
-        sql`${snapshots.id} > ${lo} AND ${snapshots.id} <= ${hi}`,
-        isNotNull(snapshots.samples),
-        lt(snapshots.receivedAt, cutoff),
-        sql`${snapshots.status} IN ('done','failed','rejected')`,
-      ),
-    )
-    .orderBy(snapshots.id)
-    .limit(limit);
-  return rows.map((r) => r.id);
+  const rows = await rowsOf(
+    db,
+    sql`SELECT s.id FROM snapshots s LEFT JOIN analyses a ON a.snapshot_id = s.id
+         WHERE s.id > ${lo} AND s.id <= ${hi}
+           AND s.samples IS NOT NULL
+           AND s.received_at < ${cutoff}
+           AND s.status IN ('done','failed','rejected')
+           AND NOT ${protectedCapture(win)}
+         ORDER BY s.id
+         LIMIT ${limit}`,
+  );
+  return rows.map((r) => Number(r.id));
 }
 
 export async function clearRawSamples(db: Db, ids: number[]): Promise<number> {
@@ -53,6 +55,50 @@ export async function clearRawSamples(db: Db, ids: number[]): Promise<number> {
     .set({ samples: null, samplesExpiredAt: sql`CURRENT_TIMESTAMP(3)` })
     .where(and(inArray(snapshots.id, ids), isNotNull(snapshots.samples)));
   return result.affectedRows;
+}
+
+/**
+ * Captures kept whole whatever their age (retention.ts's comment lists them), as a condition
+ * on `a` (analyses) and `s` (snapshots): uploads, pins, captures near an alert event or a
+ * finding, an alert's peak, where captures turned suspect, the first after a limit change.
+ */
+function protectedCapture(win: number) {
+  return sql`(
+    s.source = 'upload'
+    OR EXISTS (SELECT 1 FROM capture_pins p WHERE p.analysis_id = a.id)
+    -- alert events of the point (raise, escalation, acknowledgement, clearance)
+    OR EXISTS (
+      SELECT 1 FROM alerts al JOIN alert_events e ON e.alert_id = al.id
+       WHERE al.point_id = a.point_id
+         AND e.at BETWEEN a.taken_at - INTERVAL ${win} MINUTE
+                      AND a.taken_at + INTERVAL ${win} MINUTE)
+    OR EXISTS (
+      SELECT 1 FROM alerts al WHERE al.point_id = a.point_id AND al.peak_at = a.taken_at)
+    OR EXISTS (
+      SELECT 1 FROM findings f
+       WHERE f.point_id = a.point_id
+         AND f.created_at BETWEEN a.taken_at - INTERVAL ${win} MINUTE
+                              AND a.taken_at + INTERVAL ${win} MINUTE)
+    -- the capture where a point's captures turned suspect (unusable ones thin like any other)
+    OR EXISTS (
+      SELECT 1 FROM quality_notices qn WHERE qn.analysis_id = a.id AND qn.verdict = 'suspect')
+    -- the first capture after a change of the point's limits
+    OR EXISTS (
+      SELECT 1 FROM audit_log l
+       WHERE l.entity = 'point' AND l.entity_id = CAST(a.point_id AS CHAR)
+         AND l.action IN ('limits.update', 'limits.baseline') AND l.at <= a.taken_at
+         AND NOT EXISTS (
+           SELECT 1 FROM analyses c
+            WHERE c.point_id = a.point_id AND c.taken_at >= l.at
+              AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
+    OR EXISTS (
+      SELECT 1 FROM limit_sets ls
+       WHERE ls.point_id = a.point_id AND ls.updated_at <= a.taken_at
+         AND NOT EXISTS (
+           SELECT 1 FROM analyses c
+            WHERE c.point_id = a.point_id AND c.taken_at >= ls.updated_at
+              AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
+  )`;
 }
 
 /**
@@ -73,7 +119,6 @@ export function thinningCandidates(
        AND (a.spectra IS NOT NULL OR a.accel_spectrum IS NOT NULL
             OR a.velocity_spectrum IS NOT NULL OR a.envelope_spectrum IS NOT NULL
             OR a.order_spectrum IS NOT NULL)
-       AND s.source <> 'upload'
        -- not the first capture of its point in its bucket (hour, or day before dailyCutoff)
        AND EXISTS (
          SELECT 1 FROM analyses b
@@ -82,38 +127,7 @@ export function thinningCandidates(
                                  TIMESTAMP(DATE(a.taken_at)),
                                  TIMESTAMP(DATE(a.taken_at), MAKETIME(HOUR(a.taken_at), 0, 0)))
             AND (b.taken_at < a.taken_at OR (b.taken_at = a.taken_at AND b.id < a.id)))
-       -- alert events of the point (raise, escalation, acknowledgement, clearance)
-       AND NOT EXISTS (
-         SELECT 1 FROM alerts al JOIN alert_events e ON e.alert_id = al.id
-          WHERE al.point_id = a.point_id
-            AND e.at BETWEEN a.taken_at - INTERVAL ${win} MINUTE
-                         AND a.taken_at + INTERVAL ${win} MINUTE)
-       AND NOT EXISTS (
-         SELECT 1 FROM alerts al WHERE al.point_id = a.point_id AND al.peak_at = a.taken_at)
-       AND NOT EXISTS (
-         SELECT 1 FROM findings f
-          WHERE f.point_id = a.point_id
-            AND f.created_at BETWEEN a.taken_at - INTERVAL ${win} MINUTE
-                                 AND a.taken_at + INTERVAL ${win} MINUTE)
-       -- the capture where a point's captures turned suspect (unusable ones thin like any other)
-       AND NOT EXISTS (
-         SELECT 1 FROM quality_notices qn WHERE qn.analysis_id = a.id AND qn.verdict = 'suspect')
-       -- the first capture after a change of the point's limits
-       AND NOT EXISTS (
-         SELECT 1 FROM audit_log l
-          WHERE l.entity = 'point' AND l.entity_id = CAST(a.point_id AS CHAR)
-            AND l.action IN ('limits.update', 'limits.baseline') AND l.at <= a.taken_at
-            AND NOT EXISTS (
-              SELECT 1 FROM analyses c
-               WHERE c.point_id = a.point_id AND c.taken_at >= l.at
-                 AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
-       AND NOT EXISTS (
-         SELECT 1 FROM limit_sets ls
-          WHERE ls.point_id = a.point_id AND ls.updated_at <= a.taken_at
-            AND NOT EXISTS (
-              SELECT 1 FROM analyses c
-               WHERE c.point_id = a.point_id AND c.taken_at >= ls.updated_at
-                 AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
+       AND NOT ${protectedCapture(win)}
      ORDER BY a.id
      LIMIT ${limit}`;
 }
@@ -135,15 +149,27 @@ export async function thinningCandidateIds(
   return rows.map((r) => Number(r.id));
 }
 
-export function clearSpectra(db: Db, ids: number[], now: Date): Promise<number> {
-  return affected(
+/**
+ * Thins the analyses `ids`: their spectra, and their captures' raw waveforms (a capture is
+ * either whole or thinned: a waveform without its spectra is not kept).
+ */
+export async function clearSpectra(db: Db, ids: number[], now: Date): Promise<number> {
+  const list = sql.join(
+    ids.map((id) => sql`${id}`),
+    sql`, `,
+  );
+  const thinned = await affected(
     db,
     sql`UPDATE analyses
            SET spectra = NULL, accel_spectrum = NULL, velocity_spectrum = NULL,
                envelope_spectrum = NULL, order_spectrum = NULL, spectra_thinned_at = ${now}
-         WHERE id IN (${sql.join(
-           ids.map((id) => sql`${id}`),
-           sql`, `,
-         )}) AND spectra_thinned_at IS NULL`,
+         WHERE id IN (${list}) AND spectra_thinned_at IS NULL`,
   );
+  await affected(
+    db,
+    sql`UPDATE snapshots s JOIN analyses a ON a.snapshot_id = s.id
+           SET s.samples = NULL, s.samples_expired_at = CURRENT_TIMESTAMP(3)
+         WHERE a.id IN (${list}) AND s.samples IS NOT NULL`,
+  );
+  return thinned;
 }

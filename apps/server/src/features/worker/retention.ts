@@ -17,16 +17,18 @@
  * - the capture a `suspect` quality notice refers to (where a point's captures turned suspect;
  *   unusable captures are thinned like any other, or a dead sensor would keep them all);
  * - uploads (`snapshots.source = 'upload'`);
+ * - captures a person pinned (`capture_pins`);
  * - the first capture of a point after each change of its limits (the audit log's
  *   `limits.update` / `limits.baseline` entries, and the point's limit set's `updated_at`).
  *
- * Thinning clears `spectra` and the four float32 columns of the rows written before it and
- * sets `spectra_thinned_at`; scalars, band values, summary (peaks, fault frequencies) and
- * diagnosis stay, so trends and alert history are whole.
+ * Thinning clears `spectra` and the four float32 columns of the rows written before it,
+ * sets `spectra_thinned_at`, and drops the capture's raw waveform (a capture is either whole
+ * or thinned); scalars, band values, summary (peaks, fault frequencies) and diagnosis stay,
+ * so trends and alert history are whole.
  *
- * Raw waveforms keep their own horizon, `RETENTION_DAYS` (90, by received time), for every
- * capture: they are ten times larger than the spectra, and an engineer who needs a waveform
- * for a report exports it within that time.
+ * Raw waveforms of the captures that keep their spectra have a further horizon,
+ * `RETENTION_DAYS` (90, by received time): they are five times larger than the compact
+ * spectra. The captures kept whole above keep theirs for ever.
  *
  * Both passes work in bounded batches (a SELECT of at most `batchSize` ids over at most
  * `scanSpan` primary keys, then an UPDATE of those ids by primary key, then a pause), so no
@@ -133,14 +135,15 @@ function batchOptions(o: BatchOptions): Required<BatchOptions> {
 
 /**
  * Drops raw waveforms older than `days` (received time); analyses, spectra and trends stay.
- * Only analysed snapshots lose samples, so nothing still queued is cut. 0 keeps all.
- * Returns the number of snapshots that lost their samples.
+ * Only analysed snapshots lose samples, so nothing still queued is cut, and the captures
+ * kept whole (pinned, uploads, within ±`keepWindowMinutes` of an alert event or a finding…)
+ * keep theirs. 0 keeps all. Returns the number of snapshots that lost their samples.
  */
 export async function expireRawSamples(
   db: Db,
   days: number,
   now = new Date(),
-  opts: BatchOptions = {},
+  opts: BatchOptions & { keepWindowMinutes?: number } = {},
 ): Promise<number> {
   return (await expireRawSamplesPass(db, days, now, opts)).rows;
 }
@@ -149,15 +152,16 @@ export async function expireRawSamplesPass(
   db: Db,
   days: number,
   now = new Date(),
-  opts: BatchOptions = {},
+  opts: BatchOptions & { keepWindowMinutes?: number } = {},
 ): Promise<PassResult> {
   if (days <= 0) return { rows: 0, batches: 0 };
   const cutoff = new Date(now.getTime() - days * DAY_MS);
+  const win = Math.max(0, Math.floor(opts.keepWindowMinutes ?? 60));
   const o = batchOptions(opts);
   return inBatches(
     await maxSnapshotId(db),
     o,
-    (lo, hi, limit) => rawSampleCandidates(db, cutoff, lo, hi, limit),
+    (lo, hi, limit) => rawSampleCandidates(db, cutoff, win, lo, hi, limit),
     (ids) => clearRawSamples(db, ids),
   );
 }
@@ -205,6 +209,9 @@ export async function runRetention(
 ): Promise<{ thinned: PassResult; expired: PassResult }> {
   const opts = { batchSize: policy.batchSize, batchPauseMs: policy.batchPauseMs };
   const thinned = await thinSpectra(db, policy, now, opts);
-  const expired = await expireRawSamplesPass(db, policy.rawSamplesDays, now, opts);
+  const expired = await expireRawSamplesPass(db, policy.rawSamplesDays, now, {
+    ...opts,
+    keepWindowMinutes: policy.keepWindowMinutes,
+  });
   return { thinned, expired };
 }
