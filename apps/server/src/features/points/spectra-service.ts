@@ -6,7 +6,7 @@
  */
 
 import type { Spectrum, SpectrumKind, Waterfall } from '@turnstone/contracts/points';
-import { readSpectrum, storedSpectrum } from '@turnstone/db/spectra-codec';
+import { base64Of, readSpectrumBase64, storedSpectrum } from '@turnstone/db/spectra-codec';
 
 import { AppError } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
@@ -101,7 +101,7 @@ export async function spectrum(
     dfHz: axis === 'hz' ? step : null,
     dOrder: axis === 'order' ? step : null,
     lines: values.length,
-    values: Buffer.from(values.buffer, values.byteOffset, values.byteLength).toString('base64'),
+    values: base64Of(values)!,
     peaks,
     faultFrequencies: (summary.faultFrequencies ?? []).map((f) => ({
       name: f.name,
@@ -127,14 +127,14 @@ export async function waterfall(
   const items: Waterfall['items'] = [];
   for (const r of rows) {
     const meta = readStoredSummary(r.summary).spectra?.[kind];
-    const values = readSpectrum(kind, r.spectra, r.legacy);
+    const values = meta ? readSpectrumBase64(kind, r.spectra, r.legacy) : null;
     if (!meta || !values) continue;
     unit = meta.unit;
     items.push({
       analysisId: r.id,
       takenAt: iso(r.takenAt),
       step: (axis === 'order' ? meta.dOrder : meta.dfHz) ?? 0,
-      values: Buffer.from(values.buffer, values.byteOffset, values.byteLength).toString('base64'),
+      values,
     });
   }
   return { kind, unit, axis, items };
