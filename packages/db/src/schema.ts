@@ -662,6 +662,11 @@ export const findings = mysqlTable(
     workOrderRef: varchar('work_order_ref', { length: 64 }),
     dueDate: date('due_date', { mode: 'string' }),
     state: mysqlEnum('state', ['open', 'planned', 'done']).notNull().default('open'),
+    priority: mysqlEnum('priority', ['low', 'medium', 'high']).notNull().default('medium'),
+    /** Who carries it out: a person or a crew, as the plant names them. */
+    owner: varchar('owner', { length: 100 }),
+    /** Machine downtime the work needs, hours; null when none is planned or known. */
+    plannedDowntimeHours: double('planned_downtime_hours'),
     note: text('note'),
     createdBy: ref('created_by')
       .notNull()

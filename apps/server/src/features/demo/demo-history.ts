@@ -293,6 +293,9 @@ class PeoplePlayer {
           dueDate: new Date(this.end + 21 * DAY).toISOString().slice(0, 10),
           note: 'Outer-race defect confirmed by the envelope spectrum; bearing and seals ordered. Work under the site lock-out procedure.',
           state: 'planned',
+          priority: 'high',
+          owner: 'Mechanical crew A',
+          plannedDowntimeHours: 6,
         });
       if (mfp && a.bandKey === 'order-1x' && a.tag === 'MFP-P201-MDE-H')
         await this.finding(`p201:${a.id}`, ackAt + Math.min(DAY, span / 20), {
@@ -301,6 +304,8 @@ class PeoplePlayer {
           title: 'Clean and balance the impeller of P-201',
           note: 'Rising 1× radially, little axially: unbalance. Needs a stop; to be planned with operations.',
           state: 'open',
+          priority: 'medium',
+          plannedDowntimeHours: 8,
         });
     }
     // B-301: coupling realigned during a planned stop once the history reaches REALIGNED_AT.
@@ -327,6 +332,9 @@ class PeoplePlayer {
           dueDate: new Date(t).toISOString().slice(0, 10),
           note: 'Coupling offset found and corrected during the planned stop; 2× back to normal on the next captures.',
           state: 'done',
+          priority: 'medium',
+          owner: 'Alignment contractor',
+          plannedDowntimeHours: 4,
         });
       this.done.add('b301');
     }
@@ -343,6 +351,9 @@ class PeoplePlayer {
       dueDate?: string;
       note: string;
       state: 'open' | 'planned' | 'done';
+      priority: 'high' | 'medium' | 'low';
+      owner?: string;
+      plannedDowntimeHours: number;
     },
   ) {
     if (this.done.has(key)) return;
@@ -354,6 +365,9 @@ class PeoplePlayer {
       workOrderRef: f.workOrderRef ?? null,
       dueDate: f.dueDate ?? null,
       note: f.note,
+      priority: f.priority,
+      owner: f.owner ?? null,
+      plannedDowntimeHours: f.plannedDowntimeHours,
     });
     if (f.state !== 'open')
       await updateFinding(this.ctx, this.who.planner, created.id, { state: f.state });

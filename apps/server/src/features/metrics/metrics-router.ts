@@ -60,6 +60,25 @@ async function databaseMetrics(ctx: AppContext): Promise<Registry> {
     pool.set({ pool: name, state: 'idle' }, c.idle);
     pool.set({ pool: name, state: 'limit' }, c.limit);
   }
+  const replicas = ctx.dbHandle.replicas();
+  if (replicas.length > 0) {
+    const usable = new Gauge({
+      name: 'turnstone_database_replica_usable',
+      help: '1 when the read replica is up, replicating and within REPLICA_MAX_LAG_S (it serves dashboard reads), else 0.',
+      labelNames: ['replica'] as const,
+      registers: [r],
+    });
+    const lag = new Gauge({
+      name: 'turnstone_database_replica_lag_seconds',
+      help: 'Seconds_Behind_Master of the read replica at its last probe; absent while unknown.',
+      labelNames: ['replica'] as const,
+      registers: [r],
+    });
+    for (const h of replicas) {
+      usable.set({ replica: h.name }, h.usable ? 1 : 0);
+      if (h.lagSeconds !== null) lag.set({ replica: h.name }, h.lagSeconds);
+    }
+  }
   try {
     // Each count uses an index prefix (jobs: state, run_after; outbox: sent_at), and `done`
     // jobs and sent mail, which grow for ever, are not counted here.
