@@ -31,7 +31,8 @@ export function createAuthenticate(ctx: AppContext): Authenticate {
     if (req.user) return;
     const bearer = /^Bearer\s+(\S+)\s*$/i.exec(req.get('authorization') ?? '');
     if (bearer) {
-      const user = await userFromApiToken(ctx, bearer[1]!);
+      // On the primary: a token revoked a moment ago must not pass on a lagging replica.
+      const user = await readFromPrimary(() => userFromApiToken(ctx, bearer[1]!));
       if (!user)
         throw new AppError(
           'invalid_token',
