@@ -12,6 +12,7 @@ import { mountRoutes, type RouteGroup, type RouteSpec } from './lib/route-table.
 import { webDist } from './lib/web-build.ts';
 import { trackRequest } from './lib/request-log.ts';
 import { hostCheck } from './lib/allowed-hosts.ts';
+import { readRouting } from './lib/read-routing.ts';
 import { authRouter, authRoutes, createAuthenticate } from './features/auth/auth-router.ts';
 import { fleetRoutes } from './features/fleet/fleet-router.ts';
 import { healthRouter } from './features/health/health-router.ts';
@@ -157,6 +158,7 @@ export function createApp(ctx: AppContext) {
   api.use(express.json({ limit: '1mb' }));
   api.use(cookieParser());
   api.use(sameOriginWrites);
+  if (ctx.config.DATABASE_REPLICA_URLS.length > 0) api.use(readRouting(ctx.config));
   api.use(authRouter(ctx, authenticate));
   mountRoutes(
     api,

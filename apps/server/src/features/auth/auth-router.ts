@@ -1,3 +1,4 @@
+import { readFromPrimary } from '@turnstone/db/replicas';
 import { Router, type Request, type Response, type CookieOptions } from 'express';
 import { createHmac, timingSafeEqual } from 'node:crypto';
 import {
@@ -25,7 +26,9 @@ export function createAuthenticate(ctx: AppContext): Authenticate {
     if (req.user) return;
     const token = (req.cookies as Record<string, string> | undefined)?.[COOKIE_NAME];
     if (!token) return;
-    const user = await service.userFromToken(ctx.db, ctx.jwtSecret, token);
+    // On the primary even for a replica read: a session ended or an account disabled a
+    // moment ago must not pass on a replica that is a few seconds behind.
+    const user = await readFromPrimary(() => service.userFromToken(ctx.db, ctx.jwtSecret, token));
     if (user) req.user = user;
   };
 }

@@ -4,7 +4,6 @@
  * `alert:<alert event id>:<user id>` makes "one message per user per alert event" a
  * database rule even when a user has several matching subscriptions.
  */
-import { sql } from 'drizzle-orm';
 import type { AppContext } from '../../lib/context.ts';
 import {
   SAFETY_CAUTION,
@@ -26,18 +25,18 @@ import {
   type DiagnosisHintItem,
 } from '@turnstone/contracts/points';
 import { enqueueMail, HOURLY_KIND } from './outbox-repository.ts';
+import {
+  alertForMail,
+  analysisAtOrBefore,
+  lastAlertEvent,
+  subscribersOf,
+} from './mail-repository.ts';
 import { PICTURE_HEIGHT, PICTURE_WIDTH, renderBandPicture, svgDataUrl } from './band-picture.ts';
 import { alertMailLink } from '../alerts/alert-mail-link.ts';
 import { recentBandValues } from '../alerts/alerts-repository.ts';
 import { bandRuleOf } from '../alerts/alerts-service.ts';
 
 export type AlertChangeKind = 'raised' | 'escalated' | 'cleared';
-
-type Row = Record<string, unknown>;
-async function rows(tx: Tx, q: ReturnType<typeof sql>): Promise<Row[]> {
-  const [r] = (await tx.execute(q)) as unknown as [Row[]];
-  return r;
-}
 
 export interface AlertMailFacts {
   alertId: number;
@@ -166,29 +165,12 @@ function topHintOf(stored: unknown): DiagnosisHintItem | null {
 }
 
 async function loadFacts(tx: Tx, alertId: number, kind: AlertChangeKind) {
-  const [a] = await rows(
-    tx,
-    sql`SELECT a.id, a.level, a.band_key, a.band_name, a.unit, a.limit_value, a.last_value, a.peak_value,
-               a.last_at, a.suspect, p.id AS point_id, p.tag, p.name AS point_name,
-               m.id AS machine_id, m.name AS machine_name, ar.name AS area_name,
-               s.id AS site_id, s.code AS site_code, s.name AS site_name
-          FROM alerts a JOIN points p ON p.id = a.point_id JOIN machines m ON m.id = p.machine_id
-          JOIN areas ar ON ar.id = m.area_id JOIN sites s ON s.id = ar.site_id
-         WHERE a.id = ${alertId}`,
-  );
+  const a = await alertForMail(tx, alertId);
   if (!a) return null;
-  const [ev] = await rows(
-    tx,
-    sql`SELECT id, level, value, at FROM alert_events
-         WHERE alert_id = ${alertId} AND kind = ${kind} ORDER BY id DESC LIMIT 1`,
-  );
+  const ev = await lastAlertEvent(tx, alertId, kind);
   if (!ev) return null;
   const at = new Date(ev.at as Date);
-  const [an] = await rows(
-    tx,
-    sql`SELECT quality_verdict, diagnosis FROM analyses WHERE point_id = ${a.point_id} AND taken_at <= ${at}
-         ORDER BY taken_at DESC, id DESC LIMIT 1`,
-  );
+  const an = await analysisAtOrBefore(tx, Number(a.point_id), at);
   const facts: AlertMailFacts = {
     alertId,
     kind,
@@ -216,15 +198,7 @@ async function loadFacts(tx: Tx, alertId: number, kind: AlertChangeKind) {
 
 /** Users whose subscriptions match: scope (site or machine), level, and site access. */
 async function recipients(tx: Tx, siteId: number, machineId: number, level: string) {
-  const found = await rows(
-    tx,
-    sql`SELECT u.id, u.email, sub.cadence FROM subscriptions sub JOIN users u ON u.id = sub.user_id
-         WHERE u.disabled_at IS NULL AND u.password_hash IS NOT NULL
-           AND (sub.site_id = ${siteId} OR sub.machine_id = ${machineId})
-           AND (sub.min_level = 'alert' OR ${level} = 'danger')
-           AND (u.role = 'admin' OR EXISTS (SELECT 1 FROM user_sites us
-                 WHERE us.user_id = u.id AND us.site_id = ${siteId}))`,
-  );
+  const found = await subscribersOf(tx, siteId, machineId, level);
   const byUser = new Map<number, { email: string; immediate: boolean }>();
   for (const r of found) {
     const id = Number(r.id);

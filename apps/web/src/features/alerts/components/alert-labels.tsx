@@ -1,3 +1,5 @@
+import { formatNumber } from '@turnstone/contracts/number-format';
+import { unitText } from '@turnstone/contracts/units';
 import type { AlertDetail, AlertStateName } from '@turnstone/contracts/alerts';
 import { cn } from '../../../lib/cn.ts';
 
@@ -14,13 +16,9 @@ export const alertEventLabels = {
   cleared: 'Cleared',
 } as const;
 
-/** Units as people write them. */
-export const unitLabel = (unit: string) => (unit === 'um' ? 'µm' : unit);
-
-/** A value with its unit in the mono font. */
+/** A value with its unit, by the app's one number rule. */
 export function formatLevel(value: number, unit: string): string {
-  const digits = Math.abs(value) >= 100 ? 0 : Math.abs(value) >= 10 ? 1 : 2;
-  return `${value.toFixed(digits)} ${unitLabel(unit)}`;
+  return `${formatNumber(value)} ${unitText(unit)}`;
 }
 
 /** Hours as people say them: "5 days", "12 hours". */
