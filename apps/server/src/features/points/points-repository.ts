@@ -284,6 +284,7 @@ export async function recentSpectra(db: Db, pointId: number, kind: SpectrumKind,
     .select({
       id: analyses.id,
       takenAt: analyses.takenAt,
+      speedRpm: analyses.speedRpm,
       summary: analyses.summary,
       spectra: analyses.spectra,
       legacy: analyses[legacy],
