@@ -74,6 +74,7 @@ function successAnswer(spec: RouteSpec) {
   const statuses = [s.status ?? 200].flat();
   const answer = (status: number) => {
     if (status === 204) return { description: 'Done; no body.' };
+    if (status === 302) return { description: 'A redirect to the page (Location header).' };
     if (s.produces)
       return {
         description: `A file (${s.produces}).`,
