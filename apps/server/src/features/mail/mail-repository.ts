@@ -17,7 +17,7 @@ async function rows(db: Db | Tx, q: ReturnType<typeof sql>): Promise<Row[]> {
 export async function alertForMail(tx: Tx, alertId: number): Promise<Row | undefined> {
   const [a] = await rows(
     tx,
-    sql`SELECT a.id, a.level, a.band_name, a.unit, a.limit_value, a.last_value, a.peak_value,
+    sql`SELECT a.id, a.level, a.band_key, a.band_name, a.unit, a.limit_value, a.last_value, a.peak_value,
                a.last_at, a.suspect, p.id AS point_id, p.tag, p.name AS point_name,
                m.id AS machine_id, m.name AS machine_name, ar.name AS area_name,
                s.id AS site_id, s.code AS site_code, s.name AS site_name
