@@ -45,6 +45,11 @@ export interface RouteSpec {
   summary: string;
   /** What it takes and answers, for the OpenAPI document; routes without it are listed bare. */
   schemas?: RouteSchemas;
+  /**
+   * A creating POST takes an `Idempotency-Key` (features/idempotency) unless `refused`:
+   * for an answer holding a secret shown once, which a replay would have to keep.
+   */
+  idempotency?: 'refused';
   handler: (req: Request, res: Response) => unknown;
 }
 
