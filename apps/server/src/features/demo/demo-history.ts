@@ -66,6 +66,7 @@ async function sessionUser(ctx: AppContext, email: string): Promise<SessionUser>
     name: u.name,
     role: u.role,
     siteIds: rows.map((r) => r.siteId),
+    unitSystem: u.unitSystem,
   };
 }
 

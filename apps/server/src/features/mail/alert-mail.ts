@@ -25,6 +25,8 @@ import {
   type Diagnosis,
   type DiagnosisHintItem,
 } from '@turnstone/contracts/points';
+import { formatQuantity, restateUnits } from '@turnstone/contracts/number-format';
+import { unitSystemSchema, type UnitSystem } from '@turnstone/contracts/units';
 import { enqueueMail, HOURLY_KIND } from './outbox-repository.ts';
 
 export type AlertChangeKind = 'raised' | 'escalated' | 'cleared';
@@ -59,13 +61,13 @@ export interface AlertMailFacts {
   topHint?: DiagnosisHintItem | null;
 }
 
-/** "1× 24.7 Hz (1.00×) 6.40 mm/s RMS; 2× …" */
-function evidenceText(h: DiagnosisHintItem): string {
+/** "1× 24.7 Hz (1.00×) 6.40 mm/s RMS; 2× …", amplitudes in the reader's unit system. */
+function evidenceText(h: DiagnosisHintItem, system: UnitSystem): string {
   return h.evidence
-    .map(
-      (e) =>
-        `${e.label} ${num(e.hz)} Hz (${e.order.toFixed(2)}×) ${num(e.amplitude)} ${evidenceUnits[e.spectrum]}`,
-    )
+    .map((e) => {
+      const [unit, measure] = evidenceUnits[e.spectrum].split(' ') as [string, string];
+      return `${e.label} ${num(e.hz)} Hz (${e.order.toFixed(2)}×) ${formatQuantity(e.amplitude, unit, system)} ${measure}`;
+    })
     .join('; ');
 }
 
@@ -78,7 +80,13 @@ const VERDICT_TEXT: Record<string, string> = {
   unusable: 'unusable — the capture failed the quality checks',
 };
 
-export function renderAlertMail(f: AlertMailFacts, link: string): Rendered {
+/** The message for one alert change, its values in the recipient's unit system. */
+export function renderAlertMail(
+  f: AlertMailFacts,
+  link: string,
+  system: UnitSystem = 'metric',
+): Rendered {
+  const v = (value: number) => formatQuantity(value, f.unit, system);
   const what =
     f.kind === 'raised'
       ? `${f.level === 'danger' ? 'Danger' : 'Alert'} raised`
@@ -87,8 +95,8 @@ export function renderAlertMail(f: AlertMailFacts, link: string): Rendered {
         : `${f.level === 'danger' ? 'Danger' : 'Alert'} cleared`;
   const valueLine =
     f.kind === 'cleared'
-      ? `${num(f.value)} ${f.unit}, back below the ${f.level} level ${num(f.limit)} ${f.unit} (highest while open: ${num(f.peak)} ${f.unit})`
-      : `${num(f.value)} ${f.unit} against the ${f.level} level ${num(f.limit)} ${f.unit}`;
+      ? `${v(f.value)}, back below the ${f.level} level ${v(f.limit)} (highest while open: ${v(f.peak)})`
+      : `${v(f.value)} against the ${f.level} level ${v(f.limit)}`;
   const facts: [string, string][] = [
     ['Machine', `${f.machineName} (${f.siteCode} · ${f.areaName})`],
     ['Point', `${f.pointTag} — ${f.pointName}`],
@@ -99,10 +107,11 @@ export function renderAlertMail(f: AlertMailFacts, link: string): Rendered {
   ];
   const hint = f.kind === 'cleared' ? null : (f.topHint ?? null);
   if (hint) {
-    facts.push(['Likely cause (hint)', `${diagnosisCodeNames[hint.code]}: ${hint.summary}`]);
-    facts.push(['Evidence', evidenceText(hint)]);
+    const summary = restateUnits(hint.summary, system);
+    facts.push(['Likely cause (hint)', `${diagnosisCodeNames[hint.code]}: ${summary}`]);
+    facts.push(['Evidence', evidenceText(hint, system)]);
   }
-  const subject = `[Turnstone] ${what}: ${f.machineName} ${f.pointTag} — ${f.bandName} ${num(f.value)} ${f.unit}`;
+  const subject = `[Turnstone] ${what}: ${f.machineName} ${f.pointTag} — ${f.bandName} ${v(f.value)}`;
   const footer = 'You receive this because of your notification settings (Account in Turnstone).';
   const text = [
     `${what} on ${f.machineName}, ${f.siteName}.`,
@@ -191,19 +200,20 @@ async function loadFacts(tx: Tx, alertId: number, kind: AlertChangeKind) {
 async function recipients(tx: Tx, siteId: number, machineId: number, level: string) {
   const found = await rows(
     tx,
-    sql`SELECT u.id, u.email, sub.cadence FROM subscriptions sub JOIN users u ON u.id = sub.user_id
+    sql`SELECT u.id, u.email, u.unit_system, sub.cadence FROM subscriptions sub JOIN users u ON u.id = sub.user_id
          WHERE u.disabled_at IS NULL AND u.password_hash IS NOT NULL
            AND (sub.site_id = ${siteId} OR sub.machine_id = ${machineId})
            AND (sub.min_level = 'alert' OR ${level} = 'danger')
            AND (u.role = 'admin' OR EXISTS (SELECT 1 FROM user_sites us
                  WHERE us.user_id = u.id AND us.site_id = ${siteId}))`,
   );
-  const byUser = new Map<number, { email: string; immediate: boolean }>();
+  const byUser = new Map<number, { email: string; immediate: boolean; system: UnitSystem }>();
   for (const r of found) {
     const id = Number(r.id);
     const prev = byUser.get(id);
     const immediate = r.cadence === 'immediate' || (prev?.immediate ?? false);
-    byUser.set(id, { email: String(r.email), immediate });
+    const system = unitSystemSchema.catch('metric').parse(r.unit_system);
+    byUser.set(id, { email: String(r.email), immediate, system });
   }
   return byUser;
 }
@@ -227,8 +237,12 @@ export async function queueAlertChangeMail(
   const who = await recipients(tx, siteId, facts.machineId, facts.level);
   if (who.size === 0) return 0;
   const base = await mailBaseUrl(ctx, tx);
-  const msg = renderAlertMail(facts, pointLink(base, facts.pointId));
+  const link = pointLink(base, facts.pointId);
+  // Each recipient reads the values in their own unit system.
+  const bySystem = new Map<UnitSystem, Rendered>();
   for (const [userId, u] of who) {
+    let msg = bySystem.get(u.system);
+    if (!msg) bySystem.set(u.system, (msg = renderAlertMail(facts, link, u.system)));
     await enqueueMail(tx, {
       // Hourly subscribers' rows wait for the hour and go out folded into one summary.
       kind: u.immediate ? `alert-${change.kind}` : HOURLY_KIND,

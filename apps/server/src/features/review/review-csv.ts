@@ -5,6 +5,7 @@
  */
 import Papa from 'papaparse';
 import type { WeeklyReview } from '@turnstone/contracts/review';
+import { displayUnit, toDisplay, type UnitSystem } from '@turnstone/contracts/units';
 
 type Cell = string | number | boolean | null | undefined;
 
@@ -25,7 +26,11 @@ function section(title: string, header: string[], rows: Cell[][]): string {
   });
 }
 
-export function reviewCsv(r: WeeklyReview): string {
+/** The review as CSV, values and unit columns in the reader's unit system (stored metric). */
+export function reviewCsv(r: WeeklyReview, system: UnitSystem = 'metric'): string {
+  const v = (value: number | null, unit: string) =>
+    value === null ? null : toDisplay(value, unit, system);
+  const u = (unit: string) => displayUnit(unit, system);
   const sites = r.sites.map((s) => s.code).join(' ');
   const parts = [
     Papa.unparse(
@@ -60,10 +65,10 @@ export function reviewCsv(r: WeeklyReview): string {
         m.pointName,
         m.machineName,
         m.bandName,
-        m.unit,
-        m.lastWeekMean,
-        m.thisWeekMean,
-        m.change,
+        u(m.unit),
+        v(m.lastWeekMean, m.unit),
+        v(m.thisWeekMean, m.unit),
+        v(m.change, m.unit),
         m.changePercent,
         m.lastWeekCount,
         m.thisWeekCount,
@@ -95,11 +100,11 @@ export function reviewCsv(r: WeeklyReview): string {
         f.pointName,
         f.machineName,
         f.bandName,
-        f.unit,
-        f.latestValue,
+        u(f.unit),
+        v(f.latestValue, f.unit),
         f.latestAt,
         f.target.level,
-        f.target.value,
+        v(f.target.value, f.unit),
         f.levelSource,
         f.crossingAt,
         f.daysToCrossing,
@@ -132,12 +137,12 @@ export function reviewCsv(r: WeeklyReview): string {
         a.pointName,
         a.machineName,
         a.bandName,
-        a.unit,
+        u(a.unit),
         a.level,
         a.state,
-        a.limitValue,
-        a.lastValue,
-        a.peakValue,
+        v(a.limitValue, a.unit),
+        v(a.lastValue, a.unit),
+        v(a.peakValue, a.unit),
         a.firstAt,
         a.ageDays,
         a.suspect,

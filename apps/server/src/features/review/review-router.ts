@@ -39,7 +39,7 @@ export function reviewRoutes(ctx: AppContext): RouteSpec[] {
           'Content-Disposition',
           `attachment; filename="turnstone-review${sites}-${review.period.weekEnding}.csv"`,
         );
-        res.send(reviewCsv(review));
+        res.send(reviewCsv(review, requireUser(req).unitSystem));
       },
     },
   ];
