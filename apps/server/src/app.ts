@@ -12,6 +12,7 @@ import { mountRoutes, type RouteGroup, type RouteSpec } from './lib/route-table.
 import { webDist } from './lib/web-build.ts';
 import { trackRequest } from './lib/request-log.ts';
 import { hostCheck } from './lib/allowed-hosts.ts';
+import { readRouting } from './lib/read-routing.ts';
 import { authRouter, authRoutes, createAuthenticate } from './features/auth/auth-router.ts';
 import { fleetRoutes } from './features/fleet/fleet-router.ts';
 import { healthRouter } from './features/health/health-router.ts';
@@ -31,6 +32,8 @@ import { findingRoutes } from './features/findings/findings-router.ts';
 import { userLinkRoutes, userRoutes } from './features/users/users-router.ts';
 import { accountRoutes } from './features/account/account-router.ts';
 import { mailboxRoutes } from './features/mailbox/mailbox-router.ts';
+import { apiTokenRoutes } from './features/api-tokens/api-tokens-router.ts';
+import { idempotentHandler, isCreating } from './features/idempotency/idempotent-route.ts';
 import { apiDocsRoutes } from './features/api-docs/api-docs-router.ts';
 
 /** The feature routes below /api/v1, by feature (auth mounts its own, behind its rate limiters). */
@@ -59,6 +62,11 @@ function featureRouteGroups(ctx: AppContext): RouteGroup[] {
       tag: 'users',
       description: 'Accounts and their site links.',
       routes: [...userRoutes(ctx), ...userLinkRoutes(ctx)],
+    },
+    {
+      tag: 'api-tokens',
+      description: 'API tokens of service accounts (Authorization: Bearer).',
+      routes: apiTokenRoutes(ctx),
     },
     {
       tag: 'account',
@@ -157,10 +165,15 @@ export function createApp(ctx: AppContext) {
   api.use(express.json({ limit: '1mb' }));
   api.use(cookieParser());
   api.use(sameOriginWrites);
+  if (ctx.config.DATABASE_REPLICA_URLS.length > 0) api.use(readRouting(ctx.config));
   api.use(authRouter(ctx, authenticate));
   mountRoutes(
     api,
-    featureRouteGroups(ctx).flatMap((g) => g.routes),
+    featureRouteGroups(ctx)
+      .flatMap((g) => g.routes)
+      .map((spec) =>
+        isCreating(spec) ? { ...spec, handler: idempotentHandler(ctx, spec) } : spec,
+      ),
     authenticate,
   );
   app.use('/api', healthRouter(ctx));

@@ -49,7 +49,12 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
     localDb = await startLocalMariadb({ dataDir, port: config.DB_PORT, log: say });
     url = localDb.url;
   }
-  const dbHandle = createDb(url, { connectionLimit: 20, batchConnectionLimit: 32 });
+  const dbHandle = createDb(url, {
+    connectionLimit: 20,
+    batchConnectionLimit: 32,
+    replicaUrls: config.DATABASE_REPLICA_URLS,
+    maxReplicaLagSeconds: config.REPLICA_MAX_LAG_S,
+  });
   const cleanup: Array<() => Promise<void>> = [];
   try {
     await runMigrations(dbHandle, {

@@ -653,6 +653,21 @@ export const qualityNotices = mysqlTable(
   ],
 );
 
+/**
+ * Captures a person pinned: kept whole (spectra and raw waveform) whatever their age, like
+ * the captures around alert events (apps/server/src/features/worker/retention.ts).
+ */
+export const capturePins = mysqlTable('capture_pins', {
+  analysisId: bigRef('analysis_id')
+    .primaryKey()
+    .references(() => analyses.id, { onDelete: 'cascade' }),
+  pinnedBy: ref('pinned_by')
+    .notNull()
+    .references(() => users.id),
+  pinnedAt: at('pinned_at').notNull(),
+  note: varchar('note', { length: 200 }).notNull().default(''),
+});
+
 /** The planner's follow-ups. */
 export const findings = mysqlTable(
   'findings',
@@ -667,6 +682,11 @@ export const findings = mysqlTable(
     workOrderRef: varchar('work_order_ref', { length: 64 }),
     dueDate: date('due_date', { mode: 'string' }),
     state: mysqlEnum('state', ['open', 'planned', 'done']).notNull().default('open'),
+    priority: mysqlEnum('priority', ['low', 'medium', 'high']).notNull().default('medium'),
+    /** Who carries it out: a person or a crew, as the plant names them. */
+    owner: varchar('owner', { length: 100 }),
+    /** Machine downtime the work needs, hours; null when none is planned or known. */
+    plannedDowntimeHours: double('planned_downtime_hours'),
     note: text('note'),
     createdBy: ref('created_by')
       .notNull()
