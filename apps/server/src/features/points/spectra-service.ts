@@ -6,7 +6,7 @@
  */
 
 import type { Spectrum, SpectrumKind, Waterfall } from '@turnstone/contracts/points';
-import { readSpectrum, storedSpectrum } from '@turnstone/db/spectra-codec';
+import { base64Of, readSpectrumBase64, storedSpectrum } from '@turnstone/db/spectra-codec';
 
 import { AppError } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
@@ -106,7 +106,7 @@ export async function spectrum(
     dfHz: axis === 'hz' ? step : null,
     dOrder: axis === 'order' ? step : null,
     lines: values.length,
-    values: Buffer.from(values.buffer, values.byteOffset, values.byteLength).toString('base64'),
+    values: base64Of(values)!,
     peaks,
     faultFrequencies: (summary.faultFrequencies ?? []).map((f) => ({
       name: f.name,
@@ -134,7 +134,7 @@ export async function waterfall(
   for (const r of rows) {
     const summary = readStoredSummary(r.summary);
     const meta = summary.spectra?.[kind];
-    const values = readSpectrum(kind, r.spectra, r.legacy);
+    const values = meta ? readSpectrumBase64(kind, r.spectra, r.legacy) : null;
     if (!meta || !values) continue;
     unit = meta.unit;
     scale = meta.scale;
@@ -142,7 +142,7 @@ export async function waterfall(
       analysisId: r.id,
       takenAt: iso(r.takenAt),
       step: (axis === 'order' ? meta.dOrder : meta.dfHz) ?? 0,
-      values: Buffer.from(values.buffer, values.byteOffset, values.byteLength).toString('base64'),
+      values,
       shaftHz: shaftHzOf(summary.speed ?? { rpm: r.speedRpm, hz: null }),
     });
   }
