@@ -33,6 +33,9 @@ import { qualityRoutes } from './features/quality/quality-router.ts';
 import { userLinkRoutes, userRoutes } from './features/users/users-router.ts';
 import { accountRoutes } from './features/account/account-router.ts';
 import { mailboxRoutes } from './features/mailbox/mailbox-router.ts';
+import { apiTokenRoutes } from './features/api-tokens/api-tokens-router.ts';
+import { idempotentHandler, isCreating } from './features/idempotency/idempotent-route.ts';
+import { webhookRoutes } from './features/webhooks/webhooks-router.ts';
 import { apiDocsRoutes } from './features/api-docs/api-docs-router.ts';
 
 /** The feature routes below /api/v1, by feature (auth mounts its own, behind its rate limiters). */
@@ -66,6 +69,16 @@ function featureRouteGroups(ctx: AppContext): RouteGroup[] {
       tag: 'users',
       description: 'Accounts and their site links.',
       routes: [...userRoutes(ctx), ...userLinkRoutes(ctx)],
+    },
+    {
+      tag: 'api-tokens',
+      description: 'API tokens of service accounts (Authorization: Bearer).',
+      routes: apiTokenRoutes(ctx),
+    },
+    {
+      tag: 'webhooks',
+      description: 'Outgoing webhooks: alert and finding events posted to a receiver, signed.',
+      routes: webhookRoutes(ctx),
     },
     {
       tag: 'account',
@@ -168,7 +181,11 @@ export function createApp(ctx: AppContext) {
   api.use(authRouter(ctx, authenticate));
   mountRoutes(
     api,
-    featureRouteGroups(ctx).flatMap((g) => g.routes),
+    featureRouteGroups(ctx)
+      .flatMap((g) => g.routes)
+      .map((spec) =>
+        isCreating(spec) ? { ...spec, handler: idempotentHandler(ctx, spec) } : spec,
+      ),
     authenticate,
   );
   app.use('/api', healthRouter(ctx));

@@ -648,6 +648,21 @@ export const qualityNotices = mysqlTable(
   ],
 );
 
+/**
+ * Captures a person pinned: kept whole (spectra and raw waveform) whatever their age, like
+ * the captures around alert events (apps/server/src/features/worker/retention.ts).
+ */
+export const capturePins = mysqlTable('capture_pins', {
+  analysisId: bigRef('analysis_id')
+    .primaryKey()
+    .references(() => analyses.id, { onDelete: 'cascade' }),
+  pinnedBy: ref('pinned_by')
+    .notNull()
+    .references(() => users.id),
+  pinnedAt: at('pinned_at').notNull(),
+  note: varchar('note', { length: 200 }).notNull().default(''),
+});
+
 /** The planner's follow-ups. */
 export const findings = mysqlTable(
   'findings',

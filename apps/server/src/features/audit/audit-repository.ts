@@ -1,4 +1,7 @@
-import { eq } from 'drizzle-orm';
+import { and, desc, eq, gte, inArray, like, lt, lte, or, type SQL } from 'drizzle-orm';
+import type { z } from 'zod';
+import type { auditQuerySchema } from '@turnstone/contracts/audit';
+import type { SessionUser } from '../../lib/session-user.ts';
 import type { Db, Tx } from '@turnstone/db/client';
 import {
   alerts,
@@ -8,6 +11,7 @@ import {
   gateways,
   machines,
   points,
+  users,
 } from '@turnstone/db/schema';
 
 export interface AuditEntry {
@@ -94,4 +98,52 @@ export async function writeAudit(db: Db | Tx, e: AuditEntry): Promise<void> {
     reason: e.reason ?? null,
     siteId,
   });
+}
+
+export type AuditQuery = z.output<typeof auditQuerySchema>;
+
+/** Escapes LIKE wildcards so an action prefix matches literally. */
+const likePrefix = (s: string) => `${s.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+
+/** Up to `q.limit + 1` entries the user may read that match `q`, newest first. */
+export async function auditRows(db: Db, user: SessionUser, q: AuditQuery) {
+  const where: SQL[] = [];
+  if (user.role !== 'admin') {
+    const templates = eq(auditLog.entity, 'limit-template');
+    where.push(
+      user.siteIds.length ? or(inArray(auditLog.siteId, user.siteIds), templates)! : templates,
+    );
+  }
+  if (q.entity) where.push(eq(auditLog.entity, q.entity));
+  if (q.entityId) where.push(eq(auditLog.entityId, q.entityId));
+  if (q.actor) where.push(eq(auditLog.actorUserId, q.actor));
+  if (q.action)
+    where.push(
+      q.action.endsWith('.')
+        ? like(auditLog.action, likePrefix(q.action))
+        : eq(auditLog.action, q.action),
+    );
+  if (q.from) where.push(gte(auditLog.at, new Date(q.from)));
+  if (q.since) where.push(gte(auditLog.at, new Date(q.since)));
+  if (q.to) where.push(lte(auditLog.at, new Date(q.to)));
+  if (q.cursor) where.push(lt(auditLog.id, Number(q.cursor)));
+  const rows = await db
+    .select({
+      id: auditLog.id,
+      at: auditLog.at,
+      actorUserId: auditLog.actorUserId,
+      actorName: users.name,
+      action: auditLog.action,
+      entity: auditLog.entity,
+      entityId: auditLog.entityId,
+      before: auditLog.before,
+      after: auditLog.after,
+      reason: auditLog.reason,
+    })
+    .from(auditLog)
+    .leftJoin(users, eq(users.id, auditLog.actorUserId))
+    .where(where.length ? and(...where) : undefined)
+    .orderBy(desc(auditLog.id))
+    .limit(q.limit + 1);
+  return rows;
 }

@@ -3,7 +3,6 @@
  * service the screen reads) as an e-mail — counts, largest increases, forecasts, open
  * alerts by age, quality notices and findings due, each row with a link to its point.
  */
-import { sql } from 'drizzle-orm';
 import type { WeeklyReview } from '@turnstone/contracts/review';
 import type { AppContext } from '../../lib/context.ts';
 import { buildWeeklyReview } from '../review/review-service.ts';
@@ -12,8 +11,8 @@ import { sessionUserOf } from '../auth/auth-service.ts';
 import { esc, htmlLayout, num, SAFETY_CAUTION, type Rendered } from './mail-templates.ts';
 import { mailBaseUrl, pointLink } from './mail-links.ts';
 import { enqueueMail } from './outbox-repository.ts';
+import { digestRecipientIds } from './mail-repository.ts';
 
-type Row = Record<string, unknown>;
 const TOP = 10;
 
 interface Line {
@@ -119,15 +118,11 @@ export async function queueWeeklyDigests(
 ): Promise<number> {
   const now = options.now ?? new Date();
   const weekEnding = options.weekEnding ?? digestWeekEnding(now);
-  const [rows] = (await ctx.db.execute(
-    sql`SELECT DISTINCT u.id FROM users u JOIN subscriptions s ON s.user_id = u.id
-         WHERE s.weekly_digest = 1 AND u.role = 'planner' AND u.disabled_at IS NULL
-           AND u.password_hash IS NOT NULL`,
-  )) as unknown as [Row[]];
+  const ids = await digestRecipientIds(ctx.db);
   const base = await mailBaseUrl(ctx);
   let queued = 0;
-  for (const r of rows) {
-    const row = await findUserById(ctx.db, Number(r.id));
+  for (const id of ids) {
+    const row = await findUserById(ctx.db, id);
     if (!row) continue;
     const user = await sessionUserOf(ctx.db, row);
     const review = await buildWeeklyReview(ctx, user, {

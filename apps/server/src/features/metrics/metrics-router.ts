@@ -6,6 +6,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { forbidden, unauthenticated } from '../../lib/app-error.ts';
 import { registry } from '../../lib/metrics.ts';
 import type { Authenticate } from '../../lib/route-table.ts';
+import { queueAndOutboxCounts } from './metrics-repository.ts';
 
 const LOOPBACK = /^(127\.\d+\.\d+\.\d+|::1|::ffff:127\.\d+\.\d+\.\d+)$/;
 
@@ -33,8 +34,6 @@ function poolCounts(pool: unknown): { open: number; idle: number; limit: number 
     limit: c.config?.connectionLimit ?? 0,
   };
 }
-
-type Rows<T> = [T[], unknown];
 
 /** Reads the figures that belong to the database, into a registry made for this scrape. */
 async function databaseMetrics(ctx: AppContext): Promise<Registry> {
@@ -80,30 +79,7 @@ async function databaseMetrics(ctx: AppContext): Promise<Registry> {
     }
   }
   try {
-    // Each count uses an index prefix (jobs: state, run_after; outbox: sent_at), and `done`
-    // jobs and sent mail, which grow for ever, are not counted here.
-    const [jobRows] = (await ctx.dbHandle.pool.query(
-      `SELECT
-         SUM(state = 'queued' AND run_after <= NOW(3)) AS due,
-         SUM(state = 'queued' AND run_after > NOW(3)) AS waiting,
-         SUM(state = 'running') AS running,
-         SUM(state = 'failed') AS failed,
-         TIMESTAMPDIFF(MICROSECOND,
-           MIN(CASE WHEN state = 'queued' AND run_after <= NOW(3) THEN run_after END),
-           NOW(3)) / 1e6 AS oldest_due_s
-       FROM jobs WHERE state IN ('queued', 'running', 'failed')`,
-    )) as Rows<Record<string, string | number | null>>;
-    const [mailRows] = (await ctx.dbHandle.pool.query(
-      `SELECT
-         SUM(outcome IS NULL) AS pending,
-         SUM(outcome = 'failed') AS failed,
-         SUM(outcome = 'uncertain') AS uncertain,
-         TIMESTAMPDIFF(MICROSECOND, MIN(CASE WHEN outcome IS NULL THEN created_at END), NOW(3))
-           / 1e6 AS oldest_pending_s
-       FROM outbox WHERE sent_at IS NULL`,
-    )) as Rows<Record<string, string | number | null>>;
-    const j = jobRows[0] ?? {};
-    const m = mailRows[0] ?? {};
+    const { jobs: j, mail: m } = await queueAndOutboxCounts(ctx.dbHandle.pool);
     const num = (v: string | number | null | undefined) => Number(v ?? 0);
     const jobsGauge = new Gauge({
       name: 'turnstone_queue_jobs',
