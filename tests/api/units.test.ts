@@ -5,6 +5,8 @@
  * agreement), so an imperial value is the metric one ÷ 25.4.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { strFromU8, unzipSync } from 'fflate';
+import Papa from 'papaparse';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { captureVelocities, gatewayKey } from '../support/alert-captures.ts';
 
@@ -111,13 +113,18 @@ describe('unit system preference', () => {
       body: { unitSystem: 'imperial' },
     });
     const week = new Date().toISOString().slice(0, 10);
-    const csv = await (
-      await srv.call('GET', `/api/v1/review.csv?weekEnding=${week}`, { cookie: planner })
-    ).text();
-    const alertLine = csv.split('\r\n').find((l) => l.includes(TAG) && l.includes('in/s'));
-    expect(alertLine).toBeDefined();
-    expect(csv).not.toContain('mm/s');
-    // The open-alerts row: limit 2.8 mm/s → 0.110236… in/s (÷ 25.4 by hand, six digits kept).
-    expect(csv).toContain('0.110236');
+    const res = await srv.call('GET', `/api/v1/review.zip?weekEnding=${week}`, { cookie: planner });
+    expect(res.status).toBe(200);
+    const files = unzipSync(new Uint8Array(await res.arrayBuffer()));
+    const alerts = Papa.parse<Record<string, string>>(
+      strFromU8(files['open-alerts.csv']!).replace(/^\uFEFF/, ''),
+      { header: true, skipEmptyLines: true },
+    );
+    const row = alerts.data.find((r) => r.point === TAG && r.band?.startsWith('Overall velocity'));
+    expect(row).toBeDefined();
+    expect(row!.unit).toBe('in/s');
+    // The limit 2.8 mm/s ÷ 25.4 = 0.1102362… in/s (by hand).
+    expect(Number(row!.limit)).toBeCloseTo(2.8 / 25.4, 5);
+    for (const name of Object.keys(files)) expect(strFromU8(files[name]!)).not.toContain('mm/s');
   });
 });
