@@ -34,6 +34,7 @@ import { accountRoutes } from './features/account/account-router.ts';
 import { mailboxRoutes } from './features/mailbox/mailbox-router.ts';
 import { apiTokenRoutes } from './features/api-tokens/api-tokens-router.ts';
 import { idempotentHandler, isCreating } from './features/idempotency/idempotent-route.ts';
+import { webhookRoutes } from './features/webhooks/webhooks-router.ts';
 import { apiDocsRoutes } from './features/api-docs/api-docs-router.ts';
 
 /** The feature routes below /api/v1, by feature (auth mounts its own, behind its rate limiters). */
@@ -67,6 +68,11 @@ function featureRouteGroups(ctx: AppContext): RouteGroup[] {
       tag: 'api-tokens',
       description: 'API tokens of service accounts (Authorization: Bearer).',
       routes: apiTokenRoutes(ctx),
+    },
+    {
+      tag: 'webhooks',
+      description: 'Outgoing webhooks: alert and finding events posted to a receiver, signed.',
+      routes: webhookRoutes(ctx),
     },
     {
       tag: 'account',

@@ -125,6 +125,7 @@ export async function auditRows(db: Db, user: SessionUser, q: AuditQuery) {
         : eq(auditLog.action, q.action),
     );
   if (q.from) where.push(gte(auditLog.at, new Date(q.from)));
+  if (q.since) where.push(gte(auditLog.at, new Date(q.since)));
   if (q.to) where.push(lte(auditLog.at, new Date(q.to)));
   if (q.cursor) where.push(lt(auditLog.id, Number(q.cursor)));
   const rows = await db
