@@ -29,6 +29,7 @@ import { auditRoutes } from './features/audit/audit-router.ts';
 import { pointRoutes } from './features/points/points-router.ts';
 import { reviewRoutes } from './features/review/review-router.ts';
 import { findingRoutes } from './features/findings/findings-router.ts';
+import { qualityRoutes } from './features/quality/quality-router.ts';
 import { userLinkRoutes, userRoutes } from './features/users/users-router.ts';
 import { accountRoutes } from './features/account/account-router.ts';
 import { mailboxRoutes } from './features/mailbox/mailbox-router.ts';
@@ -59,6 +60,11 @@ function featureRouteGroups(ctx: AppContext): RouteGroup[] {
     { tag: 'audit', description: 'The audit log.', routes: auditRoutes(ctx) },
     { tag: 'review', description: 'The weekly review.', routes: reviewRoutes(ctx) },
     { tag: 'findings', description: 'Follow-ups and work orders.', routes: findingRoutes(ctx) },
+    {
+      tag: 'quality',
+      description: 'Data-quality notices and their review.',
+      routes: qualityRoutes(ctx),
+    },
     {
       tag: 'users',
       description: 'Accounts and their site links.',
