@@ -35,6 +35,12 @@ export const auditEntrySchema = z.object({
   action: z.string(),
   entity: z.string(),
   entityId: z.string(),
+  /** What people call the entity ("MFP-P101-MDE-H · Intake pump P-101"); null once deleted. */
+  entityLabel: z.string().nullable(),
+  /** The change in plain lines: field, old → new (limit sets compared band by band). */
+  changes: z.array(
+    z.object({ field: z.string(), before: z.string().nullable(), after: z.string().nullable() }),
+  ),
   before: z.unknown(),
   after: z.unknown(),
   reason: z.string().nullable(),
