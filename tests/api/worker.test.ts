@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { claimJobs, failJob } from '../../apps/server/src/features/worker/queue-repository.ts';
+import { claimJobs, failJob } from '../../apps/server/src/features/queue/queue-repository.ts';
 import {
   prepareAnalyses,
   runAnalysisJob,

@@ -1,7 +1,7 @@
 import type { Tx } from '@turnstone/db/client';
 import { abortsTransaction } from '@turnstone/db/errors';
 import type { AppContext } from '../../lib/context.ts';
-import { queueAlertChangeMail } from '../mail/alert-mail.ts';
+import { queueAlertChangeMail } from './alert-mail.ts';
 
 /**
  * Where an alert state change becomes e-mail: outbox rows written in the same
