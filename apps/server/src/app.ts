@@ -29,11 +29,13 @@ import { auditRoutes } from './features/audit/audit-router.ts';
 import { pointRoutes } from './features/points/points-router.ts';
 import { reviewRoutes } from './features/review/review-router.ts';
 import { findingRoutes } from './features/findings/findings-router.ts';
+import { qualityRoutes } from './features/quality/quality-router.ts';
 import { userLinkRoutes, userRoutes } from './features/users/users-router.ts';
 import { accountRoutes } from './features/account/account-router.ts';
 import { mailboxRoutes } from './features/mailbox/mailbox-router.ts';
 import { apiTokenRoutes } from './features/api-tokens/api-tokens-router.ts';
 import { idempotentHandler, isCreating } from './features/idempotency/idempotent-route.ts';
+import { webhookRoutes } from './features/webhooks/webhooks-router.ts';
 import { apiDocsRoutes } from './features/api-docs/api-docs-router.ts';
 
 /** The feature routes below /api/v1, by feature (auth mounts its own, behind its rate limiters). */
@@ -59,6 +61,11 @@ function featureRouteGroups(ctx: AppContext): RouteGroup[] {
     { tag: 'review', description: 'The weekly review.', routes: reviewRoutes(ctx) },
     { tag: 'findings', description: 'Follow-ups and work orders.', routes: findingRoutes(ctx) },
     {
+      tag: 'quality',
+      description: 'Data-quality notices and their review.',
+      routes: qualityRoutes(ctx),
+    },
+    {
       tag: 'users',
       description: 'Accounts and their site links.',
       routes: [...userRoutes(ctx), ...userLinkRoutes(ctx)],
@@ -67,6 +74,11 @@ function featureRouteGroups(ctx: AppContext): RouteGroup[] {
       tag: 'api-tokens',
       description: 'API tokens of service accounts (Authorization: Bearer).',
       routes: apiTokenRoutes(ctx),
+    },
+    {
+      tag: 'webhooks',
+      description: 'Outgoing webhooks: alert and finding events posted to a receiver, signed.',
+      routes: webhookRoutes(ctx),
     },
     {
       tag: 'account',

@@ -52,6 +52,8 @@ export const alertSchema = z.object({
   acknowledgedBy: z.string().nullable(),
   acknowledgedAt: z.string().nullable(),
   acknowledgeNote: z.string().nullable(),
+  /** Last change of any kind (a new value, escalation, acknowledgement, clearing). */
+  updatedAt: z.string(),
 });
 export type Alert = z.infer<typeof alertSchema>;
 

@@ -70,6 +70,7 @@ const columns = {
   acknowledgedBy: ackUser.name,
   acknowledgedAt: alerts.acknowledgedAt,
   acknowledgeNote: alerts.acknowledgeNote,
+  updatedAt: alerts.updatedAt,
 };
 
 export type AlertRow = Awaited<ReturnType<typeof listAlerts>>[number];

@@ -33,11 +33,12 @@ import { loadLimitSet } from '../limits/limit-set-repository.ts';
 import { bandStatesOf } from '../points/points-repository.ts';
 import * as repo from './alerts-repository.ts';
 import { isAlertLinkSignature } from './alert-mail-link.ts';
+import { queueAlertWebhook } from '../webhooks/webhooks-service.ts';
 import { decodeCursor, pageOf } from '../../lib/cursor.ts';
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
 
-function toAlert(r: repo.AlertRow): Alert {
+export function toAlert(r: repo.AlertRow): Alert {
   return {
     ...r,
     suspect: Boolean(r.suspect),
@@ -47,6 +48,7 @@ function toAlert(r: repo.AlertRow): Alert {
     acknowledgedAt: iso(r.acknowledgedAt),
     acknowledgedBy: r.acknowledgedBy ?? null,
     acknowledgeNote: r.acknowledgeNote ?? null,
+    updatedAt: r.updatedAt.toISOString(),
   };
 }
 
@@ -216,6 +218,7 @@ export async function acknowledge(
           at: now,
         },
       );
+      await queueAlertWebhook(tx, a.id, 'acknowledged');
       await writeAudit(tx, {
         actorUserId: user.id,
         action: 'alert.acknowledge',

@@ -21,7 +21,7 @@ import { diagnosisOf } from './diagnosis-step.ts';
 import { machineComponentsOf } from '../points/machine-components.ts';
 import { combineBandValues, toDspBands } from './band-mapping.ts';
 import { startConditionBatch } from '../condition/condition-step.ts';
-import { queueAlertMail } from '../mail/alert-mail-hook.ts';
+import { queueAlertMail } from '../notify/alert-change-hook.ts';
 import { templateBandsFor } from '../limits/limits-service.ts';
 import { storedSampleBytes } from '../ingest/sample-storage.ts';
 

@@ -184,7 +184,7 @@ const DESCRIPTION = [
   '',
   "**Writes** (POST, PUT, PATCH, DELETE) must come from this server's own origin: a request whose `Origin` header names another host than `Host` (or `X-Forwarded-Host` behind a trusted proxy) gets 403 `cross_origin`. A client that sends no `Origin` (not a browser) is not affected.",
   '',
-  '**Paging**: the alerts and findings lists answer a page with `nextCursor` (null on the last page); pass it back as `cursor`, with the same filters, for the next page. Cursors are opaque (at most 64 characters) and position by (time, id), newest first, so rows arriving meanwhile are neither repeated nor skipped within a walk; `since` keeps rows at or after an instant (alerts: last activity; findings: last change, `updatedAt`). The audit log pages the same way by its own `nextCursor` and filters by `from`/`to`. A cursor the server did not issue is a 400.',
+  '**Paging**: the alerts and findings lists answer a page with `nextCursor` (null on the last page); pass it back as `cursor`, with the same filters, for the next page. Cursors are opaque (at most 64 characters) and position by (time, id), newest first, so rows arriving meanwhile are neither repeated nor skipped within a walk; `since` keeps rows at or after an instant (alerts: last activity; findings: last change, `updatedAt`). The audit log pages the same way by its own `nextCursor` (newest first) and takes `since` (written at or after) as well as `from`/`to`. A cursor the server did not issue is a 400.',
   '',
   '**Retries**: creating POSTs take an `Idempotency-Key` header (see each operation): send the same key again when an answer was lost, and the first answer comes back instead of a second creation.',
   '',

@@ -13,6 +13,7 @@ import { accessiblePoint } from '../places/point-access.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import * as repo from './findings-repository.ts';
+import { queueWebhookEvent } from '../webhooks/webhooks-service.ts';
 import { decodeCursor, pageOf } from '../../lib/cursor.ts';
 import { isoWeekDays } from '@turnstone/contracts/dates';
 
@@ -149,6 +150,7 @@ export async function createFinding(
       before: null,
       after: auditView(row!),
     });
+    await queueWebhookEvent(tx, 'finding.created', await loadOne(ctx, user, newId, tx));
     return newId;
   });
   return loadOne(ctx, user, id);
@@ -194,6 +196,7 @@ export async function updateFinding(
       before: auditView(before),
       after: auditView(after),
     });
+    await queueWebhookEvent(tx, 'finding.updated', await loadOne(ctx, user, id, tx));
   });
   return loadOne(ctx, user, id);
 }

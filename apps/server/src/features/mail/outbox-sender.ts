@@ -26,6 +26,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { isDbUnavailable } from '@turnstone/db/errors';
 import * as repo from './outbox-repository.ts';
 import { renderHourlySummary } from './alert-mail.ts';
+import { outboxRetryDelayS } from '../../lib/retry-delay.ts';
 
 export interface OutboxSenderOptions {
   smtpUrl: string;
@@ -76,8 +77,7 @@ export function messageOf(
   };
 }
 
-export const outboxRetryDelayS = (attempts: number) =>
-  Math.min(3600, 30 * 2 ** Math.max(0, attempts - 1));
+export { outboxRetryDelayS };
 
 // Errors where nodemailer never got as far as handing over the message.
 const NOT_SENT_CODES = new Set(['ECONNECTION', 'EDNS', 'EAUTH', 'EENVELOPE', 'EMESSAGE', 'ETLS']);
