@@ -8,6 +8,7 @@
  * Mail clients that block SVG show the image's alt text, which names the values.
  */
 import * as echarts from 'echarts';
+import { formatNumber } from '@turnstone/contracts/number-format';
 
 export interface BandPictureInput {
   bandName: string;
@@ -27,7 +28,7 @@ const LINE = '#1d5c63';
 const ALERT = '#a35c00';
 const DANGER = '#b3261e';
 
-const fmt = (v: number) => String(Number(v.toPrecision(3)));
+const fmt = (v: number) => formatNumber(v);
 const day = (d: Date) => d.toISOString().slice(5, 10);
 
 /** A level as a dashed line with its name and value. */

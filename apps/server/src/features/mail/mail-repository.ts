@@ -63,7 +63,8 @@ export async function analysisAtOrBefore(
 export function subscribersOf(tx: Tx, siteId: number, machineId: number, level: string) {
   return rows(
     tx,
-    sql`SELECT u.id, u.email, sub.cadence FROM subscriptions sub JOIN users u ON u.id = sub.user_id
+    sql`SELECT u.id, u.email, u.unit_system, sub.cadence FROM subscriptions sub
+          JOIN users u ON u.id = sub.user_id
          WHERE u.disabled_at IS NULL AND u.password_hash IS NOT NULL
            AND (sub.site_id = ${siteId} OR sub.machine_id = ${machineId})
            AND (sub.min_level = 'alert' OR ${level} = 'danger')

@@ -2,6 +2,7 @@ import { reviewQuerySchema, reviewSchema } from '@turnstone/contracts/review';
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import { reviewZip } from './review-csv.ts';
+import { reviewInUnits } from './review-units.ts';
 import { buildWeeklyReview } from './review-service.ts';
 import { parseQuery } from '../../lib/query.ts';
 
@@ -39,7 +40,7 @@ export function reviewRoutes(ctx: AppContext): RouteSpec[] {
           'Content-Disposition',
           `attachment; filename="turnstone-review${sites}-${review.period.weekEnding}.zip"`,
         );
-        res.send(Buffer.from(reviewZip(review)));
+        res.send(Buffer.from(reviewZip(reviewInUnits(review, requireUser(req).unitSystem))));
       },
     },
   ];

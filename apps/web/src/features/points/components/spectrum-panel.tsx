@@ -4,6 +4,7 @@ import type {
   DiagnosisHintItem,
   FaultFrequencyItem,
 } from '@turnstone/contracts/points';
+import { useUnits } from '../../account/api/use-units.ts';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
 import {
   SpectrumChart,
@@ -46,9 +47,13 @@ function useTrace(
   role: SpectrumTrace['role'],
 ) {
   const q = useSpectrum(analysisId, kindFor(measure, axis));
+  const units = useUnits();
   const trace = useMemo((): (SpectrumTrace & { shaftHz: number | null }) | null => {
     const s = q.data;
     if (!s) return null;
+    // Lines in the user's unit system (velocity in in/s for imperial; g stays g).
+    const k = units.value(1, s.unit);
+    const values = k === 1 ? s.decoded : s.decoded.map((v) => v * k);
     const shaftHz = s.speed.hz;
     let step = s.axis === 'order' ? s.dOrder! : s.dfHz!;
     // Velocity and envelope in orders: the Hz axis divided by the running speed.
@@ -56,8 +61,8 @@ function useTrace(
       if (!shaftHz) return null;
       step = step / shaftHz;
     }
-    return { label: formatDateTime(s.takenAt), values: s.decoded, step, role, shaftHz };
-  }, [q.data, axis, role]);
+    return { label: formatDateTime(s.takenAt), values, step, role, shaftHz };
+  }, [q.data, axis, role, units]);
   return { query: q, trace };
 }
 
@@ -139,7 +144,8 @@ export function SpectrumPanel({
   );
 
   const axisName = axis === 'hz' ? 'Hz' : 'order';
-  const unit = s ? s.unit : '';
+  const units = useUnits();
+  const unit = s ? units.unit(s.unit) : '';
   const yName = s ? `${unit} ${s.scale === 'rms' ? 'RMS' : 'peak'}` : '';
 
   return (
@@ -293,7 +299,16 @@ export function SpectrumPanel({
                   </button>
                 </p>
               )}
-              {s && <PeakTable peaks={s.peaks} unit={unit} axis={axis} />}
+              {s && (
+                <PeakTable
+                  peaks={s.peaks.map((p) => ({
+                    ...p,
+                    amplitude: units.value(p.amplitude, s.unit),
+                  }))}
+                  unit={unit}
+                  axis={axis}
+                />
+              )}
             </>
           )}
         </div>
