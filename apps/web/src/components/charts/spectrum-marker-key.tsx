@@ -75,7 +75,7 @@ export function MarkerKey({
               <button
                 type="button"
                 onClick={() => onOnly(f.name)}
-                aria-label={`Show ${f.name} alone`}
+                aria-label={`Show only ${f.name}`}
                 className="rounded-r border border-l-0 border-line px-1.5 py-0.5 text-ink-muted hover:text-ink"
               >
                 only
