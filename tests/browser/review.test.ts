@@ -6,6 +6,7 @@
  * level on MFP-P101-MDE-H, ingested through the gateway API and analysed by the real worker.
  */
 import { readFileSync } from 'node:fs';
+import { strFromU8, unzipSync } from 'fflate';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
@@ -128,19 +129,20 @@ describe('weekly review in a real browser', () => {
 
     const [download] = await Promise.all([
       page.waitForEvent('download'),
-      page.getByRole('link', { name: 'Export CSV' }).click(),
+      page.getByRole('link', { name: 'Export CSV files (ZIP)' }).click(),
     ]);
-    expect(download.suggestedFilename()).toBe('turnstone-review-2026-11-15.csv');
-    const csv = readFileSync((await download.path())!, 'utf8');
-    expect(csv).toContain('\r\nmovers\r\n');
-    expect(csv).toContain(RISING);
-    expect(csv).toContain('WO-2026-1187');
+    expect(download.suggestedFilename()).toBe('turnstone-review-2026-11-15.zip');
+    const files = unzipSync(readFileSync((await download.path())!));
+    expect(strFromU8(files['rising-bands.csv']!)).toContain(RISING);
+    expect(strFromU8(files['findings-due.csv']!)).toContain('WO-2026-1187');
 
     // Paper: A4 portrait content width (190 mm ≈ 718 CSS px at 96 px/in).
     await page.setViewportSize({ width: 718, height: 1015 });
     await page.emulateMedia({ media: 'print' });
     expect(await page.getByRole('navigation').first().isVisible()).toBe(false);
-    expect(await page.getByRole('link', { name: 'Export CSV' }).isVisible()).toBe(false);
+    expect(await page.getByRole('link', { name: 'Export CSV files (ZIP)' }).isVisible()).toBe(
+      false,
+    );
     await page.getByText('Turnstone · weekly review').waitFor();
     expect(
       await forecasts

@@ -12,6 +12,7 @@ import { mountRoutes, type RouteGroup, type RouteSpec } from './lib/route-table.
 import { webDist } from './lib/web-build.ts';
 import { trackRequest } from './lib/request-log.ts';
 import { hostCheck } from './lib/allowed-hosts.ts';
+import { readRouting } from './lib/read-routing.ts';
 import { authRouter, authRoutes, createAuthenticate } from './features/auth/auth-router.ts';
 import { fleetRoutes } from './features/fleet/fleet-router.ts';
 import { healthRouter } from './features/health/health-router.ts';
@@ -28,9 +29,13 @@ import { auditRoutes } from './features/audit/audit-router.ts';
 import { pointRoutes } from './features/points/points-router.ts';
 import { reviewRoutes } from './features/review/review-router.ts';
 import { findingRoutes } from './features/findings/findings-router.ts';
+import { qualityRoutes } from './features/quality/quality-router.ts';
 import { userLinkRoutes, userRoutes } from './features/users/users-router.ts';
 import { accountRoutes } from './features/account/account-router.ts';
 import { mailboxRoutes } from './features/mailbox/mailbox-router.ts';
+import { apiTokenRoutes } from './features/api-tokens/api-tokens-router.ts';
+import { idempotentHandler, isCreating } from './features/idempotency/idempotent-route.ts';
+import { webhookRoutes } from './features/webhooks/webhooks-router.ts';
 import { apiDocsRoutes } from './features/api-docs/api-docs-router.ts';
 
 /** The feature routes below /api/v1, by feature (auth mounts its own, behind its rate limiters). */
@@ -56,9 +61,24 @@ function featureRouteGroups(ctx: AppContext): RouteGroup[] {
     { tag: 'review', description: 'The weekly review.', routes: reviewRoutes(ctx) },
     { tag: 'findings', description: 'Follow-ups and work orders.', routes: findingRoutes(ctx) },
     {
+      tag: 'quality',
+      description: 'Data-quality notices and their review.',
+      routes: qualityRoutes(ctx),
+    },
+    {
       tag: 'users',
       description: 'Accounts and their site links.',
       routes: [...userRoutes(ctx), ...userLinkRoutes(ctx)],
+    },
+    {
+      tag: 'api-tokens',
+      description: 'API tokens of service accounts (Authorization: Bearer).',
+      routes: apiTokenRoutes(ctx),
+    },
+    {
+      tag: 'webhooks',
+      description: 'Outgoing webhooks: alert and finding events posted to a receiver, signed.',
+      routes: webhookRoutes(ctx),
     },
     {
       tag: 'account',
@@ -157,10 +177,15 @@ export function createApp(ctx: AppContext) {
   api.use(express.json({ limit: '1mb' }));
   api.use(cookieParser());
   api.use(sameOriginWrites);
+  if (ctx.config.DATABASE_REPLICA_URLS.length > 0) api.use(readRouting(ctx.config));
   api.use(authRouter(ctx, authenticate));
   mountRoutes(
     api,
-    featureRouteGroups(ctx).flatMap((g) => g.routes),
+    featureRouteGroups(ctx)
+      .flatMap((g) => g.routes)
+      .map((spec) =>
+        isCreating(spec) ? { ...spec, handler: idempotentHandler(ctx, spec) } : spec,
+      ),
     authenticate,
   );
   app.use('/api', healthRouter(ctx));

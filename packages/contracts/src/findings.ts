@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { freeText, oneLine } from './text.ts';
 import { pageCursorSchema, sinceSchema } from './paging.ts';
+import { isoWeekDays } from './dates.ts';
 
 /**
  * Findings: the planner's follow-ups on a point (from a trend, a forecast, an alert or a
@@ -13,6 +14,14 @@ export const findingStateLabels: Record<FindingState, string> = {
   open: 'Open',
   planned: 'Planned',
   done: 'Done',
+};
+
+export const findingPrioritySchema = z.enum(['high', 'medium', 'low']);
+export type FindingPriority = z.infer<typeof findingPrioritySchema>;
+export const findingPriorityLabels: Record<FindingPriority, string> = {
+  high: 'High',
+  medium: 'Medium',
+  low: 'Low',
 };
 
 /** A calendar date, `YYYY-MM-DD`. */
@@ -36,6 +45,19 @@ const titleSchema = oneLine(
   z.string().trim().min(1, 'Give the finding a title').max(200, 'At most 200 characters'),
 );
 const noteSchema = freeText(z.string().trim().max(2000, 'At most 2000 characters'));
+/** Who carries the work out: a person or a crew as the plant names them. */
+const ownerSchema = oneLine(z.string().trim().max(100, 'At most 100 characters'));
+/** Machine downtime the work needs, hours (0 to a year). */
+const downtimeSchema = z
+  .number({ error: 'Give the downtime in hours' })
+  .finite()
+  .min(0, 'At least 0 hours')
+  .max(8760, 'At most 8760 hours (a year)');
+
+/** An ISO 8601 week, `2026-W49`. */
+export const isoWeekSchema = z
+  .string()
+  .refine((w) => isoWeekDays(w) !== null, { message: 'Use a week like 2026-W49' });
 
 /** `POST /api/v1/findings` */
 export const createFindingSchema = z.object({
@@ -46,6 +68,9 @@ export const createFindingSchema = z.object({
   workOrderRef: blankable(workOrderRefSchema),
   dueDate: blankable(isoDateSchema),
   note: blankable(noteSchema),
+  priority: findingPrioritySchema.optional(),
+  owner: blankable(ownerSchema),
+  plannedDowntimeHours: z.union([z.null(), downtimeSchema]).optional(),
 });
 export type CreateFindingInput = z.input<typeof createFindingSchema>;
 
@@ -55,13 +80,18 @@ export const findingFormSchema = createFindingSchema.pick({
   workOrderRef: true,
   dueDate: true,
   note: true,
+  priority: true,
+  owner: true,
 });
 export type FindingFormInput = z.input<typeof findingFormSchema>;
 export type FindingFormOutput = z.output<typeof findingFormSchema>;
 
 /**
- * `PATCH /api/v1/findings/:id`. Moving to `planned` needs a work-order reference (given here
- * or already on the finding); the server answers 400 otherwise.
+ * `PATCH /api/v1/findings/:id`. The state flow is open → planned → done (and back to open to
+ * reopen). Moving to `planned` needs a work-order reference (given here or already on the
+ * finding; 400 otherwise), and giving an open finding a work-order reference moves it to
+ * `planned` unless the same request names another state. A planned finding keeps its
+ * reference: clearing it answers 400. A done finding goes back to open, not to planned.
  */
 export const updateFindingSchema = z
   .object({
@@ -70,6 +100,9 @@ export const updateFindingSchema = z
     workOrderRef: blankable(workOrderRefSchema),
     dueDate: blankable(isoDateSchema),
     note: blankable(noteSchema),
+    priority: findingPrioritySchema.optional(),
+    owner: blankable(ownerSchema),
+    plannedDowntimeHours: z.union([z.null(), downtimeSchema]).optional(),
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), {
     message: 'Nothing to change',
@@ -78,12 +111,14 @@ export const updateFindingSchema = z
 export type UpdateFindingInput = z.input<typeof updateFindingSchema>;
 
 /**
- * `GET /api/v1/findings?state=&pointId=&siteId=&since=&cursor=&limit=`, last changed first:
+ * `GET /api/v1/findings?state=&dueWeek=&pointId=&siteId=&since=&cursor=&limit=`, last changed first:
  * ordered by (updatedAt, id) descending. `since` keeps findings changed (or created) at or
  * after it, so a pull with the previous pull's time gets every new and changed finding.
  */
 export const findingListQuerySchema = z.object({
   state: findingStateSchema.optional(),
+  /** Due in this ISO week (Monday to Sunday, `2026-W49`). */
+  dueWeek: isoWeekSchema.optional(),
   pointId: z.coerce.number().int().positive().optional(),
   siteId: z.coerce.number().int().positive().optional(),
   since: sinceSchema.optional(),
@@ -105,6 +140,9 @@ export const findingSchema = z.object({
   workOrderRef: z.string().nullable(),
   dueDate: z.string().nullable(),
   state: findingStateSchema,
+  priority: findingPrioritySchema,
+  owner: z.string().nullable(),
+  plannedDowntimeHours: z.number().nullable(),
   note: z.string().nullable(),
   createdBy: z.object({ id: z.number().int(), name: z.string() }),
   createdAt: z.string(),

@@ -359,6 +359,8 @@ export const waterfallSchema = z.object({
   kind: spectrumKindSchema,
   unit: z.string(),
   axis: z.enum(['hz', 'order']),
+  /** How the amplitudes are stated (RMS or peak), as the spectrum endpoint says it. */
+  scale: z.enum(['rms', 'peak']),
   /** Newest first. Each spectrum carries its own line spacing (settings may change). */
   items: z.array(
     z.object({
@@ -366,6 +368,8 @@ export const waterfallSchema = z.object({
       takenAt: z.string(),
       step: z.number(),
       values: z.string(),
+      /** Running speed of the capture (1× in Hz), to read orders; null when not known. */
+      shaftHz: z.number().nullable(),
     }),
   ),
 });

@@ -38,6 +38,11 @@ export interface LocalMariadbOptions {
   log?: (message: string) => void;
   /** Start `mariadbd` again when it dies on its own. @default true */
   supervise?: boolean;
+  /**
+   * More `mariadbd` options, after the product's own (a later option wins), e.g. a binary
+   * log and server id for replication: `['--log-bin=binlog', '--server-id=1']`.
+   */
+  serverArgs?: string[];
 }
 
 /** First wait before restarting a server that died; doubles per failed restart. */
@@ -214,10 +219,12 @@ export async function startLocalMariadb(options: LocalMariadbOptions): Promise<L
     '--collation-server=utf8mb4_unicode_ci',
     // Durable commits: an acknowledged snapshot survives a crash (README, operations).
     '--innodb-flush-log-at-trx-commit=1',
-    '--skip-log-bin',
+    // No binary log unless asked for (replication): it would only grow.
+    ...(options.serverArgs?.some((a) => a.startsWith('--log-bin')) ? [] : ['--skip-log-bin']),
     '--max-connections=400',
     '--max-allowed-packet=64M',
     '--innodb-buffer-pool-size=256M',
+    ...(options.serverArgs ?? []),
   ];
   const exitedChildren = new WeakSet<ChildProcess>();
   let child!: ChildProcess;

@@ -193,6 +193,16 @@ export const users = mysqlTable(
     passwordHash: varchar('password_hash', { length: 100 }),
     /** Bumped on sign-out, password change and disabling: every older JWT stops working. */
     tokenVersion: int('token_version').notNull().default(0),
+    /**
+     * `service`: the account of an integration, which signs in with an API token only (no
+     * password, no mail); listed on the API tokens screen, not among the people.
+     */
+    kind: mysqlEnum('kind', ['person', 'service']).notNull().default('person'),
+    /**
+     * How the user reads velocity and displacement (screens, CSV exports, their e-mails):
+     * `metric` mm/s and µm, `imperial` in/s and mil. Values stay stored in metric.
+     */
+    unitSystem: mysqlEnum('unit_system', ['metric', 'imperial']).notNull().default('metric'),
     disabledAt: at('disabled_at'),
     lastSignInAt: at('last_sign_in_at'),
     createdAt: createdAt(),
@@ -228,6 +238,57 @@ export const userTokens = mysqlTable(
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex('user_tokens_hash_uq').on(t.tokenHash)],
+);
+
+/**
+ * API tokens of service accounts (one each): only the SHA-256 of the token is kept, with its
+ * first characters to tell tokens apart on screen. Revoking sets `revoked_at`; a person
+ * signing out ends nothing here.
+ */
+export const apiTokens = mysqlTable(
+  'api_tokens',
+  {
+    id: id(),
+    userId: ref('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    tokenPrefix: varchar('token_prefix', { length: 16 }).notNull(),
+    tokenHash: varchar('token_hash', { length: 64 }).notNull(),
+    createdBy: ref('created_by').references(() => users.id, { onDelete: 'set null' }),
+    lastUsedAt: at('last_used_at'),
+    revokedAt: at('revoked_at'),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex('api_tokens_hash_uq').on(t.tokenHash),
+    uniqueIndex('api_tokens_user_uq').on(t.userId),
+  ],
+);
+
+/**
+ * Answers to creating POSTs sent with an `Idempotency-Key`, per caller and key, until
+ * `expires_at`: the same key with the same request gets the stored answer again. A row
+ * without `status` is a request still running.
+ */
+export const idempotencyKeys = mysqlTable(
+  'idempotency_keys',
+  {
+    id: bigId(),
+    userId: ref('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    idemKey: varchar('idem_key', { length: 255 }).notNull(),
+    /** SHA-256 of method, path and JSON body: what "the same request" means. */
+    requestHash: varchar('request_hash', { length: 64 }).notNull(),
+    status: smallint('status'),
+    responseBody: text('response_body'),
+    expiresAt: at('expires_at').notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex('idempotency_keys_user_key_uq').on(t.userId, t.idemKey),
+    index('idempotency_keys_expires_idx').on(t.expiresAt),
+  ],
 );
 
 export const subscriptions = mysqlTable(
@@ -539,9 +600,14 @@ export const alerts = mysqlTable(
     acknowledgeNote: text('acknowledge_note'),
     clearedAt: at('cleared_at'),
     createdAt: createdAt(),
+    /** Last change (raised, new value, escalated, acknowledged, cleared); rows older than the column: when it came. */
+    updatedAt: at('updated_at')
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [
     index('alerts_state_idx').on(t.state, t.lastAt),
+    index('alerts_updated_idx').on(t.updatedAt, t.id),
     index('alerts_point_idx').on(t.pointId, t.bandKey, t.state),
   ],
 );
@@ -587,6 +653,21 @@ export const qualityNotices = mysqlTable(
   ],
 );
 
+/**
+ * Captures a person pinned: kept whole (spectra and raw waveform) whatever their age, like
+ * the captures around alert events (apps/server/src/features/worker/retention.ts).
+ */
+export const capturePins = mysqlTable('capture_pins', {
+  analysisId: bigRef('analysis_id')
+    .primaryKey()
+    .references(() => analyses.id, { onDelete: 'cascade' }),
+  pinnedBy: ref('pinned_by')
+    .notNull()
+    .references(() => users.id),
+  pinnedAt: at('pinned_at').notNull(),
+  note: varchar('note', { length: 200 }).notNull().default(''),
+});
+
 /** The planner's follow-ups. */
 export const findings = mysqlTable(
   'findings',
@@ -601,6 +682,11 @@ export const findings = mysqlTable(
     workOrderRef: varchar('work_order_ref', { length: 64 }),
     dueDate: date('due_date', { mode: 'string' }),
     state: mysqlEnum('state', ['open', 'planned', 'done']).notNull().default('open'),
+    priority: mysqlEnum('priority', ['low', 'medium', 'high']).notNull().default('medium'),
+    /** Who carries it out: a person or a crew, as the plant names them. */
+    owner: varchar('owner', { length: 100 }),
+    /** Machine downtime the work needs, hours; null when none is planned or known. */
+    plannedDowntimeHours: double('planned_downtime_hours'),
     note: text('note'),
     createdBy: ref('created_by')
       .notNull()
@@ -678,6 +764,57 @@ export const outbox = mysqlTable(
   (t) => [
     uniqueIndex('outbox_dedupe_uq').on(t.dedupeKey),
     index('outbox_due_idx').on(t.sentAt, t.nextAttemptAt),
+  ],
+);
+
+/** Outgoing webhooks: where alert and finding events are posted, signed with `secret`. */
+export const webhooks = mysqlTable('webhooks', {
+  id: id(),
+  name: varchar('name', { length: 200 }).notNull(),
+  url: varchar('url', { length: 2000 }).notNull(),
+  /** The HMAC-SHA256 key (base64); needed in clear to sign, shown to the admin once. */
+  secret: varchar('secret', { length: 100 }).notNull(),
+  /** Event types it receives (`alert.raised`, `finding.created`…). */
+  events: jsonColumn<string[]>('events').notNull(),
+  enabled: boolean('enabled').notNull().default(true),
+  createdBy: ref('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+  updatedAt: at('updated_at')
+    .notNull()
+    .default(sql`CURRENT_TIMESTAMP(3)`),
+});
+
+/**
+ * One event for one webhook: an outbox row (written in the transaction of the change, sent
+ * under a lease, with the mail outbox's rule that nothing is delivered twice).
+ */
+export const webhookDeliveries = mysqlTable(
+  'webhook_deliveries',
+  {
+    id: bigId(),
+    webhookId: ref('webhook_id')
+      .notNull()
+      .references(() => webhooks.id, { onDelete: 'cascade' }),
+    /** The event's id, the same in every delivery attempt (`webhook-id` header). */
+    eventId: varchar('event_id', { length: 64 }).notNull(),
+    eventType: varchar('event_type', { length: 64 }).notNull(),
+    body: text('body').notNull(),
+    attempts: int('attempts').notNull().default(0),
+    nextAttemptAt: at('next_attempt_at')
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+    leaseOwner: varchar('lease_owner', { length: 64 }),
+    leaseExpiresAt: at('lease_expires_at'),
+    sendingStartedAt: at('sending_started_at'),
+    sentAt: at('sent_at'),
+    lastStatus: smallint('last_status'),
+    lastError: text('last_error'),
+    outcome: mysqlEnum('outcome', ['sent', 'failed', 'uncertain']),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex('webhook_deliveries_event_uq').on(t.webhookId, t.eventId),
+    index('webhook_deliveries_due_idx').on(t.sentAt, t.nextAttemptAt),
   ],
 );
 

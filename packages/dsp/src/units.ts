@@ -1,10 +1,10 @@
-/**
- * Standard acceleration of gravity in m/s² (3rd CGPM, 1901), used for g ↔ m/s².
- */
-export const STANDARD_GRAVITY = 9.80665;
+import { MM_PER_INCH, STANDARD_GRAVITY } from '@turnstone/contracts/units';
 
-/** Millimetres per inch, exact by definition (international yard and pound, 1959). */
-export const MM_PER_INCH = 25.4;
+/**
+ * g₀ = 9.80665 m/s² (3rd CGPM, 1901) and 1 in = 25.4 mm (1959 agreement) have one home, the
+ * display units module the server and the web app share.
+ */
+export { MM_PER_INCH, STANDARD_GRAVITY };
 
 /** Acceleration units (vibration amplitude units Turnstone reads and shows follow). */
 export type AccelerationUnit = 'g' | 'm/s2';

@@ -6,9 +6,8 @@
  * whose key gives another fingerprint refuses to start and says why.
  */
 import { createHmac } from 'node:crypto';
-import { eq } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
-import { settings } from '@turnstone/db/schema';
+import { addSettingIfAbsent, putSetting, readSetting } from './settings-repository.ts';
 
 const KEY = 'session.key_fingerprint';
 
@@ -26,22 +25,14 @@ export async function checkSessionKey(
   options: { replace: boolean },
 ): Promise<'recorded' | 'matches' | 'replaced'> {
   const mine = sessionKeyFingerprint(secret);
-  const now = new Date();
   if (options.replace) {
-    await db
-      .insert(settings)
-      .values({ key: KEY, value: { fingerprint: mine }, updatedAt: now })
-      .onDuplicateKeyUpdate({ set: { value: { fingerprint: mine }, updatedAt: now } });
+    await putSetting(db, KEY, { fingerprint: mine });
     return 'replaced';
   }
   // Two processes starting at once: one insert wins, the other reads the winner's.
-  const [res] = await db
-    .insert(settings)
-    .ignore()
-    .values({ key: KEY, value: { fingerprint: mine }, updatedAt: now });
-  if ((res as { affectedRows?: number }).affectedRows === 1) return 'recorded';
-  const [row] = await db.select().from(settings).where(eq(settings.key, KEY)).limit(1);
-  if ((row?.value as { fingerprint?: string } | undefined)?.fingerprint === mine) return 'matches';
+  if (await addSettingIfAbsent(db, KEY, { fingerprint: mine })) return 'recorded';
+  const value = await readSetting(db, KEY);
+  if ((value as { fingerprint?: string } | undefined)?.fingerprint === mine) return 'matches';
   throw new Error(
     'JWT_SECRET: this process signs sessions with another key than the Turnstone processes ' +
       'already using this database, so each would reject the sessions of the others. Set ' +

@@ -37,6 +37,19 @@ export function formatDateTime(iso: string): string {
   return Number.isNaN(then) ? iso : dateTime.format(then);
 }
 
+const shortDateTime = new Intl.DateTimeFormat('en-GB', {
+  day: 'numeric',
+  month: 'short',
+  hour: '2-digit',
+  minute: '2-digit',
+});
+
+/** Day, month and time without the year ("30 Nov, 14:02"), for crowded chart axes. */
+export function formatShortDateTime(iso: string): string {
+  const then = Date.parse(iso);
+  return Number.isNaN(then) ? iso : shortDateTime.format(then);
+}
+
 export function formatInteger(value: number): string {
   return integer.format(value);
 }

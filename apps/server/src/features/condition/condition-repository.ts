@@ -139,7 +139,10 @@ export async function changeAlert(
   set: AlertChange,
   event?: Omit<NewAlertEvent, 'alertId'>,
 ): Promise<void> {
-  await tx.update(alerts).set(set).where(eq(alerts.id, alertId));
+  await tx
+    .update(alerts)
+    .set({ ...set, updatedAt: sql`CURRENT_TIMESTAMP(3)` })
+    .where(eq(alerts.id, alertId));
   if (event) await tx.insert(alertEvents).values({ ...event, alertId });
 }
 

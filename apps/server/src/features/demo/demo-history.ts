@@ -7,8 +7,6 @@
  */
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { and, eq, inArray, sql } from 'drizzle-orm';
-import { alerts, findings, points, sites, userSites, users } from '@turnstone/db/schema';
 import { demoChannels, type SimChannel } from '@turnstone/demo-scenario/plant-channels';
 import { simulateSnapshot } from '@turnstone/demo-scenario/simulated-snapshot';
 import { REALIGNED_AT } from '@turnstone/demo-scenario/story-recipe';
@@ -19,6 +17,18 @@ import { createFinding, updateFinding } from '../findings/findings-service.ts';
 import { createGateway } from '../gateways/gateways-service.ts';
 import { storeSnapshot } from '../ingest/ingest-service.ts';
 import { createWorker, queueDepth } from '../worker/worker.ts';
+import { findUserByEmail } from '../auth/auth-repository.ts';
+import {
+  alertCountsByState,
+  alertOfPointBand,
+  allSites,
+  backdateFinding,
+  ownSiteIds,
+  pointTags,
+  qualityNoticeCount,
+  raisedAlertsAtAlertLevel,
+  setCaptureSetup,
+} from './demo-repository.ts';
 
 const HOUR = 3_600_000;
 const DAY = 24 * HOUR;
@@ -54,18 +64,16 @@ export function demoRoundTimes(endMs: number, weeks: number, schedule = DEMO_SCH
 }
 
 async function sessionUser(ctx: AppContext, email: string): Promise<SessionUser> {
-  const [u] = await ctx.db.select().from(users).where(eq(users.email, email));
+  const u = await findUserByEmail(ctx.db, email);
   if (!u) throw new Error(`demo user ${email} is missing`);
-  const rows = await ctx.db
-    .select({ siteId: userSites.siteId })
-    .from(userSites)
-    .where(eq(userSites.userId, u.id));
+  const siteIds = await ownSiteIds(ctx.db, u.id);
   return {
     id: u.id,
     email: u.email,
     name: u.name,
     role: u.role,
-    siteIds: rows.map((r) => r.siteId),
+    siteIds,
+    unitSystem: u.unitSystem,
   };
 }
 
@@ -87,7 +95,7 @@ const ACK_NOTES: Record<string, string> = {
  */
 export async function commissionDemoGateways(ctx: AppContext): Promise<Map<string, number>> {
   const admin = await sessionUser(ctx, 'admin@turnstone.local');
-  const siteRows = await ctx.db.select().from(sites);
+  const siteRows = await allSites(ctx.db);
   const gatewayOf = new Map<string, number>();
   const keys: string[] = [];
   for (const s of siteRows) {
@@ -102,10 +110,7 @@ export async function commissionDemoGateways(ctx: AppContext): Promise<Map<strin
   }
   const pointId = await demoPointIds(ctx);
   for (const c of demoChannels()) {
-    await ctx.db
-      .update(points)
-      .set({ fmaxHz: c.fmaxHz, lines: c.lines })
-      .where(eq(points.id, pointId.get(channelKey(c))!));
+    await setCaptureSetup(ctx.db, pointId.get(channelKey(c))!, c.fmaxHz, c.lines);
   }
   return gatewayOf;
 }
@@ -114,10 +119,7 @@ export async function commissionDemoGateways(ctx: AppContext): Promise<Map<strin
 const channelKey = (c: { siteCode: string; tag: string }) => `${c.siteCode}\u0000${c.tag}`;
 
 async function demoPointIds(ctx: AppContext): Promise<Map<string, number>> {
-  const rows = await ctx.db
-    .select({ id: points.id, tag: points.tag, siteCode: sites.code })
-    .from(points)
-    .innerJoin(sites, eq(sites.id, points.siteId));
+  const rows = await pointTags(ctx.db);
   return new Map(rows.map((p) => [channelKey(p), p.id]));
 }
 
@@ -170,15 +172,8 @@ export async function seedDemoHistory(
     await people.actAt(roundAt + channels.length * POINT_STAGGER_S * 1000);
   }
 
-  const counts = await ctx.db
-    .select({ state: alerts.state, n: sql<number>`COUNT(*)` })
-    .from(alerts)
-    .groupBy(alerts.state);
-  const byState = { raised: 0, acknowledged: 0, cleared: 0 };
-  for (const r of counts) byState[r.state] = Number(r.n);
-  const [qn] = (await ctx.dbHandle.pool.query(
-    'SELECT COUNT(*) AS n FROM quality_notices',
-  )) as unknown as [{ n: number }[]];
+  const byState = await alertCountsByState(ctx.db);
+  const qualityNotices = await qualityNoticeCount(ctx.db);
   const result: DemoHistoryResult = {
     snapshots: stored,
     rounds: rounds.length,
@@ -188,7 +183,7 @@ export async function seedDemoHistory(
       return Math.round((c.user + c.system) / 1000);
     })(),
     alerts: byState,
-    qualityNotices: Number(qn[0]?.n ?? 0),
+    qualityNotices,
   };
   say(
     `Demo history: ${result.snapshots} snapshots over ${weeks} weeks (${result.rounds} rounds) in ` +
@@ -258,20 +253,7 @@ class PeoplePlayer {
 
   async actAt(t: number) {
     const span = this.end - this.start;
-    const raised = await this.ctx.db
-      .select({
-        id: alerts.id,
-        tag: points.tag,
-        siteCode: sites.code,
-        pointId: alerts.pointId,
-        bandKey: alerts.bandKey,
-        level: alerts.level,
-        firstAt: alerts.firstAt,
-      })
-      .from(alerts)
-      .innerJoin(points, eq(points.id, alerts.pointId))
-      .innerJoin(sites, eq(sites.id, points.siteId))
-      .where(and(eq(alerts.state, 'raised'), eq(alerts.level, 'alert')));
+    const raised = await raisedAlertsAtAlertLevel(this.ctx.db);
     for (const a of raised) {
       const mfp = a.siteCode === 'MFP';
       const delay = mfp ? Math.min(4 * HOUR, span / 50) : Math.max(DAY, span / 10);
@@ -293,6 +275,9 @@ class PeoplePlayer {
           dueDate: new Date(this.end + 21 * DAY).toISOString().slice(0, 10),
           note: 'Outer-race defect confirmed by the envelope spectrum; bearing and seals ordered. Work under the site lock-out procedure.',
           state: 'planned',
+          priority: 'high',
+          owner: 'Mechanical crew A',
+          plannedDowntimeHours: 6,
         });
       if (mfp && a.bandKey === 'order-1x' && a.tag === 'MFP-P201-MDE-H')
         await this.finding(`p201:${a.id}`, ackAt + Math.min(DAY, span / 20), {
@@ -301,23 +286,13 @@ class PeoplePlayer {
           title: 'Clean and balance the impeller of P-201',
           note: 'Rising 1× radially, little axially: unbalance. Needs a stop; to be planned with operations.',
           state: 'open',
+          priority: 'medium',
+          plannedDowntimeHours: 8,
         });
     }
     // B-301: coupling realigned during a planned stop once the history reaches REALIGNED_AT.
     if (t >= this.start + REALIGNED_AT * span && !this.done.has('b301')) {
-      const [a] = await this.ctx.db
-        .select({ id: alerts.id, pointId: alerts.pointId })
-        .from(alerts)
-        .innerJoin(points, eq(points.id, alerts.pointId))
-        .innerJoin(sites, eq(sites.id, points.siteId))
-        .where(
-          and(
-            eq(sites.code, 'MFP'),
-            eq(points.tag, 'MFP-B301-MDE-H'),
-            eq(alerts.bandKey, 'order-2x'),
-          ),
-        )
-        .limit(1);
+      const a = await alertOfPointBand(this.ctx.db, 'MFP', 'MFP-B301-MDE-H', 'order-2x');
       if (a)
         await this.finding('b301', t - 3 * HOUR, {
           pointId: a.pointId,
@@ -327,6 +302,9 @@ class PeoplePlayer {
           dueDate: new Date(t).toISOString().slice(0, 10),
           note: 'Coupling offset found and corrected during the planned stop; 2× back to normal on the next captures.',
           state: 'done',
+          priority: 'medium',
+          owner: 'Alignment contractor',
+          plannedDowntimeHours: 4,
         });
       this.done.add('b301');
     }
@@ -343,6 +321,9 @@ class PeoplePlayer {
       dueDate?: string;
       note: string;
       state: 'open' | 'planned' | 'done';
+      priority: 'high' | 'medium' | 'low';
+      owner?: string;
+      plannedDowntimeHours: number;
     },
   ) {
     if (this.done.has(key)) return;
@@ -354,13 +335,13 @@ class PeoplePlayer {
       workOrderRef: f.workOrderRef ?? null,
       dueDate: f.dueDate ?? null,
       note: f.note,
+      priority: f.priority,
+      owner: f.owner ?? null,
+      plannedDowntimeHours: f.plannedDowntimeHours,
     });
     if (f.state !== 'open')
       await updateFinding(this.ctx, this.who.planner, created.id, { state: f.state });
     // Dated when the planner wrote it in the story, not when the seed ran.
-    await this.ctx.db
-      .update(findings)
-      .set({ createdAt: new Date(Math.min(at, this.end)) })
-      .where(inArray(findings.id, [created.id]));
+    await backdateFinding(this.ctx.db, created.id, new Date(Math.min(at, this.end)));
   }
 }

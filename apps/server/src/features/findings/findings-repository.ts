@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, gte, inArray, lte, ne, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, lt, lte, ne, sql, type SQL } from 'drizzle-orm';
 import type { CursorPosition } from '../../lib/cursor.ts';
 import type { Db, Tx } from '@turnstone/db/client';
 import { alerts, areas, findings, machines, points, sites, users } from '@turnstone/db/schema';
@@ -32,6 +32,10 @@ export interface FindingFilter {
   ids?: number[];
   /** Not done and due on or before this date (YYYY-MM-DD). */
   dueBy?: string;
+  /** Due within these dates (YYYY-MM-DD, both inclusive). */
+  dueWithin?: { from: string; to: string };
+  /** Created at or after `from` and before `to`. */
+  createdWithin?: { from: Date; to: Date };
   /** updatedAt at or after. */
   since?: Date;
   /** Rows after this (updatedAt, id) in the list's descending order. */
@@ -51,6 +55,13 @@ export async function listFindings(db: Db | Tx, f: FindingFilter): Promise<Findi
   if (f.pointId !== undefined) where.push(eq(findings.pointId, f.pointId));
   if (f.ids) where.push(inArray(findings.id, f.ids.length ? f.ids : [0]));
   if (f.dueBy) where.push(ne(findings.state, 'done'), lte(findings.dueDate, f.dueBy));
+  if (f.dueWithin)
+    where.push(gte(findings.dueDate, f.dueWithin.from), lte(findings.dueDate, f.dueWithin.to));
+  if (f.createdWithin)
+    where.push(
+      gte(findings.createdAt, f.createdWithin.from),
+      lt(findings.createdAt, f.createdWithin.to),
+    );
   if (f.since) where.push(gte(findings.updatedAt, f.since));
   if (f.after) where.push(afterPosition(findings.updatedAt, findings.id, f.after));
   return db
@@ -83,7 +94,19 @@ export async function lockFinding(tx: Tx, id: number): Promise<FindingRow | unde
 export async function updateFinding(
   tx: Tx,
   id: number,
-  set: Partial<Pick<FindingRow, 'state' | 'title' | 'workOrderRef' | 'dueDate' | 'note'>>,
+  set: Partial<
+    Pick<
+      FindingRow,
+      | 'state'
+      | 'title'
+      | 'workOrderRef'
+      | 'dueDate'
+      | 'note'
+      | 'priority'
+      | 'owner'
+      | 'plannedDowntimeHours'
+    >
+  >,
 ) {
   await tx
     .update(findings)

@@ -13,7 +13,9 @@ import { accessiblePoint } from '../places/point-access.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import * as repo from './findings-repository.ts';
+import { queueWebhookEvent } from '../webhooks/webhooks-service.ts';
 import { decodeCursor, pageOf } from '../../lib/cursor.ts';
+import { isoWeekDays } from '@turnstone/contracts/dates';
 
 type CreateInput = z.output<typeof createFindingSchema>;
 type UpdateInput = z.output<typeof updateFindingSchema>;
@@ -35,6 +37,9 @@ export function toFinding(r: repo.FindingListRow): Finding {
     workOrderRef: f.workOrderRef,
     dueDate: f.dueDate,
     state: f.state,
+    priority: f.priority,
+    owner: f.owner,
+    plannedDowntimeHours: f.plannedDowntimeHours,
     note: f.note,
     createdBy: { id: f.createdBy, name: r.createdByName },
     createdAt: f.createdAt.toISOString(),
@@ -52,6 +57,9 @@ const auditView = (f: repo.FindingRow) => ({
   workOrderRef: f.workOrderRef,
   dueDate: f.dueDate,
   note: f.note,
+  priority: f.priority,
+  owner: f.owner,
+  plannedDowntimeHours: f.plannedDowntimeHours,
 });
 
 /** Site scope of a request: every visible site, or the one asked for (403 when not visible). */
@@ -71,6 +79,7 @@ export async function listFindings(
     siteIds: siteScope(user, q.siteId),
     ...(q.state ? { state: q.state } : {}),
     ...(q.pointId !== undefined ? { pointId: q.pointId } : {}),
+    ...(q.dueWeek ? { dueWithin: weekDates(q.dueWeek) } : {}),
     ...(q.since ? { since: new Date(q.since) } : {}),
     ...(q.cursor ? { after: decodeCursor(q.cursor) } : {}),
     limit: q.limit + 1,
@@ -79,11 +88,22 @@ export async function listFindings(
   return { items: page.items.map(toFinding), nextCursor: page.nextCursor };
 }
 
+function weekDates(week: string) {
+  const days = isoWeekDays(week);
+  if (!days) throw new AppError('validation_failed', 'Use a week like 2026-W49.', 400);
+  return { from: days.monday, to: days.sunday };
+}
+
 async function loadOne(ctx: AppContext, user: SessionUser, id: number, tx?: Tx) {
   const [row] = await repo.listFindings(tx ?? ctx.db, { siteIds: user.siteIds, ids: [id] });
   if (!row) throw notFound('Finding');
   return toFinding(row);
 }
+
+const reopenFirst = () =>
+  new AppError('validation_failed', 'A done finding is reopened before it is planned again.', 400, [
+    { path: ['state'], message: 'Reopen the finding (state open) first' },
+  ]);
 
 const needsWorkOrder = () =>
   new AppError('validation_failed', 'A planned finding needs a work-order reference.', 400, [
@@ -114,7 +134,11 @@ export async function createFinding(
       workOrderRef: input.workOrderRef ?? null,
       dueDate: input.dueDate ?? null,
       note: input.note ?? null,
-      state: 'open',
+      priority: input.priority ?? 'medium',
+      owner: input.owner ?? null,
+      plannedDowntimeHours: input.plannedDowntimeHours ?? null,
+      // A work order already raised makes the finding planned from the start.
+      state: input.workOrderRef ? 'planned' : 'open',
       createdBy: user.id,
     });
     const row = await repo.lockFinding(tx, newId);
@@ -126,6 +150,7 @@ export async function createFinding(
       before: null,
       after: auditView(row!),
     });
+    await queueWebhookEvent(tx, 'finding.created', await loadOne(ctx, user, newId, tx));
     return newId;
   });
   return loadOne(ctx, user, id);
@@ -147,7 +172,15 @@ export async function updateFinding(
     if (input.workOrderRef !== undefined) set.workOrderRef = input.workOrderRef;
     if (input.dueDate !== undefined) set.dueDate = input.dueDate;
     if (input.note !== undefined) set.note = input.note;
+    if (input.priority !== undefined) set.priority = input.priority;
+    if (input.owner !== undefined) set.owner = input.owner;
+    if (input.plannedDowntimeHours !== undefined)
+      set.plannedDowntimeHours = input.plannedDowntimeHours;
+    // The flow: a work-order reference given to an open finding plans it.
+    if (input.state === undefined && before.state === 'open' && input.workOrderRef)
+      set.state = 'planned';
     const after = { ...before, ...set };
+    if (before.state === 'done' && set.state === 'planned') throw reopenFirst();
     if (after.state === 'planned' && !after.workOrderRef) throw needsWorkOrder();
     const changed = (Object.keys(set) as (keyof typeof set)[]).some((k) => set[k] !== before[k]);
     if (!changed) return;
@@ -163,6 +196,7 @@ export async function updateFinding(
       before: auditView(before),
       after: auditView(after),
     });
+    await queueWebhookEvent(tx, 'finding.updated', await loadOne(ctx, user, id, tx));
   });
   return loadOne(ctx, user, id);
 }

@@ -1,6 +1,6 @@
 import { Router } from 'express';
-import { sql } from 'drizzle-orm';
 import type { AppContext } from '../../lib/context.ts';
+import { pingDb } from './health-repository.ts';
 
 /** `GET /api/health`: the process answers, and whether the database does. */
 export function healthRouter(ctx: AppContext): Router {
@@ -8,7 +8,7 @@ export function healthRouter(ctx: AppContext): Router {
   router.get('/health', async (_req, res) => {
     try {
       await Promise.race([
-        ctx.db.execute(sql`SELECT 1`),
+        pingDb(ctx.db),
         new Promise((_, reject) => setTimeout(() => reject(new Error('timeout')), 2000)),
       ]);
       res.json({ status: 'ok', db: 'up' });

@@ -3,8 +3,9 @@
  * service the screen reads) as an e-mail — counts, largest increases, forecasts, open
  * alerts by age, quality notices and findings due, each row with a link to its point.
  */
-import { sql } from 'drizzle-orm';
 import type { WeeklyReview } from '@turnstone/contracts/review';
+import { formatQuantity } from '@turnstone/contracts/number-format';
+import { toDisplay, type UnitSystem } from '@turnstone/contracts/units';
 import type { AppContext } from '../../lib/context.ts';
 import { buildWeeklyReview } from '../review/review-service.ts';
 import { findUserById } from '../auth/auth-repository.ts';
@@ -12,8 +13,8 @@ import { sessionUserOf } from '../auth/auth-service.ts';
 import { esc, htmlLayout, num, SAFETY_CAUTION, type Rendered } from './mail-templates.ts';
 import { mailBaseUrl, pointLink } from './mail-links.ts';
 import { enqueueMail } from './outbox-repository.ts';
+import { digestRecipientIds } from './mail-repository.ts';
 
-type Row = Record<string, unknown>;
 const TOP = 10;
 
 interface Line {
@@ -21,15 +22,20 @@ interface Line {
   pointId: number;
 }
 
-function sections(r: WeeklyReview): { title: string; lines: Line[]; total: number }[] {
+function sections(
+  r: WeeklyReview,
+  system: UnitSystem,
+): { title: string; lines: Line[]; total: number }[] {
   const at = (x: { machineName: string; pointTag: string }) => `${x.machineName} ${x.pointTag}`;
+  const v = (value: number, unit: string) => formatQuantity(value, unit, system);
+  const bare = (value: number, unit: string) => num(toDisplay(value, unit, system));
   return [
     {
       title: 'Largest increases this week',
       total: r.summary.movers,
       lines: r.movers.slice(0, TOP).map((m) => ({
         pointId: m.pointId,
-        text: `${at(m)} · ${m.bandName} ${num(m.lastWeekMean)} → ${num(m.thisWeekMean)} ${m.unit}${m.changePercent === null ? '' : ` (+${num(m.changePercent)} %)`}`,
+        text: `${at(m)} · ${m.bandName} ${bare(m.lastWeekMean, m.unit)} → ${v(m.thisWeekMean, m.unit)}${m.changePercent === null ? '' : ` (+${num(m.changePercent)} %)`}`,
       })),
     },
     {
@@ -37,7 +43,7 @@ function sections(r: WeeklyReview): { title: string; lines: Line[]; total: numbe
       total: r.summary.forecasts,
       lines: r.forecasts.slice(0, TOP).map((f) => ({
         pointId: f.pointId,
-        text: `${at(f)} · ${f.bandName} ${num(f.latestValue)} ${f.unit} → ${f.target.level} ${num(f.target.value)} ${f.unit} in about ${Math.round(f.daysToCrossing)} days`,
+        text: `${at(f)} · ${f.bandName} ${v(f.latestValue, f.unit)} → ${f.target.level} ${v(f.target.value, f.unit)} in about ${Math.round(f.daysToCrossing)} days`,
       })),
     },
     {
@@ -45,7 +51,7 @@ function sections(r: WeeklyReview): { title: string; lines: Line[]; total: numbe
       total: r.summary.openAlerts,
       lines: r.openAlerts.slice(0, TOP).map((a) => ({
         pointId: a.pointId,
-        text: `${a.level.toUpperCase()} ${a.state} · ${at(a)} · ${a.bandName} ${num(a.lastValue)} ${a.unit} vs ${num(a.limitValue)} ${a.unit} · open ${a.ageDays} d`,
+        text: `${a.level.toUpperCase()} ${a.state} · ${at(a)} · ${a.bandName} ${v(a.lastValue, a.unit)} vs ${v(a.limitValue, a.unit)} · open ${a.ageDays} d`,
       })),
     },
     {
@@ -59,13 +65,18 @@ function sections(r: WeeklyReview): { title: string; lines: Line[]; total: numbe
   ];
 }
 
-export function renderDigest(r: WeeklyReview, base: string): Rendered {
+/** The digest, its values in the planner's unit system. */
+export function renderDigest(
+  r: WeeklyReview,
+  base: string,
+  system: UnitSystem = 'metric',
+): Rendered {
   const day = r.period.weekEnding;
   const s = r.summary;
   const subject = `[Turnstone] Weekly digest, week ending ${day}: ${s.openAlerts} open alerts, ${s.forecasts} forecasts, ${s.qualityNotices} quality notices`;
   const sites = r.sites.map((x) => x.code).join(', ');
   const counts = `Sites ${sites}. Increases: ${s.movers} · forecasts: ${s.forecasts} · open alerts: ${s.openAlerts} · quality notices: ${s.qualityNotices} · findings due: ${s.findingsDue} (${s.findingsOverdue} overdue).`;
-  const secs = sections(r);
+  const secs = sections(r, system);
   const more = (n: number, shown: number) => (n > shown ? ` (${n - shown} more in Turnstone)` : '');
   const reviewLink = `${base}/review?weekEnding=${day}`;
   const text = [
@@ -119,15 +130,11 @@ export async function queueWeeklyDigests(
 ): Promise<number> {
   const now = options.now ?? new Date();
   const weekEnding = options.weekEnding ?? digestWeekEnding(now);
-  const [rows] = (await ctx.db.execute(
-    sql`SELECT DISTINCT u.id FROM users u JOIN subscriptions s ON s.user_id = u.id
-         WHERE s.weekly_digest = 1 AND u.role = 'planner' AND u.disabled_at IS NULL
-           AND u.password_hash IS NOT NULL`,
-  )) as unknown as [Row[]];
+  const ids = await digestRecipientIds(ctx.db);
   const base = await mailBaseUrl(ctx);
   let queued = 0;
-  for (const r of rows) {
-    const row = await findUserById(ctx.db, Number(r.id));
+  for (const id of ids) {
+    const row = await findUserById(ctx.db, id);
     if (!row) continue;
     const user = await sessionUserOf(ctx.db, row);
     const review = await buildWeeklyReview(ctx, user, {
@@ -139,7 +146,7 @@ export async function queueWeeklyDigests(
       kind: 'digest',
       dedupeKey: `digest:${weekEnding}:${user.id}`,
       to: user.email,
-      ...renderDigest(review, base),
+      ...renderDigest(review, base, user.unitSystem),
     });
     queued++;
   }

@@ -3,13 +3,12 @@
  * and — in the process that runs the worker — the outbox sender and the digest schedule.
  */
 import cron, { type ScheduledTask } from 'node-cron';
-import { asc } from 'drizzle-orm';
-import { sites } from '@turnstone/db/schema';
 import type { AppContext } from '../../lib/context.ts';
 import { startSmtpFake, type SmtpFake } from './smtp-fake.ts';
 import { createOutboxSender, type OutboxSender } from './outbox-sender.ts';
 import { loadRuntime, saveRuntime } from './outbox-repository.ts';
 import { queueWeeklyDigests } from './digest-service.ts';
+import { firstSiteTimeZone } from './mail-repository.ts';
 
 export interface MailRuntime {
   fake: SmtpFake | null;
@@ -20,12 +19,7 @@ export interface MailRuntime {
 
 async function digestTimeZone(ctx: AppContext): Promise<string> {
   if (ctx.config.DIGEST_TIME_ZONE) return ctx.config.DIGEST_TIME_ZONE;
-  const [first] = await ctx.db
-    .select({ tz: sites.timeZone })
-    .from(sites)
-    .orderBy(asc(sites.id))
-    .limit(1);
-  return first?.tz ?? 'UTC';
+  return (await firstSiteTimeZone(ctx.db)) ?? 'UTC';
 }
 
 /** In the web process: `listenUrl` is where the app answers (links use PUBLIC_URL first). */

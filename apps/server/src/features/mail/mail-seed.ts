@@ -1,6 +1,5 @@
-import { inArray } from 'drizzle-orm';
-import { sites, subscriptions, users } from '@turnstone/db/schema';
 import type { AppContext } from '../../lib/context.ts';
+import { addSubscriptions, allSiteIds, usersByEmail } from './mail-repository.ts';
 
 /**
  * Demo notification settings: the engineer hears of every alert at once on both sites;
@@ -8,11 +7,11 @@ import type { AppContext } from '../../lib/context.ts';
  * default every operator gets (their sites' alerts at once), given when the user was made.
  */
 export async function seedDemoSubscriptions(ctx: AppContext): Promise<void> {
-  const people = await ctx.db
-    .select({ id: users.id, email: users.email })
-    .from(users)
-    .where(inArray(users.email, ['engineer@turnstone.local', 'planner@turnstone.local']));
-  const siteRows = await ctx.db.select({ id: sites.id }).from(sites);
+  const people = await usersByEmail(ctx.db, [
+    'engineer@turnstone.local',
+    'planner@turnstone.local',
+  ]);
+  const siteRows = await allSiteIds(ctx.db);
   const rows = [];
   for (const p of people) {
     for (const s of siteRows) {
@@ -34,5 +33,5 @@ export async function seedDemoSubscriptions(ctx: AppContext): Promise<void> {
       );
     }
   }
-  if (rows.length) await ctx.db.insert(subscriptions).values(rows);
+  await addSubscriptions(ctx.db, rows);
 }

@@ -19,15 +19,8 @@ export function esc(value: unknown): string {
   return String(value ?? '').replace(/[&<>"']/g, (c) => HTML_ESCAPES[c]!);
 }
 
-/** A number with three significant digits (small values keep their decimals). */
-export function num(value: number | null | undefined): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
-  const abs = Math.abs(value);
-  if (abs >= 100) return value.toFixed(0);
-  if (abs >= 10) return value.toFixed(1);
-  if (abs >= 1) return value.toFixed(2);
-  return value.toPrecision(3);
-}
+/** Numbers in messages follow the app's one number rule (three significant digits). */
+export { formatNumber as num } from '@turnstone/contracts/number-format';
 
 export function utc(d: Date): string {
   return `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`;

@@ -20,7 +20,7 @@
  */
 import { randomUUID } from 'node:crypto';
 import { hostname } from 'node:os';
-import nodemailer, { type Transporter } from 'nodemailer';
+import nodemailer, { type SendMailOptions, type Transporter } from 'nodemailer';
 import cron, { type ScheduledTask } from 'node-cron';
 import type { AppContext } from '../../lib/context.ts';
 import { isDbUnavailable } from '@turnstone/db/errors';
@@ -56,6 +56,26 @@ export function messageIdOf(row: Pick<repo.OutboxRow, 'id' | 'createdAt'>): stri
 }
 
 /** Back-off after the n-th failed attempt: 30 s · 2^(n−1), at most one hour. */
+/** The message nodemailer sends for an outbox row. */
+export function messageOf(
+  row: Pick<repo.OutboxRow, 'toAddress' | 'subject' | 'textBody' | 'htmlBody' | 'kind'>,
+  from: string,
+  messageId: string,
+): SendMailOptions {
+  return {
+    from,
+    to: row.toAddress,
+    subject: row.subject,
+    text: row.textBody,
+    ...(row.htmlBody ? { html: row.htmlBody } : {}),
+    // Data-URL images (an alert's trend picture) travel as inline CID attachments, which
+    // mail clients show more readily than data URLs.
+    attachDataUrls: true,
+    messageId,
+    headers: { 'X-Turnstone-Kind': row.kind },
+  };
+}
+
 export const outboxRetryDelayS = (attempts: number) =>
   Math.min(3600, 30 * 2 ** Math.max(0, attempts - 1));
 
@@ -99,15 +119,7 @@ export function createOutboxSender(ctx: AppContext, options: OutboxSenderOptions
     }
     if (!(await repo.markSendingStarted(ctx.db, row.id, owner))) return 'lease-lost';
     try {
-      await transport.sendMail({
-        from: ctx.config.MAIL_FROM,
-        to: row.toAddress,
-        subject: row.subject,
-        text: row.textBody,
-        ...(row.htmlBody ? { html: row.htmlBody } : {}),
-        messageId,
-        headers: { 'X-Turnstone-Kind': row.kind },
-      });
+      await transport.sendMail(messageOf(row, ctx.config.MAIL_FROM, messageId));
     } catch (err) {
       const message = err instanceof Error ? err.message : String(err);
       const sure = definitelyNotSent(err);

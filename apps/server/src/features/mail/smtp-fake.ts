@@ -7,8 +7,8 @@ import type { AddressInfo } from 'node:net';
 import { SMTPServer } from 'smtp-server';
 import { simpleParser, type AddressObject } from 'mailparser';
 import type { Db } from '@turnstone/db/client';
-import { mailMessages } from '@turnstone/db/schema';
 import type { Logger } from '../../lib/logger.ts';
+import { storeReceivedMail } from './mail-repository.ts';
 
 export interface SmtpFake {
   url: string;
@@ -35,7 +35,7 @@ export async function startSmtpFake(db: Db, log: Logger, port = 0): Promise<Smtp
           const headers: Record<string, string> = {};
           for (const line of mail.headerLines)
             headers[line.key] = line.line.slice(line.key.length + 1).trim();
-          await db.insert(mailMessages).values({
+          await storeReceivedMail(db, {
             messageId: mail.messageId ?? null,
             mailFrom:
               (session.envelope.mailFrom && session.envelope.mailFrom.address) ||

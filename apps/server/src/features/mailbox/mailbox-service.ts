@@ -1,7 +1,5 @@
 /** What the local SMTP fake received, for the admin's Mailbox screen. */
-import { desc, eq } from 'drizzle-orm';
 import sanitize from 'sanitize-html';
-import { mailMessages } from '@turnstone/db/schema';
 import type { Db } from '@turnstone/db/client';
 import type { MailboxMessage, UndeliveredMail } from '@turnstone/contracts/mail';
 import { AppError, notFound } from '../../lib/app-error.ts';
@@ -9,18 +7,10 @@ import type { SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import { listUndelivered, requeueUndelivered, type OutboxRow } from '../mail/outbox-repository.ts';
 import { maskLinkTokens } from '../mail/link-tokens.ts';
+import { findReceivedMail, listReceivedMail } from '../mail/mail-repository.ts';
 
 export async function listMailbox(db: Db, limit = 200) {
-  const rows = await db
-    .select({
-      id: mailMessages.id,
-      to: mailMessages.mailTo,
-      subject: mailMessages.subject,
-      receivedAt: mailMessages.receivedAt,
-    })
-    .from(mailMessages)
-    .orderBy(desc(mailMessages.receivedAt), desc(mailMessages.id))
-    .limit(limit);
+  const rows = await listReceivedMail(db, limit);
   return { items: rows.map((r) => ({ ...r, receivedAt: r.receivedAt.toISOString() })) };
 }
 
@@ -81,7 +71,7 @@ export async function readMessage(
   id: number,
   viewer: Pick<SessionUser, 'email'>,
 ): Promise<MailboxMessage> {
-  const [found] = await db.select().from(mailMessages).where(eq(mailMessages.id, id)).limit(1);
+  const found = await findReceivedMail(db, id);
   if (!found) throw notFound('Message');
   const own = found.mailTo
     .split(',')

@@ -6,6 +6,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { forbidden, unauthenticated } from '../../lib/app-error.ts';
 import { registry } from '../../lib/metrics.ts';
 import type { Authenticate } from '../../lib/route-table.ts';
+import { queueAndOutboxCounts } from './metrics-repository.ts';
 
 const LOOPBACK = /^(127\.\d+\.\d+\.\d+|::1|::ffff:127\.\d+\.\d+\.\d+)$/;
 
@@ -34,8 +35,6 @@ function poolCounts(pool: unknown): { open: number; idle: number; limit: number 
   };
 }
 
-type Rows<T> = [T[], unknown];
-
 /** Reads the figures that belong to the database, into a registry made for this scrape. */
 async function databaseMetrics(ctx: AppContext): Promise<Registry> {
   const r = new Registry();
@@ -60,31 +59,27 @@ async function databaseMetrics(ctx: AppContext): Promise<Registry> {
     pool.set({ pool: name, state: 'idle' }, c.idle);
     pool.set({ pool: name, state: 'limit' }, c.limit);
   }
+  const replicas = ctx.dbHandle.replicas();
+  if (replicas.length > 0) {
+    const usable = new Gauge({
+      name: 'turnstone_database_replica_usable',
+      help: '1 when the read replica is up, replicating and within REPLICA_MAX_LAG_S (it serves dashboard reads), else 0.',
+      labelNames: ['replica'] as const,
+      registers: [r],
+    });
+    const lag = new Gauge({
+      name: 'turnstone_database_replica_lag_seconds',
+      help: 'Seconds_Behind_Master of the read replica at its last probe; absent while unknown.',
+      labelNames: ['replica'] as const,
+      registers: [r],
+    });
+    for (const h of replicas) {
+      usable.set({ replica: h.name }, h.usable ? 1 : 0);
+      if (h.lagSeconds !== null) lag.set({ replica: h.name }, h.lagSeconds);
+    }
+  }
   try {
-    // Each count uses an index prefix (jobs: state, run_after; outbox: sent_at), and `done`
-    // jobs and sent mail, which grow for ever, are not counted here.
-    const [jobRows] = (await ctx.dbHandle.pool.query(
-      `SELECT
-         SUM(state = 'queued' AND run_after <= NOW(3)) AS due,
-         SUM(state = 'queued' AND run_after > NOW(3)) AS waiting,
-         SUM(state = 'running') AS running,
-         SUM(state = 'failed') AS failed,
-         TIMESTAMPDIFF(MICROSECOND,
-           MIN(CASE WHEN state = 'queued' AND run_after <= NOW(3) THEN run_after END),
-           NOW(3)) / 1e6 AS oldest_due_s
-       FROM jobs WHERE state IN ('queued', 'running', 'failed')`,
-    )) as Rows<Record<string, string | number | null>>;
-    const [mailRows] = (await ctx.dbHandle.pool.query(
-      `SELECT
-         SUM(outcome IS NULL) AS pending,
-         SUM(outcome = 'failed') AS failed,
-         SUM(outcome = 'uncertain') AS uncertain,
-         TIMESTAMPDIFF(MICROSECOND, MIN(CASE WHEN outcome IS NULL THEN created_at END), NOW(3))
-           / 1e6 AS oldest_pending_s
-       FROM outbox WHERE sent_at IS NULL`,
-    )) as Rows<Record<string, string | number | null>>;
-    const j = jobRows[0] ?? {};
-    const m = mailRows[0] ?? {};
+    const { jobs: j, mail: m } = await queueAndOutboxCounts(ctx.dbHandle.pool);
     const num = (v: string | number | null | undefined) => Number(v ?? 0);
     const jobsGauge = new Gauge({
       name: 'turnstone_queue_jobs',

@@ -1,7 +1,7 @@
 import { readStoredSummary, type StoredSummary } from '../analysis/stored-summary.ts';
 import { and, asc, desc, eq, gte, inArray, isNull, lte, ne, or, sql } from 'drizzle-orm';
 import type { BandState } from '@turnstone/condition';
-import type { Db } from '@turnstone/db/client';
+import type { Db, Tx } from '@turnstone/db/client';
 import { legacySpectrumColumn, type SpectrumKind } from '@turnstone/db/spectra-codec';
 import {
   alertEvents,
@@ -142,7 +142,7 @@ export async function recentBandValues(db: Db, pointId: number, bandKey: string,
  * before its first value is absent. What `levelsInForce` needs to decide the levels the
  * worker uses.
  */
-export async function bandStatesOf(db: Db, pointId: number) {
+export async function bandStatesOf(db: Db | Tx, pointId: number) {
   const [row] = await db
     .select({ state: pointStates.state })
     .from(pointStates)
@@ -286,6 +286,7 @@ export async function recentSpectra(db: Db, pointId: number, kind: SpectrumKind,
     .select({
       id: analyses.id,
       takenAt: analyses.takenAt,
+      speedRpm: analyses.speedRpm,
       summary: analyses.summary,
       spectra: analyses.spectra,
       legacy: analyses[legacy],

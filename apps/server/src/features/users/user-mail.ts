@@ -1,5 +1,5 @@
 import { esc, htmlLayout, type Rendered } from '../mail/mail-templates.ts';
-import { TOKEN_HOURS } from './user-tokens.ts';
+import { TOKEN_HOURS } from './user-tokens-repository.ts';
 
 export function renderInvite(name: string, inviter: string, link: string): Rendered {
   const text = [

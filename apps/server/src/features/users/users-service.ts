@@ -15,7 +15,7 @@ import { enqueueMail } from '../mail/outbox-repository.ts';
 import { mailBaseUrl } from '../mail/mail-links.ts';
 import * as repo from './users-repository.ts';
 import { dropSubscriptionsOutside, subscribeToSiteAlerts } from '../account/account-repository.ts';
-import { consumeToken, findUsableToken, issueToken, type TokenPurpose } from './user-tokens.ts';
+import { consumeToken, findUsableToken, issueToken, type TokenPurpose } from './user-tokens-repository.ts';
 import { renderInvite, renderReset } from './user-mail.ts';
 
 const iso = (d: Date | null) => d?.toISOString() ?? null;
@@ -39,7 +39,8 @@ export async function listUsers(db: Db) {
   return { items: rows.map(summary), sites };
 }
 
-async function checkSites(db: Db, ids: number[]) {
+/** The given site ids, each checked to exist (400 naming the unknown ones), sorted. */
+export async function checkSites(db: Db, ids: number[]) {
   const unique = [...new Set(ids)];
   const known = await repo.existingSiteIds(db, unique);
   const unknown = unique.filter((id) => !known.includes(id));

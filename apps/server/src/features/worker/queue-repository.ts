@@ -6,7 +6,7 @@
 import { and, asc, eq, inArray, lte, sql } from 'drizzle-orm';
 import type { Db, Tx } from '@turnstone/db/client';
 import { isLockConflict } from '@turnstone/db/errors';
-import { jobs } from '@turnstone/db/schema';
+import { jobs, snapshots } from '@turnstone/db/schema';
 
 export type JobRow = typeof jobs.$inferSelect;
 
@@ -149,4 +149,29 @@ export class LeaseLostError extends Error {
       `${jobIds.length === 1 ? 'job' : 'jobs'} ${jobIds.join(', ')}: lease taken over by another worker`,
     );
   }
+}
+
+/** A job that can never succeed gets no more attempts (fenced by its lease owner). */
+export async function endRetries(db: Db, job: JobRow, owner: string): Promise<void> {
+  await db
+    .update(jobs)
+    .set({ maxAttempts: job.attempts })
+    .where(and(eq(jobs.id, job.id), eq(jobs.leaseOwner, owner)));
+}
+
+/** The snapshot of a job that failed for good says so, with the reason. */
+export async function markSnapshotFailed(db: Db, snapshotId: number, message: string) {
+  await db
+    .update(snapshots)
+    .set({ status: 'failed', statusReason: message.slice(0, 2000) })
+    .where(eq(snapshots.id, snapshotId));
+}
+
+/** Jobs waiting or running. */
+export async function countOpenJobs(db: Db): Promise<number> {
+  const [row] = await db
+    .select({ n: sql<number>`COUNT(*)` })
+    .from(jobs)
+    .where(sql`${jobs.state} IN ('queued','running')`);
+  return Number(row?.n ?? 0);
 }

@@ -33,9 +33,15 @@
  * statement holds locks on more than one batch of rows and ingest is never waiting long.
  */
 import { setTimeout as sleep } from 'node:timers/promises';
-import { and, inArray, isNotNull, lt, sql } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
-import { snapshots } from '@turnstone/db/schema';
+import {
+  clearRawSamples,
+  clearSpectra,
+  maxAnalysisId,
+  maxSnapshotId,
+  rawSampleCandidates,
+  thinningCandidateIds,
+} from './retention-repository.ts';
 
 import type { Config } from '../../config.ts';
 
@@ -125,16 +131,6 @@ function batchOptions(o: BatchOptions): Required<BatchOptions> {
   };
 }
 
-type Row = Record<string, unknown>;
-async function rowsOf(db: Db, query: ReturnType<typeof sql>): Promise<Row[]> {
-  const [rows] = (await db.execute(query)) as unknown as [Row[]];
-  return rows;
-}
-async function affected(db: Db, query: ReturnType<typeof sql>): Promise<number> {
-  const [result] = (await db.execute(query)) as unknown as [{ affectedRows: number }];
-  return result.affectedRows;
-}
-
 /**
  * Drops raw waveforms older than `days` (received time); analyses, spectra and trends stay.
  * Only analysed snapshots lose samples, so nothing still queued is cut. 0 keeps all.
@@ -158,35 +154,15 @@ export async function expireRawSamplesPass(
   if (days <= 0) return { rows: 0, batches: 0 };
   const cutoff = new Date(now.getTime() - days * DAY_MS);
   const o = batchOptions(opts);
-  const [top] = await rowsOf(db, sql`SELECT COALESCE(MAX(id), 0) AS maxId FROM snapshots`);
   return inBatches(
-    Number(top?.maxId ?? 0),
+    await maxSnapshotId(db),
     o,
-    async (lo, hi, limit) =>
-      (
-        await db
-          .select({ id: snapshots.id })
-          .from(snapshots)
-          .where(
-            and(
-              sql`${snapshots.id} > ${lo} AND ${snapshots.id} <= ${hi}`,
-              isNotNull(snapshots.samples),
-              lt(snapshots.receivedAt, cutoff),
-              sql`${snapshots.status} IN ('done','failed','rejected')`,
-            ),
-          )
-          .orderBy(snapshots.id)
-          .limit(limit)
-      ).map((r) => r.id),
-    async (ids) => {
-      const [result] = await db
-        .update(snapshots)
-        .set({ samples: null, samplesExpiredAt: sql`CURRENT_TIMESTAMP(3)` })
-        .where(and(inArray(snapshots.id, ids), isNotNull(snapshots.samples)));
-      return result.affectedRows;
-    },
+    (lo, hi, limit) => rawSampleCandidates(db, cutoff, lo, hi, limit),
+    (ids) => clearRawSamples(db, ids),
   );
 }
+
+export { thinningCandidates } from './retention-repository.ts';
 
 /** The tier boundaries of a pass at `now`. */
 export function thinningCutoffs(
@@ -198,69 +174,6 @@ export function thinningCutoffs(
     dailyCutoff: midnightBefore(now, Math.max(policy.spectraHourlyDays, policy.spectraWholeDays)),
     win: Math.max(0, Math.floor(policy.keepWindowMinutes)),
   };
-}
-
-/**
- * The ids in (lo, hi] whose spectra the pass clears, at most `limit`, ascending (exported so
- * the storage bench can EXPLAIN it).
- */
-export function thinningCandidates(
-  { wholeCutoff, dailyCutoff, win }: ReturnType<typeof thinningCutoffs>,
-  lo: number,
-  hi: number,
-  limit: number,
-) {
-  return sql`
-        SELECT a.id FROM analyses a JOIN snapshots s ON s.id = a.snapshot_id
-     WHERE a.id > ${lo} AND a.id <= ${hi}
-       AND a.taken_at < ${wholeCutoff}
-       AND a.spectra_thinned_at IS NULL
-       AND (a.spectra IS NOT NULL OR a.accel_spectrum IS NOT NULL
-            OR a.velocity_spectrum IS NOT NULL OR a.envelope_spectrum IS NOT NULL
-            OR a.order_spectrum IS NOT NULL)
-       AND s.source <> 'upload'
-       -- not the first capture of its point in its bucket (hour, or day before dailyCutoff)
-       AND EXISTS (
-         SELECT 1 FROM analyses b
-          WHERE b.point_id = a.point_id
-            AND b.taken_at >= IF(a.taken_at < ${dailyCutoff},
-                                 TIMESTAMP(DATE(a.taken_at)),
-                                 TIMESTAMP(DATE(a.taken_at), MAKETIME(HOUR(a.taken_at), 0, 0)))
-            AND (b.taken_at < a.taken_at OR (b.taken_at = a.taken_at AND b.id < a.id)))
-       -- alert events of the point (raise, escalation, acknowledgement, clearance)
-       AND NOT EXISTS (
-         SELECT 1 FROM alerts al JOIN alert_events e ON e.alert_id = al.id
-          WHERE al.point_id = a.point_id
-            AND e.at BETWEEN a.taken_at - INTERVAL ${win} MINUTE
-                         AND a.taken_at + INTERVAL ${win} MINUTE)
-       AND NOT EXISTS (
-         SELECT 1 FROM alerts al WHERE al.point_id = a.point_id AND al.peak_at = a.taken_at)
-       AND NOT EXISTS (
-         SELECT 1 FROM findings f
-          WHERE f.point_id = a.point_id
-            AND f.created_at BETWEEN a.taken_at - INTERVAL ${win} MINUTE
-                                 AND a.taken_at + INTERVAL ${win} MINUTE)
-       -- the capture where a point's captures turned suspect (unusable ones thin like any other)
-       AND NOT EXISTS (
-         SELECT 1 FROM quality_notices qn WHERE qn.analysis_id = a.id AND qn.verdict = 'suspect')
-       -- the first capture after a change of the point's limits
-       AND NOT EXISTS (
-         SELECT 1 FROM audit_log l
-          WHERE l.entity = 'point' AND l.entity_id = CAST(a.point_id AS CHAR)
-            AND l.action IN ('limits.update', 'limits.baseline') AND l.at <= a.taken_at
-            AND NOT EXISTS (
-              SELECT 1 FROM analyses c
-               WHERE c.point_id = a.point_id AND c.taken_at >= l.at
-                 AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
-       AND NOT EXISTS (
-         SELECT 1 FROM limit_sets ls
-          WHERE ls.point_id = a.point_id AND ls.updated_at <= a.taken_at
-            AND NOT EXISTS (
-              SELECT 1 FROM analyses c
-               WHERE c.point_id = a.point_id AND c.taken_at >= ls.updated_at
-                 AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
-     ORDER BY a.id
-     LIMIT ${limit}`;
 }
 
 /**
@@ -276,25 +189,11 @@ export async function thinSpectra(
   if (policy.spectraWholeDays <= 0) return { rows: 0, batches: 0 };
   const cut = thinningCutoffs(policy, now);
   const o = batchOptions(opts);
-  const [top] = await rowsOf(db, sql`SELECT COALESCE(MAX(id), 0) AS maxId FROM analyses`);
   return inBatches(
-    Number(top?.maxId ?? 0),
+    await maxAnalysisId(db),
     o,
-    async (lo, hi, limit) => {
-      const rows = await rowsOf(db, thinningCandidates(cut, lo, hi, limit));
-      return rows.map((r) => Number(r.id));
-    },
-    (ids) =>
-      affected(
-        db,
-        sql`UPDATE analyses
-               SET spectra = NULL, accel_spectrum = NULL, velocity_spectrum = NULL,
-                   envelope_spectrum = NULL, order_spectrum = NULL, spectra_thinned_at = ${now}
-             WHERE id IN (${sql.join(
-               ids.map((id) => sql`${id}`),
-               sql`, `,
-             )}) AND spectra_thinned_at IS NULL`,
-      ),
+    (lo, hi, limit) => thinningCandidateIds(db, cut, lo, hi, limit),
+    (ids) => clearSpectra(db, ids, now),
   );
 }
 

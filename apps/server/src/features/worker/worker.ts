@@ -6,9 +6,7 @@
  */
 import { randomUUID } from 'node:crypto';
 import { hostname } from 'node:os';
-import { and, eq, sql } from 'drizzle-orm';
 import cron, { type ScheduledTask } from 'node-cron';
-import { jobs, snapshots } from '@turnstone/db/schema';
 import type { AppContext } from '../../lib/context.ts';
 import { isDbUnavailable } from '@turnstone/db/errors';
 import {
@@ -19,7 +17,15 @@ import {
   type JobFailure,
   type PreparedAnalysis,
 } from '../analysis/analysis-service.ts';
-import { claimJobs, failJob, LeaseLostError, type JobRow } from './queue-repository.ts';
+import {
+  claimJobs,
+  countOpenJobs,
+  endRetries,
+  failJob,
+  LeaseLostError,
+  markSnapshotFailed,
+  type JobRow,
+} from './queue-repository.ts';
 import { RETENTION_CRON, retentionPolicy, runRetention } from './retention.ts';
 import { recomputeBaselines } from '../limits/baseline-service.ts';
 import { countAnalyses, observeAnalyses, recordRetention } from '../../lib/metrics.ts';
@@ -61,11 +67,7 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
     if (isDbUnavailable(err)) throw err;
     const message = err instanceof Error ? err.message : String(err);
     const permanent = err instanceof PermanentJobError;
-    if (permanent)
-      await ctx.db
-        .update(jobs)
-        .set({ maxAttempts: job.attempts })
-        .where(and(eq(jobs.id, job.id), eq(jobs.leaseOwner, owner)));
+    if (permanent) await endRetries(ctx.db, job, owner);
     const outcome = await failJob(
       ctx.db,
       permanent ? { ...job, maxAttempts: job.attempts } : job,
@@ -84,10 +86,7 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
       message,
     });
     if (outcome === 'failed' && job.snapshotId) {
-      await ctx.db
-        .update(snapshots)
-        .set({ status: 'failed', statusReason: message.slice(0, 2000) })
-        .where(eq(snapshots.id, job.snapshotId));
+      await markSnapshotFailed(ctx.db, job.snapshotId, message);
     }
     return true;
   }
@@ -255,9 +254,5 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
 
 /** Jobs waiting or running, for health and benchmarks. */
 export async function queueDepth(ctx: AppContext): Promise<number> {
-  const [row] = await ctx.db
-    .select({ n: sql<number>`COUNT(*)` })
-    .from(jobs)
-    .where(sql`${jobs.state} IN ('queued','running')`);
-  return Number(row?.n ?? 0);
+  return countOpenJobs(ctx.db);
 }

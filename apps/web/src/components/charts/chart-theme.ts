@@ -36,15 +36,8 @@ export function axisStyle() {
   } as const;
 }
 
-/** Number with sensible significant digits for axis and tooltip text. */
-export function formatValue(v: number, digits = 3): string {
-  if (!Number.isFinite(v)) return '—';
-  const a = Math.abs(v);
-  if (a === 0) return '0';
-  if (a >= 1000) return v.toFixed(0);
-  if (a >= 100) return v.toFixed(1);
-  return v.toPrecision(digits);
-}
+/** Axis and tooltip numbers follow the app's one number rule (significant digits). */
+export { formatNumber as formatValue } from '@turnstone/contracts/number-format';
 
 /**
  * The zoom slider in the app's palette (the library's default blue is ~1.5–2.2:1 on paper):

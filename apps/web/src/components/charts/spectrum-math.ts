@@ -219,7 +219,12 @@ export function sidebandLines(
 
 /** Spectrum units a level in dB can be given for (dB re ISO 1683 of their quantity). */
 export function decibelUnit(unit: string): VibrationUnit | null {
-  return unit === 'g' || unit === 'm/s2' || unit === 'mm/s' || unit === 'in/s' || unit === 'um'
+  return unit === 'g' ||
+    unit === 'm/s2' ||
+    unit === 'mm/s' ||
+    unit === 'in/s' ||
+    unit === 'um' ||
+    unit === 'mil'
     ? unit
     : unit === 'µm'
       ? 'um'

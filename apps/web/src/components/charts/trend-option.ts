@@ -4,6 +4,7 @@
  * chart takes. Status is never colour alone: alert lines are dashed, danger lines solid and
  * thicker, and each has a text label; markers differ in shape.
  */
+import { unitText } from '@turnstone/contracts/units';
 import {
   axisStyle,
   chartColours,
@@ -101,7 +102,8 @@ export function niceCeil(x: number): number {
 }
 
 export const toMs = (t: ChartTime) => (typeof t === 'number' ? t : Date.parse(t));
-export const displayUnit = (unit: string) => (unit === 'um' ? 'µm' : unit);
+/** Units as people write them (µm, not um): one home in contracts. */
+export const displayUnit = unitText;
 
 const tones = {
   alert: chartColours.alert,

@@ -20,6 +20,7 @@ import { VectorPanel, hasVectors } from '../../../features/points/components/vec
 import { CaptureQuality } from '../../../features/points/components/capture-quality.tsx';
 import { useMe } from '../../../features/auth/api/get-me.ts';
 import { TrendPanel } from '../../../features/trends/components/trend-panel.tsx';
+import { useUnits } from '../../../features/account/api/use-units.ts';
 
 const tabs = [
   { key: 'trend', label: 'Trend' },
@@ -65,14 +66,15 @@ function LatestValues({
 }
 
 function ValuesList({ l }: { l: AnalysisSummary }) {
+  const units = useUnits();
   // Every overall value is shown with the band it was taken over.
   const vBand = formatBandHz(l.overall.velocityBandHz);
   const aBand = formatBandHz(l.overall.accelBandHz);
   const items: [string, string][] = [
-    [`Velocity RMS · ${vBand}`, `${formatValue(l.overall.velocityRmsMmS)} mm/s`],
+    [`Velocity RMS · ${vBand}`, units.format(l.overall.velocityRmsMmS, 'mm/s')],
     [`Accel RMS · ${aBand}`, `${formatValue(l.overall.accelRmsG)} g`],
     [`Accel peak · ${aBand}`, `${formatValue(l.overall.accelPeakG)} g`],
-    [`Displ. pk-pk · ${vBand}`, `${formatValue(l.overall.displacementPkPkUm)} µm`],
+    [`Displ. pk-pk · ${vBand}`, units.format(l.overall.displacementPkPkUm, 'um')],
     [`Crest factor · ${aBand}`, formatValue(l.overall.crestFactor)],
     ['ISO 20816', l.isoZone ? `Zone ${l.isoZone}` : '—'],
     ['Speed', l.speedRpm ? `${formatValue(l.speedRpm, 4)} r/min (${l.speedSource})` : 'unknown'],

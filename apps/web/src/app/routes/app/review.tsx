@@ -7,7 +7,7 @@ import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { Button } from '../../../components/ui/button.tsx';
 import { useMe } from '../../../features/auth/api/get-me.ts';
 import {
-  reviewCsvHref,
+  reviewZipHref,
   reviewParamsFromSearch,
   useReview,
   type ReviewParams,
@@ -68,11 +68,11 @@ export function ReviewRoute() {
           actions={
             <>
               <a
-                href={reviewCsvHref(params)}
+                href={reviewZipHref(params)}
                 download
                 className="inline-flex h-10 items-center justify-center rounded-md border border-line-strong bg-surface px-4 text-sm font-medium text-ink hover:bg-sunken"
               >
-                Export CSV
+                Export CSV files (ZIP)
               </a>
               <Button onClick={() => window.print()}>Print</Button>
             </>

@@ -15,7 +15,9 @@ import {
   alertEventLabels,
   alertStateSentences,
   formatLevel,
+  isoZoneMeanings,
 } from './alert-labels.tsx';
+import { BandSparkline } from './band-sparkline.tsx';
 
 /**
  * One alert: what it is and every change of its state, oldest first; a raised alert can be
@@ -97,7 +99,24 @@ export function AlertHistory({
         <dd className="font-mono">{formatLevel(a.peakValue, a.unit)}</dd>
         <dt className="text-ink-muted">Level exceeded</dt>
         <dd className="font-mono">{formatLevel(a.limit, a.unit)}</dd>
+        <dt className="text-ink-muted">Machine ISO 20816</dt>
+        <dd data-testid="alert-machine-zone">
+          {a.machineZone ? (
+            <>
+              Zone {a.machineZone}
+              <span className="block text-xs text-ink-muted">{isoZoneMeanings[a.machineZone]}</span>
+            </>
+          ) : (
+            <span className="text-ink-faint">no zone yet</span>
+          )}
+        </dd>
       </dl>
+      <BandSparkline alert={a} />
+      {a.bandMeaning && (
+        <p className="text-sm text-ink-muted" data-testid="alert-band-meaning">
+          {a.bandMeaning}
+        </p>
+      )}
       <p className="text-sm text-ink" data-testid="alert-state-explained">
         {alertStateSentences(a).join(' ')}
       </p>

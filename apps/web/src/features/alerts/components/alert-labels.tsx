@@ -1,3 +1,5 @@
+import { formatNumber } from '@turnstone/contracts/number-format';
+import { unitText } from '@turnstone/contracts/units';
 import type { AlertDetail, AlertStateName } from '@turnstone/contracts/alerts';
 import { cn } from '../../../lib/cn.ts';
 
@@ -14,13 +16,9 @@ export const alertEventLabels = {
   cleared: 'Cleared',
 } as const;
 
-/** Units as people write them. */
-export const unitLabel = (unit: string) => (unit === 'um' ? 'µm' : unit);
-
-/** A value with its unit in the mono font. */
+/** A value with its unit, by the app's one number rule. */
 export function formatLevel(value: number, unit: string): string {
-  const digits = Math.abs(value) >= 100 ? 0 : Math.abs(value) >= 10 ? 1 : 2;
-  return `${value.toFixed(digits)} ${unitLabel(unit)}`;
+  return `${formatNumber(value)} ${unitText(unit)}`;
 }
 
 /** Hours as people say them: "5 days", "12 hours". */
@@ -37,6 +35,14 @@ function formatHours(hours: number): string {
 export function alertStateSentences(a: AlertDetail): string[] {
   const f = (v: number) => formatLevel(v, a.unit);
   const out: string[] = [];
+  // How long ago, counted in the band's values (the unit its clear rule counts in too).
+  const n = a.valuesSinceRaised;
+  const ago =
+    n === null || n === undefined
+      ? ''
+      : n === 0
+        ? ' by the latest value'
+        : ` ${n} value${n === 1 ? '' : 's'} ago`;
   const raised = a.history.find((h) => h.kind === 'raised');
   const escalated = a.history.findLast((h) => h.kind === 'escalated');
   if (a.state === 'cleared') {
@@ -48,12 +54,12 @@ export function alertStateSentences(a: AlertDetail): string[] {
   }
   if (escalated && raised && raised.level === 'alert') {
     out.push(
-      `Raised${raised.value !== null ? ` at ${f(raised.value)}` : ''} against the alert level${a.clearRule ? ` ${f(a.clearRule.alertLevel)}` : ''}; escalated to danger${escalated.value !== null ? ` at ${f(escalated.value)}` : ''} against the danger level ${f(a.limit)}.`,
+      `Raised${ago}${raised.value !== null ? ` at ${f(raised.value)}` : ''} against the alert level${a.clearRule ? ` ${f(a.clearRule.alertLevel)}` : ''}; escalated to danger${escalated.value !== null ? ` at ${f(escalated.value)}` : ''} against the danger level ${f(a.limit)}.`,
     );
   } else {
     const at = raised?.value ?? null;
     out.push(
-      `Raised${at !== null ? ` at ${f(at)}` : ''} against the ${a.level} level ${f(a.limit)}.`,
+      `Raised${ago}${at !== null ? ` at ${f(at)}` : ''} against the ${a.level} level ${f(a.limit)}.`,
     );
   }
   // Written in the order things happened (event ids), not by the capture time an
@@ -76,6 +82,14 @@ export function alertStateSentences(a: AlertDetail): string[] {
   }
   return out;
 }
+
+/** ISO 20816 zones in plain words (ISO 20816-3 zone definitions, paraphrased). */
+export const isoZoneMeanings = {
+  A: 'as newly commissioned machines',
+  B: 'fit for unrestricted long-term operation',
+  C: 'unsatisfactory for long-term continuous operation',
+  D: 'severe enough to damage the machine',
+} as const;
 
 /** The lifecycle state as text and a shape (filled: raised; ring with tick: acknowledged; hollow: cleared). */
 export function AlertStateMark({

@@ -12,7 +12,10 @@ import type { Alert } from '@turnstone/contracts/alerts';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { formatAge, formatDateTime } from '../../../lib/format.ts';
+import { useMediaQuery } from '../../../hooks/use-media-query.ts';
 import { AlertStateMark, formatLevel } from './alert-labels.tsx';
+import { AlertCards } from './alert-cards.tsx';
+import { focusAcknowledgeNote } from './acknowledge-form.tsx';
 
 const column = createColumnHelper<Alert>();
 const levelRank = { alert: 1, danger: 2 } as const;
@@ -57,6 +60,8 @@ export function AlertsTable({
   onOpen: (id: number) => void;
 }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: 'level', desc: true }]);
+  // Below the wide layout (tablets, 820 px) the alerts are cards: nothing scrolls sideways.
+  const narrow = useMediaQuery('(max-width: 1023px)');
   // The latest onOpen without rebuilding the columns when it changes (see NowContext).
   const openRef = useRef(onOpen);
   useLayoutEffect(() => {
@@ -89,6 +94,13 @@ export function AlertsTable({
                   disabled={!row.getCanSelect()}
                   onClick={(e) => e.stopPropagation()}
                   onChange={row.getToggleSelectedHandler()}
+                  onKeyDown={(e) => {
+                    // Enter selects and goes to the note, so the note is one key away.
+                    if (e.key !== 'Enter' || !row.getCanSelect()) return;
+                    e.preventDefault();
+                    if (!row.getIsSelected()) row.toggleSelected(true);
+                    focusAcknowledgeNote();
+                  }}
                 />
               ),
             }),
@@ -203,6 +215,16 @@ export function AlertsTable({
     getSortedRowModel: getSortedRowModel(),
   });
 
+  if (narrow)
+    return (
+      <AlertCards
+        rows={table.getRowModel().rows}
+        now={now}
+        selectable={selectable}
+        openId={openId}
+        onOpen={onOpen}
+      />
+    );
   return (
     <NowContext.Provider value={now}>
       <div className="overflow-x-auto">

@@ -1,5 +1,6 @@
 import { useMemo, useState } from 'react';
 import type { AnalysisSummary, DiagnosisHintItem, PointBand } from '@turnstone/contracts/points';
+import { useUnits } from '../../account/api/use-units.ts';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
 import {
   SpectrumChart,
@@ -62,6 +63,7 @@ export function SpectrumPanel({
   /** Whose last measure and span are remembered (null: nothing remembered). */
   userId: number | null;
 }) {
+  const units = useUnits();
   const [remembered] = useState(() => {
     const st = storage();
     return st && userId !== null ? readRemembered(st, userId) : null;
@@ -197,7 +199,7 @@ export function SpectrumPanel({
   };
 
   const axisName = axis === 'hz' ? 'Hz' : 'order';
-  const unit = s ? s.unit : '';
+  const unit = s ? units.unit(s.unit) : '';
   const shownScale: AmplitudeScale = scale ?? s?.scale ?? 'rms';
   const dbUnit = decibelUnit(unit);
   const dbOn = decibels && dbUnit !== null;

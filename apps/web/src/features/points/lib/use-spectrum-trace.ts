@@ -3,6 +3,7 @@ import { useMemo } from 'react';
 import type { SpectrumTrace } from '../../../components/charts/spectrum-chart.tsx';
 import { scaleFactor, type AmplitudeScale } from '../../../components/charts/spectrum-math.ts';
 import { formatDateTime } from '../../../lib/format.ts';
+import { useUnits } from '../../account/api/use-units.ts';
 import { useSpectrum } from '../api/get-spectrum.ts';
 import type { Axis, Measure } from './spectrum-view.ts';
 
@@ -19,6 +20,7 @@ export function useSpectrumTrace(
   shown: AmplitudeScale | null,
 ) {
   const q = useSpectrum(analysisId, kindFor(measure, axis));
+  const units = useUnits();
   const trace = useMemo((): (SpectrumTrace & { shaftHz: number | null }) | null => {
     const s = q.data;
     if (!s) return null;
@@ -29,9 +31,10 @@ export function useSpectrumTrace(
       if (!shaftHz) return null;
       step = step / shaftHz;
     }
-    const f = shown ? scaleFactor(s.scale, shown) : 1;
+    // Lines in the user's unit system (velocity in in/s for imperial; g stays g), on the scale shown.
+    const f = units.value(1, s.unit) * (shown ? scaleFactor(s.scale, shown) : 1);
     const values = f === 1 ? s.decoded : s.decoded.map((v) => v * f);
     return { label: formatDateTime(s.takenAt), values, step, role, shaftHz };
-  }, [q.data, axis, role, shown]);
+  }, [q.data, axis, role, shown, units]);
   return { query: q, trace };
 }

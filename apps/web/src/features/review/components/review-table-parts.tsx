@@ -6,7 +6,8 @@ import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 
 import { paths } from '../../../config/paths.ts';
-import { formatValue, unitLabel } from '../utils/format-review.ts';
+import { formatNumber } from '@turnstone/contracts/number-format';
+import { unitText } from '@turnstone/contracts/units';
 
 /** What a "Create finding" button hands to the page: the row's point, band or alert, a title. */
 export interface FindingDraft {
@@ -95,7 +96,7 @@ export function PointCell({
 export function Value({ value, unit }: { value: number; unit: string }) {
   return (
     <>
-      {formatValue(value)} <span className="text-ink-muted">{unitLabel(unit)}</span>
+      {formatNumber(value)} <span className="text-ink-muted">{unitText(unit)}</span>
     </>
   );
 }

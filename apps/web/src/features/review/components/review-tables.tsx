@@ -7,13 +7,9 @@ import type {
 
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 
-import {
-  formatDay,
-  formatPercent,
-  formatSigned,
-  formatValue,
-  unitLabel,
-} from '../utils/format-review.ts';
+import { formatNumber } from '@turnstone/contracts/number-format';
+import { unitText } from '@turnstone/contracts/units';
+import { formatDay, formatPercent, formatSigned } from '../utils/format-review.ts';
 
 import {
   ActionCell,
@@ -73,7 +69,7 @@ export function MoversTable({
                 <Value value={m.thisWeekMean} unit={m.unit} />
               </td>
               <td className={tdNum}>
-                {formatSigned(m.change)} <span className="text-ink-muted">{unitLabel(m.unit)}</span>
+                {formatSigned(m.change)} <span className="text-ink-muted">{unitText(m.unit)}</span>
               </td>
               <td className={`${tdNum} font-semibold`}>
                 <span aria-hidden="true" className="mr-1 text-status-alert">
@@ -91,7 +87,7 @@ export function MoversTable({
                       pointTag: m.pointTag,
                       bandKey: m.bandKey,
                       title: `${m.machineName}: ${m.bandName} up ${formatPercent(m.changePercent)} at ${m.pointTag}`,
-                      context: `${m.pointTag} · ${m.bandName}: ${formatValue(m.lastWeekMean)} → ${formatValue(m.thisWeekMean)} ${unitLabel(m.unit)} (${formatPercent(m.changePercent)})`,
+                      context: `${m.pointTag} · ${m.bandName}: ${formatNumber(m.lastWeekMean)} → ${formatNumber(m.thisWeekMean)} ${unitText(m.unit)} (${formatPercent(m.changePercent)})`,
                     }))
                 }
               />
@@ -147,7 +143,7 @@ export function ForecastsTable({
               <td className={`${td} whitespace-nowrap`}>
                 <StatusMark status={f.target.level} />{' '}
                 <span className="font-mono text-xs text-ink-muted">
-                  {formatValue(f.target.value)} {unitLabel(f.unit)}
+                  {formatNumber(f.target.value)} {unitText(f.unit)}
                   {f.levelSource === 'statistical' ? ' (baseline)' : ''}
                 </span>
               </td>
@@ -171,7 +167,7 @@ export function ForecastsTable({
                       pointTag: f.pointTag,
                       bandKey: f.bandKey,
                       title: `${f.machineName}: ${f.bandName} projected to reach ${f.target.level} by ${formatDay(f.crossingAt)}`,
-                      context: `${f.pointTag} · ${f.bandName}: ${formatValue(f.latestValue)} ${unitLabel(f.unit)} now, ${f.target.level} level ${formatValue(f.target.value)} ${unitLabel(f.unit)} projected ${formatDay(f.crossingAt)} (${f.model}, R² ${f.r2.toFixed(2)})`,
+                      context: `${f.pointTag} · ${f.bandName}: ${formatNumber(f.latestValue)} ${unitText(f.unit)} now, ${f.target.level} level ${formatNumber(f.target.value)} ${unitText(f.unit)} projected ${formatDay(f.crossingAt)} (${f.model}, R² ${f.r2.toFixed(2)})`,
                     }))
                 }
               />
@@ -225,7 +221,7 @@ export function OpenAlertsTable({
               </td>
               <td className={td}>{a.state === 'raised' ? 'Not acknowledged' : 'Acknowledged'}</td>
               <td className={tdNum}>
-                {formatValue(a.lastValue)} / <Value value={a.limitValue} unit={a.unit} />
+                {formatNumber(a.lastValue)} / <Value value={a.limitValue} unit={a.unit} />
               </td>
               <td className={tdNum}>
                 {a.ageDays} d
@@ -244,7 +240,7 @@ export function OpenAlertsTable({
                       alertId: a.alertId,
                       bandKey: a.bandKey,
                       title: `${a.machineName}: ${a.level} on ${a.bandName} at ${a.pointTag}`,
-                      context: `${a.pointTag} · ${a.bandName}: ${a.level}, ${formatValue(a.lastValue)} against ${formatValue(a.limitValue)} ${unitLabel(a.unit)}, open ${a.ageDays} days`,
+                      context: `${a.pointTag} · ${a.bandName}: ${a.level}, ${formatNumber(a.lastValue)} against ${formatNumber(a.limitValue)} ${unitText(a.unit)}, open ${a.ageDays} days`,
                     }))
                 }
               />

@@ -1,38 +1,23 @@
-/** Formatting for the review's tables: values with units, signed changes, UTC days. */
+/**
+ * Formatting for the review's tables: signed changes, percentages, UTC days. Values and units
+ * follow the app's one number rule (`@turnstone/contracts/number-format`).
+ */
+import { formatNumber } from '@turnstone/contracts/number-format';
 
-const units: Record<string, string> = { um: 'µm', 'mm/s': 'mm/s', g: 'g' };
+const oneDecimal = new Intl.NumberFormat('en-GB', {
+  minimumFractionDigits: 1,
+  maximumFractionDigits: 1,
+});
 
-/** The band unit as people write it (µm, not um). */
-export function unitLabel(unit: string): string {
-  return units[unit] ?? unit;
-}
-
-const fixed = [0, 1, 2, 3].map(
-  (digits) =>
-    new Intl.NumberFormat('en-GB', {
-      minimumFractionDigits: digits,
-      maximumFractionDigits: digits,
-    }),
-);
-
-const small = new Intl.NumberFormat('en-GB', { maximumSignificantDigits: 3 });
-
-/** Three significant figures or so, enough for a band value read off a spectrum. */
-export function formatValue(value: number): string {
-  const abs = Math.abs(value);
-  if (abs > 0 && abs < 0.1) return small.format(value);
-  const digits = abs >= 100 ? 0 : abs >= 10 ? 1 : abs >= 1 ? 2 : 3;
-  return fixed[digits]!.format(value);
-}
-
+/** "+0.350", "−1.20": a change by the one number rule with its sign. */
 export function formatSigned(value: number): string {
-  return `${value > 0 ? '+' : value < 0 ? '−' : ''}${formatValue(Math.abs(value))}`;
+  return `${value > 0 ? '+' : value < 0 ? '−' : ''}${formatNumber(Math.abs(value))}`;
 }
 
 /** "+30.4 %"; "new" when last week's mean was zero. */
 export function formatPercent(value: number | null): string {
   if (value === null) return 'new';
-  return `${value > 0 ? '+' : value < 0 ? '−' : ''}${fixed[1]!.format(Math.abs(value))} %`;
+  return `${value > 0 ? '+' : value < 0 ? '−' : ''}${oneDecimal.format(Math.abs(value))} %`;
 }
 
 const dayFormat = new Intl.DateTimeFormat('en-GB', {
