@@ -33,6 +33,7 @@ export const paths = {
     },
     uploads: { path: '/uploads', getHref: () => '/uploads' },
     users: { path: '/users', getHref: () => '/users' },
+    integrations: { path: '/integrations', getHref: () => '/integrations' },
     mailbox: { path: '/mailbox', getHref: () => '/mailbox' },
     account: { path: '/account', getHref: () => '/account' },
     fleet: {
