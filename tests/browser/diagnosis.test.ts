@@ -63,7 +63,7 @@ describe('diagnosis hints and the 1× vector in a real browser', () => {
     await signInAs(page, srv.url, 'planner');
     await page.goto(`${srv.url}/points/${pointId}`);
     await page.getByRole('tab', { name: 'Spectrum' }).click();
-    await chart(page, /^Acceleration spectrum/);
+    await chart(page, /^Velocity spectrum/);
     const hints = page.getByRole('region', { name: 'Diagnosis hints' });
     await hints.getByText(/hints, not verdicts/).waitFor();
     const unbalance = hints.getByRole('button', { name: /^Unbalance/ });
