@@ -105,8 +105,8 @@ async function pointScreens(page: Page, role: string) {
   await check(page, `${role} point spectrum`);
   await page.getByRole('radio', { name: 'Orders' }).click();
   await check(page, `${role} point spectrum orders`);
-  await page.getByRole('radio', { name: /^Velocity/ }).click();
-  await check(page, `${role} point spectrum velocity`);
+  await page.getByRole('radio', { name: /^Acceleration/ }).click();
+  await check(page, `${role} point spectrum acceleration`);
   await page.getByRole('tab', { name: 'Waveform' }).click();
   await check(page, `${role} point waveform`);
   // Zoomed in by its keys, with the values table open.
