@@ -1912,6 +1912,7 @@ export interface operations {
                             keyPrefix: string;
                             revokedAt: string | null;
                             lastSeenAt: string | null;
+                            postsLastHour: number;
                             createdAt: string;
                         }[];
                     };
@@ -2057,6 +2058,7 @@ export interface operations {
                         keyPrefix: string;
                         revokedAt: string | null;
                         lastSeenAt: string | null;
+                        postsLastHour: number;
                         createdAt: string;
                     };
                 };
