@@ -1,9 +1,15 @@
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
+import {
+  launchBrowser,
+  newPage,
+  screenshot,
+  signInAs,
+  chartCanvas as canvasIn,
+} from '../support/browser.ts';
 import { snapshotBody } from '../support/signals.ts';
 
 let srv: TestServer;
@@ -58,13 +64,6 @@ afterAll(async () => {
   await browser?.close();
   await srv?.stop();
 });
-
-async function canvasIn(page: Page, label: RegExp) {
-  const chart = page.getByRole('img', { name: label });
-  await chart.waitFor();
-  await chart.locator('canvas').first().waitFor();
-  return chart;
-}
 
 describe('point analysis views in a real browser', () => {
   it('the machine page lists its points with values, zone and small trends', async () => {

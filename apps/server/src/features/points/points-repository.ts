@@ -1,4 +1,4 @@
-import { readStoredSummary, type StoredSummary } from '../analysis/stored-summary.ts';
+import { readStoredSummary, type StoredSummary } from './stored-summary.ts';
 import { and, asc, desc, eq, gte, inArray, isNull, lte, ne, or, sql } from 'drizzle-orm';
 import type { BandState } from '@turnstone/condition';
 import type { Db, Tx } from '@turnstone/db/client';

@@ -28,8 +28,8 @@ import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { loadLimitSet } from '../limits/limit-set-repository.ts';
 import { pointStatus, QUALITY_MARK_MS, worst } from '../fleet/fleet-service.ts';
 import * as repo from './points-repository.ts';
-import { readStoredSummary } from '../analysis/stored-summary.ts';
-import { machineComponentsOf } from '../analysis/diagnosis-step.ts';
+import { readStoredSummary } from './stored-summary.ts';
+import { machineComponentsOf } from './machine-components.ts';
 
 /** Default trend period when none is given (the trend contract says 90 days). */
 export const DEFAULT_TREND_DAYS = 90;
