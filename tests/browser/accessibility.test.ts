@@ -222,6 +222,7 @@ describe('axe-core on every screen of every role (WCAG 2.0/2.1 A and AA)', () =>
     await page.keyboard.press('Escape');
     await visit(page, '/audit', 'admin audit');
     await visit(page, '/users', 'admin users');
+    await visit(page, '/integrations', 'admin integrations');
     await visit(page, '/mailbox', 'admin mailbox');
     await visit(page, '/account', 'admin account');
     await pointScreens(page, 'admin');

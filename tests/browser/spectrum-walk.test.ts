@@ -3,7 +3,7 @@
  * click, opening on the band's measure and span; a typed range; the harmonic cursor set by a
  * click without losing the zoom; the sideband cursor; cursors A/B; the dB scale; compare with
  * the change per line and a hover box holding both traces; a capture's quality where its
- * numbers are read; and the point page at tablet width (820 px).
+ * numbers are read; the waterfall's hover readout; and the point page at tablet width (820 px).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Locator, Page } from 'playwright-core';
@@ -226,6 +226,27 @@ describe('from an alert to the spectrum of its band', () => {
     await page.getByLabel('Snapshot', { exact: true }).selectOption(String(unusableId));
     await page.getByText(/is unusable: read this spectrum with care/).waitFor();
     await tallShot(page, 'walk-7-unusable-capture');
+
+    // Last step: the waterfall's hover readout (date, frequency, order, amplitude).
+    await page.getByRole('tab', { name: 'Waterfall' }).click();
+    const fall = page.getByRole('img', { name: /^Waterfall of the last/ });
+    await fall.locator('canvas').first().waitFor();
+    await page.getByRole('combobox', { name: 'Spectrum' }).selectOption('velocity');
+    await page.getByText(/^Every trace has the same amplitude scale/).waitFor();
+    await fall.scrollIntoViewIfNeeded();
+    const fbox = (await fall.boundingBox())!;
+    const readout = page.getByTestId('waterfall-readout');
+    const seen: string[] = [];
+    // The plot lies between the grid's margins (64 px left, 112 px right).
+    for (let x = fbox.x + 66; x < fbox.x + fbox.width - 114; x += 8) {
+      await page.mouse.move(x, fbox.y + fbox.height - 72);
+      seen.push((await readout.textContent()) ?? '');
+    }
+    expect(
+      seen.some((t) => /^Taken .* Hz .*mm\/s/.test(t)),
+      seen.join('\n'),
+    ).toBe(true);
+    await screenshot(page, 'walk-8-waterfall-hover');
     await page.context().close();
   });
 
@@ -242,7 +263,7 @@ describe('from an alert to the spectrum of its band', () => {
     expect(widths.doc).toBeLessThanOrEqual(widths.view);
     const box = (await chart.boundingBox())!;
     expect(box.width).toBeGreaterThan(500);
-    await tallShot(page, 'walk-8-tablet-spectrum');
+    await tallShot(page, 'walk-9-tablet-spectrum');
     await page.context().close();
   });
 });
