@@ -1,4 +1,6 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
+import { reviewInUnits } from '@turnstone/contracts/review-units';
+import { useUnits } from '../../../features/account/api/use-units.ts';
 import { useSearchParams } from 'react-router-dom';
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { Card } from '../../../components/ui/card.tsx';
@@ -55,7 +57,12 @@ export function ReviewRoute() {
         setDraft(d);
       }
     : undefined;
-  const data = review.data;
+  const units = useUnits();
+  // Values in the user's unit system (in/s, mil for imperial), as the ZIP export gives them.
+  const data = useMemo(
+    () => review.data && reviewInUnits(review.data, units.system),
+    [review.data, units.system],
+  );
 
   return (
     <div className="review-page flex flex-col gap-4 p-4 sm:px-6 sm:py-5">
