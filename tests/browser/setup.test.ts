@@ -31,6 +31,11 @@ describe('admin setup screens in a real browser', () => {
     await dialog.getByRole('button', { name: 'Copy key' }).waitFor();
     const key = await dialog.getByLabel('API key').inputValue();
     expect(key).toMatch(/^tsg_[0-9a-f]{12}_[A-Za-z0-9_-]{32}$/);
+    // Where to post and an example request with this very key.
+    await dialog.getByText(`${srv.url}/api/ingest/v1/snapshots`, { exact: true }).waitFor();
+    expect(await dialog.getByLabel('Example request').textContent()).toContain(
+      `Authorization: Bearer ${key}`,
+    );
     await screenshot(page, 'gateways-key-once');
     await dialog.getByRole('button', { name: 'I have stored the key' }).click();
     await dialog.waitFor({ state: 'hidden' });

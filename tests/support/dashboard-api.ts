@@ -852,7 +852,7 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
-    "/review.csv": {
+    "/review.zip": {
         parameters: {
             query?: never;
             header?: never;
@@ -860,10 +860,10 @@ export interface paths {
             cookie?: never;
         };
         /**
-         * Weekly review as CSV
+         * Weekly review as a ZIP of CSV files, one per table
          * @description Roles: planner, engineer, admin.
          */
-        get: operations["getReviewCsv"];
+        get: operations["getReviewZip"];
         put?: never;
         post?: never;
         delete?: never;
@@ -914,6 +914,26 @@ export interface paths {
          * @description Roles: planner, engineer.
          */
         patch: operations["patchFindingsById"];
+        trace?: never;
+    };
+    "/quality-notices/review": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Mark a point's quality notices reviewed (by the caller, now)
+         * @description Roles: planner, engineer.
+         */
+        post: operations["postQualityNoticesReview"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
         trace?: never;
     };
     "/users": {
@@ -1208,6 +1228,30 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/account/preferences": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * My display preferences (unit system)
+         * @description Roles: admin, engineer, planner, operator (every role).
+         */
+        get: operations["getAccountPreferences"];
+        /**
+         * Change my display preferences (unit system)
+         * @description Roles: admin, engineer, planner, operator (every role).
+         */
+        put: operations["putAccountPreferences"];
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/account/subscriptions": {
         parameters: {
             query?: never;
@@ -1383,6 +1427,8 @@ export interface operations {
                             /** @enum {string} */
                             role: "admin" | "engineer" | "planner" | "operator";
                             siteIds: number[];
+                            /** @enum {string} */
+                            unitSystem: "metric" | "imperial";
                         };
                     };
                 };
@@ -1502,6 +1548,8 @@ export interface operations {
                             /** @enum {string} */
                             role: "admin" | "engineer" | "planner" | "operator";
                             siteIds: number[];
+                            /** @enum {string} */
+                            unitSystem: "metric" | "imperial";
                         } | null;
                     };
                 };
@@ -1548,6 +1596,8 @@ export interface operations {
                         /** @enum {string} */
                         role: "admin" | "engineer" | "planner" | "operator";
                         siteIds: number[];
+                        /** @enum {string} */
+                        unitSystem: "metric" | "imperial";
                     };
                 };
             };
@@ -1862,6 +1912,7 @@ export interface operations {
                             keyPrefix: string;
                             revokedAt: string | null;
                             lastSeenAt: string | null;
+                            postsLastHour: number;
                             createdAt: string;
                         }[];
                     };
@@ -2007,6 +2058,7 @@ export interface operations {
                         keyPrefix: string;
                         revokedAt: string | null;
                         lastSeenAt: string | null;
+                        postsLastHour: number;
                         createdAt: string;
                     };
                 };
@@ -4885,6 +4937,13 @@ export interface operations {
                                     revolutions: number;
                                 }[] | null;
                                 spectraThinned?: boolean;
+                                findings?: {
+                                    code: string;
+                                    /** @enum {string} */
+                                    severity: "suspect" | "unusable";
+                                    message: string;
+                                    value: number;
+                                }[];
                             } | null;
                             recentVelocity: {
                                 t: string;
@@ -5234,6 +5293,13 @@ export interface operations {
                                 revolutions: number;
                             }[] | null;
                             spectraThinned?: boolean;
+                            findings?: {
+                                code: string;
+                                /** @enum {string} */
+                                severity: "suspect" | "unusable";
+                                message: string;
+                                value: number;
+                            }[];
                         } | null;
                         bands: {
                             key: string;
@@ -5246,6 +5312,30 @@ export interface operations {
                             dangerLevel: number;
                             /** @enum {string} */
                             levelSource: "fixed" | "statistical";
+                            range?: {
+                                /** @constant */
+                                kind: "overall";
+                                fromHz: number | null;
+                                toHz: number | null;
+                            } | {
+                                /** @constant */
+                                kind: "hz";
+                                fromHz: number;
+                                toHz: number;
+                            } | {
+                                /** @constant */
+                                kind: "order";
+                                fromOrder: number;
+                                toOrder: number;
+                            } | {
+                                /** @constant */
+                                kind: "fault";
+                                fault: string;
+                                halfWidth: number;
+                                /** @enum {string} */
+                                halfWidthUnit: "hz" | "order" | "percent";
+                                harmonics: number;
+                            };
                         }[];
                     };
                 };
@@ -5706,6 +5796,13 @@ export interface operations {
                                 revolutions: number;
                             }[] | null;
                             spectraThinned?: boolean;
+                            findings?: {
+                                code: string;
+                                /** @enum {string} */
+                                severity: "suspect" | "unusable";
+                                message: string;
+                                value: number;
+                            }[];
                         }[];
                     };
                 };
@@ -7098,6 +7195,12 @@ export interface operations {
                             action: string;
                             entity: string;
                             entityId: string;
+                            entityLabel: string | null;
+                            changes: {
+                                field: string;
+                                before: string | null;
+                                after: string | null;
+                            }[];
                             before: unknown;
                             after: unknown;
                             reason: string | null;
@@ -7159,6 +7262,8 @@ export interface operations {
                 weekEnding?: string;
                 weeksAhead?: number;
                 siteId?: number;
+                minChangePercent?: number;
+                minValues?: number;
             };
             header?: never;
             path?: never;
@@ -7184,14 +7289,31 @@ export interface operations {
                                 to: string;
                             };
                             weeksAhead: number;
-                            /** @constant */
-                            timeZone: "UTC";
+                            timeZone: string;
                             generatedAt: string;
+                        };
+                        siteWeeks: {
+                            siteId: number;
+                            siteCode: string;
+                            timeZone: string;
+                            thisWeek: {
+                                from: string;
+                                to: string;
+                            };
+                            lastWeek: {
+                                from: string;
+                                to: string;
+                            };
+                        }[];
+                        noise: {
+                            minChangePercent: number;
+                            minValues: number;
                         };
                         sites: {
                             id: number;
                             code: string;
                             name: string;
+                            timeZone: string;
                         }[];
                         summary: {
                             movers: number;
@@ -7202,7 +7324,18 @@ export interface operations {
                             qualityNotices: number;
                             findingsDue: number;
                             findingsOverdue: number;
+                            findingsCreated: number;
+                            moversBelowThreshold: number;
                         };
+                        machineGroups: {
+                            machineId: number;
+                            machineName: string;
+                            siteCode: string;
+                            /** @enum {string} */
+                            criticality: "high" | "medium" | "low";
+                            movers: number;
+                            worstChangePercent: number | null;
+                        }[];
                         movers: {
                             pointId: number;
                             pointTag: string;
@@ -7320,6 +7453,33 @@ export interface operations {
                             updatedAt: string;
                             overdue: boolean;
                         }[];
+                        findingsCreated: {
+                            id: number;
+                            pointId: number;
+                            pointTag: string;
+                            pointName: string;
+                            machineName: string;
+                            siteId: number;
+                            siteCode: string;
+                            alertId: number | null;
+                            bandKey: string | null;
+                            title: string;
+                            workOrderRef: string | null;
+                            dueDate: string | null;
+                            /** @enum {string} */
+                            state: "open" | "planned" | "done";
+                            /** @enum {string} */
+                            priority: "high" | "medium" | "low";
+                            owner: string | null;
+                            plannedDowntimeHours: number | null;
+                            note: string | null;
+                            createdBy: {
+                                id: number;
+                                name: string;
+                            };
+                            createdAt: string;
+                            updatedAt: string;
+                        }[];
                     };
                 };
             };
@@ -7370,12 +7530,14 @@ export interface operations {
             };
         };
     };
-    getReviewCsv: {
+    getReviewZip: {
         parameters: {
             query?: {
                 weekEnding?: string;
                 weeksAhead?: number;
                 siteId?: number;
+                minChangePercent?: number;
+                minValues?: number;
             };
             header?: never;
             path?: never;
@@ -7383,13 +7545,13 @@ export interface operations {
         };
         requestBody?: never;
         responses: {
-            /** @description A file (text/csv). */
+            /** @description A file (application/zip). */
             200: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "text/csv": string;
+                    "application/zip": string;
                 };
             };
             /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
@@ -7759,6 +7921,86 @@ export interface operations {
             };
             /** @description `not_found`. */
             404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
+            503: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Any other error, in the same shape. */
+            default: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    postQualityNoticesReview: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": {
+                    pointId: number;
+                    ids?: number[];
+                };
+            };
+        };
+        responses: {
+            /** @description Success. */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        pointId: number;
+                        reviewed: number;
+                        reviewedBy: {
+                            id: number;
+                            name: string;
+                        };
+                        reviewedAt: string;
+                    };
+                };
+            };
+            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
+            403: {
                 headers: {
                     [name: string]: unknown;
                 };
@@ -9153,6 +9395,140 @@ export interface operations {
             };
         };
     };
+    getAccountPreferences: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Success. */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @enum {string} */
+                        unitSystem: "metric" | "imperial";
+                    };
+                };
+            };
+            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `forbidden`: the role may not do this, or the site is not yours. */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
+            503: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Any other error, in the same shape. */
+            default: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    putAccountPreferences: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": {
+                    /** @enum {string} */
+                    unitSystem: "metric" | "imperial";
+                };
+            };
+        };
+        responses: {
+            /** @description Success. */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @enum {string} */
+                        unitSystem: "metric" | "imperial";
+                    };
+                };
+            };
+            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
+            503: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Any other error, in the same shape. */
+            default: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
     getAccountSubscriptions: {
         parameters: {
             query?: never;
@@ -9334,7 +9710,9 @@ export interface operations {
     };
     getMailbox: {
         parameters: {
-            query?: never;
+            query?: {
+                search?: string;
+            };
             header?: never;
             path?: never;
             cookie?: never;
@@ -9355,6 +9733,15 @@ export interface operations {
                             receivedAt: string;
                         }[];
                     };
+                };
+            };
+            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
                 };
             };
             /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */

@@ -7,6 +7,7 @@ import type { Request, Response, NextFunction, Router } from 'express';
 import type { z } from 'zod';
 import type { Role } from '@turnstone/contracts/roles';
 import { forbidden, unauthenticated } from './app-error.ts';
+import { refuseAnyQuery } from './query.ts';
 
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 export const ALL_ROLES: readonly Role[] = ['admin', 'engineer', 'planner', 'operator'];
@@ -72,6 +73,9 @@ export function mountRoutes(router: Router, specs: RouteSpec[], authenticate: Au
       next();
     };
     router[spec.method](spec.path, guard, async (req: Request, res: Response) => {
+      // A route without a query schema takes no query parameters: one sent is a 400, so a
+      // filter a client believes in (`?siteId=2` on a route without it) is never ignored.
+      if (!spec.schemas?.query) refuseAnyQuery(req.query);
       await spec.handler(req, res);
     });
   }

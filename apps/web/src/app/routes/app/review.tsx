@@ -17,9 +17,11 @@ import {
 import { ReviewToolbar } from '../../../features/review/components/review-toolbar.tsx';
 import { ReviewSummary } from '../../../features/review/components/review-summary.tsx';
 import { ReviewPrintHeader } from '../../../features/review/components/review-print-header.tsx';
+import { MoversTable } from '../../../features/review/components/review-movers-table.tsx';
+import { ReviewPrintSummary } from '../../../features/review/components/review-print-summary.tsx';
+import { useReviewNotices } from '../../../features/review/api/review-notices.ts';
 import {
   ForecastsTable,
-  MoversTable,
   OpenAlertsTable,
   QualityNoticesTable,
 } from '../../../features/review/components/review-tables.tsx';
@@ -63,6 +65,25 @@ export function ReviewRoute() {
     () => review.data && reviewInUnits(review.data, units.system),
     [review.data, units.system],
   );
+  const markReviewed = useReviewNotices();
+  const [reviewedMsg, setReviewedMsg] = useState<string | null>(null);
+  const onMarkReviewed = canEdit
+    ? (pointId: number, pointTag: string) =>
+        markReviewed.mutateAsync({ pointId }).then(
+          (r) =>
+            setReviewedMsg(
+              `${r.reviewed} quality ${r.reviewed === 1 ? 'notice' : 'notices'} of ${pointTag} marked reviewed by ${r.reviewedBy.name}.`,
+            ),
+          (e: unknown) =>
+            setReviewedMsg(e instanceof Error ? e.message : 'Could not mark reviewed'),
+        )
+    : undefined;
+  const zones = Object.fromEntries((data?.siteWeeks ?? []).map((w) => [w.siteId, w.timeZone]));
+  const zoneText = data
+    ? data.period.timeZone === 'per site'
+      ? `each site’s own days: ${data.siteWeeks.map((w) => `${w.siteCode} ${w.timeZone}`).join(', ')}`
+      : `days in ${data.period.timeZone}`
+    : 'days in each site’s time zone';
 
   return (
     <div className="review-page flex flex-col gap-4 p-4 sm:px-6 sm:py-5">
@@ -71,7 +92,7 @@ export function ReviewRoute() {
       <div data-print="hide">
         <PageHeader
           title="Weekly review"
-          description={`This week against last, week ending ${formatDay(params.weekEnding)} (days in UTC).`}
+          description={`This week against last, week ending ${formatDay(params.weekEnding)} (${zoneText}).`}
           actions={
             <>
               <a
@@ -93,7 +114,7 @@ export function ReviewRoute() {
           data-print="hide"
           className="rounded-md border border-accent/30 bg-accent-soft px-3 py-2 text-sm text-ink"
         >
-          Finding “{created}” created; it is listed under Findings below.
+          Finding “{created}” created; it is listed under Findings.
         </p>
       )}
       {review.isPending ? (
@@ -116,28 +137,40 @@ export function ReviewRoute() {
           aria-busy={review.isPlaceholderData || undefined}
         >
           <ReviewSummary review={data} />
-          <MoversTable
-            rows={data.movers}
-            total={data.summary.movers}
-            onCreateFinding={onCreateFinding}
-          />
-          <ForecastsTable
-            rows={data.forecasts}
-            total={data.summary.forecasts}
-            weeksAhead={data.period.weeksAhead}
-            onCreateFinding={onCreateFinding}
-          />
-          <OpenAlertsTable
-            rows={data.openAlerts}
-            total={data.summary.openAlerts}
-            onCreateFinding={onCreateFinding}
-          />
-          <QualityNoticesTable
-            rows={data.qualityNotices}
-            total={data.summary.qualityNotices}
-            onCreateFinding={onCreateFinding}
-          />
-          <FindingsList siteId={params.siteId} canEdit={canEdit} />
+          <ReviewPrintSummary review={data} />
+          <div className="review-details flex flex-col gap-4">
+            <FindingsList siteId={params.siteId} canEdit={canEdit} />
+            <MoversTable review={data} onCreateFinding={onCreateFinding} />
+            <ForecastsTable
+              rows={data.forecasts}
+              total={data.summary.forecasts}
+              weeksAhead={data.period.weeksAhead}
+              onCreateFinding={onCreateFinding}
+              zones={zones}
+            />
+            <OpenAlertsTable
+              rows={data.openAlerts}
+              total={data.summary.openAlerts}
+              onCreateFinding={onCreateFinding}
+              zones={zones}
+            />
+            {reviewedMsg && (
+              <p
+                role="status"
+                data-print="hide"
+                className="rounded-md border border-accent/30 bg-accent-soft px-3 py-2 text-sm text-ink"
+              >
+                {reviewedMsg}
+              </p>
+            )}
+            <QualityNoticesTable
+              rows={data.qualityNotices}
+              total={data.summary.qualityNotices}
+              onCreateFinding={onCreateFinding}
+              zones={zones}
+              onMarkReviewed={onMarkReviewed}
+            />
+          </div>
         </div>
       ) : null}
       <CreateFindingDialog
