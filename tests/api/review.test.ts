@@ -60,12 +60,7 @@ async function pointId(tag: string) {
 
 beforeAll(async () => {
   srv = await startTestServer();
-  const admin = await srv.signIn('admin');
-  key = (
-    await (
-      await srv.call('POST', '/api/v1/gateways', { cookie: admin, body: { siteId: 1, name: 'gw' } })
-    ).json()
-  ).apiKey;
+  key = await srv.gatewayKey();
   for (let d = 0; d <= 13; d++) await ingest(RISING, `rise-${d}`, d, peakGOf(rising(d), SHAFT_HZ));
   for (const d of [12, 13]) await ingest(ALERTING, `alert-${d}`, d, peakGOf(3.0, SHAFT_HZ));
   await ingest(CLIPPED, 'clip-10', 10, 0.8); // 0.8 g peak into a 0.5 g range: clipped

@@ -70,3 +70,11 @@ export function withServerAndBrowser(
     await srv?.stop();
   });
 }
+
+/** The chart with this accessible name, once its canvas is drawn. */
+export async function chartCanvas(page: Page, label: RegExp) {
+  const chart = page.getByRole('img', { name: label });
+  await chart.waitFor();
+  await chart.locator('canvas').first().waitFor();
+  return chart;
+}

@@ -1912,6 +1912,7 @@ export interface operations {
                             keyPrefix: string;
                             revokedAt: string | null;
                             lastSeenAt: string | null;
+                            postsLastHour: number;
                             createdAt: string;
                         }[];
                     };
@@ -2057,6 +2058,7 @@ export interface operations {
                         keyPrefix: string;
                         revokedAt: string | null;
                         lastSeenAt: string | null;
+                        postsLastHour: number;
                         createdAt: string;
                     };
                 };
@@ -4935,6 +4937,13 @@ export interface operations {
                                     revolutions: number;
                                 }[] | null;
                                 spectraThinned?: boolean;
+                                findings?: {
+                                    code: string;
+                                    /** @enum {string} */
+                                    severity: "suspect" | "unusable";
+                                    message: string;
+                                    value: number;
+                                }[];
                             } | null;
                             recentVelocity: {
                                 t: string;
@@ -5284,6 +5293,13 @@ export interface operations {
                                 revolutions: number;
                             }[] | null;
                             spectraThinned?: boolean;
+                            findings?: {
+                                code: string;
+                                /** @enum {string} */
+                                severity: "suspect" | "unusable";
+                                message: string;
+                                value: number;
+                            }[];
                         } | null;
                         bands: {
                             key: string;
@@ -5296,6 +5312,30 @@ export interface operations {
                             dangerLevel: number;
                             /** @enum {string} */
                             levelSource: "fixed" | "statistical";
+                            range?: {
+                                /** @constant */
+                                kind: "overall";
+                                fromHz: number | null;
+                                toHz: number | null;
+                            } | {
+                                /** @constant */
+                                kind: "hz";
+                                fromHz: number;
+                                toHz: number;
+                            } | {
+                                /** @constant */
+                                kind: "order";
+                                fromOrder: number;
+                                toOrder: number;
+                            } | {
+                                /** @constant */
+                                kind: "fault";
+                                fault: string;
+                                halfWidth: number;
+                                /** @enum {string} */
+                                halfWidthUnit: "hz" | "order" | "percent";
+                                harmonics: number;
+                            };
                         }[];
                     };
                 };
@@ -5756,6 +5796,13 @@ export interface operations {
                                 revolutions: number;
                             }[] | null;
                             spectraThinned?: boolean;
+                            findings?: {
+                                code: string;
+                                /** @enum {string} */
+                                severity: "suspect" | "unusable";
+                                message: string;
+                                value: number;
+                            }[];
                         }[];
                     };
                 };
@@ -9663,7 +9710,9 @@ export interface operations {
     };
     getMailbox: {
         parameters: {
-            query?: never;
+            query?: {
+                search?: string;
+            };
             header?: never;
             path?: never;
             cookie?: never;
@@ -9684,6 +9733,15 @@ export interface operations {
                             receivedAt: string;
                         }[];
                     };
+                };
+            };
+            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
                 };
             };
             /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */

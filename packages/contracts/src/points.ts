@@ -161,6 +161,8 @@ export const analysisSummarySchema = z.object({
   shaftVectors: z.array(shaftVectorSchema).nullable(),
   /** True when the retention policy cleared this capture's spectra (its values stay). */
   spectraThinned: z.boolean().optional(),
+  /** The quality checks' findings behind a suspect or unusable verdict (why). */
+  findings: z.array(qualityFindingSchema).optional(),
 });
 export type AnalysisSummary = z.infer<typeof analysisSummarySchema>;
 
@@ -235,6 +237,29 @@ export const pointBandSchema = z.object({
   alertLevel: z.number(),
   dangerLevel: z.number(),
   levelSource: z.enum(['fixed', 'statistical']),
+  /**
+   * Where in the spectrum the band sits, as defined (the spectrum view opens on it): overall
+   * over a Hz span (null edges: the analysis' own span), a Hz or order range, or a window of
+   * ± halfWidth around a fault frequency and its first `harmonics` harmonics.
+   */
+  range: z
+    .discriminatedUnion('kind', [
+      z.object({
+        kind: z.literal('overall'),
+        fromHz: z.number().nullable(),
+        toHz: z.number().nullable(),
+      }),
+      z.object({ kind: z.literal('hz'), fromHz: z.number(), toHz: z.number() }),
+      z.object({ kind: z.literal('order'), fromOrder: z.number(), toOrder: z.number() }),
+      z.object({
+        kind: z.literal('fault'),
+        fault: z.string(),
+        halfWidth: z.number(),
+        halfWidthUnit: z.enum(['hz', 'order', 'percent']),
+        harmonics: z.number().int(),
+      }),
+    ])
+    .optional(),
 });
 export type PointBand = z.infer<typeof pointBandSchema>;
 

@@ -4,7 +4,7 @@ import { createGatewaySchema, type CreateGatewayInput } from '@turnstone/contrac
 import { AppError, notFound } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
-import { newGatewayKey } from './gateway-keys.ts';
+import { newGatewayKey } from '../../lib/gateway-keys.ts';
 import * as repo from './gateways-repository.ts';
 import { forgetGatewayKeys } from '../ingest/ingest-service.ts';
 

@@ -21,7 +21,7 @@ import { checkFiniteFloat32, encodeSamples } from '@turnstone/dsp/sample-codec';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { zodDetails } from '../../lib/error-middleware.ts';
-import { keyMatches, prefixOf } from '../gateways/gateway-keys.ts';
+import { keyMatches, prefixOf } from '../../lib/gateway-keys.ts';
 import * as repo from './ingest-repository.ts';
 import { samplesForStorage } from './sample-storage.ts';
 

@@ -3,7 +3,7 @@
  * alert mail, who is subscribed, the digest's planners, the demo's subscriptions and the
  * messages the local SMTP fake received (read by the Mailbox screen).
  */
-import { asc, desc, eq, inArray, sql } from 'drizzle-orm';
+import { asc, desc, eq, inArray, like, or, sql } from 'drizzle-orm';
 import type { Db, Tx } from '@turnstone/db/client';
 import { mailMessages, sites, subscriptions, users } from '@turnstone/db/schema';
 
@@ -111,7 +111,9 @@ export async function storeReceivedMail(
 }
 
 /** Received messages, newest first. */
-export function listReceivedMail(db: Db, limit: number) {
+/** Newest first; `search` narrows to messages whose recipient or subject contain it. */
+export function listReceivedMail(db: Db, limit: number, search?: string) {
+  const pattern = search ? `%${search.replace(/[\\%_]/g, (c) => `\\${c}`)}%` : null;
   return db
     .select({
       id: mailMessages.id,
@@ -120,6 +122,11 @@ export function listReceivedMail(db: Db, limit: number) {
       receivedAt: mailMessages.receivedAt,
     })
     .from(mailMessages)
+    .where(
+      pattern
+        ? or(like(mailMessages.mailTo, pattern), like(mailMessages.subject, pattern))
+        : undefined,
+    )
     .orderBy(desc(mailMessages.receivedAt), desc(mailMessages.id))
     .limit(limit);
 }

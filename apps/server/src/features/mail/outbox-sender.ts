@@ -21,11 +21,11 @@
 import { randomUUID } from 'node:crypto';
 import { hostname } from 'node:os';
 import nodemailer, { type SendMailOptions, type Transporter } from 'nodemailer';
-import cron, { type ScheduledTask } from 'node-cron';
 import type { AppContext } from '../../lib/context.ts';
-import { isDbUnavailable } from '@turnstone/db/errors';
+import { deliveryLoop, inClaimedRounds } from '../../lib/delivery-loop.ts';
 import * as repo from './outbox-repository.ts';
 import { renderHourlySummary } from './alert-mail.ts';
+import { outboxRetryDelayS } from '../../lib/retry-delay.ts';
 
 export interface OutboxSenderOptions {
   smtpUrl: string;
@@ -76,8 +76,7 @@ export function messageOf(
   };
 }
 
-export const outboxRetryDelayS = (attempts: number) =>
-  Math.min(3600, 30 * 2 ** Math.max(0, attempts - 1));
+export { outboxRetryDelayS };
 
 // Errors where nodemailer never got as far as handing over the message.
 const NOT_SENT_CODES = new Set(['ECONNECTION', 'EDNS', 'EAUTH', 'EENVELOPE', 'EMESSAGE', 'ETLS']);
@@ -95,8 +94,6 @@ export function createOutboxSender(ctx: AppContext, options: OutboxSenderOptions
   const transport: Transporter = nodemailer.createTransport(options.smtpUrl, {
     from: ctx.config.MAIL_FROM,
   });
-  const tasks: ScheduledTask[] = [];
-  let running: Promise<SendResult[]> | null = null;
 
   async function sendOne(row: repo.OutboxRow): Promise<SendResult['result']> {
     const messageId = messageIdOf(row);
@@ -139,50 +136,20 @@ export function createOutboxSender(ctx: AppContext, options: OutboxSenderOptions
 
   async function drainInner(): Promise<SendResult[]> {
     await repo.foldHourlyRows(ctx.db, renderHourlySummary);
-    const out: SendResult[] = [];
-    for (let round = 0; round < 100; round++) {
-      const rows = await repo.claimOutbox(
-        ctx.db,
-        owner,
-        ctx.config.OUTBOX_LEASE_S,
-        options.batch ?? 10,
-      );
-      if (rows.length === 0) break;
-      for (const row of rows) out.push({ id: row.id, result: await sendOne(row) });
-    }
-    return out;
+    return inClaimedRounds(
+      () => repo.claimOutbox(ctx.db, owner, ctx.config.OUTBOX_LEASE_S, options.batch ?? 10),
+      async (row) => ({ id: row.id, result: await sendOne(row) }),
+    );
   }
-
-  const drain = () => {
-    running ??= drainInner().finally(() => {
-      running = null;
-    });
-    return running;
-  };
 
   return {
     owner,
-    drain,
-    start() {
-      tasks.push(
-        cron.schedule(
-          '*/5 * * * * *',
-          async () => {
-            try {
-              await drain();
-            } catch (err) {
-              if (isDbUnavailable(err)) ctx.log.warn('outbox: database unavailable, will retry');
-              else ctx.log.error('outbox tick failed', { err });
-            }
-          },
-          { noOverlap: true, name: 'outbox' },
-        ),
-      );
-    },
-    async stop() {
-      for (const t of tasks.splice(0)) await t.stop();
-      await running?.catch(() => {});
-      transport.close();
-    },
+    ...deliveryLoop(ctx.log, {
+      name: 'outbox',
+      unavailable: 'outbox: database unavailable, will retry',
+      failed: 'outbox tick failed',
+      drainOnce: drainInner,
+      afterStop: () => transport.close(),
+    }),
   };
 }

@@ -1,4 +1,4 @@
-import { readStoredSummary, type StoredSummary } from '../analysis/stored-summary.ts';
+import { readStoredSummary, type StoredSummary } from './stored-summary.ts';
 import { and, asc, desc, eq, gte, inArray, isNull, lte, ne, or, sql } from 'drizzle-orm';
 import type { BandState } from '@turnstone/condition';
 import type { Db, Tx } from '@turnstone/db/client';
@@ -42,6 +42,8 @@ const summaryColumns = {
   diagnosis: analyses.diagnosis,
   shaftVectors: analyses.shaftVectors,
   spectraThinnedAt: analyses.spectraThinnedAt,
+  /** Why a capture is suspect or unusable (small: a few findings). */
+  qualityFindings: analyses.qualityFindings,
 };
 export type AnalysisSummaryRow = Awaited<ReturnType<typeof listAnalyses>>[number];
 
@@ -356,7 +358,7 @@ export async function snapshotStatusRow(db: Db, snapshotId: number) {
 /** The analysis of a snapshot (summary columns and quality findings), if it has one. */
 export async function analysisOfSnapshot(db: Db, snapshotId: number) {
   const [row] = await db
-    .select({ ...summaryColumns, qualityFindings: analyses.qualityFindings })
+    .select(summaryColumns)
     .from(analyses)
     .where(eq(analyses.snapshotId, snapshotId));
   return row;

@@ -6,7 +6,7 @@
  */
 import { faultFrequencies } from '@turnstone/dsp';
 
-import { levelsInForce } from '@turnstone/condition';
+import { levelsInForce, type BandDefinition } from '@turnstone/condition';
 import type {
   AnalysisSummary,
   CurrentDiagnosis,
@@ -14,6 +14,7 @@ import type {
   ShaftVectorItem,
   QualityFinding,
   MachineDetail,
+  PointBand,
   PointDetail,
 } from '@turnstone/contracts/points';
 
@@ -27,8 +28,8 @@ import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { loadLimitSet } from '../limits/limit-set-repository.ts';
 import { pointStatus, QUALITY_MARK_MS, worst } from '../fleet/fleet-service.ts';
 import * as repo from './points-repository.ts';
-import { readStoredSummary } from '../analysis/stored-summary.ts';
-import { machineComponentsOf } from '../analysis/diagnosis-step.ts';
+import { readStoredSummary } from './stored-summary.ts';
+import { machineComponentsOf } from './machine-components.ts';
 
 /** Default trend period when none is given (the trend contract says 90 days). */
 export const DEFAULT_TREND_DAYS = 90;
@@ -39,6 +40,26 @@ export const SPARK_BAND = 'overall-velocity';
 export const SPARK_POINTS = 50;
 
 const iso = (d: Date) => d.toISOString();
+
+/** Where a band sits in the spectrum, as the point detail states it (see `pointBandSchema.range`). */
+function bandRange(b: BandDefinition): PointBand['range'] {
+  switch (b.kind) {
+    case 'overall':
+      return { kind: 'overall', fromHz: b.fromHz ?? null, toHz: b.toHz ?? null };
+    case 'hz':
+      return { kind: 'hz', fromHz: b.fromHz, toHz: b.toHz };
+    case 'order':
+      return { kind: 'order', fromOrder: b.fromOrder, toOrder: b.toOrder };
+    case 'fault':
+      return {
+        kind: 'fault',
+        fault: b.fault,
+        halfWidth: b.halfWidth,
+        halfWidthUnit: b.halfWidthUnit,
+        harmonics: b.harmonics ?? 1,
+      };
+  }
+}
 
 function summaryOf(r: repo.AnalysisSummaryRow): AnalysisSummary {
   const stored = readStoredSummary(r.summary);
@@ -64,6 +85,7 @@ function summaryOf(r: repo.AnalysisSummaryRow): AnalysisSummary {
     diagnosis: (r.diagnosis as Diagnosis | null) ?? null,
     shaftVectors: (r.shaftVectors as ShaftVectorItem[] | null) ?? null,
     spectraThinned: r.spectraThinnedAt !== null,
+    findings: (r.qualityFindings as QualityFinding[] | null) ?? [],
   };
 }
 
@@ -224,6 +246,7 @@ export async function pointDetail(
         alertLevel: lv.alertLevel,
         dangerLevel: lv.dangerLevel,
         levelSource: lv.source,
+        range: bandRange(b),
       };
     }),
   };
@@ -264,10 +287,11 @@ export async function snapshotStatus(
   if (!s) throw notFound('Snapshot');
   await accessiblePoint(ctx.db, user, s.pointId);
   const a = await repo.analysisOfSnapshot(ctx.db, snapshotId);
+  const summary = a ? summaryOf(a) : null;
   return {
     ...s,
     takenAt: iso(s.takenAt),
     receivedAt: iso(s.receivedAt),
-    analysis: a ? { ...summaryOf(a), findings: a.qualityFindings as QualityFinding[] } : null,
+    analysis: summary ? { ...summary, findings: summary.findings ?? [] } : null,
   };
 }

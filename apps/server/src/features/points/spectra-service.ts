@@ -14,7 +14,7 @@ import { accessiblePoint } from '../places/point-access.ts';
 import { type SessionUser } from '../../lib/session-user.ts';
 
 import * as repo from './points-repository.ts';
-import { readStoredSummary } from '../analysis/stored-summary.ts';
+import { readStoredSummary } from './stored-summary.ts';
 import { accessibleAnalysis } from './points-service.ts';
 
 const iso = (d: Date) => d.toISOString();

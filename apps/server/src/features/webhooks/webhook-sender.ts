@@ -14,10 +14,9 @@
  */
 import { createHmac, randomUUID } from 'node:crypto';
 import { hostname } from 'node:os';
-import cron, { type ScheduledTask } from 'node-cron';
-import { isDbUnavailable } from '@turnstone/db/errors';
 import type { AppContext } from '../../lib/context.ts';
-import { outboxRetryDelayS } from '../mail/outbox-sender.ts';
+import { deliveryLoop, inClaimedRounds } from '../../lib/delivery-loop.ts';
+import { outboxRetryDelayS } from '../../lib/retry-delay.ts';
 import * as repo from './webhooks-repository.ts';
 
 export interface WebhookSender {
@@ -69,8 +68,6 @@ export function createWebhookSender(
 ): WebhookSender {
   const owner = options.owner ?? `hook:${hostname()}:${process.pid}:${randomUUID().slice(0, 8)}`;
   const timeoutMs = options.timeoutMs ?? 10_000;
-  const tasks: ScheduledTask[] = [];
-  let running: Promise<DeliveryResult[]> | null = null;
 
   type Claimed = Awaited<ReturnType<typeof repo.claimDeliveries>>[number];
 
@@ -139,49 +136,19 @@ export function createWebhookSender(
   }
 
   async function drainInner(): Promise<DeliveryResult[]> {
-    const out: DeliveryResult[] = [];
-    for (let round = 0; round < 100; round++) {
-      const rows = await repo.claimDeliveries(
-        ctx.db,
-        owner,
-        ctx.config.OUTBOX_LEASE_S,
-        options.batch ?? 10,
-      );
-      if (rows.length === 0) break;
-      for (const row of rows) out.push({ id: row.delivery.id, result: await sendOne(row) });
-    }
-    return out;
+    return inClaimedRounds(
+      () => repo.claimDeliveries(ctx.db, owner, ctx.config.OUTBOX_LEASE_S, options.batch ?? 10),
+      async (row) => ({ id: row.delivery.id, result: await sendOne(row) }),
+    );
   }
-
-  const drain = () => {
-    running ??= drainInner().finally(() => {
-      running = null;
-    });
-    return running;
-  };
 
   return {
     owner,
-    drain,
-    start() {
-      tasks.push(
-        cron.schedule(
-          '*/5 * * * * *',
-          async () => {
-            try {
-              await drain();
-            } catch (err) {
-              if (isDbUnavailable(err)) ctx.log.warn('webhooks: database unavailable, will retry');
-              else ctx.log.error('webhook tick failed', { err });
-            }
-          },
-          { noOverlap: true, name: 'webhooks' },
-        ),
-      );
-    },
-    async stop() {
-      for (const t of tasks.splice(0)) await t.stop();
-      await running?.catch(() => {});
-    },
+    ...deliveryLoop(ctx.log, {
+      name: 'webhooks',
+      unavailable: 'webhooks: database unavailable, will retry',
+      failed: 'webhook tick failed',
+      drainOnce: drainInner,
+    }),
   };
 }

@@ -127,6 +127,12 @@ export function AlertHistory({
         <Link className="text-accent underline" to={paths.app.point.getHref(a.pointId, a.bandKey)}>
           Trend of {a.bandName}
         </Link>
+        <Link
+          className="text-accent underline"
+          to={paths.app.point.getHref(a.pointId, a.bandKey, 'spectrum')}
+        >
+          Spectrum of {a.bandName}
+        </Link>
       </nav>
       {acknowledge && a.state === 'raised' && (
         <AcknowledgeForm
