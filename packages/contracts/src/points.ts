@@ -179,6 +179,18 @@ export const machinePointSchema = z.object({
   latest: analysisSummarySchema.nullable(),
   /** Last ≈ 50 overall velocity values (mm/s RMS), oldest first. */
   recentVelocity: z.array(z.object({ t: z.string(), v: z.number() })),
+  /**
+   * The band that decides the point's state: the band of its worst open alert (danger before
+   * alert, then the newest), else overall velocity; with its last ≈ 50 values, oldest first.
+   */
+  governing: z.object({
+    key: z.string(),
+    name: z.string(),
+    unit: z.string(),
+    /** The open alert's level on this band; null when no alert is open on the point. */
+    level: z.enum(['alert', 'danger']).nullable(),
+    values: z.array(z.object({ t: z.string(), v: z.number() })),
+  }),
 });
 export type MachinePoint = z.infer<typeof machinePointSchema>;
 
@@ -199,6 +211,8 @@ export const machineDetailSchema = z.object({
   site: z.object({ id: z.number().int(), name: z.string(), code: z.string() }),
   area: z.object({ id: z.number().int(), name: z.string() }),
   status: nodeStatusSchema,
+  /** ISO 20816-3 zone boundaries (mm/s RMS) of the machine's group and foundation. */
+  isoBoundaries: z.object({ ab: z.number(), bc: z.number(), cd: z.number() }).nullable(),
   bearings: z.array(
     z.object({
       id: z.number().int(),

@@ -34,6 +34,10 @@ export interface AlertFilter {
   level?: 'alert' | 'danger';
   siteId?: number;
   pointId?: number;
+  /** Alerts on the points of this machine. */
+  machineId?: number;
+  /** Raised or acknowledged (not cleared). */
+  open?: boolean;
   ids?: number[];
   /** Sites the caller may see; null for every site (admin). */
   siteIds: number[] | null;
@@ -82,6 +86,8 @@ export async function listAlerts(db: Db | Tx, f: AlertFilter) {
   if (f.level) where.push(eq(alerts.level, f.level));
   if (f.siteId) where.push(eq(areas.siteId, f.siteId));
   if (f.pointId) where.push(eq(alerts.pointId, f.pointId));
+  if (f.machineId) where.push(eq(points.machineId, f.machineId));
+  if (f.open) where.push(inArray(alerts.state, ['raised', 'acknowledged']));
   if (f.ids) where.push(inArray(alerts.id, f.ids.length ? f.ids : [0]));
   if (f.siteIds) where.push(inArray(areas.siteId, f.siteIds.length ? f.siteIds : [0]));
   if (f.since) where.push(gte(alerts.lastAt, f.since));
@@ -114,6 +120,44 @@ export async function alertHistory(db: Db, alertId: number) {
     .leftJoin(users, eq(users.id, alertEvents.userId))
     .where(eq(alertEvents.alertId, alertId))
     .orderBy(asc(alertEvents.at), asc(alertEvents.id));
+}
+
+/**
+ * The band of each point's worst open alert: danger before alert, then the one furthest over
+ * its level (latest value ÷ level exceeded); a point without an open alert is absent.
+ */
+export async function openAlertBands(db: Db | Tx, pointIds: number[]) {
+  const out = new Map<
+    number,
+    { bandKey: string; bandName: string; unit: string; level: 'alert' | 'danger' }
+  >();
+  if (pointIds.length === 0) return out;
+  const rows = await db
+    .select({
+      pointId: alerts.pointId,
+      bandKey: alerts.bandKey,
+      bandName: alerts.bandName,
+      unit: alerts.unit,
+      level: alerts.level,
+      value: alerts.lastValue,
+      limit: alerts.limitValue,
+    })
+    .from(alerts)
+    .where(
+      and(inArray(alerts.pointId, pointIds), inArray(alerts.state, ['raised', 'acknowledged'])),
+    )
+    .orderBy(asc(alerts.id));
+  const over = (r: { value: number; limit: number }) => (r.limit > 0 ? r.value / r.limit : 0);
+  const worse = (a: (typeof rows)[number], b: (typeof rows)[number]) =>
+    a.level !== b.level ? a.level === 'danger' : over(a) > over(b);
+  const best = new Map<number, (typeof rows)[number]>();
+  for (const r of rows) {
+    const had = best.get(r.pointId);
+    if (!had || worse(r, had)) best.set(r.pointId, r);
+  }
+  for (const [id, r] of best)
+    out.set(id, { bandKey: r.bandKey, bandName: r.bandName, unit: r.unit, level: r.level });
+  return out;
 }
 
 /**

@@ -68,6 +68,25 @@ export async function listAlerts(ctx: AppContext, user: SessionUser, query: Aler
 }
 
 /**
+ * The open (raised or acknowledged) alerts on a machine's points: danger before alert, then
+ * newest activity first. The caller has checked the machine's site.
+ */
+export async function openAlertsOfMachine(
+  ctx: AppContext,
+  user: SessionUser,
+  machineId: number,
+): Promise<Alert[]> {
+  const rows = await repo.listAlerts(ctx.db, {
+    machineId,
+    open: true,
+    siteIds: visibleSites(user),
+    limit: 200,
+  });
+  const rank = (l: Alert['level']) => (l === 'danger' ? 0 : 1);
+  return rows.map(toAlert).sort((a, b) => rank(a.level) - rank(b.level));
+}
+
+/**
  * How the band's open alert clears under the point's limit set in force: the levels the
  * worker judges at (`levelsInForce`), its clear level and clear rules (`evaluateBand` rule 6).
  * Null when the set no longer has the band.

@@ -88,6 +88,24 @@ export async function listFindings(
   return { items: page.items.map(toFinding), nextCursor: page.nextCursor };
 }
 
+/**
+ * The findings not yet done (open or planned) on a machine's points, last changed first. The
+ * caller has checked the machine's site.
+ */
+export async function openFindingsOfMachine(
+  ctx: AppContext,
+  user: SessionUser,
+  machineId: number,
+): Promise<Finding[]> {
+  const rows = await repo.listFindings(ctx.db, {
+    siteIds: siteScope(user, undefined),
+    machineId,
+    notDone: true,
+    limit: 200,
+  });
+  return rows.map(toFinding);
+}
+
 function weekDates(week: string) {
   const days = isoWeekDays(week);
   if (!days) throw new AppError('validation_failed', 'Use a week like 2026-W49.', 400);

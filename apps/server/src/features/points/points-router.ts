@@ -12,6 +12,8 @@ import {
 } from '@turnstone/contracts/points';
 import { trendQuerySchema, trendResponseSchema } from '@turnstone/contracts/trend';
 import { snapshotStatusSchema } from '@turnstone/contracts/uploads';
+import { machineAttentionSchema } from '@turnstone/contracts/machine-attention';
+import { machineAttention } from './machine-attention-service.ts';
 import type { AppContext } from '../../lib/context.ts';
 import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './points-service.ts';
@@ -41,6 +43,18 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         res.json(await service.machineDetail(ctx.db, requireUser(req), id));
+      },
+    },
+    {
+      method: 'get',
+      path: '/machines/:id/attention',
+      access: ALL_ROLES,
+      summary:
+        'why a machine is in alert: its open alerts and findings not done, by point and band',
+      schemas: { params: idParam, response: machineAttentionSchema },
+      handler: async (req, res) => {
+        const { id } = idParam.parse(req.params);
+        res.json(await machineAttention(ctx, requireUser(req), id));
       },
     },
     {

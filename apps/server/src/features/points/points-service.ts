@@ -6,7 +6,7 @@
  */
 import { faultFrequencies } from '@turnstone/dsp';
 
-import { levelsInForce, type BandDefinition } from '@turnstone/condition';
+import { isoZoneBoundaries, levelsInForce, type BandDefinition } from '@turnstone/condition';
 import type {
   AnalysisSummary,
   CurrentDiagnosis,
@@ -28,6 +28,7 @@ import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { loadLimitSet } from '../limits/limit-set-repository.ts';
 import { pointStatus, QUALITY_MARK_MS, worst } from '../fleet/fleet-service.ts';
 import * as repo from './points-repository.ts';
+import { openAlertBands } from '../alerts/alerts-repository.ts';
 import { readStoredSummary } from './stored-summary.ts';
 import { machineComponentsOf } from './machine-components.ts';
 
@@ -116,27 +117,64 @@ async function statusesOf(
   return out;
 }
 
+/** The machine with its place, when the user may see its site (404 / 403 otherwise). */
+export async function accessibleMachine(db: Db, user: SessionUser, machineId: number) {
+  const row = await repo.machineWithPlace(db, machineId);
+  if (!row) throw notFound('Machine');
+  if (!canSeeSite(user, row.site.id))
+    throw forbidden('This machine belongs to a site you are not assigned to.');
+  return row;
+}
+
+function governingOf(
+  band: { bandKey: string; bandName: string; unit: string; level: 'alert' | 'danger' } | undefined,
+  values: { t: string; v: number }[],
+) {
+  return band
+    ? { key: band.bandKey, name: band.bandName, unit: band.unit, level: band.level, values }
+    : { key: SPARK_BAND, name: 'Overall velocity', unit: 'mm/s', level: null, values };
+}
+
+/** The ISO 20816-3 zone boundaries of a machine's class (packages/condition); null if none. */
+function isoBoundariesOf(group: number, foundation: 'rigid' | 'flexible') {
+  if (group !== 1 && group !== 2) return null;
+  const b = isoZoneBoundaries(group, foundation);
+  return { ab: b.ab, bc: b.bc, cd: b.cd };
+}
+
 export async function machineDetail(
   db: Db,
   user: SessionUser,
   machineId: number,
   now = Date.now(),
 ): Promise<MachineDetail> {
-  const row = await repo.machineWithPlace(db, machineId);
-  if (!row) throw notFound('Machine');
-  if (!canSeeSite(user, row.site.id))
-    throw forbidden('This machine belongs to a site you are not assigned to.');
+  const row = await accessibleMachine(db, user, machineId);
   const { machine } = row;
   const [components, pointRows] = await Promise.all([
     repo.machineComponents(db, machineId),
     repo.machinePoints(db, machineId),
   ]);
   const ids = pointRows.map((p) => p.id);
-  const [latest, statuses, sparks] = await Promise.all([
+  const [latest, statuses, sparks, alertBands] = await Promise.all([
     repo.latestAnalyses(db, ids),
     statusesOf(db, pointRows, now),
     Promise.all(ids.map((id) => repo.recentBandValues(db, id, SPARK_BAND, SPARK_POINTS))),
+    openAlertBands(db, ids),
   ]);
+  // The governing band's recent values where it is not overall velocity (already read).
+  const governingValues = await Promise.all(
+    ids.map((id, i) => {
+      const band = alertBands.get(id);
+      return band && band.bandKey !== SPARK_BAND
+        ? repo.recentBandValues(db, id, band.bandKey, SPARK_POINTS)
+        : Promise.resolve(sparks[i] ?? []);
+    }),
+  );
+  const oldestFirst = (rows: { takenAt: Date; value: number }[]) =>
+    rows
+      .slice()
+      .reverse()
+      .map((v) => ({ t: iso(v.takenAt), v: v.value }));
   let status: NodeStatus = 'none';
   const bearingName = new Map(components.bearings.map((b) => [b.id, b.name]));
   const pointsOut = pointRows.map((p, i) => {
@@ -152,10 +190,8 @@ export async function machineDetail(
       bearing: p.bearingId === null ? null : (bearingName.get(p.bearingId) ?? null),
       status: s,
       latest: l ? summaryOf(l) : null,
-      recentVelocity: (sparks[i] ?? [])
-        .slice()
-        .reverse()
-        .map((v) => ({ t: iso(v.takenAt), v: v.value })),
+      recentVelocity: oldestFirst(sparks[i] ?? []),
+      governing: governingOf(alertBands.get(p.id), oldestFirst(governingValues[i] ?? [])),
     };
   });
   return {
@@ -174,6 +210,7 @@ export async function machineDetail(
     site: { id: row.site.id, name: row.site.name, code: row.site.code },
     area: { id: row.area.id, name: row.area.name },
     status,
+    isoBoundaries: isoBoundariesOf(machine.isoGroup, machine.foundation),
     bearings: components.bearings.map((b) => ({
       id: b.id,
       name: b.name,
