@@ -4,6 +4,7 @@
  * alerts by age, quality notices and findings due, each row with a link to its point.
  */
 import type { WeeklyReview } from '@turnstone/contracts/review';
+import { formatDateTimeZone } from '@turnstone/contracts/dates';
 import { formatQuantity } from '@turnstone/contracts/number-format';
 import { toDisplay, type UnitSystem } from '@turnstone/contracts/units';
 import type { AppContext } from '../../lib/context.ts';
@@ -26,6 +27,8 @@ function sections(
   r: WeeklyReview,
   system: UnitSystem,
 ): { title: string; lines: Line[]; total: number }[] {
+  const zones = new Map(r.siteWeeks.map((w) => [w.siteId, w.timeZone]));
+  const zoneOf = (siteId: number) => zones.get(siteId) ?? 'UTC';
   const at = (x: { machineName: string; pointTag: string }) => `${x.machineName} ${x.pointTag}`;
   const v = (value: number, unit: string) => formatQuantity(value, unit, system);
   const bare = (value: number, unit: string) => num(toDisplay(value, unit, system));
@@ -59,7 +62,7 @@ function sections(
       total: r.summary.qualityNotices,
       lines: r.qualityNotices.slice(0, TOP).map((q) => ({
         pointId: q.pointId,
-        text: `${q.verdict} · ${at(q)} · ${q.takenAt.slice(0, 16).replace('T', ' ')} UTC`,
+        text: `${q.verdict} · ${at(q)} · ${formatDateTimeZone(q.takenAt, zoneOf(q.siteId))}`,
       })),
     },
   ];
