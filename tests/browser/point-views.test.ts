@@ -75,7 +75,10 @@ describe('point analysis views in a real browser', () => {
       .getByText(/Zone [ABCD]/)
       .first()
       .waitFor();
-    await page.getByRole('link', { name: 'Motor drive end, horizontal' }).waitFor();
+    await page
+      .getByRole('table')
+      .getByRole('link', { name: 'Motor drive end, horizontal', exact: true })
+      .waitFor();
     await screenshot(page, 'machine-page');
     await page.context().close();
   });
