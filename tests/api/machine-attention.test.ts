@@ -141,4 +141,25 @@ describe('machine attention', () => {
     expect(m.foundation).toBe('rigid');
     expect(m.isoBoundaries).toEqual({ ab: 1.4, bc: 2.8, cd: 4.5 });
   });
+
+  it('the trend names who acknowledged an alert and the note they wrote', async () => {
+    const open = (await attention()).alerts.find((a) => a.bandKey === 'overall-velocity')!;
+    const ack = await srv.call('POST', `/api/v1/alerts/${open.id}/acknowledge`, {
+      cookie: engineer,
+      body: { note: 'Guard off, alignment booked' },
+    });
+    expect(ack.status).toBe(200);
+    const res = await srv.call(
+      'GET',
+      `/api/v1/points/${pointId}/trend?band=overall-velocity&from=${new Date(t0).toISOString()}`,
+      { cookie: engineer },
+    );
+    expect(res.status).toBe(200);
+    const body = await res.json();
+    const acked = body.events.find((e: { kind: string }) => e.kind === 'acknowledged');
+    expect(acked).toMatchObject({ alertId: open.id, note: 'Guard off, alignment booked' });
+    expect(acked.by).toMatch(/\S/);
+    const raised = body.events.find((e: { kind: string }) => e.kind === 'raised');
+    expect(raised).toMatchObject({ by: null });
+  });
 });

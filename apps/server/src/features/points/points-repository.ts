@@ -18,6 +18,7 @@ import {
   qualityNotices,
   sites,
   snapshots,
+  users,
 } from '@turnstone/db/schema';
 
 /** Columns of an analysis the lists show (no spectra). */
@@ -208,9 +209,12 @@ export async function alertEventsOf(
       kind: alertEvents.kind,
       level: alertEvents.level,
       alertId: alertEvents.alertId,
+      by: users.name,
+      note: alertEvents.note,
     })
     .from(alertEvents)
     .innerJoin(alerts, eq(alerts.id, alertEvents.alertId))
+    .leftJoin(users, eq(users.id, alertEvents.userId))
     .where(
       and(
         eq(alerts.pointId, pointId),

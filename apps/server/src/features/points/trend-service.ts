@@ -141,7 +141,14 @@ export async function trend(
         changed: p.window.changed,
       },
     },
-    events: events.map((e) => ({ t: iso(e.at), kind: e.kind, level: e.level, alertId: e.alertId })),
+    events: events.map((e) => ({
+      t: iso(e.at),
+      kind: e.kind,
+      level: e.level,
+      alertId: e.alertId,
+      by: e.by ?? null,
+      note: e.note ?? null,
+    })),
     findings: findingRows.map((f) => ({
       t: iso(f.createdAt),
       title: f.title,

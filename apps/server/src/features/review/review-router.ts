@@ -2,7 +2,7 @@ import { reviewQuerySchema, reviewSchema } from '@turnstone/contracts/review';
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import { reviewZip } from './review-csv.ts';
-import { reviewInUnits } from './review-units.ts';
+import { reviewInUnits } from '@turnstone/contracts/review-units';
 import { buildWeeklyReview } from './review-service.ts';
 import { parseQuery } from '../../lib/query.ts';
 

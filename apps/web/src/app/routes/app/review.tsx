@@ -1,4 +1,6 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
+import { reviewInUnits } from '@turnstone/contracts/review-units';
+import { useUnits } from '../../../features/account/api/use-units.ts';
 import { useSearchParams } from 'react-router-dom';
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { Card } from '../../../components/ui/card.tsx';
@@ -57,7 +59,12 @@ export function ReviewRoute() {
         setDraft(d);
       }
     : undefined;
-  const data = review.data;
+  const units = useUnits();
+  // Values in the user's unit system (in/s, mil for imperial), as the ZIP export gives them.
+  const data = useMemo(
+    () => review.data && reviewInUnits(review.data, units.system),
+    [review.data, units.system],
+  );
   const markReviewed = useReviewNotices();
   const [reviewedMsg, setReviewedMsg] = useState<string | null>(null);
   const onMarkReviewed = canEdit

@@ -3,8 +3,9 @@ import type { Alert } from '@turnstone/contracts/alerts';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { formatAge, formatDateTime } from '../../../lib/format.ts';
-import { AlertStateMark, formatLevel } from './alert-labels.tsx';
+import { AlertStateMark } from './alert-labels.tsx';
 import { focusAcknowledgeNote } from './acknowledge-form.tsx';
+import { useUnits } from '../../account/api/use-units.ts';
 
 /**
  * The alert list as cards, for tablets and phones: one card per alert, every fact wrapped
@@ -24,6 +25,7 @@ export function AlertCards({
   openId: number | null;
   onOpen: (id: number) => void;
 }) {
+  const units = useUnits();
   return (
     <ul className="flex flex-col divide-y divide-line" aria-label="Alerts">
       {rows.map((row) => {
@@ -78,12 +80,12 @@ export function AlertCards({
                 </span>
               </button>
               <p className="font-mono text-[13px] break-words">
-                <span className="text-ink">{formatLevel(a.value, a.unit)}</span>
-                <span className="text-ink-muted"> / level {formatLevel(a.limit, a.unit)}</span>
+                <span className="text-ink">{units.format(a.value, a.unit)}</span>
+                <span className="text-ink-muted"> / level {units.format(a.limit, a.unit)}</span>
                 {a.peakValue > a.value && (
                   <span className="text-xs text-ink-faint">
                     {' '}
-                    · highest while open {formatLevel(a.peakValue, a.unit)}
+                    · highest while open {units.format(a.peakValue, a.unit)}
                   </span>
                 )}
                 {a.suspect && <span className="text-xs text-status-quality"> · suspect data</span>}

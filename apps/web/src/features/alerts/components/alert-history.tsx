@@ -14,10 +14,10 @@ import {
   AlertStateMark,
   alertEventLabels,
   alertStateSentences,
-  formatLevel,
   isoZoneMeanings,
 } from './alert-labels.tsx';
 import { BandSparkline } from './band-sparkline.tsx';
+import { useUnits } from '../../account/api/use-units.ts';
 
 /**
  * One alert: what it is and every change of its state, oldest first; a raised alert can be
@@ -34,6 +34,7 @@ export function AlertHistory({
   /** Given to those who may acknowledge. */
   acknowledge?: { userName: string; onDone: (message: string) => void };
 }) {
+  const units = useUnits();
   const alert = useAlert(id);
   const title = useRef<HTMLHeadingElement>(null);
   const loaded = alert.data !== undefined;
@@ -94,11 +95,11 @@ export function AlertHistory({
           <AlertStateMark state={a.state} />
         </dd>
         <dt className="text-ink-muted">Last value</dt>
-        <dd className="font-mono">{formatLevel(a.value, a.unit)}</dd>
+        <dd className="font-mono">{units.format(a.value, a.unit)}</dd>
         <dt className="text-ink-muted">Highest while open</dt>
-        <dd className="font-mono">{formatLevel(a.peakValue, a.unit)}</dd>
+        <dd className="font-mono">{units.format(a.peakValue, a.unit)}</dd>
         <dt className="text-ink-muted">Level exceeded</dt>
-        <dd className="font-mono">{formatLevel(a.limit, a.unit)}</dd>
+        <dd className="font-mono">{units.format(a.limit, a.unit)}</dd>
         <dt className="text-ink-muted">Machine ISO 20816</dt>
         <dd data-testid="alert-machine-zone">
           {a.machineZone ? (
@@ -118,7 +119,7 @@ export function AlertHistory({
         </p>
       )}
       <p className="text-sm text-ink" data-testid="alert-state-explained">
-        {alertStateSentences(a).join(' ')}
+        {alertStateSentences(a, units.system).join(' ')}
       </p>
       <nav aria-label="Where to look next" className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
         <Link className="text-accent underline" to={paths.app.point.getHref(a.pointId)}>
@@ -173,7 +174,7 @@ export function AlertHistory({
                 {alertEventLabels[h.kind]}
                 {h.value !== null && (
                   <span className="ml-2 font-mono text-[13px] text-ink-muted">
-                    {formatLevel(h.value, a.unit)}
+                    {units.format(h.value, a.unit)}
                   </span>
                 )}
               </p>

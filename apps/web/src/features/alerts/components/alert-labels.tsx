@@ -1,5 +1,5 @@
-import { formatNumber } from '@turnstone/contracts/number-format';
-import { unitText } from '@turnstone/contracts/units';
+import { formatQuantity } from '@turnstone/contracts/number-format';
+import type { UnitSystem } from '@turnstone/contracts/units';
 import type { AlertDetail, AlertStateName } from '@turnstone/contracts/alerts';
 import { cn } from '../../../lib/cn.ts';
 
@@ -16,9 +16,9 @@ export const alertEventLabels = {
   cleared: 'Cleared',
 } as const;
 
-/** A value with its unit, by the app's one number rule. */
-export function formatLevel(value: number, unit: string): string {
-  return `${formatNumber(value)} ${unitText(unit)}`;
+/** A value with its unit in a unit system, by the app's one number rule. */
+export function formatLevel(value: number, unit: string, system: UnitSystem = 'metric'): string {
+  return formatQuantity(value, unit, system);
 }
 
 /** Hours as people say them: "5 days", "12 hours". */
@@ -32,8 +32,8 @@ function formatHours(hours: number): string {
  * raised it against which level, an escalation after an acknowledgement, why it is still open
  * while the latest value is below the level, and what clears it.
  */
-export function alertStateSentences(a: AlertDetail): string[] {
-  const f = (v: number) => formatLevel(v, a.unit);
+export function alertStateSentences(a: AlertDetail, system: UnitSystem = 'metric'): string[] {
+  const f = (v: number) => formatLevel(v, a.unit, system);
   const out: string[] = [];
   // How long ago, counted in the band's values (the unit its clear rule counts in too).
   const n = a.valuesSinceRaised;

@@ -1,6 +1,6 @@
 import type { AlertDetail } from '@turnstone/contracts/alerts';
 import { Sparkline } from '../../../components/charts/sparkline.tsx';
-import { formatLevel } from './alert-labels.tsx';
+import { useUnits } from '../../account/api/use-units.ts';
 
 /**
  * The alert's band over its newest values with the alert and danger levels in force, and a
@@ -10,7 +10,8 @@ export function BandSparkline({ alert: a }: { alert: AlertDetail }) {
   const values = a.recentValues.map((v) => v.value);
   const alertLevel = a.clearRule?.alertLevel ?? (a.level === 'alert' ? a.limit : null);
   const dangerLevel = a.clearRule?.dangerLevel ?? (a.level === 'danger' ? a.limit : null);
-  const f = (v: number) => formatLevel(v, a.unit);
+  const units = useUnits();
+  const f = (v: number) => units.format(v, a.unit);
   const label =
     values.length > 0
       ? `${a.bandName}, last ${values.length} values: from ${f(values[0]!)} to ${f(values[values.length - 1]!)}`

@@ -3,6 +3,7 @@ import type { MachineDetail } from '@turnstone/contracts/points';
 import { Sparkline } from '../../../components/charts/sparkline.tsx';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
+import { useUnits } from '../../account/api/use-units.ts';
 import { paths } from '../../../config/paths.ts';
 import { formatAge, formatBandHz, formatDateTime } from '../../../lib/format.ts';
 import { isoZoneRange } from '../lib/iso-zone-range.ts';
@@ -28,6 +29,10 @@ const wide = 'hidden lg:table-cell';
  * machine's class), speed, quality and a small trend of the band that governs the point.
  */
 export function MachinePointsTable({ machine, now }: { machine: MachineDetail; now: number }) {
+  // Velocity and displacement in the user's unit system (stored mm/s and µm).
+  const units = useUnits();
+  const shown = (v: number | undefined, unit: string) =>
+    v === undefined ? undefined : units.value(v, unit);
   return (
     <div className="overflow-x-auto">
       <table className="w-full min-w-[46rem] text-left text-sm lg:min-w-[68rem]">
@@ -65,7 +70,7 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
                   <StatusMark status={p.status} />
                 </td>
                 <td className="px-3 py-2 text-right font-mono text-[13px]">
-                  {num(l?.overall.velocityRmsMmS, 'mm/s')}
+                  {num(shown(l?.overall.velocityRmsMmS, 'mm/s'), units.unit('mm/s'))}
                   {l ? (
                     <div className="font-sans text-xs text-ink-faint">
                       {formatBandHz(l.overall.velocityBandHz)}
@@ -81,7 +86,7 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
                   ) : null}
                 </td>
                 <td className={`${wide} px-3 py-2 text-right font-mono text-[13px]`}>
-                  {num(l?.overall.displacementPkPkUm, 'µm')}
+                  {num(shown(l?.overall.displacementPkPkUm, 'um'), units.unit('um'))}
                   {l ? (
                     <div className="font-sans text-xs text-ink-faint">
                       {formatBandHz(l.overall.velocityBandHz)}

@@ -136,7 +136,9 @@ function TrendBody({ trend, now }: { trend: ReturnType<typeof useTrend>; now: nu
       ...data.events.map((e) => ({
         t: e.t,
         kind: e.kind,
-        label: `${e.level === 'danger' ? 'Danger' : 'Alert'} ${eventLabel[e.kind]}`,
+        label: `${e.level === 'danger' ? 'Danger' : 'Alert'} ${eventLabel[e.kind]}${
+          e.by ? ` by ${e.by}` : ''
+        }${e.note ? `: “${e.note}”` : ''}`,
       })),
       ...data.findings.map((f) => ({
         t: f.t,

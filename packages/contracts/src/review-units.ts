@@ -1,11 +1,11 @@
 /**
  * The weekly review in a reader's unit system: every band value (means, changes, latest and
  * target values, limits, last and peak values) converted from the stored metric units, and
- * each row's unit named accordingly (mm/s → in/s, um → mil). Used for the CSV export; the
- * screen converts in the browser through the same module (contracts/units.ts).
+ * each row's unit named accordingly (mm/s → in/s, um → mil). The Review screen and the
+ * server's ZIP export both read the review through it.
  */
-import type { WeeklyReview } from '@turnstone/contracts/review';
-import { displayUnit, toDisplay, type UnitSystem } from '@turnstone/contracts/units';
+import type { WeeklyReview } from './review.ts';
+import { displayUnit, toDisplay, type UnitSystem } from './units.ts';
 
 export function reviewInUnits(r: WeeklyReview, system: UnitSystem): WeeklyReview {
   if (system === 'metric') return r;
