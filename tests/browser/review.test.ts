@@ -113,6 +113,8 @@ describe('weekly review in a real browser', () => {
     await title.fill('Check P-102 motor DE: 1× rising towards alert');
     await dialog.getByLabel('Due date').fill('2026-11-20');
     await dialog.getByLabel('Note').fill('Balance check at the next stop.');
+    await dialog.getByLabel('Priority').selectOption('high');
+    await dialog.getByLabel('Owner').fill('Mechanical crew A');
     await screenshot(page, 'review-create-finding');
     await dialog.getByRole('button', { name: 'Save finding' }).click();
     await dialog.waitFor({ state: 'hidden' });
@@ -121,6 +123,8 @@ describe('weekly review in a real browser', () => {
     const row = findings.getByRole('row').filter({ hasText: 'Check P-102 motor DE' });
     await row.waitFor();
     await row.getByText('Open', { exact: true }).waitFor();
+    await row.getByText('High', { exact: true }).waitFor();
+    await row.getByText('Mechanical crew A').waitFor();
     await row.getByRole('button', { name: /Mark planned/ }).click();
     await row.getByLabel(/Work-order reference for/).fill('WO-2026-1187');
     const patched = page.waitForResponse(

@@ -61,29 +61,33 @@ export function FindingsList({
             <label htmlFor="findings-show" className="text-xs text-ink-muted">
               State
             </label>
-            <Select
-              id="findings-show"
-              className="w-44"
-              value={show}
-              onChange={(e) => setShow(e.target.value as Show)}
-            >
-              {(Object.keys(showLabels) as Show[]).map((k) => (
-                <option key={k} value={k}>
-                  {showLabels[k]}
-                </option>
-              ))}
-            </Select>
+            <div className="w-52">
+              <Select
+                id="findings-show"
+                className="w-44"
+                value={show}
+                onChange={(e) => setShow(e.target.value as Show)}
+              >
+                {(Object.keys(showLabels) as Show[]).map((k) => (
+                  <option key={k} value={k}>
+                    {showLabels[k]}
+                  </option>
+                ))}
+              </Select>
+            </div>
             <label htmlFor="findings-week" className="ml-2 text-xs text-ink-muted">
               Due in week
             </label>
-            <Input
-              id="findings-week"
-              type="week"
-              controlSize="sm"
-              className="w-44 font-mono"
-              value={dueWeek}
-              onChange={(e) => setDueWeek(e.target.value)}
-            />
+            <div className="w-44">
+              <Input
+                id="findings-week"
+                type="week"
+                controlSize="sm"
+                className="w-44 font-mono"
+                value={dueWeek}
+                onChange={(e) => setDueWeek(e.target.value)}
+              />
+            </div>
             <Button size="sm" variant="ghost" onClick={() => setDueWeek(thisWeek)}>
               This week
             </Button>
