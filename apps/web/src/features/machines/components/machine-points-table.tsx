@@ -120,7 +120,6 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
                   <Link
                     to={paths.app.point.getHref(p.id, p.governing.key)}
                     className="flex flex-col gap-0.5 underline-offset-2 hover:underline"
-                    aria-label={`${p.governing.name} of ${p.name}: open its trend`}
                   >
                     <Sparkline
                       values={p.governing.values.map((r) => r.v)}

@@ -133,7 +133,7 @@ function AlertLine({ alert: a, now }: { alert: Alert; now: number }) {
         {a.acknowledgedBy ? ` · acknowledged by ${a.acknowledgedBy}` : ''}
         {a.acknowledgeNote ? `: “${a.acknowledgeNote}”` : ''} ·{' '}
         <Link
-          className="text-accent underline-offset-2 hover:underline"
+          className="text-accent underline underline-offset-2"
           to={paths.app.alerts.getHref(a.id)}
         >
           alert detail
