@@ -30,6 +30,7 @@ export default defineConfig({
             'apps/**/src/**/*.test.ts',
             'tests/reference/**/*.test.ts',
             'tests/property/**/*.test.ts',
+            'tests/structure/**/*.test.ts',
           ],
         },
       },

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { alertDetailSchema } from '@turnstone/contracts/alerts';
 import { analysisListSchema, machineDetailSchema } from '@turnstone/contracts/points';
 import { demoChannels } from '@turnstone/demo-scenario/plant-channels';
-import { countsToBytes } from '@turnstone/demo-scenario/sample-bytes';
+import { encodeSamples } from '@turnstone/dsp/sample-codec';
 import { simulateSnapshot, toIngestItem } from '@turnstone/demo-scenario/simulated-snapshot';
 import { synthesizeCapture, toneAccelPeakG } from '@turnstone/demo-scenario/synthesize-capture';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
@@ -250,7 +250,7 @@ describe("electrical hints from the machine's supply frequency", () => {
       takenAt: '2026-11-22T08:00:00Z',
       sampleRateHz: capture.sampleRateHz,
       encoding: capture.encoding,
-      samples: countsToBytes(capture.counts, capture.encoding).toString('base64'),
+      samples: Buffer.from(encodeSamples(capture.counts, capture.encoding)).toString('base64'),
       adc: capture.adc,
       sensor: { sensitivityMvPerG: 100 },
       tach: capture.tach!,

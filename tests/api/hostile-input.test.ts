@@ -510,11 +510,7 @@ beforeAll(async () => {
     SIGN_IN_MAX_PER_ACCOUNT: '100000',
   });
   admin = await srv.signIn('admin');
-  key = (
-    await (
-      await srv.call('POST', '/api/v1/gateways', { cookie: admin, body: { siteId: 1, name: 'gw' } })
-    ).json()
-  ).apiKey;
+  key = await srv.gatewayKey();
   const r = await (
     await srv.call('POST', '/api/v1/gateways', {
       cookie: admin,

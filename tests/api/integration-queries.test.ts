@@ -24,6 +24,8 @@ describe('unknown query parameters', () => {
     ['/api/v1/alerts?offset=10', 'offset'],
     ['/api/v1/audit?limit=5&page=2', 'page'],
     ['/api/v1/review?weekEnding=2026-11-29&weeksAhead=4&site=1', 'site'],
+    // A route that takes no query parameters at all refuses any.
+    ['/api/v1/sites?siteId=2', 'siteId'],
   ])('%s answers 400 naming %s', async (path, name) => {
     const res = await srv.call('GET', path, { cookie: engineer });
     const body = await res.json();

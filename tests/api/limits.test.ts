@@ -7,7 +7,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { loadLimitSet } from '../../apps/server/src/features/limits/limit-set-repository.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { snapshotBody } from '../support/signals.ts';
+import { postVelocities } from '../support/alert-captures.ts';
+import { overallVelocity } from '@turnstone/condition/test-bands';
 
 let srv: TestServer;
 let key: string;
@@ -17,37 +18,15 @@ let seq = 0;
 const TAG = 'MFP-P102-MDE-H';
 let pointId: number;
 
-/** Peak g of a 24.7 Hz tone of `mmS` mm/s RMS: a = v·√2·2πf (calculus of a sinusoid, textbook). */
-const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
-
 const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 
 async function capture(tag: string, velocities: number[]) {
-  for (const v of velocities) {
-    seq += 1;
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body: snapshotBody(tag, `l-${seq}`, {
-        tones: [{ hz: 24.7, peakG: peakGFor(v) }],
-        noiseG: 0.001,
-        seed: seq,
-        takenAt: new Date(t0 + seq * 3600_000).toISOString(),
-      }),
-      headers: { authorization: `Bearer ${key}` },
-    });
-    expect(res.status).toBe(201);
-  }
+  seq = await postVelocities(srv, key, tag, velocities, { t0, from: seq, uidPrefix: 'l' });
   await createWorker(srv.ctx, { owner: 'limits-test' }).drain();
 }
 
 const velocityBand = (alertLevel: number, dangerLevel: number, persistence = 1) => ({
-  key: 'overall-velocity',
-  name: 'Overall velocity',
-  kind: 'overall',
-  spectrum: 'velocity',
-  measure: 'rms',
-  unit: 'mm/s',
-  alertLevel,
-  dangerLevel,
+  ...overallVelocity(alertLevel, dangerLevel),
   persistence,
   hysteresis: 0.9,
 });

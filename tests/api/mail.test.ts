@@ -17,7 +17,7 @@ import {
 import { queueWeeklyDigests } from '../../apps/server/src/features/mail/digest-service.ts';
 import { SAFETY_CAUTION } from '../../apps/server/src/features/mail/mail-templates.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { snapshotBody } from '../support/signals.ts';
+import { postVelocities } from '../support/alert-captures.ts';
 
 let srv: TestServer;
 let key = '';
@@ -31,26 +31,11 @@ const PLANNER = 'planner@turnstone.local';
 /** The demo operator works at MFP and has every operator's default: its alerts, at once. */
 const OPERATOR = 'operator@turnstone.local';
 
-/** Peak g of a 24.7 Hz tone of `mmS` mm/s RMS (v = a/2πf, RMS = peak/√2; calculus of a sinusoid, textbook). */
-const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
-
 type Row = Record<string, unknown>;
 const q = (sqlText: string, params: unknown[] = []) => srv.q<Row>(sqlText, params);
 
 async function capture(velocities: number[]) {
-  for (const v of velocities) {
-    seq += 1;
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body: snapshotBody(TAG, `m-${seq}`, {
-        tones: [{ hz: 24.7, peakG: peakGFor(v) }],
-        noiseG: 0.001,
-        seed: seq,
-        takenAt: new Date(t0 + seq * 3600_000).toISOString(),
-      }),
-      headers: { authorization: `Bearer ${key}` },
-    });
-    expect(res.status).toBe(201);
-  }
+  seq = await postVelocities(srv, key, TAG, velocities, { t0, from: seq, uidPrefix: 'm' });
   await createWorker(srv.ctx, { owner: 'mail-test' }).drain();
 }
 

@@ -50,12 +50,7 @@ async function post(body: unknown, auth = key) {
 
 beforeAll(async () => {
   srv = await startTestServer({ TRUST_PROXY: 'loopback', METRICS_TOKEN: TOKEN });
-  const admin = await srv.signIn('admin');
-  key = (
-    await (
-      await srv.call('POST', '/api/v1/gateways', { cookie: admin, body: { siteId: 1, name: 'gw' } })
-    ).json()
-  ).apiKey;
+  key = await srv.gatewayKey();
 });
 afterAll(async () => {
   await srv?.stop();

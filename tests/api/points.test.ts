@@ -207,6 +207,23 @@ describe('spectrum', () => {
       Date.parse(two.items[1].takenAt),
     );
   });
+  it('each waterfall spectrum carries its running speed (for orders) and the amplitude scale', async () => {
+    // 1494 r/min given by the gateway: 1× = 1494 / 60 = 24.9 Hz (definition of r/min).
+    const snap = await ingest(TAG, 'wf-speed-1', {
+      n: 16384,
+      tones: [{ hz: 50, peakG: 0.5 }],
+      speedRpm: 1494,
+    });
+    await createWorker(srv.ctx).drain();
+    const id = await analysisOf(snap);
+    const wf = await (await get(`/points/${pointId}/waterfall?kind=velocity&limit=50`)).json();
+    const item = wf.items.find((i: { analysisId: number }) => i.analysisId === id);
+    expect(item.shaftHz).toBeCloseTo(24.9, 6);
+    // The scale and the speed are the ones the single spectrum states for that capture.
+    const one = await (await get(`/analyses/${id}/spectrum?kind=velocity`)).json();
+    expect(wf.scale).toBe(one.scale);
+    expect(item.shaftHz).toBeCloseTo(one.speed.hz, 9);
+  });
 });
 
 describe('waveform and downloads', () => {

@@ -17,6 +17,8 @@ import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { buildWeeklyReview } from '../../apps/server/src/features/review/review-service.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { snapshotBody } from '../support/signals.ts';
+import { strFromU8, unzipSync } from 'fflate';
+import Papa from 'papaparse';
 
 let srv: TestServer;
 let key: string;
@@ -58,12 +60,7 @@ async function pointId(tag: string) {
 
 beforeAll(async () => {
   srv = await startTestServer();
-  const admin = await srv.signIn('admin');
-  key = (
-    await (
-      await srv.call('POST', '/api/v1/gateways', { cookie: admin, body: { siteId: 1, name: 'gw' } })
-    ).json()
-  ).apiKey;
+  key = await srv.gatewayKey();
   for (let d = 0; d <= 13; d++) await ingest(RISING, `rise-${d}`, d, peakGOf(rising(d), SHAFT_HZ));
   for (const d of [12, 13]) await ingest(ALERTING, `alert-${d}`, d, peakGOf(3.0, SHAFT_HZ));
   await ingest(CLIPPED, 'clip-10', 10, 0.8); // 0.8 g peak into a 0.5 g range: clipped
@@ -206,13 +203,13 @@ describe('weekly review', () => {
     expect((await later.json()).qualityNotices).toEqual([]);
   });
 
-  it('answers 403 to the operator (JSON and CSV); the engineer may read it', async () => {
+  it('answers 403 to the operator (JSON and ZIP); the engineer may read it', async () => {
     const operator = await srv.signIn('operator');
     const res = await srv.call('GET', `/api/v1/review?weekEnding=${WEEK_ENDING}`, {
       cookie: operator,
     });
     expect(res.status).toBe(403);
-    const csv = await srv.call('GET', `/api/v1/review.csv?weekEnding=${WEEK_ENDING}`, {
+    const csv = await srv.call('GET', `/api/v1/review.zip?weekEnding=${WEEK_ENDING}`, {
       cookie: operator,
     });
     expect(csv.status).toBe(403);
@@ -228,29 +225,47 @@ describe('weekly review', () => {
     expect(JSON.stringify(body.error.details)).toContain('weekEnding');
   });
 
-  it('exports the same tables as a CSV attachment, one section per table', async () => {
-    const res = await srv.call('GET', `/api/v1/review.csv?weekEnding=${WEEK_ENDING}&siteId=1`, {
+  it('exports one CSV file per table in a ZIP, each with one plain header row', async () => {
+    const res = await srv.call('GET', `/api/v1/review.zip?weekEnding=${WEEK_ENDING}&siteId=1`, {
       cookie: planner,
     });
     expect(res.status).toBe(200);
-    expect(res.headers.get('content-type')).toContain('text/csv');
+    expect(res.headers.get('content-type')).toContain('application/zip');
     expect(res.headers.get('content-disposition')).toBe(
-      'attachment; filename="turnstone-review-MFP-2026-11-15.csv"',
+      'attachment; filename="turnstone-review-MFP-2026-11-15.zip"',
     );
-    const text = await res.text();
-    const lines = text.split('\r\n');
-    for (const s of ['movers', 'forecasts', 'open alerts', 'quality notices', 'findings due'])
-      expect(lines).toContain(s);
-    const moverLine = lines.find(
-      (l) => l.startsWith(`MFP,${RISING},`) && l.includes('1× running speed'),
-    );
-    expect(moverLine).toBeDefined();
+    const files = unzipSync(new Uint8Array(await res.arrayBuffer()));
+    expect(Object.keys(files).sort()).toEqual([
+      'findings-created-this-week.csv',
+      'findings-due.csv',
+      'forecasts.csv',
+      'open-alerts.csv',
+      'quality-notices.csv',
+      'rising-bands.csv',
+      'summary.csv',
+    ]);
+    const table = (name: string) =>
+      Papa.parse<Record<string, string>>(strFromU8(files[name]!).replace(/^\uFEFF/, ''), {
+        header: true,
+        skipEmptyLines: true,
+      });
+    const rising = table('rising-bands.csv');
+    expect(rising.errors).toEqual([]);
+    expect(rising.meta.fields).toContain('values this week');
+    const row = rising.data.find((r) => r.point === RISING && r.band === '1× running speed');
+    expect(row).toBeDefined();
+    expect(row!['time zone']).toBe('Europe/London');
     const json = await review('&siteId=1');
     const m = json.movers.find(
       (r: { pointTag: string; bandKey: string }) =>
         r.pointTag === RISING && r.bandKey === 'order-1x',
     );
-    expect(moverLine).toContain(String(Number(m.changePercent.toPrecision(6))));
+    expect(Number(row!['change %'])).toBe(Number(m.changePercent.toPrecision(6)));
+    const summary = table('summary.csv').data;
+    expect(summary.find((r) => r.item === 'noise threshold: minimum rise %')?.value).toBe('5');
+    // ISO 8601 instants in the files.
+    for (const a of table('open-alerts.csv').data)
+      expect(a['first at']).toMatch(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/);
   });
 
   it('buildWeeklyReview gives the digest the same summary as the screen', async () => {

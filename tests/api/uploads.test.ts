@@ -82,6 +82,14 @@ describe('uploads of recordings', () => {
     expect(res.status).toBe(200);
     expect((await res.json()).status).toBe('already-uploaded');
     expect(await snapshotCount()).toBe(before);
+    // The first upload is in the audit log with its file; the repeat is not.
+    const audit = await srv.q<{ after: unknown }>(
+      "SELECT after FROM audit_log WHERE action = 'upload.create'",
+    );
+    expect(audit).toHaveLength(1);
+    const after =
+      typeof audit[0]!.after === 'string' ? JSON.parse(audit[0]!.after) : audit[0]!.after;
+    expect(after).toMatchObject({ fileName: 'pump-de.wav', samples: 8192, sampleRateHz: 10240 });
   });
 
   it('the same file with other capture settings answers 409 and stores nothing', async () => {

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { claimJobs, failJob } from '../../apps/server/src/features/worker/queue-repository.ts';
+import { claimJobs, failJob } from '../../apps/server/src/features/queue/queue-repository.ts';
 import {
   prepareAnalyses,
   runAnalysisJob,
@@ -35,12 +35,7 @@ async function quietQueue() {
 
 beforeAll(async () => {
   srv = await startTestServer({ JOB_LEASE_S: '1' });
-  const admin = await srv.signIn('admin');
-  key = (
-    await (
-      await srv.call('POST', '/api/v1/gateways', { cookie: admin, body: { siteId: 1, name: 'gw' } })
-    ).json()
-  ).apiKey;
+  key = await srv.gatewayKey();
 });
 afterAll(async () => {
   await srv?.stop();

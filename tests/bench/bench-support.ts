@@ -179,3 +179,19 @@ export async function measureWorker(
     bytesInPerJob: per('Bytes_received'),
   };
 }
+
+/** Times of GET /api/health, one every 50 ms, while `done` is pending (ms each). */
+export async function probeWhile(url: string, done: Promise<unknown>): Promise<number[]> {
+  const times: number[] = [];
+  let finished = false;
+  void done.then(() => (finished = true));
+  while (!finished) {
+    const t0 = performance.now();
+    await fetch(`${url}/api/health`)
+      .then((r) => r.arrayBuffer())
+      .catch(() => undefined);
+    times.push(performance.now() - t0);
+    await new Promise((r) => setTimeout(r, 50));
+  }
+  return times;
+}

@@ -5,7 +5,7 @@
  * request reaches the token check), against an idle baseline measured in the same run.
  */
 import { spawn } from 'node:child_process';
-import { startBenchServer } from './bench-support.ts';
+import { probeWhile, startBenchServer } from './bench-support.ts';
 
 const FLOOD = `
 const [url, total, conc] = process.argv.slice(1);
@@ -28,21 +28,6 @@ console.log(JSON.stringify(codes));
 function pct(xs: number[], p: number) {
   const s = [...xs].sort((a, b) => a - b);
   return s[Math.min(s.length - 1, Math.floor((p / 100) * s.length))] ?? NaN;
-}
-
-async function probeWhile(url: string, done: Promise<unknown>): Promise<number[]> {
-  const times: number[] = [];
-  let finished = false;
-  void done.then(() => (finished = true));
-  while (!finished) {
-    const t0 = performance.now();
-    await fetch(`${url}/api/health`)
-      .then((r) => r.arrayBuffer())
-      .catch(() => undefined);
-    times.push(performance.now() - t0);
-    await new Promise((r) => setTimeout(r, 50));
-  }
-  return times;
 }
 
 async function run(label: string, env: Record<string, string>) {

@@ -11,7 +11,7 @@ import { spawn } from 'node:child_process';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { monitorEventLoopDelay } from 'node:perf_hooks';
 import { MAX_SAMPLES } from '@turnstone/contracts/ingest';
-import { signInCookie, startBenchServer } from './bench-support.ts';
+import { probeWhile, signInCookie, startBenchServer } from './bench-support.ts';
 
 // The uploader: builds its CSV text once and posts it `per` times for each cookie, all at once.
 const UPLOADER = `
@@ -55,21 +55,6 @@ function resetPeakRss() {
   } catch {
     // Not Linux, or not allowed: the peak then covers the whole run.
   }
-}
-
-async function probeWhile(url: string, done: Promise<unknown>): Promise<number[]> {
-  const times: number[] = [];
-  let finished = false;
-  void done.then(() => (finished = true));
-  while (!finished) {
-    const t0 = performance.now();
-    await fetch(`${url}/api/health`)
-      .then((r) => r.arrayBuffer())
-      .catch(() => undefined);
-    times.push(performance.now() - t0);
-    await new Promise((r) => setTimeout(r, 50));
-  }
-  return times;
 }
 
 interface Phase {

@@ -105,8 +105,8 @@ async function pointScreens(page: Page, role: string) {
   await check(page, `${role} point spectrum`);
   await page.getByRole('radio', { name: 'Orders' }).click();
   await check(page, `${role} point spectrum orders`);
-  await page.getByRole('radio', { name: /^Velocity/ }).click();
-  await check(page, `${role} point spectrum velocity`);
+  await page.getByRole('radio', { name: /^Acceleration/ }).click();
+  await check(page, `${role} point spectrum acceleration`);
   await page.getByRole('tab', { name: 'Waveform' }).click();
   await check(page, `${role} point waveform`);
   // Zoomed in by its keys, with the values table open.
@@ -222,6 +222,7 @@ describe('axe-core on every screen of every role (WCAG 2.0/2.1 A and AA)', () =>
     await page.keyboard.press('Escape');
     await visit(page, '/audit', 'admin audit');
     await visit(page, '/users', 'admin users');
+    await visit(page, '/integrations', 'admin integrations');
     await visit(page, '/mailbox', 'admin mailbox');
     await visit(page, '/account', 'admin account');
     await pointScreens(page, 'admin');

@@ -103,7 +103,8 @@ describe('alerts screen', () => {
     const explained = panel.getByTestId('alert-state-explained');
     await explained.waitFor();
     const text = (await explained.textContent()) ?? '';
-    expect(text).toContain(`Raised at ${fmt(raised.value)} against the alert level`);
+    // Counted in values: the raising value, then the two at 6 mm/s that escalated it.
+    expect(text).toContain(`Raised 2 values ago at ${fmt(raised.value)} against the alert level`);
     expect(text).toContain(
       `escalated to danger at ${fmt(escalated.value)} against the danger level ${fmt(detail.limit)}`,
     );

@@ -1,10 +1,16 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { demoChannels } from '@turnstone/demo-scenario/plant-channels';
 import { simulateSnapshot, toIngestItem } from '@turnstone/demo-scenario/simulated-snapshot';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
+import {
+  launchBrowser,
+  newPage,
+  screenshot,
+  signInAs,
+  chartCanvas as chart,
+} from '../support/browser.ts';
 
 // P-201's developing unbalance from the gateway simulator (with tach pulses): eight captures
 // a day apart over the last part of the story; the last ones carry an unbalance hint and the
@@ -51,20 +57,13 @@ afterAll(async () => {
   await srv?.stop();
 });
 
-async function chart(page: Page, label: RegExp) {
-  const c = page.getByRole('img', { name: label });
-  await c.waitFor();
-  await c.locator('canvas').first().waitFor();
-  return c;
-}
-
 describe('diagnosis hints and the 1× vector in a real browser', () => {
   it('the spectrum shows the hints beside the chart and marks the evidence of the chosen one', async () => {
     const page = await newPage(browser, 1366, 900);
     await signInAs(page, srv.url, 'planner');
     await page.goto(`${srv.url}/points/${pointId}`);
     await page.getByRole('tab', { name: 'Spectrum' }).click();
-    await chart(page, /^Acceleration spectrum/);
+    await chart(page, /^Velocity spectrum/);
     const hints = page.getByRole('region', { name: 'Diagnosis hints' });
     await hints.getByText(/hints, not verdicts/).waitFor();
     const unbalance = hints.getByRole('button', { name: /^Unbalance/ });

@@ -190,11 +190,15 @@ describe('keyboard only', () => {
     expect((await focused(page)).text).toBe('Trend');
     await page.keyboard.press('ArrowRight');
     expect(await focused(page)).toMatchObject({ text: 'Spectrum', state: 'true' });
-    await page.getByRole('img', { name: /^Acceleration spectrum in g RMS against Hz/ }).waitFor();
+    // With no alert band to open on: velocity over 0–40 orders.
+    await page.getByRole('img', { name: /^Velocity spectrum in mm\/s RMS against Hz/ }).waitFor();
     // The panel is named by its tab.
     await page.getByRole('tabpanel', { name: 'Spectrum' }).waitFor();
     await tabTo(page, (f) => f.role === 'radio', 'the Measure radios');
+    expect(await focused(page)).toMatchObject({ text: 'Velocity', state: 'true' });
+    await page.keyboard.press('ArrowLeft');
     expect(await focused(page)).toMatchObject({ text: 'Acceleration', state: 'true' });
+    await page.getByRole('img', { name: /^Acceleration spectrum/ }).waitFor();
     await page.keyboard.press('ArrowRight');
     expect(await focused(page)).toMatchObject({ text: 'Velocity', state: 'true' });
     await page.getByRole('img', { name: /^Velocity spectrum/ }).waitFor();
@@ -205,8 +209,11 @@ describe('keyboard only', () => {
     expect(await focused(page)).toMatchObject({ text: 'Orders', state: 'true' });
     await page.getByRole('img', { name: /against order/ }).waitFor();
     await screenshot(page, 'keyboard-spectrum-velocity-orders');
-    // Zoom without a pointer: the middle half, then a step right.
-    await tabTo(page, (f) => f.text === 'Zoom in', 'Zoom in');
+    // Zoom without a pointer: the whole range, the middle half, then a step right.
+    await tabTo(page, (f) => f.text === 'Whole range', 'Whole range');
+    await page.keyboard.press('Enter');
+    await page.getByText('Showing 0 %–100 % of the range').waitFor();
+    await tabTo(page, (f) => f.text === 'Zoom in', 'Zoom in', { back: true });
     await page.keyboard.press('Enter');
     await page.getByText('Showing 25 %–75 % of the range').waitFor();
     await tabTo(page, (f) => f.name === 'Move right', 'Move right');

@@ -69,7 +69,7 @@ describe('a thinned capture on the point page', () => {
     await page.getByText(/retention policy/).waitFor();
     await screenshot(page, 'retention-thinned-spectrum');
     await page.getByRole('button', { name: /^Open the capture of/ }).click();
-    const c = page.getByRole('img', { name: /^Acceleration spectrum/ });
+    const c = page.getByRole('img', { name: /^Velocity spectrum/ });
     await c.waitFor();
     await c.locator('canvas').first().waitFor();
     expect(await page.getByText('Spectrum no longer stored').count()).toBe(0);

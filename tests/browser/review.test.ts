@@ -5,7 +5,8 @@
  * mm/s RMS (see tests/api/review.test.ts for the numbers), and two captures over the alert
  * level on MFP-P101-MDE-H, ingested through the gateway API and analysed by the real worker.
  */
-import { readFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
+import { strFromU8, unzipSync } from 'fflate';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
@@ -69,7 +70,7 @@ describe('weekly review in a real browser', () => {
     await page.getByRole('navigation').first().getByRole('link', { name: 'Review' }).click();
     await page.getByRole('heading', { name: 'Weekly review' }).waitFor();
     // The default week (ending today) has no captures: the tables say so.
-    await page.getByText('No band rose against last week').waitFor();
+    await page.getByText('No band rose above the noise threshold').waitFor();
     await screenshot(page, 'review-empty-week');
 
     await page.getByLabel('Week ending').fill('2026-11-15');
@@ -80,8 +81,17 @@ describe('weekly review in a real browser', () => {
       .getByRole('row')
       .filter({ hasText: RISING })
       .filter({ hasText: '1× running speed' });
-    // +30.4 %: (1.50 − 1.15)/1.15, tests/api/review.test.ts.
+    // +30.4 %: (1.50 − 1.15)/1.15, tests/api/review.test.ts; 7 values in each week.
     await moverRow.getByText('+30.4 %').waitFor();
+    expect(await moverRow.getByText('7 values').count()).toBe(2);
+    // Grouped by machine, with the noise threshold stated.
+    await movers
+      .locator('[data-machine-group="Intake pump P-102"]')
+      .getByRole('rowheader')
+      .waitFor();
+    await movers
+      .getByText('at least 5 % above last week’s and each week has at least 3 values')
+      .waitFor();
     expect(await movers.getByRole('link', { name: RISING }).first().getAttribute('href')).toMatch(
       /^\/points\/\d+$/,
     );
@@ -103,6 +113,8 @@ describe('weekly review in a real browser', () => {
     await title.fill('Check P-102 motor DE: 1× rising towards alert');
     await dialog.getByLabel('Due date').fill('2026-11-20');
     await dialog.getByLabel('Note').fill('Balance check at the next stop.');
+    await dialog.getByLabel('Priority').selectOption('high');
+    await dialog.getByLabel('Owner').fill('Mechanical crew A');
     await screenshot(page, 'review-create-finding');
     await dialog.getByRole('button', { name: 'Save finding' }).click();
     await dialog.waitFor({ state: 'hidden' });
@@ -111,6 +123,8 @@ describe('weekly review in a real browser', () => {
     const row = findings.getByRole('row').filter({ hasText: 'Check P-102 motor DE' });
     await row.waitFor();
     await row.getByText('Open', { exact: true }).waitFor();
+    await row.getByText('High', { exact: true }).waitFor();
+    await row.getByText('Mechanical crew A').waitFor();
     await row.getByRole('button', { name: /Mark planned/ }).click();
     await row.getByLabel(/Work-order reference for/).fill('WO-2026-1187');
     const patched = page.waitForResponse(
@@ -126,34 +140,42 @@ describe('weekly review in a real browser', () => {
     expect(audit.map((a) => a.action)).toEqual(['finding.create', 'finding.planned']);
     await tallShot(page, 'review-finding-planned');
 
+    // Filters: state and ISO due week (2026-11-20 is in 2026-W47, ISO 8601).
+    await findings.getByLabel('State').selectOption('planned');
+    await findings.getByLabel('Due in week').fill('2026-W47');
+    await row.waitFor();
+    await findings.getByLabel('Due in week').fill('2026-W48');
+    await findings.getByText('No findings to show.').waitFor();
+    await screenshot(page, 'review-findings-filtered');
+    await findings.getByLabel('Due in week').fill('2026-W47');
+    await row.waitFor();
+
     const [download] = await Promise.all([
       page.waitForEvent('download'),
-      page.getByRole('link', { name: 'Export CSV' }).click(),
+      page.getByRole('link', { name: 'Export CSV files (ZIP)' }).click(),
     ]);
-    expect(download.suggestedFilename()).toBe('turnstone-review-2026-11-15.csv');
-    const csv = readFileSync((await download.path())!, 'utf8');
-    expect(csv).toContain('\r\nmovers\r\n');
-    expect(csv).toContain(RISING);
-    expect(csv).toContain('WO-2026-1187');
+    expect(download.suggestedFilename()).toBe('turnstone-review-2026-11-15.zip');
+    const files = unzipSync(readFileSync((await download.path())!));
+    expect(strFromU8(files['rising-bands.csv']!)).toContain(RISING);
+    expect(strFromU8(files['findings-due.csv']!)).toContain('WO-2026-1187');
 
-    // Paper: A4 portrait content width (190 mm ≈ 718 CSS px at 96 px/in).
-    await page.setViewportSize({ width: 718, height: 1015 });
+    // Paper through Chromium's own PDF: the summary (KPIs, top machines, forecasts,
+    // findings) fits two A4 pages; the details follow from a new page.
+    const pages = (pdf: Buffer) =>
+      (pdf.toString('latin1').match(/\/Type\s*\/Page\b(?!s)/g) ?? []).length;
     await page.emulateMedia({ media: 'print' });
     expect(await page.getByRole('navigation').first().isVisible()).toBe(false);
-    expect(await page.getByRole('link', { name: 'Export CSV' }).isVisible()).toBe(false);
     await page.getByText('Turnstone · weekly review').waitFor();
-    expect(
-      await forecasts
-        .getByRole('button', { name: /Create finding/ })
-        .first()
-        .isVisible(),
-    ).toBe(false);
-    // Nothing wider than the paper.
-    const overflow = await page.evaluate<number[]>(
-      `[...document.querySelectorAll('.review-table')].map((t) => t.scrollWidth)`,
-    );
-    for (const w of overflow) expect(w).toBeLessThanOrEqual(718);
-    await screenshot(page, 'review-print');
+    await page.getByText('Top machines by rise').waitFor();
+    const whole = await page.pdf({ format: 'A4', printBackground: true });
+    writeFileSync('test-output/review-print.pdf', whole);
+    await page.addStyleTag({ content: '.review-details { display: none !important; }' });
+    const summaryOnly = await page.pdf({ format: 'A4', printBackground: true });
+    writeFileSync('test-output/review-print-summary.pdf', summaryOnly);
+    expect(pages(summaryOnly)).toBeGreaterThanOrEqual(1);
+    expect(pages(summaryOnly)).toBeLessThanOrEqual(2);
+    expect(pages(whole)).toBeGreaterThan(pages(summaryOnly));
+    await screenshot(page, 'review-print-summary');
     await page.context().close();
   });
 

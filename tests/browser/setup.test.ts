@@ -1,17 +1,13 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
+import type { TestServer } from '../support/test-server.ts';
+import { newPage, screenshot, signInAs, withServerAndBrowser } from '../support/browser.ts';
 
 let srv: TestServer;
 let browser: Browser;
-beforeAll(async () => {
-  srv = await startTestServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await srv?.stop();
+withServerAndBrowser((s, b) => {
+  srv = s;
+  browser = b;
 });
 
 const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
@@ -35,6 +31,11 @@ describe('admin setup screens in a real browser', () => {
     await dialog.getByRole('button', { name: 'Copy key' }).waitFor();
     const key = await dialog.getByLabel('API key').inputValue();
     expect(key).toMatch(/^tsg_[0-9a-f]{12}_[A-Za-z0-9_-]{32}$/);
+    // Where to post and an example request with this very key.
+    await dialog.getByText(`${srv.url}/api/ingest/v1/snapshots`, { exact: true }).waitFor();
+    expect(await dialog.getByLabel('Example request').textContent()).toContain(
+      `Authorization: Bearer ${key}`,
+    );
     await screenshot(page, 'gateways-key-once');
     await dialog.getByRole('button', { name: 'I have stored the key' }).click();
     await dialog.waitFor({ state: 'hidden' });

@@ -1,17 +1,13 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
+import type { TestServer } from '../support/test-server.ts';
+import { newPage, screenshot, signInAs, withServerAndBrowser } from '../support/browser.ts';
 
 let srv: TestServer;
 let browser: Browser;
-beforeAll(async () => {
-  srv = await startTestServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await srv?.stop();
+withServerAndBrowser((s, b) => {
+  srv = s;
+  browser = b;
 });
 
 describe('users admin in a real browser', () => {

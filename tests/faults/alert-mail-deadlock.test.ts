@@ -8,8 +8,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import mysql from 'mysql2/promise';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { peakGFor } from '../support/alert-captures.ts';
-import { snapshotBody } from '../support/signals.ts';
+import { postVelocities } from '../support/alert-captures.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 
 let srv: TestServer;
@@ -22,19 +21,7 @@ type Row = Record<string, unknown>;
 const q = (sqlText: string, params: unknown[] = []) => srv.q<Row>(sqlText, params);
 
 async function ingest(velocities: number[]) {
-  for (const v of velocities) {
-    seq += 1;
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body: snapshotBody(TAG, `dl-${seq}`, {
-        tones: [{ hz: 24.7, peakG: peakGFor(v) }],
-        noiseG: 0.001,
-        seed: seq,
-        takenAt: new Date(t0 + seq * 3600_000).toISOString(),
-      }),
-      headers: { authorization: `Bearer ${key}` },
-    });
-    expect(res.status).toBe(201);
-  }
+  seq = await postVelocities(srv, key, TAG, velocities, { t0, from: seq, uidPrefix: 'dl' });
 }
 
 async function waitFor(what: string, check: () => Promise<boolean>, ms = 60_000) {

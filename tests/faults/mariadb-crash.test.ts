@@ -10,7 +10,7 @@ import { join } from 'node:path';
 import mysql from 'mysql2/promise';
 import { postUntilAnswered, type PostOutcome } from '../support/retrying-poster.ts';
 import { snapshotBody } from '../support/signals.ts';
-import { exited, spawnNode, waitForOutput } from '../support/product-process.ts';
+import { exited, newGatewayKeyAt, spawnNode, waitForOutput } from '../support/product-process.ts';
 
 const TAG = 'MFP-P101-MDE-H';
 
@@ -56,19 +56,7 @@ describe('the private MariaDB killed during ingest', () => {
       const url = (
         await waitForOutput(child, /running at (http:\/\/127\.0\.0\.1:\d+)/, 120_000)
       )[1]!;
-      const signIn = await fetch(`${url}/api/v1/auth/sign-in`, {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ email: 'admin@turnstone.local', password: 'turnstone-demo' }),
-      });
-      const cookie = (signIn.headers.get('set-cookie') ?? '').split(';')[0]!;
-      const { apiKey } = (await (
-        await fetch(`${url}/api/v1/gateways`, {
-          method: 'POST',
-          headers: { cookie, 'content-type': 'application/json' },
-          body: JSON.stringify({ siteId: 1, name: 'crash gw' }),
-        })
-      ).json()) as { apiKey: string };
+      const apiKey = await newGatewayKeyAt(url, 'crash gw');
 
       const total = 80;
       let next = 0;

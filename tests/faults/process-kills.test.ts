@@ -10,7 +10,7 @@ import { join } from 'node:path';
 import mysql from 'mysql2/promise';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { prng, snapshotBody } from '../support/signals.ts';
-import { exited, spawnNode, waitForOutput } from '../support/product-process.ts';
+import { exited, newGatewayKeyAt, spawnNode, waitForOutput } from '../support/product-process.ts';
 
 const TAG = 'MFP-P102-MDE-V';
 async function rows<T>(url: string, sql: string): Promise<T[]> {
@@ -108,19 +108,7 @@ describe('the whole product killed and restarted', () => {
       return { child, url: m[1]! };
     };
     let { child, url } = await startProduct();
-    const signIn = await fetch(`${url}/api/v1/auth/sign-in`, {
-      method: 'POST',
-      headers: { 'content-type': 'application/json' },
-      body: JSON.stringify({ email: 'admin@turnstone.local', password: 'turnstone-demo' }),
-    });
-    const cookie = (signIn.headers.get('set-cookie') ?? '').split(';')[0]!;
-    const { apiKey } = (await (
-      await fetch(`${url}/api/v1/gateways`, {
-        method: 'POST',
-        headers: { cookie, 'content-type': 'application/json' },
-        body: JSON.stringify({ siteId: 1, name: 'gw' }),
-      })
-    ).json()) as { apiKey: string };
+    const apiKey = await newGatewayKeyAt(url, 'gw');
     const accepted: string[] = [];
     for (let i = 0; i < 30; i++) {
       const body = snapshotBody(TAG, `pk-${i}`, {

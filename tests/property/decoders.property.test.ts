@@ -5,8 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { decodeSamples, readCsv, readWav, writeWav } from '@turnstone/dsp';
-import { encodeSamples } from '../../apps/server/src/features/ingest/sample-bytes.ts';
+import { decodeSamples, encodeSamples, readCsv, readWav, writeWav } from '@turnstone/dsp';
 
 const encodings = ['int16', 'int24', 'int32'] as const;
 const range = { int16: 2 ** 15, int24: 2 ** 23, int32: 2 ** 31 } as const;

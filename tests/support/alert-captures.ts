@@ -1,4 +1,5 @@
 /** Captures through the real ingest API and worker, for tests that need alerts or history. */
+import { expect } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import type { TestServer } from './test-server.ts';
 import { snapshotBody } from './signals.ts';
@@ -42,4 +43,33 @@ export async function captureVelocities(
     if (res.status !== 201) throw new Error(`ingest answered ${res.status}: ${await res.text()}`);
   }
   await createWorker(srv.ctx, { owner: 'test-captures' }).drain();
+}
+
+/**
+ * Posts one capture per velocity (mm/s RMS at 1×) on a test's own running count: capture n
+ * (counting on from `from`) has uid `${uidPrefix}-${n}`, noise seed n and is taken n hours
+ * after `t0`. Every answer must be 201. Returns the count after the last capture.
+ */
+export async function postVelocities(
+  srv: TestServer,
+  key: string,
+  tag: string,
+  velocities: number[],
+  o: { t0: number; from: number; uidPrefix: string },
+): Promise<number> {
+  let seq = o.from;
+  for (const v of velocities) {
+    seq += 1;
+    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+      body: snapshotBody(tag, `${o.uidPrefix}-${seq}`, {
+        tones: [{ hz: 24.7, peakG: peakGFor(v) }],
+        noiseG: 0.001,
+        seed: seq,
+        takenAt: new Date(o.t0 + seq * 3600_000).toISOString(),
+      }),
+      headers: { authorization: `Bearer ${key}` },
+    });
+    expect(res.status).toBe(201);
+  }
+  return seq;
 }

@@ -7,7 +7,8 @@ import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { chromiumPath } from '@turnstone/db/provision';
-import { DEMO_PASSWORD, demoEmail } from './test-server.ts';
+import { afterAll, beforeAll } from 'vitest';
+import { DEMO_PASSWORD, demoEmail, startTestServer, type TestServer } from './test-server.ts';
 
 export const CHROMIUM = chromiumPath();
 export const OUTPUT_DIR = join(process.cwd(), 'test-output');
@@ -48,4 +49,32 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   const path = join(OUTPUT_DIR, `${name}.png`);
   await page.screenshot({ path, fullPage: true });
   return path;
+}
+
+/**
+ * A test file's server and browser: started before its tests (then `ready` runs with both),
+ * closed after them.
+ */
+export function withServerAndBrowser(
+  ready: (srv: TestServer, browser: Browser) => void | Promise<void>,
+): void {
+  let srv: TestServer | undefined;
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    srv = await startTestServer();
+    browser = await launchBrowser();
+    await ready(srv, browser);
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await srv?.stop();
+  });
+}
+
+/** The chart with this accessible name, once its canvas is drawn. */
+export async function chartCanvas(page: Page, label: RegExp) {
+  const chart = page.getByRole('img', { name: label });
+  await chart.waitFor();
+  await chart.locator('canvas').first().waitFor();
+  return chart;
 }

@@ -44,3 +44,21 @@ export const exited = (child: ChildProcess) =>
   new Promise<void>((r) =>
     child.exitCode !== null || child.signalCode !== null ? r() : child.once('exit', () => r()),
   );
+
+/** Signs in as the demo admin at `url` (a running product) and creates a gateway; its key. */
+export async function newGatewayKeyAt(url: string, name: string): Promise<string> {
+  const signIn = await fetch(`${url}/api/v1/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email: 'admin@turnstone.local', password: 'turnstone-demo' }),
+  });
+  const cookie = (signIn.headers.get('set-cookie') ?? '').split(';')[0]!;
+  const { apiKey } = (await (
+    await fetch(`${url}/api/v1/gateways`, {
+      method: 'POST',
+      headers: { cookie, 'content-type': 'application/json' },
+      body: JSON.stringify({ siteId: 1, name }),
+    })
+  ).json()) as { apiKey: string };
+  return apiKey;
+}

@@ -1,5 +1,6 @@
 /** Deterministic test captures: tones of known amplitude in ADC counts. Not demo data. */
 import { mulberry32 } from '@turnstone/dsp/seeded-random';
+import { encodeSamples } from '@turnstone/dsp/sample-codec';
 
 /** Mulberry32, seeded, so every run sends the same noise. */
 export const prng = mulberry32;
@@ -38,7 +39,7 @@ export function toneCounts(o: ToneOptions = {}): Int16Array {
 }
 
 export function base64Of(counts: Int16Array): string {
-  return Buffer.from(counts.buffer, counts.byteOffset, counts.byteLength).toString('base64');
+  return Buffer.from(encodeSamples(counts, 'int16')).toString('base64');
 }
 
 /** An ingest body for one snapshot of `pointTag`. */

@@ -27,11 +27,16 @@ import { limitRoutes } from './features/limits/limits-router.ts';
 import { setupRoutes } from './features/setup/setup-router.ts';
 import { auditRoutes } from './features/audit/audit-router.ts';
 import { pointRoutes } from './features/points/points-router.ts';
+import { machineRoutes } from './features/machines/machines-router.ts';
 import { reviewRoutes } from './features/review/review-router.ts';
 import { findingRoutes } from './features/findings/findings-router.ts';
+import { qualityRoutes } from './features/quality/quality-router.ts';
 import { userLinkRoutes, userRoutes } from './features/users/users-router.ts';
 import { accountRoutes } from './features/account/account-router.ts';
 import { mailboxRoutes } from './features/mailbox/mailbox-router.ts';
+import { apiTokenRoutes } from './features/api-tokens/api-tokens-router.ts';
+import { idempotentHandler, isCreating } from './features/idempotency/idempotent-route.ts';
+import { webhookRoutes } from './features/webhooks/webhooks-router.ts';
 import { apiDocsRoutes } from './features/api-docs/api-docs-router.ts';
 
 /** The feature routes below /api/v1, by feature (auth mounts its own, behind its rate limiters). */
@@ -50,16 +55,31 @@ function featureRouteGroups(ctx: AppContext): RouteGroup[] {
     {
       tag: 'points',
       description: 'Machines, points, analyses, trends, spectra and waveforms.',
-      routes: pointRoutes(ctx),
+      routes: [...pointRoutes(ctx), ...machineRoutes(ctx)],
     },
     { tag: 'setup', description: 'Sites, areas, machines and points.', routes: setupRoutes(ctx) },
     { tag: 'audit', description: 'The audit log.', routes: auditRoutes(ctx) },
     { tag: 'review', description: 'The weekly review.', routes: reviewRoutes(ctx) },
     { tag: 'findings', description: 'Follow-ups and work orders.', routes: findingRoutes(ctx) },
     {
+      tag: 'quality',
+      description: 'Data-quality notices and their review.',
+      routes: qualityRoutes(ctx),
+    },
+    {
       tag: 'users',
       description: 'Accounts and their site links.',
       routes: [...userRoutes(ctx), ...userLinkRoutes(ctx)],
+    },
+    {
+      tag: 'api-tokens',
+      description: 'API tokens of service accounts (Authorization: Bearer).',
+      routes: apiTokenRoutes(ctx),
+    },
+    {
+      tag: 'webhooks',
+      description: 'Outgoing webhooks: alert and finding events posted to a receiver, signed.',
+      routes: webhookRoutes(ctx),
     },
     {
       tag: 'account',
@@ -162,7 +182,11 @@ export function createApp(ctx: AppContext) {
   api.use(authRouter(ctx, authenticate));
   mountRoutes(
     api,
-    featureRouteGroups(ctx).flatMap((g) => g.routes),
+    featureRouteGroups(ctx)
+      .flatMap((g) => g.routes)
+      .map((spec) =>
+        isCreating(spec) ? { ...spec, handler: idempotentHandler(ctx, spec) } : spec,
+      ),
     authenticate,
   );
   app.use('/api', healthRouter(ctx));

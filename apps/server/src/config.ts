@@ -145,6 +145,12 @@ const envSchema = z.object({
   MAIL_FROM: z.string().min(3).default('Turnstone <turnstone@localhost>'),
   /** Outbox: how long a claimed message is leased to one sender (s). */
   OUTBOX_LEASE_S: z.coerce.number().positive().default(60),
+  /** How long an Idempotency-Key of a creating POST is remembered (hours). */
+  IDEMPOTENCY_KEY_HOURS: z.coerce
+    .number()
+    .positive()
+    .max(24 * 30)
+    .default(24),
   /** Outbox: attempts before a message is given up as failed. */
   OUTBOX_MAX_ATTEMPTS: z.coerce.number().int().positive().default(8),
   /** Weekly digest schedule (cron, in DIGEST_TIME_ZONE): Monday 07:00 by default. */

@@ -23,6 +23,7 @@ import { seedIfEmpty } from './features/demo/demo-seed.ts';
 import { checkDemoExposure } from './features/demo/demo-exposure.ts';
 import { createWorker, type Worker } from './features/worker/worker.ts';
 import { startMail, type MailRuntime } from './features/mail/mail-runtime.ts';
+import { createWebhookSender, type WebhookSender } from './features/webhooks/webhook-sender.ts';
 
 export interface RunningServer {
   url: string;
@@ -32,6 +33,8 @@ export interface RunningServer {
   worker: Worker | null;
   /** The SMTP fake (when SMTP_URL is unset) and the outbox sender (ticking when RUN_WORKER). */
   mail: MailRuntime;
+  /** The webhook deliveries' sender (ticking when RUN_WORKER; tests call drain()). */
+  webhooks: WebhookSender;
   stop(): Promise<void>;
 }
 
@@ -108,6 +111,9 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
       runSender: config.RUN_WORKER,
     });
     cleanup.push(() => mail.stop());
+    const webhooks = createWebhookSender(ctx);
+    if (config.RUN_WORKER) webhooks.start();
+    cleanup.push(() => webhooks.stop());
     let worker: Worker | null = null;
     if (config.RUN_WORKER) {
       worker = createWorker(ctx);
@@ -129,7 +135,7 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
       })();
       return stopped;
     };
-    return { url: publicUrl, port, ctx, worker, mail, stop };
+    return { url: publicUrl, port, ctx, worker, mail, webhooks, stop };
   } catch (err) {
     await dbHandle.close().catch(() => {});
     await localDb?.stop();

@@ -11,6 +11,7 @@ import { loadConfig } from './config.ts';
 import { createLogger } from './lib/logger.ts';
 import { createWorker } from './features/worker/worker.ts';
 import { startMailWorker } from './features/mail/mail-runtime.ts';
+import { createWebhookSender } from './features/webhooks/webhook-sender.ts';
 
 let config;
 try {
@@ -40,11 +41,15 @@ const worker = createWorker(ctx);
 worker.start();
 // The outbox is sent by every worker process; claims are leased, so several can share it.
 const mail = await startMailWorker(ctx);
+// Webhook deliveries likewise: leased claims, so every worker process may send them.
+const webhooks = createWebhookSender(ctx);
+webhooks.start();
 log.info('worker started', { owner: worker.owner });
 for (const signal of ['SIGINT', 'SIGTERM'] as const) {
   process.once(signal, async () => {
     await worker.stop();
     await mail?.stop();
+    await webhooks.stop();
     await dbHandle.close();
     process.exit(0);
   });

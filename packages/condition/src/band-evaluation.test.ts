@@ -8,21 +8,13 @@ import {
   type BandState,
 } from './band-evaluation.ts';
 import type { QualityVerdict } from './quality.ts';
+import { overallVelocity } from './test-bands.ts';
 
 const T0 = Date.UTC(2025, 0, 1);
 const HOUR = 3_600_000;
 
 // Levels chosen for easy arithmetic: common practice, no source.
-const band: BandDefinition = {
-  key: 'overall-velocity',
-  name: 'Overall velocity',
-  kind: 'overall',
-  spectrum: 'velocity',
-  measure: 'rms',
-  unit: 'mm/s',
-  alertLevel: 4,
-  dangerLevel: 8,
-};
+const band = overallVelocity(4, 8);
 
 /** Feeds values one hour (or `step` ms) apart; returns the final state and every sample's events. */
 function feed(

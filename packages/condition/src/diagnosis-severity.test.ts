@@ -2,19 +2,11 @@ import { describe, expect, it } from 'vitest';
 import type { BandDefinition } from './band-definition.ts';
 import { DIAGNOSIS_BASELINE_MARGIN, diagnosisSeverity } from './diagnosis-severity.ts';
 import { ISO_20816_3_ZONE_BOUNDARIES } from './iso-zones.ts';
+import { overallVelocity } from './test-bands.ts';
 
 // Levels are round numbers (common practice, no source); the fallback is the ISO 20816-3
 // zone A/B boundary as tabulated in iso-zones.ts.
-const overall: BandDefinition = {
-  key: 'overall-velocity',
-  name: 'Overall velocity',
-  kind: 'overall',
-  spectrum: 'velocity',
-  measure: 'rms',
-  unit: 'mm/s',
-  alertLevel: 4.5,
-  dangerLevel: 7.1,
-};
+const overall = overallVelocity(4.5, 7.1);
 const oneX: BandDefinition = {
   key: 'order-1x',
   name: '1×',

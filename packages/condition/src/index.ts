@@ -8,6 +8,7 @@ export * from './iso-zones.ts';
 export * from './iso-band.ts';
 export * from './iso-default-levels.ts';
 export * from './band-definition.ts';
+export * from './band-description.ts';
 export * from './baseline.ts';
 export * from './effective-levels.ts';
 export * from './band-evaluation.ts';

@@ -1,32 +1,14 @@
 import { describe, it, expect } from 'vitest';
-import type { BandDefinition } from './band-definition.ts';
 import { replayLimitSet, type ReplayEntry } from './replay.ts';
 import { evaluateSnapshot, type PointState } from './snapshot-evaluation.ts';
+import { overallAcceleration, overallVelocity } from './test-bands.ts';
 
 const T0 = Date.UTC(2025, 3, 1);
 const DAY = 86_400_000;
 
 // Levels 4 / 8 mm/s and 1 / 2 g, common practice, no source.
-const velocity: BandDefinition = {
-  key: 'overall-velocity',
-  name: 'Overall velocity',
-  kind: 'overall',
-  spectrum: 'velocity',
-  measure: 'rms',
-  unit: 'mm/s',
-  alertLevel: 4,
-  dangerLevel: 8,
-};
-const acceleration: BandDefinition = {
-  key: 'overall-acceleration',
-  name: 'Overall acceleration',
-  kind: 'overall',
-  spectrum: 'acceleration',
-  measure: 'rms',
-  unit: 'g',
-  alertLevel: 1,
-  dangerLevel: 2,
-};
+const velocity = overallVelocity(4, 8);
+const acceleration = overallAcceleration(1, 2);
 
 // Day: velocity, acceleration, quality
 const rows: [number, number, ReplayEntry['quality']][] = [

@@ -1,33 +1,13 @@
 import { describe, it, expect } from 'vitest';
 import type { BandDefinition } from './band-definition.ts';
 import { acknowledgeAlert, evaluateSnapshot, type PointState } from './snapshot-evaluation.ts';
+import { overallAcceleration, overallVelocity } from './test-bands.ts';
 
 const T0 = Date.UTC(2025, 5, 1);
 const HOUR = 3_600_000;
 
 // Levels: velocity 4 / 8 mm/s, acceleration 1 / 2 g — common practice, no source.
-const bands: BandDefinition[] = [
-  {
-    key: 'overall-velocity',
-    name: 'Overall velocity',
-    kind: 'overall',
-    spectrum: 'velocity',
-    measure: 'rms',
-    unit: 'mm/s',
-    alertLevel: 4,
-    dangerLevel: 8,
-  },
-  {
-    key: 'overall-acceleration',
-    name: 'Overall acceleration',
-    kind: 'overall',
-    spectrum: 'acceleration',
-    measure: 'rms',
-    unit: 'g',
-    alertLevel: 1,
-    dangerLevel: 2,
-  },
-];
+const bands: BandDefinition[] = [overallVelocity(4, 8), overallAcceleration(1, 2)];
 
 describe('evaluateSnapshot', () => {
   it('when a snapshot exceeds one band, only that band raises, with its band key', () => {

@@ -1,5 +1,10 @@
 import { z } from 'zod';
 import { passwordSchema } from './auth.ts';
+import { unitSystemSchema } from './units.ts';
+
+/** The user's display preferences (`GET`/`PUT /account/preferences`). */
+export const preferencesSchema = z.object({ unitSystem: unitSystemSchema });
+export type Preferences = z.infer<typeof preferencesSchema>;
 
 export const changePasswordSchema = z.object({
   currentPassword: z.string().min(1, 'Enter your current password.').max(1024),

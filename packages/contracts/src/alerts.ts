@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { currentDiagnosisSchema } from './points.ts';
+import { currentDiagnosisSchema, isoZoneSchema } from './points.ts';
 import { freeText } from './text.ts';
 import { pageCursorSchema, sinceSchema } from './paging.ts';
 
@@ -52,6 +52,8 @@ export const alertSchema = z.object({
   acknowledgedBy: z.string().nullable(),
   acknowledgedAt: z.string().nullable(),
   acknowledgeNote: z.string().nullable(),
+  /** Last change of any kind (a new value, escalation, acknowledgement, clearing). */
+  updatedAt: z.string(),
 });
 export type Alert = z.infer<typeof alertSchema>;
 
@@ -94,6 +96,14 @@ export type AlertClearRule = z.infer<typeof alertClearRuleSchema>;
 export const alertDetailSchema = alertSchema.extend({
   /** Null when the point's limit set no longer has the band. */
   clearRule: alertClearRuleSchema.nullable(),
+  /** What the band measures, one plain sentence; null when the limit set no longer has it. */
+  bandMeaning: z.string().nullable(),
+  /** The machine's ISO 20816 zone: the worst zone of its points' newest zoned captures. */
+  machineZone: isoZoneSchema.nullable(),
+  /** Values of the band taken after the one that raised the alert; null once cleared. */
+  valuesSinceRaised: z.number().int().nullable(),
+  /** The band's newest values, oldest first (the detail's sparkline). */
+  recentValues: z.array(z.object({ at: z.string(), value: z.number() })),
   history: z.array(alertEventSchema),
   /** Diagnosis hints of the point's newest capture; null when it has none stored. */
   currentDiagnosis: currentDiagnosisSchema.nullable(),
@@ -120,3 +130,8 @@ export const acknowledgeManyRequestSchema = z.object({
 export type AcknowledgeManyRequest = z.infer<typeof acknowledgeManyRequestSchema>;
 
 export const acknowledgeResponseSchema = z.object({ items: z.array(alertSchema) });
+
+/** `GET /api/v1/alerts/:id/from-mail`: the signature the alert mail's link carries. */
+export const alertMailLinkQuerySchema = z.object({
+  sig: z.string().trim().min(1, 'The link has no signature.').max(100),
+});

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { sinceSchema } from './paging.ts';
 
 /** Filters of `GET /api/v1/audit`; every one optional. Times are ISO 8601 with an offset. */
 export const auditQuerySchema = z.object({
@@ -9,6 +10,11 @@ export const auditQuerySchema = z.object({
   /** Exact action (`gateway.create`) or a prefix ending in a dot (`gateway.`). */
   action: z.string().trim().max(64).optional(),
   from: z.iso.datetime({ offset: true }).optional(),
+  /**
+   * Entries written at or after this instant (as `from`; the name the other lists an
+   * integrator pulls use). With `cursor`, a pull walks every entry since the last pull.
+   */
+  since: sinceSchema.optional(),
   to: z.iso.datetime({ offset: true }).optional(),
   limit: z.coerce.number().int().min(1).max(200).default(50),
   /** Opaque: the `nextCursor` of the previous page. */
@@ -29,6 +35,12 @@ export const auditEntrySchema = z.object({
   action: z.string(),
   entity: z.string(),
   entityId: z.string(),
+  /** What people call the entity ("MFP-P101-MDE-H · Intake pump P-101"); null once deleted. */
+  entityLabel: z.string().nullable(),
+  /** The change in plain lines: field, old → new (limit sets compared band by band). */
+  changes: z.array(
+    z.object({ field: z.string(), before: z.string().nullable(), after: z.string().nullable() }),
+  ),
   before: z.unknown(),
   after: z.unknown(),
   reason: z.string().nullable(),

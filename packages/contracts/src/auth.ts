@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { roleSchema } from './roles.ts';
+import { unitSystemSchema } from './units.ts';
 
 /**
  * Password rule: 8..64 characters and at most 72 UTF-8 bytes, because bcrypt ignores
@@ -25,6 +26,8 @@ export const meSchema = z.object({
   name: z.string(),
   role: roleSchema,
   siteIds: z.array(z.number().int()),
+  /** Metric (mm/s, µm) or imperial (in/s, mil): how every screen shows values to this user. */
+  unitSystem: unitSystemSchema,
 });
 export type Me = z.infer<typeof meSchema>;
 

@@ -19,6 +19,8 @@ export const gatewaySchema = z.object({
   keyPrefix: z.string(),
   revokedAt: z.string().nullable(),
   lastSeenAt: z.string().nullable(),
+  /** Captures the gateway posted in the last hour (its recent post rate, per hour). */
+  postsLastHour: z.number().int(),
   createdAt: z.string(),
 });
 export type Gateway = z.infer<typeof gatewaySchema>;

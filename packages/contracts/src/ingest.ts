@@ -97,8 +97,14 @@ export type SnapshotIn = z.infer<typeof snapshotInSchema>;
 /** The top-level fields a snapshot may carry; any other is ignored (see snapshotInSchema). */
 export const SNAPSHOT_FIELDS: ReadonlySet<string> = new Set(Object.keys(snapshotInSchema.shape));
 
+/** A batch: `{ snapshots: [...] }` of 1 to MAX_BATCH items, each checked on its own. */
+export const ingestBatchSchema = z.object({
+  snapshots: z.array(z.unknown()).min(1).max(MAX_BATCH),
+});
+
+/** An ingest body: one snapshot object (checked by snapshotInSchema), or a batch. */
 export const ingestBodySchema = z.union([
-  z.object({ snapshots: z.array(z.unknown()).min(1).max(MAX_BATCH) }).strict(),
+  ingestBatchSchema.strict(),
   z.record(z.string(), z.unknown()),
 ]);
 

@@ -38,3 +38,8 @@ export const undeliveredMailSchema = z.object({
 });
 export type UndeliveredMail = z.infer<typeof undeliveredMailSchema>;
 export const undeliveredMailListSchema = z.object({ items: z.array(undeliveredMailSchema) });
+
+/** `GET /api/v1/mailbox?search=`: words found in the recipient or the subject. */
+export const mailboxQuerySchema = z.object({
+  search: z.string().trim().max(200).optional(),
+});

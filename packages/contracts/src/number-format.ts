@@ -41,3 +41,15 @@ export function formatQuantity(
   const u = displayUnitText(unit, system);
   return u && text !== '—' ? `${text} ${u}` : text;
 }
+
+/**
+ * Program-written sentences stored with a capture (diagnosis summaries: "1× dominant (3.52 mm/s,
+ * …)") restated in the reader's unit system: each "<number> mm/s" or "<number> µm" becomes the
+ * converted value by the one rule. Text in metric comes back unchanged.
+ */
+export function restateUnits(text: string, system: UnitSystem): string {
+  if (system === 'metric') return text;
+  return text.replace(/(-?\d+(?:\.\d+)?) (mm\/s|µm|um)(?![\w/²])/g, (_, n: string, u: string) =>
+    formatQuantity(Number(n), u === 'µm' ? 'um' : u, system),
+  );
+}

@@ -161,26 +161,10 @@ export const analysisSummarySchema = z.object({
   shaftVectors: z.array(shaftVectorSchema).nullable(),
   /** True when the retention policy cleared this capture's spectra (its values stay). */
   spectraThinned: z.boolean().optional(),
+  /** The quality checks' findings behind a suspect or unusable verdict (why). */
+  findings: z.array(qualityFindingSchema).optional(),
   /** Set when a person pinned the capture: retention keeps it whole. */
   pinned: z.object({ by: z.string(), at: z.string(), note: z.string() }).nullable().optional(),
-});
-
-/** PUT /analyses/:id/pin */
-export const pinInputSchema = z
-  .object({
-    note: z
-      .string()
-      .trim()
-      .max(200, 'A pin note is at most 200 characters.')
-      .refine((v) => !/[\u0000-\u001f\u007f]/.test(v), 'A pin note is one line of text.')
-      .default(''),
-  })
-  .strict();
-export const pinSchema = z.object({
-  analysisId: z.number().int(),
-  by: z.string(),
-  at: z.string(),
-  note: z.string(),
 });
 export type AnalysisSummary = z.infer<typeof analysisSummarySchema>;
 
@@ -197,6 +181,18 @@ export const machinePointSchema = z.object({
   latest: analysisSummarySchema.nullable(),
   /** Last ≈ 50 overall velocity values (mm/s RMS), oldest first. */
   recentVelocity: z.array(z.object({ t: z.string(), v: z.number() })),
+  /**
+   * The band that decides the point's state: the band of its worst open alert (danger before
+   * alert, then the newest), else overall velocity; with its last ≈ 50 values, oldest first.
+   */
+  governing: z.object({
+    key: z.string(),
+    name: z.string(),
+    unit: z.string(),
+    /** The open alert's level on this band; null when no alert is open on the point. */
+    level: z.enum(['alert', 'danger']).nullable(),
+    values: z.array(z.object({ t: z.string(), v: z.number() })),
+  }),
 });
 export type MachinePoint = z.infer<typeof machinePointSchema>;
 
@@ -217,6 +213,8 @@ export const machineDetailSchema = z.object({
   site: z.object({ id: z.number().int(), name: z.string(), code: z.string() }),
   area: z.object({ id: z.number().int(), name: z.string() }),
   status: nodeStatusSchema,
+  /** ISO 20816-3 zone boundaries (mm/s RMS) of the machine's group and foundation. */
+  isoBoundaries: z.object({ ab: z.number(), bc: z.number(), cd: z.number() }).nullable(),
   bearings: z.array(
     z.object({
       id: z.number().int(),
@@ -255,6 +253,29 @@ export const pointBandSchema = z.object({
   alertLevel: z.number(),
   dangerLevel: z.number(),
   levelSource: z.enum(['fixed', 'statistical']),
+  /**
+   * Where in the spectrum the band sits, as defined (the spectrum view opens on it): overall
+   * over a Hz span (null edges: the analysis' own span), a Hz or order range, or a window of
+   * ± halfWidth around a fault frequency and its first `harmonics` harmonics.
+   */
+  range: z
+    .discriminatedUnion('kind', [
+      z.object({
+        kind: z.literal('overall'),
+        fromHz: z.number().nullable(),
+        toHz: z.number().nullable(),
+      }),
+      z.object({ kind: z.literal('hz'), fromHz: z.number(), toHz: z.number() }),
+      z.object({ kind: z.literal('order'), fromOrder: z.number(), toOrder: z.number() }),
+      z.object({
+        kind: z.literal('fault'),
+        fault: z.string(),
+        halfWidth: z.number(),
+        halfWidthUnit: z.enum(['hz', 'order', 'percent']),
+        harmonics: z.number().int(),
+      }),
+    ])
+    .optional(),
 });
 export type PointBand = z.infer<typeof pointBandSchema>;
 
@@ -345,26 +366,6 @@ export const waveformSchema = z.object({
   findings: z.array(qualityFindingSchema),
 });
 export type Waveform = z.infer<typeof waveformSchema>;
-
-export const waterfallQuerySchema = z.object({
-  kind: spectrumKindSchema.default('acceleration'),
-  limit: z.coerce.number().int().min(1).max(50).default(20),
-});
-export const waterfallSchema = z.object({
-  kind: spectrumKindSchema,
-  unit: z.string(),
-  axis: z.enum(['hz', 'order']),
-  /** Newest first. Each spectrum carries its own line spacing (settings may change). */
-  items: z.array(
-    z.object({
-      analysisId: z.number().int(),
-      takenAt: z.string(),
-      step: z.number(),
-      values: z.string(),
-    }),
-  ),
-});
-export type Waterfall = z.infer<typeof waterfallSchema>;
 
 /** base64 of little-endian float32 → numbers (browser and Node; no Buffer needed). */
 export function decodeFloat32Base64(b64: string): Float32Array {

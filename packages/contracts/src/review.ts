@@ -2,11 +2,12 @@ import { z } from 'zod';
 import { findingSchema, isoDateSchema } from './findings.ts';
 
 /**
- * The planner's weekly review: this week against last. A week is the seven UTC days ending
- * with `weekEnding` (inclusive); last week is the seven days before it.
+ * The planner's weekly review: this week against last. A week is the seven local days of each
+ * site (its IANA time zone) ending with `weekEnding` (inclusive); last week is the seven days
+ * before it.
  *
- * `GET /api/v1/review?weekEnding=YYYY-MM-DD&weeksAhead=4&siteId=` (JSON) and
- * `GET /api/v1/review.csv?…` (the same tables as CSV).
+ * `GET /api/v1/review?weekEnding=YYYY-MM-DD&weeksAhead=4&siteId=&minChangePercent=&minValues=`
+ * (JSON) and `GET /api/v1/review.zip?…` (one CSV file per table).
  */
 export const reviewQuerySchema = z.object({
   /** Last day of the week reviewed; default today (UTC). */
@@ -15,6 +16,10 @@ export const reviewQuerySchema = z.object({
   weeksAhead: z.coerce.number().int().min(1).max(52).default(4),
   /** One site only; default every site the user may see. */
   siteId: z.coerce.number().int().positive().optional(),
+  /** Noise threshold: a rise counts only when this week's mean is this many % above last week's. */
+  minChangePercent: z.coerce.number().min(0).max(1000).default(5),
+  /** Noise threshold: … and each of the two weeks has at least this many values. */
+  minValues: z.coerce.number().int().min(1).max(10_000).default(3),
 });
 export type ReviewQuery = z.input<typeof reviewQuerySchema>;
 
@@ -105,6 +110,19 @@ export const reviewQualityNoticeSchema = z.object({
 });
 export type ReviewQualityNotice = z.infer<typeof reviewQualityNoticeSchema>;
 
+/** A machine with rising bands: the review's groups, worst machine first. */
+export const reviewMachineGroupSchema = z.object({
+  machineId: z.number().int(),
+  machineName: z.string(),
+  siteCode: z.string(),
+  criticality: z.enum(['high', 'medium', 'low']),
+  /** Rising bands of the machine (rows in `movers`, worst first). */
+  movers: z.number().int(),
+  /** The largest percentage rise of its bands (null: a band rose from zero). */
+  worstChangePercent: z.number().nullable(),
+});
+export type ReviewMachineGroup = z.infer<typeof reviewMachineGroupSchema>;
+
 export const reviewFindingDueSchema = findingSchema.extend({
   /** Not done and due before the day the review was made. */
   overdue: z.boolean(),
@@ -118,11 +136,25 @@ export const reviewSchema = z.object({
     thisWeek: z.object({ from: z.string(), to: z.string() }),
     lastWeek: z.object({ from: z.string(), to: z.string() }),
     weeksAhead: z.number().int(),
-    /** Days are UTC days. */
-    timeZone: z.literal('UTC'),
+    /** The sites' time zone when they share one, else "per site" (see `siteWeeks`). */
+    timeZone: z.string(),
     generatedAt: z.string(),
   }),
-  sites: z.array(z.object({ id: z.number().int(), code: z.string(), name: z.string() })),
+  /** Each site's weeks in its own time zone (ISO instants; `to` exclusive). */
+  siteWeeks: z.array(
+    z.object({
+      siteId: z.number().int(),
+      siteCode: z.string(),
+      timeZone: z.string(),
+      thisWeek: z.object({ from: z.string(), to: z.string() }),
+      lastWeek: z.object({ from: z.string(), to: z.string() }),
+    }),
+  ),
+  /** The noise threshold the movers passed: both stated on the screen and in the files. */
+  noise: z.object({ minChangePercent: z.number(), minValues: z.number().int() }),
+  sites: z.array(
+    z.object({ id: z.number().int(), code: z.string(), name: z.string(), timeZone: z.string() }),
+  ),
   summary: z.object({
     movers: z.number().int(),
     forecasts: z.number().int(),
@@ -132,11 +164,18 @@ export const reviewSchema = z.object({
     qualityNotices: z.number().int(),
     findingsDue: z.number().int(),
     findingsOverdue: z.number().int(),
+    findingsCreated: z.number().int(),
+    /** Rises the noise threshold left out. */
+    moversBelowThreshold: z.number().int(),
   }),
+  machineGroups: z.array(reviewMachineGroupSchema),
+  /** Ordered by machine group (criticality, then change), worst band first within it. */
   movers: z.array(reviewMoverSchema),
   forecasts: z.array(reviewForecastSchema),
   openAlerts: z.array(reviewAlertSchema),
   qualityNotices: z.array(reviewQualityNoticeSchema),
   findingsDue: z.array(reviewFindingDueSchema),
+  /** Findings created within this week (each site's own week). */
+  findingsCreated: z.array(findingSchema),
 });
 export type WeeklyReview = z.infer<typeof reviewSchema>;

@@ -72,6 +72,10 @@ export const trendResponseSchema = z.object({
       kind: z.enum(['raised', 'escalated', 'acknowledged', 'cleared']),
       level: z.enum(['alert', 'danger']),
       alertId: z.number().int(),
+      /** Who acted (an acknowledgement); null for the worker's own events. */
+      by: z.string().nullable(),
+      /** The note written with it; null when none. */
+      note: z.string().nullable(),
     }),
   ),
   /** Maintenance findings on this point in the period, for markers. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatNumber, formatQuantity } from './number-format.ts';
+import { formatNumber, formatQuantity, restateUnits } from './number-format.ts';
 import {
   displayUnit,
   displayUnitText,
@@ -110,5 +110,16 @@ describe('number formatting', () => {
     expect(formatNumber(null)).toBe('—');
     expect(formatNumber(0)).toBe('0');
     expect(formatQuantity(undefined, 'mm/s', 'imperial')).toBe('—');
+  });
+});
+
+describe('restating stored sentences', () => {
+  // ÷ 25.4 by hand (NIST SP 811): 3.52 mm/s → 0.13858 in/s; 60 µm → 2.3622 mil.
+  it('when a diagnosis summary names mm/s and µm, an imperial reader gets in/s and mil', () => {
+    const s = '1× dominant (3.52 mm/s, 100 % of the energy); 60 µm pk-pk at 2 mm/s² and 0.5 g';
+    expect(restateUnits(s, 'imperial')).toBe(
+      '1× dominant (0.139 in/s, 100 % of the energy); 2.36 mil pk-pk at 2 mm/s² and 0.5 g',
+    );
+    expect(restateUnits(s, 'metric')).toBe(s);
   });
 });

@@ -198,6 +198,11 @@ export const users = mysqlTable(
      * password, no mail); listed on the API tokens screen, not among the people.
      */
     kind: mysqlEnum('kind', ['person', 'service']).notNull().default('person'),
+    /**
+     * How the user reads velocity and displacement (screens, CSV exports, their e-mails):
+     * `metric` mm/s and µm, `imperial` in/s and mil. Values stay stored in metric.
+     */
+    unitSystem: mysqlEnum('unit_system', ['metric', 'imperial']).notNull().default('metric'),
     disabledAt: at('disabled_at'),
     lastSignInAt: at('last_sign_in_at'),
     createdAt: createdAt(),

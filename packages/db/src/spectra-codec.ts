@@ -194,6 +194,29 @@ export function readSpectrum(
   return float32Of(legacy);
 }
 
+/**
+ * {@link readSpectrum} as base64 of little-endian float32, the form the API sends: an old
+ * float32 column is already that and is sent as stored (whole values only), not copied
+ * through an array.
+ */
+export function readSpectrumBase64(
+  kind: SpectrumKind,
+  compact: Uint8Array | null | undefined,
+  legacy: Uint8Array | null | undefined,
+): string | null {
+  if (compact) return base64Of(decodeSpectra(compact, kind)[kind]);
+  if (!legacy) return null;
+  const whole = legacy.byteLength - (legacy.byteLength % 4);
+  return Buffer.from(legacy.buffer, legacy.byteOffset, whole).toString('base64');
+}
+
+/** Float32 values as base64 of their little-endian bytes. */
+export function base64Of(values: Float32Array | null): string | null {
+  return values
+    ? Buffer.from(values.buffer, values.byteOffset, values.byteLength).toString('base64')
+    : null;
+}
+
 /** A little-endian float32 BLOB → its values (copied: a Buffer may sit at any byte offset). */
 export function float32Of(blob: Uint8Array | null | undefined): Float32Array | null {
   if (!blob) return null;

@@ -6,7 +6,7 @@
 import type { SnapshotIn } from '@turnstone/contracts/ingest';
 import type { SimChannel } from './plant-channels.ts';
 import { fnv1a } from '@turnstone/dsp/seeded-random';
-import { countsToBytes } from './sample-bytes.ts';
+import { encodeSamples } from '@turnstone/dsp/sample-codec';
 import { storyRecipe } from './story-recipe.ts';
 import { synthesizeCapture } from './synthesize-capture.ts';
 
@@ -52,7 +52,7 @@ export function simulateSnapshot(
     takenAt,
     sampleRateHz: cap.sampleRateHz,
     encoding: cap.encoding,
-    bytes: countsToBytes(cap.counts, cap.encoding),
+    bytes: Buffer.from(encodeSamples(cap.counts, cap.encoding)),
     adc: cap.adc,
     sensitivityMvPerG: recipe.sensitivityMvPerG,
     // A gateway with a speed input reports it to 0.1 r/min; with a tach it sends the pulses.

@@ -5,7 +5,7 @@ export * from './analyze-snapshot.ts';
 export * from './band-rms.ts';
 export * from './band-values.ts';
 export * from './decibels.ts';
-export * from './decode-samples.ts';
+export * from './sample-codec.ts';
 export * from './envelope.ts';
 export * from './fault-frequencies.ts';
 export * from './fft-plan.ts';

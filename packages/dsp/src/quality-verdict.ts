@@ -1,5 +1,5 @@
 import { quantizationSnrDb } from './quantization-snr.ts';
-import type { SampleEncoding } from './decode-samples.ts';
+import type { SampleEncoding } from './sample-codec.ts';
 import { checkAdc } from './scale-samples.ts';
 import { welch } from './welch.ts';
 import {

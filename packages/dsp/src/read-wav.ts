@@ -1,4 +1,9 @@
-import { decodeSamples, type SampleEncoding } from './decode-samples.ts';
+import {
+  BYTES_PER_SAMPLE,
+  decodeSamples,
+  putSamples,
+  type SampleEncoding,
+} from './sample-codec.ts';
 
 /** A decoded WAV recording (one channel). */
 export interface WavRecording {
@@ -185,7 +190,7 @@ export function writeWav(
   sampleRateHz: number,
   encoding: SampleEncoding,
 ): Uint8Array {
-  const width = encoding === 'int16' ? 2 : encoding === 'int24' ? 3 : 4;
+  const width = BYTES_PER_SAMPLE[encoding];
   const dataSize = samples.length * width;
   const bytes = new Uint8Array(44 + dataSize + (dataSize % 2));
   const view = new DataView(bytes.buffer);
@@ -205,17 +210,6 @@ export function writeWav(
   view.setUint16(34, width * 8, true);
   ascii(36, 'data');
   view.setUint32(40, dataSize, true);
-  for (let i = 0; i < samples.length; i++) {
-    const o = 44 + i * width;
-    const v = samples[i]!;
-    if (encoding === 'float32') view.setFloat32(o, v, true);
-    else if (encoding === 'int16') view.setInt16(o, v, true);
-    else if (encoding === 'int32') view.setInt32(o, v, true);
-    else {
-      bytes[o] = v & 0xff;
-      bytes[o + 1] = (v >> 8) & 0xff;
-      bytes[o + 2] = (v >> 16) & 0xff;
-    }
-  }
+  putSamples(view, 44, samples, encoding);
   return bytes;
 }

@@ -1,4 +1,4 @@
-import type { SampleEncoding } from './decode-samples.ts';
+import type { SampleEncoding } from './sample-codec.ts';
 import { STANDARD_GRAVITY } from './units.ts';
 
 /** Options for {@link scaleToAcceleration}. */

@@ -3,7 +3,7 @@
  * the checks that turn it into validated values (a clear error for each bad field).
  */
 import { checkBands, type BandDefinition } from './band-values.ts';
-import { parseEncoding, type SampleEncoding } from './decode-samples.ts';
+import { parseEncoding, type SampleEncoding } from './sample-codec.ts';
 import type { MachineComponents } from './fault-frequencies.ts';
 import { ISO_BAND_HZ, type IsoBand } from './iso-overall-band.ts';
 import { tachSpeedRpm, type TachPulses } from './order-tracking.ts';

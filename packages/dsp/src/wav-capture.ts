@@ -1,4 +1,4 @@
-import type { SampleEncoding } from './decode-samples.ts';
+import type { SampleEncoding } from './sample-codec.ts';
 import { readWav } from './read-wav.ts';
 import { checkAdc } from './scale-samples.ts';
 

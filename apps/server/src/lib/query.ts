@@ -21,7 +21,16 @@ function namesOf(schema: z.ZodType): ReadonlySet<string> | null {
 }
 
 export function parseQuery<T extends z.ZodType>(schema: T, query: unknown): z.output<T> {
-  const names = namesOf(schema);
+  refuseUnknown(namesOf(schema), query);
+  return schema.parse(query);
+}
+
+/** For a route that takes no query parameters at all: any one given is a 400. */
+export function refuseAnyQuery(query: unknown): void {
+  refuseUnknown(new Set(), query);
+}
+
+function refuseUnknown(names: ReadonlySet<string> | null, query: unknown): void {
   if (names && query && typeof query === 'object') {
     const unknown = Object.keys(query).filter((k) => !names.has(k));
     if (unknown.length > 0)
@@ -32,5 +41,4 @@ export function parseQuery<T extends z.ZodType>(schema: T, query: unknown): z.ou
         unknown.map((k) => ({ path: k, message: 'unknown query parameter' })),
       );
   }
-  return schema.parse(query);
 }

@@ -7,6 +7,7 @@ import type { Request, Response, NextFunction, Router } from 'express';
 import type { z } from 'zod';
 import type { Role } from '@turnstone/contracts/roles';
 import { forbidden, unauthenticated } from './app-error.ts';
+import { refuseAnyQuery } from './query.ts';
 
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 export const ALL_ROLES: readonly Role[] = ['admin', 'engineer', 'planner', 'operator'];
@@ -16,7 +17,7 @@ export const ALL_ROLES: readonly Role[] = ['admin', 'engineer', 'planner', 'oper
  * `/api/v1` (api-openapi.ts) is generated from them. Give the very schema objects the
  * handler uses, never a copy.
  */
-export type SuccessStatus = 200 | 201 | 202 | 204;
+export type SuccessStatus = 200 | 201 | 202 | 204 | 302;
 
 export interface RouteSchemas {
   /** Path parameters (`idParam`); without it each `:name` is documented as a string. */
@@ -29,7 +30,7 @@ export interface RouteSchemas {
   form?: { fields: z.ZodType; file: string };
   /** The JSON body of the success answer. */
   response?: z.ZodType;
-  /** Status of the success answer: 200 unless said (201 for a creation, 202 accepted, 204 without a body). */
+  /** Status of the success answer: 200 unless said (201 for a creation, 202 accepted, 204 without a body, 302 a redirect). */
   status?: SuccessStatus | readonly SuccessStatus[];
   /** Media type of a success answer that is not JSON (a CSV or WAV download). */
   produces?: string;
@@ -45,6 +46,11 @@ export interface RouteSpec {
   summary: string;
   /** What it takes and answers, for the OpenAPI document; routes without it are listed bare. */
   schemas?: RouteSchemas;
+  /**
+   * A creating POST takes an `Idempotency-Key` (features/idempotency) unless `refused`:
+   * for an answer holding a secret shown once, which a replay would have to keep.
+   */
+  idempotency?: 'refused';
   handler: (req: Request, res: Response) => unknown;
 }
 
@@ -67,6 +73,9 @@ export function mountRoutes(router: Router, specs: RouteSpec[], authenticate: Au
       next();
     };
     router[spec.method](spec.path, guard, async (req: Request, res: Response) => {
+      // A route without a query schema takes no query parameters: one sent is a 400, so a
+      // filter a client believes in (`?siteId=2` on a route without it) is never ignored.
+      if (!spec.schemas?.query) refuseAnyQuery(req.query);
       await spec.handler(req, res);
     });
   }

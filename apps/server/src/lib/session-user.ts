@@ -1,4 +1,5 @@
 import type { Role } from '@turnstone/contracts/roles';
+import type { UnitSystem } from '@turnstone/contracts/units';
 
 /** The signed-in user as every route sees it. Admins see every site. */
 export interface SessionUser {
@@ -7,6 +8,8 @@ export interface SessionUser {
   name: string;
   role: Role;
   siteIds: number[];
+  /** How the user reads velocity and displacement (CSV exports follow it). */
+  unitSystem: UnitSystem;
 }
 
 declare module 'express-serve-static-core' {

@@ -86,6 +86,10 @@ const appRoutes: RouteObject[] = [
     lazy: page(() => import('./routes/app/users.tsx'), 'UsersRoute'),
   },
   {
+    path: paths.app.integrations.path,
+    lazy: page(() => import('./routes/app/integrations.tsx'), 'IntegrationsRoute'),
+  },
+  {
     path: paths.app.mailbox.path,
     loader: prefetching(mailboxData),
     lazy: page(() => import('./routes/app/mailbox.tsx'), 'MailboxRoute'),

@@ -24,6 +24,7 @@ export const navigation: readonly NavigationItem[] = [
   { to: paths.app.gateways.getHref(), label: 'Gateways', roles: ['admin'] },
   { to: paths.app.audit.getHref(), label: 'Audit log', roles: ['admin', 'engineer'] },
   { to: paths.app.users.getHref(), label: 'Users', roles: ['admin'] },
+  { to: paths.app.integrations.getHref(), label: 'Integrations', roles: ['admin'] },
   { to: paths.app.mailbox.getHref(), label: 'Mailbox', roles: ['admin'] },
   { to: paths.app.account.getHref(), label: 'Account', roles },
 ];

@@ -33,6 +33,7 @@ export const paths = {
     },
     uploads: { path: '/uploads', getHref: () => '/uploads' },
     users: { path: '/users', getHref: () => '/users' },
+    integrations: { path: '/integrations', getHref: () => '/integrations' },
     mailbox: { path: '/mailbox', getHref: () => '/mailbox' },
     account: { path: '/account', getHref: () => '/account' },
     fleet: {
@@ -53,9 +54,17 @@ export const paths = {
     },
     point: {
       path: '/points/:pointId',
-      /** `band`: open the point's Trend view on this band (its key, `?band=`). */
-      getHref: (pointId: number, band?: string) =>
-        band ? `/points/${pointId}?band=${encodeURIComponent(band)}` : `/points/${pointId}`,
+      /**
+       * `band`: open the point on this band (its key, `?band=`): the Trend view on it, or with
+       * `view` 'spectrum' the spectrum on its measure and span (`&view=spectrum`).
+       */
+      getHref: (pointId: number, band?: string, view?: 'spectrum') => {
+        const q = new URLSearchParams();
+        if (band) q.set('band', band);
+        if (view) q.set('view', view);
+        const s = q.toString();
+        return s ? `/points/${pointId}?${s}` : `/points/${pointId}`;
+      },
     },
     machine: {
       path: '/machines/:machineId',

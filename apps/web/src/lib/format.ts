@@ -1,9 +1,9 @@
 const relative = new Intl.RelativeTimeFormat('en-GB', { style: 'short', numeric: 'always' });
 const integer = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 0 });
-const dateTime = new Intl.DateTimeFormat('en-GB', {
-  dateStyle: 'medium',
-  timeStyle: 'short',
-});
+import { formatDateTime as formatAt } from '@turnstone/contracts/dates';
+
+/** The browser's own time zone: times on screens not tied to one site are read in it. */
+const localZone = Intl.DateTimeFormat().resolvedOptions().timeZone;
 
 const steps: [Intl.RelativeTimeFormatUnit, number][] = [
   ['second', 60],
@@ -32,9 +32,22 @@ export function formatAge(iso: string, now: number): string {
   return '—';
 }
 
-export function formatDateTime(iso: string): string {
+/** One format on every screen, CSV and mail: `2026-11-27 14:05` (contracts/dates.ts). */
+export function formatDateTime(iso: string, timeZone = localZone): string {
+  return formatAt(iso, timeZone);
+}
+
+const shortDateTime = new Intl.DateTimeFormat('en-GB', {
+  day: 'numeric',
+  month: 'short',
+  hour: '2-digit',
+  minute: '2-digit',
+});
+
+/** Day, month and time without the year ("30 Nov, 14:02"), for crowded chart axes. */
+export function formatShortDateTime(iso: string): string {
   const then = Date.parse(iso);
-  return Number.isNaN(then) ? iso : dateTime.format(then);
+  return Number.isNaN(then) ? iso : shortDateTime.format(then);
 }
 
 export function formatInteger(value: number): string {

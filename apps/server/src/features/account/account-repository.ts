@@ -1,7 +1,8 @@
 /** The signed-in user's notification settings, and the sites and machines they may choose. */
 import { and, asc, eq, inArray, isNotNull, notInArray } from 'drizzle-orm';
 import type { Db, Tx } from '@turnstone/db/client';
-import { areas, machines, sites, subscriptions } from '@turnstone/db/schema';
+import { areas, machines, sites, subscriptions, users } from '@turnstone/db/schema';
+import type { UnitSystem } from '@turnstone/contracts/units';
 
 export async function sitesOf(db: Db, siteIds: readonly number[]) {
   if (siteIds.length === 0) return [];
@@ -102,4 +103,8 @@ export async function dropSubscriptionsOutside(
         ),
       ),
     );
+}
+
+export async function setUnitSystem(db: Db | Tx, userId: number, unitSystem: UnitSystem) {
+  await db.update(users).set({ unitSystem }).where(eq(users.id, userId));
 }

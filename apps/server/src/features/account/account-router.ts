@@ -1,6 +1,7 @@
 import type { Request } from 'express';
 import {
   changePasswordSchema,
+  preferencesSchema,
   subscriptionSettingsResponseSchema,
   subscriptionSettingsSchema,
 } from '@turnstone/contracts/account';
@@ -49,6 +50,25 @@ export function accountRoutes(ctx: AppContext): RouteSpec[] {
           cookie(req),
         );
         res.status(204).end();
+      },
+    },
+    {
+      method: 'get',
+      path: '/account/preferences',
+      access: ALL_ROLES,
+      summary: 'my display preferences (unit system)',
+      schemas: { response: preferencesSchema },
+      handler: (req, res) => res.json({ unitSystem: requireUser(req).unitSystem }),
+    },
+    {
+      method: 'put',
+      path: '/account/preferences',
+      access: ALL_ROLES,
+      summary: 'change my display preferences (unit system)',
+      schemas: { body: preferencesSchema, response: preferencesSchema },
+      handler: async (req, res) => {
+        const body = preferencesSchema.parse(req.body);
+        res.json(await service.putPreferences(ctx, requireUser(req), body));
       },
     },
     {

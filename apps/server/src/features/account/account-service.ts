@@ -1,6 +1,10 @@
 /** The signed-in user's own account: password change and notification settings. */
 
-import type { ChangePassword, SubscriptionSettings } from '@turnstone/contracts/account';
+import type {
+  ChangePassword,
+  Preferences,
+  SubscriptionSettings,
+} from '@turnstone/contracts/account';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
@@ -96,4 +100,14 @@ export async function putSubscriptions(
     });
   await repo.replaceSubscriptions(ctx.db, user.id, rows);
   return getSubscriptions(ctx, user);
+}
+
+/** Stores the user's unit system; their screens, CSV exports and e-mails follow it. */
+export async function putPreferences(
+  ctx: AppContext,
+  user: SessionUser,
+  input: Preferences,
+): Promise<Preferences> {
+  await repo.setUnitSystem(ctx.db, user.id, input.unitSystem);
+  return { unitSystem: input.unitSystem };
 }

@@ -4,6 +4,7 @@ import {
   acknowledgeResponseSchema,
   alertDetailSchema,
   alertListQuerySchema,
+  alertMailLinkQuerySchema,
   alertPageSchema,
 } from '@turnstone/contracts/alerts';
 import type { AppContext } from '../../lib/context.ts';
@@ -47,6 +48,21 @@ export function alertRoutes(ctx: AppContext): RouteSpec[] {
       handler: async (req, res) => {
         const { id } = idParam.parse(req.params);
         res.json(alertDetailSchema.parse(await service.getAlert(ctx, requireUser(req), id)));
+      },
+    },
+    {
+      // The alert mail's link: public so it can check its signature before anything else;
+      // the page it sends to asks for a session as every page does.
+      method: 'get',
+      path: '/alerts/:id/from-mail',
+      access: 'public',
+      summary: "open an alert from its mail's signed link",
+      schemas: { params: idParam, query: alertMailLinkQuerySchema, status: 302 },
+      handler: (req, res) => {
+        const { id } = idParam.parse(req.params);
+        const { sig } = parseQuery(alertMailLinkQuerySchema, req.query);
+        res.setHeader('Cache-Control', 'no-store');
+        res.redirect(302, service.alertPageFromMail(ctx, id, sig));
       },
     },
     {

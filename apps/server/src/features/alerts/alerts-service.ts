@@ -10,6 +10,7 @@ import {
   bandClearAfterHours,
   bandClearLevel,
   bandClearPersistence,
+  describeBand,
   levelsInForce,
   type PointState,
 } from '@turnstone/condition';
@@ -22,6 +23,7 @@ import type {
 import { alertListQuerySchema } from '@turnstone/contracts/alerts';
 
 import type { AppContext } from '../../lib/context.ts';
+import type { Db, Tx } from '@turnstone/db/client';
 import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import * as conditionRepo from '../condition/condition-repository.ts';
@@ -30,11 +32,13 @@ import { currentDiagnosis } from '../points/points-service.ts';
 import { loadLimitSet } from '../limits/limit-set-repository.ts';
 import { bandStatesOf } from '../points/points-repository.ts';
 import * as repo from './alerts-repository.ts';
+import { isAlertLinkSignature } from './alert-mail-link.ts';
+import { queueAlertWebhook } from '../webhooks/webhooks-service.ts';
 import { decodeCursor, pageOf } from '../../lib/cursor.ts';
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
 
-function toAlert(r: repo.AlertRow): Alert {
+export function toAlert(r: repo.AlertRow): Alert {
   return {
     ...r,
     suspect: Boolean(r.suspect),
@@ -44,6 +48,7 @@ function toAlert(r: repo.AlertRow): Alert {
     acknowledgedAt: iso(r.acknowledgedAt),
     acknowledgedBy: r.acknowledgedBy ?? null,
     acknowledgeNote: r.acknowledgeNote ?? null,
+    updatedAt: r.updatedAt.toISOString(),
   };
 }
 
@@ -63,30 +68,66 @@ export async function listAlerts(ctx: AppContext, user: SessionUser, query: Aler
 }
 
 /**
+ * The open (raised or acknowledged) alerts on a machine's points: danger before alert, then
+ * newest activity first. The caller has checked the machine's site.
+ */
+export async function openAlertsOfMachine(
+  ctx: AppContext,
+  user: SessionUser,
+  machineId: number,
+): Promise<Alert[]> {
+  const rows = await repo.listAlerts(ctx.db, {
+    machineId,
+    open: true,
+    siteIds: visibleSites(user),
+    limit: 200,
+  });
+  const rank = (l: Alert['level']) => (l === 'danger' ? 0 : 1);
+  return rows.map(toAlert).sort((a, b) => rank(a.level) - rank(b.level));
+}
+
+/**
  * How the band's open alert clears under the point's limit set in force: the levels the
  * worker judges at (`levelsInForce`), its clear level and clear rules (`evaluateBand` rule 6).
  * Null when the set no longer has the band.
  */
-async function clearRuleOf(
-  ctx: AppContext,
+export async function bandRuleOf(
+  db: Db | Tx,
   pointId: number,
   bandKey: string,
-): Promise<AlertClearRule | null> {
-  const [set, states] = await Promise.all([
-    loadLimitSet(ctx.db, pointId),
-    bandStatesOf(ctx.db, pointId),
-  ]);
+): Promise<{ clearRule: AlertClearRule; bandMeaning: string } | null> {
+  const [set, states] = await Promise.all([loadLimitSet(db, pointId), bandStatesOf(db, pointId)]);
   const band = set?.bands.find((b) => b.key === bandKey);
   if (!band) return null;
   const levels = levelsInForce(band, states.get(bandKey));
   return {
-    alertLevel: levels.alertLevel,
-    dangerLevel: levels.dangerLevel,
-    clearLevel: bandClearLevel(band, levels),
-    clearPersistence: bandClearPersistence(band),
-    clearAfterHours: bandClearAfterHours(band),
+    clearRule: {
+      alertLevel: levels.alertLevel,
+      dangerLevel: levels.dangerLevel,
+      clearLevel: bandClearLevel(band, levels),
+      clearPersistence: bandClearPersistence(band),
+      clearAfterHours: bandClearAfterHours(band),
+    },
+    bandMeaning: describeBand(band),
   };
 }
+
+/**
+ * Where an alert mail's link leads: the alerts page with the alert open. A signature that is
+ * not this alert's is refused (403), so the link cannot be bent towards anything else.
+ */
+export function alertPageFromMail(ctx: AppContext, id: number, sig: string): string {
+  if (!isAlertLinkSignature(ctx.jwtSecret, id, sig))
+    throw new AppError(
+      'bad_link_signature',
+      'This link was not sent by Turnstone or has been changed. Open the alert from the Alerts page instead.',
+      403,
+    );
+  return `/alerts?alert=${id}`;
+}
+
+/** Values of the band the alert detail's sparkline shows. */
+export const SPARKLINE_VALUES = 40;
 
 export async function getAlert(
   ctx: AppContext,
@@ -97,14 +138,26 @@ export async function getAlert(
   if (!row) throw notFound('Alert');
   if (!canSeeSite(user, row.siteId))
     throw forbidden('This alert belongs to a site you are not assigned to.');
-  const [history, current, clearRule] = await Promise.all([
+  const [history, current, rule, recent, zone] = await Promise.all([
     repo.alertHistory(ctx.db, id),
     currentDiagnosis(ctx.db, row.pointId),
-    clearRuleOf(ctx, row.pointId, row.bandKey),
+    bandRuleOf(ctx.db, row.pointId, row.bandKey),
+    repo.recentBandValues(ctx.db, row.pointId, row.bandKey, SPARKLINE_VALUES),
+    repo.machineZone(ctx.db, row.machineId),
   ]);
+  // The value that raised the alert is the one its raise event carries (the capture's time).
+  const raisedAt = history.find((h) => h.kind === 'raised')?.at ?? row.firstAt;
+  const valuesSinceRaised =
+    row.state === 'cleared'
+      ? null
+      : await repo.bandValuesAfter(ctx.db, row.pointId, row.bandKey, raisedAt);
   return {
     ...toAlert(row),
-    clearRule,
+    clearRule: rule?.clearRule ?? null,
+    bandMeaning: rule?.bandMeaning ?? null,
+    machineZone: zone,
+    valuesSinceRaised,
+    recentValues: recent.map((v) => ({ at: v.at.toISOString(), value: v.value })),
     history: history.map((h) => ({ ...h, at: h.at.toISOString(), userName: h.userName ?? null })),
     currentDiagnosis: current,
   };
@@ -184,6 +237,7 @@ export async function acknowledge(
           at: now,
         },
       );
+      await queueAlertWebhook(tx, a.id, 'acknowledged');
       await writeAudit(tx, {
         actorUserId: user.id,
         action: 'alert.acknowledge',

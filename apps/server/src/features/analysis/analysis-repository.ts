@@ -60,19 +60,6 @@ export async function loadPointContexts(
   );
 }
 
-/** The quality verdict of each point's latest judged capture (null before the first). */
-export async function lastVerdicts(
-  db: Db | Tx,
-  pointIds: number[],
-): Promise<Map<number, 'ok' | 'suspect' | 'unusable' | null>> {
-  if (pointIds.length === 0) return new Map();
-  const rows = await db
-    .select({ id: points.id, lastVerdict: points.lastVerdict })
-    .from(points)
-    .where(inArray(points.id, pointIds));
-  return new Map(rows.map((r) => [r.id, r.lastVerdict]));
-}
-
 export type NewAnalysis = typeof analyses.$inferInsert;
 
 /**

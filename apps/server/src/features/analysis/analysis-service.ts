@@ -13,13 +13,15 @@ import {
   LeaseLostError,
   QUEUE_TX,
   type JobRow,
-} from '../worker/queue-repository.ts';
+} from '../queue/queue-repository.ts';
 import * as repo from './analysis-repository.ts';
 import * as limitSets from '../limits/limit-set-repository.ts';
-import { storedSummaryOf } from './stored-summary.ts';
-import { diagnosisOf, machineComponentsOf } from './diagnosis-step.ts';
+import { storedSummaryOf } from '../points/stored-summary.ts';
+import { diagnosisOf } from './diagnosis-step.ts';
+import { machineComponentsOf } from '../points/machine-components.ts';
 import { combineBandValues, toDspBands } from './band-mapping.ts';
 import { startConditionBatch } from '../condition/condition-step.ts';
+import { queueAlertMail } from '../notify/alert-change-hook.ts';
 import { templateBandsFor } from '../limits/limits-service.ts';
 import { storedSampleBytes } from '../ingest/sample-storage.ts';
 
@@ -231,6 +233,7 @@ export async function storeAnalyses(
       ctx,
       tx,
       computed.map((p) => p.snap.pointId),
+      (change) => queueAlertMail(ctx, tx, change),
     );
     const batch = await withLimitsInForce(tx, computed);
     const ids = await repo.insertAnalyses(

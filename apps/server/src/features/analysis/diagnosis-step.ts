@@ -2,7 +2,7 @@
  * The machine's parts as the computations read them (fault frequencies for the machine page,
  * the diagnosis for each capture), and the diagnosis hints stored with an analysis.
  */
-import type { MachineComponents, SnapshotAnalysis } from '@turnstone/dsp';
+import type { SnapshotAnalysis } from '@turnstone/dsp';
 import {
   diagnose,
   diagnosisSeverity,
@@ -10,34 +10,8 @@ import {
   type DiagnosisComponents,
   type PointState,
 } from '@turnstone/condition';
-import type { bearings, gears, machines } from '@turnstone/db/schema';
 import type { PointContext } from './analysis-repository.ts';
-
-type MachineRow = typeof machines.$inferSelect;
-
-/**
- * Bearings, gears and blades (or vanes) of a machine: what makes its fault frequencies, for
- * the analysis (bands at fault frequencies), the diagnosis and the machine page alike.
- */
-export function machineComponentsOf(
-  machine: Pick<MachineRow, 'bladeCount' | 'vaneCount'>,
-  parts: { bearings: (typeof bearings.$inferSelect)[]; gears: (typeof gears.$inferSelect)[] },
-): MachineComponents {
-  // A count of 0 means none (a form left at 0), as null does.
-  const blades = machine.bladeCount || machine.vaneCount || undefined;
-  return {
-    bearings: parts.bearings.map((b) => ({
-      name: b.name,
-      rollingElements: b.rollingElements,
-      ballDiameterMm: b.ballDiameterMm,
-      pitchDiameterMm: b.pitchDiameterMm,
-      contactAngleDeg: b.contactAngleDeg,
-      speedRatio: b.speedRatio,
-    })),
-    gears: parts.gears.map((g) => ({ name: g.name, teeth: g.teeth, speedRatio: g.speedRatio })),
-    ...(blades ? { blades } : {}),
-  };
-}
+import { machineComponentsOf } from '../points/machine-components.ts';
 
 /** The machine's parts that make known frequencies, as the diagnosis reads them. */
 function diagnosisComponentsOf(pc: PointContext): DiagnosisComponents {

@@ -7,6 +7,7 @@
 import { ALL_ROLES, type Method, type RouteGroup, type RouteSpec } from '../../lib/route-table.ts';
 import { ERROR_REF, errorComponent, jsonSchema } from '../../lib/openapi.ts';
 import { COOKIE_NAME } from '../auth/session-token.ts';
+import { IDEMPOTENCY_HEADER, takesIdempotencyKey } from '../idempotency/idempotent-route.ts';
 
 const WRITES: readonly Method[] = ['post', 'put', 'patch', 'delete'];
 
@@ -40,6 +41,15 @@ function parameters(spec: RouteSpec) {
       schema: paramProps[name!] ?? { type: 'string' },
     });
   }
+  if (takesIdempotencyKey(spec))
+    out.push({
+      name: IDEMPOTENCY_HEADER,
+      in: 'header',
+      required: false,
+      description:
+        'Makes the creation safe to retry: the same key with the same request is answered the first answer again (`Idempotent-Replayed: true`); with another request, 422. Kept 24 hours by default (IDEMPOTENCY_KEY_HOURS), per account.',
+      schema: { type: 'string', minLength: 1, maxLength: 255, pattern: '^[\\x21-\\x7e]+$' },
+    });
   if (spec.schemas?.query) {
     const q = jsonSchema(spec.schemas.query);
     const required = new Set((q.required as string[] | undefined) ?? []);
@@ -64,6 +74,7 @@ function successAnswer(spec: RouteSpec) {
   const statuses = [s.status ?? 200].flat();
   const answer = (status: number) => {
     if (status === 204) return { description: 'Done; no body.' };
+    if (status === 302) return { description: 'A redirect to the page (Location header).' };
     if (s.produces)
       return {
         description: `A file (${s.produces}).`,
@@ -124,7 +135,9 @@ function operation(spec: RouteSpec, tag: string) {
       'Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation.',
     );
   if (!isPublic) {
-    responses['401'] = errorAnswer('`unauthenticated`: no valid session.');
+    responses['401'] = errorAnswer(
+      '`unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked.',
+    );
   }
   if (!isPublic || isWrite)
     responses['403'] = errorAnswer(
@@ -136,6 +149,14 @@ function operation(spec: RouteSpec, tag: string) {
         .join(' '),
     );
   if (spec.path.includes(':')) responses['404'] = errorAnswer('`not_found`.');
+  if (takesIdempotencyKey(spec)) {
+    responses['409'] ??= errorAnswer(
+      '`idempotency_key_in_use`: a request with this Idempotency-Key is still being answered (Retry-After), or a rule of the operation.',
+    );
+    responses['422'] = errorAnswer(
+      '`idempotency_key_reused`: the Idempotency-Key was used for another request.',
+    );
+  }
   responses['503'] = errorAnswer(
     '`db_unavailable`: the database is away; retry after the Retry-After seconds.',
   );
@@ -159,11 +180,13 @@ function operation(spec: RouteSpec, tag: string) {
 const DESCRIPTION = [
   'The API behind the Turnstone screens: fleet, alerts, points and their trends, findings, the audit log, setup.',
   '',
-  `**Authentication**: the session cookie \`${COOKIE_NAME}\` that \`POST /auth/sign-in\` sets (HttpOnly, SameSite=Lax). Each operation lists the roles it admits in \`x-roles\` (and its description); any other role gets 403 \`forbidden\`, no session 401 \`unauthenticated\`. Data of sites a user is not assigned to answers 403 or is left out of lists.`,
+  `**Authentication**: a person's session cookie \`${COOKIE_NAME}\` that \`POST /auth/sign-in\` sets (HttpOnly, SameSite=Lax), or a service account's API token as \`Authorization: Bearer <token>\` (issued by an administrator on the API tokens screen or \`POST /api-tokens\`, with a role and sites; shown once; independent of any person's sessions; revocable). Each operation lists the roles it admits in \`x-roles\` (and its description); any other role gets 403 \`forbidden\`, no session 401 \`unauthenticated\`. Data of sites a user is not assigned to answers 403 or is left out of lists.`,
   '',
   "**Writes** (POST, PUT, PATCH, DELETE) must come from this server's own origin: a request whose `Origin` header names another host than `Host` (or `X-Forwarded-Host` behind a trusted proxy) gets 403 `cross_origin`. A client that sends no `Origin` (not a browser) is not affected.",
   '',
-  '**Paging**: the alerts and findings lists answer a page with `nextCursor` (null on the last page); pass it back as `cursor`, with the same filters, for the next page. Cursors are opaque (at most 64 characters) and position by (time, id), newest first, so rows arriving meanwhile are neither repeated nor skipped within a walk; `since` keeps rows at or after an instant (alerts: last activity; findings: last change, `updatedAt`). The audit log pages the same way by its own `nextCursor` and filters by `from`/`to`. A cursor the server did not issue is a 400.',
+  '**Paging**: the alerts and findings lists answer a page with `nextCursor` (null on the last page); pass it back as `cursor`, with the same filters, for the next page. Cursors are opaque (at most 64 characters) and position by (time, id), newest first, so rows arriving meanwhile are neither repeated nor skipped within a walk; `since` keeps rows at or after an instant (alerts: last activity; findings: last change, `updatedAt`). The audit log pages the same way by its own `nextCursor` (newest first) and takes `since` (written at or after) as well as `from`/`to`. A cursor the server did not issue is a 400.',
+  '',
+  '**Retries**: creating POSTs take an `Idempotency-Key` header (see each operation): send the same key again when an answer was lost, and the first answer comes back instead of a second creation.',
   '',
   '**Errors** all have one shape, `{ "error": { "code", "message", "details"? } }` (`components.schemas.Error`). Query parameters an operation does not know are a 400 `unknown_query_parameter`, never ignored.',
   '',
@@ -193,6 +216,12 @@ export function apiOpenApi(groups: () => RouteGroup[], serverUrl: string): objec
     tags: cached.tags,
     components: {
       securitySchemes: {
+        apiToken: {
+          type: 'http',
+          scheme: 'bearer',
+          description:
+            "A service account's API token (`tst_…`), issued by an administrator with a role and sites.",
+        },
         sessionCookie: {
           type: 'apiKey',
           in: 'cookie',
@@ -202,7 +231,7 @@ export function apiOpenApi(groups: () => RouteGroup[], serverUrl: string): objec
       },
       schemas: { Error: errorComponent() },
     },
-    security: [{ sessionCookie: [] }],
+    security: [{ sessionCookie: [] }, { apiToken: [] }],
     paths: cached.paths,
   };
 }

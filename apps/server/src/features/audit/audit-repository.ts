@@ -11,6 +11,7 @@ import {
   gateways,
   machines,
   points,
+  sites,
   users,
 } from '@turnstone/db/schema';
 
@@ -124,6 +125,7 @@ export async function auditRows(db: Db, user: SessionUser, q: AuditQuery) {
         : eq(auditLog.action, q.action),
     );
   if (q.from) where.push(gte(auditLog.at, new Date(q.from)));
+  if (q.since) where.push(gte(auditLog.at, new Date(q.since)));
   if (q.to) where.push(lte(auditLog.at, new Date(q.to)));
   if (q.cursor) where.push(lt(auditLog.id, Number(q.cursor)));
   const rows = await db
@@ -145,4 +147,96 @@ export async function auditRows(db: Db, user: SessionUser, q: AuditQuery) {
     .orderBy(desc(auditLog.id))
     .limit(q.limit + 1);
   return rows;
+}
+
+/**
+ * Names people read for the entities of audit entries ("MFP-P101-MDE-H · Intake pump P-101"
+ * instead of "point #9"), keyed `entity:id`; entities that no longer exist are left out.
+ */
+export async function entityLabels(
+  db: Db,
+  refs: { entity: string; entityId: string }[],
+): Promise<Map<string, string>> {
+  const ids = (entity: string) => [
+    ...new Set(
+      refs
+        .filter((r) => r.entity === entity && /^\d{1,15}$/.test(r.entityId))
+        .map((r) => Number(r.entityId)),
+    ),
+  ];
+  const out = new Map<string, string>();
+  const put = (entity: string, rows: { id: number; label: string }[]) => {
+    for (const r of rows) out.set(`${entity}:${r.id}`, r.label);
+  };
+  const pointIds = ids('point');
+  const machineIds = ids('machine');
+  const alertIds = ids('alert');
+  const findingIds = ids('finding');
+  const gatewayIds = ids('gateway');
+  const siteIds = ids('site');
+  const areaIds = ids('area');
+  const userIds = ids('user');
+  await Promise.all([
+    pointIds.length &&
+      db
+        .select({ id: points.id, tag: points.tag, machine: machines.name })
+        .from(points)
+        .innerJoin(machines, eq(machines.id, points.machineId))
+        .where(inArray(points.id, pointIds))
+        .then((r) =>
+          put(
+            'point',
+            r.map((p) => ({ id: p.id, label: `${p.tag} · ${p.machine}` })),
+          ),
+        ),
+    machineIds.length &&
+      db
+        .select({ id: machines.id, label: machines.name })
+        .from(machines)
+        .where(inArray(machines.id, machineIds))
+        .then((r) => put('machine', r)),
+    alertIds.length &&
+      db
+        .select({ id: alerts.id, tag: points.tag, band: alerts.bandName })
+        .from(alerts)
+        .innerJoin(points, eq(points.id, alerts.pointId))
+        .where(inArray(alerts.id, alertIds))
+        .then((r) =>
+          put(
+            'alert',
+            r.map((a) => ({ id: a.id, label: `${a.tag} · ${a.band}` })),
+          ),
+        ),
+    findingIds.length &&
+      db
+        .select({ id: findings.id, label: findings.title })
+        .from(findings)
+        .where(inArray(findings.id, findingIds))
+        .then((r) => put('finding', r)),
+    gatewayIds.length &&
+      db
+        .select({ id: gateways.id, label: gateways.name })
+        .from(gateways)
+        .where(inArray(gateways.id, gatewayIds))
+        .then((r) => put('gateway', r)),
+    siteIds.length &&
+      db
+        .select({ id: sites.id, label: sites.name })
+        .from(sites)
+        .where(inArray(sites.id, siteIds))
+        .then((r) => put('site', r)),
+    areaIds.length &&
+      db
+        .select({ id: areas.id, label: areas.name })
+        .from(areas)
+        .where(inArray(areas.id, areaIds))
+        .then((r) => put('area', r)),
+    userIds.length &&
+      db
+        .select({ id: users.id, label: users.name })
+        .from(users)
+        .where(inArray(users.id, userIds))
+        .then((r) => put('user', r)),
+  ]);
+  return out;
 }

@@ -1,7 +1,8 @@
 import type { Db } from '@turnstone/db/client';
 import type { AuditPage } from '@turnstone/contracts/audit';
 import type { SessionUser } from '../../lib/session-user.ts';
-import { auditRows, type AuditQuery } from './audit-repository.ts';
+import { auditRows, entityLabels, type AuditQuery } from './audit-repository.ts';
+import { auditChanges } from './audit-changes.ts';
 
 /**
  * The audit log, newest first, with the actor's name. Keyset pagination on the id (ids
@@ -12,8 +13,15 @@ import { auditRows, type AuditQuery } from './audit-repository.ts';
 export async function listAudit(db: Db, user: SessionUser, q: AuditQuery): Promise<AuditPage> {
   const rows = await auditRows(db, user, q);
   const page = rows.slice(0, q.limit);
+  const labels = await entityLabels(db, page);
   return {
-    items: page.map((r) => ({ ...r, at: r.at.toISOString(), actorName: r.actorName ?? null })),
+    items: page.map((r) => ({
+      ...r,
+      at: r.at.toISOString(),
+      actorName: r.actorName ?? null,
+      entityLabel: labels.get(`${r.entity}:${r.entityId}`) ?? null,
+      changes: auditChanges(r.before, r.after),
+    })),
     nextCursor: rows.length > q.limit ? String(page[page.length - 1]!.id) : null,
   };
 }

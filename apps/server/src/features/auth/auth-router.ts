@@ -19,11 +19,33 @@ import {
 } from '../../lib/route-table.ts';
 import * as service from './auth-service.ts';
 import { COOKIE_NAME, signSession } from './session-token.ts';
+import { userFromApiToken } from '../api-tokens/api-tokens-service.ts';
 
-/** Reads the session cookie and puts the user on the request (or leaves it empty). */
+/**
+ * Puts the caller on the request (or leaves it empty): a service account from an
+ * `Authorization: Bearer` API token, else a person from the session cookie. A bearer
+ * header that is not a live token is a 401 even when a cookie is present too.
+ */
 export function createAuthenticate(ctx: AppContext): Authenticate {
   return async (req: Request) => {
     if (req.user) return;
+    const bearer = /^Bearer\s+(\S+)\s*$/i.exec(req.get('authorization') ?? '');
+    if (bearer) {
+      // On the primary: a token revoked a moment ago must not pass on a lagging replica.
+      const user = await readFromPrimary(() => userFromApiToken(ctx, bearer[1]!));
+      if (!user)
+        throw new AppError(
+          'invalid_token',
+          'The API token is not valid or was revoked.',
+          401,
+          undefined,
+          {
+            headers: { 'WWW-Authenticate': 'Bearer realm="turnstone", error="invalid_token"' },
+          },
+        );
+      req.user = user;
+      return;
+    }
     const token = (req.cookies as Record<string, string> | undefined)?.[COOKIE_NAME];
     if (!token) return;
     // On the primary even for a replica read: a session ended or an account disabled a

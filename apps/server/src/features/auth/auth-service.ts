@@ -41,7 +41,14 @@ export async function userFromToken(
 }
 
 export function toSessionUser(user: repo.UserRow, siteIds: number[]): SessionUser {
-  return { id: user.id, email: user.email, name: user.name, role: user.role, siteIds };
+  return {
+    id: user.id,
+    email: user.email,
+    name: user.name,
+    role: user.role,
+    siteIds,
+    unitSystem: user.unitSystem,
+  };
 }
 
 export async function sessionUserOf(db: Db, user: repo.UserRow): Promise<SessionUser> {
@@ -55,6 +62,7 @@ export function toMe(user: SessionUser): Me {
     name: user.name,
     role: user.role,
     siteIds: user.siteIds,
+    unitSystem: user.unitSystem,
   };
 }
 

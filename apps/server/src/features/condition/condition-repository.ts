@@ -4,8 +4,8 @@
  * The worker's condition step, acknowledgement and a limits save all write through here.
  */
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
-import type { Tx } from '@turnstone/db/client';
-import { alertEvents, alerts, pointStates, qualityNotices } from '@turnstone/db/schema';
+import type { Db, Tx } from '@turnstone/db/client';
+import { alertEvents, alerts, points, pointStates, qualityNotices } from '@turnstone/db/schema';
 
 export type PointStateRow = typeof pointStates.$inferSelect;
 export type AlertRow = typeof alerts.$inferSelect;
@@ -139,7 +139,10 @@ export async function changeAlert(
   set: AlertChange,
   event?: Omit<NewAlertEvent, 'alertId'>,
 ): Promise<void> {
-  await tx.update(alerts).set(set).where(eq(alerts.id, alertId));
+  await tx
+    .update(alerts)
+    .set({ ...set, updatedAt: sql`CURRENT_TIMESTAMP(3)` })
+    .where(eq(alerts.id, alertId));
   if (event) await tx.insert(alertEvents).values({ ...event, alertId });
 }
 
@@ -148,4 +151,17 @@ export async function changeAlert(
 /** A data-quality notice for the engineer (the Review screen lists the week's). */
 export async function insertQualityNotice(tx: Tx, notice: NewQualityNotice): Promise<void> {
   await tx.insert(qualityNotices).values(notice);
+}
+
+/** The quality verdict of each point's latest judged capture (null before the first). */
+export async function lastVerdicts(
+  db: Db | Tx,
+  pointIds: number[],
+): Promise<Map<number, 'ok' | 'suspect' | 'unusable' | null>> {
+  if (pointIds.length === 0) return new Map();
+  const rows = await db
+    .select({ id: points.id, lastVerdict: points.lastVerdict })
+    .from(points)
+    .where(inArray(points.id, pointIds));
+  return new Map(rows.map((r) => [r.id, r.lastVerdict]));
 }

@@ -17,9 +17,7 @@ import {
   type PointState,
 } from '@turnstone/condition';
 import type { AppContext } from '../../lib/context.ts';
-import { lastVerdicts } from '../analysis/analysis-repository.ts';
 import * as repo from './condition-repository.ts';
-import { queueAlertMail } from './alert-mail-hook.ts';
 
 export interface ConditionInput {
   pointId: number;
@@ -45,10 +43,20 @@ export interface ConditionBatch {
 }
 
 /** Locks the points' condition states (ascending point id) and reads their open alerts. */
+/**
+ * What happens when an alert is raised, escalated or cleared, inside the batch's transaction
+ * (the caller queues its mail; the condition step does not know about mail).
+ */
+export type AlertChangeHook = (change: {
+  alertId: number;
+  kind: 'raised' | 'escalated' | 'cleared';
+}) => Promise<void>;
+
 export async function startConditionBatch(
   ctx: AppContext,
   tx: Tx,
   pointIds: number[],
+  onAlertChange: AlertChangeHook,
 ): Promise<ConditionBatch> {
   const states = await repo.lockPointStates(tx, pointIds);
   const open = new Map<string, number>();
@@ -56,9 +64,9 @@ export async function startConditionBatch(
     const k = alertKey(a.pointId, a.bandKey);
     if (!open.has(k)) open.set(k, a.id);
   }
-  const w: AlertWrites = { open, pending: new Map() };
+  const w: AlertWrites = { open, pending: new Map(), onAlertChange };
   const judged = new Set<number>();
-  const verdicts = await lastVerdicts(tx, [...states.keys()]);
+  const verdicts = await repo.lastVerdicts(tx, [...states.keys()]);
   return {
     stateOf(pointId) {
       return (states.get(pointId)?.state as unknown as PointState | undefined) ?? null;
@@ -123,6 +131,7 @@ interface AlertWrites {
   open: Map<string, number>;
   /** Alert rows whose update waits for the end of the batch (the last state wins). */
   pending: Map<number, AlertFields>;
+  onAlertChange: AlertChangeHook;
 }
 
 /** A data-quality notice for the engineer (the Review screen lists the week's). */
@@ -174,7 +183,7 @@ async function persistChange(
       { level: a.level, value: a.lastValue, at: d(a.lastAt) },
     );
     w.open.set(alertKey(input.pointId, change.bandKey), alertId);
-    await queueAlertMail(ctx, tx, { alertId, kind: 'raised' });
+    await w.onAlertChange({ alertId, kind: 'raised' });
     return;
   }
   const key = alertKey(input.pointId, change.bandKey);
@@ -212,7 +221,7 @@ async function persistChange(
       },
       { kind: 'escalated', level: a.level, value: a.lastValue, at: d(a.lastAt) },
     );
-    await queueAlertMail(ctx, tx, { alertId: open.id, kind: 'escalated' });
+    await w.onAlertChange({ alertId: open.id, kind: 'escalated' });
   } else if (change.kind === 'cleared') {
     await repo.changeAlert(
       tx,
@@ -226,6 +235,6 @@ async function persistChange(
       },
     );
     w.open.delete(key);
-    await queueAlertMail(ctx, tx, { alertId: open.id, kind: 'cleared' });
+    await w.onAlertChange({ alertId: open.id, kind: 'cleared' });
   }
 }

@@ -73,6 +73,7 @@ async function sessionUser(ctx: AppContext, email: string): Promise<SessionUser>
     name: u.name,
     role: u.role,
     siteIds,
+    unitSystem: u.unitSystem,
   };
 }
 

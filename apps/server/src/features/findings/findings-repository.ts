@@ -29,6 +29,10 @@ export interface FindingFilter {
   siteIds: number[];
   state?: FindingRow['state'];
   pointId?: number;
+  /** Findings on the points of this machine. */
+  machineId?: number;
+  /** Open or planned (not done). */
+  notDone?: boolean;
   ids?: number[];
   /** Not done and due on or before this date (YYYY-MM-DD). */
   dueBy?: string;
@@ -53,6 +57,8 @@ export async function listFindings(db: Db | Tx, f: FindingFilter): Promise<Findi
   const where: SQL[] = [inArray(sites.id, f.siteIds)];
   if (f.state) where.push(eq(findings.state, f.state));
   if (f.pointId !== undefined) where.push(eq(findings.pointId, f.pointId));
+  if (f.machineId !== undefined) where.push(eq(points.machineId, f.machineId));
+  if (f.notDone) where.push(ne(findings.state, 'done'));
   if (f.ids) where.push(inArray(findings.id, f.ids.length ? f.ids : [0]));
   if (f.dueBy) where.push(ne(findings.state, 'done'), lte(findings.dueDate, f.dueBy));
   if (f.dueWithin)

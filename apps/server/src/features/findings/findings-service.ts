@@ -13,6 +13,7 @@ import { accessiblePoint } from '../places/point-access.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import * as repo from './findings-repository.ts';
+import { queueWebhookEvent } from '../webhooks/webhooks-service.ts';
 import { decodeCursor, pageOf } from '../../lib/cursor.ts';
 import { isoWeekDays } from '@turnstone/contracts/dates';
 
@@ -87,6 +88,24 @@ export async function listFindings(
   return { items: page.items.map(toFinding), nextCursor: page.nextCursor };
 }
 
+/**
+ * The findings not yet done (open or planned) on a machine's points, last changed first. The
+ * caller has checked the machine's site.
+ */
+export async function openFindingsOfMachine(
+  ctx: AppContext,
+  user: SessionUser,
+  machineId: number,
+): Promise<Finding[]> {
+  const rows = await repo.listFindings(ctx.db, {
+    siteIds: siteScope(user, undefined),
+    machineId,
+    notDone: true,
+    limit: 200,
+  });
+  return rows.map(toFinding);
+}
+
 function weekDates(week: string) {
   const days = isoWeekDays(week);
   if (!days) throw new AppError('validation_failed', 'Use a week like 2026-W49.', 400);
@@ -149,6 +168,7 @@ export async function createFinding(
       before: null,
       after: auditView(row!),
     });
+    await queueWebhookEvent(tx, 'finding.created', await loadOne(ctx, user, newId, tx));
     return newId;
   });
   return loadOne(ctx, user, id);
@@ -194,6 +214,7 @@ export async function updateFinding(
       before: auditView(before),
       after: auditView(after),
     });
+    await queueWebhookEvent(tx, 'finding.updated', await loadOne(ctx, user, id, tx));
   });
   return loadOne(ctx, user, id);
 }

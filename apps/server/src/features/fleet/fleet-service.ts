@@ -29,7 +29,10 @@ export function pointStatus(
 ): NodeStatus {
   if (alertLevel) return alertLevel;
   if (!lastTakenAt) return 'none';
-  if (qualityOpen || lastVerdict === 'unusable') return 'quality';
+  // "Data quality" clears once the notices are reviewed or the captures recover (the newest
+  // capture passes its checks again). Every capture that fails a check writes a new notice,
+  // so a later bad capture marks the point again.
+  if (qualityOpen && lastVerdict !== 'ok') return 'quality';
   if (now - lastTakenAt.getTime() > STALE_AFTER_MS) return 'stale';
   return 'ok';
 }

@@ -1,7 +1,7 @@
 /** Gateways with their site's names; keys are stored as prefix and hash only. */
-import { desc, eq, inArray } from 'drizzle-orm';
+import { and, count, desc, eq, gte, inArray } from 'drizzle-orm';
 import type { Db, Tx } from '@turnstone/db/client';
-import { gateways, sites } from '@turnstone/db/schema';
+import { gateways, sites, snapshots } from '@turnstone/db/schema';
 
 export type GatewayRow = typeof gateways.$inferSelect;
 
@@ -45,4 +45,19 @@ export async function setRevoked(tx: Tx, id: number, revokedAt: Date) {
 
 export async function setKey(tx: Tx, id: number, key: { keyPrefix: string; keyHash: string }) {
   await tx.update(gateways).set(key).where(eq(gateways.id, id));
+}
+
+/** Captures each gateway posted since `since` (by receipt time), keyed by gateway id. */
+export async function postCountsSince(
+  db: Db,
+  gatewayIds: readonly number[],
+  since: Date,
+): Promise<Map<number, number>> {
+  if (gatewayIds.length === 0) return new Map();
+  const rows = await db
+    .select({ gatewayId: snapshots.gatewayId, n: count() })
+    .from(snapshots)
+    .where(and(gte(snapshots.receivedAt, since), inArray(snapshots.gatewayId, [...gatewayIds])))
+    .groupBy(snapshots.gatewayId);
+  return new Map(rows.map((r) => [Number(r.gatewayId), Number(r.n)]));
 }

@@ -20,6 +20,8 @@ export function gatewayRoutes(ctx: AppContext): RouteSpec[] {
       access: ['admin'],
       summary: 'create a gateway',
       schemas: { body: service.createGatewaySchema, response: gatewayKeySchema, status: 201 },
+      // The answer holds the key, shown once: it is never stored for a replay.
+      idempotency: 'refused',
       handler: async (req, res) => {
         const body = service.createGatewaySchema.parse(req.body);
         res.status(201).json(await service.createGateway(ctx.db, requireUser(req), body));

@@ -4,14 +4,14 @@ import { createGatewaySchema, type CreateGatewayInput } from '@turnstone/contrac
 import { AppError, notFound } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
-import { newGatewayKey } from './gateway-keys.ts';
+import { newGatewayKey } from '../../lib/gateway-keys.ts';
 import * as repo from './gateways-repository.ts';
 import { forgetGatewayKeys } from '../ingest/ingest-service.ts';
 
 export { createGatewaySchema };
 
 type SiteNames = { siteName: string; siteCode: string };
-const publicView = (g: repo.GatewayRow, site: SiteNames) => ({
+const publicView = (g: repo.GatewayRow, site: SiteNames, postsLastHour = 0) => ({
   id: g.id,
   siteId: g.siteId,
   siteName: site.siteName,
@@ -20,12 +20,18 @@ const publicView = (g: repo.GatewayRow, site: SiteNames) => ({
   keyPrefix: g.keyPrefix,
   revokedAt: g.revokedAt?.toISOString() ?? null,
   lastSeenAt: g.lastSeenAt?.toISOString() ?? null,
+  postsLastHour,
   createdAt: g.createdAt.toISOString(),
 });
 
 export async function listGateways(db: Db, user: SessionUser) {
   const rows = await repo.gatewaysOfSites(db, user.siteIds);
-  return { items: rows.map((r) => publicView(r.g, r)) };
+  const posts = await repo.postCountsSince(
+    db,
+    rows.map((r) => r.g.id),
+    new Date(Date.now() - 3600_000),
+  );
+  return { items: rows.map((r) => publicView(r.g, r, posts.get(r.g.id) ?? 0)) };
 }
 
 /** Creates a gateway; the key is in the answer only, never stored or shown again. */

@@ -1,6 +1,11 @@
 import type { IncomingMessage, ServerResponse } from 'node:http';
 import express from 'express';
-import { MAX_BATCH, type IngestResult } from '@turnstone/contracts/ingest';
+import {
+  ingestBatchSchema,
+  ingestBodySchema,
+  MAX_BATCH,
+  type IngestResult,
+} from '@turnstone/contracts/ingest';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { countIngest } from '../../lib/metrics.ts';
@@ -111,22 +116,23 @@ export function ingestEndpoint(
         { headers: { Accept: 'application/json' } },
       );
     const body = await bodyOf(req, res);
-    if (typeof body !== 'object' || body === null || Array.isArray(body))
+    const envelope = ingestBodySchema.safeParse(body);
+    if (!envelope.success)
       throw new AppError(
         'validation_failed',
         'Send one snapshot object, or { "snapshots": [...] }, as application/json.',
         400,
       );
-    if ('snapshots' in body) {
-      const items = (body as { snapshots: unknown }).snapshots;
-      if (!Array.isArray(items) || items.length === 0 || items.length > MAX_BATCH)
+    if ('snapshots' in envelope.data) {
+      const batch = ingestBatchSchema.safeParse(body);
+      if (!batch.success)
         throw new AppError(
           'validation_failed',
           `snapshots must be an array of 1 to ${MAX_BATCH} snapshots.`,
           400,
           [{ path: 'snapshots', message: `1 to ${MAX_BATCH} items` }],
         );
-      const results = await ingestBatch(ctx, gateway, items);
+      const results = await ingestBatch(ctx, gateway, batch.data.snapshots);
       for (const r of results) countIngest(r.status);
       return { status: 200, body: { results } };
     }

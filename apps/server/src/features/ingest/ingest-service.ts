@@ -17,13 +17,12 @@ import {
   type Encoding,
   type IngestResult,
 } from '@turnstone/contracts/ingest';
-import { decodeSamples } from '@turnstone/dsp/decode-samples';
+import { checkFiniteFloat32, encodeSamples } from '@turnstone/dsp/sample-codec';
 import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
 import { zodDetails } from '../../lib/error-middleware.ts';
-import { keyMatches, prefixOf } from '../gateways/gateway-keys.ts';
+import { keyMatches, prefixOf } from '../../lib/gateway-keys.ts';
 import * as repo from './ingest-repository.ts';
-import { encodeSamples } from './sample-bytes.ts';
 import { samplesForStorage } from './sample-storage.ts';
 
 export interface GatewayPrincipal {
@@ -257,11 +256,14 @@ export async function ingestOne(
   const s = parsed.data;
   let bytes: Buffer;
   try {
+    // Values sent as a JSON array are checked as they are encoded; bytes (base64 or the
+    // binary body) are checked for NaN and infinities once, below.
+    const sentAsBytes = parsed.bytes !== undefined || typeof s.samples === 'string';
     bytes =
       parsed.bytes ??
       (typeof s.samples === 'string'
         ? Buffer.from(s.samples, 'base64')
-        : encodeSamples(s.samples, s.encoding));
+        : bufferOf(encodeSamples(s.samples, s.encoding)));
     const n = bytes.length / bytesPerSample[s.encoding];
     if (!Number.isInteger(n))
       throw new RangeError(`${bytes.length} bytes is not a whole number of ${s.encoding} samples`);
@@ -269,7 +271,7 @@ export async function ingestOne(
       throw new RangeError(`${n} samples; a snapshot holds ${MIN_SAMPLES} to ${MAX_SAMPLES}`);
     if (s.sampleCount !== undefined && s.sampleCount !== n)
       throw new RangeError(`sampleCount says ${s.sampleCount} but samples holds ${n}`);
-    if (s.encoding === 'float32') decodeSamples(bytes, 'float32'); // rejects NaN and infinities
+    if (s.encoding === 'float32' && sentAsBytes) checkFiniteFloat32(bytes);
   } catch (err) {
     return invalid(uid, `Invalid snapshot: samples: ${(err as Error).message}`, [
       { path: 'samples', message: (err as Error).message },
@@ -328,3 +330,6 @@ export async function ingestOne(
 }
 
 export { ZodError };
+
+/** The bytes of a Uint8Array as a Buffer, without copying. */
+const bufferOf = (u: Uint8Array) => Buffer.from(u.buffer, u.byteOffset, u.byteLength);

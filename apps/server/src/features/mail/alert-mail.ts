@@ -24,6 +24,13 @@ import {
   type Diagnosis,
   type DiagnosisHintItem,
 } from '@turnstone/contracts/points';
+import { formatQuantity, restateUnits } from '@turnstone/contracts/number-format';
+import {
+  displayUnitText,
+  toDisplay,
+  unitSystemSchema,
+  type UnitSystem,
+} from '@turnstone/contracts/units';
 import { enqueueMail, HOURLY_KIND } from './outbox-repository.ts';
 import {
   alertForMail,
@@ -31,6 +38,16 @@ import {
   lastAlertEvent,
   subscribersOf,
 } from './mail-repository.ts';
+import {
+  PICTURE_HEIGHT,
+  PICTURE_WIDTH,
+  renderBandPicture,
+  svgDataUrl,
+  type BandPictureInput,
+} from './band-picture.ts';
+import { alertMailLink } from '../alerts/alert-mail-link.ts';
+import { recentBandValues } from '../alerts/alerts-repository.ts';
+import { bandRuleOf } from '../alerts/alerts-service.ts';
 
 export type AlertChangeKind = 'raised' | 'escalated' | 'cleared';
 
@@ -58,13 +75,13 @@ export interface AlertMailFacts {
   topHint?: DiagnosisHintItem | null;
 }
 
-/** "1× 24.7 Hz (1.00×) 6.40 mm/s RMS; 2× …" */
-function evidenceText(h: DiagnosisHintItem): string {
+/** "1× 24.7 Hz (1.00×) 6.40 mm/s RMS; 2× …", amplitudes in the reader's unit system. */
+function evidenceText(h: DiagnosisHintItem, system: UnitSystem): string {
   return h.evidence
-    .map(
-      (e) =>
-        `${e.label} ${num(e.hz)} Hz (${e.order.toFixed(2)}×) ${num(e.amplitude)} ${evidenceUnits[e.spectrum]}`,
-    )
+    .map((e) => {
+      const [unit, measure] = evidenceUnits[e.spectrum].split(' ') as [string, string];
+      return `${e.label} ${num(e.hz)} Hz (${e.order.toFixed(2)}×) ${formatQuantity(e.amplitude, unit, system)} ${measure}`;
+    })
     .join('; ');
 }
 
@@ -77,7 +94,23 @@ const VERDICT_TEXT: Record<string, string> = {
   unusable: 'unusable — the capture failed the quality checks',
 };
 
-export function renderAlertMail(f: AlertMailFacts, link: string): Rendered {
+/** What an alert mail carries besides its facts: the signed link to the alert, the picture. */
+export interface AlertMailExtras {
+  /** The signed link that opens the alert (alert-mail-link.ts). */
+  alertLink?: string;
+  /** The band's recent trend with its levels, an SVG document (band-picture.ts). */
+  pictureSvg?: string | null;
+  /** The recipient's unit system: values in mm/s and µm (metric) or in/s and mil. */
+  unitSystem?: UnitSystem;
+}
+
+export function renderAlertMail(
+  f: AlertMailFacts,
+  link: string,
+  extras: AlertMailExtras = {},
+): Rendered {
+  const system = extras.unitSystem ?? 'metric';
+  const v = (value: number) => formatQuantity(value, f.unit, system);
   const what =
     f.kind === 'raised'
       ? `${f.level === 'danger' ? 'Danger' : 'Alert'} raised`
@@ -86,8 +119,8 @@ export function renderAlertMail(f: AlertMailFacts, link: string): Rendered {
         : `${f.level === 'danger' ? 'Danger' : 'Alert'} cleared`;
   const valueLine =
     f.kind === 'cleared'
-      ? `${num(f.value)} ${f.unit}, back below the ${f.level} level ${num(f.limit)} ${f.unit} (highest while open: ${num(f.peak)} ${f.unit})`
-      : `${num(f.value)} ${f.unit} against the ${f.level} level ${num(f.limit)} ${f.unit}`;
+      ? `${v(f.value)}, back below the ${f.level} level ${v(f.limit)} (highest while open: ${v(f.peak)})`
+      : `${v(f.value)} against the ${f.level} level ${v(f.limit)}`;
   const facts: [string, string][] = [
     ['Machine', `${f.machineName} (${f.siteCode} · ${f.areaName})`],
     ['Point', `${f.pointTag} — ${f.pointName}`],
@@ -98,10 +131,11 @@ export function renderAlertMail(f: AlertMailFacts, link: string): Rendered {
   ];
   const hint = f.kind === 'cleared' ? null : (f.topHint ?? null);
   if (hint) {
-    facts.push(['Likely cause (hint)', `${diagnosisCodeNames[hint.code]}: ${hint.summary}`]);
-    facts.push(['Evidence', evidenceText(hint)]);
+    const summary = restateUnits(hint.summary, system);
+    facts.push(['Likely cause (hint)', `${diagnosisCodeNames[hint.code]}: ${summary}`]);
+    facts.push(['Evidence', evidenceText(hint, system)]);
   }
-  const subject = `[Turnstone] ${what}: ${f.machineName} ${f.pointTag} — ${f.bandName} ${num(f.value)} ${f.unit}`;
+  const subject = `[Turnstone] ${what}: ${f.machineName} ${f.pointTag} — ${f.bandName} ${v(f.value)}`;
   const footer = 'You receive this because of your notification settings (Account in Turnstone).';
   const text = [
     `${what} on ${f.machineName}, ${f.siteName}.`,
@@ -109,6 +143,7 @@ export function renderAlertMail(f: AlertMailFacts, link: string): Rendered {
     textFacts(facts),
     '',
     ...(hint ? [HINT_CAUTION, ''] : []),
+    ...(extras.alertLink ? [`Open the alert (sign-in required): ${extras.alertLink}`] : []),
     `Point view: ${link}`,
     '',
     `Safety: ${SAFETY_CAUTION}`,
@@ -121,13 +156,23 @@ export function renderAlertMail(f: AlertMailFacts, link: string): Rendered {
     [
       `<p>${esc(what)} on ${esc(f.machineName)}, ${esc(f.siteName)}.</p>`,
       htmlFacts(facts),
+      ...(extras.pictureSvg ? [pictureHtml(f, extras.pictureSvg)] : []),
       ...(hint ? [`<p>${esc(HINT_CAUTION)}</p>`] : []),
+      ...(extras.alertLink
+        ? [htmlLink(extras.alertLink, 'Open the alert (sign-in required)')]
+        : []),
       htmlLink(link, 'Open the point view'),
       `<p style="border-left:3px solid #1d5c63;padding-left:8px"><strong>Safety:</strong> ${esc(SAFETY_CAUTION)}</p>`,
     ].join(''),
     footer,
   );
   return { subject, text, html };
+}
+
+/** The picture as an inline image whose alt text names the values (for clients that block SVG). */
+function pictureHtml(f: AlertMailFacts, svg: string): string {
+  const alt = `Trend of ${f.bandName}: latest ${num(f.value)} ${f.unit} against the ${f.level} level ${num(f.limit)} ${f.unit}`;
+  return `<p style="margin:12px 0"><img src="${svgDataUrl(svg)}" width="${PICTURE_WIDTH}" height="${PICTURE_HEIGHT}" alt="${esc(alt)}" style="display:block;max-width:100%;height:auto;border:1px solid #d9d2c3"></p>`;
 }
 
 /** The first hint of a stored diagnosis (JSON text or parsed), or null. */
@@ -166,20 +211,56 @@ async function loadFacts(tx: Tx, alertId: number, kind: AlertChangeKind) {
     suspect: Boolean(a.suspect),
     topHint: topHintOf(an?.diagnosis),
   };
-  return { facts, eventId: Number(ev.id), siteId: Number(a.site_id) };
+  return { facts, eventId: Number(ev.id), siteId: Number(a.site_id), bandKey: String(a.band_key) };
 }
 
 /** Users whose subscriptions match: scope (site or machine), level, and site access. */
 async function recipients(tx: Tx, siteId: number, machineId: number, level: string) {
   const found = await subscribersOf(tx, siteId, machineId, level);
-  const byUser = new Map<number, { email: string; immediate: boolean }>();
+  const byUser = new Map<number, { email: string; immediate: boolean; system: UnitSystem }>();
   for (const r of found) {
     const id = Number(r.id);
     const prev = byUser.get(id);
     const immediate = r.cadence === 'immediate' || (prev?.immediate ?? false);
-    byUser.set(id, { email: String(r.email), immediate });
+    const system = unitSystemSchema.catch('metric').parse(r.unit_system);
+    byUser.set(id, { email: String(r.email), immediate, system });
   }
   return byUser;
+}
+
+/** Values of the band the mail's picture shows, up to the capture that changed the alert. */
+export const PICTURE_VALUES = 60;
+
+/** The band's recent trend with its levels in force, stored metric. */
+async function bandPictureInput(
+  tx: Tx,
+  f: AlertMailFacts,
+  bandKey: string,
+): Promise<BandPictureInput> {
+  const [values, rule] = await Promise.all([
+    recentBandValues(tx, f.pointId, bandKey, PICTURE_VALUES, f.at),
+    bandRuleOf(tx, f.pointId, bandKey),
+  ]);
+  return {
+    bandName: f.bandName,
+    unit: f.unit,
+    values,
+    // Without the band in the limit set any more, the level the alert exceeded alone.
+    alertLevel: rule ? rule.clearRule.alertLevel : f.level === 'alert' ? f.limit : null,
+    dangerLevel: rule ? rule.clearRule.dangerLevel : f.level === 'danger' ? f.limit : null,
+  };
+}
+
+/** The picture's values and levels in a unit system (its unit named as people write it). */
+function bandPictureIn(p: BandPictureInput, unit: string, system: UnitSystem): BandPictureInput {
+  const v = (x: number) => toDisplay(x, unit, system);
+  return {
+    ...p,
+    unit: displayUnitText(unit, system),
+    values: p.values.map((x) => ({ at: x.at, value: v(x.value) })),
+    alertLevel: p.alertLevel === null ? null : v(p.alertLevel),
+    dangerLevel: p.dangerLevel === null ? null : v(p.dangerLevel),
+  };
 }
 
 /** The top of the next hour: when "hourly" subscribers get their messages. */
@@ -197,12 +278,22 @@ export async function queueAlertChangeMail(
 ): Promise<number> {
   const loaded = await loadFacts(tx, change.alertId, change.kind);
   if (!loaded) return 0;
-  const { facts, eventId, siteId } = loaded;
+  const { facts, eventId, siteId, bandKey } = loaded;
   const who = await recipients(tx, siteId, facts.machineId, facts.level);
   if (who.size === 0) return 0;
   const base = await mailBaseUrl(ctx, tx);
-  const msg = renderAlertMail(facts, pointLink(base, facts.pointId));
+  const link = pointLink(base, facts.pointId);
+  const alertLink = alertMailLink(base, ctx.jwtSecret, facts.alertId);
+  const picture = await bandPictureInput(tx, facts, bandKey);
+  // Each recipient reads the values, the picture's too, in their own unit system.
+  const bySystem = new Map<UnitSystem, Rendered>();
   for (const [userId, u] of who) {
+    let msg = bySystem.get(u.system);
+    if (!msg) {
+      const pictureSvg = renderBandPicture(bandPictureIn(picture, facts.unit, u.system));
+      msg = renderAlertMail(facts, link, { alertLink, pictureSvg, unitSystem: u.system });
+      bySystem.set(u.system, msg);
+    }
     await enqueueMail(tx, {
       // Hourly subscribers' rows wait for the hour and go out folded into one summary.
       kind: u.immediate ? `alert-${change.kind}` : HOURLY_KIND,

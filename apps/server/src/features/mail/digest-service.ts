@@ -4,6 +4,9 @@
  * alerts by age, quality notices and findings due, each row with a link to its point.
  */
 import type { WeeklyReview } from '@turnstone/contracts/review';
+import { formatDateTimeZone } from '@turnstone/contracts/dates';
+import { formatQuantity } from '@turnstone/contracts/number-format';
+import { toDisplay, type UnitSystem } from '@turnstone/contracts/units';
 import type { AppContext } from '../../lib/context.ts';
 import { buildWeeklyReview } from '../review/review-service.ts';
 import { findUserById } from '../auth/auth-repository.ts';
@@ -20,15 +23,22 @@ interface Line {
   pointId: number;
 }
 
-function sections(r: WeeklyReview): { title: string; lines: Line[]; total: number }[] {
+function sections(
+  r: WeeklyReview,
+  system: UnitSystem,
+): { title: string; lines: Line[]; total: number }[] {
+  const zones = new Map(r.siteWeeks.map((w) => [w.siteId, w.timeZone]));
+  const zoneOf = (siteId: number) => zones.get(siteId) ?? 'UTC';
   const at = (x: { machineName: string; pointTag: string }) => `${x.machineName} ${x.pointTag}`;
+  const v = (value: number, unit: string) => formatQuantity(value, unit, system);
+  const bare = (value: number, unit: string) => num(toDisplay(value, unit, system));
   return [
     {
       title: 'Largest increases this week',
       total: r.summary.movers,
       lines: r.movers.slice(0, TOP).map((m) => ({
         pointId: m.pointId,
-        text: `${at(m)} · ${m.bandName} ${num(m.lastWeekMean)} → ${num(m.thisWeekMean)} ${m.unit}${m.changePercent === null ? '' : ` (+${num(m.changePercent)} %)`}`,
+        text: `${at(m)} · ${m.bandName} ${bare(m.lastWeekMean, m.unit)} → ${v(m.thisWeekMean, m.unit)}${m.changePercent === null ? '' : ` (+${num(m.changePercent)} %)`}`,
       })),
     },
     {
@@ -36,7 +46,7 @@ function sections(r: WeeklyReview): { title: string; lines: Line[]; total: numbe
       total: r.summary.forecasts,
       lines: r.forecasts.slice(0, TOP).map((f) => ({
         pointId: f.pointId,
-        text: `${at(f)} · ${f.bandName} ${num(f.latestValue)} ${f.unit} → ${f.target.level} ${num(f.target.value)} ${f.unit} in about ${Math.round(f.daysToCrossing)} days`,
+        text: `${at(f)} · ${f.bandName} ${v(f.latestValue, f.unit)} → ${f.target.level} ${v(f.target.value, f.unit)} in about ${Math.round(f.daysToCrossing)} days`,
       })),
     },
     {
@@ -44,7 +54,7 @@ function sections(r: WeeklyReview): { title: string; lines: Line[]; total: numbe
       total: r.summary.openAlerts,
       lines: r.openAlerts.slice(0, TOP).map((a) => ({
         pointId: a.pointId,
-        text: `${a.level.toUpperCase()} ${a.state} · ${at(a)} · ${a.bandName} ${num(a.lastValue)} ${a.unit} vs ${num(a.limitValue)} ${a.unit} · open ${a.ageDays} d`,
+        text: `${a.level.toUpperCase()} ${a.state} · ${at(a)} · ${a.bandName} ${v(a.lastValue, a.unit)} vs ${v(a.limitValue, a.unit)} · open ${a.ageDays} d`,
       })),
     },
     {
@@ -52,19 +62,24 @@ function sections(r: WeeklyReview): { title: string; lines: Line[]; total: numbe
       total: r.summary.qualityNotices,
       lines: r.qualityNotices.slice(0, TOP).map((q) => ({
         pointId: q.pointId,
-        text: `${q.verdict} · ${at(q)} · ${q.takenAt.slice(0, 16).replace('T', ' ')} UTC`,
+        text: `${q.verdict} · ${at(q)} · ${formatDateTimeZone(q.takenAt, zoneOf(q.siteId))}`,
       })),
     },
   ];
 }
 
-export function renderDigest(r: WeeklyReview, base: string): Rendered {
+/** The digest, its values in the planner's unit system. */
+export function renderDigest(
+  r: WeeklyReview,
+  base: string,
+  system: UnitSystem = 'metric',
+): Rendered {
   const day = r.period.weekEnding;
   const s = r.summary;
   const subject = `[Turnstone] Weekly digest, week ending ${day}: ${s.openAlerts} open alerts, ${s.forecasts} forecasts, ${s.qualityNotices} quality notices`;
   const sites = r.sites.map((x) => x.code).join(', ');
   const counts = `Sites ${sites}. Increases: ${s.movers} · forecasts: ${s.forecasts} · open alerts: ${s.openAlerts} · quality notices: ${s.qualityNotices} · findings due: ${s.findingsDue} (${s.findingsOverdue} overdue).`;
-  const secs = sections(r);
+  const secs = sections(r, system);
   const more = (n: number, shown: number) => (n > shown ? ` (${n - shown} more in Turnstone)` : '');
   const reviewLink = `${base}/review?weekEnding=${day}`;
   const text = [
@@ -134,7 +149,7 @@ export async function queueWeeklyDigests(
       kind: 'digest',
       dedupeKey: `digest:${weekEnding}:${user.id}`,
       to: user.email,
-      ...renderDigest(review, base),
+      ...renderDigest(review, base, user.unitSystem),
     });
     queued++;
   }

@@ -49,6 +49,35 @@ describe('alert mail rendering', () => {
     expect(m.subject).toContain('Danger cleared');
   });
 
+  // 1 in = 25.4 mm exactly (NIST SP 811 appendix B; 1959 agreement), by hand:
+  // 7.234 / 25.4 = 0.28480 in/s, 4.5 / 25.4 = 0.17717 in/s, 6.4 / 25.4 = 0.25197 in/s;
+  // 45 µm / 25.4 = 1.7717 mil. Acceleration stays in g.
+  it('when the recipient reads imperial, the values are in in/s and mil, rounded by the one rule', () => {
+    const m = renderAlertMail(facts, 'http://x.test/points/12', { unitSystem: 'imperial' });
+    expect(m.text).toContain('0.285 in/s against the danger level 0.177 in/s');
+    expect(m.subject).toContain('0.285 in/s');
+    expect(m.text).not.toContain('mm/s');
+    const d = renderAlertMail({ ...facts, unit: 'um', value: 45, limit: 45 }, 'x', {
+      unitSystem: 'imperial',
+    });
+    expect(d.text).toContain('1.77 mil against the danger level 1.77 mil');
+    const metric = renderAlertMail({ ...facts, unit: 'um', value: 45, limit: 45 }, 'x', {
+      unitSystem: 'metric',
+    });
+    expect(metric.text).toContain('45.0 µm against');
+    const topHint = {
+      code: 'unbalance' as const,
+      confidence: 0.9,
+      summary: '1× dominant',
+      evidence: [
+        { hz: 24.72, order: 1, amplitude: 6.4, label: '1×', spectrum: 'velocity' as const },
+        { hz: 148, order: 6, amplitude: 0.21, label: '6×', spectrum: 'acceleration' as const },
+      ],
+    };
+    const h = renderAlertMail({ ...facts, topHint }, 'x', { unitSystem: 'imperial' });
+    expect(h.text).toContain('1× 24.7 Hz (1.00×) 0.252 in/s RMS; 6× 148 Hz (6.00×) 0.210 g RMS');
+  });
+
   it('names the top diagnosis hint with its evidence, keeps the safety caution, and escapes it', () => {
     const topHint = {
       code: 'unbalance' as const,

@@ -3,7 +3,7 @@
  * alert mail, who is subscribed, the digest's planners, the demo's subscriptions and the
  * messages the local SMTP fake received (read by the Mailbox screen).
  */
-import { asc, desc, eq, inArray, sql } from 'drizzle-orm';
+import { asc, desc, eq, inArray, like, or, sql } from 'drizzle-orm';
 import type { Db, Tx } from '@turnstone/db/client';
 import { mailMessages, sites, subscriptions, users } from '@turnstone/db/schema';
 
@@ -17,7 +17,7 @@ async function rows(db: Db | Tx, q: ReturnType<typeof sql>): Promise<Row[]> {
 export async function alertForMail(tx: Tx, alertId: number): Promise<Row | undefined> {
   const [a] = await rows(
     tx,
-    sql`SELECT a.id, a.level, a.band_name, a.unit, a.limit_value, a.last_value, a.peak_value,
+    sql`SELECT a.id, a.level, a.band_key, a.band_name, a.unit, a.limit_value, a.last_value, a.peak_value,
                a.last_at, a.suspect, p.id AS point_id, p.tag, p.name AS point_name,
                m.id AS machine_id, m.name AS machine_name, ar.name AS area_name,
                s.id AS site_id, s.code AS site_code, s.name AS site_name
@@ -63,7 +63,8 @@ export async function analysisAtOrBefore(
 export function subscribersOf(tx: Tx, siteId: number, machineId: number, level: string) {
   return rows(
     tx,
-    sql`SELECT u.id, u.email, sub.cadence FROM subscriptions sub JOIN users u ON u.id = sub.user_id
+    sql`SELECT u.id, u.email, u.unit_system, sub.cadence FROM subscriptions sub
+          JOIN users u ON u.id = sub.user_id
          WHERE u.disabled_at IS NULL AND u.password_hash IS NOT NULL
            AND (sub.site_id = ${siteId} OR sub.machine_id = ${machineId})
            AND (sub.min_level = 'alert' OR ${level} = 'danger')
@@ -110,7 +111,9 @@ export async function storeReceivedMail(
 }
 
 /** Received messages, newest first. */
-export function listReceivedMail(db: Db, limit: number) {
+/** Newest first; `search` narrows to messages whose recipient or subject contain it. */
+export function listReceivedMail(db: Db, limit: number, search?: string) {
+  const pattern = search ? `%${search.replace(/[\\%_]/g, (c) => `\\${c}`)}%` : null;
   return db
     .select({
       id: mailMessages.id,
@@ -119,6 +122,11 @@ export function listReceivedMail(db: Db, limit: number) {
       receivedAt: mailMessages.receivedAt,
     })
     .from(mailMessages)
+    .where(
+      pattern
+        ? or(like(mailMessages.mailTo, pattern), like(mailMessages.subject, pattern))
+        : undefined,
+    )
     .orderBy(desc(mailMessages.receivedAt), desc(mailMessages.id))
     .limit(limit);
 }

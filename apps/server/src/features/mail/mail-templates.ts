@@ -2,6 +2,7 @@
  * Shared pieces of every message: HTML escaping, the plain layout and the safety caution.
  * Every value that reaches HTML goes through `esc`.
  */
+import { formatDateTimeZone } from '@turnstone/contracts/dates';
 
 /** The sentence every alert message carries (DESIGN.md "Safety"). */
 export const SAFETY_CAUTION =
@@ -23,7 +24,8 @@ export function esc(value: unknown): string {
 export { formatNumber as num } from '@turnstone/contracts/number-format';
 
 export function utc(d: Date): string {
-  return `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
+  // The one date format of screens, files and mail (contracts/dates.ts): 2026-11-30 02:17 UTC.
+  return formatDateTimeZone(d, 'UTC');
 }
 
 export interface Rendered {

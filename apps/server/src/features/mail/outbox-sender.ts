@@ -20,12 +20,12 @@
  */
 import { randomUUID } from 'node:crypto';
 import { hostname } from 'node:os';
-import nodemailer, { type Transporter } from 'nodemailer';
-import cron, { type ScheduledTask } from 'node-cron';
+import nodemailer, { type SendMailOptions, type Transporter } from 'nodemailer';
 import type { AppContext } from '../../lib/context.ts';
-import { isDbUnavailable } from '@turnstone/db/errors';
+import { deliveryLoop, inClaimedRounds } from '../../lib/delivery-loop.ts';
 import * as repo from './outbox-repository.ts';
 import { renderHourlySummary } from './alert-mail.ts';
+import { outboxRetryDelayS } from '../../lib/retry-delay.ts';
 
 export interface OutboxSenderOptions {
   smtpUrl: string;
@@ -56,8 +56,27 @@ export function messageIdOf(row: Pick<repo.OutboxRow, 'id' | 'createdAt'>): stri
 }
 
 /** Back-off after the n-th failed attempt: 30 s · 2^(n−1), at most one hour. */
-export const outboxRetryDelayS = (attempts: number) =>
-  Math.min(3600, 30 * 2 ** Math.max(0, attempts - 1));
+/** The message nodemailer sends for an outbox row. */
+export function messageOf(
+  row: Pick<repo.OutboxRow, 'toAddress' | 'subject' | 'textBody' | 'htmlBody' | 'kind'>,
+  from: string,
+  messageId: string,
+): SendMailOptions {
+  return {
+    from,
+    to: row.toAddress,
+    subject: row.subject,
+    text: row.textBody,
+    ...(row.htmlBody ? { html: row.htmlBody } : {}),
+    // Data-URL images (an alert's trend picture) travel as inline CID attachments, which
+    // mail clients show more readily than data URLs.
+    attachDataUrls: true,
+    messageId,
+    headers: { 'X-Turnstone-Kind': row.kind },
+  };
+}
+
+export { outboxRetryDelayS };
 
 // Errors where nodemailer never got as far as handing over the message.
 const NOT_SENT_CODES = new Set(['ECONNECTION', 'EDNS', 'EAUTH', 'EENVELOPE', 'EMESSAGE', 'ETLS']);
@@ -75,8 +94,6 @@ export function createOutboxSender(ctx: AppContext, options: OutboxSenderOptions
   const transport: Transporter = nodemailer.createTransport(options.smtpUrl, {
     from: ctx.config.MAIL_FROM,
   });
-  const tasks: ScheduledTask[] = [];
-  let running: Promise<SendResult[]> | null = null;
 
   async function sendOne(row: repo.OutboxRow): Promise<SendResult['result']> {
     const messageId = messageIdOf(row);
@@ -99,15 +116,7 @@ export function createOutboxSender(ctx: AppContext, options: OutboxSenderOptions
     }
     if (!(await repo.markSendingStarted(ctx.db, row.id, owner))) return 'lease-lost';
     try {
-      await transport.sendMail({
-        from: ctx.config.MAIL_FROM,
-        to: row.toAddress,
-        subject: row.subject,
-        text: row.textBody,
-        ...(row.htmlBody ? { html: row.htmlBody } : {}),
-        messageId,
-        headers: { 'X-Turnstone-Kind': row.kind },
-      });
+      await transport.sendMail(messageOf(row, ctx.config.MAIL_FROM, messageId));
     } catch (err) {
       const message = err instanceof Error ? err.message : String(err);
       const sure = definitelyNotSent(err);
@@ -127,50 +136,20 @@ export function createOutboxSender(ctx: AppContext, options: OutboxSenderOptions
 
   async function drainInner(): Promise<SendResult[]> {
     await repo.foldHourlyRows(ctx.db, renderHourlySummary);
-    const out: SendResult[] = [];
-    for (let round = 0; round < 100; round++) {
-      const rows = await repo.claimOutbox(
-        ctx.db,
-        owner,
-        ctx.config.OUTBOX_LEASE_S,
-        options.batch ?? 10,
-      );
-      if (rows.length === 0) break;
-      for (const row of rows) out.push({ id: row.id, result: await sendOne(row) });
-    }
-    return out;
+    return inClaimedRounds(
+      () => repo.claimOutbox(ctx.db, owner, ctx.config.OUTBOX_LEASE_S, options.batch ?? 10),
+      async (row) => ({ id: row.id, result: await sendOne(row) }),
+    );
   }
-
-  const drain = () => {
-    running ??= drainInner().finally(() => {
-      running = null;
-    });
-    return running;
-  };
 
   return {
     owner,
-    drain,
-    start() {
-      tasks.push(
-        cron.schedule(
-          '*/5 * * * * *',
-          async () => {
-            try {
-              await drain();
-            } catch (err) {
-              if (isDbUnavailable(err)) ctx.log.warn('outbox: database unavailable, will retry');
-              else ctx.log.error('outbox tick failed', { err });
-            }
-          },
-          { noOverlap: true, name: 'outbox' },
-        ),
-      );
-    },
-    async stop() {
-      for (const t of tasks.splice(0)) await t.stop();
-      await running?.catch(() => {});
-      transport.close();
-    },
+    ...deliveryLoop(ctx.log, {
+      name: 'outbox',
+      unavailable: 'outbox: database unavailable, will retry',
+      failed: 'outbox tick failed',
+      drainOnce: drainInner,
+      afterStop: () => transport.close(),
+    }),
   };
 }

@@ -1,12 +1,14 @@
 import {
   mailboxListSchema,
   mailboxMessageSchema,
+  mailboxQuerySchema,
   undeliveredMailListSchema,
 } from '@turnstone/contracts/mail';
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './mailbox-service.ts';
 import { idParam } from '../../lib/route-params.ts';
+import { parseQuery } from '../../lib/query.ts';
 
 export function mailboxRoutes(ctx: AppContext): RouteSpec[] {
   return [
@@ -15,8 +17,11 @@ export function mailboxRoutes(ctx: AppContext): RouteSpec[] {
       path: '/mailbox',
       access: ['admin'],
       summary: 'list received mail',
-      schemas: { response: mailboxListSchema },
-      handler: async (_req, res) => res.json(await service.listMailbox(ctx.db)),
+      schemas: { query: mailboxQuerySchema, response: mailboxListSchema },
+      handler: async (req, res) => {
+        const { search } = parseQuery(mailboxQuerySchema, req.query);
+        res.json(await service.listMailbox(ctx.db, search));
+      },
     },
     {
       method: 'get',

@@ -9,8 +9,8 @@ import { listUndelivered, requeueUndelivered, type OutboxRow } from '../mail/out
 import { maskLinkTokens } from '../mail/link-tokens.ts';
 import { findReceivedMail, listReceivedMail } from '../mail/mail-repository.ts';
 
-export async function listMailbox(db: Db, limit = 200) {
-  const rows = await listReceivedMail(db, limit);
+export async function listMailbox(db: Db, search?: string, limit = 200) {
+  const rows = await listReceivedMail(db, limit, search || undefined);
   return { items: rows.map((r) => ({ ...r, receivedAt: r.receivedAt.toISOString() })) };
 }
 

@@ -4,13 +4,13 @@
  * unpinning are written to the audit log.
  */
 import type { z } from 'zod';
-import type { pinInputSchema, pinSchema } from '@turnstone/contracts/points';
+import type { pinInputSchema, pinSchema } from '@turnstone/contracts/pins';
 import { notFound } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import { accessibleAnalysis } from './points-service.ts';
-import * as repo from './points-repository.ts';
+import * as repo from './pins-repository.ts';
 
 export async function pinCapture(
   ctx: AppContext,

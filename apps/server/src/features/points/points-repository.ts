@@ -1,4 +1,4 @@
-import { readStoredSummary, type StoredSummary } from '../analysis/stored-summary.ts';
+import { readStoredSummary, type StoredSummary } from './stored-summary.ts';
 import { and, asc, desc, eq, gte, inArray, isNull, lte, ne, or, sql } from 'drizzle-orm';
 import type { BandState } from '@turnstone/condition';
 import type { Db, Tx } from '@turnstone/db/client';
@@ -10,7 +10,6 @@ import {
   areas,
   bandValues,
   bearings,
-  capturePins,
   findings,
   gears,
   machines,
@@ -44,6 +43,8 @@ const summaryColumns = {
   diagnosis: analyses.diagnosis,
   shaftVectors: analyses.shaftVectors,
   spectraThinnedAt: analyses.spectraThinnedAt,
+  /** Why a capture is suspect or unusable (small: a few findings). */
+  qualityFindings: analyses.qualityFindings,
 };
 export type AnalysisSummaryRow = Awaited<ReturnType<typeof listAnalyses>>[number];
 
@@ -142,7 +143,7 @@ export async function recentBandValues(db: Db, pointId: number, bandKey: string,
  * before its first value is absent. What `levelsInForce` needs to decide the levels the
  * worker uses.
  */
-export async function bandStatesOf(db: Db, pointId: number) {
+export async function bandStatesOf(db: Db | Tx, pointId: number) {
   const [row] = await db
     .select({ state: pointStates.state })
     .from(pointStates)
@@ -208,9 +209,12 @@ export async function alertEventsOf(
       kind: alertEvents.kind,
       level: alertEvents.level,
       alertId: alertEvents.alertId,
+      by: users.name,
+      note: alertEvents.note,
     })
     .from(alertEvents)
     .innerJoin(alerts, eq(alerts.id, alertEvents.alertId))
+    .leftJoin(users, eq(users.id, alertEvents.userId))
     .where(
       and(
         eq(alerts.pointId, pointId),
@@ -286,6 +290,7 @@ export async function recentSpectra(db: Db, pointId: number, kind: SpectrumKind,
     .select({
       id: analyses.id,
       takenAt: analyses.takenAt,
+      speedRpm: analyses.speedRpm,
       summary: analyses.summary,
       spectra: analyses.spectra,
       legacy: analyses[legacy],
@@ -357,44 +362,8 @@ export async function snapshotStatusRow(db: Db, snapshotId: number) {
 /** The analysis of a snapshot (summary columns and quality findings), if it has one. */
 export async function analysisOfSnapshot(db: Db, snapshotId: number) {
   const [row] = await db
-    .select({ ...summaryColumns, qualityFindings: analyses.qualityFindings })
+    .select(summaryColumns)
     .from(analyses)
     .where(eq(analyses.snapshotId, snapshotId));
   return row;
-}
-
-/** Who pinned which of `analysisIds`, when, and why. */
-export async function pinsOf(db: Db, analysisIds: number[]) {
-  if (analysisIds.length === 0) return new Map<number, { by: string; at: Date; note: string }>();
-  const rows = await db
-    .select({
-      analysisId: capturePins.analysisId,
-      by: users.name,
-      at: capturePins.pinnedAt,
-      note: capturePins.note,
-    })
-    .from(capturePins)
-    .innerJoin(users, eq(users.id, capturePins.pinnedBy))
-    .where(inArray(capturePins.analysisId, analysisIds));
-  return new Map(rows.map((r) => [r.analysisId, { by: r.by, at: r.at, note: r.note }]));
-}
-
-/** Pins (or re-notes) a capture. */
-export async function pinCapture(
-  db: Db | Tx,
-  analysisId: number,
-  userId: number,
-  note: string,
-  at: Date,
-): Promise<void> {
-  await db
-    .insert(capturePins)
-    .values({ analysisId, pinnedBy: userId, pinnedAt: at, note })
-    .onDuplicateKeyUpdate({ set: { pinnedBy: userId, pinnedAt: at, note } });
-}
-
-/** Removes a pin; whether there was one. */
-export async function unpinCapture(db: Db | Tx, analysisId: number): Promise<boolean> {
-  const [r] = await db.delete(capturePins).where(eq(capturePins.analysisId, analysisId));
-  return r.affectedRows > 0;
 }

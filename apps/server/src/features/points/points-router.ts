@@ -3,15 +3,13 @@ import {
   analysesQuerySchema,
   analysisListSchema,
   machineDetailSchema,
-  pinInputSchema,
-  pinSchema,
   pointDetailSchema,
   spectrumQuerySchema,
   spectrumSchema,
-  waterfallQuerySchema,
-  waterfallSchema,
   waveformSchema,
 } from '@turnstone/contracts/points';
+import { pinInputSchema, pinSchema } from '@turnstone/contracts/pins';
+import { waterfallQuerySchema, waterfallSchema } from '@turnstone/contracts/waterfall';
 import { trendQuerySchema, trendResponseSchema } from '@turnstone/contracts/trend';
 import { snapshotStatusSchema } from '@turnstone/contracts/uploads';
 import type { AppContext } from '../../lib/context.ts';

@@ -6,7 +6,7 @@
  */
 import { faultFrequencies } from '@turnstone/dsp';
 
-import { levelsInForce } from '@turnstone/condition';
+import { isoZoneBoundaries, levelsInForce, type BandDefinition } from '@turnstone/condition';
 import type {
   AnalysisSummary,
   CurrentDiagnosis,
@@ -14,6 +14,7 @@ import type {
   ShaftVectorItem,
   QualityFinding,
   MachineDetail,
+  PointBand,
   PointDetail,
 } from '@turnstone/contracts/points';
 
@@ -27,8 +28,10 @@ import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { loadLimitSet } from '../limits/limit-set-repository.ts';
 import { pointStatus, QUALITY_MARK_MS, worst } from '../fleet/fleet-service.ts';
 import * as repo from './points-repository.ts';
-import { readStoredSummary } from '../analysis/stored-summary.ts';
-import { machineComponentsOf } from '../analysis/diagnosis-step.ts';
+import { pinsOf } from './pins-repository.ts';
+import { openAlertBands } from './governing-bands-repository.ts';
+import { readStoredSummary } from './stored-summary.ts';
+import { machineComponentsOf } from './machine-components.ts';
 
 /** Default trend period when none is given (the trend contract says 90 days). */
 export const DEFAULT_TREND_DAYS = 90;
@@ -39,6 +42,26 @@ export const SPARK_BAND = 'overall-velocity';
 export const SPARK_POINTS = 50;
 
 const iso = (d: Date) => d.toISOString();
+
+/** Where a band sits in the spectrum, as the point detail states it (see `pointBandSchema.range`). */
+function bandRange(b: BandDefinition): PointBand['range'] {
+  switch (b.kind) {
+    case 'overall':
+      return { kind: 'overall', fromHz: b.fromHz ?? null, toHz: b.toHz ?? null };
+    case 'hz':
+      return { kind: 'hz', fromHz: b.fromHz, toHz: b.toHz };
+    case 'order':
+      return { kind: 'order', fromOrder: b.fromOrder, toOrder: b.toOrder };
+    case 'fault':
+      return {
+        kind: 'fault',
+        fault: b.fault,
+        halfWidth: b.halfWidth,
+        halfWidthUnit: b.halfWidthUnit,
+        harmonics: b.harmonics ?? 1,
+      };
+  }
+}
 
 function summaryOf(r: repo.AnalysisSummaryRow): AnalysisSummary {
   const stored = readStoredSummary(r.summary);
@@ -64,6 +87,7 @@ function summaryOf(r: repo.AnalysisSummaryRow): AnalysisSummary {
     diagnosis: (r.diagnosis as Diagnosis | null) ?? null,
     shaftVectors: (r.shaftVectors as ShaftVectorItem[] | null) ?? null,
     spectraThinned: r.spectraThinnedAt !== null,
+    findings: (r.qualityFindings as QualityFinding[] | null) ?? [],
   };
 }
 
@@ -94,27 +118,64 @@ async function statusesOf(
   return out;
 }
 
+/** The machine with its place, when the user may see its site (404 / 403 otherwise). */
+export async function accessibleMachine(db: Db, user: SessionUser, machineId: number) {
+  const row = await repo.machineWithPlace(db, machineId);
+  if (!row) throw notFound('Machine');
+  if (!canSeeSite(user, row.site.id))
+    throw forbidden('This machine belongs to a site you are not assigned to.');
+  return row;
+}
+
+function governingOf(
+  band: { bandKey: string; bandName: string; unit: string; level: 'alert' | 'danger' } | undefined,
+  values: { t: string; v: number }[],
+) {
+  return band
+    ? { key: band.bandKey, name: band.bandName, unit: band.unit, level: band.level, values }
+    : { key: SPARK_BAND, name: 'Overall velocity', unit: 'mm/s', level: null, values };
+}
+
+/** The ISO 20816-3 zone boundaries of a machine's class (packages/condition); null if none. */
+function isoBoundariesOf(group: number, foundation: 'rigid' | 'flexible') {
+  if (group !== 1 && group !== 2) return null;
+  const b = isoZoneBoundaries(group, foundation);
+  return { ab: b.ab, bc: b.bc, cd: b.cd };
+}
+
 export async function machineDetail(
   db: Db,
   user: SessionUser,
   machineId: number,
   now = Date.now(),
 ): Promise<MachineDetail> {
-  const row = await repo.machineWithPlace(db, machineId);
-  if (!row) throw notFound('Machine');
-  if (!canSeeSite(user, row.site.id))
-    throw forbidden('This machine belongs to a site you are not assigned to.');
+  const row = await accessibleMachine(db, user, machineId);
   const { machine } = row;
   const [components, pointRows] = await Promise.all([
     repo.machineComponents(db, machineId),
     repo.machinePoints(db, machineId),
   ]);
   const ids = pointRows.map((p) => p.id);
-  const [latest, statuses, sparks] = await Promise.all([
+  const [latest, statuses, sparks, alertBands] = await Promise.all([
     repo.latestAnalyses(db, ids),
     statusesOf(db, pointRows, now),
     Promise.all(ids.map((id) => repo.recentBandValues(db, id, SPARK_BAND, SPARK_POINTS))),
+    openAlertBands(db, ids),
   ]);
+  // The governing band's recent values where it is not overall velocity (already read).
+  const governingValues = await Promise.all(
+    ids.map((id, i) => {
+      const band = alertBands.get(id);
+      return band && band.bandKey !== SPARK_BAND
+        ? repo.recentBandValues(db, id, band.bandKey, SPARK_POINTS)
+        : Promise.resolve(sparks[i] ?? []);
+    }),
+  );
+  const oldestFirst = (rows: { takenAt: Date; value: number }[]) =>
+    rows
+      .slice()
+      .reverse()
+      .map((v) => ({ t: iso(v.takenAt), v: v.value }));
   let status: NodeStatus = 'none';
   const bearingName = new Map(components.bearings.map((b) => [b.id, b.name]));
   const pointsOut = pointRows.map((p, i) => {
@@ -130,10 +191,8 @@ export async function machineDetail(
       bearing: p.bearingId === null ? null : (bearingName.get(p.bearingId) ?? null),
       status: s,
       latest: l ? summaryOf(l) : null,
-      recentVelocity: (sparks[i] ?? [])
-        .slice()
-        .reverse()
-        .map((v) => ({ t: iso(v.takenAt), v: v.value })),
+      recentVelocity: oldestFirst(sparks[i] ?? []),
+      governing: governingOf(alertBands.get(p.id), oldestFirst(governingValues[i] ?? [])),
     };
   });
   return {
@@ -152,6 +211,7 @@ export async function machineDetail(
     site: { id: row.site.id, name: row.site.name, code: row.site.code },
     area: { id: row.area.id, name: row.area.name },
     status,
+    isoBoundaries: isoBoundariesOf(machine.isoGroup, machine.foundation),
     bearings: components.bearings.map((b) => ({
       id: b.id,
       name: b.name,
@@ -224,6 +284,7 @@ export async function pointDetail(
         alertLevel: lv.alertLevel,
         dangerLevel: lv.dangerLevel,
         levelSource: lv.source,
+        range: bandRange(b),
       };
     }),
   };
@@ -243,7 +304,7 @@ export async function listAnalyses(
     q.to ? new Date(q.to) : undefined,
     q.limit,
   );
-  const pins = await repo.pinsOf(
+  const pins = await pinsOf(
     ctx.db,
     rows.map((r) => r.id),
   );
@@ -273,10 +334,11 @@ export async function snapshotStatus(
   if (!s) throw notFound('Snapshot');
   await accessiblePoint(ctx.db, user, s.pointId);
   const a = await repo.analysisOfSnapshot(ctx.db, snapshotId);
+  const summary = a ? summaryOf(a) : null;
   return {
     ...s,
     takenAt: iso(s.takenAt),
     receivedAt: iso(s.receivedAt),
-    analysis: a ? { ...summaryOf(a), findings: a.qualityFindings as QualityFinding[] } : null,
+    analysis: summary ? { ...summary, findings: summary.findings ?? [] } : null,
   };
 }

@@ -5,8 +5,9 @@
  * and sent to the browser as base64 of float32.
  */
 
-import type { Spectrum, SpectrumKind, Waterfall } from '@turnstone/contracts/points';
-import { readSpectrum, storedSpectrum } from '@turnstone/db/spectra-codec';
+import type { Spectrum, SpectrumKind } from '@turnstone/contracts/points';
+import type { Waterfall } from '@turnstone/contracts/waterfall';
+import { base64Of, readSpectrumBase64, storedSpectrum } from '@turnstone/db/spectra-codec';
 
 import { AppError } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
@@ -14,10 +15,15 @@ import { accessiblePoint } from '../places/point-access.ts';
 import { type SessionUser } from '../../lib/session-user.ts';
 
 import * as repo from './points-repository.ts';
-import { readStoredSummary } from '../analysis/stored-summary.ts';
+import { readStoredSummary } from './stored-summary.ts';
 import { accessibleAnalysis } from './points-service.ts';
 
 const iso = (d: Date) => d.toISOString();
+
+/** 1× in Hz from a capture's stored speed: measured Hz first, else r/min ÷ 60; null unknown. */
+function shaftHzOf(speed: { rpm: number | null; hz: number | null }): number | null {
+  return speed.hz ?? (speed.rpm ? speed.rpm / 60 : null);
+}
 
 /** Largest local maxima of a stored spectrum (line values, no interpolation), largest first. */
 export function simplePeaks(
@@ -80,7 +86,7 @@ export async function spectrum(
     );
   const axis = kind === 'order' ? 'order' : 'hz';
   const speed = summary.speed ?? { rpm: analysis.speedRpm, hz: null, source: analysis.speedSource };
-  const shaftHz = speed.hz ?? (speed.rpm ? speed.rpm / 60 : null);
+  const shaftHz = shaftHzOf(speed);
   const step = axis === 'order' ? (meta.dOrder ?? 0) : (meta.dfHz ?? 0);
   const peaks =
     kind === 'acceleration' && summary.peaks
@@ -101,7 +107,7 @@ export async function spectrum(
     dfHz: axis === 'hz' ? step : null,
     dOrder: axis === 'order' ? step : null,
     lines: values.length,
-    values: Buffer.from(values.buffer, values.byteOffset, values.byteLength).toString('base64'),
+    values: base64Of(values)!,
     peaks,
     faultFrequencies: (summary.faultFrequencies ?? []).map((f) => ({
       name: f.name,
@@ -124,18 +130,22 @@ export async function waterfall(
   const rows = await repo.recentSpectra(ctx.db, pointId, kind, limit);
   const axis = kind === 'order' ? 'order' : 'hz';
   let unit = kind === 'velocity' ? 'mm/s' : 'g';
+  let scale: Waterfall['scale'] = 'rms';
   const items: Waterfall['items'] = [];
   for (const r of rows) {
-    const meta = readStoredSummary(r.summary).spectra?.[kind];
-    const values = readSpectrum(kind, r.spectra, r.legacy);
+    const summary = readStoredSummary(r.summary);
+    const meta = summary.spectra?.[kind];
+    const values = meta ? readSpectrumBase64(kind, r.spectra, r.legacy) : null;
     if (!meta || !values) continue;
     unit = meta.unit;
+    scale = meta.scale;
     items.push({
       analysisId: r.id,
       takenAt: iso(r.takenAt),
       step: (axis === 'order' ? meta.dOrder : meta.dfHz) ?? 0,
-      values: Buffer.from(values.buffer, values.byteOffset, values.byteLength).toString('base64'),
+      values,
+      shaftHz: shaftHzOf(summary.speed ?? { rpm: r.speedRpm, hz: null }),
     });
   }
-  return { kind, unit, axis, items };
+  return { kind, unit, scale, axis, items };
 }

@@ -4,6 +4,7 @@
  * trend as CSV.
  */
 
+import { displayUnit, toDisplay } from '@turnstone/contracts/units';
 import { decimateTrend } from '@turnstone/condition/trend-decimation';
 import { levelsInForce, PROJECTION_WINDOW_DAYS, projectTrend } from '@turnstone/condition';
 
@@ -140,7 +141,14 @@ export async function trend(
         changed: p.window.changed,
       },
     },
-    events: events.map((e) => ({ t: iso(e.at), kind: e.kind, level: e.level, alertId: e.alertId })),
+    events: events.map((e) => ({
+      t: iso(e.at),
+      kind: e.kind,
+      level: e.level,
+      alertId: e.alertId,
+      by: e.by ?? null,
+      note: e.note ?? null,
+    })),
     findings: findingRows.map((f) => ({
       t: iso(f.createdAt),
       title: f.title,
@@ -160,7 +168,10 @@ export async function trendCsv(
   const band = await trendBand(ctx, pointId, q.band);
   const { from, to } = period(q, now);
   const rows = await repo.bandTrend(ctx.db, pointId, band.key, from, to);
-  const unit = band.unit === 'um' ? 'um' : band.unit.replace('/', '_per_');
+  // Values in the user's unit system (stored metric), named in the column: mm_per_s, in_per_s,
+  // um, mil, g.
+  const shownUnit = displayUnit(band.unit, user.unitSystem);
+  const unit = shownUnit.replace('/', '_per_');
   // an overall value's band, per row (it follows each capture's speed and sample rate)
   const own =
     band.kind === 'overall' && band.fromHz !== undefined && band.toHz !== undefined
@@ -186,7 +197,8 @@ export async function trendCsv(
   for (const r of rows) {
     const hz = overall ? bandOf(r.analysisId) : null;
     const tail = overall ? `,${hz?.[0] ?? ''},${hz?.[1] ?? ''}` : '';
-    lines.push(`${new Date(Number(r.t)).toISOString()},${r.value},${r.quality}${tail}`);
+    const value = toDisplay(r.value, band.unit, user.unitSystem);
+    lines.push(`${new Date(Number(r.t)).toISOString()},${value},${r.quality}${tail}`);
   }
   const safeTag = point.tag.replace(/[^A-Za-z0-9._-]+/g, '_');
   return {

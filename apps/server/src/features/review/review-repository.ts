@@ -16,6 +16,7 @@ import {
   qualityNotices,
   sites,
 } from '@turnstone/db/schema';
+import { localDaySql, type SiteWeek } from './review-weeks.ts';
 
 export interface PointRef {
   pointId: number;
@@ -27,17 +28,22 @@ export interface PointRef {
   siteCode: string;
 }
 
+export type Criticality = 'low' | 'medium' | 'high';
+
 export async function sitesIn(db: Db, siteIds: number[]) {
   if (siteIds.length === 0) return [];
   return db
-    .select({ id: sites.id, code: sites.code, name: sites.name })
+    .select({ id: sites.id, code: sites.code, name: sites.name, timeZone: sites.timeZone })
     .from(sites)
     .where(inArray(sites.id, siteIds))
     .orderBy(asc(sites.code));
 }
 
 /** Every point of the sites, with the names a row of the review shows. */
-export async function pointRefs(db: Db, siteIds: number[]): Promise<Map<number, PointRef>> {
+export async function pointRefs(
+  db: Db,
+  siteIds: number[],
+): Promise<Map<number, PointRef & { criticality: Criticality }>> {
   if (siteIds.length === 0) return new Map();
   const rows = await db
     .select({
@@ -48,6 +54,7 @@ export async function pointRefs(db: Db, siteIds: number[]): Promise<Map<number, 
       machineName: machines.name,
       siteId: sites.id,
       siteCode: sites.code,
+      criticality: machines.criticality,
     })
     .from(points)
     .innerJoin(machines, eq(machines.id, points.machineId))
@@ -60,18 +67,21 @@ export async function pointRefs(db: Db, siteIds: number[]): Promise<Map<number, 
 const inSites = (siteIds: number[]) => inArray(areas.siteId, siteIds);
 
 /**
- * Per point, band and UTC day: the mean of the usable values and the mean time they were
- * taken (epoch ms), and how many. The forecast fits these, so a point read hourly and one read
- * daily give series of the same size; the weekly means are summed from them (the weeks start
- * at UTC midnight, so every day falls wholly in one week) and the rows are read only once.
+ * Per point, band and local day of the point's site (`localDaySql`): the mean of the usable
+ * values, the mean time they were taken (epoch ms), and how many. The forecast fits these, so
+ * a point read hourly and one read daily give series of the same size; the weekly means are
+ * summed from them (every local day falls wholly in one week) and the rows are read once.
  */
-export async function dailyMeans(db: Db, siteIds: number[], from: Date, to: Date) {
-  if (siteIds.length === 0) return [];
+export async function dailyMeans(db: Db, weeks: SiteWeek[]) {
+  if (weeks.length === 0) return [];
+  const from = new Date(Math.min(...weeks.map((w) => w.lookbackFrom)));
+  const to = new Date(Math.max(...weeks.map((w) => w.thisTo)));
+  const day = localDaySql(weeks, sql.raw('a.site_id'), sql.raw('bv.taken_at'));
   // Thousands of rows for a plant (one per point, band and day): read raw, numbers as
   // doubles, without the query builder's per-row mapping. The points' join reaches
   // band_values_point_time_idx, which covers the query (a range per point, no row reads).
   const [rows] = (await db.execute(sql`
-    SELECT bv.point_id AS pointId, bv.band_key AS bandKey,
+    SELECT bv.point_id AS pointId, bv.band_key AS bandKey, ${day} AS day,
       CAST(AVG(TIMESTAMPDIFF(MICROSECOND, '1970-01-01 00:00:00', bv.taken_at) / 1000) AS DOUBLE) AS t,
       AVG(bv.value) AS v, COUNT(*) AS n
     FROM band_values bv
@@ -79,14 +89,14 @@ export async function dailyMeans(db: Db, siteIds: number[], from: Date, to: Date
     JOIN machines m ON m.id = p.machine_id
     JOIN areas a ON a.id = m.area_id
     WHERE a.site_id IN (${sql.join(
-      siteIds.map((id) => sql`${id}`),
+      weeks.map((w) => sql`${w.siteId}`),
       sql`, `,
     )})
       AND bv.taken_at >= ${from} AND bv.taken_at < ${to}
       AND bv.quality_verdict <> 'unusable'
-    GROUP BY bv.point_id, bv.band_key, DATE(bv.taken_at)
+    GROUP BY bv.point_id, bv.band_key, day
     ORDER BY NULL`)) as unknown as [
-    { pointId: number; bandKey: string; t: number; v: number; n: number }[],
+    { pointId: number; bandKey: string; day: string; t: number; v: number; n: number }[],
   ];
   // In point, band and time order, as GROUP BY gave them before ORDER BY NULL spared
   // MariaDB the sort of its temporary table.
@@ -94,6 +104,7 @@ export async function dailyMeans(db: Db, siteIds: number[], from: Date, to: Date
     .map((r) => ({
       pointId: r.pointId,
       bandKey: r.bandKey,
+      day: String(r.day),
       t: Math.round(r.t),
       v: r.v,
       n: Number(r.n),

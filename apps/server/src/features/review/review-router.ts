@@ -1,7 +1,8 @@
 import { reviewQuerySchema, reviewSchema } from '@turnstone/contracts/review';
 import type { AppContext } from '../../lib/context.ts';
 import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
-import { reviewCsv } from './review-csv.ts';
+import { reviewZip } from './review-csv.ts';
+import { reviewInUnits } from '@turnstone/contracts/review-units';
 import { buildWeeklyReview } from './review-service.ts';
 import { parseQuery } from '../../lib/query.ts';
 
@@ -24,22 +25,22 @@ export function reviewRoutes(ctx: AppContext): RouteSpec[] {
     },
     {
       method: 'get',
-      path: '/review.csv',
+      path: '/review.zip',
       access: READERS,
-      summary: 'weekly review as CSV',
-      schemas: { query: reviewQuerySchema, produces: 'text/csv' },
+      summary: 'weekly review as a ZIP of CSV files, one per table',
+      schemas: { query: reviewQuerySchema, produces: 'application/zip' },
       handler: async (req, res) => {
         const q = parseQuery(reviewQuerySchema, req.query);
         const review = await buildWeeklyReview(ctx, requireUser(req), q);
         const sites =
           review.sites.length === 1 ? `-${review.sites[0]!.code.replace(/[^\w-]/g, '')}` : '';
-        res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+        res.setHeader('Content-Type', 'application/zip');
         res.setHeader('Cache-Control', 'no-store');
         res.setHeader(
           'Content-Disposition',
-          `attachment; filename="turnstone-review${sites}-${review.period.weekEnding}.csv"`,
+          `attachment; filename="turnstone-review${sites}-${review.period.weekEnding}.zip"`,
         );
-        res.send(reviewCsv(review));
+        res.send(Buffer.from(reviewZip(reviewInUnits(review, requireUser(req).unitSystem))));
       },
     },
   ];

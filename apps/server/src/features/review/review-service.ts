@@ -13,30 +13,31 @@ import type {
   ReviewAlert,
   ReviewFindingDue,
   ReviewForecast,
-  ReviewMover,
   ReviewQualityNotice,
   WeeklyReview,
 } from '@turnstone/contracts/review';
+import { addDays, localDate } from '@turnstone/contracts/dates';
 import type { AppContext } from '../../lib/context.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import * as findingsRepo from '../findings/findings-repository.ts';
 import { siteScope, toFinding } from '../findings/findings-service.ts';
 import * as repo from './review-repository.ts';
+import { MOVER_FLOOR_FRACTION, weeklyMovers, type NoiseThreshold } from './review-movers.ts';
+import { siteWeek, type SiteWeek } from './review-weeks.ts';
+
+export { MOVER_FLOOR_FRACTION };
 
 const DAY_MS = 86_400_000;
 /** How far back the forecast looks: six weeks of daily means. Common practice, no source. */
 export const FORECAST_LOOKBACK_DAYS = 42;
-/**
- * A rise is listed only when this week's mean is at least this fraction of the band's alert
- * level in force: below it the band reads its noise floor, where a large percentage means
- * nothing. Common practice, no source.
- */
-export const MOVER_FLOOR_FRACTION = 0.1;
 /** Rows kept per table; the summary counts every row. */
 export const MAX_ROWS = 100;
 
+/** The noise threshold unless the request names one (the query schema's defaults). */
+export const DEFAULT_NOISE: NoiseThreshold = { minChangePercent: 5, minValues: 3 };
+
 export interface WeeklyReviewOptions {
-  /** Last day of the reviewed week (UTC), `YYYY-MM-DD`; default today. */
+  /** Last day of the reviewed week (each site's local day), `YYYY-MM-DD`; default today. */
   weekEnding?: string | undefined;
   /** Forecast horizon in weeks. @default 4 */
   weeksAhead?: number | undefined;
@@ -44,15 +45,12 @@ export interface WeeklyReviewOptions {
   siteId?: number | undefined;
   /** The time of the review (epoch ms), for ages and "overdue". @default Date.now() */
   now?: number;
+  minChangePercent?: number | undefined;
+  minValues?: number | undefined;
 }
 
 const isoDay = (ms: number) => new Date(ms).toISOString().slice(0, 10);
-
-/** Start of the UTC day after `date` (YYYY-MM-DD), epoch ms: the week's exclusive end. */
-export function weekEnd(date: string): number {
-  const [y, m, d] = date.split('-').map(Number);
-  return Date.UTC(y!, m! - 1, d! + 1);
-}
+const iso = (ms: number) => new Date(ms).toISOString();
 
 const bandId = (pointId: number, key: string) => `${pointId}|${key}`;
 
@@ -61,11 +59,12 @@ interface BandTrackLike {
 }
 
 /**
- * The review for `user`: movers (this week's mean vs last week's, per point and band, only
- * where both weeks have usable values, largest percentage rise first), forecasts
+ * The review for `user`: movers (this week's mean vs last week's, per point and band, above
+ * the noise threshold, grouped by machine — `weeklyMovers`), forecasts
  * (`projectTrend` through the last six weeks of daily means against the levels in force,
  * crossings within `weeksAhead` weeks), open alerts by age, this week's unreviewed quality
- * notices, and the findings due by the end of the coming week.
+ * notices, the findings due by the end of the coming week and those created this week.
+ * Weeks and days are each site's own (its time zone, `review-weeks.ts`).
  */
 export async function buildWeeklyReview(
   ctx: AppContext,
@@ -73,30 +72,51 @@ export async function buildWeeklyReview(
   options: WeeklyReviewOptions = {},
 ): Promise<WeeklyReview> {
   const now = options.now ?? Date.now();
-  const weekEnding = options.weekEnding ?? isoDay(now);
   const weeksAhead = options.weeksAhead ?? 4;
+  const noise: NoiseThreshold = {
+    minChangePercent: options.minChangePercent ?? DEFAULT_NOISE.minChangePercent,
+    minValues: options.minValues ?? DEFAULT_NOISE.minValues,
+  };
   const siteIds = siteScope(user, options.siteId);
-  const thisTo = weekEnd(weekEnding);
-  const thisFrom = thisTo - 7 * DAY_MS;
-  const lastFrom = thisTo - 14 * DAY_MS;
   const db = ctx.db;
+  const siteRows = await repo.sitesIn(db, siteIds);
+  const zones = [...new Set(siteRows.map((s) => s.timeZone))];
+  // "Today" in the sites' zone when they share one; UTC across zones.
+  const weekEnding = options.weekEnding ?? localDate(now, zones.length === 1 ? zones[0]! : 'UTC');
+  const weeks = siteRows.map((s) => siteWeek(s, weekEnding, FORECAST_LOOKBACK_DAYS));
+  const weekOfSite = new Map<number, SiteWeek>(weeks.map((w) => [w.siteId, w]));
+  const span = (pick: (w: SiteWeek) => number, f: typeof Math.min) =>
+    weeks.length ? f(...weeks.map(pick)) : now;
+  const thisFrom = span((w) => w.thisFrom, Math.min);
+  const thisTo = span((w) => w.thisTo, Math.max);
+  const lastFrom = span((w) => w.lastFrom, Math.min);
+  const inThisWeek = (siteId: number, at: Date) => {
+    const w = weekOfSite.get(siteId);
+    return !!w && at.getTime() >= w.thisFrom && at.getTime() < w.thisTo;
+  };
 
-  const [siteRows, refs, daily, bandRows, states, alertRows, noticeRows, dueRows] =
+  const [refs, daily, bandRows, states, alertRows, noticeRows, dueRows, createdRows] =
     await Promise.all([
-      repo.sitesIn(db, siteIds),
       repo.pointRefs(db, siteIds),
-      repo.dailyMeans(
-        db,
-        siteIds,
-        new Date(thisTo - FORECAST_LOOKBACK_DAYS * DAY_MS),
-        new Date(thisTo),
-      ),
+      repo.dailyMeans(db, weeks),
       repo.pointBands(db, siteIds),
       repo.conditionStates(db, siteIds),
       repo.openAlerts(db, siteIds),
       repo.unreviewedNotices(db, siteIds, new Date(thisFrom), new Date(thisTo)),
-      findingsRepo.listFindings(db, { siteIds, dueBy: isoDay(thisTo + 6 * DAY_MS) }),
+      findingsRepo.listFindings(db, { siteIds, dueBy: addDays(weekEnding, 7) }),
+      findingsRepo.listFindings(db, {
+        siteIds,
+        createdWithin: { from: new Date(thisFrom), to: new Date(thisTo) },
+      }),
     ]);
+
+  /** A point's names as a row shows them (without the machine's criticality). */
+  const pointRef = (pointId: number) => {
+    const r = refs.get(pointId);
+    if (!r) return undefined;
+    const { criticality: _c, ...ref } = r;
+    return ref;
+  };
 
   const bandsById = new Map<string, { name: string; unit: string; definition: LimitBand }>();
   for (const b of bandRows) {
@@ -120,79 +140,18 @@ export async function buildWeeklyReview(
     );
   };
 
-  // ---- weekly means, from the daily means
-  const weekly = new Map<
-    string,
-    {
-      pointId: number;
-      bandKey: string;
-      thisSum: number;
-      thisCount: number;
-      lastSum: number;
-      lastCount: number;
-    }
-  >();
-  for (const d of daily) {
-    if (d.t < lastFrom) continue;
-    const id = bandId(d.pointId, d.bandKey);
-    let w = weekly.get(id);
-    if (!w)
-      weekly.set(
-        id,
-        (w = {
-          pointId: d.pointId,
-          bandKey: d.bandKey,
-          thisSum: 0,
-          thisCount: 0,
-          lastSum: 0,
-          lastCount: 0,
-        }),
-      );
-    if (d.t >= thisFrom) {
-      w.thisSum += d.v * d.n;
-      w.thisCount += d.n;
-    } else {
-      w.lastSum += d.v * d.n;
-      w.lastCount += d.n;
-    }
-  }
-  const means = [...weekly.values()].map((w) => ({
-    ...w,
-    thisMean: w.thisCount > 0 ? w.thisSum / w.thisCount : null,
-    lastMean: w.lastCount > 0 ? w.lastSum / w.lastCount : null,
-  }));
-
-  // ---- movers
-  const movers: ReviewMover[] = [];
-  for (const m of means) {
-    const ref = refs.get(m.pointId);
-    if (!ref || m.thisMean === null || m.lastMean === null) continue;
-    if (m.thisCount === 0 || m.lastCount === 0) continue;
-    const change = m.thisMean - m.lastMean;
-    if (!(change > 0)) continue;
-    const band = bandsById.get(bandId(m.pointId, m.bandKey));
-    if (
-      band &&
-      m.thisMean < MOVER_FLOOR_FRACTION * levelsOf(m.pointId, m.bandKey, band.definition).alertLevel
-    )
-      continue;
-    movers.push({
-      ...ref,
-      bandKey: m.bandKey,
-      bandName: band?.name ?? m.bandKey,
-      unit: band?.unit ?? '',
-      lastWeekMean: m.lastMean,
-      thisWeekMean: m.thisMean,
-      lastWeekCount: m.lastCount,
-      thisWeekCount: m.thisCount,
-      change,
-      changePercent: m.lastMean > 0 ? (100 * change) / m.lastMean : null,
-    });
-  }
-  movers.sort(
-    (a, b) =>
-      (b.changePercent ?? Number.POSITIVE_INFINITY) -
-        (a.changePercent ?? Number.POSITIVE_INFINITY) || b.change - a.change,
+  // ---- movers, above the noise threshold, by machine
+  const { movers, groups, belowThreshold } = weeklyMovers(
+    daily,
+    refs,
+    weekOfSite,
+    (pointId, bandKey) => {
+      const band = bandsById.get(bandId(pointId, bandKey));
+      if (!band) return undefined;
+      const alertLevel = levelsOf(pointId, bandKey, band.definition).alertLevel;
+      return { name: band.name, unit: band.unit, alertLevel };
+    },
+    noise,
   );
 
   // ---- forecasts
@@ -208,10 +167,11 @@ export async function buildWeeklyReview(
     const band = bandsById.get(id);
     const [pointIdText, bandKey] = id.split('|') as [string, string];
     const pointId = Number(pointIdText);
-    const ref = refs.get(pointId);
-    if (!band || !ref) continue;
+    const ref = pointRef(pointId);
+    const end = ref && weekOfSite.get(ref.siteId)?.thisTo;
+    if (!band || !ref || !end) continue;
     const levels = levelsOf(pointId, bandKey, band.definition);
-    const p = projectTrend(trend, levels, { horizonDays: weeksAhead * 7, now: thisTo });
+    const p = projectTrend(trend, levels, { horizonDays: weeksAhead * 7, now: end });
     if (p.outcome !== 'projected' || p.crossingAt === null || !p.fit || !p.target) continue;
     const latest = trend.reduce((a, b) => (b.takenAt > a.takenAt ? b : a));
     forecasts.push({
@@ -224,7 +184,7 @@ export async function buildWeeklyReview(
       target: p.target,
       levelSource: levels.source,
       crossingAt: new Date(p.crossingAt).toISOString(),
-      daysToCrossing: Math.max(0, Math.round((p.crossingAt - thisTo) / DAY_MS)),
+      daysToCrossing: Math.max(0, Math.round((p.crossingAt - end) / DAY_MS)),
       model: p.fit.model,
       r2: p.fit.r2,
       points: p.points,
@@ -235,7 +195,7 @@ export async function buildWeeklyReview(
   // ---- open alerts
   const openAlerts: ReviewAlert[] = [];
   for (const { alert: a } of alertRows) {
-    const ref = refs.get(a.pointId);
+    const ref = pointRef(a.pointId);
     if (!ref || (a.state !== 'raised' && a.state !== 'acknowledged')) continue;
     openAlerts.push({
       ...ref,
@@ -258,8 +218,8 @@ export async function buildWeeklyReview(
   // ---- quality notices
   const qualityNotices: ReviewQualityNotice[] = [];
   for (const { notice: n } of noticeRows) {
-    const ref = refs.get(n.pointId);
-    if (!ref) continue;
+    const ref = pointRef(n.pointId);
+    if (!ref || !inThisWeek(ref.siteId, n.takenAt)) continue;
     qualityNotices.push({
       ...ref,
       noticeId: n.id,
@@ -278,8 +238,11 @@ export async function buildWeeklyReview(
     });
   }
 
-  // ---- findings due
+  // ---- findings due, and created this week
   const today = isoDay(now);
+  const findingsCreated = createdRows
+    .filter((r) => inThisWeek(r.siteId, r.finding.createdAt))
+    .map(toFinding);
   const findingsDue: ReviewFindingDue[] = dueRows.map((r) => {
     const f = toFinding(r);
     return { ...f, overdue: f.dueDate !== null && f.dueDate < today };
@@ -288,12 +251,20 @@ export async function buildWeeklyReview(
   return {
     period: {
       weekEnding,
-      thisWeek: { from: new Date(thisFrom).toISOString(), to: new Date(thisTo).toISOString() },
-      lastWeek: { from: new Date(lastFrom).toISOString(), to: new Date(thisFrom).toISOString() },
+      thisWeek: { from: iso(thisFrom), to: iso(thisTo) },
+      lastWeek: { from: iso(lastFrom), to: iso(span((w) => w.thisFrom, Math.max)) },
       weeksAhead,
-      timeZone: 'UTC',
-      generatedAt: new Date(now).toISOString(),
+      timeZone: zones.length === 1 ? zones[0]! : zones.length ? 'per site' : 'UTC',
+      generatedAt: iso(now),
     },
+    siteWeeks: weeks.map((w) => ({
+      siteId: w.siteId,
+      siteCode: w.siteCode,
+      timeZone: w.timeZone,
+      thisWeek: { from: iso(w.thisFrom), to: iso(w.thisTo) },
+      lastWeek: { from: iso(w.lastFrom), to: iso(w.thisFrom) },
+    })),
+    noise,
     sites: siteRows,
     summary: {
       movers: movers.length,
@@ -304,11 +275,15 @@ export async function buildWeeklyReview(
       qualityNotices: qualityNotices.length,
       findingsDue: findingsDue.length,
       findingsOverdue: findingsDue.filter((f) => f.overdue).length,
+      findingsCreated: findingsCreated.length,
+      moversBelowThreshold: belowThreshold,
     },
+    machineGroups: groups,
     movers: movers.slice(0, MAX_ROWS),
     forecasts: forecasts.slice(0, MAX_ROWS),
     openAlerts: openAlerts.slice(0, MAX_ROWS),
     qualityNotices: qualityNotices.slice(0, MAX_ROWS),
     findingsDue: findingsDue.slice(0, MAX_ROWS),
+    findingsCreated: findingsCreated.slice(0, MAX_ROWS),
   };
 }

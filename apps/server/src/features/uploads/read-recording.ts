@@ -7,7 +7,7 @@
 import { createHash } from 'node:crypto';
 import { CSV_DEFAULT_BITS, CSV_DEFAULT_FULL_SCALE_V, readCsv, wavCapture } from '@turnstone/dsp';
 import { MAX_SAMPLES, MIN_SAMPLES } from '@turnstone/contracts/ingest';
-import { encodeSamples } from '../ingest/sample-bytes.ts';
+import { encodeSamples } from '@turnstone/dsp/sample-codec';
 import { isWavBytes, looksLikeText, tooManySamples } from './upload-bounds.ts';
 
 export interface ReadRecordingInput {
@@ -61,7 +61,7 @@ export function readRecording(input: ReadRecordingInput): ReadRecordingResult {
     fullScaleV = wav.adc.fullScaleV;
     count = wav.samples.length;
     if (count > MAX_SAMPLES) return { ok: false, status: 413, message: tooManySamples(count) };
-    sampleBytes = encodeSamples(wav.samples, encoding);
+    sampleBytes = Buffer.from(encodeSamples(wav.samples, encoding));
   } else if (looksLikeText(bytes)) {
     let csv;
     try {
@@ -81,7 +81,7 @@ export function readRecording(input: ReadRecordingInput): ReadRecordingResult {
     const volts = csv.values;
     if (toVolts !== 1) for (let i = 0; i < volts.length; i++) volts[i] = volts[i]! * toVolts;
     try {
-      sampleBytes = encodeSamples(volts, 'float32');
+      sampleBytes = Buffer.from(encodeSamples(volts, 'float32'));
     } catch (err) {
       return bad(`Not a usable CSV file: ${(err as Error).message}`);
     }

@@ -11,6 +11,7 @@ import { accessiblePoint } from '../places/point-access.ts';
 import { storeSnapshot } from '../ingest/ingest-service.ts';
 import { snapshotByUid } from '../ingest/ingest-repository.ts';
 import { checkWavFrames, isWavBytes, MAX_UPLOAD_BYTES } from './upload-bounds.ts';
+import { writeAudit } from '../audit/audit-repository.ts';
 import { readRecordingOffThread } from './upload-pool.ts';
 
 export { MAX_UPLOAD_BYTES };
@@ -93,6 +94,22 @@ export async function acceptUpload(
       `This file was already uploaded for this point with other capture settings (snapshot ${result.snapshotId}).`,
       409,
     );
+  // The capture is stored by the ingest path's own multi-statement transaction, so the
+  // record of who uploaded what follows right after it (a repeat of the file is not logged).
+  if (result.status === 'created')
+    await writeAudit(ctx.db, {
+      actorUserId: user.id,
+      action: 'upload.create',
+      entity: 'point',
+      entityId: pointId,
+      after: {
+        fileName: safeFileName(file.originalname),
+        snapshot: result.snapshotId,
+        takenAt: takenAt.toISOString(),
+        samples: count,
+        sampleRateHz,
+      },
+    });
   return {
     snapshotId: result.snapshotId,
     status: result.status === 'created' ? ('queued' as const) : ('already-uploaded' as const),

@@ -1,11 +1,14 @@
-import { asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type { Db, Tx } from '@turnstone/db/client';
 import { sites, userSites, users } from '@turnstone/db/schema';
 
 export type UserRow = typeof users.$inferSelect;
 
+/** People only: service accounts are the API tokens screen's (features/api-tokens). */
+const person = eq(users.kind, 'person');
+
 export async function listUsers(db: Db) {
-  const rows = await db.select().from(users).orderBy(asc(users.name));
+  const rows = await db.select().from(users).where(person).orderBy(asc(users.name));
   const links = await db.select().from(userSites);
   const bySite = new Map<number, number[]>();
   for (const l of links) bySite.set(l.userId, [...(bySite.get(l.userId) ?? []), l.siteId]);
@@ -26,7 +29,11 @@ export async function existingSiteIds(db: Db | Tx, ids: number[]): Promise<numbe
 }
 
 export async function findUser(db: Db | Tx, id: number) {
-  const [u] = await db.select().from(users).where(eq(users.id, id)).limit(1);
+  const [u] = await db
+    .select()
+    .from(users)
+    .where(and(eq(users.id, id), person))
+    .limit(1);
   return u;
 }
 
@@ -49,7 +56,11 @@ export async function findUserByEmail(
   email: string,
   opts: { forUpdate?: boolean } = {},
 ) {
-  const q = db.select().from(users).where(eq(users.email, email)).limit(1);
+  const q = db
+    .select()
+    .from(users)
+    .where(and(eq(users.email, email), person))
+    .limit(1);
   const [u] = opts.forUpdate ? await q.for('update') : await q;
   return u;
 }

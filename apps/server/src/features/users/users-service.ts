@@ -39,7 +39,8 @@ export async function listUsers(db: Db) {
   return { items: rows.map(summary), sites };
 }
 
-async function checkSites(db: Db, ids: number[]) {
+/** The given site ids, each checked to exist (400 naming the unknown ones), sorted. */
+export async function checkSites(db: Db, ids: number[]) {
   const unique = [...new Set(ids)];
   const known = await repo.existingSiteIds(db, unique);
   const unknown = unique.filter((id) => !known.includes(id));

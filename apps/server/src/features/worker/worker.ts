@@ -25,7 +25,7 @@ import {
   LeaseLostError,
   markSnapshotFailed,
   type JobRow,
-} from './queue-repository.ts';
+} from '../queue/queue-repository.ts';
 import { RETENTION_CRON, retentionPolicy, runRetention } from './retention.ts';
 import { recomputeBaselines } from '../limits/baseline-service.ts';
 import { countAnalyses, observeAnalyses, recordRetention } from '../../lib/metrics.ts';

@@ -1,16 +1,18 @@
 /**
  * A tiny trend drawn as inline SVG (no ECharts: a machine page may show many, and they
- * should appear at once). Optional alert level line, dashed.
+ * should appear at once). Optional alert and danger level lines, dashed.
  */
 export function Sparkline({
   values,
   alertLevel,
+  dangerLevel,
   width = 120,
   height = 28,
   label,
 }: {
   values: readonly number[];
   alertLevel?: number | null;
+  dangerLevel?: number | null;
   width?: number;
   height?: number;
   label: string;
@@ -21,7 +23,7 @@ export function Sparkline({
         too few values
       </span>
     );
-  const hi = Math.max(...values, alertLevel ?? 0) * 1.05 || 1;
+  const hi = Math.max(...values, alertLevel ?? 0, dangerLevel ?? 0) * 1.05 || 1;
   const lo = 0;
   const x = (i: number) => (i / (values.length - 1)) * (width - 2) + 1;
   const y = (v: number) => height - 1 - ((v - lo) / (hi - lo)) * (height - 2);
@@ -38,6 +40,17 @@ export function Sparkline({
           y2={y(alertLevel)}
           stroke="var(--color-status-alert)"
           strokeDasharray="3 2"
+          strokeWidth={1}
+        />
+      )}
+      {dangerLevel != null && (
+        <line
+          x1={0}
+          x2={width}
+          y1={y(dangerLevel)}
+          y2={y(dangerLevel)}
+          stroke="var(--color-status-danger)"
+          strokeDasharray="6 2"
           strokeWidth={1}
         />
       )}

@@ -74,3 +74,26 @@ export function Field({
     </div>
   );
 }
+
+/**
+ * A `Field` holding one `Input`: the usual pair in forms (e-mail, password, name). Pass the
+ * form library's registration and any input attributes (`type`, `autoComplete`, …).
+ */
+export function InputField({
+  label,
+  hint,
+  error,
+  className,
+  ...input
+}: {
+  label: ReactNode;
+  hint?: ReactNode;
+  error?: string;
+  className?: string;
+} & Omit<ComponentProps<typeof Input>, 'invalid' | 'id' | 'aria-describedby' | 'className'>) {
+  return (
+    <Field label={label} hint={hint} error={error} className={className}>
+      {({ invalid, ...ids }) => <Input {...ids} {...input} invalid={invalid} />}
+    </Field>
+  );
+}

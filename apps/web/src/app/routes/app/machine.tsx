@@ -11,11 +11,14 @@ import { useMachine } from '../../../features/machines/api/get-machine.ts';
 import { MachineData } from '../../../features/machines/components/machine-data.tsx';
 import { MachinePointsTable } from '../../../features/machines/components/machine-points-table.tsx';
 import { MachineHints } from '../../../features/machines/components/machine-hints.tsx';
+import { MachineWhy } from '../../../features/machines/components/machine-why.tsx';
+import { useMe } from '../../../features/auth/api/get-me.ts';
 
 export function MachineRoute() {
   const { machineId } = useParams();
   const id = Number(machineId);
   const machine = useMachine(id);
+  const me = useMe();
   const now = useNow();
   if (!Number.isInteger(id) || id <= 0)
     return (
@@ -57,6 +60,7 @@ export function MachineRoute() {
           </span>
         }
       />
+      <MachineWhy machine={m} now={now} engineer={me.data?.role === 'engineer'} />
       <Card>
         <h2 className="px-4 pt-3 text-sm font-semibold text-ink">Points</h2>
         {m.points.length === 0 ? (
@@ -70,10 +74,6 @@ export function MachineRoute() {
       </Card>
       {m.points.length > 0 && <MachineHints machine={m} />}
       <MachineData machine={m} />
-      <p className="text-xs text-ink-muted">
-        ISO 20816 zones and alerts are guidance, not machine protection. Limits are set by competent
-        people against the manufacturer&apos;s data; inspection follows site lock-out procedures.
-      </p>
     </div>
   );
 }

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
-import type { PointDetail } from '@turnstone/contracts/points';
+import type { AnalysisSummary, PointDetail } from '@turnstone/contracts/points';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
@@ -17,7 +17,10 @@ import { SpectrumPanel } from '../../../features/points/components/spectrum-pane
 import { WaterfallPanel } from '../../../features/points/components/waterfall-panel.tsx';
 import { WaveformPanel } from '../../../features/points/components/waveform-panel.tsx';
 import { VectorPanel, hasVectors } from '../../../features/points/components/vector-panel.tsx';
+import { CaptureQuality } from '../../../features/points/components/capture-quality.tsx';
+import { useMe } from '../../../features/auth/api/get-me.ts';
 import { TrendPanel } from '../../../features/trends/components/trend-panel.tsx';
+import { useUnits } from '../../../features/account/api/use-units.ts';
 
 const tabs = [
   { key: 'trend', label: 'Trend' },
@@ -30,17 +33,48 @@ type Tab = (typeof tabs)[number]['key'];
 
 const verdictText = { ok: 'OK', suspect: 'Suspect', unusable: 'Unusable' } as const;
 
-function LatestValues({ point }: { point: PointDetail }) {
-  const l = point.latest;
-  if (!l) return null;
+/**
+ * The header's values: of the latest usable capture. When the latest capture is unusable it is
+ * named with its reasons, and the values are those of the newest usable one before it.
+ */
+function LatestValues({
+  point,
+  analyses,
+}: {
+  point: PointDetail;
+  analyses: readonly AnalysisSummary[];
+}) {
+  const latest = point.latest;
+  if (!latest) return null;
+  const l =
+    latest.verdict === 'unusable'
+      ? (analyses.find((a) => a.verdict !== 'unusable') ?? null)
+      : latest;
+  return (
+    <div className="flex flex-col gap-2">
+      {latest.verdict !== 'ok' && <CaptureQuality analysis={latest} where="capture" />}
+      {latest.verdict === 'unusable' && (
+        <p className="text-xs text-ink-muted" data-testid="header-values-from">
+          {l
+            ? `Values below are from the latest usable capture, ${formatDateTime(l.takenAt)}.`
+            : 'No usable capture among the recent ones: no values to show.'}
+        </p>
+      )}
+      {l && <ValuesList l={l} />}
+    </div>
+  );
+}
+
+function ValuesList({ l }: { l: AnalysisSummary }) {
+  const units = useUnits();
   // Every overall value is shown with the band it was taken over.
   const vBand = formatBandHz(l.overall.velocityBandHz);
   const aBand = formatBandHz(l.overall.accelBandHz);
   const items: [string, string][] = [
-    [`Velocity RMS · ${vBand}`, `${formatValue(l.overall.velocityRmsMmS)} mm/s`],
+    [`Velocity RMS · ${vBand}`, units.format(l.overall.velocityRmsMmS, 'mm/s')],
     [`Accel RMS · ${aBand}`, `${formatValue(l.overall.accelRmsG)} g`],
     [`Accel peak · ${aBand}`, `${formatValue(l.overall.accelPeakG)} g`],
-    [`Displ. pk-pk · ${vBand}`, `${formatValue(l.overall.displacementPkPkUm)} µm`],
+    [`Displ. pk-pk · ${vBand}`, units.format(l.overall.displacementPkPkUm, 'um')],
     [`Crest factor · ${aBand}`, formatValue(l.overall.crestFactor)],
     ['ISO 20816', l.isoZone ? `Zone ${l.isoZone}` : '—'],
     ['Speed', l.speedRpm ? `${formatValue(l.speedRpm, 4)} r/min (${l.speedSource})` : 'unknown'],
@@ -68,7 +102,9 @@ export function PointRoute() {
   const id = Number(pointId);
   const point = usePoint(id);
   const analyses = useAnalyses({ pointId: id, limit: POINT_PAGE_ANALYSES });
-  const [tab, setTab] = useState<Tab>('trend');
+  const me = useMe();
+  // `?view=spectrum` (a link from an alert) opens the spectrum view, on `?band=`'s band.
+  const [tab, setTab] = useState<Tab>(search.get('view') === 'spectrum' ? 'spectrum' : 'trend');
   const [picked, setPicked] = useState<number | null>(null);
 
   if (!Number.isInteger(id) || id <= 0)
@@ -91,7 +127,8 @@ export function PointRoute() {
     );
   const p = point.data;
   const list = analyses.data?.items ?? [];
-  const selectedId = picked ?? list[0]?.id ?? null;
+  // The views open on the latest usable capture (an unusable one stays one pick away).
+  const selectedId = picked ?? (list.find((a) => a.verdict !== 'unusable') ?? list[0])?.id ?? null;
 
   const snapshotBody = () => {
     if (analyses.isPending) return <LoadingPanel label="Loading snapshots…" />;
@@ -141,7 +178,7 @@ export function PointRoute() {
           </span>
         }
       />
-      <LatestValues point={p} />
+      <LatestValues point={p} analyses={list} />
       <TabList
         group="point"
         label="Analysis views"
@@ -171,6 +208,8 @@ export function PointRoute() {
         {tab === 'spectrum' &&
           (snapshotBody() ?? (
             <SpectrumPanel
+              band={p.bands.find((b) => b.key === search.get('band')) ?? null}
+              userId={me.data?.id ?? null}
               bearing={p.bearing}
               analyses={list}
               selectedId={selectedId}

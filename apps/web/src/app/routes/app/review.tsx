@@ -1,4 +1,6 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
+import { reviewInUnits } from '@turnstone/contracts/review-units';
+import { useUnits } from '../../../features/account/api/use-units.ts';
 import { useSearchParams } from 'react-router-dom';
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { Card } from '../../../components/ui/card.tsx';
@@ -7,7 +9,7 @@ import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { Button } from '../../../components/ui/button.tsx';
 import { useMe } from '../../../features/auth/api/get-me.ts';
 import {
-  reviewCsvHref,
+  reviewZipHref,
   reviewParamsFromSearch,
   useReview,
   type ReviewParams,
@@ -15,9 +17,11 @@ import {
 import { ReviewToolbar } from '../../../features/review/components/review-toolbar.tsx';
 import { ReviewSummary } from '../../../features/review/components/review-summary.tsx';
 import { ReviewPrintHeader } from '../../../features/review/components/review-print-header.tsx';
+import { MoversTable } from '../../../features/review/components/review-movers-table.tsx';
+import { ReviewPrintSummary } from '../../../features/review/components/review-print-summary.tsx';
+import { useReviewNotices } from '../../../features/review/api/review-notices.ts';
 import {
   ForecastsTable,
-  MoversTable,
   OpenAlertsTable,
   QualityNoticesTable,
 } from '../../../features/review/components/review-tables.tsx';
@@ -55,7 +59,31 @@ export function ReviewRoute() {
         setDraft(d);
       }
     : undefined;
-  const data = review.data;
+  const units = useUnits();
+  // Values in the user's unit system (in/s, mil for imperial), as the ZIP export gives them.
+  const data = useMemo(
+    () => review.data && reviewInUnits(review.data, units.system),
+    [review.data, units.system],
+  );
+  const markReviewed = useReviewNotices();
+  const [reviewedMsg, setReviewedMsg] = useState<string | null>(null);
+  const onMarkReviewed = canEdit
+    ? (pointId: number, pointTag: string) =>
+        markReviewed.mutateAsync({ pointId }).then(
+          (r) =>
+            setReviewedMsg(
+              `${r.reviewed} quality ${r.reviewed === 1 ? 'notice' : 'notices'} of ${pointTag} marked reviewed by ${r.reviewedBy.name}.`,
+            ),
+          (e: unknown) =>
+            setReviewedMsg(e instanceof Error ? e.message : 'Could not mark reviewed'),
+        )
+    : undefined;
+  const zones = Object.fromEntries((data?.siteWeeks ?? []).map((w) => [w.siteId, w.timeZone]));
+  const zoneText = data
+    ? data.period.timeZone === 'per site'
+      ? `each site’s own days: ${data.siteWeeks.map((w) => `${w.siteCode} ${w.timeZone}`).join(', ')}`
+      : `days in ${data.period.timeZone}`
+    : 'days in each site’s time zone';
 
   return (
     <div className="review-page flex flex-col gap-4 p-4 sm:px-6 sm:py-5">
@@ -64,15 +92,15 @@ export function ReviewRoute() {
       <div data-print="hide">
         <PageHeader
           title="Weekly review"
-          description={`This week against last, week ending ${formatDay(params.weekEnding)} (days in UTC).`}
+          description={`This week against last, week ending ${formatDay(params.weekEnding)} (${zoneText}).`}
           actions={
             <>
               <a
-                href={reviewCsvHref(params)}
+                href={reviewZipHref(params)}
                 download
                 className="inline-flex h-10 items-center justify-center rounded-md border border-line-strong bg-surface px-4 text-sm font-medium text-ink hover:bg-sunken"
               >
-                Export CSV
+                Export CSV files (ZIP)
               </a>
               <Button onClick={() => window.print()}>Print</Button>
             </>
@@ -86,7 +114,7 @@ export function ReviewRoute() {
           data-print="hide"
           className="rounded-md border border-accent/30 bg-accent-soft px-3 py-2 text-sm text-ink"
         >
-          Finding “{created}” created; it is listed under Findings below.
+          Finding “{created}” created; it is listed under Findings.
         </p>
       )}
       {review.isPending ? (
@@ -109,28 +137,40 @@ export function ReviewRoute() {
           aria-busy={review.isPlaceholderData || undefined}
         >
           <ReviewSummary review={data} />
-          <MoversTable
-            rows={data.movers}
-            total={data.summary.movers}
-            onCreateFinding={onCreateFinding}
-          />
-          <ForecastsTable
-            rows={data.forecasts}
-            total={data.summary.forecasts}
-            weeksAhead={data.period.weeksAhead}
-            onCreateFinding={onCreateFinding}
-          />
-          <OpenAlertsTable
-            rows={data.openAlerts}
-            total={data.summary.openAlerts}
-            onCreateFinding={onCreateFinding}
-          />
-          <QualityNoticesTable
-            rows={data.qualityNotices}
-            total={data.summary.qualityNotices}
-            onCreateFinding={onCreateFinding}
-          />
-          <FindingsList siteId={params.siteId} canEdit={canEdit} />
+          <ReviewPrintSummary review={data} />
+          <div className="review-details flex flex-col gap-4">
+            <FindingsList siteId={params.siteId} canEdit={canEdit} />
+            <MoversTable review={data} onCreateFinding={onCreateFinding} />
+            <ForecastsTable
+              rows={data.forecasts}
+              total={data.summary.forecasts}
+              weeksAhead={data.period.weeksAhead}
+              onCreateFinding={onCreateFinding}
+              zones={zones}
+            />
+            <OpenAlertsTable
+              rows={data.openAlerts}
+              total={data.summary.openAlerts}
+              onCreateFinding={onCreateFinding}
+              zones={zones}
+            />
+            {reviewedMsg && (
+              <p
+                role="status"
+                data-print="hide"
+                className="rounded-md border border-accent/30 bg-accent-soft px-3 py-2 text-sm text-ink"
+              >
+                {reviewedMsg}
+              </p>
+            )}
+            <QualityNoticesTable
+              rows={data.qualityNotices}
+              total={data.summary.qualityNotices}
+              onCreateFinding={onCreateFinding}
+              zones={zones}
+              onMarkReviewed={onMarkReviewed}
+            />
+          </div>
         </div>
       ) : null}
       <CreateFindingDialog

@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { changePasswordSchema, type ChangePassword } from '@turnstone/contracts/account';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
-import { Field, Input } from '../../../components/ui/field.tsx';
+import { InputField } from '../../../components/ui/field.tsx';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 import { useChangePassword } from '../api/account.ts';
 
@@ -35,28 +35,20 @@ export function ChangePasswordForm() {
         8 to 64 characters. Your other sessions end; this one continues.
       </p>
       <form onSubmit={onSubmit} noValidate className="mt-3 flex max-w-sm flex-col gap-3">
-        <Field label="Current password" error={errors.currentPassword?.message}>
-          {({ invalid, ...ids }) => (
-            <Input
-              {...ids}
-              {...form.register('currentPassword')}
-              invalid={invalid}
-              type="password"
-              autoComplete="current-password"
-            />
-          )}
-        </Field>
-        <Field label="New password" error={errors.newPassword?.message}>
-          {({ invalid, ...ids }) => (
-            <Input
-              {...ids}
-              {...form.register('newPassword')}
-              invalid={invalid}
-              type="password"
-              autoComplete="new-password"
-            />
-          )}
-        </Field>
+        <InputField
+          label="Current password"
+          error={errors.currentPassword?.message}
+          {...form.register('currentPassword')}
+          type="password"
+          autoComplete="current-password"
+        />
+        <InputField
+          label="New password"
+          error={errors.newPassword?.message}
+          {...form.register('newPassword')}
+          type="password"
+          autoComplete="new-password"
+        />
         <div className="flex items-center gap-3">
           <Button type="submit" variant="primary" busy={change.isPending}>
             Change password

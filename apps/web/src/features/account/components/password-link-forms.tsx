@@ -6,7 +6,7 @@ import { passwordSchema } from '@turnstone/contracts/auth';
 import { forgotPasswordSchema } from '@turnstone/contracts/users';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
-import { Field, Input } from '../../../components/ui/field.tsx';
+import { InputField } from '../../../components/ui/field.tsx';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 import {
   useForgotPassword,
@@ -90,29 +90,22 @@ export function SetPasswordForm({
             {setPassword.error.message}
           </p>
         )}
-        <Field label="New password" hint="8 to 64 characters." error={errors.password?.message}>
-          {({ invalid, ...ids }) => (
-            <Input
-              {...ids}
-              {...form.register('password')}
-              invalid={invalid}
-              type="password"
-              autoComplete="new-password"
-              autoFocus
-            />
-          )}
-        </Field>
-        <Field label="Repeat the password" error={errors.confirm?.message}>
-          {({ invalid, ...ids }) => (
-            <Input
-              {...ids}
-              {...form.register('confirm')}
-              invalid={invalid}
-              type="password"
-              autoComplete="new-password"
-            />
-          )}
-        </Field>
+        <InputField
+          label="New password"
+          hint="8 to 64 characters."
+          error={errors.password?.message}
+          {...form.register('password')}
+          type="password"
+          autoComplete="new-password"
+          autoFocus
+        />
+        <InputField
+          label="Repeat the password"
+          error={errors.confirm?.message}
+          {...form.register('confirm')}
+          type="password"
+          autoComplete="new-password"
+        />
         <Button type="submit" variant="primary" busy={setPassword.isPending} className="w-full">
           Set password
         </Button>
@@ -139,18 +132,14 @@ export function ForgotPasswordForm({ signInHref }: { signInHref: string }) {
         </p>
       ) : (
         <form onSubmit={onSubmit} noValidate className="mt-4 flex flex-col gap-4">
-          <Field label="E-mail" error={form.formState.errors.email?.message}>
-            {({ invalid, ...ids }) => (
-              <Input
-                {...ids}
-                {...form.register('email')}
-                invalid={invalid}
-                type="email"
-                autoComplete="username"
-                autoFocus
-              />
-            )}
-          </Field>
+          <InputField
+            label="E-mail"
+            error={form.formState.errors.email?.message}
+            {...form.register('email')}
+            type="email"
+            autoComplete="username"
+            autoFocus
+          />
           {forgot.isError && (
             <p role="alert" className="text-sm text-status-danger">
               {forgot.error.message}

@@ -7,6 +7,14 @@ import { isApiError } from '../../../lib/api-client.ts';
 import { cn } from '../../../lib/cn.ts';
 import { useAcknowledgeAlerts } from '../api/acknowledge-alerts.ts';
 
+/** Where Enter on a selected row's box takes the focus: the list's note field. */
+const LIST_NOTE = 'textarea[data-acknowledge-note="list"]';
+
+/** Moves the focus to the list's note field once it is drawn (after the selection renders). */
+export function focusAcknowledgeNote() {
+  requestAnimationFrame(() => document.querySelector<HTMLElement>(LIST_NOTE)?.focus());
+}
+
 /** The note and the button that acknowledge the selected alerts. */
 export function AcknowledgeForm({
   ids,
@@ -37,7 +45,8 @@ export function AcknowledgeForm({
     return (
       <div className="flex flex-col gap-1">
         <p className="text-sm text-ink-muted">
-          Select raised alerts in the table to acknowledge them with a note.
+          Select raised alerts in the list to acknowledge them with a note (Enter on a box selects
+          it and comes here).
         </p>
         {error && (
           <p role="alert" className="text-sm text-status-danger">
@@ -64,6 +73,7 @@ export function AcknowledgeForm({
             {...form.register('note')}
             aria-invalid={control.invalid || undefined}
             rows={3}
+            data-acknowledge-note={label ? undefined : 'list'}
             className={cn(
               'block w-full rounded-md border bg-surface px-3 py-2 text-sm text-ink placeholder:text-ink-faint focus-visible:border-accent',
               control.invalid ? 'border-status-danger' : 'border-line-strong',

@@ -14,8 +14,10 @@ import {
   AlertStateMark,
   alertEventLabels,
   alertStateSentences,
-  formatLevel,
+  isoZoneMeanings,
 } from './alert-labels.tsx';
+import { BandSparkline } from './band-sparkline.tsx';
+import { useUnits } from '../../account/api/use-units.ts';
 
 /**
  * One alert: what it is and every change of its state, oldest first; a raised alert can be
@@ -32,6 +34,7 @@ export function AlertHistory({
   /** Given to those who may acknowledge. */
   acknowledge?: { userName: string; onDone: (message: string) => void };
 }) {
+  const units = useUnits();
   const alert = useAlert(id);
   const title = useRef<HTMLHeadingElement>(null);
   const loaded = alert.data !== undefined;
@@ -92,14 +95,31 @@ export function AlertHistory({
           <AlertStateMark state={a.state} />
         </dd>
         <dt className="text-ink-muted">Last value</dt>
-        <dd className="font-mono">{formatLevel(a.value, a.unit)}</dd>
+        <dd className="font-mono">{units.format(a.value, a.unit)}</dd>
         <dt className="text-ink-muted">Highest while open</dt>
-        <dd className="font-mono">{formatLevel(a.peakValue, a.unit)}</dd>
+        <dd className="font-mono">{units.format(a.peakValue, a.unit)}</dd>
         <dt className="text-ink-muted">Level exceeded</dt>
-        <dd className="font-mono">{formatLevel(a.limit, a.unit)}</dd>
+        <dd className="font-mono">{units.format(a.limit, a.unit)}</dd>
+        <dt className="text-ink-muted">Machine ISO 20816</dt>
+        <dd data-testid="alert-machine-zone">
+          {a.machineZone ? (
+            <>
+              Zone {a.machineZone}
+              <span className="block text-xs text-ink-muted">{isoZoneMeanings[a.machineZone]}</span>
+            </>
+          ) : (
+            <span className="text-ink-faint">no zone yet</span>
+          )}
+        </dd>
       </dl>
+      <BandSparkline alert={a} />
+      {a.bandMeaning && (
+        <p className="text-sm text-ink-muted" data-testid="alert-band-meaning">
+          {a.bandMeaning}
+        </p>
+      )}
       <p className="text-sm text-ink" data-testid="alert-state-explained">
-        {alertStateSentences(a).join(' ')}
+        {alertStateSentences(a, units.system).join(' ')}
       </p>
       <nav aria-label="Where to look next" className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
         <Link className="text-accent underline" to={paths.app.point.getHref(a.pointId)}>
@@ -107,6 +127,12 @@ export function AlertHistory({
         </Link>
         <Link className="text-accent underline" to={paths.app.point.getHref(a.pointId, a.bandKey)}>
           Trend of {a.bandName}
+        </Link>
+        <Link
+          className="text-accent underline"
+          to={paths.app.point.getHref(a.pointId, a.bandKey, 'spectrum')}
+        >
+          Spectrum of {a.bandName}
         </Link>
       </nav>
       {acknowledge && a.state === 'raised' && (
@@ -148,7 +174,7 @@ export function AlertHistory({
                 {alertEventLabels[h.kind]}
                 {h.value !== null && (
                   <span className="ml-2 font-mono text-[13px] text-ink-muted">
-                    {formatLevel(h.value, a.unit)}
+                    {units.format(h.value, a.unit)}
                   </span>
                 )}
               </p>

@@ -1,5 +1,5 @@
-import { formatNumber } from '@turnstone/contracts/number-format';
-import { unitText } from '@turnstone/contracts/units';
+import { formatQuantity } from '@turnstone/contracts/number-format';
+import type { UnitSystem } from '@turnstone/contracts/units';
 import type { AlertDetail, AlertStateName } from '@turnstone/contracts/alerts';
 import { cn } from '../../../lib/cn.ts';
 
@@ -16,9 +16,9 @@ export const alertEventLabels = {
   cleared: 'Cleared',
 } as const;
 
-/** A value with its unit, by the app's one number rule. */
-export function formatLevel(value: number, unit: string): string {
-  return `${formatNumber(value)} ${unitText(unit)}`;
+/** A value with its unit in a unit system, by the app's one number rule. */
+export function formatLevel(value: number, unit: string, system: UnitSystem = 'metric'): string {
+  return formatQuantity(value, unit, system);
 }
 
 /** Hours as people say them: "5 days", "12 hours". */
@@ -32,9 +32,17 @@ function formatHours(hours: number): string {
  * raised it against which level, an escalation after an acknowledgement, why it is still open
  * while the latest value is below the level, and what clears it.
  */
-export function alertStateSentences(a: AlertDetail): string[] {
-  const f = (v: number) => formatLevel(v, a.unit);
+export function alertStateSentences(a: AlertDetail, system: UnitSystem = 'metric'): string[] {
+  const f = (v: number) => formatLevel(v, a.unit, system);
   const out: string[] = [];
+  // How long ago, counted in the band's values (the unit its clear rule counts in too).
+  const n = a.valuesSinceRaised;
+  const ago =
+    n === null || n === undefined
+      ? ''
+      : n === 0
+        ? ' by the latest value'
+        : ` ${n} value${n === 1 ? '' : 's'} ago`;
   const raised = a.history.find((h) => h.kind === 'raised');
   const escalated = a.history.findLast((h) => h.kind === 'escalated');
   if (a.state === 'cleared') {
@@ -46,12 +54,12 @@ export function alertStateSentences(a: AlertDetail): string[] {
   }
   if (escalated && raised && raised.level === 'alert') {
     out.push(
-      `Raised${raised.value !== null ? ` at ${f(raised.value)}` : ''} against the alert level${a.clearRule ? ` ${f(a.clearRule.alertLevel)}` : ''}; escalated to danger${escalated.value !== null ? ` at ${f(escalated.value)}` : ''} against the danger level ${f(a.limit)}.`,
+      `Raised${ago}${raised.value !== null ? ` at ${f(raised.value)}` : ''} against the alert level${a.clearRule ? ` ${f(a.clearRule.alertLevel)}` : ''}; escalated to danger${escalated.value !== null ? ` at ${f(escalated.value)}` : ''} against the danger level ${f(a.limit)}.`,
     );
   } else {
     const at = raised?.value ?? null;
     out.push(
-      `Raised${at !== null ? ` at ${f(at)}` : ''} against the ${a.level} level ${f(a.limit)}.`,
+      `Raised${ago}${at !== null ? ` at ${f(at)}` : ''} against the ${a.level} level ${f(a.limit)}.`,
     );
   }
   // Written in the order things happened (event ids), not by the capture time an
@@ -74,6 +82,14 @@ export function alertStateSentences(a: AlertDetail): string[] {
   }
   return out;
 }
+
+/** ISO 20816 zones in plain words (ISO 20816-3 zone definitions, paraphrased). */
+export const isoZoneMeanings = {
+  A: 'as newly commissioned machines',
+  B: 'fit for unrestricted long-term operation',
+  C: 'unsatisfactory for long-term continuous operation',
+  D: 'severe enough to damage the machine',
+} as const;
 
 /** The lifecycle state as text and a shape (filled: raised; ring with tick: acknowledged; hollow: cleared). */
 export function AlertStateMark({

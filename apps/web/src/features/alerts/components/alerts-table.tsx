@@ -12,7 +12,11 @@ import type { Alert } from '@turnstone/contracts/alerts';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { formatAge, formatDateTime } from '../../../lib/format.ts';
-import { AlertStateMark, formatLevel } from './alert-labels.tsx';
+import { useMediaQuery } from '../../../hooks/use-media-query.ts';
+import { AlertStateMark } from './alert-labels.tsx';
+import { AlertCards } from './alert-cards.tsx';
+import { focusAcknowledgeNote } from './acknowledge-form.tsx';
+import { useUnits } from '../../account/api/use-units.ts';
 
 const column = createColumnHelper<Alert>();
 const levelRank = { alert: 1, danger: 2 } as const;
@@ -56,7 +60,10 @@ export function AlertsTable({
   openId: number | null;
   onOpen: (id: number) => void;
 }) {
+  const units = useUnits();
   const [sorting, setSorting] = useState<SortingState>([{ id: 'level', desc: true }]);
+  // Below the wide layout (tablets, 820 px) the alerts are cards: nothing scrolls sideways.
+  const narrow = useMediaQuery('(max-width: 1023px)');
   // The latest onOpen without rebuilding the columns when it changes (see NowContext).
   const openRef = useRef(onOpen);
   useLayoutEffect(() => {
@@ -89,6 +96,13 @@ export function AlertsTable({
                   disabled={!row.getCanSelect()}
                   onClick={(e) => e.stopPropagation()}
                   onChange={row.getToggleSelectedHandler()}
+                  onKeyDown={(e) => {
+                    // Enter selects and goes to the note, so the note is one key away.
+                    if (e.key !== 'Enter' || !row.getCanSelect()) return;
+                    e.preventDefault();
+                    if (!row.getIsSelected()) row.toggleSelected(true);
+                    focusAcknowledgeNote();
+                  }}
                 />
               ),
             }),
@@ -140,11 +154,11 @@ export function AlertsTable({
         header: 'Value vs level',
         cell: ({ row: { original: a } }) => (
           <span className="font-mono text-[13px] whitespace-nowrap">
-            <span className="text-ink">{formatLevel(a.value, a.unit)}</span>
-            <span className="text-ink-muted"> / {formatLevel(a.limit, a.unit)}</span>
+            <span className="text-ink">{units.format(a.value, a.unit)}</span>
+            <span className="text-ink-muted"> / {units.format(a.limit, a.unit)}</span>
             {a.peakValue > a.value && (
               <span className="block text-xs text-ink-faint">
-                highest while open {formatLevel(a.peakValue, a.unit)}
+                highest while open {units.format(a.peakValue, a.unit)}
               </span>
             )}
             {a.suspect && <span className="block text-xs text-status-quality">suspect data</span>}
@@ -186,7 +200,7 @@ export function AlertsTable({
           ),
       }),
     ],
-    [selectable],
+    [selectable, units],
   );
 
   // eslint-disable-next-line react-hooks/incompatible-library -- TanStack Table is used as documented
@@ -203,6 +217,16 @@ export function AlertsTable({
     getSortedRowModel: getSortedRowModel(),
   });
 
+  if (narrow)
+    return (
+      <AlertCards
+        rows={table.getRowModel().rows}
+        now={now}
+        selectable={selectable}
+        openId={openId}
+        onOpen={onOpen}
+      />
+    );
   return (
     <NowContext.Provider value={now}>
       <div className="overflow-x-auto">

@@ -38,31 +38,45 @@ function compact(value: unknown): string {
   return text.length > 160 ? `${text.slice(0, 160)}…` : text;
 }
 
+/** The change as plain lines (field: old → new), with the full record behind a disclosure. */
 function ChangeCell({ entry }: { entry: AuditEntry }) {
   const hasBefore = entry.before !== null && entry.before !== undefined;
   const hasAfter = entry.after !== null && entry.after !== undefined;
   if (!hasBefore && !hasAfter) return <span className="text-ink-faint">—</span>;
   return (
-    <details className="group max-w-[36rem]">
-      <summary className="cursor-pointer font-mono text-xs break-all text-ink-muted group-open:text-ink">
-        {hasBefore && <span>{compact(entry.before)} → </span>}
-        {compact(entry.after)}
-      </summary>
-      <div className="mt-2 grid gap-2 sm:grid-cols-2">
-        <div>
-          <p className="text-xs font-medium text-ink-muted">Before</p>
-          <pre className="mt-1 max-h-64 overflow-auto rounded bg-sunken p-2 font-mono text-[11px]">
-            {JSON.stringify(entry.before, null, 2) ?? '—'}
-          </pre>
+    <div className="flex max-w-[36rem] flex-col gap-1">
+      {entry.changes.length > 0 && (
+        <ul className="flex flex-col gap-0.5 text-[13px]" aria-label="Changes">
+          {entry.changes.map((c, i) => (
+            <li key={i}>
+              <span className="text-ink-muted">{c.field}: </span>
+              <span className="font-mono">
+                {c.before ?? '—'} → {c.after ?? '—'}
+              </span>
+            </li>
+          ))}
+        </ul>
+      )}
+      <details className="group">
+        <summary className="cursor-pointer text-xs text-ink-muted group-open:text-ink">
+          {entry.changes.length > 0 ? 'Full record' : compact(entry.after ?? entry.before)}
+        </summary>
+        <div className="mt-2 grid gap-2 sm:grid-cols-2">
+          <div>
+            <p className="text-xs font-medium text-ink-muted">Before</p>
+            <pre className="mt-1 max-h-64 overflow-auto rounded bg-sunken p-2 font-mono text-[11px]">
+              {JSON.stringify(entry.before, null, 2) ?? '—'}
+            </pre>
+          </div>
+          <div>
+            <p className="text-xs font-medium text-ink-muted">After</p>
+            <pre className="mt-1 max-h-64 overflow-auto rounded bg-sunken p-2 font-mono text-[11px]">
+              {JSON.stringify(entry.after, null, 2) ?? '—'}
+            </pre>
+          </div>
         </div>
-        <div>
-          <p className="text-xs font-medium text-ink-muted">After</p>
-          <pre className="mt-1 max-h-64 overflow-auto rounded bg-sunken p-2 font-mono text-[11px]">
-            {JSON.stringify(entry.after, null, 2) ?? '—'}
-          </pre>
-        </div>
-      </div>
-    </details>
+      </details>
+    </div>
   );
 }
 
@@ -240,9 +254,13 @@ export function AuditLog() {
                   <td className="px-4 py-2.5 font-mono text-[13px] whitespace-nowrap">
                     {e.action}
                   </td>
-                  <td className="px-4 py-2.5 whitespace-nowrap">
-                    {e.entity}{' '}
-                    <span className="font-mono text-xs text-ink-muted">#{e.entityId}</span>
+                  <td className="px-4 py-2.5">
+                    <span className="block text-xs text-ink-muted">{e.entity}</span>
+                    {e.entityLabel ? (
+                      <span className="font-mono text-[13px]">{e.entityLabel}</span>
+                    ) : (
+                      <span className="font-mono text-xs text-ink-muted">#{e.entityId}</span>
+                    )}
                   </td>
                   <td className="px-4 py-2.5">
                     <ChangeCell entry={e} />

@@ -5,7 +5,7 @@ import { Link } from 'react-router-dom';
 import { paths } from '../../../config/paths.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
-import { Field, Input } from '../../../components/ui/field.tsx';
+import { InputField } from '../../../components/ui/field.tsx';
 import { fieldErrorsOf, isApiError } from '../../../lib/api-client.ts';
 import { useSignIn } from '../api/sign-in.ts';
 
@@ -62,31 +62,23 @@ export function SignInForm({ onSuccess }: { onSuccess: () => void }) {
             </div>
           </div>
         )}
-        <Field label="E-mail" error={errors.email?.message}>
-          {({ invalid, ...ids }) => (
-            <Input
-              {...ids}
-              {...form.register('email')}
-              invalid={invalid}
-              type="email"
-              autoComplete="username"
-              inputMode="email"
-              spellCheck={false}
-              autoFocus
-            />
-          )}
-        </Field>
-        <Field label="Password" error={errors.password?.message}>
-          {({ invalid, ...ids }) => (
-            <Input
-              {...ids}
-              {...form.register('password')}
-              invalid={invalid}
-              type="password"
-              autoComplete="current-password"
-            />
-          )}
-        </Field>
+        <InputField
+          label="E-mail"
+          error={errors.email?.message}
+          {...form.register('email')}
+          type="email"
+          autoComplete="username"
+          inputMode="email"
+          spellCheck={false}
+          autoFocus
+        />
+        <InputField
+          label="Password"
+          error={errors.password?.message}
+          {...form.register('password')}
+          type="password"
+          autoComplete="current-password"
+        />
         <Button type="submit" variant="primary" busy={signIn.isPending} className="mt-1 w-full">
           Sign in
         </Button>

@@ -6,6 +6,8 @@ export interface FindingsParams {
   state?: FindingState | undefined;
   pointId?: number | undefined;
   siteId?: number | undefined;
+  /** Due in this ISO week, `2026-W49`. */
+  dueWeek?: string | undefined;
 }
 
 export function getFindings(p: FindingsParams, { signal }: { signal?: AbortSignal } = {}) {
@@ -13,6 +15,7 @@ export function getFindings(p: FindingsParams, { signal }: { signal?: AbortSigna
   if (p.state) q.set('state', p.state);
   if (p.pointId !== undefined) q.set('pointId', String(p.pointId));
   if (p.siteId !== undefined) q.set('siteId', String(p.siteId));
+  if (p.dueWeek) q.set('dueWeek', p.dueWeek);
   const search = q.toString();
   return api.get(`/api/v1/findings${search ? `?${search}` : ''}`, {
     schema: findingListSchema,

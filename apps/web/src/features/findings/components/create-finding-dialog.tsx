@@ -1,5 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import {
+  findingPriorityLabels,
   findingFormSchema,
   type FindingFormInput,
   type FindingFormOutput,
@@ -7,7 +8,7 @@ import {
 import { useEffect, useRef } from 'react';
 import { useForm } from 'react-hook-form';
 import { Button } from '../../../components/ui/button.tsx';
-import { Field, Input } from '../../../components/ui/field.tsx';
+import { Field, Input, Select } from '../../../components/ui/field.tsx';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 import { useCreateFinding } from '../api/create-finding.ts';
 
@@ -21,7 +22,7 @@ export interface FindingOrigin {
   context: string;
 }
 
-const fields = ['title', 'workOrderRef', 'dueDate', 'note'] as const;
+const fields = ['title', 'workOrderRef', 'dueDate', 'note', 'priority', 'owner'] as const;
 
 /**
  * A modal form (native `<dialog>`: focus is kept inside, Escape closes) that turns a review row
@@ -39,7 +40,14 @@ export function CreateFindingDialog({
   const ref = useRef<HTMLDialogElement>(null);
   const form = useForm<FindingFormInput, unknown, FindingFormOutput>({
     resolver: zodResolver(findingFormSchema),
-    defaultValues: { title: '', workOrderRef: '', dueDate: '', note: '' },
+    defaultValues: {
+      title: '',
+      workOrderRef: '',
+      dueDate: '',
+      note: '',
+      priority: 'medium',
+      owner: '',
+    },
   });
   const create = useCreateFinding();
   const { errors } = form.formState;
@@ -48,7 +56,14 @@ export function CreateFindingDialog({
     const dialog = ref.current;
     if (!dialog) return;
     if (origin) {
-      form.reset({ title: origin.title, workOrderRef: '', dueDate: '', note: '' });
+      form.reset({
+        title: origin.title,
+        workOrderRef: '',
+        dueDate: '',
+        note: '',
+        priority: 'medium',
+        owner: '',
+      });
       create.reset();
       if (!dialog.open) dialog.showModal();
     } else if (dialog.open) {
@@ -129,6 +144,24 @@ export function CreateFindingDialog({
                 type="date"
                 className="font-mono"
               />
+            )}
+          </Field>
+        </div>
+        <div className="grid gap-4 sm:grid-cols-2">
+          <Field label="Priority" error={errors.priority?.message}>
+            {({ invalid: _invalid, ...ids }) => (
+              <Select {...ids} {...form.register('priority')}>
+                {(['high', 'medium', 'low'] as const).map((p) => (
+                  <option key={p} value={p}>
+                    {findingPriorityLabels[p]}
+                  </option>
+                ))}
+              </Select>
+            )}
+          </Field>
+          <Field label="Owner" hint="Person or crew doing the work." error={errors.owner?.message}>
+            {({ invalid, ...ids }) => (
+              <Input {...ids} {...form.register('owner')} invalid={invalid} />
             )}
           </Field>
         </div>

@@ -151,6 +151,7 @@ export function GatewaysPanel() {
                 <th className="px-4 py-2 font-medium">Site</th>
                 <th className="px-4 py-2 font-medium">Key prefix</th>
                 <th className="px-4 py-2 font-medium">Last seen</th>
+                <th className="px-4 py-2 font-medium">Posts, last hour</th>
                 <th className="px-4 py-2 font-medium">State</th>
                 <th className="px-4 py-2 font-medium">
                   <span className="sr-only">Actions</span>
@@ -175,6 +176,7 @@ export function GatewaysPanel() {
                       <span className="text-ink-faint">never</span>
                     )}
                   </td>
+                  <td className="px-4 py-2.5 font-mono text-[13px]">{g.postsLastHour}</td>
                   <td className="px-4 py-2.5">
                     {g.revokedAt ? (
                       <span className="inline-flex items-center gap-1.5 text-status-danger">

@@ -7,6 +7,7 @@ import {
   type UseFormSetValue,
 } from 'react-hook-form';
 import { Button } from '../../../components/ui/button.tsx';
+import { useUnits } from '../../account/api/use-units.ts';
 import { Field, Input, Select } from '../../../components/ui/field.tsx';
 import type { LimitsFormValues } from '../utils/band-form.ts';
 import { getSuggestion } from '../api/get-limits.ts';
@@ -51,6 +52,7 @@ export function BandFields({
   onRemove,
 }: Props) {
   const band = useWatch({ control, name: `bands.${index}` });
+  const units = useUnits();
   const e = errors.bands?.[index];
   const [suggestion, setSuggestion] = useState<{ busy: boolean; text: string | null }>({
     busy: false,
@@ -76,7 +78,8 @@ export function BandFields({
         setSuggestion({ busy: false, text: s.message ?? 'No baseline available.' });
         return;
       }
-      const round = (v: number) => Number(v.toPrecision(3));
+      // Suggested levels in the user's unit system, three significant digits.
+      const round = (v: number) => Number(units.value(v, band.unit).toPrecision(3));
       setValue(`bands.${index}.alertLevel`, round(s.alertLevel), {
         shouldDirty: true,
         shouldValidate: true,
@@ -92,7 +95,7 @@ export function BandFields({
       );
       setSuggestion({
         busy: false,
-        text: `Baseline of the first ${s.baseline.count} usable values: mean ${s.baseline.mean.toPrecision(3)}, σ ${s.baseline.sigma.toPrecision(3)} → alert mean + ${s.kAlert}σ, danger mean + ${s.kDanger}σ.`,
+        text: `Baseline of the first ${s.baseline.count} usable values: mean ${units.format(s.baseline.mean, band.unit)}, σ ${units.format(s.baseline.sigma, band.unit)} → alert mean + ${s.kAlert}σ, danger mean + ${s.kDanger}σ.`,
       });
     } catch (err) {
       setSuggestion({
@@ -214,9 +217,9 @@ export function BandFields({
         <Field label="Unit" error={e?.unit?.message}>
           {(c) => (
             <Select id={c.id} {...t('unit')}>
-              <option value="mm/s">mm/s</option>
+              <option value="mm/s">{units.unit('mm/s')}</option>
               <option value="g">g</option>
-              <option value="um">µm</option>
+              <option value="um">{units.unit('um')}</option>
             </Select>
           )}
         </Field>

@@ -24,6 +24,7 @@ import {
   toFormBand,
   type LimitsFormValues,
 } from '../utils/band-form.ts';
+import { useUnits } from '../../account/api/use-units.ts';
 import { BandFields } from './band-fields.tsx';
 import { LimitHistoryList } from './limit-history-list.tsx';
 import { ReplaySummary } from './replay-summary.tsx';
@@ -56,16 +57,18 @@ export function LimitsEditor({
 }) {
   const pointId = target.kind === 'point' ? target.pointId : null;
   const originals = limits.bands;
+  // Levels are typed and shown in the user's unit system, stored in metric (band-form.ts).
+  const units = useUnits();
   const resolver = useMemo<Resolver<LimitsFormValues>>(
     () => (values) => {
-      const checked = checkForm(values, originals);
+      const checked = checkForm(values, originals, units.system);
       return checked.ok ? { values, errors: {} } : { values: {}, errors: nest(checked.errors) };
     },
-    [originals],
+    [originals, units.system],
   );
   const form = useForm<LimitsFormValues>({
     resolver,
-    defaultValues: { bands: limits.bands.map(toFormBand) },
+    defaultValues: { bands: limits.bands.map((b) => toFormBand(b, units.system)) },
   });
   const bands = useFieldArray({ control: form.control, name: 'bands' });
   const replay = useReplayLimits(pointId ?? 0);
@@ -89,7 +92,7 @@ export function LimitsEditor({
   }, [focusAfter, asking]);
 
   const definitions = (values: LimitsFormValues): BandDefinitionInput[] => {
-    const checked = checkForm(values, originals);
+    const checked = checkForm(values, originals, units.system);
     return checked.ok ? checked.bands : [];
   };
 
@@ -140,33 +143,37 @@ export function LimitsEditor({
       let applied = 0;
       list.forEach((b, i) => {
         if (b.kind === 'overall' && b.spectrum === 'velocity' && b.measure === 'rms') {
-          form.setValue(`bands.${i}.alertLevel`, d.alertLevel, { shouldDirty: true });
-          form.setValue(`bands.${i}.dangerLevel`, d.dangerLevel, { shouldDirty: true });
+          const shown = (v: number) => units.value(v, 'mm/s');
+          form.setValue(`bands.${i}.alertLevel`, shown(d.alertLevel), { shouldDirty: true });
+          form.setValue(`bands.${i}.dangerLevel`, shown(d.dangerLevel), { shouldDirty: true });
           form.setValue(`bands.${i}.levelSource`, source, { shouldDirty: true });
           applied++;
         }
       });
       if (applied === 0)
         bands.append(
-          toFormBand({
-            key: 'overall-velocity',
-            name: 'Overall velocity (ISO 20816)',
-            kind: 'overall',
-            spectrum: 'velocity',
-            measure: 'rms',
-            unit: 'mm/s',
-            alertLevel: d.alertLevel,
-            dangerLevel: d.dangerLevel,
-            persistence: 2,
-            clearPersistence: 3,
-            clearAfterHours: 120,
-            hysteresis: 0.9,
-            levelSource: source,
-          }),
+          toFormBand(
+            {
+              key: 'overall-velocity',
+              name: 'Overall velocity (ISO 20816)',
+              kind: 'overall',
+              spectrum: 'velocity',
+              measure: 'rms',
+              unit: 'mm/s',
+              alertLevel: d.alertLevel,
+              dangerLevel: d.dangerLevel,
+              persistence: 2,
+              clearPersistence: 3,
+              clearAfterHours: 120,
+              hysteresis: 0.9,
+              levelSource: source,
+            },
+            units.system,
+          ),
         );
       setIso({
         busy: false,
-        text: `ISO 20816-3 group ${d.isoGroup}, ${d.foundation} foundation: alert ${d.alertLevel} mm/s, danger ${d.dangerLevel} mm/s applied to the overall velocity band. ${d.source}`,
+        text: `ISO 20816-3 group ${d.isoGroup}, ${d.foundation} foundation: alert ${units.format(d.alertLevel, 'mm/s')}, danger ${units.format(d.dangerLevel, 'mm/s')} applied to the overall velocity band. ${d.source}`,
       });
     } catch (err) {
       setIso({
@@ -345,7 +352,9 @@ export function LimitsEditor({
               Apply ISO 20816 defaults
             </Button>
           )}
-          <Button onClick={() => bands.append(emptyBand(bands.fields.length))}>Add band</Button>
+          <Button onClick={() => bands.append(emptyBand(bands.fields.length, units.system))}>
+            Add band
+          </Button>
           <span className="text-xs text-ink-muted">
             Version <span className="font-mono">{limits.version}</span>
             {limits.updatedAt && (

@@ -49,6 +49,21 @@ describe('band form', () => {
     }
   });
 
+  // 1 in = 25.4 mm exactly (NIST SP 811 appendix B): 2.8 mm/s = 0.110236… in/s; a level
+  // typed as 0.3 in/s is stored as 7.62 mm/s (0.3 × 25.4, by hand) and shows again as 0.3.
+  it('when the user reads imperial, levels are typed in in/s and stored in mm/s, both ways exact', () => {
+    const f = toFormBand(overall, 'imperial');
+    expect(f.alertLevel).toBeCloseTo(0.1102362204724, 12);
+    expect(toDefinition(f, overall, 'imperial')).toEqual(overall);
+    const typed = { ...f, alertLevel: 0.3, dangerLevel: 0.45 };
+    const d = toDefinition(typed, overall, 'imperial') as BandDefinitionInput;
+    expect(d.alertLevel).toBe(7.62);
+    expect(d.dangerLevel).toBe(11.43);
+    expect(toFormBand(d, 'imperial').alertLevel).toBe(0.3);
+    // g stays g in both systems.
+    expect(toDefinition(toFormBand(bpfo, 'imperial'), bpfo, 'imperial')).toEqual(bpfo);
+  });
+
   it('an established baseline is dropped when the baseline count changes', () => {
     const f = { ...toFormBand(bpfo), baselineCount: 30 };
     const d = toDefinition(f, bpfo) as BandDefinitionInput;

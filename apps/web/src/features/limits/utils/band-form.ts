@@ -2,9 +2,12 @@
  * The band editor's form values: one flat record per band (every field of every band kind,
  * numbers as NaN when empty), turned into a `BandDefinition` and checked with the shared
  * contract schema on submit, so the editor and the server agree on what a band is.
+ * Levels are typed in the user's unit system (in/s and mil for imperial) and stored in metric:
+ * `toFormBand` converts for the form and `toDefinition` back, exactly (contracts/units.ts).
  */
 import { z } from 'zod';
 import { bandDefinitionSchema, type BandDefinitionInput } from '@turnstone/contracts/limits';
+import { fromDisplay, toDisplay, type UnitSystem } from '@turnstone/contracts/units';
 
 export interface BandFormValues {
   key: string;
@@ -43,7 +46,7 @@ export interface LimitsFormValues {
 const num = (v: number | undefined) => (v === undefined ? Number.NaN : v);
 const opt = (v: number) => (Number.isFinite(v) ? v : undefined);
 
-export function toFormBand(b: BandDefinitionInput): BandFormValues {
+export function toFormBand(b: BandDefinitionInput, system: UnitSystem = 'metric'): BandFormValues {
   const s = b.statistical;
   return {
     key: b.key,
@@ -52,8 +55,8 @@ export function toFormBand(b: BandDefinitionInput): BandFormValues {
     spectrum: b.spectrum,
     measure: b.measure,
     unit: b.unit,
-    alertLevel: b.alertLevel,
-    dangerLevel: b.dangerLevel,
+    alertLevel: toDisplay(b.alertLevel, b.unit, system),
+    dangerLevel: toDisplay(b.dangerLevel, b.unit, system),
     persistence: num(b.persistence),
     clearPersistence: num(b.clearPersistence),
     clearAfterHours: num(b.clearAfterHours),
@@ -77,35 +80,42 @@ export function toFormBand(b: BandDefinitionInput): BandFormValues {
 }
 
 /** A new band, for "Add band". */
-export function emptyBand(index: number): BandFormValues {
-  return toFormBand({
-    key: `band-${index + 1}`,
-    name: 'New band',
-    kind: 'hz',
-    fromHz: 10,
-    toHz: 1000,
-    spectrum: 'velocity',
-    measure: 'rms',
-    unit: 'mm/s',
-    alertLevel: 2.8,
-    dangerLevel: 4.5,
-    persistence: 2,
-    clearPersistence: 3,
-    clearAfterHours: 120,
-    hysteresis: 0.9,
-  });
+export function emptyBand(index: number, system: UnitSystem = 'metric'): BandFormValues {
+  return toFormBand(
+    {
+      key: `band-${index + 1}`,
+      name: 'New band',
+      kind: 'hz',
+      fromHz: 10,
+      toHz: 1000,
+      spectrum: 'velocity',
+      measure: 'rms',
+      unit: 'mm/s',
+      alertLevel: 2.8,
+      dangerLevel: 4.5,
+      persistence: 2,
+      clearPersistence: 3,
+      clearAfterHours: 120,
+      hysteresis: 0.9,
+    },
+    system,
+  );
 }
 
 /** The band definition the API takes; `original` keeps fields the form does not edit. */
-export function toDefinition(f: BandFormValues, original?: BandDefinitionInput): unknown {
+export function toDefinition(
+  f: BandFormValues,
+  original?: BandDefinitionInput,
+  system: UnitSystem = 'metric',
+): unknown {
   const common = {
     key: f.key.trim(),
     name: f.name.trim(),
     spectrum: f.spectrum,
     measure: f.measure,
     unit: f.unit,
-    alertLevel: f.alertLevel,
-    dangerLevel: f.dangerLevel,
+    alertLevel: fromDisplay(f.alertLevel, f.unit, system),
+    dangerLevel: fromDisplay(f.dangerLevel, f.unit, system),
     ...(opt(f.persistence) !== undefined ? { persistence: f.persistence } : {}),
     ...(opt(f.clearPersistence) !== undefined ? { clearPersistence: f.clearPersistence } : {}),
     ...(opt(f.clearAfterHours) !== undefined ? { clearAfterHours: f.clearAfterHours } : {}),
@@ -163,6 +173,7 @@ const nanMessage = (issue: { message: string }) =>
 export function checkForm(
   values: LimitsFormValues,
   originals: readonly BandDefinitionInput[],
+  system: UnitSystem = 'metric',
 ):
   | { ok: true; bands: BandDefinitionInput[] }
   | { ok: false; errors: { path: string; message: string }[] } {
@@ -171,7 +182,7 @@ export function checkForm(
   const keys = new Set<string>();
   values.bands.forEach((f, i) => {
     const original = originals.find((o) => o.key === f.key);
-    const parsed = bandDefinitionSchema.safeParse(toDefinition(f, original));
+    const parsed = bandDefinitionSchema.safeParse(toDefinition(f, original, system));
     if (!parsed.success) {
       for (const issue of parsed.error.issues) {
         const field =

@@ -3,8 +3,10 @@ import type { MachineDetail } from '@turnstone/contracts/points';
 import { Sparkline } from '../../../components/charts/sparkline.tsx';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
+import { useUnits } from '../../account/api/use-units.ts';
 import { paths } from '../../../config/paths.ts';
 import { formatAge, formatBandHz, formatDateTime } from '../../../lib/format.ts';
+import { isoZoneRange } from '../lib/iso-zone-range.ts';
 
 const verdictText = { ok: 'OK', suspect: 'Suspect', unusable: 'Unusable' } as const;
 const speedSourceText = {
@@ -19,22 +21,32 @@ const num = (v: number | undefined | null, unit: string, digits = 3) =>
     ? '—'
     : `${formatValue(v, digits)}\u00a0${unit}`;
 
-/** The machine's points with their latest overall values, zone, speed, quality and small trend. */
+/** Columns a tablet (below 1024 px) leaves out; the point page has them all. */
+const wide = 'hidden lg:table-cell';
+
+/**
+ * The machine's points with their latest overall values, ISO zone (with its range for the
+ * machine's class), speed, quality and a small trend of the band that governs the point.
+ */
 export function MachinePointsTable({ machine, now }: { machine: MachineDetail; now: number }) {
+  // Velocity and displacement in the user's unit system (stored mm/s and µm).
+  const units = useUnits();
+  const shown = (v: number | undefined, unit: string) =>
+    v === undefined ? undefined : units.value(v, unit);
   return (
     <div className="overflow-x-auto">
-      <table className="w-full min-w-[68rem] text-left text-sm">
+      <table className="w-full min-w-[46rem] text-left text-sm lg:min-w-[68rem]">
         <thead className="text-xs text-ink-muted">
           <tr className="border-b border-line">
             <th className="px-3 py-2 font-medium">Point</th>
             <th className="px-3 py-2 font-medium">Status</th>
             <th className="px-3 py-2 text-right font-medium">Velocity RMS</th>
             <th className="px-3 py-2 text-right font-medium">Accel RMS</th>
-            <th className="px-3 py-2 text-right font-medium">Displ. pk-pk</th>
+            <th className={`${wide} px-3 py-2 text-right font-medium`}>Displ. pk-pk</th>
             <th className="px-3 py-2 font-medium">ISO 20816</th>
-            <th className="px-3 py-2 text-right font-medium">Speed</th>
-            <th className="px-3 py-2 font-medium">Quality</th>
-            <th className="px-3 py-2 font-medium">Velocity, last 50</th>
+            <th className={`${wide} px-3 py-2 text-right font-medium`}>Speed</th>
+            <th className={`${wide} px-3 py-2 font-medium`}>Quality</th>
+            <th className="px-3 py-2 font-medium">Governing band, last 50</th>
             <th className="px-3 py-2 text-right font-medium">Last snapshot</th>
           </tr>
         </thead>
@@ -58,7 +70,7 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
                   <StatusMark status={p.status} />
                 </td>
                 <td className="px-3 py-2 text-right font-mono text-[13px]">
-                  {num(l?.overall.velocityRmsMmS, 'mm/s')}
+                  {num(shown(l?.overall.velocityRmsMmS, 'mm/s'), units.unit('mm/s'))}
                   {l ? (
                     <div className="font-sans text-xs text-ink-faint">
                       {formatBandHz(l.overall.velocityBandHz)}
@@ -73,16 +85,23 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
                     </div>
                   ) : null}
                 </td>
-                <td className="px-3 py-2 text-right font-mono text-[13px]">
-                  {num(l?.overall.displacementPkPkUm, 'µm')}
+                <td className={`${wide} px-3 py-2 text-right font-mono text-[13px]`}>
+                  {num(shown(l?.overall.displacementPkPkUm, 'um'), units.unit('um'))}
                   {l ? (
                     <div className="font-sans text-xs text-ink-faint">
                       {formatBandHz(l.overall.velocityBandHz)}
                     </div>
                   ) : null}
                 </td>
-                <td className="px-3 py-2 text-[13px]">{l?.isoZone ? `Zone ${l.isoZone}` : '—'}</td>
-                <td className="px-3 py-2 text-right font-mono text-[13px]">
+                <td className="px-3 py-2 text-[13px]">
+                  {l?.isoZone ? `Zone ${l.isoZone}` : '—'}
+                  {l?.isoZone && machine.isoBoundaries ? (
+                    <div className="font-mono text-xs text-ink-faint">
+                      {isoZoneRange(l.isoZone, machine.isoBoundaries)}
+                    </div>
+                  ) : null}
+                </td>
+                <td className={`${wide} px-3 py-2 text-right font-mono text-[13px]`}>
                   {l?.speedRpm ? (
                     <>
                       {formatValue(l.speedRpm, 4)}&nbsp;r/min
@@ -94,12 +113,23 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
                     '—'
                   )}
                 </td>
-                <td className="px-3 py-2 text-[13px]">{l ? verdictText[l.verdict] : '—'}</td>
+                <td className={`${wide} px-3 py-2 text-[13px]`}>
+                  {l ? verdictText[l.verdict] : '—'}
+                </td>
                 <td className="px-3 py-2">
-                  <Sparkline
-                    values={p.recentVelocity.map((r) => r.v)}
-                    label={`Overall velocity of ${p.name}, last ${p.recentVelocity.length} values`}
-                  />
+                  <Link
+                    to={paths.app.point.getHref(p.id, p.governing.key)}
+                    className="flex flex-col gap-0.5 underline-offset-2 hover:underline"
+                  >
+                    <Sparkline
+                      values={p.governing.values.map((r) => r.v)}
+                      label={`${p.governing.name} of ${p.name}, last ${p.governing.values.length} values in ${p.governing.unit}`}
+                    />
+                    <span className="text-xs text-ink-muted">
+                      {p.governing.name}
+                      {p.governing.level ? ` · in ${p.governing.level}` : ''}
+                    </span>
+                  </Link>
                 </td>
                 <td className="px-3 py-2 text-right">
                   {l ? (

@@ -2,15 +2,21 @@ import { mailboxListSchema, mailboxMessageSchema } from '@turnstone/contracts/ma
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 
-export function getMailboxQueryOptions() {
+export function getMailboxQueryOptions(search = '') {
+  const q = search.trim();
   return queryOptions({
-    queryKey: ['mailbox', 'list', {}] as const,
-    queryFn: ({ signal }) => api.get('/api/v1/mailbox', { schema: mailboxListSchema, signal }),
+    queryKey: ['mailbox', 'list', { search: q }] as const,
+    queryFn: ({ signal }) =>
+      api.get(`/api/v1/mailbox${q ? `?search=${encodeURIComponent(q)}` : ''}`, {
+        schema: mailboxListSchema,
+        signal,
+      }),
+    placeholderData: (previous) => previous,
     // New mail arrives from the outbox every few seconds.
     refetchInterval: 5000,
   });
 }
-export const useMailbox = () => useQuery(getMailboxQueryOptions());
+export const useMailbox = (search = '') => useQuery(getMailboxQueryOptions(search));
 
 export function getMessageQueryOptions(id: number) {
   return queryOptions({

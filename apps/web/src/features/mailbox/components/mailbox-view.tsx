@@ -3,6 +3,7 @@ import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
+import { Input } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { useMailbox, useMessage } from '../api/get-mailbox.ts';
@@ -88,7 +89,25 @@ function Reader({ id }: { id: number }) {
 }
 
 export function MailboxView() {
-  const list = useMailbox();
+  const [search, setSearch] = useState('');
+  return (
+    <div className="flex min-h-0 flex-1 flex-col gap-3">
+      <label className="flex max-w-md flex-col gap-1 text-sm font-medium">
+        Search recipient or subject
+        <Input
+          type="search"
+          value={search}
+          placeholder="operator@ or P-101"
+          onChange={(e) => setSearch(e.target.value)}
+        />
+      </label>
+      <MailboxList search={search} />
+    </div>
+  );
+}
+
+function MailboxList({ search }: { search: string }) {
+  const list = useMailbox(search);
   const [selected, setSelected] = useState<number | null>(null);
   if (list.isPending) return <LoadingPanel />;
   if (list.isError)
@@ -101,13 +120,18 @@ export function MailboxView() {
   if (items.length === 0)
     return (
       <Card>
-        <EmptyState
-          title="No mail yet"
-          description="Alert notifications, invites and reset links appear here as the local mail fake receives them."
-        />
+        {search.trim() ? (
+          <EmptyState title="No message matches" description="Try part of an address or subject." />
+        ) : (
+          <EmptyState
+            title="No mail yet"
+            description="Alert notifications, invites and reset links appear here as the local mail fake receives them."
+          />
+        )}
       </Card>
     );
-  const current = selected ?? items[0]!.id;
+  const current =
+    selected !== null && items.some((i) => i.id === selected) ? selected : items[0]!.id;
   return (
     <Card className="flex min-h-0 flex-1 flex-col overflow-hidden md:flex-row">
       <ul
@@ -125,7 +149,7 @@ export function MailboxView() {
                 i.id === current && 'bg-accent-soft',
               )}
             >
-              <span className="block truncate text-sm font-medium">{i.subject}</span>
+              <span className="block text-sm font-medium break-words">{i.subject}</span>
               <span className="flex justify-between gap-2 font-mono text-xs text-ink-muted">
                 <span className="truncate">{i.to}</span>
                 <span className="shrink-0">{when(i.receivedAt)}</span>

@@ -1,8 +1,5 @@
-import {
-  decodeFloat32Base64,
-  waterfallSchema,
-  type SpectrumKind,
-} from '@turnstone/contracts/points';
+import { decodeFloat32Base64, type SpectrumKind } from '@turnstone/contracts/points';
+import { waterfallSchema } from '@turnstone/contracts/waterfall';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 

@@ -2,6 +2,8 @@
  * Diagnosis hints: likely causes of a capture's vibration with the peaks that support them.
  * Hints, never verdicts — every view says so and shows the evidence.
  */
+import { restateUnits } from '@turnstone/contracts/number-format';
+import { useUnits, type Units } from '../../account/api/use-units.ts';
 import { diagnosisCodeNames, evidenceUnits } from '@turnstone/contracts/points';
 import type {
   Diagnosis,
@@ -9,8 +11,13 @@ import type {
   DiagnosisEvidenceItem,
   DiagnosisHintItem,
 } from '@turnstone/contracts/points';
-import { formatValue } from '../../../components/charts/chart-theme.ts';
 import { cn } from '../../../lib/cn.ts';
+
+/** "0.252 in/s RMS": an evidence peak in the user's unit system with its measure. */
+function evidenceAmplitude(amplitude: number, spectrum: keyof typeof evidenceUnits, units: Units) {
+  const [unit, measure] = evidenceUnits[spectrum].split(' ') as [string, string];
+  return `${units.format(amplitude, unit)} ${measure}`;
+}
 
 export function hintName(code: DiagnosisCodeName): string {
   return diagnosisCodeNames[code];
@@ -32,6 +39,7 @@ function EvidenceTable({
   evidence: DiagnosisEvidenceItem[];
   caption: string;
 }) {
+  const units = useUnits();
   return (
     <table className="mt-1 w-full text-left text-xs">
       <caption className="sr-only">{caption}</caption>
@@ -50,7 +58,7 @@ function EvidenceTable({
             <td className="py-0.5 pr-2 text-right">{e.hz.toFixed(2)}</td>
             <td className="py-0.5 pr-2 text-right">{e.order.toFixed(2)}</td>
             <td className="py-0.5 text-right">
-              {formatValue(e.amplitude, 3)} {evidenceUnits[e.spectrum]}
+              {evidenceAmplitude(e.amplitude, e.spectrum, units)}
               <span className="sr-only"> ({spectrumNames[e.spectrum]} spectrum)</span>
             </td>
           </tr>
@@ -70,13 +78,14 @@ export function HintList({
   headingLevel?: 3 | 4;
   showEvidence?: boolean;
 }) {
+  const units = useUnits();
   if (!diagnosis)
     return <p className="text-sm text-ink-muted">No hints stored for this capture.</p>;
   if (diagnosis.hints.length === 0)
     return (
       <p className="text-sm text-ink-muted">
         No hint: nothing in the spectra points to a known cause at a level that matters (from{' '}
-        {formatValue(diagnosis.severityMmS)} mm/s, {diagnosis.severitySource}).
+        {units.format(diagnosis.severityMmS, 'mm/s')}, {diagnosis.severitySource}).
       </p>
     );
   const H = headingLevel === 3 ? 'h3' : 'h4';
@@ -90,7 +99,7 @@ export function HintList({
               score {h.confidence.toFixed(2)}
             </span>
           </H>
-          <p className="text-sm text-ink">{h.summary}</p>
+          <p className="text-sm text-ink">{restateUnits(h.summary, units.system)}</p>
           {showEvidence && (
             <EvidenceTable evidence={h.evidence} caption={`Evidence for ${hintName(h.code)}`} />
           )}
@@ -113,6 +122,7 @@ export function HintsSidePanel({
   selected: number | null;
   onSelect: (index: number | null, hint: DiagnosisHintItem | null) => void;
 }) {
+  const units = useUnits();
   return (
     <section aria-labelledby="hints-heading" className="flex flex-col gap-2">
       <h3 id="hints-heading" className="text-sm font-semibold text-ink">
@@ -144,7 +154,9 @@ export function HintsSidePanel({
                       score {h.confidence.toFixed(2)}
                     </span>
                   </span>
-                  <span className="mt-0.5 block text-xs text-ink">{h.summary}</span>
+                  <span className="mt-0.5 block text-xs text-ink">
+                    {restateUnits(h.summary, units.system)}
+                  </span>
                   <span className="mt-1 block text-xs font-medium text-accent">
                     {on ? 'Evidence marked on the chart' : 'Mark the evidence on the chart'}
                   </span>

@@ -1,11 +1,14 @@
 import type { AnalysisSummary } from '@turnstone/contracts/points';
 import { Field, Select } from '../../../components/ui/field.tsx';
+import { formatQuantity } from '@turnstone/contracts/number-format';
+import type { UnitSystem } from '@turnstone/contracts/units';
 import { formatBandHz, formatDateTime } from '../../../lib/format.ts';
+import { useUnits } from '../../account/api/use-units.ts';
 
 const verdictText = { ok: 'OK', suspect: 'suspect', unusable: 'unusable' } as const;
 
-export function snapshotLabel(a: AnalysisSummary): string {
-  return `${formatDateTime(a.takenAt)} · ${a.overall.velocityRmsMmS.toFixed(2)} mm/s (${formatBandHz(a.overall.velocityBandHz)}) · ${verdictText[a.verdict]}${a.spectraThinned ? ' · values only' : ''}`;
+export function snapshotLabel(a: AnalysisSummary, system: UnitSystem = 'metric'): string {
+  return `${formatDateTime(a.takenAt)} · ${formatQuantity(a.overall.velocityRmsMmS, 'mm/s', system)} (${formatBandHz(a.overall.velocityBandHz)}) · ${verdictText[a.verdict]}${a.spectraThinned ? ' · values only' : ''}`;
 }
 
 /** Picks one capture of the point from its analyses list (newest first). */
@@ -22,6 +25,7 @@ export function SnapshotPicker({
   onChange: (id: number | null) => void;
   allowNone?: boolean;
 }) {
+  const units = useUnits();
   return (
     <Field label={label} className="min-w-72">
       {(c) => (
@@ -34,7 +38,7 @@ export function SnapshotPicker({
           {allowNone && <option value="">None</option>}
           {analyses.map((a) => (
             <option key={a.id} value={a.id}>
-              {snapshotLabel(a)}
+              {snapshotLabel(a, units.system)}
             </option>
           ))}
         </Select>

@@ -1,146 +1,210 @@
 import { useMemo, useState } from 'react';
-import type {
-  AnalysisSummary,
-  DiagnosisHintItem,
-  FaultFrequencyItem,
-} from '@turnstone/contracts/points';
+import type { AnalysisSummary, DiagnosisHintItem, PointBand } from '@turnstone/contracts/points';
+import { useUnits } from '../../account/api/use-units.ts';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
 import {
   SpectrumChart,
   type SpectrumHighlight,
-  type SpectrumMarker,
-  type SpectrumTrace,
 } from '../../../components/charts/spectrum-chart.tsx';
-import { Button } from '../../../components/ui/button.tsx';
+import { MarkerKey } from '../../../components/charts/spectrum-marker-key.tsx';
+import {
+  amplitudeScaleLabel,
+  decibelUnit,
+  differenceDb,
+  harmonicLines,
+  lowCutoff,
+  realPeaks,
+  sidebandLines,
+  snapToPeak,
+  type AmplitudeScale,
+} from '../../../components/charts/spectrum-math.ts';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
-import { Field, Input, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
-import { Segmented } from '../../../components/ui/segmented.tsx';
-import { type ApiError, isApiError } from '../../../lib/api-client.ts';
-import { cn } from '../../../lib/cn.ts';
-import { formatDateTime } from '../../../lib/format.ts';
-import { useSpectrum } from '../api/get-spectrum.ts';
+import type { ApiError } from '../../../lib/api-client.ts';
+import { MARK_HARMONICS, useSpectrumMarks } from '../lib/use-spectrum-marks.ts';
+import { useSpectrumTrace } from '../lib/use-spectrum-trace.ts';
+import {
+  readRemembered,
+  spanOnAxis,
+  spectrumStart,
+  writeRemembered,
+  type Axis,
+  type Measure,
+} from '../lib/spectrum-view.ts';
 import { SnapshotPicker } from './snapshot-picker.tsx';
 import { HintsSidePanel } from './diagnosis-hints.tsx';
+import { CaptureQuality } from './capture-quality.tsx';
+import { CursorReadouts, PeakTable } from './spectrum-readouts.tsx';
+import { measureLabels, SpectrumToolbar, type CursorSettings } from './spectrum-toolbar.tsx';
+import { ThinnedSpectrum, thinnedSpectrum } from './thinned-spectrum.tsx';
 
-type Measure = 'acceleration' | 'velocity' | 'envelope';
-type Axis = 'hz' | 'order';
+/** The evidence window runs from 0 to this many times the highest evidence peak. */
+const EVIDENCE_ZOOM = 2;
 
-const measureLabels: Record<Measure, string> = {
-  acceleration: 'Acceleration',
-  velocity: 'Velocity',
-  envelope: 'Envelope',
-};
-
-/** The spectrum to fetch for a measure on an axis: acceleration in orders is the stored order spectrum. */
-function kindFor(measure: Measure, axis: Axis) {
-  return measure === 'acceleration' && axis === 'order' ? 'order' : measure;
-}
-
-function useTrace(
-  analysisId: number | null,
-  measure: Measure,
-  axis: Axis,
-  role: SpectrumTrace['role'],
-) {
-  const q = useSpectrum(analysisId, kindFor(measure, axis));
-  const trace = useMemo((): (SpectrumTrace & { shaftHz: number | null }) | null => {
-    const s = q.data;
-    if (!s) return null;
-    const shaftHz = s.speed.hz;
-    let step = s.axis === 'order' ? s.dOrder! : s.dfHz!;
-    // Velocity and envelope in orders: the Hz axis divided by the running speed.
-    if (axis === 'order' && s.axis === 'hz') {
-      if (!shaftHz) return null;
-      step = step / shaftHz;
-    }
-    return { label: formatDateTime(s.takenAt), values: s.decoded, step, role, shaftHz };
-  }, [q.data, axis, role]);
-  return { query: q, trace };
-}
+const storage = (): Storage | null => (typeof localStorage === 'undefined' ? null : localStorage);
 
 export function SpectrumPanel({
   analyses,
   selectedId,
   onSelect,
   bearing,
+  band,
+  userId,
 }: {
   /** The bearing the point sits on: its defect frequencies are marked by default. */
   bearing: string | null;
   analyses: readonly AnalysisSummary[];
   selectedId: number | null;
   onSelect: (id: number | null) => void;
+  /** The band the page was opened on (an alert's `?band=`): the view opens on it. */
+  band: PointBand | null;
+  /** Whose last measure and span are remembered (null: nothing remembered). */
+  userId: number | null;
 }) {
-  const [measure, setMeasure] = useState<Measure>('acceleration');
+  const units = useUnits();
+  const [remembered] = useState(() => {
+    const st = storage();
+    return st && userId !== null ? readRemembered(st, userId) : null;
+  });
+  const first = spectrumStart(band, [], remembered);
+  const [measure, setMeasure] = useState<Measure>(first.measure);
   const [axis, setAxis] = useState<Axis>('hz');
+  const [scale, setScale] = useState<AmplitudeScale | null>(null);
+  const [decibels, setDecibels] = useState(false);
+  const [view, setView] = useState<[number, number] | null>(null);
+  const [reason, setReason] = useState<string | null>(null);
   const [compareId, setCompareId] = useState<number | null>(null);
-  const [markerSet, setMarkerSet] = useState<'point' | 'all' | 'none'>(bearing ? 'point' : 'all');
-  const [cursor, setCursor] = useState<number | null>(null);
-  const [cursorCount, setCursorCount] = useState(10);
-  // The hint whose evidence is marked, per snapshot (a new snapshot starts with none).
+  const [cursor, setCursor] = useState<CursorSettings>({
+    mode: 'harmonic',
+    harmonics: 10,
+    spacing: null,
+    sidebands: 3,
+  });
+  const [fundamental, setFundamental] = useState<number | null>(null);
+  const [carrier, setCarrier] = useState<number | null>(null);
+  const [points, setPoints] = useState<{ name: 'A' | 'B'; x: number }[]>([]);
   const [hintPick, setHintPick] = useState<{ analysisId: number | null; index: number | null }>({
     analysisId: null,
     index: null,
   });
 
-  const main = useTrace(selectedId, measure, axis, 'main');
-  const compare = useTrace(compareId, measure, axis, 'compare');
+  const main = useSpectrumTrace(selectedId, measure, axis, 'main', scale);
+  const compare = useSpectrumTrace(compareId, measure, axis, 'compare', scale);
   const selected = analyses.find((a) => a.id === selectedId) ?? null;
   const ordersPossible = selected ? selected.speedRpm !== null : true;
+  const s = main.query.data;
+  const mt = main.trace;
+  const shaftHz = s?.speed.hz ?? null;
+  const xMax = mt ? (mt.values.length - 1) * mt.step : 0;
+
+  // The opening window, once the first spectrum (its speed and fault frequencies) is here.
+  if (view === null && mt && s) {
+    const start = spectrumStart(band, s.faultFrequencies, remembered);
+    setView(spanOnAxis(start.span, axis, shaftHz, xMax) ?? [0, xMax]);
+    setReason(start.reason);
+  }
+  const shownView = useMemo((): [number, number] => {
+    if (!view) return [0, xMax];
+    const lo = Math.min(Math.max(0, view[0]), xMax);
+    const hi = Math.min(view[1], xMax);
+    return hi > lo ? [lo, hi] : [0, xMax];
+  }, [view, xMax]);
+
+  const remember = (m: Measure, v: readonly [number, number] | null) => {
+    const st = storage();
+    if (!st || userId === null || !v) return;
+    const to = axis === 'order' ? v[1] : shaftHz ? v[1] / shaftHz : null;
+    if (to !== null) writeRemembered(st, userId, { measure: m, spanOrders: to });
+  };
+  const onView = (v: [number, number]) => {
+    setView(v);
+    remember(measure, v);
+  };
 
   const traces = useMemo(
-    () => [main.trace, compare.trace].filter((t): t is NonNullable<typeof t> => t !== null),
-    [main.trace, compare.trace],
+    () => [mt, compare.trace].filter((t): t is NonNullable<typeof t> => t !== null),
+    [mt, compare.trace],
   );
-  const s = main.query.data;
-  const markers = useMemo((): SpectrumMarker[] => {
-    if (!s || markerSet === 'none') return [];
-    const bearingKinds = new Set(['bpfo', 'bpfi', 'bsf', 'ftf']);
-    return s.faultFrequencies
-      .filter(
-        (f) =>
-          markerSet === 'all' ||
-          !bearingKinds.has(f.kind) ||
-          (bearing !== null && f.name.startsWith(`${bearing} `)),
-      )
-      .map((f: FaultFrequencyItem) => ({
-        name: f.name,
-        kind: f.kind,
-        x: axis === 'order' ? f.order : (f.hz ?? NaN),
-      }))
-      .filter((m) => Number.isFinite(m.x));
-  }, [s, markerSet, axis, bearing]);
+  const fm = useSpectrumMarks({ faults: s?.faultFrequencies, axis, bearing, band, xMax });
+
   const diagnosis = selected?.diagnosis ?? null;
   const hintIndex = hintPick.analysisId === selectedId ? hintPick.index : null;
   const hint: DiagnosisHintItem | null =
     hintIndex !== null ? (diagnosis?.hints[hintIndex] ?? null) : null;
-  const mainTrace = main.trace;
   const highlights = useMemo((): SpectrumHighlight[] => {
-    if (!hint || !mainTrace) return [];
+    if (!hint || !mt) return [];
     const out: SpectrumHighlight[] = [];
     for (const e of hint.evidence) {
       if (e.spectrum !== measure) continue;
       const x = axis === 'order' ? e.order : e.hz;
       // On the drawn line's own peak (within ±2 lines of the evidence frequency).
-      const k = Math.round(x / mainTrace.step);
+      const k = Math.round(x / mt.step);
       let y = 0;
-      for (let j = Math.max(0, k - 2); j <= Math.min(mainTrace.values.length - 1, k + 2); j++)
-        y = Math.max(y, mainTrace.values[j]!);
+      for (let j = Math.max(0, k - 2); j <= Math.min(mt.values.length - 1, k + 2); j++)
+        y = Math.max(y, mt.values[j]!);
       if (Number.isFinite(x) && y > 0) out.push({ x, y, label: e.label });
     }
     return out;
-  }, [hint, mainTrace, measure, axis]);
+  }, [hint, mt, measure, axis]);
   const elsewhere = hint ? hint.evidence.filter((e) => e.spectrum !== measure) : [];
-  const cursorOpt = useMemo(
-    () => (cursor ? { fundamental: cursor, count: cursorCount } : null),
-    [cursor, cursorCount],
+
+  const lowCut = mt ? lowCutoff(mt.step, axis, shaftHz) : 0;
+  const spacing = cursor.spacing ?? (axis === 'order' ? 1 : shaftHz);
+  const cursors = useMemo(() => {
+    if (!mt) return { harmonic: [], sideband: [], points: [] };
+    return {
+      harmonic: fundamental ? harmonicLines(mt.values, mt.step, fundamental, cursor.harmonics) : [],
+      sideband:
+        carrier && spacing
+          ? sidebandLines(mt.values, mt.step, carrier, spacing, cursor.sidebands)
+          : [],
+      points: points.map((p) => ({
+        ...p,
+        amplitude: harmonicLines(mt.values, mt.step, p.x, 1)[0]?.amplitude ?? null,
+      })),
+    };
+  }, [mt, fundamental, carrier, spacing, cursor.harmonics, cursor.sidebands, points]);
+  const found = useMemo(
+    () =>
+      mt
+        ? realPeaks(mt.values, mt.step, shownView[0], shownView[1], { lowCut, marks: fm.allMarks })
+        : null,
+    [mt, shownView, lowCut, fm.allMarks],
+  );
+  const ct = compare.trace;
+  const difference = useMemo(
+    () =>
+      mt && ct
+        ? { values: differenceDb(mt.values, mt.step, ct.values, ct.step), step: mt.step }
+        : null,
+    [mt, ct],
   );
 
+  const onPick = (x: number) => {
+    if (!mt) return;
+    const at = snapToPeak(mt.values, mt.step, x);
+    if (cursor.mode === 'harmonic') setFundamental(at);
+    else if (cursor.mode === 'sideband') setCarrier(at);
+    else
+      setPoints((ps) =>
+        ps.length === 1 ? [ps[0]!, { name: 'B', x: at }] : [{ name: 'A', x: at }],
+      );
+  };
+  const clearCursors = () => {
+    setFundamental(null);
+    setCarrier(null);
+    setPoints([]);
+  };
+
   const axisName = axis === 'hz' ? 'Hz' : 'order';
-  const unit = s ? s.unit : '';
-  const yName = s ? `${unit} ${s.scale === 'rms' ? 'RMS' : 'peak'}` : '';
+  const unit = s ? units.unit(s.unit) : '';
+  const shownScale: AmplitudeScale = scale ?? s?.scale ?? 'rms';
+  const dbUnit = decibelUnit(unit);
+  const dbOn = decibels && dbUnit !== null;
+  const linearName = `${unit} ${amplitudeScaleLabel[shownScale]}`;
+  const yName = dbOn ? `dB re ISO 1683 (${linearName})` : linearName;
 
   return (
     <Card className="flex flex-col gap-4 p-4">
@@ -159,78 +223,39 @@ export function SpectrumPanel({
           allowNone
         />
       </div>
-      <div className="flex flex-wrap items-end gap-4">
-        <Segmented
-          label="Measure"
-          value={measure}
-          onChange={setMeasure}
-          options={(['acceleration', 'velocity', 'envelope'] as const).map((m) => ({
-            value: m,
-            label: measureLabels[m],
-          }))}
-        />
-        <Segmented
-          label="X axis"
-          value={axis}
-          onChange={(v) => {
-            setAxis(v);
-            setCursor(null);
-          }}
-          options={[
-            { value: 'hz', label: 'Hz' },
-            { value: 'order', label: 'Orders', disabled: !ordersPossible },
-          ]}
-        />
-        <Field label="Fault-frequency markers">
-          {(c) => (
-            <Select
-              id={c.id}
-              value={markerSet}
-              onChange={(e) => setMarkerSet(e.target.value as typeof markerSet)}
-            >
-              {bearing && <option value="point">Shaft, gears, blades, {bearing}</option>}
-              <option value="all">All components</option>
-              <option value="none">None</option>
-            </Select>
-          )}
-        </Field>
-        <div className="flex items-end gap-2">
-          <label className="flex flex-col gap-1.5 text-sm font-medium text-ink">
-            Harmonic cursor ({axisName})
-            <Input
-              type="number"
-              min={0}
-              step="any"
-              controlSize="sm"
-              className="w-28 font-mono"
-              value={cursor ?? ''}
-              placeholder="click chart"
-              onChange={(e) => setCursor(e.target.value === '' ? null : Number(e.target.value))}
-            />
-          </label>
-          <label className="flex flex-col gap-1.5 text-sm font-medium text-ink">
-            Harmonics
-            <Input
-              type="number"
-              min={1}
-              max={40}
-              controlSize="sm"
-              className="w-20 font-mono"
-              value={cursorCount}
-              onChange={(e) =>
-                setCursorCount(Math.max(1, Math.min(40, Number(e.target.value) || 1)))
-              }
-            />
-          </label>
-          {cursor !== null && (
-            <Button size="sm" variant="ghost" onClick={() => setCursor(null)}>
-              Clear cursor
-            </Button>
-          )}
-        </div>
-      </div>
+      {selected && <CaptureQuality analysis={selected} where="spectrum" />}
+      <SpectrumToolbar
+        measure={measure}
+        onMeasure={(m) => {
+          setMeasure(m);
+          remember(m, view);
+        }}
+        axis={axis}
+        onAxis={(a) => {
+          if (a === axis) return;
+          // The same window on the other axis.
+          if (view && shaftHz) {
+            const f = a === 'order' ? 1 / shaftHz : shaftHz;
+            setView([view[0] * f, view[1] * f]);
+          } else setView(null);
+          setAxis(a);
+          clearCursors();
+        }}
+        ordersPossible={ordersPossible}
+        scale={shownScale}
+        onScale={setScale}
+        decibels={dbOn}
+        decibelsPossible={dbUnit !== null}
+        onDecibels={setDecibels}
+        view={mt ? shownView : null}
+        onView={onView}
+        cursor={cursor}
+        onCursor={setCursor}
+        onClearCursors={clearCursors}
+        hasCursors={fundamental !== null || carrier !== null || points.length > 0}
+      />
 
-      <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_20rem]">
+      <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_20rem]">
         <div className="flex min-w-0 flex-col gap-4">
           {selectedId === null ? (
             <EmptyState title="No snapshot chosen" description="Pick a snapshot above." />
@@ -250,7 +275,7 @@ export function SpectrumPanel({
               error={main.query.error}
               onRetry={() => void main.query.refetch()}
             />
-          ) : !main.trace ? (
+          ) : !mt ? (
             <EmptyState
               title="No order axis for this capture"
               description="Its running speed is not known, so the spectrum cannot be drawn in orders."
@@ -262,19 +287,36 @@ export function SpectrumPanel({
                 axis={axis}
                 yName={yName}
                 unit={unit}
-                markers={markers}
+                decibels={dbOn ? dbUnit : null}
+                view={shownView}
+                onView={onView}
+                lowCut={lowCut}
+                marks={fm.marks}
+                cursors={cursors}
                 highlights={highlights}
-                cursor={cursorOpt}
-                onPick={(x) => setCursor(Number(x.toPrecision(5)))}
-                ariaLabel={`${measureLabels[measure]} spectrum in ${yName} against ${axisName}${compare.trace ? ', with a second snapshot for comparison' : ''}${highlights.length ? `, with ${highlights.length} evidence peaks of the ${hint ? hint.code : ''} hint marked` : ''}`}
+                difference={difference}
+                onPick={onPick}
+                ariaLabel={`${measureLabels[measure]} spectrum in ${yName} against ${axisName}${compare.trace ? ', with a second snapshot for comparison and the change in dB per line' : ''}${highlights.length ? `, with ${highlights.length} evidence peaks of the ${hint ? hint.code : ''} hint marked` : ''}`}
               />
-              <p className="text-xs text-ink-muted">
-                Scroll or drag the slider to zoom. Click the chart to put the harmonic cursor&apos;s
-                fundamental there. Speed{' '}
+              <MarkerKey
+                families={fm.families}
+                shown={fm.shown}
+                unit={axisName}
+                harmonics={MARK_HARMONICS}
+                onToggle={fm.toggle}
+                onOnly={fm.only}
+              />
+              <p className="text-xs text-ink-muted" data-testid="spectrum-notes">
+                {reason ? `${reason}. ` : ''}Scroll, drag or type a range to zoom; the y axis
+                follows the lines in view above {formatValue(lowCut, 3)} {axisName} (the 0 Hz line
+                and its leakage never set it). A click puts the chosen cursor on the nearest peak.
+                Speed{' '}
                 <span className="font-mono text-ink">
                   {s?.speed.rpm ? `${formatValue(s.speed.rpm, 4)} r/min` : 'unknown'}
                 </span>
                 {s?.speed.source && s.speed.source !== 'none' ? ` (${s.speed.source})` : ''}.
+                {dbOn &&
+                  ` dB re ISO 1683:2015 reference values: acceleration 1 µm/s², velocity 1 nm/s, displacement 1 pm.`}
                 {compareId !== null &&
                   compare.query.isError &&
                   ' The compared snapshot could not be loaded.'}
@@ -293,7 +335,23 @@ export function SpectrumPanel({
                   </button>
                 </p>
               )}
-              {s && <PeakTable peaks={s.peaks} unit={unit} axis={axis} />}
+              <CursorReadouts
+                harmonic={cursors.harmonic}
+                sideband={cursors.sideband}
+                points={cursors.points}
+                axis={axis}
+                shaftHz={shaftHz}
+                unit={linearName}
+              />
+              {found && (
+                <PeakTable
+                  peaks={found.peaks}
+                  floor={found.floor}
+                  unit={linearName}
+                  axis={axis}
+                  shaftHz={shaftHz}
+                />
+              )}
             </>
           )}
         </div>
@@ -302,87 +360,15 @@ export function SpectrumPanel({
           selected={hintIndex}
           onSelect={(index, h) => {
             setHintPick({ analysisId: selectedId, index });
-            const first = h?.evidence[0];
-            if (first) setMeasure(first.spectrum);
+            const ev = h?.evidence ?? [];
+            const firstEv = ev[0];
+            if (firstEv) setMeasure(firstEv.spectrum);
+            // Open the window on the evidence (0 to twice its highest peak).
+            const top = Math.max(0, ...ev.map((e) => (axis === 'order' ? e.order : e.hz)));
+            if (top > 0) setView([0, EVIDENCE_ZOOM * top]);
           }}
         />
       </div>
     </Card>
-  );
-}
-
-/** The nearest capture with its spectra, as a 410 `spectrum_thinned` names it. */
-interface ThinnedDetails {
-  nearest: { analysisId: number; takenAt: string } | null;
-}
-
-function thinnedSpectrum(error: unknown): boolean {
-  return isApiError(error) && error.code === 'spectrum_thinned';
-}
-
-/** A capture whose spectra retention thinned away: say so and offer the nearest whole one. */
-function ThinnedSpectrum({ error, onOpen }: { error: ApiError; onOpen: (id: number) => void }) {
-  const nearest = (error.details as ThinnedDetails | undefined)?.nearest ?? null;
-  return (
-    <div role="status">
-      <EmptyState
-        title="Spectrum no longer stored"
-        description={
-          <>
-            Older captures keep their spectra only at a reduced rate (retention policy); this one
-            keeps its overall and band values in the trend.
-            {nearest
-              ? ` The nearest capture of this point with its spectrum was taken ${formatDateTime(nearest.takenAt)}.`
-              : ' No capture of this point still has its spectrum.'}
-          </>
-        }
-        action={
-          nearest ? (
-            <Button onClick={() => onOpen(nearest.analysisId)}>
-              Open the capture of {formatDateTime(nearest.takenAt)}
-            </Button>
-          ) : undefined
-        }
-      />
-    </div>
-  );
-}
-
-function PeakTable({
-  peaks,
-  unit,
-  axis,
-}: {
-  peaks: { hz: number | null; order: number | null; amplitude: number }[];
-  unit: string;
-  axis: Axis;
-}) {
-  if (peaks.length === 0) return null;
-  return (
-    <div className="overflow-x-auto">
-      <table className="w-full max-w-xl text-left text-sm">
-        <caption className="mb-1 text-left text-sm font-semibold text-ink">Largest peaks</caption>
-        <thead className="text-xs text-ink-muted">
-          <tr className="border-b border-line">
-            <th className="py-1 pr-4 font-medium">#</th>
-            <th className="py-1 pr-4 text-right font-medium">Frequency (Hz)</th>
-            <th className="py-1 pr-4 text-right font-medium">Order</th>
-            <th className="py-1 text-right font-medium">Amplitude ({unit})</th>
-          </tr>
-        </thead>
-        <tbody className="font-mono text-[13px]">
-          {peaks.map((p, i) => (
-            <tr key={i} className={cn('border-b border-line/60', axis === 'order' && 'order-row')}>
-              <td className="py-1 pr-4 text-ink-muted">{i + 1}</td>
-              <td className="py-1 pr-4 text-right">{p.hz === null ? '—' : p.hz.toFixed(2)}</td>
-              <td className="py-1 pr-4 text-right">
-                {p.order === null ? '—' : p.order.toFixed(3)}
-              </td>
-              <td className="py-1 text-right">{formatValue(p.amplitude, 4)}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
   );
 }

@@ -5,7 +5,7 @@ import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Field, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
-import { formatDateTime } from '../../../lib/format.ts';
+import { formatDateTime, formatShortDateTime } from '../../../lib/format.ts';
 import { useWaterfall } from '../api/get-waterfall.ts';
 
 type Kind = 'acceleration' | 'velocity' | 'envelope' | 'order';
@@ -24,8 +24,10 @@ export function WaterfallPanel({ pointId }: { pointId: number }) {
     () =>
       (q.data?.items ?? []).map((i) => ({
         label: formatDateTime(i.takenAt),
+        short: formatShortDateTime(i.takenAt),
         values: i.decoded,
         step: i.step,
+        shaftHz: i.shaftHz,
       })),
     [q.data],
   );
@@ -76,6 +78,7 @@ export function WaterfallPanel({ pointId }: { pointId: number }) {
           traces={traces}
           axis={q.data.axis}
           unit={q.data.unit}
+          scale={q.data.scale === 'rms' ? 'RMS' : 'peak'}
           ariaLabel={`Waterfall of the last ${traces.length} ${kindLabels[kind]} spectra, newest in front`}
         />
       )}

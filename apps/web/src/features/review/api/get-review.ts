@@ -30,9 +30,9 @@ export function reviewSearch(p: ReviewParams): string {
   return q.toString();
 }
 
-/** Where the CSV export of the same review downloads from. */
-export function reviewCsvHref(p: ReviewParams): string {
-  return `/api/v1/review.csv?${reviewSearch(p)}`;
+/** Where the export of the same review downloads from: a ZIP of CSV files, one per table. */
+export function reviewZipHref(p: ReviewParams): string {
+  return `/api/v1/review.zip?${reviewSearch(p)}`;
 }
 
 /** This week against last: movers, forecasts, open alerts, quality notices, findings due. */

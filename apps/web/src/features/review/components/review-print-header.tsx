@@ -1,5 +1,6 @@
 import type { WeeklyReview } from '@turnstone/contracts/review';
 import { formatDay } from '../utils/format-review.ts';
+import { formatDateTime } from '../../../lib/format.ts';
 
 /** Shown only on paper: what, where, which week and when it was printed. */
 export function ReviewPrintHeader({
@@ -14,12 +15,11 @@ export function ReviewPrintHeader({
     <div data-print="only" className="review-print-header hidden border-b border-ink pb-2">
       <p className="text-base font-semibold">Turnstone · weekly review</p>
       <p className="text-sm">
-        Site: {sites} · Week ending {formatDay(review.period.weekEnding)} (UTC days) · forecast{' '}
+        Site: {sites} · Week ending {formatDay(review.period.weekEnding)} (days in{' '}
+        {review.siteWeeks.map((w) => w.timeZone).join(', ') || 'UTC'}) · forecast{' '}
         {review.period.weeksAhead} weeks ahead
       </p>
-      <p className="text-xs">
-        Printed {printedAt.toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' })}
-      </p>
+      <p className="text-xs">Printed {formatDateTime(printedAt.toISOString())}</p>
     </div>
   );
 }

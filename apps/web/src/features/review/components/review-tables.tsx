@@ -1,15 +1,12 @@
-import type {
-  ReviewAlert,
-  ReviewForecast,
-  ReviewMover,
-  ReviewQualityNotice,
-} from '@turnstone/contracts/review';
+import type { ReviewAlert, ReviewForecast, ReviewQualityNotice } from '@turnstone/contracts/review';
 
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
+import { Button } from '../../../components/ui/button.tsx';
 
 import { formatNumber } from '@turnstone/contracts/number-format';
 import { unitText } from '@turnstone/contracts/units';
-import { formatDay, formatPercent, formatSigned } from '../utils/format-review.ts';
+import { formatDay } from '../utils/format-review.ts';
+import { formatDateTime } from '../../../lib/format.ts';
 
 import {
   ActionCell,
@@ -26,89 +23,19 @@ import {
   type OnCreateFinding,
 } from './review-table-parts.tsx';
 
-export function MoversTable({
-  rows,
-  total,
-  onCreateFinding,
-}: {
-  rows: ReviewMover[];
-  total: number;
-  onCreateFinding: OnCreateFinding;
-}) {
-  return (
-    <ReviewSection
-      id="movers"
-      title="Largest increases"
-      count={total}
-      description="Mean of this week’s values against last week’s, per point and band; largest rise first."
-    >
-      {rows.length === 0 ? (
-        <Empty>No band rose against last week (or no point has values in both weeks).</Empty>
-      ) : (
-        <Table
-          head={
-            <>
-              <th className={th}>Point</th>
-              <th className={th}>Band</th>
-              <th className={thNum}>Last week</th>
-              <th className={thNum}>This week</th>
-              <th className={thNum}>Change</th>
-              <th className={thNum}>Change %</th>
-              {actionHead(Boolean(onCreateFinding))}
-            </>
-          }
-        >
-          {rows.map((m) => (
-            <tr key={`${m.pointId}-${m.bandKey}`}>
-              <PointCell row={m} />
-              <td className={td}>{m.bandName}</td>
-              <td className={tdNum}>
-                <Value value={m.lastWeekMean} unit={m.unit} />
-              </td>
-              <td className={tdNum}>
-                <Value value={m.thisWeekMean} unit={m.unit} />
-              </td>
-              <td className={tdNum}>
-                {formatSigned(m.change)} <span className="text-ink-muted">{unitText(m.unit)}</span>
-              </td>
-              <td className={`${tdNum} font-semibold`}>
-                <span aria-hidden="true" className="mr-1 text-status-alert">
-                  ▲
-                </span>
-                {formatPercent(m.changePercent)}
-              </td>
-              <ActionCell
-                label={`Create finding for ${m.pointTag}, ${m.bandName}`}
-                onClick={
-                  onCreateFinding &&
-                  (() =>
-                    onCreateFinding({
-                      pointId: m.pointId,
-                      pointTag: m.pointTag,
-                      bandKey: m.bandKey,
-                      title: `${m.machineName}: ${m.bandName} up ${formatPercent(m.changePercent)} at ${m.pointTag}`,
-                      context: `${m.pointTag} · ${m.bandName}: ${formatNumber(m.lastWeekMean)} → ${formatNumber(m.thisWeekMean)} ${unitText(m.unit)} (${formatPercent(m.changePercent)})`,
-                    }))
-                }
-              />
-            </tr>
-          ))}
-        </Table>
-      )}
-    </ReviewSection>
-  );
-}
-
 export function ForecastsTable({
   rows,
   total,
   weeksAhead,
   onCreateFinding,
+  zones,
 }: {
   rows: ReviewForecast[];
   total: number;
   weeksAhead: number;
   onCreateFinding: OnCreateFinding;
+  /** Each site's time zone, by site id: dates are the site's days. */
+  zones: Record<number, string>;
 }) {
   return (
     <ReviewSection
@@ -148,7 +75,7 @@ export function ForecastsTable({
                 </span>
               </td>
               <td className={`${td} whitespace-nowrap`}>
-                <span className="font-mono">{formatDay(f.crossingAt)}</span>
+                <span className="font-mono">{formatDay(f.crossingAt, zones[f.siteId])}</span>
                 <div className="text-xs text-ink-muted">
                   {f.daysToCrossing === 0 ? 'due now' : `in ${f.daysToCrossing} days`}
                 </div>
@@ -166,8 +93,8 @@ export function ForecastsTable({
                       pointId: f.pointId,
                       pointTag: f.pointTag,
                       bandKey: f.bandKey,
-                      title: `${f.machineName}: ${f.bandName} projected to reach ${f.target.level} by ${formatDay(f.crossingAt)}`,
-                      context: `${f.pointTag} · ${f.bandName}: ${formatNumber(f.latestValue)} ${unitText(f.unit)} now, ${f.target.level} level ${formatNumber(f.target.value)} ${unitText(f.unit)} projected ${formatDay(f.crossingAt)} (${f.model}, R² ${f.r2.toFixed(2)})`,
+                      title: `${f.machineName}: ${f.bandName} projected to reach ${f.target.level} by ${formatDay(f.crossingAt, zones[f.siteId])}`,
+                      context: `${f.pointTag} · ${f.bandName}: ${formatNumber(f.latestValue)} ${unitText(f.unit)} now, ${f.target.level} level ${formatNumber(f.target.value)} ${unitText(f.unit)} projected ${formatDay(f.crossingAt, zones[f.siteId])} (${f.model}, R² ${f.r2.toFixed(2)})`,
                     }))
                 }
               />
@@ -183,10 +110,13 @@ export function OpenAlertsTable({
   rows,
   total,
   onCreateFinding,
+  zones,
 }: {
   rows: ReviewAlert[];
   total: number;
   onCreateFinding: OnCreateFinding;
+  /** Each site's time zone, by site id: dates are the site's days. */
+  zones: Record<number, string>;
 }) {
   return (
     <ReviewSection
@@ -226,7 +156,7 @@ export function OpenAlertsTable({
               <td className={tdNum}>
                 {a.ageDays} d
                 <div className="text-xs whitespace-normal text-ink-muted">
-                  since {formatDay(a.firstAt)}
+                  since {formatDay(a.firstAt, zones[a.siteId])}
                 </div>
               </td>
               <ActionCell
@@ -256,10 +186,16 @@ export function QualityNoticesTable({
   rows,
   total,
   onCreateFinding,
+  zones,
+  onMarkReviewed,
 }: {
   rows: ReviewQualityNotice[];
   total: number;
   onCreateFinding: OnCreateFinding;
+  /** Each site's time zone, by site id: dates are the site's days. */
+  zones: Record<number, string>;
+  /** Marks the point's notices reviewed; absent for readers who may not. */
+  onMarkReviewed?: ((pointId: number, pointTag: string) => void) | undefined;
 }) {
   return (
     <ReviewSection
@@ -278,14 +214,16 @@ export function QualityNoticesTable({
               <th className={th}>Taken</th>
               <th className={th}>Verdict</th>
               <th className={th}>Findings</th>
-              {actionHead(Boolean(onCreateFinding))}
+              {actionHead(Boolean(onCreateFinding || onMarkReviewed))}
             </>
           }
         >
           {rows.map((n) => (
             <tr key={n.noticeId}>
               <PointCell row={n} />
-              <td className={`${td} font-mono whitespace-nowrap`}>{formatDay(n.takenAt)}</td>
+              <td className={`${td} font-mono whitespace-nowrap`}>
+                {formatDateTime(n.takenAt, zones[n.siteId])}
+              </td>
               <td className={`${td} whitespace-nowrap`}>
                 <StatusMark status="quality" labelHidden />{' '}
                 <span>{n.verdict === 'unusable' ? 'Unusable' : 'Suspect'}</span>
@@ -299,6 +237,18 @@ export function QualityNoticesTable({
                   ))}
                 </ul>
               </td>
+              {onMarkReviewed && (
+                <td data-print="hide" className={`${td} text-right`}>
+                  <Button
+                    size="sm"
+                    variant="ghost"
+                    onClick={() => onMarkReviewed(n.pointId, n.pointTag)}
+                    aria-label={`Mark notices of ${n.pointTag} reviewed`}
+                  >
+                    Mark reviewed
+                  </Button>
+                </td>
+              )}
               <ActionCell
                 label={`Create finding for quality notice on ${n.pointTag}`}
                 onClick={
@@ -308,7 +258,7 @@ export function QualityNoticesTable({
                       pointId: n.pointId,
                       pointTag: n.pointTag,
                       title: `${n.machineName}: check sensor at ${n.pointTag} (${n.findings[0]?.code ?? n.verdict})`,
-                      context: `${n.pointTag} · capture of ${formatDay(n.takenAt)} ${n.verdict}: ${n.findings.map((f) => f.message).join('; ')}`,
+                      context: `${n.pointTag} · capture of ${formatDay(n.takenAt, zones[n.siteId])} ${n.verdict}: ${n.findings.map((f) => f.message).join('; ')}`,
                     }))
                 }
               />

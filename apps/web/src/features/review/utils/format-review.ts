@@ -1,5 +1,6 @@
+import { formatDate } from '@turnstone/contracts/dates';
 /**
- * Formatting for the review's tables: signed changes, percentages, UTC days. Values and units
+ * Formatting for the review's tables: signed changes, percentages, days (one date format, contracts/dates.ts). Values and units
  * follow the app's one number rule (`@turnstone/contracts/number-format`).
  */
 import { formatNumber } from '@turnstone/contracts/number-format';
@@ -20,17 +21,12 @@ export function formatPercent(value: number | null): string {
   return `${value > 0 ? '+' : value < 0 ? '−' : ''}${oneDecimal.format(Math.abs(value))} %`;
 }
 
-const dayFormat = new Intl.DateTimeFormat('en-GB', {
-  day: 'numeric',
-  month: 'short',
-  year: 'numeric',
-  timeZone: 'UTC',
-});
-
-/** A day (UTC), e.g. "27 Nov 2026", from an ISO instant or a YYYY-MM-DD date. */
-export function formatDay(iso: string): string {
-  const t = Date.parse(iso.length === 10 ? `${iso}T00:00:00Z` : iso);
-  return Number.isNaN(t) ? iso : dayFormat.format(t);
+/**
+ * A day as every screen shows it, `2026-11-27` (contracts/dates.ts), in the site's zone for an
+ * instant; a YYYY-MM-DD date as it is.
+ */
+export function formatDay(iso: string, timeZone = 'UTC'): string {
+  return formatDate(iso, timeZone);
 }
 
 /** Today as YYYY-MM-DD in the browser's own time zone (the week a person means by "this week"). */

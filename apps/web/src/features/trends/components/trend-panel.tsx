@@ -13,6 +13,8 @@ import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Field, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
+import { useUnits } from '../../account/api/use-units.ts';
+import { trendInUnits } from '../utils/trend-units.ts';
 import {
   DEFAULT_TREND_DAYS,
   defaultTrendBand,
@@ -77,6 +79,7 @@ export function TrendPanel({
     [pointId, band, period, anchor],
   );
   const trend = useTrend(params);
+  const units = useUnits();
 
   return (
     <Card className="flex flex-col gap-3 p-4">
@@ -86,7 +89,7 @@ export function TrendPanel({
             <Select id={c.id} value={band} onChange={(e) => setBand(e.target.value)}>
               {bands.map((b) => (
                 <option key={b.key} value={b.key}>
-                  {b.name} ({displayUnit(b.unit)})
+                  {b.name} ({units.unit(b.unit)})
                 </option>
               ))}
             </Select>
@@ -121,7 +124,8 @@ export function TrendPanel({
 }
 
 function TrendBody({ trend, now }: { trend: ReturnType<typeof useTrend>; now: number }) {
-  const data = trend.data;
+  const units = useUnits();
+  const data = useMemo(() => trend.data && trendInUnits(trend.data, units), [trend.data, units]);
   const chartProps = useMemo(() => {
     if (!data) return null;
     const limits: TrendLimitLine[] = [
@@ -132,7 +136,9 @@ function TrendBody({ trend, now }: { trend: ReturnType<typeof useTrend>; now: nu
       ...data.events.map((e) => ({
         t: e.t,
         kind: e.kind,
-        label: `${e.level === 'danger' ? 'Danger' : 'Alert'} ${eventLabel[e.kind]}`,
+        label: `${e.level === 'danger' ? 'Danger' : 'Alert'} ${eventLabel[e.kind]}${
+          e.by ? ` by ${e.by}` : ''
+        }${e.note ? `: “${e.note}”` : ''}`,
       })),
       ...data.findings.map((f) => ({
         t: f.t,

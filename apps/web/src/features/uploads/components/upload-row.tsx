@@ -1,4 +1,5 @@
 import { Link } from 'react-router-dom';
+import { useUnits } from '../../account/api/use-units.ts';
 import type { QualityFinding } from '@turnstone/contracts/points';
 import { Spinner } from '../../../components/ui/spinner.tsx';
 import { paths } from '../../../config/paths.ts';
@@ -39,6 +40,7 @@ function Findings({ findings }: { findings: QualityFinding[] }) {
 }
 
 function Result({ item }: { item: UploadItem }) {
+  const units = useUnits();
   const snap = useSnapshot(item.snapshotId ?? null);
   if (!item.snapshotId) return null;
   if (snap.isError)
@@ -71,7 +73,7 @@ function Result({ item }: { item: UploadItem }) {
         </span>
         <span>
           <span className="text-ink-muted">velocity </span>
-          <span className="font-mono">{a.overall.velocityRmsMmS.toFixed(2)} mm/s RMS</span>
+          <span className="font-mono">{units.format(a.overall.velocityRmsMmS, 'mm/s')} RMS</span>
           <span className="text-ink-muted"> ({formatBandHz(a.overall.velocityBandHz)})</span>
         </span>
         {a.speedRpm !== null && (

@@ -8,7 +8,7 @@ import { TableHead } from '../../../components/ui/table-head.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
-import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import { Field, InputField, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 import { useUsers } from '../api/get-users.ts';
@@ -108,22 +108,19 @@ function InviteForm({ sites }: { sites: Site[] }) {
         They get an e-mail with a link to choose a password; it works once, for 72 hours.
       </p>
       <form onSubmit={onSubmit} noValidate className="mt-3 grid gap-3 sm:grid-cols-2">
-        <Field label="E-mail" error={errors.email?.message}>
-          {({ invalid, ...ids }) => (
-            <Input
-              {...ids}
-              {...form.register('email')}
-              invalid={invalid}
-              type="email"
-              autoComplete="off"
-            />
-          )}
-        </Field>
-        <Field label="Name" error={errors.name?.message}>
-          {({ invalid, ...ids }) => (
-            <Input {...ids} {...form.register('name')} invalid={invalid} autoComplete="off" />
-          )}
-        </Field>
+        <InputField
+          label="E-mail"
+          error={errors.email?.message}
+          {...form.register('email')}
+          type="email"
+          autoComplete="off"
+        />
+        <InputField
+          label="Name"
+          error={errors.name?.message}
+          {...form.register('name')}
+          autoComplete="off"
+        />
         <Field label="Role" error={errors.role?.message}>
           {({ invalid: _invalid, ...ids }) => (
             <Select {...ids} {...form.register('role')}>

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { decodeSamples, parseEncoding } from './decode-samples.ts';
+import { decodeSamples, parseEncoding } from './sample-codec.ts';
 import { scaleToAcceleration, voltsPerCount } from './scale-samples.ts';
 
 describe('decode samples', () => {

@@ -1,0 +1,38 @@
+import type { z } from 'zod';
+import type { ReviewNoticesResult, reviewNoticesSchema } from '@turnstone/contracts/quality';
+import type { AppContext } from '../../lib/context.ts';
+import type { SessionUser } from '../../lib/session-user.ts';
+import { accessiblePoint } from '../places/point-access.ts';
+import { writeAudit } from '../audit/audit-repository.ts';
+import * as repo from './quality-repository.ts';
+
+/** Marks a point's quality notices reviewed by `user` at `now`, audited in the same transaction. */
+export async function reviewNotices(
+  ctx: AppContext,
+  user: SessionUser,
+  input: z.output<typeof reviewNoticesSchema>,
+  now = new Date(),
+): Promise<ReviewNoticesResult> {
+  await accessiblePoint(ctx.db, user, input.pointId);
+  const reviewed = await ctx.db.transaction(async (tx) => {
+    const rows = await repo.lockUnreviewed(tx, input.pointId, input.ids);
+    if (rows.length === 0) return 0;
+    const ids = rows.map((r) => r.id);
+    await repo.markReviewed(tx, ids, user.id, now);
+    await writeAudit(tx, {
+      actorUserId: user.id,
+      action: 'quality.review',
+      entity: 'point',
+      entityId: input.pointId,
+      before: null,
+      after: { noticeIds: ids, reviewedAt: now.toISOString() },
+    });
+    return ids.length;
+  });
+  return {
+    pointId: input.pointId,
+    reviewed,
+    reviewedBy: { id: user.id, name: user.name },
+    reviewedAt: now.toISOString(),
+  };
+}

@@ -1,0 +1,79 @@
+import { useState } from 'react';
+import { Button } from '../../../components/ui/button.tsx';
+import { Modal } from '../../../components/ui/modal.tsx';
+
+/** A secret shown this once (an API token, a signing secret); closing needs a deliberate click. */
+export function SecretOnceDialog({
+  title,
+  label,
+  secret,
+  advice,
+  onClose,
+}: {
+  title: string;
+  label: string;
+  secret: string | null;
+  advice: string;
+  onClose: () => void;
+}) {
+  const [copied, setCopied] = useState<'yes' | 'failed' | null>(null);
+  const close = () => {
+    setCopied(null);
+    onClose();
+  };
+  const copy = async () => {
+    if (!secret) return;
+    try {
+      await navigator.clipboard.writeText(secret);
+      setCopied('yes');
+    } catch {
+      setCopied('failed');
+    }
+  };
+  return (
+    <Modal open={secret !== null} title={title} onClose={close} dismissable={false}>
+      <div
+        role="alert"
+        className="flex gap-2.5 rounded-md border border-status-alert/40 bg-status-alert/10 px-3 py-2.5 text-sm"
+      >
+        <svg
+          viewBox="0 0 12 12"
+          aria-hidden="true"
+          className="mt-1 size-3 shrink-0 text-status-alert"
+        >
+          <path d="M6 1.2 11 10.3H1Z" fill="currentColor" />
+        </svg>
+        <p>
+          <strong>This is shown only once.</strong> {advice}
+        </p>
+      </div>
+      <label className="flex flex-col gap-1.5 text-sm font-medium">
+        {label}
+        <input
+          readOnly
+          value={secret ?? ''}
+          onFocus={(e) => e.currentTarget.select()}
+          className="h-10 w-full rounded-md border border-line-strong bg-sunken px-3 font-mono text-[13px] text-ink"
+        />
+      </label>
+      <div className="flex flex-wrap items-center gap-2">
+        <Button variant="primary" onClick={() => void copy()}>
+          Copy
+        </Button>
+        {copied === 'yes' && (
+          <span role="status" className="text-sm text-status-ok">
+            Copied to the clipboard.
+          </span>
+        )}
+        {copied === 'failed' && (
+          <span role="status" className="text-sm text-status-danger">
+            Could not copy; select the text and copy it by hand.
+          </span>
+        )}
+        <Button className="ml-auto" onClick={close}>
+          I have stored it
+        </Button>
+      </div>
+    </Modal>
+  );
+}

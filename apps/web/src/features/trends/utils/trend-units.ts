@@ -1,0 +1,24 @@
+import type { TrendResponse } from '@turnstone/contracts/trend';
+import { displayUnit } from '@turnstone/contracts/units';
+import type { Units } from '../../account/api/use-units.ts';
+
+/**
+ * A trend answer (stored metric) in the user's unit system: values, levels, baseline and the
+ * projection's target all scale by the same factor; the band names its shown unit.
+ */
+export function trendInUnits(d: TrendResponse, units: Units): TrendResponse {
+  const unit = d.band.unit;
+  if (units.value(1, unit) === 1) return d;
+  const v = (x: number) => units.value(x, unit);
+  const p = d.projection;
+  return {
+    ...d,
+    band: { ...d.band, unit: displayUnit(unit, units.system) },
+    items: d.items.map((i) => ({ ...i, v: v(i.v) })),
+    levels: { ...d.levels, alert: v(d.levels.alert), danger: v(d.levels.danger) },
+    baseline: d.baseline
+      ? { ...d.baseline, mean: v(d.baseline.mean), sigma: v(d.baseline.sigma) }
+      : null,
+    projection: p.target ? { ...p, target: { ...p.target, value: v(p.target.value) } } : p,
+  };
+}

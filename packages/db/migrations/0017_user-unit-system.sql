@@ -1,0 +1,1 @@
+ALTER TABLE `users` ADD `unit_system` enum('metric','imperial') DEFAULT 'metric' NOT NULL;

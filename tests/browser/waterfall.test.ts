@@ -1,0 +1,105 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
+import { snapshotBody } from '../support/signals.ts';
+
+let srv: TestServer;
+let browser: Browser;
+let pointId: number;
+const TAG = 'MFP-P102-MDE-H';
+const DAY = 86_400_000;
+
+beforeAll(async () => {
+  srv = await startTestServer();
+  browser = await launchBrowser();
+  const [site] = await srv.q("SELECT id FROM sites WHERE code = 'MFP'");
+  const key = await srv.gatewayKey(Number(site!.id));
+  // Eight daily captures at 1482 r/min (1× = 24.7 Hz) with a 1× that grows capture by
+  // capture and a 212 Hz tone, so the stack shows a rising peak at one order.
+  const now = Date.now();
+  for (let i = 0; i < 8; i++) {
+    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+      body: snapshotBody(TAG, `wf-${i}`, {
+        n: 8192,
+        takenAt: new Date(now - (7 - i) * DAY - 3600_000).toISOString(),
+        tones: [
+          { hz: 24.7, peakG: 0.03 + 0.01 * i },
+          { hz: 212, peakG: 0.05 },
+        ],
+        speedRpm: 1482,
+        seed: i,
+      }),
+      headers: { authorization: `Bearer ${key}` },
+    });
+    expect(res.status).toBe(201);
+  }
+  await createWorker(srv.ctx).drain();
+  const [p] = await srv.q('SELECT id FROM points WHERE tag = ?', [TAG]);
+  pointId = Number(p!.id);
+});
+afterAll(async () => {
+  await browser?.close();
+  await srv?.stop();
+});
+
+/** Sweeps the pointer along a row of the chart and collects every readout it gave. */
+async function sweep(page: Page, yFromBottom: number): Promise<string[]> {
+  const chart = page.getByRole('img', { name: /^Waterfall of the last/ });
+  const box = (await chart.boundingBox())!;
+  const readout = page.getByTestId('waterfall-readout');
+  const seen: string[] = [];
+  // The plot lies between the grid's margins (64 px left, 112 px right).
+  for (let x = box.x + 66; x < box.x + box.width - 114; x += 4) {
+    await page.mouse.move(x, box.y + box.height - yFromBottom);
+    seen.push((await readout.textContent()) ?? '');
+  }
+  return seen;
+}
+
+async function openWaterfall(page: Page) {
+  await signInAs(page, srv.url, 'engineer');
+  await page.goto(`${srv.url}/points/${pointId}`);
+  await page.getByRole('tab', { name: 'Waterfall' }).click();
+  await page
+    .getByRole('img', { name: /^Waterfall of the last/ })
+    .locator('canvas')
+    .first()
+    .waitFor();
+  await page.getByRole('combobox', { name: 'Spectrum' }).selectOption('velocity');
+  await page.getByText(/^Every trace has the same amplitude scale/).waitFor();
+}
+
+describe('waterfall in a real browser', () => {
+  it('reads frequency, order, amplitude and date under the pointer after a span in orders', async () => {
+    const page = await newPage(browser, 1280, 960);
+    await openWaterfall(page);
+    await page.getByRole('combobox', { name: 'Span' }).selectOption('5');
+    // 0–5 orders of 24.7 Hz = 0–123.5 Hz of the front trace.
+    await page.getByText(/Showing 0 %–\d+ % of the range: 0 Hz to 12\d(\.\d)? Hz/).waitFor();
+    const seen = await sweep(page, 72);
+    // The front trace's 1× line: 24.7 Hz (order = f / f1×, 1482 r/min = 24.7 Hz) — within a
+    // line (df = 1.25 Hz at 10240 samples/s and 8192 samples, or finer).
+    const oneX = seen.find((s) =>
+      /Taken .* · 2[3-6](\.\d+)? Hz · (0\.9\d|1\.0\d)× · [\d.]+ mm\/s RMS/.test(s),
+    );
+    expect(oneX, seen.join('\n')).toBeDefined();
+    // Back to the 1× position the sweep found, for the screenshot.
+    const b = (await page.getByRole('img', { name: /^Waterfall of the last/ }).boundingBox())!;
+    await page.mouse.move(b.x + 66 + 4 * seen.indexOf(oneX!), b.y + b.height - 72);
+    await screenshot(page, 'waterfall-hover');
+    await page.context().close();
+  });
+
+  it('is usable at tablet width (820 px): controls wrap, the readout still answers', async () => {
+    const page = await newPage(browser, 820, 1100);
+    await openWaterfall(page);
+    const seen = await sweep(page, 72);
+    expect(seen.some((s) => s.startsWith('Taken'))).toBe(true);
+    const width = await page.evaluate(() => document.documentElement.scrollWidth);
+    expect(width).toBeLessThanOrEqual(820);
+    await screenshot(page, 'waterfall-tablet');
+    await page.context().close();
+  });
+});
