@@ -612,6 +612,30 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/analyses/{id}/pin": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        /**
+         * Pin a capture: retention keeps its spectra and waveform whole
+         * @description Roles: admin, engineer, planner.
+         */
+        put: operations["putAnalysesByIdPin"];
+        post?: never;
+        /**
+         * Unpin a capture (retention treats it like any other again)
+         * @description Roles: admin, engineer, planner.
+         */
+        delete: operations["deleteAnalysesByIdPin"];
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/analyses/{id}/spectrum": {
         parameters: {
             query?: never;
@@ -684,6 +708,26 @@ export interface paths {
          * @description Roles: admin, engineer, planner, operator (every role).
          */
         get: operations["getAnalysesByIdWaveformCsv"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/machines/{id}/attention": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Why a machine is in alert: its open alerts and findings not done, by point and band
+         * @description Roles: admin, engineer, planner, operator (every role).
+         */
+        get: operations["getMachinesByIdAttention"];
         put?: never;
         post?: never;
         delete?: never;
@@ -4847,6 +4891,11 @@ export interface operations {
                         };
                         /** @enum {string} */
                         status: "ok" | "alert" | "danger" | "quality" | "stale" | "none";
+                        isoBoundaries: {
+                            ab: number;
+                            bc: number;
+                            cd: number;
+                        } | null;
                         bearings: {
                             id: number;
                             name: string;
@@ -4944,11 +4993,26 @@ export interface operations {
                                     message: string;
                                     value: number;
                                 }[];
+                                pinned?: {
+                                    by: string;
+                                    at: string;
+                                    note: string;
+                                } | null;
                             } | null;
                             recentVelocity: {
                                 t: string;
                                 v: number;
                             }[];
+                            governing: {
+                                key: string;
+                                name: string;
+                                unit: string;
+                                level: ("alert" | "danger") | null;
+                                values: {
+                                    t: string;
+                                    v: number;
+                                }[];
+                            };
                         }[];
                     };
                 };
@@ -5300,6 +5364,11 @@ export interface operations {
                                 message: string;
                                 value: number;
                             }[];
+                            pinned?: {
+                                by: string;
+                                at: string;
+                                note: string;
+                            } | null;
                         } | null;
                         bands: {
                             key: string;
@@ -5658,6 +5727,11 @@ export interface operations {
                                 message: string;
                                 value: number;
                             }[];
+                            pinned?: {
+                                by: string;
+                                at: string;
+                                note: string;
+                            } | null;
                         } | null;
                     };
                 };
@@ -5803,6 +5877,11 @@ export interface operations {
                                 message: string;
                                 value: number;
                             }[];
+                            pinned?: {
+                                by: string;
+                                at: string;
+                                note: string;
+                            } | null;
                         }[];
                     };
                 };
@@ -5940,6 +6019,8 @@ export interface operations {
                             /** @enum {string} */
                             level: "alert" | "danger";
                             alertId: number;
+                            by: string | null;
+                            note: string | null;
                         }[];
                         findings: {
                             t: string;
@@ -6142,6 +6223,168 @@ export interface operations {
                 };
             };
             /** @description `forbidden`: the role may not do this, or the site is not yours. */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `not_found`. */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
+            503: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Any other error, in the same shape. */
+            default: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    putAnalysesByIdPin: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": {
+                    /** @default  */
+                    note?: string;
+                };
+            };
+        };
+        responses: {
+            /** @description Success. */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        analysisId: number;
+                        by: string;
+                        at: string;
+                        note: string;
+                    };
+                };
+            };
+            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `not_found`. */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
+            503: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Any other error, in the same shape. */
+            default: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    deleteAnalysesByIdPin: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Done; no body. */
+            204: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
             403: {
                 headers: {
                     [name: string]: unknown;
@@ -6483,6 +6726,138 @@ export interface operations {
                 };
                 content: {
                     "text/csv": string;
+                };
+            };
+            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `forbidden`: the role may not do this, or the site is not yours. */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `not_found`. */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
+            503: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Any other error, in the same shape. */
+            default: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getMachinesByIdAttention: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Success. */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        alerts: {
+                            id: number;
+                            /** @enum {string} */
+                            level: "alert" | "danger";
+                            /** @enum {string} */
+                            state: "raised" | "acknowledged" | "cleared";
+                            pointId: number;
+                            pointTag: string;
+                            pointName: string;
+                            machineId: number;
+                            machineName: string;
+                            siteId: number;
+                            siteCode: string;
+                            bandKey: string;
+                            bandName: string;
+                            unit: string;
+                            value: number;
+                            peakValue: number;
+                            limit: number;
+                            suspect: boolean;
+                            firstAt: string;
+                            lastAt: string;
+                            clearedAt: string | null;
+                            acknowledgedBy: string | null;
+                            acknowledgedAt: string | null;
+                            acknowledgeNote: string | null;
+                            updatedAt: string;
+                        }[];
+                        findings: {
+                            id: number;
+                            pointId: number;
+                            pointTag: string;
+                            pointName: string;
+                            machineName: string;
+                            siteId: number;
+                            siteCode: string;
+                            alertId: number | null;
+                            bandKey: string | null;
+                            title: string;
+                            workOrderRef: string | null;
+                            dueDate: string | null;
+                            /** @enum {string} */
+                            state: "open" | "planned" | "done";
+                            /** @enum {string} */
+                            priority: "high" | "medium" | "low";
+                            owner: string | null;
+                            plannedDowntimeHours: number | null;
+                            note: string | null;
+                            createdBy: {
+                                id: number;
+                                name: string;
+                            };
+                            createdAt: string;
+                            updatedAt: string;
+                        }[];
+                    };
                 };
             };
             /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
