@@ -286,6 +286,11 @@ describe('waveform and downloads', () => {
     await q('UPDATE snapshots SET received_at = NOW(3) - INTERVAL 400 DAY WHERE id = ?', [
       snapshotId,
     ]);
+    // Taken 400 days back too: a capture taken now, right after the demo's limits and near
+    // its alert events, is one retention keeps whole (tests/api/retention.test.ts).
+    await q('UPDATE analyses SET taken_at = NOW(3) - INTERVAL 400 DAY WHERE snapshot_id = ?', [
+      snapshotId,
+    ]);
     expect(await expireRawSamples(srv.ctx.db, 365)).toBeGreaterThanOrEqual(1);
     for (const path of ['waveform', 'waveform.wav', 'waveform.csv']) {
       const res = await get(`/analyses/${analysisId}/${path}`);
