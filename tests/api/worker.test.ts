@@ -414,6 +414,12 @@ describe('worker', () => {
       'UPDATE snapshots SET received_at = NOW(3) - INTERVAL 100 DAY WHERE id = ?',
       [id],
     );
+    // Taken 100 days back too: a capture taken just after a limit change or near an alert
+    // event is kept whole by retention (tests/api/retention.test.ts).
+    await srv.ctx.dbHandle.pool.query(
+      'UPDATE analyses SET taken_at = NOW(3) - INTERVAL 100 DAY WHERE snapshot_id = ?',
+      [id],
+    );
     const n = await expireRawSamples(srv.ctx.db, 90);
     expect(n).toBeGreaterThanOrEqual(1);
     const [s] = await q('SELECT samples IS NULL AS gone FROM snapshots WHERE id = ?', [id]);
