@@ -243,7 +243,7 @@ export function QualityNoticesTable({
                     size="sm"
                     variant="ghost"
                     onClick={() => onMarkReviewed(n.pointId, n.pointTag)}
-                    aria-label={`Mark notices of ${n.pointTag} reviewed`}
+                    aria-label={`Mark reviewed: notices of ${n.pointTag}`}
                   >
                     Mark reviewed
                   </Button>
