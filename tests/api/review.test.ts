@@ -278,6 +278,7 @@ describe('weekly review', () => {
         name: 'Pat Planner',
         role: 'planner',
         siteIds: [1, 2],
+        unitSystem: 'metric',
       },
       { weekEnding: WEEK_ENDING, weeksAhead: 4 },
     );

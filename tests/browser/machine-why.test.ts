@@ -106,7 +106,7 @@ describe('machine page: why is it red', () => {
     expect(
       await page.getByRole('main').getByRole('link', { name: 'Setup', exact: true }).count(),
     ).toBe(0);
-    const width = await page.evaluate(() => document.documentElement.scrollWidth);
+    const width = await page.evaluate<number>('document.documentElement.scrollWidth');
     expect(width).toBeLessThanOrEqual(820);
     // The points table fits without scrolling sideways at this width.
     const table = page.getByRole('table').first();

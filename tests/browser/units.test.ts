@@ -33,10 +33,7 @@ describe('unit system', () => {
     const imperial = page.getByRole('radio', { name: 'Imperial (in/s, mil)' });
     await imperial.click();
     await page.waitForFunction(
-      () =>
-        document
-          .querySelector('[role="radio"][aria-checked="true"]')
-          ?.textContent?.includes('Imperial') === true,
+      `document.querySelector('[role="radio"][aria-checked="true"]')?.textContent?.includes('Imperial') === true`,
     );
     await screenshot(page, 'units-account-imperial');
 

@@ -97,7 +97,7 @@ describe('waterfall in a real browser', () => {
     await openWaterfall(page);
     const seen = await sweep(page, 72);
     expect(seen.some((s) => s.startsWith('Taken'))).toBe(true);
-    const width = await page.evaluate(() => document.documentElement.scrollWidth);
+    const width = await page.evaluate<number>('document.documentElement.scrollWidth');
     expect(width).toBeLessThanOrEqual(820);
     await screenshot(page, 'waterfall-tablet');
     await page.context().close();

@@ -15,7 +15,12 @@ import { enqueueMail } from '../mail/outbox-repository.ts';
 import { mailBaseUrl } from '../mail/mail-links.ts';
 import * as repo from './users-repository.ts';
 import { dropSubscriptionsOutside, subscribeToSiteAlerts } from '../account/account-repository.ts';
-import { consumeToken, findUsableToken, issueToken, type TokenPurpose } from './user-tokens-repository.ts';
+import {
+  consumeToken,
+  findUsableToken,
+  issueToken,
+  type TokenPurpose,
+} from './user-tokens-repository.ts';
 import { renderInvite, renderReset } from './user-mail.ts';
 
 const iso = (d: Date | null) => d?.toISOString() ?? null;
