@@ -316,7 +316,7 @@ describe('chart zoom and values by keyboard', () => {
         tab: 'Waterfall',
         img: /^Waterfall of the last/,
         group: 'Zoom the waterfall',
-        slider: { gridLeft: 56, table: /^Largest peaks as a table/ },
+        slider: { gridLeft: 74, table: /^Largest peaks as a table/ },
       },
     ];
     for (const v of views) {
