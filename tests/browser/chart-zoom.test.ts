@@ -109,6 +109,18 @@ async function stated(group: Locator): Promise<Stated> {
 const summaryRange = async (page: Page, title: RegExp) =>
   range((await page.locator('summary').filter({ hasText: title }).textContent()) ?? '');
 
+/** The status line once two reads 300 ms apart agree. */
+async function statedSettled(group: Locator): Promise<Stated> {
+  let last = JSON.stringify(await stated(group));
+  for (let i = 0; i < 20; i++) {
+    await new Promise((r) => setTimeout(r, 300));
+    const now = JSON.stringify(await stated(group));
+    if (now === last) break;
+    last = now;
+  }
+  return stated(group);
+}
+
 /** Waits until the status line differs from `before`, then parses it. */
 async function statedAfter(group: Locator, before: Stated): Promise<Stated> {
   await expect
@@ -354,7 +366,10 @@ describe('chart zoom and values by keyboard', () => {
         await page.mouse.down();
         await page.mouse.move(x + 150, y, { steps: 8 });
         await page.mouse.up();
-        const slid = await statedAfter(group, whole);
+        await statedAfter(group, whole);
+        // The line follows the drag's last moves a moment after the button is up: read it once
+        // it has stopped changing.
+        const slid = await statedSettled(group);
         expect(slid.start).toBeGreaterThan(5);
         expect(slid.end).toBe(100);
         await expect.poll(() => summaryRange(page, v.slider.table)).toEqual([slid.from, slid.to]);
