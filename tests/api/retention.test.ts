@@ -215,6 +215,16 @@ describe('tiered thinning', () => {
   let pointId: number;
   const id = (l: Label) => ids.get(T[l])!;
   let before: Map<number, { v: number; bands: number }>;
+  /** 1 when the capture still holds its raw waveform, else 0. */
+  const hasSamples = async (l: Label) =>
+    Number(
+      (
+        await q(
+          'SELECT s.samples IS NOT NULL AS has FROM snapshots s JOIN analyses a ON a.snapshot_id = s.id WHERE a.id = ?',
+          [id(l)],
+        )
+      )[0]!.has,
+    );
 
   beforeAll(async () => {
     pointId = await pointIdOf(TAG);
@@ -301,17 +311,8 @@ describe('tiered thinning', () => {
   });
 
   it('drops the raw waveform of thinned captures and keeps that of whole ones', async () => {
-    const samples = async (l: Label) =>
-      Number(
-        (
-          await q(
-            'SELECT s.samples IS NOT NULL AS has FROM snapshots s JOIN analyses a ON a.snapshot_id = s.id WHERE a.id = ?',
-            [id(l)],
-          )
-        )[0]!.has,
-      );
-    for (const l of thin) expect([l, await samples(l)]).toEqual([l, 0]);
-    for (const l of keep) expect([l, await samples(l)]).toEqual([l, 1]);
+    for (const l of thin) expect([l, await hasSamples(l)]).toEqual([l, 0]);
+    for (const l of keep) expect([l, await hasSamples(l)]).toEqual([l, 1]);
     const res = await srv.call('GET', `/api/v1/analyses/${id('h3')}/waveform`, { cookie });
     expect(res.status).toBeGreaterThanOrEqual(400);
   });
@@ -323,19 +324,10 @@ describe('tiered thinning', () => {
       [pointId],
     );
     await expireRawSamplesPass(srv.ctx.db, 20, NOW, { batchSize: 4, keepWindowMinutes: 60 });
-    const has = async (l: Label) =>
-      Number(
-        (
-          await q(
-            'SELECT s.samples IS NOT NULL AS has FROM snapshots s JOIN analyses a ON a.snapshot_id = s.id WHERE a.id = ?',
-            [id(l)],
-          )
-        )[0]!.has,
-      );
     const spared: Label[] = ['w1', 'w2', 'f2', 'up', 'al', 'qn', 'l2', 'pn'];
     const expired: Label[] = ['h1', 'h4', 'f0', 'b1', 'b2', 'd1', 'e1', 'l1', 'p1'];
-    for (const l of spared) expect([l, await has(l)]).toEqual([l, 1]);
-    for (const l of expired) expect([l, await has(l)]).toEqual([l, 0]);
+    for (const l of spared) expect([l, await hasSamples(l)]).toEqual([l, 1]);
+    for (const l of expired) expect([l, await hasSamples(l)]).toEqual([l, 0]);
   });
 
   it('lists who pinned a capture; unpinning is audited and a second unpin is 404', async () => {
