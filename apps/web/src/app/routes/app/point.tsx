@@ -18,6 +18,7 @@ import { WaterfallPanel } from '../../../features/points/components/waterfall-pa
 import { WaveformPanel } from '../../../features/points/components/waveform-panel.tsx';
 import { VectorPanel, hasVectors } from '../../../features/points/components/vector-panel.tsx';
 import { CaptureQuality } from '../../../features/points/components/capture-quality.tsx';
+import { PointQualityNotices } from '../../../features/points/components/quality-notices.tsx';
 import { useMe } from '../../../features/auth/api/get-me.ts';
 import { TrendPanel } from '../../../features/trends/components/trend-panel.tsx';
 import { useUnits } from '../../../features/account/api/use-units.ts';
@@ -179,6 +180,11 @@ export function PointRoute() {
         }
       />
       <LatestValues point={p} analyses={list} />
+      <PointQualityNotices
+        pointId={p.id}
+        pointTag={p.tag}
+        canReview={me.data?.role === 'planner' || me.data?.role === 'engineer'}
+      />
       <TabList
         group="point"
         label="Analysis views"
