@@ -23,7 +23,7 @@ export const MM_PER_INCH = 25.4;
 /** Standard acceleration of gravity in m/s² (3rd CGPM 1901; ISO 80000-3). */
 export const STANDARD_GRAVITY = 9.80665;
 
-export const unitSystemSchema = z.enum(['metric', 'imperial']);
+export const unitSystemSchema = /* @__PURE__ */ z.enum(['metric', 'imperial']);
 /** `metric`: mm/s, µm, g. `imperial`: in/s, mil, g. */
 export type UnitSystem = z.infer<typeof unitSystemSchema>;
 
