@@ -11,11 +11,6 @@ import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
 import { Segmented } from '../../../components/ui/segmented.tsx';
 
-/** Captures with a tach carry their 1× and 2× vectors. */
-export function hasVectors(analyses: readonly AnalysisSummary[]): boolean {
-  return analyses.some((a) => (a.shaftVectors?.length ?? 0) > 0);
-}
-
 /**
  * The 1× (or 2×) vector of every capture with a tach: amplitude and phase over time and as a
  * polar plot — a developing unbalance grows in amplitude at a steady phase; a change in phase
