@@ -89,7 +89,7 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
           ...cookieOptions(ctx, req),
           maxAge: 180 * 24 * 3600 * 1000,
         });
-        res.json({ user: service.toMe(user) });
+        res.json({ user: await service.toMe(ctx.db, user) });
       },
     },
     {
@@ -114,7 +114,7 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
       handler: async (req: Request, res: Response) => {
         await authenticate(req);
         res.setHeader('Cache-Control', 'no-store');
-        res.json({ user: req.user ? service.toMe(req.user) : null });
+        res.json({ user: req.user ? await service.toMe(ctx.db, req.user) : null });
       },
     },
     {
@@ -123,9 +123,9 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
       access: ALL_ROLES,
       summary: 'who am I',
       schemas: { response: meSchema },
-      handler: (req: Request, res: Response) => {
+      handler: async (req: Request, res: Response) => {
         res.setHeader('Cache-Control', 'no-store');
-        res.json(service.toMe(requireUser(req)));
+        res.json(await service.toMe(ctx.db, requireUser(req)));
       },
     },
   ];
