@@ -30,3 +30,14 @@ export function trendInUnits(d: TrendResponse, units: Units): TrendResponse {
     uploads: d.uploads.map((u) => ({ ...u, v: v(u.v) })),
   };
 }
+
+const converted = new WeakMap<TrendResponse, Map<string, TrendResponse>>();
+
+/** {@link trendInUnits}, the same object for the same answer and unit system. */
+export function inUnits(d: TrendResponse, units: Units): TrendResponse {
+  let bySystem = converted.get(d);
+  if (!bySystem) converted.set(d, (bySystem = new Map()));
+  let out = bySystem.get(units.system);
+  if (!out) bySystem.set(units.system, (out = trendInUnits(d, units)));
+  return out;
+}
