@@ -59,6 +59,9 @@ export const stripStyle: Record<
 /** Series ids the tooltip and the hover box know. */
 export const EVENT_STRIP_ID = 'event-strip';
 export const UPLOADS_ID = 'uploads';
+/** The plot's top edge when events are drawn, px; the strip's symbols are centred at STRIP_Y. */
+export const STRIP_TOP = 44;
+export const STRIP_Y = 26;
 /** Width one extra right-hand y axis takes, px. */
 const AXIS_WIDTH = 58;
 
@@ -89,6 +92,11 @@ export function withTrendSeries(
     // scale to their data
     max: i === 0 ? baseY.max : undefined,
     splitLine: i === 0 ? baseY.splitLine : { show: false },
+    // a right-hand axis' unit sits right of its line, clear of the "Today" label above it
+    nameTextStyle:
+      i === 0
+        ? baseY.nameTextStyle
+        : { ...(baseY.nameTextStyle as object), align: 'left', padding: [0, 0, 0, 20] },
     alignTicks: false,
   }));
   // the event strip's own axis: 0..1, hidden, the strip at its top
@@ -154,8 +162,8 @@ export function withTrendSeries(
         };
       }),
       symbolSize: 11,
-      // drawn over the plot's top edge, clear of the values
-      symbolOffset: [0, -7],
+      // drawn above the plot's top edge (STRIP_Y), clear of the values and the "Today" label
+      symbolOffset: [0, STRIP_Y - STRIP_TOP],
       clip: false,
       tooltip: { show: false },
       emphasis: { scale: 1.6 },
@@ -165,7 +173,11 @@ export function withTrendSeries(
   const grid = base.grid as Record<string, number>;
   return {
     ...base,
-    grid: { ...grid, top: Math.max(grid.top ?? 20, 30), right: 24 + right * AXIS_WIDTH },
+    grid: {
+      ...grid,
+      top: o.strip.length > 0 ? STRIP_TOP : grid.top,
+      right: 24 + right * AXIS_WIDTH,
+    },
     yAxis: yAxis as ChartOption['yAxis'],
     series,
     tooltip: {
