@@ -1,4 +1,5 @@
 import { defineConfig } from 'vitest/config';
+import type { Plugin } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 import { fileURLToPath } from 'node:url';
@@ -6,11 +7,69 @@ import { fileURLToPath } from 'node:url';
 const here = fileURLToPath(new URL('.', import.meta.url));
 const apiTarget = `http://127.0.0.1:${process.env.PORT ?? '8080'}`;
 
+/**
+ * Libraries in chunks of their own, named after them: a release that changes only the app's
+ * code leaves their files (and the browser's cached copies) as they were, and each screen
+ * loads only the ones it uses (charts, tables, forms and zod are not part of the shell).
+ */
+const lib = (names: string) => new RegExp(`[\\\\/]node_modules[\\\\/](${names})[\\\\/]`);
+const vendorChunks = [
+  { name: 'react', test: lib('react|react-dom|scheduler') },
+  { name: 'router', test: lib('react-router|react-router-dom|cookie|set-cookie-parser') },
+  { name: 'query', test: lib('@tanstack[\\\\/](?:query-core|react-query)') },
+  { name: 'zod', test: lib('zod') },
+  { name: 'virtual', test: lib('@tanstack[\\\\/](?:virtual-core|react-virtual)') },
+  { name: 'table', test: lib('@tanstack[\\\\/](?:table-core|react-table)') },
+  { name: 'forms', test: lib('react-hook-form|@hookform') },
+  { name: 'echarts', test: lib('echarts|zrender|tslib') },
+];
+
+/**
+ * index.html asks for the signed-in layout's code beside the main script: every screen but
+ * sign-in needs it, and the router would only ask for it once the main script has run.
+ */
+function preloadSignedInLayout(): Plugin {
+  return {
+    name: 'turnstone-preload-layout',
+    apply: 'build',
+    transformIndexHtml: {
+      order: 'post',
+      handler(_html, ctx) {
+        const chunks = Object.values(ctx.bundle ?? {}).filter((c) => c.type === 'chunk');
+        const layout = chunks.find((c) =>
+          c.facadeModuleId?.endsWith('/src/app/routes/app/root.tsx'),
+        );
+        if (!layout || !ctx.chunk) return;
+        const loaded = new Set([ctx.chunk.fileName, ...ctx.chunk.imports]);
+        const files: string[] = [];
+        const add = (fileName: string) => {
+          if (loaded.has(fileName)) return;
+          loaded.add(fileName);
+          files.push(fileName);
+          const chunk = chunks.find((c) => c.fileName === fileName);
+          chunk?.imports.forEach(add);
+        };
+        add(layout.fileName);
+        return files.map((f) => ({
+          tag: 'link',
+          attrs: { rel: 'modulepreload', crossorigin: true, href: `/${f}` },
+          injectTo: 'head' as const,
+        }));
+      },
+    },
+  };
+}
+
 // One config: the web app build (root apps/web, output apps/web/dist) and the test projects.
 export default defineConfig({
   root: 'apps/web',
-  plugins: [react(), tailwindcss()],
-  build: { outDir: 'dist', emptyOutDir: true, chunkSizeWarningLimit: 1200 },
+  plugins: [react(), tailwindcss(), preloadSignedInLayout()],
+  build: {
+    outDir: 'dist',
+    emptyOutDir: true,
+    chunkSizeWarningLimit: 1200,
+    rolldownOptions: { output: { codeSplitting: { groups: vendorChunks } } },
+  },
   // The browser's Host goes through to the API (changeOrigin off), so its same-origin and
   // host checks accept sign-in through the proxy (npm run dev: apps/server/src/dev-vite.ts).
   server: {

@@ -62,8 +62,13 @@ describe('unit system preference', () => {
     // two captures at 3.5 mm/s raise the overall velocity alert.
     await captureVelocities(srv, await gatewayKey(srv, 1), TAG, [1.5, 3.5, 3.5]);
     await srv.mail.sender.drain();
-    const mails = await srv.q<{ mail_to: string; text_body: string; subject: string }>(
-      `SELECT mail_to, text_body, subject FROM mail_messages
+    const mails = await srv.q<{
+      mail_to: string;
+      text_body: string;
+      html_body: string;
+      subject: string;
+    }>(
+      `SELECT mail_to, text_body, html_body, subject FROM mail_messages
         WHERE subject LIKE '%Alert raised%' AND subject LIKE '%Overall%' ORDER BY id`,
     );
     const engineer = mails.find((m) => m.mail_to === 'engineer@turnstone.local')!;
@@ -79,6 +84,23 @@ describe('unit system preference', () => {
     );
     expect(engineer.text_body).not.toContain('mm/s');
     expect(engineer.subject).toContain('in/s');
+    // The HTML part too: the band picture's alt text and the picture itself (an SVG data URL).
+    const html = String(engineer.html_body);
+    expect(html).toMatch(
+      /alt="Trend of [^"]*latest 0\.1[2-4]\d in\/s against the alert level 0\.110 in\/s"/,
+    );
+    // The sent message carries the picture as an attachment (cid:); the outbox keeps the
+    // rendered HTML with the SVG inline.
+    const [queued] = await srv.q<{ html_body: string }>(
+      `SELECT html_body FROM outbox WHERE to_address = ? AND subject = ?`,
+      [engineer.mail_to, engineer.subject],
+    );
+    const svg = /data:image\/svg\+xml;base64,([A-Za-z0-9+/=]+)/.exec(String(queued!.html_body));
+    expect(svg).not.toBeNull();
+    const picture = Buffer.from(svg![1]!, 'base64').toString('utf8');
+    expect(picture).toContain('in/s');
+    for (const part of [html, picture]) expect(part).not.toContain('mm/s');
+    expect(String(operator.html_body)).toMatch(/alt="Trend of [^"]*2\.80 mm\/s"/);
     expect(operator.text_body).toMatch(
       /Value:\s+3\.[3-7]\d mm\/s against the alert level 2\.80 mm\/s/,
     );
@@ -126,5 +148,34 @@ describe('unit system preference', () => {
     // The limit 2.8 mm/s ÷ 25.4 = 0.1102362… in/s (by hand).
     expect(Number(row!.limit)).toBeCloseTo(2.8 / 25.4, 5);
     for (const name of Object.keys(files)) expect(strFromU8(files[name]!)).not.toContain('mm/s');
+  });
+
+  it('when an imperial engineer reads the audit log, a changed level is written in in/s and the metric admin reads mm/s', async () => {
+    const engineer = await srv.signIn('engineer'); // imperial since the first test
+    const [p] = await srv.q<{ id: number }>('SELECT id FROM points WHERE tag = ?', [TAG]);
+    const url = `/api/v1/points/${p!.id}/limits`;
+    const set = await (await srv.call('GET', url, { cookie: engineer })).json();
+    const bands = set.bands.map((b: { key: string; alertLevel: number }) =>
+      b.key === 'overall-velocity' ? { ...b, alertLevel: 3.1 } : b,
+    );
+    const put = await srv.call('PUT', url, {
+      cookie: engineer,
+      body: { bands, reason: "Audit in the reader's units" },
+    });
+    expect(put.status).toBe(200);
+    const change = async (cookie: string) => {
+      const page = await (await srv.call('GET', '/api/v1/audit?entity=point', { cookie })).json();
+      const entry = page.items.find((e: { changes: { field: string }[] }) =>
+        e.changes.some((c) => c.field.endsWith('· alert level')),
+      );
+      return entry.changes.find((c: { field: string }) => c.field.endsWith('· alert level'));
+    };
+    // 2.8 / 25.4 = 0.110236… → 0.1102 and 3.1 / 25.4 = 0.122047… → 0.1220 in/s, four
+    // significant digits (by hand).
+    expect(await change(engineer)).toMatchObject({ before: '0.1102 in/s', after: '0.1220 in/s' });
+    expect(await change(await srv.signIn('admin'))).toMatchObject({
+      before: '2.8 mm/s',
+      after: '3.1 mm/s',
+    });
   });
 });

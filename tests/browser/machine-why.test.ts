@@ -89,8 +89,8 @@ describe('machine page: why is it red', () => {
       await page.getByRole('main').getByRole('link', { name: 'Setup', exact: true }).count(),
     ).toBe(1);
     // The zone with its range for group 2 rigid (ISO 20816-3 group 2 table, from memory):
-    // 5.3 mm/s is zone D, at or above 4.5 mm/s.
-    await page.getByText('≥ 4.5 mm/s').first().waitFor();
+    // 5.3 mm/s is zone D, at or above 4.5 mm/s (written by the one number rule: 4.50).
+    await page.getByText('≥ 4.50 mm/s').first().waitFor();
     // One safety caution on the page (the app's note), not a second one in the page body.
     expect(await page.getByText(/not a machine-protection system/).count()).toBe(1);
     await screenshot(page, 'machine-why');

@@ -1,6 +1,7 @@
 /**
  * The planner's main job in a real browser: open the weekly review, pick the week, turn a
- * forecast row into a finding, see it listed and move it to planned, export the CSV, print.
+ * forecast row into a finding, see it listed and move it to planned, change its priority, owner
+ * and planned downtime, export the CSV, print.
  * Data: two weeks of daily captures on MFP-P102-MDE-H whose 1× velocity rises 1.00 → 1.65
  * mm/s RMS (see tests/api/review.test.ts for the numbers), and two captures over the alert
  * level on MFP-P101-MDE-H, ingested through the gateway API and analysed by the real worker.
@@ -139,6 +140,47 @@ describe('weekly review in a real browser', () => {
     )) as unknown as [{ action: string }[]];
     expect(audit.map((a) => a.action)).toEqual(['finding.create', 'finding.planned']);
     await tallShot(page, 'review-finding-planned');
+
+    // Priority, owner and planned downtime change after creation, in the same form; bad
+    // downtime is refused beside the field and nothing is sent.
+    await row.getByRole('button', { name: 'Edit: Check P-102 motor DE' }).click();
+    const edit = page.getByRole('dialog', { name: 'Edit finding' });
+    await edit.waitFor();
+    expect(await edit.getByLabel('Work-order reference').inputValue()).toBe('WO-2026-1187');
+    await edit.getByLabel('Priority').selectOption('medium');
+    await edit.getByLabel('Owner').fill('Mechanical crew B');
+    await edit.getByLabel('Planned downtime (h)').fill('4 h');
+    await edit.getByRole('button', { name: 'Save changes' }).click();
+    await edit.getByText('Give the downtime in hours, like 4 or 1.5').waitFor();
+    await screenshot(page, 'review-edit-finding-error');
+    // A planned finding keeps its work order: the server's refusal lands beside the field.
+    await edit.getByLabel('Planned downtime (h)').fill('6,5');
+    await edit.getByLabel('Work-order reference').fill('');
+    await edit.getByRole('button', { name: 'Save changes' }).click();
+    await edit.getByText('Give the work-order reference to mark it planned').waitFor();
+    await edit.getByLabel('Work-order reference').fill('WO-2026-1187');
+    const edited = page.waitForResponse(
+      (r) => r.url().includes('/api/v1/findings/') && r.request().method() === 'PATCH',
+    );
+    await edit.getByRole('button', { name: 'Save changes' }).click();
+    expect((await edited).status()).toBe(200);
+    await edit.waitFor({ state: 'hidden' });
+    await row.getByText('Mechanical crew B').waitFor();
+    await row.getByText('6.50 h').waitFor();
+    await row.getByText('Medium', { exact: true }).waitFor();
+    const [entries] = (await srv.ctx.dbHandle.pool.query(
+      "SELECT action, `before`, `after` FROM audit_log WHERE entity = 'finding' ORDER BY id",
+    )) as unknown as [{ action: string; before: unknown; after: unknown }[]];
+    const last = entries.at(-1)!;
+    const json = (v: unknown) => (typeof v === 'string' ? JSON.parse(v) : v);
+    expect(last.action).toBe('finding.update');
+    expect(json(last.before)).toMatchObject({ priority: 'high', owner: 'Mechanical crew A' });
+    expect(json(last.after)).toMatchObject({
+      priority: 'medium',
+      owner: 'Mechanical crew B',
+      plannedDowntimeHours: 6.5,
+    });
+    await tallShot(page, 'review-finding-edited');
 
     // Filters: state and ISO due week (2026-11-20 is in 2026-W47, ISO 8601).
     await findings.getByLabel('State').selectOption('planned');

@@ -52,3 +52,37 @@ describe('sign-in in a real browser', () => {
     await page.context().close();
   });
 });
+
+describe('how the app is sent', () => {
+  it('sends its scripts compressed, cached for good under hashed names; a missing one is a 404', async () => {
+    const page = await newPage(browser);
+    const scripts: { url: string; cache: string; encoding: string }[] = [];
+    page.on('response', async (r) => {
+      if (r.request().resourceType() !== 'script') return;
+      const h = await r.allHeaders();
+      scripts.push({
+        url: r.url(),
+        cache: h['cache-control'] ?? '',
+        encoding: h['content-encoding'] ?? '',
+      });
+    });
+    await page.goto(srv.url + '/sign-in');
+    await page.getByRole('button', { name: /sign in/i }).waitFor();
+    expect(scripts.length).toBeGreaterThan(0);
+    for (const s of scripts) {
+      // Vite names every built file by its content hash (common practice, no source).
+      expect(s.url).toMatch(/\/assets\/[\w.-]+-[\w-]{8}\.js$/);
+      expect(s.cache).toContain('immutable');
+      expect(s.cache).toContain('max-age=31536000');
+    }
+    // Small files stay uncompressed (the compression middleware's 1 kB threshold); the
+    // larger ones go compressed (Chromium accepts brotli, which the middleware prefers).
+    const big = scripts.filter((s) => /\/(react|router)-/.test(s.url));
+    expect(big.length).toBe(2);
+    for (const s of big) expect(['br', 'gzip']).toContain(s.encoding);
+    const missing = await fetch(`${srv.url}/assets/no-such-file-00000000.js`);
+    expect(missing.status).toBe(404);
+    expect(missing.headers.get('content-type')).toContain('application/json');
+    await page.context().close();
+  });
+});

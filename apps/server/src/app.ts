@@ -195,6 +195,16 @@ export function createApp(ctx: AppContext) {
   app.use('/api', apiNotFound);
 
   if (existsSync(join(webDist, 'index.html'))) {
+    // Built assets carry a content hash in their name: a changed file gets a new name, so
+    // browsers keep them for a year without asking again. A missing one is a 404 (not the
+    // page), so a stale tab's script import fails plainly instead of parsing HTML.
+    app.use(
+      '/assets',
+      express.static(join(webDist, 'assets'), { index: false, immutable: true, maxAge: '365d' }),
+      (_req: Request, res: Response) => {
+        res.status(404).json({ error: { code: 'not_found', message: 'No such asset.' } });
+      },
+    );
     app.use(express.static(webDist, { index: false, maxAge: '1h' }));
     app.get(/.*/, (_req, res) => {
       res.setHeader('Cache-Control', 'no-cache');

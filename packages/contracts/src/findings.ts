@@ -74,15 +74,45 @@ export const createFindingSchema = z.object({
 });
 export type CreateFindingInput = z.input<typeof createFindingSchema>;
 
-/** The fields a person types into the "Create finding" form. */
-export const findingFormSchema = createFindingSchema.pick({
-  title: true,
-  workOrderRef: true,
-  dueDate: true,
-  note: true,
-  priority: true,
-  owner: true,
-});
+/**
+ * Planned downtime as a person types it: hours, a decimal point or comma (`1.5`, `1,5`);
+ * empty means "none" (null). Anything else is refused with the reason, never read as 0.
+ */
+export const downtimeTextSchema = z
+  .string()
+  .trim()
+  .transform((text, ctx) => {
+    if (text === '') return null;
+    const hours = /^[+-]?(\d+([.,]\d*)?|[.,]\d+)$/.test(text)
+      ? Number(text.replace(',', '.'))
+      : Number.NaN;
+    if (Number.isNaN(hours)) {
+      ctx.addIssue({ code: 'custom', message: 'Give the downtime in hours, like 4 or 1.5' });
+      return z.NEVER;
+    }
+    const checked = downtimeSchema.safeParse(hours);
+    if (!checked.success) {
+      for (const issue of checked.error.issues)
+        ctx.addIssue({ code: 'custom', message: issue.message });
+      return z.NEVER;
+    }
+    return checked.data;
+  });
+
+/**
+ * The fields a person types into the finding form, on creating a finding and on editing one
+ * (the edit sends them all as a `PATCH`; the server writes and audits what changed).
+ */
+export const findingFormSchema = createFindingSchema
+  .pick({
+    title: true,
+    workOrderRef: true,
+    dueDate: true,
+    note: true,
+    priority: true,
+    owner: true,
+  })
+  .extend({ plannedDowntimeHours: downtimeTextSchema });
 export type FindingFormInput = z.input<typeof findingFormSchema>;
 export type FindingFormOutput = z.output<typeof findingFormSchema>;
 

@@ -23,7 +23,7 @@ export const MM_PER_INCH = 25.4;
 /** Standard acceleration of gravity in m/s² (3rd CGPM 1901; ISO 80000-3). */
 export const STANDARD_GRAVITY = 9.80665;
 
-export const unitSystemSchema = z.enum(['metric', 'imperial']);
+export const unitSystemSchema = /* @__PURE__ */ z.enum(['metric', 'imperial']);
 /** `metric`: mm/s, µm, g. `imperial`: in/s, mil, g. */
 export type UnitSystem = z.infer<typeof unitSystemSchema>;
 
@@ -61,6 +61,44 @@ export function toDisplay(value: number, unit: string, system: UnitSystem): numb
 export function fromDisplay(value: number, unit: string, system: UnitSystem): number {
   const k = system === 'imperial' ? IMPERIAL[unit] : undefined;
   return k ? clean(value * k.storedPerUnit, 14) : value;
+}
+
+/**
+ * Significant digits of a converted level shown for editing (the limits inputs) and in the
+ * audit log: 4.5 mm/s reads 0.1772 in/s, not 0.177165354330709 (common practice, no source).
+ */
+export const LEVEL_DIGITS = 4;
+
+/**
+ * A stored level as an input field shows it: as stored when the unit does not convert
+ * (metric, or g), converted and rounded to {@link LEVEL_DIGITS} otherwise.
+ */
+export function levelForInput(value: number, unit: string, system: UnitSystem): number {
+  const shown = toDisplay(value, unit, system);
+  return shown === value || !Number.isFinite(shown) || shown === 0
+    ? shown
+    : Number(shown.toPrecision(LEVEL_DIGITS));
+}
+
+/**
+ * A level read back from an input field, in the stored unit. `stored` is the level the field
+ * was filled from: while the field still shows it (untouched, or typed back to the same
+ * text), that stored value comes back exactly, so a save of an untouched imperial field does
+ * not move the level by the display rounding; a value typed anew is converted.
+ */
+export function levelFromInput(
+  typed: number,
+  unit: string,
+  system: UnitSystem,
+  stored?: number,
+): number {
+  if (
+    stored !== undefined &&
+    Number.isFinite(stored) &&
+    levelForInput(stored, unit, system) === typed
+  )
+    return stored;
+  return fromDisplay(typed, unit, system);
 }
 
 /** How a unit is written for people (µm, not um). */

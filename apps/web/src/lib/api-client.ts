@@ -1,4 +1,4 @@
-import { errorBodySchema } from '@turnstone/contracts/errors';
+import type { ErrorBody } from '@turnstone/contracts/errors';
 import type { z } from 'zod';
 
 /** An error from the API (or from reaching it), carrying the server's code and message. */
@@ -36,8 +36,11 @@ export function setUnauthenticatedHandler(handler: UnauthenticatedHandler): () =
 }
 
 interface RequestOptions<S extends z.ZodType> {
-  /** Response schema; the body is parsed with it, so screens only see checked data. */
-  schema?: S;
+  /**
+   * Response schema; the body is parsed with it, so screens only see checked data. A promise
+   * of one (a schema module being imported) lets the request start before zod has loaded.
+   */
+  schema?: S | Promise<S>;
   body?: unknown;
   signal?: AbortSignal;
   /**
@@ -65,11 +68,28 @@ async function readJson(response: Response): Promise<unknown> {
   }
 }
 
+/**
+ * The error body's schema loads with the first error, not with the app: the shell carries
+ * no zod. When even that cannot load, the error is told by its status alone.
+ */
+async function parseErrorBody(
+  body: unknown,
+): Promise<{ success: true; data: ErrorBody } | { success: false }> {
+  try {
+    const { errorBodySchema } = await import('@turnstone/contracts/errors');
+    return errorBodySchema.safeParse(body);
+  } catch {
+    return { success: false };
+  }
+}
+
 async function request<S extends z.ZodType>(
   method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE',
   url: string,
   options: RequestOptions<S> = {},
 ): Promise<z.output<S>> {
+  // A schema still loading is awaited after the answer; a failure there is reported then.
+  if (options.schema instanceof Promise) options.schema.catch(() => undefined);
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (options.body !== undefined) headers['Content-Type'] = 'application/json';
 
@@ -92,7 +112,7 @@ async function request<S extends z.ZodType>(
   }
 
   if (!response.ok) {
-    const parsed = errorBodySchema.safeParse(await readJson(response));
+    const parsed = await parseErrorBody(await readJson(response));
     const error = parsed.success
       ? new ApiError(
           response.status,
@@ -114,7 +134,7 @@ async function request<S extends z.ZodType>(
 
   const json = response.status === 204 ? undefined : await readJson(response);
   if (!options.schema) return json as z.output<S>;
-  const result = options.schema.safeParse(json);
+  const result = (await options.schema).safeParse(json);
   if (!result.success) {
     console.error(`Unexpected response from ${method} ${url}`, result.error.issues);
     throw new ApiError(

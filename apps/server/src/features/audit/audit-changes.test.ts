@@ -41,4 +41,31 @@ describe('auditChanges', () => {
     ).toEqual([{ field: 'Displacement · alert level', before: '50 µm', after: '65 µm' }]);
     expect(auditChanges(null, null)).toEqual([]);
   });
+
+  it('writes levels in imperial for an imperial reader: mm/s as in/s and µm as mil, four digits', () => {
+    // 1 in = 25.4 mm (NIST SP 811 appendix B): 2.8 / 25.4 = 0.110236… and 3.1 / 25.4 =
+    // 0.122047… in/s; 50 / 25.4 = 1.968503… mil (by hand).
+    expect(auditChanges([band(2.8)], [band(3.1)], 'imperial')).toEqual([
+      {
+        field: 'Overall velocity 10–1000 Hz · alert level',
+        before: '0.1102 in/s',
+        after: '0.1220 in/s',
+      },
+    ]);
+    expect(
+      auditChanges(
+        [{ key: 'd', name: 'Displacement', unit: 'um', alertLevel: 50 }],
+        [{ key: 'd', name: 'Displacement', unit: 'um', alertLevel: 65 }],
+        'imperial',
+      ),
+    ).toEqual([{ field: 'Displacement · alert level', before: '1.969 mil', after: '2.559 mil' }]);
+    // g has no imperial counterpart: written as stored.
+    expect(
+      auditChanges(
+        [{ key: 'a', name: 'Accel', unit: 'g', alertLevel: 1.5 }],
+        [{ key: 'a', name: 'Accel', unit: 'g', alertLevel: 2 }],
+        'imperial',
+      ),
+    ).toEqual([{ field: 'Accel · alert level', before: '1.5 g', after: '2 g' }]);
+  });
 });

@@ -2,7 +2,18 @@
  * An audit entry's change in plain lines: which field went from which value to which. A
  * limit set's bands are compared band by band (matched by key), so a changed alert level
  * reads "Overall velocity · alert level: 2.8 → 3.1 mm/s" instead of two JSON documents.
+ * Levels are written in the reader's unit system: exactly as stored in metric, and converted
+ * to four significant digits in imperial ("0.1102 → 0.1220 in/s").
  */
+import { formatNumber } from '@turnstone/contracts/number-format';
+import {
+  displayUnit,
+  LEVEL_DIGITS,
+  toDisplay,
+  unitText,
+  type UnitSystem,
+} from '@turnstone/contracts/units';
+
 export interface AuditChange {
   /** What changed, e.g. "Overall velocity · alert level" or "name". */
   field: string;
@@ -30,9 +41,15 @@ const BAND_FIELDS: Record<string, string> = {
   statistical: 'statistical rule',
 };
 
-function text(v: unknown, unit?: string): string | null {
+function text(v: unknown, unit?: string, system: UnitSystem = 'metric'): string | null {
   if (v === null || v === undefined) return null;
-  if (typeof v === 'number') return unit ? `${v} ${unit === 'um' ? 'µm' : unit}` : String(v);
+  if (typeof v === 'number') {
+    if (!unit) return String(v);
+    const shown = displayUnit(unit, system);
+    return shown === unit
+      ? `${v} ${unitText(unit)}`
+      : `${formatNumber(toDisplay(v, unit, system), LEVEL_DIGITS)} ${unitText(shown)}`;
+  }
   if (typeof v === 'string') return v;
   return JSON.stringify(v);
 }
@@ -43,7 +60,7 @@ function isBandList(v: unknown): v is Obj[] {
   return Array.isArray(v) && v.every((b) => isObj(b) && typeof b.key === 'string');
 }
 
-function bandChanges(before: Obj[], after: Obj[]): AuditChange[] {
+function bandChanges(before: Obj[], after: Obj[], system: UnitSystem): AuditChange[] {
   const out: AuditChange[] = [];
   const old = new Map(before.map((b) => [String(b.key), b]));
   const now = new Map(after.map((b) => [String(b.key), b]));
@@ -60,8 +77,8 @@ function bandChanges(before: Obj[], after: Obj[]): AuditChange[] {
       const levelField = f === 'alertLevel' || f === 'dangerLevel';
       out.push({
         field: `${name} · ${BAND_FIELDS[f] ?? f}`,
-        before: text(a[f], levelField ? unit : undefined),
-        after: text(b[f], levelField ? unit : undefined),
+        before: text(a[f], levelField ? unit : undefined, system),
+        after: text(b[f], levelField ? unit : undefined, system),
       });
     }
   }
@@ -70,10 +87,17 @@ function bandChanges(before: Obj[], after: Obj[]): AuditChange[] {
   return out;
 }
 
-/** The entry's changes; empty when there is nothing to compare (a creation lists its fields). */
-export function auditChanges(before: unknown, after: unknown): AuditChange[] {
+/**
+ * The entry's changes, levels in `system`; empty when there is nothing to compare (a creation
+ * lists its fields).
+ */
+export function auditChanges(
+  before: unknown,
+  after: unknown,
+  system: UnitSystem = 'metric',
+): AuditChange[] {
   if (isBandList(after) && (before === null || before === undefined || isBandList(before)))
-    return bandChanges(before ?? [], after);
+    return bandChanges(before ?? [], after, system);
   if (isObj(before) || isObj(after)) {
     const a = isObj(before) ? before : {};
     const b = isObj(after) ? after : {};

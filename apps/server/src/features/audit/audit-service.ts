@@ -8,7 +8,8 @@ import { auditChanges } from './audit-changes.ts';
  * The audit log, newest first, with the actor's name. Keyset pagination on the id (ids
  * grow with time), so a page stays correct while new rows arrive. An admin sees every
  * entry; anyone else the entries of their sites and the machine-type templates (which
- * belong to no site), not user administration.
+ * belong to no site), not user administration. Levels in the changes are in the reader's
+ * unit system.
  */
 export async function listAudit(db: Db, user: SessionUser, q: AuditQuery): Promise<AuditPage> {
   const rows = await auditRows(db, user, q);
@@ -20,7 +21,7 @@ export async function listAudit(db: Db, user: SessionUser, q: AuditQuery): Promi
       at: r.at.toISOString(),
       actorName: r.actorName ?? null,
       entityLabel: labels.get(`${r.entity}:${r.entityId}`) ?? null,
-      changes: auditChanges(r.before, r.after),
+      changes: auditChanges(r.before, r.after, user.unitSystem),
     })),
     nextCursor: rows.length > q.limit ? String(page[page.length - 1]!.id) : null,
   };

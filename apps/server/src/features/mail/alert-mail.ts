@@ -156,7 +156,7 @@ export function renderAlertMail(
     [
       `<p>${esc(what)} on ${esc(f.machineName)}, ${esc(f.siteName)}.</p>`,
       htmlFacts(facts),
-      ...(extras.pictureSvg ? [pictureHtml(f, extras.pictureSvg)] : []),
+      ...(extras.pictureSvg ? [pictureHtml(f, extras.pictureSvg, v)] : []),
       ...(hint ? [`<p>${esc(HINT_CAUTION)}</p>`] : []),
       ...(extras.alertLink
         ? [htmlLink(extras.alertLink, 'Open the alert (sign-in required)')]
@@ -169,9 +169,12 @@ export function renderAlertMail(
   return { subject, text, html };
 }
 
-/** The picture as an inline image whose alt text names the values (for clients that block SVG). */
-function pictureHtml(f: AlertMailFacts, svg: string): string {
-  const alt = `Trend of ${f.bandName}: latest ${num(f.value)} ${f.unit} against the ${f.level} level ${num(f.limit)} ${f.unit}`;
+/**
+ * The picture as an inline image whose alt text names the values (for clients that block SVG),
+ * written by `v` in the recipient's unit system.
+ */
+function pictureHtml(f: AlertMailFacts, svg: string, v: (value: number) => string): string {
+  const alt = `Trend of ${f.bandName}: latest ${v(f.value)} against the ${f.level} level ${v(f.limit)}`;
   return `<p style="margin:12px 0"><img src="${svgDataUrl(svg)}" width="${PICTURE_WIDTH}" height="${PICTURE_HEIGHT}" alt="${esc(alt)}" style="display:block;max-width:100%;height:auto;border:1px solid #d9d2c3"></p>`;
 }
 

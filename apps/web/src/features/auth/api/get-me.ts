@@ -1,4 +1,4 @@
-import { sessionResponseSchema, type Me } from '@turnstone/contracts/auth';
+import type { Me } from '@turnstone/contracts/auth';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 
@@ -8,7 +8,9 @@ import { api } from '../../../lib/api-client.ts';
  * visit to the sign-in page.
  */
 export async function getMe({ signal }: { signal?: AbortSignal } = {}): Promise<Me | null> {
-  const session = await api.get('/api/v1/auth/session', { schema: sessionResponseSchema, signal });
+  // The schema (and zod) load beside the request: the shell that asks this carries no zod.
+  const schema = import('@turnstone/contracts/auth').then((m) => m.sessionResponseSchema);
+  const session = await api.get('/api/v1/auth/session', { schema, signal });
   return session.user;
 }
 

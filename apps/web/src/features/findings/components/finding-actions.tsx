@@ -8,7 +8,10 @@ import { Input } from '../../../components/ui/field.tsx';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 import { useUpdateFinding } from '../api/update-finding.ts';
 
-/** A finding's state controls: open → planned (needs a work order) → done, and reopen. */
+/**
+ * A finding's controls: edit its fields, and its state: open → planned (needs a work order)
+ * → done, and reopen.
+ */
 
 const planSchema = z.object({
   workOrderRef: workOrderRefSchema.min(1, 'Give the work-order reference'),
@@ -64,13 +67,16 @@ function PlanForm({ finding, onDone }: { finding: Finding; onDone: () => void })
   );
 }
 
-export function StateActions({ finding }: { finding: Finding }) {
+export function StateActions({ finding, onEdit }: { finding: Finding; onEdit: () => void }) {
   const update = useUpdateFinding();
   const [planning, setPlanning] = useState(false);
   const move = (state: FindingState) => update.mutate({ id: finding.id, state });
   return (
     <div data-print="hide">
       <div className="flex flex-wrap justify-end gap-1.5">
+        <Button size="sm" variant="ghost" onClick={onEdit} aria-label={`Edit: ${finding.title}`}>
+          Edit
+        </Button>
         {finding.state === 'open' && (
           <Button
             size="sm"

@@ -12,6 +12,7 @@ import { formatNumber } from '@turnstone/contracts/number-format';
 import { useFindings } from '../api/get-findings.ts';
 import { FindingStateMark } from './finding-state-mark.tsx';
 import { StateActions } from './finding-actions.tsx';
+import { EditFindingDialog } from './edit-finding-dialog.tsx';
 
 type Show = 'active' | FindingState | 'all';
 const showLabels: Record<Show, string> = {
@@ -27,7 +28,10 @@ const localToday = () => {
   return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
 };
 
-/** The findings of the sites in view, with their state controls (open → planned → done). */
+/**
+ * The findings of the sites in view, with their controls: edit (priority, owner, planned
+ * downtime, …) and state (open → planned → done).
+ */
 export function FindingsList({
   siteId,
   canEdit,
@@ -37,6 +41,7 @@ export function FindingsList({
 }) {
   const [show, setShow] = useState<Show>('active');
   const [dueWeek, setDueWeek] = useState('');
+  const [editing, setEditing] = useState<number | null>(null);
   const week = isoWeekDays(dueWeek) ? dueWeek : undefined;
   const findings = useFindings({
     siteId,
@@ -195,7 +200,7 @@ export function FindingsList({
                       </td>
                       {canEdit && (
                         <td data-print="hide" className="px-3 py-2 align-top">
-                          <StateActions finding={f} />
+                          <StateActions finding={f} onEdit={() => setEditing(f.id)} />
                         </td>
                       )}
                     </tr>
@@ -206,6 +211,12 @@ export function FindingsList({
           </div>
         )}
       </section>
+      {canEdit && (
+        <EditFindingDialog
+          finding={items.find((f) => f.id === editing) ?? null}
+          onClose={() => setEditing(null)}
+        />
+      )}
     </Card>
   );
 }

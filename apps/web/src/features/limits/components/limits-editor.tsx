@@ -24,6 +24,7 @@ import {
   toFormBand,
   type LimitsFormValues,
 } from '../utils/band-form.ts';
+import { levelForInput } from '@turnstone/contracts/units';
 import { useUnits } from '../../account/api/use-units.ts';
 import { BandFields } from './band-fields.tsx';
 import { LimitHistoryList } from './limit-history-list.tsx';
@@ -143,9 +144,12 @@ export function LimitsEditor({
       let applied = 0;
       list.forEach((b, i) => {
         if (b.kind === 'overall' && b.spectrum === 'velocity' && b.measure === 'rms') {
-          const shown = (v: number) => units.value(v, 'mm/s');
+          // Shown rounded in the user's units; the ISO values themselves are what is saved.
+          const shown = (v: number) => levelForInput(v, 'mm/s', units.system);
           form.setValue(`bands.${i}.alertLevel`, shown(d.alertLevel), { shouldDirty: true });
           form.setValue(`bands.${i}.dangerLevel`, shown(d.dangerLevel), { shouldDirty: true });
+          form.setValue(`bands.${i}.alertLevelStored`, d.alertLevel);
+          form.setValue(`bands.${i}.dangerLevelStored`, d.dangerLevel);
           form.setValue(`bands.${i}.levelSource`, source, { shouldDirty: true });
           applied++;
         }

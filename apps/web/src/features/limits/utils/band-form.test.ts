@@ -49,11 +49,14 @@ describe('band form', () => {
     }
   });
 
-  // 1 in = 25.4 mm exactly (NIST SP 811 appendix B): 2.8 mm/s = 0.110236… in/s; a level
-  // typed as 0.3 in/s is stored as 7.62 mm/s (0.3 × 25.4, by hand) and shows again as 0.3.
+  // 1 in = 25.4 mm exactly (NIST SP 811 appendix B): 2.8 mm/s = 0.110236… in/s, shown to
+  // four significant digits as 0.1102; 4.5 mm/s = 0.177165… in/s shown as 0.1772 (by hand).
+  // A level typed as 0.3 in/s is stored as 7.62 mm/s (0.3 × 25.4, by hand) and shows again as 0.3.
   it('when the user reads imperial, levels are typed in in/s and stored in mm/s, both ways exact', () => {
     const f = toFormBand(overall, 'imperial');
-    expect(f.alertLevel).toBeCloseTo(0.1102362204724, 12);
+    expect(f.alertLevel).toBe(0.1102);
+    expect(f.dangerLevel).toBe(0.1772);
+    // Untouched fields give the stored levels back exactly, not 0.1102 × 25.4 = 2.79908.
     expect(toDefinition(f, overall, 'imperial')).toEqual(overall);
     const typed = { ...f, alertLevel: 0.3, dangerLevel: 0.45 };
     const d = toDefinition(typed, overall, 'imperial') as BandDefinitionInput;
@@ -62,6 +65,26 @@ describe('band form', () => {
     expect(toFormBand(d, 'imperial').alertLevel).toBe(0.3);
     // g stays g in both systems.
     expect(toDefinition(toFormBand(bpfo, 'imperial'), bpfo, 'imperial')).toEqual(bpfo);
+  });
+
+  it('when only the danger level is edited in imperial, the untouched alert level keeps its stored value', () => {
+    const f = { ...toFormBand(overall, 'imperial'), dangerLevel: 0.2 };
+    const d = toDefinition(f, overall, 'imperial') as BandDefinitionInput;
+    expect(d.alertLevel).toBe(2.8);
+    expect(d.dangerLevel).toBe(5.08); // 0.2 × 25.4 (by hand)
+    // Typed back to what it showed: the stored level again, not 0.1772 × 25.4 = 4.50088.
+    const back = { ...toFormBand(overall, 'imperial'), dangerLevel: 0.1772 };
+    expect((toDefinition(back, overall, 'imperial') as BandDefinitionInput).dangerLevel).toBe(4.5);
+    // A value typed anew that differs from the shown one in the last digit converts.
+    const near = { ...toFormBand(overall, 'imperial'), dangerLevel: 0.1771 };
+    expect((toDefinition(near, overall, 'imperial') as BandDefinitionInput).dangerLevel).toBe(
+      4.49834, // 0.1771 × 25.4 (by hand)
+    );
+  });
+
+  it('in metric, levels show exactly as stored', () => {
+    const f = toFormBand({ ...overall, alertLevel: 2.81234567 }, 'metric');
+    expect(f.alertLevel).toBe(2.81234567);
   });
 
   it('an established baseline is dropped when the baseline count changes', () => {

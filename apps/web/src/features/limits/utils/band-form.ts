@@ -3,11 +3,13 @@
  * numbers as NaN when empty), turned into a `BandDefinition` and checked with the shared
  * contract schema on submit, so the editor and the server agree on what a band is.
  * Levels are typed in the user's unit system (in/s and mil for imperial) and stored in metric:
- * `toFormBand` converts for the form and `toDefinition` back, exactly (contracts/units.ts).
+ * `toFormBand` shows a converted level to four significant digits and keeps the stored value
+ * beside it (`alertLevelStored`); `toDefinition` gives that stored value back while the field
+ * still shows it, and converts only a level typed anew (contracts/units.ts).
  */
 import { z } from 'zod';
 import { bandDefinitionSchema, type BandDefinitionInput } from '@turnstone/contracts/limits';
-import { fromDisplay, toDisplay, type UnitSystem } from '@turnstone/contracts/units';
+import { levelForInput, levelFromInput, type UnitSystem } from '@turnstone/contracts/units';
 
 export interface BandFormValues {
   key: string;
@@ -18,6 +20,9 @@ export interface BandFormValues {
   unit: BandDefinitionInput['unit'];
   alertLevel: number;
   dangerLevel: number;
+  /** The stored (metric) levels the fields were filled from; NaN for none. */
+  alertLevelStored: number;
+  dangerLevelStored: number;
   persistence: number;
   clearPersistence: number;
   clearAfterHours: number;
@@ -55,8 +60,10 @@ export function toFormBand(b: BandDefinitionInput, system: UnitSystem = 'metric'
     spectrum: b.spectrum,
     measure: b.measure,
     unit: b.unit,
-    alertLevel: toDisplay(b.alertLevel, b.unit, system),
-    dangerLevel: toDisplay(b.dangerLevel, b.unit, system),
+    alertLevel: levelForInput(b.alertLevel, b.unit, system),
+    dangerLevel: levelForInput(b.dangerLevel, b.unit, system),
+    alertLevelStored: b.alertLevel,
+    dangerLevelStored: b.dangerLevel,
     persistence: num(b.persistence),
     clearPersistence: num(b.clearPersistence),
     clearAfterHours: num(b.clearAfterHours),
@@ -114,8 +121,8 @@ export function toDefinition(
     spectrum: f.spectrum,
     measure: f.measure,
     unit: f.unit,
-    alertLevel: fromDisplay(f.alertLevel, f.unit, system),
-    dangerLevel: fromDisplay(f.dangerLevel, f.unit, system),
+    alertLevel: levelFromInput(f.alertLevel, f.unit, system, f.alertLevelStored),
+    dangerLevel: levelFromInput(f.dangerLevel, f.unit, system, f.dangerLevelStored),
     ...(opt(f.persistence) !== undefined ? { persistence: f.persistence } : {}),
     ...(opt(f.clearPersistence) !== undefined ? { clearPersistence: f.clearPersistence } : {}),
     ...(opt(f.clearAfterHours) !== undefined ? { clearAfterHours: f.clearAfterHours } : {}),

@@ -97,7 +97,7 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
                   {l?.isoZone ? `Zone ${l.isoZone}` : '—'}
                   {l?.isoZone && machine.isoBoundaries ? (
                     <div className="font-mono text-xs text-ink-faint">
-                      {isoZoneRange(l.isoZone, machine.isoBoundaries)}
+                      {isoZoneRange(l.isoZone, machine.isoBoundaries, units)}
                     </div>
                   ) : null}
                 </td>
@@ -123,7 +123,7 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
                   >
                     <Sparkline
                       values={p.governing.values.map((r) => r.v)}
-                      label={`${p.governing.name} of ${p.name}, last ${p.governing.values.length} values in ${p.governing.unit}`}
+                      label={`${p.governing.name} of ${p.name}, last ${p.governing.values.length} values in ${units.unit(p.governing.unit)}`}
                     />
                     <span className="text-xs text-ink-muted">
                       {p.governing.name}

@@ -3,13 +3,13 @@ import type { Alert } from '@turnstone/contracts/alerts';
 import type { Finding } from '@turnstone/contracts/findings';
 import { findingPriorityLabels, findingStateLabels } from '@turnstone/contracts/findings';
 import type { MachineDetail } from '@turnstone/contracts/points';
-import { formatValue } from '../../../components/charts/chart-theme.ts';
 import { Card } from '../../../components/ui/card.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { paths } from '../../../config/paths.ts';
 import { formatAge, formatDateTime } from '../../../lib/format.ts';
+import { useUnits } from '../../account/api/use-units.ts';
 import { useMachineAttention } from '../api/get-machine-attention.ts';
 
 const stateText = { raised: 'raised', acknowledged: 'acknowledged', cleared: 'cleared' } as const;
@@ -111,6 +111,7 @@ export function MachineWhy({
 }
 
 function AlertLine({ alert: a, now }: { alert: Alert; now: number }) {
+  const units = useUnits();
   return (
     <li className="flex flex-col gap-0.5 py-2 text-sm">
       <div className="flex flex-wrap items-center gap-x-2 gap-y-1">
@@ -124,8 +125,8 @@ function AlertLine({ alert: a, now }: { alert: Alert; now: number }) {
         <span className="font-mono text-xs text-ink-muted">{a.pointTag}</span>
       </div>
       <div className="font-mono text-[13px] text-ink">
-        {formatValue(a.value, 3)} {a.unit} <span className="font-sans text-ink-muted">over</span>{' '}
-        {formatValue(a.limit, 3)} {a.unit}
+        {units.format(a.value, a.unit)} <span className="font-sans text-ink-muted">over</span>{' '}
+        {units.format(a.limit, a.unit)}
         {a.suspect ? <span className="font-sans text-ink-muted"> · suspect capture</span> : null}
       </div>
       <div className="text-xs text-ink-muted">

@@ -10,6 +10,7 @@ import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
 import { Segmented } from '../../../components/ui/segmented.tsx';
+import { useUnits } from '../../account/api/use-units.ts';
 
 /** Captures with a tach carry their 1× and 2× vectors. */
 export function hasVectors(analyses: readonly AnalysisSummary[]): boolean {
@@ -23,6 +24,9 @@ export function hasVectors(analyses: readonly AnalysisSummary[]): boolean {
  */
 export function VectorPanel({ analyses }: { analyses: readonly AnalysisSummary[] }) {
   const [order, setOrder] = useState<'1' | '2'>('1');
+  // Amplitudes in the reader's unit system (stored in mm/s; in/s for imperial).
+  const units = useUnits();
+  const unit = `${units.unit('mm/s')} RMS`;
   const points = useMemo((): (VectorPoint & { id: number; takenAt: string })[] => {
     const out: (VectorPoint & { id: number; takenAt: string })[] = [];
     for (const a of analyses) {
@@ -32,12 +36,12 @@ export function VectorPanel({ analyses }: { analyses: readonly AnalysisSummary[]
           id: a.id,
           takenAt: a.takenAt,
           t: Date.parse(a.takenAt),
-          amplitude: v.velocityRmsMmS,
+          amplitude: units.value(v.velocityRmsMmS, 'mm/s'),
           phaseDeg: v.velocityPhaseDeg,
         });
     }
     return out.sort((x, y) => x.t - y.t);
-  }, [analyses, order]);
+  }, [analyses, order, units]);
   const name = `${order}×`;
   if (points.length === 0)
     return (
@@ -60,20 +64,20 @@ export function VectorPanel({ analyses }: { analyses: readonly AnalysisSummary[]
           ]}
         />
         <p className="max-w-2xl text-xs text-ink-muted">
-          Velocity in mm/s RMS; phase is the lag in degrees of the {name} cycle from the tach pulse
-          to the positive velocity peak (0–360°, growing as the peak comes later), drawn clockwise
-          from the top on the polar plot. {points.length} captures with a tach.
+          Velocity in {unit}; phase is the lag in degrees of the {name} cycle from the tach pulse to
+          the positive velocity peak (0–360°, growing as the peak comes later), drawn clockwise from
+          the top on the polar plot. {points.length} captures with a tach.
         </p>
       </div>
       <div className="grid gap-4 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <VectorTrendChart
           points={points}
-          unit="mm/s RMS"
-          ariaLabel={`${name} vector over time: amplitude in mm/s RMS and phase lag in degrees, ${points.length} captures`}
+          unit={unit}
+          ariaLabel={`${name} vector over time: amplitude in ${unit} and phase lag in degrees, ${points.length} captures`}
         />
         <VectorPolarChart
           points={points}
-          unit="mm/s RMS"
+          unit={unit}
           ariaLabel={`${name} vector polar plot: phase lag clockwise from the top, amplitude as radius; the newest capture is the large diamond`}
         />
       </div>
@@ -85,7 +89,7 @@ export function VectorPanel({ analyses }: { analyses: readonly AnalysisSummary[]
           <thead className="text-xs text-ink-muted">
             <tr className="border-b border-line">
               <th className="py-1 pr-4 font-medium">Taken</th>
-              <th className="py-1 pr-4 text-right font-medium">Amplitude (mm/s RMS)</th>
+              <th className="py-1 pr-4 text-right font-medium">Amplitude ({unit})</th>
               <th className="py-1 text-right font-medium">Phase lag (°)</th>
             </tr>
           </thead>

@@ -6,6 +6,7 @@ import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Field, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { formatDateTime, formatShortDateTime } from '../../../lib/format.ts';
+import { useUnits } from '../../account/api/use-units.ts';
 import { useWaterfall } from '../api/get-waterfall.ts';
 
 type Kind = 'acceleration' | 'velocity' | 'envelope' | 'order';
@@ -20,17 +21,18 @@ export function WaterfallPanel({ pointId }: { pointId: number }) {
   const [kind, setKind] = useState<Kind>('acceleration');
   const [limit, setLimit] = useState(20);
   const q = useWaterfall(pointId, kind, limit);
-  const traces = useMemo(
-    () =>
-      (q.data?.items ?? []).map((i) => ({
-        label: formatDateTime(i.takenAt),
-        short: formatShortDateTime(i.takenAt),
-        values: i.decoded,
-        step: i.step,
-        shaftHz: i.shaftHz,
-      })),
-    [q.data],
-  );
+  // Lines in the reader's unit system: velocity in in/s for imperial (stored mm/s); g stays g.
+  const units = useUnits();
+  const traces = useMemo(() => {
+    const f = q.data ? units.value(1, q.data.unit) : 1;
+    return (q.data?.items ?? []).map((i) => ({
+      label: formatDateTime(i.takenAt),
+      short: formatShortDateTime(i.takenAt),
+      values: f === 1 ? i.decoded : i.decoded.map((v) => v * f),
+      step: i.step,
+      shaftHz: i.shaftHz,
+    }));
+  }, [q.data, units]);
   return (
     <Card className="flex flex-col gap-4 p-4">
       <div className="flex flex-wrap items-end gap-4">
@@ -77,7 +79,7 @@ export function WaterfallPanel({ pointId }: { pointId: number }) {
         <WaterfallChart
           traces={traces}
           axis={q.data.axis}
-          unit={q.data.unit}
+          unit={units.unit(q.data.unit)}
           scale={q.data.scale === 'rms' ? 'RMS' : 'peak'}
           ariaLabel={`Waterfall of the last ${traces.length} ${kindLabels[kind]} spectra, newest in front`}
         />
