@@ -36,6 +36,10 @@ beforeAll(async () => {
   // persistence 2 (template defaults, common practice, no source): raised at the 4th capture.
   await captureVelocities(srv, key, TAG, [1.0, 1.0, 3.5, 3.5, 3.5], t0);
   await captureVelocities(srv, key, OTHER, [0.9, 1.0, 1.1], t0);
+  // a day ago: two more on each (the alert stays raised), so a zoom can leave them out
+  const t1 = Date.now() - 86_400_000;
+  await captureVelocities(srv, key, TAG, [3.6, 3.6], t1);
+  await captureVelocities(srv, key, OTHER, [1.2], t1);
   const ids = await srv.q<{ id: number; tag: string }>(
     'SELECT id, tag FROM points WHERE tag IN (?, ?)',
     [TAG, OTHER],
@@ -206,7 +210,7 @@ describe('the analyst trend', () => {
       apiTrend(otherId, 'overall-acceleration'),
     ]);
     const total = main.items.length + oneX.items.length + other.items.length;
-    expect(main.items.length).toBe(6); // five gateway captures and the upload
+    expect(main.items.length).toBe(8); // seven gateway captures and the upload
     const table = page.getByRole('table', { name: 'Values in the selected range' });
     await table.waitFor();
     expect(await table.locator('tbody tr').count()).toBe(12);
@@ -215,14 +219,17 @@ describe('the analyst trend', () => {
     );
     const tableText = (await table.textContent()) ?? '';
     expect(tableText).toContain('Portable instrument (upload)');
-    // Zoom in twice: a narrower range, fewer values, each within the stated range.
+    // Zoom in twice and move to the start: the first quarter of the period, which holds the
+    // first captures and not those of a day ago; fewer values, each within the stated range.
     const zoom = page.getByRole('group', { name: 'Zoom the trend' });
     await zoom.getByRole('button', { name: 'Zoom in' }).click();
     await zoom.getByRole('button', { name: 'Zoom in' }).click();
+    for (let i = 0; i < 4; i++) await zoom.getByRole('button', { name: 'Move left' }).click();
+    await zoom.getByText(/^Showing 0 %–25 % of the range/).waitFor();
     await page.waitForFunction(
-      `!document.querySelector('[data-testid="range-more"]') ||
-        Number(document.querySelector('[data-testid="range-more"]').textContent.split(' ')[0]) < ${total - 12}`,
+      `Number(document.querySelector('[data-testid="range-more"]')?.textContent.split(' ')[0] ?? 0) < ${total - 12}`,
     );
+    await page.waitForTimeout(300);
     const csv = page.getByRole('link', { name: /^CSV of this range: Overall velocity/ });
     const href = (await csv.getAttribute('href')) ?? '';
     const url = new URL(href, srv.url);
@@ -234,11 +241,16 @@ describe('the analyst trend', () => {
       (n, d) => n + d.items.filter((i) => Date.parse(i.t) >= from && Date.parse(i.t) <= to).length,
       0,
     );
-    const rows = await table
-      .locator('tbody tr')
-      .count()
-      .catch(() => 0);
-    expect(rows).toBe(Math.min(12, inRange));
+    // the first captures are in it, those of a day ago are not: the table lists exactly the
+    // values of the three series inside the window
+    expect(inRange).toBeGreaterThan(0);
+    expect(inRange).toBeLessThan(total);
+    expect(await table.locator('tbody tr').count()).toBe(Math.min(12, inRange));
+    if (inRange > 12)
+      expect(await page.getByTestId('range-more').textContent()).toBe(
+        `${inRange - 12} more ${inRange - 12 === 1 ? 'value' : 'values'} in this range`,
+      );
+    else expect(await page.getByTestId('range-more').count()).toBe(0);
     // the CSV of the range answers with the values of that range
     const res = await srv.call('GET', `${url.pathname}${url.search}`, { cookie: engineer });
     expect(res.status).toBe(200);
