@@ -15,6 +15,7 @@ import {
 } from './chart-theme.ts';
 import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
 import { withTrendSeries } from './trend-series-option.ts';
+import { formatDate, formatDateTime } from '../../lib/format.ts';
 
 export type * from './trend-types.ts';
 import type { ChartTime, TrendChartProps, TrendEventMarker } from './trend-types.ts';
@@ -60,15 +61,9 @@ const eventStyle: Record<
   other: { colour: chartColours.inkMuted, type: 'dotted' },
 };
 
-export const dateLabel = new Intl.DateTimeFormat('en-GB', {
-  day: 'numeric',
-  month: 'short',
-  year: 'numeric',
-});
-export const dateTimeLabel = new Intl.DateTimeFormat('en-GB', {
-  dateStyle: 'medium',
-  timeStyle: 'short',
-});
+/** Axis and pointer labels in the one date format and the screen's zone (lib/format.ts). */
+export const dateLabel = { format: (t: number) => formatDate(t) };
+export const dateTimeLabel = { format: (t: number) => formatDateTime(t) };
 
 export function buildTrendOption(props: TrendChartProps): ChartOption {
   const unit = displayUnit(props.unit);

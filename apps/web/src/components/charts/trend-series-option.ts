@@ -6,6 +6,7 @@
  */
 import { chartColours, formatValue, monoFont, sansFont } from './chart-theme.ts';
 import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
+import { formatDateTime } from '../../lib/format.ts';
 
 type ChartTime = number | string;
 const toMs = (t: ChartTime) => (typeof t === 'number' ? t : Date.parse(t));
@@ -188,7 +189,7 @@ export function withTrendSeries(
   };
 }
 
-const dateTime = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
+const dateTime = { format: (t: number) => formatDateTime(t) };
 const escapeHtml = (s: string) =>
   s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
 

@@ -14,7 +14,7 @@ import {
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
-import { formatDateTime } from '../../../lib/format.ts';
+import { formatDate, formatDateTime } from '../../../lib/format.ts';
 import { useUnits } from '../../account/api/use-units.ts';
 import { inUnits, trendInUnits } from '../utils/trend-units.ts';
 import { useStableList } from '../utils/use-stable-list.ts';
@@ -75,7 +75,7 @@ export function TrendBody({
         ? {
             from: { t: last.t, v: last.v },
             to: { t: p.crossingAt, v: p.target.value },
-            label: `${p.target.level === 'danger' ? 'Danger' : 'Alert'} ${new Date(p.crossingAt).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' })}`,
+            label: `${p.target.level === 'danger' ? 'Danger' : 'Alert'} ${formatDate(p.crossingAt)}`,
           }
         : null;
     const baseline = data.baseline
