@@ -21,7 +21,12 @@ const vendorChunks = [
   { name: 'virtual', test: lib('@tanstack[\\\\/](?:virtual-core|react-virtual)') },
   { name: 'table', test: lib('@tanstack[\\\\/](?:table-core|react-table)') },
   { name: 'forms', test: lib('react-hook-form|@hookform') },
-  { name: 'echarts', test: lib('echarts|zrender|tslib') },
+  // ECharts' core and what every chart uses; the polar axes stay with the one chart that
+  // draws on them (components/charts/echarts-polar.ts).
+  {
+    name: 'echarts',
+    test: /[\\/]node_modules[\\/](echarts|zrender|tslib)[\\/](?!.*(polar|angle|radius))/i,
+  },
 ];
 
 /**

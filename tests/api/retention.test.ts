@@ -87,6 +87,7 @@ describe('retention policy', () => {
       rawSamplesDays: 90,
       spectraWholeDays: 14,
       spectraHourlyDays: 90,
+      captureMonths: 0,
       keepWindowMinutes: 60,
       batchSize: 500,
       batchPauseMs: 200,
@@ -94,6 +95,12 @@ describe('retention policy', () => {
     expect(() => loadConfig({ SPECTRA_WHOLE_DAYS: '30', SPECTRA_HOURLY_DAYS: '7' })).toThrow(
       /SPECTRA_HOURLY_DAYS: must be at least SPECTRA_WHOLE_DAYS/,
     );
+    // Captures are dropped only past the last tier: 3 months (84 days at least) do not cover
+    // the hourly tier's 90 days, 4 do.
+    expect(() => loadConfig({ CAPTURE_RETENTION_MONTHS: '3' })).toThrow(
+      /CAPTURE_RETENTION_MONTHS: must cover the spectra tiers/,
+    );
+    expect(retentionPolicy(loadConfig({ CAPTURE_RETENTION_MONTHS: '4' })).captureMonths).toBe(4);
   });
 });
 
@@ -106,6 +113,7 @@ describe('the policy for the administrator', () => {
       rawSamplesDays: 90,
       spectraWholeDays: 14,
       spectraHourlyDays: 90,
+      captureMonths: 0,
       keepWindowMinutes: 60,
       batchSize: 500,
       batchPauseMs: 200,

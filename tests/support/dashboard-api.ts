@@ -2262,6 +2262,7 @@ export interface operations {
                         rawSamplesDays: number;
                         spectraWholeDays: number;
                         spectraHourlyDays: number;
+                        captureMonths: number;
                         keepWindowMinutes: number;
                         batchSize: number;
                         batchPauseMs: number;

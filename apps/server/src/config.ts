@@ -123,6 +123,13 @@ const envSchema = z.object({
   SPECTRA_WHOLE_DAYS: z.coerce.number().int().min(0).max(3650).default(14),
   /** Days (from now) one capture per point per hour keeps its spectra; older: one per day. */
   SPECTRA_HOURLY_DAYS: z.coerce.number().int().min(0).max(36500).default(90),
+  /**
+   * Months a capture is kept at all (scalars and band values too): each month that ended
+   * before this many whole months ago is dropped — its partitions of snapshots, analyses and
+   * band_values — unless a capture kept whole lives in it (features/worker/partitions.ts).
+   * 0 (the default) keeps every capture's scalars and band values for ever.
+   */
+  CAPTURE_RETENTION_MONTHS: z.coerce.number().int().min(0).max(1200).default(0),
   /** Captures taken within ± this many minutes of an alert event or a finding stay whole. */
   RETENTION_KEEP_WINDOW_MIN: z.coerce.number().int().min(0).max(10080).default(60),
   /** Rows the retention passes change per statement (bounded batches, never long locks). */
@@ -208,6 +215,17 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     Object.entries(env).filter(([, v]) => v !== undefined && v !== ''),
   );
   const parsed = envSchema
+    .refine(
+      (c) =>
+        c.CAPTURE_RETENTION_MONTHS === 0 ||
+        c.CAPTURE_RETENTION_MONTHS * 28 >=
+          Math.max(c.SPECTRA_HOURLY_DAYS, c.SPECTRA_WHOLE_DAYS, c.RETENTION_DAYS),
+      {
+        message:
+          'must cover the spectra tiers and RETENTION_DAYS (captures are dropped past the last tier), or be 0',
+        path: ['CAPTURE_RETENTION_MONTHS'],
+      },
+    )
     .refine((c) => c.SPECTRA_WHOLE_DAYS === 0 || c.SPECTRA_HOURLY_DAYS >= c.SPECTRA_WHOLE_DAYS, {
       message: 'must be at least SPECTRA_WHOLE_DAYS (the hourly tier follows the whole one)',
       path: ['SPECTRA_HOURLY_DAYS'],

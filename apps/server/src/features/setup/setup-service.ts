@@ -327,6 +327,8 @@ export async function deleteMachine(db: Db, user: SessionUser, id: number) {
   if (!canSeeSite(user, found.siteId)) throw siteForbidden();
   const before = found.machine;
   await db.transaction(async (tx) => {
+    // Locked first, so the count below sees every capture committed before the lock.
+    await repo.lockPointsOfMachine(tx, id);
     const pts = await repo.pointsOf(tx, id);
     if (
       (await repo.dataCount(

@@ -1,8 +1,9 @@
 /**
- * ECharts through `echarts/core` with only what Turnstone's charts use (line and scatter
- * series, grid, polar axes, tooltip, zoom, mark lines/areas, legend, canvas renderer). Only the chart
- * components import this module, and only lazily loaded pages import them, so ECharts stays
- * out of the first download.
+ * ECharts through `echarts/core` with what every Turnstone chart uses (line and scatter
+ * series, grid, tooltip, zoom, mark lines/areas, legend, canvas renderer). A chart that needs
+ * more registers it beside itself (the vector charts' polar axes: `echarts-polar.ts`), so
+ * the other charts' pages do not load it. Only the chart components import this module, and
+ * only lazily loaded pages import them, so ECharts stays out of the first download.
  */
 import * as echarts from 'echarts/core';
 import { LineChart, ScatterChart } from 'echarts/charts';
@@ -12,8 +13,6 @@ import {
   LegendComponent,
   MarkAreaComponent,
   MarkLineComponent,
-  MarkPointComponent,
-  PolarComponent,
   TooltipComponent,
 } from 'echarts/components';
 import { CanvasRenderer } from 'echarts/renderers';
@@ -25,7 +24,6 @@ import type {
   LegendComponentOption,
   MarkAreaComponentOption,
   MarkLineComponentOption,
-  MarkPointComponentOption,
   PolarComponentOption,
   TooltipComponentOption,
 } from 'echarts/components';
@@ -39,8 +37,6 @@ echarts.use([
   LegendComponent,
   MarkLineComponent,
   MarkAreaComponent,
-  MarkPointComponent,
-  PolarComponent,
   CanvasRenderer,
 ]);
 
@@ -53,7 +49,6 @@ export type ChartOption = ComposeOption<
   | LegendComponentOption
   | MarkLineComponentOption
   | MarkAreaComponentOption
-  | MarkPointComponentOption
   | PolarComponentOption
 >;
 

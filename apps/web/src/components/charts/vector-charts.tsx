@@ -6,6 +6,7 @@
 import { useMemo } from 'react';
 import { axisStyle, chartColours, formatValue, monoFont } from './chart-theme.ts';
 import type { ChartOption } from './echarts.ts';
+import './echarts-polar.ts';
 import { useEChart } from './use-echart.ts';
 import { ChartCanvas } from './chart-canvas.tsx';
 

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { lazy, Suspense, useEffect, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import type { AnalysisSummary, PointDetail } from '@turnstone/contracts/points';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
@@ -13,14 +13,31 @@ import { cn } from '../../../lib/cn.ts';
 import { formatBandHz, formatDateTime } from '../../../lib/format.ts';
 import { POINT_PAGE_ANALYSES, useAnalyses } from '../../../features/points/api/get-analyses.ts';
 import { usePoint } from '../../../features/points/api/get-point.ts';
-import { SpectrumPanel } from '../../../features/points/components/spectrum-panel.tsx';
-import { WaterfallPanel } from '../../../features/points/components/waterfall-panel.tsx';
-import { WaveformPanel } from '../../../features/points/components/waveform-panel.tsx';
-import { VectorPanel, hasVectors } from '../../../features/points/components/vector-panel.tsx';
+import { hasVectors } from '../../../features/points/lib/has-vectors.ts';
 import { CaptureQuality } from '../../../features/points/components/capture-quality.tsx';
 import { useMe } from '../../../features/auth/api/get-me.ts';
 import { TrendPanel } from '../../../features/trends/components/trend-panel.tsx';
 import { useUnits } from '../../../features/account/api/use-units.ts';
+
+/**
+ * The views behind the other tabs load on demand: the point opens on its trend, so their code
+ * (and their charts' parts) is not in its way. It is asked for when the pointer or focus
+ * reaches the tabs, and once the page has settled, so a tab opens without waiting for it.
+ */
+const views = {
+  spectrum: () => import('../../../features/points/components/spectrum-panel.tsx'),
+  waveform: () => import('../../../features/points/components/waveform-panel.tsx'),
+  waterfall: () => import('../../../features/points/components/waterfall-panel.tsx'),
+  vector: () => import('../../../features/points/components/vector-panel.tsx'),
+};
+const SpectrumPanel = lazy(() => views.spectrum().then((m) => ({ default: m.SpectrumPanel })));
+const WaveformPanel = lazy(() => views.waveform().then((m) => ({ default: m.WaveformPanel })));
+const WaterfallPanel = lazy(() => views.waterfall().then((m) => ({ default: m.WaterfallPanel })));
+const VectorPanel = lazy(() => views.vector().then((m) => ({ default: m.VectorPanel })));
+function preloadViews() {
+  for (const load of Object.values(views)) load().catch(() => undefined);
+}
+const SETTLED_MS = 1500;
 
 const tabs = [
   { key: 'trend', label: 'Trend' },
@@ -106,6 +123,10 @@ export function PointRoute() {
   // `?view=spectrum` (a link from an alert) opens the spectrum view, on `?band=`'s band.
   const [tab, setTab] = useState<Tab>(search.get('view') === 'spectrum' ? 'spectrum' : 'trend');
   const [picked, setPicked] = useState<number | null>(null);
+  useEffect(() => {
+    const timer = window.setTimeout(preloadViews, SETTLED_MS);
+    return () => window.clearTimeout(timer);
+  }, []);
 
   if (!Number.isInteger(id) || id <= 0)
     return <EmptyState title="No such point" description="The address does not name a point." />;
@@ -179,49 +200,53 @@ export function PointRoute() {
         }
       />
       <LatestValues point={p} analyses={list} />
-      <TabList
-        group="point"
-        label="Analysis views"
-        tabs={tabs.filter((t) => t.key !== 'vector' || hasVectors(list))}
-        value={tab}
-        onChange={setTab}
-        className="flex gap-1 border-b border-line"
-        tabClassName={(selected) =>
-          cn(
-            '-mb-px border-b-2 px-3 py-2 text-sm font-medium',
-            selected
-              ? 'border-accent text-ink'
-              : 'border-transparent text-ink-muted hover:text-ink',
-          )
-        }
-      />
+      <div className="contents" onPointerOver={preloadViews} onFocus={preloadViews}>
+        <TabList
+          group="point"
+          label="Analysis views"
+          tabs={tabs.filter((t) => t.key !== 'vector' || hasVectors(list))}
+          value={tab}
+          onChange={setTab}
+          className="flex gap-1 border-b border-line"
+          tabClassName={(selected) =>
+            cn(
+              '-mb-px border-b-2 px-3 py-2 text-sm font-medium',
+              selected
+                ? 'border-accent text-ink'
+                : 'border-transparent text-ink-muted hover:text-ink',
+            )
+          }
+        />
+      </div>
       <TabPanel group="point" value={tab}>
-        {tab === 'trend' &&
-          (p.bands.length === 0 ? (
-            <EmptyState
-              title="No bands yet"
-              description="The point gets its limit set with its first analysed snapshot."
-            />
-          ) : (
-            <TrendPanel pointId={p.id} bands={p.bands} initialBand={search.get('band')} />
-          ))}
-        {tab === 'spectrum' &&
-          (snapshotBody() ?? (
-            <SpectrumPanel
-              band={p.bands.find((b) => b.key === search.get('band')) ?? null}
-              userId={me.data?.id ?? null}
-              bearing={p.bearing}
-              analyses={list}
-              selectedId={selectedId}
-              onSelect={setPicked}
-            />
-          ))}
-        {tab === 'waveform' &&
-          (snapshotBody() ?? (
-            <WaveformPanel analyses={list} selectedId={selectedId} onSelect={setPicked} />
-          ))}
-        {tab === 'waterfall' && <WaterfallPanel pointId={p.id} />}
-        {tab === 'vector' && (snapshotBody() ?? <VectorPanel analyses={list} />)}
+        <Suspense fallback={<LoadingPanel label="Loading the view…" />}>
+          {tab === 'trend' &&
+            (p.bands.length === 0 ? (
+              <EmptyState
+                title="No bands yet"
+                description="The point gets its limit set with its first analysed snapshot."
+              />
+            ) : (
+              <TrendPanel pointId={p.id} bands={p.bands} initialBand={search.get('band')} />
+            ))}
+          {tab === 'spectrum' &&
+            (snapshotBody() ?? (
+              <SpectrumPanel
+                band={p.bands.find((b) => b.key === search.get('band')) ?? null}
+                userId={me.data?.id ?? null}
+                bearing={p.bearing}
+                analyses={list}
+                selectedId={selectedId}
+                onSelect={setPicked}
+              />
+            ))}
+          {tab === 'waveform' &&
+            (snapshotBody() ?? (
+              <WaveformPanel analyses={list} selectedId={selectedId} onSelect={setPicked} />
+            ))}
+          {tab === 'waterfall' && <WaterfallPanel pointId={p.id} />}
+          {tab === 'vector' && (snapshotBody() ?? <VectorPanel analyses={list} />)}
+        </Suspense>
       </TabPanel>
     </div>
   );

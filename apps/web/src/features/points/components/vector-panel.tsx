@@ -12,11 +12,6 @@ import { formatDateTime } from '../../../lib/format.ts';
 import { Segmented } from '../../../components/ui/segmented.tsx';
 import { useUnits } from '../../account/api/use-units.ts';
 
-/** Captures with a tach carry their 1× and 2× vectors. */
-export function hasVectors(analyses: readonly AnalysisSummary[]): boolean {
-  return analyses.some((a) => (a.shaftVectors?.length ?? 0) > 0);
-}
-
 /**
  * The 1× (or 2×) vector of every capture with a tach: amplitude and phase over time and as a
  * polar plot — a developing unbalance grows in amplitude at a steady phase; a change in phase
