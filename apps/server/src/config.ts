@@ -60,8 +60,11 @@ const envSchema = z.object({
   SESSION_HOURS: z.coerce.number().positive().max(720).default(12),
   /** Seed the demo plant into an empty database. */
   SEED_DEMO: bool(true),
-  /** Weeks of generated demo history seeded through the pipeline on first start (0: none). */
-  DEMO_HISTORY_WEEKS: z.coerce.number().int().min(0).max(52).default(12),
+  /**
+   * Weeks of generated demo history seeded through the pipeline on first start (0: none),
+   * one capture per point every 4 hours; 3 weeks seed within the first start's minute.
+   */
+  DEMO_HISTORY_WEEKS: z.coerce.number().int().min(0).max(52).default(3),
   /** Password of the demo accounts. */
   DEMO_PASSWORD: z.string().min(8).max(64).default('turnstone-demo'),
   /**

@@ -597,6 +597,31 @@ export const bandValues = mysqlTable(
   ],
 );
 
+/**
+ * Daily sums of each point's usable band values (verdict not `unusable`), by the local
+ * calendar day of the point's site: kept in the analysis write transaction beside the band
+ * values, rebuilt for a site whose time zone changes and for points that move site. The
+ * weekly review reads its daily means here instead of grouping six weeks of band values
+ * (review-repository dailyMeans; maintained by analysis/band-day-sums.ts).
+ */
+export const bandDaySums = mysqlTable(
+  'band_day_sums',
+  {
+    pointId: ref('point_id')
+      .notNull()
+      .references(() => points.id, { onDelete: 'cascade' }),
+    bandKey: varchar('band_key', { length: 64 }).notNull(),
+    /** Local day of the site, YYYY-MM-DD. */
+    day: date('day', { mode: 'string' }).notNull(),
+    /** Values summed. */
+    n: int('n').notNull(),
+    sumValue: double('sum_value').notNull(),
+    /** Sum of the values' capture times, epoch milliseconds. */
+    sumTakenMs: double('sum_taken_ms').notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.pointId, t.day, t.bandKey] })],
+);
+
 export const alerts = mysqlTable(
   'alerts',
   {
