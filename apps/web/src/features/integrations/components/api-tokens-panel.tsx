@@ -14,7 +14,7 @@ import { formatAge, formatDateTime } from '../../../lib/format.ts';
 import { useSites } from '../../gateways/api/get-gateways.ts';
 import { useIssueApiToken, useRevokeApiToken } from '../api/change-integrations.ts';
 import { useApiTokens } from '../api/get-integrations.ts';
-import { SecretOnceDialog } from './secret-once-dialog.tsx';
+import { SecretOnceDialog } from '../../../components/ui/secret-once-dialog.tsx';
 
 function IssueTokenForm({ onIssued }: { onIssued: (token: string) => void }) {
   const sites = useSites();

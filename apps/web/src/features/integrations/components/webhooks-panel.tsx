@@ -13,7 +13,7 @@ import {
   useUpdateWebhook,
 } from '../api/change-integrations.ts';
 import { useWebhooks } from '../api/get-integrations.ts';
-import { SecretOnceDialog } from './secret-once-dialog.tsx';
+import { SecretOnceDialog } from '../../../components/ui/secret-once-dialog.tsx';
 
 function AddWebhookForm({ onAdded }: { onAdded: (secret: string) => void }) {
   const create = useCreateWebhook();
