@@ -24,6 +24,31 @@ describe('sign-in', () => {
     },
   );
 
+  it('names the time zone of screens not tied to a site: the sites’ one zone, else UTC', async () => {
+    // The rule stated in contracts/auth.ts (meSchema.timeZone); common practice, no source.
+    const zones: Record<string, string> = {};
+    for (const role of ['admin', 'engineer', 'planner', 'operator']) {
+      const me = await (
+        await srv.call('GET', '/api/v1/me', { cookie: await srv.signIn(role) })
+      ).json();
+      const rows = me.siteIds.length
+        ? await srv.q(
+            `SELECT DISTINCT time_zone FROM sites WHERE id IN (${me.siteIds.map(() => '?').join(',')})`,
+            me.siteIds,
+          )
+        : [];
+      const distinct = rows.map((r) => String(r.time_zone));
+      expect(me.timeZone, role).toBe(distinct.length === 1 ? distinct[0] : 'UTC');
+      zones[role] = me.timeZone;
+    }
+    // The demo plant has sites in two zones: both answers occur.
+    expect(new Set(Object.values(zones)).size).toBeGreaterThan(1);
+    const session = await (
+      await srv.call('GET', '/api/v1/auth/session', { cookie: await srv.signIn('operator') })
+    ).json();
+    expect(session.user.timeZone).toBe(zones.operator);
+  });
+
   it('sets an httpOnly, SameSite=Lax cookie', async () => {
     const res = await srv.call('POST', '/api/v1/auth/sign-in', {
       body: { email: 'planner@turnstone.local', password: 'turnstone-demo' },

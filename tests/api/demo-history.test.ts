@@ -17,7 +17,9 @@ const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 beforeAll(async () => {
   srv = await startTestServer({ DEMO_HISTORY_WEEKS: '2' });
   engineer = await srv.signIn('engineer');
-}, 180_000);
+  // A capture per point every 4 hours: 3,655 captures through the pipeline (about 35 s of
+  // CPU), far longer on a busy machine.
+}, 600_000);
 afterAll(async () => {
   await srv?.stop();
 });

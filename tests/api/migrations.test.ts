@@ -180,6 +180,29 @@ describe('upgrading a database made by the oldest supported migration set', () =
       // (the start may add rows of its own, e.g. settings it keeps)
       expect(after.get(table)!.size).toBeGreaterThanOrEqual(ROWS);
     }
+
+    // 0018_time-partitioning: the captures' tables are partitioned by month from the first
+    // month holding captures (the rows above are taken in January 2025), each old row in
+    // its month's partition, and every snapshot's uid is registered for its sender.
+    for (const table of ['snapshots', 'analyses', 'band_values']) {
+      const [parts] = await pool.query<RowDataPacket[]>(
+        `SELECT PARTITION_NAME AS name, TABLE_ROWS AS n FROM information_schema.PARTITIONS
+          WHERE TABLE_SCHEMA = DATABASE() AND TABLE_NAME = ? ORDER BY PARTITION_ORDINAL_POSITION`,
+        [table],
+      );
+      const names = parts.map((r) => String(r.name));
+      expect(names.slice(0, 3)).toEqual(['p_before', 'p202501', 'p202502']);
+      expect(names.at(-1)).toBe('p_future');
+      const [[inJanuary]] = await pool.query<RowDataPacket[]>(
+        `SELECT COUNT(*) AS n FROM \`${table}\` PARTITION (p202501)`,
+      );
+      expect({ table, n: Number(inJanuary!.n) }).toEqual({ table, n: ROWS });
+    }
+    const [[uids]] = await pool.query<RowDataPacket[]>(
+      `SELECT COUNT(*) AS n FROM snapshot_uids u JOIN snapshots s
+          ON s.id = u.snapshot_id AND s.uid = u.uid AND s.sender_id = u.sender_id`,
+    );
+    expect(Number(uids!.n)).toBe(ROWS);
   }, 120_000);
 
   it('refuses to start on a database a newer Turnstone has migrated, and changes nothing', async () => {

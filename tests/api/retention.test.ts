@@ -1,14 +1,10 @@
 /**
- * Tiered retention of spectra and the bounded raw-sample expiry, on a real MariaDB with
- * captures stored by the real ingest and worker (taken at chosen past times).
- *
- * The tiers are the policy's defaults, which are common practice, no source: every spectrum
- * for 14 days, then the first capture per point per UTC hour until 90 days (moved back to
- * a UTC midnight), then the first per UTC day. The expectations below follow from that
- * definition, capture by capture.
+ * The retention policy (defaults, what the administrator sees) and the bounded batches the
+ * thinning and raw-sample expiry passes run in, on a real MariaDB with captures stored by
+ * the real ingest and worker (taken at chosen past times). The tiers themselves, capture by
+ * capture: retention-thinning.test.ts. The defaults are common practice, no source.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import {
   expireRawSamplesPass,
   retentionPolicy,
@@ -16,55 +12,15 @@ import {
 } from '../../apps/server/src/features/worker/retention.ts';
 import { loadConfig } from '../../apps/server/src/config.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { snapshotBody } from '../support/signals.ts';
+import { analysedCaptures, pointIdOf, spectraWhole } from '../support/analysed-captures.ts';
 
 let srv: TestServer;
 let key: string;
 let cookie: string;
-const TAG = 'MFP-P102-MDE-H';
 const TAG_BATCH = 'MFP-P102-MDE-V';
 /** The fixed "now" of every pass here. */
 const NOW = new Date('2026-10-01T12:00:00.000Z');
 const POLICY = { spectraWholeDays: 14, spectraHourlyDays: 90, keepWindowMinutes: 60 };
-
-async function q(sqlText: string, params: unknown[] = []) {
-  const [rows] = await srv.ctx.dbHandle.pool.query(sqlText, params);
-  return rows as Record<string, unknown>[];
-}
-
-/** Ingests one capture per time through the gateway API and analyses it; returns analysis ids. */
-async function captures(tag: string, times: string[]): Promise<Map<string, number>> {
-  const out = new Map<string, number>();
-  for (const [i, t] of times.entries()) {
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body: snapshotBody(tag, `${tag}-${t}`, {
-        takenAt: t,
-        tones: [{ hz: 24.7, peakG: 0.02 + 0.0005 * i }],
-        seed: i,
-      }),
-      headers: { authorization: `Bearer ${key}` },
-    });
-    expect(res.status).toBe(201);
-    const snapshotId = (await res.json()).snapshotId as number;
-    await createWorker(srv.ctx, { owner: 'retention-test' }).drain();
-    const [a] = await q('SELECT id FROM analyses WHERE snapshot_id = ?', [snapshotId]);
-    out.set(t, Number(a!.id));
-  }
-  return out;
-}
-
-async function pointIdOf(tag: string) {
-  const [p] = await q('SELECT id FROM points WHERE tag = ?', [tag]);
-  return Number(p!.id);
-}
-
-async function whole(id: number) {
-  const [r] = await q(
-    'SELECT spectra IS NOT NULL AS kept, spectra_thinned_at FROM analyses WHERE id = ?',
-    [id],
-  );
-  return Number(r!.kept) === 1 && r!.spectra_thinned_at === null;
-}
 
 beforeAll(async () => {
   srv = await startTestServer();
@@ -87,6 +43,7 @@ describe('retention policy', () => {
       rawSamplesDays: 90,
       spectraWholeDays: 14,
       spectraHourlyDays: 90,
+      captureMonths: 0,
       keepWindowMinutes: 60,
       batchSize: 500,
       batchPauseMs: 200,
@@ -94,6 +51,12 @@ describe('retention policy', () => {
     expect(() => loadConfig({ SPECTRA_WHOLE_DAYS: '30', SPECTRA_HOURLY_DAYS: '7' })).toThrow(
       /SPECTRA_HOURLY_DAYS: must be at least SPECTRA_WHOLE_DAYS/,
     );
+    // Captures are dropped only past the last tier: 3 months (84 days at least) do not cover
+    // the hourly tier's 90 days, 4 do.
+    expect(() => loadConfig({ CAPTURE_RETENTION_MONTHS: '3' })).toThrow(
+      /CAPTURE_RETENTION_MONTHS: must cover the spectra tiers/,
+    );
+    expect(retentionPolicy(loadConfig({ CAPTURE_RETENTION_MONTHS: '4' })).captureMonths).toBe(4);
   });
 });
 
@@ -106,6 +69,7 @@ describe('the policy for the administrator', () => {
       rawSamplesDays: 90,
       spectraWholeDays: 14,
       spectraHourlyDays: 90,
+      captureMonths: 0,
       keepWindowMinutes: 60,
       batchSize: 500,
       batchPauseMs: 200,
@@ -122,11 +86,11 @@ describe('bounded batches', () => {
     const day = ['01:00', '03:00', '05:00', '07:00', '09:00', '11:00'].map(
       (h) => `2026-03-15T${h}:00.000Z`,
     );
-    const ids = await captures(TAG_BATCH, day);
+    const ids = await analysedCaptures(srv, key, TAG_BATCH, day);
     const pass = await thinSpectra(srv.ctx.db, POLICY, NOW, { batchSize: 2 });
     expect(pass).toEqual({ rows: 5, batches: 3 });
-    expect(await whole(ids.get(day[0]!)!)).toBe(true);
-    for (const t of day.slice(1)) expect(await whole(ids.get(t)!)).toBe(false);
+    expect(await spectraWhole(srv, ids.get(day[0]!)!)).toBe(true);
+    for (const t of day.slice(1)) expect(await spectraWhole(srv, ids.get(t)!)).toBe(false);
     // A second pass finds nothing left to do.
     expect(await thinSpectra(srv.ctx.db, POLICY, NOW, { batchSize: 2 })).toEqual({
       rows: 0,
@@ -135,9 +99,9 @@ describe('bounded batches', () => {
   });
 
   it('raw-sample expiry runs in bounded batches too', async () => {
-    const pointId = await pointIdOf(TAG_BATCH);
+    const pointId = await pointIdOf(srv, TAG_BATCH);
     // The thinning pass above dropped the waveforms of the five captures it thinned.
-    const [gone] = await q(
+    const [gone] = await srv.q(
       'SELECT COUNT(*) AS n FROM snapshots WHERE point_id = ? AND samples IS NULL',
       [pointId],
     );
@@ -145,275 +109,29 @@ describe('bounded batches', () => {
     // Five more captures in the whole tier, then all received 100 days back. Captures near
     // an alert event, or where captures turned suspect, keep their waveform (tested below):
     // this point's alerts and quality notices go first.
-    await q(
+    await srv.q(
       'DELETE e FROM alert_events e JOIN alerts al ON al.id = e.alert_id WHERE al.point_id = ?',
       [pointId],
     );
-    await q('DELETE FROM alerts WHERE point_id = ?', [pointId]);
-    await q('DELETE FROM quality_notices WHERE point_id = ?', [pointId]);
-    await captures(
+    await srv.q('DELETE FROM alerts WHERE point_id = ?', [pointId]);
+    await srv.q('DELETE FROM quality_notices WHERE point_id = ?', [pointId]);
+    await analysedCaptures(
+      srv,
+      key,
       TAG_BATCH,
       ['01:00', '02:00', '03:00', '04:00', '05:00'].map((h) => `2026-09-28T${h}:00.000Z`),
     );
-    await q(
+    await srv.q(
       'UPDATE snapshots SET received_at = ? - INTERVAL 100 DAY WHERE point_id = ? AND samples IS NOT NULL',
       [NOW, pointId],
     );
     const pass = await expireRawSamplesPass(srv.ctx.db, 90, NOW, { batchSize: 4 });
     // Six snapshots (the day's kept one and the five new) in batches of at most 4: 4 + 2.
     expect(pass).toEqual({ rows: 6, batches: 2 });
-    const [r] = await q(
+    const [r] = await srv.q(
       'SELECT COUNT(*) AS n FROM snapshots WHERE point_id = ? AND samples IS NULL AND samples_expired_at IS NOT NULL',
       [pointId],
     );
     expect(Number(r!.n)).toBe(11);
-  });
-});
-
-describe('tiered thinning', () => {
-  const T = {
-    // whole tier (younger than 14 days)
-    w1: '2026-09-29T10:05:00.000Z',
-    w2: '2026-09-29T10:15:00.000Z',
-    // hourly tier
-    h1: '2026-09-01T10:05:00.000Z',
-    h2: '2026-09-01T10:35:00.000Z',
-    h3: '2026-09-01T10:55:00.000Z',
-    h4: '2026-09-01T11:05:00.000Z',
-    // hourly tier, finding created at 09:35 (±60 min keeps 08:40, not 08:20)
-    f0: '2026-09-02T08:00:00.000Z',
-    f1: '2026-09-02T08:20:00.000Z',
-    f2: '2026-09-02T08:40:00.000Z',
-    // NOW − 90 d is 07-03 12:00, moved back to 07-03 00:00: both are first of their hour in
-    // the hourly tier (without the move, b2 would be the second of its day in the daily tier)
-    b1: '2026-07-03T06:00:00.000Z',
-    b2: '2026-07-03T07:20:00.000Z',
-    // daily tier; upload at 12:00, alert event at 15:30
-    d1: '2026-05-10T03:00:00.000Z',
-    d2: '2026-05-10T09:00:00.000Z',
-    up: '2026-05-10T12:00:00.000Z',
-    al: '2026-05-10T15:00:00.000Z',
-    d3: '2026-05-10T17:00:00.000Z',
-    d4: '2026-05-10T21:00:00.000Z',
-    // daily tier; a suspect quality notice on 05:00, an unusable one on 06:00
-    e1: '2026-05-11T00:30:00.000Z',
-    qn: '2026-05-11T05:00:00.000Z',
-    e2: '2026-05-11T06:00:00.000Z',
-    // daily tier; limits changed at 06:00
-    l1: '2026-05-12T01:00:00.000Z',
-    l2: '2026-05-12T07:00:00.000Z',
-    l3: '2026-05-12T08:00:00.000Z',
-    // daily tier; the second of its day is pinned by a person
-    p1: '2026-05-13T01:00:00.000Z',
-    pn: '2026-05-13T09:00:00.000Z',
-  } as const;
-  type Label = keyof typeof T;
-  const keep: Label[] = ['w1', 'w2', 'h1', 'h4', 'f0', 'f2', 'b1', 'b2', 'd1', 'up', 'al', 'e1'];
-  keep.push('qn', 'l1', 'l2', 'p1', 'pn');
-  const thin: Label[] = ['h2', 'h3', 'f1', 'd2', 'd3', 'd4', 'e2', 'l3'];
-  let ids: Map<string, number>;
-  let pointId: number;
-  const id = (l: Label) => ids.get(T[l])!;
-  let before: Map<number, { v: number; bands: number }>;
-  /** 1 when the capture still holds its raw waveform, else 0. */
-  const hasSamples = async (l: Label) =>
-    Number(
-      (
-        await q(
-          'SELECT s.samples IS NOT NULL AS has FROM snapshots s JOIN analyses a ON a.snapshot_id = s.id WHERE a.id = ?',
-          [id(l)],
-        )
-      )[0]!.has,
-    );
-
-  beforeAll(async () => {
-    pointId = await pointIdOf(TAG);
-    ids = await captures(TAG, Object.values(T));
-    const [snap] = await q('SELECT snapshot_id FROM analyses WHERE id = ?', [id('up')]);
-    await q("UPDATE snapshots SET source = 'upload', gateway_id = NULL WHERE id = ?", [
-      snap!.snapshot_id,
-    ]);
-    const [user] = await q("SELECT id FROM users WHERE email = 'admin@turnstone.local'");
-    const [alert] = (await srv.ctx.dbHandle.pool.query(
-      `INSERT INTO alerts (point_id, band_key, band_name, level, state, unit, limit_value,
-         first_value, last_value, peak_value, first_at, last_at, peak_at)
-       VALUES (?, 'overall-velocity', 'Overall velocity', 'alert', 'cleared', 'mm/s', 4.5,
-         5, 5, 5, ?, ?, ?)`,
-      [pointId, new Date(T.al), new Date(T.al), new Date(T.al)],
-    )) as unknown as [{ insertId: number }];
-    await q(
-      "INSERT INTO alert_events (alert_id, kind, level, value, at) VALUES (?, 'raised', 'alert', 5, ?)",
-      [alert.insertId, new Date('2026-05-10T15:30:00.000Z')],
-    );
-    await q('INSERT INTO findings (point_id, title, created_by, created_at) VALUES (?, ?, ?, ?)', [
-      pointId,
-      'Check coupling',
-      user!.id,
-      new Date('2026-09-02T09:35:00.000Z'),
-    ]);
-    await q(
-      "INSERT INTO quality_notices (point_id, analysis_id, verdict, findings, taken_at) VALUES (?, ?, 'suspect', '[]', ?)",
-      [pointId, id('qn'), new Date(T.qn)],
-    );
-    // An unusable capture's notice does not keep it (a dead sensor would keep a year whole).
-    await q(
-      "INSERT INTO quality_notices (point_id, analysis_id, verdict, findings, taken_at) VALUES (?, ?, 'unusable', '[]', ?)",
-      [pointId, id('e2'), new Date(T.e2)],
-    );
-    await q(
-      "INSERT INTO audit_log (action, entity, entity_id, at) VALUES ('limits.update', 'point', ?, ?)",
-      [String(pointId), new Date('2026-05-12T06:00:00.000Z')],
-    );
-    // A row written before the compact column: its float32 column goes too.
-    await q('UPDATE analyses SET spectra = NULL, accel_spectrum = ? WHERE id = ?', [
-      Buffer.alloc(16),
-      id('d4'),
-    ]);
-    const engineer = await srv.signIn('engineer');
-    const pin = await srv.call('PUT', `/api/v1/analyses/${id('pn')}/pin`, {
-      cookie: engineer,
-      body: { note: 'Reference capture before the bearing change' },
-    });
-    expect(pin.status).toBe(200);
-    expect((await pin.json()).note).toBe('Reference capture before the bearing change');
-    before = new Map();
-    for (const l of [...keep, ...thin]) {
-      const [a] = await q(
-        `SELECT a.velocity_rms_mm_s AS v, (SELECT COUNT(*) FROM band_values b WHERE b.analysis_id = a.id) AS bands
-           FROM analyses a WHERE a.id = ?`,
-        [id(l)],
-      );
-      before.set(id(l), { v: Number(a!.v), bands: Number(a!.bands) });
-    }
-    const pass = await thinSpectra(srv.ctx.db, POLICY, NOW, { batchSize: 3 });
-    expect(pass.rows).toBe(thin.length);
-  });
-
-  it('keeps exactly the tier keepers and the protected captures whole', async () => {
-    const kept = [];
-    for (const l of [...keep, ...thin]) if (await whole(id(l))) kept.push(l);
-    expect(kept.sort()).toEqual([...keep].sort());
-    for (const l of thin) {
-      const [r] = await q(
-        `SELECT spectra, accel_spectrum, velocity_spectrum, envelope_spectrum, order_spectrum,
-                spectra_thinned_at FROM analyses WHERE id = ?`,
-        [id(l)],
-      );
-      expect(r).toMatchObject({
-        spectra: null,
-        accel_spectrum: null,
-        velocity_spectrum: null,
-        envelope_spectrum: null,
-        order_spectrum: null,
-      });
-      expect((r!.spectra_thinned_at as Date).getTime()).toBe(NOW.getTime());
-    }
-  });
-
-  it('drops the raw waveform of thinned captures and keeps that of whole ones', async () => {
-    for (const l of thin) expect([l, await hasSamples(l)]).toEqual([l, 0]);
-    for (const l of keep) expect([l, await hasSamples(l)]).toEqual([l, 1]);
-    const res = await srv.call('GET', `/api/v1/analyses/${id('h3')}/waveform`, { cookie });
-    expect(res.status).toBeGreaterThanOrEqual(400);
-  });
-
-  it('raw-waveform expiry spares the captures kept whole (pinned, uploads, alert and finding windows, limit changes, suspect)', async () => {
-    // 20 days: every capture here except w1/w2 is older (received time set to taken time).
-    await q(
-      'UPDATE snapshots s JOIN analyses a ON a.snapshot_id = s.id SET s.received_at = a.taken_at WHERE a.point_id = ?',
-      [pointId],
-    );
-    await expireRawSamplesPass(srv.ctx.db, 20, NOW, { batchSize: 4, keepWindowMinutes: 60 });
-    const spared: Label[] = ['w1', 'w2', 'f2', 'up', 'al', 'qn', 'l2', 'pn'];
-    const expired: Label[] = ['h1', 'h4', 'f0', 'b1', 'b2', 'd1', 'e1', 'l1', 'p1'];
-    for (const l of spared) expect([l, await hasSamples(l)]).toEqual([l, 1]);
-    for (const l of expired) expect([l, await hasSamples(l)]).toEqual([l, 0]);
-  });
-
-  it('lists who pinned a capture; unpinning is audited and a second unpin is 404', async () => {
-    const engineer = await srv.signIn('engineer');
-    const list = await srv.call('GET', `/api/v1/points/${pointId}/analyses?limit=200`, {
-      cookie: engineer,
-    });
-    const items = (await list.json()).items as { id: number; pinned: { note: string } | null }[];
-    expect(items.find((i) => i.id === id('pn'))!.pinned!.note).toBe(
-      'Reference capture before the bearing change',
-    );
-    expect(items.find((i) => i.id === id('p1'))!.pinned).toBeNull();
-    const operator = await srv.signIn('operator');
-    const denied = await srv.call('DELETE', `/api/v1/analyses/${id('pn')}/pin`, {
-      cookie: operator,
-    });
-    expect(denied.status).toBe(403);
-    const bad = await srv.call('PUT', `/api/v1/analyses/${id('p1')}/pin`, {
-      cookie: engineer,
-      body: { note: 'x'.repeat(201) },
-    });
-    expect(bad.status).toBe(400);
-    const un = await srv.call('DELETE', `/api/v1/analyses/${id('pn')}/pin`, { cookie: engineer });
-    expect(un.status).toBe(204);
-    const again = await srv.call('DELETE', `/api/v1/analyses/${id('pn')}/pin`, {
-      cookie: engineer,
-    });
-    expect(again.status).toBe(404);
-    const audit = await q(
-      "SELECT action FROM audit_log WHERE action IN ('capture.pin', 'capture.unpin') ORDER BY id",
-    );
-    expect(audit.map((a) => a.action)).toEqual(['capture.pin', 'capture.unpin']);
-  });
-
-  it('keeps the scalars, band values, summary and diagnosis of thinned captures', async () => {
-    for (const l of thin) {
-      const [a] = await q(
-        `SELECT a.velocity_rms_mm_s AS v, a.summary IS NOT NULL AS s,
-                (SELECT COUNT(*) FROM band_values b WHERE b.analysis_id = a.id) AS bands
-           FROM analyses a WHERE a.id = ?`,
-        [id(l)],
-      );
-      const b = before.get(id(l))!;
-      expect(Number(a!.v)).toBe(b.v);
-      expect(Number(a!.bands)).toBe(b.bands);
-      expect(b.bands).toBeGreaterThan(0);
-      expect(Number(a!.s)).toBe(1);
-    }
-  });
-
-  it('the spectrum of a thinned capture answers 410 naming the nearest whole capture', async () => {
-    const res = await srv.call('GET', `/api/v1/analyses/${id('h3')}/spectrum?kind=velocity`, {
-      cookie,
-    });
-    expect(res.status).toBe(410);
-    const body = await res.json();
-    expect(body.error.code).toBe('spectrum_thinned');
-    expect(body.error.message).toMatch(/retention/);
-    // h3 (10:55): h1 is 50 min before, h4 10 min after.
-    expect(body.error.details.nearest).toEqual({ analysisId: id('h4'), takenAt: T.h4 });
-    const ok = await srv.call('GET', `/api/v1/analyses/${id('h4')}/spectrum?kind=velocity`, {
-      cookie,
-    });
-    expect(ok.status).toBe(200);
-  });
-
-  it('the analyses list marks which captures had their spectra thinned', async () => {
-    const res = await srv.call('GET', `/api/v1/points/${pointId}/analyses?limit=200`, { cookie });
-    expect(res.status).toBe(200);
-    const flags = new Map(
-      (await res.json()).items.map((i: { id: number; spectraThinned: boolean }) => [
-        i.id,
-        i.spectraThinned,
-      ]),
-    );
-    for (const l of thin) expect(flags.get(id(l))).toBe(true);
-    for (const l of keep) expect(flags.get(id(l))).toBe(false);
-  });
-
-  it('the waterfall skips thinned captures', async () => {
-    const res = await srv.call('GET', `/api/v1/points/${pointId}/waterfall?limit=50`, { cookie });
-    expect(res.status).toBe(200);
-    const shown = new Set(
-      (await res.json()).items.map((i: { analysisId: number }) => i.analysisId),
-    );
-    for (const l of thin) expect(shown.has(id(l))).toBe(false);
-    for (const l of ['w1', 'h1', 'd1'] as Label[]) expect(shown.has(id(l))).toBe(true);
   });
 });

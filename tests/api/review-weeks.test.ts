@@ -295,6 +295,18 @@ describe('quality notices reviewed, and the Data quality status', () => {
     );
     expect(n!.name).toBe('Pat Planner');
     expect((n!.reviewed_at as Date).toISOString()).toBe(out.reviewedAt);
+    // Who reviewed and when is read back with the notice.
+    const reviewedId = await pid(reviewed);
+    const notices = async (cookie: string, query = `pointId=${reviewedId}`) =>
+      srv.call('GET', `/api/v1/quality-notices?${query}`, { cookie });
+    const listed = await (await notices(planner)).json();
+    expect(listed.items).toHaveLength(1);
+    expect(listed.items[0]).toMatchObject({
+      verdict: 'unusable',
+      reviewedBy: { name: 'Pat Planner' },
+      reviewedAt: out.reviewedAt,
+    });
+    expect((await notices(planner, 'pointId=x')).status).toBe(400);
     // The newest capture is still the clipped (unusable) one, but its notice is reviewed.
     const [v] = await srv.q('SELECT last_verdict FROM points WHERE tag = ?', [reviewed]);
     expect(v!.last_verdict).toBe('unusable');
@@ -309,6 +321,12 @@ describe('quality notices reviewed, and the Data quality status', () => {
       body: { pointId: await pid(reviewed) },
     });
     expect((await again.json()).reviewed).toBe(1); // the new notice only
+    const both = (await (await notices(planner)).json()).items;
+    expect(both).toHaveLength(2);
+    // Newest capture first; each keeps its own reviewer and time.
+    expect(Date.parse(both[0].takenAt)).toBeGreaterThan(Date.parse(both[1].takenAt));
+    expect(both[1].reviewedAt).toBe(out.reviewedAt);
+    expect(both[0].reviewedBy).toMatchObject({ name: 'Pat Planner' });
     const none = await srv.call('POST', '/api/v1/quality-notices/review', {
       cookie: planner,
       body: { pointId: await pid(reviewed) },

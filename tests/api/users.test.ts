@@ -1,46 +1,15 @@
 /**
- * Users admin, invite and reset links, account and mailbox — against the real server and
- * its local SMTP fake (links are read from the messages the fake received).
+ * Users admin, invite and reset links — against the real server and its local SMTP fake (links are read from the messages the fake received).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { requestPasswordReset } from '../../apps/server/src/features/users/users-service.ts';
+import { inMailbox, lastMailTo, signInAs, tokenIn } from '../support/mail-inbox.ts';
 
 let srv: TestServer;
 let admin = '';
 type Row = Record<string, unknown>;
 const q = (sqlText: string, params: unknown[] = []) => srv.q<Row>(sqlText, params);
-
-/**
- * Sends what is due, then the newest message the SMTP fake received for `to`, as its
- * recipient gets it (the admin's Mailbox hides the links of mail to others).
- */
-interface Received {
-  id: number;
-  subject: string;
-  text: string;
-  html: string;
-}
-// eslint-disable-next-line @typescript-eslint/no-explicit-any -- null until it arrives
-async function lastMailTo(to: string): Promise<any> {
-  await srv.mail.sender.drain();
-  const [m] = await q(
-    'SELECT id, subject, text_body AS text, html_body AS html FROM mail_messages WHERE mail_to = ? ORDER BY id DESC LIMIT 1',
-    [to],
-  );
-  return (m as Received | undefined) ?? null;
-}
-/** The same message as the admin's Mailbox shows it. */
-const inMailbox = async (id: number) =>
-  (await srv.call('GET', `/api/v1/mailbox/${id}`, { cookie: admin })).json();
-const tokenIn = (text: string, page: string) => {
-  const m = new RegExp(`${srv.url}/${page}#token=([A-Za-z0-9_-]+)`).exec(text);
-  return m?.[1] ?? null;
-};
-async function signInAs(email: string, password: string) {
-  return srv.call('POST', '/api/v1/auth/sign-in', { body: { email, password } });
-}
-const cookieOf = (res: Response) => (res.headers.get('set-cookie') ?? '').split(';')[0]!;
 
 async function invite(email: string, role = 'operator', siteIds = [1]) {
   const res = await srv.call('POST', '/api/v1/users/invite', {
@@ -86,13 +55,13 @@ describe('users admin', () => {
     const [stored] = await q('SELECT token_hash, purpose FROM user_tokens WHERE user_id = ?', [
       u.id,
     ]);
-    const mail = await lastMailTo('nia@example.test');
+    const mail = await lastMailTo(srv, 'nia@example.test');
     expect(mail.subject).toBe('You are invited to Turnstone');
-    const token = tokenIn(mail.text, 'accept-invite')!;
+    const token = tokenIn(srv, mail.text, 'accept-invite')!;
     expect(token).toBeTruthy();
     // The admin's Mailbox shows that the link went out, not a link that works; the outbox
     // keeps no live link once the message is sent.
-    const shown = await inMailbox(mail.id);
+    const shown = await inMailbox(srv, admin, mail.id);
     expect(shown.text).toContain(`${srv.url}/accept-invite#token=hidden`);
     expect(JSON.stringify(shown)).not.toContain(token);
     const [sent] = await q(
@@ -104,13 +73,13 @@ describe('users admin', () => {
     // Only the SHA-256 of the token is stored, never the token itself.
     expect(stored!.token_hash).toMatch(/^[0-9a-f]{64}$/);
     expect(stored!.token_hash).not.toContain(token);
-    expect((await signInAs('nia@example.test', 'new-password-1')).status).toBe(401);
+    expect((await signInAs(srv, 'nia@example.test', 'new-password-1')).status).toBe(401);
 
     const ok = await srv.call('POST', '/api/v1/auth/accept-invite', {
       body: { token, password: 'new-password-1' },
     });
     expect(ok.status).toBe(204);
-    expect((await signInAs('nia@example.test', 'new-password-1')).status).toBe(200);
+    expect((await signInAs(srv, 'nia@example.test', 'new-password-1')).status).toBe(200);
     const again = await srv.call('POST', '/api/v1/auth/accept-invite', {
       body: { token, password: 'other-password-2' },
     });
@@ -124,7 +93,7 @@ describe('users admin', () => {
 
   it('an invite link whose expiry has passed is refused', async () => {
     const u = await invite('late@example.test');
-    const token = tokenIn((await lastMailTo('late@example.test')).text, 'accept-invite')!;
+    const token = tokenIn(srv, (await lastMailTo(srv, 'late@example.test')).text, 'accept-invite')!;
     // Invite links last 72 h (issue 7 brief); seconds between issue and expiry.
     const [t] = await q(
       'SELECT TIMESTAMPDIFF(SECOND, created_at, expires_at) AS s FROM user_tokens WHERE user_id = ?',
@@ -140,7 +109,7 @@ describe('users admin', () => {
       body: { token, password: 'new-password-1' },
     });
     expect(res.status).toBe(400);
-    expect((await signInAs('late@example.test', 'new-password-1')).status).toBe(401);
+    expect((await signInAs(srv, 'late@example.test', 'new-password-1')).status).toBe(401);
   });
 
   it('an invite for an address already in use answers 409; a too-short password answers 400 on the field', async () => {
@@ -215,11 +184,11 @@ describe('users admin', () => {
     expect(dis.status).toBe(200);
     expect((await dis.json()).disabledAt).not.toBeNull();
     expect((await srv.call('GET', '/api/v1/me', { cookie: c })).status).toBe(401);
-    expect((await signInAs('planner@turnstone.local', 'turnstone-demo')).status).toBe(401);
+    expect((await signInAs(srv, 'planner@turnstone.local', 'turnstone-demo')).status).toBe(401);
     expect(
       (await srv.call('POST', `/api/v1/users/${pl!.id}/enable`, { cookie: admin })).status,
     ).toBe(200);
-    expect((await signInAs('planner@turnstone.local', 'turnstone-demo')).status).toBe(200);
+    expect((await signInAs(srv, 'planner@turnstone.local', 'turnstone-demo')).status).toBe(200);
     // The old session stays ended.
     expect((await srv.call('GET', '/api/v1/me', { cookie: c })).status).toBe(401);
   });
@@ -257,16 +226,16 @@ describe('password reset', () => {
     let mail = null;
     for (let i = 0; i < 20 && !mail; i++) {
       await new Promise((r) => setTimeout(r, 100));
-      mail = await lastMailTo('engineer@turnstone.local');
+      mail = await lastMailTo(srv, 'engineer@turnstone.local');
     }
     expect(mail.subject).toBe('Reset your Turnstone password');
-    const token = tokenIn(mail.text, 'reset-password')!;
+    const token = tokenIn(srv, mail.text, 'reset-password')!;
     const ok = await srv.call('POST', '/api/v1/auth/reset-password', {
       body: { token, password: 'engineer-new-1' },
     });
     expect(ok.status).toBe(204);
     expect((await srv.call('GET', '/api/v1/me', { cookie: old })).status).toBe(401);
-    expect((await signInAs('engineer@turnstone.local', 'engineer-new-1')).status).toBe(200);
+    expect((await signInAs(srv, 'engineer@turnstone.local', 'engineer-new-1')).status).toBe(200);
     const again = await srv.call('POST', '/api/v1/auth/reset-password', {
       body: { token, password: 'engineer-new-2' },
     });
@@ -286,9 +255,9 @@ describe('password reset', () => {
     let mail = null;
     for (let i = 0; i < 20 && !mail; i++) {
       await new Promise((r) => setTimeout(r, 100));
-      mail = await lastMailTo('operator@turnstone.local');
+      mail = await lastMailTo(srv, 'operator@turnstone.local');
     }
-    const token = tokenIn(mail.text, 'reset-password')!;
+    const token = tokenIn(srv, mail.text, 'reset-password')!;
     await q(
       "UPDATE user_tokens SET expires_at = CURRENT_TIMESTAMP(3) - INTERVAL 1 SECOND WHERE purpose = 'reset'",
     );
@@ -296,7 +265,7 @@ describe('password reset', () => {
       body: { token, password: 'operator-new-1' },
     });
     expect(res.status).toBe(400);
-    expect((await signInAs('operator@turnstone.local', 'turnstone-demo')).status).toBe(200);
+    expect((await signInAs(srv, 'operator@turnstone.local', 'turnstone-demo')).status).toBe(200);
   });
 });
 
@@ -319,89 +288,5 @@ describe('reset request limits', () => {
       body: { email: 'someone-else@example.test' },
     });
     expect(other.status).toBe(202);
-  });
-});
-
-describe('account', () => {
-  it('changing the password needs the current one, ends other sessions and keeps this one', async () => {
-    const a = await srv.signIn('planner');
-    const b = await srv.signIn('planner');
-    const wrong = await srv.call('POST', '/api/v1/account/password', {
-      cookie: a,
-      body: { currentPassword: 'nope', newPassword: 'planner-new-1' },
-    });
-    expect(wrong.status).toBe(400);
-    const ok = await srv.call('POST', '/api/v1/account/password', {
-      cookie: a,
-      body: { currentPassword: 'turnstone-demo', newPassword: 'planner-new-1' },
-    });
-    expect(ok.status).toBe(204);
-    const fresh = cookieOf(ok as unknown as Response);
-    expect((await srv.call('GET', '/api/v1/me', { cookie: fresh })).status).toBe(200);
-    expect((await srv.call('GET', '/api/v1/me', { cookie: b })).status).toBe(401);
-    expect((await signInAs('planner@turnstone.local', 'planner-new-1')).status).toBe(200);
-  });
-
-  it('notification settings read back as saved, and a site the user cannot see is refused', async () => {
-    const [e] = await q("SELECT id FROM users WHERE email = 'operator@turnstone.local'");
-    await srv.call('PATCH', `/api/v1/users/${e!.id}`, { cookie: admin, body: { siteIds: [1] } });
-    const op = await srv.signIn('operator');
-    const got = await (
-      await srv.call('GET', '/api/v1/account/subscriptions', { cookie: op })
-    ).json();
-    // Every operator hears of their sites' alerts by default (the demo operator too).
-    expect(got.items).toEqual([
-      { siteId: 1, machineId: null, minLevel: 'alert', cadence: 'immediate' },
-    ]);
-    expect(got.options.sites.map((s: { code: string }) => s.code)).toEqual(['MFP']);
-    const machineId = got.options.machines[0].id;
-    const put = await srv.call('PUT', '/api/v1/account/subscriptions', {
-      cookie: op,
-      body: {
-        items: [
-          { siteId: 1, machineId: null, minLevel: 'danger', cadence: 'immediate' },
-          { siteId: null, machineId, minLevel: 'alert', cadence: 'hourly' },
-        ],
-        weeklyDigest: false,
-      },
-    });
-    expect(put.status).toBe(200);
-    const back = await (
-      await srv.call('GET', '/api/v1/account/subscriptions', { cookie: op })
-    ).json();
-    expect(back.items).toEqual([
-      { siteId: 1, machineId: null, minLevel: 'danger', cadence: 'immediate' },
-      { siteId: null, machineId, minLevel: 'alert', cadence: 'hourly' },
-    ]);
-    const bad = await srv.call('PUT', '/api/v1/account/subscriptions', {
-      cookie: op,
-      body: {
-        items: [{ siteId: 2, machineId: null, minLevel: 'alert', cadence: 'immediate' }],
-        weeklyDigest: false,
-      },
-    });
-    expect(bad.status).toBe(400);
-  });
-});
-
-describe('mailbox', () => {
-  it("an admin's own sign-in link stays readable in the Mailbox", async () => {
-    await requestPasswordReset(srv.ctx, 'admin@turnstone.local');
-    const mail = (await lastMailTo('admin@turnstone.local'))!;
-    const token = tokenIn(mail.text, 'reset-password')!;
-    expect(token).toBeTruthy();
-    expect((await inMailbox(mail.id)).text).toContain(`reset-password#token=${token}`);
-  });
-
-  it('shows one message with text and sanitised HTML', async () => {
-    const list = await (await srv.call('GET', '/api/v1/mailbox', { cookie: admin })).json();
-    expect(list.items.length).toBeGreaterThan(0);
-    expect(Object.keys(list.items[0]).sort()).toEqual(['id', 'receivedAt', 'subject', 'to']);
-    const one = await (
-      await srv.call('GET', `/api/v1/mailbox/${list.items[0].id}`, { cookie: admin })
-    ).json();
-    expect(one.text).toBeTruthy();
-    expect(one.html).toContain('<a href=');
-    expect((await srv.call('GET', '/api/v1/mailbox/999999', { cookie: admin })).status).toBe(404);
   });
 });

@@ -1,6 +1,6 @@
 // How fast the screens open in a real browser, next to how fast their data answers.
 // The product is built (`vite build`, as `npm start` does when the build is stale) and served
-// as in production by the real server, on a private MariaDB with the demo plant and 12 weeks
+// as in production by the real server, on a private MariaDB with the demo plant and 3 weeks
 // of its history generated through the analysis pipeline. Debian's Chromium (playwright-core).
 //
 // For each role's main screens:
@@ -282,7 +282,7 @@ async function main() {
   const t0 = performance.now();
   const bench = await startBenchServer('page', {
     BUILD_WEB: 'true',
-    DEMO_HISTORY_WEEKS: '12',
+    DEMO_HISTORY_WEEKS: '3',
     HOST: '127.0.0.1',
   });
   let browser: Browser | undefined;
@@ -300,7 +300,7 @@ async function main() {
       tag: rows[0]!.tag,
     };
     console.log(
-      `demo plant with 12 weeks of history ready in ${((performance.now() - t0) / 1000).toFixed(0)} s; ` +
+      `demo plant with 3 weeks of history ready in ${((performance.now() - t0) / 1000).toFixed(0)} s; ` +
         `point ${ids.pointId}, machine ${ids.machineId}`,
     );
     const cookies: Record<string, string> = {};

@@ -15,9 +15,11 @@ import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
 import type { Page } from 'playwright-core';
 import { snapshotBody } from '../support/signals.ts';
+import { formatDateTime } from '@turnstone/contracts/dates';
 
 let srv: TestServer;
 let browser: Browser;
+let CLIPPED = '';
 const RISING = 'MFP-P102-MDE-H';
 const DAY_MS = 86_400_000;
 const DAY0 = Date.parse('2026-11-02T12:00:00Z');
@@ -56,6 +58,23 @@ beforeAll(async () => {
   };
   for (let d = 0; d <= 13; d++) await send(RISING, `b-rise-${d}`, d, 1 + 0.05 * d);
   for (const d of [12, 13]) await send('MFP-P101-MDE-H', `b-alert-${d}`, d, 3.0);
+  // One clipped capture (0.8 g peak into a 0.5 g full scale) on a third point: a quality notice.
+  const [row] = await srv.q(
+    "SELECT tag FROM points WHERE tag LIKE 'MFP-%' AND tag NOT IN ('MFP-P101-MDE-H', ?) ORDER BY id LIMIT 1",
+    [RISING],
+  );
+  CLIPPED = String(row!.tag);
+  const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+    body: snapshotBody(CLIPPED, 'b-clipped', {
+      takenAt: new Date(DAY0 + 11 * DAY_MS).toISOString(),
+      tones: [{ hz: SHAFT_HZ, peakG: 0.8 }],
+      speedRpm: 1480,
+      sensitivityMvPerG: 1000,
+      fullScaleV: 0.5,
+    }),
+    headers: { authorization: `Bearer ${key}` },
+  });
+  expect(res.status).toBe(201);
   await createWorker(srv.ctx).drain();
   browser = await launchBrowser();
 }, 120_000);
@@ -218,6 +237,35 @@ describe('weekly review in a real browser', () => {
     expect(pages(summaryOnly)).toBeLessThanOrEqual(2);
     expect(pages(whole)).toBeGreaterThan(pages(summaryOnly));
     await screenshot(page, 'review-print-summary');
+    await page.context().close();
+  });
+
+  it('planner marks a quality notice reviewed; the point page shows who reviewed it and when', async () => {
+    const page = await newPage(browser);
+    await signInAs(page, srv.url, 'planner');
+    await page.goto(`${srv.url}/review?weekEnding=2026-11-15`);
+    const notices = page.locator('#quality-notices');
+    await notices.getByRole('button', { name: `Mark reviewed: notices of ${CLIPPED}` }).click();
+    await page
+      .getByText(`1 quality notice of ${CLIPPED} marked reviewed by Pat Planner at`)
+      .waitFor();
+    await notices.getByText('No unreviewed quality notices this week.').waitFor();
+    const [stored] = await srv.q(
+      'SELECT n.reviewed_at FROM quality_notices n JOIN points p ON p.id = n.point_id WHERE p.tag = ?',
+      [CLIPPED],
+    );
+    const at = (stored!.reviewed_at as Date).getTime();
+    await screenshot(page, 'review-notice-reviewed');
+
+    const [p] = await srv.q('SELECT id FROM points WHERE tag = ?', [CLIPPED]);
+    await page.goto(`${srv.url}/points/${p!.id}`);
+    const area = page.getByRole('region', { name: /Data quality/ });
+    await area.waitFor();
+    await area.getByText('all notices reviewed').waitFor();
+    // The stored time, in the one date format (contracts/dates.ts) and the zone the screen names.
+    await area.getByText(`Reviewed by Pat Planner, ${formatDateTime(at, 'UTC')}`).waitFor();
+    await area.getByText('Unusable').waitFor();
+    await screenshot(page, 'point-quality-notices');
     await page.context().close();
   });
 

@@ -1,4 +1,4 @@
-/** Captures through the real ingest API and worker, for tests that need alerts or history. */
+/** Captures through the real ingest API and worker, for tests that need analyses, alerts or history. */
 import { expect } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import type { TestServer } from './test-server.ts';
@@ -9,6 +9,32 @@ import { snapshotBody } from './signals.ts';
  * (v = a/2πf for a sine, RMS = peak/√2; calculus of a sinusoid, textbook). 24.7 Hz is 1× of the demo pumps.
  */
 export const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
+
+/** Posts one snapshot body with a gateway's key; the answer must be 201. Its snapshot id. */
+export async function postSnapshot(srv: TestServer, key: string, body: unknown): Promise<number> {
+  const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+    body,
+    headers: { authorization: `Bearer ${key}` },
+  });
+  expect(res.status).toBe(201);
+  return (await res.json()).snapshotId as number;
+}
+
+/** The id of the analysis made of a snapshot. */
+export async function analysisOfSnapshot(srv: TestServer, snapshotId: number): Promise<number> {
+  const [a] = await srv.q('SELECT id FROM analyses WHERE snapshot_id = ?', [snapshotId]);
+  return Number(a!.id);
+}
+
+/**
+ * Marks every queued or running job failed: earlier tests on the same server leave retried
+ * jobs behind, and a test that counts what its own drains run starts from a quiet queue.
+ */
+export async function quietQueue(srv: TestServer): Promise<void> {
+  await srv.q(
+    "UPDATE jobs SET state = 'failed', lease_owner = NULL WHERE state IN ('queued', 'running')",
+  );
+}
 
 /** A gateway API key for a site, created by the admin. */
 export async function gatewayKey(srv: TestServer, siteId: number): Promise<string> {

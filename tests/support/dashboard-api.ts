@@ -960,6 +960,26 @@ export interface paths {
         patch: operations["patchFindingsById"];
         trace?: never;
     };
+    "/quality-notices": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A point's quality notices, newest first, with who reviewed each and when
+         * @description Roles: admin, engineer, planner, operator (every role).
+         */
+        get: operations["getQualityNotices"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/quality-notices/review": {
         parameters: {
             query?: never;
@@ -1473,6 +1493,7 @@ export interface operations {
                             siteIds: number[];
                             /** @enum {string} */
                             unitSystem: "metric" | "imperial";
+                            timeZone: string;
                         };
                     };
                 };
@@ -1594,6 +1615,7 @@ export interface operations {
                             siteIds: number[];
                             /** @enum {string} */
                             unitSystem: "metric" | "imperial";
+                            timeZone: string;
                         } | null;
                     };
                 };
@@ -1642,6 +1664,7 @@ export interface operations {
                         siteIds: number[];
                         /** @enum {string} */
                         unitSystem: "metric" | "imperial";
+                        timeZone: string;
                     };
                 };
             };
@@ -2262,6 +2285,7 @@ export interface operations {
                         rawSamplesDays: number;
                         spectraWholeDays: number;
                         spectraHourlyDays: number;
+                        captureMonths: number;
                         keepWindowMinutes: number;
                         batchSize: number;
                         batchPauseMs: number;
@@ -8296,6 +8320,95 @@ export interface operations {
             };
             /** @description `not_found`. */
             404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
+            503: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Any other error, in the same shape. */
+            default: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getQualityNotices: {
+        parameters: {
+            query: {
+                pointId: number;
+                limit?: number;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Success. */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        items: {
+                            id: number;
+                            pointId: number;
+                            snapshotId: number | null;
+                            /** @enum {string} */
+                            verdict: "ok" | "suspect" | "unusable";
+                            takenAt: string;
+                            findings: {
+                                code: string;
+                                /** @enum {string} */
+                                severity: "suspect" | "unusable";
+                                message: string;
+                                value: number;
+                            }[];
+                            reviewedBy: {
+                                id: number;
+                                name: string;
+                            } | null;
+                            reviewedAt: string | null;
+                        }[];
+                    };
+                };
+            };
+            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description `forbidden`: the role may not do this, or the site is not yours. */
+            403: {
                 headers: {
                     [name: string]: unknown;
                 };

@@ -36,6 +36,7 @@ import { userLinkRoutes, userRoutes } from './features/users/users-router.ts';
 import { accountRoutes } from './features/account/account-router.ts';
 import { mailboxRoutes } from './features/mailbox/mailbox-router.ts';
 import { apiTokenRoutes } from './features/api-tokens/api-tokens-router.ts';
+import { userFromApiToken } from './features/api-tokens/api-tokens-service.ts';
 import { idempotentHandler, isCreating } from './features/idempotency/idempotent-route.ts';
 import { webhookRoutes } from './features/webhooks/webhooks-router.ts';
 import { apiDocsRoutes } from './features/api-docs/api-docs-router.ts';
@@ -100,10 +101,18 @@ function featureRouteGroups(ctx: AppContext): RouteGroup[] {
   ];
 }
 
+/** Who is calling: a session cookie (auth) or an API token (api-tokens looks the token up). */
+const authenticateFor = (ctx: AppContext) =>
+  createAuthenticate(ctx, (token) => userFromApiToken(ctx, token));
+
 /** Every dashboard route below /api/v1 by feature: the OpenAPI document's source. */
 export function dashboardRouteGroups(ctx: AppContext): RouteGroup[] {
   return [
-    { tag: 'auth', description: 'Sign-in, sign-out and the session.', routes: authRoutes(ctx) },
+    {
+      tag: 'auth',
+      description: 'Sign-in, sign-out and the session.',
+      routes: authRoutes(ctx, authenticateFor(ctx)),
+    },
     ...featureRouteGroups(ctx),
   ];
 }
@@ -174,7 +183,7 @@ export function createApp(ctx: AppContext) {
 
   app.use(compression());
 
-  const authenticate = createAuthenticate(ctx);
+  const authenticate = authenticateFor(ctx);
   const api = Router();
   api.use(express.json({ limit: '1mb' }));
   api.use(cookieParser());

@@ -60,8 +60,11 @@ const envSchema = z.object({
   SESSION_HOURS: z.coerce.number().positive().max(720).default(12),
   /** Seed the demo plant into an empty database. */
   SEED_DEMO: bool(true),
-  /** Weeks of generated demo history seeded through the pipeline on first start (0: none). */
-  DEMO_HISTORY_WEEKS: z.coerce.number().int().min(0).max(52).default(12),
+  /**
+   * Weeks of generated demo history seeded through the pipeline on first start (0: none),
+   * one capture per point every 4 hours; 3 weeks seed within the first start's minute.
+   */
+  DEMO_HISTORY_WEEKS: z.coerce.number().int().min(0).max(52).default(3),
   /** Password of the demo accounts. */
   DEMO_PASSWORD: z.string().min(8).max(64).default('turnstone-demo'),
   /**
@@ -123,6 +126,13 @@ const envSchema = z.object({
   SPECTRA_WHOLE_DAYS: z.coerce.number().int().min(0).max(3650).default(14),
   /** Days (from now) one capture per point per hour keeps its spectra; older: one per day. */
   SPECTRA_HOURLY_DAYS: z.coerce.number().int().min(0).max(36500).default(90),
+  /**
+   * Months a capture is kept at all (scalars and band values too): each month that ended
+   * before this many whole months ago is dropped — its partitions of snapshots, analyses and
+   * band_values — unless a capture kept whole lives in it (features/worker/partitions.ts).
+   * 0 (the default) keeps every capture's scalars and band values for ever.
+   */
+  CAPTURE_RETENTION_MONTHS: z.coerce.number().int().min(0).max(1200).default(0),
   /** Captures taken within ± this many minutes of an alert event or a finding stay whole. */
   RETENTION_KEEP_WINDOW_MIN: z.coerce.number().int().min(0).max(10080).default(60),
   /** Rows the retention passes change per statement (bounded batches, never long locks). */
@@ -208,6 +218,17 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     Object.entries(env).filter(([, v]) => v !== undefined && v !== ''),
   );
   const parsed = envSchema
+    .refine(
+      (c) =>
+        c.CAPTURE_RETENTION_MONTHS === 0 ||
+        c.CAPTURE_RETENTION_MONTHS * 28 >=
+          Math.max(c.SPECTRA_HOURLY_DAYS, c.SPECTRA_WHOLE_DAYS, c.RETENTION_DAYS),
+      {
+        message:
+          'must cover the spectra tiers and RETENTION_DAYS (captures are dropped past the last tier), or be 0',
+        path: ['CAPTURE_RETENTION_MONTHS'],
+      },
+    )
     .refine((c) => c.SPECTRA_WHOLE_DAYS === 0 || c.SPECTRA_HOURLY_DAYS >= c.SPECTRA_WHOLE_DAYS, {
       message: 'must be at least SPECTRA_WHOLE_DAYS (the hourly tier follows the whole one)',
       path: ['SPECTRA_HOURLY_DAYS'],

@@ -47,10 +47,12 @@ export interface Peak {
 }
 
 /** Median-equivalent floor: the lower quartile × {@link NOISE_FLOOR_QUARTILE_TO_MEDIAN}. */
-export function noiseFloor(values: number[]): number {
+export function noiseFloor(values: ArrayLike<number>): number {
   if (values.length === 0) return 0;
-  values.sort((a, b) => a - b);
-  return values[Math.floor(values.length / 4)]! * NOISE_FLOOR_QUARTILE_TO_MEDIAN;
+  // A typed array sorts numerically without a comparator call per pair (the worker reads
+  // dozens of peaks per capture).
+  const sorted = Float64Array.from(values).sort();
+  return sorted[Math.floor(sorted.length / 4)]! * NOISE_FLOOR_QUARTILE_TO_MEDIAN;
 }
 
 /** The largest local maximum within ±tolHz of hz, or null when the window holds none. */

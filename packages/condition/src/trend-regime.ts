@@ -38,13 +38,14 @@ function prefixSums(xs: readonly number[], ys: readonly number[]): Prefix {
 
 /** Residual sum of squares of the least-squares line through points [from, to). */
 function lineSse(p: Prefix, from: number, to: number): number {
-  const d = (a: Float64Array) => (a[to] ?? 0) - (a[from] ?? 0);
+  // No closure here: the search calls this for every candidate break of every series, and
+  // a function made per call costs more than the arithmetic.
   const n = to - from;
-  const sx = d(p.x);
-  const sy = d(p.y);
-  const sxx = d(p.xx) - (sx * sx) / n;
-  const sxy = d(p.xy) - (sx * sy) / n;
-  const syy = d(p.yy) - (sy * sy) / n;
+  const sx = (p.x[to] ?? 0) - (p.x[from] ?? 0);
+  const sy = (p.y[to] ?? 0) - (p.y[from] ?? 0);
+  const sxx = (p.xx[to] ?? 0) - (p.xx[from] ?? 0) - (sx * sx) / n;
+  const sxy = (p.xy[to] ?? 0) - (p.xy[from] ?? 0) - (sx * sy) / n;
+  const syy = (p.yy[to] ?? 0) - (p.yy[from] ?? 0) - (sy * sy) / n;
   const sse = sxx > 0 ? syy - (sxy * sxy) / sxx : syy;
   return Math.max(0, sse);
 }

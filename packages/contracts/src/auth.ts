@@ -28,6 +28,12 @@ export const meSchema = z.object({
   siteIds: z.array(z.number().int()),
   /** Metric (mm/s, µm) or imperial (in/s, mil): how every screen shows values to this user. */
   unitSystem: unitSystemSchema,
+  /**
+   * The IANA time zone of every time on screens not tied to one site (alerts, fleet, audit,
+   * mailbox, findings): the zone of the user's sites when they all share one, otherwise UTC.
+   * The screens name it (the page footer); screens of one site use that site's zone.
+   */
+  timeZone: z.string(),
 });
 export type Me = z.infer<typeof meSchema>;
 

@@ -8,6 +8,8 @@ export const retentionPolicySchema = z.object({
   spectraWholeDays: z.number().int().min(0),
   /** Days until which one capture per point per hour keeps them (SPECTRA_HOURLY_DAYS). */
   spectraHourlyDays: z.number().int().min(0),
+  /** Months captures are kept at all (CAPTURE_RETENTION_MONTHS); 0 keeps them for ever. */
+  captureMonths: z.number().int().min(0),
   /** ± minutes around alert events and findings kept whole (RETENTION_KEEP_WINDOW_MIN). */
   keepWindowMinutes: z.number().int().min(0),
   batchSize: z.number().int().min(1),

@@ -60,6 +60,16 @@ export function isDuplicateKey(err: unknown): boolean {
 }
 
 /**
+ * A partition of that name or range exists already (two workers adding the same month):
+ * MariaDB's ER_SAME_NAME_PARTITION, or ER_RANGE_NOT_INCREASING_ERROR when the month was
+ * split off `p_future` by the other one first.
+ */
+export function isDuplicatePartition(err: unknown): boolean {
+  return hasCode(err, DUPLICATE_PARTITION);
+}
+const DUPLICATE_PARTITION = new Set(['ER_SAME_NAME_PARTITION', 'ER_RANGE_NOT_INCREASING_ERROR']);
+
+/**
  * Errors after which the current transaction is gone (rolled back by the server, or its
  * connection lost): nothing more may be written in it, and the caller must let it fail.
  */

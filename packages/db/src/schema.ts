@@ -335,15 +335,27 @@ export const gateways = mysqlTable(
   ],
 );
 
+/**
+ * The three tables a plant-year fills (snapshots, analyses, band_values) are partitioned by
+ * month on `taken_at` (MariaDB RANGE COLUMNS; the migration 0018_time-partitioning creates the
+ * partitions, the worker adds months ahead: features/worker/partitions.ts). Drizzle cannot
+ * express partitions, so this file describes their columns and keys only. InnoDB partitioned
+ * tables take no foreign keys, in or out, and every unique key holds the partition column:
+ * their primary keys are (id, taken_at) with id still AUTO_INCREMENT, the rows that pointed at
+ * them by foreign key (jobs, quality notices, pins) are kept in step by the product (point
+ * deletion and retention's partition drop), and a snapshot's uid is unique per sender in
+ * `snapshot_uids`.
+ */
+const partitionedId = () =>
+  bigint('id', { mode: 'number', unsigned: true }).autoincrement().notNull();
+
 export const snapshots = mysqlTable(
   'snapshots',
   {
-    id: bigId(),
+    id: partitionedId(),
     uid: varchar('uid', { length: 128 }).notNull(),
-    pointId: ref('point_id')
-      .notNull()
-      .references(() => points.id),
-    gatewayId: ref('gateway_id').references(() => gateways.id),
+    pointId: ref('point_id').notNull(),
+    gatewayId: ref('gateway_id'),
     /**
      * Who the uid belongs to: the gateway, or 0 for uploads. A uid is unique per sender
      * (idempotency is the sender's), so one site's gateway cannot take another's uids.
@@ -380,15 +392,30 @@ export const snapshots = mysqlTable(
       .notNull()
       .default('queued'),
     statusReason: text('status_reason'),
-    uploadedBy: ref('uploaded_by').references(() => users.id),
+    uploadedBy: ref('uploaded_by'),
     fileName: varchar('file_name', { length: 255 }),
   },
   (t) => [
-    uniqueIndex('snapshots_sender_uid_uq').on(t.senderId, t.uid),
+    primaryKey({ columns: [t.id, t.takenAt] }),
     index('snapshots_point_taken_idx').on(t.pointId, t.takenAt),
     index('snapshots_status_idx').on(t.status),
     index('snapshots_received_idx').on(t.receivedAt),
   ],
+);
+
+/**
+ * Who owns a snapshot's uid: unique per sender (a gateway, or 0 for uploads), so a repeat is
+ * found and compared by content hash (ingest). Its own table because a unique key of the
+ * partitioned `snapshots` would have to include `taken_at`.
+ */
+export const snapshotUids = mysqlTable(
+  'snapshot_uids',
+  {
+    senderId: int('sender_id').notNull(),
+    uid: varchar('uid', { length: 128 }).notNull(),
+    snapshotId: bigRef('snapshot_id').notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.senderId, t.uid] })],
 );
 
 export const jobs = mysqlTable(
@@ -396,7 +423,8 @@ export const jobs = mysqlTable(
   {
     id: bigId(),
     kind: varchar('kind', { length: 32 }).notNull(),
-    snapshotId: bigRef('snapshot_id').references(() => snapshots.id, { onDelete: 'cascade' }),
+    /** The snapshot to analyse (no foreign key: `snapshots` is partitioned). */
+    snapshotId: bigRef('snapshot_id'),
     payload: jsonColumn<Record<string, unknown>>('payload'),
     state: mysqlEnum('state', ['queued', 'running', 'done', 'failed']).notNull().default('queued'),
     runAfter: at('run_after')
@@ -422,13 +450,10 @@ export const jobs = mysqlTable(
 export const analyses = mysqlTable(
   'analyses',
   {
-    id: bigId(),
-    snapshotId: bigRef('snapshot_id')
-      .notNull()
-      .references(() => snapshots.id, { onDelete: 'cascade' }),
-    pointId: ref('point_id')
-      .notNull()
-      .references(() => points.id),
+    id: partitionedId(),
+    snapshotId: bigRef('snapshot_id').notNull(),
+    pointId: ref('point_id').notNull(),
+    /** The snapshot's `taken_at` (the partition column of both). */
     takenAt: at('taken_at').notNull(),
     accelRmsG: double('accel_rms_g').notNull(),
     accelPeakG: double('accel_peak_g').notNull(),
@@ -472,7 +497,8 @@ export const analyses = mysqlTable(
     createdAt: createdAt(),
   },
   (t) => [
-    uniqueIndex('analyses_snapshot_uq').on(t.snapshotId),
+    primaryKey({ columns: [t.id, t.takenAt] }),
+    uniqueIndex('analyses_snapshot_uq').on(t.snapshotId, t.takenAt),
     index('analyses_point_taken_idx').on(t.pointId, t.takenAt),
     /** The retention pass walks captures still holding spectra by id, not the whole table. */
     index('analyses_thinned_idx').on(t.spectraThinnedAt, t.id),
@@ -547,20 +573,17 @@ export const pointStates = mysqlTable('point_states', {
 export const bandValues = mysqlTable(
   'band_values',
   {
-    id: bigId(),
-    analysisId: bigRef('analysis_id')
-      .notNull()
-      .references(() => analyses.id, { onDelete: 'cascade' }),
-    pointId: ref('point_id')
-      .notNull()
-      .references(() => points.id),
+    id: partitionedId(),
+    analysisId: bigRef('analysis_id').notNull(),
+    pointId: ref('point_id').notNull(),
     bandKey: varchar('band_key', { length: 64 }).notNull(),
     takenAt: at('taken_at').notNull(),
     value: double('value').notNull(),
     qualityVerdict: mysqlEnum('quality_verdict', verdictEnum).notNull(),
   },
   (t) => [
-    uniqueIndex('band_values_analysis_band_uq').on(t.analysisId, t.bandKey),
+    primaryKey({ columns: [t.id, t.takenAt] }),
+    uniqueIndex('band_values_analysis_band_uq').on(t.analysisId, t.bandKey, t.takenAt),
     index('band_values_trend_idx').on(t.pointId, t.bandKey, t.takenAt),
     // The weekly review's daily means of every band of a point over six weeks: a range of
     // this index per point, covering, so no row is read (review-repository dailyMeans).
@@ -572,6 +595,31 @@ export const bandValues = mysqlTable(
       t.value,
     ),
   ],
+);
+
+/**
+ * Daily sums of each point's usable band values (verdict not `unusable`), by the local
+ * calendar day of the point's site: kept in the analysis write transaction beside the band
+ * values, rebuilt for a site whose time zone changes and for points that move site. The
+ * weekly review reads its daily means here instead of grouping six weeks of band values
+ * (review-repository dailyMeans; maintained by analysis/band-day-sums.ts).
+ */
+export const bandDaySums = mysqlTable(
+  'band_day_sums',
+  {
+    pointId: ref('point_id')
+      .notNull()
+      .references(() => points.id, { onDelete: 'cascade' }),
+    bandKey: varchar('band_key', { length: 64 }).notNull(),
+    /** Local day of the site, YYYY-MM-DD. */
+    day: date('day', { mode: 'string' }).notNull(),
+    /** Values summed. */
+    n: int('n').notNull(),
+    sumValue: double('sum_value').notNull(),
+    /** Sum of the values' capture times, epoch milliseconds. */
+    sumTakenMs: double('sum_taken_ms').notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.pointId, t.day, t.bandKey] })],
 );
 
 export const alerts = mysqlTable(
@@ -638,8 +686,9 @@ export const qualityNotices = mysqlTable(
     pointId: ref('point_id')
       .notNull()
       .references(() => points.id),
-    analysisId: bigRef('analysis_id').references(() => analyses.id, { onDelete: 'cascade' }),
-    snapshotId: bigRef('snapshot_id').references(() => snapshots.id, { onDelete: 'cascade' }),
+    /** No foreign keys to the partitioned captures' tables: kept in step by the product. */
+    analysisId: bigRef('analysis_id'),
+    snapshotId: bigRef('snapshot_id'),
     verdict: mysqlEnum('verdict', verdictEnum).notNull(),
     findings: jsonColumn<unknown[]>('findings').notNull(),
     takenAt: at('taken_at').notNull(),
@@ -650,6 +699,8 @@ export const qualityNotices = mysqlTable(
   (t) => [
     index('quality_notices_point_idx').on(t.pointId, t.takenAt),
     index('quality_notices_open_idx').on(t.reviewedAt),
+    index('quality_notices_analysis_idx').on(t.analysisId),
+    index('quality_notices_snapshot_idx').on(t.snapshotId),
   ],
 );
 
@@ -658,9 +709,8 @@ export const qualityNotices = mysqlTable(
  * the captures around alert events (apps/server/src/features/worker/retention.ts).
  */
 export const capturePins = mysqlTable('capture_pins', {
-  analysisId: bigRef('analysis_id')
-    .primaryKey()
-    .references(() => analyses.id, { onDelete: 'cascade' }),
+  /** No foreign key (`analyses` is partitioned); point deletion removes pins with the captures. */
+  analysisId: bigRef('analysis_id').primaryKey(),
   pinnedBy: ref('pinned_by')
     .notNull()
     .references(() => users.id),

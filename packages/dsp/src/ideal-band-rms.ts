@@ -67,9 +67,12 @@ export function idealBandRms(spectrum: PowerSpectrum, options: IdealBandRmsOptio
     throw new RangeError(`integrating from ${from} to ${to} needs loHz > 0, got ${loHz}`);
   }
   const [first, last] = bandLines(power.length, dfHz, loHz, hiHz);
+  // integrationGain(f) = integrationGain(1 Hz) / f^steps: units looked up once, not per line.
+  const gainAt1Hz = integrationGain(1, from, to);
+  const steps = integrating ? Math.round(Math.log2(gainAt1Hz / integrationGain(2, from, to))) : 0;
   let sum = 0;
   for (let k = Math.max(first, 1); k <= last; k++) {
-    const gain = integrationGain(k * dfHz, from, to);
+    const gain = gainAt1Hz / (k * dfHz) ** steps;
     sum += power[k]! * gain * gain;
   }
   return Math.sqrt(sum / enbwBins);

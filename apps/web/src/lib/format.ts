@@ -1,9 +1,21 @@
 const relative = new Intl.RelativeTimeFormat('en-GB', { style: 'short', numeric: 'always' });
 const integer = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 0 });
-import { formatDateTime as formatAt } from '@turnstone/contracts/dates';
+import { formatDate as dateAt, formatDateTime as formatAt } from '@turnstone/contracts/dates';
 
-/** The browser's own time zone: times on screens not tied to one site are read in it. */
-const localZone = Intl.DateTimeFormat().resolvedOptions().timeZone;
+/**
+ * The zone of every time on screens not tied to one site: the signed-in user's (`Me.timeZone`:
+ * their sites' zone when all share one, otherwise UTC), set by the app shell from the session
+ * before any page renders, and named in the page footer. UTC until then (sign-in page).
+ */
+let displayZone = 'UTC';
+
+export function setDisplayTimeZone(timeZone: string): void {
+  displayZone = timeZone;
+}
+
+export function displayTimeZone(): string {
+  return displayZone;
+}
 
 const steps: [Intl.RelativeTimeFormatUnit, number][] = [
   ['second', 60],
@@ -33,21 +45,19 @@ export function formatAge(iso: string, now: number): string {
 }
 
 /** One format on every screen, CSV and mail: `2026-11-27 14:05` (contracts/dates.ts). */
-export function formatDateTime(iso: string, timeZone = localZone): string {
-  return formatAt(iso, timeZone);
+export function formatDateTime(at: string | number, timeZone = displayZone): string {
+  return formatAt(at, timeZone);
 }
 
-const shortDateTime = new Intl.DateTimeFormat('en-GB', {
-  day: 'numeric',
-  month: 'short',
-  hour: '2-digit',
-  minute: '2-digit',
-});
+/** A day in the same format: `2026-11-27`. */
+export function formatDate(at: string | number, timeZone = displayZone): string {
+  return dateAt(at, timeZone);
+}
 
-/** Day, month and time without the year ("30 Nov, 14:02"), for crowded chart axes. */
-export function formatShortDateTime(iso: string): string {
-  const then = Date.parse(iso);
-  return Number.isNaN(then) ? iso : shortDateTime.format(then);
+/** The same format without the year (`11-30 14:02`), for crowded chart axes. */
+export function formatShortDateTime(at: string | number, timeZone = displayZone): string {
+  const full = formatAt(at, timeZone);
+  return /^\d{4}-/.test(full) ? full.slice(5) : full;
 }
 
 export function formatInteger(value: number): string {

@@ -11,6 +11,7 @@ import type { SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import * as userRepo from '../users/users-repository.ts';
 import * as repo from './account-repository.ts';
+import * as subscriptionsRepo from '../mail/subscriptions-repository.ts';
 import { hashPassword, verifyPassword } from '../../lib/passwords.ts';
 
 /** Checks the current password, sets the new one and returns the new token version. */
@@ -49,7 +50,7 @@ async function options(ctx: AppContext, user: SessionUser) {
 }
 
 export async function getSubscriptions(ctx: AppContext, user: SessionUser) {
-  const rows = await repo.subscriptionsOf(ctx.db, user.id);
+  const rows = await subscriptionsRepo.subscriptionsOf(ctx.db, user.id);
   return {
     items: rows
       .filter((r) => r.siteId !== null || r.machineId !== null)
@@ -80,7 +81,7 @@ export async function putSubscriptions(
         { path: ['items', i], message: 'Not one of your sites or machines.' },
       ]);
   });
-  const rows: repo.SubscriptionRow[] = input.items.map((s) => ({
+  const rows: subscriptionsRepo.SubscriptionRow[] = input.items.map((s) => ({
     userId: user.id,
     siteId: s.siteId,
     machineId: s.machineId,
@@ -98,7 +99,7 @@ export async function putSubscriptions(
       cadence: 'immediate',
       weeklyDigest: true,
     });
-  await repo.replaceSubscriptions(ctx.db, user.id, rows);
+  await subscriptionsRepo.replaceSubscriptions(ctx.db, user.id, rows);
   return getSubscriptions(ctx, user);
 }
 

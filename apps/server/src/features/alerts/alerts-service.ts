@@ -33,7 +33,7 @@ import { loadLimitSet } from '../limits/limit-set-repository.ts';
 import { bandStatesOf } from '../points/points-repository.ts';
 import * as repo from './alerts-repository.ts';
 import { isAlertLinkSignature } from './alert-mail-link.ts';
-import { queueAlertWebhook } from '../webhooks/webhooks-service.ts';
+import { queueWebhookEvent } from '../webhooks/webhooks-service.ts';
 import { decodeCursor, pageOf } from '../../lib/cursor.ts';
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
@@ -53,6 +53,16 @@ export function toAlert(r: repo.AlertRow): Alert {
 }
 
 const visibleSites = (user: SessionUser) => (user.role === 'admin' ? null : user.siteIds);
+
+/** Queues `alert.<kind>` with the alert as `GET /alerts` lists it, as it is in `tx`. */
+export async function queueAlertWebhook(
+  tx: Tx,
+  alertId: number,
+  kind: 'raised' | 'escalated' | 'acknowledged' | 'cleared',
+): Promise<void> {
+  const [row] = await repo.listAlerts(tx, { ids: [alertId], siteIds: null, limit: 1 });
+  if (row) await queueWebhookEvent(tx, `alert.${kind}`, toAlert(row));
+}
 
 export async function listAlerts(ctx: AppContext, user: SessionUser, query: AlertListQuery) {
   const { since, cursor, ...q } = alertListQuerySchema.parse(query);

@@ -8,6 +8,7 @@ import {
   gears,
   machines,
   points,
+  sites,
   snapshots,
 } from '@turnstone/db/schema';
 
@@ -25,6 +26,8 @@ export interface PointContext {
   point: typeof points.$inferSelect;
   machine: MachineRow;
   siteId: number;
+  /** The site's time zone (IANA), which the band values' local days follow. */
+  siteTimeZone: string;
   bearings: (typeof bearings.$inferSelect)[];
   gears: (typeof gears.$inferSelect)[];
 }
@@ -36,10 +39,16 @@ export async function loadPointContexts(
 ): Promise<Map<number, PointContext>> {
   if (pointIds.length === 0) return new Map();
   const rows = await db
-    .select({ point: points, machine: machines, siteId: areas.siteId })
+    .select({
+      point: points,
+      machine: machines,
+      siteId: areas.siteId,
+      siteTimeZone: sites.timeZone,
+    })
     .from(points)
     .innerJoin(machines, eq(machines.id, points.machineId))
     .innerJoin(areas, eq(areas.id, machines.areaId))
+    .innerJoin(sites, eq(sites.id, areas.siteId))
     .where(inArray(points.id, pointIds));
   const machineIds = [...new Set(rows.map((r) => r.machine.id))];
   const [bearingRows, gearRows] = machineIds.length

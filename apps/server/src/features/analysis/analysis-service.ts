@@ -24,6 +24,8 @@ import { startConditionBatch } from '../condition/condition-step.ts';
 import { queueAlertMail } from '../notify/alert-change-hook.ts';
 import { templateBandsFor } from '../limits/limits-service.ts';
 import { storedSampleBytes } from '../ingest/sample-storage.ts';
+import { addBandDaySums } from './band-day-sums-repository.ts';
+import { daySumsOf } from './band-day-sums.ts';
 
 export class PermanentJobError extends Error {}
 
@@ -264,20 +266,23 @@ export async function storeAnalyses(
       }),
     );
     const analysisId = (p: PreparedAnalysis) => ids.get(p.snap.id)!;
-    await repo.insertBandValues(
+    const bandRows = batch.flatMap((p) =>
+      Object.entries(p.values)
+        .filter((e): e is [string, number] => e[1] !== null && Number.isFinite(e[1]))
+        .map(([bandKey, value]) => ({
+          analysisId: analysisId(p),
+          pointId: p.snap.pointId,
+          bandKey,
+          takenAt: p.snap.takenAt,
+          value,
+          qualityVerdict: p.analysis.quality.verdict,
+        })),
+    );
+    await repo.insertBandValues(tx, bandRows);
+    const zoneOf = new Map(batch.map((p) => [p.snap.pointId, p.pc.siteTimeZone]));
+    await addBandDaySums(
       tx,
-      batch.flatMap((p) =>
-        Object.entries(p.values)
-          .filter((e): e is [string, number] => e[1] !== null && Number.isFinite(e[1]))
-          .map(([bandKey, value]) => ({
-            analysisId: analysisId(p),
-            pointId: p.snap.pointId,
-            bandKey,
-            takenAt: p.snap.takenAt,
-            value,
-            qualityVerdict: p.analysis.quality.verdict,
-          })),
-      ),
+      daySumsOf(bandRows.map((r) => ({ ...r, timeZone: zoneOf.get(r.pointId)! }))),
     );
 
     const newest = new Map<number, PreparedAnalysis>();

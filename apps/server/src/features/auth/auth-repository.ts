@@ -1,4 +1,4 @@
-import { eq, sql } from 'drizzle-orm';
+import { eq, inArray, sql } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
 import { sites, userSites, users } from '@turnstone/db/schema';
 
@@ -24,6 +24,16 @@ export async function siteIdsOf(db: Db, user: Pick<UserRow, 'id' | 'role'>): Pro
           .from(userSites)
           .where(eq(userSites.userId, user.id));
   return rows.map((r) => r.id).sort((a, b) => a - b);
+}
+
+/** The distinct time zones of these sites. */
+export async function zonesOfSites(db: Db, siteIds: number[]): Promise<string[]> {
+  if (siteIds.length === 0) return [];
+  const rows = await db
+    .selectDistinct({ timeZone: sites.timeZone })
+    .from(sites)
+    .where(inArray(sites.id, siteIds));
+  return rows.map((r) => r.timeZone);
 }
 
 export async function bumpTokenVersion(db: Db, userId: number): Promise<void> {

@@ -19,20 +19,27 @@ import {
 } from '../../lib/route-table.ts';
 import * as service from './auth-service.ts';
 import { COOKIE_NAME, signSession } from './session-token.ts';
-import { userFromApiToken } from '../api-tokens/api-tokens-service.ts';
+import type { SessionUser } from '../../lib/session-user.ts';
+
+/**
+ * The service account behind an `Authorization: Bearer` token, or null when the token is
+ * unknown or revoked. The API-token feature provides it (app.ts passes it in), so sign-in
+ * does not depend on how tokens are issued and stored.
+ */
+export type BearerLookup = (token: string) => Promise<SessionUser | null>;
 
 /**
  * Puts the caller on the request (or leaves it empty): a service account from an
  * `Authorization: Bearer` API token, else a person from the session cookie. A bearer
  * header that is not a live token is a 401 even when a cookie is present too.
  */
-export function createAuthenticate(ctx: AppContext): Authenticate {
+export function createAuthenticate(ctx: AppContext, bearerUser: BearerLookup): Authenticate {
   return async (req: Request) => {
     if (req.user) return;
     const bearer = /^Bearer\s+(\S+)\s*$/i.exec(req.get('authorization') ?? '');
     if (bearer) {
       // On the primary: a token revoked a moment ago must not pass on a lagging replica.
-      const user = await readFromPrimary(() => userFromApiToken(ctx, bearer[1]!));
+      const user = await readFromPrimary(() => bearerUser(bearer[1]!));
       if (!user)
         throw new AppError(
           'invalid_token',
@@ -65,8 +72,7 @@ function cookieOptions(ctx: AppContext, req: Request): CookieOptions {
   };
 }
 
-export function authRoutes(ctx: AppContext): RouteSpec[] {
-  const authenticate = createAuthenticate(ctx);
+export function authRoutes(ctx: AppContext, authenticate: Authenticate): RouteSpec[] {
   return [
     {
       method: 'post',
@@ -89,7 +95,7 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
           ...cookieOptions(ctx, req),
           maxAge: 180 * 24 * 3600 * 1000,
         });
-        res.json({ user: service.toMe(user) });
+        res.json({ user: await service.toMe(ctx.db, user) });
       },
     },
     {
@@ -114,7 +120,7 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
       handler: async (req: Request, res: Response) => {
         await authenticate(req);
         res.setHeader('Cache-Control', 'no-store');
-        res.json({ user: req.user ? service.toMe(req.user) : null });
+        res.json({ user: req.user ? await service.toMe(ctx.db, req.user) : null });
       },
     },
     {
@@ -123,9 +129,9 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
       access: ALL_ROLES,
       summary: 'who am I',
       schemas: { response: meSchema },
-      handler: (req: Request, res: Response) => {
+      handler: async (req: Request, res: Response) => {
         res.setHeader('Cache-Control', 'no-store');
-        res.json(service.toMe(requireUser(req)));
+        res.json(await service.toMe(ctx.db, requireUser(req)));
       },
     },
   ];
@@ -191,7 +197,7 @@ function signInLimits(ctx: AppContext) {
 export function authRouter(ctx: AppContext, authenticate: Authenticate): Router {
   const router = Router();
   router.post('/auth/sign-in', ...signInLimits(ctx));
-  mountRoutes(router, authRoutes(ctx), authenticate);
+  mountRoutes(router, authRoutes(ctx, authenticate), authenticate);
   return router;
 }
 

@@ -55,7 +55,16 @@ export async function sessionUserOf(db: Db, user: repo.UserRow): Promise<Session
   return toSessionUser(user, await repo.siteIdsOf(db, user));
 }
 
-export function toMe(user: SessionUser): Me {
+/**
+ * The time zone of screens not tied to one site: the zone of the user's sites when they all
+ * share one, otherwise UTC (a planner over London and Berlin reads UTC, named on screen).
+ */
+export async function displayZoneOf(db: Db, user: SessionUser): Promise<string> {
+  const zones = await repo.zonesOfSites(db, user.siteIds);
+  return zones.length === 1 ? zones[0]! : 'UTC';
+}
+
+export async function toMe(db: Db, user: SessionUser): Promise<Me> {
   return {
     id: user.id,
     email: user.email,
@@ -63,6 +72,7 @@ export function toMe(user: SessionUser): Me {
     role: user.role,
     siteIds: user.siteIds,
     unitSystem: user.unitSystem,
+    timeZone: await displayZoneOf(db, user),
   };
 }
 

@@ -15,7 +15,7 @@ import {
   users,
 } from '@turnstone/db/schema';
 import { demoPlant, demoUsers } from '@turnstone/demo-scenario/demo-plant';
-import { subscribeToSiteAlerts } from '../account/account-repository.ts';
+import { subscribeToSiteAlerts } from '../mail/subscriptions-repository.ts';
 
 export async function userCount(db: Db): Promise<number> {
   const [row] = await db.select({ n: count() }).from(users);

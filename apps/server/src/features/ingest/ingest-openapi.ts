@@ -1,7 +1,7 @@
 import {
   ingestBatchResponseSchema,
+  ingestBodySchema,
   ingestResultSchema,
-  MAX_BATCH,
   snapshotInSchema,
 } from '@turnstone/contracts/ingest';
 import { errorComponent, errorResponse, jsonSchema as schema } from '../../lib/openapi.ts';
@@ -31,6 +31,18 @@ let base: Record<string, unknown> | null = null;
 export function ingestOpenApi(serverUrl: string): object {
   base ??= buildDocument();
   return { ...base, servers: [{ url: serverUrl, description: 'This Turnstone server' }] };
+}
+
+/**
+ * The batch envelope as contracts' ingestBodySchema checks it (1 to MAX_BATCH items, nothing
+ * beside `snapshots`), its items named as the Snapshot each one is then checked against on
+ * its own (the envelope takes them as unknown, so one bad item does not refuse the batch).
+ */
+function batchComponent(): Record<string, unknown> {
+  const [envelope] = ingestBodySchema.options;
+  const batch = schema(envelope) as { properties: { snapshots: Record<string, unknown> } };
+  batch.properties.snapshots.items = { $ref: '#/components/schemas/Snapshot' };
+  return batch;
 }
 
 function buildDocument(): Record<string, unknown> {
@@ -94,19 +106,7 @@ function buildDocument(): Record<string, unknown> {
       },
       schemas: {
         Snapshot: schema(snapshotInSchema),
-        Batch: {
-          type: 'object',
-          required: ['snapshots'],
-          properties: {
-            snapshots: {
-              type: 'array',
-              minItems: 1,
-              maxItems: MAX_BATCH,
-              items: { $ref: '#/components/schemas/Snapshot' },
-            },
-          },
-          additionalProperties: false,
-        },
+        Batch: batchComponent(),
         SnapshotResult: {
           type: 'object',
           description: 'The answer to one snapshot posted alone.',

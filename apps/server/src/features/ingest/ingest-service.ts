@@ -143,7 +143,10 @@ export function contentHash(
 export async function storeSnapshot(
   ctx: AppContext,
   s: SnapshotToStore,
-): Promise<{ status: 'created' | 'duplicate' | 'conflict'; snapshotId: number }> {
+): Promise<
+  | { status: 'created' | 'duplicate' | 'conflict'; snapshotId: number }
+  | { status: 'point_gone'; snapshotId: null }
+> {
   const hash = contentHash(s);
   // New uids are the common case: insert straight away, and read the stored row only when
   // the unique index says the uid is taken (a repeat, or two deliveries racing).
@@ -174,6 +177,8 @@ export async function storeSnapshot(
       },
       ctx.config.INGEST_TIMEOUT_S * 1000,
     );
+    // The point was deleted since it was looked up: nothing was stored.
+    if (snapshotId === null) return { status: 'point_gone', snapshotId: null };
     return { status: 'created', snapshotId };
   } catch (err) {
     // A repeat (or two deliveries of one uid racing): compare with the stored content.
@@ -283,16 +288,16 @@ export async function ingestOne(
   const point = await cached(pointCache, `${gateway.siteId}:${s.pointTag}`, POINT_CACHE_MS, () =>
     repo.pointOfSite(ctx.db, gateway.siteId, s.pointTag),
   );
-  if (!point)
-    return {
-      uid: s.uid,
-      status: 'unknown_point',
-      httpStatus: 404,
-      error: {
-        code: 'unknown_point',
-        message: `No measurement point of this gateway's site has the tag "${s.pointTag}".`,
-      },
-    };
+  const unknownPoint = (): IngestResult => ({
+    uid: s.uid,
+    status: 'unknown_point',
+    httpStatus: 404,
+    error: {
+      code: 'unknown_point',
+      message: `No measurement point of this gateway's site has the tag "${s.pointTag}".`,
+    },
+  });
+  if (!point) return unknownPoint();
   const r = await storeSnapshot(ctx, {
     uid: s.uid,
     pointId: point.id,
@@ -308,6 +313,11 @@ export async function ingestOne(
     speedRpm: s.speedRpm ?? null,
     tach: s.tach ?? null,
   });
+  if (r.status === 'point_gone') {
+    // Deleted since this process cached its tag: look again next time.
+    forgetPointTags();
+    return unknownPoint();
+  }
   if (r.status === 'conflict')
     return {
       uid: s.uid,

@@ -2,7 +2,7 @@ import type { Tx } from '@turnstone/db/client';
 import { abortsTransaction } from '@turnstone/db/errors';
 import type { AppContext } from '../../lib/context.ts';
 import { queueAlertChangeMail } from '../mail/alert-mail.ts';
-import { queueAlertWebhook } from '../webhooks/webhooks-service.ts';
+import { queueAlertWebhook } from '../alerts/alerts-service.ts';
 
 /**
  * Where an alert state change becomes e-mail and webhook deliveries: outbox rows written in the same

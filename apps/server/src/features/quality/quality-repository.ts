@@ -1,6 +1,17 @@
-import { and, eq, inArray, isNull, type SQL } from 'drizzle-orm';
-import type { Tx } from '@turnstone/db/client';
-import { qualityNotices } from '@turnstone/db/schema';
+import { and, desc, eq, inArray, isNull, type SQL } from 'drizzle-orm';
+import type { Db, Tx } from '@turnstone/db/client';
+import { qualityNotices, users } from '@turnstone/db/schema';
+
+/** A point's notices, newest capture first, with the name of whoever reviewed each. */
+export async function noticesOfPoint(db: Db, pointId: number, limit: number) {
+  return db
+    .select({ notice: qualityNotices, reviewerName: users.name })
+    .from(qualityNotices)
+    .leftJoin(users, eq(users.id, qualityNotices.reviewedBy))
+    .where(eq(qualityNotices.pointId, pointId))
+    .orderBy(desc(qualityNotices.takenAt), desc(qualityNotices.id))
+    .limit(limit);
+}
 
 /** The point's unreviewed notices (all, or those of `ids`), locked for the update. */
 export async function lockUnreviewed(tx: Tx, pointId: number, ids?: number[]) {

@@ -1,13 +1,35 @@
-import { reviewNoticesResultSchema, reviewNoticesSchema } from '@turnstone/contracts/quality';
+import {
+  qualityNoticeListQuerySchema,
+  qualityNoticeListSchema,
+  reviewNoticesResultSchema,
+  reviewNoticesSchema,
+} from '@turnstone/contracts/quality';
 import type { AppContext } from '../../lib/context.ts';
-import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
-import { reviewNotices } from './quality-service.ts';
+import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import { parseQuery } from '../../lib/query.ts';
+import { listNotices, reviewNotices } from './quality-service.ts';
 
 /** Whoever follows up the data: planners (the weekly review) and engineers. */
 const REVIEWERS = ['planner', 'engineer'] as const;
 
 export function qualityRoutes(ctx: AppContext): RouteSpec[] {
   return [
+    {
+      method: 'get',
+      path: '/quality-notices',
+      // Everyone who reads the point reads its notices (the point page's data quality).
+      access: ALL_ROLES,
+      summary: "a point's quality notices, newest first, with who reviewed each and when",
+      schemas: { query: qualityNoticeListQuerySchema, response: qualityNoticeListSchema },
+      handler: async (req, res) =>
+        res.json(
+          await listNotices(
+            ctx,
+            requireUser(req),
+            parseQuery(qualityNoticeListQuerySchema, req.query),
+          ),
+        ),
+    },
     {
       method: 'post',
       path: '/quality-notices/review',

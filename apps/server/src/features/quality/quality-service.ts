@@ -1,5 +1,11 @@
 import type { z } from 'zod';
-import type { ReviewNoticesResult, reviewNoticesSchema } from '@turnstone/contracts/quality';
+import type {
+  QualityNoticeList,
+  ReviewNoticesResult,
+  qualityNoticeListQuerySchema,
+  reviewNoticesSchema,
+} from '@turnstone/contracts/quality';
+import type { QualityFinding } from '@turnstone/contracts/points';
 import type { AppContext } from '../../lib/context.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { accessiblePoint } from '../places/point-access.ts';
@@ -34,5 +40,28 @@ export async function reviewNotices(
     reviewed,
     reviewedBy: { id: user.id, name: user.name },
     reviewedAt: now.toISOString(),
+  };
+}
+
+/** A point's quality notices, newest first, each with who reviewed it and when. */
+export async function listNotices(
+  ctx: AppContext,
+  user: SessionUser,
+  q: z.output<typeof qualityNoticeListQuerySchema>,
+): Promise<QualityNoticeList> {
+  await accessiblePoint(ctx.db, user, q.pointId);
+  const rows = await repo.noticesOfPoint(ctx.db, q.pointId, q.limit);
+  return {
+    items: rows.map(({ notice: n, reviewerName }) => ({
+      id: n.id,
+      pointId: n.pointId,
+      snapshotId: n.snapshotId,
+      verdict: n.verdict,
+      takenAt: n.takenAt.toISOString(),
+      findings: n.findings as QualityFinding[],
+      reviewedBy:
+        n.reviewedBy !== null ? { id: n.reviewedBy, name: reviewerName ?? 'a removed user' } : null,
+      reviewedAt: n.reviewedAt ? n.reviewedAt.toISOString() : null,
+    })),
   };
 }

@@ -106,6 +106,7 @@ export async function deletePoint(db: Db, user: SessionUser, id: number) {
   if (!row) throw notFound('Point');
   if (!canSeeSite(user, row.siteId)) throw siteForbidden();
   await db.transaction(async (tx) => {
+    await repo.lockPoints(tx, [id]);
     if ((await repo.dataCount(tx, [id])) > 0) throw keepData('point');
     await repo.deletePoints(tx, [id]);
     await writeAudit(tx, {

@@ -1,4 +1,4 @@
-import { and, count, eq, inArray, ne } from 'drizzle-orm';
+import { and, count, eq, inArray, ne, sql } from 'drizzle-orm';
 import type { MySqlTable } from 'drizzle-orm/mysql-core';
 import type { Db, Tx } from '@turnstone/db/client';
 import {
@@ -142,8 +142,46 @@ export async function dataCount(db: Db | Tx, pointIds: number[]): Promise<number
   return counts.reduce((sum, [row]) => sum + Number(row?.n ?? 0), 0);
 }
 
+/**
+ * Locks the points' rows for the deleting transaction (first, before anything is counted):
+ * ingest inserts a capture from its point's row read in share mode, so no capture can
+ * arrive for them until the deletion commits or rolls back (what the foreign key from the
+ * partitioned `snapshots` to `points` did).
+ */
+export async function lockPoints(tx: Tx, pointIds: number[]): Promise<void> {
+  if (pointIds.length === 0) return;
+  await tx.select({ id: points.id }).from(points).where(inArray(points.id, pointIds)).for('update');
+}
+export async function lockPointsOfMachine(tx: Tx, machineId: number): Promise<void> {
+  await tx
+    .select({ id: points.id })
+    .from(points)
+    .where(eq(points.machineId, machineId))
+    .for('update');
+}
+
+/**
+ * Deletes the points and everything that hangs from them, in the caller's transaction. The
+ * captures' tables are partitioned and take no foreign keys, so their rows (snapshots, uids,
+ * jobs, analyses, band values, pins, quality notices) are deleted here explicitly, not by
+ * cascade. (The setup services refuse to delete a point with captures; this keeps the
+ * deletion whole whatever the caller checked.)
+ */
 export async function deletePoints(tx: Tx, pointIds: number[]) {
   if (pointIds.length === 0) return;
+  const ids = sql.join(
+    pointIds.map((id) => sql`${id}`),
+    sql`, `,
+  );
+  const ofAnalyses = sql`SELECT id FROM analyses WHERE point_id IN (${ids})`;
+  const ofSnapshots = sql`SELECT id FROM snapshots WHERE point_id IN (${ids})`;
+  await tx.execute(sql`DELETE FROM capture_pins WHERE analysis_id IN (${ofAnalyses})`);
+  await tx.execute(sql`DELETE FROM quality_notices WHERE point_id IN (${ids})`);
+  await tx.execute(sql`DELETE FROM band_values WHERE point_id IN (${ids})`);
+  await tx.execute(sql`DELETE FROM analyses WHERE point_id IN (${ids})`);
+  await tx.execute(sql`DELETE FROM jobs WHERE snapshot_id IN (${ofSnapshots})`);
+  await tx.execute(sql`DELETE FROM snapshot_uids WHERE snapshot_id IN (${ofSnapshots})`);
+  await tx.execute(sql`DELETE FROM snapshots WHERE point_id IN (${ids})`);
   await tx.delete(limitSets).where(inArray(limitSets.pointId, pointIds));
   await tx.delete(points).where(inArray(points.id, pointIds));
 }

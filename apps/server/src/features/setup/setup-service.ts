@@ -20,6 +20,7 @@ import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import { forgetPointTags } from '../ingest/ingest-service.ts';
+import { resumMachineDays, resumSiteDays } from '../analysis/band-day-sums.ts';
 import * as repo from './setup-repository.ts';
 
 export const conflict = (path: string, message: string) =>
@@ -116,6 +117,9 @@ export async function updateSite(db: Db, user: SessionUser, id: number, input: S
     throw conflict('code', `A site with code ${input.code} already exists.`);
   await db.transaction(async (tx) => {
     await repo.updateRow(tx, sites, id, input);
+    // Band values are summed by the site's local day: a new zone moves the days.
+    if (input.timeZone !== undefined && input.timeZone !== before.timeZone)
+      await resumSiteDays(tx, id, input.timeZone);
     await writeAudit(tx, {
       actorUserId: user.id,
       action: 'site.update',
@@ -298,6 +302,8 @@ export async function updateMachine(db: Db, user: SessionUser, id: number, input
         if (isDuplicateKey(err)) await checkTagsFreeAt(tx, id, area.siteId);
         throw err;
       }
+      const to = await repo.siteById(tx, area.siteId);
+      if (to) await resumMachineDays(tx, id, to.timeZone);
     }
     const old = await replaceComponents(tx, id, input);
     await writeAudit(tx, {
@@ -327,6 +333,8 @@ export async function deleteMachine(db: Db, user: SessionUser, id: number) {
   if (!canSeeSite(user, found.siteId)) throw siteForbidden();
   const before = found.machine;
   await db.transaction(async (tx) => {
+    // Locked first, so the count below sees every capture committed before the lock.
+    await repo.lockPointsOfMachine(tx, id);
     const pts = await repo.pointsOf(tx, id);
     if (
       (await repo.dataCount(

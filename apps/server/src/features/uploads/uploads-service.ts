@@ -4,7 +4,7 @@
  * files become snapshots and go through the same queue and analysis as gateway captures.
  */
 import { uploadFieldsSchema, type UploadFields } from '@turnstone/contracts/uploads';
-import { AppError } from '../../lib/app-error.ts';
+import { AppError, notFound } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { accessiblePoint } from '../places/point-access.ts';
@@ -88,6 +88,7 @@ export async function acceptUpload(
     uploadedBy: user.id,
     fileName: safeFileName(file.originalname),
   });
+  if (result.status === 'point_gone') throw notFound('Point');
   if (result.status === 'conflict')
     throw new AppError(
       'upload_conflict',

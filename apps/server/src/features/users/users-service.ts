@@ -14,7 +14,10 @@ import { hashPassword } from '../../lib/passwords.ts';
 import { enqueueMail } from '../mail/outbox-repository.ts';
 import { mailBaseUrl } from '../mail/mail-links.ts';
 import * as repo from './users-repository.ts';
-import { dropSubscriptionsOutside, subscribeToSiteAlerts } from '../account/account-repository.ts';
+import {
+  dropSubscriptionsOutside,
+  subscribeToSiteAlerts,
+} from '../mail/subscriptions-repository.ts';
 import {
   consumeToken,
   findUsableToken,

@@ -18,8 +18,6 @@ import type { AppContext } from '../../lib/context.ts';
 import { notFound } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
-import { listAlerts } from '../alerts/alerts-repository.ts';
-import { toAlert } from '../alerts/alerts-service.ts';
 import * as repo from './webhooks-repository.ts';
 
 const iso = (d: Date | null) => d?.toISOString() ?? null;
@@ -154,14 +152,4 @@ export async function queueWebhookEvent(
     tx,
     targets.map((t) => ({ webhookId: t.id, eventId: event.id, eventType: type, body })),
   );
-}
-
-/** Queues `alert.<kind>` with the alert as `GET /alerts` lists it, as it is in `tx`. */
-export async function queueAlertWebhook(
-  tx: Tx,
-  alertId: number,
-  kind: 'raised' | 'escalated' | 'acknowledged' | 'cleared',
-): Promise<void> {
-  const [row] = await listAlerts(tx, { ids: [alertId], siteIds: null, limit: 1 });
-  if (row) await queueWebhookEvent(tx, `alert.${kind}`, toAlert(row));
 }

@@ -102,6 +102,50 @@ function protectedCapture(win: number) {
 }
 
 /**
+ * Whether any capture taken in [from, to) (from null: everything before `to`) must stay when
+ * its month's partitions are dropped: one not analysed yet, or one kept whole — the list of
+ * `protectedCapture` above, asked from the side of the markers (few) rather than of every
+ * capture of the month, and erring on the side of keeping: any alert event or finding within
+ * ±`win` minutes of the month keeps it, whichever point it names.
+ */
+export async function keptCaptureIn(
+  db: Db,
+  from: Date | null,
+  to: Date,
+  win: number,
+): Promise<boolean> {
+  const lo = from ?? new Date(0);
+  const within = (col: ReturnType<typeof sql>) => sql`${col} >= ${lo} AND ${col} < ${to}`;
+  const near = (col: ReturnType<typeof sql>) =>
+    sql`${col} >= ${lo} - INTERVAL ${win} MINUTE AND ${col} < ${to} + INTERVAL ${win} MINUTE`;
+  const rows = await rowsOf(
+    db,
+    sql`SELECT
+      EXISTS (SELECT 1 FROM snapshots s WHERE ${within(sql`s.taken_at`)}
+                 AND (s.source = 'upload' OR s.status = 'queued')) AS uploadsOrQueued,
+      EXISTS (SELECT 1 FROM capture_pins p JOIN analyses a ON a.id = p.analysis_id
+               WHERE ${within(sql`a.taken_at`)}) AS pinned,
+      EXISTS (SELECT 1 FROM alert_events e WHERE ${near(sql`e.at`)}) AS alertEvents,
+      EXISTS (SELECT 1 FROM alerts al WHERE ${within(sql`al.peak_at`)}) AS alertPeaks,
+      EXISTS (SELECT 1 FROM findings f WHERE ${near(sql`f.created_at`)}) AS findings,
+      EXISTS (SELECT 1 FROM quality_notices qn
+               WHERE qn.verdict = 'suspect' AND ${within(sql`qn.taken_at`)}) AS suspect,
+      EXISTS (
+        SELECT 1 FROM (
+          SELECT (SELECT MIN(c.taken_at) FROM analyses c
+                   WHERE c.point_id = x.point_id AND c.taken_at >= x.at) AS first_after
+            FROM (SELECT CAST(l.entity_id AS UNSIGNED) AS point_id, l.at FROM audit_log l
+                   WHERE l.entity = 'point' AND l.action IN ('limits.update', 'limits.baseline')
+                     AND l.at < ${to}
+                  UNION ALL
+                  SELECT ls.point_id, ls.updated_at FROM limit_sets ls
+                   WHERE ls.updated_at < ${to}) x) f
+         WHERE ${within(sql`f.first_after`)}) AS firstAfterLimits`,
+  );
+  return Object.values(rows[0] ?? {}).some((v) => Number(v) === 1);
+}
+
+/**
  * The ids in (lo, hi] whose spectra the pass clears, at most `limit`, ascending (exported so
  * the storage bench can EXPLAIN it).
  */

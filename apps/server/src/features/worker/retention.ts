@@ -30,6 +30,10 @@
  * `RETENTION_DAYS` (90, by received time): they are five times larger than the compact
  * spectra. The captures kept whole above keep theirs for ever.
  *
+ * Past the last tier, a capture horizon (`CAPTURE_RETENTION_MONTHS`, 0 = for ever, the
+ * default) drops whole months — their partitions of snapshots, analyses and band_values —
+ * where no capture kept whole lives (partitions.ts); months holding one stay and are thinned.
+ *
  * Both passes work in bounded batches (a SELECT of at most `batchSize` ids over at most
  * `scanSpan` primary keys, then an UPDATE of those ids by primary key, then a pause), so no
  * statement holds locks on more than one batch of rows and ingest is never waiting long.
@@ -45,6 +49,7 @@ import {
   thinningCandidateIds,
 } from './retention-repository.ts';
 
+import { dropExpiredPartitions } from './partitions.ts';
 import type { Config } from '../../config.ts';
 
 /** When the worker runs the nightly retention pass (node-cron, server time). */
@@ -57,6 +62,8 @@ export interface RetentionPolicy {
   spectraWholeDays: number;
   /** Days (from now) until which one capture per point per hour keeps its spectra. */
   spectraHourlyDays: number;
+  /** Months captures are kept at all (whole months dropped past it); 0 keeps them for ever. */
+  captureMonths: number;
   /** Captures within ± this many minutes of an alert event or a finding stay whole. */
   keepWindowMinutes: number;
   /** Rows per batch (one SELECT and one UPDATE). */
@@ -71,6 +78,7 @@ export function retentionPolicy(config: Config): RetentionPolicy {
     rawSamplesDays: config.RETENTION_DAYS,
     spectraWholeDays: config.SPECTRA_WHOLE_DAYS,
     spectraHourlyDays: config.SPECTRA_HOURLY_DAYS,
+    captureMonths: config.CAPTURE_RETENTION_MONTHS,
     keepWindowMinutes: config.RETENTION_KEEP_WINDOW_MIN,
     batchSize: config.RETENTION_BATCH_SIZE,
     batchPauseMs: config.RETENTION_BATCH_PAUSE_MS,
@@ -201,17 +209,23 @@ export async function thinSpectra(
   );
 }
 
-/** The nightly pass: thin spectra, then expire raw waveforms. */
+/** The nightly pass: drop months past the horizon, thin spectra, then expire raw waveforms. */
 export async function runRetention(
   db: Db,
   policy: RetentionPolicy,
   now = new Date(),
-): Promise<{ thinned: PassResult; expired: PassResult }> {
+): Promise<{ thinned: PassResult; expired: PassResult; droppedMonths: string[] }> {
   const opts = { batchSize: policy.batchSize, batchPauseMs: policy.batchPauseMs };
+  const droppedMonths = await dropExpiredPartitions(
+    db,
+    policy.captureMonths,
+    policy.keepWindowMinutes,
+    now,
+  );
   const thinned = await thinSpectra(db, policy, now, opts);
   const expired = await expireRawSamplesPass(db, policy.rawSamplesDays, now, {
     ...opts,
     keepWindowMinutes: policy.keepWindowMinutes,
   });
-  return { thinned, expired };
+  return { thinned, expired, droppedMonths };
 }

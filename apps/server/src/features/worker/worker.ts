@@ -27,6 +27,7 @@ import {
   type JobRow,
 } from '../queue/queue-repository.ts';
 import { RETENTION_CRON, retentionPolicy, runRetention } from './retention.ts';
+import { ensurePartitionsAhead, PARTITIONS_CRON } from './partitions.ts';
 import { recomputeBaselines } from '../limits/baseline-service.ts';
 import { countAnalyses, observeAnalyses, recordRetention } from '../../lib/metrics.ts';
 
@@ -44,7 +45,10 @@ export interface Worker {
    * finished (analysed, or recorded as failed).
    */
   drain(maxJobs?: number): Promise<number>;
-  /** Starts the cron ticks (queue every second, nightly baselines and retention). */
+  /**
+   * Starts the cron ticks (queue every second; nightly baselines, months' partitions ahead
+   * and retention) and adds the coming months' partitions once at once.
+   */
   start(): void;
   stop(): Promise<void>;
 }
@@ -214,6 +218,18 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
     owner,
     drain,
     start() {
+      const partitionsAhead = guarded('partitions', async () => {
+        const added = await ensurePartitionsAhead(ctx.db);
+        if (added.length > 0) ctx.log.info('partitions added', { added });
+      });
+      void partitionsAhead();
+      tasks.push(
+        cron.schedule(PARTITIONS_CRON, partitionsAhead, {
+          noOverlap: true,
+          name: 'partitions',
+          logger: cronLogger,
+        }),
+      );
       tasks.push(
         cron.schedule(
           '* * * * * *',

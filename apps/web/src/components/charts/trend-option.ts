@@ -14,6 +14,7 @@ import {
   zoomSliderStyle,
 } from './chart-theme.ts';
 import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
+import { formatDate, formatDateTime } from '../../lib/format.ts';
 
 /** A time as epoch milliseconds or an ISO 8601 string. */
 export type ChartTime = number | string;
@@ -133,15 +134,9 @@ const eventStyle: Record<
   other: { colour: chartColours.inkMuted, type: 'dotted' },
 };
 
-export const dateLabel = new Intl.DateTimeFormat('en-GB', {
-  day: 'numeric',
-  month: 'short',
-  year: 'numeric',
-});
-export const dateTimeLabel = new Intl.DateTimeFormat('en-GB', {
-  dateStyle: 'medium',
-  timeStyle: 'short',
-});
+/** Axis and pointer labels in the one date format and the screen's zone (lib/format.ts). */
+export const dateLabel = { format: (t: number) => formatDate(t) };
+export const dateTimeLabel = { format: (t: number) => formatDateTime(t) };
 
 export function buildTrendOption(props: TrendChartProps): ChartOption {
   const unit = displayUnit(props.unit);

@@ -5,6 +5,7 @@
  */
 import { useMemo } from 'react';
 import { axisStyle, chartColours, formatValue, monoFont } from './chart-theme.ts';
+import { formatDateTime } from '../../lib/format.ts';
 import type { ChartOption } from './echarts.ts';
 import './echarts-polar.ts';
 import { useEChart } from './use-echart.ts';
@@ -26,7 +27,7 @@ interface VectorChartProps {
   height?: number;
 }
 
-const timeLabel = (t: number) => new Date(t).toISOString().slice(0, 16).replace('T', ' ');
+const timeLabel = (t: number) => formatDateTime(t);
 
 export function buildVectorTrendOption(p: VectorChartProps): ChartOption {
   const ax = axisStyle();
@@ -139,7 +140,7 @@ export function buildVectorPolarOption(p: VectorChartProps): ChartOption {
         const item = d as unknown as { dataIndex: number };
         const x = p.points[item.dataIndex];
         return x
-          ? `${timeLabel(x.t)} UTC<br/>${formatValue(x.amplitude, 4)} ${p.unit} ∠ ${x.phaseDeg.toFixed(0)}°`
+          ? `${timeLabel(x.t)}<br/>${formatValue(x.amplitude, 4)} ${p.unit} ∠ ${x.phaseDeg.toFixed(0)}°`
           : '';
       },
     },

@@ -13,10 +13,13 @@ import { SafetyNote } from './safety-note.tsx';
 export function DashboardLayout({
   navigation,
   user,
+  timeZone,
   children,
 }: {
   navigation: readonly NavigationItem[];
   user: ReactNode;
+  /** The zone the page's times are in (unless the page names a site's own). */
+  timeZone: string;
   children: ReactNode;
 }) {
   return (
@@ -71,7 +74,7 @@ export function DashboardLayout({
       >
         {children}
       </main>
-      <SafetyNote />
+      <SafetyNote timeZone={timeZone} />
     </div>
   );
 }

@@ -15,6 +15,7 @@ import { POINT_PAGE_ANALYSES, useAnalyses } from '../../../features/points/api/g
 import { usePoint } from '../../../features/points/api/get-point.ts';
 import { hasVectors } from '../../../features/points/lib/has-vectors.ts';
 import { CaptureQuality } from '../../../features/points/components/capture-quality.tsx';
+import { PointQualityNotices } from '../../../features/points/components/quality-notices.tsx';
 import { useMe } from '../../../features/auth/api/get-me.ts';
 import { TrendPanel } from '../../../features/trends/components/trend-panel.tsx';
 import { useUnits } from '../../../features/account/api/use-units.ts';
@@ -200,6 +201,11 @@ export function PointRoute() {
         }
       />
       <LatestValues point={p} analyses={list} />
+      <PointQualityNotices
+        pointId={p.id}
+        pointTag={p.tag}
+        canReview={me.data?.role === 'planner' || me.data?.role === 'engineer'}
+      />
       <div className="contents" onPointerOver={preloadViews} onFocus={preloadViews}>
         <TabList
           group="point"

@@ -27,6 +27,7 @@ import {
 } from '../../../features/review/components/review-tables.tsx';
 import type { FindingDraft } from '../../../features/review/components/review-table-parts.tsx';
 import { formatDay } from '../../../features/review/utils/format-review.ts';
+import { formatDateTime } from '../../../lib/format.ts';
 import { CreateFindingDialog } from '../../../features/findings/components/create-finding-dialog.tsx';
 import { FindingsList } from '../../../features/findings/components/findings-list.tsx';
 import '../../../features/review/components/review-print.css';
@@ -72,7 +73,7 @@ export function ReviewRoute() {
         markReviewed.mutateAsync({ pointId }).then(
           (r) =>
             setReviewedMsg(
-              `${r.reviewed} quality ${r.reviewed === 1 ? 'notice' : 'notices'} of ${pointTag} marked reviewed by ${r.reviewedBy.name}.`,
+              `${r.reviewed} quality ${r.reviewed === 1 ? 'notice' : 'notices'} of ${pointTag} marked reviewed by ${r.reviewedBy.name} at ${formatDateTime(r.reviewedAt)}; the point’s page lists them with who reviewed each.`,
             ),
           (e: unknown) =>
             setReviewedMsg(e instanceof Error ? e.message : 'Could not mark reviewed'),

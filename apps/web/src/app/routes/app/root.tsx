@@ -9,6 +9,7 @@ import { navigationFor } from '../../../config/navigation.ts';
 import { paths } from '../../../config/paths.ts';
 import { useMe } from '../../../features/auth/api/get-me.ts';
 import { UserMenu } from '../../../features/auth/components/user-menu.tsx';
+import { setDisplayTimeZone } from '../../../lib/format.ts';
 
 /** Every signed-in page: checks the session, then the layout with the role's navigation. */
 export function AppRoot() {
@@ -42,9 +43,12 @@ export function AppRoot() {
     return <Navigate to={paths.auth.signIn.getHref(here)} replace />;
   }
 
+  // Before any page renders: the zone of every time on screens not tied to one site.
+  setDisplayTimeZone(me.data.timeZone);
   return (
     <DashboardLayout
       navigation={navigationFor(me.data.role)}
+      timeZone={me.data.timeZone}
       user={
         <UserMenu
           user={me.data}

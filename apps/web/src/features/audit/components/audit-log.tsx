@@ -7,7 +7,8 @@ import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Field, Input, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
-import { formatDateTime } from '../../../lib/format.ts';
+import { addDays, dayStart } from '@turnstone/contracts/dates';
+import { displayTimeZone, formatDateTime } from '../../../lib/format.ts';
 import { useAudit, type AuditFilters } from '../api/get-audit.ts';
 
 const ENTITIES = [
@@ -23,13 +24,13 @@ const ENTITIES = [
   ['user', 'User'],
 ] as const;
 
-/** A local date (yyyy-mm-dd) as the ISO instant of its start, or of the next day's start. */
+/**
+ * A date (yyyy-mm-dd) as the ISO instant of its start, or of the next day's start, in the
+ * screen's zone (the one its times are shown in).
+ */
 function dayBoundary(date: string, end: boolean): string | undefined {
-  if (!date) return undefined;
-  const d = new Date(`${date}T00:00:00`);
-  if (Number.isNaN(d.getTime())) return undefined;
-  if (end) d.setDate(d.getDate() + 1);
-  return d.toISOString();
+  if (!/^\d{4}-\d{2}-\d{2}$/.test(date)) return undefined;
+  return new Date(dayStart(end ? addDays(date, 1) : date, displayTimeZone())).toISOString();
 }
 
 function compact(value: unknown): string {

@@ -8,6 +8,7 @@ import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Input, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { paths } from '../../../config/paths.ts';
+import { formatDate } from '../../../lib/format.ts';
 import { formatNumber } from '@turnstone/contracts/number-format';
 import { useFindings } from '../api/get-findings.ts';
 import { FindingStateMark } from './finding-state-mark.tsx';
@@ -23,10 +24,8 @@ const showLabels: Record<Show, string> = {
   all: 'All',
 };
 
-const localToday = () => {
-  const d = new Date();
-  return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
-};
+/** Today in the screen's zone, for "overdue" and "this week". */
+const localToday = () => formatDate(Date.now());
 
 /**
  * The findings of the sites in view, with their controls: edit (priority, owner, planned

@@ -70,7 +70,13 @@ export function RetentionCard() {
               finding, at an alert&apos;s peak, where a point turned suspect, uploads, and the first
               capture after a limit change.
             </li>
-            <li>Overall values, band values, peaks and diagnosis of every capture are kept.</li>
+            <li>
+              Overall values, band values, peaks and diagnosis of every capture:{' '}
+              {q.data.captureMonths === 0
+                ? 'kept for ever'
+                : `kept ${q.data.captureMonths} months; older months are removed whole, except a month holding a capture kept whole`}
+              .
+            </li>
             <li>
               Raw waveforms:{' '}
               {q.data.rawSamplesDays === 0

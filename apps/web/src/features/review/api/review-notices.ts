@@ -16,6 +16,8 @@ export function useReviewNotices() {
       Promise.all([
         queryClient.invalidateQueries({ queryKey: ['review'] }),
         queryClient.invalidateQueries({ queryKey: ['fleet'] }),
+        queryClient.invalidateQueries({ queryKey: ['quality-notices'] }),
+        queryClient.invalidateQueries({ queryKey: ['point'] }),
       ]),
   });
 }

@@ -4,6 +4,7 @@ import { formatDate } from '@turnstone/contracts/dates';
  * follow the app's one number rule (`@turnstone/contracts/number-format`).
  */
 import { formatNumber } from '@turnstone/contracts/number-format';
+import { displayTimeZone } from '../../../lib/format.ts';
 
 const oneDecimal = new Intl.NumberFormat('en-GB', {
   minimumFractionDigits: 1,
@@ -29,12 +30,9 @@ export function formatDay(iso: string, timeZone = 'UTC'): string {
   return formatDate(iso, timeZone);
 }
 
-/** Today as YYYY-MM-DD in the browser's own time zone (the week a person means by "this week"). */
+/** Today as YYYY-MM-DD in the screen's zone (lib/format.ts): the week a person means by "this week". */
 export function todayIso(now = new Date()): string {
-  const y = now.getFullYear();
-  const m = String(now.getMonth() + 1).padStart(2, '0');
-  const d = String(now.getDate()).padStart(2, '0');
-  return `${y}-${m}-${d}`;
+  return formatDate(now, displayTimeZone());
 }
 
 /** The date `days` after a YYYY-MM-DD date. */

@@ -12,7 +12,7 @@ import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Field, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
-import { formatDateTime } from '../../../lib/format.ts';
+import { formatDate, formatDateTime } from '../../../lib/format.ts';
 import { useUnits } from '../../account/api/use-units.ts';
 import { trendInUnits } from '../utils/trend-units.ts';
 import {
@@ -153,7 +153,7 @@ function TrendBody({ trend, now }: { trend: ReturnType<typeof useTrend>; now: nu
         ? {
             from: { t: last.t, v: last.v },
             to: { t: p.crossingAt, v: p.target.value },
-            label: `${p.target.level === 'danger' ? 'Danger' : 'Alert'} ${new Date(p.crossingAt).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' })}`,
+            label: `${p.target.level === 'danger' ? 'Danger' : 'Alert'} ${formatDate(p.crossingAt)}`,
           }
         : null;
     const baseline = data.baseline

@@ -1,0 +1,48 @@
+/**
+ * Captures stored through the real gateway API at chosen past times and analysed by the real
+ * worker, and what the retention passes leave of them: for the retention tests.
+ */
+import { expect } from 'vitest';
+import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import { snapshotBody } from './signals.ts';
+import type { TestServer } from './test-server.ts';
+
+/** Ingests one capture per time through the gateway API and analyses it; returns analysis ids. */
+export async function analysedCaptures(
+  srv: TestServer,
+  key: string,
+  tag: string,
+  times: string[],
+): Promise<Map<string, number>> {
+  const out = new Map<string, number>();
+  for (const [i, t] of times.entries()) {
+    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
+      body: snapshotBody(tag, `${tag}-${t}`, {
+        takenAt: t,
+        tones: [{ hz: 24.7, peakG: 0.02 + 0.0005 * i }],
+        seed: i,
+      }),
+      headers: { authorization: `Bearer ${key}` },
+    });
+    expect(res.status).toBe(201);
+    const snapshotId = (await res.json()).snapshotId as number;
+    await createWorker(srv.ctx, { owner: 'retention-test' }).drain();
+    const [a] = await srv.q('SELECT id FROM analyses WHERE snapshot_id = ?', [snapshotId]);
+    out.set(t, Number(a!.id));
+  }
+  return out;
+}
+
+export async function pointIdOf(srv: TestServer, tag: string): Promise<number> {
+  const [p] = await srv.q('SELECT id FROM points WHERE tag = ?', [tag]);
+  return Number(p!.id);
+}
+
+/** Whether an analysis still holds all its spectra (not thinned by retention). */
+export async function spectraWhole(srv: TestServer, analysisId: number): Promise<boolean> {
+  const [r] = await srv.q(
+    'SELECT spectra IS NOT NULL AS kept, spectra_thinned_at FROM analyses WHERE id = ?',
+    [analysisId],
+  );
+  return Number(r!.kept) === 1 && r!.spectra_thinned_at === null;
+}
