@@ -12,24 +12,23 @@ import {
 } from '../../apps/server/src/features/worker/retention.ts';
 import { loadConfig } from '../../apps/server/src/config.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { analysedCaptures, pointIdOf, spectraWhole } from '../support/analysed-captures.ts';
+import {
+  analysedCaptures,
+  NOW,
+  pointIdOf,
+  POLICY,
+  spectraWhole,
+} from '../support/analysed-captures.ts';
 
 let srv: TestServer;
 let key: string;
 let cookie: string;
 const TAG_BATCH = 'MFP-P102-MDE-V';
-/** The fixed "now" of every pass here. */
-const NOW = new Date('2026-10-01T12:00:00.000Z');
-const POLICY = { spectraWholeDays: 14, spectraHourlyDays: 90, keepWindowMinutes: 60 };
 
 beforeAll(async () => {
   srv = await startTestServer();
   cookie = await srv.signIn('admin');
-  key = (
-    await (
-      await srv.call('POST', '/api/v1/gateways', { cookie, body: { siteId: 1, name: 'gw' } })
-    ).json()
-  ).apiKey;
+  key = await srv.gatewayKey(1, 'gw');
 });
 afterAll(async () => {
   await srv?.stop();

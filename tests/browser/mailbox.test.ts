@@ -111,6 +111,22 @@ describe('mailbox in a real browser', () => {
     const frame = page.frameLocator('iframe[sandbox=""]');
     await frame.getByText('Intake pump P-101 (MFP · Raw water intake)').waitFor();
     await frame.getByText(/not a machine-protection system/).waitFor();
+    // The trend picture came as an inline CID part; the fake kept it and the frame shows it
+    // (a sanitised SVG data: URI), not its alt text.
+    const picture = frame.locator('img').first();
+    await picture.waitFor();
+    expect(await picture.getAttribute('src')).toMatch(/^data:image\/svg\+xml;base64,/);
+    await expect
+      .poll(() =>
+        picture.evaluate(
+          (img) => (img as unknown as { complete: boolean; naturalWidth: number }).naturalWidth,
+        ),
+      )
+      .toBeGreaterThan(100);
+    const [stored] = await srv.q(
+      "SELECT html_body FROM mail_messages WHERE subject LIKE 'Alert raised:%' ORDER BY id DESC LIMIT 1",
+    );
+    expect(String(stored!.html_body)).not.toContain('cid:');
     await screenshot(page, 'mailbox-alert');
     await page.context().close();
   });

@@ -7,6 +7,11 @@ import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { snapshotBody } from './signals.ts';
 import type { TestServer } from './test-server.ts';
 
+/** The fixed "now" of every retention pass in the tests. */
+export const NOW = new Date('2026-10-01T12:00:00.000Z');
+/** The policy's defaults (common practice, no source), as the passes are given them. */
+export const POLICY = { spectraWholeDays: 14, spectraHourlyDays: 90, keepWindowMinutes: 60 };
+
 /** Ingests one capture per time through the gateway API and analyses it; returns analysis ids. */
 export async function analysedCaptures(
   srv: TestServer,

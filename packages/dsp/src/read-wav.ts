@@ -112,17 +112,25 @@ export function readWavLayout(bytes: Uint8Array): WavLayout {
   return { fmt, data, frames };
 }
 
+/** One channel of a WAV file as the little-endian sample bytes of its container, not decoded. */
+export interface WavChannelBytes {
+  sampleRateHz: number;
+  /** Container bits per sample from the header (16, 24 or 32). */
+  bitsPerSample: number;
+  /** Valid bits (WAVE_FORMAT_EXTENSIBLE) or bitsPerSample. */
+  validBits: number;
+  encoding: SampleEncoding;
+  channels: number;
+  /** The selected channel's samples as stored in the file (a view of it for a mono file). */
+  bytes: Uint8Array;
+}
+
 /**
- * Parses a RIFF/WAVE file held in memory: PCM 16/24/32-bit or IEEE float 32-bit, plain
- * or WAVE_FORMAT_EXTENSIBLE, any channel count (one is returned). Rejects anything else
- * with an `Error` whose message says what is wrong: not RIFF/WAVE, a truncated chunk, a
- * data chunk claiming more bytes than the file holds, missing fmt/data, zero samples,
- * unsupported formats and non-finite float samples.
- *
- * Source: Microsoft/IBM "Multimedia Programming Interface and Data Specifications 1.0"
- * (1991, RIFF/WAVE) and Microsoft's WAVEFORMATEXTENSIBLE documentation.
+ * The checks of {@link readWav} and the selected channel's sample bytes, without decoding
+ * them: a mono file's data chunk is returned as a view, a multi-channel file's channel is
+ * picked out frame by frame. Float samples are not yet checked for NaN or infinity.
  */
-export function readWav(bytes: Uint8Array, options: ReadWavOptions = {}): WavRecording {
+export function wavChannelBytes(bytes: Uint8Array, options: ReadWavOptions = {}): WavChannelBytes {
   const { fmt, data } = readWavLayout(bytes);
 
   let encoding: SampleEncoding;
@@ -163,20 +171,35 @@ export function readWav(bytes: Uint8Array, options: ReadWavOptions = {}): WavRec
     }
     raw = picked;
   }
-  let samples: Int32Array | Float32Array;
-  try {
-    samples = decodeSamples(raw, encoding);
-  } catch (error) {
-    throw new Error(`invalid WAV: ${(error as Error).message}`);
-  }
   return {
     sampleRateHz: fmt.rate,
     bitsPerSample: fmt.bits,
     validBits: Math.min(fmt.validBits, fmt.bits),
     encoding,
     channels: fmt.channels,
-    samples,
+    bytes: raw,
   };
+}
+
+/**
+ * Parses a RIFF/WAVE file held in memory: PCM 16/24/32-bit or IEEE float 32-bit, plain
+ * or WAVE_FORMAT_EXTENSIBLE, any channel count (one is returned). Rejects anything else
+ * with an `Error` whose message says what is wrong: not RIFF/WAVE, a truncated chunk, a
+ * data chunk claiming more bytes than the file holds, missing fmt/data, zero samples,
+ * unsupported formats and non-finite float samples.
+ *
+ * Source: Microsoft/IBM "Multimedia Programming Interface and Data Specifications 1.0"
+ * (1991, RIFF/WAVE) and Microsoft's WAVEFORMATEXTENSIBLE documentation.
+ */
+export function readWav(bytes: Uint8Array, options: ReadWavOptions = {}): WavRecording {
+  const { bytes: raw, ...wav } = wavChannelBytes(bytes, options);
+  let samples: Int32Array | Float32Array;
+  try {
+    samples = decodeSamples(raw, wav.encoding);
+  } catch (error) {
+    throw new Error(`invalid WAV: ${(error as Error).message}`);
+  }
+  return { ...wav, samples };
 }
 
 /**

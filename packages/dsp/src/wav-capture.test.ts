@@ -1,7 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { floatWavBytes, pcmWavBytes } from '../../../tests/support/wav-bytes.ts';
 import { analyzeSnapshot } from './analyze-snapshot.ts';
-import { wavCapture } from './wav-capture.ts';
+import { wavCapture, wavCaptureBytes } from './wav-capture.ts';
+import { readWavLayout } from './read-wav.ts';
+import { decodeSamples } from './sample-codec.ts';
 
 const FS = 25600;
 /** Codes of a `bits` converter for a 156.25 Hz sine (a whole number of cycles in 4096, 8192 or 16384 samples) at `fraction` of full scale (definition). */
@@ -61,3 +63,45 @@ describe('wavCapture', () => {
     expect(() => wavCapture(pcmWavBytes(codes, FS, 16), { bits: 20 })).toThrow(/exceed/);
   });
 });
+
+describe('wavCaptureBytes', () => {
+  // RIFF/WAVE (Microsoft/IBM 1991): a mono file's data chunk holds the little-endian samples
+  // themselves, so where the stored values are the file's own the bytes pass unchanged.
+  const dataChunk = (wav: Uint8Array) => {
+    const { data } = readWavLayout(wav);
+    return Buffer.from(wav.subarray(data.start, data.start + data.size));
+  };
+  const volts = sineCodes(24, 0.5, 4096).map((c) => c / 2 ** 23);
+
+  it('keeps a full-width PCM file’s data chunk and a float file’s at 1 V full scale byte for byte', () => {
+    const pcm = pcmWavBytes(sineCodes(16, 0.5, 4096), FS, 16);
+    const got = wavCaptureBytes(pcm);
+    expect(got).toMatchObject({ encoding: 'int16', count: 4096, adc: { bits: 16, fullScaleV: 1 } });
+    expect(Buffer.from(got.sampleBytes).equals(dataChunk(pcm))).toBe(true);
+    const flt = floatWavBytes(volts, FS);
+    const f = wavCaptureBytes(flt);
+    expect(f).toMatchObject({ encoding: 'float32', count: 4096 });
+    expect(Buffer.from(f.sampleBytes).equals(dataChunk(flt))).toBe(true);
+  });
+
+  // WAVEFORMATEXTENSIBLE: valid bits sit at the top of the container, so a 20-bit code is the
+  // container value ÷ 2^4; float samples are volts at full scale × value (definitions).
+  it('stores 20-bit codes of a 24-bit container, and float values scaled to volts', () => {
+    const codes = sineCodes(20, 0.5, 4096);
+    const pcm = wavCaptureBytes(pcmWavBytes(codes, FS, 24, 20));
+    expect(pcm).toMatchObject({ encoding: 'int24', adc: { bits: 20, fullScaleV: 1 } });
+    expect(Array.from(decodeSamples(pcm.sampleBytes, 'int24'))).toEqual(codes);
+    const flt = wavCaptureBytes(floatWavBytes(volts, FS), { fullScaleV: 2.5 });
+    expect(Array.from(decodeSamples(flt.sampleBytes, 'float32'))).toEqual(
+      volts.map((v) => Math.fround(Math.fround(v) * 2.5)),
+    );
+  });
+
+  it('refuses a float file holding NaN, as reading it does', () => {
+    const bad = floatWavBytes(volts, FS);
+    new DataView(bad.buffer, bad.byteOffset).setFloat32(dataStart(bad) + 4 * 7, Number.NaN, true);
+    expect(() => wavCaptureBytes(bad)).toThrow(/invalid WAV: sample 7 is not a finite number/);
+  });
+});
+
+const dataStart = (wav: Uint8Array) => readWavLayout(wav).data.start;

@@ -1,5 +1,10 @@
-import type { SampleEncoding } from './sample-codec.ts';
-import { readWav } from './read-wav.ts';
+import {
+  checkFiniteFloat32,
+  decodeSamples,
+  encodeSamples,
+  type SampleEncoding,
+} from './sample-codec.ts';
+import { wavChannelBytes } from './read-wav.ts';
 import { checkAdc } from './scale-samples.ts';
 
 /** A WAV file as a capture: samples in the form the analysis reads, with the ADC facts. */
@@ -12,6 +17,13 @@ export interface WavCapture {
   adc: { bits: number; fullScaleV: number };
   /** Bits per sample of the file's container, and of them the valid ones. */
   container: { bits: number; validBits: number };
+}
+
+/** A WAV file as the sample bytes a capture stores, with the same facts as {@link WavCapture}. */
+export interface WavCaptureBytes extends Omit<WavCapture, 'samples'> {
+  /** Little-endian samples in `encoding` (sample-codec.ts): what a gateway would send. */
+  sampleBytes: Uint8Array;
+  count: number;
 }
 
 /** Options for {@link wavCapture}. */
@@ -45,21 +57,47 @@ export interface WavCaptureOptions {
  * specification (1991) for PCM and IEEE float.
  */
 export function wavCapture(bytes: Uint8Array, options: WavCaptureOptions = {}): WavCapture {
-  const wav = readWav(bytes, options.channel === undefined ? {} : { channel: options.channel });
+  const { sampleBytes, count: _count, ...capture } = wavCaptureBytes(bytes, options);
+  return { ...capture, samples: decodeSamples(sampleBytes, capture.encoding) };
+}
+
+/**
+ * {@link wavCapture} as the sample bytes a capture stores, for a path that stores rather than
+ * analyses (uploads). Where the stored values are the file's own — PCM whose ADC bits fill the
+ * container, float at a full scale of 1 V — the file's bytes are kept as they are, checked but
+ * never decoded to an array; otherwise the codes are shifted or the volts scaled.
+ */
+export function wavCaptureBytes(
+  bytes: Uint8Array,
+  options: WavCaptureOptions = {},
+): WavCaptureBytes {
+  const wav = wavChannelBytes(
+    bytes,
+    options.channel === undefined ? {} : { channel: options.channel },
+  );
   const fullScaleV = options.fullScaleV ?? 1;
   const container = { bits: wav.bitsPerSample, validBits: wav.validBits };
+  const count = wav.bytes.length / (wav.bitsPerSample / 8);
+  const of = (sampleBytes: Uint8Array, encoding: SampleEncoding, bits: number) => ({
+    sampleBytes,
+    count,
+    encoding,
+    sampleRateHz: wav.sampleRateHz,
+    adc: { bits, fullScaleV },
+    container,
+  });
   if (wav.encoding === 'float32') {
+    try {
+      checkFiniteFloat32(wav.bytes);
+    } catch (error) {
+      throw new Error(`invalid WAV: ${(error as Error).message}`);
+    }
     const bits = options.bits ?? 24;
     checkAdc(bits, fullScaleV);
-    const volts = new Float32Array(wav.samples.length);
-    for (let i = 0; i < volts.length; i++) volts[i] = wav.samples[i]! * fullScaleV;
-    return {
-      samples: volts,
-      encoding: 'float32',
-      sampleRateHz: wav.sampleRateHz,
-      adc: { bits, fullScaleV },
-      container,
-    };
+    if (fullScaleV === 1) return of(wav.bytes.slice(), 'float32', bits);
+    const volts = new Float32Array(decodeSamples(wav.bytes, 'float32'));
+    for (let i = 0; i < volts.length; i++) volts[i] = volts[i]! * fullScaleV;
+    return of(encodeSamples(volts, 'float32'), 'float32', bits);
   }
   const bits = options.bits ?? wav.validBits;
   checkAdc(bits, fullScaleV);
@@ -68,14 +106,9 @@ export function wavCapture(bytes: Uint8Array, options: WavCaptureOptions = {}): 
       `ADC bits ${bits} exceed the file's ${wav.bitsPerSample}-bit samples; give at most ${wav.bitsPerSample}`,
     );
   }
+  if (bits === wav.bitsPerSample) return of(wav.bytes.slice(), wav.encoding, bits);
   const step = 2 ** (wav.bitsPerSample - bits);
-  const codes = new Int32Array(wav.samples.length);
-  for (let i = 0; i < codes.length; i++) codes[i] = Math.floor(wav.samples[i]! / step);
-  return {
-    samples: codes,
-    encoding: wav.encoding,
-    sampleRateHz: wav.sampleRateHz,
-    adc: { bits, fullScaleV },
-    container,
-  };
+  const codes = decodeSamples(wav.bytes, wav.encoding);
+  for (let i = 0; i < codes.length; i++) codes[i] = Math.floor(codes[i]! / step);
+  return of(encodeSamples(codes, wav.encoding), wav.encoding, bits);
 }

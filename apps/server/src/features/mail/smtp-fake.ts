@@ -1,6 +1,7 @@
 /**
  * The local SMTP fake (npm smtp-server + mailparser): listens on loopback, accepts every
- * message without authentication and keeps it in `mail_messages` for the Mailbox screen.
+ * message without authentication and keeps it in `mail_messages` for the Mailbox screen, its
+ * inline pictures (CID parts) embedded in the HTML as data: URIs (inline-images.ts).
  * Stands in for the site's relay when SMTP_URL is unset; never listens on other interfaces.
  */
 import type { AddressInfo } from 'node:net';
@@ -9,6 +10,7 @@ import { simpleParser, type AddressObject } from 'mailparser';
 import type { Db } from '@turnstone/db/client';
 import type { Logger } from '../../lib/logger.ts';
 import { storeReceivedMail } from './mail-repository.ts';
+import { embedInlineParts } from './inline-images.ts';
 
 export interface SmtpFake {
   url: string;
@@ -44,7 +46,9 @@ export async function startSmtpFake(db: Db, log: Logger, port = 0): Promise<Smtp
             subject: (mail.subject ?? '').slice(0, 500),
             headers,
             textBody: mail.text ?? null,
-            htmlBody: typeof mail.html === 'string' ? mail.html : null,
+            // Inline pictures (CID parts) are kept inside the HTML as data: URIs.
+            htmlBody:
+              typeof mail.html === 'string' ? embedInlineParts(mail.html, mail.attachments) : null,
           });
           callback();
         })

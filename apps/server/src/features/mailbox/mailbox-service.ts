@@ -8,6 +8,7 @@ import { writeAudit } from '../audit/audit-repository.ts';
 import { listUndelivered, requeueUndelivered, type OutboxRow } from '../mail/outbox-repository.ts';
 import { maskLinkTokens } from '../mail/link-tokens.ts';
 import { findReceivedMail, listReceivedMail } from '../mail/mail-repository.ts';
+import { safeImageSrc } from '../mail/inline-images.ts';
 
 export async function listMailbox(db: Db, search?: string, limit = 200) {
   const rows = await listReceivedMail(db, limit, search || undefined);
@@ -54,7 +55,15 @@ export function sanitizeHtml(html: string): string {
       '*': ['style'],
     },
     allowedSchemes: ['http', 'https', 'mailto'],
-    allowedSchemesByTag: { img: ['cid'] },
+    allowedSchemesByTag: { img: ['cid', 'data'] },
+    // Inline pictures: data: URIs of images only, an SVG's content through its own allow-list.
+    transformTags: {
+      img: (tagName, attribs) => {
+        const { src, ...rest } = attribs;
+        const safe = safeImageSrc(src);
+        return { tagName, attribs: safe ? { ...rest, src: safe } : rest };
+      },
+    },
     allowProtocolRelative: false,
     allowedStyles: { '*': SAFE_STYLE },
     disallowedTagsMode: 'discard',

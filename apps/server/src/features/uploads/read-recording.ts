@@ -5,7 +5,12 @@
  * nothing of the server but the sample encoding.
  */
 import { createHash } from 'node:crypto';
-import { CSV_DEFAULT_BITS, CSV_DEFAULT_FULL_SCALE_V, readCsv, wavCapture } from '@turnstone/dsp';
+import {
+  CSV_DEFAULT_BITS,
+  CSV_DEFAULT_FULL_SCALE_V,
+  readCsv,
+  wavCaptureBytes,
+} from '@turnstone/dsp';
 import { MAX_SAMPLES, MIN_SAMPLES } from '@turnstone/contracts/ingest';
 import { encodeSamples } from '@turnstone/dsp/sample-codec';
 import { isWavBytes, looksLikeText, tooManySamples } from './upload-bounds.ts';
@@ -45,10 +50,11 @@ export function readRecording(input: ReadRecordingInput): ReadRecordingResult {
   let count: number;
   if (isWavBytes(bytes)) {
     // The same reading as the analyzer CLI: full scale of the container (PCM samples are
-    // left-justified), float 1.0 = full scale; float samples come back as volts.
+    // left-justified), float 1.0 = full scale; float samples are stored as volts. The file's
+    // sample bytes are stored as they are where they already hold the stored values.
     let wav;
     try {
-      wav = wavCapture(bytes, {
+      wav = wavCaptureBytes(bytes, {
         ...(input.bits === undefined ? {} : { bits: input.bits }),
         ...(input.fullScaleV === undefined ? {} : { fullScaleV: input.fullScaleV }),
       });
@@ -59,9 +65,9 @@ export function readRecording(input: ReadRecordingInput): ReadRecordingResult {
     sampleRateHz = wav.sampleRateHz;
     adcBits = wav.adc.bits;
     fullScaleV = wav.adc.fullScaleV;
-    count = wav.samples.length;
+    count = wav.count;
     if (count > MAX_SAMPLES) return { ok: false, status: 413, message: tooManySamples(count) };
-    sampleBytes = Buffer.from(encodeSamples(wav.samples, encoding));
+    sampleBytes = wav.sampleBytes;
   } else if (looksLikeText(bytes)) {
     let csv;
     try {

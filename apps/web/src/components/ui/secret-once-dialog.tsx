@@ -1,20 +1,30 @@
-import { useState } from 'react';
-import { Button } from '../../../components/ui/button.tsx';
-import { Modal } from '../../../components/ui/modal.tsx';
+import { useState, type ReactNode } from 'react';
+import { Button } from './button.tsx';
+import { Modal } from './modal.tsx';
 
-/** A secret shown this once (an API token, a signing secret); closing needs a deliberate click. */
+/**
+ * A secret shown this once (a gateway's API key, an API token, a webhook's signing secret).
+ * Closing needs a deliberate click, not a stray Escape. `what` names the secret in the
+ * wording ("This key is shown only once.", "Copy key", "I have stored the key"); without it
+ * the wording is plain ("This is shown only once.", "Copy", "I have stored it").
+ */
 export function SecretOnceDialog({
   title,
   label,
   secret,
   advice,
+  what,
   onClose,
+  children,
 }: {
   title: string;
   label: string;
   secret: string | null;
   advice: string;
+  what?: string;
   onClose: () => void;
+  /** Shown below the secret: how to use it. */
+  children?: ReactNode;
 }) {
   const [copied, setCopied] = useState<'yes' | 'failed' | null>(null);
   const close = () => {
@@ -44,7 +54,8 @@ export function SecretOnceDialog({
           <path d="M6 1.2 11 10.3H1Z" fill="currentColor" />
         </svg>
         <p>
-          <strong>This is shown only once.</strong> {advice}
+          <strong>{what ? `This ${what} is shown only once.` : 'This is shown only once.'}</strong>{' '}
+          {advice}
         </p>
       </div>
       <label className="flex flex-col gap-1.5 text-sm font-medium">
@@ -56,9 +67,10 @@ export function SecretOnceDialog({
           className="h-10 w-full rounded-md border border-line-strong bg-sunken px-3 font-mono text-[13px] text-ink"
         />
       </label>
+      {children}
       <div className="flex flex-wrap items-center gap-2">
         <Button variant="primary" onClick={() => void copy()}>
-          Copy
+          {what ? `Copy ${what}` : 'Copy'}
         </Button>
         {copied === 'yes' && (
           <span role="status" className="text-sm text-status-ok">
@@ -67,11 +79,11 @@ export function SecretOnceDialog({
         )}
         {copied === 'failed' && (
           <span role="status" className="text-sm text-status-danger">
-            Could not copy; select the text and copy it by hand.
+            Could not copy; select the {what ?? 'text'} and copy it by hand.
           </span>
         )}
         <Button className="ml-auto" onClick={close}>
-          I have stored it
+          {what ? `I have stored the ${what}` : 'I have stored it'}
         </Button>
       </div>
     </Modal>

@@ -1,9 +1,7 @@
 import type { GatewayKey } from '@turnstone/contracts/gateways';
-import { useState } from 'react';
-import { Button } from '../../../components/ui/button.tsx';
-import { Modal } from '../../../components/ui/modal.tsx';
+import { SecretOnceDialog } from '../../../components/ui/secret-once-dialog.tsx';
 
-/** The API key, shown this once. Closing needs a deliberate click, not a stray Escape. */
+/** A new or rotated gateway's API key, shown this once, with how the gateway posts. */
 export function GatewayKeyDialog({
   gatewayName,
   gatewayKey,
@@ -13,73 +11,17 @@ export function GatewayKeyDialog({
   gatewayKey: GatewayKey | null;
   onClose: () => void;
 }) {
-  const [copied, setCopied] = useState<'yes' | 'failed' | null>(null);
-  const copy = async () => {
-    if (!gatewayKey) return;
-    try {
-      await navigator.clipboard.writeText(gatewayKey.apiKey);
-      setCopied('yes');
-    } catch {
-      setCopied('failed');
-    }
-  };
   return (
-    <Modal
-      open={gatewayKey !== null}
+    <SecretOnceDialog
       title={`API key for ${gatewayName}`}
-      onClose={() => {
-        setCopied(null);
-        onClose();
-      }}
-      dismissable={false}
+      label="API key"
+      what="key"
+      secret={gatewayKey?.apiKey ?? null}
+      advice="Copy it into the gateway's configuration now. Turnstone keeps only a hash; if the key is lost, rotate it to get a new one."
+      onClose={onClose}
     >
-      <div
-        role="alert"
-        className="flex gap-2.5 rounded-md border border-status-alert/40 bg-status-alert/10 px-3 py-2.5 text-sm"
-      >
-        <svg
-          viewBox="0 0 12 12"
-          aria-hidden="true"
-          className="mt-1 size-3 shrink-0 text-status-alert"
-        >
-          <path d="M6 1.2 11 10.3H1Z" fill="currentColor" />
-        </svg>
-        <p>
-          <strong>This key is shown only once.</strong> Copy it into the gateway&apos;s
-          configuration now. Turnstone keeps only a hash; if the key is lost, rotate it to get a new
-          one.
-        </p>
-      </div>
-      <label className="flex flex-col gap-1.5 text-sm font-medium">
-        API key
-        <input
-          readOnly
-          value={gatewayKey?.apiKey ?? ''}
-          onFocus={(e) => e.currentTarget.select()}
-          aria-label="API key"
-          className="h-10 w-full rounded-md border border-line-strong bg-sunken px-3 font-mono text-[13px] text-ink"
-        />
-      </label>
       <IngestExample apiKey={gatewayKey?.apiKey ?? ''} />
-      <div className="flex flex-wrap items-center gap-2">
-        <Button variant="primary" onClick={() => void copy()}>
-          Copy key
-        </Button>
-        {copied === 'yes' && (
-          <span role="status" className="text-sm text-status-ok">
-            Copied to the clipboard.
-          </span>
-        )}
-        {copied === 'failed' && (
-          <span role="status" className="text-sm text-status-danger">
-            Could not copy; select the key and copy it by hand.
-          </span>
-        )}
-        <Button className="ml-auto" onClick={onClose}>
-          I have stored the key
-        </Button>
-      </div>
-    </Modal>
+    </SecretOnceDialog>
   );
 }
 

@@ -3,18 +3,16 @@ import type { ApiToken } from '@turnstone/contracts/api-tokens';
 import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
-import { EmptyState } from '../../../components/ui/empty-state.tsx';
-import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import { QueryItems } from '../../../components/ui/query-items.tsx';
 import { Modal } from '../../../components/ui/modal.tsx';
-import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { useNow } from '../../../hooks/use-now.ts';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 import { formatAge, formatDateTime } from '../../../lib/format.ts';
 import { useSites } from '../../gateways/api/get-gateways.ts';
 import { useIssueApiToken, useRevokeApiToken } from '../api/change-integrations.ts';
 import { useApiTokens } from '../api/get-integrations.ts';
-import { SecretOnceDialog } from './secret-once-dialog.tsx';
+import { SecretOnceDialog } from '../../../components/ui/secret-once-dialog.tsx';
 
 function IssueTokenForm({ onIssued }: { onIssued: (token: string) => void }) {
   const sites = useSites();
@@ -125,76 +123,71 @@ export function ApiTokensPanel() {
       </h2>
       <IssueTokenForm onIssued={setShown} />
       <Card className="overflow-x-auto">
-        {tokens.isPending ? (
-          <LoadingPanel />
-        ) : tokens.isError ? (
-          <ErrorState
-            error={tokens.error}
-            onRetry={() => void tokens.refetch()}
-            retrying={tokens.isFetching}
-          />
-        ) : tokens.data.items.length === 0 ? (
-          <EmptyState title="No API tokens yet" description="Issue one above; it is shown once." />
-        ) : (
-          <table className="w-full text-sm">
-            <caption className="sr-only">API tokens</caption>
-            <thead className="border-b border-line text-left text-xs text-ink-muted">
-              <tr>
-                <th className="px-4 py-2 font-medium">Integration</th>
-                <th className="px-4 py-2 font-medium">Role and sites</th>
-                <th className="px-4 py-2 font-medium">Token</th>
-                <th className="px-4 py-2 font-medium">Issued</th>
-                <th className="px-4 py-2 font-medium">Last used</th>
-                <th className="px-4 py-2 font-medium">
-                  <span className="sr-only">Actions</span>
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {tokens.data.items.map((t) => (
-                <tr key={t.id} className="border-b border-line last:border-0">
-                  <td className="px-4 py-2.5 font-medium">{t.name}</td>
-                  <td className="px-4 py-2.5">
-                    {roleLabels[t.role]}
-                    <span className="ml-1.5 font-mono text-xs text-ink-faint">
-                      {t.role === 'admin' ? 'all sites' : t.siteIds.map(codeOf).join(', ')}
-                    </span>
-                  </td>
-                  <td className="px-4 py-2.5 font-mono text-[13px]">{t.tokenPrefix}…</td>
-                  <td className="px-4 py-2.5">
-                    {formatDateTime(t.createdAt)}
-                    {t.createdBy && <span className="text-ink-muted"> by {t.createdBy}</span>}
-                  </td>
-                  <td className="px-4 py-2.5">
-                    {t.lastUsedAt ? (
-                      <time dateTime={t.lastUsedAt} title={formatDateTime(t.lastUsedAt)}>
-                        {formatAge(t.lastUsedAt, now)}
-                      </time>
-                    ) : (
-                      <span className="text-ink-faint">never</span>
-                    )}
-                  </td>
-                  <td className="px-4 py-2.5 text-right whitespace-nowrap">
-                    {t.revokedAt ? (
-                      <span className="text-status-danger">
-                        Revoked {formatDateTime(t.revokedAt)}
-                      </span>
-                    ) : (
-                      <Button
-                        size="sm"
-                        variant="ghost"
-                        className="text-status-danger"
-                        onClick={() => setPending(t)}
-                      >
-                        Revoke
-                      </Button>
-                    )}
-                  </td>
+        <QueryItems
+          query={tokens}
+          empty={{ title: 'No API tokens yet', description: 'Issue one above; it is shown once.' }}
+        >
+          {(items) => (
+            <table className="w-full text-sm">
+              <caption className="sr-only">API tokens</caption>
+              <thead className="border-b border-line text-left text-xs text-ink-muted">
+                <tr>
+                  <th className="px-4 py-2 font-medium">Integration</th>
+                  <th className="px-4 py-2 font-medium">Role and sites</th>
+                  <th className="px-4 py-2 font-medium">Token</th>
+                  <th className="px-4 py-2 font-medium">Issued</th>
+                  <th className="px-4 py-2 font-medium">Last used</th>
+                  <th className="px-4 py-2 font-medium">
+                    <span className="sr-only">Actions</span>
+                  </th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
-        )}
+              </thead>
+              <tbody>
+                {items.map((t) => (
+                  <tr key={t.id} className="border-b border-line last:border-0">
+                    <td className="px-4 py-2.5 font-medium">{t.name}</td>
+                    <td className="px-4 py-2.5">
+                      {roleLabels[t.role]}
+                      <span className="ml-1.5 font-mono text-xs text-ink-faint">
+                        {t.role === 'admin' ? 'all sites' : t.siteIds.map(codeOf).join(', ')}
+                      </span>
+                    </td>
+                    <td className="px-4 py-2.5 font-mono text-[13px]">{t.tokenPrefix}…</td>
+                    <td className="px-4 py-2.5">
+                      {formatDateTime(t.createdAt)}
+                      {t.createdBy && <span className="text-ink-muted"> by {t.createdBy}</span>}
+                    </td>
+                    <td className="px-4 py-2.5">
+                      {t.lastUsedAt ? (
+                        <time dateTime={t.lastUsedAt} title={formatDateTime(t.lastUsedAt)}>
+                          {formatAge(t.lastUsedAt, now)}
+                        </time>
+                      ) : (
+                        <span className="text-ink-faint">never</span>
+                      )}
+                    </td>
+                    <td className="px-4 py-2.5 text-right whitespace-nowrap">
+                      {t.revokedAt ? (
+                        <span className="text-status-danger">
+                          Revoked {formatDateTime(t.revokedAt)}
+                        </span>
+                      ) : (
+                        <Button
+                          size="sm"
+                          variant="ghost"
+                          className="text-status-danger"
+                          onClick={() => setPending(t)}
+                        >
+                          Revoke
+                        </Button>
+                      )}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          )}
+        </QueryItems>
       </Card>
       <Modal
         open={pending !== null}

@@ -2,10 +2,7 @@ import { webhookEventTypes, type WebhookEventType } from '@turnstone/contracts/w
 import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
-import { EmptyState } from '../../../components/ui/empty-state.tsx';
-import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Field, Input } from '../../../components/ui/field.tsx';
-import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 import {
   useCreateWebhook,
@@ -13,7 +10,8 @@ import {
   useUpdateWebhook,
 } from '../api/change-integrations.ts';
 import { useWebhooks } from '../api/get-integrations.ts';
-import { SecretOnceDialog } from './secret-once-dialog.tsx';
+import { QueryItems } from '../../../components/ui/query-items.tsx';
+import { SecretOnceDialog } from '../../../components/ui/secret-once-dialog.tsx';
 
 function AddWebhookForm({ onAdded }: { onAdded: (secret: string) => void }) {
   const create = useCreateWebhook();
@@ -133,86 +131,86 @@ export function WebhooksPanel() {
         </p>
       )}
       <Card className="overflow-x-auto">
-        {hooks.isPending ? (
-          <LoadingPanel />
-        ) : hooks.isError ? (
-          <ErrorState
-            error={hooks.error}
-            onRetry={() => void hooks.refetch()}
-            retrying={hooks.isFetching}
-          />
-        ) : hooks.data.items.length === 0 ? (
-          <EmptyState
-            title="No webhook receivers"
-            description="Add one above; its signing secret is shown once."
-          />
-        ) : (
-          <table className="w-full text-sm">
-            <caption className="sr-only">Webhook receivers</caption>
-            <thead className="border-b border-line text-left text-xs text-ink-muted">
-              <tr>
-                <th className="px-4 py-2 font-medium">Name</th>
-                <th className="px-4 py-2 font-medium">URL</th>
-                <th className="px-4 py-2 font-medium">Events</th>
-                <th className="px-4 py-2 font-medium">Deliveries</th>
-                <th className="px-4 py-2 font-medium">
-                  <span className="sr-only">Actions</span>
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {hooks.data.items.map((h) => (
-                <tr key={h.id} className="border-b border-line last:border-0">
-                  <td className="px-4 py-2.5 font-medium">
-                    {h.name}
-                    {!h.enabled && <span className="ml-1.5 text-xs text-ink-muted">(paused)</span>}
-                  </td>
-                  <td className="max-w-72 truncate px-4 py-2.5 font-mono text-[13px]" title={h.url}>
-                    {h.url}
-                  </td>
-                  <td className="px-4 py-2.5 font-mono text-xs">{h.events.join(', ')}</td>
-                  <td className="px-4 py-2.5">
-                    {h.pending === 0 && h.undelivered === 0 ? (
-                      <span className="text-ink-muted">all delivered</span>
-                    ) : (
-                      <>
-                        {h.pending > 0 && <span>{h.pending} waiting for a retry</span>}
-                        {h.undelivered > 0 && (
-                          <span className="ml-1.5 text-status-danger">
-                            {h.undelivered} not delivered
-                          </span>
-                        )}
-                      </>
-                    )}
-                  </td>
-                  <td className="px-4 py-2.5 text-right whitespace-nowrap">
-                    <Button
-                      size="sm"
-                      variant="ghost"
-                      onClick={() =>
-                        update
-                          .mutateAsync({ id: h.id, enabled: !h.enabled })
-                          .then(() => setActionError(null), fail)
-                      }
-                    >
-                      {h.enabled ? 'Pause' : 'Resume'}
-                    </Button>
-                    <Button
-                      size="sm"
-                      variant="ghost"
-                      className="text-status-danger"
-                      onClick={() =>
-                        remove.mutateAsync(h.id).then(() => setActionError(null), fail)
-                      }
-                    >
-                      Remove
-                    </Button>
-                  </td>
+        <QueryItems
+          query={hooks}
+          empty={{
+            title: 'No webhook receivers',
+            description: 'Add one above; its signing secret is shown once.',
+          }}
+        >
+          {(items) => (
+            <table className="w-full text-sm">
+              <caption className="sr-only">Webhook receivers</caption>
+              <thead className="border-b border-line text-left text-xs text-ink-muted">
+                <tr>
+                  <th className="px-4 py-2 font-medium">Name</th>
+                  <th className="px-4 py-2 font-medium">URL</th>
+                  <th className="px-4 py-2 font-medium">Events</th>
+                  <th className="px-4 py-2 font-medium">Deliveries</th>
+                  <th className="px-4 py-2 font-medium">
+                    <span className="sr-only">Actions</span>
+                  </th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
-        )}
+              </thead>
+              <tbody>
+                {items.map((h) => (
+                  <tr key={h.id} className="border-b border-line last:border-0">
+                    <td className="px-4 py-2.5 font-medium">
+                      {h.name}
+                      {!h.enabled && (
+                        <span className="ml-1.5 text-xs text-ink-muted">(paused)</span>
+                      )}
+                    </td>
+                    <td
+                      className="max-w-72 truncate px-4 py-2.5 font-mono text-[13px]"
+                      title={h.url}
+                    >
+                      {h.url}
+                    </td>
+                    <td className="px-4 py-2.5 font-mono text-xs">{h.events.join(', ')}</td>
+                    <td className="px-4 py-2.5">
+                      {h.pending === 0 && h.undelivered === 0 ? (
+                        <span className="text-ink-muted">all delivered</span>
+                      ) : (
+                        <>
+                          {h.pending > 0 && <span>{h.pending} waiting for a retry</span>}
+                          {h.undelivered > 0 && (
+                            <span className="ml-1.5 text-status-danger">
+                              {h.undelivered} not delivered
+                            </span>
+                          )}
+                        </>
+                      )}
+                    </td>
+                    <td className="px-4 py-2.5 text-right whitespace-nowrap">
+                      <Button
+                        size="sm"
+                        variant="ghost"
+                        onClick={() =>
+                          update
+                            .mutateAsync({ id: h.id, enabled: !h.enabled })
+                            .then(() => setActionError(null), fail)
+                        }
+                      >
+                        {h.enabled ? 'Pause' : 'Resume'}
+                      </Button>
+                      <Button
+                        size="sm"
+                        variant="ghost"
+                        className="text-status-danger"
+                        onClick={() =>
+                          remove.mutateAsync(h.id).then(() => setActionError(null), fail)
+                        }
+                      >
+                        Remove
+                      </Button>
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          )}
+        </QueryItems>
       </Card>
       <SecretOnceDialog
         title="Signing secret"
