@@ -61,6 +61,92 @@ describe('demo history over 2 weeks', () => {
     expect(Number(audit[0]!.n)).toBeGreaterThanOrEqual(acks.length);
   });
 
+  it('every timestamp of the history follows the captures that caused it, and none lies ahead', async () => {
+    // Causality of the story (common practice, no source): an alert is raised by a capture,
+    // acknowledged and cleared after; its audit entry is the acknowledgement's own instant;
+    // a finding about an alert is written after it; nothing before the first capture or
+    // after the seed finished.
+    const now = Date.now() + 1000;
+    const [span] = await q(`SELECT MIN(taken_at) AS first FROM snapshots`);
+    const first = (span!.first as Date).getTime();
+    const ms = (v: unknown) => (v === null ? null : (v as Date).getTime());
+    const inHistory = (t: number | null, what: string) => {
+      if (t === null) return;
+      expect.soft(t, `${what} before the history`).toBeGreaterThanOrEqual(first);
+      expect.soft(t, `${what} in the future`).toBeLessThanOrEqual(now);
+    };
+
+    const alertRows = await q(
+      `SELECT a.id, a.first_at, a.acknowledged_at, a.cleared_at, a.last_at,
+              (SELECT COUNT(*) FROM snapshots s WHERE s.point_id = a.point_id AND s.taken_at = a.first_at) AS cause
+         FROM alerts a`,
+    );
+    expect.soft(alertRows.length).toBeGreaterThan(0);
+    for (const a of alertRows) {
+      const raised = ms(a.first_at)!;
+      inHistory(raised, `alert ${a.id} raised`);
+      // The capture that raised it, at that very instant.
+      expect.soft(Number(a.cause), `alert ${a.id}: no capture at its raise time`).toBe(1);
+      for (const k of ['acknowledged_at', 'cleared_at', 'last_at']) {
+        inHistory(ms(a[k]), `alert ${a.id} ${k}`);
+        if (a[k] !== null)
+          expect.soft(ms(a[k]), `alert ${a.id} ${k}`).toBeGreaterThanOrEqual(raised);
+      }
+    }
+    const events = await q(
+      `SELECT e.alert_id, e.kind, e.at, a.first_at FROM alert_events e JOIN alerts a ON a.id = e.alert_id`,
+    );
+    for (const e of events) {
+      inHistory(ms(e.at), `alert ${e.alert_id} event ${e.kind}`);
+      expect
+        .soft(ms(e.at), `alert ${e.alert_id} ${e.kind}`)
+        .toBeGreaterThanOrEqual(ms(e.first_at)!);
+    }
+
+    // The audit log tells the acknowledgements at the alert history's own instants.
+    const acks = await q(
+      `SELECT l.id, l.at,
+              (SELECT COUNT(*) FROM alert_events e WHERE e.alert_id = l.entity_id
+                 AND e.kind = 'acknowledged' AND e.at = l.at) AS same
+         FROM audit_log l WHERE l.action = 'alert.acknowledge'`,
+    );
+    expect.soft(acks.length).toBeGreaterThan(0);
+    for (const r of acks) {
+      inHistory(ms(r.at), `audit ${r.id}`);
+      expect.soft(Number(r.same), `audit ${r.id}: no acknowledgement at its time`).toBe(1);
+    }
+
+    // Findings, and their audit entries, dated in the story after their alert.
+    const found = await q(
+      `SELECT f.id, f.created_at, f.updated_at, a.first_at,
+              (SELECT MIN(l.at) FROM audit_log l WHERE l.entity = 'finding' AND l.entity_id = f.id) AS audit_first,
+              (SELECT MAX(l.at) FROM audit_log l WHERE l.entity = 'finding' AND l.entity_id = f.id) AS audit_last
+         FROM findings f LEFT JOIN alerts a ON a.id = f.alert_id`,
+    );
+    expect.soft(found.length).toBeGreaterThan(0);
+    for (const f of found) {
+      inHistory(ms(f.created_at), `finding ${f.id} created`);
+      if (f.first_at !== null)
+        expect
+          .soft(ms(f.created_at), `finding ${f.id} before its alert`)
+          .toBeGreaterThanOrEqual(ms(f.first_at)!);
+      expect.soft(ms(f.updated_at)).toBeGreaterThanOrEqual(ms(f.created_at)!);
+      inHistory(ms(f.updated_at), `finding ${f.id} updated`);
+      expect.soft(ms(f.audit_first), `finding ${f.id} audit`).toBe(ms(f.created_at));
+      expect.soft(ms(f.audit_last), `finding ${f.id} audit`).toBe(ms(f.updated_at));
+    }
+
+    // Every audit entry and every mail of the seed lies within the history and the seed's run.
+    for (const r of await q(`SELECT id, action, at FROM audit_log`))
+      expect.soft(ms(r.at), `audit ${r.id} ${r.action} in the future`).toBeLessThanOrEqual(now);
+    for (const r of await q(`SELECT id, created_at, sent_at FROM outbox`)) {
+      inHistory(ms(r.created_at), `mail ${r.id} queued`);
+      inHistory(ms(r.sent_at), `mail ${r.id} sent`);
+    }
+    for (const r of await q(`SELECT id, received_at FROM mail_messages`))
+      inHistory(ms(r.received_at), `mail ${r.id} received`);
+  });
+
   it('B-301 misalignment was corrected: a done finding, and its 2× alert cleared after it', async () => {
     const rows = await q(
       `SELECT f.state, f.work_order_ref, a.state AS alert_state FROM findings f JOIN alerts a ON a.id = f.alert_id

@@ -15,6 +15,9 @@
  * measurement (InnoDB reuses freed pages but does not return them on its own), and the
  * plant-year amortised bytes per capture are worked out from the measured whole and thinned
  * row sizes for the captures' cadence. BENCH_STORAGE_COUNT (3000) captures.
+ *
+ * Then one point's year at the real cadence (storage-year.ts): trend and fleet API times
+ * against raw queries, and ingest p99 with and without the retention pass running.
  */
 import { simulateSnapshot, toIngestItem } from '@turnstone/demo-scenario/simulated-snapshot';
 import { demoChannels } from '@turnstone/demo-scenario/plant-channels';
@@ -29,6 +32,7 @@ import {
 import { loadConfig } from '../../apps/server/src/config.ts';
 import { sql } from 'drizzle-orm';
 import { createGatewayKey, signInCookie, startBenchServer } from './bench-support.ts';
+import { plantYearFigures } from './storage-year.ts';
 
 const COUNT = Number(process.env.BENCH_STORAGE_COUNT ?? 3000);
 const POST_BATCH = 10;
@@ -55,11 +59,13 @@ async function sizes(): Promise<Record<string, TableSize>> {
   const rows = await q<
     { name: string; data: number; idx: number; tableRows: number; allocated: number | null }[]
   >(
+    // A partitioned table has a tablespace per partition: `<db>/<table>#P#<partition>`.
     `SELECT t.TABLE_NAME AS name, t.DATA_LENGTH AS data, t.INDEX_LENGTH AS idx,
-            t.TABLE_ROWS AS tableRows, s.ALLOCATED_SIZE AS allocated
+            t.TABLE_ROWS AS tableRows,
+            (SELECT SUM(s.ALLOCATED_SIZE) FROM information_schema.INNODB_SYS_TABLESPACES s
+              WHERE s.NAME = CONCAT(t.TABLE_SCHEMA, '/', t.TABLE_NAME)
+                 OR s.NAME LIKE CONCAT(t.TABLE_SCHEMA, '/', t.TABLE_NAME, '#P#%')) AS allocated
        FROM information_schema.TABLES t
-       LEFT JOIN information_schema.INNODB_SYS_TABLESPACES s
-         ON s.NAME = CONCAT(t.TABLE_SCHEMA, '/', t.TABLE_NAME)
       WHERE t.TABLE_SCHEMA = DATABASE() AND t.TABLE_NAME IN (?)`,
     [TABLES],
   );
@@ -297,6 +303,7 @@ try {
   console.log(
     `plant-year amortised at this cadence: ${year.toFixed(0)} B/capture (target ≤ 2048; before retention ${total('dataIndex').toFixed(0)})`,
   );
+  await plantYearFigures(bench);
 } finally {
   await bench.stop();
 }

@@ -5,12 +5,13 @@
  * choose a point and save its limits, and switch point views and spectrum measures.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
 import { captureVelocities, gatewayKey, peakGFor } from '../support/alert-captures.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import { focused, tabTo } from '../support/keyboard.ts';
 
 let srv: TestServer;
 let browser: Browser;
@@ -45,35 +46,6 @@ afterAll(async () => {
   await browser?.close();
   await srv?.stop();
 });
-
-/** What has the focus, described: tag, role, accessible text, checked/selected state. */
-const focused = (page: Page) =>
-  page.evaluate<{
-    tag: string;
-    role: string | null;
-    text: string;
-    name: string | null;
-    state: string | null;
-    id: string;
-  }>(
-    `(() => { const e = document.activeElement; return { tag: e.tagName, role: e.getAttribute('role'),
-      text: (e.textContent || '').trim(), name: e.getAttribute('aria-label') || (e.labels && e.labels[0] ? e.labels[0].textContent.trim() : null),
-      state: e.getAttribute('aria-checked') || e.getAttribute('aria-selected'), id: e.getAttribute('data-alert-open') || '' }; })()`,
-  );
-
-/** Presses Tab (or Shift+Tab) until the focused element passes `test`; fails after `max` presses. */
-async function tabTo(
-  page: Page,
-  test: (f: Awaited<ReturnType<typeof focused>>) => boolean,
-  what: string,
-  { back = false, max = 150 } = {},
-) {
-  for (let i = 0; i < max; i++) {
-    await page.keyboard.press(back ? 'Shift+Tab' : 'Tab');
-    if (test(await focused(page))) return;
-  }
-  throw new Error(`Tab never reached ${what}`);
-}
 
 describe('keyboard only', () => {
   it('an operator opens an alert from the table, acknowledges it in the detail panel and gets back to the row', async () => {

@@ -3,7 +3,8 @@
  * click, opening on the band's measure and span; a typed range; the harmonic cursor set by a
  * click without losing the zoom; the sideband cursor; cursors A/B; the dB scale; compare with
  * the change per line and a hover box holding both traces; a capture's quality where its
- * numbers are read; the waterfall's hover readout; and the point page at tablet width (820 px).
+ * numbers are read; the waterfall's hover readout; the point page at tablet width (820 px);
+ * and the harmonic, sideband and A/B cursors set with the keyboard alone.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Locator, Page } from 'playwright-core';
@@ -12,6 +13,7 @@ import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
 import { gatewayKey, peakGFor } from '../support/alert-captures.ts';
 import { snapshotBody } from '../support/signals.ts';
+import { focused, tabTo } from '../support/keyboard.ts';
 
 let srv: TestServer;
 let browser: Browser;
@@ -264,6 +266,106 @@ describe('from an alert to the spectrum of its band', () => {
     const box = (await chart.boundingBox())!;
     expect(box.width).toBeGreaterThan(500);
     await tallShot(page, 'walk-9-tablet-spectrum');
+    await page.context().close();
+  });
+
+  it('with the keyboard alone, the keyboard cursor walks the peaks and sets the harmonic, sideband and A/B cursors without losing the zoom', async () => {
+    const page = await newPage(browser, 1280, 900);
+    await signInAs(page, srv.url, 'engineer');
+    await page.goto(`${srv.url}/points/${pointId}?band=overall-velocity&view=spectrum`);
+    await page
+      .getByRole('img', { name: /^Velocity spectrum/ })
+      .locator('canvas')
+      .first()
+      .waitFor();
+    // 0–40 orders at 1482 r/min = 0–988 Hz (40 × 24.7 Hz).
+    await expect.poll(() => shownWindow(page)).toEqual([0, 988]);
+    const slider = page.getByRole('slider', { name: 'Keyboard cursor' });
+    const hzOf = async () => {
+      const text = (await slider.getAttribute('aria-valuetext')) ?? '';
+      const m = /^([\d.]+) Hz/.exec(text);
+      if (!m) throw new Error(`no frequency in "${text}"`);
+      return Number(m[1]);
+    };
+    /** Arrow right until the keyboard cursor stands within one line (1.25 Hz) of `hz`. */
+    const walkTo = async (hz: number) => {
+      for (let i = 0; i < 40; i++) {
+        if (Math.abs((await hzOf()) - hz) <= 1.25) return;
+        await page.keyboard.press('ArrowRight');
+      }
+      throw new Error(`the keyboard cursor never reached ${hz} Hz`);
+    };
+    const mode = async (name: string) => {
+      await tabTo(
+        page,
+        (f) => f.role === 'radio' && f.state === 'true' && /cursor|carrier|A\/B/i.test(f.text),
+        'the cursor mode',
+        { back: true },
+      );
+      for (let i = 0; i < 3 && (await focused(page)).text !== name; i++)
+        await page.keyboard.press('ArrowRight');
+      expect(await focused(page)).toMatchObject({ text: name, state: 'true' });
+      await tabTo(page, (f) => f.role === 'slider', 'the keyboard cursor');
+    };
+
+    // Harmonic cursor: Tab to the keyboard cursor; it starts on the largest peak in view (1×).
+    await tabTo(page, (f) => f.role === 'slider', 'the keyboard cursor');
+    expect((await focused(page)).name).toBe('Keyboard cursor');
+    expect(Math.abs((await hzOf()) - SHAFT_HZ)).toBeLessThanOrEqual(1.25);
+    await screenshot(page, 'walk-keys-1-focused');
+    await page.keyboard.press('Enter');
+    const harmonic = await rows(page, 'Harmonic cursor');
+    expect(Math.abs(Number(harmonic[0]![1]) - SHAFT_HZ)).toBeLessThanOrEqual(1.25);
+    expect(harmonic[1]![0]).toBe('2×');
+    await page
+      .getByTestId('cursor-keys-status')
+      .filter({ hasText: /^Harmonic cursor set at 2[45]\.\d+ Hz · 1\.0\d+×/ })
+      .waitFor();
+    expect(await shownWindow(page)).toEqual([0, 988]);
+    // Shift+arrow moves one line: the stored velocity spectrum's line spacing, from the API.
+    const [a] = await srv.q<{ id: number }>(
+      "SELECT a.id FROM analyses a JOIN snapshots s ON s.id = a.snapshot_id WHERE s.uid = 'walk-5'",
+    );
+    const spectrum = await (
+      await srv.call('GET', `/api/v1/analyses/${a!.id}/spectrum?kind=velocity`, {
+        cookie: await srv.signIn('engineer'),
+      })
+    ).json();
+    const before = await hzOf();
+    await page.keyboard.press('Shift+ArrowRight');
+    expect((await hzOf()) - before).toBeCloseTo(spectrum.dfHz, 2);
+    await page.keyboard.press('Shift+ArrowLeft');
+
+    // Sideband carrier on the 212 Hz tone, spaced by 1× (the default).
+    await mode('Sideband carrier');
+    await walkTo(212);
+    await page.keyboard.press('Enter');
+    const side = await rows(page, 'Sideband cursor');
+    const carrier = side.find((r) => r[0] === 'carrier')!;
+    expect(Math.abs(Number(carrier[1]) - 212)).toBeLessThanOrEqual(1.25);
+    const plus1 = side.find((r) => r[0] === '+1')!;
+    expect(Number(plus1[1]) - Number(carrier[1])).toBeCloseTo(SHAFT_HZ, 1);
+    expect(await shownWindow(page)).toEqual([0, 988]);
+
+    // Cursors A and B: A on 1× (where the cursor starts), B walked to 212 Hz; their difference.
+    await mode('Cursors A/B');
+    expect(Math.abs((await hzOf()) - SHAFT_HZ)).toBeLessThanOrEqual(1.25);
+    await page.keyboard.press('Enter');
+    await page
+      .getByTestId('cursor-keys-status')
+      .filter({ hasText: /^Cursor A set at/ })
+      .waitFor();
+    await walkTo(212);
+    await page.keyboard.press('Enter');
+    await page
+      .getByTestId('cursor-keys-status')
+      .filter({ hasText: /^Cursor B set at 21\d\.\d+ Hz/ })
+      .waitFor();
+    const delta = (await page.getByTestId('cursor-delta').textContent()) ?? '';
+    const dHz = Number(/^(-?[\d.]+) Hz/.exec(delta)![1]);
+    expect(Math.abs(dHz - (212 - SHAFT_HZ))).toBeLessThanOrEqual(2.5);
+    expect(await shownWindow(page)).toEqual([0, 988]);
+    await tallShot(page, 'walk-keys-2-cursors-set');
     await page.context().close();
   });
 });

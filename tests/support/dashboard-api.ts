@@ -6050,6 +6050,36 @@ export interface operations {
                             t: string;
                             title: string;
                             workOrderRef: string | null;
+                            /** @enum {string} */
+                            state: "open" | "planned" | "done";
+                        }[];
+                        limitChanges: {
+                            t: string;
+                            /** @enum {string} */
+                            kind: "changed" | "added" | "removed" | "baseline";
+                            by: string | null;
+                            reason: string | null;
+                            before: {
+                                alert: number;
+                                danger: number;
+                                /** @enum {string} */
+                                source: "fixed" | "statistical";
+                            } | null;
+                            after: {
+                                alert: number;
+                                danger: number;
+                                /** @enum {string} */
+                                source: "fixed" | "statistical";
+                            } | null;
+                        }[];
+                        uploads: {
+                            t: string;
+                            v: number;
+                            /** @enum {string} */
+                            q: "ok" | "suspect" | "unusable";
+                            analysisId: number;
+                            by: string | null;
+                            fileName: string | null;
                         }[];
                     };
                 };

@@ -21,6 +21,13 @@ export const trendPointSchema = z.object({
   analysisId: z.number().int(),
 });
 
+/** A band's alert and danger levels and where they come from. */
+export const trendLevelsSchema = z.object({
+  alert: z.number(),
+  danger: z.number(),
+  source: z.enum(['fixed', 'statistical']),
+});
+
 export const trendResponseSchema = z.object({
   pointId: z.number().int(),
   band: z.object({ key: z.string(), name: z.string(), unit: z.string(), spectrum: z.string() }),
@@ -78,9 +85,46 @@ export const trendResponseSchema = z.object({
       note: z.string().nullable(),
     }),
   ),
-  /** Maintenance findings on this point in the period, for markers. */
+  /** Maintenance findings on this point (of this band or of no band) in the period, for markers. */
   findings: z.array(
-    z.object({ t: z.string(), title: z.string(), workOrderRef: z.string().nullable() }),
+    z.object({
+      t: z.string(),
+      title: z.string(),
+      workOrderRef: z.string().nullable(),
+      /** Where the work stands now. */
+      state: z.enum(['open', 'planned', 'done']),
+    }),
+  ),
+  /**
+   * Changes of the point's limit set in the period that touched this band (from the audit
+   * record), oldest first: the band's levels in force before and after, in the band's unit.
+   */
+  limitChanges: z.array(
+    z.object({
+      t: z.string(),
+      /** `baseline`: a statistical baseline was established (no one acted). */
+      kind: z.enum(['changed', 'added', 'removed', 'baseline']),
+      by: z.string().nullable(),
+      /** The reason given with the change. */
+      reason: z.string().nullable(),
+      before: trendLevelsSchema.nullable(),
+      after: trendLevelsSchema.nullable(),
+    }),
+  ),
+  /**
+   * Captures of the period that came from a file upload (a portable instrument's recording,
+   * not the gateway), with their value of this band, oldest first.
+   */
+  uploads: z.array(
+    z.object({
+      t: z.string(),
+      v: z.number(),
+      q: z.enum(['ok', 'suspect', 'unusable']),
+      analysisId: z.number().int(),
+      /** Who uploaded the file; null when the user is gone. */
+      by: z.string().nullable(),
+      fileName: z.string().nullable(),
+    }),
   ),
 });
 export type TrendResponse = z.infer<typeof trendResponseSchema>;

@@ -32,12 +32,17 @@ describe('units', () => {
     expect(() => integrationGain(0, 'g', 'mm/s')).toThrow(/positive frequency/);
   });
 
-  // ISO 1683 reference values (1 nm/s, 1 µm/s²), computed as 20·log10(x/ref): 1 mm/s → 120.00 dB; 1 g → 139.83 dB
+  // ISO 1683 reference values (1 nm/s, 1 µm/s², 1 pm), computed as 20·log10(x/ref): 1 mm/s →
+  // 120.00 dB; 1 g → 139.83 dB. The standard's text was not read here; the values are as stated
+  // in python-acoustics, acoustics/standards/iso_1683_2015.py (REFERENCE_VALUES["vibration"]:
+  // displacement 1e-12 m, velocity 1e-9 m/s, acceleration 1e-6 m/s²) and, for velocity and
+  // acceleration, in the ASA standards terminology entries "particle velocity level" and
+  // "(vibratory) acceleration level" (asastandards.org/Terms), which quote ISO 1683:2008.
   it('when levels are given in dB re ISO 1683, 1 mm/s is 120.00 dB and 1 g is 139.83 dB', () => {
     expect(toDecibels(1, 'mm/s')).toBeCloseTo(120.0, 2);
     expect(toDecibels(1, 'g')).toBeCloseTo(139.83, 2);
     expect(fromDecibels(139.83, 'g')).toBeCloseTo(1, 3);
-    expect(toDecibels(1, 'um')).toBeCloseTo(120.0, 2); // 1 pm reference (ISO 1683:2015, from memory)
+    expect(toDecibels(1, 'um')).toBeCloseTo(120.0, 2); // 1 pm reference (python-acoustics, above)
     expect(() => toDecibels(0, 'g')).toThrow(RangeError);
   });
 });

@@ -256,6 +256,8 @@ export async function acknowledge(
         before: { state: a.state, level: a.level },
         after: { state: 'acknowledged', level: a.level, note },
         reason: note,
+        // The same instant as the alert's acknowledgement (a replayed one keeps its own).
+        at: now,
       });
     }
     for (const [pointId, state] of states)

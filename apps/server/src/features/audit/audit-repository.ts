@@ -28,6 +28,8 @@ export interface AuditEntry {
    * still exist: pass it when the entity was just deleted.
    */
   siteId?: number | null;
+  /** When it happened, if not now: an act replayed at its own time (the demo history). */
+  at?: Date;
 }
 
 /**
@@ -98,6 +100,7 @@ export async function writeAudit(db: Db | Tx, e: AuditEntry): Promise<void> {
     after: e.after ?? null,
     reason: e.reason ?? null,
     siteId,
+    ...(e.at ? { at: e.at } : {}),
   });
 }
 

@@ -3,6 +3,7 @@ import { and, count, eq, inArray, sql } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
 import {
   alerts,
+  auditLog,
   areas,
   bearings,
   findings,
@@ -169,9 +170,17 @@ export async function alertOfPointBand(db: Db, siteCode: string, tag: string, ba
 }
 
 /** Dates a finding when the story's planner wrote it, not when the seed ran. */
+/**
+ * A finding of the story dated when the planner wrote it: its creation, last change and audit
+ * entries (written at the seed's own time) all at `at`.
+ */
 export async function backdateFinding(db: Db, id: number, at: Date): Promise<void> {
   await db
     .update(findings)
-    .set({ createdAt: at })
+    .set({ createdAt: at, updatedAt: at })
     .where(inArray(findings.id, [id]));
+  await db
+    .update(auditLog)
+    .set({ at })
+    .where(and(eq(auditLog.entity, 'finding'), eq(auditLog.entityId, String(id))));
 }

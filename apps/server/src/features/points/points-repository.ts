@@ -232,6 +232,7 @@ export async function findingsOf(db: Db, pointId: number, bandKey: string, from:
       createdAt: findings.createdAt,
       title: findings.title,
       workOrderRef: findings.workOrderRef,
+      state: findings.state,
     })
     .from(findings)
     .where(

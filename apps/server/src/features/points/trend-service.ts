@@ -17,6 +17,8 @@ import { type SessionUser } from '../../lib/session-user.ts';
 import { loadLimitSet } from '../limits/limit-set-repository.ts';
 
 import * as repo from './points-repository.ts';
+import * as eventsRepo from './trend-events-repository.ts';
+import { bandLimitChanges } from './trend-events.ts';
 
 const DAY_MS = 86_400_000;
 /** Default trend period when none is given (the trend contract says 90 days). */
@@ -78,15 +80,25 @@ export async function trend(
   const { from, to } = period(q, now);
   // All reads at once (the trend budget is 200 ms at p95); nothing is answered before the
   // access check has passed, and its error wins over any other.
-  const [access, bandResult, rowsResult, eventsResult, findingsResult, stateResult] =
-    await Promise.allSettled([
-      accessiblePoint(ctx.db, user, pointId),
-      trendBand(ctx, pointId, q.band),
-      repo.bandTrend(ctx.db, pointId, q.band, from, to),
-      repo.alertEventsOf(ctx.db, pointId, q.band, from, to),
-      repo.findingsOf(ctx.db, pointId, q.band, from, to),
-      repo.bandStatesOf(ctx.db, pointId),
-    ]);
+  const [
+    access,
+    bandResult,
+    rowsResult,
+    eventsResult,
+    findingsResult,
+    stateResult,
+    limitsResult,
+    uploadsResult,
+  ] = await Promise.allSettled([
+    accessiblePoint(ctx.db, user, pointId),
+    trendBand(ctx, pointId, q.band),
+    repo.bandTrend(ctx.db, pointId, q.band, from, to),
+    repo.alertEventsOf(ctx.db, pointId, q.band, from, to),
+    repo.findingsOf(ctx.db, pointId, q.band, from, to),
+    repo.bandStatesOf(ctx.db, pointId),
+    eventsRepo.limitChangesOf(ctx.db, pointId, from, to),
+    eventsRepo.uploadsOf(ctx.db, pointId, q.band, from, to),
+  ]);
   const settled = <T>(r: PromiseSettledResult<T>): T => {
     if (r.status === 'rejected') throw r.reason;
     return r.value;
@@ -96,12 +108,18 @@ export async function trend(
   const rows = settled(rowsResult);
   const events = settled(eventsResult);
   const findingRows = settled(findingsResult);
+  const uploads = settled(uploadsResult);
   // the levels the worker alerts at (statistical once the baseline is complete), drawn and
   // projected to by the trend page
   const levels = levelsInForce(band, settled(stateResult).get(band.key));
   const thinned = decimateTrend(
     rows.map((r) => ({ t: Number(r.t), v: r.value, row: r })),
-    { from: from.getTime(), to: to.getTime(), keep: valuesAt(rows, events) },
+    {
+      from: from.getTime(),
+      to: to.getTime(),
+      // the values behind alert transitions and the uploaded captures stay in a thinned trend
+      keep: valuesAt(rows, [...events, ...uploads]),
+    },
   );
   const items = thinned.items.map(({ row: r }) => ({
     t: new Date(Number(r.t)).toISOString(),
@@ -153,6 +171,16 @@ export async function trend(
       t: iso(f.createdAt),
       title: f.title,
       workOrderRef: f.workOrderRef,
+      state: f.state,
+    })),
+    limitChanges: bandLimitChanges(settled(limitsResult), band.key),
+    uploads: uploads.map((u) => ({
+      t: iso(u.at),
+      v: u.value,
+      q: u.quality,
+      analysisId: u.analysisId,
+      by: u.by ?? null,
+      fileName: u.fileName ?? null,
     })),
   };
 }

@@ -22,6 +22,25 @@ export const chartColours = {
   compare: '#8a5a2b',
 } as const;
 
+/** Trend series colours in the order series are added (index.css --color-series-1…6). */
+export const seriesColours = [
+  '#1b5a60',
+  '#2b5797',
+  '#8a5a2b',
+  '#8c3a6e',
+  '#4c5661',
+  '#0f6e8c',
+] as const;
+/** Each series' symbol, so no series is told from another by colour alone. */
+export const seriesSymbols = [
+  'circle',
+  'triangle',
+  'rect',
+  'diamond',
+  'roundRect',
+  'arrow',
+] as const;
+
 export const monoFont = "'Roboto Mono', ui-monospace, monospace";
 export const sansFont = "'Inter', ui-sans-serif, system-ui, sans-serif";
 

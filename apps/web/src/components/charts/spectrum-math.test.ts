@@ -43,8 +43,12 @@ describe('spectrum y scale', () => {
 });
 
 describe('levels in dB re ISO 1683', () => {
-  // ISO 1683:2015, Table 1 (preferred reference values): acceleration 1 µm/s², velocity 1 nm/s,
-  // displacement 1 pm. Expected levels computed by hand from 20·log10(x/x0).
+  // ISO 1683:2015 reference values: acceleration 1 µm/s², velocity 1 nm/s, displacement 1 pm —
+  // not read from the standard here but as python-acoustics states them
+  // (acoustics/standards/iso_1683_2015.py, REFERENCE_VALUES["vibration"]: 1e-6 m/s², 1e-9 m/s,
+  // 1e-12 m); the ASA terminology entries "particle velocity level" and "(vibratory)
+  // acceleration level" (asastandards.org/Terms) give 1 nm/s and 1 µm/s² for ISO 1683:2008.
+  // Expected levels computed by hand from 20·log10(x/x0).
   it('when a line is 1 mm/s, 1 g or 1 µm, it reads 120 dB, 139.83 dB and 120 dB', () => {
     const [v] = toDecibelLines([1], 'mm/s');
     const [a] = toDecibelLines([1], 'g'); // 9.80665 m/s² / 1e-6 m/s² → 139.830 dB

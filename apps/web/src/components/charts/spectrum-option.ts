@@ -43,6 +43,8 @@ export interface SpectrumCursors {
   sideband: readonly CursorLine[];
   /** The two-point cursor: A and B, each a position on the axis. */
   points: readonly { name: 'A' | 'B'; x: number }[];
+  /** The keyboard cursor while it has the focus: where Enter would set a cursor. */
+  probe?: number | null;
 }
 
 export interface SpectrumOptionInput {
@@ -209,6 +211,9 @@ export function buildSpectrumOption(p: SpectrumOptionInput): ChartOption {
       ),
     ),
     ...c.points.map((pt) => cursorMark(pt.x, pt.name, chartColours.ink, 'solid')),
+    ...(c.probe !== null && c.probe !== undefined
+      ? [cursorMark(c.probe, 'keys', chartColours.ink, 'dashed')]
+      : []),
   ];
   const first = series[0] as LineSeriesOption | undefined;
   if (first)

@@ -1,17 +1,19 @@
 /**
  * The trend chart: one band's values over time with its limit lines, baseline band, event
- * markers, a projection ahead of today and any extra marker series. Shared by the Point
- * page (trend) and the Limits screen (replay of proposed levels over history).
+ * markers, a projection ahead of today, further series (one y axis per unit) and any extra
+ * marker series. Shared by the Point page (trend) and the Limits screen (replay of proposed
+ * levels over history).
  *
- * Everything is passed in plain data (types and the option in trend-option.ts): times are
- * epoch milliseconds or ISO strings, values are in `unit`. The chart comes with keyboard
- * zoom and its values as a table.
+ * Everything is passed in plain data (types in trend-types.ts, the option in trend-option.ts):
+ * times are epoch milliseconds or ISO strings, values are in `unit`. The chart comes with
+ * keyboard zoom, its values as a table, and an event's text in a box while its symbol is
+ * hovered or the event is made active from outside (a list of the events, for the keyboard).
  */
-import { useMemo } from 'react';
+import { useEffect, useMemo, useRef } from 'react';
 import { formatValue } from './chart-theme.ts';
 import { useEChart } from './use-echart.ts';
 import { ValuesTable } from './values-table.tsx';
-import { useChartZoom, xExtent, ZoomKeys } from './zoom-keys.tsx';
+import { useChartZoom, xExtent, zoomedExtent, ZoomKeys } from './zoom-keys.tsx';
 import { ChartCanvas } from './chart-canvas.tsx';
 import {
   buildTrendOption,
@@ -22,6 +24,8 @@ import {
   type TrendChartPoint,
   type TrendChartProps,
 } from './trend-option.ts';
+import { EVENT_STRIP_ID, UPLOADS_ID } from './trend-series-option.ts';
+import type { echarts } from './echarts.ts';
 
 export type * from './trend-option.ts';
 export { displayUnit };
@@ -36,6 +40,9 @@ export function TrendChart(props: TrendChartProps) {
     events,
     projection,
     markerSeries,
+    extraSeries,
+    seriesId,
+    colour,
     now,
     range,
     zoom,
@@ -52,37 +59,118 @@ export function TrendChart(props: TrendChartProps) {
         events,
         projection,
         markerSeries,
+        extraSeries,
+        seriesId,
+        colour,
         now,
         range,
         zoom,
         ariaLabel: '',
       }),
-    [points, unit, name, limits, baseline, events, projection, markerSeries, now, range, zoom],
+    [
+      points,
+      unit,
+      name,
+      limits,
+      baseline,
+      events,
+      projection,
+      markerSeries,
+      extraSeries,
+      seriesId,
+      colour,
+      now,
+      range,
+      zoom,
+    ],
   );
-  const { onPointClick } = props;
+  const handlers = useRef(props);
+  useEffect(() => {
+    handlers.current = props;
+  });
   const { ref, chart } = useEChart(option, (chart) => {
-    if (!onPointClick) return;
     chart.on('click', (params) => {
       if (params.seriesIndex === 0 && typeof params.dataIndex === 'number')
-        onPointClick(params.dataIndex);
+        handlers.current.onPointClick?.(params.dataIndex);
+    });
+    const eventIndex = (params: { seriesId?: string; value?: unknown }) =>
+      (params.seriesId === EVENT_STRIP_ID || params.seriesId === UPLOADS_ID) &&
+      Array.isArray(params.value)
+        ? Number(params.value[2])
+        : null;
+    chart.on('mouseover', (params) => {
+      const i = eventIndex(params);
+      if (i !== null) handlers.current.onActiveEvent?.(i);
+    });
+    chart.on('mouseout', (params) => {
+      if (eventIndex(params) !== null) handlers.current.onActiveEvent?.(null);
     });
   });
   const shown = useChartZoom(chart, option);
+  const extent = xExtent(option);
+  const [from, to] = extent ? zoomedExtent(extent, shown) : [NaN, NaN];
+  useEffect(() => {
+    if (Number.isFinite(from) && Number.isFinite(to)) handlers.current.onWindow?.(from, to);
+  }, [from, to]);
+  const active = props.activeEvent ?? null;
+  const activeEvent = active === null ? undefined : events?.[active];
   return (
     <div>
-      <ChartCanvas canvasRef={ref} ariaLabel={props.ariaLabel} height={props.height ?? 320} />
+      <div className="relative">
+        <ChartCanvas canvasRef={ref} ariaLabel={props.ariaLabel} height={props.height ?? 320} />
+        {activeEvent && chart && (
+          <EventBox chart={chart} event={activeEvent} index={active!} events={events ?? []} />
+        )}
+      </div>
       {(zoom ?? true) && (
         <div className="mb-1 px-2">
           <ZoomKeys
             chart={chart}
             shown={shown}
             label="trend"
-            extent={xExtent(option)}
+            extent={extent}
             format={(v) => dateLabel.format(v)}
           />
         </div>
       )}
       <TrendValues points={points} unit={displayUnit(unit)} name={name ?? 'Values'} />
+    </div>
+  );
+}
+
+/** The active event's time and text in a box beside its symbol; its symbol is highlighted. */
+function EventBox({
+  chart,
+  event,
+  index,
+  events,
+}: {
+  chart: echarts.ECharts;
+  event: NonNullable<TrendChartProps['events']>[number];
+  index: number;
+  events: NonNullable<TrendChartProps['events']>;
+}) {
+  const upload = event.v !== undefined;
+  // the symbol's place in its series: uploads and strip events are counted apart
+  const dataIndex = events.slice(0, index).filter((e) => (e.v !== undefined) === upload).length;
+  const seriesId = upload ? UPLOADS_ID : EVENT_STRIP_ID;
+  useEffect(() => {
+    chart.dispatchAction({ type: 'highlight', seriesId, dataIndex });
+    return () => chart.dispatchAction({ type: 'downplay', seriesId, dataIndex });
+  }, [chart, seriesId, dataIndex]);
+  const x = Number(chart.convertToPixel({ xAxisIndex: 0 }, toMs(event.t)));
+  const width = chart.getWidth();
+  const box = Math.min(280, width - 16);
+  const left = Math.max(8, Math.min(x - box / 2, width - box - 8));
+  const top = upload ? Number(chart.convertToPixel({ yAxisIndex: 0 }, event.v!)) + 10 : 36;
+  return (
+    <div
+      role="tooltip"
+      className="pointer-events-none absolute z-10 rounded-md border border-line-strong bg-surface px-2.5 py-1.5 text-xs text-ink shadow-sm"
+      style={{ left, top: Math.min(top, chart.getHeight() - 70), width: box }}
+    >
+      <div className="font-mono text-ink-muted">{dateTimeLabel.format(toMs(event.t))}</div>
+      <div>{event.label}</div>
     </div>
   );
 }

@@ -14,86 +14,11 @@ import {
   zoomSliderStyle,
 } from './chart-theme.ts';
 import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
+import { withTrendSeries } from './trend-series-option.ts';
 import { formatDate, formatDateTime } from '../../lib/format.ts';
 
-/** A time as epoch milliseconds or an ISO 8601 string. */
-export type ChartTime = number | string;
-
-/** One value of the trend. */
-export interface TrendChartPoint {
-  t: ChartTime;
-  v: number;
-  /** Quality verdict of the capture; `suspect` points are hollow, `unusable` crossed. */
-  q?: 'ok' | 'suspect' | 'unusable';
-}
-
-/** A horizontal level line (e.g. alert or danger). */
-export interface TrendLimitLine {
-  value: number;
-  /** `alert`: dashed, amber; `danger`: solid, red, thicker; `other`: dotted, ink. */
-  level: 'alert' | 'danger' | 'other';
-  /** Text on the line; defaults to "Alert 7.10 mm/s" etc. */
-  label?: string;
-  /** Draw lighter (e.g. the current levels behind proposed ones). */
-  muted?: boolean;
-}
-
-/** A horizontal band, e.g. baseline mean ± 2σ. */
-export interface TrendBaselineBand {
-  low: number;
-  high: number;
-  label?: string;
-}
-
-/** A vertical marker at one time: alert raised, acknowledged, finding, … */
-export interface TrendEventMarker {
-  t: ChartTime;
-  kind: 'raised' | 'escalated' | 'acknowledged' | 'cleared' | 'finding' | 'other';
-  /** Shown in the label and tooltip. */
-  label: string;
-}
-
-/** A dashed projection from the latest value to the projected crossing (may lie ahead of today). */
-export interface TrendProjectionLine {
-  from: { t: ChartTime; v: number };
-  to: { t: ChartTime; v: number };
-  /** e.g. "Alert projected 14 Mar 2027". */
-  label?: string;
-}
-
-/** Extra markers drawn as a scatter series, e.g. where a replayed limit set would have raised alerts. */
-export interface TrendMarkerSeries {
-  name: string;
-  points: { t: ChartTime; v: number; label?: string }[];
-  shape: 'triangle' | 'diamond' | 'circle' | 'rect' | 'pin';
-  tone: 'alert' | 'danger' | 'accent' | 'ink' | 'quality';
-}
-
-export interface TrendChartProps {
-  /** The values, oldest first. */
-  points: readonly TrendChartPoint[];
-  /** Unit of the values, e.g. `mm/s`, `g`, `um` (shown as µm). */
-  unit: string;
-  /** Series name in the tooltip and legend. @default 'Value' */
-  name?: string;
-  limits?: readonly TrendLimitLine[];
-  baseline?: TrendBaselineBand | null;
-  events?: readonly TrendEventMarker[];
-  projection?: TrendProjectionLine | null;
-  markerSeries?: readonly TrendMarkerSeries[];
-  /** Draws a "today" line at this time; the x axis extends to include it and the projection. */
-  now?: number;
-  /** Time window to show; by default the data, today and the projection. */
-  range?: { from?: ChartTime; to?: ChartTime };
-  /** Pixel height. @default 320 */
-  height?: number;
-  /** Accessible name of the chart. */
-  ariaLabel: string;
-  /** Show a zoom slider under the chart. @default true */
-  zoom?: boolean;
-  /** Called with the analysis index when a value is clicked. */
-  onPointClick?: (index: number) => void;
-}
+export type * from './trend-types.ts';
+import type { ChartTime, TrendChartProps, TrendEventMarker } from './trend-types.ts';
 
 /** The next "round" number at or above x (1, 1.2, 1.5, 2, 2.5, 3, 4, 5, 6, 8 × 10^k). */
 export function niceCeil(x: number): number {
@@ -131,6 +56,8 @@ const eventStyle: Record<
   acknowledged: { colour: chartColours.accent, type: 'dashed' },
   cleared: { colour: chartColours.ok, type: 'dotted' },
   finding: { colour: chartColours.quality, type: 'dashed' },
+  limits: { colour: chartColours.ink, type: 'dotted' },
+  upload: { colour: chartColours.ink, type: 'dotted' },
   other: { colour: chartColours.inkMuted, type: 'dotted' },
 };
 
@@ -193,24 +120,26 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
     };
   });
 
-  const eventLines = (props.events ?? []).map((e) => {
-    const s = eventStyle[e.kind];
-    return {
-      xAxis: toMs(e.t),
-      name: e.label,
-      label: { show: false },
-      lineStyle: { color: s.colour, type: s.type, width: 1.2 },
-      emphasis: {
-        label: {
-          show: true,
-          formatter: e.label,
-          color: s.colour,
-          fontFamily: sansFont,
-          fontSize: 11,
+  const eventLines = (props.events ?? [])
+    .filter((e) => e.v === undefined)
+    .map((e) => {
+      const s = eventStyle[e.kind];
+      return {
+        xAxis: toMs(e.t),
+        name: e.label,
+        label: { show: false },
+        lineStyle: { color: s.colour, type: s.type, width: 1.2 },
+        emphasis: {
+          label: {
+            show: true,
+            formatter: e.label,
+            color: s.colour,
+            fontFamily: sansFont,
+            fontSize: 11,
+          },
         },
-      },
-    };
-  });
+      };
+    });
   const todayLine =
     props.now !== undefined
       ? [
@@ -239,8 +168,8 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
     showSymbol: data.length <= 200,
     symbolSize: 4,
     sampling: data.length > 3000 ? 'lttb' : undefined,
-    lineStyle: { color: chartColours.accent, width: 1.5 },
-    itemStyle: { color: chartColours.accent },
+    lineStyle: { color: props.colour ?? chartColours.accent, width: 1.5 },
+    itemStyle: { color: props.colour ?? chartColours.accent },
     emphasis: { focus: 'none' },
     markLine: {
       symbol: ['none', 'none'],
@@ -330,7 +259,7 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
 
   const zoom = props.zoom ?? true;
   const ax = axisStyle();
-  return {
+  const option: ChartOption = {
     animation: false,
     grid: { left: 56, right: 24, top: 20, bottom: zoom ? 64 : 28 },
     tooltip: {
@@ -369,4 +298,17 @@ export function buildTrendOption(props: TrendChartProps): ChartOption {
       : [],
     series,
   };
+  const events = props.events ?? [];
+  if (!props.extraSeries?.length && events.length === 0) return option;
+  return withTrendSeries(option, {
+    primaryId: props.seriesId ?? 'primary',
+    primaryUnit: unit,
+    extra: props.extraSeries ?? [],
+    strip: events.flatMap((e, index) =>
+      e.v === undefined ? [{ index, t: e.t, kind: e.kind, label: e.label }] : [],
+    ),
+    uploads: events.flatMap((e, index) =>
+      e.v !== undefined ? [{ index, t: e.t, v: e.v, label: e.label }] : [],
+    ),
+  });
 }

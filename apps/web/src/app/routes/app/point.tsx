@@ -233,7 +233,7 @@ export function PointRoute() {
                 description="The point gets its limit set with its first analysed snapshot."
               />
             ) : (
-              <TrendPanel pointId={p.id} bands={p.bands} initialBand={search.get('band')} />
+              <TrendPanel pointId={p.id} machineId={p.machine.id} bands={p.bands} />
             ))}
           {tab === 'spectrum' &&
             (snapshotBody() ?? (

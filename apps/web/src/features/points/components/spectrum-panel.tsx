@@ -37,6 +37,7 @@ import { SnapshotPicker } from './snapshot-picker.tsx';
 import { HintsSidePanel } from './diagnosis-hints.tsx';
 import { CaptureQuality } from './capture-quality.tsx';
 import { CursorReadouts, PeakTable } from './spectrum-readouts.tsx';
+import { SpectrumCursorKeys } from './spectrum-cursor-keys.tsx';
 import { measureLabels, SpectrumToolbar, type CursorSettings } from './spectrum-toolbar.tsx';
 import { ThinnedSpectrum, thinnedSpectrum } from './thinned-spectrum.tsx';
 
@@ -85,6 +86,7 @@ export function SpectrumPanel({
   const [fundamental, setFundamental] = useState<number | null>(null);
   const [carrier, setCarrier] = useState<number | null>(null);
   const [points, setPoints] = useState<{ name: 'A' | 'B'; x: number }[]>([]);
+  const [probe, setProbe] = useState<number | null>(null);
   const [hintPick, setHintPick] = useState<{ analysisId: number | null; index: number | null }>({
     analysisId: null,
     index: null,
@@ -153,8 +155,9 @@ export function SpectrumPanel({
   const lowCut = mt ? lowCutoff(mt.step, axis, shaftHz) : 0;
   const spacing = cursor.spacing ?? (axis === 'order' ? 1 : shaftHz);
   const cursors = useMemo(() => {
-    if (!mt) return { harmonic: [], sideband: [], points: [] };
+    if (!mt) return { harmonic: [], sideband: [], points: [], probe };
     return {
+      probe,
       harmonic: fundamental ? harmonicLines(mt.values, mt.step, fundamental, cursor.harmonics) : [],
       sideband:
         carrier && spacing
@@ -165,7 +168,7 @@ export function SpectrumPanel({
         amplitude: harmonicLines(mt.values, mt.step, p.x, 1)[0]?.amplitude ?? null,
       })),
     };
-  }, [mt, fundamental, carrier, spacing, cursor.harmonics, cursor.sidebands, points]);
+  }, [mt, fundamental, carrier, spacing, cursor.harmonics, cursor.sidebands, points, probe]);
   const found = useMemo(
     () =>
       mt
@@ -297,6 +300,23 @@ export function SpectrumPanel({
                 difference={difference}
                 onPick={onPick}
                 ariaLabel={`${measureLabels[measure]} spectrum in ${yName} against ${axisName}${compare.trace ? ', with a second snapshot for comparison and the change in dB per line' : ''}${highlights.length ? `, with ${highlights.length} evidence peaks of the ${hint ? hint.code : ''} hint marked` : ''}`}
+              />
+              <SpectrumCursorKeys
+                values={mt.values}
+                step={mt.step}
+                view={shownView}
+                lowCut={lowCut}
+                axis={axis}
+                shaftHz={shaftHz}
+                unit={linearName}
+                {...(cursor.mode === 'harmonic'
+                  ? { target: 'harmonic cursor', start: fundamental }
+                  : cursor.mode === 'sideband'
+                    ? { target: 'sideband carrier', start: carrier }
+                    : { target: `cursor ${points.length === 1 ? 'B' : 'A'}`, start: null })}
+                probe={probe}
+                onProbe={setProbe}
+                onSet={onPick}
               />
               <MarkerKey
                 families={fm.families}
