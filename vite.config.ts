@@ -3,6 +3,13 @@ import type { Plugin } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 import { fileURLToPath } from 'node:url';
+import { readFile, writeFile } from 'node:fs/promises';
+import { join } from 'node:path';
+import { promisify } from 'node:util';
+import { brotliCompress, constants as zlib, gzip as gzipCb } from 'node:zlib';
+
+const brotli = promisify(brotliCompress);
+const gzip = promisify(gzipCb);
 
 const here = fileURLToPath(new URL('.', import.meta.url));
 const apiTarget = `http://127.0.0.1:${process.env.PORT ?? '8080'}`;
@@ -30,8 +37,9 @@ const vendorChunks = [
 ];
 
 /**
- * index.html asks for the signed-in layout's code beside the main script: every screen but
- * sign-in needs it, and the router would only ask for it once the main script has run.
+ * index.html asks for the signed-in layout's code and the session answer's schema beside the
+ * main script: every screen but sign-in needs them, and the app would only ask for them once
+ * the main script has run.
  */
 function preloadSignedInLayout(): Plugin {
   return {
@@ -44,7 +52,10 @@ function preloadSignedInLayout(): Plugin {
         const layout = chunks.find((c) =>
           c.facadeModuleId?.endsWith('/src/app/routes/app/root.tsx'),
         );
-        if (!layout || !ctx.chunk) return;
+        const session = chunks.find((c) =>
+          c.moduleIds.some((id) => id.endsWith('/packages/contracts/src/auth.ts')),
+        );
+        if (!layout || !session || !ctx.chunk) return;
         const loaded = new Set([ctx.chunk.fileName, ...ctx.chunk.imports]);
         const files: string[] = [];
         const add = (fileName: string) => {
@@ -55,6 +66,7 @@ function preloadSignedInLayout(): Plugin {
           chunk?.imports.forEach(add);
         };
         add(layout.fileName);
+        add(session.fileName);
         return files.map((f) => ({
           tag: 'link',
           attrs: { rel: 'modulepreload', crossorigin: true, href: `/${f}` },
@@ -65,10 +77,47 @@ function preloadSignedInLayout(): Plugin {
   };
 }
 
+/**
+ * Every built script, stylesheet and icon of 1 kB or more is written compressed beside
+ * itself (`.br` at brotli's strongest level, `.gz` at gzip's), once, at build time: the server
+ * sends those (apps/server/src/lib/precompressed-assets.ts) instead of compressing each
+ * request's copy again.
+ */
+function precompress(): Plugin {
+  return {
+    name: 'turnstone-precompress',
+    apply: 'build',
+    async writeBundle(options, bundle) {
+      const dir = options.dir;
+      if (!dir) return;
+      const files = Object.keys(bundle).filter((f) => /\.(js|css|svg)$/.test(f));
+      await Promise.all(
+        files.map(async (f) => {
+          const data = await readFile(join(dir, f));
+          if (data.length < 1024) return;
+          const [br, gz] = await Promise.all([
+            brotli(data, {
+              params: {
+                [zlib.BROTLI_PARAM_QUALITY]: zlib.BROTLI_MAX_QUALITY,
+                [zlib.BROTLI_PARAM_SIZE_HINT]: data.length,
+              },
+            }),
+            gzip(data, { level: 9 }),
+          ]);
+          await Promise.all([
+            writeFile(join(dir, `${f}.br`), br),
+            writeFile(join(dir, `${f}.gz`), gz),
+          ]);
+        }),
+      );
+    },
+  };
+}
+
 // One config: the web app build (root apps/web, output apps/web/dist) and the test projects.
 export default defineConfig({
   root: 'apps/web',
-  plugins: [react(), tailwindcss(), preloadSignedInLayout()],
+  plugins: [react(), tailwindcss(), preloadSignedInLayout(), precompress()],
   build: {
     outDir: 'dist',
     emptyOutDir: true,

@@ -1,7 +1,10 @@
+import { readFileSync, statSync } from 'node:fs';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import type { TestServer } from '../support/test-server.ts';
 import { newPage, screenshot, signInAs, withServerAndBrowser } from '../support/browser.ts';
+import { webDist } from '../../apps/server/src/lib/web-build.ts';
 
 let srv: TestServer;
 let browser: Browser;
@@ -80,6 +83,20 @@ describe('how the app is sent', () => {
     const big = scripts.filter((s) => /\/(react|router)-/.test(s.url));
     expect(big.length).toBe(2);
     for (const s of big) expect(['br', 'gzip']).toContain(s.encoding);
+    // The build wrote each large file compressed beside itself; that copy is what is sent
+    // (its length), and it decodes to the file byte for byte (fetch decodes gzip, RFC 1952).
+    const react = new URL(big.find((s) => s.url.includes('/react-'))!.url).pathname;
+    const res = await fetch(srv.url + react, { headers: { 'accept-encoding': 'gzip' } });
+    expect(res.headers.get('content-encoding')).toBe('gzip');
+    expect(res.headers.get('content-type')).toContain('javascript');
+    expect(Number(res.headers.get('content-length'))).toBe(
+      statSync(join(webDist, `${react}.gz`)).size,
+    );
+    const plainFile = readFileSync(join(webDist, react));
+    expect(Buffer.from(await res.arrayBuffer()).equals(plainFile)).toBe(true);
+    const plain = await fetch(srv.url + react, { headers: { 'accept-encoding': 'identity' } });
+    expect(plain.headers.get('content-encoding')).toBeNull();
+    expect(Buffer.from(await plain.arrayBuffer()).equals(plainFile)).toBe(true);
     const missing = await fetch(`${srv.url}/assets/no-such-file-00000000.js`);
     expect(missing.status).toBe(404);
     expect(missing.headers.get('content-type')).toContain('application/json');

@@ -6,6 +6,7 @@ import compression from 'compression';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import type { AppContext } from './lib/context.ts';
+import { precompressedAssets } from './lib/precompressed-assets.ts';
 import { AppError } from './lib/app-error.ts';
 import { apiNotFound, errorMiddleware } from './lib/error-middleware.ts';
 import { mountRoutes, type RouteGroup, type RouteSpec } from './lib/route-table.ts';
@@ -205,10 +206,12 @@ export function createApp(ctx: AppContext) {
 
   if (existsSync(join(webDist, 'index.html'))) {
     // Built assets carry a content hash in their name: a changed file gets a new name, so
-    // browsers keep them for a year without asking again. A missing one is a 404 (not the
+    // browsers keep them for a year without asking again. They go as the build compressed
+    // them (lib/precompressed-assets.ts). A missing one is a 404 (not the
     // page), so a stale tab's script import fails plainly instead of parsing HTML.
     app.use(
       '/assets',
+      precompressedAssets(join(webDist, 'assets')),
       express.static(join(webDist, 'assets'), { index: false, immutable: true, maxAge: '365d' }),
       (_req: Request, res: Response) => {
         res.status(404).json({ error: { code: 'not_found', message: 'No such asset.' } });

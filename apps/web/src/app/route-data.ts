@@ -10,6 +10,7 @@
  */
 import type { LoaderFunctionArgs, Params } from 'react-router-dom';
 import { getMeQueryOptions } from '../features/auth/api/get-me.ts';
+import { getFleetQueryOptions } from '../features/fleet/api/get-fleet.ts';
 import { queryClient } from '../lib/query-client.ts';
 
 type Prefetch = (params: Params, url: URL) => Promise<unknown>;
@@ -36,10 +37,8 @@ const idOf = (value: string | undefined) => {
   return Number.isInteger(id) && id > 0 ? id : null;
 };
 
-export const fleetData: Prefetch = async () => {
-  const { getFleetQueryOptions } = await import('../features/fleet/api/get-fleet.ts');
-  return queryClient.prefetchQuery(getFleetQueryOptions());
-};
+/** The first screen: its query module carries no schema, so it ships with the shell. */
+export const fleetData: Prefetch = () => queryClient.prefetchQuery(getFleetQueryOptions());
 
 export const alertsData: Prefetch = async (_params, url) => {
   const m = await import('../features/alerts/api/get-alerts.ts');

@@ -1,10 +1,12 @@
-import { fleetSchema } from '@turnstone/contracts/fleet';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 
 /** The machine tree of every site the user may see, with each node's worst status. */
 export function getFleet({ signal }: { signal?: AbortSignal } = {}) {
-  return api.get('/api/v1/fleet', { schema: fleetSchema, signal });
+  // The schema (and zod) load beside the request: the fleet is the first screen, and its
+  // route asks for its data as soon as the session is known, before the page's code is in.
+  const schema = import('@turnstone/contracts/fleet').then((m) => m.fleetSchema);
+  return api.get('/api/v1/fleet', { schema, signal });
 }
 
 /**
