@@ -89,15 +89,17 @@ describe('operator on the alerts screen', () => {
     );
     await screenshot(page, 'alert-operator-detail');
 
-    // Out to the band's trend by its link, and back with the browser's Back.
+    // Out to the band's trend by its link, and back by the point page's link to the alert.
     await tabTo(page, (f) => f.text === 'Trend of Overall velocity 10–1000 Hz', 'the trend link', {
       max: 30,
     });
     await page.keyboard.press('Enter');
-    await page.waitForURL(/\/points\/\d+\?band=overall-velocity/);
+    await page.waitForURL(/\/points\/\d+\?band=overall-velocity&alert=\d+/);
     await page.getByLabel('Band', { exact: true }).waitFor();
     await screenshot(page, 'alert-operator-trend');
-    await page.goBack();
+    await tabTo(page, (f) => f.text === 'Back to the alert', 'the way back', { max: 30 });
+    await page.keyboard.press('Enter');
+    await page.waitForURL(/\/alerts\?alert=\d+/);
     await panel.waitFor();
     await expect.poll(async () => (await focused(page)).tag).toBe('H2');
 

@@ -151,7 +151,9 @@ describe('from an alert to the spectrum of its band', () => {
 
     // Click 1 (and the only one): the spectrum of the alert's band.
     await link.click();
-    await page.waitForURL(`**/points/${pointId}?band=overall-velocity&view=spectrum`);
+    await page.waitForURL(
+      `**/points/${pointId}?band=overall-velocity&view=spectrum&alert=${alertId}`,
+    );
     const chart = page.getByRole('img', { name: /^Velocity spectrum in mm\/s RMS against Hz/ });
     await chart.locator('canvas').first().waitFor();
     // 0–40 orders at 1482 r/min = 0–988 Hz (40 × 24.7 Hz).

@@ -56,12 +56,14 @@ export const paths = {
       path: '/points/:pointId',
       /**
        * `band`: open the point on this band (its key, `?band=`): the Trend view on it, or with
-       * `view` 'spectrum' the spectrum on its measure and span (`&view=spectrum`).
+       * `view` 'spectrum' the spectrum on its measure and span (`&view=spectrum`). `fromAlert`:
+       * the alert whose detail linked here (`&alert=`), offered as the way back to it.
        */
-      getHref: (pointId: number, band?: string, view?: 'spectrum') => {
+      getHref: (pointId: number, band?: string, view?: 'spectrum', fromAlert?: number) => {
         const q = new URLSearchParams();
         if (band) q.set('band', band);
         if (view) q.set('view', view);
+        if (fromAlert) q.set('alert', String(fromAlert));
         const s = q.toString();
         return s ? `/points/${pointId}?${s}` : `/points/${pointId}`;
       },

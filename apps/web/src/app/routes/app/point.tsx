@@ -124,6 +124,8 @@ export function PointRoute() {
   // `?view=spectrum` (a link from an alert) opens the spectrum view, on `?band=`'s band.
   const [tab, setTab] = useState<Tab>(search.get('view') === 'spectrum' ? 'spectrum' : 'trend');
   const [picked, setPicked] = useState<number | null>(null);
+  // `?alert=`: opened from that alert's detail; the way back to it is the first link here.
+  const fromAlert = Number(search.get('alert')) || null;
   useEffect(() => {
     const timer = window.setTimeout(preloadViews, SETTLED_MS);
     return () => window.clearTimeout(timer);
@@ -183,6 +185,14 @@ export function PointRoute() {
         <Link to={paths.app.machine.getHref(p.machine.id)} className="hover:underline">
           {p.machine.name}
         </Link>
+        {fromAlert && (
+          <>
+            {' · '}
+            <Link to={paths.app.alerts.getHref(fromAlert)} className="text-accent underline">
+              Back to the alert
+            </Link>
+          </>
+        )}
       </nav>
       <PageHeader
         title={p.name}

@@ -125,12 +125,15 @@ export function AlertHistory({
         <Link className="text-accent underline" to={paths.app.point.getHref(a.pointId)}>
           Point {a.pointTag}
         </Link>
-        <Link className="text-accent underline" to={paths.app.point.getHref(a.pointId, a.bandKey)}>
+        <Link
+          className="text-accent underline"
+          to={paths.app.point.getHref(a.pointId, a.bandKey, undefined, a.id)}
+        >
           Trend of {a.bandName}
         </Link>
         <Link
           className="text-accent underline"
-          to={paths.app.point.getHref(a.pointId, a.bandKey, 'spectrum')}
+          to={paths.app.point.getHref(a.pointId, a.bandKey, 'spectrum', a.id)}
         >
           Spectrum of {a.bandName}
         </Link>
