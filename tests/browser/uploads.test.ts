@@ -33,6 +33,10 @@ describe('uploads in a real browser', () => {
     await page.getByLabel('Sensitivity').fill('100');
     await page.getByLabel('Full scale').fill('5');
     await page.getByLabel('Speed').fill('1480');
+    // "Taken at" is read in the point's site's zone, whatever the browser's: 12:05 on 1 July
+    // in Europe/London is 11:05 UTC (British Summer Time, UTC+1; the IANA tz database).
+    await page.getByText("In Europe/London, the point's site's time.").waitFor();
+    await page.getByLabel('Taken at').fill('2026-07-01T12:05');
     // 0.5 g peak at 100 Hz from the test tone generator: 0.354 g RMS (peak / √2).
     const wav = writeWav(
       toneCounts({ n: 8192, fs: 10240, tones: [{ hz: 100, peakG: 0.5 }] }),
@@ -55,6 +59,10 @@ describe('uploads in a real browser', () => {
     await bad.getByText(/Not a readable CSV file/).waitFor();
 
     await waitForSnapshots(1);
+    const [taken] = await srv.ctx.dbHandle.pool.query(
+      "SELECT DATE_FORMAT(taken_at, '%Y-%m-%dT%H:%i') AS t FROM snapshots WHERE source = 'upload'",
+    );
+    expect((taken as { t: string }[]).map((r) => r.t)).toEqual(['2026-07-01T11:05']);
     expect(await createWorker(srv.ctx).drain()).toBe(1);
     await good.getByText('Quality OK').waitFor({ timeout: 10_000 });
     await good.getByText('0.354 g RMS').waitFor();

@@ -11,6 +11,7 @@ import {
   isoWeekOf,
   localDate,
   offsetSegments,
+  wallTimeInstant,
 } from './dates.ts';
 
 function python(code: string): string {
@@ -103,5 +104,32 @@ print(" ".join("%d-W%02d" % date.fromisoformat(d).isocalendar()[:2] for d in ds)
     expect(formatDateTime('2026-07-01T11:05:00Z', 'Europe/London')).toBe('2026-07-01 12:05');
     expect(formatDateTime('2026-07-01T23:30:00Z', 'Asia/Kolkata')).toBe('2026-07-02 05:00');
     expect(formatDateTime('2026-07-01T00:00:00Z')).toBe('2026-07-01 00:00');
+  });
+});
+
+describe('a wall-clock reading in a site zone against zoneinfo (fold=0), run live', () => {
+  const WALLS: [string, string][] = [
+    ['Europe/London', '2026-07-01T12:05'], // summer time, UTC+1
+    ['Europe/London', '2026-03-29T01:30'], // skipped by the clock change
+    ['Europe/London', '2026-10-25T01:30'], // occurs twice
+    ['America/Santiago', '2026-09-06T00:00'], // skipped: DST begins at midnight
+    ['Asia/Kolkata', '2026-12-01T09:15:30'],
+    ['Pacific/Chatham', '2026-04-05T02:50'], // occurs twice (+13:45 → +12:45)
+    ['America/St_Johns', '2026-11-01T00:45'], // occurs twice (−02:30 → −03:30)
+    ['UTC', '2026-12-31T23:59'],
+  ];
+  it('gives the instant zoneinfo gives', () => {
+    const code = `
+from datetime import datetime
+from zoneinfo import ZoneInfo
+for tz, w in ${JSON.stringify(WALLS)}:
+    print(int(datetime.fromisoformat(w).replace(tzinfo=ZoneInfo(tz)).timestamp() * 1000))`;
+    const lines = python(code).split('\n').map(Number);
+    WALLS.forEach(([tz, w], i) => expect(wallTimeInstant(w, tz), `${tz} ${w}`).toBe(lines[i]));
+  });
+  it('refuses what is not a reading', () => {
+    expect(wallTimeInstant('2026-02-30T10:00', 'UTC')).toBeNull();
+    expect(wallTimeInstant('yesterday', 'UTC')).toBeNull();
+    expect(wallTimeInstant('', 'Europe/London')).toBeNull();
   });
 });

@@ -142,6 +142,25 @@ export function formatDateTime(at: string | number | Date, timeZone = 'UTC'): st
   return `${dateOf(p)} ${pad(p.hour)}:${pad(p.minute)}`;
 }
 
+/**
+ * The instant (epoch ms) a wall-clock reading `YYYY-MM-DDTHH:mm[:ss]` names in `timeZone`, as
+ * Python's zoneinfo reads it with fold=0: a reading that occurs twice (clocks back) is the
+ * first; one that a clock change skips uses the offset before the change. Null if unreadable.
+ */
+export function wallTimeInstant(wall: string, timeZone: string): number | null {
+  const m = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::(\d{2}))?$/.exec(wall);
+  if (!m) return null;
+  const [y, mo, d, h, mi, se] = m.slice(1).map((v) => Number(v ?? 0));
+  const asUtc = Date.UTC(y!, mo! - 1, d!, h!, mi!, se!);
+  if (Number.isNaN(asUtc) || new Date(asUtc).getUTCDate() !== d) return null;
+  const before = offsetMinutes(asUtc - 86_400_000, timeZone);
+  const after = offsetMinutes(asUtc + 86_400_000, timeZone);
+  const fits = (o: number) => offsetMinutes(asUtc - o * 60_000, timeZone) === o;
+  if (fits(before)) return asUtc - before * 60_000;
+  if (fits(after)) return asUtc - after * 60_000;
+  return asUtc - before * 60_000;
+}
+
 /** `2026-11-27 14:05 Europe/London`: the time with its zone, for mail and print. */
 export function formatDateTimeZone(at: string | number | Date, timeZone = 'UTC'): string {
   return `${formatDateTime(at, timeZone)} ${timeZone}`;

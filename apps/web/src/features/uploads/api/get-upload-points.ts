@@ -7,6 +7,8 @@ export interface UploadPoint {
   tag: string;
   label: string;
   group: string;
+  /** The point's site's time zone: the upload's "Taken at" is read in it. */
+  timeZone: string;
 }
 
 /** Every point the user can see, labelled for a chooser: "Site · Area · Machine". */
@@ -21,6 +23,7 @@ export function flattenPoints(fleet: Fleet): UploadPoint[] {
             tag: p.tag,
             label: `${p.tag} — ${p.name}`,
             group: `${site.code} · ${area.name} · ${machine.name}`,
+            timeZone: site.timeZone,
           });
   return out;
 }

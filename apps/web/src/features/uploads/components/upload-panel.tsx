@@ -1,4 +1,5 @@
 import { uploadFieldsSchema } from '@turnstone/contracts/uploads';
+import { wallTimeInstant } from '@turnstone/contracts/dates';
 import { useQueryClient } from '@tanstack/react-query';
 import { useRef, useState, type DragEvent } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
@@ -31,11 +32,11 @@ const emptySettings: Settings = {
   takenAt: '',
 };
 
-/** Local `datetime-local` text → ISO instant with offset, as the API wants. */
-function isoFromLocal(value: string): string {
+/** `datetime-local` text, read in the site's zone → the ISO instant the API wants. */
+function isoFromLocal(value: string, timeZone: string): string {
   if (!value) return '';
-  const d = new Date(value);
-  return Number.isNaN(d.getTime()) ? value : d.toISOString();
+  const ms = wallTimeInstant(value, timeZone);
+  return ms === null ? value : new Date(ms).toISOString();
 }
 
 let nextKey = 0;
@@ -100,7 +101,8 @@ export function UploadPanel() {
     ]);
   };
 
-  const fields = { ...settings, takenAt: isoFromLocal(settings.takenAt) };
+  const zone = points.data.find((p) => p.id === pointId)?.timeZone ?? 'UTC';
+  const fields = { ...settings, takenAt: isoFromLocal(settings.takenAt, zone) };
   const sendAll = async () => {
     const parsed = uploadFieldsSchema.safeParse(fields);
     if (!parsed.success) {
@@ -225,7 +227,11 @@ export function UploadPanel() {
             )}
           </Field>
         </div>
-        <Field label="Taken at" hint="Empty: the time of upload." error={errors.takenAt}>
+        <Field
+          label="Taken at"
+          hint={`In ${zone}, the point's site's time. Empty: the time of upload.`}
+          error={errors.takenAt}
+        >
           {({ invalid, ...ids }) => (
             <Input
               {...ids}
