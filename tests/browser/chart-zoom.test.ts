@@ -343,6 +343,9 @@ describe('chart zoom and values by keyboard', () => {
       }
       const before = await stated(group);
       expect(before, v.tab).toMatchObject({ start: 0, end: 100 });
+      // The chart may sit below the fold (the point page grew above it): bring it into view
+      // so the wheel lands on it and not on the page's fixed footer.
+      await img.scrollIntoViewIfNeeded();
       const box = (await img.boundingBox())!;
       await page.mouse.move(box.x + box.width / 2, box.y + box.height / 3);
       await page.mouse.wheel(0, -400);
