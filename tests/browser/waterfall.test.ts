@@ -47,6 +47,8 @@ afterAll(async () => {
 /** Sweeps the pointer along a row of the chart and collects every readout it gave. */
 async function sweep(page: Page, yFromBottom: number): Promise<string[]> {
   const chart = page.getByRole('img', { name: /^Waterfall of the last/ });
+  // Below the fold the pointer would land on the page's fixed footer: bring the chart in view.
+  await chart.scrollIntoViewIfNeeded();
   const box = (await chart.boundingBox())!;
   const readout = page.getByTestId('waterfall-readout');
   const seen: string[] = [];
