@@ -117,7 +117,7 @@ describe('alerts screen', () => {
     await screenshot(page, 'alerts-detail-explained');
 
     // The band's trend: the point page opens its Trend view on this alert's band (not the
-    // default overall velocity), and Back returns to the open alert.
+    // default overall velocity) and names the alert it came from; Back returns to it.
     const otherDetail = await (
       await srv.call('GET', `/api/v1/alerts/${other.id}`, { cookie })
     ).json();
@@ -125,7 +125,7 @@ describe('alerts screen', () => {
     const otherPanel = page.getByRole('region', { name: otherDetail.bandName });
     await otherPanel.getByRole('link', { name: `Trend of ${otherDetail.bandName}` }).click();
     await page.waitForURL(
-      `**/points/${otherDetail.pointId}?band=${encodeURIComponent(otherDetail.bandKey)}`,
+      `**/points/${otherDetail.pointId}?band=${encodeURIComponent(otherDetail.bandKey)}&alert=${other.id}`,
     );
     const band = page.getByLabel('Band', { exact: true });
     await band.waitFor();
