@@ -130,8 +130,14 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
       stopped ??= (async () => {
         for (const fn of cleanup.reverse())
           await fn().catch((e) => log.warn('stop step failed', { err: e }));
-        await new Promise<void>((r) => server.close(() => r()));
+        // Stop accepting, let requests in flight finish for up to 2 s, then cut what is left
+        // (a client that never reads its answer would otherwise hold the stop for ever).
+        const closed = new Promise<void>((r) => server.close(() => r()));
+        server.closeIdleConnections?.();
+        const grace = new Promise<void>((r) => setTimeout(r, 2000).unref());
+        await Promise.race([closed, grace]);
         server.closeAllConnections?.();
+        await closed;
         await dbHandle.close().catch(() => {});
         await localDb?.stop();
       })();
