@@ -1,27 +1,6 @@
-import type { ReactNode } from 'react';
-import type { UseFormRegisterReturn } from 'react-hook-form';
+import type { ComponentProps, ReactNode } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
 import { Field, Input } from '../../../components/ui/field.tsx';
-
-/** The server's message when it named no field of the form (or could not be reached). */
-export function FormAlert({ message }: { message: string | null }) {
-  if (!message) return null;
-  return (
-    <div
-      role="alert"
-      className="flex gap-2.5 rounded-md border border-status-danger/30 bg-danger-soft px-3 py-2.5 text-sm text-ink"
-    >
-      <svg
-        viewBox="0 0 12 12"
-        aria-hidden="true"
-        className="mt-1 size-3 shrink-0 text-status-danger"
-      >
-        <path d="M6 .6 11.4 6 6 11.4.6 6Z" fill="currentColor" />
-      </svg>
-      <p>{message}</p>
-    </div>
-  );
-}
 
 export function FormSection({ title, children }: { title: string; children: ReactNode }) {
   return (
@@ -87,24 +66,26 @@ export function Unit({ children }: { children: ReactNode }) {
   );
 }
 
-/** A labelled number field with its unit; `registration` comes from `form.register`. */
+/**
+ * A labelled number field with its unit. Pass the form library's registration (`formField`
+ * gives it with the error) and any further input attributes.
+ */
 export function NumberField({
   label,
   unit,
   error,
   hint,
-  registration,
   step = 'any',
   className,
+  ...input
 }: {
   label: ReactNode;
   unit?: string;
   error?: string;
   hint?: ReactNode;
-  registration: UseFormRegisterReturn;
   step?: string;
   className?: string;
-}) {
+} & Omit<ComponentProps<typeof Input>, 'invalid' | 'id' | 'aria-describedby' | 'className'>) {
   return (
     <Field label={label} error={error} hint={hint} className={className}>
       {({ invalid, ...ids }) => (
@@ -116,7 +97,7 @@ export function NumberField({
             inputMode="decimal"
             step={step}
             className={unit ? 'pr-14 font-mono' : 'font-mono'}
-            {...registration}
+            {...input}
           />
           {unit && <Unit>{unit}</Unit>}
         </div>
