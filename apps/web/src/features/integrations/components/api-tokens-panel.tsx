@@ -4,11 +4,12 @@ import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { Field, Input, Select } from '../../../components/ui/field.tsx';
-import { QueryItems } from '../../../components/ui/query-items.tsx';
-import { Modal } from '../../../components/ui/modal.tsx';
+import { ConfirmDialog } from '../../../components/ui/confirm-dialog.tsx';
+import { QueryTable } from '../../../components/ui/query-table.tsx';
 import { useNow } from '../../../hooks/use-now.ts';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
-import { formatAge, formatDateTime } from '../../../lib/format.ts';
+import { formatDateTime } from '../../../lib/format.ts';
+import { Age } from '../../../components/ui/age.tsx';
 import { useSites } from '../../gateways/api/get-gateways.ts';
 import { useIssueApiToken, useRevokeApiToken } from '../api/change-integrations.ts';
 import { useApiTokens } from '../api/get-integrations.ts';
@@ -122,107 +123,66 @@ export function ApiTokensPanel() {
         API tokens
       </h2>
       <IssueTokenForm onIssued={setShown} />
-      <Card className="overflow-x-auto">
-        <QueryItems
-          query={tokens}
-          empty={{ title: 'No API tokens yet', description: 'Issue one above; it is shown once.' }}
-        >
-          {(items) => (
-            <table className="w-full text-sm">
-              <caption className="sr-only">API tokens</caption>
-              <thead className="border-b border-line text-left text-xs text-ink-muted">
-                <tr>
-                  <th className="px-4 py-2 font-medium">Integration</th>
-                  <th className="px-4 py-2 font-medium">Role and sites</th>
-                  <th className="px-4 py-2 font-medium">Token</th>
-                  <th className="px-4 py-2 font-medium">Issued</th>
-                  <th className="px-4 py-2 font-medium">Last used</th>
-                  <th className="px-4 py-2 font-medium">
-                    <span className="sr-only">Actions</span>
-                  </th>
-                </tr>
-              </thead>
-              <tbody>
-                {items.map((t) => (
-                  <tr key={t.id} className="border-b border-line last:border-0">
-                    <td className="px-4 py-2.5 font-medium">{t.name}</td>
-                    <td className="px-4 py-2.5">
-                      {roleLabels[t.role]}
-                      <span className="ml-1.5 font-mono text-xs text-ink-faint">
-                        {t.role === 'admin' ? 'all sites' : t.siteIds.map(codeOf).join(', ')}
-                      </span>
-                    </td>
-                    <td className="px-4 py-2.5 font-mono text-[13px]">{t.tokenPrefix}…</td>
-                    <td className="px-4 py-2.5">
-                      {formatDateTime(t.createdAt)}
-                      {t.createdBy && <span className="text-ink-muted"> by {t.createdBy}</span>}
-                    </td>
-                    <td className="px-4 py-2.5">
-                      {t.lastUsedAt ? (
-                        <time dateTime={t.lastUsedAt} title={formatDateTime(t.lastUsedAt)}>
-                          {formatAge(t.lastUsedAt, now)}
-                        </time>
-                      ) : (
-                        <span className="text-ink-faint">never</span>
-                      )}
-                    </td>
-                    <td className="px-4 py-2.5 text-right whitespace-nowrap">
-                      {t.revokedAt ? (
-                        <span className="text-status-danger">
-                          Revoked {formatDateTime(t.revokedAt)}
-                        </span>
-                      ) : (
-                        <Button
-                          size="sm"
-                          variant="ghost"
-                          className="text-status-danger"
-                          onClick={() => setPending(t)}
-                        >
-                          Revoke
-                        </Button>
-                      )}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          )}
-        </QueryItems>
-      </Card>
-      <Modal
+      <QueryTable
+        query={tokens}
+        empty={{ title: 'No API tokens yet', description: 'Issue one above; it is shown once.' }}
+        caption="API tokens"
+        columns={['Integration', 'Role and sites', 'Token', 'Issued', 'Last used']}
+        row={(t) => (
+          <tr key={t.id} className="border-b border-line last:border-0">
+            <td className="px-4 py-2.5 font-medium">{t.name}</td>
+            <td className="px-4 py-2.5">
+              {roleLabels[t.role]}
+              <span className="ml-1.5 font-mono text-xs text-ink-faint">
+                {t.role === 'admin' ? 'all sites' : t.siteIds.map(codeOf).join(', ')}
+              </span>
+            </td>
+            <td className="px-4 py-2.5 font-mono text-[13px]">{t.tokenPrefix}…</td>
+            <td className="px-4 py-2.5">
+              {formatDateTime(t.createdAt)}
+              {t.createdBy && <span className="text-ink-muted"> by {t.createdBy}</span>}
+            </td>
+            <td className="px-4 py-2.5">
+              <Age at={t.lastUsedAt} now={now} />
+            </td>
+            <td className="px-4 py-2.5 text-right whitespace-nowrap">
+              {t.revokedAt ? (
+                <span className="text-status-danger">Revoked {formatDateTime(t.revokedAt)}</span>
+              ) : (
+                <Button
+                  size="sm"
+                  variant="ghost"
+                  className="text-status-danger"
+                  onClick={() => setPending(t)}
+                >
+                  Revoke
+                </Button>
+              )}
+            </td>
+          </tr>
+        )}
+      />
+      <ConfirmDialog
         open={pending !== null}
         title={`Revoke the token of ${pending?.name ?? ''}?`}
-        onClose={() => {
+        error={actionError}
+        confirmLabel="Revoke token"
+        busy={revoke.isPending}
+        onConfirm={() =>
+          pending &&
+          revoke.mutateAsync(pending.id).then(
+            () => setPending(null),
+            (e: Error) => setActionError(e.message),
+          )
+        }
+        onCancel={() => {
           setPending(null);
           setActionError(null);
         }}
       >
-        <p className="text-sm text-ink-muted">
-          The token stops working at once and cannot be restored. Issue a new one to connect the
-          integration again.
-        </p>
-        {actionError && (
-          <p role="alert" className="text-sm text-status-danger">
-            {actionError}
-          </p>
-        )}
-        <div className="flex justify-end gap-2">
-          <Button onClick={() => setPending(null)}>Cancel</Button>
-          <Button
-            variant="primary"
-            busy={revoke.isPending}
-            onClick={() =>
-              pending &&
-              revoke.mutateAsync(pending.id).then(
-                () => setPending(null),
-                (e: Error) => setActionError(e.message),
-              )
-            }
-          >
-            Revoke token
-          </Button>
-        </div>
-      </Modal>
+        The token stops working at once and cannot be restored. Issue a new one to connect the
+        integration again.
+      </ConfirmDialog>
       <SecretOnceDialog
         title="API token"
         label="Token"

@@ -10,7 +10,7 @@ import {
   useUpdateWebhook,
 } from '../api/change-integrations.ts';
 import { useWebhooks } from '../api/get-integrations.ts';
-import { QueryItems } from '../../../components/ui/query-items.tsx';
+import { QueryTable } from '../../../components/ui/query-table.tsx';
 import { SecretOnceDialog } from '../../../components/ui/secret-once-dialog.tsx';
 
 function AddWebhookForm({ onAdded }: { onAdded: (secret: string) => void }) {
@@ -130,88 +130,60 @@ export function WebhooksPanel() {
           {actionError}
         </p>
       )}
-      <Card className="overflow-x-auto">
-        <QueryItems
-          query={hooks}
-          empty={{
-            title: 'No webhook receivers',
-            description: 'Add one above; its signing secret is shown once.',
-          }}
-        >
-          {(items) => (
-            <table className="w-full text-sm">
-              <caption className="sr-only">Webhook receivers</caption>
-              <thead className="border-b border-line text-left text-xs text-ink-muted">
-                <tr>
-                  <th className="px-4 py-2 font-medium">Name</th>
-                  <th className="px-4 py-2 font-medium">URL</th>
-                  <th className="px-4 py-2 font-medium">Events</th>
-                  <th className="px-4 py-2 font-medium">Deliveries</th>
-                  <th className="px-4 py-2 font-medium">
-                    <span className="sr-only">Actions</span>
-                  </th>
-                </tr>
-              </thead>
-              <tbody>
-                {items.map((h) => (
-                  <tr key={h.id} className="border-b border-line last:border-0">
-                    <td className="px-4 py-2.5 font-medium">
-                      {h.name}
-                      {!h.enabled && (
-                        <span className="ml-1.5 text-xs text-ink-muted">(paused)</span>
-                      )}
-                    </td>
-                    <td
-                      className="max-w-72 truncate px-4 py-2.5 font-mono text-[13px]"
-                      title={h.url}
-                    >
-                      {h.url}
-                    </td>
-                    <td className="px-4 py-2.5 font-mono text-xs">{h.events.join(', ')}</td>
-                    <td className="px-4 py-2.5">
-                      {h.pending === 0 && h.undelivered === 0 ? (
-                        <span className="text-ink-muted">all delivered</span>
-                      ) : (
-                        <>
-                          {h.pending > 0 && <span>{h.pending} waiting for a retry</span>}
-                          {h.undelivered > 0 && (
-                            <span className="ml-1.5 text-status-danger">
-                              {h.undelivered} not delivered
-                            </span>
-                          )}
-                        </>
-                      )}
-                    </td>
-                    <td className="px-4 py-2.5 text-right whitespace-nowrap">
-                      <Button
-                        size="sm"
-                        variant="ghost"
-                        onClick={() =>
-                          update
-                            .mutateAsync({ id: h.id, enabled: !h.enabled })
-                            .then(() => setActionError(null), fail)
-                        }
-                      >
-                        {h.enabled ? 'Pause' : 'Resume'}
-                      </Button>
-                      <Button
-                        size="sm"
-                        variant="ghost"
-                        className="text-status-danger"
-                        onClick={() =>
-                          remove.mutateAsync(h.id).then(() => setActionError(null), fail)
-                        }
-                      >
-                        Remove
-                      </Button>
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          )}
-        </QueryItems>
-      </Card>
+      <QueryTable
+        query={hooks}
+        empty={{
+          title: 'No webhook receivers',
+          description: 'Add one above; its signing secret is shown once.',
+        }}
+        caption="Webhook receivers"
+        columns={['Name', 'URL', 'Events', 'Deliveries']}
+        row={(h) => (
+          <tr key={h.id} className="border-b border-line last:border-0">
+            <td className="px-4 py-2.5 font-medium">
+              {h.name}
+              {!h.enabled && <span className="ml-1.5 text-xs text-ink-muted">(paused)</span>}
+            </td>
+            <td className="max-w-72 truncate px-4 py-2.5 font-mono text-[13px]" title={h.url}>
+              {h.url}
+            </td>
+            <td className="px-4 py-2.5 font-mono text-xs">{h.events.join(', ')}</td>
+            <td className="px-4 py-2.5">
+              {h.pending === 0 && h.undelivered === 0 ? (
+                <span className="text-ink-muted">all delivered</span>
+              ) : (
+                <>
+                  {h.pending > 0 && <span>{h.pending} waiting for a retry</span>}
+                  {h.undelivered > 0 && (
+                    <span className="ml-1.5 text-status-danger">{h.undelivered} not delivered</span>
+                  )}
+                </>
+              )}
+            </td>
+            <td className="px-4 py-2.5 text-right whitespace-nowrap">
+              <Button
+                size="sm"
+                variant="ghost"
+                onClick={() =>
+                  update
+                    .mutateAsync({ id: h.id, enabled: !h.enabled })
+                    .then(() => setActionError(null), fail)
+                }
+              >
+                {h.enabled ? 'Pause' : 'Resume'}
+              </Button>
+              <Button
+                size="sm"
+                variant="ghost"
+                className="text-status-danger"
+                onClick={() => remove.mutateAsync(h.id).then(() => setActionError(null), fail)}
+              >
+                Remove
+              </Button>
+            </td>
+          </tr>
+        )}
+      />
       <SecretOnceDialog
         title="Signing secret"
         label="Secret"

@@ -5,7 +5,8 @@ import { formatValue } from '../../../components/charts/chart-theme.ts';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { useUnits } from '../../account/api/use-units.ts';
 import { paths } from '../../../config/paths.ts';
-import { formatAge, formatBandHz, formatDateTime } from '../../../lib/format.ts';
+import { formatBandHz } from '../../../lib/format.ts';
+import { Age } from '../../../components/ui/age.tsx';
 import { isoZoneRange } from '../lib/iso-zone-range.ts';
 
 const verdictText = { ok: 'OK', suspect: 'Suspect', unusable: 'Unusable' } as const;
@@ -132,17 +133,12 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
                   </Link>
                 </td>
                 <td className="px-3 py-2 text-right">
-                  {l ? (
-                    <time
-                      dateTime={l.takenAt}
-                      title={formatDateTime(l.takenAt)}
-                      className="font-mono text-[12.5px] text-ink-muted"
-                    >
-                      {formatAge(l.takenAt, now)}
-                    </time>
-                  ) : (
-                    <span className="text-xs text-ink-faint">never</span>
-                  )}
+                  <Age
+                    at={l?.takenAt ?? null}
+                    now={now}
+                    className="font-mono text-[12.5px] text-ink-muted"
+                    neverClassName="text-xs"
+                  />
                 </td>
               </tr>
             );
