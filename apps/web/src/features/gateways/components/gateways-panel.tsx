@@ -3,8 +3,9 @@ import { createGatewaySchema, type Gateway, type GatewayKey } from '@turnstone/c
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Button } from '../../../components/ui/button.tsx';
-import { Card } from '../../../components/ui/card.tsx';
-import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import { FormCard } from '../../../components/ui/form-card.tsx';
+import { InputField, SelectField, type SelectOption } from '../../../components/ui/field.tsx';
+import { formField } from '../../../lib/form-field.ts';
 import { useNow } from '../../../hooks/use-now.ts';
 import { isApiError } from '../../../lib/api-client.ts';
 import { formatDateTime } from '../../../lib/format.ts';
@@ -23,7 +24,6 @@ function CreateGatewayForm({ onCreated }: { onCreated: (name: string, key: Gatew
     resolver: zodResolver(createGatewaySchema),
     defaultValues: { siteId: undefined as unknown as number, name: '' },
   });
-  const { errors } = form.formState;
   const onSubmit = form.handleSubmit((values) => {
     setFormError(null);
     create.mutate(values, {
@@ -46,51 +46,34 @@ function CreateGatewayForm({ onCreated }: { onCreated: (name: string, key: Gatew
     });
   });
   return (
-    <Card className="p-4">
-      <h2 className="text-sm font-semibold">New gateway</h2>
-      <form
-        onSubmit={onSubmit}
-        noValidate
-        className="mt-3 flex flex-wrap items-start gap-3"
-        aria-label="New gateway"
-      >
-        <Field label="Site" error={errors.siteId?.message} className="w-64">
-          {({ invalid: _i, ...ids }) => (
-            <Select
-              {...ids}
-              {...form.register('siteId', {
-                setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)),
-              })}
-            >
-              <option value="">Choose a site…</option>
-              {sites.data?.items.map((s) => (
-                <option key={s.id} value={s.id}>
-                  {s.name} ({s.code})
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
-        <Field
-          label="Name"
-          hint="Where it hangs, e.g. “Pump hall cabinet 2”."
-          error={errors.name?.message}
-          className="min-w-64 flex-1"
-        >
-          {({ invalid, ...ids }) => (
-            <Input {...ids} invalid={invalid} controlSize="sm" {...form.register('name')} />
-          )}
-        </Field>
-        <Button type="submit" variant="primary" busy={create.isPending} className="mt-6.5 h-9">
-          Create gateway
-        </Button>
-      </form>
-      {formError && (
-        <p role="alert" className="mt-2 text-sm text-status-danger">
-          {formError}
-        </p>
-      )}
-    </Card>
+    <FormCard
+      title="New gateway"
+      onSubmit={onSubmit}
+      className="mt-3 flex flex-wrap items-start gap-3"
+      error={formError}
+    >
+      <SelectField
+        label="Site"
+        className="w-64"
+        options={[
+          ['', 'Choose a site…'],
+          ...(sites.data?.items ?? []).map((s): SelectOption => [s.id, `${s.name} (${s.code})`]),
+        ]}
+        {...formField(form, 'siteId', {
+          setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)),
+        })}
+      />
+      <InputField
+        label="Name"
+        hint="Where it hangs, e.g. “Pump hall cabinet 2”."
+        className="min-w-64 flex-1"
+        controlSize="sm"
+        {...formField(form, 'name')}
+      />
+      <Button type="submit" variant="primary" busy={create.isPending} className="mt-6.5 h-9">
+        Create gateway
+      </Button>
+    </FormCard>
   );
 }
 

@@ -2,12 +2,13 @@ import { roleLabels, roles, type Role } from '@turnstone/contracts/roles';
 import type { ApiToken } from '@turnstone/contracts/api-tokens';
 import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
-import { Card } from '../../../components/ui/card.tsx';
-import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import { FormCard } from '../../../components/ui/form-card.tsx';
+import { InputField, SelectField, type SelectOption } from '../../../components/ui/field.tsx';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog.tsx';
 import { QueryTable } from '../../../components/ui/query-table.tsx';
 import { useNow } from '../../../hooks/use-now.ts';
-import { fieldErrorsOf } from '../../../lib/api-client.ts';
+import { useSaveErrors } from '../../../hooks/use-save-errors.ts';
+import { toggled } from '../../../lib/toggled.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { Age } from '../../../components/ui/age.tsx';
 import { useSites } from '../../gateways/api/get-gateways.ts';
@@ -15,96 +16,71 @@ import { useIssueApiToken, useRevokeApiToken } from '../api/change-integrations.
 import { useApiTokens } from '../api/get-integrations.ts';
 import { SecretOnceDialog } from '../../../components/ui/secret-once-dialog.tsx';
 
+const roleOptions = roles.map((r): SelectOption => [r, roleLabels[r]]);
+
 function IssueTokenForm({ onIssued }: { onIssued: (token: string) => void }) {
   const sites = useSites();
   const issue = useIssueApiToken();
   const [name, setName] = useState('');
   const [role, setRole] = useState<Role>('planner');
   const [siteIds, setSiteIds] = useState<number[]>([]);
-  const [errors, setErrors] = useState<Record<string, string>>({});
-  const [formError, setFormError] = useState<string | null>(null);
+  const { errors, formError, save } = useSaveErrors();
   const submit = (e: FormEvent) => {
     e.preventDefault();
-    setErrors({});
-    setFormError(null);
-    issue.mutateAsync({ name, role, siteIds }).then(
-      (issued) => {
-        onIssued(issued.token);
-        setName('');
-      },
-      (err: Error) => {
-        const fields = fieldErrorsOf(err);
-        setErrors(fields);
-        if (Object.keys(fields).length === 0) setFormError(err.message);
-      },
-    );
+    save(issue.mutateAsync({ name, role, siteIds }), (issued) => {
+      onIssued(issued.token);
+      setName('');
+    });
   };
   return (
-    <Card className="p-4">
-      <h2 className="text-sm font-semibold">New API token</h2>
-      <p className="mt-1 text-sm text-ink-muted">
-        For a maintenance-management system or script: it acts with the role and sites chosen here,
-        sent as <code className="font-mono text-[13px]">Authorization: Bearer …</code>. Signing out
-        ends no token; revoke it here.
-      </p>
-      <form
-        onSubmit={submit}
-        noValidate
-        aria-label="New API token"
-        className="mt-3 flex flex-wrap items-start gap-3"
-      >
-        <Field label="Integration" error={errors.name} className="min-w-56 flex-1">
-          {({ invalid, ...ids }) => (
-            <Input
-              {...ids}
-              invalid={invalid}
-              controlSize="sm"
-              value={name}
-              onChange={(e) => setName(e.target.value)}
-            />
-          )}
-        </Field>
-        <Field label="Role" className="w-56">
-          {({ invalid: _i, ...ids }) => (
-            <Select {...ids} value={role} onChange={(e) => setRole(e.target.value as Role)}>
-              {roles.map((r) => (
-                <option key={r} value={r}>
-                  {roleLabels[r]}
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
-        <fieldset className="flex flex-col gap-1.5 text-sm">
-          <legend className="mb-1.5 font-medium">Sites</legend>
-          <div className="flex flex-wrap gap-3">
-            {sites.data?.items.map((s) => (
-              <label key={s.id} className="flex items-center gap-1.5">
-                <input
-                  type="checkbox"
-                  checked={siteIds.includes(s.id)}
-                  onChange={(e) =>
-                    setSiteIds((ids) =>
-                      e.target.checked ? [...ids, s.id] : ids.filter((x) => x !== s.id),
-                    )
-                  }
-                />
-                {s.code}
-              </label>
-            ))}
-          </div>
-          {errors.siteIds && <span className="text-status-danger">{errors.siteIds}</span>}
-        </fieldset>
-        <Button type="submit" variant="primary" busy={issue.isPending} className="mt-6.5 h-9">
-          Issue token
-        </Button>
-      </form>
-      {formError && (
-        <p role="alert" className="mt-2 text-sm text-status-danger">
-          {formError}
-        </p>
-      )}
-    </Card>
+    <FormCard
+      title="New API token"
+      description={
+        <>
+          For a maintenance-management system or script: it acts with the role and sites chosen
+          here, sent as <code className="font-mono text-[13px]">Authorization: Bearer …</code>.
+          Signing out ends no token; revoke it here.
+        </>
+      }
+      onSubmit={submit}
+      className="mt-3 flex flex-wrap items-start gap-3"
+      error={formError}
+    >
+      <InputField
+        label="Integration"
+        error={errors.name}
+        className="min-w-56 flex-1"
+        controlSize="sm"
+        value={name}
+        onChange={(e) => setName(e.target.value)}
+      />
+      <SelectField
+        label="Role"
+        className="w-56"
+        options={roleOptions}
+        value={role}
+        onChange={(e) => setRole(e.target.value as Role)}
+      />
+      <fieldset className="flex flex-col gap-1.5 text-sm">
+        <legend className="mb-1.5 font-medium">Sites</legend>
+        <div className="flex flex-wrap gap-3">
+          {sites.data?.items.map((s) => (
+            <label key={s.id} className="flex items-center gap-1.5">
+              <input
+                type="checkbox"
+                checked={siteIds.includes(s.id)}
+                onChange={(e) => setSiteIds((ids) => toggled(ids, s.id, e.target.checked))}
+              />
+              {s.code}
+            </label>
+          ))}
+        </div>
+        {errors.siteIds && <span className="text-status-danger">{errors.siteIds}</span>}
+      </fieldset>
+      <Button type="submit" variant="primary" busy={issue.isPending} className="mt-6.5 h-9">
+        Issue token
+      </Button>
+    </FormCard>
   );
 }
 

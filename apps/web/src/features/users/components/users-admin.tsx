@@ -15,6 +15,7 @@ import {
   type SelectOption,
 } from '../../../components/ui/field.tsx';
 import { formField } from '../../../lib/form-field.ts';
+import { toggled } from '../../../lib/toggled.ts';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 import { useUsers } from '../api/get-users.ts';
@@ -43,9 +44,7 @@ function SiteChecks({
           <input
             type="checkbox"
             checked={value.includes(s.id)}
-            onChange={(e) =>
-              onChange(e.target.checked ? [...value, s.id] : value.filter((v) => v !== s.id))
-            }
+            onChange={(e) => onChange(toggled(value, s.id, e.target.checked))}
           />
           <span className="font-mono text-xs">{s.code}</span>
           <span className="text-ink-muted">{s.name}</span>
