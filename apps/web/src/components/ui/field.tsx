@@ -158,3 +158,53 @@ export function PasswordField({
     />
   );
 }
+
+/** Unit shown inside the right end of a number input. */
+function Unit({ children }: { children: ReactNode }) {
+  return (
+    <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center font-mono text-xs text-ink-faint">
+      {children}
+    </span>
+  );
+}
+
+/**
+ * A labelled number field, monospaced, with its unit inside the right end. Pass the form
+ * library's registration (`formField` gives it with the error) or `value`/`onChange`, and any
+ * further input attributes (`controlSize`, `min`, …).
+ */
+export function NumberField({
+  label,
+  unit,
+  error,
+  hint,
+  step = 'any',
+  className,
+  ...input
+}: {
+  label: ReactNode;
+  unit?: string;
+  error?: string;
+  hint?: ReactNode;
+  step?: string;
+  className?: string;
+} & Omit<ComponentProps<typeof Input>, 'invalid' | 'id' | 'aria-describedby' | 'className'>) {
+  return (
+    <Field label={label} error={error} hint={hint} className={className}>
+      {({ invalid, ...ids }) => (
+        <div className="relative">
+          <Input
+            {...ids}
+            invalid={invalid}
+            type="number"
+            inputMode="decimal"
+            step={step}
+            className={unit ? 'pr-14 font-mono' : 'font-mono'}
+            {...input}
+          />
+          {unit && <Unit>{unit}</Unit>}
+        </div>
+      )}
+    </Field>
+  );
+}

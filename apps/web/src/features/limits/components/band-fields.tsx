@@ -8,7 +8,13 @@ import {
 } from 'react-hook-form';
 import { Button } from '../../../components/ui/button.tsx';
 import { useUnits } from '../../account/api/use-units.ts';
-import { Field, Input, SelectField, type SelectOption } from '../../../components/ui/field.tsx';
+import {
+  Field,
+  Input,
+  NumberField,
+  SelectField,
+  type SelectOption,
+} from '../../../components/ui/field.tsx';
 import type { LimitsFormValues } from '../utils/band-form.ts';
 import { getSuggestion } from '../api/get-limits.ts';
 
@@ -81,19 +87,15 @@ export function BandFields({
     busy: false,
     text: null,
   });
-  // A field's registration and its error message, both found by the band value's name.
-  const number = (name: BandKey) => ({
+  // A field's registration and its error message, both found by the band value's name; the
+  // band form's number fields are compact.
+  const number = (name: BandKey, onChange?: () => void) => ({
+    controlSize: 'sm' as const,
     error: e?.[name]?.message,
-    registration: register(`bands.${index}.${name}` as const, { valueAsNumber: true }),
+    ...register(`bands.${index}.${name}` as const, { valueAsNumber: true, onChange }),
   });
   // Levels typed by hand no longer come from the source named before.
-  const level = (name: 'alertLevel' | 'dangerLevel') => ({
-    error: e?.[name]?.message,
-    registration: register(`bands.${index}.${name}` as const, {
-      valueAsNumber: true,
-      onChange: () => setValue(`bands.${index}.levelSource`, 'set by hand'),
-    }),
-  });
+  const byHand = () => setValue(`bands.${index}.levelSource`, 'set by hand');
   const choice = (name: BandKey) => ({
     error: e?.[name]?.message,
     ...register(`bands.${index}.${name}` as const),
@@ -204,8 +206,8 @@ export function BandFields({
           {...choice('unit')}
         />
         <div />
-        <NumberField label="Alert level" {...level('alertLevel')} />
-        <NumberField label="Danger level" {...level('dangerLevel')} />
+        <NumberField label="Alert level" {...number('alertLevel', byHand)} />
+        <NumberField label="Danger level" {...number('dangerLevel', byHand)} />
         <NumberField
           label="Persistence"
           hint="Exceedances in a row to raise"
@@ -276,38 +278,5 @@ export function BandFields({
         )}
       </div>
     </fieldset>
-  );
-}
-
-/** A number field of the band form: compact, monospaced, registered with the form. */
-function NumberField({
-  label,
-  error,
-  hint,
-  step = 'any',
-  min,
-  registration,
-}: {
-  label: string;
-  error: string | undefined;
-  hint?: string | undefined;
-  step?: string;
-  min?: string;
-  registration: ReturnType<UseFormRegister<LimitsFormValues>>;
-}) {
-  return (
-    <Field label={label} error={error} hint={hint}>
-      {(c) => (
-        <Input
-          {...c}
-          controlSize="sm"
-          type="number"
-          step={step}
-          min={min}
-          className="font-mono"
-          {...registration}
-        />
-      )}
-    </Field>
   );
 }

@@ -8,12 +8,17 @@ import {
 import { useState } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import { Button } from '../../../components/ui/button.tsx';
-import { InputField, SelectField, type SelectOption } from '../../../components/ui/field.tsx';
+import {
+  InputField,
+  NumberField,
+  SelectField,
+  type SelectOption,
+} from '../../../components/ui/field.tsx';
 import { formField } from '../../../lib/form-field.ts';
 import { deleteMachine, saveMachine, useSetupMutation } from '../api/save-setup.ts';
 import { applyServerErrors, asNullableNumber, asNumber } from '../utils/server-errors.ts';
 import { FormAlert } from '../../../components/ui/alert-box.tsx';
-import { FormActions, FormSection, NumberField } from './form-parts.tsx';
+import { FormActions, FormSection } from './form-parts.tsx';
 
 const FIELDS = [
   'areaId',

@@ -2,12 +2,17 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { pointInputSchema, type SetupMachine, type SetupPoint } from '@turnstone/contracts/setup';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { InputField, SelectField, type SelectOption } from '../../../components/ui/field.tsx';
+import {
+  InputField,
+  NumberField,
+  SelectField,
+  type SelectOption,
+} from '../../../components/ui/field.tsx';
 import { formField } from '../../../lib/form-field.ts';
 import { deletePoint, savePoint, useSetupMutation } from '../api/save-setup.ts';
 import { applyServerErrors, asNullableNumber, asNumber } from '../utils/server-errors.ts';
 import { FormAlert } from '../../../components/ui/alert-box.tsx';
-import { FormActions, NumberField } from './form-parts.tsx';
+import { FormActions } from './form-parts.tsx';
 
 const FIELDS = [
   'machineId',
