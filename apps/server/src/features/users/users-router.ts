@@ -10,74 +10,57 @@ import {
 } from '@turnstone/contracts/users';
 import type { AppContext } from '../../lib/context.ts';
 import { attemptLimiter, clientKey, runLimits } from '../../lib/attempt-limits.ts';
-import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import { serviceRoute, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './users-service.ts';
 import { idParam } from '../../lib/route-params.ts';
 
 /** Users admin: admin only. */
 export function userRoutes(ctx: AppContext): RouteSpec[] {
   return [
-    {
+    serviceRoute({
       method: 'get',
       path: '/users',
       access: ['admin'],
       summary: 'list users',
       schemas: { response: userListSchema },
-      handler: async (_req, res) => res.json(await service.listUsers(ctx.db)),
-    },
-    {
+      run: () => service.listUsers(ctx.db),
+    }),
+    serviceRoute({
       method: 'post',
       path: '/users/invite',
       access: ['admin'],
       summary: 'invite a user',
       schemas: { body: inviteUserSchema, response: userSummarySchema, status: 201 },
-      handler: async (req, res) => {
-        const body = inviteUserSchema.parse(req.body);
-        res
-          .status(201)
-          .json(userSummarySchema.parse(await service.inviteUser(ctx, requireUser(req), body)));
-      },
-    },
-    {
+      run: async ({ user, body }) =>
+        userSummarySchema.parse(await service.inviteUser(ctx, user, body)),
+    }),
+    serviceRoute({
       method: 'patch',
       path: '/users/:id',
       access: ['admin'],
       summary: 'change a user',
       schemas: { params: idParam, body: updateUserSchema, response: userSummarySchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        const body = updateUserSchema.parse(req.body);
-        res.json(
-          userSummarySchema.parse(await service.updateUser(ctx, requireUser(req), id, body)),
-        );
-      },
-    },
-    {
+      run: async ({ user, params, body }) =>
+        userSummarySchema.parse(await service.updateUser(ctx, user, params.id, body)),
+    }),
+    serviceRoute({
       method: 'post',
       path: '/users/:id/disable',
       access: ['admin'],
       summary: 'disable a user',
       schemas: { params: idParam, response: userSummarySchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        res.json(
-          userSummarySchema.parse(await service.setDisabled(ctx, requireUser(req), id, true)),
-        );
-      },
-    },
-    {
+      run: async ({ user, params }) =>
+        userSummarySchema.parse(await service.setDisabled(ctx, user, params.id, true)),
+    }),
+    serviceRoute({
       method: 'post',
       path: '/users/:id/enable',
       access: ['admin'],
       summary: 'enable a user',
       schemas: { params: idParam, response: userSummarySchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        res.json(
-          userSummarySchema.parse(await service.setDisabled(ctx, requireUser(req), id, false)),
-        );
-      },
-    },
+      run: async ({ user, params }) =>
+        userSummarySchema.parse(await service.setDisabled(ctx, user, params.id, false)),
+    }),
   ];
 }
 
