@@ -13,6 +13,7 @@ import { notFound } from '../../lib/app-error.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { writeAudit } from '../audit/audit-repository.ts';
 import { forgetPointTags } from '../ingest/ingest-service.ts';
+import { pointWithPlace } from '../places/places-repository.ts';
 import * as repo from './setup-repository.ts';
 
 import { conflict, invalid, keepData, siteForbidden } from './setup-service.ts';
@@ -77,7 +78,7 @@ export async function createPoint(db: Db, user: SessionUser, input: PointInput) 
 }
 
 export async function updatePoint(db: Db, user: SessionUser, id: number, input: PointInput) {
-  const row = await repo.pointById(db, id);
+  const row = await pointWithPlace(db, id);
   if (!row) throw notFound('Point');
   if (!canSeeSite(user, row.siteId)) throw siteForbidden();
   const siteId = await checkPointInput(db, user, input, id);
@@ -102,7 +103,7 @@ export async function updatePoint(db: Db, user: SessionUser, id: number, input: 
 }
 
 export async function deletePoint(db: Db, user: SessionUser, id: number) {
-  const row = await repo.pointById(db, id);
+  const row = await pointWithPlace(db, id);
   if (!row) throw notFound('Point');
   if (!canSeeSite(user, row.siteId)) throw siteForbidden();
   await db.transaction(async (tx) => {
