@@ -113,20 +113,27 @@ function linkLimiters(ctx: AppContext) {
 export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
   const limitResets = resetLimiters(ctx);
   const limitLinks = linkLimiters(ctx);
-  return [
-    {
-      method: 'post',
-      path: '/auth/accept-invite',
-      access: 'public',
-      summary: 'accept an invite',
-      schemas: { body: acceptInviteSchema, status: 204 },
-      handler: async (req, res) => {
-        await runLimits(limitLinks, req, res);
-        const body = acceptInviteSchema.parse(req.body);
-        await service.acceptInvite(ctx, body.token, body.password);
-        res.status(204).end();
-      },
+  /** A link's form: the link limits first, then its token and the new password. */
+  const linkRoute = (
+    path: string,
+    summary: string,
+    schema: typeof acceptInviteSchema,
+    submit: (ctx: AppContext, token: string, password: string) => Promise<void>,
+  ): RouteSpec => ({
+    method: 'post',
+    path,
+    access: 'public',
+    summary,
+    schemas: { body: schema, status: 204 },
+    handler: async (req, res) => {
+      await runLimits(limitLinks, req, res);
+      const body = schema.parse(req.body);
+      await submit(ctx, body.token, body.password);
+      res.status(204).end();
     },
+  });
+  return [
+    linkRoute('/auth/accept-invite', 'accept an invite', acceptInviteSchema, service.acceptInvite),
     {
       method: 'post',
       path: '/auth/forgot-password',
@@ -145,18 +152,11 @@ export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
         res.status(202).json(forgotPasswordResponseSchema.parse({ accepted: true }));
       },
     },
-    {
-      method: 'post',
-      path: '/auth/reset-password',
-      access: 'public',
-      summary: 'set a new password from a reset link',
-      schemas: { body: resetPasswordSchema, status: 204 },
-      handler: async (req, res) => {
-        await runLimits(limitLinks, req, res);
-        const body = resetPasswordSchema.parse(req.body);
-        await service.resetPassword(ctx, body.token, body.password);
-        res.status(204).end();
-      },
-    },
+    linkRoute(
+      '/auth/reset-password',
+      'set a new password from a reset link',
+      resetPasswordSchema,
+      service.resetPassword,
+    ),
   ];
 }
