@@ -11,12 +11,11 @@ import { points } from '@turnstone/db/schema';
 import type { PointInput } from '@turnstone/contracts/setup';
 import { notFound } from '../../lib/app-error.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
-import { writeAudit } from '../audit/audit-repository.ts';
 import { forgetPointTags } from '../ingest/ingest-service.ts';
 import { pointWithPlace } from '../places/places-repository.ts';
 import * as repo from './setup-repository.ts';
 
-import { conflict, invalid, keepData, siteForbidden } from './setup-service.ts';
+import { auditSetup, conflict, invalid, keepData, siteForbidden } from './setup-service.ts';
 
 /** Checks a point's input; answers the site of its machine, which the point takes (siteId). */
 async function checkPointInput(
@@ -60,13 +59,7 @@ export async function createPoint(db: Db, user: SessionUser, input: PointInput) 
   try {
     const created = await db.transaction(async (tx) => {
       const row = { id: await repo.insertRow(tx, points, { ...pointColumns(input), siteId }) };
-      await writeAudit(tx, {
-        actorUserId: user.id,
-        action: 'point.create',
-        entity: 'point',
-        entityId: row!.id,
-        after: input,
-      });
+      await auditSetup(tx, user, 'point.create', row!.id, { after: input });
       return { id: row!.id };
     });
     forgetPointTags();
@@ -85,11 +78,7 @@ export async function updatePoint(db: Db, user: SessionUser, id: number, input: 
   try {
     await db.transaction(async (tx) => {
       await repo.updateRow(tx, points, id, { ...pointColumns(input), siteId });
-      await writeAudit(tx, {
-        actorUserId: user.id,
-        action: 'point.update',
-        entity: 'point',
-        entityId: id,
+      await auditSetup(tx, user, 'point.update', id, {
         before: pointColumns({ ...row.point, bearingId: row.point.bearingId }),
         after: input,
       });
@@ -110,11 +99,7 @@ export async function deletePoint(db: Db, user: SessionUser, id: number) {
     await repo.lockPoints(tx, [id]);
     if ((await repo.dataCount(tx, [id])) > 0) throw keepData('point');
     await repo.deletePoints(tx, [id]);
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'point.delete',
-      entity: 'point',
-      entityId: id,
+    await auditSetup(tx, user, 'point.delete', id, {
       siteId: row.siteId,
       before: pointColumns(row.point),
     });
