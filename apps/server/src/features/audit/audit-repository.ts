@@ -76,6 +76,25 @@ async function siteOfEntity(db: Db | Tx, entity: string, id: number): Promise<nu
 }
 
 /** Writes one audit row; pass the transaction so the change and its record commit together. */
+/**
+ * An act of a signed-in user on the entity its action names (`gateway.revoke` → entity
+ * `gateway`), audited in the act's transaction.
+ */
+export const auditAction = (
+  db: Db | Tx,
+  actor: { id: number },
+  action: `${string}.${string}`,
+  entityId: string | number,
+  change: Pick<AuditEntry, 'before' | 'after' | 'reason' | 'siteId'> = {},
+) =>
+  writeAudit(db, {
+    actorUserId: actor.id,
+    action,
+    entity: action.slice(0, action.indexOf('.')),
+    entityId,
+    ...change,
+  });
+
 export async function writeAudit(db: Db | Tx, e: AuditEntry): Promise<void> {
   const numericId = Number(e.entityId);
   const siteId =

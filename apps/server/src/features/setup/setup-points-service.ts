@@ -15,7 +15,8 @@ import { forgetPointTags } from '../ingest/ingest-service.ts';
 import { pointWithPlace } from '../places/places-repository.ts';
 import * as repo from './setup-repository.ts';
 
-import { auditSetup, conflict, invalid, keepData, siteForbidden } from './setup-service.ts';
+import { conflict, invalid, keepData, siteForbidden } from './setup-service.ts';
+import { auditAction } from '../audit/audit-repository.ts';
 
 /** Checks a point's input; answers the site of its machine, which the point takes (siteId). */
 async function checkPointInput(
@@ -59,7 +60,7 @@ export async function createPoint(db: Db, user: SessionUser, input: PointInput) 
   try {
     const created = await db.transaction(async (tx) => {
       const row = { id: await repo.insertRow(tx, points, { ...pointColumns(input), siteId }) };
-      await auditSetup(tx, user, 'point.create', row!.id, { after: input });
+      await auditAction(tx, user, 'point.create', row!.id, { after: input });
       return { id: row!.id };
     });
     forgetPointTags();
@@ -78,7 +79,7 @@ export async function updatePoint(db: Db, user: SessionUser, id: number, input: 
   try {
     await db.transaction(async (tx) => {
       await repo.updateRow(tx, points, id, { ...pointColumns(input), siteId });
-      await auditSetup(tx, user, 'point.update', id, {
+      await auditAction(tx, user, 'point.update', id, {
         before: pointColumns({ ...row.point, bearingId: row.point.bearingId }),
         after: input,
       });
@@ -99,7 +100,7 @@ export async function deletePoint(db: Db, user: SessionUser, id: number) {
     await repo.lockPoints(tx, [id]);
     if ((await repo.dataCount(tx, [id])) > 0) throw keepData('point');
     await repo.deletePoints(tx, [id]);
-    await auditSetup(tx, user, 'point.delete', id, {
+    await auditAction(tx, user, 'point.delete', id, {
       siteId: row.siteId,
       before: pointColumns(row.point),
     });

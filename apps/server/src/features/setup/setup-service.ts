@@ -18,31 +18,10 @@ import type {
 } from '@turnstone/contracts/setup';
 import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
-import { writeAudit, type AuditEntry } from '../audit/audit-repository.ts';
+import { auditAction } from '../audit/audit-repository.ts';
 import { forgetPointTags } from '../ingest/ingest-service.ts';
 import { resumMachineDays, resumSiteDays } from '../analysis/band-day-sums.ts';
 import * as repo from './setup-repository.ts';
-
-type SetupEntity = 'site' | 'area' | 'machine' | 'point';
-
-/**
- * The audit row of a setup change, written in the change's transaction: the action is
- * `<entity>.<create|update|delete>` and the entity is the one it names.
- */
-export const auditSetup = (
-  tx: Tx,
-  user: SessionUser,
-  action: `${SetupEntity}.${'create' | 'update' | 'delete'}`,
-  entityId: number,
-  change: Pick<AuditEntry, 'before' | 'after' | 'siteId'>,
-) =>
-  writeAudit(tx, {
-    actorUserId: user.id,
-    action,
-    entity: action.slice(0, action.indexOf('.')),
-    entityId,
-    ...change,
-  });
 
 export const conflict = (path: string, message: string) =>
   new AppError('conflict', message, 409, [{ path, message }]);
@@ -115,7 +94,7 @@ export async function createSite(db: Db, user: SessionUser, input: SiteInput) {
   try {
     return await db.transaction(async (tx) => {
       const row = { id: await repo.insertRow(tx, sites, input) };
-      await auditSetup(tx, user, 'site.create', row!.id, { after: input });
+      await auditAction(tx, user, 'site.create', row!.id, { after: input });
       return { id: row!.id, ...input };
     });
   } catch (err) {
@@ -135,7 +114,7 @@ export async function updateSite(db: Db, user: SessionUser, id: number, input: S
     // Band values are summed by the site's local day: a new zone moves the days.
     if (input.timeZone !== undefined && input.timeZone !== before.timeZone)
       await resumSiteDays(tx, id, input.timeZone);
-    await auditSetup(tx, user, 'site.update', id, {
+    await auditAction(tx, user, 'site.update', id, {
       before: { name: before.name, code: before.code, timeZone: before.timeZone },
       after: input,
     });
@@ -150,7 +129,7 @@ export async function createArea(db: Db, user: SessionUser, input: AreaInput) {
     throw conflict('name', `This site already has an area named "${input.name}".`);
   return db.transaction(async (tx) => {
     const row = { id: await repo.insertRow(tx, areas, input) };
-    await auditSetup(tx, user, 'area.create', row!.id, { after: input });
+    await auditAction(tx, user, 'area.create', row!.id, { after: input });
     return { id: row!.id, ...input };
   });
 }
@@ -162,7 +141,7 @@ export async function updateArea(db: Db, user: SessionUser, id: number, input: {
     throw conflict('name', `This site already has an area named "${input.name}".`);
   await db.transaction(async (tx) => {
     await repo.updateRow(tx, areas, id, { name: input.name });
-    await auditSetup(tx, user, 'area.update', id, {
+    await auditAction(tx, user, 'area.update', id, {
       before: { name: before.name },
       after: { name: input.name },
     });
@@ -260,7 +239,7 @@ export async function createMachine(db: Db, user: SessionUser, input: MachineInp
   const id = await db.transaction(async (tx) => {
     const row = { id: await repo.insertRow(tx, machines, machineColumns(input)) };
     await replaceComponents(tx, row!.id, input);
-    await auditSetup(tx, user, 'machine.create', row!.id, { after: input });
+    await auditAction(tx, user, 'machine.create', row!.id, { after: input });
     return row!.id;
   });
   return { id };
@@ -301,7 +280,7 @@ export async function updateMachine(db: Db, user: SessionUser, id: number, input
       if (to) await resumMachineDays(tx, id, to.timeZone);
     }
     const old = await replaceComponents(tx, id, input);
-    await auditSetup(tx, user, 'machine.update', id, {
+    await auditAction(tx, user, 'machine.update', id, {
       before: { ...before, ...old.before },
       after: input,
     });
@@ -339,7 +318,7 @@ export async function deleteMachine(db: Db, user: SessionUser, id: number) {
       pts.map((p) => p.id),
     );
     await repo.deleteRow(tx, machines, id);
-    await auditSetup(tx, user, 'machine.delete', id, {
+    await auditAction(tx, user, 'machine.delete', id, {
       siteId: found.siteId,
       before: { ...before, points: pts.map((p) => p.tag) },
     });
