@@ -56,26 +56,48 @@ export const machineData: Prefetch = async (params) => {
   return queryClient.prefetchQuery(getMachineQueryOptions(id));
 };
 
-/** The point, its snapshots, and (once the point names its bands) the trend it opens on. */
-export const pointData: Prefetch = async (params) => {
+/**
+ * The point, its snapshots, its quality notices and the trend it opens on, all at once: the
+ * trend is asked for on overall velocity, the band a point opens on when it has it (every
+ * measured point of the built-in templates does), so it need not wait for the point to name
+ * its bands; a point on another band gets that one once its bands are known. Then, with the
+ * point and its snapshots here, its machine (the trend's series picker) and the spectrum its
+ * spectrum view opens on.
+ */
+export const pointData: Prefetch = async (params, url) => {
   const id = idOf(params.pointId);
   if (!id) return;
-  const [points, analyses, trends] = await Promise.all([
+  const [points, analyses, trends, notices, machines, opening] = await Promise.all([
     import('../features/points/api/get-point.ts'),
     import('../features/points/api/get-analyses.ts'),
     import('../features/trends/api/get-trend.ts'),
+    import('../features/points/api/get-quality-notices.ts'),
+    import('../features/machines/api/get-machine.ts'),
+    import('../features/points/lib/spectrum-opening.ts'),
   ]);
-  const analysesDone = queryClient.prefetchQuery(
+  const anchor = trends.trendAnchor();
+  const trendOn = (band: string) =>
+    queryClient.prefetchQuery(
+      trends.getTrendQueryOptions(trends.trendParams(id, band, trends.DEFAULT_TREND_DAYS, anchor)),
+    );
+  const guessed = trends.defaultTrendBand([]);
+  const list = queryClient.ensureQueryData(
     analyses.getAnalysesQueryOptions({ pointId: id, limit: analyses.POINT_PAGE_ANALYSES }),
   );
+  const started = [
+    trendOn(guessed),
+    queryClient.prefetchQuery(notices.getQualityNoticesQueryOptions(id)),
+  ];
   const point = await queryClient.ensureQueryData(points.getPointQueryOptions(id));
   const band = trends.defaultTrendBand(point.bands);
+  const me = queryClient.getQueryData(getMeQueryOptions().queryKey);
+  const openBand = point.bands.find((b) => b.key === url.searchParams.get('band')) ?? null;
   return Promise.all([
-    analysesDone,
-    queryClient.prefetchQuery(
-      trends.getTrendQueryOptions(
-        trends.trendParams(id, band, trends.DEFAULT_TREND_DAYS, trends.trendAnchor()),
-      ),
+    ...started,
+    band === guessed || point.bands.length === 0 ? undefined : trendOn(band),
+    queryClient.prefetchQuery(machines.getMachineQueryOptions(point.machine.id)),
+    list.then((l) =>
+      opening.prefetchOpeningSpectrum(queryClient, l.items, openBand, me?.id ?? null),
     ),
   ]);
 };
