@@ -3,11 +3,11 @@
  * the session inside it as JSON, the first screen's code and data preloaded, never cached,
  * and still under the strict Content-Security-Policy.
  */
-import { existsSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ensureWebBuilt, webDist } from '../../apps/server/src/lib/web-build.ts';
-import { jsonForHtml } from '../../apps/server/src/lib/index-page.ts';
+import { jsonForHtml, screenModules } from '../../apps/server/src/lib/index-page.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 
 let srv: TestServer;
@@ -61,6 +61,7 @@ describe('the page', () => {
     expect(preloads(html, 'preload')).toEqual([
       '/api/v1/points/1',
       '/api/v1/points/1/analyses?limit=200',
+      '/api/v1/quality-notices?pointId=1&limit=10',
     ]);
     const scripts = preloads(html, 'modulepreload');
     // The point page's own chunk is among them (its name is the route module's).
@@ -97,6 +98,13 @@ describe('the page', () => {
     // The page's own scripts plus the one data block: no element was ended early.
     const plain = (await (await srv.call('GET', '/review')).text()).split('</script>').length - 1;
     expect(block.scriptEnds).toBe(plain);
+  });
+
+  it('every module the screens preload is still in the build (a moved file would go unnoticed)', () => {
+    const map = JSON.parse(readFileSync(join(webDist, '.vite/modules.json'), 'utf8')) as {
+      modules: Record<string, string>;
+    };
+    for (const m of screenModules()) expect(map.modules[m], m).toBeTruthy();
   });
 
   it('jsonForHtml leaves no character that HTML parsing inside an element reacts to', () => {

@@ -89,11 +89,22 @@ const SCREENS: Screen[] = [
       api('points', 'get-point'),
       api('points', 'get-analyses'),
       api('trends', 'get-trend'),
+      api('points', 'get-quality-notices'),
+      api('machines', 'get-machine'),
+      'apps/web/src/features/points/lib/spectrum-opening.ts',
     ],
-    // get-analyses.ts: POINT_PAGE_ANALYSES
-    data: (m) => [`/api/v1/points/${m[1]}`, `/api/v1/points/${m[1]}/analyses?limit=200`],
+    // get-analyses.ts (POINT_PAGE_ANALYSES) and get-quality-notices.ts ask these; the trend's
+    // address depends on the browser's clock, so it is left to the page.
+    data: (m) => [
+      `/api/v1/points/${m[1]}`,
+      `/api/v1/points/${m[1]}/analyses?limit=200`,
+      `/api/v1/quality-notices?pointId=${m[1]}&limit=10`,
+    ],
   },
 ];
+
+/** Every source module the screens name (a test checks the build still has each). */
+export const screenModules = (): string[] => [...new Set(SCREENS.flatMap((s) => s.modules))];
 
 /** What a direct load of this address needs first: its modules, and its data for `role`. */
 export function firstScreen(
