@@ -3,7 +3,7 @@
  * the session inside it as JSON, the first screen's code and data preloaded, never cached,
  * and still under the strict Content-Security-Policy.
  */
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ensureWebBuilt, webDist } from '../../apps/server/src/lib/web-build.ts';
@@ -105,6 +105,16 @@ describe('the page', () => {
       modules: Record<string, string>;
     };
     for (const m of screenModules()) expect(map.modules[m], m).toBeTruthy();
+  });
+
+  it('the build made from inside the test runner (NODE_ENV=test) is the production build', () => {
+    // React's development build prints this hint (from memory); the production build has none.
+    const scripts = readdirSync(join(webDist, 'assets')).filter((f) => f.endsWith('.js'));
+    expect(scripts.length).toBeGreaterThan(0);
+    for (const f of scripts)
+      expect(readFileSync(join(webDist, 'assets', f), 'utf8'), f).not.toContain(
+        'Download the React DevTools',
+      );
   });
 
   it('jsonForHtml leaves no character that HTML parsing inside an element reacts to', () => {

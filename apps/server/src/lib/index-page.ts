@@ -6,7 +6,8 @@
  * `<link rel=preload as=fetch>` of its first API request. So the code, the session and the
  * data of a direct load start with the HTML instead of after the main script has run.
  *
- * The page is personal: it is sent with `Cache-Control: no-store`. A JSON data block is not
+ * The page is personal: it is sent with `Cache-Control: no-store`. Its head is sent before
+ * the session is looked up, so the shell's scripts load meanwhile. A JSON data block is not
  * a script to the browser (the CSP's script-src does not apply to it); it is escaped so that
  * no value can end the element (`</script>`) or open a comment.
  */
@@ -185,10 +186,16 @@ export function indexPage(dist: string, options: IndexPageOptions): RequestHandl
     } catch (err) {
       return next(err);
     }
-    const send = (head: string) => {
-      res.setHeader('Cache-Control', 'no-store');
-      res.type('html').send(page.html.replace('</head>', `${head}</head>`));
-    };
+    // The head (the shell's scripts and styles) goes at once; the session and the screen's
+    // preloads follow in the body when the session is known (modulepreload and preload are
+    // allowed there). The app's module script runs only once the document is parsed.
+    const body = page.html.indexOf('<body>');
+    const cut = body < 0 ? 0 : body + '<body>'.length;
+    res.setHeader('Cache-Control', 'no-store');
+    res.type('html');
+    res.write(page.html.slice(0, cut));
+    (res as { flush?: () => void }).flush?.();
+    const send = (tags: string) => res.end(`\n${tags}${page.html.slice(cut)}`);
     options.session(req).then(
       (session) => {
         const tags = [
