@@ -6,11 +6,16 @@
  * and the page keeps showing its own loading and error states.
  *
  * Each prefetch imports its feature's API module on demand, so the zod schemas of every
- * feature stay out of the first download.
+ * feature stay out of the first download; a query module that loads its schema beside its
+ * request (no zod in it) is imported here directly, so its request starts at once.
  */
 import type { LoaderFunctionArgs, Params } from 'react-router-dom';
 import { getMeQueryOptions } from '../features/auth/api/get-me.ts';
 import { getFleetQueryOptions } from '../features/fleet/api/get-fleet.ts';
+import {
+  getLimitHistoryQueryOptions,
+  getLimitsQueryOptions,
+} from '../features/limits/api/get-limit-set.ts';
 import { queryClient } from '../lib/query-client.ts';
 
 type Prefetch = (params: Params, url: URL) => Promise<unknown>;
@@ -102,18 +107,30 @@ export const pointData: Prefetch = async (params, url) => {
   ]);
 };
 
-export const limitsData: Prefetch = async (_params, url) => {
+/** The point's limit set, and its history (listed under the editor). */
+export const limitsData: Prefetch = (_params, url) => {
   const id = idOf(url.searchParams.get('point') ?? undefined);
-  if (!id) return;
-  const { getLimitsQueryOptions } = await import('../features/limits/api/get-limits.ts');
-  return queryClient.prefetchQuery(getLimitsQueryOptions(id));
+  if (!id) return Promise.resolve();
+  return Promise.all([
+    queryClient.prefetchQuery(getLimitsQueryOptions(id)),
+    queryClient.prefetchQuery(getLimitHistoryQueryOptions(id)),
+  ]);
 };
 
+/** The review, the sites of its picker and the findings listed above its tables. */
 export const reviewData: Prefetch = async (_params, url) => {
-  const m = await import('../features/review/api/get-review.ts');
-  return queryClient.prefetchQuery(
-    m.getReviewQueryOptions(m.reviewParamsFromSearch(url.searchParams)),
-  );
+  const [m, sites, findings] = await Promise.all([
+    import('../features/review/api/get-review.ts'),
+    import('../features/review/api/get-sites.ts'),
+    import('../features/findings/api/get-findings.ts'),
+  ]);
+  const params = m.reviewParamsFromSearch(url.searchParams);
+  return Promise.all([
+    queryClient.prefetchQuery(m.getReviewQueryOptions(params)),
+    queryClient.prefetchQuery(sites.getSitesQueryOptions()),
+    // As the findings list opens: active ones (no state asked), of the review's site.
+    queryClient.prefetchQuery(findings.getFindingsQueryOptions({ siteId: params.siteId })),
+  ]);
 };
 
 export const usersData: Prefetch = async () => {

@@ -223,9 +223,11 @@ export interface TimeSpan {
 }
 
 /**
- * The first analysis (by taken_at, then id) of each span that has one: one bounded index
- * seek per span on (point_id, taken_at), the bounds being constants, in statements of at
- * most 100 spans.
+ * The first analysis (by taken_at, then id) of each span that has one: the span's earliest
+ * time by one index seek on (point_id, taken_at) with constant bounds (MIN reads one entry;
+ * an ORDER BY taken_at, id over a partitioned table sorts every row of the span, which for
+ * an open span after a limit change is the rest of the point's history), then the lowest id
+ * at that time. Statements of at most 100 spans.
  */
 export async function firstAnalysesFrom(db: Db, spans: TimeSpan[]): Promise<number[]> {
   const out: number[] = [];
@@ -233,9 +235,11 @@ export async function firstAnalysesFrom(db: Db, spans: TimeSpan[]): Promise<numb
     const parts = spans.slice(i, i + 100).map(
       (b) =>
         sql`(SELECT id FROM analyses
-              WHERE point_id = ${b.pointId} AND taken_at >= ${b.from}
-                ${b.to ? sql`AND taken_at < ${b.to}` : sql``}
-              ORDER BY taken_at, id LIMIT 1)`,
+              WHERE point_id = ${b.pointId}
+                AND taken_at = (SELECT MIN(taken_at) FROM analyses
+                                 WHERE point_id = ${b.pointId} AND taken_at >= ${b.from}
+                                   ${b.to ? sql`AND taken_at < ${b.to}` : sql``})
+              ORDER BY id LIMIT 1)`,
     );
     const rows = await rowsOf(db, sql.join(parts, sql` UNION ALL `));
     for (const r of rows) out.push(Number(r.id));
