@@ -48,13 +48,23 @@ const SCREENS: Screen[] = [
   { path: /^\/alerts$/, modules: [page('alerts'), api('alerts', 'get-alerts')] },
   {
     path: /^\/limits$/,
-    modules: [page('limits'), api('limits', 'get-limits')],
+    modules: [page('limits'), 'packages/contracts/src/limits.ts'],
     data: (_m, q) => {
       const id = q.get('point');
-      return id && /^[1-9]\d{0,9}$/.test(id) ? [`/api/v1/points/${id}/limits`] : [];
+      return id && /^[1-9]\d{0,9}$/.test(id)
+        ? [`/api/v1/points/${id}/limits`, `/api/v1/points/${id}/limits/history`]
+        : [];
     },
   },
-  { path: /^\/review$/, modules: [page('review'), api('review', 'get-review')] },
+  {
+    path: /^\/review$/,
+    modules: [
+      page('review'),
+      api('review', 'get-review'),
+      api('review', 'get-sites'),
+      api('findings', 'get-findings'),
+    ],
+  },
   {
     path: /^\/setup$/,
     modules: [page('setup'), api('setup', 'get-setup')],
