@@ -15,6 +15,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { accessiblePoint } from '../places/point-access.ts';
 import { type SessionUser } from '../../lib/session-user.ts';
 import { loadLimitSet } from '../limits/limit-set-repository.ts';
+import { limitChangesIn } from '../limits/limits-repository.ts';
 
 import * as repo from './points-repository.ts';
 import * as eventsRepo from './trend-events-repository.ts';
@@ -96,7 +97,7 @@ export async function trend(
     repo.alertEventsOf(ctx.db, pointId, q.band, from, to),
     repo.findingsOf(ctx.db, pointId, q.band, from, to),
     repo.bandStatesOf(ctx.db, pointId),
-    eventsRepo.limitChangesOf(ctx.db, pointId, from, to),
+    limitChangesIn(ctx.db, pointId, from, to, eventsRepo.TREND_EVENT_CAP),
     eventsRepo.uploadsOf(ctx.db, pointId, q.band, from, to),
   ]);
   const settled = <T>(r: PromiseSettledResult<T>): T => {

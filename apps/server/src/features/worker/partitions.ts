@@ -26,7 +26,7 @@ import {
   type PartitionedTable,
 } from './partitions-repository.ts';
 import { forgetDroppedDays } from '../analysis/band-day-sums.ts';
-import { keptCaptureIn } from './retention-repository.ts';
+import { firstCapturesAfterLimitChanges, keptCaptureIn } from './retention-repository.ts';
 
 /** When the worker adds partitions ahead (node-cron, server time). */
 export const PARTITIONS_CRON = '30 2 * * *';
@@ -86,6 +86,7 @@ export async function dropExpiredPartitions(
   const present = new Map<PartitionedTable, Set<string>>();
   for (const table of PARTITIONED_TABLES)
     present.set(table, new Set((await partitionsOf(db, table)).map((q) => q.name)));
+  const afterLimits = (await firstCapturesAfterLimitChanges(db, horizon)).map((r) => r.takenAt);
   const dropped: string[] = [];
   let from: Date | null = null;
   for (const p of parts) {
@@ -93,7 +94,7 @@ export async function dropExpiredPartitions(
     const to = new Date(`${p.lessThan}T00:00:00Z`);
     if (to > horizon) break;
     const begun = PARTITIONED_TABLES.some((t) => !present.get(t)!.has(p.name));
-    if (begun || !(await keptCaptureIn(db, from, to, keepWindowMinutes))) {
+    if (begun || !(await keptCaptureIn(db, from, to, keepWindowMinutes, afterLimits))) {
       await dropMonth(db, p.name, from, to, present);
       dropped.push(p.name);
     }
