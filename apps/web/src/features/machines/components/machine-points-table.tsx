@@ -1,4 +1,6 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
+import { cn } from '../../../lib/cn.ts';
 import type { MachineDetail } from '@turnstone/contracts/points';
 import { Sparkline } from '../../../components/charts/sparkline.tsx';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
@@ -24,6 +26,24 @@ const num = (v: number | undefined | null, unit: string, digits = 3) =>
 
 /** Columns a tablet (below 1024 px) leaves out; the point page has them all. */
 const wide = 'hidden lg:table-cell';
+
+/** An overall value's cell, with the frequency band it was measured over below it. */
+function OverallCell({
+  band,
+  className,
+  children,
+}: {
+  band: Parameters<typeof formatBandHz>[0] | undefined;
+  className?: string;
+  children: ReactNode;
+}) {
+  return (
+    <td className={cn(className, 'px-3 py-2 text-right font-mono text-[13px]')}>
+      {children}
+      {band ? <div className="font-sans text-xs text-ink-faint">{formatBandHz(band)}</div> : null}
+    </td>
+  );
+}
 
 /**
  * The machine's points with their latest overall values, ISO zone (with its range for the
@@ -70,30 +90,15 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
                 <td className="px-3 py-2">
                   <StatusMark status={p.status} />
                 </td>
-                <td className="px-3 py-2 text-right font-mono text-[13px]">
+                <OverallCell band={l?.overall.velocityBandHz}>
                   {num(shown(l?.overall.velocityRmsMmS, 'mm/s'), units.unit('mm/s'))}
-                  {l ? (
-                    <div className="font-sans text-xs text-ink-faint">
-                      {formatBandHz(l.overall.velocityBandHz)}
-                    </div>
-                  ) : null}
-                </td>
-                <td className="px-3 py-2 text-right font-mono text-[13px]">
+                </OverallCell>
+                <OverallCell band={l?.overall.accelBandHz}>
                   {num(l?.overall.accelRmsG, 'g')}
-                  {l ? (
-                    <div className="font-sans text-xs text-ink-faint">
-                      {formatBandHz(l.overall.accelBandHz)}
-                    </div>
-                  ) : null}
-                </td>
-                <td className={`${wide} px-3 py-2 text-right font-mono text-[13px]`}>
+                </OverallCell>
+                <OverallCell band={l?.overall.velocityBandHz} className={wide}>
                   {num(shown(l?.overall.displacementPkPkUm, 'um'), units.unit('um'))}
-                  {l ? (
-                    <div className="font-sans text-xs text-ink-faint">
-                      {formatBandHz(l.overall.velocityBandHz)}
-                    </div>
-                  ) : null}
-                </td>
+                </OverallCell>
                 <td className="px-3 py-2 text-[13px]">
                   {l?.isoZone ? `Zone ${l.isoZone}` : '—'}
                   {l?.isoZone && machine.isoBoundaries ? (
