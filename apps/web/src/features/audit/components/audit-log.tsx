@@ -7,6 +7,7 @@ import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Field, Input, InputField, SelectField } from '../../../components/ui/field.tsx';
 import { TableHead } from '../../../components/ui/table-head.tsx';
+import { bindValue } from '../../../lib/bind-value.ts';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { addDays, dayStart } from '@turnstone/contracts/dates';
 import { displayTimeZone, formatDateTime } from '../../../lib/format.ts';
@@ -82,14 +83,6 @@ function ChangeCell({ entry }: { entry: AuditEntry }) {
   );
 }
 
-/** A filter control's value and its change handler, kept in a string state. */
-function bind(value: string, set: (v: string) => void) {
-  return {
-    value,
-    onChange: (e: { target: { value: string } }) => set(e.target.value),
-  };
-}
-
 export function AuditLog() {
   // Other screens link here with ?entity=&entityId= (paths.app.audit.getHref).
   const [searchParams] = useSearchParams();
@@ -146,12 +139,12 @@ export function AuditLog() {
           className="grid grid-cols-2 items-end gap-3 md:grid-cols-4 xl:grid-cols-7"
           onSubmit={(e) => e.preventDefault()}
         >
-          <SelectField label="Entity" options={ENTITIES} {...bind(entity, setEntity)} />
+          <SelectField label="Entity" options={ENTITIES} {...bindValue(entity, setEntity)} />
           <InputField
             label="Entity id"
             controlSize="sm"
             inputClassName="font-mono"
-            {...bind(entityId, setEntityId)}
+            {...bindValue(entityId, setEntityId)}
           />
           <Field label="Action">
             {(ids) => (
@@ -161,17 +154,22 @@ export function AuditLog() {
                 controlSize="sm"
                 className="font-mono"
                 placeholder="gateway."
-                {...bind(action, setAction)}
+                {...bindValue(action, setAction)}
               />
             )}
           </Field>
           <SelectField
             label="Who"
             options={[['', 'Anyone'], ...actors]}
-            {...bind(actor, setActor)}
+            {...bindValue(actor, setActor)}
           />
-          <InputField label="From" type="date" controlSize="sm" {...bind(fromDate, setFromDate)} />
-          <InputField label="To" type="date" controlSize="sm" {...bind(toDate, setToDate)} />
+          <InputField
+            label="From"
+            type="date"
+            controlSize="sm"
+            {...bindValue(fromDate, setFromDate)}
+          />
+          <InputField label="To" type="date" controlSize="sm" {...bindValue(toDate, setToDate)} />
           <Button size="sm" variant="ghost" className="h-9" onClick={clear}>
             Clear filters
           </Button>

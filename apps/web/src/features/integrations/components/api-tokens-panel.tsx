@@ -8,6 +8,7 @@ import { ConfirmDialog } from '../../../components/ui/confirm-dialog.tsx';
 import { QueryTable } from '../../../components/ui/query-table.tsx';
 import { useNow } from '../../../hooks/use-now.ts';
 import { useSaveErrors } from '../../../hooks/use-save-errors.ts';
+import { bindValue } from '../../../lib/bind-value.ts';
 import { toggled } from '../../../lib/toggled.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { Age } from '../../../components/ui/age.tsx';
@@ -51,8 +52,7 @@ function IssueTokenForm({ onIssued }: { onIssued: (token: string) => void }) {
         error={errors.name}
         className="min-w-56 flex-1"
         controlSize="sm"
-        value={name}
-        onChange={(e) => setName(e.target.value)}
+        {...bindValue(name, setName)}
       />
       <SelectField
         label="Role"

@@ -4,6 +4,7 @@ import { Button } from '../../../components/ui/button.tsx';
 import { FormCard } from '../../../components/ui/form-card.tsx';
 import { InputField } from '../../../components/ui/field.tsx';
 import { useSaveErrors } from '../../../hooks/use-save-errors.ts';
+import { bindValue } from '../../../lib/bind-value.ts';
 import { toggled } from '../../../lib/toggled.ts';
 import {
   useCreateWebhook,
@@ -42,8 +43,7 @@ function AddWebhookForm({ onAdded }: { onAdded: (secret: string) => void }) {
           error={errors.name}
           className="w-56"
           controlSize="sm"
-          value={name}
-          onChange={(e) => setName(e.target.value)}
+          {...bindValue(name, setName)}
         />
         <InputField
           label="URL"
@@ -52,8 +52,7 @@ function AddWebhookForm({ onAdded }: { onAdded: (secret: string) => void }) {
           controlSize="sm"
           type="url"
           placeholder="https://cmms.example.org/hooks/turnstone"
-          value={url}
-          onChange={(e) => setUrl(e.target.value)}
+          {...bindValue(url, setUrl)}
         />
       </div>
       <fieldset className="text-sm">
