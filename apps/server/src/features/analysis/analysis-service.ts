@@ -16,7 +16,7 @@ import {
 } from '../queue/queue-repository.ts';
 import * as repo from './analysis-repository.ts';
 import * as limitSets from '../limits/limit-set-repository.ts';
-import { storedSummaryOf } from '../points/stored-summary.ts';
+import { storedAnalysisOf, type StoredSummary } from '../points/stored-summary.ts';
 import { diagnosisOf } from './diagnosis-step.ts';
 import { machineComponentsOf } from '../points/machine-components.ts';
 import { combineBandValues, toDspBands } from './band-mapping.ts';
@@ -69,8 +69,10 @@ export interface PreparedAnalysis {
   pc: repo.PointContext;
   limitSet: limitSets.StoredLimitSet;
   analysis: SnapshotAnalysis;
-  /** The analysis's spectra in their stored form (one compact BLOB). */
+  /** The analysis's spectra in their stored form (one compact BLOB, with their detail). */
   spectra: Buffer;
+  /** The summary kept for ever (stored-summary.ts). */
+  summary: StoredSummary;
   values: Record<string, number | null>;
   zone: 'A' | 'B' | 'C' | 'D' | null;
 }
@@ -143,6 +145,7 @@ function prepareOne(
   );
   let analysis: SnapshotAnalysis;
   let spectra: Buffer;
+  let summary: StoredSummary;
   try {
     analysis = analyzeSnapshot({
       samples,
@@ -163,12 +166,17 @@ function prepareOne(
     });
     // Encoded here, outside the batch's transaction: a spectrum the code cannot hold (a
     // NaN line) fails its own job, not the batch.
-    spectra = encodeSpectra({
-      acceleration: analysis.spectra.acceleration.values,
-      velocity: analysis.spectra.velocity.values,
-      envelope: analysis.spectra.envelope?.values,
-      order: analysis.spectra.order?.values,
-    });
+    const stored = storedAnalysisOf(analysis);
+    summary = stored.summary;
+    spectra = encodeSpectra(
+      {
+        acceleration: analysis.spectra.acceleration.values,
+        velocity: analysis.spectra.velocity.values,
+        envelope: analysis.spectra.envelope?.values,
+        order: analysis.spectra.order?.values,
+      },
+      stored.detail,
+    );
   } catch (err) {
     if (err instanceof RangeError || err instanceof TypeError)
       throw new PermanentJobError(`analysis refused the snapshot: ${err.message}`);
@@ -179,7 +187,7 @@ function prepareOne(
   const zone = Number.isFinite(analysis.overall.velocityRmsMmS)
     ? isoZone(analysis.overall.velocityRmsMmS, group, pc.machine.foundation)
     : null;
-  return { job, snap, pc, limitSet, analysis, spectra, values, zone };
+  return { job, snap, pc, limitSet, analysis, spectra, summary, values, zone };
 }
 
 /**
@@ -241,7 +249,7 @@ export async function storeAnalyses(
     const ids = await repo.insertAnalyses(
       tx,
       batch.map((p) => {
-        const { snap, analysis, spectra, zone } = p;
+        const { snap, analysis, spectra, summary, zone } = p;
         return {
           snapshotId: snap.id,
           pointId: snap.pointId,
@@ -258,7 +266,7 @@ export async function storeAnalyses(
           qualityVerdict: analysis.quality.verdict,
           bitsUsed: analysis.quality.bitsUsed,
           qualityFindings: analysis.quality.findings,
-          summary: storedSummaryOf(analysis),
+          summary,
           spectra,
           diagnosis: diagnosisOf(p, condition.stateOf(snap.pointId)),
           shaftVectors: analysis.shaftVectors as unknown as Record<string, unknown>[] | null,
