@@ -11,7 +11,9 @@
  *
  * Then the tiered retention pass (apps/server/src/features/worker/retention.ts, default
  * policy) runs over the same captures at simulated ages — all in the hourly tier, then all
- * in the daily tier, then raw waveforms past RETENTION_DAYS — with OPTIMIZE TABLE before each
+ * in the daily tier, then raw waveforms past RETENTION_DAYS — each measured as thinning left
+ * it and after the nightly compaction's online rebuild (compaction.ts) — InnoDB keeps the
+ * pages thinning emptied until a rebuild; the figures are the rebuilt ones
  * measurement (InnoDB reuses freed pages but does not return them on its own), and the
  * plant-year amortised bytes per capture are worked out from the measured whole and thinned
  * row sizes for the captures' cadence. BENCH_STORAGE_COUNT (3000) captures.
@@ -30,6 +32,10 @@ import {
   thinSpectra,
 } from '../../apps/server/src/features/worker/retention.ts';
 import { loadConfig } from '../../apps/server/src/config.ts';
+import {
+  DONE_JOBS_KEEP_DAYS,
+  runCompaction,
+} from '../../apps/server/src/features/worker/compaction.ts';
 import { sql } from 'drizzle-orm';
 import { decodeSpectra } from '@turnstone/db/spectra-codec';
 import { createGatewayKey, signInCookie, startBenchServer } from './bench-support.ts';
@@ -188,8 +194,15 @@ try {
     captures /
     channels.length /
     Math.max(1, (span.last.getTime() - span.first.getTime()) / 3_600_000);
+  // As thinning left it (its total kept for the table), then after the compaction's rebuild.
+  const asThinned: number[] = [];
   const optimized = async () => {
-    await q(`OPTIMIZE TABLE ${TABLES.join(', ')}`);
+    const raw = await sizes();
+    asThinned.push(
+      TABLES.reduce((a, t) => a + (raw[t]!.dataIndex - before[t]!.dataIndex), 0) / captures,
+    );
+    await runCompaction(srv.ctx.db, policy, new Date(), { rebuild: true });
+    // The tables compaction does not rebuild (never thinned): as they are.
     return sizes();
   };
   const delta = (s: Record<string, TableSize>, t: string) =>
@@ -227,7 +240,7 @@ try {
     seconds: number;
   }[] = [];
   stages.push({
-    name: 'whole (after OPTIMIZE)',
+    name: 'whole',
     s: await optimized(),
     kept: await kept(),
     samples: await withSamples(),
@@ -294,13 +307,14 @@ try {
     `\nTiered retention over the same captures (${perHour.toFixed(1)} captures per point per hour)`,
   );
   console.log(
-    `| stage | whole spectra kept | raw waveforms kept | pass s | ${TABLES.join(' B/capture | ')} B/capture | total B/capture |`,
+    `| stage | whole spectra kept | raw waveforms kept | pass s | total B/capture as thinned, no rebuild | ${TABLES.join(' B/capture | ')} B/capture | total B/capture after rebuild |`,
   );
-  console.log(`|---|---|---|---|${TABLES.map(() => '---|').join('')}---|`);
-  for (const st of stages)
+  console.log(`|---|---|---|---|---|${TABLES.map(() => '---|').join('')}---|`);
+  stages.forEach((st, i) =>
     console.log(
-      `| ${st.name} | ${st.kept} | ${st.samples} | ${st.seconds.toFixed(2)} | ${TABLES.map((t) => delta(st.s, t).toFixed(0)).join(' | ')} | ${TABLES.reduce((a, t) => a + delta(st.s, t), 0).toFixed(0)} |`,
-    );
+      `| ${st.name} | ${st.kept} | ${st.samples} | ${st.seconds.toFixed(2)} | ${asThinned[i]!.toFixed(0)} | ${TABLES.map((t) => delta(st.s, t).toFixed(0)).join(' | ')} | ${TABLES.reduce((a, t) => a + delta(st.s, t), 0).toFixed(0)} |`,
+    ),
+  );
   // Whole and thinned analyses row bytes, solved from the whole stage and the daily stage;
   // snapshot rows with and without their raw waveform, from the whole stage and the last.
   const solve = (
@@ -338,7 +352,14 @@ try {
   const parts: [string, number][] = [
     ['analyses', thinnedRow + wholeShare * (whole - thinnedRow)],
     ['snapshots', sn.thinned + rawShare * (sn.whole - sn.thinned)],
-    ...forever.map((t) => [t, delta(stages[3]!.s, t)] as [string, number]),
+    // Done jobs are removed DONE_JOBS_KEEP_DAYS after they ran (compaction.ts).
+    ...forever.map(
+      (t) =>
+        [t, delta(stages[3]!.s, t) * (t === 'jobs' ? DONE_JOBS_KEEP_DAYS / 365 : 1)] as [
+          string,
+          number,
+        ],
+    ),
   ];
   const year = parts.reduce((a, [, b]) => a + b, 0);
   console.log(
