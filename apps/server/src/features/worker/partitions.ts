@@ -12,7 +12,8 @@
  *   before it from all three tables at once — unless a capture kept whole lives in it
  *   (retention.ts's list), in which case the month stays and is thinned like any other.
  *   The rows of other tables that pointed at its captures (jobs, uids, quality notices,
- *   pins) are deleted first, in one transaction: partitioned tables take no foreign keys.
+ *   pins) are deleted first, in one transaction: partitioned tables take no foreign keys;
+ *   so are the month's band-value hours (`band_value_hours`).
  */
 import type { Db } from '@turnstone/db/client';
 import { isDuplicatePartition } from '@turnstone/db/errors';
@@ -24,6 +25,7 @@ import {
   splitFuture,
 } from './partitions-repository.ts';
 import { keptCaptureIn } from './retention-repository.ts';
+import { deleteHoursBetween } from '../analysis/band-hours-repository.ts';
 
 /** When the worker adds partitions ahead (node-cron, server time). */
 export const PARTITIONS_CRON = '30 2 * * *';
@@ -86,10 +88,14 @@ export async function dropExpiredPartitions(
     if (to > horizon) break;
     if (!(await keptCaptureIn(db, from, to, keepWindowMinutes))) {
       await deleteDependentsOfCaptures(db, from, to);
+      // the month's band-value hours (UTC hours lie wholly in a UTC month): before the drop,
+      // and again after it for a late capture whose hour was written in between
+      await deleteHoursBetween(db, from, to);
       for (const table of PARTITIONED_TABLES) {
         const own = await partitionsOf(db, table);
         if (own.some((q) => q.name === p.name)) await dropPartition(db, table, p.name);
       }
+      await deleteHoursBetween(db, from, to);
       dropped.push(p.name);
     }
     from = to;
