@@ -87,10 +87,34 @@ export async function refreshBandHours(
   await tx.execute(hourSummary(valuesOf));
 }
 
-/** Recomputes every hour of one point (a database that had band values before the table). */
+/**
+ * Recomputes every hour of one point (a database that had band values before the table): a
+ * statement a month (one partition of band_values each, and a sort that stays small).
+ */
 export async function rebuildPointHours(tx: Db | Tx, pointId: number): Promise<void> {
   await tx.execute(sql`DELETE FROM band_value_hours WHERE point_id = ${pointId}`);
-  await tx.execute(hourSummary(sql`point_id = ${pointId}`));
+  const [span] = (await tx.execute(
+    sql`SELECT MIN(taken_at) AS lo, MAX(taken_at) AS hi FROM band_values WHERE point_id = ${pointId}`,
+  )) as unknown as [{ lo: Date | string | null; hi: Date | string | null }[]];
+  const date = (v: Date | string | null | undefined) =>
+    v === null || v === undefined
+      ? null
+      : v instanceof Date
+        ? v
+        : new Date(`${v.replace(' ', 'T')}Z`);
+  const lo = date(span[0]?.lo);
+  const hi = date(span[0]?.hi);
+  if (!lo || !hi) return;
+  for (
+    let m = new Date(Date.UTC(lo.getUTCFullYear(), lo.getUTCMonth(), 1));
+    m <= hi;
+    m = new Date(Date.UTC(m.getUTCFullYear(), m.getUTCMonth() + 1, 1))
+  ) {
+    const next = new Date(Date.UTC(m.getUTCFullYear(), m.getUTCMonth() + 1, 1));
+    await tx.execute(
+      hourSummary(sql`point_id = ${pointId} AND taken_at >= ${m} AND taken_at < ${next}`),
+    );
+  }
 }
 
 /** Locks a point's condition state, as an analysis batch does, so no batch writes meanwhile. */

@@ -51,24 +51,64 @@ export async function rawValues(
   return rows.map(row);
 }
 
-/** The band's hour summaries of the hours starting in [from, to), oldest first. */
-export async function hoursOf(
+/**
+ * The band's values in [from, to] as the projection needs them (time, value, quality), oldest
+ * first: read from band_values_point_time_idx alone (it holds all three), not row by row.
+ */
+export async function projectionValues(
   db: Db,
   pointId: number,
   bandKey: string,
   from: Date,
   to: Date,
-): Promise<HourRow[]> {
+): Promise<Omit<TrendRow, 'analysisId'>[]> {
   const [rows] = (await db.execute(sql`
-    SELECT n, min_value AS loV, ${ms('min_at')} AS loT, min_quality AS loQ,
+    SELECT ${ms('taken_at')} AS t, value, quality_verdict AS quality
+    FROM band_values FORCE INDEX (band_values_point_time_idx)
+    WHERE point_id = ${pointId} AND taken_at >= ${from} AND taken_at <= ${to}
+      AND band_key = ${bandKey}
+    ORDER BY taken_at`)) as unknown as [{ t: unknown; value: unknown; quality: Quality }[]];
+  return rows.map((r) => ({ t: Number(r.t), value: Number(r.value), quality: r.quality }));
+}
+
+/**
+ * The band's hour summaries of the hours starting in [from, to), merged per bucket of
+ * `bucketMs` from `origin` (whole hours, from a UTC hour): each bucket's count, and its
+ * lowest and highest value — the first in (time, analysis id) order among equals, as the
+ * hours hold them — oldest first. Merged in the database, so a year answers ~300 rows, not
+ * 8,760.
+ */
+export async function bucketsOfHours(
+  db: Db,
+  pointId: number,
+  bandKey: string,
+  from: Date,
+  to: Date,
+  origin: number,
+  bucketMs: number,
+): Promise<HourRow[]> {
+  const bucket = sql`(UNIX_TIMESTAMP(hour_at) * 1000 - ${origin}) DIV ${bucketMs}`;
+  const [rows] = (await db.execute(sql`
+    SELECT b, bn AS n, lo, hi, min_value AS loV, ${ms('min_at')} AS loT, min_quality AS loQ,
       min_analysis_id AS loA, max_value AS hiV, ${ms('max_at')} AS hiT, max_quality AS hiQ,
       max_analysis_id AS hiA
-    FROM band_value_hours
-    WHERE point_id = ${pointId} AND band_key = ${bandKey} AND hour_at >= ${from}
-      AND hour_at < ${to}
-    ORDER BY hour_at`)) as unknown as [
+    FROM (
+      SELECT hb.*, SUM(n) OVER (PARTITION BY b) AS bn,
+        ROW_NUMBER() OVER (PARTITION BY b ORDER BY min_value, min_at, min_analysis_id) AS lo,
+        ROW_NUMBER() OVER (PARTITION BY b ORDER BY max_value DESC, max_at, max_analysis_id) AS hi
+      FROM (SELECT ${bucket} AS b, n, min_value, min_at, min_quality, min_analysis_id,
+                   max_value, max_at, max_quality, max_analysis_id
+            FROM band_value_hours
+            WHERE point_id = ${pointId} AND band_key = ${bandKey} AND hour_at >= ${from}
+              AND hour_at < ${to}) hb
+    ) x
+    WHERE lo = 1 OR hi = 1
+    ORDER BY b`)) as unknown as [
     {
-      n: number;
+      b: unknown;
+      n: unknown;
+      lo: unknown;
+      hi: unknown;
       loV: number;
       loT: unknown;
       loQ: Quality;
@@ -79,11 +119,17 @@ export async function hoursOf(
       hiA: unknown;
     }[],
   ];
-  return rows.map((r) => ({
-    n: Number(r.n),
-    lo: row({ t: r.loT, value: r.loV, quality: r.loQ, analysisId: r.loA }),
-    hi: row({ t: r.hiT, value: r.hiV, quality: r.hiQ, analysisId: r.hiA }),
-  }));
+  const byBucket = new Map<number, { n: number; lo?: TrendRow; hi?: TrendRow }>();
+  for (const r of rows) {
+    const b = Number(r.b);
+    let o = byBucket.get(b);
+    if (!o) byBucket.set(b, (o = { n: Number(r.n) }));
+    if (Number(r.lo) === 1)
+      o.lo = row({ t: r.loT, value: r.loV, quality: r.loQ, analysisId: r.loA });
+    if (Number(r.hi) === 1)
+      o.hi = row({ t: r.hiT, value: r.hiV, quality: r.hiQ, analysisId: r.hiA });
+  }
+  return [...byBucket.values()].map((o) => ({ n: o.n, lo: o.lo!, hi: o.hi! }));
 }
 
 /**

@@ -24,7 +24,8 @@ import {
 import type { Db } from '@turnstone/db/client';
 
 import {
-  hoursOf,
+  bucketsOfHours,
+  projectionValues,
   rawValues,
   valuesAt as valuesAtOf,
   type TrendRow,
@@ -35,8 +36,11 @@ const WINDOW_MS = PROJECTION_WINDOW_DAYS * 86_400_000;
 export interface TrendValues {
   items: TrendRow[];
   decimation: Decimation | null;
-  /** The values within the projection window of the latest, newest first. */
-  recent: TrendRow[];
+  /**
+   * The values within the projection window of the latest, newest first (values of one
+   * instant by value, highest first).
+   */
+  recent: Omit<TrendRow, 'analysisId'>[];
 }
 
 /**
@@ -63,14 +67,16 @@ function indicesAt(rows: readonly TrendRow[], marks: readonly Date[]): Set<numbe
 }
 
 /** The recent values of rows oldest first: within the window of the latest, newest first. */
-function recentOf(rows: readonly TrendRow[]): TrendRow[] {
-  const out: TrendRow[] = [];
+function recentOf(rows: readonly Omit<TrendRow, 'analysisId'>[]): TrendValues['recent'] {
+  const out: TrendValues['recent'] = [];
   const latestAt = rows.length ? rows[rows.length - 1]!.t : 0;
   for (let i = rows.length - 1; i >= 0; i--) {
-    if (latestAt - rows[i]!.t > WINDOW_MS) break;
-    out.push(rows[i]!);
+    const { t, value, quality } = rows[i]!;
+    if (latestAt - t > WINDOW_MS) break;
+    out.push({ t, value, quality });
   }
-  return out;
+  // one order for values of one instant, whichever index they were read by
+  return out.sort((a, b) => b.t - a.t || b.value - a.value);
 }
 
 const asItem = (r: TrendRow) => ({ ...r, v: r.value, id: r.analysisId });
@@ -118,8 +124,8 @@ export async function trendValues(
 ): Promise<TrendValues> {
   const f = from.getTime();
   const t = to.getTime();
-  if (trendBuckets(f, t).bucketMs < HOUR_MS)
-    return trendValuesFromRaw(db, pointId, bandKey, from, to, marks);
+  const buckets = trendBuckets(f, t);
+  if (buckets.bucketMs < HOUR_MS) return trendValuesFromRaw(db, pointId, bandKey, from, to, marks);
   // whole hours [hStart, hEnd); the partial hours at either end come raw
   const hStart = new Date(Math.ceil(f / HOUR_MS) * HOUR_MS);
   const hEnd = new Date(Math.floor((t + 1) / HOUR_MS) * HOUR_MS);
@@ -129,12 +135,12 @@ export async function trendValues(
   // the projection's window: the values within its span of the latest
   const windowP = foundP.then(({ at: [last] }) =>
     last
-      ? rawValues(db, pointId, bandKey, new Date(Math.max(f, last.t - WINDOW_MS)), to, true)
+      ? projectionValues(db, pointId, bandKey, new Date(Math.max(f, last.t - WINDOW_MS)), to)
       : [],
   );
   const [head, hours, tail, window, found] = await Promise.all([
     rawValues(db, pointId, bandKey, from, hStart),
-    hoursOf(db, pointId, bandKey, hStart, hEnd),
+    bucketsOfHours(db, pointId, bandKey, hStart, hEnd, buckets.origin, buckets.bucketMs),
     rawValues(db, pointId, bandKey, hEnd, to, true),
     windowP,
     foundP,
