@@ -36,7 +36,8 @@ import { plantYearFigures } from './storage-year.ts';
 
 const COUNT = Number(process.env.BENCH_STORAGE_COUNT ?? 3000);
 const POST_BATCH = 10;
-const TABLES = ['analyses', 'snapshots', 'band_values'] as const;
+// band_value_hours: the trend's hour summaries, kept per capture beside its band values
+const TABLES = ['analyses', 'snapshots', 'band_values', 'band_value_hours'] as const;
 
 interface TableSize {
   dataIndex: number;
@@ -266,12 +267,12 @@ try {
     `\nTiered retention over the same captures (${perHour.toFixed(1)} captures per point per hour)`,
   );
   console.log(
-    '| stage | whole spectra kept | pass s | analyses B/capture | snapshots B/capture | band_values B/capture | total B/capture |',
+    '| stage | whole spectra kept | pass s | analyses B/capture | snapshots B/capture | band_values B/capture | band_value_hours B/capture | total B/capture |',
   );
-  console.log('|---|---|---|---|---|---|---|');
+  console.log('|---|---|---|---|---|---|---|---|');
   for (const st of stages)
     console.log(
-      `| ${st.name} | ${st.kept} | ${st.seconds.toFixed(2)} | ${delta(st.s, 'analyses').toFixed(0)} | ${delta(st.s, 'snapshots').toFixed(0)} | ${delta(st.s, 'band_values').toFixed(0)} | ${TABLES.reduce((a, t) => a + delta(st.s, t), 0).toFixed(0)} |`,
+      `| ${st.name} | ${st.kept} | ${st.seconds.toFixed(2)} | ${delta(st.s, 'analyses').toFixed(0)} | ${delta(st.s, 'snapshots').toFixed(0)} | ${delta(st.s, 'band_values').toFixed(0)} | ${delta(st.s, 'band_value_hours').toFixed(0)} | ${TABLES.reduce((a, t) => a + delta(st.s, t), 0).toFixed(0)} |`,
     );
   // Whole and thinned analyses row bytes, solved from the whole stage and the daily stage.
   const whole = delta(stages[0]!.s, 'analyses');
@@ -293,7 +294,8 @@ try {
     wholeShare * (whole - thinnedRow) +
     delta(stages[3]!.s, 'snapshots') +
     (rawPart * policy.rawSamplesDays) / 365 +
-    delta(stages[3]!.s, 'band_values');
+    delta(stages[3]!.s, 'band_values') +
+    delta(stages[3]!.s, 'band_value_hours');
   console.log(
     `a pass with nothing left to thin: ${again.rows} rows, ${rescanS.toFixed(2)} s; analyses reached by ${outer?.type ?? '?'} on ${outer?.key ?? 'no index'} (~${outer?.rows ?? '?'} rows estimated)`,
   );
