@@ -28,6 +28,12 @@ import { webDist } from '../../apps/server/src/lib/web-build.ts';
 
 const RUNS = Number(process.env.PAGE_BENCH_RUNS ?? 5);
 const HOVER_MS = 150;
+// PAGE_BENCH_ONLY: a comma-separated list of screen names ("point · trend,limits") to measure
+// only those (the engineer's first screen is then not measured for its JavaScript).
+const ONLY = (process.env.PAGE_BENCH_ONLY ?? '')
+  .split(',')
+  .map((x) => x.trim())
+  .filter(Boolean);
 
 interface Target {
   /** CSS of what shows the screen's content; `chart: true` means a canvas drawn on. */
@@ -312,6 +318,7 @@ async function main() {
     let firstScreenGzip = 0;
     let firstScreenScripts = 0;
     for (const s of screens(ids)) {
+      if (ONLY.length > 0 && !ONLY.includes(s.name)) continue;
       const cookie = cookies[s.role]!;
       const colds: ColdResult[] = [];
       // One unmeasured load first: the server's and the browser's first-use costs.

@@ -6,11 +6,16 @@
  * and the page keeps showing its own loading and error states.
  *
  * Each prefetch imports its feature's API module on demand, so the zod schemas of every
- * feature stay out of the first download.
+ * feature stay out of the first download; a query module that loads its schema beside its
+ * request (no zod in it) is imported here directly, so its request starts at once.
  */
 import type { LoaderFunctionArgs, Params } from 'react-router-dom';
 import { getMeQueryOptions } from '../features/auth/api/get-me.ts';
 import { getFleetQueryOptions } from '../features/fleet/api/get-fleet.ts';
+import {
+  getLimitHistoryQueryOptions,
+  getLimitsQueryOptions,
+} from '../features/limits/api/get-limit-set.ts';
 import { queryClient } from '../lib/query-client.ts';
 
 type Prefetch = (params: Params, url: URL) => Promise<unknown>;
@@ -56,42 +61,76 @@ export const machineData: Prefetch = async (params) => {
   return queryClient.prefetchQuery(getMachineQueryOptions(id));
 };
 
-/** The point, its snapshots, and (once the point names its bands) the trend it opens on. */
-export const pointData: Prefetch = async (params) => {
+/**
+ * The point, its snapshots, its quality notices and the trend it opens on, all at once: the
+ * trend is asked for on overall velocity, the band a point opens on when it has it (every
+ * measured point of the built-in templates does), so it need not wait for the point to name
+ * its bands; a point on another band gets that one once its bands are known. Then, with the
+ * point and its snapshots here, its machine (the trend's series picker) and the spectrum its
+ * spectrum view opens on.
+ */
+export const pointData: Prefetch = async (params, url) => {
   const id = idOf(params.pointId);
   if (!id) return;
-  const [points, analyses, trends] = await Promise.all([
+  const [points, analyses, trends, notices, machines, opening] = await Promise.all([
     import('../features/points/api/get-point.ts'),
     import('../features/points/api/get-analyses.ts'),
     import('../features/trends/api/get-trend.ts'),
+    import('../features/points/api/get-quality-notices.ts'),
+    import('../features/machines/api/get-machine.ts'),
+    import('../features/points/lib/spectrum-opening.ts'),
   ]);
-  const analysesDone = queryClient.prefetchQuery(
+  const anchor = trends.trendAnchor();
+  const trendOn = (band: string) =>
+    queryClient.prefetchQuery(
+      trends.getTrendQueryOptions(trends.trendParams(id, band, trends.DEFAULT_TREND_DAYS, anchor)),
+    );
+  const guessed = trends.defaultTrendBand([]);
+  const list = queryClient.ensureQueryData(
     analyses.getAnalysesQueryOptions({ pointId: id, limit: analyses.POINT_PAGE_ANALYSES }),
   );
+  const started = [
+    trendOn(guessed),
+    queryClient.prefetchQuery(notices.getQualityNoticesQueryOptions(id)),
+  ];
   const point = await queryClient.ensureQueryData(points.getPointQueryOptions(id));
   const band = trends.defaultTrendBand(point.bands);
+  const me = queryClient.getQueryData(getMeQueryOptions().queryKey);
+  const openBand = point.bands.find((b) => b.key === url.searchParams.get('band')) ?? null;
   return Promise.all([
-    analysesDone,
-    queryClient.prefetchQuery(
-      trends.getTrendQueryOptions(
-        trends.trendParams(id, band, trends.DEFAULT_TREND_DAYS, trends.trendAnchor()),
-      ),
+    ...started,
+    band === guessed || point.bands.length === 0 ? undefined : trendOn(band),
+    queryClient.prefetchQuery(machines.getMachineQueryOptions(point.machine.id)),
+    list.then((l) =>
+      opening.prefetchOpeningSpectrum(queryClient, l.items, openBand, me?.id ?? null),
     ),
   ]);
 };
 
-export const limitsData: Prefetch = async (_params, url) => {
+/** The point's limit set, and its history (listed under the editor). */
+export const limitsData: Prefetch = (_params, url) => {
   const id = idOf(url.searchParams.get('point') ?? undefined);
-  if (!id) return;
-  const { getLimitsQueryOptions } = await import('../features/limits/api/get-limits.ts');
-  return queryClient.prefetchQuery(getLimitsQueryOptions(id));
+  if (!id) return Promise.resolve();
+  return Promise.all([
+    queryClient.prefetchQuery(getLimitsQueryOptions(id)),
+    queryClient.prefetchQuery(getLimitHistoryQueryOptions(id)),
+  ]);
 };
 
+/** The review, the sites of its picker and the findings listed above its tables. */
 export const reviewData: Prefetch = async (_params, url) => {
-  const m = await import('../features/review/api/get-review.ts');
-  return queryClient.prefetchQuery(
-    m.getReviewQueryOptions(m.reviewParamsFromSearch(url.searchParams)),
-  );
+  const [m, sites, findings] = await Promise.all([
+    import('../features/review/api/get-review.ts'),
+    import('../features/review/api/get-sites.ts'),
+    import('../features/findings/api/get-findings.ts'),
+  ]);
+  const params = m.reviewParamsFromSearch(url.searchParams);
+  return Promise.all([
+    queryClient.prefetchQuery(m.getReviewQueryOptions(params)),
+    queryClient.prefetchQuery(sites.getSitesQueryOptions()),
+    // As the findings list opens: active ones (no state asked), of the review's site.
+    queryClient.prefetchQuery(findings.getFindingsQueryOptions({ siteId: params.siteId })),
+  ]);
 };
 
 export const usersData: Prefetch = async () => {

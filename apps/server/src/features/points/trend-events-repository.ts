@@ -54,10 +54,18 @@ export async function uploadsOf(db: Db, pointId: number, bandKey: string, from: 
       fileName: snapshots.fileName,
     })
     .from(snapshots)
-    .innerJoin(analyses, eq(analyses.snapshotId, snapshots.id))
+    // The partition column beside each id: every lookup reads one month's partition.
+    .innerJoin(
+      analyses,
+      and(eq(analyses.snapshotId, snapshots.id), eq(analyses.takenAt, snapshots.takenAt)),
+    )
     .innerJoin(
       bandValues,
-      and(eq(bandValues.analysisId, analyses.id), eq(bandValues.bandKey, bandKey)),
+      and(
+        eq(bandValues.analysisId, analyses.id),
+        eq(bandValues.takenAt, analyses.takenAt),
+        eq(bandValues.bandKey, bandKey),
+      ),
     )
     .leftJoin(users, eq(users.id, snapshots.uploadedBy))
     .where(

@@ -13,6 +13,11 @@ async function affected(db: Db, query: ReturnType<typeof sql>): Promise<number> 
   return result.affectedRows;
 }
 
+/** A DATETIME of a raw query (a UTC string through Drizzle's execute, or a Date). */
+function utc(v: unknown): Date {
+  return v instanceof Date ? v : new Date(`${String(v).replace(' ', 'T')}Z`);
+}
+
 export async function maxSnapshotId(db: Db): Promise<number> {
   const [top] = await rowsOf(db, sql`SELECT COALESCE(MAX(id), 0) AS maxId FROM snapshots`);
   return Number(top?.maxId ?? 0);
@@ -25,7 +30,9 @@ export async function maxAnalysisId(db: Db): Promise<number> {
 
 /**
  * Analysed snapshots in (lo, hi] received before `cutoff` that still hold samples, except
- * the captures kept whole (within ±`win` minutes of an alert event or finding, pinned…).
+ * the captures a marker keeps whole (within ±`win` minutes of an alert event or finding,
+ * pinned…), at most `limit`, ascending, with their analysis (null when it failed or was
+ * rejected): the pass leaves out the first captures after limit changes itself.
  */
 export async function rawSampleCandidates(
   db: Db,
@@ -34,10 +41,12 @@ export async function rawSampleCandidates(
   lo: number,
   hi: number,
   limit: number,
-): Promise<number[]> {
+): Promise<{ id: number; analysisId: number | null }[]> {
   const rows = await rowsOf(
     db,
-    sql`SELECT s.id FROM snapshots s LEFT JOIN analyses a ON a.snapshot_id = s.id
+    sql`SELECT s.id, a.id AS analysisId
+          FROM snapshots s
+          LEFT JOIN analyses a ON a.snapshot_id = s.id AND a.taken_at = s.taken_at
          WHERE s.id > ${lo} AND s.id <= ${hi}
            AND s.samples IS NOT NULL
            AND s.received_at < ${cutoff}
@@ -46,7 +55,10 @@ export async function rawSampleCandidates(
          ORDER BY s.id
          LIMIT ${limit}`,
   );
-  return rows.map((r) => Number(r.id));
+  return rows.map((r) => ({
+    id: Number(r.id),
+    analysisId: r.analysisId == null ? null : Number(r.analysisId),
+  }));
 }
 
 export async function clearRawSamples(db: Db, ids: number[]): Promise<number> {
@@ -59,8 +71,11 @@ export async function clearRawSamples(db: Db, ids: number[]): Promise<number> {
 
 /**
  * Captures kept whole whatever their age (retention.ts's comment lists them), as a condition
- * on `a` (analyses) and `s` (snapshots): uploads, pins, captures near an alert event or a
- * finding, an alert's peak, where captures turned suspect, the first after a limit change.
+ * on `a` (analyses) and `s` (snapshots) that each capture answers from its own markers with
+ * index seeks: uploads, pins, captures near an alert event or a finding, an alert's peak,
+ * where captures turned suspect. The first capture after a limit change is found from the
+ * side of the changes (`limitChanges`, `firstAnalysesFrom`): asked here per capture it was a
+ * scan of the point's earlier captures each time.
  */
 function protectedCapture(win: number) {
   return sql`(
@@ -82,22 +97,6 @@ function protectedCapture(win: number) {
     -- the capture where a point's captures turned suspect (unusable ones thin like any other)
     OR EXISTS (
       SELECT 1 FROM quality_notices qn WHERE qn.analysis_id = a.id AND qn.verdict = 'suspect')
-    -- the first capture after a change of the point's limits
-    OR EXISTS (
-      SELECT 1 FROM audit_log l
-       WHERE l.entity = 'point' AND l.entity_id = CAST(a.point_id AS CHAR)
-         AND l.action IN ('limits.update', 'limits.baseline') AND l.at <= a.taken_at
-         AND NOT EXISTS (
-           SELECT 1 FROM analyses c
-            WHERE c.point_id = a.point_id AND c.taken_at >= l.at
-              AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
-    OR EXISTS (
-      SELECT 1 FROM limit_sets ls
-       WHERE ls.point_id = a.point_id AND ls.updated_at <= a.taken_at
-         AND NOT EXISTS (
-           SELECT 1 FROM analyses c
-            WHERE c.point_id = a.point_id AND c.taken_at >= ls.updated_at
-              AND (c.taken_at < a.taken_at OR (c.taken_at = a.taken_at AND c.id < a.id))))
   )`;
 }
 
@@ -146,31 +145,27 @@ export async function keptCaptureIn(
 }
 
 /**
- * The ids in (lo, hi] whose spectra the pass clears, at most `limit`, ascending (exported so
- * the storage bench can EXPLAIN it).
+ * The captures in (lo, hi] that hold spectra, are older than `wholeCutoff` and are not kept
+ * whole by a marker of their own (upload, pin, alert event or finding nearby, alert peak,
+ * suspect notice), at most `limit`, ascending; whether each is the first of its bucket or
+ * the first after a limit change is worked out by the pass (retention.ts) with
+ * `firstAnalysesFrom`. Exported so the storage bench can EXPLAIN it.
  */
 export function thinningCandidates(
-  { wholeCutoff, dailyCutoff, win }: ThinningCutoffs,
+  { wholeCutoff, win }: Pick<ThinningCutoffs, 'wholeCutoff' | 'win'>,
   lo: number,
   hi: number,
   limit: number,
 ) {
   return sql`
-        SELECT a.id FROM analyses a JOIN snapshots s ON s.id = a.snapshot_id
+    SELECT a.id, a.point_id AS pointId, a.taken_at AS takenAt
+      FROM analyses a JOIN snapshots s ON s.id = a.snapshot_id AND s.taken_at = a.taken_at
      WHERE a.id > ${lo} AND a.id <= ${hi}
        AND a.taken_at < ${wholeCutoff}
        AND a.spectra_thinned_at IS NULL
        AND (a.spectra IS NOT NULL OR a.accel_spectrum IS NOT NULL
             OR a.velocity_spectrum IS NOT NULL OR a.envelope_spectrum IS NOT NULL
             OR a.order_spectrum IS NOT NULL)
-       -- not the first capture of its point in its bucket (hour, or day before dailyCutoff)
-       AND EXISTS (
-         SELECT 1 FROM analyses b
-          WHERE b.point_id = a.point_id
-            AND b.taken_at >= IF(a.taken_at < ${dailyCutoff},
-                                 TIMESTAMP(DATE(a.taken_at)),
-                                 TIMESTAMP(DATE(a.taken_at), MAKETIME(HOUR(a.taken_at), 0, 0)))
-            AND (b.taken_at < a.taken_at OR (b.taken_at = a.taken_at AND b.id < a.id)))
        AND NOT ${protectedCapture(win)}
      ORDER BY a.id
      LIMIT ${limit}`;
@@ -182,38 +177,103 @@ export interface ThinningCutoffs {
   win: number;
 }
 
-export async function thinningCandidateIds(
+export interface CaptureRow {
+  id: number;
+  pointId: number;
+  takenAt: Date;
+}
+
+export async function thinningCandidateRows(
   db: Db,
   cut: ThinningCutoffs,
   lo: number,
   hi: number,
   limit: number,
-): Promise<number[]> {
+): Promise<CaptureRow[]> {
   const rows = await rowsOf(db, thinningCandidates(cut, lo, hi, limit));
-  return rows.map((r) => Number(r.id));
+  return rows.map((r) => ({
+    id: Number(r.id),
+    pointId: Number(r.pointId),
+    takenAt: utc(r.takenAt),
+  }));
 }
 
 /**
- * Thins the analyses `ids`: their spectra, and their captures' raw waveforms (a capture is
- * either whole or thinned: a waveform without its spectra is not kept).
+ * The limit changes of points before `before`: the audit log's `limits.update` and
+ * `limits.baseline` entries, and each limit set's last update.
  */
-export async function clearSpectra(db: Db, ids: number[], now: Date): Promise<number> {
+export async function limitChanges(db: Db, before: Date): Promise<{ pointId: number; at: Date }[]> {
+  const rows = await rowsOf(
+    db,
+    sql`SELECT CAST(l.entity_id AS UNSIGNED) AS pointId, l.at FROM audit_log l
+         WHERE l.entity = 'point' AND l.action IN ('limits.update', 'limits.baseline')
+           AND l.at < ${before}
+        UNION
+        SELECT ls.point_id, ls.updated_at FROM limit_sets ls
+         WHERE ls.point_id IS NOT NULL AND ls.updated_at < ${before}`,
+  );
+  return rows.map((r) => ({ pointId: Number(r.pointId), at: utc(r.at) }));
+}
+
+/** A point's captures taken in [from, to); `to` null: from `from` on. */
+export interface TimeSpan {
+  pointId: number;
+  from: Date;
+  to: Date | null;
+}
+
+/**
+ * The first analysis (by taken_at, then id) of each span that has one: one bounded index
+ * seek per span on (point_id, taken_at), the bounds being constants, in statements of at
+ * most 100 spans.
+ */
+export async function firstAnalysesFrom(db: Db, spans: TimeSpan[]): Promise<number[]> {
+  const out: number[] = [];
+  for (let i = 0; i < spans.length; i += 100) {
+    const parts = spans.slice(i, i + 100).map(
+      (b) =>
+        sql`(SELECT id FROM analyses
+              WHERE point_id = ${b.pointId} AND taken_at >= ${b.from}
+                ${b.to ? sql`AND taken_at < ${b.to}` : sql``}
+              ORDER BY taken_at, id LIMIT 1)`,
+    );
+    const rows = await rowsOf(db, sql.join(parts, sql` UNION ALL `));
+    for (const r of rows) out.push(Number(r.id));
+  }
+  return out;
+}
+
+/**
+ * Thins the analyses `rows`: their spectra, and their captures' raw waveforms (a capture is
+ * either whole or thinned: a waveform without its spectra is not kept). The rows' time span
+ * bounds `taken_at` so MariaDB touches only their months' partitions; each UPDATE is its own
+ * short transaction over at most one batch of rows.
+ */
+export async function clearSpectra(
+  db: Db,
+  rows: { id: number; takenAt: Date }[],
+  now: Date,
+): Promise<number> {
+  if (rows.length === 0) return 0;
   const list = sql.join(
-    ids.map((id) => sql`${id}`),
+    rows.map((r) => sql`${r.id}`),
     sql`, `,
   );
+  const times = rows.map((r) => r.takenAt.getTime());
+  const span = sql`BETWEEN ${new Date(Math.min(...times))} AND ${new Date(Math.max(...times))}`;
   const thinned = await affected(
     db,
     sql`UPDATE analyses
            SET spectra = NULL, accel_spectrum = NULL, velocity_spectrum = NULL,
                envelope_spectrum = NULL, order_spectrum = NULL, spectra_thinned_at = ${now}
-         WHERE id IN (${list}) AND spectra_thinned_at IS NULL`,
+         WHERE id IN (${list}) AND taken_at ${span} AND spectra_thinned_at IS NULL`,
   );
   await affected(
     db,
-    sql`UPDATE snapshots s JOIN analyses a ON a.snapshot_id = s.id
+    sql`UPDATE snapshots s JOIN analyses a ON a.snapshot_id = s.id AND s.taken_at = a.taken_at
            SET s.samples = NULL, s.samples_expired_at = CURRENT_TIMESTAMP(3)
-         WHERE a.id IN (${list}) AND s.samples IS NOT NULL`,
+         WHERE a.id IN (${list}) AND a.taken_at ${span} AND s.taken_at ${span}
+           AND s.samples IS NOT NULL`,
   );
   return thinned;
 }

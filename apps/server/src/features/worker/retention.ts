@@ -37,16 +37,22 @@
  * Both passes work in bounded batches (a SELECT of at most `batchSize` ids over at most
  * `scanSpan` primary keys, then an UPDATE of those ids by primary key, then a pause), so no
  * statement holds locks on more than one batch of rows and ingest is never waiting long.
+ * Each capture's cost is constant: the first capture of each (point, bucket) of a batch and
+ * the first capture after each limit change are one index seek each with constant bounds,
+ * never a scan of the point's earlier captures per capture.
  */
 import { setTimeout as sleep } from 'node:timers/promises';
 import type { Db } from '@turnstone/db/client';
 import {
   clearRawSamples,
   clearSpectra,
+  firstAnalysesFrom,
+  limitChanges,
   maxAnalysisId,
   maxSnapshotId,
   rawSampleCandidates,
-  thinningCandidateIds,
+  thinningCandidateRows,
+  type TimeSpan,
 } from './retention-repository.ts';
 
 import { dropExpiredPartitions } from './partitions.ts';
@@ -109,27 +115,79 @@ function midnightBefore(now: Date, days: number): Date {
 
 /**
  * Runs `select(lo, hi, limit)` over primary keys (lo, hi] in spans of `scanSpan`, hands each
- * non-empty batch of ids to `update`, pausing between batches.
+ * non-empty batch of rows to `update`, pausing between batches. `select` returns at most
+ * `limit` rows in ascending id order; exactly `limit` means more may follow after the last.
  */
-async function inBatches(
+async function inBatches<R extends { id: number }>(
   maxId: number,
   opts: Required<BatchOptions>,
-  select: (lo: number, hi: number, limit: number) => Promise<number[]>,
-  update: (ids: number[]) => Promise<number>,
+  select: (lo: number, hi: number, limit: number) => Promise<R[]>,
+  update: (rows: R[]) => Promise<number>,
 ): Promise<PassResult> {
   let cursor = 0;
   let rows = 0;
   let batches = 0;
   while (cursor < maxId) {
     const hi = Math.min(cursor + opts.scanSpan, maxId);
-    const ids = await select(cursor, hi, opts.batchSize);
-    cursor = ids.length === opts.batchSize ? ids[ids.length - 1]! : hi;
-    if (ids.length === 0) continue;
-    rows += await update(ids);
+    const got = await select(cursor, hi, opts.batchSize);
+    cursor = got.length === opts.batchSize ? got[got.length - 1]!.id : hi;
+    if (got.length === 0) continue;
+    rows += await update(got);
     batches++;
     if (opts.batchPauseMs > 0) await sleep(opts.batchPauseMs);
   }
   return { rows, batches };
+}
+
+/**
+ * A `select` for `inBatches` out of one whose rows the pass still sifts: `kept` names those
+ * of a read that stay. Reads on after the last row read until it has `limit` rows or (lo, hi]
+ * is done, so the contract of `inBatches` holds.
+ */
+function sifted<R extends { id: number }>(
+  select: (lo: number, hi: number, limit: number) => Promise<R[]>,
+  kept: (rows: R[]) => Promise<Set<number>>,
+) {
+  return async (lo: number, hi: number, limit: number): Promise<R[]> => {
+    const out: R[] = [];
+    let cursor = lo;
+    for (;;) {
+      const rows = await select(cursor, hi, limit);
+      const keep = rows.length ? await kept(rows) : new Set<number>();
+      for (const r of rows) {
+        if (keep.has(r.id)) continue;
+        out.push(r);
+        if (out.length === limit) return out;
+      }
+      if (rows.length < limit) return out;
+      cursor = rows[rows.length - 1]!.id;
+    }
+  };
+}
+
+/**
+ * The analyses that are the first capture of their point after a change of its limits made
+ * before `before`: one index seek per change, once per pass (the changes are few; asked per
+ * capture, this was a scan of the point's earlier captures for each).
+ */
+async function firstAfterLimitChanges(db: Db, before: Date): Promise<Set<number>> {
+  const changes = await limitChanges(db, before);
+  return new Set(
+    await firstAnalysesFrom(
+      db,
+      changes.map((c) => ({ pointId: c.pointId, from: c.at, to: null })),
+    ),
+  );
+}
+
+const HOUR_MS = 3_600_000;
+
+/** The bucket whose first capture keeps its spectra: the UTC day before `dailyCutoff`, else the UTC hour. */
+function bucketOf(pointId: number, takenAt: Date, dailyCutoff: Date): TimeSpan {
+  const t = takenAt.getTime();
+  const size = t < dailyCutoff.getTime() ? DAY_MS : HOUR_MS;
+  const from = t - (((t % size) + size) % size);
+  return { pointId, from: new Date(from), to: new Date(from + size) };
 }
 
 function batchOptions(o: BatchOptions): Required<BatchOptions> {
@@ -166,11 +224,24 @@ export async function expireRawSamplesPass(
   const cutoff = new Date(now.getTime() - days * DAY_MS);
   const win = Math.max(0, Math.floor(opts.keepWindowMinutes ?? 60));
   const o = batchOptions(opts);
+  const afterLimits = await firstAfterLimitChanges(db, now);
   return inBatches(
     await maxSnapshotId(db),
     o,
-    (lo, hi, limit) => rawSampleCandidates(db, cutoff, win, lo, hi, limit),
-    (ids) => clearRawSamples(db, ids),
+    sifted(
+      (lo, hi, limit) => rawSampleCandidates(db, cutoff, win, lo, hi, limit),
+      async (rows) =>
+        new Set(
+          rows
+            .filter((r) => r.analysisId !== null && afterLimits.has(r.analysisId))
+            .map((r) => r.id),
+        ),
+    ),
+    (rows) =>
+      clearRawSamples(
+        db,
+        rows.map((r) => r.id),
+      ),
   );
 }
 
@@ -201,11 +272,25 @@ export async function thinSpectra(
   if (policy.spectraWholeDays <= 0) return { rows: 0, batches: 0 };
   const cut = thinningCutoffs(policy, now);
   const o = batchOptions(opts);
+  // A change at or after the whole tier's start is followed by captures of that tier only.
+  const afterLimits = await firstAfterLimitChanges(db, cut.wholeCutoff);
   return inBatches(
     await maxAnalysisId(db),
     o,
-    (lo, hi, limit) => thinningCandidateIds(db, cut, lo, hi, limit),
-    (ids) => clearSpectra(db, ids, now),
+    sifted(
+      (lo, hi, limit) => thinningCandidateRows(db, cut, lo, hi, limit),
+      async (rows) => {
+        const buckets = new Map<string, TimeSpan>();
+        for (const r of rows) {
+          const b = bucketOf(r.pointId, r.takenAt, cut.dailyCutoff);
+          buckets.set(`${b.pointId}/${b.from.getTime()}`, b);
+        }
+        const keep = new Set(await firstAnalysesFrom(db, [...buckets.values()]));
+        for (const r of rows) if (afterLimits.has(r.id)) keep.add(r.id);
+        return keep;
+      },
+    ),
+    (rows) => clearSpectra(db, rows, now),
   );
 }
 

@@ -27,7 +27,12 @@ export function useEChart(
     chartRef.current = chart;
     setChart(chart);
     const cleanup = readyRef.current?.(chart);
-    const observer = new ResizeObserver(() => chart.resize());
+    // The observer reports the element's size once at the start too: resizing to the size
+    // the chart already has would lay it out and draw it a second time, for nothing.
+    const observer = new ResizeObserver(() => {
+      if (el.clientWidth !== chart.getWidth() || el.clientHeight !== chart.getHeight())
+        chart.resize();
+    });
     observer.observe(el);
     return () => {
       observer.disconnect();

@@ -1,4 +1,5 @@
-import { lazy, Suspense, useEffect, useState } from 'react';
+import { Suspense, useEffect, useState } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import type { AnalysisSummary, PointDetail } from '@turnstone/contracts/points';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
@@ -14,6 +15,11 @@ import { formatBandHz, formatDateTime } from '../../../lib/format.ts';
 import { POINT_PAGE_ANALYSES, useAnalyses } from '../../../features/points/api/get-analyses.ts';
 import { usePoint } from '../../../features/points/api/get-point.ts';
 import { hasVectors } from '../../../features/points/lib/has-vectors.ts';
+import {
+  openingAnalysisId,
+  prefetchOpeningSpectrum,
+} from '../../../features/points/lib/spectrum-opening.ts';
+import { preloadable } from '../../../lib/preloadable.tsx';
 import { CaptureQuality } from '../../../features/points/components/capture-quality.tsx';
 import { PointQualityNotices } from '../../../features/points/components/quality-notices.tsx';
 import { useMe } from '../../../features/auth/api/get-me.ts';
@@ -25,18 +31,29 @@ import { useUnits } from '../../../features/account/api/use-units.ts';
  * (and their charts' parts) is not in its way. It is asked for when the pointer or focus
  * reaches the tabs, and once the page has settled, so a tab opens without waiting for it.
  */
-const views = {
-  spectrum: () => import('../../../features/points/components/spectrum-panel.tsx'),
-  waveform: () => import('../../../features/points/components/waveform-panel.tsx'),
-  waterfall: () => import('../../../features/points/components/waterfall-panel.tsx'),
-  vector: () => import('../../../features/points/components/vector-panel.tsx'),
-};
-const SpectrumPanel = lazy(() => views.spectrum().then((m) => ({ default: m.SpectrumPanel })));
-const WaveformPanel = lazy(() => views.waveform().then((m) => ({ default: m.WaveformPanel })));
-const WaterfallPanel = lazy(() => views.waterfall().then((m) => ({ default: m.WaterfallPanel })));
-const VectorPanel = lazy(() => views.vector().then((m) => ({ default: m.VectorPanel })));
+const spectrumView = preloadable(
+  () => import('../../../features/points/components/spectrum-panel.tsx'),
+  (m) => m.SpectrumPanel,
+);
+const waveformView = preloadable(
+  () => import('../../../features/points/components/waveform-panel.tsx'),
+  (m) => m.WaveformPanel,
+);
+const waterfallView = preloadable(
+  () => import('../../../features/points/components/waterfall-panel.tsx'),
+  (m) => m.WaterfallPanel,
+);
+const vectorView = preloadable(
+  () => import('../../../features/points/components/vector-panel.tsx'),
+  (m) => m.VectorPanel,
+);
+const SpectrumPanel = spectrumView.View;
+const WaveformPanel = waveformView.View;
+const WaterfallPanel = waterfallView.View;
+const VectorPanel = vectorView.View;
 function preloadViews() {
-  for (const load of Object.values(views)) load().catch(() => undefined);
+  for (const v of [spectrumView, waveformView, waterfallView, vectorView])
+    v.preload().catch(() => undefined);
 }
 const SETTLED_MS = 1500;
 
@@ -121,6 +138,7 @@ export function PointRoute() {
   const point = usePoint(id);
   const analyses = useAnalyses({ pointId: id, limit: POINT_PAGE_ANALYSES });
   const me = useMe();
+  const queryClient = useQueryClient();
   // `?view=spectrum` (a link from an alert) opens the spectrum view, on `?band=`'s band.
   const [tab, setTab] = useState<Tab>(search.get('view') === 'spectrum' ? 'spectrum' : 'trend');
   const [picked, setPicked] = useState<number | null>(null);
@@ -151,8 +169,16 @@ export function PointRoute() {
     );
   const p = point.data;
   const list = analyses.data?.items ?? [];
-  // The views open on the latest usable capture (an unusable one stays one pick away).
-  const selectedId = picked ?? (list.find((a) => a.verdict !== 'unusable') ?? list[0])?.id ?? null;
+  const selectedId = picked ?? openingAnalysisId(list);
+  const openBand = p.bands.find((b) => b.key === search.get('band')) ?? null;
+  // On the intent to open a view: its code, and the spectrum the spectrum view opens on.
+  const onViewIntent = () => {
+    preloadViews();
+    if (picked === null && analyses.data)
+      prefetchOpeningSpectrum(queryClient, list, openBand, me.data?.id ?? null).catch(
+        () => undefined,
+      );
+  };
 
   const snapshotBody = () => {
     if (analyses.isPending) return <LoadingPanel label="Loading snapshots…" />;
@@ -216,7 +242,7 @@ export function PointRoute() {
         pointTag={p.tag}
         canReview={me.data?.role === 'planner' || me.data?.role === 'engineer'}
       />
-      <div className="contents" onPointerOver={preloadViews} onFocus={preloadViews}>
+      <div className="contents" onPointerOver={onViewIntent} onFocus={onViewIntent}>
         <TabList
           group="point"
           label="Analysis views"
@@ -248,7 +274,7 @@ export function PointRoute() {
           {tab === 'spectrum' &&
             (snapshotBody() ?? (
               <SpectrumPanel
-                band={p.bands.find((b) => b.key === search.get('band')) ?? null}
+                band={openBand}
                 userId={me.data?.id ?? null}
                 bearing={p.bearing}
                 analyses={list}

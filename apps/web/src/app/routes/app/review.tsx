@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useDeferredValue, useMemo, useState } from 'react';
 import { reviewInUnits } from '@turnstone/contracts/review-units';
 import { useUnits } from '../../../features/account/api/use-units.ts';
 import { useSearchParams } from 'react-router-dom';
@@ -66,6 +66,10 @@ export function ReviewRoute() {
     () => review.data && reviewInUnits(review.data, units.system),
     [review.data, units.system],
   );
+  // The tables below the first screen (forecasts, open alerts, quality notices) render just
+  // after it, in a background render once the review is here: the first screen shows
+  // without waiting for their rows. Later changes (another week) render all together.
+  const belowShown = useDeferredValue(data !== undefined, false);
   const markReviewed = useReviewNotices();
   const [reviewedMsg, setReviewedMsg] = useState<string | null>(null);
   const onMarkReviewed = canEdit
@@ -142,35 +146,39 @@ export function ReviewRoute() {
           <div className="review-details flex flex-col gap-4">
             <FindingsList siteId={params.siteId} canEdit={canEdit} />
             <MoversTable review={data} onCreateFinding={onCreateFinding} />
-            <ForecastsTable
-              rows={data.forecasts}
-              total={data.summary.forecasts}
-              weeksAhead={data.period.weeksAhead}
-              onCreateFinding={onCreateFinding}
-              zones={zones}
-            />
-            <OpenAlertsTable
-              rows={data.openAlerts}
-              total={data.summary.openAlerts}
-              onCreateFinding={onCreateFinding}
-              zones={zones}
-            />
-            {reviewedMsg && (
-              <p
-                role="status"
-                data-print="hide"
-                className="rounded-md border border-accent/30 bg-accent-soft px-3 py-2 text-sm text-ink"
-              >
-                {reviewedMsg}
-              </p>
+            {belowShown && (
+              <>
+                <ForecastsTable
+                  rows={data.forecasts}
+                  total={data.summary.forecasts}
+                  weeksAhead={data.period.weeksAhead}
+                  onCreateFinding={onCreateFinding}
+                  zones={zones}
+                />
+                <OpenAlertsTable
+                  rows={data.openAlerts}
+                  total={data.summary.openAlerts}
+                  onCreateFinding={onCreateFinding}
+                  zones={zones}
+                />
+                {reviewedMsg && (
+                  <p
+                    role="status"
+                    data-print="hide"
+                    className="rounded-md border border-accent/30 bg-accent-soft px-3 py-2 text-sm text-ink"
+                  >
+                    {reviewedMsg}
+                  </p>
+                )}
+                <QualityNoticesTable
+                  rows={data.qualityNotices}
+                  total={data.summary.qualityNotices}
+                  onCreateFinding={onCreateFinding}
+                  zones={zones}
+                  onMarkReviewed={onMarkReviewed}
+                />
+              </>
             )}
-            <QualityNoticesTable
-              rows={data.qualityNotices}
-              total={data.summary.qualityNotices}
-              onCreateFinding={onCreateFinding}
-              zones={zones}
-              onMarkReviewed={onMarkReviewed}
-            />
           </div>
         </div>
       ) : null}

@@ -1,6 +1,6 @@
 import { alertListSchema, type AlertListQuery } from '@turnstone/contracts/alerts';
 import { siteListSchema } from '@turnstone/contracts/fleet';
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 
 export type AlertFilters = Pick<AlertListQuery, 'state' | 'level' | 'siteId'>;
@@ -42,6 +42,9 @@ export function getAlertsQueryOptions(filters: AlertFilters) {
     queryKey: ['alerts', 'list', filters] as const,
     queryFn: ({ signal }) => getAlerts(filters, { signal }),
     refetchInterval: ALERTS_POLL_MS,
+    // Another filter keeps the list on screen (dimmed) until its answer comes, instead of
+    // a loading panel in its place.
+    placeholderData: keepPreviousData,
   });
 }
 

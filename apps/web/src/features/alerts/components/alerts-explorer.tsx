@@ -145,7 +145,11 @@ export function AlertsExplorer({
           </Card>
         )}
 
-        <Card className="min-h-0 flex-1 overflow-auto">
+        <Card
+          className="min-h-0 flex-1 overflow-auto transition-opacity"
+          style={{ opacity: alerts.isPlaceholderData ? 0.6 : 1 }}
+          aria-busy={alerts.isPlaceholderData || undefined}
+        >
           {alerts.isPending ? (
             <LoadingPanel label="Loading alerts…" />
           ) : alerts.isError ? (

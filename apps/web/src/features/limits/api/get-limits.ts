@@ -1,39 +1,10 @@
 import {
   isoDefaultsResponseSchema,
-  limitHistoryResponseSchema,
-  limitSetResponseSchema,
   limitTemplateResponseSchema,
   suggestResponseSchema,
 } from '@turnstone/contracts/limits';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-
-export function getLimitsQueryOptions(pointId: number) {
-  return queryOptions({
-    queryKey: ['limits', 'detail', { pointId }] as const,
-    queryFn: ({ signal }) =>
-      api.get(`/api/v1/points/${pointId}/limits`, { schema: limitSetResponseSchema, signal }),
-  });
-}
-
-export function useLimits(pointId: number | null) {
-  return useQuery({ ...getLimitsQueryOptions(pointId ?? 0), enabled: pointId !== null });
-}
-
-export function getLimitHistoryQueryOptions(pointId: number) {
-  return queryOptions({
-    queryKey: ['limit-history', 'list', { pointId }] as const,
-    queryFn: ({ signal }) =>
-      api.get(`/api/v1/points/${pointId}/limits/history`, {
-        schema: limitHistoryResponseSchema,
-        signal,
-      }),
-  });
-}
-
-export function useLimitHistory(pointId: number) {
-  return useQuery(getLimitHistoryQueryOptions(pointId));
-}
 
 export function getIsoDefaults(pointId: number) {
   return api.get(`/api/v1/points/${pointId}/limits/iso-defaults`, {

@@ -6,11 +6,8 @@ import {
 } from '@turnstone/contracts/limits';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import {
-  getLimitHistoryQueryOptions,
-  getLimitsQueryOptions,
-  getLimitTemplateQueryOptions,
-} from './get-limits.ts';
+import { getLimitHistoryQueryOptions, getLimitsQueryOptions } from './get-limit-set.ts';
+import { getLimitTemplateQueryOptions } from './get-limits.ts';
 
 /** What the editor saves to: a point's own set, or a machine type's template. */
 export type LimitsTarget =

@@ -1,7 +1,7 @@
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Spinner } from '../../../components/ui/spinner.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
-import { useLimitHistory } from '../api/get-limits.ts';
+import { useLimitHistory } from '../api/get-limit-set.ts';
 
 const actionLabels: Record<string, string> = {
   'limits.update': 'Limits changed',

@@ -7,7 +7,8 @@ import { Field, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { TabList, TabPanel } from '../../../components/ui/tabs.tsx';
 import { cn } from '../../../lib/cn.ts';
-import { useLimits, useLimitTemplate } from '../api/get-limits.ts';
+import { useLimitTemplate } from '../api/get-limits.ts';
+import { useLimits } from '../api/get-limit-set.ts';
 import { LimitsEditor } from './limits-editor.tsx';
 import { PointPicker } from './point-picker.tsx';
 

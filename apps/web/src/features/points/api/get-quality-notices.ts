@@ -8,12 +8,14 @@ export function getQualityNotices(pointId: number, { signal }: { signal?: AbortS
   return api.get(`/api/v1/quality-notices?${qs}`, { schema: qualityNoticeListSchema, signal });
 }
 
+export function getQualityNoticesQueryOptions(pointId: number) {
+  return queryOptions({
+    queryKey: ['quality-notices', { pointId }] as const,
+    queryFn: ({ signal }) => getQualityNotices(pointId, { signal }),
+    refetchInterval: 60_000,
+  });
+}
+
 export function useQualityNotices(pointId: number) {
-  return useQuery(
-    queryOptions({
-      queryKey: ['quality-notices', { pointId }] as const,
-      queryFn: ({ signal }) => getQualityNotices(pointId, { signal }),
-      refetchInterval: 60_000,
-    }),
-  );
+  return useQuery(getQualityNoticesQueryOptions(pointId));
 }

@@ -25,8 +25,8 @@ import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import type { ApiError } from '../../../lib/api-client.ts';
 import { MARK_HARMONICS, useSpectrumMarks } from '../lib/use-spectrum-marks.ts';
 import { useSpectrumTrace } from '../lib/use-spectrum-trace.ts';
+import { rememberedView } from '../lib/spectrum-opening.ts';
 import {
-  readRemembered,
   spanOnAxis,
   spectrumStart,
   writeRemembered,
@@ -65,10 +65,7 @@ export function SpectrumPanel({
   userId: number | null;
 }) {
   const units = useUnits();
-  const [remembered] = useState(() => {
-    const st = storage();
-    return st && userId !== null ? readRemembered(st, userId) : null;
-  });
+  const [remembered] = useState(() => rememberedView(userId));
   const first = spectrumStart(band, [], remembered);
   const [measure, setMeasure] = useState<Measure>(first.measure);
   const [axis, setAxis] = useState<Axis>('hz');

@@ -8,6 +8,11 @@ import type { FaultFrequencyItem, PointBand } from '@turnstone/contracts/points'
 export type Measure = 'acceleration' | 'velocity' | 'envelope';
 export type Axis = 'hz' | 'order';
 
+/** The spectrum to fetch for a measure on an axis: acceleration in orders is the stored order spectrum. */
+export function kindFor(measure: Measure, axis: Axis) {
+  return measure === 'acceleration' && axis === 'order' ? 'order' : measure;
+}
+
 /** Orders shown when nothing else decides: 1× to its 40th harmonic. Common practice, no source. */
 export const DEFAULT_SPAN_ORDERS = 40;
 /** Margin around a band's own range, as a fraction of its width on each side. */

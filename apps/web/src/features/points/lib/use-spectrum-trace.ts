@@ -5,12 +5,7 @@ import { scaleFactor, type AmplitudeScale } from '../../../components/charts/spe
 import { formatDateTime } from '../../../lib/format.ts';
 import { useUnits } from '../../account/api/use-units.ts';
 import { useSpectrum } from '../api/get-spectrum.ts';
-import type { Axis, Measure } from './spectrum-view.ts';
-
-/** The spectrum to fetch for a measure on an axis: acceleration in orders is the stored order spectrum. */
-export function kindFor(measure: Measure, axis: Axis) {
-  return measure === 'acceleration' && axis === 'order' ? 'order' : measure;
-}
+import { kindFor, type Axis, type Measure } from './spectrum-view.ts';
 
 export function useSpectrumTrace(
   analysisId: number | null,
