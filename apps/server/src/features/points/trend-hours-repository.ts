@@ -88,48 +88,30 @@ export async function bucketsOfHours(
   bucketMs: number,
 ): Promise<HourRow[]> {
   const bucket = sql`(UNIX_TIMESTAMP(hour_at) * 1000 - ${origin}) DIV ${bucketMs}`;
+  // the lowest (highest) value's capture: time, analysis id and quality of the first hour in
+  // (value, time, analysis id) order — one GROUP BY pass (MariaDB: GROUP_CONCAT … LIMIT)
+  const capture = (side: 'min' | 'max', order: string) =>
+    sql.raw(
+      `GROUP_CONCAT(CAST(UNIX_TIMESTAMP(${side}_at) * 1000 AS SIGNED), ' ', ${side}_analysis_id, ` +
+        `' ', ${side}_quality ORDER BY ${order} SEPARATOR '' LIMIT 1)`,
+    );
   const [rows] = (await db.execute(sql`
-    SELECT b, bn AS n, lo, hi, min_value AS loV, ${ms('min_at')} AS loT, min_quality AS loQ,
-      min_analysis_id AS loA, max_value AS hiV, ${ms('max_at')} AS hiT, max_quality AS hiQ,
-      max_analysis_id AS hiA
-    FROM (
-      SELECT hb.*, SUM(n) OVER (PARTITION BY b) AS bn,
-        ROW_NUMBER() OVER (PARTITION BY b ORDER BY min_value, min_at, min_analysis_id) AS lo,
-        ROW_NUMBER() OVER (PARTITION BY b ORDER BY max_value DESC, max_at, max_analysis_id) AS hi
-      FROM (SELECT ${bucket} AS b, n, min_value, min_at, min_quality, min_analysis_id,
-                   max_value, max_at, max_quality, max_analysis_id
-            FROM band_value_hours
-            WHERE point_id = ${pointId} AND band_key = ${bandKey} AND hour_at >= ${from}
-              AND hour_at < ${to}) hb
-    ) x
-    WHERE lo = 1 OR hi = 1
-    ORDER BY b`)) as unknown as [
-    {
-      b: unknown;
-      n: unknown;
-      lo: unknown;
-      hi: unknown;
-      loV: number;
-      loT: unknown;
-      loQ: Quality;
-      loA: unknown;
-      hiV: number;
-      hiT: unknown;
-      hiQ: Quality;
-      hiA: unknown;
-    }[],
+    SELECT SUM(n) AS n, MIN(min_value) AS loV,
+      ${capture('min', 'min_value, min_at, min_analysis_id')} AS lo,
+      MAX(max_value) AS hiV,
+      ${capture('max', 'max_value DESC, max_at, max_analysis_id')} AS hi
+    FROM band_value_hours
+    WHERE point_id = ${pointId} AND band_key = ${bandKey} AND hour_at >= ${from}
+      AND hour_at < ${to}
+    GROUP BY ${bucket}
+    ORDER BY MIN(hour_at)`)) as unknown as [
+    { n: unknown; loV: unknown; lo: string; hiV: unknown; hi: string }[],
   ];
-  const byBucket = new Map<number, { n: number; lo?: TrendRow; hi?: TrendRow }>();
-  for (const r of rows) {
-    const b = Number(r.b);
-    let o = byBucket.get(b);
-    if (!o) byBucket.set(b, (o = { n: Number(r.n) }));
-    if (Number(r.lo) === 1)
-      o.lo = row({ t: r.loT, value: r.loV, quality: r.loQ, analysisId: r.loA });
-    if (Number(r.hi) === 1)
-      o.hi = row({ t: r.hiT, value: r.hiV, quality: r.hiQ, analysisId: r.hiA });
-  }
-  return [...byBucket.values()].map((o) => ({ n: o.n, lo: o.lo!, hi: o.hi! }));
+  const side = (value: unknown, packed: string): TrendRow => {
+    const [t, analysisId, quality] = packed.split(' ');
+    return row({ t, value, quality: quality as Quality, analysisId });
+  };
+  return rows.map((r) => ({ n: Number(r.n), lo: side(r.loV, r.lo), hi: side(r.hiV, r.hi) }));
 }
 
 /**
