@@ -2,22 +2,17 @@
  * `Idempotency-Key` on creating POSTs (IETF draft-ietf-httpapi-idempotency-key-header):
  * a retried creation is answered the first answer, not created twice.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { describe, expect, it } from 'vitest';
+import { testServerForFile } from '../support/api-suite.ts';
 
-let srv: TestServer;
-let planner: string;
-let engineer: string;
-beforeAll(async () => {
-  srv = await startTestServer();
-  planner = await srv.signIn('planner');
-  engineer = await srv.signIn('engineer');
-});
-afterAll(async () => {
-  await srv?.stop();
-});
+const srv = testServerForFile({ signIn: ['planner', 'engineer'] });
 
-const post = (key: string | null, body: unknown, cookie = planner, path = '/api/v1/findings') =>
+const post = (
+  key: string | null,
+  body: unknown,
+  cookie = srv.cookies.planner,
+  path = '/api/v1/findings',
+) =>
   srv.call('POST', path, {
     cookie,
     body,
@@ -62,13 +57,17 @@ describe('Idempotency-Key on POST /findings', () => {
 
   it('keys are per account; a key past its expiry is free again', async () => {
     const body = { pointId: 1, title: 'Per account' };
-    expect((await post('shared-key', body, planner)).status).toBe(201);
-    expect((await post('shared-key', body, engineer)).status).toBe(201);
+    expect((await post('shared-key', body, srv.cookies.planner)).status).toBe(201);
+    expect((await post('shared-key', body, srv.cookies.engineer)).status).toBe(201);
     expect(await countTitled('Per account')).toBe(2);
     await srv.q(
       "UPDATE idempotency_keys SET expires_at = NOW(3) - INTERVAL 1 SECOND WHERE idem_key = 'shared-key'",
     );
-    const fresh = await post('shared-key', { pointId: 1, title: 'After expiry' }, planner);
+    const fresh = await post(
+      'shared-key',
+      { pointId: 1, title: 'After expiry' },
+      srv.cookies.planner,
+    );
     expect(fresh.status).toBe(201);
     expect(fresh.headers.get('idempotent-replayed')).toBeNull();
   });

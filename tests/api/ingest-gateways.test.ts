@@ -3,35 +3,25 @@
  * and rotated keys, and what one site's gateway may learn of another site (uids, tags,
  * snapshot ids). Storing captures: ingest.test.ts.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { testServerForFile } from '../support/api-suite.ts';
 import { snapshotBody } from '../support/signals.ts';
 
-let srv: TestServer;
-let admin: string;
+const srv = testServerForFile({ env: { INGEST_MAX_PER_MIN: '100000' }, signIn: ['admin'] });
 let keyMfp: string;
 let keyTrb: string;
 const TAG = 'MFP-P101-MDE-H';
 
-const post = (key: string, body: unknown, headers: Record<string, string> = {}) =>
-  srv.call('POST', '/api/ingest/v1/snapshots', {
-    body,
-    headers: { authorization: `Bearer ${key}`, ...headers },
-  });
-
 beforeAll(async () => {
-  srv = await startTestServer({ INGEST_MAX_PER_MIN: '100000' });
-  admin = await srv.signIn('admin');
   keyMfp = await srv.gatewayKey(1, 'MFP gateway A');
   keyTrb = await srv.gatewayKey(2, 'TRB gateway A');
-});
-afterAll(async () => {
-  await srv?.stop();
 });
 
 describe('gateways', () => {
   it('shows the key once: the list carries only its prefix', async () => {
-    const list = await (await srv.call('GET', '/api/v1/gateways', { cookie: admin })).json();
+    const list = await (
+      await srv.call('GET', '/api/v1/gateways', { cookie: srv.cookies.admin })
+    ).json();
     // The demo seed's two gateways (one per site) and the two made here.
     expect(list.items.map((g: { name: string }) => g.name).sort()).toEqual([
       'Demo gateway MFP',
@@ -65,15 +55,15 @@ describe('ingest across sites and keys', () => {
     // Gateway of site MFP posts first, with a uid site TRB's gateway is about to use.
     const mfpBody = snapshotBody(TAG, 'shared-uid-1', { seed: 3 });
     const trbBody = snapshotBody('TRB-P120-MDE-H', 'shared-uid-1', { seed: 4 });
-    const first = await post(keyMfp, mfpBody);
+    const first = await srv.ingest(keyMfp, mfpBody);
     expect(first.status).toBe(201);
     const mfpId = (await first.json()).snapshotId;
-    const trb = await post(keyTrb, trbBody);
+    const trb = await srv.ingest(keyTrb, trbBody);
     expect(trb.status).toBe(201);
     const trbId = (await trb.json()).snapshotId;
     expect(trbId).not.toBe(mfpId);
     // In a batch too: the answer names only the sender's own snapshots.
-    const batch = await post(keyTrb, {
+    const batch = await srv.ingest(keyTrb, {
       snapshots: [trbBody],
     });
     const text = await batch.text();
@@ -81,12 +71,12 @@ describe('ingest across sites and keys', () => {
     expect(JSON.parse(text).results[0].snapshotId).toBe(trbId);
     expect(text).not.toContain(`"snapshotId":${mfpId}`);
     // Each gateway's repeat is still recognised as its own.
-    expect((await post(keyMfp, mfpBody)).status).toBe(200);
+    expect((await srv.ingest(keyMfp, mfpBody)).status).toBe(200);
   });
 
   it("answers an unknown tag and another site's tag the same way (no tag discovery)", async () => {
-    const unknown = await post(keyMfp, snapshotBody('NO-SUCH-TAG', 'ing-5'));
-    const foreign = await post(keyTrb, snapshotBody(TAG, 'ing-6'));
+    const unknown = await srv.ingest(keyMfp, snapshotBody('NO-SUCH-TAG', 'ing-5'));
+    const foreign = await srv.ingest(keyTrb, snapshotBody(TAG, 'ing-6'));
     expect(unknown.status).toBe(404);
     expect(foreign.status).toBe(404);
     const a = (await unknown.json()).error;
@@ -97,7 +87,7 @@ describe('ingest across sites and keys', () => {
 
   it("in a batch too, another site's tag gets exactly the answer of a tag no site has", async () => {
     // Site TRB's gateway; TRB-NOWHERE-H exists at no site, MFP-P101-MDE-V only at MFP.
-    const res = await post(keyTrb, {
+    const res = await srv.ingest(keyTrb, {
       snapshots: [
         snapshotBody('MFP-P101-MDE-V', 'ing-b-foreign'),
         snapshotBody('TRB-NOWHERE-H', 'ing-b-nowhere'),
@@ -112,7 +102,7 @@ describe('ingest across sites and keys', () => {
     );
     expect(nowhere).toMatchObject({ status: 'unknown_point', httpStatus: 404 });
     // The single post's answer is the batch item's error, with the same status.
-    const single = await post(keyTrb, snapshotBody('MFP-P101-MDE-V', 'ing-b-foreign-1'));
+    const single = await srv.ingest(keyTrb, snapshotBody('MFP-P101-MDE-V', 'ing-b-foreign-1'));
     expect(single.status).toBe(404);
     expect((await single.json()).error).toEqual(foreign.error);
   });
@@ -145,8 +135,8 @@ describe('ingest across sites and keys', () => {
     const trbPointId = (await created.json()).id as number;
     expect(trbPointId).not.toBe(mfp.id);
 
-    const toMfp = await post(keyMfp, snapshotBody(mfp.tag, 'shared-tag-mfp'));
-    const toTrb = await post(keyTrb, snapshotBody(mfp.tag, 'shared-tag-trb', { seed: 9 }));
+    const toMfp = await srv.ingest(keyMfp, snapshotBody(mfp.tag, 'shared-tag-mfp'));
+    const toTrb = await srv.ingest(keyTrb, snapshotBody(mfp.tag, 'shared-tag-trb', { seed: 9 }));
     expect([toMfp.status, toTrb.status]).toEqual([201, 201]);
     const pointOf = async (snapshotId: number) => {
       const [r] = await srv.ctx.dbHandle.pool.query('SELECT point_id FROM snapshots WHERE id = ?', [
@@ -163,20 +153,24 @@ describe('ingest across sites and keys', () => {
       (await srv.call('POST', '/api/ingest/v1/snapshots', { body: snapshotBody(TAG, 'k1') }))
         .status,
     ).toBe(401);
-    expect((await post('tsg_000000000000_' + 'A'.repeat(32), snapshotBody(TAG, 'k2'))).status).toBe(
-      401,
-    );
+    expect(
+      (await srv.ingest('tsg_000000000000_' + 'A'.repeat(32), snapshotBody(TAG, 'k2'))).status,
+    ).toBe(401);
     const created = await (
       await srv.call('POST', '/api/v1/gateways', {
-        cookie: admin,
+        cookie: srv.cookies.admin,
         body: { siteId: 1, name: 'to revoke' },
       })
     ).json();
-    expect((await post(created.apiKey, snapshotBody(TAG, 'k3'))).status).toBe(201);
+    expect((await srv.ingest(created.apiKey, snapshotBody(TAG, 'k3'))).status).toBe(201);
     expect(
-      (await srv.call('POST', `/api/v1/gateways/${created.id}/revoke`, { cookie: admin })).status,
+      (
+        await srv.call('POST', `/api/v1/gateways/${created.id}/revoke`, {
+          cookie: srv.cookies.admin,
+        })
+      ).status,
     ).toBe(200);
-    const res = await post(created.apiKey, snapshotBody(TAG, 'k4'));
+    const res = await srv.ingest(created.apiKey, snapshotBody(TAG, 'k4'));
     expect(res.status).toBe(401);
     expect((await res.json()).error.code).toBe('revoked_api_key');
   });
@@ -184,14 +178,14 @@ describe('ingest across sites and keys', () => {
   it('a rotated key replaces the old one at once', async () => {
     const created = await (
       await srv.call('POST', '/api/v1/gateways', {
-        cookie: admin,
+        cookie: srv.cookies.admin,
         body: { siteId: 1, name: 'to rotate' },
       })
     ).json();
     const rotated = await (
-      await srv.call('POST', `/api/v1/gateways/${created.id}/rotate`, { cookie: admin })
+      await srv.call('POST', `/api/v1/gateways/${created.id}/rotate`, { cookie: srv.cookies.admin })
     ).json();
-    expect((await post(created.apiKey, snapshotBody(TAG, 'r1'))).status).toBe(401);
-    expect((await post(rotated.apiKey, snapshotBody(TAG, 'r2'))).status).toBe(201);
+    expect((await srv.ingest(created.apiKey, snapshotBody(TAG, 'r1'))).status).toBe(401);
+    expect((await srv.ingest(rotated.apiKey, snapshotBody(TAG, 'r2'))).status).toBe(201);
   });
 });

@@ -3,13 +3,14 @@
  * refused bodies, batches, one transaction per capture, the OpenAPI document and the rate.
  * Gateway keys and what one site may learn of another: ingest-gateways.test.ts.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { inflateRawSync } from 'node:zlib';
 import { sql } from 'drizzle-orm';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { testServerForFile } from '../support/api-suite.ts';
+import { startTestServer } from '../support/test-server.ts';
 import { snapshotBody } from '../support/signals.ts';
 
-let srv: TestServer;
+const srv = testServerForFile({ env: { INGEST_MAX_PER_MIN: '100000' } });
 let keyMfp: string;
 const TAG = 'MFP-P101-MDE-H';
 
@@ -17,24 +18,14 @@ async function count(table: string): Promise<number> {
   const [rows] = await srv.ctx.dbHandle.pool.query(`SELECT COUNT(*) AS n FROM ${table}`);
   return Number((rows as { n: number }[])[0]!.n);
 }
-const post = (key: string, body: unknown, headers: Record<string, string> = {}) =>
-  srv.call('POST', '/api/ingest/v1/snapshots', {
-    body,
-    headers: { authorization: `Bearer ${key}`, ...headers },
-  });
-
 beforeAll(async () => {
-  srv = await startTestServer({ INGEST_MAX_PER_MIN: '100000' });
   keyMfp = await srv.gatewayKey(1, 'MFP gateway A');
-});
-afterAll(async () => {
-  await srv?.stop();
 });
 
 describe('ingest', () => {
   it('accepts a new snapshot with 201 and stores it with its job in one go', async () => {
     const before = await count('snapshots');
-    const res = await post(keyMfp, snapshotBody(TAG, 'ing-1'));
+    const res = await srv.ingest(keyMfp, snapshotBody(TAG, 'ing-1'));
     expect(res.status).toBe(201);
     const body = await res.json();
     expect(body).toMatchObject({ uid: 'ing-1', status: 'created' });
@@ -50,7 +41,7 @@ describe('ingest', () => {
     // RFC 9112 §9.3 / the Keep-Alive header's `timeout` hint: the server announces 65 s, so a
     // client reusing the connection never races the server closing it (common practice, no
     // source, for the value: longer than the usual 60 s idle timeout of load balancers).
-    const res = await post(keyMfp, snapshotBody(TAG, 'ing-keepalive'));
+    const res = await srv.ingest(keyMfp, snapshotBody(TAG, 'ing-keepalive'));
     expect(res.status).toBe(201);
     expect(res.headers.get('keep-alive')).toBe('timeout=65');
   });
@@ -64,8 +55,8 @@ describe('ingest', () => {
       tones: [{ hz: 24.7, peakG: 0.2 }],
       noiseG: 0.01,
     });
-    expect((await post(keyMfp, small)).status).toBe(201);
-    expect((await post(keyMfp, large)).status).toBe(201);
+    expect((await srv.ingest(keyMfp, small)).status).toBe(201);
+    expect((await srv.ingest(keyMfp, large)).status).toBe(201);
     const [rows] = await srv.ctx.dbHandle.pool.query(
       "SELECT uid, samples, samples_codec, sample_count FROM snapshots WHERE uid IN ('ing-z', 'ing-zl') ORDER BY uid",
     );
@@ -83,9 +74,9 @@ describe('ingest', () => {
 
   it('when a snapshot repeats its uid with the same content, answers 200 and stores nothing new', async () => {
     const b = snapshotBody(TAG, 'ing-2', { takenAt: '2026-11-30T10:00:00.000Z' });
-    expect((await post(keyMfp, b)).status).toBe(201);
+    expect((await srv.ingest(keyMfp, b)).status).toBe(201);
     const [s, j] = [await count('snapshots'), await count('jobs')];
-    const again = await post(keyMfp, b);
+    const again = await srv.ingest(keyMfp, b);
     expect(again.status).toBe(200);
     expect((await again.json()).status).toBe('duplicate');
     expect([await count('snapshots'), await count('jobs')]).toEqual([s, j]);
@@ -93,18 +84,18 @@ describe('ingest', () => {
 
   it('the same samples sent as a number array are the same content as base64', async () => {
     const b = snapshotBody(TAG, 'ing-3', { takenAt: '2026-11-30T11:00:00.000Z' });
-    expect((await post(keyMfp, b)).status).toBe(201);
+    expect((await srv.ingest(keyMfp, b)).status).toBe(201);
     const asArray = {
       ...b,
       samples: Array.from(new Int16Array(Buffer.from(b.samples, 'base64').buffer.slice(0))),
     };
-    const res = await post(keyMfp, asArray);
+    const res = await srv.ingest(keyMfp, asArray);
     expect(res.status).toBe(200);
   });
 
   it('when the uid repeats with other content, answers 409', async () => {
-    await post(keyMfp, snapshotBody(TAG, 'ing-4', { seed: 1 }));
-    const res = await post(keyMfp, snapshotBody(TAG, 'ing-4', { seed: 2 }));
+    await srv.ingest(keyMfp, snapshotBody(TAG, 'ing-4', { seed: 1 }));
+    const res = await srv.ingest(keyMfp, snapshotBody(TAG, 'ing-4', { seed: 2 }));
     expect(res.status).toBe(409);
     expect((await res.json()).error.code).toBe('uid_conflict');
   });
@@ -123,7 +114,10 @@ describe('ingest', () => {
     ],
   ])('refuses %s with 400 naming the field, and stores nothing', async (_what, patch, field) => {
     const before = await count('snapshots');
-    const res = await post(keyMfp, { ...snapshotBody(TAG, `bad-${Math.random()}`), ...patch });
+    const res = await srv.ingest(keyMfp, {
+      ...snapshotBody(TAG, `bad-${Math.random()}`),
+      ...patch,
+    });
     expect(res.status).toBe(400);
     const body = await res.json();
     expect(body.error.code).toBe('validation_failed');
@@ -134,19 +128,19 @@ describe('ingest', () => {
   it('accepts and ignores fields it does not know (newer firmware), naming them in the answer', async () => {
     // The forward-compatibility rule of the ingest contract (packages/contracts/src/ingest.ts).
     const body = snapshotBody(TAG, 'ing-fwd-1');
-    const res = await post(keyMfp, { ...body, firmware: '4.2', batteryV: 3.6 });
+    const res = await srv.ingest(keyMfp, { ...body, firmware: '4.2', batteryV: 3.6 });
     expect(res.status).toBe(201);
     const answer = await res.json();
     expect(answer).toMatchObject({ uid: 'ing-fwd-1', status: 'created' });
     expect(answer.ignoredFields).toEqual(['firmware', 'batteryV']);
     // Nothing of them is stored: the same capture without them is a plain repeat.
-    const again = await post(keyMfp, body);
+    const again = await srv.ingest(keyMfp, body);
     expect(again.status).toBe(200);
     expect((await again.json()).ignoredFields).toBeUndefined();
   });
 
   it('answers 413 for a body over 16 MiB', async () => {
-    const res = await post(keyMfp, {
+    const res = await srv.ingest(keyMfp, {
       ...snapshotBody(TAG, 'big'),
       samples: 'A'.repeat(17 * 1024 * 1024),
     });
@@ -156,7 +150,7 @@ describe('ingest', () => {
 
   it('reports a result per item for a batch', async () => {
     const first = snapshotBody(TAG, 'b-1');
-    const res = await post(keyMfp, {
+    const res = await srv.ingest(keyMfp, {
       snapshots: [first, snapshotBody('NO-SUCH-TAG', 'b-2'), { uid: 'b-3' }, first],
     });
     expect(res.status).toBe(200);
@@ -170,7 +164,7 @@ describe('ingest', () => {
     const big = snapshotBody(TAG, 'bo-1', { n: 1 << 17, seed: 3 });
     const other = snapshotBody(TAG, 'bo-1', { seed: 4 });
     const fresh = Array.from({ length: 8 }, (_, i) => snapshotBody(TAG, `bo-${i + 2}`));
-    const res = await post(keyMfp, { snapshots: [big, other, ...fresh, big] });
+    const res = await srv.ingest(keyMfp, { snapshots: [big, other, ...fresh, big] });
     expect(res.status).toBe(200);
     const { results } = await res.json();
     expect(results.map((r: { httpStatus: number }) => r.httpStatus)).toEqual([
@@ -195,13 +189,13 @@ describe('ingest', () => {
     const before = await count('snapshots');
     await srv.ctx.db.execute(sql`RENAME TABLE jobs TO jobs_away`);
     try {
-      const res = await post(keyMfp, snapshotBody(TAG, 'tx-1'));
+      const res = await srv.ingest(keyMfp, snapshotBody(TAG, 'tx-1'));
       expect(res.status).toBeGreaterThanOrEqual(500);
     } finally {
       await srv.ctx.db.execute(sql`RENAME TABLE jobs_away TO jobs`);
     }
     expect(await count('snapshots')).toBe(before);
-    expect((await post(keyMfp, snapshotBody(TAG, 'tx-1'))).status).toBe(201);
+    expect((await srv.ingest(keyMfp, snapshotBody(TAG, 'tx-1'))).status).toBe(201);
   });
 
   it('a failed or repeated insert leaves its pooled connection with no transaction open', async () => {
@@ -216,14 +210,16 @@ describe('ingest', () => {
       );
     await srv.ctx.db.execute(sql`RENAME TABLE jobs TO jobs_away`);
     try {
-      expect((await post(keyMfp, snapshotBody(TAG, 'tx-2'))).status).toBeGreaterThanOrEqual(500);
+      expect((await srv.ingest(keyMfp, snapshotBody(TAG, 'tx-2'))).status).toBeGreaterThanOrEqual(
+        500,
+      );
       expect(await inTransaction()).toBe(0);
     } finally {
       await srv.ctx.db.execute(sql`RENAME TABLE jobs_away TO jobs`);
     }
     const b = snapshotBody(TAG, 'tx-3', { takenAt: '2026-11-30T12:00:00.000Z' });
-    expect((await post(keyMfp, b)).status).toBe(201);
-    expect((await post(keyMfp, b)).status).toBe(200);
+    expect((await srv.ingest(keyMfp, b)).status).toBe(201);
+    expect((await srv.ingest(keyMfp, b)).status).toBe(200);
     expect(await inTransaction()).toBe(0);
     const [rows] = await srv.ctx.dbHandle.pool.query(
       "SELECT COUNT(*) AS n FROM snapshots s JOIN jobs j ON j.snapshot_id = s.id WHERE s.uid IN ('tx-2', 'tx-3')",

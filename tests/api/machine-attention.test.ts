@@ -3,75 +3,44 @@
  * done on its points, by point and band; the machine detail names each point's governing band
  * with its recent values and the ISO 20816-3 zone boundaries of the machine's class.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { machineAttentionSchema } from '@turnstone/contracts/machine-attention';
 import { machineDetailSchema } from '@turnstone/contracts/points';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { snapshotBody } from '../support/signals.ts';
+import { testServerForFile } from '../support/api-suite.ts';
+import { postVelocities } from '../support/alert-captures.ts';
 
-let srv: TestServer;
-let engineer: string;
-let planner: string;
-let key: string;
+const srv = testServerForFile({ signIn: ['engineer', 'planner'], gateway: true });
 let machineId: number;
 let pointId: number;
 const TAG = 'MFP-P101-MDE-H';
 const t0 = Date.now() - 10 * 86_400_000;
 let seq = 0;
 
-/**
- * Peak acceleration (g) of a 24.7 Hz tone of `mmS` mm/s RMS: a = v·√2·2πf / 9806.65 (v = a/2πf
- * for a sine, RMS = peak/√2; calculus of a sinusoid, textbook).
- */
-const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
-
 async function capture(velocities: number[]) {
-  for (const v of velocities) {
-    seq += 1;
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body: snapshotBody(TAG, `ma-${seq}`, {
-        tones: [{ hz: 24.7, peakG: peakGFor(v) }],
-        noiseG: 0.001,
-        seed: seq,
-        speedRpm: 1482,
-        takenAt: new Date(t0 + seq * 3600_000).toISOString(),
-      }),
-      headers: { authorization: `Bearer ${key}` },
-    });
-    expect(res.status).toBe(201);
-  }
+  const o = { t0, from: seq, uidPrefix: 'ma', speedRpm: 1482 };
+  seq = await postVelocities(srv, srv.key, TAG, velocities, o);
   await createWorker(srv.ctx, { owner: 'attention-test' }).drain();
 }
 
-async function attention(cookie = engineer) {
+async function attention(cookie = srv.cookies.engineer) {
   const res = await srv.call('GET', `/api/v1/machines/${machineId}/attention`, { cookie });
   expect(res.status).toBe(200);
   return machineAttentionSchema.parse(await res.json());
 }
 
 beforeAll(async () => {
-  srv = await startTestServer();
-  engineer = await srv.signIn('engineer');
-  planner = await srv.signIn('planner');
-  const admin = await srv.signIn('admin');
-  const gw = await srv.call('POST', '/api/v1/gateways', {
-    cookie: admin,
-    body: { siteId: 1, name: 'gw-attention' },
-  });
-  key = (await gw.json()).apiKey;
   const [p] = await srv.q('SELECT id, machine_id FROM points WHERE tag = ?', [TAG]);
   pointId = Number(p!.id);
   machineId = Number(p!.machine_id);
 }, 120_000);
-afterAll(async () => {
-  await srv?.stop();
-});
 
 describe('machine attention', () => {
   it('a quiet machine has nothing to say; an unknown machine is 404', async () => {
     expect(await attention()).toEqual({ alerts: [], findings: [] });
-    const res = await srv.call('GET', '/api/v1/machines/999999/attention', { cookie: engineer });
+    const res = await srv.call('GET', '/api/v1/machines/999999/attention', {
+      cookie: srv.cookies.engineer,
+    });
     expect(res.status).toBe(404);
   });
 
@@ -91,7 +60,7 @@ describe('machine attention', () => {
     expect(overall.value).toBeCloseTo(5.2, 1);
 
     const created = await srv.call('POST', '/api/v1/findings', {
-      cookie: planner,
+      cookie: srv.cookies.planner,
       body: {
         pointId,
         alertId: a.alerts[0]!.id,
@@ -106,7 +75,7 @@ describe('machine attention', () => {
       [finding.id, pointId, 'overall-velocity'],
     ]);
     const done = await srv.call('PATCH', `/api/v1/findings/${finding.id}`, {
-      cookie: planner,
+      cookie: srv.cookies.planner,
       body: { state: 'done' },
     });
     expect(done.status).toBe(200);
@@ -114,7 +83,9 @@ describe('machine attention', () => {
   });
 
   it('the machine detail names the governing band of the point in alert with its values, and the zone boundaries', async () => {
-    const res = await srv.call('GET', `/api/v1/machines/${machineId}`, { cookie: engineer });
+    const res = await srv.call('GET', `/api/v1/machines/${machineId}`, {
+      cookie: srv.cookies.engineer,
+    });
     expect(res.status).toBe(200);
     const m = machineDetailSchema.parse(await res.json());
     const p = m.points.find((x) => x.id === pointId)!;
@@ -145,14 +116,14 @@ describe('machine attention', () => {
   it('the trend names who acknowledged an alert and the note they wrote', async () => {
     const open = (await attention()).alerts.find((a) => a.bandKey === 'overall-velocity')!;
     const ack = await srv.call('POST', `/api/v1/alerts/${open.id}/acknowledge`, {
-      cookie: engineer,
+      cookie: srv.cookies.engineer,
       body: { note: 'Guard off, alignment booked' },
     });
     expect(ack.status).toBe(200);
     const res = await srv.call(
       'GET',
       `/api/v1/points/${pointId}/trend?band=overall-velocity&from=${new Date(t0).toISOString()}`,
-      { cookie: engineer },
+      { cookie: srv.cookies.engineer },
     );
     expect(res.status).toBe(200);
     const body = await res.json();

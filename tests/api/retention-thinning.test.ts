@@ -7,12 +7,12 @@
  * a UTC midnight), then the first per UTC day. The expectations below follow from that
  * definition, capture by capture.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import {
   expireRawSamplesPass,
   thinSpectra,
 } from '../../apps/server/src/features/worker/retention.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { testServerForFile } from '../support/api-suite.ts';
 import {
   analysedCaptures,
   NOW,
@@ -21,19 +21,8 @@ import {
   spectraWhole,
 } from '../support/analysed-captures.ts';
 
-let srv: TestServer;
-let key: string;
-let cookie: string;
+const srv = testServerForFile({ signIn: ['admin'], gateway: true });
 const TAG = 'MFP-P102-MDE-H';
-
-beforeAll(async () => {
-  srv = await startTestServer();
-  cookie = await srv.signIn('admin');
-  key = await srv.gatewayKey(1, 'gw');
-});
-afterAll(async () => {
-  await srv?.stop();
-});
 
 describe('tiered thinning', () => {
   const T = {
@@ -93,7 +82,7 @@ describe('tiered thinning', () => {
 
   beforeAll(async () => {
     pointId = await pointIdOf(srv, TAG);
-    ids = await analysedCaptures(srv, key, TAG, Object.values(T));
+    ids = await analysedCaptures(srv, srv.key, TAG, Object.values(T));
     const [snap] = await srv.q('SELECT snapshot_id FROM analyses WHERE id = ?', [id('up')]);
     await srv.q("UPDATE snapshots SET source = 'upload', gateway_id = NULL WHERE id = ?", [
       snap!.snapshot_id,
@@ -176,7 +165,9 @@ describe('tiered thinning', () => {
   it('drops the raw waveform of thinned captures and keeps that of whole ones', async () => {
     for (const l of thin) expect([l, await hasSamples(l)]).toEqual([l, 0]);
     for (const l of keep) expect([l, await hasSamples(l)]).toEqual([l, 1]);
-    const res = await srv.call('GET', `/api/v1/analyses/${id('h3')}/waveform`, { cookie });
+    const res = await srv.call('GET', `/api/v1/analyses/${id('h3')}/waveform`, {
+      cookie: srv.cookies.admin,
+    });
     expect(res.status).toBeGreaterThanOrEqual(400);
   });
 
@@ -243,7 +234,7 @@ describe('tiered thinning', () => {
 
   it('the spectrum of a thinned capture answers 410 naming the nearest whole capture', async () => {
     const res = await srv.call('GET', `/api/v1/analyses/${id('h3')}/spectrum?kind=velocity`, {
-      cookie,
+      cookie: srv.cookies.admin,
     });
     expect(res.status).toBe(410);
     const body = await res.json();
@@ -252,13 +243,15 @@ describe('tiered thinning', () => {
     // h3 (10:55): h1 is 50 min before, h4 10 min after.
     expect(body.error.details.nearest).toEqual({ analysisId: id('h4'), takenAt: T.h4 });
     const ok = await srv.call('GET', `/api/v1/analyses/${id('h4')}/spectrum?kind=velocity`, {
-      cookie,
+      cookie: srv.cookies.admin,
     });
     expect(ok.status).toBe(200);
   });
 
   it('the analyses list marks which captures had their spectra thinned', async () => {
-    const res = await srv.call('GET', `/api/v1/points/${pointId}/analyses?limit=200`, { cookie });
+    const res = await srv.call('GET', `/api/v1/points/${pointId}/analyses?limit=200`, {
+      cookie: srv.cookies.admin,
+    });
     expect(res.status).toBe(200);
     const flags = new Map(
       (await res.json()).items.map((i: { id: number; spectraThinned: boolean }) => [
@@ -271,7 +264,9 @@ describe('tiered thinning', () => {
   });
 
   it('the waterfall skips thinned captures', async () => {
-    const res = await srv.call('GET', `/api/v1/points/${pointId}/waterfall?limit=50`, { cookie });
+    const res = await srv.call('GET', `/api/v1/points/${pointId}/waterfall?limit=50`, {
+      cookie: srv.cookies.admin,
+    });
     expect(res.status).toBe(200);
     const shown = new Set(
       (await res.json()).items.map((i: { analysisId: number }) => i.analysisId),

@@ -4,14 +4,14 @@
  * the real ingest and worker (taken at chosen past times). The tiers themselves, capture by
  * capture: retention-thinning.test.ts. The defaults are common practice, no source.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import {
   expireRawSamplesPass,
   retentionPolicy,
   thinSpectra,
 } from '../../apps/server/src/features/worker/retention.ts';
 import { loadConfig } from '../../apps/server/src/config.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { testServerForFile } from '../support/api-suite.ts';
 import {
   analysedCaptures,
   NOW,
@@ -20,33 +20,23 @@ import {
   spectraWhole,
 } from '../support/analysed-captures.ts';
 
-let srv: TestServer;
-let key: string;
-let cookie: string;
+const srv = testServerForFile({ signIn: ['admin'], gateway: true });
 const TAG_BATCH = 'MFP-P102-MDE-V';
-
-beforeAll(async () => {
-  srv = await startTestServer();
-  cookie = await srv.signIn('admin');
-  key = await srv.gatewayKey(1, 'gw');
-});
-afterAll(async () => {
-  await srv?.stop();
-});
+/** The policy's defaults: common practice, no source. */
+const DEFAULTS = {
+  rawSamplesDays: 90,
+  spectraWholeDays: 14,
+  spectraHourlyDays: 90,
+  captureMonths: 0,
+  keepWindowMinutes: 60,
+  batchSize: 500,
+  batchPauseMs: 200,
+};
 
 describe('retention policy', () => {
   it('has the documented defaults and refuses an hourly tier shorter than the whole one', () => {
     const p = retentionPolicy(loadConfig({}));
-    // Defaults: common practice, no source.
-    expect(p).toEqual({
-      rawSamplesDays: 90,
-      spectraWholeDays: 14,
-      spectraHourlyDays: 90,
-      captureMonths: 0,
-      keepWindowMinutes: 60,
-      batchSize: 500,
-      batchPauseMs: 200,
-    });
+    expect(p).toEqual(DEFAULTS);
     expect(() => loadConfig({ SPECTRA_WHOLE_DAYS: '30', SPECTRA_HOURLY_DAYS: '7' })).toThrow(
       /SPECTRA_HOURLY_DAYS: must be at least SPECTRA_WHOLE_DAYS/,
     );
@@ -61,19 +51,10 @@ describe('retention policy', () => {
 
 describe('the policy for the administrator', () => {
   it('GET /retention shows the policy in force to administrators only', async () => {
-    const res = await srv.call('GET', '/api/v1/retention', { cookie });
+    const res = await srv.call('GET', '/api/v1/retention', { cookie: srv.cookies.admin });
     expect(res.status).toBe(200);
-    // The test server runs on the defaults (common practice, no source).
-    expect(await res.json()).toEqual({
-      rawSamplesDays: 90,
-      spectraWholeDays: 14,
-      spectraHourlyDays: 90,
-      captureMonths: 0,
-      keepWindowMinutes: 60,
-      batchSize: 500,
-      batchPauseMs: 200,
-      schedule: '45 2 * * *',
-    });
+    // The test server runs on the defaults.
+    expect(await res.json()).toEqual({ ...DEFAULTS, schedule: '45 2 * * *' });
     const engineer = await srv.signIn('engineer');
     expect((await srv.call('GET', '/api/v1/retention', { cookie: engineer })).status).toBe(403);
   });
@@ -85,7 +66,7 @@ describe('bounded batches', () => {
     const day = ['01:00', '03:00', '05:00', '07:00', '09:00', '11:00'].map(
       (h) => `2026-03-15T${h}:00.000Z`,
     );
-    const ids = await analysedCaptures(srv, key, TAG_BATCH, day);
+    const ids = await analysedCaptures(srv, srv.key, TAG_BATCH, day);
     const pass = await thinSpectra(srv.ctx.db, POLICY, NOW, { batchSize: 2 });
     expect(pass).toEqual({ rows: 5, batches: 3 });
     expect(await spectraWhole(srv, ids.get(day[0]!)!)).toBe(true);
@@ -116,7 +97,7 @@ describe('bounded batches', () => {
     await srv.q('DELETE FROM quality_notices WHERE point_id = ?', [pointId]);
     await analysedCaptures(
       srv,
-      key,
+      srv.key,
       TAG_BATCH,
       ['01:00', '02:00', '03:00', '04:00', '05:00'].map((h) => `2026-09-28T${h}:00.000Z`),
     );

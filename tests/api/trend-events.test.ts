@@ -4,48 +4,28 @@
  * and after, from the audit record) and captures that came from a file upload (a portable
  * instrument's recording), with their value in the trend.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { writeWav } from '@turnstone/dsp';
 import { trendResponseSchema } from '@turnstone/contracts/trend';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { snapshotBody, toneCounts } from '../support/signals.ts';
+import { testServerForFile } from '../support/api-suite.ts';
+import { toneCounts } from '../support/signals.ts';
+import { acknowledgeAndOpenFinding, postVelocities } from '../support/alert-captures.ts';
 
-let srv: TestServer;
-let engineer: string;
-let planner: string;
-let key: string;
+const srv = testServerForFile({ signIn: ['engineer', 'planner'], gateway: true });
 let pointId: number;
 const TAG = 'MFP-P101-MDE-H';
 const HOUR = 3600_000;
 const t0 = Date.now() - 10 * 86_400_000;
 let seq = 0;
 
-/**
- * Peak acceleration (g) of a 24.7 Hz tone of `mmS` mm/s RMS: a = v·√2·2πf / 9806.65 (v = a/2πf
- * for a sine, RMS = peak/√2; calculus of a sinusoid, textbook).
- */
-const peakGFor = (mmS: number) => (mmS * Math.SQRT2 * 2 * Math.PI * 24.7) / 9806.65;
-
 async function capture(velocities: number[]) {
-  for (const v of velocities) {
-    seq += 1;
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body: snapshotBody(TAG, `te-${seq}`, {
-        tones: [{ hz: 24.7, peakG: peakGFor(v) }],
-        noiseG: 0.001,
-        seed: seq,
-        speedRpm: 1482,
-        takenAt: new Date(t0 + seq * HOUR).toISOString(),
-      }),
-      headers: { authorization: `Bearer ${key}` },
-    });
-    expect(res.status).toBe(201);
-  }
+  const o = { t0, from: seq, uidPrefix: 'te', speedRpm: 1482 };
+  seq = await postVelocities(srv, srv.key, TAG, velocities, o);
   await createWorker(srv.ctx, { owner: 'trend-events-test' }).drain();
 }
 
-async function trend(band: string, cookie = engineer) {
+async function trend(band: string, cookie = srv.cookies.engineer) {
   const res = await srv.call(
     'GET',
     `/api/v1/points/${pointId}/trend?band=${band}&from=${new Date(t0).toISOString()}`,
@@ -56,10 +36,6 @@ async function trend(band: string, cookie = engineer) {
 }
 
 beforeAll(async () => {
-  srv = await startTestServer();
-  engineer = await srv.signIn('engineer');
-  planner = await srv.signIn('planner');
-  key = await srv.gatewayKey(1, 'gw-trend-events');
   const [p] = await srv.q('SELECT id FROM points WHERE tag = ?', [TAG]);
   pointId = Number(p!.id);
   // P-101 is ISO 20816-3 group 2, rigid: template alert 2.8 mm/s, danger 4.5 mm/s,
@@ -67,31 +43,20 @@ beforeAll(async () => {
   // Two quiet captures, then three above the alert level: raised at the fourth.
   await capture([1.0, 1.0, 3.5, 3.5, 3.5]);
 }, 120_000);
-afterAll(async () => {
-  await srv?.stop();
-});
 
 describe('trend events', () => {
   it('an acknowledged alert names who and the note; a finding carries its title and state', async () => {
-    const [alert] = await srv.q<{ id: number }>(
-      "SELECT id FROM alerts WHERE point_id = ? AND band_key = 'overall-velocity'",
-      [pointId],
-    );
-    const ack = await srv.call('POST', `/api/v1/alerts/${alert!.id}/acknowledge`, {
-      cookie: engineer,
-      body: { note: 'Coupling guard checked, alignment booked' },
+    const alertId = await acknowledgeAndOpenFinding(srv, pointId, {
+      engineer: srv.cookies.engineer,
+      planner: srv.cookies.planner,
+      note: 'Coupling guard checked, alignment booked',
+      title: 'Realign motor to pump',
     });
-    expect(ack.status).toBe(200);
-    const made = await srv.call('POST', '/api/v1/findings', {
-      cookie: planner,
-      body: { pointId, bandKey: 'overall-velocity', title: 'Realign motor to pump' },
-    });
-    expect(made.status).toBe(201);
 
     const body = await trend('overall-velocity');
     expect(body.events.map((e) => e.kind)).toEqual(['raised', 'acknowledged']);
     expect(body.events[1]).toMatchObject({
-      alertId: Number(alert!.id),
+      alertId,
       note: 'Coupling guard checked, alignment booked',
     });
     expect(body.events[1]!.by).toMatch(/\S/);
@@ -102,12 +67,12 @@ describe('trend events', () => {
 
   it('a limit change of the band shows who, why and the levels before and after; other bands are untouched', async () => {
     const current = await (
-      await srv.call('GET', `/api/v1/points/${pointId}/limits`, { cookie: engineer })
+      await srv.call('GET', `/api/v1/points/${pointId}/limits`, { cookie: srv.cookies.engineer })
     ).json();
     const bands = current.bands as { key: string; alertLevel: number; dangerLevel: number }[];
     const before = bands.find((b) => b.key === 'overall-velocity')!;
     const put = await srv.call('PUT', `/api/v1/points/${pointId}/limits`, {
-      cookie: engineer,
+      cookie: srv.cookies.engineer,
       body: {
         bands: bands.map((b) =>
           b.key === 'overall-velocity' ? { ...b, alertLevel: 3.2, dangerLevel: 5.1 } : b,
@@ -155,7 +120,7 @@ describe('trend events', () => {
     const wav = writeWav(counts, 10240, 'int16');
     form.append('file', new Blob([wav as Uint8Array<ArrayBuffer>]), 'route-p101-de.wav');
     const res = await srv.call('POST', `/api/v1/points/${pointId}/uploads`, {
-      cookie: engineer,
+      cookie: srv.cookies.engineer,
       raw: form,
     });
     expect(res.status).toBe(201);
@@ -177,12 +142,12 @@ describe('trend events', () => {
     expect(body.items.length).toBe(6);
   });
 
-  it('a planner reads the same events; a band the point lacks is 404', async () => {
-    const body = await trend('overall-velocity', planner);
+  it('a srv.cookies.planner reads the same events; a band the point lacks is 404', async () => {
+    const body = await trend('overall-velocity', srv.cookies.planner);
     expect(body.uploads).toHaveLength(1);
     expect(body.limitChanges).toHaveLength(1);
     const res = await srv.call('GET', `/api/v1/points/${pointId}/trend?band=no-such-band`, {
-      cookie: planner,
+      cookie: srv.cookies.planner,
     });
     expect(res.status).toBe(404);
   });

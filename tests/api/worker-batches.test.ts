@@ -3,7 +3,7 @@
  * analyse or write, leases taken over mid-batch, two workers at once, and limits saved while a
  * batch was being analysed. Single captures and retention: worker.test.ts.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { claimJobs, failJob } from '../../apps/server/src/features/queue/queue-repository.ts';
 import {
@@ -11,24 +11,15 @@ import {
   runAnalysisJobs,
   storeAnalyses,
 } from '../../apps/server/src/features/analysis/analysis-service.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { testServerForFile } from '../support/api-suite.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { postSnapshot, quietQueue } from '../support/alert-captures.ts';
 
-let srv: TestServer;
-let key: string;
+const srv = testServerForFile({ env: { JOB_LEASE_S: '1' }, gateway: true });
 const TAG = 'MFP-P102-MDE-H';
 
 const ingest = (uid: string, o: Parameters<typeof snapshotBody>[2] = {}, tag = TAG) =>
-  postSnapshot(srv, key, snapshotBody(tag, uid, o));
-
-beforeAll(async () => {
-  srv = await startTestServer({ JOB_LEASE_S: '1' });
-  key = await srv.gatewayKey();
-});
-afterAll(async () => {
-  await srv?.stop();
-});
+  postSnapshot(srv, srv.key, snapshotBody(tag, uid, o));
 
 describe('worker batches', () => {
   it('in a batch where one snapshot cannot be analysed, the others are stored once and it alone is retried', async () => {

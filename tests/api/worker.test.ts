@@ -1,27 +1,18 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { claimJobs } from '../../apps/server/src/features/queue/queue-repository.ts';
 import { runAnalysisJob } from '../../apps/server/src/features/analysis/analysis-service.ts';
 import { expireRawSamples } from '../../apps/server/src/features/worker/retention.ts';
 import { readWav } from '@turnstone/dsp';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { testServerForFile } from '../support/api-suite.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { postSnapshot, quietQueue } from '../support/alert-captures.ts';
 
-let srv: TestServer;
-let key: string;
+const srv = testServerForFile({ env: { JOB_LEASE_S: '1' }, gateway: true });
 const TAG = 'MFP-P102-MDE-H';
 
 const ingest = (uid: string, o: Parameters<typeof snapshotBody>[2] = {}, tag = TAG) =>
-  postSnapshot(srv, key, snapshotBody(tag, uid, o));
-
-beforeAll(async () => {
-  srv = await startTestServer({ JOB_LEASE_S: '1' });
-  key = await srv.gatewayKey();
-});
-afterAll(async () => {
-  await srv?.stop();
-});
+  postSnapshot(srv, srv.key, snapshotBody(tag, uid, o));
 
 describe('worker', () => {
   it('turns a queued snapshot into one analysis with band values and marks it done', async () => {

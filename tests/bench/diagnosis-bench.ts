@@ -18,6 +18,8 @@ import {
   type CaptureSpec,
   type OrderToneSpec,
 } from '@turnstone/condition/diagnosis.test-support';
+import { lcg32 } from '@turnstone/dsp/seeded-random';
+import { diagnosisCodeSchema } from '@turnstone/contracts/points';
 
 const PER_PATTERN = Number(process.env.DIAGNOSIS_BENCH_PER_PATTERN ?? 10);
 const HEALTHY = 2 * PER_PATTERN;
@@ -32,29 +34,12 @@ const BEARINGS: BearingGeometry[] = [
   { name: 'DE', rollingElements: 8, ballDiameterMm: 17.46, pitchDiameterMm: 72.39 },
 ];
 
-let seed = 20261202;
-function rand(): number {
-  seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0;
-  return seed / 2 ** 32;
-}
+const rand = lcg32(20261202);
 const between = (lo: number, hi: number): number => lo + (hi - lo) * rand();
 const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rand() * xs.length)]!;
 
 type Pattern = 'healthy' | DiagnosisCode;
-const PATTERNS: Pattern[] = [
-  'healthy',
-  'unbalance',
-  'misalignment',
-  'looseness',
-  'bearing-outer-race',
-  'bearing-inner-race',
-  'bearing-rolling-element',
-  'bearing-cage',
-  'gear-mesh',
-  'blade-pass',
-  'electrical',
-  'belt',
-];
+const PATTERNS: Pattern[] = ['healthy', ...diagnosisCodeSchema.options];
 
 interface Case {
   spec: CaptureSpec;

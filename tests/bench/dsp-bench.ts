@@ -8,6 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { createInterface } from 'node:readline';
 import { analyzeSnapshot, rfft, welch } from '@turnstone/dsp';
+import { lcg32 } from '@turnstone/dsp/seeded-random';
 
 const FS = 25600;
 const RFFT_SIZES = [4096, 8192, 16384, 32768, 65536, 131072, 262144];
@@ -15,14 +16,13 @@ const BATCHES = 2;
 const BATCH_SECONDS = 0.15;
 
 function signal(n: number): Float64Array {
-  let s = 2024;
+  const u = lcg32(2024);
   return Float64Array.from({ length: n }, (_, i) => {
-    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
     const t = i / FS;
     return (
       Math.sin(2 * Math.PI * 24.6 * t) +
       0.3 * Math.sin(2 * Math.PI * 1234.5 * t) +
-      0.2 * (s / 2 ** 32 - 0.5)
+      0.2 * (u() - 0.5)
     );
   });
 }

@@ -15,7 +15,11 @@ import { trendResponseSchema } from '@turnstone/contracts/trend';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { chartCanvas, launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
-import { captureVelocities, gatewayKey } from '../support/alert-captures.ts';
+import {
+  acknowledgeAndOpenFinding,
+  captureVelocities,
+  gatewayKey,
+} from '../support/alert-captures.ts';
 import { toneCounts } from '../support/signals.ts';
 
 let srv: TestServer;
@@ -47,21 +51,12 @@ beforeAll(async () => {
   pointId = Number(ids.find((r) => r.tag === TAG)!.id);
   otherId = Number(ids.find((r) => r.tag === OTHER)!.id);
   engineer = await srv.signIn('engineer');
-  const planner = await srv.signIn('planner');
-  const [alert] = await srv.q<{ id: number }>(
-    "SELECT id FROM alerts WHERE point_id = ? AND band_key = 'overall-velocity'",
-    [pointId],
-  );
-  const ack = await srv.call('POST', `/api/v1/alerts/${alert!.id}/acknowledge`, {
-    cookie: engineer,
-    body: { note: 'Soft foot suspected, shims ordered' },
+  await acknowledgeAndOpenFinding(srv, pointId, {
+    engineer,
+    planner: await srv.signIn('planner'),
+    note: 'Soft foot suspected, shims ordered',
+    title: 'Check motor feet for soft foot',
   });
-  expect(ack.status).toBe(200);
-  const finding = await srv.call('POST', '/api/v1/findings', {
-    cookie: planner,
-    body: { pointId, bandKey: 'overall-velocity', title: 'Check motor feet for soft foot' },
-  });
-  expect(finding.status).toBe(201);
   const limits = await (
     await srv.call('GET', `/api/v1/points/${pointId}/limits`, { cookie: engineer })
   ).json();

@@ -74,14 +74,14 @@ export async function captureVelocities(
 /**
  * Posts one capture per velocity (mm/s RMS at 1×) on a test's own running count: capture n
  * (counting on from `from`) has uid `${uidPrefix}-${n}`, noise seed n and is taken n hours
- * after `t0`. Every answer must be 201. Returns the count after the last capture.
+ * after `t0` (with the shaft speed `speedRpm` when given). Every answer must be 201. Returns the count after the last capture.
  */
 export async function postVelocities(
   srv: TestServer,
   key: string,
   tag: string,
   velocities: number[],
-  o: { t0: number; from: number; uidPrefix: string },
+  o: { t0: number; from: number; uidPrefix: string; speedRpm?: number },
 ): Promise<number> {
   let seq = o.from;
   for (const v of velocities) {
@@ -91,6 +91,7 @@ export async function postVelocities(
         tones: [{ hz: 24.7, peakG: peakGFor(v) }],
         noiseG: 0.001,
         seed: seq,
+        speedRpm: o.speedRpm,
         takenAt: new Date(o.t0 + seq * 3600_000).toISOString(),
       }),
       headers: { authorization: `Bearer ${key}` },
@@ -98,4 +99,30 @@ export async function postVelocities(
     expect(res.status).toBe(201);
   }
   return seq;
+}
+
+/**
+ * Acknowledges the point's overall-velocity alert with a note (as `engineer`) and opens a
+ * finding on that band (as `planner`); both must be accepted. The alert's id.
+ */
+export async function acknowledgeAndOpenFinding(
+  srv: TestServer,
+  pointId: number,
+  o: { engineer: string; planner: string; note: string; title: string },
+): Promise<number> {
+  const [alert] = await srv.q<{ id: number }>(
+    "SELECT id FROM alerts WHERE point_id = ? AND band_key = 'overall-velocity'",
+    [pointId],
+  );
+  const ack = await srv.call('POST', `/api/v1/alerts/${alert!.id}/acknowledge`, {
+    cookie: o.engineer,
+    body: { note: o.note },
+  });
+  expect(ack.status).toBe(200);
+  const made = await srv.call('POST', '/api/v1/findings', {
+    cookie: o.planner,
+    body: { pointId, bandKey: 'overall-velocity', title: o.title },
+  });
+  expect(made.status).toBe(201);
+  return Number(alert!.id);
 }

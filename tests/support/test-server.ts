@@ -34,6 +34,8 @@ export interface TestServer extends RunningServer {
   signIn(role: string, password?: string): Promise<string>;
   /** A new gateway of the site (created by the demo administrator); its ingest key. */
   gatewayKey(siteId?: number, name?: string): Promise<string>;
+  /** POST /api/ingest/v1/snapshots with a gateway's key (and any further headers). */
+  ingest(key: string, body: unknown, headers?: Record<string, string>): Promise<TestResponse>;
   /** A plain SQL query on the server's own pool (placeholders only); rows as objects. */
   q<T = Record<string, unknown>>(sqlText: string, params?: unknown[]): Promise<T[]>;
 }
@@ -116,5 +118,10 @@ export async function startTestServer(env: Record<string, string> = {}): Promise
       throw new Error(`creating a gateway answered ${res.status}: ${await res.text()}`);
     return (await res.json()).apiKey as string;
   };
-  return { ...server, stop, databaseUrl, call, signIn, q, gatewayKey };
+  const ingest: TestServer['ingest'] = (key, body, headers = {}) =>
+    call('POST', '/api/ingest/v1/snapshots', {
+      body,
+      headers: { authorization: `Bearer ${key}`, ...headers },
+    });
+  return { ...server, stop, databaseUrl, call, signIn, q, gatewayKey, ingest };
 }

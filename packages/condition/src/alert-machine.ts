@@ -1,4 +1,4 @@
-import type { AlertLevel, BandEvent } from './band-evaluation.ts';
+import type { AlertLevel, BandEvent, QualityNotice } from './band-evaluation.ts';
 
 /** Lifecycle of one alert. */
 export type AlertLifecycle = 'raised' | 'acknowledged' | 'cleared';
@@ -84,12 +84,7 @@ export type AlertChange =
     }
   | { readonly kind: 'updated'; readonly alert: AlertState }
   | { readonly kind: 'cleared'; readonly alert: AlertState }
-  | {
-      readonly kind: 'quality-notice';
-      readonly takenAt: number;
-      readonly value: number;
-      readonly reason: string | null;
-    }
+  | QualityNotice
   | {
       readonly kind: 'ignored';
       readonly reason: 'no-alert' | 'already-acknowledged';
@@ -220,14 +215,7 @@ export function reduceAlert(alert: AlertState | null, event: AlertEvent): AlertT
     case 'quality-notice':
       return {
         state: alert,
-        changes: [
-          {
-            kind: 'quality-notice',
-            takenAt: event.takenAt,
-            value: event.value,
-            reason: event.reason,
-          },
-        ],
+        changes: [event],
       };
     case 'baseline-complete':
     case 'late':

@@ -138,6 +138,14 @@ export interface BandSample {
   readonly qualityReason?: string;
 }
 
+/** An `unusable` snapshot's notice: the band event, and the alert change it passes on as it is. */
+export interface QualityNotice {
+  readonly kind: 'quality-notice';
+  readonly takenAt: number;
+  readonly value: number;
+  readonly reason: string | null;
+}
+
 /** What one band value caused. */
 export type BandEvent =
   /** The band rose to `level` after `run` consecutive values at or above `limit`. */
@@ -171,12 +179,7 @@ export type BandEvent =
       readonly run?: number;
     }
   /** An `unusable` snapshot: nothing was evaluated; the engineer should look at the data. */
-  | {
-      readonly kind: 'quality-notice';
-      readonly takenAt: number;
-      readonly value: number;
-      readonly reason: string | null;
-    }
+  | QualityNotice
   /** A statistical rule's baseline became complete; its levels apply from this value on. */
   | {
       readonly kind: 'baseline-complete';

@@ -1,20 +1,14 @@
+import { machineTypeSchema } from '@turnstone/contracts/fleet';
 import { NEW_BAND_RULES, type BandDefinition, type LimitSet } from './band-definition.ts';
 import { isoBand } from './iso-band.ts';
 import { isoDefaultLevels, isoDisplacementDefaultLevels } from './iso-default-levels.ts';
 import { displacementGovernsBelowRpm, type Foundation, type MachineGroup } from './iso-zones.ts';
 
-/** Machine types that have a limit-set template. */
-export type MachineType = 'motor' | 'pump' | 'fan' | 'blower' | 'gearbox' | 'compressor';
+/** Machine types that have a limit-set template: every type a machine record may have. */
+export type MachineType = (typeof machineTypeSchema.options)[number];
 
 /** Every machine type with a template. */
-export const MACHINE_TYPES: readonly MachineType[] = [
-  'motor',
-  'pump',
-  'fan',
-  'blower',
-  'gearbox',
-  'compressor',
-];
+export const MACHINE_TYPES: readonly MachineType[] = machineTypeSchema.options;
 
 /** What a template needs to know about the machine. */
 export interface TemplateMachine {

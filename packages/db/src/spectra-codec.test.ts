@@ -8,6 +8,7 @@ import {
   SPECTRA_STEP_DB,
   storedSpectrum,
 } from './spectra-codec.ts';
+import { lcg32 } from '@turnstone/dsp/seeded-random';
 
 /** Largest relative error of decoded lines against the float64 values they came from. */
 function maxRelativeError(want: ArrayLike<number>, got: Float32Array): number {
@@ -53,10 +54,9 @@ describe('stored spectra: 16-bit log-amplitude code, deflated', () => {
   // over a little noise, as analyzeSnapshot computes it.
   it('round-trips the spectra analyzeSnapshot computes within the bound', () => {
     const fs = 12800;
-    let s = 7;
+    const u = lcg32(7);
     const samples = Int32Array.from({ length: 8192 }, (_, i) => {
-      s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-      const g = Math.sin((2 * Math.PI * 100 * i) / fs) + 1e-3 * (s / 2 ** 32 - 0.5);
+      const g = Math.sin((2 * Math.PI * 100 * i) / fs) + 1e-3 * (u() - 0.5);
       return Math.round(g * 0.1 * 2 ** 23);
     });
     const a = analyzeSnapshot({

@@ -49,24 +49,12 @@ export function analyzeSnapshot(
   input: SnapshotInput,
   options: AnalyzeSnapshotOptions = {},
 ): SnapshotAnalysis {
-  const {
-    samples,
-    n,
-    encoding,
-    fs,
-    bits,
-    fullScaleV,
-    sensitivityMvPerG,
-    fmaxHz,
-    lines,
-    windowName,
-    bands,
-    tachRpm,
-  } = readSnapshotInput(input);
+  const { samples, n, scale, fs, fmaxHz, lines, windowName, bands, tachRpm } =
+    readSnapshotInput(input);
   const peakCount = options.peakCount ?? 10;
 
   // ---- counts → g; quality from the counts
-  const accel = scaleToAcceleration(samples, { encoding, bits, fullScaleV, sensitivityMvPerG });
+  const accel = scaleToAcceleration(samples, scale);
   waveformStatistics(accel, { centerInPlace: true }); // removes the mean (and checks finiteness)
 
   // ---- Welch acceleration spectrum
@@ -83,10 +71,7 @@ export function analyzeSnapshot(
   const storedLines = Math.min(spec.power.length, Math.floor(fmaxHz / df + 1e-9) + 1);
 
   const quality = assessQuality(samples, {
-    encoding,
-    bits,
-    fullScaleV,
-    sensitivityMvPerG,
+    ...scale,
     sampleRateHz: fs,
     fmaxHz,
     ...(input.antiAliasCutoffHz === undefined

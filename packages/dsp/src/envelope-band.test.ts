@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { analyzeSnapshot } from './analyze-snapshot.ts';
+import { lcg32 } from './seeded-random.ts';
 
 const FS = 25600;
 const N = 65536;
@@ -13,11 +14,8 @@ const RESONANCE = 5600; // structural resonance the impacts ring, Hz
  * 0.02 g, in g (Randall & Antoni 2011, MSSP 25:485–520, for the model of the signal).
  */
 function bearingFault(impactG: number): Float64Array {
-  let s = 12345;
-  const uniform = () => {
-    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-    return (s + 0.5) / 2 ** 32;
-  };
+  const lcg = lcg32(12345);
+  const uniform = () => lcg() + 2 ** -33; // (0, 1): never 0, for the logarithm
   const w = 2 * Math.PI * RESONANCE;
   const zeta = 0.05;
   return Float64Array.from({ length: N }, (_, i) => {

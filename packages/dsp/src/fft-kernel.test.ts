@@ -2,6 +2,7 @@ import { describe, expect, it, vi } from 'vitest';
 import { fftKernel } from './fft-kernel.ts';
 import { fftJsPlan, getFftPlan } from './fft-plan.ts';
 import { welch } from './welch.ts';
+import { lcg32 } from './seeded-random.ts';
 
 // The WebAssembly kernel against the direct DFT sum (the definition, Oppenheim & Schafer)
 // and against fft.js on the same input. The scipy checks in tests/reference run on
@@ -27,11 +28,8 @@ function directDft(re: number[], im: number[], sign: -1 | 1): { re: number[]; im
 }
 
 function signal(n: number, seed: number): Float64Array {
-  let s = seed;
-  return Float64Array.from({ length: n }, () => {
-    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-    return s / 2 ** 32 - 0.5;
-  });
+  const u = lcg32(seed);
+  return Float64Array.from({ length: n }, () => u() - 0.5);
 }
 
 function maxAbs(a: ArrayLike<number>): number {

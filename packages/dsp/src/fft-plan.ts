@@ -209,6 +209,18 @@ function packedRealForward(n: number): (out: Float64Array, input: Float64Array) 
   };
 }
 
+/** out_k = x_k · y_k for k < count (interleaved complex values); `out` may be `x`. */
+function multiplyInto(out: Float64Array, x: Float64Array, y: Float64Array, count: number): void {
+  for (let k = 0; k < count; k++) {
+    const xr = x[2 * k]!;
+    const xi = x[2 * k + 1]!;
+    const yr = y[2 * k]!;
+    const yi = y[2 * k + 1]!;
+    out[2 * k] = xr * yr - xi * yi;
+    out[2 * k + 1] = xr * yi + xi * yr;
+  }
+}
+
 function bluesteinPlan(n: number): FftPlan {
   const m = nextPowerOfTwo(2 * n - 1);
   const inner = radixPlan(m);
@@ -237,32 +249,11 @@ function bluesteinPlan(n: number): FftPlan {
 
   const forward = (out: Float64Array, input: Float64Array): void => {
     a.fill(0);
-    for (let k = 0; k < n; k++) {
-      const xr = input[2 * k]!;
-      const xi = input[2 * k + 1]!;
-      const cr = chirp[2 * k]!;
-      const ci = chirp[2 * k + 1]!;
-      a[2 * k] = xr * cr - xi * ci;
-      a[2 * k + 1] = xr * ci + xi * cr;
-    }
+    multiplyInto(a, input, chirp, n);
     inner.forward(aHat, a);
-    for (let k = 0; k < m; k++) {
-      const ar = aHat[2 * k]!;
-      const ai = aHat[2 * k + 1]!;
-      const br = bHat[2 * k]!;
-      const bi = bHat[2 * k + 1]!;
-      aHat[2 * k] = ar * br - ai * bi;
-      aHat[2 * k + 1] = ar * bi + ai * br;
-    }
+    multiplyInto(aHat, aHat, bHat, m);
     inner.inverse(a, aHat);
-    for (let k = 0; k < n; k++) {
-      const yr = a[2 * k]!;
-      const yi = a[2 * k + 1]!;
-      const cr = chirp[2 * k]!;
-      const ci = chirp[2 * k + 1]!;
-      out[2 * k] = yr * cr - yi * ci;
-      out[2 * k + 1] = yr * ci + yi * cr;
-    }
+    multiplyInto(out, a, chirp, n);
   };
   const conj = new Float64Array(2 * n);
   const complexInput = new Float64Array(2 * n);

@@ -8,17 +8,15 @@ import {
   UNDER_RANGE_UNUSABLE_BITS,
 } from './quality-verdict.ts';
 import { DRIFT_LINE_RATIO } from './quality-waveform.ts';
+import { lcg32 } from './seeded-random.ts';
 
 const FS = 25600;
 const HALF24 = 2 ** 23;
 
 /** Deterministic pseudo-noise in [−0.5, 0.5) (32-bit LCG). */
 function lcg(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => {
-    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-    return s / 2 ** 32 - 0.5;
-  };
+  const u = lcg32(seed);
+  return () => u() - 0.5;
 }
 
 /** 24-bit counts of a 117 Hz tone at `fraction` of full scale plus a little noise. */

@@ -17,6 +17,19 @@ export function mulberry32(seed: number): () => number {
   };
 }
 
+/**
+ * The 32-bit linear congruential generator of Numerical Recipes (Press et al., 2nd ed., §7.1:
+ * a = 1664525, c = 1013904223, m = 2³²): each state over 2³², uniform in [0, 1). The tests'
+ * noise and the diagnosis benchmark's cases come from it.
+ */
+export function lcg32(seed: number): () => number {
+  let s = seed >>> 0;
+  return () => {
+    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
+    return s / 2 ** 32;
+  };
+}
+
 /** 32-bit FNV-1a hash of a string: turns a capture's uid into its seed. */
 export function fnv1a(text: string): number {
   let h = 0x811c9dc5;

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { analyzeSnapshot } from './analyze-snapshot.ts';
 import { shaftVectors } from './shaft-vector.ts';
+import { lcg32 } from './seeded-random.ts';
 
 const FS = 25600;
 const N = 65536;
@@ -48,15 +49,12 @@ describe('shaftVectors', () => {
     const phi1 = 300;
     const phi2 = 45;
     const rad = Math.PI / 180;
-    let s = 7;
+    const u = lcg32(7);
     const a = Float64Array.from({ length: N }, (_, i) => {
       const t = i / FS;
       const theta = 2 * Math.PI * (f0 * t + (c * t * t) / 2);
-      s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
       return (
-        Math.cos(theta - phi1 * rad) +
-        0.3 * Math.cos(2 * theta - phi2 * rad) +
-        0.2 * (s / 2 ** 32 - 0.5)
+        Math.cos(theta - phi1 * rad) + 0.3 * Math.cos(2 * theta - phi2 * rad) + 0.2 * (u() - 0.5)
       );
     });
     const [v1, v2] = shaftVectors(

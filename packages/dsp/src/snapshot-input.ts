@@ -77,11 +77,9 @@ export const MIN_SAMPLES = 64;
 export interface ReadSnapshotInput {
   samples: SnapshotInput['samples'];
   n: number;
-  encoding: SampleEncoding;
+  /** How counts become g: the sample encoding, the ADC and the sensor. */
+  scale: { encoding: SampleEncoding; bits: number; fullScaleV: number; sensitivityMvPerG: number };
   fs: number;
-  bits: number;
-  fullScaleV: number;
-  sensitivityMvPerG: number;
   fmaxHz: number;
   lines: number;
   windowName: WindowName;
@@ -128,18 +126,6 @@ export function readSnapshotInput(input: SnapshotInput): ReadSnapshotInput {
   checkBands(bands);
   const tachRpm = input.tach ? tachSpeedRpm(input.tach) : null;
 
-  return {
-    samples,
-    n,
-    encoding,
-    fs,
-    bits,
-    fullScaleV,
-    sensitivityMvPerG,
-    fmaxHz,
-    lines,
-    windowName,
-    bands,
-    tachRpm,
-  };
+  const scale = { encoding, bits, fullScaleV, sensitivityMvPerG };
+  return { samples, n, scale, fs, fmaxHz, lines, windowName, bands, tachRpm };
 }

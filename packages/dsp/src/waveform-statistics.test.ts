@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { integrateWaveform, trimmedPeakToPeak } from './integrate-waveform.ts';
 import { integrateSineAmplitude } from './units.ts';
 import { waveformStatistics } from './waveform-statistics.ts';
+import { lcg32 } from './seeded-random.ts';
 
 describe('waveform statistics', () => {
   // Definitions: sine peak = √2 × RMS = 1.41421 × RMS; Pearson kurtosis of a sine = 1.5 (moment definition)
@@ -20,11 +21,8 @@ describe('waveform statistics', () => {
 
   // Gaussian kurtosis 3 (moment definition); Box–Muller from a fixed LCG
   it('when Gaussian noise is measured, kurtosis is near 3', () => {
-    let s = 12345;
-    const u = (): number => {
-      s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-      return (s + 0.5) / 2 ** 32;
-    };
+    const lcg = lcg32(12345);
+    const u = (): number => lcg() + 2 ** -33; // (0, 1): never 0, for the logarithm
     const x = Float64Array.from(
       { length: 200000 },
       () => Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u()),

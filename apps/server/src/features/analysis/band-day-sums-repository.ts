@@ -120,3 +120,49 @@ export async function sitesWithoutDaySums(db: Db): Promise<{ siteId: number; tim
   ];
   return rows.map((r) => ({ siteId: Number(r.siteId), timeZone: String(r.timeZone) }));
 }
+
+/** Every site with its time zone. */
+export async function sitesWithZones(db: Db): Promise<{ siteId: number; timeZone: string }[]> {
+  const [rows] = (await db.execute(
+    sql`SELECT id AS siteId, time_zone AS timeZone FROM sites`,
+  )) as unknown as [{ siteId: number; timeZone: string }[]];
+  return rows.map((r) => ({ siteId: Number(r.siteId), timeZone: String(r.timeZone) }));
+}
+
+/**
+ * After the band values taken in [from, to) were dropped (from null: all before `to`): the
+ * sums of these points (one site, zone `timeZone`) for the local days `first` … `last` that
+ * met that span are deleted, and those of the two edge days summed again from the values
+ * left around them. Idempotent: a pass that stopped half-way repeats it.
+ */
+export async function resumDaysOfDroppedSpan(
+  db: Db,
+  pointIds: number[],
+  timeZone: string,
+  span: { from: Date | null; to: Date; first: string | null; last: string },
+): Promise<void> {
+  if (pointIds.length === 0) return;
+  const ids = sql.join(
+    pointIds.map((id) => sql`${id}`),
+    sql`, `,
+  );
+  const { from, to, first, last } = span;
+  await db.execute(sql`
+    DELETE FROM band_day_sums
+     WHERE point_id IN (${ids}) AND day <= ${last} ${first ? sql`AND day >= ${first}` : sql``}`);
+  // Local days are at most a day and a few hours off UTC: two days either side hold them.
+  const lo = new Date((from ?? to).getTime() - 2 * 86_400_000);
+  const hi = new Date(to.getTime() + 2 * 86_400_000);
+  const day = localDayOfSql(timeZone, lo.getTime(), hi.getTime(), sql.raw('bv.taken_at'));
+  const edges = first ? sql`${first}, ${last}` : sql`${last}`;
+  await db.execute(sql`
+    INSERT INTO band_day_sums (point_id, band_key, day, n, sum_value, sum_taken_ms)
+    SELECT bv.point_id, bv.band_key, ${day} AS d, COUNT(*), SUM(bv.value),
+      SUM(TIMESTAMPDIFF(MICROSECOND, '1970-01-01 00:00:00', bv.taken_at) DIV 1000)
+    FROM band_values bv
+    WHERE bv.point_id IN (${ids}) AND bv.quality_verdict <> 'unusable'
+      AND bv.taken_at >= ${lo} AND bv.taken_at < ${hi} AND ${day} IN (${edges})
+    GROUP BY bv.point_id, bv.band_key, d
+    ON DUPLICATE KEY UPDATE n = VALUES(n), sum_value = VALUES(sum_value),
+      sum_taken_ms = VALUES(sum_taken_ms)`);
+}

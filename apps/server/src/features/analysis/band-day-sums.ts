@@ -8,7 +8,9 @@ import {
   pointsOfMachine,
   pointsOfSite,
   rebuildBandDaySums,
+  resumDaysOfDroppedSpan,
   sitesWithoutDaySums,
+  sitesWithZones,
   type BandDaySum,
 } from './band-day-sums-repository.ts';
 
@@ -90,4 +92,21 @@ export async function resumSiteDays(tx: Tx, siteId: number, timeZone: string): P
 /** After a machine moved to a site of zone `timeZone`, in the same transaction. */
 export async function resumMachineDays(tx: Tx, machineId: number, timeZone: string): Promise<void> {
   await rebuildBandDaySums(tx, await pointsOfMachine(tx, machineId), dayZone(timeZone));
+}
+
+/**
+ * After the retention pass dropped the band values taken in [from, to) (a month past the
+ * capture horizon; from null: everything before `to`): each site's local days that met the
+ * span lose their sums, and the days at its edges keep those of their values left.
+ */
+export async function forgetDroppedDays(db: Db, from: Date | null, to: Date): Promise<void> {
+  for (const s of await sitesWithZones(db)) {
+    const zone = dayZone(s.timeZone);
+    await resumDaysOfDroppedSpan(db, await pointsOfSite(db, s.siteId), zone, {
+      from,
+      to,
+      first: from ? localDate(from.getTime(), zone) : null,
+      last: localDate(to.getTime() - 1, zone),
+    });
+  }
 }

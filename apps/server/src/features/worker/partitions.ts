@@ -13,7 +13,8 @@
  *   (retention.ts's list), in which case the month stays and is thinned like any other.
  *   The rows of other tables that pointed at its captures (jobs, uids, quality notices,
  *   pins) are deleted first, in one transaction: partitioned tables take no foreign keys;
- *   so are the month's band-value hours (`band_value_hours`).
+ *   the day sums of its days (band_day_sums) go with its band values (`dropMonth`), and so
+ *   do the trend's hour summaries of the month (band_value_hours).
  */
 import type { Db } from '@turnstone/db/client';
 import { isDuplicatePartition } from '@turnstone/db/errors';
@@ -23,9 +24,11 @@ import {
   PARTITIONED_TABLES,
   partitionsOf,
   splitFuture,
+  type PartitionedTable,
 } from './partitions-repository.ts';
-import { keptCaptureIn } from './retention-repository.ts';
+import { forgetDroppedDays } from '../analysis/band-day-sums.ts';
 import { deleteHoursBetween } from '../analysis/band-hours-repository.ts';
+import { firstCapturesAfterLimitChanges, keptCaptureIn } from './retention-repository.ts';
 
 /** When the worker adds partitions ahead (node-cron, server time). */
 export const PARTITIONS_CRON = '30 2 * * *';
@@ -70,6 +73,8 @@ export async function ensurePartitionsAhead(db: Db, now = new Date()): Promise<s
 /**
  * Drops the months that ended before `months` whole months before `now`'s, where nothing
  * kept whole lives (see the file comment); returns the months dropped. 0 keeps all.
+ * A month whose drop began in an earlier pass (one of its partitions gone) is finished
+ * whatever is asked of it.
  */
 export async function dropExpiredPartitions(
   db: Db,
@@ -80,25 +85,51 @@ export async function dropExpiredPartitions(
   if (months <= 0) return [];
   const horizon = monthStart(now, -months);
   const parts = await partitionsOf(db, 'snapshots');
+  const present = new Map<PartitionedTable, Set<string>>();
+  for (const table of PARTITIONED_TABLES)
+    present.set(table, new Set((await partitionsOf(db, table)).map((q) => q.name)));
+  const afterLimits = (await firstCapturesAfterLimitChanges(db, horizon)).map((r) => r.takenAt);
   const dropped: string[] = [];
   let from: Date | null = null;
   for (const p of parts) {
     if (p.lessThan === null) break;
     const to = new Date(`${p.lessThan}T00:00:00Z`);
     if (to > horizon) break;
-    if (!(await keptCaptureIn(db, from, to, keepWindowMinutes))) {
-      await deleteDependentsOfCaptures(db, from, to);
-      // the month's band-value hours (UTC hours lie wholly in a UTC month): before the drop,
-      // and again after it for a late capture whose hour was written in between
-      await deleteHoursBetween(db, from, to);
-      for (const table of PARTITIONED_TABLES) {
-        const own = await partitionsOf(db, table);
-        if (own.some((q) => q.name === p.name)) await dropPartition(db, table, p.name);
-      }
-      await deleteHoursBetween(db, from, to);
+    const begun = PARTITIONED_TABLES.some((t) => !present.get(t)!.has(p.name));
+    if (begun || !(await keptCaptureIn(db, from, to, keepWindowMinutes, afterLimits))) {
+      await dropMonth(db, p.name, from, to, present);
       dropped.push(p.name);
     }
     from = to;
   }
   return dropped;
+}
+
+/**
+ * One month's drop, in an order where a pass that stops between two steps leaves nothing a
+ * screen trips over, and the next pass finishes it (`snapshots` goes last, so the month is
+ * still listed): rows pointing at its captures (one transaction), then its band values and
+ * the day sums of its days (summed again from what is left for the days at its edges), then
+ * its analyses, then its snapshots — children before parents, so no band value or analysis
+ * ever names a capture that is gone. DROP PARTITION is DDL: each commits on its own.
+ */
+async function dropMonth(
+  db: Db,
+  name: string,
+  from: Date | null,
+  to: Date,
+  present: Map<PartitionedTable, Set<string>>,
+): Promise<void> {
+  await deleteDependentsOfCaptures(db, from, to);
+  const drop = async (table: PartitionedTable) => {
+    if (present.get(table)!.has(name)) await dropPartition(db, table, name);
+  };
+  // the month's hour summaries (UTC hours lie wholly in a UTC month): before the drop, and
+  // again after it for a late capture whose hour was written in between
+  await deleteHoursBetween(db, from, to);
+  await drop('band_values');
+  await deleteHoursBetween(db, from, to);
+  await forgetDroppedDays(db, from, to);
+  await drop('analyses');
+  await drop('snapshots');
 }

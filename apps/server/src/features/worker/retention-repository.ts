@@ -105,13 +105,15 @@ function protectedCapture(win: number) {
  * its month's partitions are dropped: one not analysed yet, or one kept whole — the list of
  * `protectedCapture` above, asked from the side of the markers (few) rather than of every
  * capture of the month, and erring on the side of keeping: any alert event or finding within
- * ±`win` minutes of the month keeps it, whichever point it names.
+ * ±`win` minutes of the month keeps it, whichever point it names. `firstAfterLimits`: the
+ * times of the first captures after limit changes (`firstCapturesAfterLimitChanges`).
  */
 export async function keptCaptureIn(
   db: Db,
   from: Date | null,
   to: Date,
   win: number,
+  firstAfterLimits: Date[],
 ): Promise<boolean> {
   const lo = from ?? new Date(0);
   const within = (col: ReturnType<typeof sql>) => sql`${col} >= ${lo} AND ${col} < ${to}`;
@@ -128,19 +130,10 @@ export async function keptCaptureIn(
       EXISTS (SELECT 1 FROM alerts al WHERE ${within(sql`al.peak_at`)}) AS alertPeaks,
       EXISTS (SELECT 1 FROM findings f WHERE ${near(sql`f.created_at`)}) AS findings,
       EXISTS (SELECT 1 FROM quality_notices qn
-               WHERE qn.verdict = 'suspect' AND ${within(sql`qn.taken_at`)}) AS suspect,
-      EXISTS (
-        SELECT 1 FROM (
-          SELECT (SELECT MIN(c.taken_at) FROM analyses c
-                   WHERE c.point_id = x.point_id AND c.taken_at >= x.at) AS first_after
-            FROM (SELECT CAST(l.entity_id AS UNSIGNED) AS point_id, l.at FROM audit_log l
-                   WHERE l.entity = 'point' AND l.action IN ('limits.update', 'limits.baseline')
-                     AND l.at < ${to}
-                  UNION ALL
-                  SELECT ls.point_id, ls.updated_at FROM limit_sets ls
-                   WHERE ls.updated_at < ${to}) x) f
-         WHERE ${within(sql`f.first_after`)}) AS firstAfterLimits`,
+               WHERE qn.verdict = 'suspect' AND ${within(sql`qn.taken_at`)}) AS suspect`,
   );
+  // The first captures after limit changes: found once per pass by the caller.
+  if (firstAfterLimits.some((t) => t >= lo && t < to)) return true;
   return Object.values(rows[0] ?? {}).some((v) => Number(v) === 1);
 }
 
@@ -223,24 +216,42 @@ export interface TimeSpan {
 }
 
 /**
- * The first analysis (by taken_at, then id) of each span that has one: one bounded index
- * seek per span on (point_id, taken_at), the bounds being constants, in statements of at
- * most 100 spans.
+ * The first analysis (by taken_at, then id) of each span that has one: the span's earliest
+ * time by one index seek on (point_id, taken_at) with constant bounds (MIN reads one entry;
+ * an ORDER BY taken_at, id over a partitioned table sorts every row of the span, which for
+ * an open span after a limit change is the rest of the point's history), then the lowest id
+ * at that time. Statements of at most 100 spans.
  */
-export async function firstAnalysesFrom(db: Db, spans: TimeSpan[]): Promise<number[]> {
-  const out: number[] = [];
+export async function firstAnalysesFrom(db: Db, spans: TimeSpan[]): Promise<CaptureRow[]> {
+  const out: CaptureRow[] = [];
   for (let i = 0; i < spans.length; i += 100) {
     const parts = spans.slice(i, i + 100).map(
       (b) =>
-        sql`(SELECT id FROM analyses
-              WHERE point_id = ${b.pointId} AND taken_at >= ${b.from}
-                ${b.to ? sql`AND taken_at < ${b.to}` : sql``}
-              ORDER BY taken_at, id LIMIT 1)`,
+        sql`(SELECT id, point_id AS pointId, taken_at AS takenAt FROM analyses
+              WHERE point_id = ${b.pointId}
+                AND taken_at = (SELECT MIN(taken_at) FROM analyses
+                                 WHERE point_id = ${b.pointId} AND taken_at >= ${b.from}
+                                   ${b.to ? sql`AND taken_at < ${b.to}` : sql``})
+              ORDER BY id LIMIT 1)`,
     );
     const rows = await rowsOf(db, sql.join(parts, sql` UNION ALL `));
-    for (const r of rows) out.push(Number(r.id));
+    for (const r of rows)
+      out.push({ id: Number(r.id), pointId: Number(r.pointId), takenAt: utc(r.takenAt) });
   }
   return out;
+}
+
+/**
+ * The first capture of its point after each change of its limits made before `before`: one
+ * index seek per change (the changes are few; asked per capture, this was a scan of the
+ * point's earlier captures for each).
+ */
+export async function firstCapturesAfterLimitChanges(db: Db, before: Date): Promise<CaptureRow[]> {
+  const changes = await limitChanges(db, before);
+  return firstAnalysesFrom(
+    db,
+    changes.map((c) => ({ pointId: c.pointId, from: c.at, to: null })),
+  );
 }
 
 /**

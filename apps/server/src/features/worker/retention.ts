@@ -47,7 +47,7 @@ import {
   clearRawSamples,
   clearSpectra,
   firstAnalysesFrom,
-  limitChanges,
+  firstCapturesAfterLimitChanges,
   maxAnalysisId,
   maxSnapshotId,
   rawSampleCandidates,
@@ -165,19 +165,9 @@ function sifted<R extends { id: number }>(
   };
 }
 
-/**
- * The analyses that are the first capture of their point after a change of its limits made
- * before `before`: one index seek per change, once per pass (the changes are few; asked per
- * capture, this was a scan of the point's earlier captures for each).
- */
+/** The analyses that are the first capture of their point after a change of its limits. */
 async function firstAfterLimitChanges(db: Db, before: Date): Promise<Set<number>> {
-  const changes = await limitChanges(db, before);
-  return new Set(
-    await firstAnalysesFrom(
-      db,
-      changes.map((c) => ({ pointId: c.pointId, from: c.at, to: null })),
-    ),
-  );
+  return new Set((await firstCapturesAfterLimitChanges(db, before)).map((r) => r.id));
 }
 
 const HOUR_MS = 3_600_000;
@@ -285,7 +275,8 @@ export async function thinSpectra(
           const b = bucketOf(r.pointId, r.takenAt, cut.dailyCutoff);
           buckets.set(`${b.pointId}/${b.from.getTime()}`, b);
         }
-        const keep = new Set(await firstAnalysesFrom(db, [...buckets.values()]));
+        const firsts = await firstAnalysesFrom(db, [...buckets.values()]);
+        const keep = new Set(firsts.map((f) => f.id));
         for (const r of rows) if (afterLimits.has(r.id)) keep.add(r.id);
         return keep;
       },
