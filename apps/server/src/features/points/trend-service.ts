@@ -14,6 +14,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { accessiblePoint } from '../places/point-access.ts';
 import { type SessionUser } from '../../lib/session-user.ts';
 import { loadLimitSet } from '../limits/limit-set-repository.ts';
+import { limitChangesIn } from '../limits/limits-repository.ts';
 
 import * as repo from './points-repository.ts';
 import * as eventsRepo from './trend-events-repository.ts';
@@ -80,7 +81,7 @@ export async function trend(
     eventsP,
     repo.findingsOf(ctx.db, pointId, q.band, from, to),
     repo.bandStatesOf(ctx.db, pointId),
-    eventsRepo.limitChangesOf(ctx.db, pointId, from, to),
+    limitChangesIn(ctx.db, pointId, from, to, eventsRepo.TREND_EVENT_CAP),
     uploadsP,
   ]);
   const settled = <T>(r: PromiseSettledResult<T>): T => {
