@@ -78,6 +78,35 @@ function preloadSignedInLayout(): Plugin {
 }
 
 /**
+ * dist/.vite/modules.json: the script file of every source module (by its path in the repo)
+ * and the files each script imports. The server looks a direct load's page code and data
+ * schemas up in it, to preload them with the page (apps/server/src/lib/index-page.ts).
+ */
+function moduleMap(): Plugin {
+  return {
+    name: 'turnstone-module-map',
+    apply: 'build',
+    generateBundle(_options, bundle) {
+      const modules: Record<string, string> = {};
+      const imports: Record<string, string[]> = {};
+      for (const chunk of Object.values(bundle)) {
+        if (chunk.type !== 'chunk') continue;
+        imports[chunk.fileName] = chunk.imports;
+        for (const id of chunk.moduleIds) {
+          if (id.startsWith(here) && !id.includes('/node_modules/'))
+            modules[id.slice(here.length)] = chunk.fileName;
+        }
+      }
+      this.emitFile({
+        type: 'asset',
+        fileName: '.vite/modules.json',
+        source: JSON.stringify({ modules, imports }),
+      });
+    },
+  };
+}
+
+/**
  * Every built script, stylesheet and icon of 1 kB or more is written compressed beside
  * itself (`.br` at brotli's strongest level, `.gz` at gzip's), once, at build time: the server
  * sends those (apps/server/src/lib/precompressed-assets.ts) instead of compressing each
@@ -117,7 +146,7 @@ function precompress(): Plugin {
 // One config: the web app build (root apps/web, output apps/web/dist) and the test projects.
 export default defineConfig({
   root: 'apps/web',
-  plugins: [react(), tailwindcss(), preloadSignedInLayout(), precompress()],
+  plugins: [react(), tailwindcss(), preloadSignedInLayout(), moduleMap(), precompress()],
   build: {
     outDir: 'dist',
     emptyOutDir: true,

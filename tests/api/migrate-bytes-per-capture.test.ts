@@ -50,7 +50,7 @@ const detail = {
   faultFrequencies: [{ name: 'BPFO', kind: 'bpfo', hz: 88.1, order: 3.57 }],
 };
 
-describe('migration 0020: bytes per capture', () => {
+describe('migration 0021: bytes per capture', () => {
   let url: string;
   let pool: Pool;
   const q = async (text: string, params: unknown[] = []) =>
@@ -64,7 +64,7 @@ describe('migration 0020: bytes per capture', () => {
   });
 
   it('trims thinned summaries only, compresses the JSON columns, drops the covered index', async () => {
-    await migrate(drizzle(pool), { migrationsFolder: migrationsUpTo('0019_band-day-sums') });
+    await migrate(drizzle(pool), { migrationsFolder: migrationsUpTo('0020_band-value-hours') });
     const old = JSON.stringify({ ...kept, ...detail });
     const spectra = encodeSpectra({ acceleration: [0.5, 0.25, 0], velocity: [1, 2, 3] });
     const insert = (id: number, blob: Buffer | null, thinnedAt: string | null) =>

@@ -7,6 +7,7 @@ import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import type { AppContext } from './lib/context.ts';
 import { precompressedAssets } from './lib/precompressed-assets.ts';
+import { indexPage } from './lib/index-page.ts';
 import { AppError } from './lib/app-error.ts';
 import { apiNotFound, errorMiddleware } from './lib/error-middleware.ts';
 import { mountRoutes, type RouteGroup, type RouteSpec } from './lib/route-table.ts';
@@ -14,7 +15,12 @@ import { webDist } from './lib/web-build.ts';
 import { trackRequest } from './lib/request-log.ts';
 import { hostCheck } from './lib/allowed-hosts.ts';
 import { readRouting } from './lib/read-routing.ts';
-import { authRouter, authRoutes, createAuthenticate } from './features/auth/auth-router.ts';
+import {
+  authRouter,
+  authRoutes,
+  createAuthenticate,
+  sessionOf,
+} from './features/auth/auth-router.ts';
 import { fleetRoutes } from './features/fleet/fleet-router.ts';
 import { healthRouter } from './features/health/health-router.ts';
 import { metricsRouter } from './features/metrics/metrics-router.ts';
@@ -218,10 +224,8 @@ export function createApp(ctx: AppContext) {
       },
     );
     app.use(express.static(webDist, { index: false, maxAge: '1h' }));
-    app.get(/.*/, (_req, res) => {
-      res.setHeader('Cache-Control', 'no-cache');
-      res.sendFile(join(webDist, 'index.html'));
-    });
+    // The page carries the session and starts the first screen's code and data with itself.
+    app.get(/.*/, cookieParser(), indexPage(webDist, { session: sessionOf(ctx, authenticate) }));
   }
   app.use((_req, res) => {
     res.status(404).json({ error: { code: 'not_found', message: 'Not found.' } });

@@ -19,6 +19,7 @@ export const lineHzSchema = z.union([z.literal(50), z.literal(60)], {
   error: 'Line frequency is 50 Hz, 60 Hz, or none (no mains-fed motor, or not known).',
 });
 export type LineHz = z.infer<typeof lineHzSchema>;
+export type MachineType = z.infer<typeof machineTypeSchema>;
 
 /** Worst status of a node, shown with text and shape as well as colour. */
 export const nodeStatusSchema = z.enum(['ok', 'alert', 'danger', 'quality', 'stale', 'none']);

@@ -56,7 +56,7 @@ describe('codeMigrations', () => {
       '0002_audit-site',
       '0009_point-tag-per-site',
       '0018_time-partitioning',
-      '0020_bytes-per-capture',
+      '0021_bytes-per-capture',
     ]);
   });
 });

@@ -621,6 +621,38 @@ export const bandDaySums = mysqlTable(
   (t) => [primaryKey({ columns: [t.pointId, t.day, t.bandKey] })],
 );
 
+/**
+ * Each point's band values summed by UTC hour: the count and sum, and the hour's lowest and
+ * highest value with the capture they came from (the first in time order, then analysis id,
+ * when values tie). The trend reads these instead of the raw values when its buckets are an
+ * hour or wider (points/trend-values.ts), so a year is 8,760 rows a band, not 52,560. Kept
+ * exactly: every write or deletion of band values recomputes the hours it touched from
+ * `band_values` in the same transaction (analysis/band-hours-repository.ts); a dropped
+ * month partition takes its hours with it. Hours are UTC whatever the site's zone.
+ */
+export const bandValueHours = mysqlTable(
+  'band_value_hours',
+  {
+    pointId: ref('point_id')
+      .notNull()
+      .references(() => points.id, { onDelete: 'cascade' }),
+    bandKey: varchar('band_key', { length: 64 }).notNull(),
+    /** Start of the UTC hour. */
+    hourAt: datetime('hour_at', { mode: 'date' }).notNull(),
+    n: int('n').notNull(),
+    sumValue: double('sum_value').notNull(),
+    minValue: double('min_value').notNull(),
+    minAt: at('min_at').notNull(),
+    minAnalysisId: bigRef('min_analysis_id').notNull(),
+    minQuality: mysqlEnum('min_quality', verdictEnum).notNull(),
+    maxValue: double('max_value').notNull(),
+    maxAt: at('max_at').notNull(),
+    maxAnalysisId: bigRef('max_analysis_id').notNull(),
+    maxQuality: mysqlEnum('max_quality', verdictEnum).notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.pointId, t.bandKey, t.hourAt] })],
+);
+
 export const alerts = mysqlTable(
   'alerts',
   {

@@ -4,6 +4,7 @@
  * sets and pump shape the plant repeats.
  */
 
+import type { MachineType } from '@turnstone/contracts/fleet';
 export interface DemoBearing {
   name: string;
   designation: string;
@@ -34,7 +35,7 @@ export interface DemoPoint {
 export interface DemoMachine {
   code: string;
   name: string;
-  type: 'motor' | 'pump' | 'fan' | 'blower' | 'gearbox' | 'compressor';
+  type: MachineType;
   nominalRpm: number;
   isoGroup: 1 | 2;
   foundation: 'rigid' | 'flexible';
@@ -182,5 +183,50 @@ export const pump = (
       bearing: 'Pump DE',
     },
   ],
+  story,
+});
+
+/** A point on a gearbox's input or output shaft bearing. */
+export const gearboxPoint = (shaft: 'Input' | 'Output', direction: 'H' | 'A'): DemoPoint => ({
+  suffix: `${shaft === 'Input' ? 'GIN' : 'GOUT'}-${direction}`,
+  name: `Gearbox ${shaft.toLowerCase()}, ${direction === 'H' ? 'horizontal' : 'axial'}`,
+  location: `${shaft} shaft`,
+  direction,
+  sensitivityMvPerG: 100,
+  bearing: `${shaft} shaft`,
+});
+
+/**
+ * A single-stage gearbox recorded alone (its motor is not part of the record, so no line
+ * frequency): the input pinion meshes with the output wheel, whose shaft runs at
+ * pinion/wheel of the input speed.
+ */
+export const gearbox = (
+  code: string,
+  name: string,
+  rpm: number,
+  kw: number,
+  criticality: DemoMachine['criticality'],
+  shafts: { input: DemoBearing; output: DemoBearing; pinion: number; wheel: number },
+  points: DemoPoint[],
+  story: DemoMachine['story'],
+): DemoMachine => ({
+  code,
+  name,
+  type: 'gearbox',
+  nominalRpm: rpm,
+  isoGroup: 2,
+  foundation: 'rigid',
+  criticality,
+  powerKw: kw,
+  lineHz: null,
+  bearings: [
+    { ...shafts.input, name: 'Input shaft' },
+    { ...shafts.output, name: 'Output shaft', speedRatio: shafts.pinion / shafts.wheel },
+  ],
+  gears: [
+    { name: 'Input pinion / wheel', teeth: shafts.pinion, mateTeeth: shafts.wheel, speedRatio: 1 },
+  ],
+  points,
   story,
 });

@@ -60,6 +60,15 @@ function ringingImpacts(
 
 const codes = (q: ReturnType<typeof assessQuality>): string[] => q.findings.map((f) => f.code);
 
+/** Float32 volts from a 24-bit ±10 V input with a 100 mV/g sensor. */
+const VOLTS_INPUT = {
+  encoding: 'float32',
+  bits: 24,
+  fullScaleV: 10,
+  sampleRateHz: FS,
+  sensitivityMvPerG: 100,
+} as const;
+
 describe('quality verdict', () => {
   // A clean 24-bit capture is ok (common practice, no source)
   it('when a clean 24-bit capture uses half the range, the verdict is ok with no findings', () => {
@@ -257,13 +266,7 @@ describe('quality verdict', () => {
   it('when the input holds only 3 µV of noise, it is no machine signal, not under-range', () => {
     const g = gauss(11);
     const volts = Float32Array.from({ length: 16384 }, () => 3e-6 * g());
-    const q = assessQuality(volts, {
-      encoding: 'float32',
-      bits: 24,
-      fullScaleV: 10,
-      sampleRateHz: FS,
-      sensitivityMvPerG: 100,
-    });
+    const q = assessQuality(volts, VOLTS_INPUT);
     expect(codes(q)).toEqual(['no-signal']);
     expect(q.verdict).toBe('unusable');
     expect(q.findings[0]!.message).toMatch(/no machine signal.*connected/);
@@ -277,13 +280,7 @@ describe('quality verdict', () => {
       { length: 16384 },
       (_, i) => 15e-6 * g() + 40e-6 * Math.sin((2 * Math.PI * 50 * i) / FS),
     );
-    const q = assessQuality(volts, {
-      encoding: 'float32',
-      bits: 24,
-      fullScaleV: 10,
-      sampleRateHz: FS,
-      sensitivityMvPerG: 100,
-    });
+    const q = assessQuality(volts, VOLTS_INPUT);
     expect(codes(q)).toEqual(['no-signal']);
     expect(q.verdict).toBe('unusable');
   });
@@ -296,13 +293,7 @@ describe('quality verdict', () => {
       { length: 16384 },
       (_, i) => 0.28e-3 * Math.sin((2 * Math.PI * 29.7 * i) / FS) + 0.03e-3 * g(),
     );
-    const q = assessQuality(volts, {
-      encoding: 'float32',
-      bits: 24,
-      fullScaleV: 10,
-      sampleRateHz: FS,
-      sensitivityMvPerG: 100,
-    });
+    const q = assessQuality(volts, VOLTS_INPUT);
     expect(q.metrics.rmsG! / 2e-3).toBeCloseTo(1, 1);
     expect(q.metrics.rmsG).toBeGreaterThan(NO_SIGNAL_RMS_G);
     expect(codes(q)).not.toContain('no-signal');

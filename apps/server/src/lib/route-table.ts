@@ -7,7 +7,8 @@ import type { Request, Response, NextFunction, Router } from 'express';
 import type { z } from 'zod';
 import type { Role } from '@turnstone/contracts/roles';
 import { forbidden, unauthenticated } from './app-error.ts';
-import { refuseAnyQuery } from './query.ts';
+import { parseQuery, refuseAnyQuery } from './query.ts';
+import type { SessionUser } from './session-user.ts';
 
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 export const ALL_ROLES: readonly Role[] = ['admin', 'engineer', 'planner', 'operator'];
@@ -84,4 +85,53 @@ export function mountRoutes(router: Router, specs: RouteSpec[], authenticate: Au
 export function requireUser(req: Request) {
   if (!req.user) throw unauthenticated();
   return req.user;
+}
+
+type Parsed<T> = T extends z.ZodType ? z.output<T> : undefined;
+
+/** What a `serviceRoute` hands its service call: the caller and the parsed request. */
+export interface RouteInput<S extends RouteSchemas> {
+  /** The signed-in user (read on a public route it is a 401). */
+  readonly user: SessionUser;
+  params: Parsed<S['params']>;
+  query: Parsed<S['query']>;
+  body: Parsed<S['body']>;
+}
+
+/** A route whose answer is its service's result as JSON (or nothing, for a 204). */
+export interface ServiceRouteSpec<S extends RouteSchemas> extends Omit<
+  RouteSpec,
+  'schemas' | 'handler'
+> {
+  schemas: S & { status?: 200 | 201 | 202 | 204 };
+  /** Headers of the answer, set once the request parsed, before the service runs. */
+  headers?: Record<string, string>;
+  run: (input: RouteInput<S>) => unknown;
+}
+
+/**
+ * The common route: the declared schemas parse params, query (unknown names are a 400) and
+ * body in that order, `run` calls the service, and its result is the answer with the
+ * declared status. Routes that answer otherwise (files, redirects) write their own handler.
+ */
+export function serviceRoute<const S extends RouteSchemas>(route: ServiceRouteSpec<S>): RouteSpec {
+  const { run, headers, ...spec } = route;
+  const { params, query, body, status = 200 } = route.schemas;
+  return {
+    ...spec,
+    handler: async (req, res) => {
+      const input = {
+        get user() {
+          return requireUser(req);
+        },
+        params: params?.parse(req.params),
+        query: query && parseQuery(query, req.query),
+        body: body?.parse(req.body),
+      } as RouteInput<S>;
+      for (const [name, value] of Object.entries(headers ?? {})) res.setHeader(name, value);
+      const answer = await run(input);
+      if (status === 204) res.status(204).end();
+      else res.status(status).json(answer);
+    },
+  };
 }

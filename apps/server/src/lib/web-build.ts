@@ -39,5 +39,14 @@ export async function ensureWebBuilt(log: (m: string) => void): Promise<void> {
   if (!webBuildIsStale()) return;
   log('Building the web app (first start or changed sources)…');
   const { build } = await import('vite');
-  await build({ configFile: join(repoRoot, 'vite.config.ts'), logLevel: 'warn' });
+  // Always React's (and every library's) production build: Vite follows NODE_ENV, which a
+  // test runner sets to `test` (vitest) and which would ship development builds.
+  const nodeEnv = process.env.NODE_ENV;
+  process.env.NODE_ENV = 'production';
+  try {
+    await build({ configFile: join(repoRoot, 'vite.config.ts'), logLevel: 'warn' });
+  } finally {
+    if (nodeEnv === undefined) delete process.env.NODE_ENV;
+    else process.env.NODE_ENV = nodeEnv;
+  }
 }

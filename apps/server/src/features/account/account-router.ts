@@ -7,7 +7,7 @@ import {
 } from '@turnstone/contracts/account';
 import type { AppContext } from '../../lib/context.ts';
 import { attemptLimiter, runLimits } from '../../lib/attempt-limits.ts';
-import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import { ALL_ROLES, requireUser, serviceRoute, type RouteSpec } from '../../lib/route-table.ts';
 import { COOKIE_NAME, signSession } from '../auth/session-token.ts';
 import * as service from './account-service.ts';
 
@@ -52,43 +52,37 @@ export function accountRoutes(ctx: AppContext): RouteSpec[] {
         res.status(204).end();
       },
     },
-    {
+    serviceRoute({
       method: 'get',
       path: '/account/preferences',
       access: ALL_ROLES,
       summary: 'my display preferences (unit system)',
       schemas: { response: preferencesSchema },
-      handler: (req, res) => res.json({ unitSystem: requireUser(req).unitSystem }),
-    },
-    {
+      run: ({ user }) => ({ unitSystem: user.unitSystem }),
+    }),
+    serviceRoute({
       method: 'put',
       path: '/account/preferences',
       access: ALL_ROLES,
       summary: 'change my display preferences (unit system)',
       schemas: { body: preferencesSchema, response: preferencesSchema },
-      handler: async (req, res) => {
-        const body = preferencesSchema.parse(req.body);
-        res.json(await service.putPreferences(ctx, requireUser(req), body));
-      },
-    },
-    {
+      run: ({ user, body }) => service.putPreferences(ctx, user, body),
+    }),
+    serviceRoute({
       method: 'get',
       path: '/account/subscriptions',
       access: ALL_ROLES,
       summary: 'my notification settings',
       schemas: { response: subscriptionSettingsResponseSchema },
-      handler: async (req, res) => res.json(await service.getSubscriptions(ctx, requireUser(req))),
-    },
-    {
+      run: ({ user }) => service.getSubscriptions(ctx, user),
+    }),
+    serviceRoute({
       method: 'put',
       path: '/account/subscriptions',
       access: ALL_ROLES,
       summary: 'change my notification settings',
       schemas: { body: subscriptionSettingsSchema, response: subscriptionSettingsResponseSchema },
-      handler: async (req, res) => {
-        const body = subscriptionSettingsSchema.parse(req.body);
-        res.json(await service.putSubscriptions(ctx, requireUser(req), body));
-      },
-    },
+      run: ({ user, body }) => service.putSubscriptions(ctx, user, body),
+    }),
   ];
 }

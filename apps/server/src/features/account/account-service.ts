@@ -8,7 +8,7 @@ import type {
 import type { AppContext } from '../../lib/context.ts';
 import { AppError } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
-import { writeAudit } from '../audit/audit-repository.ts';
+import { auditAction } from '../audit/audit-repository.ts';
 import * as userRepo from '../users/users-repository.ts';
 import * as repo from './account-repository.ts';
 import * as subscriptionsRepo from '../mail/subscriptions-repository.ts';
@@ -30,12 +30,7 @@ export async function changePassword(
   await ctx.db.transaction(async (tx) => {
     // A new token version ends every other session; the caller gets a fresh cookie.
     await userRepo.setPasswordHash(tx, user.id, hash);
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'user.change-password',
-      entity: 'user',
-      entityId: user.id,
-    });
+    await auditAction(tx, user, 'user.change-password', user.id);
   });
   return version;
 }

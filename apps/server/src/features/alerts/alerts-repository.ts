@@ -28,6 +28,7 @@ import {
 import type { Tx } from '@turnstone/db/client';
 import type { CursorPosition } from '../../lib/cursor.ts';
 import { afterPosition } from '../../lib/cursor.ts';
+import { inSites, withPlaceAndSite } from '../places/places-repository.ts';
 
 export interface AlertFilter {
   state?: 'raised' | 'acknowledged' | 'cleared';
@@ -89,16 +90,12 @@ export async function listAlerts(db: Db | Tx, f: AlertFilter) {
   if (f.machineId) where.push(eq(points.machineId, f.machineId));
   if (f.open) where.push(inArray(alerts.state, ['raised', 'acknowledged']));
   if (f.ids) where.push(inArray(alerts.id, f.ids.length ? f.ids : [0]));
-  if (f.siteIds) where.push(inArray(areas.siteId, f.siteIds.length ? f.siteIds : [0]));
+  if (f.siteIds) where.push(inSites(f.siteIds));
   if (f.since) where.push(gte(alerts.lastAt, f.since));
   if (f.after) where.push(afterPosition(alerts.lastAt, alerts.id, f.after));
-  return db
-    .select(columns)
-    .from(alerts)
-    .innerJoin(points, eq(points.id, alerts.pointId))
-    .innerJoin(machines, eq(machines.id, points.machineId))
-    .innerJoin(areas, eq(areas.id, machines.areaId))
-    .innerJoin(sites, eq(sites.id, areas.siteId))
+  return withPlaceAndSite(
+    db.select(columns).from(alerts).innerJoin(points, eq(points.id, alerts.pointId)).$dynamic(),
+  )
     .leftJoin(ackUser, eq(ackUser.id, alerts.acknowledgedBy))
     .where(and(...where))
     .orderBy(desc(alerts.lastAt), desc(alerts.id))

@@ -8,48 +8,41 @@ import {
   alertPageSchema,
 } from '@turnstone/contracts/alerts';
 import type { AppContext } from '../../lib/context.ts';
-import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import { ALL_ROLES, serviceRoute, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './alerts-service.ts';
 import { idParam } from '../../lib/route-params.ts';
 import { parseQuery } from '../../lib/query.ts';
 
 export function alertRoutes(ctx: AppContext): RouteSpec[] {
   return [
-    {
+    serviceRoute({
       method: 'get',
       path: '/alerts',
       access: ALL_ROLES,
       summary: 'list alerts of my sites',
       schemas: { query: alertListQuerySchema, response: alertPageSchema },
-      handler: async (req, res) => {
-        const query = parseQuery(alertListQuerySchema, req.query);
-        res.json(alertPageSchema.parse(await service.listAlerts(ctx, requireUser(req), query)));
-      },
-    },
-    {
+      run: async ({ user, query }) =>
+        alertPageSchema.parse(await service.listAlerts(ctx, user, query)),
+    }),
+    serviceRoute({
       // Declared before /alerts/:id so "acknowledge" is never read as an id.
       method: 'post',
       path: '/alerts/acknowledge',
       access: ['operator', 'engineer'],
       summary: 'acknowledge several alerts',
       schemas: { body: acknowledgeManyRequestSchema, response: acknowledgeResponseSchema },
-      handler: async (req, res) => {
-        const body = acknowledgeManyRequestSchema.parse(req.body);
-        const out = await service.acknowledge(ctx, requireUser(req), body.ids, body.note);
-        res.json(acknowledgeResponseSchema.parse(out));
-      },
-    },
-    {
+      run: async ({ user, body }) =>
+        acknowledgeResponseSchema.parse(await service.acknowledge(ctx, user, body.ids, body.note)),
+    }),
+    serviceRoute({
       method: 'get',
       path: '/alerts/:id',
       access: ALL_ROLES,
       summary: 'one alert with its history',
       schemas: { params: idParam, response: alertDetailSchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        res.json(alertDetailSchema.parse(await service.getAlert(ctx, requireUser(req), id)));
-      },
-    },
+      run: async ({ user, params }) =>
+        alertDetailSchema.parse(await service.getAlert(ctx, user, params.id)),
+    }),
     {
       // The alert mail's link: public so it can check its signature before anything else;
       // the page it sends to asks for a session as every page does.
@@ -65,20 +58,16 @@ export function alertRoutes(ctx: AppContext): RouteSpec[] {
         res.redirect(302, service.alertPageFromMail(ctx, id, sig));
       },
     },
-    {
+    serviceRoute({
       method: 'post',
       path: '/alerts/:id/acknowledge',
       access: ['operator', 'engineer'],
       summary: 'acknowledge an alert',
       schemas: { params: idParam, body: acknowledgeRequestSchema, response: alertDetailSchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        const body = acknowledgeRequestSchema.parse(req.body);
-        const out = await service.acknowledge(ctx, requireUser(req), [id], body.note);
-        res.json(
-          alertDetailSchema.parse(await service.getAlert(ctx, requireUser(req), out.items[0]!.id)),
-        );
+      run: async ({ user, params, body }) => {
+        const out = await service.acknowledge(ctx, user, [params.id], body.note);
+        return alertDetailSchema.parse(await service.getAlert(ctx, user, out.items[0]!.id));
       },
-    },
+    }),
   ];
 }

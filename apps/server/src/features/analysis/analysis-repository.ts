@@ -1,5 +1,6 @@
 import { and, eq, inArray, isNull, lte, or } from 'drizzle-orm';
 import type { Db, Tx } from '@turnstone/db/client';
+import { withPlaceAndSite } from '../places/places-repository.ts';
 import {
   analyses,
   areas,
@@ -38,7 +39,7 @@ export async function loadPointContexts(
   pointIds: number[],
 ): Promise<Map<number, PointContext>> {
   if (pointIds.length === 0) return new Map();
-  const rows = await db
+  const query = db
     .select({
       point: points,
       machine: machines,
@@ -46,10 +47,8 @@ export async function loadPointContexts(
       siteTimeZone: sites.timeZone,
     })
     .from(points)
-    .innerJoin(machines, eq(machines.id, points.machineId))
-    .innerJoin(areas, eq(areas.id, machines.areaId))
-    .innerJoin(sites, eq(sites.id, areas.siteId))
-    .where(inArray(points.id, pointIds));
+    .$dynamic();
+  const rows = await withPlaceAndSite(query).where(inArray(points.id, pointIds));
   const machineIds = [...new Set(rows.map((r) => r.machine.id))];
   const [bearingRows, gearRows] = machineIds.length
     ? await Promise.all([

@@ -25,6 +25,7 @@ import { queueAlertMail } from '../notify/alert-change-hook.ts';
 import { templateBandsFor } from '../limits/limits-service.ts';
 import { storedSampleBytes } from '../ingest/sample-storage.ts';
 import { addBandDaySums } from './band-day-sums-repository.ts';
+import { refreshBandHours } from './band-hours-repository.ts';
 import { daySumsOf } from './band-day-sums.ts';
 
 export class PermanentJobError extends Error {}
@@ -287,6 +288,11 @@ export async function storeAnalyses(
         })),
     );
     await repo.insertBandValues(tx, bandRows);
+    // the hours these values fall in, recomputed (a late capture lands in an old hour)
+    await refreshBandHours(
+      tx,
+      bandRows.map((r) => ({ pointId: r.pointId, hourAt: r.takenAt })),
+    );
     const zoneOf = new Map(batch.map((p) => [p.snap.pointId, p.pc.siteTimeZone]));
     await addBandDaySums(
       tx,

@@ -5,25 +5,23 @@ import {
   issuedApiTokenSchema,
 } from '@turnstone/contracts/api-tokens';
 import type { AppContext } from '../../lib/context.ts';
-import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import { serviceRoute, type RouteSpec } from '../../lib/route-table.ts';
 import { idParam } from '../../lib/route-params.ts';
 import * as service from './api-tokens-service.ts';
 
 /** API tokens admin: admin only. */
 export function apiTokenRoutes(ctx: AppContext): RouteSpec[] {
   return [
-    {
+    serviceRoute({
       method: 'get',
       path: '/api-tokens',
       access: ['admin'],
       summary: 'list API tokens',
       schemas: { response: apiTokenListSchema },
-      handler: async (_req, res) => {
-        res.setHeader('Cache-Control', 'no-store');
-        res.json(apiTokenListSchema.parse(await service.listTokens(ctx)));
-      },
-    },
-    {
+      headers: { 'Cache-Control': 'no-store' },
+      run: async () => apiTokenListSchema.parse(await service.listTokens(ctx)),
+    }),
+    serviceRoute({
       method: 'post',
       path: '/api-tokens',
       access: ['admin'],
@@ -31,24 +29,18 @@ export function apiTokenRoutes(ctx: AppContext): RouteSpec[] {
       schemas: { body: issueApiTokenSchema, response: issuedApiTokenSchema, status: 201 },
       // The answer holds the key, shown once: it is never stored for a replay.
       idempotency: 'refused',
-      handler: async (req, res) => {
-        const body = issueApiTokenSchema.parse(req.body);
-        res.setHeader('Cache-Control', 'no-store');
-        res
-          .status(201)
-          .json(issuedApiTokenSchema.parse(await service.issueToken(ctx, requireUser(req), body)));
-      },
-    },
-    {
+      headers: { 'Cache-Control': 'no-store' },
+      run: async ({ user, body }) =>
+        issuedApiTokenSchema.parse(await service.issueToken(ctx, user, body)),
+    }),
+    serviceRoute({
       method: 'post',
       path: '/api-tokens/:id/revoke',
       access: ['admin'],
       summary: 'revoke an API token',
       schemas: { params: idParam, response: apiTokenSchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        res.json(apiTokenSchema.parse(await service.revokeToken(ctx, requireUser(req), id)));
-      },
-    },
+      run: async ({ user, params }) =>
+        apiTokenSchema.parse(await service.revokeToken(ctx, user, params.id)),
+    }),
   ];
 }

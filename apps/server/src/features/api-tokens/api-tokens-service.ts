@@ -11,7 +11,7 @@ import type { ApiToken, IssueApiToken, IssuedApiToken } from '@turnstone/contrac
 import type { AppContext } from '../../lib/context.ts';
 import { AppError, notFound } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
-import { writeAudit } from '../audit/audit-repository.ts';
+import { auditAction } from '../audit/audit-repository.ts';
 import { checkSites } from '../users/users-service.ts';
 import { sessionUserOf } from '../auth/auth-service.ts';
 import * as usersRepo from '../users/users-repository.ts';
@@ -73,11 +73,7 @@ export async function issueToken(
       tokenHash: hashToken(token),
       createdBy: actor.id,
     });
-    await writeAudit(tx, {
-      actorUserId: actor.id,
-      action: 'api-token.issue',
-      entity: 'api-token',
-      entityId: tokenId,
+    await auditAction(tx, actor, 'api-token.issue', tokenId, {
       after: { name: input.name, role: input.role, siteIds, tokenPrefix, userId },
     });
     return tokenId;
@@ -95,11 +91,7 @@ export async function revokeToken(
     if (!token) throw notFound('API token');
     if (token.revokedAt) return;
     await repo.revokeToken(tx, token);
-    await writeAudit(tx, {
-      actorUserId: actor.id,
-      action: 'api-token.revoke',
-      entity: 'api-token',
-      entityId: id,
+    await auditAction(tx, actor, 'api-token.revoke', id, {
       before: { tokenPrefix: token.tokenPrefix, revokedAt: null },
       after: { tokenPrefix: token.tokenPrefix, revoked: true },
     });

@@ -3,6 +3,7 @@ import type { z } from 'zod';
 import type { auditQuerySchema } from '@turnstone/contracts/audit';
 import type { SessionUser } from '../../lib/session-user.ts';
 import type { Db, Tx } from '@turnstone/db/client';
+import { pointWithPlace } from '../places/places-repository.ts';
 import {
   alerts,
   areas,
@@ -39,15 +40,7 @@ export interface AuditEntry {
 async function siteOfEntity(db: Db | Tx, entity: string, id: number): Promise<number | null> {
   const bySite = async (q: Promise<{ siteId: number | null }[]>): Promise<number | null> =>
     (await q)[0]?.siteId ?? null;
-  const pointSite = (pointId: number) =>
-    bySite(
-      db
-        .select({ siteId: areas.siteId })
-        .from(points)
-        .innerJoin(machines, eq(machines.id, points.machineId))
-        .innerJoin(areas, eq(areas.id, machines.areaId))
-        .where(eq(points.id, pointId)),
-    );
+  const pointSite = async (pointId: number) => (await pointWithPlace(db, pointId))?.siteId ?? null;
   const viaPoint = async (q: Promise<{ pointId: number }[]>) => {
     const [row] = await q;
     return row ? pointSite(row.pointId) : null;
@@ -83,6 +76,25 @@ async function siteOfEntity(db: Db | Tx, entity: string, id: number): Promise<nu
 }
 
 /** Writes one audit row; pass the transaction so the change and its record commit together. */
+/**
+ * An act of a signed-in user on the entity its action names (`gateway.revoke` → entity
+ * `gateway`), audited in the act's transaction.
+ */
+export const auditAction = (
+  db: Db | Tx,
+  actor: { id: number },
+  action: `${string}.${string}`,
+  entityId: string | number,
+  change: Pick<AuditEntry, 'before' | 'after' | 'reason' | 'siteId'> = {},
+) =>
+  writeAudit(db, {
+    actorUserId: actor.id,
+    action,
+    entity: action.slice(0, action.indexOf('.')),
+    entityId,
+    ...change,
+  });
+
 export async function writeAudit(db: Db | Tx, e: AuditEntry): Promise<void> {
   const numericId = Number(e.entityId);
   const siteId =

@@ -6,6 +6,7 @@ import {
   sessionResponseSchema,
   signInRequestSchema,
   signInResponseSchema,
+  type SessionResponse,
 } from '@turnstone/contracts/auth';
 import { AppError } from '../../lib/app-error.ts';
 import { attemptLimiter, clientKey } from '../../lib/attempt-limits.ts';
@@ -59,6 +60,17 @@ export function createAuthenticate(ctx: AppContext, bearerUser: BearerLookup): A
     // moment ago must not pass on a replica that is a few seconds behind.
     const user = await readFromPrimary(() => service.userFromToken(ctx.db, ctx.jwtSecret, token));
     if (user) req.user = user;
+  };
+}
+
+/**
+ * The session as `/auth/session` answers it: the signed-in user, or null. The web app's page
+ * carries the same answer (lib/index-page.ts), so a direct load need not ask for it.
+ */
+export function sessionOf(ctx: AppContext, authenticate: Authenticate) {
+  return async (req: Request): Promise<SessionResponse> => {
+    await authenticate(req);
+    return { user: req.user ? await service.toMe(ctx.db, req.user) : null };
   };
 }
 
@@ -118,9 +130,9 @@ export function authRoutes(ctx: AppContext, authenticate: Authenticate): RouteSp
       summary: 'the session, if any',
       schemas: { response: sessionResponseSchema },
       handler: async (req: Request, res: Response) => {
-        await authenticate(req);
+        const session = await sessionOf(ctx, authenticate)(req);
         res.setHeader('Cache-Control', 'no-store');
-        res.json({ user: req.user ? await service.toMe(ctx.db, req.user) : null });
+        res.json(session);
       },
     },
     {

@@ -1,8 +1,9 @@
 import { and, asc, desc, eq, gte, inArray, lt, lte, ne, sql, type SQL } from 'drizzle-orm';
 import type { CursorPosition } from '../../lib/cursor.ts';
 import type { Db, Tx } from '@turnstone/db/client';
-import { alerts, areas, findings, machines, points, sites, users } from '@turnstone/db/schema';
+import { alerts, findings, machines, points, sites, users } from '@turnstone/db/schema';
 import { afterPosition } from '../../lib/cursor.ts';
+import { withPlaceAndSite } from '../places/places-repository.ts';
 
 export type FindingRow = typeof findings.$inferSelect;
 
@@ -70,13 +71,13 @@ export async function listFindings(db: Db | Tx, f: FindingFilter): Promise<Findi
     );
   if (f.since) where.push(gte(findings.updatedAt, f.since));
   if (f.after) where.push(afterPosition(findings.updatedAt, findings.id, f.after));
-  return db
-    .select(listColumns)
-    .from(findings)
-    .innerJoin(points, eq(points.id, findings.pointId))
-    .innerJoin(machines, eq(machines.id, points.machineId))
-    .innerJoin(areas, eq(areas.id, machines.areaId))
-    .innerJoin(sites, eq(sites.id, areas.siteId))
+  return withPlaceAndSite(
+    db
+      .select(listColumns)
+      .from(findings)
+      .innerJoin(points, eq(points.id, findings.pointId))
+      .$dynamic(),
+  )
     .innerJoin(users, eq(users.id, findings.createdBy))
     .where(and(...where))
     .orderBy(

@@ -11,7 +11,7 @@ import type { AppContext } from '../../lib/context.ts';
 import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
 import { accessiblePoint } from '../places/point-access.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
-import { writeAudit } from '../audit/audit-repository.ts';
+import { auditAction, writeAudit } from '../audit/audit-repository.ts';
 import * as repo from './findings-repository.ts';
 import { queueWebhookEvent } from '../webhooks/webhooks-service.ts';
 import { decodeCursor, pageOf } from '../../lib/cursor.ts';
@@ -160,14 +160,7 @@ export async function createFinding(
       createdBy: user.id,
     });
     const row = await repo.lockFinding(tx, newId);
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'finding.create',
-      entity: 'finding',
-      entityId: newId,
-      before: null,
-      after: auditView(row!),
-    });
+    await auditAction(tx, user, 'finding.create', newId, { before: null, after: auditView(row!) });
     await queueWebhookEvent(tx, 'finding.created', await loadOne(ctx, user, newId, tx));
     return newId;
   });

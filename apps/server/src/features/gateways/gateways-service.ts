@@ -3,7 +3,7 @@ import { createGatewaySchema, type CreateGatewayInput } from '@turnstone/contrac
 
 import { AppError, notFound } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
-import { writeAudit } from '../audit/audit-repository.ts';
+import { auditAction } from '../audit/audit-repository.ts';
 import { newGatewayKey } from '../../lib/gateway-keys.ts';
 import * as repo from './gateways-repository.ts';
 import { forgetGatewayKeys } from '../ingest/ingest-service.ts';
@@ -48,11 +48,7 @@ export async function createGateway(db: Db, user: SessionUser, input: CreateGate
       keyPrefix: k.prefix,
       keyHash: k.hash,
     });
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'gateway.create',
-      entity: 'gateway',
-      entityId: gatewayId,
+    await auditAction(tx, user, 'gateway.create', gatewayId, {
       after: { siteId: input.siteId, name: input.name, keyPrefix: k.prefix },
     });
     return gatewayId;
@@ -74,11 +70,7 @@ export async function revokeGateway(db: Db, user: SessionUser, id: number) {
   const revokedAt = new Date();
   await db.transaction(async (tx) => {
     await repo.setRevoked(tx, id, revokedAt);
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'gateway.revoke',
-      entity: 'gateway',
-      entityId: id,
+    await auditAction(tx, user, 'gateway.revoke', id, {
       before: { revokedAt: g.revokedAt },
       after: { revokedAt },
     });
@@ -102,11 +94,7 @@ export async function rotateGatewayKey(db: Db, user: SessionUser, id: number) {
   const k = newGatewayKey();
   await db.transaction(async (tx) => {
     await repo.setKey(tx, id, { keyPrefix: k.prefix, keyHash: k.hash });
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'gateway.rotate',
-      entity: 'gateway',
-      entityId: id,
+    await auditAction(tx, user, 'gateway.rotate', id, {
       before: { keyPrefix: g.keyPrefix },
       after: { keyPrefix: k.prefix },
     });

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, gte, inArray, like } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, lte } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
 import { analyses, auditLog, bandValues, limitSets, users } from '@turnstone/db/schema';
 
@@ -70,13 +70,17 @@ export async function bandTrend(db: Db, pointId: number, bandKey: string, limit 
     .limit(limit);
 }
 
-export async function limitAudit(db: Db, pointId: number, limit = 20) {
+/** Audit actions that change a point's limit set (limits-service, baseline-service). */
+const LIMIT_CHANGE_ACTIONS = ['limits.update', 'limits.baseline'] as const;
+
+/** The point's limit-set changes in the audit record: who, why, the bands before and after. */
+function limitChanges(db: Db, pointId: number, period?: { from: Date; to: Date }) {
   return db
     .select({
       id: auditLog.id,
       at: auditLog.at,
       action: auditLog.action,
-      actor: users.name,
+      by: users.name,
       reason: auditLog.reason,
       before: auditLog.before,
       after: auditLog.after,
@@ -87,9 +91,23 @@ export async function limitAudit(db: Db, pointId: number, limit = 20) {
       and(
         eq(auditLog.entity, 'point'),
         eq(auditLog.entityId, String(pointId)),
-        like(auditLog.action, 'limits.%'),
+        inArray(auditLog.action, [...LIMIT_CHANGE_ACTIONS]),
+        period && gte(auditLog.at, period.from),
+        period && lte(auditLog.at, period.to),
       ),
-    )
-    .orderBy(desc(auditLog.at), desc(auditLog.id))
-    .limit(limit);
+    );
+}
+
+/** The latest `limit` changes, newest first (the limits history). */
+export async function limitAudit(db: Db, pointId: number, limit = 20) {
+  return limitChanges(db, pointId).orderBy(desc(auditLog.at), desc(auditLog.id)).limit(limit);
+}
+
+/** The changes in a period in time order, at most `cap` of them (the newest kept). */
+export async function limitChangesIn(db: Db, pointId: number, from: Date, to: Date, cap: number) {
+  const rows = await limitChanges(db, pointId, { from, to }).orderBy(
+    asc(auditLog.at),
+    asc(auditLog.id),
+  );
+  return rows.slice(-cap);
 }

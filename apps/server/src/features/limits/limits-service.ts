@@ -294,7 +294,7 @@ export async function history(ctx: AppContext, pointId: number) {
         id: r.id,
         at: r.at.toISOString(),
         action: r.action,
-        actor: r.actor ?? null,
+        actor: r.by ?? null,
         reason: r.reason ?? null,
         added: [...after.keys()].filter((k) => !before.has(k)),
         removed: [...before.keys()].filter((k) => !after.has(k)),

@@ -49,6 +49,10 @@ import { alertMailLink } from '../alerts/alert-mail-link.ts';
 import { recentBandValues } from '../alerts/alerts-repository.ts';
 import { bandRuleOf } from '../alerts/alerts-service.ts';
 
+/** How every alert mail ends: the safety caution, then why the reader receives it. */
+const closingText = (footer: string) => [`Safety: ${SAFETY_CAUTION}`, '', footer, ''];
+const SAFETY_HTML = `<p style="border-left:3px solid #1d5c63;padding-left:8px"><strong>Safety:</strong> ${esc(SAFETY_CAUTION)}</p>`;
+
 export type AlertChangeKind = 'raised' | 'escalated' | 'cleared';
 
 export interface AlertMailFacts {
@@ -146,10 +150,7 @@ export function renderAlertMail(
     ...(extras.alertLink ? [`Open the alert (sign-in required): ${extras.alertLink}`] : []),
     `Point view: ${link}`,
     '',
-    `Safety: ${SAFETY_CAUTION}`,
-    '',
-    footer,
-    '',
+    ...closingText(footer),
   ].join('\n');
   const html = htmlLayout(
     `${what}: ${f.machineName}`,
@@ -162,7 +163,7 @@ export function renderAlertMail(
         ? [htmlLink(extras.alertLink, 'Open the alert (sign-in required)')]
         : []),
       htmlLink(link, 'Open the point view'),
-      `<p style="border-left:3px solid #1d5c63;padding-left:8px"><strong>Safety:</strong> ${esc(SAFETY_CAUTION)}</p>`,
+      SAFETY_HTML,
     ].join(''),
     footer,
   );
@@ -328,10 +329,7 @@ export function renderHourlySummary(rows: { subject: string; textBody: string }[
       body(r.textBody),
       '',
     ]),
-    `Safety: ${SAFETY_CAUTION}`,
-    '',
-    footer,
-    '',
+    ...closingText(footer),
   ].join('\n');
   const html = htmlLayout(
     title,
@@ -341,8 +339,7 @@ export function renderHourlySummary(rows: { subject: string; textBody: string }[
           `<h2 style="font-size:14px;margin:16px 0 4px">${i + 1}. ${esc(r.subject.replace(/^\[Turnstone\] /, ''))}</h2>` +
           `<pre style="white-space:pre-wrap;font-family:'Roboto Mono',monospace;font-size:12px;margin:0">${esc(body(r.textBody))}</pre>`,
       )
-      .join('') +
-      `<p style="border-left:3px solid #1d5c63;padding-left:8px"><strong>Safety:</strong> ${esc(SAFETY_CAUTION)}</p>`,
+      .join('') + SAFETY_HTML,
     footer,
   );
   return { subject: `[Turnstone] ${title}`, text, html };

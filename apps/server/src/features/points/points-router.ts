@@ -13,7 +13,7 @@ import { waterfallQuerySchema, waterfallSchema } from '@turnstone/contracts/wate
 import { trendQuerySchema, trendResponseSchema } from '@turnstone/contracts/trend';
 import { snapshotStatusSchema } from '@turnstone/contracts/uploads';
 import type { AppContext } from '../../lib/context.ts';
-import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import { ALL_ROLES, requireUser, serviceRoute, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './points-service.ts';
 import * as spectra from './spectra-service.ts';
 import * as pins from './pins-service.ts';
@@ -33,64 +33,47 @@ function attachment(res: Response, fileName: string, type: string) {
 
 export function pointRoutes(ctx: AppContext): RouteSpec[] {
   return [
-    {
+    serviceRoute({
       method: 'get',
       path: '/machines/:id',
       access: ALL_ROLES,
       summary: 'machine data, fault frequencies and its points',
       schemas: { params: idParam, response: machineDetailSchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        res.json(await service.machineDetail(ctx.db, requireUser(req), id));
-      },
-    },
-    {
+      run: ({ user, params }) => service.machineDetail(ctx.db, user, params.id),
+    }),
+    serviceRoute({
       method: 'get',
       path: '/points/:id',
       access: ALL_ROLES,
       summary: 'point detail with its bands',
       schemas: { params: idParam, response: pointDetailSchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        res.json(await service.pointDetail(ctx, requireUser(req), id));
-      },
-    },
-    {
+      run: ({ user, params }) => service.pointDetail(ctx, user, params.id),
+    }),
+    serviceRoute({
       method: 'get',
       path: '/snapshots/:id',
       access: ALL_ROLES,
       summary: 'snapshot status and its analysis',
       schemas: { params: idParam, response: snapshotStatusSchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        res.json(await service.snapshotStatus(ctx, requireUser(req), id));
-      },
-    },
-    {
+      run: ({ user, params }) => service.snapshotStatus(ctx, user, params.id),
+    }),
+    serviceRoute({
       method: 'get',
       path: '/points/:id/analyses',
       access: ALL_ROLES,
       summary: 'analyses of a point',
       schemas: { params: idParam, query: analysesQuerySchema, response: analysisListSchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        const q = parseQuery(analysesQuerySchema, req.query);
-        res.json(await service.listAnalyses(ctx, requireUser(req), id, q));
-      },
-    },
-    {
+      run: ({ user, params, query }) => service.listAnalyses(ctx, user, params.id, query),
+    }),
+    serviceRoute({
       method: 'get',
       path: '/points/:id/trend',
       access: ALL_ROLES,
       summary: 'band trend with levels and projection',
       schemas: { params: idParam, query: trendQuerySchema, response: trendResponseSchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        const q = parseQuery(trendQuerySchema, req.query);
-        res.setHeader('Cache-Control', 'private, no-cache');
-        res.json(await trends.trend(ctx, requireUser(req), id, q));
-      },
-    },
+      headers: { 'Cache-Control': 'private, no-cache' },
+      run: ({ user, params, query }) => trends.trend(ctx, user, params.id, query),
+    }),
     {
       method: 'get',
       path: '/points/:id/trend.csv',
@@ -105,18 +88,15 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
         res.send(file.text);
       },
     },
-    {
+    serviceRoute({
       method: 'get',
       path: '/points/:id/waterfall',
       access: ALL_ROLES,
       summary: 'last spectra of a point',
       schemas: { params: idParam, query: waterfallQuerySchema, response: waterfallSchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        const q = parseQuery(waterfallQuerySchema, req.query);
-        res.json(await spectra.waterfall(ctx, requireUser(req), id, q.kind, q.limit));
-      },
-    },
+      run: ({ user, params, query }) =>
+        spectra.waterfall(ctx, user, params.id, query.kind, query.limit),
+    }),
     {
       method: 'put',
       path: '/analyses/:id/pin',
@@ -129,43 +109,32 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
         res.json(await pins.pinCapture(ctx, requireUser(req), id, body));
       },
     },
-    {
+    serviceRoute({
       method: 'delete',
       path: '/analyses/:id/pin',
       access: ['admin', 'engineer', 'planner'],
       summary: 'unpin a capture (retention treats it like any other again)',
       schemas: { params: idParam, status: 204 },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        await pins.unpinCapture(ctx, requireUser(req), id);
-        res.status(204).end();
-      },
-    },
-    {
+      run: ({ user, params }) => pins.unpinCapture(ctx, user, params.id),
+    }),
+    serviceRoute({
       method: 'get',
       path: '/analyses/:id/spectrum',
       access: ALL_ROLES,
       summary: 'stored spectrum of an analysis',
       schemas: { params: idParam, query: spectrumQuerySchema, response: spectrumSchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        const q = parseQuery(spectrumQuerySchema, req.query);
-        // Stored spectra never change once written.
-        res.setHeader('Cache-Control', 'private, max-age=3600');
-        res.json(await spectra.spectrum(ctx, requireUser(req), id, q.kind));
-      },
-    },
-    {
+      // Stored spectra never change once written.
+      headers: { 'Cache-Control': 'private, max-age=3600' },
+      run: ({ user, params, query }) => spectra.spectrum(ctx, user, params.id, query.kind),
+    }),
+    serviceRoute({
       method: 'get',
       path: '/analyses/:id/waveform',
       access: ALL_ROLES,
       summary: 'time waveform of an analysis',
       schemas: { params: idParam, response: waveformSchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        res.json(await waveforms.waveform(ctx, requireUser(req), id));
-      },
-    },
+      run: ({ user, params }) => waveforms.waveform(ctx, user, params.id),
+    }),
     {
       method: 'get',
       path: '/analyses/:id/waveform.wav',

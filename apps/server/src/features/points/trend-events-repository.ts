@@ -1,42 +1,14 @@
 /**
- * The trend's events other than alerts: the point's limit-set changes (from the audit record)
- * and the captures that came from a file upload (a portable instrument's recording).
+ * The trend's events other than alerts and limit-set changes (the limits feature reads those
+ * from the audit record): the captures that came from a file upload (a portable
+ * instrument's recording).
  */
-import { and, asc, eq, gte, inArray, lte } from 'drizzle-orm';
+import { and, asc, eq, gte, lte } from 'drizzle-orm';
 import type { Db } from '@turnstone/db/client';
-import { analyses, auditLog, bandValues, snapshots, users } from '@turnstone/db/schema';
-
-/** Audit actions that change a point's limit set (limits-service, baseline-service). */
-export const LIMIT_CHANGE_ACTIONS = ['limits.update', 'limits.baseline'] as const;
+import { analyses, bandValues, snapshots, users } from '@turnstone/db/schema';
 
 /** At most this many limit changes or uploads per trend answer (newest kept). */
 export const TREND_EVENT_CAP = 500;
-
-/** The point's limit-set changes in the period: who, why, and the bands before and after. */
-export async function limitChangesOf(db: Db, pointId: number, from: Date, to: Date) {
-  const rows = await db
-    .select({
-      at: auditLog.at,
-      action: auditLog.action,
-      by: users.name,
-      reason: auditLog.reason,
-      before: auditLog.before,
-      after: auditLog.after,
-    })
-    .from(auditLog)
-    .leftJoin(users, eq(users.id, auditLog.actorUserId))
-    .where(
-      and(
-        eq(auditLog.entity, 'point'),
-        eq(auditLog.entityId, String(pointId)),
-        inArray(auditLog.action, [...LIMIT_CHANGE_ACTIONS]),
-        gte(auditLog.at, from),
-        lte(auditLog.at, to),
-      ),
-    )
-    .orderBy(asc(auditLog.at), asc(auditLog.id));
-  return rows.slice(-TREND_EVENT_CAP);
-}
 
 /**
  * The point's captures in the period that came from a file upload, with their value of

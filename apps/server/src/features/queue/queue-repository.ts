@@ -28,58 +28,50 @@ export async function claimJobs(
   limit: number,
   kinds?: string[],
 ): Promise<JobRow[]> {
+  const claimOnce = () =>
+    db.transaction(async (tx) => {
+      const now = sql`CURRENT_TIMESTAMP(3)`;
+      const kindFilter = kinds ? inArray(jobs.kind, kinds) : undefined;
+      // Two index range scans (state, run_after) and (state, lease_expires_at): FOR UPDATE
+      // locks only the rows it reads, so an unindexed scan would lock the whole queue and
+      // starve the other workers.
+      const due = await tx
+        .select({ id: jobs.id })
+        .from(jobs)
+        .where(and(eq(jobs.state, 'queued'), lte(jobs.runAfter, now), kindFilter))
+        .orderBy(asc(jobs.runAfter))
+        .limit(limit)
+        .for('update', { skipLocked: true });
+      const expired =
+        due.length < limit
+          ? await tx
+              .select({ id: jobs.id })
+              .from(jobs)
+              .where(and(eq(jobs.state, 'running'), lte(jobs.leaseExpiresAt, now), kindFilter))
+              .orderBy(asc(jobs.leaseExpiresAt))
+              .limit(limit - due.length)
+              .for('update', { skipLocked: true })
+          : [];
+      const ids = [...due, ...expired].map((r) => r.id);
+      if (ids.length === 0) return [];
+      await tx
+        .update(jobs)
+        .set({
+          state: 'running',
+          leaseOwner: owner,
+          leaseExpiresAt: sql`CURRENT_TIMESTAMP(3) + INTERVAL ${Math.round(leaseS * 1000)} * 1000 MICROSECOND`,
+          attempts: sql`${jobs.attempts} + 1`,
+        })
+        .where(inArray(jobs.id, ids));
+      return tx.select().from(jobs).where(inArray(jobs.id, ids)).orderBy(asc(jobs.id));
+    }, QUEUE_TX);
   for (let attempt = 1; ; attempt++) {
     try {
-      return await claimOnce(db, owner, leaseS, limit, kinds);
+      return await claimOnce();
     } catch (err) {
       if (attempt >= 3 || !isLockConflict(err)) throw err;
     }
   }
-}
-
-async function claimOnce(
-  db: Db,
-  owner: string,
-  leaseS: number,
-  limit: number,
-  kinds?: string[],
-): Promise<JobRow[]> {
-  return db.transaction(async (tx) => {
-    const now = sql`CURRENT_TIMESTAMP(3)`;
-    const kindFilter = kinds ? inArray(jobs.kind, kinds) : undefined;
-    // Two index range scans (state, run_after) and (state, lease_expires_at): FOR UPDATE
-    // locks only the rows it reads, so an unindexed scan would lock the whole queue and
-    // starve the other workers.
-    const due = await tx
-      .select({ id: jobs.id })
-      .from(jobs)
-      .where(and(eq(jobs.state, 'queued'), lte(jobs.runAfter, now), kindFilter))
-      .orderBy(asc(jobs.runAfter))
-      .limit(limit)
-      .for('update', { skipLocked: true });
-    const expired =
-      due.length < limit
-        ? await tx
-            .select({ id: jobs.id })
-            .from(jobs)
-            .where(and(eq(jobs.state, 'running'), lte(jobs.leaseExpiresAt, now), kindFilter))
-            .orderBy(asc(jobs.leaseExpiresAt))
-            .limit(limit - due.length)
-            .for('update', { skipLocked: true })
-        : [];
-    const ids = [...due, ...expired].map((r) => r.id);
-    if (ids.length === 0) return [];
-    await tx
-      .update(jobs)
-      .set({
-        state: 'running',
-        leaseOwner: owner,
-        leaseExpiresAt: sql`CURRENT_TIMESTAMP(3) + INTERVAL ${Math.round(leaseS * 1000)} * 1000 MICROSECOND`,
-        attempts: sql`${jobs.attempts} + 1`,
-      })
-      .where(inArray(jobs.id, ids));
-    return tx.select().from(jobs).where(inArray(jobs.id, ids)).orderBy(asc(jobs.id));
-  }, QUEUE_TX);
 }
 
 /**

@@ -70,6 +70,25 @@ const findingRow = (f: Finding): Cell[] => [
   f.note,
 ];
 
+/** The band a forecast or an open alert is about: the columns those tables start with. */
+interface BandPlace {
+  siteCode: string;
+  machineName: string;
+  pointTag: string;
+  pointName: string;
+  bandName: string;
+  unit: string;
+}
+const bandPlaceHeader = ['site', 'machine', 'point', 'point name', 'band', 'unit'];
+const bandPlaceRow = (b: BandPlace): Cell[] => [
+  b.siteCode,
+  b.machineName,
+  b.pointTag,
+  b.pointName,
+  b.bandName,
+  b.unit,
+];
+
 /** The review's tables, one file each; `summary.csv` states the weeks and the noise threshold. */
 export function reviewCsvFiles(r: WeeklyReview): CsvFile[] {
   const zoneOf = new Map(r.siteWeeks.map((w) => [w.siteCode, w.timeZone]));
@@ -146,12 +165,7 @@ export function reviewCsvFiles(r: WeeklyReview): CsvFile[] {
       name: 'forecasts.csv',
       text: csvTable(
         [
-          'site',
-          'machine',
-          'point',
-          'point name',
-          'band',
-          'unit',
+          ...bandPlaceHeader,
           'latest value',
           'latest at',
           'target level',
@@ -164,12 +178,7 @@ export function reviewCsvFiles(r: WeeklyReview): CsvFile[] {
           'daily means fitted',
         ],
         r.forecasts.map((f) => [
-          f.siteCode,
-          f.machineName,
-          f.pointTag,
-          f.pointName,
-          f.bandName,
-          f.unit,
+          ...bandPlaceRow(f),
           f.latestValue,
           f.latestAt,
           f.target.level,
@@ -187,12 +196,7 @@ export function reviewCsvFiles(r: WeeklyReview): CsvFile[] {
       name: 'open-alerts.csv',
       text: csvTable(
         [
-          'site',
-          'machine',
-          'point',
-          'point name',
-          'band',
-          'unit',
+          ...bandPlaceHeader,
           'level',
           'state',
           'limit',
@@ -203,12 +207,7 @@ export function reviewCsvFiles(r: WeeklyReview): CsvFile[] {
           'suspect data',
         ],
         r.openAlerts.map((a) => [
-          a.siteCode,
-          a.machineName,
-          a.pointTag,
-          a.pointName,
-          a.bandName,
-          a.unit,
+          ...bandPlaceRow(a),
           a.level,
           a.state,
           a.limitValue,

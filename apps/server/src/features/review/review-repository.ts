@@ -8,7 +8,6 @@ import type { Pool } from 'mysql2/promise';
 import type { Db } from '@turnstone/db/client';
 import {
   alerts,
-  areas,
   bands,
   limitSets,
   machines,
@@ -18,6 +17,7 @@ import {
   sites,
 } from '@turnstone/db/schema';
 import type { SiteWeek } from './review-weeks.ts';
+import { inSites, withPlace, withPlaceAndSite } from '../places/places-repository.ts';
 
 export interface PointRef {
   pointId: number;
@@ -46,7 +46,7 @@ export async function pointRefs(
   siteIds: number[],
 ): Promise<Map<number, PointRef & { criticality: Criticality }>> {
   if (siteIds.length === 0) return new Map();
-  const rows = await db
+  const query = db
     .select({
       pointId: points.id,
       pointTag: points.tag,
@@ -58,14 +58,10 @@ export async function pointRefs(
       criticality: machines.criticality,
     })
     .from(points)
-    .innerJoin(machines, eq(machines.id, points.machineId))
-    .innerJoin(areas, eq(areas.id, machines.areaId))
-    .innerJoin(sites, eq(sites.id, areas.siteId))
-    .where(inArray(sites.id, siteIds));
+    .$dynamic();
+  const rows = await withPlaceAndSite(query).where(inArray(sites.id, siteIds));
   return new Map(rows.map((r) => [r.pointId, r]));
 }
-
-const inSites = (siteIds: number[]) => inArray(areas.siteId, siteIds);
 
 /**
  * Per point, band and local day of the point's site (from `lookbackFirstDay` to
@@ -119,7 +115,7 @@ function primaryPool(db: Db): Pick<Pool, 'execute'> {
 /** The bands of every point limit set in the sites, with their full definitions. */
 export async function pointBands(db: Db, siteIds: number[]) {
   if (siteIds.length === 0) return [];
-  return db
+  const query = db
     .select({
       pointId: limitSets.pointId,
       key: bands.key,
@@ -130,33 +126,33 @@ export async function pointBands(db: Db, siteIds: number[]) {
     .from(bands)
     .innerJoin(limitSets, eq(limitSets.id, bands.limitSetId))
     .innerJoin(points, eq(points.id, limitSets.pointId))
-    .innerJoin(machines, eq(machines.id, points.machineId))
-    .innerJoin(areas, eq(areas.id, machines.areaId))
-    .where(inSites(siteIds));
+    .$dynamic();
+  return withPlace(query).where(inSites(siteIds));
 }
 
 /** The remembered condition state of every point in the sites (baselines live there). */
 export async function conditionStates(db: Db, siteIds: number[]) {
   if (siteIds.length === 0) return new Map<number, Record<string, unknown>>();
-  const rows = await db
-    .select({ pointId: pointStates.pointId, state: pointStates.state })
-    .from(pointStates)
-    .innerJoin(points, eq(points.id, pointStates.pointId))
-    .innerJoin(machines, eq(machines.id, points.machineId))
-    .innerJoin(areas, eq(areas.id, machines.areaId))
-    .where(inSites(siteIds));
+  const rows = await withPlace(
+    db
+      .select({ pointId: pointStates.pointId, state: pointStates.state })
+      .from(pointStates)
+      .innerJoin(points, eq(points.id, pointStates.pointId))
+      .$dynamic(),
+  ).where(inSites(siteIds));
   return new Map(rows.map((r) => [r.pointId, r.state]));
 }
 
 /** Raised and acknowledged alerts of the sites, oldest first. */
 export async function openAlerts(db: Db, siteIds: number[]) {
   if (siteIds.length === 0) return [];
-  return db
-    .select({ alert: alerts })
-    .from(alerts)
-    .innerJoin(points, eq(points.id, alerts.pointId))
-    .innerJoin(machines, eq(machines.id, points.machineId))
-    .innerJoin(areas, eq(areas.id, machines.areaId))
+  return withPlace(
+    db
+      .select({ alert: alerts })
+      .from(alerts)
+      .innerJoin(points, eq(points.id, alerts.pointId))
+      .$dynamic(),
+  )
     .where(and(inSites(siteIds), inArray(alerts.state, ['raised', 'acknowledged'])))
     .orderBy(asc(alerts.firstAt))
     .limit(500);
@@ -165,12 +161,13 @@ export async function openAlerts(db: Db, siteIds: number[]) {
 /** Quality notices nobody has reviewed, of captures taken in [from, to). */
 export async function unreviewedNotices(db: Db, siteIds: number[], from: Date, to: Date) {
   if (siteIds.length === 0) return [];
-  return db
-    .select({ notice: qualityNotices })
-    .from(qualityNotices)
-    .innerJoin(points, eq(points.id, qualityNotices.pointId))
-    .innerJoin(machines, eq(machines.id, points.machineId))
-    .innerJoin(areas, eq(areas.id, machines.areaId))
+  return withPlace(
+    db
+      .select({ notice: qualityNotices })
+      .from(qualityNotices)
+      .innerJoin(points, eq(points.id, qualityNotices.pointId))
+      .$dynamic(),
+  )
     .where(
       and(
         inSites(siteIds),

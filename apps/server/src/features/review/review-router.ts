@@ -1,6 +1,6 @@
 import { reviewQuerySchema, reviewSchema } from '@turnstone/contracts/review';
 import type { AppContext } from '../../lib/context.ts';
-import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import { requireUser, serviceRoute, type RouteSpec } from '../../lib/route-table.ts';
 import { reviewZip } from './review-csv.ts';
 import { reviewInUnits } from '@turnstone/contracts/review-units';
 import { buildWeeklyReview } from './review-service.ts';
@@ -11,18 +11,15 @@ const READERS = ['planner', 'engineer', 'admin'] as const;
 
 export function reviewRoutes(ctx: AppContext): RouteSpec[] {
   return [
-    {
+    serviceRoute({
       method: 'get',
       path: '/review',
       access: READERS,
       summary: 'weekly review: movers, forecasts, open alerts, quality notices, findings due',
       schemas: { query: reviewQuerySchema, response: reviewSchema },
-      handler: async (req, res) => {
-        const q = parseQuery(reviewQuerySchema, req.query);
-        res.setHeader('Cache-Control', 'no-store');
-        res.json(await buildWeeklyReview(ctx, requireUser(req), q));
-      },
-    },
+      headers: { 'Cache-Control': 'no-store' },
+      run: ({ user, query }) => buildWeeklyReview(ctx, user, query),
+    }),
     {
       method: 'get',
       path: '/review.zip',

@@ -11,11 +11,12 @@ import { points } from '@turnstone/db/schema';
 import type { PointInput } from '@turnstone/contracts/setup';
 import { notFound } from '../../lib/app-error.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
-import { writeAudit } from '../audit/audit-repository.ts';
 import { forgetPointTags } from '../ingest/ingest-service.ts';
+import { pointWithPlace } from '../places/places-repository.ts';
 import * as repo from './setup-repository.ts';
 
 import { conflict, invalid, keepData, siteForbidden } from './setup-service.ts';
+import { auditAction } from '../audit/audit-repository.ts';
 
 /** Checks a point's input; answers the site of its machine, which the point takes (siteId). */
 async function checkPointInput(
@@ -59,13 +60,7 @@ export async function createPoint(db: Db, user: SessionUser, input: PointInput) 
   try {
     const created = await db.transaction(async (tx) => {
       const row = { id: await repo.insertRow(tx, points, { ...pointColumns(input), siteId }) };
-      await writeAudit(tx, {
-        actorUserId: user.id,
-        action: 'point.create',
-        entity: 'point',
-        entityId: row!.id,
-        after: input,
-      });
+      await auditAction(tx, user, 'point.create', row!.id, { after: input });
       return { id: row!.id };
     });
     forgetPointTags();
@@ -77,18 +72,14 @@ export async function createPoint(db: Db, user: SessionUser, input: PointInput) 
 }
 
 export async function updatePoint(db: Db, user: SessionUser, id: number, input: PointInput) {
-  const row = await repo.pointById(db, id);
+  const row = await pointWithPlace(db, id);
   if (!row) throw notFound('Point');
   if (!canSeeSite(user, row.siteId)) throw siteForbidden();
   const siteId = await checkPointInput(db, user, input, id);
   try {
     await db.transaction(async (tx) => {
       await repo.updateRow(tx, points, id, { ...pointColumns(input), siteId });
-      await writeAudit(tx, {
-        actorUserId: user.id,
-        action: 'point.update',
-        entity: 'point',
-        entityId: id,
+      await auditAction(tx, user, 'point.update', id, {
         before: pointColumns({ ...row.point, bearingId: row.point.bearingId }),
         after: input,
       });
@@ -102,18 +93,14 @@ export async function updatePoint(db: Db, user: SessionUser, id: number, input: 
 }
 
 export async function deletePoint(db: Db, user: SessionUser, id: number) {
-  const row = await repo.pointById(db, id);
+  const row = await pointWithPlace(db, id);
   if (!row) throw notFound('Point');
   if (!canSeeSite(user, row.siteId)) throw siteForbidden();
   await db.transaction(async (tx) => {
     await repo.lockPoints(tx, [id]);
     if ((await repo.dataCount(tx, [id])) > 0) throw keepData('point');
     await repo.deletePoints(tx, [id]);
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'point.delete',
-      entity: 'point',
-      entityId: id,
+    await auditAction(tx, user, 'point.delete', id, {
       siteId: row.siteId,
       before: pointColumns(row.point),
     });

@@ -79,15 +79,6 @@ export async function machineByName(db: Db | Tx, areaId: number, name: string, e
     .where(and(eq(machines.areaId, areaId), eq(machines.name, name), ne(machines.id, exceptId)));
   return row;
 }
-export async function pointById(db: Db | Tx, id: number) {
-  const [row] = await db
-    .select({ point: points, siteId: areas.siteId })
-    .from(points)
-    .innerJoin(machines, eq(machines.id, points.machineId))
-    .innerJoin(areas, eq(areas.id, machines.areaId))
-    .where(eq(points.id, id));
-  return row;
-}
 /** The point of the site with this tag (tags are unique per site), other than `exceptId`. */
 export async function pointByTag(db: Db | Tx, siteId: number, tag: string, exceptId = 0) {
   const [row] = await db

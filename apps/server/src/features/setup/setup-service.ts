@@ -18,7 +18,7 @@ import type {
 } from '@turnstone/contracts/setup';
 import { AppError, forbidden, notFound } from '../../lib/app-error.ts';
 import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
-import { writeAudit } from '../audit/audit-repository.ts';
+import { auditAction } from '../audit/audit-repository.ts';
 import { forgetPointTags } from '../ingest/ingest-service.ts';
 import { resumMachineDays, resumSiteDays } from '../analysis/band-day-sums.ts';
 import * as repo from './setup-repository.ts';
@@ -94,13 +94,7 @@ export async function createSite(db: Db, user: SessionUser, input: SiteInput) {
   try {
     return await db.transaction(async (tx) => {
       const row = { id: await repo.insertRow(tx, sites, input) };
-      await writeAudit(tx, {
-        actorUserId: user.id,
-        action: 'site.create',
-        entity: 'site',
-        entityId: row!.id,
-        after: input,
-      });
+      await auditAction(tx, user, 'site.create', row!.id, { after: input });
       return { id: row!.id, ...input };
     });
   } catch (err) {
@@ -120,11 +114,7 @@ export async function updateSite(db: Db, user: SessionUser, id: number, input: S
     // Band values are summed by the site's local day: a new zone moves the days.
     if (input.timeZone !== undefined && input.timeZone !== before.timeZone)
       await resumSiteDays(tx, id, input.timeZone);
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'site.update',
-      entity: 'site',
-      entityId: id,
+    await auditAction(tx, user, 'site.update', id, {
       before: { name: before.name, code: before.code, timeZone: before.timeZone },
       after: input,
     });
@@ -139,13 +129,7 @@ export async function createArea(db: Db, user: SessionUser, input: AreaInput) {
     throw conflict('name', `This site already has an area named "${input.name}".`);
   return db.transaction(async (tx) => {
     const row = { id: await repo.insertRow(tx, areas, input) };
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'area.create',
-      entity: 'area',
-      entityId: row!.id,
-      after: input,
-    });
+    await auditAction(tx, user, 'area.create', row!.id, { after: input });
     return { id: row!.id, ...input };
   });
 }
@@ -157,11 +141,7 @@ export async function updateArea(db: Db, user: SessionUser, id: number, input: {
     throw conflict('name', `This site already has an area named "${input.name}".`);
   await db.transaction(async (tx) => {
     await repo.updateRow(tx, areas, id, { name: input.name });
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'area.update',
-      entity: 'area',
-      entityId: id,
+    await auditAction(tx, user, 'area.update', id, {
       before: { name: before.name },
       after: { name: input.name },
     });
@@ -259,13 +239,7 @@ export async function createMachine(db: Db, user: SessionUser, input: MachineInp
   const id = await db.transaction(async (tx) => {
     const row = { id: await repo.insertRow(tx, machines, machineColumns(input)) };
     await replaceComponents(tx, row!.id, input);
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'machine.create',
-      entity: 'machine',
-      entityId: row!.id,
-      after: input,
-    });
+    await auditAction(tx, user, 'machine.create', row!.id, { after: input });
     return row!.id;
   });
   return { id };
@@ -306,11 +280,7 @@ export async function updateMachine(db: Db, user: SessionUser, id: number, input
       if (to) await resumMachineDays(tx, id, to.timeZone);
     }
     const old = await replaceComponents(tx, id, input);
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'machine.update',
-      entity: 'machine',
-      entityId: id,
+    await auditAction(tx, user, 'machine.update', id, {
       before: { ...before, ...old.before },
       after: input,
     });
@@ -348,11 +318,7 @@ export async function deleteMachine(db: Db, user: SessionUser, id: number) {
       pts.map((p) => p.id),
     );
     await repo.deleteRow(tx, machines, id);
-    await writeAudit(tx, {
-      actorUserId: user.id,
-      action: 'machine.delete',
-      entity: 'machine',
-      entityId: id,
+    await auditAction(tx, user, 'machine.delete', id, {
       siteId: found.siteId,
       before: { ...before, points: pts.map((p) => p.tag) },
     });

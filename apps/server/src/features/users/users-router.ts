@@ -10,74 +10,57 @@ import {
 } from '@turnstone/contracts/users';
 import type { AppContext } from '../../lib/context.ts';
 import { attemptLimiter, clientKey, runLimits } from '../../lib/attempt-limits.ts';
-import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import { serviceRoute, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './users-service.ts';
 import { idParam } from '../../lib/route-params.ts';
 
 /** Users admin: admin only. */
 export function userRoutes(ctx: AppContext): RouteSpec[] {
   return [
-    {
+    serviceRoute({
       method: 'get',
       path: '/users',
       access: ['admin'],
       summary: 'list users',
       schemas: { response: userListSchema },
-      handler: async (_req, res) => res.json(await service.listUsers(ctx.db)),
-    },
-    {
+      run: () => service.listUsers(ctx.db),
+    }),
+    serviceRoute({
       method: 'post',
       path: '/users/invite',
       access: ['admin'],
       summary: 'invite a user',
       schemas: { body: inviteUserSchema, response: userSummarySchema, status: 201 },
-      handler: async (req, res) => {
-        const body = inviteUserSchema.parse(req.body);
-        res
-          .status(201)
-          .json(userSummarySchema.parse(await service.inviteUser(ctx, requireUser(req), body)));
-      },
-    },
-    {
+      run: async ({ user, body }) =>
+        userSummarySchema.parse(await service.inviteUser(ctx, user, body)),
+    }),
+    serviceRoute({
       method: 'patch',
       path: '/users/:id',
       access: ['admin'],
       summary: 'change a user',
       schemas: { params: idParam, body: updateUserSchema, response: userSummarySchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        const body = updateUserSchema.parse(req.body);
-        res.json(
-          userSummarySchema.parse(await service.updateUser(ctx, requireUser(req), id, body)),
-        );
-      },
-    },
-    {
+      run: async ({ user, params, body }) =>
+        userSummarySchema.parse(await service.updateUser(ctx, user, params.id, body)),
+    }),
+    serviceRoute({
       method: 'post',
       path: '/users/:id/disable',
       access: ['admin'],
       summary: 'disable a user',
       schemas: { params: idParam, response: userSummarySchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        res.json(
-          userSummarySchema.parse(await service.setDisabled(ctx, requireUser(req), id, true)),
-        );
-      },
-    },
-    {
+      run: async ({ user, params }) =>
+        userSummarySchema.parse(await service.setDisabled(ctx, user, params.id, true)),
+    }),
+    serviceRoute({
       method: 'post',
       path: '/users/:id/enable',
       access: ['admin'],
       summary: 'enable a user',
       schemas: { params: idParam, response: userSummarySchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        res.json(
-          userSummarySchema.parse(await service.setDisabled(ctx, requireUser(req), id, false)),
-        );
-      },
-    },
+      run: async ({ user, params }) =>
+        userSummarySchema.parse(await service.setDisabled(ctx, user, params.id, false)),
+    }),
   ];
 }
 
@@ -130,20 +113,27 @@ function linkLimiters(ctx: AppContext) {
 export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
   const limitResets = resetLimiters(ctx);
   const limitLinks = linkLimiters(ctx);
-  return [
-    {
-      method: 'post',
-      path: '/auth/accept-invite',
-      access: 'public',
-      summary: 'accept an invite',
-      schemas: { body: acceptInviteSchema, status: 204 },
-      handler: async (req, res) => {
-        await runLimits(limitLinks, req, res);
-        const body = acceptInviteSchema.parse(req.body);
-        await service.acceptInvite(ctx, body.token, body.password);
-        res.status(204).end();
-      },
+  /** A link's form: the link limits first, then its token and the new password. */
+  const linkRoute = (
+    path: string,
+    summary: string,
+    schema: typeof acceptInviteSchema,
+    submit: (ctx: AppContext, token: string, password: string) => Promise<void>,
+  ): RouteSpec => ({
+    method: 'post',
+    path,
+    access: 'public',
+    summary,
+    schemas: { body: schema, status: 204 },
+    handler: async (req, res) => {
+      await runLimits(limitLinks, req, res);
+      const body = schema.parse(req.body);
+      await submit(ctx, body.token, body.password);
+      res.status(204).end();
     },
+  });
+  return [
+    linkRoute('/auth/accept-invite', 'accept an invite', acceptInviteSchema, service.acceptInvite),
     {
       method: 'post',
       path: '/auth/forgot-password',
@@ -162,18 +152,11 @@ export function userLinkRoutes(ctx: AppContext): RouteSpec[] {
         res.status(202).json(forgotPasswordResponseSchema.parse({ accepted: true }));
       },
     },
-    {
-      method: 'post',
-      path: '/auth/reset-password',
-      access: 'public',
-      summary: 'set a new password from a reset link',
-      schemas: { body: resetPasswordSchema, status: 204 },
-      handler: async (req, res) => {
-        await runLimits(limitLinks, req, res);
-        const body = resetPasswordSchema.parse(req.body);
-        await service.resetPassword(ctx, body.token, body.password);
-        res.status(204).end();
-      },
-    },
+    linkRoute(
+      '/auth/reset-password',
+      'set a new password from a reset link',
+      resetPasswordSchema,
+      service.resetPassword,
+    ),
   ];
 }

@@ -9,7 +9,7 @@ import type { InviteUser, UpdateUser, UserSummary } from '@turnstone/contracts/u
 import type { AppContext } from '../../lib/context.ts';
 import { AppError, notFound } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
-import { writeAudit } from '../audit/audit-repository.ts';
+import { auditAction, writeAudit } from '../audit/audit-repository.ts';
 import { hashPassword } from '../../lib/passwords.ts';
 import { enqueueMail } from '../mail/outbox-repository.ts';
 import { mailBaseUrl } from '../mail/mail-links.ts';
@@ -90,11 +90,7 @@ export async function inviteUser(ctx: AppContext, actor: SessionUser, input: Inv
       to: input.email,
       ...renderInvite(input.name, actor.name, `${base}/accept-invite#token=${token}`),
     });
-    await writeAudit(tx, {
-      actorUserId: actor.id,
-      action: 'user.invite',
-      entity: 'user',
-      entityId: userId,
+    await auditAction(tx, actor, 'user.invite', userId, {
       after: { email: input.email, name: input.name, role: input.role, siteIds },
     });
     return userId;
@@ -129,11 +125,7 @@ export async function updateUser(
         before.role === 'operator' ? now.filter((s) => !before.siteIds.includes(s)) : now;
       await subscribeToSiteAlerts(tx, id, added);
     }
-    await writeAudit(tx, {
-      actorUserId: actor.id,
-      action: 'user.update',
-      entity: 'user',
-      entityId: id,
+    await auditAction(tx, actor, 'user.update', id, {
       before: { role: before.role, name: before.name, siteIds: before.siteIds },
       after: {
         role: input.role ?? before.role,

@@ -7,23 +7,22 @@ import {
   webhookSchema,
 } from '@turnstone/contracts/webhooks';
 import type { AppContext } from '../../lib/context.ts';
-import { requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import { serviceRoute, type RouteSpec } from '../../lib/route-table.ts';
 import { idParam } from '../../lib/route-params.ts';
 import * as service from './webhooks-service.ts';
 
 /** Outgoing webhooks: admin only. */
 export function webhookRoutes(ctx: AppContext): RouteSpec[] {
   return [
-    {
+    serviceRoute({
       method: 'get',
       path: '/webhooks',
       access: ['admin'],
       summary: 'list webhooks',
       schemas: { response: webhookListSchema },
-      handler: async (_req, res) =>
-        res.json(webhookListSchema.parse(await service.listWebhooks(ctx))),
-    },
-    {
+      run: async () => webhookListSchema.parse(await service.listWebhooks(ctx)),
+    }),
+    serviceRoute({
       method: 'post',
       path: '/webhooks',
       access: ['admin'],
@@ -31,50 +30,35 @@ export function webhookRoutes(ctx: AppContext): RouteSpec[] {
       schemas: { body: createWebhookSchema, response: createdWebhookSchema, status: 201 },
       // The answer holds the secret, shown once: it is never stored for a replay.
       idempotency: 'refused',
-      handler: async (req, res) => {
-        const body = createWebhookSchema.parse(req.body);
-        res.setHeader('Cache-Control', 'no-store');
-        res
-          .status(201)
-          .json(
-            createdWebhookSchema.parse(await service.createWebhook(ctx, requireUser(req), body)),
-          );
-      },
-    },
-    {
+      headers: { 'Cache-Control': 'no-store' },
+      run: async ({ user, body }) =>
+        createdWebhookSchema.parse(await service.createWebhook(ctx, user, body)),
+    }),
+    serviceRoute({
       method: 'patch',
       path: '/webhooks/:id',
       access: ['admin'],
       summary: 'change a webhook (name, URL, events, enabled)',
       schemas: { params: idParam, body: updateWebhookSchema, response: webhookSchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        const body = updateWebhookSchema.parse(req.body);
-        res.json(webhookSchema.parse(await service.updateWebhook(ctx, requireUser(req), id, body)));
-      },
-    },
-    {
+      run: async ({ user, params, body }) =>
+        webhookSchema.parse(await service.updateWebhook(ctx, user, params.id, body)),
+    }),
+    serviceRoute({
       method: 'delete',
       path: '/webhooks/:id',
       access: ['admin'],
       summary: 'remove a webhook and its queued deliveries',
       schemas: { params: idParam, status: 204 },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        await service.deleteWebhook(ctx, requireUser(req), id);
-        res.status(204).end();
-      },
-    },
-    {
+      run: ({ user, params }) => service.deleteWebhook(ctx, user, params.id),
+    }),
+    serviceRoute({
       method: 'get',
       path: '/webhooks/:id/deliveries',
       access: ['admin'],
       summary: "a webhook's latest deliveries",
       schemas: { params: idParam, response: webhookDeliveryListSchema },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        res.json(webhookDeliveryListSchema.parse(await service.listDeliveries(ctx, id)));
-      },
-    },
+      run: async ({ params }) =>
+        webhookDeliveryListSchema.parse(await service.listDeliveries(ctx, params.id)),
+    }),
   ];
 }

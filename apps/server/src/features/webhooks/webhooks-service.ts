@@ -17,7 +17,7 @@ import type {
 import type { AppContext } from '../../lib/context.ts';
 import { notFound } from '../../lib/app-error.ts';
 import type { SessionUser } from '../../lib/session-user.ts';
-import { writeAudit } from '../audit/audit-repository.ts';
+import { auditAction } from '../audit/audit-repository.ts';
 import * as repo from './webhooks-repository.ts';
 
 const iso = (d: Date | null) => d?.toISOString() ?? null;
@@ -61,11 +61,7 @@ export async function createWebhook(
   const secret = `whsec_${randomBytes(32).toString('base64')}`;
   const id = await ctx.db.transaction(async (tx) => {
     const newId = await repo.insertWebhook(tx, { ...input, secret, createdBy: actor.id });
-    await writeAudit(tx, {
-      actorUserId: actor.id,
-      action: 'webhook.create',
-      entity: 'webhook',
-      entityId: newId,
+    await auditAction(tx, actor, 'webhook.create', newId, {
       after: auditView({ ...input, enabled: true }),
     });
     return newId;
@@ -84,11 +80,7 @@ export async function updateWebhook(
     if (!before) throw notFound('Webhook');
     const set = Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined));
     await repo.updateWebhook(tx, id, set);
-    await writeAudit(tx, {
-      actorUserId: actor.id,
-      action: 'webhook.update',
-      entity: 'webhook',
-      entityId: id,
+    await auditAction(tx, actor, 'webhook.update', id, {
       before: auditView(before),
       after: auditView({ ...before, ...set }),
     });
@@ -101,13 +93,7 @@ export async function deleteWebhook(ctx: AppContext, actor: SessionUser, id: num
     const before = await repo.lockWebhook(tx, id);
     if (!before) throw notFound('Webhook');
     await repo.deleteWebhook(tx, id);
-    await writeAudit(tx, {
-      actorUserId: actor.id,
-      action: 'webhook.delete',
-      entity: 'webhook',
-      entityId: id,
-      before: auditView(before),
-    });
+    await auditAction(tx, actor, 'webhook.delete', id, { before: auditView(before) });
   });
 }
 

@@ -26,7 +26,7 @@ const DETAIL_PATHS = sql.raw(`'$.qualityMetrics', '$.spectra', '$.peaks', '$.fau
 /**
  * Removes from at most `limit` analyses thinned since `since` the spectra's detail that rows
  * written before it moved into the spectra BLOB still hold in their summary (a range of
- * analyses_thinned_idx). Migration 0020 did this for the rows thinned before it.
+ * analyses_thinned_idx). Migration 0021 did this for the rows thinned before it.
  */
 export async function trimThinnedSummaries(db: Db, since: Date, limit: number): Promise<number> {
   return affected(

@@ -5,7 +5,7 @@
  * - done jobs: the queue keeps a row per capture for ever unless removed; removed
  *   `DONE_JOBS_KEEP_DAYS` after they ran, in bounded batches;
  * - summaries of analyses written before their detail moved into the spectra BLOB and
- *   thinned since: the detail is trimmed (what migration 0020 did for the rows thinned
+ *   thinned since: the detail is trimmed (what migration 0021 did for the rows thinned
  *   before it), in bounded batches;
  * - the pages thinning emptied: InnoDB keeps them reserved to their partition (data_length
  *   does not drop; measured in tests/bench/storage-bench.ts), and a month's partition takes

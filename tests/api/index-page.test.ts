@@ -1,0 +1,133 @@
+/**
+ * The web app's page as the server answers it per request (apps/server/src/lib/index-page.ts):
+ * the session inside it as JSON, the first screen's code and data preloaded, never cached,
+ * and still under the strict Content-Security-Policy.
+ */
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { ensureWebBuilt, webDist } from '../../apps/server/src/lib/web-build.ts';
+import { jsonForHtml, screenModules } from '../../apps/server/src/lib/index-page.ts';
+import { startTestServer, type TestServer } from '../support/test-server.ts';
+
+let srv: TestServer;
+beforeAll(async () => {
+  await ensureWebBuilt(() => undefined);
+  srv = await startTestServer();
+}, 180_000);
+afterAll(async () => {
+  await srv?.stop();
+});
+
+/** The session data block's text, and how many elements of the page end a script. */
+function sessionBlock(html: string): { json: string; scriptEnds: number } {
+  const m = /<script type="application\/json" id="turnstone-session">([^<]*)<\/script>/.exec(html);
+  if (!m) throw new Error('the page carries no session block');
+  return { json: m[1]!, scriptEnds: html.split('</script>').length - 1 };
+}
+
+const preloads = (html: string, rel: string) =>
+  [...html.matchAll(new RegExp(`<link rel="${rel}"[^>]*href="([^"]+)"`, 'g'))].map((m) => m[1]!);
+
+describe('the page', () => {
+  it('signed out: the session is null, nothing personal is preloaded, and it is not stored', async () => {
+    const res = await srv.call('GET', '/fleet');
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-type')).toMatch(/^text\/html/);
+    expect(res.headers.get('cache-control')).toBe('no-store');
+    const html = await res.text();
+    expect(JSON.parse(sessionBlock(html).json)).toEqual({ user: null });
+    expect(preloads(html, 'preload')).toEqual([]);
+  });
+
+  it('keeps the strict Content-Security-Policy: the data block is no script, no inline script is needed', async () => {
+    const res = await srv.call('GET', '/fleet', { cookie: await srv.signIn('engineer') });
+    const csp = res.headers.get('content-security-policy') ?? '';
+    expect(csp).toContain("script-src 'self'");
+    expect(csp).not.toMatch(/script-src[^;]*(unsafe|nonce|sha)/);
+    const html = await res.text();
+    // Every executable script of the page is a file of our own (src="/assets/…").
+    for (const tag of html.match(/<script\b[^>]*>/g) ?? [])
+      expect(tag).toMatch(/type="application\/json"|src="\/assets\/[\w.-]+\.js"/);
+  });
+
+  it('signed in: the session equals /auth/session, and the point page starts its code and data', async () => {
+    const cookie = await srv.signIn('engineer');
+    const res = await srv.call('GET', '/points/1', { cookie });
+    expect(res.headers.get('cache-control')).toBe('no-store');
+    const html = await res.text();
+    const session = await (await srv.call('GET', '/api/v1/auth/session', { cookie })).json();
+    expect(JSON.parse(sessionBlock(html).json)).toEqual(session);
+    expect(preloads(html, 'preload')).toEqual([
+      '/api/v1/points/1',
+      '/api/v1/points/1/analyses?limit=200',
+      '/api/v1/quality-notices?pointId=1&limit=10',
+    ]);
+    const scripts = preloads(html, 'modulepreload');
+    // The point page's own chunk is among them (its name is the route module's).
+    expect(scripts.some((s) => /^\/assets\/point-[\w-]+\.js$/.test(s))).toBe(true);
+    for (const s of scripts) {
+      expect(existsSync(join(webDist, s))).toBe(true);
+      expect(scripts.filter((x) => x === s)).toHaveLength(1);
+    }
+  });
+
+  it('a role the data does not admit gets the code but not the data request', async () => {
+    const html = await (
+      await srv.call('GET', '/users', { cookie: await srv.signIn('operator') })
+    ).text();
+    expect(preloads(html, 'preload')).toEqual([]);
+    const admin = await (
+      await srv.call('GET', '/users', { cookie: await srv.signIn('admin') })
+    ).text();
+    expect(preloads(admin, 'preload')).toEqual(['/api/v1/users']);
+  });
+
+  it('a name written to end the element or open a comment stays text inside the JSON', async () => {
+    // HTML Living Standard, 4.12.1.3 "Restrictions for contents of script elements": the
+    // element ends at the first `</script`, and `<!--` changes how it is parsed.
+    const hostile = '</script><script>alert(1)</script><!-- & \u2028 </SCRIPT >';
+    await srv.q('UPDATE users SET name = ? WHERE email = ?', [hostile, 'planner@turnstone.local']);
+    const html = await (
+      await srv.call('GET', '/review', { cookie: await srv.signIn('planner') })
+    ).text();
+    const block = sessionBlock(html);
+    expect(JSON.parse(block.json).user.name).toBe(hostile);
+    expect(html.toLowerCase()).not.toContain('<script>alert');
+    expect(html).not.toContain('<!-- &');
+    // The page's own scripts plus the one data block: no element was ended early.
+    const plain = (await (await srv.call('GET', '/review')).text()).split('</script>').length - 1;
+    expect(block.scriptEnds).toBe(plain);
+  });
+
+  it('every module the screens preload is still in the build (a moved file would go unnoticed)', () => {
+    const map = JSON.parse(readFileSync(join(webDist, '.vite/modules.json'), 'utf8')) as {
+      modules: Record<string, string>;
+    };
+    for (const m of screenModules()) expect(map.modules[m], m).toBeTruthy();
+  });
+
+  it('the build made from inside the test runner (NODE_ENV=test) is the production build', () => {
+    // React's development build prints this hint (from memory); the production build has none.
+    const scripts = readdirSync(join(webDist, 'assets')).filter((f) => f.endsWith('.js'));
+    expect(scripts.length).toBeGreaterThan(0);
+    for (const f of scripts)
+      expect(readFileSync(join(webDist, 'assets', f), 'utf8'), f).not.toContain(
+        'Download the React DevTools',
+      );
+  });
+
+  it('jsonForHtml leaves no character that HTML parsing inside an element reacts to', () => {
+    // common practice, no source: escape < > & and the JS line separators as \u sequences.
+    const value = { s: '<>&\u2028\u2029"\\', n: 1 };
+    const out = jsonForHtml(value);
+    expect(out).not.toMatch(/[<>&\u2028\u2029]/);
+    expect(JSON.parse(out)).toEqual(value);
+  });
+
+  it('an unknown session cookie is a null session, not an error page', async () => {
+    const res = await srv.call('GET', '/alerts', { cookie: 'turnstone_session=made-up' });
+    expect(res.status).toBe(200);
+    expect(JSON.parse(sessionBlock(await res.text()).json)).toEqual({ user: null });
+  });
+});
