@@ -4,9 +4,10 @@
  * option (a cursor set by a click, a marker switched on) is built on it, so nothing resets
  * the zoom. A click on the plot reports its x for the cursors.
  */
-import { useEffect, useMemo, useRef } from 'react';
+import { useEffect, useRef } from 'react';
 import { formatValue } from './chart-theme.ts';
 import { buildSpectrumOption, type SpectrumOptionInput } from './spectrum-option.ts';
+import { useBuiltOption } from './use-built-option.ts';
 import { useEChart } from './use-echart.ts';
 import { useChartZoom, xExtent, ZoomKeys } from './zoom-keys.tsx';
 import { ChartCanvas } from './chart-canvas.tsx';
@@ -30,43 +31,13 @@ interface ZoomState {
   endValue?: number;
 }
 
-export function SpectrumChart(props: SpectrumChartProps) {
-  const {
-    traces,
-    axis,
-    yName,
-    unit,
-    decibels,
-    view,
-    lowCut,
-    marks,
-    cursors,
-    highlights,
-    difference,
-  } = props;
-  const option = useMemo(
-    () =>
-      buildSpectrumOption({
-        traces,
-        axis,
-        yName,
-        unit,
-        decibels,
-        view,
-        lowCut,
-        marks,
-        cursors,
-        highlights,
-        difference,
-      }),
-    [traces, axis, yName, unit, decibels, view, lowCut, marks, cursors, highlights, difference],
-  );
+export function SpectrumChart({ onView, onPick, height, ariaLabel, ...input }: SpectrumChartProps) {
+  // Rebuilt only when an input changes, so a re-render keeps the window shown.
+  const option = useBuiltOption(buildSpectrumOption, input);
   // The latest handlers, for the listeners registered once at mount.
-  const handlersRef = useRef<Pick<SpectrumChartProps, 'onView' | 'onPick'>>({
-    onView: props.onView,
-  });
+  const handlersRef = useRef({ onView, onPick });
   useEffect(() => {
-    handlersRef.current = { onView: props.onView, onPick: props.onPick };
+    handlersRef.current = { onView, onPick };
   });
   const { ref, chart } = useEChart(option, (chart) => {
     const zr = chart.getZr();
@@ -89,13 +60,13 @@ export function SpectrumChart(props: SpectrumChartProps) {
     };
   });
   const zoom = useChartZoom(chart, option);
-  const xUnit = axis === 'hz' ? 'Hz' : 'order';
+  const xUnit = input.axis === 'hz' ? 'Hz' : 'order';
   return (
     <div>
       <ChartCanvas
         canvasRef={ref}
-        ariaLabel={props.ariaLabel}
-        height={props.height ?? (difference ? 440 : 360)}
+        ariaLabel={ariaLabel}
+        height={height ?? (input.difference ? 440 : 360)}
         className="w-full cursor-crosshair"
       />
       <div className="mt-2 px-2">

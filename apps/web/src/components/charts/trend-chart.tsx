@@ -9,8 +9,9 @@
  * keyboard zoom, its values as a table, and an event's text in a box while its symbol is
  * hovered or the event is made active from outside (a list of the events, for the keyboard).
  */
-import { useEffect, useMemo, useRef } from 'react';
+import { useEffect, useRef } from 'react';
 import { formatValue } from './chart-theme.ts';
+import { useBuiltOption } from './use-built-option.ts';
 import { useEChart } from './use-echart.ts';
 import { ValuesTable } from './values-table.tsx';
 import { useChartZoom, xExtent, zoomedExtent, ZoomKeys } from './zoom-keys.tsx';
@@ -30,63 +31,20 @@ import type { echarts } from './echarts.ts';
 export type * from './trend-option.ts';
 export { displayUnit };
 
-export function TrendChart(props: TrendChartProps) {
-  const {
-    points,
-    unit,
-    name,
-    limits,
-    baseline,
-    events,
-    projection,
-    markerSeries,
-    extraSeries,
-    seriesId,
-    colour,
-    now,
-    range,
-    zoom,
-  } = props;
-  // Rebuilt only when the data change (pass memoised arrays), so a re-render keeps the zoom.
-  const option = useMemo(
-    () =>
-      buildTrendOption({
-        points,
-        unit,
-        name,
-        limits,
-        baseline,
-        events,
-        projection,
-        markerSeries,
-        extraSeries,
-        seriesId,
-        colour,
-        now,
-        range,
-        zoom,
-        ariaLabel: '',
-      }),
-    [
-      points,
-      unit,
-      name,
-      limits,
-      baseline,
-      events,
-      projection,
-      markerSeries,
-      extraSeries,
-      seriesId,
-      colour,
-      now,
-      range,
-      zoom,
-    ],
-  );
-  const handlers = useRef(props);
+export function TrendChart({
+  ariaLabel,
+  height = 320,
+  activeEvent: active = null,
+  onPointClick,
+  onActiveEvent,
+  onWindow,
+  ...input
+}: TrendChartProps) {
+  // Rebuilt only when an input changes (pass memoised arrays), so a re-render keeps the zoom.
+  const option = useBuiltOption(buildTrendOption, input);
+  const handlers = useRef({ onPointClick, onActiveEvent, onWindow });
   useEffect(() => {
-    handlers.current = props;
+    handlers.current = { onPointClick, onActiveEvent, onWindow };
   });
   const { ref, chart } = useEChart(option, (chart) => {
     chart.on('click', (params) => {
@@ -112,17 +70,17 @@ export function TrendChart(props: TrendChartProps) {
   useEffect(() => {
     if (Number.isFinite(from) && Number.isFinite(to)) handlers.current.onWindow?.(from, to);
   }, [from, to]);
-  const active = props.activeEvent ?? null;
+  const { events, points } = input;
   const activeEvent = active === null ? undefined : events?.[active];
   return (
     <div>
       <div className="relative">
-        <ChartCanvas canvasRef={ref} ariaLabel={props.ariaLabel} height={props.height ?? 320} />
+        <ChartCanvas canvasRef={ref} ariaLabel={ariaLabel} height={height} />
         {activeEvent && chart && (
           <EventBox chart={chart} event={activeEvent} index={active!} events={events ?? []} />
         )}
       </div>
-      {(zoom ?? true) && (
+      {(input.zoom ?? true) && (
         <div className="mb-1 px-2">
           <ZoomKeys
             chart={chart}
@@ -133,7 +91,7 @@ export function TrendChart(props: TrendChartProps) {
           />
         </div>
       )}
-      <TrendValues points={points} unit={displayUnit(unit)} name={name ?? 'Values'} />
+      <TrendValues points={points} unit={displayUnit(input.unit)} name={input.name ?? 'Values'} />
     </div>
   );
 }

@@ -18,7 +18,7 @@ import { withTrendSeries } from './trend-series-option.ts';
 import { formatDate, formatDateTime } from '../../lib/format.ts';
 
 export type * from './trend-types.ts';
-import type { ChartTime, TrendChartProps, TrendEventMarker } from './trend-types.ts';
+import type { ChartTime, TrendEventMarker, TrendOptionInput } from './trend-types.ts';
 
 /** The next "round" number at or above x (1, 1.2, 1.5, 2, 2.5, 3, 4, 5, 6, 8 × 10^k). */
 export function niceCeil(x: number): number {
@@ -65,7 +65,7 @@ const eventStyle: Record<
 export const dateLabel = { format: (t: number) => formatDate(t) };
 export const dateTimeLabel = { format: (t: number) => formatDateTime(t) };
 
-export function buildTrendOption(props: TrendChartProps): ChartOption {
+export function buildTrendOption(props: TrendOptionInput): ChartOption {
   const unit = displayUnit(props.unit);
   const name = props.name ?? 'Value';
   const data = props.points.map((p) => [toMs(p.t), p.v, p.q ?? 'ok'] as [number, number, string]);

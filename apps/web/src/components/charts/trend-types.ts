@@ -98,3 +98,9 @@ export interface TrendChartProps {
   /** Called with the time window shown (epoch ms) whenever the zoom moves. */
   onWindow?: (from: number, to: number) => void;
 }
+
+/** What the trend's option is built from: the props but for the chart's name, size and handlers. */
+export type TrendOptionInput = Omit<
+  TrendChartProps,
+  'ariaLabel' | 'height' | 'activeEvent' | 'onPointClick' | 'onActiveEvent' | 'onWindow'
+>;

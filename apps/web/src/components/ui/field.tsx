@@ -77,23 +77,134 @@ export function Field({
 
 /**
  * A `Field` holding one `Input`: the usual pair in forms (e-mail, password, name). Pass the
- * form library's registration and any input attributes (`type`, `autoComplete`, …).
+ * form library's registration and any input attributes (`type`, `autoComplete`, …);
+ * `inputClassName` styles the input, `className` the field around it.
  */
 export function InputField({
   label,
   hint,
   error,
   className,
+  inputClassName,
   ...input
 }: {
   label: ReactNode;
   hint?: ReactNode;
   error?: string;
   className?: string;
+  inputClassName?: string;
 } & Omit<ComponentProps<typeof Input>, 'invalid' | 'id' | 'aria-describedby' | 'className'>) {
   return (
     <Field label={label} hint={hint} error={error} className={className}>
-      {({ invalid, ...ids }) => <Input {...ids} {...input} invalid={invalid} />}
+      {({ invalid, ...ids }) => (
+        <Input {...ids} {...input} className={inputClassName} invalid={invalid} />
+      )}
+    </Field>
+  );
+}
+
+/** One choice of a `SelectField`: the value and what the option shows. */
+export type SelectOption = readonly [value: string | number, label: ReactNode];
+
+/**
+ * A `Field` holding one `Select`. Give the choices as `options` ([value, label] pairs) or as
+ * `<option>` children; pass the form library's registration or `value`/`onChange` as to a
+ * plain select.
+ */
+export function SelectField({
+  label,
+  hint,
+  error,
+  className,
+  options,
+  children,
+  ...select
+}: {
+  label: ReactNode;
+  hint?: ReactNode;
+  error?: string;
+  className?: string;
+  options?: readonly SelectOption[];
+} & Omit<ComponentProps<typeof Select>, 'id' | 'aria-describedby' | 'className'>) {
+  return (
+    <Field label={label} hint={hint} error={error} className={className}>
+      {({ invalid: _invalid, ...ids }) => (
+        <Select {...ids} {...select}>
+          {options?.map(([value, text]) => (
+            <option key={value} value={value}>
+              {text}
+            </option>
+          ))}
+          {children}
+        </Select>
+      )}
+    </Field>
+  );
+}
+
+/**
+ * An `InputField` for a password. `fresh` marks one where a new password is chosen, so the
+ * browser offers to generate and save it instead of filling in the stored one.
+ */
+export function PasswordField({
+  fresh = false,
+  ...field
+}: { fresh?: boolean } & Omit<ComponentProps<typeof InputField>, 'type' | 'autoComplete'>) {
+  return (
+    <InputField
+      {...field}
+      type="password"
+      autoComplete={fresh ? 'new-password' : 'current-password'}
+    />
+  );
+}
+
+/** Unit shown inside the right end of a number input. */
+function Unit({ children }: { children: ReactNode }) {
+  return (
+    <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center font-mono text-xs text-ink-faint">
+      {children}
+    </span>
+  );
+}
+
+/**
+ * A labelled number field, monospaced, with its unit inside the right end. Pass the form
+ * library's registration (`formField` gives it with the error) or `value`/`onChange`, and any
+ * further input attributes (`controlSize`, `min`, …).
+ */
+export function NumberField({
+  label,
+  unit,
+  error,
+  hint,
+  step = 'any',
+  className,
+  ...input
+}: {
+  label: ReactNode;
+  unit?: string;
+  error?: string;
+  hint?: ReactNode;
+  step?: string;
+  className?: string;
+} & Omit<ComponentProps<typeof Input>, 'invalid' | 'id' | 'aria-describedby' | 'className'>) {
+  return (
+    <Field label={label} error={error} hint={hint} className={className}>
+      {({ invalid, ...ids }) => (
+        <div className="relative">
+          <Input
+            {...ids}
+            invalid={invalid}
+            type="number"
+            inputMode="decimal"
+            step={step}
+            className={unit ? 'pr-14 font-mono' : 'font-mono'}
+            {...input}
+          />
+          {unit && <Unit>{unit}</Unit>}
+        </div>
+      )}
     </Field>
   );
 }

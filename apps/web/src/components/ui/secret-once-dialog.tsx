@@ -1,4 +1,5 @@
 import { useState, type ReactNode } from 'react';
+import { AlertBox } from './alert-box.tsx';
 import { Button } from './button.tsx';
 import { Modal } from './modal.tsx';
 
@@ -42,22 +43,12 @@ export function SecretOnceDialog({
   };
   return (
     <Modal open={secret !== null} title={title} onClose={close} dismissable={false}>
-      <div
-        role="alert"
-        className="flex gap-2.5 rounded-md border border-status-alert/40 bg-status-alert/10 px-3 py-2.5 text-sm"
-      >
-        <svg
-          viewBox="0 0 12 12"
-          aria-hidden="true"
-          className="mt-1 size-3 shrink-0 text-status-alert"
-        >
-          <path d="M6 1.2 11 10.3H1Z" fill="currentColor" />
-        </svg>
+      <AlertBox tone="caution">
         <p>
           <strong>{what ? `This ${what} is shown only once.` : 'This is shown only once.'}</strong>{' '}
           {advice}
         </p>
-      </div>
+      </AlertBox>
       <label className="flex flex-col gap-1.5 text-sm font-medium">
         {label}
         <input

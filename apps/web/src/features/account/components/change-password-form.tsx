@@ -4,7 +4,8 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { changePasswordSchema, type ChangePassword } from '@turnstone/contracts/account';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
-import { InputField } from '../../../components/ui/field.tsx';
+import { PasswordField } from '../../../components/ui/field.tsx';
+import { formField } from '../../../lib/form-field.ts';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 import { useChangePassword } from '../api/account.ts';
 
@@ -15,7 +16,6 @@ export function ChangePasswordForm() {
     resolver: zodResolver(changePasswordSchema),
     defaultValues: { currentPassword: '', newPassword: '' },
   });
-  const { errors } = form.formState;
   const onSubmit = form.handleSubmit((values) =>
     change.mutate(values, {
       onSuccess: () => {
@@ -35,20 +35,8 @@ export function ChangePasswordForm() {
         8 to 64 characters. Your other sessions end; this one continues.
       </p>
       <form onSubmit={onSubmit} noValidate className="mt-3 flex max-w-sm flex-col gap-3">
-        <InputField
-          label="Current password"
-          error={errors.currentPassword?.message}
-          {...form.register('currentPassword')}
-          type="password"
-          autoComplete="current-password"
-        />
-        <InputField
-          label="New password"
-          error={errors.newPassword?.message}
-          {...form.register('newPassword')}
-          type="password"
-          autoComplete="new-password"
-        />
+        <PasswordField label="Current password" {...formField(form, 'currentPassword')} />
+        <PasswordField label="New password" fresh {...formField(form, 'newPassword')} />
         <div className="flex items-center gap-3">
           <Button type="submit" variant="primary" busy={change.isPending}>
             Change password

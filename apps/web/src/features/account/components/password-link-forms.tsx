@@ -6,7 +6,8 @@ import { passwordSchema } from '@turnstone/contracts/auth';
 import { forgotPasswordSchema } from '@turnstone/contracts/users';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
-import { InputField } from '../../../components/ui/field.tsx';
+import { InputField, PasswordField } from '../../../components/ui/field.tsx';
+import { formField } from '../../../lib/form-field.ts';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 import {
   useForgotPassword,
@@ -41,7 +42,6 @@ export function SetPasswordForm({
     resolver: zodResolver(setPasswordForm),
     defaultValues: { password: '', confirm: '' },
   });
-  const { errors } = form.formState;
   const title = kind === 'invite' ? 'Choose your password' : 'Choose a new password';
   if (setPassword.isSuccess)
     return (
@@ -90,22 +90,14 @@ export function SetPasswordForm({
             {setPassword.error.message}
           </p>
         )}
-        <InputField
+        <PasswordField
           label="New password"
           hint="8 to 64 characters."
-          error={errors.password?.message}
-          {...form.register('password')}
-          type="password"
-          autoComplete="new-password"
+          fresh
           autoFocus
+          {...formField(form, 'password')}
         />
-        <InputField
-          label="Repeat the password"
-          error={errors.confirm?.message}
-          {...form.register('confirm')}
-          type="password"
-          autoComplete="new-password"
-        />
+        <PasswordField label="Repeat the password" fresh {...formField(form, 'confirm')} />
         <Button type="submit" variant="primary" busy={setPassword.isPending} className="w-full">
           Set password
         </Button>
@@ -134,8 +126,7 @@ export function ForgotPasswordForm({ signInHref }: { signInHref: string }) {
         <form onSubmit={onSubmit} noValidate className="mt-4 flex flex-col gap-4">
           <InputField
             label="E-mail"
-            error={form.formState.errors.email?.message}
-            {...form.register('email')}
+            {...formField(form, 'email')}
             type="email"
             autoComplete="username"
             autoFocus

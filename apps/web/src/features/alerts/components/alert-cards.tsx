@@ -2,7 +2,8 @@ import type { Row } from '@tanstack/react-table';
 import type { Alert } from '@turnstone/contracts/alerts';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { cn } from '../../../lib/cn.ts';
-import { formatAge, formatDateTime } from '../../../lib/format.ts';
+import { formatDateTime } from '../../../lib/format.ts';
+import { Age } from '../../../components/ui/age.tsx';
 import { AlertStateMark } from './alert-labels.tsx';
 import { focusAcknowledgeNote } from './acknowledge-form.tsx';
 import { useUnits } from '../../account/api/use-units.ts';
@@ -56,13 +57,12 @@ export function AlertCards({
               <div className="flex flex-wrap items-center gap-x-4 gap-y-1">
                 <StatusMark status={a.level} />
                 <AlertStateMark state={a.state} />
-                <time
-                  dateTime={a.lastAt}
-                  title={formatDateTime(a.lastAt)}
+                <Age
+                  at={a.lastAt}
+                  now={now}
+                  prefix="last "
                   className="text-[13px] text-ink-muted"
-                >
-                  last {formatAge(a.lastAt, now)}
-                </time>
+                />
               </div>
               <button
                 type="button"

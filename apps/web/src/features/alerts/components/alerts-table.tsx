@@ -11,7 +11,8 @@ import {
 import type { Alert } from '@turnstone/contracts/alerts';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { cn } from '../../../lib/cn.ts';
-import { formatAge, formatDateTime } from '../../../lib/format.ts';
+import { formatDateTime } from '../../../lib/format.ts';
+import { Age } from '../../../components/ui/age.tsx';
 import { useMediaQuery } from '../../../hooks/use-media-query.ts';
 import { AlertStateMark } from './alert-labels.tsx';
 import { AlertCards } from './alert-cards.tsx';
@@ -31,15 +32,7 @@ const NowContext = createContext(0);
 
 function LastAt({ at }: { at: string }) {
   const now = useContext(NowContext);
-  return (
-    <time
-      dateTime={at}
-      title={formatDateTime(at)}
-      className="text-[13px] whitespace-nowrap text-ink-muted"
-    >
-      {formatAge(at, now)}
-    </time>
-  );
+  return <Age at={at} now={now} className="text-[13px] whitespace-nowrap text-ink-muted" />;
 }
 
 export function AlertsTable({

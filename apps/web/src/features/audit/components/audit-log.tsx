@@ -5,7 +5,8 @@ import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
-import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import { Field, Input, InputField, SelectField } from '../../../components/ui/field.tsx';
+import { TableHead } from '../../../components/ui/table-head.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { addDays, dayStart } from '@turnstone/contracts/dates';
 import { displayTimeZone, formatDateTime } from '../../../lib/format.ts';
@@ -81,6 +82,14 @@ function ChangeCell({ entry }: { entry: AuditEntry }) {
   );
 }
 
+/** A filter control's value and its change handler, kept in a string state. */
+function bind(value: string, set: (v: string) => void) {
+  return {
+    value,
+    onChange: (e: { target: { value: string } }) => set(e.target.value),
+  };
+}
+
 export function AuditLog() {
   // Other screens link here with ?entity=&entityId= (paths.app.audit.getHref).
   const [searchParams] = useSearchParams();
@@ -137,28 +146,13 @@ export function AuditLog() {
           className="grid grid-cols-2 items-end gap-3 md:grid-cols-4 xl:grid-cols-7"
           onSubmit={(e) => e.preventDefault()}
         >
-          <Field label="Entity">
-            {(ids) => (
-              <Select id={ids.id} value={entity} onChange={(e) => setEntity(e.target.value)}>
-                {ENTITIES.map(([v, label]) => (
-                  <option key={v} value={v}>
-                    {label}
-                  </option>
-                ))}
-              </Select>
-            )}
-          </Field>
-          <Field label="Entity id">
-            {(ids) => (
-              <Input
-                id={ids.id}
-                controlSize="sm"
-                className="font-mono"
-                value={entityId}
-                onChange={(e) => setEntityId(e.target.value)}
-              />
-            )}
-          </Field>
+          <SelectField label="Entity" options={ENTITIES} {...bind(entity, setEntity)} />
+          <InputField
+            label="Entity id"
+            controlSize="sm"
+            inputClassName="font-mono"
+            {...bind(entityId, setEntityId)}
+          />
           <Field label="Action">
             {(ids) => (
               <Input
@@ -167,45 +161,17 @@ export function AuditLog() {
                 controlSize="sm"
                 className="font-mono"
                 placeholder="gateway."
-                value={action}
-                onChange={(e) => setAction(e.target.value)}
+                {...bind(action, setAction)}
               />
             )}
           </Field>
-          <Field label="Who">
-            {(ids) => (
-              <Select id={ids.id} value={actor} onChange={(e) => setActor(e.target.value)}>
-                <option value="">Anyone</option>
-                {[...actors].map(([id, name]) => (
-                  <option key={id} value={id}>
-                    {name}
-                  </option>
-                ))}
-              </Select>
-            )}
-          </Field>
-          <Field label="From">
-            {(ids) => (
-              <Input
-                id={ids.id}
-                controlSize="sm"
-                type="date"
-                value={fromDate}
-                onChange={(e) => setFromDate(e.target.value)}
-              />
-            )}
-          </Field>
-          <Field label="To">
-            {(ids) => (
-              <Input
-                id={ids.id}
-                controlSize="sm"
-                type="date"
-                value={toDate}
-                onChange={(e) => setToDate(e.target.value)}
-              />
-            )}
-          </Field>
+          <SelectField
+            label="Who"
+            options={[['', 'Anyone'], ...actors]}
+            {...bind(actor, setActor)}
+          />
+          <InputField label="From" type="date" controlSize="sm" {...bind(fromDate, setFromDate)} />
+          <InputField label="To" type="date" controlSize="sm" {...bind(toDate, setToDate)} />
           <Button size="sm" variant="ghost" className="h-9" onClick={clear}>
             Clear filters
           </Button>
@@ -233,16 +199,7 @@ export function AuditLog() {
         ) : (
           <table className="w-full text-sm">
             <caption className="sr-only">Audit log, newest first</caption>
-            <thead className="border-b border-line text-left text-xs text-ink-muted">
-              <tr>
-                <th className="px-4 py-2 font-medium">When</th>
-                <th className="px-4 py-2 font-medium">Who</th>
-                <th className="px-4 py-2 font-medium">Action</th>
-                <th className="px-4 py-2 font-medium">On</th>
-                <th className="px-4 py-2 font-medium">Change</th>
-                <th className="px-4 py-2 font-medium">Reason</th>
-              </tr>
-            </thead>
+            <TableHead look="ruled" columns={['When', 'Who', 'Action', 'On', 'Change', 'Reason']} />
             <tbody>
               {items.map((e) => (
                 <tr key={e.id} className="border-b border-line align-top last:border-0">

@@ -5,7 +5,9 @@ import { Link } from 'react-router-dom';
 import { paths } from '../../../config/paths.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
-import { InputField } from '../../../components/ui/field.tsx';
+import { FormAlert } from '../../../components/ui/alert-box.tsx';
+import { InputField, PasswordField } from '../../../components/ui/field.tsx';
+import { formField } from '../../../lib/form-field.ts';
 import { fieldErrorsOf, isApiError } from '../../../lib/api-client.ts';
 import { useSignIn } from '../api/sign-in.ts';
 
@@ -21,7 +23,6 @@ export function SignInForm({ onSuccess }: { onSuccess: () => void }) {
     resolver: zodResolver(signInRequestSchema),
     defaultValues: { email: '', password: '' },
   });
-  const { errors } = form.formState;
 
   const onSubmit = form.handleSubmit((values) => {
     signIn.mutate(values, {
@@ -44,41 +45,19 @@ export function SignInForm({ onSuccess }: { onSuccess: () => void }) {
     <Card className="p-6">
       <h1 className="text-base font-semibold">Sign in</h1>
       <form onSubmit={onSubmit} noValidate className="mt-4 flex flex-col gap-4">
-        {serverError && (
-          <div
-            role="alert"
-            className="flex gap-2.5 rounded-md border border-status-danger/30 bg-danger-soft px-3 py-2.5 text-sm text-ink"
-          >
-            <svg
-              viewBox="0 0 12 12"
-              aria-hidden="true"
-              className="mt-1 size-3 shrink-0 text-status-danger"
-            >
-              <path d="M6 .6 11.4 6 6 11.4.6 6Z" fill="currentColor" />
-            </svg>
-            <div>
-              <p>{serverError.message}</p>
-              {retry && <p className="mt-0.5 text-ink-muted">{retry}</p>}
-            </div>
-          </div>
-        )}
+        <FormAlert message={serverError?.message ?? null}>
+          {retry && <p className="mt-0.5 text-ink-muted">{retry}</p>}
+        </FormAlert>
         <InputField
           label="E-mail"
-          error={errors.email?.message}
-          {...form.register('email')}
+          {...formField(form, 'email')}
           type="email"
           autoComplete="username"
           inputMode="email"
           spellCheck={false}
           autoFocus
         />
-        <InputField
-          label="Password"
-          error={errors.password?.message}
-          {...form.register('password')}
-          type="password"
-          autoComplete="current-password"
-        />
+        <PasswordField label="Password" {...formField(form, 'password')} />
         <Button type="submit" variant="primary" busy={signIn.isPending} className="mt-1 w-full">
           Sign in
         </Button>

@@ -2,7 +2,8 @@ import { Link } from 'react-router-dom';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { paths } from '../../../config/paths.ts';
 import { cn } from '../../../lib/cn.ts';
-import { formatAge, formatDateTime, formatInteger } from '../../../lib/format.ts';
+import { formatInteger } from '../../../lib/format.ts';
+import { Age } from '../../../components/ui/age.tsx';
 import type { FleetRow } from '../utils/build-fleet-rows.ts';
 import { directionLabels, machineTypeLabels } from '../utils/fleet-labels.ts';
 
@@ -40,18 +41,10 @@ function Chevron({ expanded, hidden }: { expanded: boolean; hidden: boolean }) {
   );
 }
 
-function Age({ iso, now }: { iso: string | null; now: number }) {
-  if (!iso) return <span className="text-[12.5px] text-ink-faint">never</span>;
-  return (
-    <time
-      dateTime={iso}
-      title={formatDateTime(iso)}
-      className="font-mono text-[12.5px] text-ink-muted"
-    >
-      {formatAge(iso, now)}
-    </time>
-  );
-}
+const ageLook = {
+  className: 'font-mono text-[12.5px] text-ink-muted',
+  neverClassName: 'text-[12.5px]',
+};
 
 function Count({ n, noun, className }: { n: number; noun: string; className?: string }) {
   return (
@@ -206,8 +199,8 @@ export function FleetTreeRow({
       )}
       <StatusMark status={row.status} />
       <span className="text-right">
-        {row.kind === 'machine' && <Age iso={row.lastTakenAt} now={now} />}
-        {row.kind === 'point' && <Age iso={row.point.lastTakenAt} now={now} />}
+        {row.kind === 'machine' && <Age at={row.lastTakenAt} now={now} {...ageLook} />}
+        {row.kind === 'point' && <Age at={row.point.lastTakenAt} now={now} {...ageLook} />}
       </span>
     </div>
   );

@@ -3,16 +3,18 @@ import { createGatewaySchema, type Gateway, type GatewayKey } from '@turnstone/c
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Button } from '../../../components/ui/button.tsx';
-import { Card } from '../../../components/ui/card.tsx';
-import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import { FormCard } from '../../../components/ui/form-card.tsx';
+import { InputField, SelectField, type SelectOption } from '../../../components/ui/field.tsx';
+import { formField } from '../../../lib/form-field.ts';
 import { useNow } from '../../../hooks/use-now.ts';
 import { isApiError } from '../../../lib/api-client.ts';
-import { formatAge, formatDateTime } from '../../../lib/format.ts';
+import { formatDateTime } from '../../../lib/format.ts';
+import { Age } from '../../../components/ui/age.tsx';
 import { useCreateGateway, useRevokeGateway, useRotateGateway } from '../api/change-gateway.ts';
 import { useGateways, useSites } from '../api/get-gateways.ts';
 import { GatewayKeyDialog } from './gateway-key-dialog.tsx';
-import { QueryItems } from '../../../components/ui/query-items.tsx';
-import { Modal } from '../../../components/ui/modal.tsx';
+import { ConfirmDialog } from '../../../components/ui/confirm-dialog.tsx';
+import { QueryTable } from '../../../components/ui/query-table.tsx';
 
 function CreateGatewayForm({ onCreated }: { onCreated: (name: string, key: GatewayKey) => void }) {
   const sites = useSites();
@@ -22,7 +24,6 @@ function CreateGatewayForm({ onCreated }: { onCreated: (name: string, key: Gatew
     resolver: zodResolver(createGatewaySchema),
     defaultValues: { siteId: undefined as unknown as number, name: '' },
   });
-  const { errors } = form.formState;
   const onSubmit = form.handleSubmit((values) => {
     setFormError(null);
     create.mutate(values, {
@@ -45,51 +46,34 @@ function CreateGatewayForm({ onCreated }: { onCreated: (name: string, key: Gatew
     });
   });
   return (
-    <Card className="p-4">
-      <h2 className="text-sm font-semibold">New gateway</h2>
-      <form
-        onSubmit={onSubmit}
-        noValidate
-        className="mt-3 flex flex-wrap items-start gap-3"
-        aria-label="New gateway"
-      >
-        <Field label="Site" error={errors.siteId?.message} className="w-64">
-          {({ invalid: _i, ...ids }) => (
-            <Select
-              {...ids}
-              {...form.register('siteId', {
-                setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)),
-              })}
-            >
-              <option value="">Choose a site…</option>
-              {sites.data?.items.map((s) => (
-                <option key={s.id} value={s.id}>
-                  {s.name} ({s.code})
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
-        <Field
-          label="Name"
-          hint="Where it hangs, e.g. “Pump hall cabinet 2”."
-          error={errors.name?.message}
-          className="min-w-64 flex-1"
-        >
-          {({ invalid, ...ids }) => (
-            <Input {...ids} invalid={invalid} controlSize="sm" {...form.register('name')} />
-          )}
-        </Field>
-        <Button type="submit" variant="primary" busy={create.isPending} className="mt-6.5 h-9">
-          Create gateway
-        </Button>
-      </form>
-      {formError && (
-        <p role="alert" className="mt-2 text-sm text-status-danger">
-          {formError}
-        </p>
-      )}
-    </Card>
+    <FormCard
+      title="New gateway"
+      onSubmit={onSubmit}
+      className="mt-3 flex flex-wrap items-start gap-3"
+      error={formError}
+    >
+      <SelectField
+        label="Site"
+        className="w-64"
+        options={[
+          ['', 'Choose a site…'],
+          ...(sites.data?.items ?? []).map((s): SelectOption => [s.id, `${s.name} (${s.code})`]),
+        ]}
+        {...formField(form, 'siteId', {
+          setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)),
+        })}
+      />
+      <InputField
+        label="Name"
+        hint="Where it hangs, e.g. “Pump hall cabinet 2”."
+        className="min-w-64 flex-1"
+        controlSize="sm"
+        {...formField(form, 'name')}
+      />
+      <Button type="submit" variant="primary" busy={create.isPending} className="mt-6.5 h-9">
+        Create gateway
+      </Button>
+    </FormCard>
   );
 }
 
@@ -126,133 +110,92 @@ export function GatewaysPanel() {
   return (
     <div className="flex flex-col gap-4">
       <CreateGatewayForm onCreated={(name, key) => setShown({ name, key })} />
-      <Card className="overflow-x-auto">
-        <QueryItems
-          query={gateways}
-          empty={{
-            title: 'No gateways yet',
-            description: 'Create one above; its key is shown once.',
-          }}
-        >
-          {(items) => (
-            <table className="w-full text-sm">
-              <caption className="sr-only">Gateways</caption>
-              <thead className="border-b border-line text-left text-xs text-ink-muted">
-                <tr>
-                  <th className="px-4 py-2 font-medium">Name</th>
-                  <th className="px-4 py-2 font-medium">Site</th>
-                  <th className="px-4 py-2 font-medium">Key prefix</th>
-                  <th className="px-4 py-2 font-medium">Last seen</th>
-                  <th className="px-4 py-2 font-medium">Posts, last hour</th>
-                  <th className="px-4 py-2 font-medium">State</th>
-                  <th className="px-4 py-2 font-medium">
-                    <span className="sr-only">Actions</span>
-                  </th>
-                </tr>
-              </thead>
-              <tbody>
-                {items.map((g) => (
-                  <tr key={g.id} className="border-b border-line last:border-0">
-                    <td className="px-4 py-2.5 font-medium">{g.name}</td>
-                    <td className="px-4 py-2.5">
-                      {g.siteName}{' '}
-                      <span className="font-mono text-xs text-ink-faint">{g.siteCode}</span>
-                    </td>
-                    <td className="px-4 py-2.5 font-mono text-[13px]">tsg_{g.keyPrefix}_…</td>
-                    <td className="px-4 py-2.5">
-                      {g.lastSeenAt ? (
-                        <time dateTime={g.lastSeenAt} title={formatDateTime(g.lastSeenAt)}>
-                          {formatAge(g.lastSeenAt, now)}
-                        </time>
-                      ) : (
-                        <span className="text-ink-faint">never</span>
-                      )}
-                    </td>
-                    <td className="px-4 py-2.5 font-mono text-[13px]">{g.postsLastHour}</td>
-                    <td className="px-4 py-2.5">
-                      {g.revokedAt ? (
-                        <span className="inline-flex items-center gap-1.5 text-status-danger">
-                          <svg viewBox="0 0 12 12" aria-hidden="true" className="size-3">
-                            <path
-                              d="M2 2 10 10M10 2 2 10"
-                              stroke="currentColor"
-                              strokeWidth="2"
-                              strokeLinecap="round"
-                            />
-                          </svg>
-                          <span className="text-ink">Revoked {formatDateTime(g.revokedAt)}</span>
-                        </span>
-                      ) : (
-                        <span className="inline-flex items-center gap-1.5">
-                          <svg
-                            viewBox="0 0 12 12"
-                            aria-hidden="true"
-                            className="size-3 text-status-ok"
-                          >
-                            <circle cx="6" cy="6" r="4.5" fill="currentColor" />
-                          </svg>
-                          Active
-                        </span>
-                      )}
-                    </td>
-                    <td className="px-4 py-2.5 text-right whitespace-nowrap">
-                      {!g.revokedAt && (
-                        <>
-                          <Button
-                            size="sm"
-                            variant="ghost"
-                            onClick={() => setPending({ action: 'rotate', gateway: g })}
-                          >
-                            Rotate key
-                          </Button>
-                          <Button
-                            size="sm"
-                            variant="ghost"
-                            className="text-status-danger"
-                            onClick={() => setPending({ action: 'revoke', gateway: g })}
-                          >
-                            Revoke
-                          </Button>
-                        </>
-                      )}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          )}
-        </QueryItems>
-      </Card>
+      <QueryTable
+        query={gateways}
+        empty={{
+          title: 'No gateways yet',
+          description: 'Create one above; its key is shown once.',
+        }}
+        caption="Gateways"
+        columns={['Name', 'Site', 'Key prefix', 'Last seen', 'Posts, last hour', 'State']}
+        row={(g) => (
+          <tr key={g.id} className="border-b border-line last:border-0">
+            <td className="px-4 py-2.5 font-medium">{g.name}</td>
+            <td className="px-4 py-2.5">
+              {g.siteName} <span className="font-mono text-xs text-ink-faint">{g.siteCode}</span>
+            </td>
+            <td className="px-4 py-2.5 font-mono text-[13px]">tsg_{g.keyPrefix}_…</td>
+            <td className="px-4 py-2.5">
+              <Age at={g.lastSeenAt} now={now} />
+            </td>
+            <td className="px-4 py-2.5 font-mono text-[13px]">{g.postsLastHour}</td>
+            <td className="px-4 py-2.5">
+              {g.revokedAt ? (
+                <span className="inline-flex items-center gap-1.5 text-status-danger">
+                  <svg viewBox="0 0 12 12" aria-hidden="true" className="size-3">
+                    <path
+                      d="M2 2 10 10M10 2 2 10"
+                      stroke="currentColor"
+                      strokeWidth="2"
+                      strokeLinecap="round"
+                    />
+                  </svg>
+                  <span className="text-ink">Revoked {formatDateTime(g.revokedAt)}</span>
+                </span>
+              ) : (
+                <span className="inline-flex items-center gap-1.5">
+                  <svg viewBox="0 0 12 12" aria-hidden="true" className="size-3 text-status-ok">
+                    <circle cx="6" cy="6" r="4.5" fill="currentColor" />
+                  </svg>
+                  Active
+                </span>
+              )}
+            </td>
+            <td className="px-4 py-2.5 text-right whitespace-nowrap">
+              {!g.revokedAt && (
+                <>
+                  <Button
+                    size="sm"
+                    variant="ghost"
+                    onClick={() => setPending({ action: 'rotate', gateway: g })}
+                  >
+                    Rotate key
+                  </Button>
+                  <Button
+                    size="sm"
+                    variant="ghost"
+                    className="text-status-danger"
+                    onClick={() => setPending({ action: 'revoke', gateway: g })}
+                  >
+                    Revoke
+                  </Button>
+                </>
+              )}
+            </td>
+          </tr>
+        )}
+      />
 
-      <Modal
+      <ConfirmDialog
         open={pending !== null}
         title={
           pending?.action === 'rotate'
             ? `Rotate the key of ${pending.gateway.name}?`
             : `Revoke ${pending?.gateway.name ?? ''}?`
         }
-        onClose={() => {
+        error={actionError}
+        confirmLabel={pending?.action === 'rotate' ? 'Rotate key' : 'Revoke gateway'}
+        busy={rotate.isPending || revoke.isPending}
+        onConfirm={confirm}
+        onCancel={() => {
           setPending(null);
           setActionError(null);
         }}
       >
-        <p className="text-sm text-ink-muted">
-          {pending?.action === 'rotate'
-            ? 'A new key is made and shown once; the current key stops working at once, so the gateway is refused until it has the new key.'
-            : 'The gateway’s key stops working at once and cannot be restored. To connect it again, create a new gateway.'}
-        </p>
-        {actionError && (
-          <p role="alert" className="text-sm text-status-danger">
-            {actionError}
-          </p>
-        )}
-        <div className="flex justify-end gap-2">
-          <Button onClick={() => setPending(null)}>Cancel</Button>
-          <Button variant="primary" busy={rotate.isPending || revoke.isPending} onClick={confirm}>
-            {pending?.action === 'rotate' ? 'Rotate key' : 'Revoke gateway'}
-          </Button>
-        </div>
-      </Modal>
+        {pending?.action === 'rotate'
+          ? 'A new key is made and shown once; the current key stops working at once, so the gateway is refused until it has the new key.'
+          : 'The gateway’s key stops working at once and cannot be restored. To connect it again, create a new gateway.'}
+      </ConfirmDialog>
 
       <GatewayKeyDialog
         gatewayName={shown?.name ?? ''}

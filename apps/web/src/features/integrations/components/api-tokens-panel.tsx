@@ -2,17 +2,21 @@ import { roleLabels, roles, type Role } from '@turnstone/contracts/roles';
 import type { ApiToken } from '@turnstone/contracts/api-tokens';
 import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
-import { Card } from '../../../components/ui/card.tsx';
-import { Field, Input, Select } from '../../../components/ui/field.tsx';
-import { QueryItems } from '../../../components/ui/query-items.tsx';
-import { Modal } from '../../../components/ui/modal.tsx';
+import { FormCard } from '../../../components/ui/form-card.tsx';
+import { InputField, SelectField, type SelectOption } from '../../../components/ui/field.tsx';
+import { ConfirmDialog } from '../../../components/ui/confirm-dialog.tsx';
+import { QueryTable } from '../../../components/ui/query-table.tsx';
 import { useNow } from '../../../hooks/use-now.ts';
-import { fieldErrorsOf } from '../../../lib/api-client.ts';
-import { formatAge, formatDateTime } from '../../../lib/format.ts';
+import { useSaveErrors } from '../../../hooks/use-save-errors.ts';
+import { toggled } from '../../../lib/toggled.ts';
+import { formatDateTime } from '../../../lib/format.ts';
+import { Age } from '../../../components/ui/age.tsx';
 import { useSites } from '../../gateways/api/get-gateways.ts';
 import { useIssueApiToken, useRevokeApiToken } from '../api/change-integrations.ts';
 import { useApiTokens } from '../api/get-integrations.ts';
 import { SecretOnceDialog } from '../../../components/ui/secret-once-dialog.tsx';
+
+const roleOptions = roles.map((r): SelectOption => [r, roleLabels[r]]);
 
 function IssueTokenForm({ onIssued }: { onIssued: (token: string) => void }) {
   const sites = useSites();
@@ -20,90 +24,63 @@ function IssueTokenForm({ onIssued }: { onIssued: (token: string) => void }) {
   const [name, setName] = useState('');
   const [role, setRole] = useState<Role>('planner');
   const [siteIds, setSiteIds] = useState<number[]>([]);
-  const [errors, setErrors] = useState<Record<string, string>>({});
-  const [formError, setFormError] = useState<string | null>(null);
+  const { errors, formError, save } = useSaveErrors();
   const submit = (e: FormEvent) => {
     e.preventDefault();
-    setErrors({});
-    setFormError(null);
-    issue.mutateAsync({ name, role, siteIds }).then(
-      (issued) => {
-        onIssued(issued.token);
-        setName('');
-      },
-      (err: Error) => {
-        const fields = fieldErrorsOf(err);
-        setErrors(fields);
-        if (Object.keys(fields).length === 0) setFormError(err.message);
-      },
-    );
+    save(issue.mutateAsync({ name, role, siteIds }), (issued) => {
+      onIssued(issued.token);
+      setName('');
+    });
   };
   return (
-    <Card className="p-4">
-      <h2 className="text-sm font-semibold">New API token</h2>
-      <p className="mt-1 text-sm text-ink-muted">
-        For a maintenance-management system or script: it acts with the role and sites chosen here,
-        sent as <code className="font-mono text-[13px]">Authorization: Bearer …</code>. Signing out
-        ends no token; revoke it here.
-      </p>
-      <form
-        onSubmit={submit}
-        noValidate
-        aria-label="New API token"
-        className="mt-3 flex flex-wrap items-start gap-3"
-      >
-        <Field label="Integration" error={errors.name} className="min-w-56 flex-1">
-          {({ invalid, ...ids }) => (
-            <Input
-              {...ids}
-              invalid={invalid}
-              controlSize="sm"
-              value={name}
-              onChange={(e) => setName(e.target.value)}
-            />
-          )}
-        </Field>
-        <Field label="Role" className="w-56">
-          {({ invalid: _i, ...ids }) => (
-            <Select {...ids} value={role} onChange={(e) => setRole(e.target.value as Role)}>
-              {roles.map((r) => (
-                <option key={r} value={r}>
-                  {roleLabels[r]}
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
-        <fieldset className="flex flex-col gap-1.5 text-sm">
-          <legend className="mb-1.5 font-medium">Sites</legend>
-          <div className="flex flex-wrap gap-3">
-            {sites.data?.items.map((s) => (
-              <label key={s.id} className="flex items-center gap-1.5">
-                <input
-                  type="checkbox"
-                  checked={siteIds.includes(s.id)}
-                  onChange={(e) =>
-                    setSiteIds((ids) =>
-                      e.target.checked ? [...ids, s.id] : ids.filter((x) => x !== s.id),
-                    )
-                  }
-                />
-                {s.code}
-              </label>
-            ))}
-          </div>
-          {errors.siteIds && <span className="text-status-danger">{errors.siteIds}</span>}
-        </fieldset>
-        <Button type="submit" variant="primary" busy={issue.isPending} className="mt-6.5 h-9">
-          Issue token
-        </Button>
-      </form>
-      {formError && (
-        <p role="alert" className="mt-2 text-sm text-status-danger">
-          {formError}
-        </p>
-      )}
-    </Card>
+    <FormCard
+      title="New API token"
+      description={
+        <>
+          For a maintenance-management system or script: it acts with the role and sites chosen
+          here, sent as <code className="font-mono text-[13px]">Authorization: Bearer …</code>.
+          Signing out ends no token; revoke it here.
+        </>
+      }
+      onSubmit={submit}
+      className="mt-3 flex flex-wrap items-start gap-3"
+      error={formError}
+    >
+      <InputField
+        label="Integration"
+        error={errors.name}
+        className="min-w-56 flex-1"
+        controlSize="sm"
+        value={name}
+        onChange={(e) => setName(e.target.value)}
+      />
+      <SelectField
+        label="Role"
+        className="w-56"
+        options={roleOptions}
+        value={role}
+        onChange={(e) => setRole(e.target.value as Role)}
+      />
+      <fieldset className="flex flex-col gap-1.5 text-sm">
+        <legend className="mb-1.5 font-medium">Sites</legend>
+        <div className="flex flex-wrap gap-3">
+          {sites.data?.items.map((s) => (
+            <label key={s.id} className="flex items-center gap-1.5">
+              <input
+                type="checkbox"
+                checked={siteIds.includes(s.id)}
+                onChange={(e) => setSiteIds((ids) => toggled(ids, s.id, e.target.checked))}
+              />
+              {s.code}
+            </label>
+          ))}
+        </div>
+        {errors.siteIds && <span className="text-status-danger">{errors.siteIds}</span>}
+      </fieldset>
+      <Button type="submit" variant="primary" busy={issue.isPending} className="mt-6.5 h-9">
+        Issue token
+      </Button>
+    </FormCard>
   );
 }
 
@@ -122,107 +99,66 @@ export function ApiTokensPanel() {
         API tokens
       </h2>
       <IssueTokenForm onIssued={setShown} />
-      <Card className="overflow-x-auto">
-        <QueryItems
-          query={tokens}
-          empty={{ title: 'No API tokens yet', description: 'Issue one above; it is shown once.' }}
-        >
-          {(items) => (
-            <table className="w-full text-sm">
-              <caption className="sr-only">API tokens</caption>
-              <thead className="border-b border-line text-left text-xs text-ink-muted">
-                <tr>
-                  <th className="px-4 py-2 font-medium">Integration</th>
-                  <th className="px-4 py-2 font-medium">Role and sites</th>
-                  <th className="px-4 py-2 font-medium">Token</th>
-                  <th className="px-4 py-2 font-medium">Issued</th>
-                  <th className="px-4 py-2 font-medium">Last used</th>
-                  <th className="px-4 py-2 font-medium">
-                    <span className="sr-only">Actions</span>
-                  </th>
-                </tr>
-              </thead>
-              <tbody>
-                {items.map((t) => (
-                  <tr key={t.id} className="border-b border-line last:border-0">
-                    <td className="px-4 py-2.5 font-medium">{t.name}</td>
-                    <td className="px-4 py-2.5">
-                      {roleLabels[t.role]}
-                      <span className="ml-1.5 font-mono text-xs text-ink-faint">
-                        {t.role === 'admin' ? 'all sites' : t.siteIds.map(codeOf).join(', ')}
-                      </span>
-                    </td>
-                    <td className="px-4 py-2.5 font-mono text-[13px]">{t.tokenPrefix}…</td>
-                    <td className="px-4 py-2.5">
-                      {formatDateTime(t.createdAt)}
-                      {t.createdBy && <span className="text-ink-muted"> by {t.createdBy}</span>}
-                    </td>
-                    <td className="px-4 py-2.5">
-                      {t.lastUsedAt ? (
-                        <time dateTime={t.lastUsedAt} title={formatDateTime(t.lastUsedAt)}>
-                          {formatAge(t.lastUsedAt, now)}
-                        </time>
-                      ) : (
-                        <span className="text-ink-faint">never</span>
-                      )}
-                    </td>
-                    <td className="px-4 py-2.5 text-right whitespace-nowrap">
-                      {t.revokedAt ? (
-                        <span className="text-status-danger">
-                          Revoked {formatDateTime(t.revokedAt)}
-                        </span>
-                      ) : (
-                        <Button
-                          size="sm"
-                          variant="ghost"
-                          className="text-status-danger"
-                          onClick={() => setPending(t)}
-                        >
-                          Revoke
-                        </Button>
-                      )}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          )}
-        </QueryItems>
-      </Card>
-      <Modal
+      <QueryTable
+        query={tokens}
+        empty={{ title: 'No API tokens yet', description: 'Issue one above; it is shown once.' }}
+        caption="API tokens"
+        columns={['Integration', 'Role and sites', 'Token', 'Issued', 'Last used']}
+        row={(t) => (
+          <tr key={t.id} className="border-b border-line last:border-0">
+            <td className="px-4 py-2.5 font-medium">{t.name}</td>
+            <td className="px-4 py-2.5">
+              {roleLabels[t.role]}
+              <span className="ml-1.5 font-mono text-xs text-ink-faint">
+                {t.role === 'admin' ? 'all sites' : t.siteIds.map(codeOf).join(', ')}
+              </span>
+            </td>
+            <td className="px-4 py-2.5 font-mono text-[13px]">{t.tokenPrefix}…</td>
+            <td className="px-4 py-2.5">
+              {formatDateTime(t.createdAt)}
+              {t.createdBy && <span className="text-ink-muted"> by {t.createdBy}</span>}
+            </td>
+            <td className="px-4 py-2.5">
+              <Age at={t.lastUsedAt} now={now} />
+            </td>
+            <td className="px-4 py-2.5 text-right whitespace-nowrap">
+              {t.revokedAt ? (
+                <span className="text-status-danger">Revoked {formatDateTime(t.revokedAt)}</span>
+              ) : (
+                <Button
+                  size="sm"
+                  variant="ghost"
+                  className="text-status-danger"
+                  onClick={() => setPending(t)}
+                >
+                  Revoke
+                </Button>
+              )}
+            </td>
+          </tr>
+        )}
+      />
+      <ConfirmDialog
         open={pending !== null}
         title={`Revoke the token of ${pending?.name ?? ''}?`}
-        onClose={() => {
+        error={actionError}
+        confirmLabel="Revoke token"
+        busy={revoke.isPending}
+        onConfirm={() =>
+          pending &&
+          revoke.mutateAsync(pending.id).then(
+            () => setPending(null),
+            (e: Error) => setActionError(e.message),
+          )
+        }
+        onCancel={() => {
           setPending(null);
           setActionError(null);
         }}
       >
-        <p className="text-sm text-ink-muted">
-          The token stops working at once and cannot be restored. Issue a new one to connect the
-          integration again.
-        </p>
-        {actionError && (
-          <p role="alert" className="text-sm text-status-danger">
-            {actionError}
-          </p>
-        )}
-        <div className="flex justify-end gap-2">
-          <Button onClick={() => setPending(null)}>Cancel</Button>
-          <Button
-            variant="primary"
-            busy={revoke.isPending}
-            onClick={() =>
-              pending &&
-              revoke.mutateAsync(pending.id).then(
-                () => setPending(null),
-                (e: Error) => setActionError(e.message),
-              )
-            }
-          >
-            Revoke token
-          </Button>
-        </div>
-      </Modal>
+        The token stops working at once and cannot be restored. Issue a new one to connect the
+        integration again.
+      </ConfirmDialog>
       <SecretOnceDialog
         title="API token"
         label="Token"

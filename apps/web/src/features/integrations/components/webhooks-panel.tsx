@@ -1,16 +1,17 @@
 import { webhookEventTypes, type WebhookEventType } from '@turnstone/contracts/webhooks';
 import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
-import { Card } from '../../../components/ui/card.tsx';
-import { Field, Input } from '../../../components/ui/field.tsx';
-import { fieldErrorsOf } from '../../../lib/api-client.ts';
+import { FormCard } from '../../../components/ui/form-card.tsx';
+import { InputField } from '../../../components/ui/field.tsx';
+import { useSaveErrors } from '../../../hooks/use-save-errors.ts';
+import { toggled } from '../../../lib/toggled.ts';
 import {
   useCreateWebhook,
   useDeleteWebhook,
   useUpdateWebhook,
 } from '../api/change-integrations.ts';
 import { useWebhooks } from '../api/get-integrations.ts';
-import { QueryItems } from '../../../components/ui/query-items.tsx';
+import { QueryTable } from '../../../components/ui/query-table.tsx';
 import { SecretOnceDialog } from '../../../components/ui/secret-once-dialog.tsx';
 
 function AddWebhookForm({ onAdded }: { onAdded: (secret: string) => void }) {
@@ -18,97 +19,65 @@ function AddWebhookForm({ onAdded }: { onAdded: (secret: string) => void }) {
   const [name, setName] = useState('');
   const [url, setUrl] = useState('');
   const [events, setEvents] = useState<WebhookEventType[]>([...webhookEventTypes]);
-  const [errors, setErrors] = useState<Record<string, string>>({});
-  const [formError, setFormError] = useState<string | null>(null);
+  const { errors, formError, save } = useSaveErrors();
   const submit = (e: FormEvent) => {
     e.preventDefault();
-    setErrors({});
-    setFormError(null);
-    create.mutateAsync({ name, url, events }).then(
-      (created) => {
-        onAdded(created.secret);
-        setName('');
-        setUrl('');
-      },
-      (err: Error) => {
-        const fields = fieldErrorsOf(err);
-        setErrors(fields);
-        if (Object.keys(fields).length === 0) setFormError(err.message);
-      },
-    );
+    save(create.mutateAsync({ name, url, events }), (created) => {
+      onAdded(created.secret);
+      setName('');
+      setUrl('');
+    });
   };
   return (
-    <Card className="p-4">
-      <h2 className="text-sm font-semibold">New webhook receiver</h2>
-      <p className="mt-1 text-sm text-ink-muted">
-        Each event is posted as JSON and signed (Standard Webhooks: webhook-id, webhook-timestamp,
-        webhook-signature). A receiver that is down is tried again; an event it took is never sent
-        twice. The server posts to the address given, wherever it points.
-      </p>
-      <form
-        onSubmit={submit}
-        noValidate
-        aria-label="New webhook receiver"
-        className="mt-3 flex flex-col gap-3"
-      >
-        <div className="flex flex-wrap items-start gap-3">
-          <Field label="Name" error={errors.name} className="w-56">
-            {({ invalid, ...ids }) => (
-              <Input
-                {...ids}
-                invalid={invalid}
-                controlSize="sm"
-                value={name}
-                onChange={(e) => setName(e.target.value)}
+    <FormCard
+      title="New webhook receiver"
+      description="Each event is posted as JSON and signed (Standard Webhooks: webhook-id, webhook-timestamp, webhook-signature). A receiver that is down is tried again; an event it took is never sent twice. The server posts to the address given, wherever it points."
+      onSubmit={submit}
+      className="mt-3 flex flex-col gap-3"
+      error={formError}
+    >
+      <div className="flex flex-wrap items-start gap-3">
+        <InputField
+          label="Name"
+          error={errors.name}
+          className="w-56"
+          controlSize="sm"
+          value={name}
+          onChange={(e) => setName(e.target.value)}
+        />
+        <InputField
+          label="URL"
+          error={errors.url}
+          className="min-w-72 flex-1"
+          controlSize="sm"
+          type="url"
+          placeholder="https://cmms.example.org/hooks/turnstone"
+          value={url}
+          onChange={(e) => setUrl(e.target.value)}
+        />
+      </div>
+      <fieldset className="text-sm">
+        <legend className="mb-1.5 font-medium">Events</legend>
+        <div className="flex flex-wrap gap-3">
+          {webhookEventTypes.map((t) => (
+            <label key={t} className="flex items-center gap-1.5 font-mono text-[13px]">
+              <input
+                type="checkbox"
+                checked={events.includes(t)}
+                onChange={(e) => setEvents((list) => toggled(list, t, e.target.checked))}
               />
-            )}
-          </Field>
-          <Field label="URL" error={errors.url} className="min-w-72 flex-1">
-            {({ invalid, ...ids }) => (
-              <Input
-                {...ids}
-                invalid={invalid}
-                controlSize="sm"
-                type="url"
-                placeholder="https://cmms.example.org/hooks/turnstone"
-                value={url}
-                onChange={(e) => setUrl(e.target.value)}
-              />
-            )}
-          </Field>
+              {t}
+            </label>
+          ))}
         </div>
-        <fieldset className="text-sm">
-          <legend className="mb-1.5 font-medium">Events</legend>
-          <div className="flex flex-wrap gap-3">
-            {webhookEventTypes.map((t) => (
-              <label key={t} className="flex items-center gap-1.5 font-mono text-[13px]">
-                <input
-                  type="checkbox"
-                  checked={events.includes(t)}
-                  onChange={(e) =>
-                    setEvents((list) =>
-                      e.target.checked ? [...list, t] : list.filter((x) => x !== t),
-                    )
-                  }
-                />
-                {t}
-              </label>
-            ))}
-          </div>
-          {errors.events && <span className="text-status-danger">{errors.events}</span>}
-        </fieldset>
-        <div>
-          <Button type="submit" variant="primary" busy={create.isPending}>
-            Add receiver
-          </Button>
-        </div>
-      </form>
-      {formError && (
-        <p role="alert" className="mt-2 text-sm text-status-danger">
-          {formError}
-        </p>
-      )}
-    </Card>
+        {errors.events && <span className="text-status-danger">{errors.events}</span>}
+      </fieldset>
+      <div>
+        <Button type="submit" variant="primary" busy={create.isPending}>
+          Add receiver
+        </Button>
+      </div>
+    </FormCard>
   );
 }
 
@@ -130,88 +99,60 @@ export function WebhooksPanel() {
           {actionError}
         </p>
       )}
-      <Card className="overflow-x-auto">
-        <QueryItems
-          query={hooks}
-          empty={{
-            title: 'No webhook receivers',
-            description: 'Add one above; its signing secret is shown once.',
-          }}
-        >
-          {(items) => (
-            <table className="w-full text-sm">
-              <caption className="sr-only">Webhook receivers</caption>
-              <thead className="border-b border-line text-left text-xs text-ink-muted">
-                <tr>
-                  <th className="px-4 py-2 font-medium">Name</th>
-                  <th className="px-4 py-2 font-medium">URL</th>
-                  <th className="px-4 py-2 font-medium">Events</th>
-                  <th className="px-4 py-2 font-medium">Deliveries</th>
-                  <th className="px-4 py-2 font-medium">
-                    <span className="sr-only">Actions</span>
-                  </th>
-                </tr>
-              </thead>
-              <tbody>
-                {items.map((h) => (
-                  <tr key={h.id} className="border-b border-line last:border-0">
-                    <td className="px-4 py-2.5 font-medium">
-                      {h.name}
-                      {!h.enabled && (
-                        <span className="ml-1.5 text-xs text-ink-muted">(paused)</span>
-                      )}
-                    </td>
-                    <td
-                      className="max-w-72 truncate px-4 py-2.5 font-mono text-[13px]"
-                      title={h.url}
-                    >
-                      {h.url}
-                    </td>
-                    <td className="px-4 py-2.5 font-mono text-xs">{h.events.join(', ')}</td>
-                    <td className="px-4 py-2.5">
-                      {h.pending === 0 && h.undelivered === 0 ? (
-                        <span className="text-ink-muted">all delivered</span>
-                      ) : (
-                        <>
-                          {h.pending > 0 && <span>{h.pending} waiting for a retry</span>}
-                          {h.undelivered > 0 && (
-                            <span className="ml-1.5 text-status-danger">
-                              {h.undelivered} not delivered
-                            </span>
-                          )}
-                        </>
-                      )}
-                    </td>
-                    <td className="px-4 py-2.5 text-right whitespace-nowrap">
-                      <Button
-                        size="sm"
-                        variant="ghost"
-                        onClick={() =>
-                          update
-                            .mutateAsync({ id: h.id, enabled: !h.enabled })
-                            .then(() => setActionError(null), fail)
-                        }
-                      >
-                        {h.enabled ? 'Pause' : 'Resume'}
-                      </Button>
-                      <Button
-                        size="sm"
-                        variant="ghost"
-                        className="text-status-danger"
-                        onClick={() =>
-                          remove.mutateAsync(h.id).then(() => setActionError(null), fail)
-                        }
-                      >
-                        Remove
-                      </Button>
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          )}
-        </QueryItems>
-      </Card>
+      <QueryTable
+        query={hooks}
+        empty={{
+          title: 'No webhook receivers',
+          description: 'Add one above; its signing secret is shown once.',
+        }}
+        caption="Webhook receivers"
+        columns={['Name', 'URL', 'Events', 'Deliveries']}
+        row={(h) => (
+          <tr key={h.id} className="border-b border-line last:border-0">
+            <td className="px-4 py-2.5 font-medium">
+              {h.name}
+              {!h.enabled && <span className="ml-1.5 text-xs text-ink-muted">(paused)</span>}
+            </td>
+            <td className="max-w-72 truncate px-4 py-2.5 font-mono text-[13px]" title={h.url}>
+              {h.url}
+            </td>
+            <td className="px-4 py-2.5 font-mono text-xs">{h.events.join(', ')}</td>
+            <td className="px-4 py-2.5">
+              {h.pending === 0 && h.undelivered === 0 ? (
+                <span className="text-ink-muted">all delivered</span>
+              ) : (
+                <>
+                  {h.pending > 0 && <span>{h.pending} waiting for a retry</span>}
+                  {h.undelivered > 0 && (
+                    <span className="ml-1.5 text-status-danger">{h.undelivered} not delivered</span>
+                  )}
+                </>
+              )}
+            </td>
+            <td className="px-4 py-2.5 text-right whitespace-nowrap">
+              <Button
+                size="sm"
+                variant="ghost"
+                onClick={() =>
+                  update
+                    .mutateAsync({ id: h.id, enabled: !h.enabled })
+                    .then(() => setActionError(null), fail)
+                }
+              >
+                {h.enabled ? 'Pause' : 'Resume'}
+              </Button>
+              <Button
+                size="sm"
+                variant="ghost"
+                className="text-status-danger"
+                onClick={() => remove.mutateAsync(h.id).then(() => setActionError(null), fail)}
+              >
+                Remove
+              </Button>
+            </td>
+          </tr>
+        )}
+      />
       <SecretOnceDialog
         title="Signing secret"
         label="Secret"

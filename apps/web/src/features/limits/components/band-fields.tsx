@@ -8,7 +8,13 @@ import {
 } from 'react-hook-form';
 import { Button } from '../../../components/ui/button.tsx';
 import { useUnits } from '../../account/api/use-units.ts';
-import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import {
+  Field,
+  Input,
+  NumberField,
+  SelectField,
+  type SelectOption,
+} from '../../../components/ui/field.tsx';
 import type { LimitsFormValues } from '../utils/band-form.ts';
 import { getSuggestion } from '../api/get-limits.ts';
 
@@ -29,6 +35,29 @@ const faultLabels = {
   'gear-mesh': 'Gear mesh',
   'blade-pass': 'Blade / vane pass',
 } as const;
+const halfWidthUnitOptions: SelectOption[] = [
+  ['percent', '% of the frequency'],
+  ['hz', 'Hz'],
+  ['order', 'orders'],
+];
+const spectrumOptions: SelectOption[] = [
+  ['velocity', 'Velocity'],
+  ['acceleration', 'Acceleration'],
+  ['envelope', 'Envelope'],
+  ['displacement', 'Displacement'],
+];
+const measureOptions: SelectOption[] = [
+  ['rms', 'RMS'],
+  ['peak', 'Peak'],
+  ['peak-to-peak', 'Peak-to-peak'],
+];
+const combineOptions: SelectOption[] = [
+  ['min', 'Lower of the two'],
+  ['max', 'Higher of the two'],
+  ['statistical', 'Statistical only'],
+];
+
+type BandKey = keyof LimitsFormValues['bands'][number];
 
 type Props = {
   index: number;
@@ -58,16 +87,20 @@ export function BandFields({
     busy: false,
     text: null,
   });
-  const n = (name: keyof LimitsFormValues['bands'][number]) =>
-    register(`bands.${index}.${name}` as const, { valueAsNumber: true });
+  // A field's registration and its error message, both found by the band value's name; the
+  // band form's number fields are compact.
+  const number = (name: BandKey, onChange?: () => void) => ({
+    controlSize: 'sm' as const,
+    error: e?.[name]?.message,
+    ...register(`bands.${index}.${name}` as const, { valueAsNumber: true, onChange }),
+  });
   // Levels typed by hand no longer come from the source named before.
-  const level = (name: 'alertLevel' | 'dangerLevel') =>
-    register(`bands.${index}.${name}` as const, {
-      valueAsNumber: true,
-      onChange: () => setValue(`bands.${index}.levelSource`, 'set by hand'),
-    });
-  const t = (name: keyof LimitsFormValues['bands'][number]) =>
-    register(`bands.${index}.${name}` as const);
+  const byHand = () => setValue(`bands.${index}.levelSource`, 'set by hand');
+  const choice = (name: BandKey) => ({
+    error: e?.[name]?.message,
+    ...register(`bands.${index}.${name}` as const),
+  });
+  const t = (name: BandKey) => register(`bands.${index}.${name}` as const);
 
   const suggest = async () => {
     if (pointId === null) return;
@@ -121,149 +154,86 @@ export function BandFields({
         <Field label="Key" error={e?.key?.message} hint="Trend and alerts follow it">
           {(c) => <Input {...c} controlSize="sm" className="font-mono" {...t('key')} />}
         </Field>
-        <Field label="Kind" error={e?.kind?.message}>
-          {(c) => (
-            <Select id={c.id} {...t('kind')}>
-              {Object.entries(kindLabels).map(([k, label]) => (
-                <option key={k} value={k}>
-                  {label}
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
+        <SelectField label="Kind" options={Object.entries(kindLabels)} {...choice('kind')} />
 
         {(band?.kind === 'hz' || band?.kind === 'overall') && (
           <>
             <NumberField
               label="From (Hz)"
-              error={e?.fromHz?.message}
               hint={band.kind === 'overall' ? 'Empty: the analysis span' : undefined}
-              registration={n('fromHz')}
+              {...number('fromHz')}
             />
-            <NumberField label="To (Hz)" error={e?.toHz?.message} registration={n('toHz')} />
+            <NumberField label="To (Hz)" {...number('toHz')} />
           </>
         )}
         {band?.kind === 'order' && (
           <>
-            <NumberField
-              label="From (orders)"
-              error={e?.fromOrder?.message}
-              registration={n('fromOrder')}
-            />
-            <NumberField
-              label="To (orders)"
-              error={e?.toOrder?.message}
-              registration={n('toOrder')}
-            />
+            <NumberField label="From (orders)" {...number('fromOrder')} />
+            <NumberField label="To (orders)" {...number('toOrder')} />
           </>
         )}
         {band?.kind === 'fault' && (
           <>
-            <Field label="Fault frequency" error={e?.fault?.message}>
-              {(c) => (
-                <Select id={c.id} {...t('fault')}>
-                  {Object.entries(faultLabels).map(([k, label]) => (
-                    <option key={k} value={k}>
-                      {label}
-                    </option>
-                  ))}
-                </Select>
-              )}
-            </Field>
-            <NumberField
-              label="Half-width"
-              error={e?.halfWidth?.message}
-              registration={n('halfWidth')}
+            <SelectField
+              label="Fault frequency"
+              options={Object.entries(faultLabels)}
+              {...choice('fault')}
             />
-            <Field label="Half-width unit" error={e?.halfWidthUnit?.message}>
-              {(c) => (
-                <Select id={c.id} {...t('halfWidthUnit')}>
-                  <option value="percent">% of the frequency</option>
-                  <option value="hz">Hz</option>
-                  <option value="order">orders</option>
-                </Select>
-              )}
-            </Field>
+            <NumberField label="Half-width" {...number('halfWidth')} />
+            <SelectField
+              label="Half-width unit"
+              options={halfWidthUnitOptions}
+              {...choice('halfWidthUnit')}
+            />
             <NumberField
               label="Harmonics"
-              error={e?.harmonics?.message}
               hint="1 = fundamental only"
               step="1"
-              registration={n('harmonics')}
+              {...number('harmonics')}
             />
           </>
         )}
 
-        <Field label="Spectrum" error={e?.spectrum?.message}>
-          {(c) => (
-            <Select id={c.id} {...t('spectrum')}>
-              <option value="velocity">Velocity</option>
-              <option value="acceleration">Acceleration</option>
-              <option value="envelope">Envelope</option>
-              <option value="displacement">Displacement</option>
-            </Select>
-          )}
-        </Field>
-        <Field label="Measure" error={e?.measure?.message}>
-          {(c) => (
-            <Select id={c.id} {...t('measure')}>
-              <option value="rms">RMS</option>
-              <option value="peak">Peak</option>
-              <option value="peak-to-peak">Peak-to-peak</option>
-            </Select>
-          )}
-        </Field>
-        <Field label="Unit" error={e?.unit?.message}>
-          {(c) => (
-            <Select id={c.id} {...t('unit')}>
-              <option value="mm/s">{units.unit('mm/s')}</option>
-              <option value="g">g</option>
-              <option value="um">{units.unit('um')}</option>
-            </Select>
-          )}
-        </Field>
+        <SelectField label="Spectrum" options={spectrumOptions} {...choice('spectrum')} />
+        <SelectField label="Measure" options={measureOptions} {...choice('measure')} />
+        <SelectField
+          label="Unit"
+          options={[
+            ['mm/s', units.unit('mm/s')],
+            ['g', 'g'],
+            ['um', units.unit('um')],
+          ]}
+          {...choice('unit')}
+        />
         <div />
-        <NumberField
-          label="Alert level"
-          error={e?.alertLevel?.message}
-          registration={level('alertLevel')}
-        />
-        <NumberField
-          label="Danger level"
-          error={e?.dangerLevel?.message}
-          registration={level('dangerLevel')}
-        />
+        <NumberField label="Alert level" {...number('alertLevel', byHand)} />
+        <NumberField label="Danger level" {...number('dangerLevel', byHand)} />
         <NumberField
           label="Persistence"
-          error={e?.persistence?.message}
           hint="Exceedances in a row to raise"
           step="1"
           min="1"
-          registration={n('persistence')}
+          {...number('persistence')}
         />
         <NumberField
           label="Clear persistence"
-          error={e?.clearPersistence?.message}
           hint="Values in a row below the clear level to clear"
           step="1"
           min="1"
-          registration={n('clearPersistence')}
+          {...number('clearPersistence')}
         />
         <NumberField
           label="Clear after (h)"
-          error={e?.clearAfterHours?.message}
           hint="Hours below the clear level to clear, as well"
           step="1"
           min="0"
-          registration={n('clearAfterHours')}
+          {...number('clearAfterHours')}
         />
         <NumberField
           label="Hysteresis"
-          error={e?.hysteresis?.message}
           hint="Clears below this × alert level"
           step="0.01"
-          registration={n('hysteresis')}
+          {...number('hysteresis')}
         />
       </div>
 
@@ -274,32 +244,18 @@ export function BandFields({
         </label>
         {band?.statistical && (
           <div className="grid grid-cols-2 gap-3 md:grid-cols-4">
-            <NumberField
-              label="k for alert"
-              error={e?.kAlert?.message}
-              registration={n('kAlert')}
-            />
+            <NumberField label="k for alert" {...number('kAlert')} />
             <NumberField
               label="k for danger"
-              error={e?.kDanger?.message}
               hint="Empty: danger stays fixed"
-              registration={n('kDanger')}
+              {...number('kDanger')}
             />
-            <NumberField
-              label="Baseline: first N values"
-              error={e?.baselineCount?.message}
-              step="1"
-              registration={n('baselineCount')}
+            <NumberField label="Baseline: first N values" step="1" {...number('baselineCount')} />
+            <SelectField
+              label="Combine with fixed levels"
+              options={combineOptions}
+              {...choice('combine')}
             />
-            <Field label="Combine with fixed levels" error={e?.combine?.message}>
-              {(c) => (
-                <Select id={c.id} {...t('combine')}>
-                  <option value="min">Lower of the two</option>
-                  <option value="max">Higher of the two</option>
-                  <option value="statistical">Statistical only</option>
-                </Select>
-              )}
-            </Field>
           </div>
         )}
         <div className="flex flex-wrap items-center gap-2">
@@ -322,38 +278,5 @@ export function BandFields({
         )}
       </div>
     </fieldset>
-  );
-}
-
-/** A number field of the band form: compact, monospaced, registered with the form. */
-function NumberField({
-  label,
-  error,
-  hint,
-  step = 'any',
-  min,
-  registration,
-}: {
-  label: string;
-  error: string | undefined;
-  hint?: string | undefined;
-  step?: string;
-  min?: string;
-  registration: ReturnType<UseFormRegister<LimitsFormValues>>;
-}) {
-  return (
-    <Field label={label} error={error} hint={hint}>
-      {(c) => (
-        <Input
-          {...c}
-          controlSize="sm"
-          type="number"
-          step={step}
-          min={min}
-          className="font-mono"
-          {...registration}
-        />
-      )}
-    </Field>
   );
 }

@@ -1,11 +1,14 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
+import { cn } from '../../../lib/cn.ts';
 import type { MachineDetail } from '@turnstone/contracts/points';
 import { Sparkline } from '../../../components/charts/sparkline.tsx';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { useUnits } from '../../account/api/use-units.ts';
 import { paths } from '../../../config/paths.ts';
-import { formatAge, formatBandHz, formatDateTime } from '../../../lib/format.ts';
+import { formatBandHz } from '../../../lib/format.ts';
+import { Age } from '../../../components/ui/age.tsx';
 import { isoZoneRange } from '../lib/iso-zone-range.ts';
 
 const verdictText = { ok: 'OK', suspect: 'Suspect', unusable: 'Unusable' } as const;
@@ -23,6 +26,24 @@ const num = (v: number | undefined | null, unit: string, digits = 3) =>
 
 /** Columns a tablet (below 1024 px) leaves out; the point page has them all. */
 const wide = 'hidden lg:table-cell';
+
+/** An overall value's cell, with the frequency band it was measured over below it. */
+function OverallCell({
+  band,
+  className,
+  children,
+}: {
+  band: Parameters<typeof formatBandHz>[0] | undefined;
+  className?: string;
+  children: ReactNode;
+}) {
+  return (
+    <td className={cn(className, 'px-3 py-2 text-right font-mono text-[13px]')}>
+      {children}
+      {band ? <div className="font-sans text-xs text-ink-faint">{formatBandHz(band)}</div> : null}
+    </td>
+  );
+}
 
 /**
  * The machine's points with their latest overall values, ISO zone (with its range for the
@@ -69,30 +90,15 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
                 <td className="px-3 py-2">
                   <StatusMark status={p.status} />
                 </td>
-                <td className="px-3 py-2 text-right font-mono text-[13px]">
+                <OverallCell band={l?.overall.velocityBandHz}>
                   {num(shown(l?.overall.velocityRmsMmS, 'mm/s'), units.unit('mm/s'))}
-                  {l ? (
-                    <div className="font-sans text-xs text-ink-faint">
-                      {formatBandHz(l.overall.velocityBandHz)}
-                    </div>
-                  ) : null}
-                </td>
-                <td className="px-3 py-2 text-right font-mono text-[13px]">
+                </OverallCell>
+                <OverallCell band={l?.overall.accelBandHz}>
                   {num(l?.overall.accelRmsG, 'g')}
-                  {l ? (
-                    <div className="font-sans text-xs text-ink-faint">
-                      {formatBandHz(l.overall.accelBandHz)}
-                    </div>
-                  ) : null}
-                </td>
-                <td className={`${wide} px-3 py-2 text-right font-mono text-[13px]`}>
+                </OverallCell>
+                <OverallCell band={l?.overall.velocityBandHz} className={wide}>
                   {num(shown(l?.overall.displacementPkPkUm, 'um'), units.unit('um'))}
-                  {l ? (
-                    <div className="font-sans text-xs text-ink-faint">
-                      {formatBandHz(l.overall.velocityBandHz)}
-                    </div>
-                  ) : null}
-                </td>
+                </OverallCell>
                 <td className="px-3 py-2 text-[13px]">
                   {l?.isoZone ? `Zone ${l.isoZone}` : '—'}
                   {l?.isoZone && machine.isoBoundaries ? (
@@ -132,17 +138,12 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
                   </Link>
                 </td>
                 <td className="px-3 py-2 text-right">
-                  {l ? (
-                    <time
-                      dateTime={l.takenAt}
-                      title={formatDateTime(l.takenAt)}
-                      className="font-mono text-[12.5px] text-ink-muted"
-                    >
-                      {formatAge(l.takenAt, now)}
-                    </time>
-                  ) : (
-                    <span className="text-xs text-ink-faint">never</span>
-                  )}
+                  <Age
+                    at={l?.takenAt ?? null}
+                    now={now}
+                    className="font-mono text-[12.5px] text-ink-muted"
+                    neverClassName="text-xs"
+                  />
                 </td>
               </tr>
             );

@@ -2,10 +2,12 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { areaInputSchema, type SetupArea, type SetupSite } from '@turnstone/contracts/setup';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import { InputField, SelectField, type SelectOption } from '../../../components/ui/field.tsx';
+import { formField } from '../../../lib/form-field.ts';
 import { saveArea, useSetupMutation } from '../api/save-setup.ts';
 import { applyServerErrors, asNumber } from '../utils/server-errors.ts';
-import { FormActions, FormAlert } from './form-parts.tsx';
+import { FormAlert } from '../../../components/ui/alert-box.tsx';
+import { FormActions } from './form-parts.tsx';
 
 const FIELDS = ['siteId', 'name'] as const;
 
@@ -28,7 +30,6 @@ export function AreaForm({
     resolver: zodResolver(areaInputSchema),
     defaultValues: { siteId: area?.siteId ?? siteId ?? sites[0]?.id ?? 0, name: area?.name ?? '' },
   });
-  const { errors } = form.formState;
   const onSubmit = form.handleSubmit((values) => {
     setFormError(null);
     save.mutateAsync({ ...values, id: area?.id }).then(
@@ -39,24 +40,13 @@ export function AreaForm({
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Area">
       <FormAlert message={formError} />
-      <Field label="Site" error={errors.siteId?.message}>
-        {({ invalid: _i, ...ids }) => (
-          <Select
-            {...ids}
-            disabled={Boolean(area)}
-            {...form.register('siteId', { setValueAs: asNumber })}
-          >
-            {sites.map((s) => (
-              <option key={s.id} value={s.id}>
-                {s.name} ({s.code})
-              </option>
-            ))}
-          </Select>
-        )}
-      </Field>
-      <Field label="Name" error={errors.name?.message}>
-        {({ invalid, ...ids }) => <Input {...ids} invalid={invalid} {...form.register('name')} />}
-      </Field>
+      <SelectField
+        label="Site"
+        options={sites.map((s): SelectOption => [s.id, `${s.name} (${s.code})`])}
+        disabled={Boolean(area)}
+        {...formField(form, 'siteId', { setValueAs: asNumber })}
+      />
+      <InputField label="Name" {...formField(form, 'name')} />
       <FormActions
         busy={save.isPending}
         saveLabel={area ? 'Save area' : 'Create area'}

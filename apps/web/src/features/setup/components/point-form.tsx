@@ -2,10 +2,17 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { pointInputSchema, type SetupMachine, type SetupPoint } from '@turnstone/contracts/setup';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import {
+  InputField,
+  NumberField,
+  SelectField,
+  type SelectOption,
+} from '../../../components/ui/field.tsx';
+import { formField } from '../../../lib/form-field.ts';
 import { deletePoint, savePoint, useSetupMutation } from '../api/save-setup.ts';
 import { applyServerErrors, asNullableNumber, asNumber } from '../utils/server-errors.ts';
-import { FormActions, FormAlert, NumberField } from './form-parts.tsx';
+import { FormAlert } from '../../../components/ui/alert-box.tsx';
+import { FormActions } from './form-parts.tsx';
 
 const FIELDS = [
   'machineId',
@@ -20,6 +27,12 @@ const FIELDS = [
   'envelopeLoHz',
   'envelopeHiHz',
 ] as const;
+
+const directionOptions: SelectOption[] = [
+  ['H', 'H — horizontal'],
+  ['V', 'V — vertical'],
+  ['A', 'A — axial'],
+];
 
 export function PointForm({
   point,
@@ -53,7 +66,6 @@ export function PointForm({
       envelopeHiHz: null,
     },
   });
-  const { errors } = form.formState;
   const onSubmit = form.handleSubmit((values) => {
     setFormError(null);
     save.mutateAsync({ ...values, id: point?.id }).then(
@@ -73,81 +85,56 @@ export function PointForm({
         On <span className="font-medium text-ink">{machine.name}</span>
       </p>
       <div className="grid gap-4 sm:grid-cols-2">
-        <Field
+        <InputField
           label="Tag"
           hint="Unique; the gateway sends it with each snapshot."
-          error={errors.tag?.message}
-        >
-          {({ invalid, ...ids }) => (
-            <Input
-              {...ids}
-              invalid={invalid}
-              className="font-mono"
-              spellCheck={false}
-              {...form.register('tag')}
-            />
-          )}
-        </Field>
-        <Field label="Name" error={errors.name?.message}>
-          {({ invalid, ...ids }) => <Input {...ids} invalid={invalid} {...form.register('name')} />}
-        </Field>
-        <Field label="Location" hint="e.g. Motor DE" error={errors.location?.message}>
-          {({ invalid, ...ids }) => (
-            <Input {...ids} invalid={invalid} {...form.register('location')} />
-          )}
-        </Field>
-        <Field label="Direction" error={errors.direction?.message}>
-          {({ invalid: _i, ...ids }) => (
-            <Select {...ids} {...form.register('direction')}>
-              <option value="H">H — horizontal</option>
-              <option value="V">V — vertical</option>
-              <option value="A">A — axial</option>
-            </Select>
-          )}
-        </Field>
+          inputClassName="font-mono"
+          spellCheck={false}
+          {...formField(form, 'tag')}
+        />
+        <InputField label="Name" {...formField(form, 'name')} />
+        <InputField label="Location" hint="e.g. Motor DE" {...formField(form, 'location')} />
+        <SelectField
+          label="Direction"
+          options={directionOptions}
+          {...formField(form, 'direction')}
+        />
         <NumberField
           label="Sensor sensitivity"
           unit="mV/g"
-          error={errors.sensitivityMvPerG?.message}
-          registration={form.register('sensitivityMvPerG', { setValueAs: asNumber })}
+          {...formField(form, 'sensitivityMvPerG', { setValueAs: asNumber })}
         />
-        <Field label="Bearing" error={errors.bearingId?.message}>
-          {({ invalid: _i, ...ids }) => (
-            <Select {...ids} {...form.register('bearingId', { setValueAs: asNullableNumber })}>
-              <option value="">None</option>
-              {machine.bearings.map((b) => (
-                <option key={b.id} value={b.id}>
-                  {b.name}
-                  {b.designation ? ` (${b.designation})` : ''}
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
+        <SelectField
+          label="Bearing"
+          options={[
+            ['', 'None'],
+            ...machine.bearings.map((b): SelectOption => [
+              b.id,
+              `${b.name}${b.designation ? ` (${b.designation})` : ''}`,
+            ]),
+          ]}
+          {...formField(form, 'bearingId', { setValueAs: asNullableNumber })}
+        />
         <NumberField
           label="Fmax"
           unit="Hz"
-          error={errors.fmaxHz?.message}
-          registration={form.register('fmaxHz', { setValueAs: asNumber })}
+          {...formField(form, 'fmaxHz', { setValueAs: asNumber })}
         />
         <NumberField
           label="Lines"
           step="1"
-          error={errors.lines?.message}
-          registration={form.register('lines', { setValueAs: asNumber })}
+          {...formField(form, 'lines', { setValueAs: asNumber })}
         />
         <NumberField
           label="Envelope band from"
           unit="Hz"
           hint="Around the resonance the bearing impacts ring; leave both empty for the default from the sample rate (fs/10.24 to fs/2.56)."
-          error={errors.envelopeLoHz?.message}
-          registration={form.register('envelopeLoHz', { setValueAs: asNullableNumber })}
+          {...formField(form, 'envelopeLoHz', { setValueAs: asNullableNumber })}
         />
         <NumberField
           label="Envelope band to"
           unit="Hz"
-          error={errors.envelopeHiHz?.message}
-          registration={form.register('envelopeHiHz', { setValueAs: asNullableNumber })}
+          {...formField(form, 'envelopeHiHz', { setValueAs: asNullableNumber })}
         />
       </div>
       <FormActions

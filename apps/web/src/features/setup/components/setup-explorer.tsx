@@ -82,17 +82,16 @@ function SetupTreeList({
   selection: Selection;
   select: (s: Selection) => void;
 }) {
-  const is = (kind: Selection['kind'], id: number) =>
-    selection.kind === kind && 'id' in selection && selection.id === id;
+  // An entry of the tree: marked while the panel edits it; a click (where allowed) selects it.
+  const entry = (target: Selection & { id: number }, allowed = true) => ({
+    selected: selection.kind === target.kind && 'id' in selection && selection.id === target.id,
+    onClick: () => allowed && select(target),
+  });
   return (
     <nav aria-label="Plant tree" className="flex flex-col">
       {tree.sites.map((site) => (
         <div key={site.id} className="border-b border-line py-1 last:border-0">
-          <TreeButton
-            depth={0}
-            selected={is('site', site.id)}
-            onClick={() => isAdmin && select({ kind: 'site', id: site.id })}
-          >
+          <TreeButton depth={0} {...entry({ kind: 'site', id: site.id }, isAdmin)}>
             <span className="font-semibold">{site.name}</span>
             <span className="font-mono text-xs text-ink-faint">{site.code}</span>
           </TreeButton>
@@ -100,22 +99,14 @@ function SetupTreeList({
             .filter((a) => a.siteId === site.id)
             .map((area) => (
               <div key={area.id}>
-                <TreeButton
-                  depth={1}
-                  selected={is('area', area.id)}
-                  onClick={() => isAdmin && select({ kind: 'area', id: area.id })}
-                >
+                <TreeButton depth={1} {...entry({ kind: 'area', id: area.id }, isAdmin)}>
                   <span className="font-medium">{area.name}</span>
                 </TreeButton>
                 {tree.machines
                   .filter((m) => m.areaId === area.id)
                   .map((m) => (
                     <div key={m.id}>
-                      <TreeButton
-                        depth={2}
-                        selected={is('machine', m.id)}
-                        onClick={() => select({ kind: 'machine', id: m.id })}
-                      >
+                      <TreeButton depth={2} {...entry({ kind: 'machine', id: m.id })}>
                         <span>{m.name}</span>
                         <span className="ml-auto font-mono text-xs text-ink-faint">
                           {m.nominalRpm} r/min
@@ -125,8 +116,7 @@ function SetupTreeList({
                         <TreeButton
                           key={p.id}
                           depth={3}
-                          selected={is('point', p.id)}
-                          onClick={() => select({ kind: 'point', id: p.id, parentId: m.id })}
+                          {...entry({ kind: 'point', id: p.id, parentId: m.id })}
                         >
                           <span className="font-mono text-xs">{p.tag}</span>
                           <span className="truncate text-xs text-ink-muted">{p.direction}</span>

@@ -2,10 +2,12 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { siteInputSchema, type SetupSite } from '@turnstone/contracts/setup';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { Field, Input } from '../../../components/ui/field.tsx';
+import { InputField } from '../../../components/ui/field.tsx';
+import { formField } from '../../../lib/form-field.ts';
 import { saveSite, useSetupMutation } from '../api/save-setup.ts';
 import { applyServerErrors } from '../utils/server-errors.ts';
-import { FormActions, FormAlert } from './form-parts.tsx';
+import { FormAlert } from '../../../components/ui/alert-box.tsx';
+import { FormActions } from './form-parts.tsx';
 
 const FIELDS = ['name', 'code', 'timeZone'] as const;
 
@@ -28,7 +30,6 @@ export function SiteForm({
       timeZone: site?.timeZone ?? Intl.DateTimeFormat().resolvedOptions().timeZone,
     },
   });
-  const { errors } = form.formState;
   const onSubmit = form.handleSubmit((values) => {
     setFormError(null);
     save.mutateAsync({ ...values, id: site?.id }).then(
@@ -39,39 +40,21 @@ export function SiteForm({
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Site">
       <FormAlert message={formError} />
-      <Field label="Name" error={errors.name?.message}>
-        {({ invalid, ...ids }) => <Input {...ids} invalid={invalid} {...form.register('name')} />}
-      </Field>
+      <InputField label="Name" {...formField(form, 'name')} />
       <div className="grid gap-4 sm:grid-cols-2">
-        <Field
+        <InputField
           label="Code"
           hint="Capital letters, digits, hyphens; used in point tags."
-          error={errors.code?.message}
-        >
-          {({ invalid, ...ids }) => (
-            <Input
-              {...ids}
-              invalid={invalid}
-              className="font-mono uppercase"
-              {...form.register('code')}
-            />
-          )}
-        </Field>
-        <Field
+          inputClassName="font-mono uppercase"
+          {...formField(form, 'code')}
+        />
+        <InputField
           label="Time zone"
           hint="IANA name, e.g. Europe/London."
-          error={errors.timeZone?.message}
-        >
-          {({ invalid, ...ids }) => (
-            <Input
-              {...ids}
-              invalid={invalid}
-              className="font-mono"
-              list="iana-zones"
-              {...form.register('timeZone')}
-            />
-          )}
-        </Field>
+          inputClassName="font-mono"
+          list="iana-zones"
+          {...formField(form, 'timeZone')}
+        />
       </div>
       <datalist id="iana-zones">
         {(Intl as unknown as { supportedValuesOf?: (k: string) => string[] })

@@ -6,7 +6,14 @@ import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
-import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import {
+  Field,
+  InputField,
+  NumberField,
+  Select,
+  SelectField,
+  type SelectOption,
+} from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { useUploadPoints } from '../api/get-upload-points.ts';
@@ -41,6 +48,11 @@ function isoFromLocal(value: string, timeZone: string): string {
 
 let nextKey = 0;
 
+const csvUnitOptions: SelectOption[] = [
+  ['g', 'g (acceleration)'],
+  ['volts', 'volts (sensor output)'],
+];
+
 export function UploadPanel() {
   const points = useUploadPoints();
   const queryClient = useQueryClient();
@@ -74,8 +86,15 @@ export function UploadPanel() {
     );
 
   const groups = [...new Set(points.data.map((p) => p.group))];
-  const set = (k: keyof Settings) => (e: { target: { value: string } }) =>
-    setSettings((s) => ({ ...s, [k]: e.target.value }));
+  // A setting's field: its text, its change and its error.
+  const setting = (k: keyof Settings) => ({
+    value: settings[k],
+    onChange: (e: { target: { value: string } }) =>
+      setSettings((s) => ({ ...s, [k]: e.target.value })),
+    error: errors[k],
+  });
+  // The number settings are compact, two to a row.
+  const numberSetting = (k: keyof Settings) => ({ ...setting(k), controlSize: 'sm' as const });
   const update = (key: string, patch: Partial<UploadItem>) =>
     setItems((list) => list.map((it) => (it.key === key ? { ...it, ...patch } : it)));
 
@@ -177,71 +196,45 @@ export function UploadPanel() {
           )}
         </Field>
         <div className="grid grid-cols-2 gap-3">
-          <NumberSetting
+          <NumberField
             label="Sensitivity"
             unit="mV/g"
             hint="Empty: the point's."
-            value={settings.sensitivityMvPerG}
-            onChange={set('sensitivityMvPerG')}
-            error={errors.sensitivityMvPerG}
+            {...numberSetting('sensitivityMvPerG')}
           />
-          <NumberSetting
+          <NumberField
             label="Full scale"
             unit="V"
             hint="WAV default 1 V, CSV 10 V."
-            value={settings.fullScaleV}
-            onChange={set('fullScaleV')}
-            error={errors.fullScaleV}
+            {...numberSetting('fullScaleV')}
           />
-          <NumberSetting
+          <NumberField
             label="ADC bits"
             unit="bit"
             hint="Empty: from the file."
-            value={settings.bits}
-            onChange={set('bits')}
-            error={errors.bits}
             step="1"
+            {...numberSetting('bits')}
           />
-          <NumberSetting
+          <NumberField
             label="Speed"
             unit="r/min"
             hint="Empty: estimated."
-            value={settings.speedRpm}
-            onChange={set('speedRpm')}
-            error={errors.speedRpm}
+            {...numberSetting('speedRpm')}
           />
-          <NumberSetting
+          <NumberField
             label="Sample rate"
             unit="Hz"
             hint="For CSV without a time column."
-            value={settings.sampleRateHz}
-            onChange={set('sampleRateHz')}
-            error={errors.sampleRateHz}
+            {...numberSetting('sampleRateHz')}
           />
-          <Field label="CSV values in" error={errors.unit}>
-            {({ invalid: _i, ...ids }) => (
-              <Select {...ids} value={settings.unit} onChange={set('unit')}>
-                <option value="g">g (acceleration)</option>
-                <option value="volts">volts (sensor output)</option>
-              </Select>
-            )}
-          </Field>
+          <SelectField label="CSV values in" options={csvUnitOptions} {...setting('unit')} />
         </div>
-        <Field
+        <InputField
           label="Taken at"
           hint={`In ${zone}, the point's site's time. Empty: the time of upload.`}
-          error={errors.takenAt}
-        >
-          {({ invalid, ...ids }) => (
-            <Input
-              {...ids}
-              invalid={invalid}
-              type="datetime-local"
-              value={settings.takenAt}
-              onChange={set('takenAt')}
-            />
-          )}
-        </Field>
+          type="datetime-local"
+          {...setting('takenAt')}
+        />
       </Card>
 
       <div className="flex min-w-0 flex-col gap-4">
@@ -307,46 +300,5 @@ export function UploadPanel() {
         )}
       </div>
     </div>
-  );
-}
-
-function NumberSetting({
-  label,
-  unit,
-  hint,
-  value,
-  onChange,
-  error,
-  step = 'any',
-}: {
-  label: string;
-  unit: string;
-  hint?: string;
-  value: string;
-  onChange: (e: { target: { value: string } }) => void;
-  error?: string;
-  step?: string;
-}) {
-  return (
-    <Field label={label} hint={hint} error={error}>
-      {({ invalid, ...ids }) => (
-        <div className="relative">
-          <Input
-            {...ids}
-            invalid={invalid}
-            type="number"
-            inputMode="decimal"
-            step={step}
-            value={value}
-            onChange={onChange}
-            className="pr-14 font-mono"
-            controlSize="sm"
-          />
-          <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center font-mono text-xs text-ink-faint">
-            {unit}
-          </span>
-        </div>
-      )}
-    </Field>
   );
 }

@@ -8,13 +8,22 @@ import { TableHead } from '../../../components/ui/table-head.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
-import { Field, InputField, Select } from '../../../components/ui/field.tsx';
+import {
+  InputField,
+  Select,
+  SelectField,
+  type SelectOption,
+} from '../../../components/ui/field.tsx';
+import { formField } from '../../../lib/form-field.ts';
+import { toggled } from '../../../lib/toggled.ts';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 import { useUsers } from '../api/get-users.ts';
 import { useInviteUser, useSetUserDisabled, useUpdateUser } from '../api/change-user.ts';
 
 type Site = { id: number; code: string; name: string };
+
+const roleOptions = roles.map((r): SelectOption => [r, roleLabels[r]]);
 
 function SiteChecks({
   sites,
@@ -35,9 +44,7 @@ function SiteChecks({
           <input
             type="checkbox"
             checked={value.includes(s.id)}
-            onChange={(e) =>
-              onChange(e.target.checked ? [...value, s.id] : value.filter((v) => v !== s.id))
-            }
+            onChange={(e) => onChange(toggled(value, s.id, e.target.checked))}
           />
           <span className="font-mono text-xs">{s.code}</span>
           <span className="text-ink-muted">{s.name}</span>
@@ -108,30 +115,9 @@ function InviteForm({ sites }: { sites: Site[] }) {
         They get an e-mail with a link to choose a password; it works once, for 72 hours.
       </p>
       <form onSubmit={onSubmit} noValidate className="mt-3 grid gap-3 sm:grid-cols-2">
-        <InputField
-          label="E-mail"
-          error={errors.email?.message}
-          {...form.register('email')}
-          type="email"
-          autoComplete="off"
-        />
-        <InputField
-          label="Name"
-          error={errors.name?.message}
-          {...form.register('name')}
-          autoComplete="off"
-        />
-        <Field label="Role" error={errors.role?.message}>
-          {({ invalid: _invalid, ...ids }) => (
-            <Select {...ids} {...form.register('role')}>
-              {roles.map((r) => (
-                <option key={r} value={r}>
-                  {roleLabels[r]}
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
+        <InputField label="E-mail" type="email" autoComplete="off" {...formField(form, 'email')} />
+        <InputField label="Name" autoComplete="off" {...formField(form, 'name')} />
+        <SelectField label="Role" options={roleOptions} {...formField(form, 'role')} />
         <div className="flex flex-col gap-1.5">
           <span className="text-sm font-medium">Sites</span>
           <SiteChecks
