@@ -5,39 +5,19 @@
  * the code is refused with a clear message and left untouched.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import {
-  copyFileSync,
-  mkdirSync,
-  mkdtempSync,
-  readFileSync,
-  readdirSync,
-  writeFileSync,
-} from 'node:fs';
+import { mkdtempSync, readFileSync, readdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import mysql, { type Pool, type RowDataPacket } from 'mysql2/promise';
 import { drizzle } from 'drizzle-orm/mysql2';
 import { migrate } from 'drizzle-orm/mysql2/migrator';
-import { codeMigrations, migrationsFolder, OLDEST_SUPPORTED } from '@turnstone/db/migrate';
+import { codeMigrations, OLDEST_SUPPORTED } from '@turnstone/db/migrate';
 import { start } from '../../apps/server/src/server.ts';
 import { freshDatabase } from '../support/test-server.ts';
+import { migrationsUpTo } from '../support/old-migrations.ts';
 
 const ROWS = 25;
 const tmp = () => process.env.TURNSTONE_TEST_TMP ?? tmpdir();
-
-/** A migrations folder holding only the journal's entries up to `lastTag`. */
-function migrationsUpTo(lastTag: string): string {
-  const dir = mkdtempSync(join(tmp(), 'old-migrations-'));
-  mkdirSync(join(dir, 'meta'));
-  const journal = JSON.parse(readFileSync(join(migrationsFolder, 'meta', '_journal.json'), 'utf8'));
-  const upTo = journal.entries.findIndex((e: { tag: string }) => e.tag === lastTag);
-  if (upTo < 0) throw new Error(`no migration ${lastTag}`);
-  journal.entries = journal.entries.slice(0, upTo + 1);
-  writeFileSync(join(dir, 'meta', '_journal.json'), JSON.stringify(journal));
-  for (const e of journal.entries as Array<{ tag: string }>)
-    copyFileSync(join(migrationsFolder, `${e.tag}.sql`), join(dir, `${e.tag}.sql`));
-  return dir;
-}
 
 interface Column {
   name: string;

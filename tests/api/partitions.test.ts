@@ -174,10 +174,17 @@ describe('monthly partitions of snapshots, analyses and band_values', () => {
     expect((await rowsOfSnapshots(ids)).snapshots).toBe(3);
     const [left] = await q('SELECT COUNT(*) AS n FROM snapshots');
     expect(Number(left!.n)).toBe(3);
+    // The trend's hour summaries go with their month, and only with it.
+    const hours = async () =>
+      (await q('SELECT hour_at FROM band_value_hours GROUP BY hour_at ORDER BY hour_at')).map((r) =>
+        (r.hour_at as Date).toISOString(),
+      );
+    expect(await hours()).toEqual(['2024-03-04T10:00:00.000Z', '2024-03-05T09:00:00.000Z']);
 
     const unpin = await srv.call('DELETE', `/api/v1/analyses/${pinned!.id}/pin`, { cookie });
     expect(unpin.status).toBeLessThan(300);
     expect(await dropExpiredPartitions(srv.ctx.db, 1, 60, now)).toEqual(['p_before']);
+    expect(await hours()).toEqual([]);
     expect(await rowsOfSnapshots(ids)).toEqual({
       snapshots: 0,
       uids: 0,

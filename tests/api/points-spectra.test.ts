@@ -6,6 +6,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readWav } from '@turnstone/dsp';
 import { decodeFloat32Base64, spectrumSchema, waveformSchema } from '@turnstone/contracts/points';
+import { decodeSpectra, decodeSpectraDetail, encodeSpectra } from '@turnstone/db/spectra-codec';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { expireRawSamples } from '../../apps/server/src/features/worker/retention.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
@@ -136,10 +137,14 @@ describe('spectrum', () => {
     // Values unlike the compact ones (× 1.5), so an answer from the wrong column shows.
     const accel = Float32Array.from(decodeFloat32Base64(newForm.values), (v) => v * 1.5);
     const velocity = Float32Array.from({ length: 801 }, (_, k) => k / 1024);
+    // Such rows hold the spectra's detail (axes, peaks) in their summary.
+    const [blob] = await srv.q('SELECT spectra FROM analyses WHERE id = ?', [old]);
+    const detail = decodeSpectraDetail(blob!.spectra as Buffer) as Record<string, unknown>;
     await srv.q(
       `UPDATE analyses SET spectra = NULL, accel_spectrum = ?, velocity_spectrum = ?,
-              envelope_spectrum = NULL, order_spectrum = NULL WHERE id = ?`,
-      [Buffer.from(accel.buffer), Buffer.from(velocity.buffer), old],
+              envelope_spectrum = NULL, order_spectrum = NULL,
+              summary = JSON_MERGE_PATCH(summary, ?) WHERE id = ?`,
+      [Buffer.from(accel.buffer), Buffer.from(velocity.buffer), JSON.stringify(detail), old],
     );
     const a = spectrumSchema.parse(
       await (await get(`/analyses/${old}/spectrum?kind=acceleration`)).json(),
@@ -162,6 +167,40 @@ describe('spectrum', () => {
     const line = Math.round(100 / newForm.dfHz!);
     // The compact row's 100 Hz line: 0.7071 g RMS within 0.5 % (see the first test).
     expect(decodeFloat32Base64(compact.values)[line]).toBeCloseTo(0.7071, 2);
+  });
+
+  it('keeps the detail of the spectra (axes, peaks, fault frequencies) in the spectra BLOB, not the summary kept for ever; a row written before reads it from its summary', async () => {
+    const [row] = await srv.q('SELECT summary, spectra FROM analyses WHERE id = ?', [analysisId]);
+    const summary = (
+      typeof row!.summary === 'string' ? JSON.parse(row!.summary) : row!.summary
+    ) as Record<string, unknown>;
+    for (const k of ['spectra', 'peaks', 'faultFrequencies', 'qualityMetrics'])
+      expect({ k, inSummary: k in summary }).toEqual({ k, inSummary: false });
+    expect(summary.isoBandHz).toEqual([expect.any(Number), expect.any(Number)]);
+    const detail = decodeSpectraDetail(row!.spectra as Buffer) as Record<string, unknown>;
+    expect(Object.keys(detail).sort()).toEqual(
+      ['faultFrequencies', 'peaks', 'qualityMetrics', 'spectra'].sort(),
+    );
+    const now = await (await get(`/analyses/${analysisId}/spectrum?kind=acceleration`)).json();
+    expect(now.peaks.length).toBeGreaterThan(0);
+    // The same analysis as a row written before the split: format-1 BLOB, detail in the
+    // summary. The answer is the same, peaks and fault frequencies included.
+    const spectra = decodeSpectra(row!.spectra as Buffer);
+    await srv.q('UPDATE analyses SET spectra = ?, summary = ? WHERE id = ?', [
+      encodeSpectra(spectra),
+      JSON.stringify({ ...summary, ...detail }),
+      analysisId,
+    ]);
+    try {
+      const before = await (await get(`/analyses/${analysisId}/spectrum?kind=acceleration`)).json();
+      expect(before).toEqual(now);
+    } finally {
+      await srv.q('UPDATE analyses SET spectra = ?, summary = ? WHERE id = ?', [
+        row!.spectra,
+        JSON.stringify(summary),
+        analysisId,
+      ]);
+    }
   });
 
   it('the waterfall lists the newest spectra first, at most the limit', async () => {

@@ -8,6 +8,7 @@ import { trendResponseSchema } from '@turnstone/contracts/trend';
 import { TREND_MAX_BUCKETS } from '@turnstone/condition/trend-decimation';
 import { machineDetailSchema, pointDetailSchema } from '@turnstone/contracts/points';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import { rebuildPointHours } from '../../apps/server/src/features/analysis/band-hours-repository.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { analysisOfSnapshot, postSnapshot } from '../support/alert-captures.ts';
@@ -90,7 +91,8 @@ describe('trend', () => {
 
   it('answers a year of hourly values thinned for a chart, keeping its peak and alert values', async () => {
     // Only the trend's read path is under test, so a year of band values is written straight
-    // into the table (foreign keys off on this one connection: no analyses behind them).
+    // into the table (foreign keys off on this one connection: no analyses behind them), and
+    // their hour summaries built by the product's own recomputation, as any writer does.
     // The year before this file's other values, so theirs stay the latest.
     const yearPoint = pointId;
     const from = Date.parse('2024-11-01T00:00:00Z');
@@ -131,6 +133,7 @@ describe('trend', () => {
       await conn.query('SET FOREIGN_KEY_CHECKS = 1');
       conn.release();
     }
+    await rebuildPointHours(srv.ctx.db, yearPoint);
     const res = await get(
       `/points/${yearPoint}/trend?band=overall-velocity&from=2024-11-01T00:00:00Z&to=2025-10-31T23:59:59Z`,
     );
@@ -159,6 +162,7 @@ describe('trend', () => {
     expect(week.decimation).toBeNull();
     expect(week.items).toHaveLength(7 * 24);
     await srv.q('DELETE FROM band_values WHERE analysis_id >= 50000000');
+    await rebuildPointHours(srv.ctx.db, yearPoint);
     await srv.q('DELETE FROM alerts WHERE point_id = ? AND first_at < ?', [
       yearPoint,
       new Date(from + hours * 3_600_000),

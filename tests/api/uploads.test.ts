@@ -6,6 +6,7 @@ import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeWav } from '@turnstone/dsp';
+import { decodeSpectraDetail } from '@turnstone/db/spectra-codec';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { prng, toneCounts } from '../support/signals.ts';
@@ -308,9 +309,12 @@ describe('a point’s envelope band', () => {
     expect(res.status).toBe(201);
     const { snapshotId } = await res.json();
     await createWorker(srv.ctx).drain();
-    const [row] = await q('SELECT summary FROM analyses WHERE snapshot_id = ?', [snapshotId]);
-    const summary = typeof row!.summary === 'string' ? JSON.parse(row!.summary) : row!.summary;
-    const [lo, hi] = summary.spectra.envelope.bandHz;
+    // The spectra's axes are their stored detail, inside the spectra BLOB (stored-summary.ts).
+    const [row] = await q('SELECT spectra FROM analyses WHERE snapshot_id = ?', [snapshotId]);
+    const detail = decodeSpectraDetail(row!.spectra as Buffer) as {
+      spectra: { envelope: { bandHz: [number, number] } };
+    };
+    const [lo, hi] = detail.spectra.envelope.bandHz;
     // snapped to the capture's lines, 25600 / 8192 = 3.125 Hz apart
     expect(Math.abs(lo - 4000)).toBeLessThan(3.2);
     expect(Math.abs(hi - 7000)).toBeLessThan(3.2);

@@ -11,7 +11,9 @@
  *
  * Then the tiered retention pass (apps/server/src/features/worker/retention.ts, default
  * policy) runs over the same captures at simulated ages — all in the hourly tier, then all
- * in the daily tier, then raw waveforms past RETENTION_DAYS — with OPTIMIZE TABLE before each
+ * in the daily tier, then raw waveforms past RETENTION_DAYS — each measured as thinning left
+ * it and after the nightly compaction's online rebuild (compaction.ts) — InnoDB keeps the
+ * pages thinning emptied until a rebuild; the figures are the rebuilt ones
  * measurement (InnoDB reuses freed pages but does not return them on its own), and the
  * plant-year amortised bytes per capture are worked out from the measured whole and thinned
  * row sizes for the captures' cadence. BENCH_STORAGE_COUNT (3000) captures.
@@ -30,13 +32,20 @@ import {
   thinSpectra,
 } from '../../apps/server/src/features/worker/retention.ts';
 import { loadConfig } from '../../apps/server/src/config.ts';
+import {
+  DONE_JOBS_KEEP_DAYS,
+  runCompaction,
+} from '../../apps/server/src/features/worker/compaction.ts';
 import { sql } from 'drizzle-orm';
+import { decodeSpectra } from '@turnstone/db/spectra-codec';
 import { createGatewayKey, signInCookie, startBenchServer } from './bench-support.ts';
 import { plantYearFigures } from './storage-year.ts';
+import { existingTables, printComposition } from './storage-composition.ts';
 
 const COUNT = Number(process.env.BENCH_STORAGE_COUNT ?? 3000);
 const POST_BATCH = 10;
-const TABLES = ['analyses', 'snapshots', 'band_values'] as const;
+/** BENCH_STORAGE_YEAR=0 skips the plant-year part (trend, fleet, ingest under retention). */
+const YEAR = process.env.BENCH_STORAGE_YEAR !== '0';
 
 interface TableSize {
   dataIndex: number;
@@ -49,6 +58,9 @@ const { srv } = bench;
 const pool = srv.ctx.dbHandle.pool;
 const q = async <T>(text: string, params: unknown[] = []) =>
   (await pool.query(text, params))[0] as T;
+// Every table that grows with the captures: the three partitioned ones, and the uid, job,
+// daily-sum and trend-aggregate rows each capture leaves behind.
+const TABLES = await existingTables(q);
 
 const count = async () =>
   Number((await q<{ n: number }[]>('SELECT COUNT(*) AS n FROM analyses'))[0]!.n);
@@ -121,15 +133,14 @@ try {
   const analysesAfter = await count();
   const captures = analysesAfter - analysesBefore;
   if (captures < COUNT * 0.9) throw new Error(`only ${captures} of ${COUNT} captures analysed`);
-  // Reference: the float64 bytes of the spectra these analyses hold (lines from the summary).
-  const [{ nlines }] = await q<[{ nlines: number | string }]>(
-    `SELECT SUM(COALESCE(JSON_VALUE(summary, '$.spectra.acceleration.lines'), 0)
-              + COALESCE(JSON_VALUE(summary, '$.spectra.velocity.lines'), 0)
-              + COALESCE(JSON_VALUE(summary, '$.spectra.envelope.lines'), 0)
-              + COALESCE(JSON_VALUE(summary, '$.spectra.order.lines'), 0)) AS nlines
-       FROM analyses WHERE id > (SELECT COALESCE(MAX(id), 0) FROM analyses) - ?`,
+  // Reference: the float64 bytes of the spectra these analyses hold (lines of the stored spectra).
+  const blobs = await q<{ spectra: Buffer | null }[]>(
+    `SELECT spectra FROM analyses WHERE id > (SELECT COALESCE(MAX(id), 0) FROM analyses) - ?`,
     [captures],
   );
+  let nlines = 0;
+  for (const { spectra } of blobs)
+    if (spectra) for (const v of Object.values(decodeSpectra(spectra))) nlines += v ? v.length : 0;
   const float64PerCapture = (Number(nlines) * 8) / captures;
   const after = await sizes();
   // The long columns of the new analyses, average stored bytes: what decides whether a row
@@ -183,8 +194,15 @@ try {
     captures /
     channels.length /
     Math.max(1, (span.last.getTime() - span.first.getTime()) / 3_600_000);
+  // As thinning left it (its total kept for the table), then after the compaction's rebuild.
+  const asThinned: number[] = [];
   const optimized = async () => {
-    await q(`OPTIMIZE TABLE ${TABLES.join(', ')}`);
+    const raw = await sizes();
+    asThinned.push(
+      TABLES.reduce((a, t) => a + (raw[t]!.dataIndex - before[t]!.dataIndex), 0) / captures,
+    );
+    await runCompaction(srv.ctx.db, policy, new Date(), { rebuild: true });
+    // The tables compaction does not rebuild (never thinned): as they are.
     return sizes();
   };
   const delta = (s: Record<string, TableSize>, t: string) =>
@@ -199,13 +217,33 @@ try {
         )
       )[0]!.n,
     );
+  const [{ firstId }] = await q<[{ firstId: number }]>(
+    'SELECT COALESCE(MAX(id), 0) - ? + 1 AS firstId FROM analyses',
+    [captures],
+  );
+  const withSamples = async () =>
+    Number(
+      (
+        await q<{ n: number }[]>(
+          `SELECT COUNT(*) AS n FROM snapshots s JOIN analyses a ON a.snapshot_id = s.id
+            WHERE a.id >= ? AND s.samples IS NOT NULL`,
+          [firstId],
+        )
+      )[0]!.n,
+    );
   const DAY = 86_400_000;
-  const stages: { name: string; s: Record<string, TableSize>; kept: number; seconds: number }[] =
-    [];
+  const stages: {
+    name: string;
+    s: Record<string, TableSize>;
+    kept: number;
+    samples: number;
+    seconds: number;
+  }[] = [];
   stages.push({
-    name: 'whole (after OPTIMIZE)',
+    name: 'whole',
     s: await optimized(),
     kept: await kept(),
+    samples: await withSamples(),
     seconds: 0,
   });
   const opts = { batchSize: policy.batchSize, batchPauseMs: 0 };
@@ -216,6 +254,7 @@ try {
     name: 'aged 30 d (hourly tier)',
     s: await optimized(),
     kept: await kept(),
+    samples: await withSamples(),
     seconds: secs,
   });
   t2 = performance.now();
@@ -225,6 +264,7 @@ try {
     name: 'aged 200 d (daily tier)',
     s: await optimized(),
     kept: await kept(),
+    samples: await withSamples(),
     seconds: secs,
   });
   // A pass with nothing left to thin: what every night costs once the history is thinned,
@@ -259,6 +299,7 @@ try {
     name: '+ raw waveforms expired',
     s: await optimized(),
     kept: await kept(),
+    samples: await withSamples(),
     seconds: secs,
   });
 
@@ -266,44 +307,75 @@ try {
     `\nTiered retention over the same captures (${perHour.toFixed(1)} captures per point per hour)`,
   );
   console.log(
-    '| stage | whole spectra kept | pass s | analyses B/capture | snapshots B/capture | band_values B/capture | total B/capture |',
+    `| stage | whole spectra kept | raw waveforms kept | pass s | total B/capture as thinned, no rebuild | ${TABLES.join(' B/capture | ')} B/capture | total B/capture after rebuild |`,
   );
-  console.log('|---|---|---|---|---|---|---|');
-  for (const st of stages)
+  console.log(`|---|---|---|---|---|${TABLES.map(() => '---|').join('')}---|`);
+  stages.forEach((st, i) =>
     console.log(
-      `| ${st.name} | ${st.kept} | ${st.seconds.toFixed(2)} | ${delta(st.s, 'analyses').toFixed(0)} | ${delta(st.s, 'snapshots').toFixed(0)} | ${delta(st.s, 'band_values').toFixed(0)} | ${TABLES.reduce((a, t) => a + delta(st.s, t), 0).toFixed(0)} |`,
-    );
-  // Whole and thinned analyses row bytes, solved from the whole stage and the daily stage.
-  const whole = delta(stages[0]!.s, 'analyses');
-  const daily = stages[2]!;
-  const thinnedRow =
-    daily.kept < captures
-      ? (delta(daily.s, 'analyses') * captures - daily.kept * whole) / (captures - daily.kept)
-      : whole;
-  const rawPart = delta(stages[2]!.s, 'snapshots') - delta(stages[3]!.s, 'snapshots');
-  // A plant-year at this cadence under the default policy (protected captures not counted):
-  // the share of captures that keep their spectra, and raw waveforms kept 90 of 365 days.
-  const wholeShare =
-    (policy.spectraWholeDays +
-      (policy.spectraHourlyDays - policy.spectraWholeDays) / Math.max(1, perHour) +
-      (365 - policy.spectraHourlyDays) / Math.max(1, 24 * perHour)) /
+      `| ${st.name} | ${st.kept} | ${st.samples} | ${st.seconds.toFixed(2)} | ${asThinned[i]!.toFixed(0)} | ${TABLES.map((t) => delta(st.s, t).toFixed(0)).join(' | ')} | ${TABLES.reduce((a, t) => a + delta(st.s, t), 0).toFixed(0)} |`,
+    ),
+  );
+  // Whole and thinned analyses row bytes, solved from the whole stage and the daily stage;
+  // snapshot rows with and without their raw waveform, from the whole stage and the last.
+  const solve = (
+    t: string,
+    wholeStage: number,
+    stage: number,
+    keptOf: (x: (typeof stages)[number]) => number,
+  ) => {
+    const w = delta(stages[wholeStage]!.s, t);
+    const st = stages[stage]!;
+    const k = keptOf(st);
+    return {
+      whole: w,
+      thinned: k < captures ? (delta(st.s, t) * captures - k * w) / (captures - k) : w,
+    };
+  };
+  const an = solve('analyses', 0, 2, (st) => st.kept);
+  const sn = solve('snapshots', 0, 3, (st) => st.samples);
+  const whole = an.whole;
+  const thinnedRow = an.thinned;
+  // A plant-year at this cadence under the default policy. Captures kept whole (alert
+  // windows, findings, pins, uploads) are not counted: their share is the plant's own (this
+  // run's story packs a fault's whole progression into a few hours, so many of its captures
+  // sit in alert windows). The share of captures that keep their spectra, and of those that
+  // keep their raw waveform (the spectra's tiers, cut at RETENTION_DAYS):
+  const share = (days: number) =>
+    (Math.min(days, policy.spectraWholeDays) +
+      Math.max(0, Math.min(days, policy.spectraHourlyDays) - policy.spectraWholeDays) /
+        Math.max(1, perHour) +
+      Math.max(0, days - policy.spectraHourlyDays) / Math.max(1, 24 * perHour)) /
     365;
-  const year =
-    thinnedRow +
-    wholeShare * (whole - thinnedRow) +
-    delta(stages[3]!.s, 'snapshots') +
-    (rawPart * policy.rawSamplesDays) / 365 +
-    delta(stages[3]!.s, 'band_values');
+  const wholeShare = share(365);
+  const rawShare = share(policy.rawSamplesDays > 0 ? Math.min(365, policy.rawSamplesDays) : 365);
+  const forever = TABLES.filter((t) => t !== 'analyses' && t !== 'snapshots');
+  const parts: [string, number][] = [
+    ['analyses', thinnedRow + wholeShare * (whole - thinnedRow)],
+    ['snapshots', sn.thinned + rawShare * (sn.whole - sn.thinned)],
+    // Done jobs are removed DONE_JOBS_KEEP_DAYS after they ran (compaction.ts).
+    ...forever.map(
+      (t) =>
+        [t, delta(stages[3]!.s, t) * (t === 'jobs' ? DONE_JOBS_KEEP_DAYS / 365 : 1)] as [
+          string,
+          number,
+        ],
+    ),
+  ];
+  const year = parts.reduce((a, [, b]) => a + b, 0);
   console.log(
     `a pass with nothing left to thin: ${again.rows} rows, ${rescanS.toFixed(2)} s; analyses reached by ${outer?.type ?? '?'} on ${outer?.key ?? 'no index'} (~${outer?.rows ?? '?'} rows estimated)`,
   );
   console.log(
-    `analyses row: whole ${whole.toFixed(0)} B, thinned ${thinnedRow.toFixed(0)} B; share keeping spectra over a year ${(wholeShare * 100).toFixed(1)} %; raw waveform ${rawPart.toFixed(0)} B while kept`,
+    `analyses row: whole ${whole.toFixed(0)} B, thinned ${thinnedRow.toFixed(0)} B; snapshot row: with raw waveform ${sn.whole.toFixed(0)} B, without ${sn.thinned.toFixed(0)} B; share keeping spectra over a year ${(wholeShare * 100).toFixed(1)} %, raw waveforms ${(rawShare * 100).toFixed(1)} %`,
+  );
+  console.log(
+    `plant-year parts, B/capture: ${parts.map(([t, b]) => `${t} ${b.toFixed(0)}`).join(', ')}`,
   );
   console.log(
     `plant-year amortised at this cadence: ${year.toFixed(0)} B/capture (target ≤ 2048; before retention ${total('dataIndex').toFixed(0)})`,
   );
-  await plantYearFigures(bench);
+  await printComposition(q, captures, firstId);
+  if (YEAR) await plantYearFigures(bench);
 } finally {
   await bench.stop();
 }

@@ -10,6 +10,7 @@ import type { Browser, Page } from 'playwright-core';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
 import { captureVelocities, gatewayKey } from '../support/alert-captures.ts';
+import { tabUntil } from '../support/keyboard.ts';
 
 let srv: TestServer;
 let browser: Browser;
@@ -36,18 +37,12 @@ const focused = (page: Page) =>
       id: e.getAttribute('data-alert-open') || '', note: e.getAttribute('data-acknowledge-note') || '' }; })()`,
   );
 
-async function tabTo(
+const tabTo = (
   page: Page,
   test: (f: Awaited<ReturnType<typeof focused>>) => boolean,
   what: string,
-  { back = false, max = 150 } = {},
-) {
-  for (let i = 0; i < max; i++) {
-    await page.keyboard.press(back ? 'Shift+Tab' : 'Tab');
-    if (test(await focused(page))) return;
-  }
-  throw new Error(`Tab never reached ${what}`);
-}
+  options: { back?: boolean; max?: number } = {},
+) => tabUntil(page, focused, test, what, options);
 
 describe('operator on the alerts screen', () => {
   it('loads the sign-in page with no console error (the anonymous session probe answers 200)', async () => {

@@ -12,8 +12,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
-import type { Page } from 'playwright-core';
+import {
+  launchBrowser,
+  newPage,
+  screenshot,
+  signInAs,
+  tallScreenshot,
+} from '../support/browser.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { formatDateTime } from '@turnstone/contracts/dates';
 
@@ -25,18 +30,6 @@ const DAY_MS = 86_400_000;
 const DAY0 = Date.parse('2026-11-02T12:00:00Z');
 const SHAFT_HZ = 1480 / 60;
 const peakGOf = (vRms: number) => (vRms * Math.SQRT2 * 2 * Math.PI * SHAFT_HZ) / 9806.65;
-
-/** The app scrolls inside <main>; grow the viewport to the content so the shot shows it all. */
-async function tallShot(page: Page, name: string) {
-  const viewport = page.viewportSize()!;
-  // A string: the root tsconfig has no DOM types.
-  const height = await page.evaluate<number>(
-    `document.documentElement.clientHeight - document.querySelector('main').clientHeight + document.querySelector('main').scrollHeight`,
-  );
-  await page.setViewportSize({ width: viewport.width, height: Math.min(height, 8000) });
-  await screenshot(page, name);
-  await page.setViewportSize(viewport);
-}
 
 beforeAll(async () => {
   srv = await startTestServer();
@@ -116,7 +109,7 @@ describe('weekly review in a real browser', () => {
       /^\/points\/\d+$/,
     );
     await page.locator('#open-alerts').getByText('MFP-P101-MDE-H').first().waitFor();
-    await tallShot(page, 'review-planner');
+    await tallScreenshot(page, 'review-planner');
 
     await forecasts
       .getByRole('button', { name: `Create finding for ${RISING}, 1× running speed` })
@@ -158,7 +151,7 @@ describe('weekly review in a real browser', () => {
       "SELECT action FROM audit_log WHERE entity = 'finding' ORDER BY id",
     )) as unknown as [{ action: string }[]];
     expect(audit.map((a) => a.action)).toEqual(['finding.create', 'finding.planned']);
-    await tallShot(page, 'review-finding-planned');
+    await tallScreenshot(page, 'review-finding-planned');
 
     // Priority, owner and planned downtime change after creation, in the same form; bad
     // downtime is refused beside the field and nothing is sent.
@@ -199,7 +192,7 @@ describe('weekly review in a real browser', () => {
       owner: 'Mechanical crew B',
       plannedDowntimeHours: 6.5,
     });
-    await tallShot(page, 'review-finding-edited');
+    await tallScreenshot(page, 'review-finding-edited');
 
     // Filters: state and ISO due week (2026-11-20 is in 2026-W47, ISO 8601).
     await findings.getByLabel('State').selectOption('planned');
@@ -274,7 +267,7 @@ describe('weekly review in a real browser', () => {
     await signInAs(page, srv.url, 'planner');
     await page.goto(`${srv.url}/review?weekEnding=2026-11-15&weeksAhead=4`);
     await page.locator('#forecasts').getByRole('link', { name: RISING }).first().waitFor();
-    await tallShot(page, 'review-tablet');
+    await tallScreenshot(page, 'review-tablet');
     await page.context().close();
   });
 });

@@ -10,7 +10,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Locator, Page } from 'playwright-core';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
+import {
+  launchBrowser,
+  newPage,
+  screenshot,
+  signInAs,
+  tallScreenshot,
+} from '../support/browser.ts';
 import { gatewayKey, peakGFor } from '../support/alert-captures.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { focused, tabTo } from '../support/keyboard.ts';
@@ -84,18 +90,6 @@ afterAll(async () => {
   await srv?.stop();
 });
 
-/** The app scrolls inside <main>; grow the viewport to the content so the shot shows it all. */
-async function tallShot(page: Page, name: string) {
-  const viewport = page.viewportSize()!;
-  // A string: the root tsconfig has no DOM types.
-  const height = await page.evaluate<number>(
-    `document.documentElement.clientHeight - document.querySelector('main').clientHeight + document.querySelector('main').scrollHeight`,
-  );
-  await page.setViewportSize({ width: viewport.width, height: Math.min(height, 8000) });
-  await screenshot(page, name);
-  await page.setViewportSize(viewport);
-}
-
 /** The zoom keys' live line: "… : 0 Hz to 988.0 Hz" → [0, 988]. */
 async function shownWindow(page: Page): Promise<[number, number]> {
   const text =
@@ -162,7 +156,7 @@ describe('from an alert to the spectrum of its band', () => {
     // The header names the unusable newest capture and reads the latest usable one.
     await page.getByRole('note', { name: 'Capture quality' }).first().waitFor();
     await page.getByTestId('header-values-from').waitFor();
-    await tallShot(page, 'walk-2-spectrum-opened');
+    await tallScreenshot(page, 'walk-2-spectrum-opened');
 
     // A typed range, then the harmonic cursor by a click beside 1×: the window stays.
     await typeRange(page, 0, 200);
@@ -173,7 +167,7 @@ describe('from an alert to the spectrum of its band', () => {
     expect(Math.abs(Number(harmonic[0]![1]) - SHAFT_HZ)).toBeLessThanOrEqual(1.25);
     expect(Math.abs(Number(harmonic[0]![2]) - 1)).toBeLessThan(0.06);
     expect(harmonic[1]![0]).toBe('2×');
-    await tallShot(page, 'walk-3-harmonic-cursor');
+    await tallScreenshot(page, 'walk-3-harmonic-cursor');
 
     // The sideband cursor on the 212 Hz tone, spaced by 1× (the default spacing).
     await typeRange(page, 100, 330);
@@ -188,7 +182,7 @@ describe('from an alert to the spectrum of its band', () => {
     // The peaks table holds the 212 Hz tone above its stated floor.
     const peaks = await rows(page, 'Largest peaks in view');
     expect(peaks.some((r) => Math.abs(Number(r[1]) - 212) <= 1.25)).toBe(true);
-    await tallShot(page, 'walk-4-sideband-cursor');
+    await tallScreenshot(page, 'walk-4-sideband-cursor');
 
     // Cursors A and B: their difference.
     await typeRange(page, 0, 300);
@@ -202,7 +196,7 @@ describe('from an alert to the spectrum of its band', () => {
     // dB re ISO 1683: the axis title says so.
     await page.getByRole('radio', { name: 'dB' }).click();
     await page.getByRole('img', { name: /in dB re ISO 1683 \(mm\/s RMS\)/ }).waitFor();
-    await tallShot(page, 'walk-5-cursors-ab-db');
+    await tallScreenshot(page, 'walk-5-cursors-ab-db');
     await page.getByRole('radio', { name: 'Linear' }).click();
 
     // Compare with the first capture: overlay, the change per line, and one hover box with both.
@@ -229,7 +223,7 @@ describe('from an alert to the spectrum of its band', () => {
     // The unusable capture: its reason on the spectrum view.
     await page.getByLabel('Snapshot', { exact: true }).selectOption(String(unusableId));
     await page.getByText(/is unusable: read this spectrum with care/).waitFor();
-    await tallShot(page, 'walk-7-unusable-capture');
+    await tallScreenshot(page, 'walk-7-unusable-capture');
 
     // Last step: the waterfall's hover readout (date, frequency, order, amplitude).
     await page.getByRole('tab', { name: 'Waterfall' }).click();
@@ -267,7 +261,7 @@ describe('from an alert to the spectrum of its band', () => {
     expect(widths.doc).toBeLessThanOrEqual(widths.view);
     const box = (await chart.boundingBox())!;
     expect(box.width).toBeGreaterThan(500);
-    await tallShot(page, 'walk-9-tablet-spectrum');
+    await tallScreenshot(page, 'walk-9-tablet-spectrum');
     await page.context().close();
   });
 
@@ -367,7 +361,7 @@ describe('from an alert to the spectrum of its band', () => {
     const dHz = Number(/^(-?[\d.]+) Hz/.exec(delta)![1]);
     expect(Math.abs(dHz - (212 - SHAFT_HZ))).toBeLessThanOrEqual(2.5);
     expect(await shownWindow(page)).toEqual([0, 988]);
-    await tallShot(page, 'walk-keys-2-cursors-set');
+    await tallScreenshot(page, 'walk-keys-2-cursors-set');
     await page.context().close();
   });
 });

@@ -71,6 +71,18 @@ export function withServerAndBrowser(
   });
 }
 
+/** The app scrolls inside <main>; grow the viewport to the content so the shot shows it all. */
+export async function tallScreenshot(page: Page, name: string): Promise<void> {
+  const viewport = page.viewportSize()!;
+  // A string: the root tsconfig has no DOM types.
+  const height = await page.evaluate<number>(
+    `document.documentElement.clientHeight - document.querySelector('main').clientHeight + document.querySelector('main').scrollHeight`,
+  );
+  await page.setViewportSize({ width: viewport.width, height: Math.min(height, 8000) });
+  await screenshot(page, name);
+  await page.setViewportSize(viewport);
+}
+
 /** The chart with this accessible name, once its canvas is drawn. */
 export async function chartCanvas(page: Page, label: RegExp) {
   const chart = page.getByRole('img', { name: label });

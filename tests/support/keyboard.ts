@@ -20,15 +20,26 @@ export const focused = (page: Page) =>
   );
 
 /** Presses Tab (or Shift+Tab) until the focused element passes `test`; fails after `max` presses. */
-export async function tabTo(
+export function tabTo(
   page: Page,
   test: (f: Focused) => boolean,
+  what: string,
+  options: { back?: boolean; max?: number } = {},
+) {
+  return tabUntil(page, focused, test, what, options);
+}
+
+/** {@link tabTo} with a test's own description of the focused element (`read`). */
+export async function tabUntil<F>(
+  page: Page,
+  read: (page: Page) => Promise<F>,
+  test: (f: F) => boolean,
   what: string,
   { back = false, max = 150 } = {},
 ) {
   for (let i = 0; i < max; i++) {
     await page.keyboard.press(back ? 'Shift+Tab' : 'Tab');
-    if (test(await focused(page))) return;
+    if (test(await read(page))) return;
   }
   throw new Error(`Tab never reached ${what}`);
 }

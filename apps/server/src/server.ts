@@ -21,6 +21,7 @@ import { ensureWebBuilt } from './lib/web-build.ts';
 import { backup } from './backup/backup.ts';
 import { seedIfEmpty } from './features/demo/demo-seed.ts';
 import { fillMissingBandDaySums } from './features/analysis/band-day-sums.ts';
+import { fillMissingBandHours } from './features/analysis/band-hours.ts';
 import { checkDemoExposure } from './features/demo/demo-exposure.ts';
 import { createWorker, type Worker } from './features/worker/worker.ts';
 import { startMail, type MailRuntime } from './features/mail/mail-runtime.ts';
@@ -93,6 +94,7 @@ export async function start(env: Record<string, string | undefined> = {}): Promi
     });
     if (keyCheck === 'replaced') log.warn('session key replaced: every earlier session has ended');
     await fillMissingBandDaySums(ctx.db, say);
+    await fillMissingBandHours(ctx.db, say);
     if (config.SEED_DEMO) await seedIfEmpty(ctx, say);
     await checkDemoExposure(ctx);
     if (config.BUILD_WEB) await ensureWebBuilt(say);

@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { decimateTrend, TREND_MAX_BUCKETS } from './trend-decimation.ts';
+import {
+  decimateSpans,
+  decimateTrend,
+  HOUR_MS,
+  TREND_MAX_BUCKETS,
+  trendBuckets,
+  type TrendSpan,
+} from './trend-decimation.ts';
 import { mulberry32 } from '@turnstone/dsp/seeded-random';
 
 // The checks follow from the definition of min/max bucket aggregation (Jugel et al., "M4: a
@@ -25,10 +32,9 @@ describe('decimateTrend', () => {
   it('keeps every bucket’s lowest and highest value, in time order, and nothing else', () => {
     const { from, to, items } = yearOfValues(7);
     const { items: out, decimation } = decimateTrend(items, { from, to });
-    expect(decimation).toEqual({
-      total: items.length,
-      bucketMs: Math.ceil((to - from + 1) / TREND_MAX_BUCKETS),
-    });
+    // 8,760 h / 300 buckets = 29.2 h, rounded up to whole hours (our rule: buckets of an hour
+    // or more are whole UTC hours, so stored hour summaries can fill them)
+    expect(decimation).toEqual({ total: items.length, bucketMs: 30 * HOUR_MS });
     const bucketMs = decimation!.bucketMs;
     const byBucket = new Map<number, { min: number; max: number }>();
     for (const x of items) {
@@ -68,5 +74,52 @@ describe('decimateTrend', () => {
     expect(r.decimation).toBeNull();
     expect(r.items).toEqual(items);
     expect(decimateTrend([], { from: 0, to: 1 })).toEqual({ items: [], decimation: null });
+  });
+
+  it('buckets of an hour or more are whole UTC hours from a UTC hour', () => {
+    const from = Date.UTC(2026, 2, 29, 0, 17, 3, 5);
+    expect(trendBuckets(from, from + 365 * DAY)).toEqual({
+      origin: Date.UTC(2026, 2, 29, 0),
+      bucketMs: 30 * HOUR_MS,
+    });
+    // narrower than an hour: from `from`, as wide as 300 buckets need
+    expect(trendBuckets(from, from + 5 * DAY)).toEqual({
+      origin: from,
+      bucketMs: Math.ceil((5 * DAY + 1) / TREND_MAX_BUCKETS),
+    });
+  });
+});
+
+describe('decimateSpans', () => {
+  it('gives from hour summaries what decimateTrend gives from every value', () => {
+    const { items } = yearOfValues(5);
+    // values to one decimal, so ties within an hour are common; a period starting mid-hour
+    const tied = items.map((x) => ({ ...x, v: Math.round(x.v * 10) / 10 }));
+    const from = tied[0]!.t + 1_234_567;
+    const to = tied.at(-1)!.t - 2_345_678;
+    const inside = tied.filter((x) => x.t >= from && x.t <= to);
+    const keep = new Set([17, 9_000, 33_333]);
+    const raw = decimateTrend(inside, { from, to, keep });
+    // summaries grouped here: whole hours in the middle, single values in the partial hours
+    const hStart = Math.ceil(from / HOUR_MS) * HOUR_MS;
+    const hEnd = Math.floor((to + 1) / HOUR_MS) * HOUR_MS;
+    const spans: TrendSpan<(typeof inside)[number]>[] = [];
+    for (const x of inside) {
+      const last = spans.at(-1);
+      const whole = x.t >= hStart && x.t < hEnd;
+      if (whole && last && Math.floor(last.lo.t / HOUR_MS) === Math.floor(x.t / HOUR_MS)) {
+        last.n++;
+        if (x.v < last.lo.v) last.lo = x;
+        if (x.v > last.hi.v) last.hi = x;
+      } else spans.push({ n: 1, lo: x, hi: x });
+    }
+    const fromSpans = decimateSpans(spans, {
+      from,
+      to,
+      first: inside[0]!,
+      last: inside.at(-1)!,
+      keep: [...keep].map((i) => inside[i]!),
+    });
+    expect(fromSpans).toEqual(raw);
   });
 });

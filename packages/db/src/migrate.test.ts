@@ -50,11 +50,13 @@ describe('codeMigrations', () => {
     expect(all.map((m) => m.when)).toEqual([...all.map((m) => m.when)].sort((a, b) => a - b));
     // The audit log's backfill, the points' site backfill (tags unique per site: the global
     // tag index is dropped) and the monthly partitioning (foreign keys dropped, the three
-    // capture tables rebuilt) rewrite rows; the other committed migrations only add.
+    // capture tables rebuilt) and the bytes-per-capture step (thinned summaries trimmed, an
+    // index dropped, JSON columns compressed) rewrite rows; the others only add.
     expect(all.filter((m) => m.destructive.length > 0).map((m) => m.tag)).toEqual([
       '0002_audit-site',
       '0009_point-tag-per-site',
       '0018_time-partitioning',
+      '0021_bytes-per-capture',
     ]);
   });
 });

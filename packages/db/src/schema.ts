@@ -20,7 +20,7 @@ import {
   varchar,
 } from 'drizzle-orm/mysql-core';
 import { sql } from 'drizzle-orm';
-import { jsonColumn, mediumBlob } from './column-types.ts';
+import { compressedJsonColumn, jsonColumn, mediumBlob } from './column-types.ts';
 
 const id = () => int('id').autoincrement().primaryKey();
 const bigId = () => bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey();
@@ -376,7 +376,7 @@ export const snapshots = mysqlTable(
     fullScaleV: double('full_scale_v').notNull(),
     sensitivityMvPerG: double('sensitivity_mv_per_g').notNull(),
     speedRpm: double('speed_rpm'),
-    tach: jsonColumn<{ pulseTimesS: number[]; pulsesPerRev: number } | null>('tach'),
+    tach: compressedJsonColumn<{ pulseTimesS: number[]; pulsesPerRev: number } | null>('tach'),
     /** Little-endian samples in `encoding`, coded by `samplesCodec`; null once expired by retention. */
     samples: mediumBlob('samples'),
     /**
@@ -467,8 +467,13 @@ export const analyses = mysqlTable(
     qualityVerdict: mysqlEnum('quality_verdict', verdictEnum).notNull(),
     bitsUsed: double('bits_used'),
     qualityFindings: jsonColumn<unknown[]>('quality_findings').notNull(),
-    /** Peaks, fault frequencies and spectrum axes (df, units) as the dsp package returns them. */
-    summary: jsonColumn<Record<string, unknown>>('summary').notNull(),
+    /**
+     * What every capture keeps for ever besides its scalars (record shape, overall-value
+     * bands, speed); the detail a capture with spectra needs (axes, peaks, fault
+     * frequencies) is stored in `spectra` (features/points/stored-summary.ts). Rows written
+     * before hold that detail here too.
+     */
+    summary: compressedJsonColumn<Record<string, unknown>>('summary').notNull(),
     /**
      * All of the analysis's spectra in one BLOB: 16-bit log-amplitude codes, deflated
      * (`@turnstone/db/spectra-codec`, worst-case relative error 5.76e-4). Null on rows
@@ -491,9 +496,9 @@ export const analyses = mysqlTable(
      * which 1×-family hints counted (`@turnstone/condition` diagnose); null for analyses
      * stored before hints were kept.
      */
-    diagnosis: jsonColumn<Record<string, unknown> | null>('diagnosis'),
+    diagnosis: compressedJsonColumn<Record<string, unknown> | null>('diagnosis'),
     /** 1× and 2× vectors against the tach pulse (`@turnstone/dsp` shaftVectors); null without a tach. */
-    shaftVectors: jsonColumn<Record<string, unknown>[] | null>('shaft_vectors'),
+    shaftVectors: compressedJsonColumn<Record<string, unknown>[] | null>('shaft_vectors'),
     createdAt: createdAt(),
   },
   (t) => [
@@ -585,15 +590,9 @@ export const bandValues = mysqlTable(
     primaryKey({ columns: [t.id, t.takenAt] }),
     uniqueIndex('band_values_analysis_band_uq').on(t.analysisId, t.bandKey, t.takenAt),
     index('band_values_trend_idx').on(t.pointId, t.bandKey, t.takenAt),
-    // The weekly review's daily means of every band of a point over six weeks: a range of
-    // this index per point, covering, so no row is read (review-repository dailyMeans).
-    index('band_values_point_time_idx').on(
-      t.pointId,
-      t.takenAt,
-      t.bandKey,
-      t.qualityVerdict,
-      t.value,
-    ),
+    // (band_values_point_time_idx, a covering index for the weekly review's daily means, was
+    // dropped in 0021: band_day_sums serves those since 0019, and it was a fifth of the
+    // table's bytes per capture.)
   ],
 );
 
@@ -620,6 +619,38 @@ export const bandDaySums = mysqlTable(
     sumTakenMs: double('sum_taken_ms').notNull(),
   },
   (t) => [primaryKey({ columns: [t.pointId, t.day, t.bandKey] })],
+);
+
+/**
+ * Each point's band values summed by UTC hour: the count and sum, and the hour's lowest and
+ * highest value with the capture they came from (the first in time order, then analysis id,
+ * when values tie). The trend reads these instead of the raw values when its buckets are an
+ * hour or wider (points/trend-values.ts), so a year is 8,760 rows a band, not 52,560. Kept
+ * exactly: every write or deletion of band values recomputes the hours it touched from
+ * `band_values` in the same transaction (analysis/band-hours-repository.ts); a dropped
+ * month partition takes its hours with it. Hours are UTC whatever the site's zone.
+ */
+export const bandValueHours = mysqlTable(
+  'band_value_hours',
+  {
+    pointId: ref('point_id')
+      .notNull()
+      .references(() => points.id, { onDelete: 'cascade' }),
+    bandKey: varchar('band_key', { length: 64 }).notNull(),
+    /** Start of the UTC hour. */
+    hourAt: datetime('hour_at', { mode: 'date' }).notNull(),
+    n: int('n').notNull(),
+    sumValue: double('sum_value').notNull(),
+    minValue: double('min_value').notNull(),
+    minAt: at('min_at').notNull(),
+    minAnalysisId: bigRef('min_analysis_id').notNull(),
+    minQuality: mysqlEnum('min_quality', verdictEnum).notNull(),
+    maxValue: double('max_value').notNull(),
+    maxAt: at('max_at').notNull(),
+    maxAnalysisId: bigRef('max_analysis_id').notNull(),
+    maxQuality: mysqlEnum('max_quality', verdictEnum).notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.pointId, t.bandKey, t.hourAt] })],
 );
 
 export const alerts = mysqlTable(

@@ -1,7 +1,9 @@
 import { describe, expect, it } from 'vitest';
+import { deflateRawSync, inflateRawSync } from 'node:zlib';
 import { analyzeSnapshot } from '@turnstone/dsp';
 import {
   decodeSpectra,
+  decodeSpectraDetail,
   encodeSpectra,
   SPECTRA_MAX_RELATIVE_ERROR,
   SPECTRA_RANGE_DB,
@@ -160,5 +162,34 @@ describe('stored spectra: 16-bit log-amplitude code, deflated', () => {
     const got = storedSpectrum(both, 'acceleration')!;
     expect(got[1]).toBe(0);
     expect(Math.abs(got[2]! - 2) / 2).toBeLessThanOrEqual(SPECTRA_MAX_RELATIVE_ERROR);
+  });
+
+  it('carries a detail (JSON) with the spectra, and reads BLOBs written without one', () => {
+    // common practice, no source: a JSON value survives its own round trip unchanged.
+    const detail = {
+      peaks: [{ hz: 24.75, order: 1, amplitude: 0.0123 }],
+      spectra: { velocity: { unit: 'mm/s', scale: 'rms', dfHz: 0.625, lines: 2 } },
+      note: 'ünïcode ✓',
+    };
+    const values = [3, 0, 1.5e-4, 2];
+    const withDetail = encodeSpectra({ acceleration: values, velocity: [1, 2] }, detail);
+    expect(withDetail[0]).toBe(2);
+    expect(decodeSpectraDetail(withDetail)).toEqual(detail);
+    const out = decodeSpectra(withDetail);
+    expect(maxRelativeError(values, out.acceleration!)).toBeLessThanOrEqual(
+      SPECTRA_MAX_RELATIVE_ERROR,
+    );
+    expect(decodeSpectra(withDetail, 'velocity').velocity![1]).toBe(2);
+    // The same spectra without a detail: format 1 as before, the detail undefined.
+    const plain = encodeSpectra({ acceleration: values, velocity: [1, 2] });
+    expect(plain[0]).toBe(1);
+    expect(decodeSpectraDetail(plain)).toBeUndefined();
+    expect(decodeSpectra(plain)).toEqual(out);
+    // A detail cut short is refused, not read as something else.
+    const cut = Buffer.concat([
+      Buffer.from([2]),
+      deflateRawSync(Buffer.concat([inflateRawSync(withDetail.subarray(1)).subarray(0, -2)])),
+    ]);
+    expect(() => decodeSpectraDetail(cut)).toThrow(SyntaxError);
   });
 });

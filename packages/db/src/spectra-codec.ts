@@ -13,12 +13,17 @@
  * (2^−24). Lines more than 655.34 dB below the spectrum's largest decode as 0. Amplitude
  * levels in dB (20·log10 of a field-quantity ratio): ISO 80000-3 / IEC 60027-3.
  *
- * Layout (little-endian): byte 0 format version (1); the rest deflated (RFC 1951):
+ * Layout (little-endian): byte 0 format version (1, or 2 with a detail); the rest deflated
+ * (RFC 1951):
  *   byte mask of the spectra present (bit 0 acceleration, 1 velocity, 2 envelope, 3 order),
  *   per present spectrum: uint32 lines, float64 ref;
  *   per present spectrum: the high bytes then the low bytes of its codes' zig-zagged
  *   differences from the previous line (neighbouring lines differ little, so the high bytes
- *   are mostly 0 and deflate well).
+ *   are mostly 0 and deflate well);
+ *   format 2 only: the detail, UTF-8 JSON, to the end. The detail is what only a capture that
+ *   keeps its spectra needs (the server's stored-summary.ts says what: the spectra's axes,
+ *   peaks, fault frequencies); it lives and goes with the spectra, so retention thinning
+ *   (which clears this column) takes it too, and it deflates with them.
  *
  * Rows written before this column existed hold float32 BLOBs in four columns;
  * {@link storedSpectrum} reads either.
@@ -40,11 +45,15 @@ export const SPECTRA_RANGE_DB = 65534 * SPECTRA_STEP_DB;
 export const SPECTRA_MAX_RELATIVE_ERROR = 10 ** (SPECTRA_STEP_DB / 2 / 20) - 1 + 2 ** -24;
 
 const FORMAT = 1;
+const FORMAT_WITH_DETAIL = 2;
 const TOP = 65535;
 const HEADER_BYTES = 12;
 
-/** One analysis's spectra → the stored BLOB. Throws RangeError on NaN, infinite or negative lines. */
-export function encodeSpectra(spectra: SpectraIn): Buffer {
+/**
+ * One analysis's spectra (and, when given, its detail: any JSON value) → the stored BLOB.
+ * Throws RangeError on NaN, infinite or negative lines.
+ */
+export function encodeSpectra(spectra: SpectraIn, detail?: unknown): Buffer {
   let mask = 0;
   const present: { lines: number; ref: number; codes: Uint16Array }[] = [];
   SPECTRUM_KINDS.forEach((kind, bit) => {
@@ -76,7 +85,12 @@ export function encodeSpectra(spectra: SpectraIn): Buffer {
     }
     at += 2 * n;
   }
-  return Buffer.concat([Buffer.from([FORMAT]), deflateRawSync(body)]);
+  if (detail === undefined) return Buffer.concat([Buffer.from([FORMAT]), deflateRawSync(body)]);
+  const json = Buffer.from(JSON.stringify(detail), 'utf8');
+  return Buffer.concat([
+    Buffer.from([FORMAT_WITH_DETAIL]),
+    deflateRawSync(Buffer.concat([body, json])),
+  ]);
 }
 
 function encodeOne(
@@ -113,7 +127,22 @@ function encodeOne(
  * stay null (a reader of one spectrum skips decoding the rest). Throws on a damaged BLOB.
  */
 export function decodeSpectra(blob: Uint8Array, only?: SpectrumKind): SpectraOut {
-  if (blob.length < 1 || blob[0] !== FORMAT)
+  return decodeBlob(blob, only).spectra;
+}
+
+/**
+ * The detail stored with the spectra (format 2), parsed from JSON; undefined for a BLOB
+ * written without one (format 1: that analysis keeps its detail in its summary).
+ */
+export function decodeSpectraDetail(blob: Uint8Array): unknown {
+  return decodeBlob(blob, 'none').detail;
+}
+
+function decodeBlob(
+  blob: Uint8Array,
+  only?: SpectrumKind | 'none',
+): { spectra: SpectraOut; detail: unknown } {
+  if (blob.length < 1 || (blob[0] !== FORMAT && blob[0] !== FORMAT_WITH_DETAIL))
     throw new RangeError(`stored spectra: unknown format ${blob[0] ?? 'of an empty BLOB'}`);
   const body = inflateRawSync(blob.subarray(1));
   const out: SpectraOut = { acceleration: null, velocity: null, envelope: null, order: null };
@@ -126,8 +155,12 @@ export function decodeSpectra(blob: Uint8Array, only?: SpectrumKind): SpectraOut
     return head;
   });
   const total = heads.reduce((s, h) => s + 2 * h.lines, at);
-  if (total !== body.length)
+  const withDetail = blob[0] === FORMAT_WITH_DETAIL;
+  if (withDetail ? total > body.length : total !== body.length)
     throw new RangeError(`stored spectra: ${body.length} bytes where the header says ${total}`);
+  const detail = withDetail
+    ? (JSON.parse(body.subarray(total).toString('utf8')) as unknown)
+    : undefined;
   const factor = levelFactors();
   kinds.forEach((kind, k) => {
     const { lines: n, ref } = heads[k]!;
@@ -145,7 +178,7 @@ export function decodeSpectra(blob: Uint8Array, only?: SpectrumKind): SpectraOut
     at += 2 * n;
     out[kind] = values;
   });
-  return out;
+  return { spectra: out, detail };
 }
 
 let factors: Float64Array | null = null;

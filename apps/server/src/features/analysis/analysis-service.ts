@@ -16,7 +16,7 @@ import {
 } from '../queue/queue-repository.ts';
 import * as repo from './analysis-repository.ts';
 import * as limitSets from '../limits/limit-set-repository.ts';
-import { storedSummaryOf } from '../points/stored-summary.ts';
+import { storedAnalysisOf, type StoredSummary } from '../points/stored-summary.ts';
 import { diagnosisOf } from './diagnosis-step.ts';
 import { machineComponentsOf } from '../points/machine-components.ts';
 import { combineBandValues, toDspBands } from './band-mapping.ts';
@@ -25,6 +25,7 @@ import { queueAlertMail } from '../notify/alert-change-hook.ts';
 import { templateBandsFor } from '../limits/limits-service.ts';
 import { storedSampleBytes } from '../ingest/sample-storage.ts';
 import { addBandDaySums } from './band-day-sums-repository.ts';
+import { refreshBandHours } from './band-hours-repository.ts';
 import { daySumsOf } from './band-day-sums.ts';
 
 export class PermanentJobError extends Error {}
@@ -69,8 +70,10 @@ export interface PreparedAnalysis {
   pc: repo.PointContext;
   limitSet: limitSets.StoredLimitSet;
   analysis: SnapshotAnalysis;
-  /** The analysis's spectra in their stored form (one compact BLOB). */
+  /** The analysis's spectra in their stored form (one compact BLOB, with their detail). */
   spectra: Buffer;
+  /** The summary kept for ever (stored-summary.ts). */
+  summary: StoredSummary;
   values: Record<string, number | null>;
   zone: 'A' | 'B' | 'C' | 'D' | null;
 }
@@ -143,6 +146,7 @@ function prepareOne(
   );
   let analysis: SnapshotAnalysis;
   let spectra: Buffer;
+  let summary: StoredSummary;
   try {
     analysis = analyzeSnapshot({
       samples,
@@ -163,12 +167,17 @@ function prepareOne(
     });
     // Encoded here, outside the batch's transaction: a spectrum the code cannot hold (a
     // NaN line) fails its own job, not the batch.
-    spectra = encodeSpectra({
-      acceleration: analysis.spectra.acceleration.values,
-      velocity: analysis.spectra.velocity.values,
-      envelope: analysis.spectra.envelope?.values,
-      order: analysis.spectra.order?.values,
-    });
+    const stored = storedAnalysisOf(analysis);
+    summary = stored.summary;
+    spectra = encodeSpectra(
+      {
+        acceleration: analysis.spectra.acceleration.values,
+        velocity: analysis.spectra.velocity.values,
+        envelope: analysis.spectra.envelope?.values,
+        order: analysis.spectra.order?.values,
+      },
+      stored.detail,
+    );
   } catch (err) {
     if (err instanceof RangeError || err instanceof TypeError)
       throw new PermanentJobError(`analysis refused the snapshot: ${err.message}`);
@@ -179,7 +188,7 @@ function prepareOne(
   const zone = Number.isFinite(analysis.overall.velocityRmsMmS)
     ? isoZone(analysis.overall.velocityRmsMmS, group, pc.machine.foundation)
     : null;
-  return { job, snap, pc, limitSet, analysis, spectra, values, zone };
+  return { job, snap, pc, limitSet, analysis, spectra, summary, values, zone };
 }
 
 /**
@@ -241,7 +250,7 @@ export async function storeAnalyses(
     const ids = await repo.insertAnalyses(
       tx,
       batch.map((p) => {
-        const { snap, analysis, spectra, zone } = p;
+        const { snap, analysis, spectra, summary, zone } = p;
         return {
           snapshotId: snap.id,
           pointId: snap.pointId,
@@ -258,7 +267,7 @@ export async function storeAnalyses(
           qualityVerdict: analysis.quality.verdict,
           bitsUsed: analysis.quality.bitsUsed,
           qualityFindings: analysis.quality.findings,
-          summary: storedSummaryOf(analysis),
+          summary,
           spectra,
           diagnosis: diagnosisOf(p, condition.stateOf(snap.pointId)),
           shaftVectors: analysis.shaftVectors as unknown as Record<string, unknown>[] | null,
@@ -279,6 +288,11 @@ export async function storeAnalyses(
         })),
     );
     await repo.insertBandValues(tx, bandRows);
+    // the hours these values fall in, recomputed (a late capture lands in an old hour)
+    await refreshBandHours(
+      tx,
+      bandRows.map((r) => ({ pointId: r.pointId, hourAt: r.takenAt })),
+    );
     const zoneOf = new Map(batch.map((p) => [p.snap.pointId, p.pc.siteTimeZone]));
     await addBandDaySums(
       tx,

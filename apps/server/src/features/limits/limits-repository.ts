@@ -29,17 +29,30 @@ export async function pointHistory(db: Db, pointId: number, limit = 5000) {
     .orderBy(desc(analyses.takenAt))
     .limit(limit);
   rows.reverse();
-  const first = rows[0];
-  const values = first
-    ? await db
+  // The band values of exactly these analyses: ranges of band_values_analysis_band_uq
+  // (analysis_id first), a thousand analyses a query; the time bound leaves out the
+  // partitions before the first.
+  const values: { analysisId: number; bandKey: string; value: number }[] = [];
+  for (let i = 0; i < rows.length; i += 1000)
+    values.push(
+      ...(await db
         .select({
           analysisId: bandValues.analysisId,
           bandKey: bandValues.bandKey,
           value: bandValues.value,
         })
         .from(bandValues)
-        .where(and(eq(bandValues.pointId, pointId), gte(bandValues.takenAt, first.takenAt)))
-    : [];
+        .where(
+          and(
+            eq(bandValues.pointId, pointId),
+            gte(bandValues.takenAt, rows[0]!.takenAt),
+            inArray(
+              bandValues.analysisId,
+              rows.slice(i, i + 1000).map((r) => r.id),
+            ),
+          ),
+        )),
+    );
   return { analyses: rows, values };
 }
 

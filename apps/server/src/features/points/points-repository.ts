@@ -133,12 +133,6 @@ export async function recentBandValues(db: Db, pointId: number, bandKey: string,
 }
 
 /**
- * One band of one point in a period, oldest first: a range scan of band_values_trend_idx
- * (point_id, band_key, taken_at). Raw SQL with the time as epoch milliseconds: a year of
- * hourly values is ≈ 8,800 rows, and building a Date per row through the ORM cost more
- * than the query itself.
- */
-/**
  * The remembered evaluation state of each band of a point (its baseline), by band key; a band
  * before its first value is absent. What `levelsInForce` needs to decide the levels the
  * worker uses.
@@ -153,27 +147,6 @@ export async function bandStatesOf(db: Db | Tx, pointId: number) {
   const out = new Map<string, BandState>();
   for (const [key, track] of Object.entries(tracks)) if (track?.band) out.set(key, track.band);
   return out;
-}
-
-export async function bandTrend(
-  db: Db,
-  pointId: number,
-  bandKey: string,
-  from: Date,
-  to: Date,
-): Promise<
-  { t: number; value: number; quality: 'ok' | 'suspect' | 'unusable'; analysisId: number }[]
-> {
-  const [rows] = (await db.execute(sql`
-    SELECT CAST(UNIX_TIMESTAMP(taken_at) * 1000 AS SIGNED) AS t, value, quality_verdict AS quality,
-           analysis_id AS analysisId
-    FROM band_values FORCE INDEX (band_values_trend_idx)
-    WHERE point_id = ${pointId} AND band_key = ${bandKey}
-      AND taken_at >= ${from} AND taken_at <= ${to}
-    ORDER BY taken_at`)) as unknown as [
-    { t: number; value: number; quality: 'ok' | 'suspect' | 'unusable'; analysisId: number }[],
-  ];
-  return rows;
 }
 
 /** The overall-value bands (isoBandHz, accelBandHz) recorded in analyses' summaries. */

@@ -2,7 +2,8 @@
  * Stored spectra of a point's captures: one spectrum with its peaks and fault frequencies, and
  * the waterfall of recent captures. Spectra are stored in one compact BLOB per analysis (or,
  * for rows written before it, four float32 BLOBs), read through `@turnstone/db/spectra-codec`
- * and sent to the browser as base64 of float32.
+ * and sent to the browser as base64 of float32. Their axes, peaks and fault frequencies are
+ * the analysis's stored detail (stored-summary.ts), kept with the spectra.
  */
 
 import type { Spectrum, SpectrumKind } from '@turnstone/contracts/points';
@@ -15,7 +16,7 @@ import { accessiblePoint } from '../places/point-access.ts';
 import { type SessionUser } from '../../lib/session-user.ts';
 
 import * as repo from './points-repository.ts';
-import { readStoredSummary } from './stored-summary.ts';
+import { readStoredDetail, readStoredSummary } from './stored-summary.ts';
 import { accessibleAnalysis } from './points-service.ts';
 
 const iso = (d: Date) => d.toISOString();
@@ -74,7 +75,8 @@ export async function spectrum(
   const { analysis } = await accessibleAnalysis(ctx, user, analysisId);
   if (analysis.spectraThinnedAt) throw await thinnedError(ctx, analysis);
   const summary = readStoredSummary(analysis.summary);
-  const meta = summary.spectra?.[kind] ?? null;
+  const detail = readStoredDetail(analysis);
+  const meta = detail.spectra?.[kind] ?? null;
   const values = storedSpectrum(analysis, kind);
   if (!meta || !values)
     throw new AppError(
@@ -89,8 +91,8 @@ export async function spectrum(
   const shaftHz = shaftHzOf(speed);
   const step = axis === 'order' ? (meta.dOrder ?? 0) : (meta.dfHz ?? 0);
   const peaks =
-    kind === 'acceleration' && summary.peaks
-      ? summary.peaks.map((p) => ({ hz: p.hz, order: p.order, amplitude: p.amplitude }))
+    kind === 'acceleration' && detail.peaks
+      ? detail.peaks.map((p) => ({ hz: p.hz, order: p.order, amplitude: p.amplitude }))
       : simplePeaks(values).map((p) => {
           const x = p.index * step;
           return axis === 'order'
@@ -109,7 +111,7 @@ export async function spectrum(
     lines: values.length,
     values: base64Of(values)!,
     peaks,
-    faultFrequencies: (summary.faultFrequencies ?? []).map((f) => ({
+    faultFrequencies: (detail.faultFrequencies ?? []).map((f) => ({
       name: f.name,
       kind: f.kind,
       hz: f.hz,
@@ -134,7 +136,7 @@ export async function waterfall(
   const items: Waterfall['items'] = [];
   for (const r of rows) {
     const summary = readStoredSummary(r.summary);
-    const meta = summary.spectra?.[kind];
+    const meta = readStoredDetail(r).spectra?.[kind];
     const values = meta ? readSpectrumBase64(kind, r.spectra, r.legacy) : null;
     if (!meta || !values) continue;
     unit = meta.unit;

@@ -1,12 +1,18 @@
 /**
- * The analysis summary JSON stored with every analysis (`analyses.summary`): what the web app
- * needs to draw the stored spectra besides their values, the speed, the peaks and the
- * fault frequencies. One schema serves the writer (`storedSummaryOf`, typed by it) and every
- * reader (`readStoredSummary`, parsed by it). Fields added over time are optional, so rows
- * written by older versions still read.
+ * The analysis summary JSON stored with every analysis, in two parts by how long they live:
+ * - the summary (`analyses.summary`), kept for ever with the capture's scalar values: the
+ *   record's shape (rate, length, fmax), the bands of the overall values, the SNR, the speed;
+ * - the detail, what only a capture that keeps its spectra needs (the spectra's axes and
+ *   units, the peaks, the fault frequencies, the quality metrics): stored inside the spectra
+ *   BLOB (`encodeSpectra`'s detail), so retention thinning takes it with the spectra.
+ * One schema serves the writer (`storedAnalysisOf`, typed by it) and every reader
+ * (`readStoredSummary`, `readStoredDetail`, parsed by it). Rows written before the split hold
+ * the detail's fields in the summary itself; the schema keeps them, optional, so those rows
+ * still read, and `readStoredDetail` takes them from there.
  */
 import { z } from 'zod';
 import type { SnapshotAnalysis } from '@turnstone/dsp';
+import { decodeSpectraDetail } from '@turnstone/db/spectra-codec';
 import { faultFrequencySchema, speedSourceSchema } from '@turnstone/contracts/points';
 
 const bandHz = z.tuple([z.number(), z.number()]);
@@ -37,7 +43,7 @@ export const storedSummarySchema = z.object({
   isoBandHz: bandHz.nullish(),
   accelBandHz: bandHz.nullish(),
   snrDb: z.number().nullish(),
-  qualityMetrics: z.unknown(),
+  qualityMetrics: z.unknown().optional(),
   speed: z
     .object({ rpm: z.number().nullable(), hz: z.number().nullable(), source: speedSourceSchema })
     .optional(),
@@ -56,25 +62,55 @@ export const storedSummarySchema = z.object({
 });
 export type StoredSummary = z.infer<typeof storedSummarySchema>;
 
+/** The fields that live with the spectra (in rows written before the split: in the summary). */
+export const storedDetailSchema = storedSummarySchema.pick({
+  qualityMetrics: true,
+  spectra: true,
+  peaks: true,
+  faultFrequencies: true,
+});
+export type StoredDetail = z.infer<typeof storedDetailSchema>;
+
 /** A stored summary, checked against the schema that wrote it (a malformed row throws). */
 export function readStoredSummary(json: unknown): StoredSummary {
   return storedSummarySchema.parse(json);
 }
 
-/** The summary of an analysis as stored. */
-export function storedSummaryOf(a: SnapshotAnalysis): StoredSummary {
+/**
+ * The detail of an analysis that still has its spectra: from its spectra BLOB, or, for a row
+ * written before the split (its BLOB holds no detail, or it has only the old float32
+ * columns), from its summary. Parsed with the schema that wrote it.
+ */
+export function readStoredDetail(row: { summary: unknown; spectra: Buffer | null }): StoredDetail {
+  const inBlob = row.spectra ? decodeSpectraDetail(row.spectra) : undefined;
+  return storedDetailSchema.parse(inBlob ?? row.summary);
+}
+
+/** An analysis as stored: the summary kept for ever, and the detail kept with the spectra. */
+export function storedAnalysisOf(a: SnapshotAnalysis): {
+  summary: StoredSummary;
+  detail: StoredDetail;
+} {
   return {
-    schemaVersion: a.schemaVersion,
-    sampleRateHz: a.sampleRateHz,
-    sampleCount: a.sampleCount,
-    durationS: a.durationS,
-    fmaxHz: a.fmaxHz,
-    isoBand: a.overall.isoBand,
-    isoBandHz: a.overall.isoBandHz,
-    accelBandHz: a.overall.accelBandHz,
-    snrDb: a.quality.snrDb,
+    summary: {
+      schemaVersion: a.schemaVersion,
+      sampleRateHz: a.sampleRateHz,
+      sampleCount: a.sampleCount,
+      durationS: a.durationS,
+      fmaxHz: a.fmaxHz,
+      isoBand: a.overall.isoBand,
+      isoBandHz: a.overall.isoBandHz,
+      accelBandHz: a.overall.accelBandHz,
+      snrDb: a.quality.snrDb,
+      speed: a.speed,
+    },
+    detail: storedDetailOf(a),
+  };
+}
+
+function storedDetailOf(a: SnapshotAnalysis): StoredDetail {
+  return {
     qualityMetrics: a.quality.metrics,
-    speed: a.speed,
     spectra: {
       acceleration: {
         unit: a.spectra.acceleration.unit,

@@ -5,8 +5,7 @@
  */
 
 import { displayUnit, toDisplay } from '@turnstone/contracts/units';
-import { decimateTrend } from '@turnstone/condition/trend-decimation';
-import { levelsInForce, PROJECTION_WINDOW_DAYS, projectTrend } from '@turnstone/condition';
+import { levelsInForce, projectTrend } from '@turnstone/condition';
 
 import type { TrendResponse } from '@turnstone/contracts/trend';
 
@@ -20,6 +19,8 @@ import { limitChangesIn } from '../limits/limits-repository.ts';
 import * as repo from './points-repository.ts';
 import * as eventsRepo from './trend-events-repository.ts';
 import { bandLimitChanges } from './trend-events.ts';
+import { rawValues } from './trend-hours-repository.ts';
+import { trendValues } from './trend-values.ts';
 
 const DAY_MS = 86_400_000;
 /** Default trend period when none is given (the trend contract says 90 days). */
@@ -48,29 +49,6 @@ function period(q: { from?: string; to?: string }, now: number) {
   return { from, to };
 }
 
-/**
- * Indices of the values behind alert transitions: the latest value taken at or before each
- * event (rows oldest first), so thinning a long trend never hides why an alert changed.
- */
-function valuesAt(rows: readonly { t: unknown }[], events: readonly { at: Date }[]): Set<number> {
-  const keep = new Set<number>();
-  for (const e of events) {
-    const at = e.at.getTime();
-    let lo = 0;
-    let hi = rows.length - 1;
-    let found = -1;
-    while (lo <= hi) {
-      const mid = (lo + hi) >> 1;
-      if (Number(rows[mid]!.t) <= at) {
-        found = mid;
-        lo = mid + 1;
-      } else hi = mid - 1;
-    }
-    if (found >= 0) keep.add(found);
-  }
-  return keep;
-}
-
 export async function trend(
   ctx: AppContext,
   user: SessionUser,
@@ -79,12 +57,18 @@ export async function trend(
   now = Date.now(),
 ): Promise<TrendResponse> {
   const { from, to } = period(q, now);
+  const eventsP = repo.alertEventsOf(ctx.db, pointId, q.band, from, to);
+  const uploadsP = eventsRepo.uploadsOf(ctx.db, pointId, q.band, from, to);
+  // the values behind alert transitions and the uploaded captures stay in a thinned trend
+  const marksP = Promise.all([eventsP, uploadsP]).then(([events, uploads]) =>
+    [...events, ...uploads].map((e) => e.at),
+  );
   // All reads at once (the trend budget is 200 ms at p95); nothing is answered before the
   // access check has passed, and its error wins over any other.
   const [
     access,
     bandResult,
-    rowsResult,
+    valuesResult,
     eventsResult,
     findingsResult,
     stateResult,
@@ -93,12 +77,12 @@ export async function trend(
   ] = await Promise.allSettled([
     accessiblePoint(ctx.db, user, pointId),
     trendBand(ctx, pointId, q.band),
-    repo.bandTrend(ctx.db, pointId, q.band, from, to),
-    repo.alertEventsOf(ctx.db, pointId, q.band, from, to),
+    trendValues(ctx.db, pointId, q.band, from, to, marksP),
+    eventsP,
     repo.findingsOf(ctx.db, pointId, q.band, from, to),
     repo.bandStatesOf(ctx.db, pointId),
     limitChangesIn(ctx.db, pointId, from, to, eventsRepo.TREND_EVENT_CAP),
-    eventsRepo.uploadsOf(ctx.db, pointId, q.band, from, to),
+    uploadsP,
   ]);
   const settled = <T>(r: PromiseSettledResult<T>): T => {
     if (r.status === 'rejected') throw r.reason;
@@ -106,36 +90,20 @@ export async function trend(
   };
   settled(access);
   const band = settled(bandResult);
-  const rows = settled(rowsResult);
+  const values = settled(valuesResult);
   const events = settled(eventsResult);
   const findingRows = settled(findingsResult);
   const uploads = settled(uploadsResult);
   // the levels the worker alerts at (statistical once the baseline is complete), drawn and
   // projected to by the trend page
   const levels = levelsInForce(band, settled(stateResult).get(band.key));
-  const thinned = decimateTrend(
-    rows.map((r) => ({ t: Number(r.t), v: r.value, row: r })),
-    {
-      from: from.getTime(),
-      to: to.getTime(),
-      // the values behind alert transitions and the uploaded captures stay in a thinned trend
-      keep: valuesAt(rows, [...events, ...uploads]),
-    },
-  );
-  const items = thinned.items.map(({ row: r }) => ({
-    t: new Date(Number(r.t)).toISOString(),
+  const items = values.items.map((r) => ({
+    t: new Date(r.t).toISOString(),
     v: r.value,
     q: r.quality,
     analysisId: r.analysisId,
   }));
-  const latestAt = rows.length ? Number(rows[rows.length - 1]!.t) : 0;
-  const recent = [];
-  for (let i = rows.length - 1; i >= 0; i--) {
-    const r = rows[i]!;
-    const t = Number(r.t);
-    if (latestAt - t > PROJECTION_WINDOW_DAYS * DAY_MS) break;
-    recent.push({ takenAt: t, value: r.value, quality: r.quality });
-  }
+  const recent = values.recent.map((r) => ({ takenAt: r.t, value: r.value, quality: r.quality }));
   const p = projectTrend(recent, levels, { now: Math.min(now, to.getTime()) });
   return {
     pointId,
@@ -145,7 +113,7 @@ export async function trend(
       ? { mean: levels.baseline.mean, sigma: levels.baseline.sigma, count: levels.baseline.count }
       : null,
     items,
-    decimation: thinned.decimation,
+    decimation: values.decimation,
     projection: {
       outcome: p.outcome,
       model: p.fit?.model ?? null,
@@ -196,7 +164,7 @@ export async function trendCsv(
   const { point } = await accessiblePoint(ctx.db, user, pointId);
   const band = await trendBand(ctx, pointId, q.band);
   const { from, to } = period(q, now);
-  const rows = await repo.bandTrend(ctx.db, pointId, band.key, from, to);
+  const rows = await rawValues(ctx.db, pointId, band.key, from, to, true);
   // Values in the user's unit system (stored metric), named in the column: mm_per_s, in_per_s,
   // um, mil, g.
   const shownUnit = displayUnit(band.unit, user.unitSystem);

@@ -13,7 +13,8 @@
  *   (retention.ts's list), in which case the month stays and is thinned like any other.
  *   The rows of other tables that pointed at its captures (jobs, uids, quality notices,
  *   pins) are deleted first, in one transaction: partitioned tables take no foreign keys;
- *   the day sums of its days (band_day_sums) go with its band values (`dropMonth`).
+ *   the day sums of its days (band_day_sums) go with its band values (`dropMonth`), and so
+ *   do the trend's hour summaries of the month (band_value_hours).
  */
 import type { Db } from '@turnstone/db/client';
 import { isDuplicatePartition } from '@turnstone/db/errors';
@@ -26,6 +27,7 @@ import {
   type PartitionedTable,
 } from './partitions-repository.ts';
 import { forgetDroppedDays } from '../analysis/band-day-sums.ts';
+import { deleteHoursBetween } from '../analysis/band-hours-repository.ts';
 import { firstCapturesAfterLimitChanges, keptCaptureIn } from './retention-repository.ts';
 
 /** When the worker adds partitions ahead (node-cron, server time). */
@@ -122,7 +124,11 @@ async function dropMonth(
   const drop = async (table: PartitionedTable) => {
     if (present.get(table)!.has(name)) await dropPartition(db, table, name);
   };
+  // the month's hour summaries (UTC hours lie wholly in a UTC month): before the drop, and
+  // again after it for a late capture whose hour was written in between
+  await deleteHoursBetween(db, from, to);
   await drop('band_values');
+  await deleteHoursBetween(db, from, to);
   await forgetDroppedDays(db, from, to);
   await drop('analyses');
   await drop('snapshots');

@@ -23,7 +23,8 @@
  *
  * Thinning clears `spectra` and the four float32 columns of the rows written before it,
  * sets `spectra_thinned_at`, and drops the capture's raw waveform (a capture is either whole
- * or thinned); scalars, band values, summary (peaks, fault frequencies) and diagnosis stay,
+ * or thinned), and with the spectra their stored detail (axes, peaks, fault frequencies:
+ * features/points/stored-summary.ts); scalars, band values, summary and diagnosis stay,
  * so trends and alert history are whole.
  *
  * Raw waveforms of the captures that keep their spectra have a further horizon,

@@ -28,6 +28,7 @@ import {
 } from '../queue/queue-repository.ts';
 import { RETENTION_CRON, retentionPolicy, runRetention } from './retention.ts';
 import { ensurePartitionsAhead, PARTITIONS_CRON } from './partitions.ts';
+import { COMPACTION_CRON, runCompaction } from './compaction.ts';
 import { recomputeBaselines } from '../limits/baseline-service.ts';
 import { countAnalyses, observeAnalyses, recordRetention } from '../../lib/metrics.ts';
 
@@ -258,6 +259,16 @@ export function createWorker(ctx: AppContext, options: WorkerOptions = {}): Work
             );
           }),
           { noOverlap: true, name: 'retention', logger: cronLogger },
+        ),
+      );
+      tasks.push(
+        cron.schedule(
+          COMPACTION_CRON,
+          guarded('compaction', async () => {
+            const r = await runCompaction(ctx.db, retentionPolicy(ctx.config));
+            ctx.log.info('compaction', { ...r });
+          }),
+          { noOverlap: true, name: 'compaction', logger: cronLogger },
         ),
       );
     },

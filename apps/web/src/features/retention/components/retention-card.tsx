@@ -71,7 +71,8 @@ export function RetentionCard() {
               capture after a limit change.
             </li>
             <li>
-              Overall values, band values, peaks and diagnosis of every capture:{' '}
+              Overall values, band values and diagnosis hints of every capture (peaks and fault
+              frequencies go with the spectra):{' '}
               {q.data.captureMonths === 0
                 ? 'kept for ever'
                 : `kept ${q.data.captureMonths} months; older months are removed whole, except a month holding a capture kept whole`}
