@@ -202,6 +202,10 @@ export async function startLocalMariadb(options: LocalMariadbOptions): Promise<L
   }
   await stopOrphan(dir, log);
 
+  // Its own temporary folder: files in a shared /tmp can be removed by other programs (or a
+  // tmp cleaner) while a query's temporary table is open, failing the query.
+  const tmp = join(dir, 'tmp');
+  mkdirSync(tmp, { recursive: true, mode: 0o700 });
   const port = options.port ?? 0;
   const socket = join(dir, 'mariadbd.sock');
   const errorLog = join(dir, 'error.log');
@@ -210,6 +214,7 @@ export async function startLocalMariadb(options: LocalMariadbOptions): Promise<L
     `--datadir=${join(dir, 'data')}`,
     `--socket=${socket}`,
     `--pid-file=${join(dir, 'mariadbd.pid')}`,
+    `--tmpdir=${tmp}`,
     `--log-error=${errorLog}`,
     ...(port > 0 ? [`--port=${port}`, '--bind-address=127.0.0.1'] : ['--skip-networking']),
     '--skip-name-resolve',
