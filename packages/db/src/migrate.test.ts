@@ -18,6 +18,7 @@ describe('isAdditive', () => {
       // An index is rebuilt from the rows; dropping it loses no data.
       'DROP INDEX `x` ON `y`;',
       'ALTER TABLE `snapshots` DROP INDEX `snapshots_uid_uq`;',
+      'ALTER TABLE `t` DROP INDEX `t_idx`, ADD INDEX `t_idx` (`a`,`b`,`c`);',
     ])
       expect({ sql, additive: isAdditive(sql) }).toEqual({ sql, additive: true });
   });
@@ -27,6 +28,8 @@ describe('isAdditive', () => {
       'DROP TABLE `findings`;',
       'ALTER TABLE `users` DROP COLUMN `name`;',
       'ALTER TABLE `users` DROP INDEX `a`, DROP COLUMN `b`;',
+      'ALTER TABLE `users` DROP INDEX `a`, ADD INDEX `a` (`b`), DROP COLUMN `b`;',
+      'ALTER TABLE `users` DROP INDEX `a`, ADD INDEX `a` (`b`(10)) ALGORITHM=COPY;',
       'ALTER TABLE `users` ADD `x` int, DROP COLUMN `name`;',
       'ALTER TABLE `users` MODIFY `name` varchar(10);',
       'ALTER TABLE `users` CHANGE `name` `full_name` varchar(200);',

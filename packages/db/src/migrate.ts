@@ -85,6 +85,11 @@ export function isAdditive(statement: string): boolean {
     /^ALTER TABLE `x` DROP (INDEX|KEY) `x`;?$/i.test(bare)
   )
     return true;
+  // An index rebuilt in one statement (dropped and added again, so the table is never
+  // without it): index clauses only.
+  const id = '`x`';
+  const clause = `(DROP (INDEX|KEY) ${id}|ADD (UNIQUE )?(INDEX|KEY) ${id} ?\\(${id}( ?, ?${id})*\\))`;
+  if (new RegExp(`^ALTER TABLE ${id} ${clause}(, ?${clause})*;?$`, 'i').test(bare)) return true;
   if (/^INSERT (IGNORE )?INTO /i.test(bare)) return !/\bON DUPLICATE KEY\b/i.test(bare);
   if (/^ALTER TABLE `x` ADD /i.test(bare))
     return !/\b(DROP|MODIFY|CHANGE|RENAME|ALTER COLUMN|ORDER BY|CONVERT|ENGINE)\b/i.test(bare);

@@ -589,7 +589,8 @@ export const bandValues = mysqlTable(
   (t) => [
     primaryKey({ columns: [t.id, t.takenAt] }),
     uniqueIndex('band_values_analysis_band_uq').on(t.analysisId, t.bandKey, t.takenAt),
-    index('band_values_trend_idx').on(t.pointId, t.bandKey, t.takenAt),
+    // Covering for the trend's projection window (time, value, quality of one band).
+    index('band_values_trend_idx').on(t.pointId, t.bandKey, t.takenAt, t.value, t.qualityVerdict),
     // (band_values_point_time_idx, a covering index for the weekly review's daily means, was
     // dropped in 0021: band_day_sums serves those since 0019, and it was a fifth of the
     // table's bytes per capture.)

@@ -53,7 +53,8 @@ export async function rawValues(
 
 /**
  * The band's values in [from, to] as the projection needs them (time, value, quality), oldest
- * first: read from band_values_point_time_idx alone (it holds all three), not row by row.
+ * first: read from band_values_trend_idx alone (it holds all three, migration 0022), not
+ * row by row.
  */
 export async function projectionValues(
   db: Db,
@@ -64,9 +65,9 @@ export async function projectionValues(
 ): Promise<Omit<TrendRow, 'analysisId'>[]> {
   const [rows] = (await db.execute(sql`
     SELECT ${ms('taken_at')} AS t, value, quality_verdict AS quality
-    FROM band_values FORCE INDEX (band_values_point_time_idx)
-    WHERE point_id = ${pointId} AND taken_at >= ${from} AND taken_at <= ${to}
-      AND band_key = ${bandKey}
+    FROM band_values FORCE INDEX (band_values_trend_idx)
+    WHERE point_id = ${pointId} AND band_key = ${bandKey}
+      AND taken_at >= ${from} AND taken_at <= ${to}
     ORDER BY taken_at`)) as unknown as [{ t: unknown; value: unknown; quality: Quality }[]];
   return rows.map((r) => ({ t: Number(r.t), value: Number(r.value), quality: r.quality }));
 }
