@@ -132,8 +132,9 @@ export async function trendValues(
   const foundP = Promise.resolve(marks).then((at) =>
     valuesAtOf(db, pointId, bandKey, from, to, [to, ...at]),
   );
-  // the projection's window: the values within its span of the latest
-  const windowP = foundP.then(({ at: [last] }) =>
+  // the projection's window: the values within its span of the latest (found by its own
+  // seek, so the window's read does not wait for the marks)
+  const windowP = valuesAtOf(db, pointId, bandKey, from, to, [to]).then(({ at: [last] }) =>
     last
       ? projectionValues(db, pointId, bandKey, new Date(Math.max(f, last.t - WINDOW_MS)), to)
       : [],
