@@ -98,6 +98,19 @@ export interface RouteInput<S extends RouteSchemas> {
   body: Parsed<S['body']>;
 }
 
+/** The declared schemas parse params, query (unknown names are a 400) and body, in that order. */
+function routeInput<S extends RouteSchemas>(schemas: S, req: Request): RouteInput<S> {
+  const { params, query, body } = schemas;
+  return {
+    get user() {
+      return requireUser(req);
+    },
+    params: params?.parse(req.params),
+    query: query && parseQuery(query, req.query),
+    body: body?.parse(req.body),
+  } as RouteInput<S>;
+}
+
 /** A route whose answer is its service's result as JSON (or nothing, for a 204). */
 export interface ServiceRouteSpec<S extends RouteSchemas> extends Omit<
   RouteSpec,
@@ -110,28 +123,61 @@ export interface ServiceRouteSpec<S extends RouteSchemas> extends Omit<
 }
 
 /**
- * The common route: the declared schemas parse params, query (unknown names are a 400) and
- * body in that order, `run` calls the service, and its result is the answer with the
- * declared status. Routes that answer otherwise (files, redirects) write their own handler.
+ * The common route: the declared schemas parse the request, `run` calls the service, and
+ * its result, parsed with the declared `response` schema, is the answer with the declared
+ * status. The table is the one place an answer is held to its schema: what the service
+ * returns beyond it (a stored secret, a column the contract does not name) is dropped, and
+ * an answer that breaks it is a 500, never sent. Routes that answer otherwise (files,
+ * redirects) use `fileRoute` or write their own handler.
  */
 export function serviceRoute<const S extends RouteSchemas>(route: ServiceRouteSpec<S>): RouteSpec {
   const { run, headers, ...spec } = route;
-  const { params, query, body, status = 200 } = route.schemas;
+  const { response, status = 200 } = route.schemas;
   return {
     ...spec,
     handler: async (req, res) => {
-      const input = {
-        get user() {
-          return requireUser(req);
-        },
-        params: params?.parse(req.params),
-        query: query && parseQuery(query, req.query),
-        body: body?.parse(req.body),
-      } as RouteInput<S>;
+      const input = routeInput(route.schemas, req);
       for (const [name, value] of Object.entries(headers ?? {})) res.setHeader(name, value);
       const answer = await run(input);
       if (status === 204) res.status(204).end();
-      else res.status(status).json(answer);
+      else res.status(status).json(response ? response.parse(answer) : answer);
+    },
+  };
+}
+
+/** A file a `fileRoute` answers: its name for the download, and its text or its bytes. */
+export type FileAnswer = { fileName: string } & ({ text: string } | { bytes: Uint8Array });
+
+/** A route whose answer is a file download (a CSV, a WAV) rather than JSON. */
+export interface FileRouteSpec<S extends RouteSchemas> extends Omit<
+  RouteSpec,
+  'schemas' | 'handler'
+> {
+  schemas: S & { produces: string };
+  /** The Content-Type header (`produces` with its parameters, e.g. a charset). */
+  contentType: string;
+  run: (input: RouteInput<S>) => Promise<FileAnswer>;
+}
+
+/**
+ * A download: the request is parsed as for `serviceRoute`, `run` makes the file, and the
+ * answer is an attachment under the file's name (quoted, with RFC 6266's `filename*` beside
+ * it for names beyond ASCII), private to the caller and never stored by a cache.
+ */
+export function fileRoute<const S extends RouteSchemas>(route: FileRouteSpec<S>): RouteSpec {
+  const { run, contentType, ...spec } = route;
+  return {
+    ...spec,
+    handler: async (req, res) => {
+      const file = await run(routeInput(route.schemas, req));
+      res.setHeader('Content-Type', contentType);
+      res.setHeader(
+        'Content-Disposition',
+        `attachment; filename="${file.fileName}"; filename*=UTF-8''${encodeURIComponent(file.fileName)}`,
+      );
+      res.setHeader('Cache-Control', 'private, no-store');
+      if ('text' in file) res.send(file.text);
+      else res.send(Buffer.from(file.bytes.buffer, file.bytes.byteOffset, file.bytes.byteLength));
     },
   };
 }

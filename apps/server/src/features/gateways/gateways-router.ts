@@ -30,8 +30,7 @@ export function gatewayRoutes(ctx: AppContext): RouteSpec[] {
       access: ['admin'],
       summary: 'revoke a gateway key',
       schemas: { params: idParam, response: gatewaySchema },
-      run: async ({ user, params }) =>
-        gatewaySchema.parse(await service.revokeGateway(ctx.db, user, params.id)),
+      run: ({ user, params }) => service.revokeGateway(ctx.db, user, params.id),
     }),
     serviceRoute({
       method: 'post',

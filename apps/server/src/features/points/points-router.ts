@@ -1,4 +1,3 @@
-import type { Response } from 'express';
 import {
   analysesQuerySchema,
   analysisListSchema,
@@ -13,23 +12,22 @@ import { waterfallQuerySchema, waterfallSchema } from '@turnstone/contracts/wate
 import { trendQuerySchema, trendResponseSchema } from '@turnstone/contracts/trend';
 import { snapshotStatusSchema } from '@turnstone/contracts/uploads';
 import type { AppContext } from '../../lib/context.ts';
-import { ALL_ROLES, requireUser, serviceRoute, type RouteSpec } from '../../lib/route-table.ts';
+import {
+  ALL_ROLES,
+  fileRoute,
+  requireUser,
+  serviceRoute,
+  type RouteSpec,
+} from '../../lib/route-table.ts';
 import * as service from './points-service.ts';
 import * as spectra from './spectra-service.ts';
 import * as pins from './pins-service.ts';
 import * as trends from './trend-service.ts';
 import * as waveforms from './waveform-service.ts';
 import { idParam } from '../../lib/route-params.ts';
-import { parseQuery } from '../../lib/query.ts';
 
-function attachment(res: Response, fileName: string, type: string) {
-  res.setHeader('Content-Type', type);
-  res.setHeader(
-    'Content-Disposition',
-    `attachment; filename="${fileName}"; filename*=UTF-8''${encodeURIComponent(fileName)}`,
-  );
-  res.setHeader('Cache-Control', 'private, no-store');
-}
+/** Who may pin a capture so retention keeps it whole (not operators). */
+const PINNERS = ['admin', 'engineer', 'planner'] as const;
 
 export function pointRoutes(ctx: AppContext): RouteSpec[] {
   return [
@@ -74,20 +72,15 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       headers: { 'Cache-Control': 'private, no-cache' },
       run: ({ user, params, query }) => trends.trend(ctx, user, params.id, query),
     }),
-    {
+    fileRoute({
       method: 'get',
       path: '/points/:id/trend.csv',
       access: ALL_ROLES,
       summary: 'band trend as CSV',
       schemas: { params: idParam, query: trendQuerySchema, produces: 'text/csv' },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        const q = parseQuery(trendQuerySchema, req.query);
-        const file = await trends.trendCsv(ctx, requireUser(req), id, q);
-        attachment(res, file.fileName, 'text/csv; charset=utf-8');
-        res.send(file.text);
-      },
-    },
+      contentType: 'text/csv; charset=utf-8',
+      run: ({ user, params, query }) => trends.trendCsv(ctx, user, params.id, query),
+    }),
     serviceRoute({
       method: 'get',
       path: '/points/:id/waterfall',
@@ -100,7 +93,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
     {
       method: 'put',
       path: '/analyses/:id/pin',
-      access: ['admin', 'engineer', 'planner'],
+      access: PINNERS,
       summary: 'pin a capture: retention keeps its spectra and waveform whole',
       schemas: { params: idParam, body: pinInputSchema, response: pinSchema },
       handler: async (req, res) => {
@@ -112,7 +105,7 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
     serviceRoute({
       method: 'delete',
       path: '/analyses/:id/pin',
-      access: ['admin', 'engineer', 'planner'],
+      access: PINNERS,
       summary: 'unpin a capture (retention treats it like any other again)',
       schemas: { params: idParam, status: 204 },
       run: ({ user, params }) => pins.unpinCapture(ctx, user, params.id),
@@ -135,31 +128,23 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       schemas: { params: idParam, response: waveformSchema },
       run: ({ user, params }) => waveforms.waveform(ctx, user, params.id),
     }),
-    {
+    fileRoute({
       method: 'get',
       path: '/analyses/:id/waveform.wav',
       access: ALL_ROLES,
       summary: 'raw capture as WAV',
       schemas: { params: idParam, produces: 'audio/wav' },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        const file = await waveforms.waveformWav(ctx, requireUser(req), id);
-        attachment(res, file.fileName, 'audio/wav');
-        res.send(Buffer.from(file.bytes.buffer, file.bytes.byteOffset, file.bytes.byteLength));
-      },
-    },
-    {
+      contentType: 'audio/wav',
+      run: ({ user, params }) => waveforms.waveformWav(ctx, user, params.id),
+    }),
+    fileRoute({
       method: 'get',
       path: '/analyses/:id/waveform.csv',
       access: ALL_ROLES,
       summary: 'capture as CSV in g',
       schemas: { params: idParam, produces: 'text/csv' },
-      handler: async (req, res) => {
-        const { id } = idParam.parse(req.params);
-        const file = await waveforms.waveformCsv(ctx, requireUser(req), id);
-        attachment(res, file.fileName, 'text/csv; charset=utf-8');
-        res.send(file.text);
-      },
-    },
+      contentType: 'text/csv; charset=utf-8',
+      run: ({ user, params }) => waveforms.waveformCsv(ctx, user, params.id),
+    }),
   ];
 }

@@ -31,8 +31,7 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
       access: ['admin'],
       summary: 'invite a user',
       schemas: { body: inviteUserSchema, response: userSummarySchema, status: 201 },
-      run: async ({ user, body }) =>
-        userSummarySchema.parse(await service.inviteUser(ctx, user, body)),
+      run: ({ user, body }) => service.inviteUser(ctx, user, body),
     }),
     serviceRoute({
       method: 'patch',
@@ -40,8 +39,7 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
       access: ['admin'],
       summary: 'change a user',
       schemas: { params: idParam, body: updateUserSchema, response: userSummarySchema },
-      run: async ({ user, params, body }) =>
-        userSummarySchema.parse(await service.updateUser(ctx, user, params.id, body)),
+      run: ({ user, params, body }) => service.updateUser(ctx, user, params.id, body),
     }),
     serviceRoute({
       method: 'post',
@@ -49,8 +47,7 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
       access: ['admin'],
       summary: 'disable a user',
       schemas: { params: idParam, response: userSummarySchema },
-      run: async ({ user, params }) =>
-        userSummarySchema.parse(await service.setDisabled(ctx, user, params.id, true)),
+      run: ({ user, params }) => service.setDisabled(ctx, user, params.id, true),
     }),
     serviceRoute({
       method: 'post',
@@ -58,8 +55,7 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
       access: ['admin'],
       summary: 'enable a user',
       schemas: { params: idParam, response: userSummarySchema },
-      run: async ({ user, params }) =>
-        userSummarySchema.parse(await service.setDisabled(ctx, user, params.id, false)),
+      run: ({ user, params }) => service.setDisabled(ctx, user, params.id, false),
     }),
   ];
 }
