@@ -15,30 +15,30 @@ import {
   suggestResponseSchema,
 } from '@turnstone/contracts/limits';
 import type { AppContext } from '../../lib/context.ts';
+import type { SessionUser } from '../../lib/session-user.ts';
 import { accessiblePoint } from '../places/point-access.ts';
-import { ALL_ROLES, requireUser, type RouteSpec } from '../../lib/route-table.ts';
+import { ALL_ROLES, serviceRoute, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './limits-service.ts';
 import { idParam } from '../../lib/route-params.ts';
-import { parseQuery } from '../../lib/query.ts';
 
 const typeParam = z.object({ machineType: machineTypeSchema });
 // The contract schema mirrors the condition package's BandDefinition.
 const asBands = (b: unknown) => b as LimitBand[];
 
 export function limitRoutes(ctx: AppContext): RouteSpec[] {
-  const point = async (req: Parameters<RouteSpec['handler']>[0]) =>
-    accessiblePoint(ctx.db, requireUser(req), idParam.parse(req.params).id);
+  /** The point of `/points/:id/limits…`, if the caller's sites include it. */
+  const point = (user: SessionUser, params: { id: number }) =>
+    accessiblePoint(ctx.db, user, params.id);
   return [
-    {
+    serviceRoute({
       method: 'get',
       path: '/points/:id/limits',
       access: ALL_ROLES,
       summary: "a point's limit set",
       schemas: { params: idParam, response: limitSetResponseSchema },
-      handler: async (req, res) =>
-        res.json(limitSetResponseSchema.parse(await service.getLimitSet(ctx, await point(req)))),
-    },
-    {
+      run: async ({ user, params }) => service.getLimitSet(ctx, await point(user, params)),
+    }),
+    serviceRoute({
       method: 'put',
       path: '/points/:id/limits',
       access: ['engineer'],
@@ -48,75 +48,52 @@ export function limitRoutes(ctx: AppContext): RouteSpec[] {
         body: saveLimitSetRequestSchema,
         response: saveLimitSetResponseSchema,
       },
-      handler: async (req, res) => {
-        const p = await point(req);
-        const body = saveLimitSetRequestSchema.parse(req.body);
-        const out = await service.saveLimits(
-          ctx,
-          requireUser(req),
-          p,
-          asBands(body.bands),
-          body.reason,
-        );
-        res.json(saveLimitSetResponseSchema.parse(out));
-      },
-    },
-    {
+      run: async ({ user, params, body }) =>
+        service.saveLimits(ctx, user, await point(user, params), asBands(body.bands), body.reason),
+    }),
+    serviceRoute({
       method: 'post',
       path: '/points/:id/limits/replay',
       access: ['engineer'],
       summary: 'replay proposed limits over the stored history',
       schemas: { params: idParam, body: replayRequestSchema, response: replayResponseSchema },
-      handler: async (req, res) => {
-        const p = await point(req);
-        const body = replayRequestSchema.parse(req.body);
-        res.json(replayResponseSchema.parse(await service.replay(ctx, p, asBands(body.bands))));
-      },
-    },
-    {
+      run: async ({ user, params, body }) =>
+        service.replay(ctx, await point(user, params), asBands(body.bands)),
+    }),
+    serviceRoute({
       method: 'get',
       path: '/points/:id/limits/iso-defaults',
       access: ['engineer'],
       summary: 'ISO 20816-3 default levels for the machine',
       schemas: { params: idParam, response: isoDefaultsResponseSchema },
-      handler: async (req, res) =>
-        res.json(isoDefaultsResponseSchema.parse(service.isoDefaults(await point(req)))),
-    },
-    {
+      run: async ({ user, params }) => service.isoDefaults(await point(user, params)),
+    }),
+    serviceRoute({
       method: 'get',
       path: '/points/:id/limits/suggest',
       access: ['engineer'],
       summary: 'levels from the baseline of a band',
       schemas: { params: idParam, query: suggestQuerySchema, response: suggestResponseSchema },
-      handler: async (req, res) => {
-        const p = await point(req);
-        const q = parseQuery(suggestQuerySchema, req.query);
-        res.json(suggestResponseSchema.parse(await service.suggest(ctx, p, q)));
-      },
-    },
-    {
+      run: async ({ user, params, query }) =>
+        service.suggest(ctx, await point(user, params), query),
+    }),
+    serviceRoute({
       method: 'get',
       path: '/points/:id/limits/history',
       access: ALL_ROLES,
       summary: "audit entries of a point's limits",
       schemas: { params: idParam, response: limitHistoryResponseSchema },
-      handler: async (req, res) => {
-        const p = await point(req);
-        res.json(limitHistoryResponseSchema.parse(await service.history(ctx, p.point.id)));
-      },
-    },
-    {
+      run: async ({ user, params }) => service.history(ctx, (await point(user, params)).point.id),
+    }),
+    serviceRoute({
       method: 'get',
       path: '/limit-templates/:machineType',
       access: ['engineer'],
       summary: 'a machine-type limit template',
       schemas: { params: typeParam, response: limitTemplateResponseSchema },
-      handler: async (req, res) => {
-        const { machineType } = typeParam.parse(req.params);
-        res.json(limitTemplateResponseSchema.parse(await service.getTemplate(ctx, machineType)));
-      },
-    },
-    {
+      run: ({ params }) => service.getTemplate(ctx, params.machineType),
+    }),
+    serviceRoute({
       method: 'put',
       path: '/limit-templates/:machineType',
       access: ['engineer'],
@@ -126,18 +103,8 @@ export function limitRoutes(ctx: AppContext): RouteSpec[] {
         body: saveLimitTemplateRequestSchema,
         response: limitTemplateResponseSchema,
       },
-      handler: async (req, res) => {
-        const { machineType } = typeParam.parse(req.params);
-        const body = saveLimitTemplateRequestSchema.parse(req.body);
-        const out = await service.saveTemplate(
-          ctx,
-          requireUser(req),
-          machineType,
-          asBands(body.bands),
-          body.reason,
-        );
-        res.json(limitTemplateResponseSchema.parse(out));
-      },
-    },
+      run: ({ user, params, body }) =>
+        service.saveTemplate(ctx, user, params.machineType, asBands(body.bands), body.reason),
+    }),
   ];
 }
