@@ -1,3 +1,6 @@
+import type { z } from 'zod';
+import type { Db } from '@turnstone/db/client';
+import type { Role } from '@turnstone/contracts/roles';
 import {
   areaInputSchema,
   areaUpdateSchema,
@@ -10,6 +13,7 @@ import {
   savedSiteSchema,
 } from '@turnstone/contracts/setup';
 import type { AppContext } from '../../lib/context.ts';
+import type { SessionUser } from '../../lib/session-user.ts';
 import { serviceRoute, type RouteSpec } from '../../lib/route-table.ts';
 import * as service from './setup-service.ts';
 import * as points from './setup-points-service.ts';
@@ -17,6 +21,64 @@ import { idParam } from '../../lib/route-params.ts';
 
 const ADMIN = ['admin'] as const;
 const BUILDERS = ['admin', 'engineer'] as const;
+
+/** One setup resource: its path, who edits it, its saved answer and its service functions. */
+interface SetupResource<C extends z.ZodType, U extends z.ZodType> {
+  path: string;
+  access: readonly Role[];
+  response: z.ZodType;
+  create: {
+    summary: string;
+    body: C;
+    run: (db: Db, user: SessionUser, input: z.output<C>) => unknown;
+  };
+  update: {
+    summary: string;
+    body: U;
+    run: (db: Db, user: SessionUser, id: number, input: z.output<U>) => unknown;
+  };
+  remove?: { summary: string; run: (db: Db, user: SessionUser, id: number) => Promise<void> };
+}
+
+/**
+ * The routes of a setup resource, said once for sites, areas, machines and points: created
+ * by POST `path` (201), changed by PATCH `path/:id`, and, where it has `remove`, deleted by
+ * DELETE `path/:id` (204). Every setup service takes (db, user, id?, input) in that order.
+ */
+function resourceRoutes<C extends z.ZodType, U extends z.ZodType>(
+  db: Db,
+  { path, access, response, create, update, remove }: SetupResource<C, U>,
+): RouteSpec[] {
+  const byId = `${path}/:id`;
+  const routes = [
+    serviceRoute({
+      method: 'post',
+      path,
+      access,
+      summary: create.summary,
+      schemas: { body: create.body, response, status: 201 },
+      run: (req) => create.run(db, req.user, req.body as z.output<C>),
+    }),
+    serviceRoute({
+      method: 'patch',
+      path: byId,
+      access,
+      summary: update.summary,
+      schemas: { params: idParam, body: update.body, response },
+      run: (req) => update.run(db, req.user, req.params.id, req.body as z.output<U>),
+    }),
+  ];
+  if (!remove) return routes;
+  const deleteRoute = serviceRoute({
+    method: 'delete',
+    path: byId,
+    access,
+    summary: remove.summary,
+    schemas: { params: idParam, status: 204 },
+    run: (req) => remove.run(db, req.user, req.params.id),
+  });
+  return [...routes, deleteRoute];
+}
 
 export function setupRoutes(ctx: AppContext): RouteSpec[] {
   const db = ctx.db;
@@ -29,92 +91,51 @@ export function setupRoutes(ctx: AppContext): RouteSpec[] {
       schemas: { response: setupTreeSchema },
       run: ({ user }) => service.setupTree(db, user),
     }),
-    serviceRoute({
-      method: 'post',
+    ...resourceRoutes(db, {
       path: '/sites',
       access: ADMIN,
-      summary: 'create a site',
-      schemas: { body: siteInputSchema, response: savedSiteSchema, status: 201 },
-      run: async ({ user, body }) =>
-        savedSiteSchema.parse(await service.createSite(db, user, body)),
+      response: savedSiteSchema,
+      create: { summary: 'create a site', body: siteInputSchema, run: service.createSite },
+      update: { summary: 'update a site', body: siteInputSchema, run: service.updateSite },
     }),
-    serviceRoute({
-      method: 'patch',
-      path: '/sites/:id',
-      access: ADMIN,
-      summary: 'update a site',
-      schemas: { params: idParam, body: siteInputSchema, response: savedSiteSchema },
-      run: async ({ user, params, body }) =>
-        savedSiteSchema.parse(await service.updateSite(db, user, params.id, body)),
-    }),
-    serviceRoute({
-      method: 'post',
+    ...resourceRoutes(db, {
       path: '/areas',
       access: ADMIN,
-      summary: 'create an area',
-      schemas: { body: areaInputSchema, response: savedAreaSchema, status: 201 },
-      run: async ({ user, body }) =>
-        savedAreaSchema.parse(await service.createArea(db, user, body)),
+      response: savedAreaSchema,
+      create: { summary: 'create an area', body: areaInputSchema, run: service.createArea },
+      update: { summary: 'rename an area', body: areaUpdateSchema, run: service.updateArea },
     }),
-    serviceRoute({
-      method: 'patch',
-      path: '/areas/:id',
-      access: ADMIN,
-      summary: 'rename an area',
-      schemas: { params: idParam, body: areaUpdateSchema, response: savedAreaSchema },
-      run: async ({ user, params, body }) =>
-        savedAreaSchema.parse(await service.updateArea(db, user, params.id, body)),
-    }),
-    serviceRoute({
-      method: 'post',
+    ...resourceRoutes(db, {
       path: '/machines',
       access: BUILDERS,
-      summary: 'create a machine with its components',
-      schemas: { body: machineInputSchema, response: savedIdSchema, status: 201 },
-      run: async ({ user, body }) =>
-        savedIdSchema.parse(await service.createMachine(db, user, body)),
+      response: savedIdSchema,
+      create: {
+        summary: 'create a machine with its components',
+        body: machineInputSchema,
+        run: service.createMachine,
+      },
+      update: {
+        summary: 'update a machine and replace its components',
+        body: machineInputSchema,
+        run: service.updateMachine,
+      },
+      remove: { summary: 'delete a machine without data', run: service.deleteMachine },
     }),
-    serviceRoute({
-      method: 'patch',
-      path: '/machines/:id',
-      access: BUILDERS,
-      summary: 'update a machine and replace its components',
-      schemas: { params: idParam, body: machineInputSchema, response: savedIdSchema },
-      run: async ({ user, params, body }) =>
-        savedIdSchema.parse(await service.updateMachine(db, user, params.id, body)),
-    }),
-    serviceRoute({
-      method: 'delete',
-      path: '/machines/:id',
-      access: BUILDERS,
-      summary: 'delete a machine without data',
-      schemas: { params: idParam, status: 204 },
-      run: ({ user, params }) => service.deleteMachine(db, user, params.id),
-    }),
-    serviceRoute({
-      method: 'post',
+    ...resourceRoutes(db, {
       path: '/points',
       access: BUILDERS,
-      summary: 'create a measurement point',
-      schemas: { body: pointInputSchema, response: savedIdSchema, status: 201 },
-      run: async ({ user, body }) => savedIdSchema.parse(await points.createPoint(db, user, body)),
-    }),
-    serviceRoute({
-      method: 'patch',
-      path: '/points/:id',
-      access: BUILDERS,
-      summary: 'update a measurement point',
-      schemas: { params: idParam, body: pointInputSchema, response: savedIdSchema },
-      run: async ({ user, params, body }) =>
-        savedIdSchema.parse(await points.updatePoint(db, user, params.id, body)),
-    }),
-    serviceRoute({
-      method: 'delete',
-      path: '/points/:id',
-      access: BUILDERS,
-      summary: 'delete a point without data',
-      schemas: { params: idParam, status: 204 },
-      run: ({ user, params }) => points.deletePoint(db, user, params.id),
+      response: savedIdSchema,
+      create: {
+        summary: 'create a measurement point',
+        body: pointInputSchema,
+        run: points.createPoint,
+      },
+      update: {
+        summary: 'update a measurement point',
+        body: pointInputSchema,
+        run: points.updatePoint,
+      },
+      remove: { summary: 'delete a point without data', run: points.deletePoint },
     }),
   ];
 }
