@@ -1,4 +1,5 @@
 import type { Request } from 'express';
+import type { z } from 'zod';
 import {
   changePasswordSchema,
   preferencesSchema,
@@ -6,10 +7,46 @@ import {
   subscriptionSettingsSchema,
 } from '@turnstone/contracts/account';
 import type { AppContext } from '../../lib/context.ts';
+import type { SessionUser } from '../../lib/session-user.ts';
 import { attemptLimiter, runLimits } from '../../lib/attempt-limits.ts';
 import { ALL_ROLES, requireUser, serviceRoute, type RouteSpec } from '../../lib/route-table.ts';
 import { COOKIE_NAME, signSession } from '../auth/session-token.ts';
 import * as service from './account-service.ts';
+
+/**
+ * A setting of the caller's own: every role reads it by GET and replaces it by PUT at one
+ * path, and both answer it in the same shape.
+ */
+function ownSetting<B extends z.ZodType>(setting: {
+  path: string;
+  response: z.ZodType;
+  read: { summary: string; run: (user: SessionUser) => unknown };
+  change: {
+    summary: string;
+    body: B;
+    run: (user: SessionUser, body: z.output<B>) => unknown;
+  };
+}): RouteSpec[] {
+  const { path, response, read, change } = setting;
+  return [
+    serviceRoute({
+      method: 'get',
+      path,
+      access: ALL_ROLES,
+      summary: read.summary,
+      schemas: { response },
+      run: (input) => read.run(input.user),
+    }),
+    serviceRoute({
+      method: 'put',
+      path,
+      access: ALL_ROLES,
+      summary: change.summary,
+      schemas: { body: change.body, response },
+      run: (input) => change.run(input.user, input.body as z.output<B>),
+    }),
+  ];
+}
 
 export function accountRoutes(ctx: AppContext): RouteSpec[] {
   // A stolen session must not become a password oracle: wrong current passwords are
@@ -52,37 +89,31 @@ export function accountRoutes(ctx: AppContext): RouteSpec[] {
         res.status(204).end();
       },
     },
-    serviceRoute({
-      method: 'get',
+    ...ownSetting({
       path: '/account/preferences',
-      access: ALL_ROLES,
-      summary: 'my display preferences (unit system)',
-      schemas: { response: preferencesSchema },
-      run: ({ user }) => ({ unitSystem: user.unitSystem }),
+      response: preferencesSchema,
+      read: {
+        summary: 'my display preferences (unit system)',
+        run: (user) => ({ unitSystem: user.unitSystem }),
+      },
+      change: {
+        summary: 'change my display preferences (unit system)',
+        body: preferencesSchema,
+        run: (user, body) => service.putPreferences(ctx, user, body),
+      },
     }),
-    serviceRoute({
-      method: 'put',
-      path: '/account/preferences',
-      access: ALL_ROLES,
-      summary: 'change my display preferences (unit system)',
-      schemas: { body: preferencesSchema, response: preferencesSchema },
-      run: ({ user, body }) => service.putPreferences(ctx, user, body),
-    }),
-    serviceRoute({
-      method: 'get',
+    ...ownSetting({
       path: '/account/subscriptions',
-      access: ALL_ROLES,
-      summary: 'my notification settings',
-      schemas: { response: subscriptionSettingsResponseSchema },
-      run: ({ user }) => service.getSubscriptions(ctx, user),
-    }),
-    serviceRoute({
-      method: 'put',
-      path: '/account/subscriptions',
-      access: ALL_ROLES,
-      summary: 'change my notification settings',
-      schemas: { body: subscriptionSettingsSchema, response: subscriptionSettingsResponseSchema },
-      run: ({ user, body }) => service.putSubscriptions(ctx, user, body),
+      response: subscriptionSettingsResponseSchema,
+      read: {
+        summary: 'my notification settings',
+        run: (user) => service.getSubscriptions(ctx, user),
+      },
+      change: {
+        summary: 'change my notification settings',
+        body: subscriptionSettingsSchema,
+        run: (user, body) => service.putSubscriptions(ctx, user, body),
+      },
     }),
   ];
 }

@@ -17,7 +17,9 @@ import {
   fileRoute,
   requireUser,
   serviceRoute,
+  type RouteSchemas,
   type RouteSpec,
+  type ServiceRouteSpec,
 } from '../../lib/route-table.ts';
 import * as service from './points-service.ts';
 import * as spectra from './spectra-service.ts';
@@ -26,49 +28,57 @@ import * as trends from './trend-service.ts';
 import * as waveforms from './waveform-service.ts';
 import { idParam } from '../../lib/route-params.ts';
 
+/**
+ * The point pages' reads: a GET of one machine, point, snapshot or analysis by `:id`, open
+ * to every role (its service answers only for the caller's sites).
+ */
+function pointRead<const S extends RouteSchemas>(
+  route: Omit<ServiceRouteSpec<S>, 'method' | 'access'>,
+): RouteSpec {
+  return serviceRoute<S>({ ...route, method: 'get', access: ALL_ROLES });
+}
+
 /** Who may pin a capture so retention keeps it whole (not operators). */
 const PINNERS = ['admin', 'engineer', 'planner'] as const;
 
 export function pointRoutes(ctx: AppContext): RouteSpec[] {
   return [
-    serviceRoute({
-      method: 'get',
+    pointRead({
       path: '/machines/:id',
-      access: ALL_ROLES,
       summary: 'machine data, fault frequencies and its points',
       schemas: { params: idParam, response: machineDetailSchema },
       run: ({ user, params }) => service.machineDetail(ctx.db, user, params.id),
     }),
-    serviceRoute({
-      method: 'get',
+    pointRead({
       path: '/points/:id',
-      access: ALL_ROLES,
       summary: 'point detail with its bands',
       schemas: { params: idParam, response: pointDetailSchema },
       run: ({ user, params }) => service.pointDetail(ctx, user, params.id),
     }),
-    serviceRoute({
-      method: 'get',
+    pointRead({
       path: '/snapshots/:id',
-      access: ALL_ROLES,
       summary: 'snapshot status and its analysis',
       schemas: { params: idParam, response: snapshotStatusSchema },
       run: ({ user, params }) => service.snapshotStatus(ctx, user, params.id),
     }),
-    serviceRoute({
-      method: 'get',
+    pointRead({
       path: '/points/:id/analyses',
-      access: ALL_ROLES,
       summary: 'analyses of a point',
-      schemas: { params: idParam, query: analysesQuerySchema, response: analysisListSchema },
+      schemas: {
+        params: idParam,
+        query: analysesQuerySchema,
+        response: analysisListSchema,
+      },
       run: ({ user, params, query }) => service.listAnalyses(ctx, user, params.id, query),
     }),
-    serviceRoute({
-      method: 'get',
+    pointRead({
       path: '/points/:id/trend',
-      access: ALL_ROLES,
       summary: 'band trend with levels and projection',
-      schemas: { params: idParam, query: trendQuerySchema, response: trendResponseSchema },
+      schemas: {
+        params: idParam,
+        query: trendQuerySchema,
+        response: trendResponseSchema,
+      },
       headers: { 'Cache-Control': 'private, no-cache' },
       run: ({ user, params, query }) => trends.trend(ctx, user, params.id, query),
     }),
@@ -77,16 +87,22 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       path: '/points/:id/trend.csv',
       access: ALL_ROLES,
       summary: 'band trend as CSV',
-      schemas: { params: idParam, query: trendQuerySchema, produces: 'text/csv' },
+      schemas: {
+        params: idParam,
+        query: trendQuerySchema,
+        produces: 'text/csv',
+      },
       contentType: 'text/csv; charset=utf-8',
       run: ({ user, params, query }) => trends.trendCsv(ctx, user, params.id, query),
     }),
-    serviceRoute({
-      method: 'get',
+    pointRead({
       path: '/points/:id/waterfall',
-      access: ALL_ROLES,
       summary: 'last spectra of a point',
-      schemas: { params: idParam, query: waterfallQuerySchema, response: waterfallSchema },
+      schemas: {
+        params: idParam,
+        query: waterfallQuerySchema,
+        response: waterfallSchema,
+      },
       run: ({ user, params, query }) =>
         spectra.waterfall(ctx, user, params.id, query.kind, query.limit),
     }),
@@ -110,20 +126,20 @@ export function pointRoutes(ctx: AppContext): RouteSpec[] {
       schemas: { params: idParam, status: 204 },
       run: ({ user, params }) => pins.unpinCapture(ctx, user, params.id),
     }),
-    serviceRoute({
-      method: 'get',
+    pointRead({
       path: '/analyses/:id/spectrum',
-      access: ALL_ROLES,
       summary: 'stored spectrum of an analysis',
-      schemas: { params: idParam, query: spectrumQuerySchema, response: spectrumSchema },
+      schemas: {
+        params: idParam,
+        query: spectrumQuerySchema,
+        response: spectrumSchema,
+      },
       // Stored spectra never change once written.
       headers: { 'Cache-Control': 'private, max-age=3600' },
       run: ({ user, params, query }) => spectra.spectrum(ctx, user, params.id, query.kind),
     }),
-    serviceRoute({
-      method: 'get',
+    pointRead({
       path: '/analyses/:id/waveform',
-      access: ALL_ROLES,
       summary: 'time waveform of an analysis',
       schemas: { params: idParam, response: waveformSchema },
       run: ({ user, params }) => waveforms.waveform(ctx, user, params.id),

@@ -57,7 +57,7 @@ function resourceRoutes<C extends z.ZodType, U extends z.ZodType>(
       access,
       summary: create.summary,
       schemas: { body: create.body, response, status: 201 },
-      run: (req) => create.run(db, req.user, req.body as z.output<C>),
+      run: (input) => create.run(db, input.user, input.body as z.output<C>),
     }),
     serviceRoute({
       method: 'patch',
@@ -65,7 +65,7 @@ function resourceRoutes<C extends z.ZodType, U extends z.ZodType>(
       access,
       summary: update.summary,
       schemas: { params: idParam, body: update.body, response },
-      run: (req) => update.run(db, req.user, req.params.id, req.body as z.output<U>),
+      run: (input) => update.run(db, input.user, input.params.id, input.body as z.output<U>),
     }),
   ];
   if (!remove) return routes;
@@ -75,7 +75,7 @@ function resourceRoutes<C extends z.ZodType, U extends z.ZodType>(
     access,
     summary: remove.summary,
     schemas: { params: idParam, status: 204 },
-    run: (req) => remove.run(db, req.user, req.params.id),
+    run: (input) => remove.run(db, input.user, input.params.id),
   });
   return [...routes, deleteRoute];
 }
