@@ -25,7 +25,6 @@ const vendorChunks = [
   { name: 'router', test: lib('react-router|react-router-dom|cookie|set-cookie-parser') },
   { name: 'query', test: lib('@tanstack[\\\\/](?:query-core|react-query)') },
   { name: 'zod', test: lib('zod') },
-  { name: 'virtual', test: lib('@tanstack[\\\\/](?:virtual-core|react-virtual)') },
   { name: 'table', test: lib('@tanstack[\\\\/](?:table-core|react-table)') },
   { name: 'forms', test: lib('react-hook-form|@hookform') },
   // ECharts' core and what every chart uses; the polar axes stay with the one chart that
