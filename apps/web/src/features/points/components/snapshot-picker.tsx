@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
 import type { AnalysisSummary } from '@turnstone/contracts/points';
-import { Card } from '../../../components/ui/card.tsx';
+import { ViewCard } from './view-card.tsx';
 import { Field, Select } from '../../../components/ui/field.tsx';
 import { formatQuantity } from '@turnstone/contracts/number-format';
 import type { UnitSystem } from '@turnstone/contracts/units';
@@ -67,17 +67,20 @@ export function SnapshotCard({
   children: ReactNode;
 }) {
   return (
-    <Card className="flex flex-col gap-4 p-4">
-      <div className="flex flex-wrap items-end gap-4">
-        <SnapshotPicker
-          label="Snapshot"
-          analyses={analyses}
-          value={selectedId}
-          onChange={onSelect}
-        />
-        {beside}
-      </div>
+    <ViewCard
+      head={
+        <>
+          <SnapshotPicker
+            label="Snapshot"
+            analyses={analyses}
+            value={selectedId}
+            onChange={onSelect}
+          />
+          {beside}
+        </>
+      }
+    >
       {children}
-    </Card>
+    </ViewCard>
   );
 }
