@@ -5,7 +5,7 @@ import { cn } from '../../../lib/cn.ts';
 import { formatInteger } from '../../../lib/format.ts';
 import { Age } from '../../../components/ui/age.tsx';
 import type { FleetRow } from '../utils/build-fleet-rows.ts';
-import { directionLabels, machineTypeLabels } from '../utils/fleet-labels.ts';
+import { directionLabels, machineTypeLabels } from '../../../lib/machine-labels.ts';
 
 /** Grid shared by the column header and every row, so columns line up. */
 export const fleetGridColumns =

@@ -4,8 +4,8 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Button } from '../../../components/ui/button.tsx';
 import { FormCard } from '../../../components/ui/form-card.tsx';
-import { InputField, SelectField, type SelectOption } from '../../../components/ui/field.tsx';
-import { formField } from '../../../lib/form-field.ts';
+import { type SelectOption } from '../../../components/ui/field.tsx';
+import { FormFields } from '../../../components/ui/form-fields.tsx';
 import { useNow } from '../../../hooks/use-now.ts';
 import { isApiError } from '../../../lib/api-client.ts';
 import { formatDateTime } from '../../../lib/format.ts';
@@ -52,23 +52,32 @@ function CreateGatewayForm({ onCreated }: { onCreated: (name: string, key: Gatew
       className="mt-3 flex flex-wrap items-start gap-3"
       error={formError}
     >
-      <SelectField
-        label="Site"
-        className="w-64"
-        options={[
-          ['', 'Choose a site…'],
-          ...(sites.data?.items ?? []).map((s): SelectOption => [s.id, `${s.name} (${s.code})`]),
+      <FormFields
+        form={form}
+        fields={[
+          {
+            kind: 'select',
+            name: 'siteId',
+            label: 'Site',
+            className: 'w-64',
+            options: [
+              ['', 'Choose a site…'],
+              ...(sites.data?.items ?? []).map((s): SelectOption => [
+                s.id,
+                `${s.name} (${s.code})`,
+              ]),
+            ],
+            value: 'number',
+          },
+          {
+            kind: 'text',
+            name: 'name',
+            label: 'Name',
+            hint: 'Where it hangs, e.g. “Pump hall cabinet 2”.',
+            className: 'min-w-64 flex-1',
+            controlSize: 'sm',
+          },
         ]}
-        {...formField(form, 'siteId', {
-          setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)),
-        })}
-      />
-      <InputField
-        label="Name"
-        hint="Where it hangs, e.g. “Pump hall cabinet 2”."
-        className="min-w-64 flex-1"
-        controlSize="sm"
-        {...formField(form, 'name')}
       />
       <Button type="submit" variant="primary" busy={create.isPending} className="mt-6.5 h-9">
         Create gateway

@@ -1,14 +1,7 @@
 import type { MachineDetail } from '@turnstone/contracts/points';
 import { Card } from '../../../components/ui/card.tsx';
+import { machineTypeLabels } from '../../../lib/machine-labels.ts';
 
-const typeLabels: Record<MachineDetail['type'], string> = {
-  motor: 'Motor',
-  pump: 'Pump',
-  fan: 'Fan',
-  blower: 'Blower',
-  gearbox: 'Gearbox',
-  compressor: 'Compressor',
-};
 
 const fix = (v: number, d: number) => v.toFixed(d);
 
@@ -16,7 +9,7 @@ const fix = (v: number, d: number) => v.toFixed(d);
 export function MachineData({ machine }: { machine: MachineDetail }) {
   const m = machine;
   const rows: [string, string][] = [
-    ['Type', typeLabels[m.type]],
+    ['Type', machineTypeLabels[m.type]],
     ['Nominal speed', `${fix(m.nominalRpm, 0)} r/min (${fix(m.nominalRpm / 60, 2)} Hz)`],
     ['ISO 20816-3 group', `Group ${m.isoGroup}, ${m.foundation} foundation`],
     ['Criticality', m.criticality],
