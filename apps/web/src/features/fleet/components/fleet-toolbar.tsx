@@ -3,6 +3,7 @@ import { nodeStatusSchema } from '@turnstone/contracts/fleet';
 import { useId } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
 import { Input, Select } from '../../../components/ui/field.tsx';
+import { Ring, StrokePath } from '../../../components/ui/icon.tsx';
 import { statusLabels, statusOrder } from '../../../lib/node-status.ts';
 
 export function FleetToolbar({
@@ -35,13 +36,8 @@ export function FleetToolbar({
             aria-hidden="true"
             className="pointer-events-none absolute top-1/2 left-2.5 size-4 -translate-y-1/2 text-ink-faint"
           >
-            <circle cx="7" cy="7" r="4.5" fill="none" stroke="currentColor" strokeWidth="1.5" />
-            <path
-              d="m10.5 10.5 3 3"
-              stroke="currentColor"
-              strokeWidth="1.5"
-              strokeLinecap="round"
-            />
+            <Ring cx={7} r={4.5} width={1.5} />
+            <StrokePath d="m10.5 10.5 3 3" width={1.5} />
           </svg>
           <Input
             id={`${id}-q`}

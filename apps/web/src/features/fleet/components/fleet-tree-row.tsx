@@ -1,5 +1,6 @@
 import { Link } from 'react-router-dom';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
+import { StrokePath } from '../../../components/ui/icon.tsx';
 import { paths } from '../../../config/paths.ts';
 import { cn } from '../../../lib/cn.ts';
 import { formatInteger } from '../../../lib/format.ts';
@@ -29,14 +30,7 @@ function Chevron({ expanded, hidden }: { expanded: boolean; hidden: boolean }) {
         hidden && 'invisible',
       )}
     >
-      <path
-        d="M4.5 2.5 8 6 4.5 9.5"
-        fill="none"
-        stroke="currentColor"
-        strokeWidth="1.6"
-        strokeLinecap="round"
-        strokeLinejoin="round"
-      />
+      <StrokePath d="M4.5 2.5 8 6 4.5 9.5" />
     </svg>
   );
 }

@@ -15,6 +15,7 @@ import { useGateways, useSites } from '../api/get-gateways.ts';
 import { GatewayKeyDialog } from './gateway-key-dialog.tsx';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog.tsx';
 import { QueryTable } from '../../../components/ui/query-table.tsx';
+import { StrokePath } from '../../../components/ui/icon.tsx';
 
 function CreateGatewayForm({ onCreated }: { onCreated: (name: string, key: GatewayKey) => void }) {
   const sites = useSites();
@@ -142,12 +143,7 @@ export function GatewaysPanel() {
               {g.revokedAt ? (
                 <span className="inline-flex items-center gap-1.5 text-status-danger">
                   <svg viewBox="0 0 12 12" aria-hidden="true" className="size-3">
-                    <path
-                      d="M2 2 10 10M10 2 2 10"
-                      stroke="currentColor"
-                      strokeWidth="2"
-                      strokeLinecap="round"
-                    />
+                    <StrokePath d="M2 2 10 10M10 2 2 10" width={2} />
                   </svg>
                   <span className="text-ink">Revoked {formatDateTime(g.revokedAt)}</span>
                 </span>
