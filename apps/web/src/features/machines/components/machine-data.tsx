@@ -1,7 +1,7 @@
 import type { MachineDetail } from '@turnstone/contracts/points';
 import { Card } from '../../../components/ui/card.tsx';
+import { TableHead } from '../../../components/ui/table-head.tsx';
 import { machineTypeLabels } from '../../../lib/machine-labels.ts';
-
 
 const fix = (v: number, d: number) => v.toFixed(d);
 
@@ -74,14 +74,15 @@ export function MachineData({ machine }: { machine: MachineDetail }) {
           </span>
         </h2>
         <table className="w-full text-left text-sm">
-          <thead className="text-xs text-ink-muted">
-            <tr className="border-b border-line">
-              <th className="py-1 pr-4 font-medium">Name</th>
-              <th className="py-1 pr-4 text-right font-medium">Order</th>
-              <th className="py-1 pr-4 text-right font-medium">Hz</th>
-              <th className="py-1 text-right font-medium">CPM</th>
-            </tr>
-          </thead>
+          <TableHead
+            look="compact"
+            columns={[
+              'Name',
+              { label: 'Order', numeric: true },
+              { label: 'Hz', numeric: true },
+              { label: 'CPM', numeric: true },
+            ]}
+          />
           <tbody className="font-mono text-[13px]">
             {m.faultFrequencies.map((f) => (
               <tr key={f.name} className="border-b border-line/60">
