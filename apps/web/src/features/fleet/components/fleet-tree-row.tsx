@@ -49,47 +49,61 @@ function Count({ n, noun, className }: { n: number; noun: string; className?: st
   );
 }
 
-function NameCell({ row }: { row: FleetRow }) {
+/** How each kind of row shows its name. */
+const nameLook: Record<FleetRow['kind'], string> = {
+  site: 'truncate text-[14px] font-semibold',
+  area: 'truncate text-[13.5px] font-medium',
+  machine: 'truncate text-[13.5px] font-medium underline-offset-2 hover:underline',
+  point: 'truncate text-[13px] text-ink underline-offset-2 hover:underline',
+};
+
+/** A row's name (a link for machines and points), a site's code, and what the row holds. */
+function nameParts(row: FleetRow): {
+  name: string;
+  href?: string;
+  code?: string;
+  count?: { n: number; noun: string; className?: string };
+} {
   switch (row.kind) {
     case 'site':
-      return (
-        <>
-          <span className="truncate text-[14px] font-semibold">{row.site.name}</span>
-          <span className="shrink-0 rounded-sm bg-sunken px-1.5 py-px font-mono text-[11px] text-ink-muted">
-            {row.site.code}
-          </span>
-          <Count n={row.machineCount} noun="machine" />
-        </>
-      );
+      return {
+        name: row.site.name,
+        code: row.site.code,
+        count: { n: row.machineCount, noun: 'machine' },
+      };
     case 'area':
-      return (
-        <>
-          <span className="truncate text-[13.5px] font-medium">{row.area.name}</span>
-          <Count n={row.machineCount} noun="machine" />
-        </>
-      );
+      return { name: row.area.name, count: { n: row.machineCount, noun: 'machine' } };
     case 'machine':
-      return (
-        <>
-          <Link
-            to={paths.app.machine.getHref(row.machine.id)}
-            className="truncate text-[13.5px] font-medium underline-offset-2 hover:underline"
-          >
-            {row.machine.name}
-          </Link>
-          <Count n={row.machine.points.length} noun="point" className="hidden lg:inline" />
-        </>
-      );
+      return {
+        name: row.machine.name,
+        href: paths.app.machine.getHref(row.machine.id),
+        count: { n: row.machine.points.length, noun: 'point', className: 'hidden lg:inline' },
+      };
     case 'point':
-      return (
-        <Link
-          to={paths.app.point.getHref(row.point.id)}
-          className="truncate text-[13px] text-ink underline-offset-2 hover:underline"
-        >
-          {row.point.name}
-        </Link>
-      );
+      return { name: row.point.name, href: paths.app.point.getHref(row.point.id) };
   }
+}
+
+function NameCell({ row }: { row: FleetRow }) {
+  const { name, href, code, count } = nameParts(row);
+  const className = nameLook[row.kind];
+  return (
+    <>
+      {href ? (
+        <Link to={href} className={className}>
+          {name}
+        </Link>
+      ) : (
+        <span className={className}>{name}</span>
+      )}
+      {code && (
+        <span className="shrink-0 rounded-sm bg-sunken px-1.5 py-px font-mono text-[11px] text-ink-muted">
+          {code}
+        </span>
+      )}
+      {count && <Count {...count} />}
+    </>
+  );
 }
 
 function DetailCell({ row }: { row: FleetRow }) {
