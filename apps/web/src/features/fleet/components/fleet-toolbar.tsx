@@ -2,7 +2,7 @@ import type { NodeStatus } from '@turnstone/contracts/fleet';
 import { nodeStatusSchema } from '@turnstone/contracts/fleet';
 import { useId } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
-import { Input, Select } from '../../../components/ui/field.tsx';
+import { FilterSelect, Input, type SelectOption } from '../../../components/ui/field.tsx';
 import { Ring, StrokePath } from '../../../components/ui/icon.tsx';
 import { statusLabels, statusOrder } from '../../../lib/node-status.ts';
 
@@ -52,27 +52,19 @@ export function FleetToolbar({
           />
         </div>
       </div>
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`${id}-status`} className="text-xs font-medium text-ink-muted">
-          Status
-        </label>
-        <Select
-          id={`${id}-status`}
-          value={status ?? ''}
-          onChange={(event) => {
-            const parsed = nodeStatusSchema.safeParse(event.target.value);
-            onStatusChange(parsed.success ? parsed.data : null);
-          }}
-          className="w-44"
-        >
-          <option value="">All statuses</option>
-          {statusOrder.map((s) => (
-            <option key={s} value={s}>
-              {statusLabels[s]}
-            </option>
-          ))}
-        </Select>
-      </div>
+      <FilterSelect
+        label="Status"
+        options={[
+          ['', 'All statuses'],
+          ...statusOrder.map((s): SelectOption => [s, statusLabels[s]]),
+        ]}
+        value={status ?? ''}
+        onChange={(event) => {
+          const parsed = nodeStatusSchema.safeParse(event.target.value);
+          onStatusChange(parsed.success ? parsed.data : null);
+        }}
+        className="w-44 font-normal"
+      />
       <div className="flex items-center gap-1">
         <Button size="sm" variant="ghost" onClick={onExpandAll}>
           Expand all
