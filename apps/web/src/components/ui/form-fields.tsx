@@ -16,6 +16,8 @@ export type FieldSpec<T extends FieldValues> = {
 } & (
   | {
       kind: 'text';
+      type?: 'text' | 'date';
+      inputMode?: 'decimal';
       placeholder?: string;
       inputClassName?: string;
       spellCheck?: boolean;

@@ -8,12 +8,8 @@ import {
 import { useEffect, useRef } from 'react';
 import { useForm } from 'react-hook-form';
 import { Button } from '../../../components/ui/button.tsx';
-import {
-  Field,
-  InputField,
-  SelectField,
-  type SelectOption,
-} from '../../../components/ui/field.tsx';
+import { Field, InputField, type SelectOption } from '../../../components/ui/field.tsx';
+import { FormFields, type FieldSpec } from '../../../components/ui/form-fields.tsx';
 import { formField } from '../../../lib/form-field.ts';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 
@@ -27,10 +23,38 @@ const fields = [
   'plannedDowntimeHours',
 ] as const;
 
-const priorityOptions = (['high', 'medium', 'low'] as const).map((p): SelectOption => [
-  p,
-  findingPriorityLabels[p],
-]);
+const referenceFields: FieldSpec<FindingFormInput>[] = [
+  {
+    kind: 'text',
+    name: 'workOrderRef',
+    label: 'Work-order reference',
+    hint: 'From the maintenance system; needed to mark it planned.',
+    inputClassName: 'font-mono',
+    spellCheck: false,
+  },
+  { kind: 'text', name: 'dueDate', label: 'Due date', type: 'date', inputClassName: 'font-mono' },
+];
+
+const workFields: FieldSpec<FindingFormInput>[] = [
+  {
+    kind: 'select',
+    name: 'priority',
+    label: 'Priority',
+    options: (['high', 'medium', 'low'] as const).map((p): SelectOption => [
+      p,
+      findingPriorityLabels[p],
+    ]),
+  },
+  { kind: 'text', name: 'owner', label: 'Owner', hint: 'Person or crew doing the work.' },
+  {
+    kind: 'text',
+    name: 'plannedDowntimeHours',
+    label: 'Planned downtime (h)',
+    hint: 'Machine stopped for the work, hours.',
+    inputMode: 'decimal',
+    inputClassName: 'font-mono',
+  },
+];
 
 export const emptyFindingForm: FindingFormInput = {
   title: '',
@@ -120,38 +144,10 @@ export function FindingFormDialog({
         )}
         <InputField label="Title" autoFocus {...formField(form, 'title')} />
         <div className="grid gap-4 sm:grid-cols-2">
-          <InputField
-            label="Work-order reference"
-            hint="From the maintenance system; needed to mark it planned."
-            inputClassName="font-mono"
-            spellCheck={false}
-            {...formField(form, 'workOrderRef')}
-          />
-          <InputField
-            label="Due date"
-            type="date"
-            inputClassName="font-mono"
-            {...formField(form, 'dueDate')}
-          />
+          <FormFields form={form} fields={referenceFields} />
         </div>
         <div className="grid gap-4 sm:grid-cols-3">
-          <SelectField
-            label="Priority"
-            options={priorityOptions}
-            {...formField(form, 'priority')}
-          />
-          <InputField
-            label="Owner"
-            hint="Person or crew doing the work."
-            {...formField(form, 'owner')}
-          />
-          <InputField
-            label="Planned downtime (h)"
-            hint="Machine stopped for the work, hours."
-            inputMode="decimal"
-            inputClassName="font-mono"
-            {...formField(form, 'plannedDowntimeHours')}
-          />
+          <FormFields form={form} fields={workFields} />
         </div>
         <Field label="Note" error={errors.note?.message}>
           {({ invalid, ...ids }) => (
