@@ -25,7 +25,6 @@ const vendorChunks = [
   { name: 'router', test: lib('react-router|react-router-dom|cookie|set-cookie-parser') },
   { name: 'query', test: lib('@tanstack[\\\\/](?:query-core|react-query)') },
   { name: 'zod', test: lib('zod') },
-  { name: 'virtual', test: lib('@tanstack[\\\\/](?:virtual-core|react-virtual)') },
   { name: 'table', test: lib('@tanstack[\\\\/](?:table-core|react-table)') },
   { name: 'forms', test: lib('react-hook-form|@hookform') },
   // ECharts' core and what every chart uses; the polar axes stay with the one chart that
@@ -37,9 +36,9 @@ const vendorChunks = [
 ];
 
 /**
- * index.html asks for the signed-in layout's code and the session answer's schema beside the
- * main script: every screen but sign-in needs them, and the app would only ask for them once
- * the main script has run.
+ * index.html asks for the signed-in layout's code beside the main script: every screen but
+ * sign-in needs it, and the app would only ask for it once the main script has run. (The
+ * session needs no schema on a direct load: the page carries it, features/auth/api/get-me.ts.)
  */
 function preloadSignedInLayout(): Plugin {
   return {
@@ -52,10 +51,7 @@ function preloadSignedInLayout(): Plugin {
         const layout = chunks.find((c) =>
           c.facadeModuleId?.endsWith('/src/app/routes/app/root.tsx'),
         );
-        const session = chunks.find((c) =>
-          c.moduleIds.some((id) => id.endsWith('/packages/contracts/src/auth.ts')),
-        );
-        if (!layout || !session || !ctx.chunk) return;
+        if (!layout || !ctx.chunk) return;
         const loaded = new Set([ctx.chunk.fileName, ...ctx.chunk.imports]);
         const files: string[] = [];
         const add = (fileName: string) => {
@@ -66,12 +62,43 @@ function preloadSignedInLayout(): Plugin {
           chunk?.imports.forEach(add);
         };
         add(layout.fileName);
-        add(session.fileName);
         return files.map((f) => ({
           tag: 'link',
           attrs: { rel: 'modulepreload', crossorigin: true, href: `/${f}` },
           injectTo: 'head' as const,
         }));
+      },
+    },
+  };
+}
+
+/**
+ * index.html asks for the fonts' Latin files (the weights main.tsx imports) with the page:
+ * the browser would otherwise ask for each only once text in it is laid out, after the
+ * scripts have run and the first screen has rendered, and lay the page out again as each
+ * arrives (font-display: swap).
+ */
+function preloadFonts(): Plugin {
+  return {
+    name: 'turnstone-preload-fonts',
+    apply: 'build',
+    transformIndexHtml: {
+      order: 'post',
+      handler(_html, ctx) {
+        return Object.keys(ctx.bundle ?? {})
+          .filter((f) => /\/(?:inter|roboto-mono)-latin-\d+-normal-[\w-]+\.woff2$/.test(`/${f}`))
+          .sort()
+          .map((f) => ({
+            tag: 'link',
+            attrs: {
+              rel: 'preload',
+              as: 'font',
+              type: 'font/woff2',
+              crossorigin: true,
+              href: `/${f}`,
+            },
+            injectTo: 'head' as const,
+          }));
       },
     },
   };
@@ -146,11 +173,21 @@ function precompress(): Plugin {
 // One config: the web app build (root apps/web, output apps/web/dist) and the test projects.
 export default defineConfig({
   root: 'apps/web',
-  plugins: [react(), tailwindcss(), preloadSignedInLayout(), moduleMap(), precompress()],
+  plugins: [
+    react(),
+    tailwindcss(),
+    preloadSignedInLayout(),
+    preloadFonts(),
+    moduleMap(),
+    precompress(),
+  ],
   build: {
     outDir: 'dist',
     emptyOutDir: true,
     chunkSizeWarningLimit: 1200,
+    // Every browser the app supports knows <link rel=modulepreload>; the polyfill would only
+    // add its code to the main script.
+    modulePreload: { polyfill: false },
     rolldownOptions: { output: { codeSplitting: { groups: vendorChunks } } },
   },
   // The browser's Host goes through to the API (changeOrigin off), so its same-origin and

@@ -8,6 +8,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ensureWebBuilt, webDist } from '../../apps/server/src/lib/web-build.ts';
 import { jsonForHtml, screenModules } from '../../apps/server/src/lib/index-page.ts';
+import { formatDate } from '@turnstone/contracts/dates';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 
 let srv: TestServer;
@@ -26,8 +27,13 @@ function sessionBlock(html: string): { json: string; scriptEnds: number } {
   return { json: m[1]!, scriptEnds: html.split('</script>').length - 1 };
 }
 
-const preloads = (html: string, rel: string) =>
-  [...html.matchAll(new RegExp(`<link rel="${rel}"[^>]*href="([^"]+)"`, 'g'))].map((m) => m[1]!);
+/** The addresses of the page's `<link rel=…>`; fonts (`as="font"`) only when `as` asks for them. */
+const preloads = (html: string, rel: string, as?: string) =>
+  [...html.matchAll(/<link [^>]*>/g)]
+    .map((m) => m[0])
+    .filter((l) => l.includes(`rel="${rel}"`))
+    .filter((l) => (as ? l.includes(`as="${as}"`) : !l.includes('as="font"')))
+    .map((l) => /href="([^"]+)"/.exec(l)![1]!);
 
 describe('the page', () => {
   it('signed out: the session is null, nothing personal is preloaded, and it is not stored', async () => {
@@ -83,6 +89,35 @@ describe('the page', () => {
     expect(preloads(admin, 'preload')).toEqual(['/api/v1/users']);
   });
 
+  it('the weekly review opened from the navigation starts this week’s review, its sites and findings', async () => {
+    const cookie = await srv.signIn('planner');
+    const session = (await (await srv.call('GET', '/api/v1/auth/session', { cookie })).json()) as {
+      user: { timeZone: string };
+    };
+    const before = formatDate(new Date(), session.user.timeZone);
+    const html = await (await srv.call('GET', '/review', { cookie })).text();
+    const after = formatDate(new Date(), session.user.timeZone);
+    // The addresses the page asks (get-review.ts: this week in the user's zone, 4 weeks ahead;
+    // get-sites.ts; get-findings.ts with no site); a request across midnight may see either day.
+    const urls = preloads(html, 'preload');
+    expect([before, after]).toContain(/weekEnding=([\d-]+)/.exec(urls[0] ?? '')?.[1]);
+    expect(urls).toEqual([
+      expect.stringMatching(/^\/api\/v1\/review\?weekEnding=\d{4}-\d{2}-\d{2}&weeksAhead=4$/),
+      '/api/v1/sites',
+      '/api/v1/findings',
+    ]);
+    for (const url of urls) expect((await srv.call('GET', url, { cookie })).status).toBe(200);
+    // A chosen week or site is the page's to ask; an operator does not read the review.
+    const chosen = await (
+      await srv.call('GET', '/review?weekEnding=2026-11-27', { cookie })
+    ).text();
+    expect(preloads(chosen, 'preload')).toEqual([]);
+    const operator = await (
+      await srv.call('GET', '/review', { cookie: await srv.signIn('operator') })
+    ).text();
+    expect(preloads(operator, 'preload')).toEqual([]);
+  });
+
   it('a name written to end the element or open a comment stays text inside the JSON', async () => {
     // HTML Living Standard, 4.12.1.3 "Restrictions for contents of script elements": the
     // element ends at the first `</script`, and `<!--` changes how it is parsed.
@@ -98,6 +133,46 @@ describe('the page', () => {
     // The page's own scripts plus the one data block: no element was ended early.
     const plain = (await (await srv.call('GET', '/review')).text()).split('</script>').length - 1;
     expect(block.scriptEnds).toBe(plain);
+  });
+
+  it('the fleet, the first screen, loads no zod: its answer and the session are not parsed there', async () => {
+    const html = await (
+      await srv.call('GET', '/fleet', { cookie: await srv.signIn('engineer') })
+    ).text();
+    expect(preloads(html, 'preload')).toEqual(['/api/v1/fleet']);
+    const map = JSON.parse(readFileSync(join(webDist, '.vite/modules.json'), 'utf8')) as {
+      modules: Record<string, string>;
+      imports: Record<string, string[]>;
+    };
+    // What the page asks for (its scripts and preloads) and what those import statically.
+    const files = new Set<string>();
+    const visit = (file: string) => {
+      if (files.has(file)) return;
+      files.add(file);
+      map.imports[file]?.forEach(visit);
+    };
+    for (const m of html.matchAll(/(?:src|href)="\/(assets\/[\w.-]+\.js)"/g)) visit(m[1]!);
+    expect([...files].some((f) => f === map.modules['apps/web/src/app/routes/app/fleet.tsx'])).toBe(
+      true,
+    );
+    // vite.config.ts puts zod in a chunk of its own, named after it.
+    expect([...files].filter((f) => /(^|\/)zod-[\w-]+\.js$/.test(f))).toEqual([]);
+  });
+
+  it('asks for the Latin font files with the page, signed in or not, and each is in the build', async () => {
+    for (const cookie of [undefined, await srv.signIn('engineer')]) {
+      const html = await (await srv.call('GET', '/fleet', { cookie })).text();
+      const fonts = preloads(html, 'preload', 'font');
+      // main.tsx imports Inter 400, 500, 600 and Roboto Mono 400, 500.
+      expect(fonts.map((f) => f.replace(/-[\w]+\.woff2$/, ''))).toEqual([
+        '/assets/inter-latin-400-normal',
+        '/assets/inter-latin-500-normal',
+        '/assets/inter-latin-600-normal',
+        '/assets/roboto-mono-latin-400-normal',
+        '/assets/roboto-mono-latin-500-normal',
+      ]);
+      for (const f of fonts) expect(existsSync(join(webDist, f)), f).toBe(true);
+    }
   });
 
   it('every module the screens preload is still in the build (a moved file would go unnoticed)', () => {

@@ -1,10 +1,9 @@
 import type { NodeStatus } from '@turnstone/contracts/fleet';
-import { nodeStatusSchema } from '@turnstone/contracts/fleet';
 import { useId } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
 import { FilterSelect, Input, type SelectOption } from '../../../components/ui/field.tsx';
 import { Ring, StrokePath } from '../../../components/ui/icon.tsx';
-import { statusLabels, statusOrder } from '../../../lib/node-status.ts';
+import { isNodeStatus, statusLabels, statusOrder } from '../../../lib/node-status.ts';
 
 export function FleetToolbar({
   query,
@@ -60,8 +59,8 @@ export function FleetToolbar({
         ]}
         value={status ?? ''}
         onChange={(event) => {
-          const parsed = nodeStatusSchema.safeParse(event.target.value);
-          onStatusChange(parsed.success ? parsed.data : null);
+          const value = event.target.value;
+          onStatusChange(isNodeStatus(value) ? value : null);
         }}
         className="w-44 font-normal"
       />
