@@ -1,23 +1,51 @@
 import { cn } from '../../lib/cn.ts';
 
+interface Look {
+  head?: string;
+  row?: string;
+  cell: string;
+  /** The last column's cell, where it differs (no padding after the table's last column). */
+  last?: string;
+}
+
+const plain = 'text-left text-xs text-ink-muted';
+
 const looks = {
   /** On a sunken band, as in the users and mail tables. */
-  sunken: { head: 'bg-sunken', row: '', cell: 'px-3 py-2' },
+  sunken: { head: cn('bg-sunken', plain), cell: 'px-3 py-2 font-medium' },
   /** Ruled off below, as in the tables of a settings card (gateways, tokens, webhooks, audit). */
-  ruled: { head: 'border-b border-line', row: '', cell: 'px-4 py-2' },
+  ruled: { head: cn('border-b border-line', plain), cell: 'px-4 py-2 font-medium' },
   /** On a light band, labels on one line, as in the findings list. */
-  band: { head: 'bg-sunken/60', row: '', cell: 'px-3 py-2 whitespace-nowrap' },
+  band: { head: cn('bg-sunken/60', plain), cell: 'px-3 py-2 font-medium whitespace-nowrap' },
   /** Ruled off below, on a card of its own (a machine's points). */
-  lined: { head: '', row: 'border-b border-line', cell: 'px-3 py-2' },
-  /** Ruled off below, tight, for a small table beside other text (fault frequencies). */
-  compact: { head: '', row: 'border-b border-line', cell: 'py-1 pr-4 last:pr-0' },
+  lined: { head: plain, row: 'border-b border-line', cell: 'px-3 py-2 font-medium' },
+  /** Small and tight, ruled off below (the values of a trend's zoomed range). */
+  compact: {
+    head: 'text-ink-muted',
+    row: 'border-b border-line',
+    cell: 'py-1 pr-3 font-medium',
+    last: 'py-1 font-medium',
+  },
+  /** Tight, wider apart, ruled off below (a machine's fault frequencies). */
+  facts: {
+    head: plain,
+    row: 'border-b border-line',
+    cell: 'py-1 pr-4 font-medium',
+    last: 'py-1 font-medium',
+  },
   /** Tighter still, inside a list (a diagnosis hint's evidence). */
-  dense: { head: '', row: '', cell: 'py-0.5 pr-2 last:pr-0' },
-} as const;
+  dense: { head: 'text-ink-muted', cell: 'py-0.5 pr-2 font-medium', last: 'py-0.5 font-medium' },
+  /** Spaced capitals, ruled off below (the replay's summary per band). */
+  capitals: {
+    row: 'border-b border-line text-xs tracking-wide text-ink-muted uppercase',
+    cell: 'py-1.5 pr-3',
+    last: 'py-1.5',
+  },
+} satisfies Record<string, Look>;
 
 /**
- * One column: its label, `numeric` to align it right over numbers, and any classes of its own
- * (e.g. one that hides it on narrow screens).
+ * A column's label; a numeric column's label is aligned right, over its numbers. A column
+ * may carry classes of its own (e.g. one that hides it on narrow screens).
  */
 export type TableColumn = string | { label: string; numeric?: boolean; className?: string };
 
@@ -35,22 +63,33 @@ export function TableHead({
   actions?: { label: string; visible: boolean; printHidden?: boolean };
   look?: keyof typeof looks;
 }) {
-  const { head, row, cell } = looks[look];
+  const { head, row, cell, last }: Look = looks[look];
+  const lastIndex = actions ? -1 : columns.length - 1;
   return (
-    <thead className={cn(head, 'text-left text-xs text-ink-muted')}>
-      <tr className={row || undefined}>
-        {columns.map((c) => {
-          const { label, numeric, className } = typeof c === 'string' ? { label: c } : c;
+    <thead className={head}>
+      <tr className={row}>
+        {columns.map((c, i) => {
+          const { label, numeric, className } =
+            typeof c === 'string' ? { label: c, numeric: false, className: undefined } : c;
           return (
-            <th key={label} className={cn(className, cell, numeric && 'text-right', 'font-medium')}>
+            <th
+              key={label}
+              scope="col"
+              className={cn(
+                className,
+                i === lastIndex && last ? last : cell,
+                numeric && 'text-right',
+              )}
+            >
               {label}
             </th>
           );
         })}
         {actions && (
           <th
+            scope="col"
             data-print={actions.printHidden ? 'hide' : undefined}
-            className={cn(cell, 'text-right font-medium')}
+            className={cn(cell, 'text-right')}
           >
             {actions.visible ? actions.label : <span className="sr-only">{actions.label}</span>}
           </th>

@@ -89,7 +89,7 @@ export function MachineData({ machine }: { machine: MachineDetail }) {
         </h2>
         <table className="w-full text-left text-sm">
           <TableHead
-            look="compact"
+            look="facts"
             columns={[
               'Name',
               { label: 'Order', numeric: true },
