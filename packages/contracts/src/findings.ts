@@ -2,27 +2,21 @@ import { z } from 'zod';
 import { freeText, oneLine } from './text.ts';
 import { pageCursorSchema, sinceSchema } from './paging.ts';
 import { isoWeekDays } from './dates.ts';
+import { labelledChoices } from './choices.ts';
 
 /**
  * Findings: the planner's follow-ups on a point (from a trend, a forecast, an alert or a
  * data-quality notice), carried from `open` to `planned` (a work order exists) to `done`.
  */
-export const findingStateSchema = z.enum(['open', 'planned', 'done']);
+const findingStates = labelledChoices({ open: 'Open', planned: 'Planned', done: 'Done' });
+export const findingStateSchema = findingStates.schema;
 export type FindingState = z.infer<typeof findingStateSchema>;
+export const findingStateLabels = findingStates.labels;
 
-export const findingStateLabels: Record<FindingState, string> = {
-  open: 'Open',
-  planned: 'Planned',
-  done: 'Done',
-};
-
-export const findingPrioritySchema = z.enum(['high', 'medium', 'low']);
+const findingPriorities = labelledChoices({ high: 'High', medium: 'Medium', low: 'Low' });
+export const findingPrioritySchema = findingPriorities.schema;
 export type FindingPriority = z.infer<typeof findingPrioritySchema>;
-export const findingPriorityLabels: Record<FindingPriority, string> = {
-  high: 'High',
-  medium: 'Medium',
-  low: 'Low',
-};
+export const findingPriorityLabels = findingPriorities.labels;
 
 /** A calendar date, `YYYY-MM-DD`. */
 export const isoDateSchema = z.iso.date({ message: 'Use a date like 2026-11-30' });
