@@ -5,29 +5,21 @@
  * WCAG 1.4.10 reflow: no sideways scroll, nothing cut); and a first page load without a
  * console error.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { newPage, screenshot, signInAs, serverAndBrowserForFile } from '../support/browser.ts';
 import { captureVelocities, gatewayKey } from '../support/alert-captures.ts';
 import { tabUntil } from '../support/keyboard.ts';
 
-let srv: TestServer;
-let browser: Browser;
+const { srv, browser } = serverAndBrowserForFile();
 const TAG = 'MFP-P101-MDE-H';
 
 beforeAll(async () => {
-  srv = await startTestServer();
-  browser = await launchBrowser();
   const key = await gatewayKey(srv, 1);
   // P-101 (ISO group 2, rigid: template alert 2.8, danger 4.5 mm/s, persistence 2): two
   // captures at 3.5 mm/s raise alerts on overall velocity and the 1× band.
   await captureVelocities(srv, key, TAG, [1.5, 1.6, 3.5, 3.5]);
 }, 120_000);
-afterAll(async () => {
-  await browser?.close();
-  await srv?.stop();
-});
 
 /** What has the focus: tag, its text, its label and the alert id it opens. */
 const focused = (page: Page) =>

@@ -8,22 +8,19 @@
  */
 import { readFileSync, writeFileSync } from 'node:fs';
 import { strFromU8, unzipSync } from 'fflate';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
 import {
-  launchBrowser,
   newPage,
   screenshot,
   signInAs,
   tallScreenshot,
+  serverAndBrowserForFile,
 } from '../support/browser.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { formatDateTime } from '@turnstone/contracts/dates';
 
-let srv: TestServer;
-let browser: Browser;
+const { srv, browser } = serverAndBrowserForFile();
 let CLIPPED = '';
 const RISING = 'MFP-P102-MDE-H';
 const DAY_MS = 86_400_000;
@@ -32,7 +29,6 @@ const SHAFT_HZ = 1480 / 60;
 const peakGOf = (vRms: number) => (vRms * Math.SQRT2 * 2 * Math.PI * SHAFT_HZ) / 9806.65;
 
 beforeAll(async () => {
-  srv = await startTestServer();
   const key = await srv.gatewayKey();
   const send = async (tag: string, uid: string, day: number, vRms: number) => {
     const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
@@ -69,12 +65,7 @@ beforeAll(async () => {
   });
   expect(res.status).toBe(201);
   await createWorker(srv.ctx).drain();
-  browser = await launchBrowser();
 }, 120_000);
-afterAll(async () => {
-  await browser?.close();
-  await srv?.stop();
-});
 
 describe('weekly review in a real browser', () => {
   it('planner opens the review, creates a finding from a forecast row, plans it, exports CSV and prints', async () => {

@@ -6,23 +6,21 @@
  * numbers are read; the waterfall's hover readout; the point page at tablet width (820 px);
  * and the harmonic, sideband and A/B cursors set with the keyboard alone.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Locator, Page } from 'playwright-core';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Locator, Page } from 'playwright-core';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
 import {
-  launchBrowser,
   newPage,
   screenshot,
   signInAs,
   tallScreenshot,
+  serverAndBrowserForFile,
 } from '../support/browser.ts';
 import { gatewayKey, peakGFor } from '../support/alert-captures.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { focused, tabTo } from '../support/keyboard.ts';
 
-let srv: TestServer;
-let browser: Browser;
+const { srv, browser } = serverAndBrowserForFile();
 let alertId: number;
 let pointId: number;
 let unusableId: number;
@@ -33,8 +31,6 @@ const SHAFT_HZ = RPM / 60;
 const HOUR = 3600_000;
 
 beforeAll(async () => {
-  srv = await startTestServer();
-  browser = await launchBrowser();
   const key = await gatewayKey(srv, 1);
   // Hourly captures of P-101 with the speed: 1× growing past the template's alert level
   // (2.8 mm/s, persistence 2) and a 212 Hz bearing-like tone; the newest one clips
@@ -85,10 +81,6 @@ beforeAll(async () => {
   );
   unusableId = Number(u!.id);
 }, 120_000);
-afterAll(async () => {
-  await browser?.close();
-  await srv?.stop();
-});
 
 /** The zoom keys' live line: "… : 0 Hz to 988.0 Hz" → [0, 988]. */
 async function shownWindow(page: Page): Promise<[number, number]> {
