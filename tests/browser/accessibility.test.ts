@@ -11,7 +11,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { newPage, OUTPUT_DIR, signInAs, serverAndBrowserForFile } from '../support/browser.ts';
+import { newPage, serverAndBrowserForFile } from '../support/browser.ts';
 import {
   captureVelocities,
   dailyBodies,
@@ -20,7 +20,7 @@ import {
 } from '../support/alert-captures.ts';
 import { seriousViolations, type AxeFinding } from '../support/axe.ts';
 
-const { srv, browser } = serverAndBrowserForFile({ gateway: true });
+const { srv, browser, pageAs } = serverAndBrowserForFile({ gateway: true });
 let pointId: number;
 let machineId: number;
 let alertId: number;
@@ -125,8 +125,7 @@ describe('axe-core on every screen of every role (WCAG 2.0/2.1 A and AA)', () =>
   }, 300_000);
 
   it('operator', async () => {
-    const page = await newPage(browser);
-    await signInAs(page, srv.url, 'operator');
+    const page = await pageAs('operator');
     await visit(page, '/fleet', 'operator fleet');
     await alertScreens(page, 'operator');
     await pointScreens(page, 'operator');
@@ -136,8 +135,7 @@ describe('axe-core on every screen of every role (WCAG 2.0/2.1 A and AA)', () =>
   }, 300_000);
 
   it('maintenance planner', async () => {
-    const page = await newPage(browser);
-    await signInAs(page, srv.url, 'planner');
+    const page = await pageAs('planner');
     await visit(page, '/fleet', 'planner fleet');
     await alertScreens(page, 'planner');
     await visit(page, '/review', 'planner review');
@@ -147,8 +145,7 @@ describe('axe-core on every screen of every role (WCAG 2.0/2.1 A and AA)', () =>
   }, 300_000);
 
   it('reliability engineer', async () => {
-    const page = await newPage(browser);
-    await signInAs(page, srv.url, 'engineer');
+    const page = await pageAs('engineer');
     await visit(page, '/fleet', 'engineer fleet');
     await alertScreens(page, 'engineer');
     await pointScreens(page, 'engineer');
@@ -186,8 +183,7 @@ describe('axe-core on every screen of every role (WCAG 2.0/2.1 A and AA)', () =>
   }, 300_000);
 
   it('administrator', async () => {
-    const page = await newPage(browser);
-    await signInAs(page, srv.url, 'admin');
+    const page = await pageAs('admin');
     await visit(page, '/fleet', 'admin fleet');
     await alertScreens(page, 'admin');
     await visit(page, '/review', 'admin review');

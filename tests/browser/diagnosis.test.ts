@@ -1,19 +1,13 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { demoChannels } from '@turnstone/demo-scenario/plant-channels';
 import { simulateSnapshot, toIngestItem } from '@turnstone/demo-scenario/simulated-snapshot';
-import {
-  newPage,
-  screenshot,
-  signInAs,
-  chartCanvas as chart,
-  serverAndBrowserForFile,
-} from '../support/browser.ts';
+import { screenshot, chartCanvas as chart, serverAndBrowserForFile } from '../support/browser.ts';
 import { pointOfTag, postAndAnalyse } from '../support/alert-captures.ts';
 
 // P-201's developing unbalance from the gateway simulator (with tach pulses): eight captures
 // a day apart over the last part of the story; the last ones carry an unbalance hint and the
 // 1× vector grows.
-const { srv, browser } = serverAndBrowserForFile({ gateway: true });
+const { srv, pageAs } = serverAndBrowserForFile({ gateway: true });
 let pointId: number;
 let machineId: number;
 let alertId: number;
@@ -41,8 +35,7 @@ beforeAll(async () => {
 
 describe('diagnosis hints and the 1× vector in a real browser', () => {
   it('the spectrum shows the hints beside the chart and marks the evidence of the chosen one', async () => {
-    const page = await newPage(browser, 1366, 900);
-    await signInAs(page, srv.url, 'planner');
+    const page = await pageAs('planner', 1366, 900);
     await page.goto(`${srv.url}/points/${pointId}`);
     await page.getByRole('tab', { name: 'Spectrum' }).click();
     await chart(page, /^Velocity spectrum/);
@@ -62,8 +55,7 @@ describe('diagnosis hints and the 1× vector in a real browser', () => {
   });
 
   it('the point shows the 1× vector over time and on a polar plot', async () => {
-    const page = await newPage(browser, 1366, 900);
-    await signInAs(page, srv.url, 'engineer');
+    const page = await pageAs('engineer', 1366, 900);
     await page.goto(`${srv.url}/points/${pointId}`);
     await page.getByRole('tab', { name: '1× vector' }).click();
     await chart(page, /^1× vector over time/);
@@ -85,8 +77,7 @@ describe('diagnosis hints and the 1× vector in a real browser', () => {
   });
 
   it('the machine page and the alert detail show the current hints', async () => {
-    const page = await newPage(browser, 1366, 900);
-    await signInAs(page, srv.url, 'operator');
+    const page = await pageAs('operator', 1366, 900);
     await page.goto(`${srv.url}/machines/${machineId}`);
     await page.getByRole('heading', { name: 'Current diagnosis hints' }).waitFor();
     await page

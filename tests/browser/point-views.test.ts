@@ -1,15 +1,13 @@
 import { readFileSync } from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
 import {
-  newPage,
   screenshot,
-  signInAs,
   chartCanvas as canvasIn,
   serverAndBrowserForFile,
 } from '../support/browser.ts';
 import { dailyBodies, pointOfTag, postAndAnalyse } from '../support/alert-captures.ts';
 
-const { srv, browser } = serverAndBrowserForFile({ gateway: true });
+const { srv, pageAs } = serverAndBrowserForFile({ gateway: true });
 let pointId: number;
 let machineId: number;
 let clippedAnalysisId: number;
@@ -37,8 +35,7 @@ beforeAll(async () => {
 
 describe('point analysis views in a real browser', () => {
   it('the machine page lists its points with values, zone and small trends', async () => {
-    const page = await newPage(browser, 1280, 900);
-    await signInAs(page, srv.url, 'engineer');
+    const page = await pageAs('engineer', 1280, 900);
     await page.goto(`${srv.url}/machines/${machineId}`);
     await page.getByRole('heading', { name: 'Fault frequencies' }).waitFor();
     await page
@@ -54,8 +51,7 @@ describe('point analysis views in a real browser', () => {
   });
 
   it('opens a point from the fleet tree, sees trend and spectrum charts, switches to orders and downloads a CSV', async () => {
-    const page = await newPage(browser, 1280, 900);
-    await signInAs(page, srv.url, 'operator');
+    const page = await pageAs('operator', 1280, 900);
     await page.goto(`${srv.url}/points/${pointId}`);
     await page.getByRole('heading', { name: 'Motor drive end, horizontal' }).waitFor();
     await canvasIn(page, /^Trend of /);
@@ -100,8 +96,7 @@ describe('point analysis views in a real browser', () => {
   });
 
   it('the fleet tree links a point to its page', async () => {
-    const page = await newPage(browser, 1280, 900);
-    await signInAs(page, srv.url, 'planner');
+    const page = await pageAs('planner', 1280, 900);
     await page.getByRole('treeitem').first().waitFor();
     const search = page
       .getByRole('searchbox')

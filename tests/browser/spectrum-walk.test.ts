@@ -8,19 +8,12 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { Locator, Page } from 'playwright-core';
-import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import {
-  newPage,
-  screenshot,
-  signInAs,
-  tallScreenshot,
-  serverAndBrowserForFile,
-} from '../support/browser.ts';
-import { gatewayKey, peakGFor } from '../support/alert-captures.ts';
+import { screenshot, tallScreenshot, serverAndBrowserForFile } from '../support/browser.ts';
+import { peakGFor, postAndAnalyse } from '../support/alert-captures.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { focused, tabTo } from '../support/keyboard.ts';
 
-const { srv, browser } = serverAndBrowserForFile();
+const { srv, pageAs } = serverAndBrowserForFile({ gateway: true });
 let alertId: number;
 let pointId: number;
 let unusableId: number;
@@ -31,7 +24,6 @@ const SHAFT_HZ = RPM / 60;
 const HOUR = 3600_000;
 
 beforeAll(async () => {
-  const key = await gatewayKey(srv, 1);
   // Hourly captures of P-101 with the speed: 1× growing past the template's alert level
   // (2.8 mm/s, persistence 2) and a 212 Hz bearing-like tone; the newest one clips
   // (60 g peak on a ±50 g range), so it is unusable and the header must say so.
@@ -59,14 +51,7 @@ beforeAll(async () => {
       takenAt: new Date(t0 + 7 * HOUR).toISOString(),
     }),
   );
-  for (const body of bodies) {
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body,
-      headers: { authorization: `Bearer ${key}` },
-    });
-    expect(res.status).toBe(201);
-  }
-  await createWorker(srv.ctx, { owner: 'walk' }).drain();
+  await postAndAnalyse(srv, srv.key, bodies, 'walk');
   const cookie = await srv.signIn('engineer');
   const list = await (await srv.call('GET', '/api/v1/alerts', { cookie })).json();
   type Item = { id: number; pointTag: string; bandKey: string; pointId: number };
@@ -127,8 +112,7 @@ async function rows(page: Page, caption: string): Promise<string[][]> {
 
 describe('from an alert to the spectrum of its band', () => {
   it('one click opens velocity over 0–40 orders; cursors keep the zoom; compare shows the change', async () => {
-    const page = await newPage(browser, 1280, 900);
-    await signInAs(page, srv.url, 'engineer');
+    const page = await pageAs('engineer', 1280, 900);
     await page.goto(`${srv.url}/alerts?alert=${alertId}`);
     const panel = page.getByRole('region', { name: /Overall velocity/ });
     const link = panel.getByRole('link', { name: /^Spectrum of Overall velocity/ });
@@ -241,8 +225,7 @@ describe('from an alert to the spectrum of its band', () => {
   });
 
   it('at tablet width (820 px) the point page and its spectrum fit without sideways scrolling', async () => {
-    const page = await newPage(browser, 820, 1180);
-    await signInAs(page, srv.url, 'engineer');
+    const page = await pageAs('engineer', 820, 1180);
     await page.goto(`${srv.url}/points/${pointId}?band=overall-velocity&view=spectrum`);
     const chart = page.getByRole('img', { name: /^Velocity spectrum/ });
     await chart.locator('canvas').first().waitFor();
@@ -258,8 +241,7 @@ describe('from an alert to the spectrum of its band', () => {
   });
 
   it('with the keyboard alone, the keyboard cursor walks the peaks and sets the harmonic, sideband and A/B cursors without losing the zoom', async () => {
-    const page = await newPage(browser, 1280, 900);
-    await signInAs(page, srv.url, 'engineer');
+    const page = await pageAs('engineer', 1280, 900);
     await page.goto(`${srv.url}/points/${pointId}?band=overall-velocity&view=spectrum`);
     await page
       .getByRole('img', { name: /^Velocity spectrum/ })

@@ -80,7 +80,12 @@ export function withServerAndBrowser(
  */
 export function serverAndBrowserForFile<Role extends string = never>(
   o: FileServerOptions<Role> = {},
-): { srv: FileServer<Role>; browser: Browser } {
+): {
+  srv: FileServer<Role>;
+  browser: Browser;
+  /** A new page (1280 × 860 unless given) signed in as `role` through the sign-in form. */
+  pageAs(role: string, width?: number, height?: number): Promise<Page>;
+} {
   const srv = testServerForFile(o);
   let running: Browser | undefined;
   beforeAll(async () => {
@@ -97,7 +102,12 @@ export function serverAndBrowserForFile<Role extends string = never>(
       return typeof value === 'function' ? value.bind(running) : value;
     },
   });
-  return { srv, browser };
+  const pageAs = async (role: string, width?: number, height?: number) => {
+    const page = await newPage(browser, width, height);
+    await signInAs(page, srv.url, role);
+    return page;
+  };
+  return { srv, browser, pageAs };
 }
 
 /** The app scrolls inside <main>; grow the viewport to the content so the shot shows it all. */
