@@ -5,11 +5,10 @@
  * instrument's recording), with their value in the trend.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { writeWav } from '@turnstone/dsp';
 import { trendResponseSchema } from '@turnstone/contracts/trend';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { testServerForFile } from '../support/api-suite.ts';
-import { toneCounts } from '../support/signals.ts';
+import { routeRecordingForm, toneCounts } from '../support/signals.ts';
 import { acknowledgeAndOpenFinding, postVelocities } from '../support/alert-captures.ts';
 
 const srv = testServerForFile({ signIn: ['engineer', 'planner'], gateway: true });
@@ -108,17 +107,12 @@ describe('trend events', () => {
       noiseG: 0.001,
       seed: 7,
     });
-    const form = new FormData();
-    const fields = {
-      sensitivityMvPerG: '100',
-      fullScaleV: '5',
-      bits: '16',
-      speedRpm: '1480',
-      takenAt: new Date(t0 + 2.5 * HOUR).toISOString(),
-    };
-    for (const [k, v] of Object.entries(fields)) form.append(k, v);
-    const wav = writeWav(counts, 10240, 'int16');
-    form.append('file', new Blob([wav as Uint8Array<ArrayBuffer>]), 'route-p101-de.wav');
+    const takenAt = new Date(t0 + 2.5 * HOUR).toISOString();
+    const form = routeRecordingForm(counts, {
+      speedRpm: 1480,
+      takenAt,
+      fileName: 'route-p101-de.wav',
+    });
     const res = await srv.call('POST', `/api/v1/points/${pointId}/uploads`, {
       cookie: srv.cookies.engineer,
       raw: form,
@@ -129,7 +123,7 @@ describe('trend events', () => {
     const body = await trend('overall-velocity');
     expect(body.uploads).toHaveLength(1);
     const u = body.uploads[0]!;
-    expect(u).toMatchObject({ t: fields.takenAt, fileName: 'route-p101-de.wav', q: 'ok' });
+    expect(u).toMatchObject({ t: takenAt, fileName: 'route-p101-de.wav', q: 'ok' });
     expect(u.by).toMatch(/\S/);
     expect(u.v).toBeGreaterThan(5.518 * 0.97);
     expect(u.v).toBeLessThan(5.518 * 1.03);

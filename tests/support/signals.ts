@@ -1,6 +1,7 @@
 /** Deterministic test captures: tones of known amplitude in ADC counts. Not demo data. */
 import { mulberry32 } from '@turnstone/dsp/seeded-random';
 import { encodeSamples } from '@turnstone/dsp/sample-codec';
+import { writeWav } from '@turnstone/dsp/read-wav';
 
 /** Mulberry32, seeded, so every run sends the same noise. */
 export const prng = mulberry32;
@@ -60,4 +61,26 @@ export function snapshotBody(
     sensor: { sensitivityMvPerG: o.sensitivityMvPerG ?? 100 },
     ...(o.speedRpm ? { speedRpm: o.speedRpm } : {}),
   };
+}
+
+/**
+ * The upload form of a route recording from a portable instrument: `counts` as a 16-bit WAV
+ * at 10240 Hz from a 100 mV/g sensor on a ±5 V range, with the shaft speed and time taken.
+ */
+export function routeRecordingForm(
+  counts: Int16Array,
+  o: { speedRpm: number; takenAt: string; fileName: string },
+): FormData {
+  const form = new FormData();
+  const fields = {
+    sensitivityMvPerG: '100',
+    fullScaleV: '5',
+    bits: '16',
+    speedRpm: String(o.speedRpm),
+    takenAt: o.takenAt,
+  };
+  for (const [k, v] of Object.entries(fields)) form.append(k, v);
+  const wav = writeWav(counts, 10240, 'int16');
+  form.append('file', new Blob([wav as Uint8Array<ArrayBuffer>]), o.fileName);
+  return form;
 }
