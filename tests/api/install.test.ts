@@ -12,18 +12,16 @@ import { join } from 'node:path';
 import { freePort } from '@turnstone/db/local-server';
 import { start } from '../../apps/server/src/server.ts';
 import { startViteDev } from '../../apps/server/src/dev-vite.ts';
-import { freshDatabase, startTestServer, type TestServer } from '../support/test-server.ts';
+import {
+  freshDatabase,
+  QUIET_SERVER_ENV,
+  startTestServer,
+  type TestServer,
+} from '../support/test-server.ts';
 import { snapshotBody } from '../support/signals.ts';
 
 const tmp = () => mkdtempSync(join(process.env.TURNSTONE_TEST_TMP ?? tmpdir(), 'install-'));
-const quiet = {
-  PORT: '0',
-  HOST: '127.0.0.1',
-  BUILD_WEB: 'false',
-  LOG_LEVEL: 'silent',
-  RUN_WORKER: 'false',
-  DEMO_HISTORY_WEEKS: '0',
-};
+const quiet = QUIET_SERVER_ENV;
 
 interface Child {
   /** Output so far (stdout and stderr). */

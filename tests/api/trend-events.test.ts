@@ -8,7 +8,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { trendResponseSchema } from '@turnstone/contracts/trend';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { testServerForFile } from '../support/api-suite.ts';
-import { routeRecordingForm, toneCounts } from '../support/signals.ts';
+import { routeRecordingForm } from '../support/signals.ts';
 import { acknowledgeAndOpenFinding, postVelocities } from '../support/alert-captures.ts';
 
 const srv = testServerForFile({ signIn: ['engineer', 'planner'], gateway: true });
@@ -100,15 +100,10 @@ describe('trend events', () => {
   it('a capture uploaded from a file is marked with who uploaded it, the file and its value', async () => {
     // 0.5 g peak at 100 Hz: velocity peak a/(2πf) = 0.5·9806.65/(2π·100) = 7.804 mm/s, RMS
     // 7.804/√2 = 5.518 mm/s (calculus of a sinusoid, textbook); ISO band 10–1000 Hz holds it.
-    const counts = toneCounts({
-      n: 8192,
-      fs: 10240,
-      tones: [{ hz: 100, peakG: 0.5 }],
-      noiseG: 0.001,
-      seed: 7,
-    });
     const takenAt = new Date(t0 + 2.5 * HOUR).toISOString();
-    const form = routeRecordingForm(counts, {
+    const form = routeRecordingForm({
+      tones: [{ hz: 100, peakG: 0.5 }],
+      seed: 7,
       speedRpm: 1480,
       takenAt,
       fileName: 'route-p101-de.wav',

@@ -19,7 +19,7 @@ import {
   captureVelocities,
   gatewayKey,
 } from '../support/alert-captures.ts';
-import { routeRecordingForm, toneCounts } from '../support/signals.ts';
+import { routeRecordingForm } from '../support/signals.ts';
 
 let srv: TestServer;
 let browser: Browser;
@@ -70,14 +70,9 @@ beforeAll(async () => {
   });
   expect(put.status).toBe(200);
   // A route recording from a portable instrument: 0.3 g peak at 24.7 Hz, 16-bit at ±5 V.
-  const counts = toneCounts({
-    n: 8192,
-    fs: 10240,
+  const form = routeRecordingForm({
     tones: [{ hz: 24.7, peakG: 0.03 }],
-    noiseG: 0.001,
     seed: 3,
-  });
-  const form = routeRecordingForm(counts, {
     speedRpm: 1482,
     takenAt: new Date(t0 + 2.5 * HOUR).toISOString(),
     fileName: 'route-p101-de.wav',

@@ -64,13 +64,18 @@ export function snapshotBody(
 }
 
 /**
- * The upload form of a route recording from a portable instrument: `counts` as a 16-bit WAV
- * at 10240 Hz from a 100 mV/g sensor on a ±5 V range, with the shaft speed and time taken.
+ * The upload form of a route recording from a portable instrument: 8192 samples at 10240 Hz
+ * of `tones` over 0.001 g of noise (seeded), from a 100 mV/g sensor on a ±5 V, 16-bit range,
+ * as a WAV file, with the shaft speed and the time taken.
  */
-export function routeRecordingForm(
-  counts: Int16Array,
-  o: { speedRpm: number; takenAt: string; fileName: string },
-): FormData {
+export function routeRecordingForm(o: {
+  tones: ToneOptions['tones'];
+  seed: number;
+  speedRpm: number;
+  takenAt: string;
+  fileName: string;
+}): FormData {
+  const counts = toneCounts({ n: 8192, fs: 10240, tones: o.tones, noiseG: 0.001, seed: o.seed });
   const form = new FormData();
   const fields = {
     sensitivityMvPerG: '100',
