@@ -53,18 +53,23 @@ export const isoWeekSchema = z
   .string()
   .refine((w) => isoWeekDays(w) !== null, { message: 'Use a week like 2026-W49' });
 
-/** `POST /api/v1/findings` */
-export const createFindingSchema = z.object({
-  pointId: z.number().int().positive(),
-  alertId: z.number().int().positive().nullable().optional(),
-  bandKey: z.string().min(1).max(64).nullable().optional(),
-  title: titleSchema,
+/** The planner's fields of a finding, as creating and updating one take them (all optional). */
+const planningShape = {
   workOrderRef: blankable(workOrderRefSchema),
   dueDate: blankable(isoDateSchema),
   note: blankable(noteSchema),
   priority: findingPrioritySchema.optional(),
   owner: blankable(ownerSchema),
   plannedDowntimeHours: z.union([z.null(), downtimeSchema]).optional(),
+};
+
+/** `POST /api/v1/findings` */
+export const createFindingSchema = z.object({
+  pointId: z.number().int().positive(),
+  alertId: z.number().int().positive().nullable().optional(),
+  bandKey: z.string().min(1).max(64).nullable().optional(),
+  title: titleSchema,
+  ...planningShape,
 });
 export type CreateFindingInput = z.input<typeof createFindingSchema>;
 
@@ -121,12 +126,7 @@ export const updateFindingSchema = z
   .object({
     state: findingStateSchema.optional(),
     title: titleSchema.optional(),
-    workOrderRef: blankable(workOrderRefSchema),
-    dueDate: blankable(isoDateSchema),
-    note: blankable(noteSchema),
-    priority: findingPrioritySchema.optional(),
-    owner: blankable(ownerSchema),
-    plannedDowntimeHours: z.union([z.null(), downtimeSchema]).optional(),
+    ...planningShape,
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), {
     message: 'Nothing to change',
