@@ -37,9 +37,9 @@ const vendorChunks = [
 ];
 
 /**
- * index.html asks for the signed-in layout's code and the session answer's schema beside the
- * main script: every screen but sign-in needs them, and the app would only ask for them once
- * the main script has run.
+ * index.html asks for the signed-in layout's code beside the main script: every screen but
+ * sign-in needs it, and the app would only ask for it once the main script has run. (The
+ * session needs no schema on a direct load: the page carries it, features/auth/api/get-me.ts.)
  */
 function preloadSignedInLayout(): Plugin {
   return {
@@ -52,10 +52,7 @@ function preloadSignedInLayout(): Plugin {
         const layout = chunks.find((c) =>
           c.facadeModuleId?.endsWith('/src/app/routes/app/root.tsx'),
         );
-        const session = chunks.find((c) =>
-          c.moduleIds.some((id) => id.endsWith('/packages/contracts/src/auth.ts')),
-        );
-        if (!layout || !session || !ctx.chunk) return;
+        if (!layout || !ctx.chunk) return;
         const loaded = new Set([ctx.chunk.fileName, ...ctx.chunk.imports]);
         const files: string[] = [];
         const add = (fileName: string) => {
@@ -66,7 +63,6 @@ function preloadSignedInLayout(): Plugin {
           chunk?.imports.forEach(add);
         };
         add(layout.fileName);
-        add(session.fileName);
         return files.map((f) => ({
           tag: 'link',
           attrs: { rel: 'modulepreload', crossorigin: true, href: `/${f}` },

@@ -9,6 +9,7 @@ import { Ajv2020 } from 'ajv/dist/2020.js';
 import addFormats from 'ajv-formats';
 import { openApiPath } from '../../apps/server/src/features/api-docs/api-openapi.ts';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import { pointerOf } from '../support/openapi-refs.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { snapshotBody, toneCounts } from '../support/signals.ts';
 import { pcmWavBytes } from '../support/wav-bytes.ts';
@@ -95,16 +96,8 @@ async function conforms(
   if (res.status === 204) return { status: res.status, body: null };
   expect(res.headers.get('content-type')).toMatch(/^application\/json\b/);
   const body = await res.json();
-  const schemaPath = pointer(
-    'paths',
-    openApiPath(template),
-    method.toLowerCase(),
-    'responses',
-    key,
-    'content',
-    'application/json',
-    'schema',
-  );
+  const answerAt = pointer('paths', openApiPath(template), method.toLowerCase(), 'responses', key);
+  const schemaPath = `${pointerOf(op.responses[key], answerAt)}/${pointer('content', 'application/json', 'schema')}`;
   const validate = ajv.getSchema(`api#/${schemaPath}`);
   expect(validate, `${method} ${template} ${status}: no schema`).toBeDefined();
   expect(

@@ -100,6 +100,30 @@ describe('the page', () => {
     expect(block.scriptEnds).toBe(plain);
   });
 
+  it('the fleet, the first screen, loads no zod: its answer and the session are not parsed there', async () => {
+    const html = await (
+      await srv.call('GET', '/fleet', { cookie: await srv.signIn('engineer') })
+    ).text();
+    expect(preloads(html, 'preload')).toEqual(['/api/v1/fleet']);
+    const map = JSON.parse(readFileSync(join(webDist, '.vite/modules.json'), 'utf8')) as {
+      modules: Record<string, string>;
+      imports: Record<string, string[]>;
+    };
+    // What the page asks for (its scripts and preloads) and what those import statically.
+    const files = new Set<string>();
+    const visit = (file: string) => {
+      if (files.has(file)) return;
+      files.add(file);
+      map.imports[file]?.forEach(visit);
+    };
+    for (const m of html.matchAll(/(?:src|href)="\/(assets\/[\w.-]+\.js)"/g)) visit(m[1]!);
+    expect([...files].some((f) => f === map.modules['apps/web/src/app/routes/app/fleet.tsx'])).toBe(
+      true,
+    );
+    // vite.config.ts puts zod in a chunk of its own, named after it.
+    expect([...files].filter((f) => /(^|\/)zod-[\w-]+\.js$/.test(f))).toEqual([]);
+  });
+
   it('every module the screens preload is still in the build (a moved file would go unnoticed)', () => {
     const map = JSON.parse(readFileSync(join(webDist, '.vite/modules.json'), 'utf8')) as {
       modules: Record<string, string>;

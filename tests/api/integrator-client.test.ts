@@ -18,6 +18,7 @@ import {
   demoEmail,
   type TestServer,
 } from '../support/test-server.ts';
+import { deref } from '../support/openapi-refs.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { peakGFor } from '../support/alert-captures.ts';
 import type { paths as DashboardPaths } from '../support/dashboard-api.ts';
@@ -61,7 +62,9 @@ describe('the two OpenAPI documents', () => {
       scheme: 'bearer',
     });
     const create = dashboardDoc.paths['/findings'].post;
-    expect(create.parameters.map((p: { name: string }) => p.name)).toContain('Idempotency-Key');
+    expect(
+      create.parameters.map((p: unknown) => (deref(dashboardDoc, p) as { name: string }).name),
+    ).toContain('Idempotency-Key');
     expect(Object.keys(create.responses)).toEqual(expect.arrayContaining(['201', '409', '422']));
   });
 });

@@ -1451,9 +1451,1721 @@ export interface components {
                 details?: unknown;
             };
         };
+        SignInResponse: {
+            user: components["schemas"]["Me"];
+        };
+        Me: {
+            id: number;
+            email: string;
+            name: string;
+            role: components["schemas"]["Role"];
+            siteIds: number[];
+            unitSystem: components["schemas"]["UnitSystem"];
+            timeZone: string;
+        };
+        /** @enum {string} */
+        Role: "admin" | "engineer" | "planner" | "operator";
+        /** @enum {string} */
+        UnitSystem: "metric" | "imperial";
+        SignInRequestInput: {
+            /** Format: email */
+            email: string;
+            password: string;
+        };
+        SessionResponse: {
+            user: components["schemas"]["Me"] | null;
+        };
+        SiteList: {
+            items: components["schemas"]["Site"][];
+        };
+        Site: {
+            id: number;
+            name: string;
+            code: string;
+            timeZone: string;
+        };
+        Fleet: {
+            items: components["schemas"]["FleetSite"][];
+        };
+        FleetSite: {
+            id: number;
+            name: string;
+            code: string;
+            timeZone: string;
+            areas: components["schemas"]["FleetArea"][];
+        };
+        FleetArea: {
+            id: number;
+            name: string;
+            machines: components["schemas"]["FleetMachine"][];
+        };
+        FleetMachine: {
+            id: number;
+            name: string;
+            type: components["schemas"]["MachineType"];
+            nominalRpm: number;
+            status: components["schemas"]["NodeStatus"];
+            points: components["schemas"]["FleetPoint"][];
+        };
+        /** @enum {string} */
+        MachineType: "motor" | "pump" | "fan" | "blower" | "gearbox" | "compressor";
+        /** @enum {string} */
+        NodeStatus: "ok" | "alert" | "danger" | "quality" | "stale" | "none";
+        FleetPoint: {
+            id: number;
+            tag: string;
+            name: string;
+            direction: components["schemas"]["Direction"];
+            status: components["schemas"]["NodeStatus"];
+            lastTakenAt: string | null;
+        };
+        /** @enum {string} */
+        Direction: "H" | "V" | "A";
+        GatewayList: {
+            items: components["schemas"]["Gateway"][];
+        };
+        Gateway: {
+            id: number;
+            siteId: number;
+            siteName: string;
+            siteCode: string;
+            name: string;
+            keyPrefix: string;
+            revokedAt: string | null;
+            lastSeenAt: string | null;
+            postsLastHour: number;
+            createdAt: string;
+        };
+        GatewayKey: {
+            id: number;
+            apiKey: string;
+            keyPrefix: string;
+        };
+        CreateGatewayInput: {
+            siteId: number;
+            name: string;
+        };
+        RetentionPolicy: {
+            rawSamplesDays: number;
+            spectraWholeDays: number;
+            spectraHourlyDays: number;
+            captureMonths: number;
+            keepWindowMinutes: number;
+            batchSize: number;
+            batchPauseMs: number;
+            schedule: string;
+        };
+        UploadResult: {
+            snapshotId: number;
+            /** @enum {string} */
+            status: "queued" | "already-uploaded";
+            samples: number;
+            sampleRateHz: number;
+            /** @enum {string} */
+            encoding: "int16" | "int24" | "int32" | "float32";
+        };
+        AlertPage: {
+            items: components["schemas"]["Alert"][];
+            nextCursor: string | null;
+        };
+        Alert: {
+            id: number;
+            level: components["schemas"]["AlertLevel"];
+            state: components["schemas"]["AlertState"];
+            pointId: number;
+            pointTag: string;
+            pointName: string;
+            machineId: number;
+            machineName: string;
+            siteId: number;
+            siteCode: string;
+            bandKey: string;
+            bandName: string;
+            unit: string;
+            value: number;
+            peakValue: number;
+            limit: number;
+            suspect: boolean;
+            firstAt: string;
+            lastAt: string;
+            clearedAt: string | null;
+            acknowledgedBy: string | null;
+            acknowledgedAt: string | null;
+            acknowledgeNote: string | null;
+            updatedAt: string;
+        };
+        /** @enum {string} */
+        AlertLevel: "alert" | "danger";
+        /** @enum {string} */
+        AlertState: "raised" | "acknowledged" | "cleared";
+        AcknowledgeResponse: {
+            items: components["schemas"]["Alert"][];
+        };
+        AcknowledgeManyRequestInput: {
+            ids: number[];
+            note: components["schemas"]["AcknowledgeNote"];
+        };
+        AcknowledgeNote: string;
+        AlertDetail: {
+            id: number;
+            level: components["schemas"]["AlertLevel"];
+            state: components["schemas"]["AlertState"];
+            pointId: number;
+            pointTag: string;
+            pointName: string;
+            machineId: number;
+            machineName: string;
+            siteId: number;
+            siteCode: string;
+            bandKey: string;
+            bandName: string;
+            unit: string;
+            value: number;
+            peakValue: number;
+            limit: number;
+            suspect: boolean;
+            firstAt: string;
+            lastAt: string;
+            clearedAt: string | null;
+            acknowledgedBy: string | null;
+            acknowledgedAt: string | null;
+            acknowledgeNote: string | null;
+            updatedAt: string;
+            clearRule: components["schemas"]["AlertClearRule"] | null;
+            bandMeaning: string | null;
+            machineZone: components["schemas"]["IsoZone"] | null;
+            valuesSinceRaised: number | null;
+            recentValues: {
+                at: string;
+                value: number;
+            }[];
+            history: components["schemas"]["AlertEvent"][];
+            currentDiagnosis: components["schemas"]["CurrentDiagnosis"] | null;
+        };
+        AlertClearRule: {
+            alertLevel: number;
+            dangerLevel: number;
+            clearLevel: number;
+            clearPersistence: number;
+            clearAfterHours: number;
+        };
+        /** @enum {string} */
+        IsoZone: "A" | "B" | "C" | "D";
+        AlertEvent: {
+            id: number;
+            /** @enum {string} */
+            kind: "raised" | "escalated" | "acknowledged" | "cleared";
+            level: components["schemas"]["AlertLevel"];
+            value: number | null;
+            at: string;
+            userName: string | null;
+            note: string | null;
+        };
+        CurrentDiagnosis: {
+            analysisId: number;
+            takenAt: string;
+            diagnosis: components["schemas"]["Diagnosis"];
+        };
+        Diagnosis: {
+            hints: components["schemas"]["DiagnosisHint"][];
+            notes: string[];
+            severityMmS: number;
+            severitySource: string;
+        };
+        DiagnosisHint: {
+            code: components["schemas"]["DiagnosisCode"];
+            confidence: number;
+            summary: string;
+            evidence: components["schemas"]["DiagnosisEvidence"][];
+        };
+        /** @enum {string} */
+        DiagnosisCode: "unbalance" | "misalignment" | "looseness" | "bearing-outer-race" | "bearing-inner-race" | "bearing-rolling-element" | "bearing-cage" | "gear-mesh" | "blade-pass" | "electrical" | "belt";
+        DiagnosisEvidence: {
+            hz: number;
+            order: number;
+            amplitude: number;
+            label: string;
+            /** @enum {string} */
+            spectrum: "velocity" | "acceleration" | "envelope";
+        };
+        AcknowledgeRequestInput: {
+            note: components["schemas"]["AcknowledgeNote"];
+        };
+        LimitSetResponse: {
+            pointId: number;
+            name: string;
+            version: number;
+            bands: components["schemas"]["BandDefinition"][];
+            updatedBy: string | null;
+            updatedAt: string | null;
+            machine: {
+                id: number;
+                name: string;
+                type: string;
+                isoGroup: number;
+                /** @enum {string} */
+                foundation: "rigid" | "flexible";
+                nominalRpm: number;
+            };
+            point: {
+                id: number;
+                tag: string;
+                name: string;
+            };
+        };
+        BandDefinition: {
+            key: string;
+            name: string;
+            spectrum: components["schemas"]["BandSpectrum"];
+            measure: components["schemas"]["BandMeasure"];
+            unit: components["schemas"]["BandUnit"];
+            alertLevel: number;
+            dangerLevel: number;
+            persistence?: number;
+            clearPersistence?: number;
+            clearAfterHours?: number;
+            hysteresis?: number;
+            statistical?: components["schemas"]["StatisticalRule"];
+            levelSource?: string;
+            /** @constant */
+            kind: "overall";
+            fromHz?: number;
+            toHz?: number;
+        } | {
+            key: string;
+            name: string;
+            spectrum: components["schemas"]["BandSpectrum"];
+            measure: components["schemas"]["BandMeasure"];
+            unit: components["schemas"]["BandUnit"];
+            alertLevel: number;
+            dangerLevel: number;
+            persistence?: number;
+            clearPersistence?: number;
+            clearAfterHours?: number;
+            hysteresis?: number;
+            statistical?: components["schemas"]["StatisticalRule"];
+            levelSource?: string;
+            /** @constant */
+            kind: "hz";
+            fromHz: number;
+            toHz: number;
+        } | {
+            key: string;
+            name: string;
+            spectrum: components["schemas"]["BandSpectrum"];
+            measure: components["schemas"]["BandMeasure"];
+            unit: components["schemas"]["BandUnit"];
+            alertLevel: number;
+            dangerLevel: number;
+            persistence?: number;
+            clearPersistence?: number;
+            clearAfterHours?: number;
+            hysteresis?: number;
+            statistical?: components["schemas"]["StatisticalRule"];
+            levelSource?: string;
+            /** @constant */
+            kind: "order";
+            fromOrder: number;
+            toOrder: number;
+        } | {
+            key: string;
+            name: string;
+            spectrum: components["schemas"]["BandSpectrum"];
+            measure: components["schemas"]["BandMeasure"];
+            unit: components["schemas"]["BandUnit"];
+            alertLevel: number;
+            dangerLevel: number;
+            persistence?: number;
+            clearPersistence?: number;
+            clearAfterHours?: number;
+            hysteresis?: number;
+            statistical?: components["schemas"]["StatisticalRule"];
+            levelSource?: string;
+            /** @constant */
+            kind: "fault";
+            fault: components["schemas"]["FaultFrequencyName"];
+            halfWidth: number;
+            halfWidthUnit: components["schemas"]["HalfWidthUnit"];
+            harmonics?: number;
+            component?: string;
+        };
+        /** @enum {string} */
+        BandSpectrum: "acceleration" | "velocity" | "displacement" | "envelope";
+        /** @enum {string} */
+        BandMeasure: "rms" | "peak" | "peak-to-peak";
+        /** @enum {string} */
+        BandUnit: "g" | "mm/s" | "um";
+        StatisticalRule: {
+            kAlert: number;
+            kDanger?: number;
+            baseline: components["schemas"]["BaselineSource"];
+            established?: components["schemas"]["BaselineStats"];
+            includeSuspect?: boolean;
+            combine?: components["schemas"]["StatisticalCombine"];
+        };
+        BaselineSource: {
+            /** @constant */
+            from: "first-n";
+            count: number;
+        } | {
+            /** @constant */
+            from: "period";
+            fromAt: number;
+            toAt: number;
+        };
+        BaselineStats: {
+            count: number;
+            mean: number;
+            sigma: number;
+            logMean?: number;
+            logSigma?: number;
+            spanDays?: number;
+        };
+        /** @enum {string} */
+        StatisticalCombine: "min" | "max" | "statistical";
+        /** @enum {string} */
+        FaultFrequencyName: "1x" | "2x" | "3x" | "bpfo" | "bpfi" | "bsf" | "ftf" | "gear-mesh" | "blade-pass";
+        /** @enum {string} */
+        HalfWidthUnit: "hz" | "order" | "percent";
+        SaveLimitSetResponse: {
+            version: number;
+            clearedAlertIds: number[];
+        };
+        SaveLimitTemplateRequestInput: {
+            bands: components["schemas"]["BandDefinitionInput"][];
+            reason: string;
+        };
+        BandDefinitionInput: {
+            key: string;
+            name: string;
+            spectrum: components["schemas"]["BandSpectrum"];
+            measure: components["schemas"]["BandMeasure"];
+            unit: components["schemas"]["BandUnit"];
+            alertLevel: number;
+            dangerLevel: number;
+            persistence?: number;
+            clearPersistence?: number;
+            clearAfterHours?: number;
+            hysteresis?: number;
+            statistical?: components["schemas"]["StatisticalRuleInput"];
+            levelSource?: string;
+            /** @constant */
+            kind: "overall";
+            fromHz?: number;
+            toHz?: number;
+        } | {
+            key: string;
+            name: string;
+            spectrum: components["schemas"]["BandSpectrum"];
+            measure: components["schemas"]["BandMeasure"];
+            unit: components["schemas"]["BandUnit"];
+            alertLevel: number;
+            dangerLevel: number;
+            persistence?: number;
+            clearPersistence?: number;
+            clearAfterHours?: number;
+            hysteresis?: number;
+            statistical?: components["schemas"]["StatisticalRuleInput"];
+            levelSource?: string;
+            /** @constant */
+            kind: "hz";
+            fromHz: number;
+            toHz: number;
+        } | {
+            key: string;
+            name: string;
+            spectrum: components["schemas"]["BandSpectrum"];
+            measure: components["schemas"]["BandMeasure"];
+            unit: components["schemas"]["BandUnit"];
+            alertLevel: number;
+            dangerLevel: number;
+            persistence?: number;
+            clearPersistence?: number;
+            clearAfterHours?: number;
+            hysteresis?: number;
+            statistical?: components["schemas"]["StatisticalRuleInput"];
+            levelSource?: string;
+            /** @constant */
+            kind: "order";
+            fromOrder: number;
+            toOrder: number;
+        } | {
+            key: string;
+            name: string;
+            spectrum: components["schemas"]["BandSpectrum"];
+            measure: components["schemas"]["BandMeasure"];
+            unit: components["schemas"]["BandUnit"];
+            alertLevel: number;
+            dangerLevel: number;
+            persistence?: number;
+            clearPersistence?: number;
+            clearAfterHours?: number;
+            hysteresis?: number;
+            statistical?: components["schemas"]["StatisticalRuleInput"];
+            levelSource?: string;
+            /** @constant */
+            kind: "fault";
+            fault: components["schemas"]["FaultFrequencyName"];
+            halfWidth: number;
+            halfWidthUnit: components["schemas"]["HalfWidthUnit"];
+            harmonics?: number;
+            component?: string;
+        };
+        StatisticalRuleInput: {
+            kAlert: number;
+            kDanger?: number;
+            baseline: components["schemas"]["BaselineSourceInput"];
+            established?: components["schemas"]["BaselineStatsInput"];
+            includeSuspect?: boolean;
+            combine?: components["schemas"]["StatisticalCombine"];
+        };
+        BaselineSourceInput: {
+            /** @constant */
+            from: "first-n";
+            count: number;
+        } | {
+            /** @constant */
+            from: "period";
+            fromAt: number;
+            toAt: number;
+        };
+        BaselineStatsInput: {
+            count: number;
+            mean: number;
+            sigma: number;
+            logMean?: number;
+            logSigma?: number;
+            spanDays?: number;
+        };
+        ReplayResponse: {
+            snapshots: number;
+            from: string | null;
+            to: string | null;
+            totals: {
+                alerts: number;
+                reachedDanger: number;
+            };
+            qualityNotices: string[];
+            bands: {
+                bandKey: string;
+                bandName: string;
+                unit: string;
+                alertLevel: number;
+                dangerLevel: number;
+                evaluated: number;
+                byLevel: {
+                    alert: number;
+                    danger: number;
+                };
+                alerts: {
+                    /** @enum {string} */
+                    raisedLevel: "alert" | "danger";
+                    raisedAt: string;
+                    raisedValue: number;
+                    escalatedAt: string | null;
+                    clearedAt: string | null;
+                    peakValue: number;
+                }[];
+                values: {
+                    t: string;
+                    v: number;
+                    /** @enum {string} */
+                    q: "ok" | "suspect" | "unusable";
+                }[];
+            }[];
+        };
+        ReplayRequestInput: {
+            bands: components["schemas"]["BandDefinitionInput"][];
+        };
+        IsoDefaultsResponse: {
+            isoGroup: number;
+            /** @enum {string} */
+            foundation: "rigid" | "flexible";
+            alertLevel: number;
+            dangerLevel: number;
+            /** @constant */
+            unit: "mm/s";
+            source: string;
+        };
+        SuggestResponse: {
+            bandKey: string;
+            baseline: components["schemas"]["BaselineStats"] | null;
+            alertLevel: number | null;
+            dangerLevel: number | null;
+            kAlert: number;
+            kDanger: number;
+            message: string | null;
+        };
+        LimitHistoryResponse: {
+            items: {
+                id: number;
+                at: string;
+                action: string;
+                actor: string | null;
+                reason: string | null;
+                added: string[];
+                removed: string[];
+                changed: string[];
+            }[];
+        };
+        LimitTemplateResponse: {
+            machineType: string;
+            /** @enum {string} */
+            source: "stored" | "built-in";
+            version: number;
+            bands: components["schemas"]["BandDefinition"][];
+        };
+        MachineDetail: {
+            id: number;
+            name: string;
+            type: components["schemas"]["MachineType"];
+            nominalRpm: number;
+            isoGroup: number;
+            foundation: components["schemas"]["Foundation"];
+            criticality: components["schemas"]["Criticality"];
+            powerKw: number | null;
+            bladeCount: number | null;
+            vaneCount: number | null;
+            lineHz: number | null;
+            notes: string | null;
+            site: {
+                id: number;
+                name: string;
+                code: string;
+            };
+            area: {
+                id: number;
+                name: string;
+            };
+            status: components["schemas"]["NodeStatus"];
+            isoBoundaries: {
+                ab: number;
+                bc: number;
+                cd: number;
+            } | null;
+            bearings: {
+                id: number;
+                name: string;
+                designation: string | null;
+                rollingElements: number;
+                ballDiameterMm: number;
+                pitchDiameterMm: number;
+                contactAngleDeg: number;
+                speedRatio: number;
+            }[];
+            gears: {
+                id: number;
+                name: string;
+                teeth: number;
+                mateTeeth: number;
+                speedRatio: number;
+            }[];
+            faultFrequencies: components["schemas"]["FaultFrequency"][];
+            points: components["schemas"]["MachinePoint"][];
+        };
+        /** @enum {string} */
+        Foundation: "rigid" | "flexible";
+        /** @enum {string} */
+        Criticality: "low" | "medium" | "high";
+        FaultFrequency: {
+            name: string;
+            /** @enum {string} */
+            kind: "shaft" | "bpfo" | "bpfi" | "bsf" | "ftf" | "gear-mesh" | "blade-pass";
+            hz: number | null;
+            order: number;
+        };
+        MachinePoint: {
+            id: number;
+            tag: string;
+            name: string;
+            location: string;
+            direction: components["schemas"]["Direction"];
+            bearing: string | null;
+            status: components["schemas"]["NodeStatus"];
+            latest: components["schemas"]["AnalysisSummary"] | null;
+            recentVelocity: {
+                t: string;
+                v: number;
+            }[];
+            governing: {
+                key: string;
+                name: string;
+                unit: string;
+                level: ("alert" | "danger") | null;
+                values: {
+                    t: string;
+                    v: number;
+                }[];
+            };
+        };
+        AnalysisSummary: {
+            id: number;
+            snapshotId: number;
+            takenAt: string;
+            verdict: components["schemas"]["Verdict"];
+            isoZone: components["schemas"]["IsoZone"] | null;
+            speedRpm: number | null;
+            speedSource: components["schemas"]["SpeedSource"];
+            bitsUsed: number | null;
+            overall: components["schemas"]["OverallValues"];
+            diagnosis: components["schemas"]["Diagnosis"] | null;
+            shaftVectors: components["schemas"]["ShaftVector"][] | null;
+            spectraThinned?: boolean;
+            findings?: components["schemas"]["Points-QualityFinding"][];
+            pinned?: {
+                by: string;
+                at: string;
+                note: string;
+            } | null;
+        };
+        /** @enum {string} */
+        Verdict: "ok" | "suspect" | "unusable";
+        /** @enum {string} */
+        SpeedSource: "tach" | "rpm" | "estimated" | "none";
+        OverallValues: {
+            accelRmsG: number;
+            accelPeakG: number;
+            velocityRmsMmS: number;
+            displacementPkPkUm: number;
+            crestFactor: number;
+            kurtosis: number;
+            accelBandHz: [
+                number,
+                number
+            ] | null;
+            velocityBandHz: [
+                number,
+                number
+            ] | null;
+        };
+        ShaftVector: {
+            order: number;
+            hz: number;
+            accelPeakG: number;
+            accelPhaseDeg: number;
+            velocityRmsMmS: number;
+            velocityPhaseDeg: number;
+            revolutions: number;
+        };
+        "Points-QualityFinding": {
+            code: string;
+            /** @enum {string} */
+            severity: "suspect" | "unusable";
+            message: string;
+            value: number;
+        };
+        PointDetail: {
+            id: number;
+            tag: string;
+            name: string;
+            location: string;
+            direction: components["schemas"]["Direction"];
+            sensitivityMvPerG: number;
+            fmaxHz: number;
+            lines: number;
+            bearing: string | null;
+            status: components["schemas"]["NodeStatus"];
+            machine: {
+                id: number;
+                name: string;
+                type: components["schemas"]["MachineType"];
+                nominalRpm: number;
+                siteName: string;
+                areaName: string;
+            };
+            latest: components["schemas"]["AnalysisSummary"] | null;
+            bands: components["schemas"]["PointBand"][];
+        };
+        PointBand: {
+            key: string;
+            name: string;
+            /** @enum {string} */
+            kind: "overall" | "hz" | "order" | "fault";
+            spectrum: string;
+            unit: string;
+            alertLevel: number;
+            dangerLevel: number;
+            /** @enum {string} */
+            levelSource: "fixed" | "statistical";
+            range?: {
+                /** @constant */
+                kind: "overall";
+                fromHz: number | null;
+                toHz: number | null;
+            } | {
+                /** @constant */
+                kind: "hz";
+                fromHz: number;
+                toHz: number;
+            } | {
+                /** @constant */
+                kind: "order";
+                fromOrder: number;
+                toOrder: number;
+            } | {
+                /** @constant */
+                kind: "fault";
+                fault: string;
+                halfWidth: number;
+                /** @enum {string} */
+                halfWidthUnit: "hz" | "order" | "percent";
+                harmonics: number;
+            };
+        };
+        SnapshotStatus: {
+            id: number;
+            pointId: number;
+            /** @enum {string} */
+            source: "gateway" | "upload";
+            /** @enum {string} */
+            status: "queued" | "done" | "rejected" | "failed";
+            statusReason: string | null;
+            takenAt: string;
+            receivedAt: string;
+            sampleRateHz: number;
+            sampleCount: number;
+            fileName: string | null;
+            analysis: {
+                id: number;
+                snapshotId: number;
+                takenAt: string;
+                verdict: components["schemas"]["Verdict"];
+                isoZone: components["schemas"]["IsoZone"] | null;
+                speedRpm: number | null;
+                speedSource: components["schemas"]["SpeedSource"];
+                bitsUsed: number | null;
+                overall: components["schemas"]["OverallValues"];
+                diagnosis: components["schemas"]["Diagnosis"] | null;
+                shaftVectors: components["schemas"]["ShaftVector"][] | null;
+                spectraThinned?: boolean;
+                findings: components["schemas"]["Points-QualityFinding"][];
+                pinned?: {
+                    by: string;
+                    at: string;
+                    note: string;
+                } | null;
+            } | null;
+        };
+        AnalysisList: {
+            items: components["schemas"]["AnalysisSummary"][];
+        };
+        TrendResponse: {
+            pointId: number;
+            band: {
+                key: string;
+                name: string;
+                unit: string;
+                spectrum: string;
+            };
+            levels: {
+                alert: number;
+                danger: number;
+                /** @enum {string} */
+                source: "fixed" | "statistical";
+            };
+            baseline: {
+                mean: number;
+                sigma: number;
+                count: number;
+            } | null;
+            items: components["schemas"]["TrendPoint"][];
+            decimation: {
+                total: number;
+                bucketMs: number;
+            } | null;
+            projection: {
+                /** @enum {string} */
+                outcome: "projected" | "too-few-points" | "above-danger" | "not-rising" | "beyond-horizon";
+                model: ("linear" | "exponential") | null;
+                r2: number | null;
+                target: {
+                    /** @enum {string} */
+                    level: "alert" | "danger";
+                    value: number;
+                } | null;
+                crossingAt: string | null;
+                overdue?: boolean;
+                window?: {
+                    from: string;
+                    to: string;
+                    points: number;
+                    changed: boolean;
+                } | null;
+            };
+            events: {
+                t: string;
+                /** @enum {string} */
+                kind: "raised" | "escalated" | "acknowledged" | "cleared";
+                /** @enum {string} */
+                level: "alert" | "danger";
+                alertId: number;
+                by: string | null;
+                note: string | null;
+            }[];
+            findings: {
+                t: string;
+                title: string;
+                workOrderRef: string | null;
+                /** @enum {string} */
+                state: "open" | "planned" | "done";
+            }[];
+            limitChanges: {
+                t: string;
+                /** @enum {string} */
+                kind: "changed" | "added" | "removed" | "baseline";
+                by: string | null;
+                reason: string | null;
+                before: components["schemas"]["TrendLevels"] | null;
+                after: components["schemas"]["TrendLevels"] | null;
+            }[];
+            uploads: {
+                t: string;
+                v: number;
+                /** @enum {string} */
+                q: "ok" | "suspect" | "unusable";
+                analysisId: number;
+                by: string | null;
+                fileName: string | null;
+            }[];
+        };
+        TrendPoint: {
+            t: string;
+            v: number;
+            /** @enum {string} */
+            q: "ok" | "suspect" | "unusable";
+            analysisId: number;
+        };
+        TrendLevels: {
+            alert: number;
+            danger: number;
+            /** @enum {string} */
+            source: "fixed" | "statistical";
+        };
+        Waterfall: {
+            kind: components["schemas"]["SpectrumKind"];
+            unit: string;
+            /** @enum {string} */
+            axis: "hz" | "order";
+            /** @enum {string} */
+            scale: "rms" | "peak";
+            items: {
+                analysisId: number;
+                takenAt: string;
+                step: number;
+                values: string;
+                shaftHz: number | null;
+            }[];
+        };
+        /** @enum {string} */
+        SpectrumKind: "acceleration" | "velocity" | "envelope" | "order";
+        Pin: {
+            analysisId: number;
+            by: string;
+            at: string;
+            note: string;
+        };
+        PinInputInput: {
+            /** @default  */
+            note: string;
+        };
+        Spectrum: {
+            analysisId: number;
+            takenAt: string;
+            kind: components["schemas"]["SpectrumKind"];
+            unit: string;
+            /** @enum {string} */
+            scale: "rms" | "peak";
+            /** @enum {string} */
+            axis: "hz" | "order";
+            dfHz: number | null;
+            dOrder: number | null;
+            lines: number;
+            values: string;
+            peaks: components["schemas"]["SpectrumPeak"][];
+            faultFrequencies: components["schemas"]["FaultFrequency"][];
+            speed: {
+                rpm: number | null;
+                hz: number | null;
+                source: components["schemas"]["SpeedSource"];
+            };
+        };
+        SpectrumPeak: {
+            hz: number | null;
+            order: number | null;
+            amplitude: number;
+        };
+        Waveform: {
+            analysisId: number;
+            takenAt: string;
+            /** @constant */
+            unit: "g";
+            sampleRateHz: number;
+            sampleCount: number;
+            values: string;
+            rails: {
+                lowG: number;
+                highG: number;
+            };
+            clipped: boolean;
+            adcBits: number;
+            bitsUsed: number | null;
+            verdict: components["schemas"]["Verdict"];
+            findings: components["schemas"]["Points-QualityFinding"][];
+        };
+        MachineAttention: {
+            alerts: components["schemas"]["Alert"][];
+            findings: components["schemas"]["Finding"][];
+        };
+        Finding: {
+            id: number;
+            pointId: number;
+            pointTag: string;
+            pointName: string;
+            machineName: string;
+            siteId: number;
+            siteCode: string;
+            alertId: number | null;
+            bandKey: string | null;
+            title: string;
+            workOrderRef: string | null;
+            dueDate: string | null;
+            state: components["schemas"]["FindingState"];
+            priority: components["schemas"]["FindingPriority"];
+            owner: string | null;
+            plannedDowntimeHours: number | null;
+            note: string | null;
+            createdBy: {
+                id: number;
+                name: string;
+            };
+            createdAt: string;
+            updatedAt: string;
+        };
+        /** @enum {string} */
+        FindingState: "open" | "planned" | "done";
+        /** @enum {string} */
+        FindingPriority: "high" | "medium" | "low";
+        SetupTree: {
+            sites: components["schemas"]["SetupSite"][];
+            areas: components["schemas"]["SetupArea"][];
+            machines: components["schemas"]["SetupMachine"][];
+        };
+        SetupSite: {
+            id: number;
+            name: string;
+            code: string;
+            timeZone: string;
+        };
+        SetupArea: {
+            id: number;
+            siteId: number;
+            name: string;
+        };
+        SetupMachine: {
+            id: number;
+            areaId: number;
+            name: string;
+            type: components["schemas"]["MachineType"];
+            nominalRpm: number;
+            isoGroup: number;
+            foundation: components["schemas"]["Foundation"];
+            criticality: components["schemas"]["Criticality"];
+            powerKw: number | null;
+            bladeCount: number | null;
+            vaneCount: number | null;
+            lineHz: number | null;
+            notes: string | null;
+            bearings: components["schemas"]["SetupBearing"][];
+            gears: components["schemas"]["SetupGear"][];
+            points: components["schemas"]["SetupPoint"][];
+        };
+        SetupBearing: {
+            id: number;
+            name: string;
+            designation: string | null;
+            rollingElements: number;
+            ballDiameterMm: number;
+            pitchDiameterMm: number;
+            contactAngleDeg: number;
+            speedRatio: number;
+        };
+        SetupGear: {
+            id: number;
+            name: string;
+            teeth: number;
+            mateTeeth: number;
+            speedRatio: number;
+        };
+        SetupPoint: {
+            id: number;
+            machineId: number;
+            tag: string;
+            name: string;
+            location: string;
+            direction: components["schemas"]["Direction"];
+            sensitivityMvPerG: number;
+            bearingId: number | null;
+            fmaxHz: number;
+            lines: number;
+            envelopeLoHz: number | null;
+            envelopeHiHz: number | null;
+        };
+        SavedSite: {
+            name: string;
+            code: string;
+            timeZone: components["schemas"]["TimeZone"];
+            id: number;
+        };
+        TimeZone: string;
+        SiteInputInput: {
+            name: string;
+            code: string;
+            timeZone: components["schemas"]["TimeZone"];
+        };
+        SavedArea: {
+            siteId: number;
+            name: string;
+            id: number;
+        };
+        AreaInputInput: {
+            siteId: number;
+            name: string;
+        };
+        AreaUpdateInput: {
+            name: string;
+        };
+        SavedId: {
+            id: number;
+        };
+        MachineInputInput: {
+            areaId: number;
+            name: string;
+            type: components["schemas"]["MachineType"];
+            nominalRpm: number;
+            isoGroup: 1 | 2;
+            foundation: components["schemas"]["Foundation"];
+            criticality: components["schemas"]["Criticality"];
+            powerKw: number | null;
+            bladeCount: number | null;
+            vaneCount: number | null;
+            lineHz?: components["schemas"]["LineHz"] | null;
+            notes?: string | null;
+            bearings: components["schemas"]["BearingInputInput"][];
+            gears: components["schemas"]["GearInputInput"][];
+        };
+        LineHz: 50 | 60;
+        BearingInputInput: {
+            id?: number;
+            name: string;
+            designation?: string | null;
+            rollingElements: number;
+            ballDiameterMm: number;
+            pitchDiameterMm: number;
+            contactAngleDeg: number;
+            speedRatio: number;
+        };
+        GearInputInput: {
+            id?: number;
+            name: string;
+            teeth: number;
+            mateTeeth: number;
+            speedRatio: number;
+        };
+        PointInputInput: {
+            machineId: number;
+            tag: string;
+            name: string;
+            location: string;
+            direction: components["schemas"]["Direction"];
+            sensitivityMvPerG: number;
+            bearingId: number | null;
+            fmaxHz: number;
+            lines: number;
+            envelopeLoHz?: number | null;
+            envelopeHiHz?: number | null;
+        };
+        AuditPage: {
+            items: components["schemas"]["AuditEntry"][];
+            nextCursor: string | null;
+        };
+        AuditEntry: {
+            id: number;
+            at: string;
+            actorUserId: number | null;
+            actorName: string | null;
+            action: string;
+            entity: string;
+            entityId: string;
+            entityLabel: string | null;
+            changes: {
+                field: string;
+                before: string | null;
+                after: string | null;
+            }[];
+            before: unknown;
+            after: unknown;
+            reason: string | null;
+        };
+        Review: {
+            period: {
+                weekEnding: string;
+                thisWeek: {
+                    from: string;
+                    to: string;
+                };
+                lastWeek: {
+                    from: string;
+                    to: string;
+                };
+                weeksAhead: number;
+                timeZone: string;
+                generatedAt: string;
+            };
+            siteWeeks: {
+                siteId: number;
+                siteCode: string;
+                timeZone: string;
+                thisWeek: {
+                    from: string;
+                    to: string;
+                };
+                lastWeek: {
+                    from: string;
+                    to: string;
+                };
+            }[];
+            noise: {
+                minChangePercent: number;
+                minValues: number;
+            };
+            sites: {
+                id: number;
+                code: string;
+                name: string;
+                timeZone: string;
+            }[];
+            summary: {
+                movers: number;
+                forecasts: number;
+                openAlerts: number;
+                openDanger: number;
+                unacknowledged: number;
+                qualityNotices: number;
+                findingsDue: number;
+                findingsOverdue: number;
+                findingsCreated: number;
+                moversBelowThreshold: number;
+            };
+            machineGroups: components["schemas"]["ReviewMachineGroup"][];
+            movers: components["schemas"]["ReviewMover"][];
+            forecasts: components["schemas"]["ReviewForecast"][];
+            openAlerts: components["schemas"]["ReviewAlert"][];
+            qualityNotices: components["schemas"]["ReviewQualityNotice"][];
+            findingsDue: components["schemas"]["ReviewFindingDue"][];
+            findingsCreated: components["schemas"]["Finding"][];
+        };
+        ReviewMachineGroup: {
+            machineId: number;
+            machineName: string;
+            siteCode: string;
+            /** @enum {string} */
+            criticality: "high" | "medium" | "low";
+            movers: number;
+            worstChangePercent: number | null;
+        };
+        ReviewMover: {
+            pointId: number;
+            pointTag: string;
+            pointName: string;
+            machineId: number;
+            machineName: string;
+            siteId: number;
+            siteCode: string;
+            bandKey: string;
+            bandName: string;
+            unit: string;
+            lastWeekMean: number;
+            thisWeekMean: number;
+            lastWeekCount: number;
+            thisWeekCount: number;
+            change: number;
+            changePercent: number | null;
+        };
+        ReviewForecast: {
+            pointId: number;
+            pointTag: string;
+            pointName: string;
+            machineId: number;
+            machineName: string;
+            siteId: number;
+            siteCode: string;
+            bandKey: string;
+            bandName: string;
+            unit: string;
+            latestValue: number;
+            latestAt: string;
+            target: {
+                /** @enum {string} */
+                level: "alert" | "danger";
+                value: number;
+            };
+            /** @enum {string} */
+            levelSource: "fixed" | "statistical";
+            crossingAt: string;
+            daysToCrossing: number;
+            /** @enum {string} */
+            model: "linear" | "exponential";
+            r2: number;
+            points: number;
+        };
+        ReviewAlert: {
+            pointId: number;
+            pointTag: string;
+            pointName: string;
+            machineId: number;
+            machineName: string;
+            siteId: number;
+            siteCode: string;
+            alertId: number;
+            bandKey: string;
+            bandName: string;
+            unit: string;
+            /** @enum {string} */
+            level: "alert" | "danger";
+            /** @enum {string} */
+            state: "raised" | "acknowledged";
+            limitValue: number;
+            lastValue: number;
+            peakValue: number;
+            firstAt: string;
+            lastAt: string;
+            ageDays: number;
+            suspect: boolean;
+        };
+        ReviewQualityNotice: {
+            pointId: number;
+            pointTag: string;
+            pointName: string;
+            machineId: number;
+            machineName: string;
+            siteId: number;
+            siteCode: string;
+            noticeId: number;
+            snapshotId: number | null;
+            /** @enum {string} */
+            verdict: "ok" | "suspect" | "unusable";
+            takenAt: string;
+            findings: components["schemas"]["Review-QualityFinding"][];
+        };
+        "Review-QualityFinding": {
+            code: string;
+            severity: string;
+            message: string;
+            value?: number | null;
+        };
+        ReviewFindingDue: {
+            id: number;
+            pointId: number;
+            pointTag: string;
+            pointName: string;
+            machineName: string;
+            siteId: number;
+            siteCode: string;
+            alertId: number | null;
+            bandKey: string | null;
+            title: string;
+            workOrderRef: string | null;
+            dueDate: string | null;
+            state: components["schemas"]["FindingState"];
+            priority: components["schemas"]["FindingPriority"];
+            owner: string | null;
+            plannedDowntimeHours: number | null;
+            note: string | null;
+            createdBy: {
+                id: number;
+                name: string;
+            };
+            createdAt: string;
+            updatedAt: string;
+            overdue: boolean;
+        };
+        FindingPage: {
+            items: components["schemas"]["Finding"][];
+            nextCursor: string | null;
+        };
+        CreateFindingInput: {
+            pointId: number;
+            alertId?: number | null;
+            bandKey?: string | null;
+            title: string;
+            workOrderRef?: "" | null | components["schemas"]["WorkOrderRef"];
+            dueDate?: "" | null | components["schemas"]["IsoDate"];
+            note?: "" | null | string;
+            priority?: components["schemas"]["FindingPriority"];
+            owner?: "" | null | string;
+            plannedDowntimeHours?: null | number;
+        };
+        WorkOrderRef: string;
+        /** Format: date */
+        IsoDate: string;
+        UpdateFindingInput: {
+            state?: components["schemas"]["FindingState"];
+            title?: string;
+            workOrderRef?: "" | null | components["schemas"]["WorkOrderRef"];
+            dueDate?: "" | null | components["schemas"]["IsoDate"];
+            note?: "" | null | string;
+            priority?: components["schemas"]["FindingPriority"];
+            owner?: "" | null | string;
+            plannedDowntimeHours?: null | number;
+        };
+        QualityNoticeList: {
+            items: components["schemas"]["QualityNotice"][];
+        };
+        QualityNotice: {
+            id: number;
+            pointId: number;
+            snapshotId: number | null;
+            /** @enum {string} */
+            verdict: "ok" | "suspect" | "unusable";
+            takenAt: string;
+            findings: components["schemas"]["Points-QualityFinding"][];
+            reviewedBy: {
+                id: number;
+                name: string;
+            } | null;
+            reviewedAt: string | null;
+        };
+        ReviewNoticesResult: {
+            pointId: number;
+            reviewed: number;
+            reviewedBy: {
+                id: number;
+                name: string;
+            };
+            reviewedAt: string;
+        };
+        ReviewNoticesInput: {
+            pointId: number;
+            ids?: number[];
+        };
+        UserList: {
+            items: components["schemas"]["UserSummary"][];
+            sites: {
+                id: number;
+                code: string;
+                name: string;
+            }[];
+        };
+        UserSummary: {
+            id: number;
+            email: string;
+            name: string;
+            role: components["schemas"]["Role"];
+            siteIds: number[];
+            invitePending: boolean;
+            disabledAt: string | null;
+            lastSignInAt: string | null;
+            createdAt: string;
+        };
+        InviteUserInput: {
+            /** Format: email */
+            email: string;
+            name: string;
+            role: components["schemas"]["Role"];
+            siteIds: number[];
+        };
+        UpdateUserInput: {
+            role?: components["schemas"]["Role"];
+            siteIds?: number[];
+            name?: string;
+        };
+        AcceptInviteInput: {
+            token: components["schemas"]["LinkToken"];
+            password: components["schemas"]["Password"];
+        };
+        LinkToken: string;
+        Password: string;
+        ForgotPasswordResponse: {
+            /** @constant */
+            accepted: true;
+        };
+        ForgotPasswordInput: {
+            /** Format: email */
+            email: string;
+        };
+        ResetPasswordInput: {
+            token: components["schemas"]["LinkToken"];
+            password: components["schemas"]["Password"];
+        };
+        ApiTokenList: {
+            items: components["schemas"]["ApiToken"][];
+        };
+        ApiToken: {
+            id: number;
+            userId: number;
+            name: string;
+            role: components["schemas"]["Role"];
+            siteIds: number[];
+            tokenPrefix: string;
+            createdBy: string | null;
+            createdAt: string;
+            lastUsedAt: string | null;
+            revokedAt: string | null;
+        };
+        IssuedApiToken: {
+            id: number;
+            userId: number;
+            name: string;
+            role: components["schemas"]["Role"];
+            siteIds: number[];
+            tokenPrefix: string;
+            createdBy: string | null;
+            createdAt: string;
+            lastUsedAt: string | null;
+            revokedAt: string | null;
+            token: string;
+        };
+        IssueApiTokenInput: {
+            name: string;
+            role: components["schemas"]["Role"];
+            siteIds: number[];
+        };
+        WebhookList: {
+            items: components["schemas"]["Webhook"][];
+        };
+        Webhook: {
+            id: number;
+            name: string;
+            url: string;
+            events: components["schemas"]["WebhookEventType"][];
+            enabled: boolean;
+            createdAt: string;
+            updatedAt: string;
+            pending: number;
+            undelivered: number;
+        };
+        /** @enum {string} */
+        WebhookEventType: "alert.raised" | "alert.escalated" | "alert.acknowledged" | "alert.cleared" | "finding.created" | "finding.updated";
+        CreatedWebhook: {
+            id: number;
+            name: string;
+            url: string;
+            events: components["schemas"]["WebhookEventType"][];
+            enabled: boolean;
+            createdAt: string;
+            updatedAt: string;
+            pending: number;
+            undelivered: number;
+            secret: string;
+        };
+        CreateWebhookInput: {
+            name: string;
+            /** Format: uri */
+            url: string;
+            events: components["schemas"]["WebhookEventType"][];
+        };
+        UpdateWebhookInput: {
+            name?: string;
+            /** Format: uri */
+            url?: string;
+            events?: components["schemas"]["WebhookEventType"][];
+            enabled?: boolean;
+        };
+        WebhookDeliveryList: {
+            items: components["schemas"]["WebhookDelivery"][];
+        };
+        WebhookDelivery: {
+            id: number;
+            eventId: string;
+            eventType: string;
+            attempts: number;
+            createdAt: string;
+            sentAt: string | null;
+            nextAttemptAt: string;
+            lastStatus: number | null;
+            lastError: string | null;
+            outcome: ("sent" | "failed" | "uncertain") | null;
+        };
+        ChangePasswordInput: {
+            currentPassword: string;
+            newPassword: components["schemas"]["Password"];
+        };
+        Preferences: {
+            unitSystem: components["schemas"]["UnitSystem"];
+        };
+        PreferencesInput: {
+            unitSystem: components["schemas"]["UnitSystem"];
+        };
+        SubscriptionSettingsResponse: {
+            items: components["schemas"]["Subscription"][];
+            weeklyDigest: boolean;
+            options: {
+                sites: {
+                    id: number;
+                    code: string;
+                    name: string;
+                }[];
+                machines: {
+                    id: number;
+                    siteId: number;
+                    name: string;
+                }[];
+            };
+        };
+        Subscription: {
+            siteId: number | null;
+            machineId: number | null;
+            /** @enum {string} */
+            minLevel: "alert" | "danger";
+            /** @enum {string} */
+            cadence: "immediate" | "hourly";
+        };
+        SubscriptionSettingsInput: {
+            items: components["schemas"]["SubscriptionInput"][];
+            weeklyDigest: boolean;
+        };
+        SubscriptionInput: {
+            siteId: number | null;
+            machineId: number | null;
+            /** @enum {string} */
+            minLevel: "alert" | "danger";
+            /** @enum {string} */
+            cadence: "immediate" | "hourly";
+        };
+        MailboxList: {
+            items: components["schemas"]["MailboxItem"][];
+        };
+        MailboxItem: {
+            id: number;
+            to: string;
+            subject: string;
+            receivedAt: string;
+        };
+        MailboxMessage: {
+            id: number;
+            to: string;
+            subject: string;
+            receivedAt: string;
+            from: string;
+            messageId: string | null;
+            headers: {
+                [key: string]: string;
+            };
+            text: string | null;
+            html: string | null;
+        };
+        UndeliveredMailList: {
+            items: components["schemas"]["UndeliveredMail"][];
+        };
+        UndeliveredMail: {
+            id: number;
+            kind: string;
+            to: string;
+            subject: string;
+            attempts: number;
+            /** @enum {string} */
+            state: "retrying" | "failed" | "uncertain";
+            lastError: string | null;
+            createdAt: string;
+            nextAttemptAt: string | null;
+        };
     };
-    responses: never;
-    parameters: never;
+    responses: {
+        /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
+        InvalidRequest: {
+            headers: {
+                [name: string]: unknown;
+            };
+            content: {
+                "application/json": components["schemas"]["Error"];
+            };
+        };
+        /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
+        Unauthenticated: {
+            headers: {
+                [name: string]: unknown;
+            };
+            content: {
+                "application/json": components["schemas"]["Error"];
+            };
+        };
+        /** @description `forbidden`: the role may not do this, or the site is not yours. */
+        Forbidden: {
+            headers: {
+                [name: string]: unknown;
+            };
+            content: {
+                "application/json": components["schemas"]["Error"];
+            };
+        };
+        /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
+        ForbiddenWrite: {
+            headers: {
+                [name: string]: unknown;
+            };
+            content: {
+                "application/json": components["schemas"]["Error"];
+            };
+        };
+        /** @description `cross_origin`: the Origin header names another host. */
+        CrossOrigin: {
+            headers: {
+                [name: string]: unknown;
+            };
+            content: {
+                "application/json": components["schemas"]["Error"];
+            };
+        };
+        /** @description `not_found`. */
+        NotFound: {
+            headers: {
+                [name: string]: unknown;
+            };
+            content: {
+                "application/json": components["schemas"]["Error"];
+            };
+        };
+        /** @description `idempotency_key_in_use`: a request with this Idempotency-Key is still being answered (Retry-After), or a rule of the operation. */
+        IdempotencyKeyInUse: {
+            headers: {
+                [name: string]: unknown;
+            };
+            content: {
+                "application/json": components["schemas"]["Error"];
+            };
+        };
+        /** @description `idempotency_key_reused`: the Idempotency-Key was used for another request. */
+        IdempotencyKeyReused: {
+            headers: {
+                [name: string]: unknown;
+            };
+            content: {
+                "application/json": components["schemas"]["Error"];
+            };
+        };
+        /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
+        DatabaseUnavailable: {
+            headers: {
+                [name: string]: unknown;
+            };
+            content: {
+                "application/json": components["schemas"]["Error"];
+            };
+        };
+        /** @description Any other error, in the same shape. */
+        OtherError: {
+            headers: {
+                [name: string]: unknown;
+            };
+            content: {
+                "application/json": components["schemas"]["Error"];
+            };
+        };
+    };
+    parameters: {
+        /** @description Makes the creation safe to retry: the same key with the same request is answered the first answer again (`Idempotent-Replayed: true`); with another request, 422. Kept 24 hours by default (IDEMPOTENCY_KEY_HOURS), per account. */
+        IdempotencyKey: string;
+    };
     requestBodies: never;
     headers: never;
     pathItems: never;
@@ -1469,11 +3181,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    /** Format: email */
-                    email: string;
-                    password: string;
-                };
+                "application/json": components["schemas"]["SignInRequestInput"];
             };
         };
         responses: {
@@ -1483,57 +3191,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        user: {
-                            id: number;
-                            email: string;
-                            name: string;
-                            /** @enum {string} */
-                            role: "admin" | "engineer" | "planner" | "operator";
-                            siteIds: number[];
-                            /** @enum {string} */
-                            unitSystem: "metric" | "imperial";
-                            timeZone: string;
-                        };
-                    };
+                    "application/json": components["schemas"]["SignInResponse"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            403: components["responses"]["CrossOrigin"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postAuthSignOut: {
@@ -1552,42 +3216,10 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getAuthSession: {
@@ -1605,39 +3237,11 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        user: {
-                            id: number;
-                            email: string;
-                            name: string;
-                            /** @enum {string} */
-                            role: "admin" | "engineer" | "planner" | "operator";
-                            siteIds: number[];
-                            /** @enum {string} */
-                            unitSystem: "metric" | "imperial";
-                            timeZone: string;
-                        } | null;
-                    };
+                    "application/json": components["schemas"]["SessionResponse"];
                 };
             };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getMe: {
@@ -1655,55 +3259,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        email: string;
-                        name: string;
-                        /** @enum {string} */
-                        role: "admin" | "engineer" | "planner" | "operator";
-                        siteIds: number[];
-                        /** @enum {string} */
-                        unitSystem: "metric" | "imperial";
-                        timeZone: string;
-                    };
+                    "application/json": components["schemas"]["Me"];
                 };
             };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getSites: {
@@ -1721,52 +3283,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            name: string;
-                            code: string;
-                            timeZone: string;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["SiteList"];
                 };
             };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postSites: {
@@ -1774,18 +3297,14 @@ export interface operations {
             query?: never;
             header?: {
                 /** @description Makes the creation safe to retry: the same key with the same request is answered the first answer again (`Idempotent-Replayed: true`); with another request, 422. Kept 24 hours by default (IDEMPOTENCY_KEY_HOURS), per account. */
-                "Idempotency-Key"?: string;
+                "Idempotency-Key"?: components["parameters"]["IdempotencyKey"];
             };
             path?: never;
             cookie?: never;
         };
         requestBody: {
             content: {
-                "application/json": {
-                    name: string;
-                    code: string;
-                    timeZone: string;
-                };
+                "application/json": components["schemas"]["SiteInputInput"];
             };
         };
         responses: {
@@ -1795,77 +3314,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        name: string;
-                        code: string;
-                        timeZone: string;
-                        id: number;
-                    };
+                    "application/json": components["schemas"]["SavedSite"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `idempotency_key_in_use`: a request with this Idempotency-Key is still being answered (Retry-After), or a rule of the operation. */
-            409: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `idempotency_key_reused`: the Idempotency-Key was used for another request. */
-            422: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            409: components["responses"]["IdempotencyKeyInUse"];
+            422: components["responses"]["IdempotencyKeyReused"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getFleet: {
@@ -1883,75 +3341,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            name: string;
-                            code: string;
-                            timeZone: string;
-                            areas: {
-                                id: number;
-                                name: string;
-                                machines: {
-                                    id: number;
-                                    name: string;
-                                    /** @enum {string} */
-                                    type: "motor" | "pump" | "fan" | "blower" | "gearbox" | "compressor";
-                                    nominalRpm: number;
-                                    /** @enum {string} */
-                                    status: "ok" | "alert" | "danger" | "quality" | "stale" | "none";
-                                    points: {
-                                        id: number;
-                                        tag: string;
-                                        name: string;
-                                        /** @enum {string} */
-                                        direction: "H" | "V" | "A";
-                                        /** @enum {string} */
-                                        status: "ok" | "alert" | "danger" | "quality" | "stale" | "none";
-                                        lastTakenAt: string | null;
-                                    }[];
-                                }[];
-                            }[];
-                        }[];
-                    };
+                    "application/json": components["schemas"]["Fleet"];
                 };
             };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getGateways: {
@@ -1969,58 +3365,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            siteId: number;
-                            siteName: string;
-                            siteCode: string;
-                            name: string;
-                            keyPrefix: string;
-                            revokedAt: string | null;
-                            lastSeenAt: string | null;
-                            postsLastHour: number;
-                            createdAt: string;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["GatewayList"];
                 };
             };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postGateways: {
@@ -2032,10 +3383,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    siteId: number;
-                    name: string;
-                };
+                "application/json": components["schemas"]["CreateGatewayInput"];
             };
         };
         responses: {
@@ -2045,58 +3393,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        apiKey: string;
-                        keyPrefix: string;
-                    };
+                    "application/json": components["schemas"]["GatewayKey"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postGatewaysByIdRevoke: {
@@ -2116,74 +3420,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        siteId: number;
-                        siteName: string;
-                        siteCode: string;
-                        name: string;
-                        keyPrefix: string;
-                        revokedAt: string | null;
-                        lastSeenAt: string | null;
-                        postsLastHour: number;
-                        createdAt: string;
-                    };
+                    "application/json": components["schemas"]["Gateway"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postGatewaysByIdRotate: {
@@ -2203,67 +3448,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        apiKey: string;
-                        keyPrefix: string;
-                    };
+                    "application/json": components["schemas"]["GatewayKey"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getRetention: {
@@ -2281,54 +3474,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        rawSamplesDays: number;
-                        spectraWholeDays: number;
-                        spectraHourlyDays: number;
-                        captureMonths: number;
-                        keepWindowMinutes: number;
-                        batchSize: number;
-                        batchPauseMs: number;
-                        schedule: string;
-                    };
+                    "application/json": components["schemas"]["RetentionPolicy"];
                 };
             };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postPointsByIdUploads: {
@@ -2367,15 +3519,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        snapshotId: number;
-                        /** @enum {string} */
-                        status: "queued" | "already-uploaded";
-                        samples: number;
-                        sampleRateHz: number;
-                        /** @enum {string} */
-                        encoding: "int16" | "int24" | "int32" | "float32";
-                    };
+                    "application/json": components["schemas"]["UploadResult"];
                 };
             };
             /** @description Success. */
@@ -2384,71 +3528,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        snapshotId: number;
-                        /** @enum {string} */
-                        status: "queued" | "already-uploaded";
-                        samples: number;
-                        sampleRateHz: number;
-                        /** @enum {string} */
-                        encoding: "int16" | "int24" | "int32" | "float32";
-                    };
+                    "application/json": components["schemas"]["UploadResult"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getAlerts: {
@@ -2474,84 +3562,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            /** @enum {string} */
-                            level: "alert" | "danger";
-                            /** @enum {string} */
-                            state: "raised" | "acknowledged" | "cleared";
-                            pointId: number;
-                            pointTag: string;
-                            pointName: string;
-                            machineId: number;
-                            machineName: string;
-                            siteId: number;
-                            siteCode: string;
-                            bandKey: string;
-                            bandName: string;
-                            unit: string;
-                            value: number;
-                            peakValue: number;
-                            limit: number;
-                            suspect: boolean;
-                            firstAt: string;
-                            lastAt: string;
-                            clearedAt: string | null;
-                            acknowledgedBy: string | null;
-                            acknowledgedAt: string | null;
-                            acknowledgeNote: string | null;
-                            updatedAt: string;
-                        }[];
-                        nextCursor: string | null;
-                    };
+                    "application/json": components["schemas"]["AlertPage"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postAlertsAcknowledge: {
@@ -2563,10 +3581,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    ids: number[];
-                    note: string;
-                };
+                "application/json": components["schemas"]["AcknowledgeManyRequestInput"];
             };
         };
         responses: {
@@ -2576,83 +3591,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            /** @enum {string} */
-                            level: "alert" | "danger";
-                            /** @enum {string} */
-                            state: "raised" | "acknowledged" | "cleared";
-                            pointId: number;
-                            pointTag: string;
-                            pointName: string;
-                            machineId: number;
-                            machineName: string;
-                            siteId: number;
-                            siteCode: string;
-                            bandKey: string;
-                            bandName: string;
-                            unit: string;
-                            value: number;
-                            peakValue: number;
-                            limit: number;
-                            suspect: boolean;
-                            firstAt: string;
-                            lastAt: string;
-                            clearedAt: string | null;
-                            acknowledgedBy: string | null;
-                            acknowledgedAt: string | null;
-                            acknowledgeNote: string | null;
-                            updatedAt: string;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["AcknowledgeResponse"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getAlertsById: {
@@ -2672,138 +3618,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        /** @enum {string} */
-                        level: "alert" | "danger";
-                        /** @enum {string} */
-                        state: "raised" | "acknowledged" | "cleared";
-                        pointId: number;
-                        pointTag: string;
-                        pointName: string;
-                        machineId: number;
-                        machineName: string;
-                        siteId: number;
-                        siteCode: string;
-                        bandKey: string;
-                        bandName: string;
-                        unit: string;
-                        value: number;
-                        peakValue: number;
-                        limit: number;
-                        suspect: boolean;
-                        firstAt: string;
-                        lastAt: string;
-                        clearedAt: string | null;
-                        acknowledgedBy: string | null;
-                        acknowledgedAt: string | null;
-                        acknowledgeNote: string | null;
-                        updatedAt: string;
-                        clearRule: {
-                            alertLevel: number;
-                            dangerLevel: number;
-                            clearLevel: number;
-                            clearPersistence: number;
-                            clearAfterHours: number;
-                        } | null;
-                        bandMeaning: string | null;
-                        machineZone: ("A" | "B" | "C" | "D") | null;
-                        valuesSinceRaised: number | null;
-                        recentValues: {
-                            at: string;
-                            value: number;
-                        }[];
-                        history: {
-                            id: number;
-                            /** @enum {string} */
-                            kind: "raised" | "escalated" | "acknowledged" | "cleared";
-                            /** @enum {string} */
-                            level: "alert" | "danger";
-                            value: number | null;
-                            at: string;
-                            userName: string | null;
-                            note: string | null;
-                        }[];
-                        currentDiagnosis: {
-                            analysisId: number;
-                            takenAt: string;
-                            diagnosis: {
-                                hints: {
-                                    /** @enum {string} */
-                                    code: "unbalance" | "misalignment" | "looseness" | "bearing-outer-race" | "bearing-inner-race" | "bearing-rolling-element" | "bearing-cage" | "gear-mesh" | "blade-pass" | "electrical" | "belt";
-                                    confidence: number;
-                                    summary: string;
-                                    evidence: {
-                                        hz: number;
-                                        order: number;
-                                        amplitude: number;
-                                        label: string;
-                                        /** @enum {string} */
-                                        spectrum: "velocity" | "acceleration" | "envelope";
-                                    }[];
-                                }[];
-                                notes: string[];
-                                severityMmS: number;
-                                severitySource: string;
-                            };
-                        } | null;
-                    };
+                    "application/json": components["schemas"]["AlertDetail"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getAlertsByIdFromMail: {
@@ -2826,42 +3649,10 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postAlertsByIdAcknowledge: {
@@ -2875,9 +3666,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    note: string;
-                };
+                "application/json": components["schemas"]["AcknowledgeRequestInput"];
             };
         };
         responses: {
@@ -2887,138 +3676,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        /** @enum {string} */
-                        level: "alert" | "danger";
-                        /** @enum {string} */
-                        state: "raised" | "acknowledged" | "cleared";
-                        pointId: number;
-                        pointTag: string;
-                        pointName: string;
-                        machineId: number;
-                        machineName: string;
-                        siteId: number;
-                        siteCode: string;
-                        bandKey: string;
-                        bandName: string;
-                        unit: string;
-                        value: number;
-                        peakValue: number;
-                        limit: number;
-                        suspect: boolean;
-                        firstAt: string;
-                        lastAt: string;
-                        clearedAt: string | null;
-                        acknowledgedBy: string | null;
-                        acknowledgedAt: string | null;
-                        acknowledgeNote: string | null;
-                        updatedAt: string;
-                        clearRule: {
-                            alertLevel: number;
-                            dangerLevel: number;
-                            clearLevel: number;
-                            clearPersistence: number;
-                            clearAfterHours: number;
-                        } | null;
-                        bandMeaning: string | null;
-                        machineZone: ("A" | "B" | "C" | "D") | null;
-                        valuesSinceRaised: number | null;
-                        recentValues: {
-                            at: string;
-                            value: number;
-                        }[];
-                        history: {
-                            id: number;
-                            /** @enum {string} */
-                            kind: "raised" | "escalated" | "acknowledged" | "cleared";
-                            /** @enum {string} */
-                            level: "alert" | "danger";
-                            value: number | null;
-                            at: string;
-                            userName: string | null;
-                            note: string | null;
-                        }[];
-                        currentDiagnosis: {
-                            analysisId: number;
-                            takenAt: string;
-                            diagnosis: {
-                                hints: {
-                                    /** @enum {string} */
-                                    code: "unbalance" | "misalignment" | "looseness" | "bearing-outer-race" | "bearing-inner-race" | "bearing-rolling-element" | "bearing-cage" | "gear-mesh" | "blade-pass" | "electrical" | "belt";
-                                    confidence: number;
-                                    summary: string;
-                                    evidence: {
-                                        hz: number;
-                                        order: number;
-                                        amplitude: number;
-                                        label: string;
-                                        /** @enum {string} */
-                                        spectrum: "velocity" | "acceleration" | "envelope";
-                                    }[];
-                                }[];
-                                notes: string[];
-                                severityMmS: number;
-                                severitySource: string;
-                            };
-                        } | null;
-                    };
+                    "application/json": components["schemas"]["AlertDetail"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getPointsByIdLimits: {
@@ -3038,269 +3704,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        pointId: number;
-                        name: string;
-                        version: number;
-                        bands: ({
-                            key: string;
-                            name: string;
-                            /** @enum {string} */
-                            spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                            /** @enum {string} */
-                            measure: "rms" | "peak" | "peak-to-peak";
-                            /** @enum {string} */
-                            unit: "g" | "mm/s" | "um";
-                            alertLevel: number;
-                            dangerLevel: number;
-                            persistence?: number;
-                            clearPersistence?: number;
-                            clearAfterHours?: number;
-                            hysteresis?: number;
-                            statistical?: {
-                                kAlert: number;
-                                kDanger?: number;
-                                baseline: {
-                                    /** @constant */
-                                    from: "first-n";
-                                    count: number;
-                                } | {
-                                    /** @constant */
-                                    from: "period";
-                                    fromAt: number;
-                                    toAt: number;
-                                };
-                                established?: {
-                                    count: number;
-                                    mean: number;
-                                    sigma: number;
-                                    logMean?: number;
-                                    logSigma?: number;
-                                    spanDays?: number;
-                                };
-                                includeSuspect?: boolean;
-                                /** @enum {string} */
-                                combine?: "min" | "max" | "statistical";
-                            };
-                            levelSource?: string;
-                            /** @constant */
-                            kind: "overall";
-                            fromHz?: number;
-                            toHz?: number;
-                        } | {
-                            key: string;
-                            name: string;
-                            /** @enum {string} */
-                            spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                            /** @enum {string} */
-                            measure: "rms" | "peak" | "peak-to-peak";
-                            /** @enum {string} */
-                            unit: "g" | "mm/s" | "um";
-                            alertLevel: number;
-                            dangerLevel: number;
-                            persistence?: number;
-                            clearPersistence?: number;
-                            clearAfterHours?: number;
-                            hysteresis?: number;
-                            statistical?: {
-                                kAlert: number;
-                                kDanger?: number;
-                                baseline: {
-                                    /** @constant */
-                                    from: "first-n";
-                                    count: number;
-                                } | {
-                                    /** @constant */
-                                    from: "period";
-                                    fromAt: number;
-                                    toAt: number;
-                                };
-                                established?: {
-                                    count: number;
-                                    mean: number;
-                                    sigma: number;
-                                    logMean?: number;
-                                    logSigma?: number;
-                                    spanDays?: number;
-                                };
-                                includeSuspect?: boolean;
-                                /** @enum {string} */
-                                combine?: "min" | "max" | "statistical";
-                            };
-                            levelSource?: string;
-                            /** @constant */
-                            kind: "hz";
-                            fromHz: number;
-                            toHz: number;
-                        } | {
-                            key: string;
-                            name: string;
-                            /** @enum {string} */
-                            spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                            /** @enum {string} */
-                            measure: "rms" | "peak" | "peak-to-peak";
-                            /** @enum {string} */
-                            unit: "g" | "mm/s" | "um";
-                            alertLevel: number;
-                            dangerLevel: number;
-                            persistence?: number;
-                            clearPersistence?: number;
-                            clearAfterHours?: number;
-                            hysteresis?: number;
-                            statistical?: {
-                                kAlert: number;
-                                kDanger?: number;
-                                baseline: {
-                                    /** @constant */
-                                    from: "first-n";
-                                    count: number;
-                                } | {
-                                    /** @constant */
-                                    from: "period";
-                                    fromAt: number;
-                                    toAt: number;
-                                };
-                                established?: {
-                                    count: number;
-                                    mean: number;
-                                    sigma: number;
-                                    logMean?: number;
-                                    logSigma?: number;
-                                    spanDays?: number;
-                                };
-                                includeSuspect?: boolean;
-                                /** @enum {string} */
-                                combine?: "min" | "max" | "statistical";
-                            };
-                            levelSource?: string;
-                            /** @constant */
-                            kind: "order";
-                            fromOrder: number;
-                            toOrder: number;
-                        } | {
-                            key: string;
-                            name: string;
-                            /** @enum {string} */
-                            spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                            /** @enum {string} */
-                            measure: "rms" | "peak" | "peak-to-peak";
-                            /** @enum {string} */
-                            unit: "g" | "mm/s" | "um";
-                            alertLevel: number;
-                            dangerLevel: number;
-                            persistence?: number;
-                            clearPersistence?: number;
-                            clearAfterHours?: number;
-                            hysteresis?: number;
-                            statistical?: {
-                                kAlert: number;
-                                kDanger?: number;
-                                baseline: {
-                                    /** @constant */
-                                    from: "first-n";
-                                    count: number;
-                                } | {
-                                    /** @constant */
-                                    from: "period";
-                                    fromAt: number;
-                                    toAt: number;
-                                };
-                                established?: {
-                                    count: number;
-                                    mean: number;
-                                    sigma: number;
-                                    logMean?: number;
-                                    logSigma?: number;
-                                    spanDays?: number;
-                                };
-                                includeSuspect?: boolean;
-                                /** @enum {string} */
-                                combine?: "min" | "max" | "statistical";
-                            };
-                            levelSource?: string;
-                            /** @constant */
-                            kind: "fault";
-                            /** @enum {string} */
-                            fault: "1x" | "2x" | "3x" | "bpfo" | "bpfi" | "bsf" | "ftf" | "gear-mesh" | "blade-pass";
-                            halfWidth: number;
-                            /** @enum {string} */
-                            halfWidthUnit: "hz" | "order" | "percent";
-                            harmonics?: number;
-                            component?: string;
-                        })[];
-                        updatedBy: string | null;
-                        updatedAt: string | null;
-                        machine: {
-                            id: number;
-                            name: string;
-                            type: string;
-                            isoGroup: number;
-                            /** @enum {string} */
-                            foundation: "rigid" | "flexible";
-                            nominalRpm: number;
-                        };
-                        point: {
-                            id: number;
-                            tag: string;
-                            name: string;
-                        };
-                    };
+                    "application/json": components["schemas"]["LimitSetResponse"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     putPointsByIdLimits: {
@@ -3314,195 +3726,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    bands: ({
-                        key: string;
-                        name: string;
-                        /** @enum {string} */
-                        spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                        /** @enum {string} */
-                        measure: "rms" | "peak" | "peak-to-peak";
-                        /** @enum {string} */
-                        unit: "g" | "mm/s" | "um";
-                        alertLevel: number;
-                        dangerLevel: number;
-                        persistence?: number;
-                        clearPersistence?: number;
-                        clearAfterHours?: number;
-                        hysteresis?: number;
-                        statistical?: {
-                            kAlert: number;
-                            kDanger?: number;
-                            baseline: {
-                                /** @constant */
-                                from: "first-n";
-                                count: number;
-                            } | {
-                                /** @constant */
-                                from: "period";
-                                fromAt: number;
-                                toAt: number;
-                            };
-                            established?: {
-                                count: number;
-                                mean: number;
-                                sigma: number;
-                                logMean?: number;
-                                logSigma?: number;
-                                spanDays?: number;
-                            };
-                            includeSuspect?: boolean;
-                            /** @enum {string} */
-                            combine?: "min" | "max" | "statistical";
-                        };
-                        levelSource?: string;
-                        /** @constant */
-                        kind: "overall";
-                        fromHz?: number;
-                        toHz?: number;
-                    } | {
-                        key: string;
-                        name: string;
-                        /** @enum {string} */
-                        spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                        /** @enum {string} */
-                        measure: "rms" | "peak" | "peak-to-peak";
-                        /** @enum {string} */
-                        unit: "g" | "mm/s" | "um";
-                        alertLevel: number;
-                        dangerLevel: number;
-                        persistence?: number;
-                        clearPersistence?: number;
-                        clearAfterHours?: number;
-                        hysteresis?: number;
-                        statistical?: {
-                            kAlert: number;
-                            kDanger?: number;
-                            baseline: {
-                                /** @constant */
-                                from: "first-n";
-                                count: number;
-                            } | {
-                                /** @constant */
-                                from: "period";
-                                fromAt: number;
-                                toAt: number;
-                            };
-                            established?: {
-                                count: number;
-                                mean: number;
-                                sigma: number;
-                                logMean?: number;
-                                logSigma?: number;
-                                spanDays?: number;
-                            };
-                            includeSuspect?: boolean;
-                            /** @enum {string} */
-                            combine?: "min" | "max" | "statistical";
-                        };
-                        levelSource?: string;
-                        /** @constant */
-                        kind: "hz";
-                        fromHz: number;
-                        toHz: number;
-                    } | {
-                        key: string;
-                        name: string;
-                        /** @enum {string} */
-                        spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                        /** @enum {string} */
-                        measure: "rms" | "peak" | "peak-to-peak";
-                        /** @enum {string} */
-                        unit: "g" | "mm/s" | "um";
-                        alertLevel: number;
-                        dangerLevel: number;
-                        persistence?: number;
-                        clearPersistence?: number;
-                        clearAfterHours?: number;
-                        hysteresis?: number;
-                        statistical?: {
-                            kAlert: number;
-                            kDanger?: number;
-                            baseline: {
-                                /** @constant */
-                                from: "first-n";
-                                count: number;
-                            } | {
-                                /** @constant */
-                                from: "period";
-                                fromAt: number;
-                                toAt: number;
-                            };
-                            established?: {
-                                count: number;
-                                mean: number;
-                                sigma: number;
-                                logMean?: number;
-                                logSigma?: number;
-                                spanDays?: number;
-                            };
-                            includeSuspect?: boolean;
-                            /** @enum {string} */
-                            combine?: "min" | "max" | "statistical";
-                        };
-                        levelSource?: string;
-                        /** @constant */
-                        kind: "order";
-                        fromOrder: number;
-                        toOrder: number;
-                    } | {
-                        key: string;
-                        name: string;
-                        /** @enum {string} */
-                        spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                        /** @enum {string} */
-                        measure: "rms" | "peak" | "peak-to-peak";
-                        /** @enum {string} */
-                        unit: "g" | "mm/s" | "um";
-                        alertLevel: number;
-                        dangerLevel: number;
-                        persistence?: number;
-                        clearPersistence?: number;
-                        clearAfterHours?: number;
-                        hysteresis?: number;
-                        statistical?: {
-                            kAlert: number;
-                            kDanger?: number;
-                            baseline: {
-                                /** @constant */
-                                from: "first-n";
-                                count: number;
-                            } | {
-                                /** @constant */
-                                from: "period";
-                                fromAt: number;
-                                toAt: number;
-                            };
-                            established?: {
-                                count: number;
-                                mean: number;
-                                sigma: number;
-                                logMean?: number;
-                                logSigma?: number;
-                                spanDays?: number;
-                            };
-                            includeSuspect?: boolean;
-                            /** @enum {string} */
-                            combine?: "min" | "max" | "statistical";
-                        };
-                        levelSource?: string;
-                        /** @constant */
-                        kind: "fault";
-                        /** @enum {string} */
-                        fault: "1x" | "2x" | "3x" | "bpfo" | "bpfi" | "bsf" | "ftf" | "gear-mesh" | "blade-pass";
-                        halfWidth: number;
-                        /** @enum {string} */
-                        halfWidthUnit: "hz" | "order" | "percent";
-                        harmonics?: number;
-                        component?: string;
-                    })[];
-                    reason: string;
-                };
+                "application/json": components["schemas"]["SaveLimitTemplateRequestInput"];
             };
         };
         responses: {
@@ -3512,66 +3736,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        version: number;
-                        clearedAlertIds: number[];
-                    };
+                    "application/json": components["schemas"]["SaveLimitSetResponse"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postPointsByIdLimitsReplay: {
@@ -3585,194 +3758,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    bands: ({
-                        key: string;
-                        name: string;
-                        /** @enum {string} */
-                        spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                        /** @enum {string} */
-                        measure: "rms" | "peak" | "peak-to-peak";
-                        /** @enum {string} */
-                        unit: "g" | "mm/s" | "um";
-                        alertLevel: number;
-                        dangerLevel: number;
-                        persistence?: number;
-                        clearPersistence?: number;
-                        clearAfterHours?: number;
-                        hysteresis?: number;
-                        statistical?: {
-                            kAlert: number;
-                            kDanger?: number;
-                            baseline: {
-                                /** @constant */
-                                from: "first-n";
-                                count: number;
-                            } | {
-                                /** @constant */
-                                from: "period";
-                                fromAt: number;
-                                toAt: number;
-                            };
-                            established?: {
-                                count: number;
-                                mean: number;
-                                sigma: number;
-                                logMean?: number;
-                                logSigma?: number;
-                                spanDays?: number;
-                            };
-                            includeSuspect?: boolean;
-                            /** @enum {string} */
-                            combine?: "min" | "max" | "statistical";
-                        };
-                        levelSource?: string;
-                        /** @constant */
-                        kind: "overall";
-                        fromHz?: number;
-                        toHz?: number;
-                    } | {
-                        key: string;
-                        name: string;
-                        /** @enum {string} */
-                        spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                        /** @enum {string} */
-                        measure: "rms" | "peak" | "peak-to-peak";
-                        /** @enum {string} */
-                        unit: "g" | "mm/s" | "um";
-                        alertLevel: number;
-                        dangerLevel: number;
-                        persistence?: number;
-                        clearPersistence?: number;
-                        clearAfterHours?: number;
-                        hysteresis?: number;
-                        statistical?: {
-                            kAlert: number;
-                            kDanger?: number;
-                            baseline: {
-                                /** @constant */
-                                from: "first-n";
-                                count: number;
-                            } | {
-                                /** @constant */
-                                from: "period";
-                                fromAt: number;
-                                toAt: number;
-                            };
-                            established?: {
-                                count: number;
-                                mean: number;
-                                sigma: number;
-                                logMean?: number;
-                                logSigma?: number;
-                                spanDays?: number;
-                            };
-                            includeSuspect?: boolean;
-                            /** @enum {string} */
-                            combine?: "min" | "max" | "statistical";
-                        };
-                        levelSource?: string;
-                        /** @constant */
-                        kind: "hz";
-                        fromHz: number;
-                        toHz: number;
-                    } | {
-                        key: string;
-                        name: string;
-                        /** @enum {string} */
-                        spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                        /** @enum {string} */
-                        measure: "rms" | "peak" | "peak-to-peak";
-                        /** @enum {string} */
-                        unit: "g" | "mm/s" | "um";
-                        alertLevel: number;
-                        dangerLevel: number;
-                        persistence?: number;
-                        clearPersistence?: number;
-                        clearAfterHours?: number;
-                        hysteresis?: number;
-                        statistical?: {
-                            kAlert: number;
-                            kDanger?: number;
-                            baseline: {
-                                /** @constant */
-                                from: "first-n";
-                                count: number;
-                            } | {
-                                /** @constant */
-                                from: "period";
-                                fromAt: number;
-                                toAt: number;
-                            };
-                            established?: {
-                                count: number;
-                                mean: number;
-                                sigma: number;
-                                logMean?: number;
-                                logSigma?: number;
-                                spanDays?: number;
-                            };
-                            includeSuspect?: boolean;
-                            /** @enum {string} */
-                            combine?: "min" | "max" | "statistical";
-                        };
-                        levelSource?: string;
-                        /** @constant */
-                        kind: "order";
-                        fromOrder: number;
-                        toOrder: number;
-                    } | {
-                        key: string;
-                        name: string;
-                        /** @enum {string} */
-                        spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                        /** @enum {string} */
-                        measure: "rms" | "peak" | "peak-to-peak";
-                        /** @enum {string} */
-                        unit: "g" | "mm/s" | "um";
-                        alertLevel: number;
-                        dangerLevel: number;
-                        persistence?: number;
-                        clearPersistence?: number;
-                        clearAfterHours?: number;
-                        hysteresis?: number;
-                        statistical?: {
-                            kAlert: number;
-                            kDanger?: number;
-                            baseline: {
-                                /** @constant */
-                                from: "first-n";
-                                count: number;
-                            } | {
-                                /** @constant */
-                                from: "period";
-                                fromAt: number;
-                                toAt: number;
-                            };
-                            established?: {
-                                count: number;
-                                mean: number;
-                                sigma: number;
-                                logMean?: number;
-                                logSigma?: number;
-                                spanDays?: number;
-                            };
-                            includeSuspect?: boolean;
-                            /** @enum {string} */
-                            combine?: "min" | "max" | "statistical";
-                        };
-                        levelSource?: string;
-                        /** @constant */
-                        kind: "fault";
-                        /** @enum {string} */
-                        fault: "1x" | "2x" | "3x" | "bpfo" | "bpfi" | "bsf" | "ftf" | "gear-mesh" | "blade-pass";
-                        halfWidth: number;
-                        /** @enum {string} */
-                        halfWidthUnit: "hz" | "order" | "percent";
-                        harmonics?: number;
-                        component?: string;
-                    })[];
-                };
+                "application/json": components["schemas"]["ReplayRequestInput"];
             };
         };
         responses: {
@@ -3782,99 +3768,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        snapshots: number;
-                        from: string | null;
-                        to: string | null;
-                        totals: {
-                            alerts: number;
-                            reachedDanger: number;
-                        };
-                        qualityNotices: string[];
-                        bands: {
-                            bandKey: string;
-                            bandName: string;
-                            unit: string;
-                            alertLevel: number;
-                            dangerLevel: number;
-                            evaluated: number;
-                            byLevel: {
-                                alert: number;
-                                danger: number;
-                            };
-                            alerts: {
-                                /** @enum {string} */
-                                raisedLevel: "alert" | "danger";
-                                raisedAt: string;
-                                raisedValue: number;
-                                escalatedAt: string | null;
-                                clearedAt: string | null;
-                                peakValue: number;
-                            }[];
-                            values: {
-                                t: string;
-                                v: number;
-                                /** @enum {string} */
-                                q: "ok" | "suspect" | "unusable";
-                            }[];
-                        }[];
-                    };
+                    "application/json": components["schemas"]["ReplayResponse"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getPointsByIdLimitsIsoDefaults: {
@@ -3894,72 +3796,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        isoGroup: number;
-                        /** @enum {string} */
-                        foundation: "rigid" | "flexible";
-                        alertLevel: number;
-                        dangerLevel: number;
-                        /** @constant */
-                        unit: "mm/s";
-                        source: string;
-                    };
+                    "application/json": components["schemas"]["IsoDefaultsResponse"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getPointsByIdLimitsSuggest: {
@@ -3984,78 +3829,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        bandKey: string;
-                        baseline: {
-                            count: number;
-                            mean: number;
-                            sigma: number;
-                            logMean?: number;
-                            logSigma?: number;
-                            spanDays?: number;
-                        } | null;
-                        alertLevel: number | null;
-                        dangerLevel: number | null;
-                        kAlert: number;
-                        kDanger: number;
-                        message: string | null;
-                    };
+                    "application/json": components["schemas"]["SuggestResponse"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getPointsByIdLimitsHistory: {
@@ -4075,74 +3857,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            at: string;
-                            action: string;
-                            actor: string | null;
-                            reason: string | null;
-                            added: string[];
-                            removed: string[];
-                            changed: string[];
-                        }[];
-                    };
+                    "application/json": components["schemas"]["LimitHistoryResponse"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getLimitTemplatesByMachineType: {
@@ -4162,254 +3885,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        machineType: string;
-                        /** @enum {string} */
-                        source: "stored" | "built-in";
-                        version: number;
-                        bands: ({
-                            key: string;
-                            name: string;
-                            /** @enum {string} */
-                            spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                            /** @enum {string} */
-                            measure: "rms" | "peak" | "peak-to-peak";
-                            /** @enum {string} */
-                            unit: "g" | "mm/s" | "um";
-                            alertLevel: number;
-                            dangerLevel: number;
-                            persistence?: number;
-                            clearPersistence?: number;
-                            clearAfterHours?: number;
-                            hysteresis?: number;
-                            statistical?: {
-                                kAlert: number;
-                                kDanger?: number;
-                                baseline: {
-                                    /** @constant */
-                                    from: "first-n";
-                                    count: number;
-                                } | {
-                                    /** @constant */
-                                    from: "period";
-                                    fromAt: number;
-                                    toAt: number;
-                                };
-                                established?: {
-                                    count: number;
-                                    mean: number;
-                                    sigma: number;
-                                    logMean?: number;
-                                    logSigma?: number;
-                                    spanDays?: number;
-                                };
-                                includeSuspect?: boolean;
-                                /** @enum {string} */
-                                combine?: "min" | "max" | "statistical";
-                            };
-                            levelSource?: string;
-                            /** @constant */
-                            kind: "overall";
-                            fromHz?: number;
-                            toHz?: number;
-                        } | {
-                            key: string;
-                            name: string;
-                            /** @enum {string} */
-                            spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                            /** @enum {string} */
-                            measure: "rms" | "peak" | "peak-to-peak";
-                            /** @enum {string} */
-                            unit: "g" | "mm/s" | "um";
-                            alertLevel: number;
-                            dangerLevel: number;
-                            persistence?: number;
-                            clearPersistence?: number;
-                            clearAfterHours?: number;
-                            hysteresis?: number;
-                            statistical?: {
-                                kAlert: number;
-                                kDanger?: number;
-                                baseline: {
-                                    /** @constant */
-                                    from: "first-n";
-                                    count: number;
-                                } | {
-                                    /** @constant */
-                                    from: "period";
-                                    fromAt: number;
-                                    toAt: number;
-                                };
-                                established?: {
-                                    count: number;
-                                    mean: number;
-                                    sigma: number;
-                                    logMean?: number;
-                                    logSigma?: number;
-                                    spanDays?: number;
-                                };
-                                includeSuspect?: boolean;
-                                /** @enum {string} */
-                                combine?: "min" | "max" | "statistical";
-                            };
-                            levelSource?: string;
-                            /** @constant */
-                            kind: "hz";
-                            fromHz: number;
-                            toHz: number;
-                        } | {
-                            key: string;
-                            name: string;
-                            /** @enum {string} */
-                            spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                            /** @enum {string} */
-                            measure: "rms" | "peak" | "peak-to-peak";
-                            /** @enum {string} */
-                            unit: "g" | "mm/s" | "um";
-                            alertLevel: number;
-                            dangerLevel: number;
-                            persistence?: number;
-                            clearPersistence?: number;
-                            clearAfterHours?: number;
-                            hysteresis?: number;
-                            statistical?: {
-                                kAlert: number;
-                                kDanger?: number;
-                                baseline: {
-                                    /** @constant */
-                                    from: "first-n";
-                                    count: number;
-                                } | {
-                                    /** @constant */
-                                    from: "period";
-                                    fromAt: number;
-                                    toAt: number;
-                                };
-                                established?: {
-                                    count: number;
-                                    mean: number;
-                                    sigma: number;
-                                    logMean?: number;
-                                    logSigma?: number;
-                                    spanDays?: number;
-                                };
-                                includeSuspect?: boolean;
-                                /** @enum {string} */
-                                combine?: "min" | "max" | "statistical";
-                            };
-                            levelSource?: string;
-                            /** @constant */
-                            kind: "order";
-                            fromOrder: number;
-                            toOrder: number;
-                        } | {
-                            key: string;
-                            name: string;
-                            /** @enum {string} */
-                            spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                            /** @enum {string} */
-                            measure: "rms" | "peak" | "peak-to-peak";
-                            /** @enum {string} */
-                            unit: "g" | "mm/s" | "um";
-                            alertLevel: number;
-                            dangerLevel: number;
-                            persistence?: number;
-                            clearPersistence?: number;
-                            clearAfterHours?: number;
-                            hysteresis?: number;
-                            statistical?: {
-                                kAlert: number;
-                                kDanger?: number;
-                                baseline: {
-                                    /** @constant */
-                                    from: "first-n";
-                                    count: number;
-                                } | {
-                                    /** @constant */
-                                    from: "period";
-                                    fromAt: number;
-                                    toAt: number;
-                                };
-                                established?: {
-                                    count: number;
-                                    mean: number;
-                                    sigma: number;
-                                    logMean?: number;
-                                    logSigma?: number;
-                                    spanDays?: number;
-                                };
-                                includeSuspect?: boolean;
-                                /** @enum {string} */
-                                combine?: "min" | "max" | "statistical";
-                            };
-                            levelSource?: string;
-                            /** @constant */
-                            kind: "fault";
-                            /** @enum {string} */
-                            fault: "1x" | "2x" | "3x" | "bpfo" | "bpfi" | "bsf" | "ftf" | "gear-mesh" | "blade-pass";
-                            halfWidth: number;
-                            /** @enum {string} */
-                            halfWidthUnit: "hz" | "order" | "percent";
-                            harmonics?: number;
-                            component?: string;
-                        })[];
-                    };
+                    "application/json": components["schemas"]["LimitTemplateResponse"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     putLimitTemplatesByMachineType: {
@@ -4423,195 +3907,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    bands: ({
-                        key: string;
-                        name: string;
-                        /** @enum {string} */
-                        spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                        /** @enum {string} */
-                        measure: "rms" | "peak" | "peak-to-peak";
-                        /** @enum {string} */
-                        unit: "g" | "mm/s" | "um";
-                        alertLevel: number;
-                        dangerLevel: number;
-                        persistence?: number;
-                        clearPersistence?: number;
-                        clearAfterHours?: number;
-                        hysteresis?: number;
-                        statistical?: {
-                            kAlert: number;
-                            kDanger?: number;
-                            baseline: {
-                                /** @constant */
-                                from: "first-n";
-                                count: number;
-                            } | {
-                                /** @constant */
-                                from: "period";
-                                fromAt: number;
-                                toAt: number;
-                            };
-                            established?: {
-                                count: number;
-                                mean: number;
-                                sigma: number;
-                                logMean?: number;
-                                logSigma?: number;
-                                spanDays?: number;
-                            };
-                            includeSuspect?: boolean;
-                            /** @enum {string} */
-                            combine?: "min" | "max" | "statistical";
-                        };
-                        levelSource?: string;
-                        /** @constant */
-                        kind: "overall";
-                        fromHz?: number;
-                        toHz?: number;
-                    } | {
-                        key: string;
-                        name: string;
-                        /** @enum {string} */
-                        spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                        /** @enum {string} */
-                        measure: "rms" | "peak" | "peak-to-peak";
-                        /** @enum {string} */
-                        unit: "g" | "mm/s" | "um";
-                        alertLevel: number;
-                        dangerLevel: number;
-                        persistence?: number;
-                        clearPersistence?: number;
-                        clearAfterHours?: number;
-                        hysteresis?: number;
-                        statistical?: {
-                            kAlert: number;
-                            kDanger?: number;
-                            baseline: {
-                                /** @constant */
-                                from: "first-n";
-                                count: number;
-                            } | {
-                                /** @constant */
-                                from: "period";
-                                fromAt: number;
-                                toAt: number;
-                            };
-                            established?: {
-                                count: number;
-                                mean: number;
-                                sigma: number;
-                                logMean?: number;
-                                logSigma?: number;
-                                spanDays?: number;
-                            };
-                            includeSuspect?: boolean;
-                            /** @enum {string} */
-                            combine?: "min" | "max" | "statistical";
-                        };
-                        levelSource?: string;
-                        /** @constant */
-                        kind: "hz";
-                        fromHz: number;
-                        toHz: number;
-                    } | {
-                        key: string;
-                        name: string;
-                        /** @enum {string} */
-                        spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                        /** @enum {string} */
-                        measure: "rms" | "peak" | "peak-to-peak";
-                        /** @enum {string} */
-                        unit: "g" | "mm/s" | "um";
-                        alertLevel: number;
-                        dangerLevel: number;
-                        persistence?: number;
-                        clearPersistence?: number;
-                        clearAfterHours?: number;
-                        hysteresis?: number;
-                        statistical?: {
-                            kAlert: number;
-                            kDanger?: number;
-                            baseline: {
-                                /** @constant */
-                                from: "first-n";
-                                count: number;
-                            } | {
-                                /** @constant */
-                                from: "period";
-                                fromAt: number;
-                                toAt: number;
-                            };
-                            established?: {
-                                count: number;
-                                mean: number;
-                                sigma: number;
-                                logMean?: number;
-                                logSigma?: number;
-                                spanDays?: number;
-                            };
-                            includeSuspect?: boolean;
-                            /** @enum {string} */
-                            combine?: "min" | "max" | "statistical";
-                        };
-                        levelSource?: string;
-                        /** @constant */
-                        kind: "order";
-                        fromOrder: number;
-                        toOrder: number;
-                    } | {
-                        key: string;
-                        name: string;
-                        /** @enum {string} */
-                        spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                        /** @enum {string} */
-                        measure: "rms" | "peak" | "peak-to-peak";
-                        /** @enum {string} */
-                        unit: "g" | "mm/s" | "um";
-                        alertLevel: number;
-                        dangerLevel: number;
-                        persistence?: number;
-                        clearPersistence?: number;
-                        clearAfterHours?: number;
-                        hysteresis?: number;
-                        statistical?: {
-                            kAlert: number;
-                            kDanger?: number;
-                            baseline: {
-                                /** @constant */
-                                from: "first-n";
-                                count: number;
-                            } | {
-                                /** @constant */
-                                from: "period";
-                                fromAt: number;
-                                toAt: number;
-                            };
-                            established?: {
-                                count: number;
-                                mean: number;
-                                sigma: number;
-                                logMean?: number;
-                                logSigma?: number;
-                                spanDays?: number;
-                            };
-                            includeSuspect?: boolean;
-                            /** @enum {string} */
-                            combine?: "min" | "max" | "statistical";
-                        };
-                        levelSource?: string;
-                        /** @constant */
-                        kind: "fault";
-                        /** @enum {string} */
-                        fault: "1x" | "2x" | "3x" | "bpfo" | "bpfi" | "bsf" | "ftf" | "gear-mesh" | "blade-pass";
-                        halfWidth: number;
-                        /** @enum {string} */
-                        halfWidthUnit: "hz" | "order" | "percent";
-                        harmonics?: number;
-                        component?: string;
-                    })[];
-                    reason: string;
-                };
+                "application/json": components["schemas"]["SaveLimitTemplateRequestInput"];
             };
         };
         responses: {
@@ -4621,254 +3917,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        machineType: string;
-                        /** @enum {string} */
-                        source: "stored" | "built-in";
-                        version: number;
-                        bands: ({
-                            key: string;
-                            name: string;
-                            /** @enum {string} */
-                            spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                            /** @enum {string} */
-                            measure: "rms" | "peak" | "peak-to-peak";
-                            /** @enum {string} */
-                            unit: "g" | "mm/s" | "um";
-                            alertLevel: number;
-                            dangerLevel: number;
-                            persistence?: number;
-                            clearPersistence?: number;
-                            clearAfterHours?: number;
-                            hysteresis?: number;
-                            statistical?: {
-                                kAlert: number;
-                                kDanger?: number;
-                                baseline: {
-                                    /** @constant */
-                                    from: "first-n";
-                                    count: number;
-                                } | {
-                                    /** @constant */
-                                    from: "period";
-                                    fromAt: number;
-                                    toAt: number;
-                                };
-                                established?: {
-                                    count: number;
-                                    mean: number;
-                                    sigma: number;
-                                    logMean?: number;
-                                    logSigma?: number;
-                                    spanDays?: number;
-                                };
-                                includeSuspect?: boolean;
-                                /** @enum {string} */
-                                combine?: "min" | "max" | "statistical";
-                            };
-                            levelSource?: string;
-                            /** @constant */
-                            kind: "overall";
-                            fromHz?: number;
-                            toHz?: number;
-                        } | {
-                            key: string;
-                            name: string;
-                            /** @enum {string} */
-                            spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                            /** @enum {string} */
-                            measure: "rms" | "peak" | "peak-to-peak";
-                            /** @enum {string} */
-                            unit: "g" | "mm/s" | "um";
-                            alertLevel: number;
-                            dangerLevel: number;
-                            persistence?: number;
-                            clearPersistence?: number;
-                            clearAfterHours?: number;
-                            hysteresis?: number;
-                            statistical?: {
-                                kAlert: number;
-                                kDanger?: number;
-                                baseline: {
-                                    /** @constant */
-                                    from: "first-n";
-                                    count: number;
-                                } | {
-                                    /** @constant */
-                                    from: "period";
-                                    fromAt: number;
-                                    toAt: number;
-                                };
-                                established?: {
-                                    count: number;
-                                    mean: number;
-                                    sigma: number;
-                                    logMean?: number;
-                                    logSigma?: number;
-                                    spanDays?: number;
-                                };
-                                includeSuspect?: boolean;
-                                /** @enum {string} */
-                                combine?: "min" | "max" | "statistical";
-                            };
-                            levelSource?: string;
-                            /** @constant */
-                            kind: "hz";
-                            fromHz: number;
-                            toHz: number;
-                        } | {
-                            key: string;
-                            name: string;
-                            /** @enum {string} */
-                            spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                            /** @enum {string} */
-                            measure: "rms" | "peak" | "peak-to-peak";
-                            /** @enum {string} */
-                            unit: "g" | "mm/s" | "um";
-                            alertLevel: number;
-                            dangerLevel: number;
-                            persistence?: number;
-                            clearPersistence?: number;
-                            clearAfterHours?: number;
-                            hysteresis?: number;
-                            statistical?: {
-                                kAlert: number;
-                                kDanger?: number;
-                                baseline: {
-                                    /** @constant */
-                                    from: "first-n";
-                                    count: number;
-                                } | {
-                                    /** @constant */
-                                    from: "period";
-                                    fromAt: number;
-                                    toAt: number;
-                                };
-                                established?: {
-                                    count: number;
-                                    mean: number;
-                                    sigma: number;
-                                    logMean?: number;
-                                    logSigma?: number;
-                                    spanDays?: number;
-                                };
-                                includeSuspect?: boolean;
-                                /** @enum {string} */
-                                combine?: "min" | "max" | "statistical";
-                            };
-                            levelSource?: string;
-                            /** @constant */
-                            kind: "order";
-                            fromOrder: number;
-                            toOrder: number;
-                        } | {
-                            key: string;
-                            name: string;
-                            /** @enum {string} */
-                            spectrum: "acceleration" | "velocity" | "displacement" | "envelope";
-                            /** @enum {string} */
-                            measure: "rms" | "peak" | "peak-to-peak";
-                            /** @enum {string} */
-                            unit: "g" | "mm/s" | "um";
-                            alertLevel: number;
-                            dangerLevel: number;
-                            persistence?: number;
-                            clearPersistence?: number;
-                            clearAfterHours?: number;
-                            hysteresis?: number;
-                            statistical?: {
-                                kAlert: number;
-                                kDanger?: number;
-                                baseline: {
-                                    /** @constant */
-                                    from: "first-n";
-                                    count: number;
-                                } | {
-                                    /** @constant */
-                                    from: "period";
-                                    fromAt: number;
-                                    toAt: number;
-                                };
-                                established?: {
-                                    count: number;
-                                    mean: number;
-                                    sigma: number;
-                                    logMean?: number;
-                                    logSigma?: number;
-                                    spanDays?: number;
-                                };
-                                includeSuspect?: boolean;
-                                /** @enum {string} */
-                                combine?: "min" | "max" | "statistical";
-                            };
-                            levelSource?: string;
-                            /** @constant */
-                            kind: "fault";
-                            /** @enum {string} */
-                            fault: "1x" | "2x" | "3x" | "bpfo" | "bpfi" | "bsf" | "ftf" | "gear-mesh" | "blade-pass";
-                            halfWidth: number;
-                            /** @enum {string} */
-                            halfWidthUnit: "hz" | "order" | "percent";
-                            harmonics?: number;
-                            component?: string;
-                        })[];
-                    };
+                    "application/json": components["schemas"]["LimitTemplateResponse"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getMachinesById: {
@@ -4888,213 +3945,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        name: string;
-                        /** @enum {string} */
-                        type: "motor" | "pump" | "fan" | "blower" | "gearbox" | "compressor";
-                        nominalRpm: number;
-                        isoGroup: number;
-                        /** @enum {string} */
-                        foundation: "rigid" | "flexible";
-                        /** @enum {string} */
-                        criticality: "low" | "medium" | "high";
-                        powerKw: number | null;
-                        bladeCount: number | null;
-                        vaneCount: number | null;
-                        lineHz: number | null;
-                        notes: string | null;
-                        site: {
-                            id: number;
-                            name: string;
-                            code: string;
-                        };
-                        area: {
-                            id: number;
-                            name: string;
-                        };
-                        /** @enum {string} */
-                        status: "ok" | "alert" | "danger" | "quality" | "stale" | "none";
-                        isoBoundaries: {
-                            ab: number;
-                            bc: number;
-                            cd: number;
-                        } | null;
-                        bearings: {
-                            id: number;
-                            name: string;
-                            designation: string | null;
-                            rollingElements: number;
-                            ballDiameterMm: number;
-                            pitchDiameterMm: number;
-                            contactAngleDeg: number;
-                            speedRatio: number;
-                        }[];
-                        gears: {
-                            id: number;
-                            name: string;
-                            teeth: number;
-                            mateTeeth: number;
-                            speedRatio: number;
-                        }[];
-                        faultFrequencies: {
-                            name: string;
-                            /** @enum {string} */
-                            kind: "shaft" | "bpfo" | "bpfi" | "bsf" | "ftf" | "gear-mesh" | "blade-pass";
-                            hz: number | null;
-                            order: number;
-                        }[];
-                        points: {
-                            id: number;
-                            tag: string;
-                            name: string;
-                            location: string;
-                            /** @enum {string} */
-                            direction: "H" | "V" | "A";
-                            bearing: string | null;
-                            /** @enum {string} */
-                            status: "ok" | "alert" | "danger" | "quality" | "stale" | "none";
-                            latest: {
-                                id: number;
-                                snapshotId: number;
-                                takenAt: string;
-                                /** @enum {string} */
-                                verdict: "ok" | "suspect" | "unusable";
-                                isoZone: ("A" | "B" | "C" | "D") | null;
-                                speedRpm: number | null;
-                                /** @enum {string} */
-                                speedSource: "tach" | "rpm" | "estimated" | "none";
-                                bitsUsed: number | null;
-                                overall: {
-                                    accelRmsG: number;
-                                    accelPeakG: number;
-                                    velocityRmsMmS: number;
-                                    displacementPkPkUm: number;
-                                    crestFactor: number;
-                                    kurtosis: number;
-                                    accelBandHz: [
-                                        number,
-                                        number
-                                    ] | null;
-                                    velocityBandHz: [
-                                        number,
-                                        number
-                                    ] | null;
-                                };
-                                diagnosis: {
-                                    hints: {
-                                        /** @enum {string} */
-                                        code: "unbalance" | "misalignment" | "looseness" | "bearing-outer-race" | "bearing-inner-race" | "bearing-rolling-element" | "bearing-cage" | "gear-mesh" | "blade-pass" | "electrical" | "belt";
-                                        confidence: number;
-                                        summary: string;
-                                        evidence: {
-                                            hz: number;
-                                            order: number;
-                                            amplitude: number;
-                                            label: string;
-                                            /** @enum {string} */
-                                            spectrum: "velocity" | "acceleration" | "envelope";
-                                        }[];
-                                    }[];
-                                    notes: string[];
-                                    severityMmS: number;
-                                    severitySource: string;
-                                } | null;
-                                shaftVectors: {
-                                    order: number;
-                                    hz: number;
-                                    accelPeakG: number;
-                                    accelPhaseDeg: number;
-                                    velocityRmsMmS: number;
-                                    velocityPhaseDeg: number;
-                                    revolutions: number;
-                                }[] | null;
-                                spectraThinned?: boolean;
-                                findings?: {
-                                    code: string;
-                                    /** @enum {string} */
-                                    severity: "suspect" | "unusable";
-                                    message: string;
-                                    value: number;
-                                }[];
-                                pinned?: {
-                                    by: string;
-                                    at: string;
-                                    note: string;
-                                } | null;
-                            } | null;
-                            recentVelocity: {
-                                t: string;
-                                v: number;
-                            }[];
-                            governing: {
-                                key: string;
-                                name: string;
-                                unit: string;
-                                level: ("alert" | "danger") | null;
-                                values: {
-                                    t: string;
-                                    v: number;
-                                }[];
-                            };
-                        }[];
-                    };
+                    "application/json": components["schemas"]["MachineDetail"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     deleteMachinesById: {
@@ -5115,60 +3974,12 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     patchMachinesById: {
@@ -5182,40 +3993,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    areaId: number;
-                    name: string;
-                    /** @enum {string} */
-                    type: "motor" | "pump" | "fan" | "blower" | "gearbox" | "compressor";
-                    nominalRpm: number;
-                    isoGroup: 1 | 2;
-                    /** @enum {string} */
-                    foundation: "rigid" | "flexible";
-                    /** @enum {string} */
-                    criticality: "low" | "medium" | "high";
-                    powerKw: number | null;
-                    bladeCount: number | null;
-                    vaneCount: number | null;
-                    lineHz?: (50 | 60) | null;
-                    notes?: string | null;
-                    bearings: {
-                        id?: number;
-                        name: string;
-                        designation?: string | null;
-                        rollingElements: number;
-                        ballDiameterMm: number;
-                        pitchDiameterMm: number;
-                        contactAngleDeg: number;
-                        speedRatio: number;
-                    }[];
-                    gears: {
-                        id?: number;
-                        name: string;
-                        teeth: number;
-                        mateTeeth: number;
-                        speedRatio: number;
-                    }[];
-                };
+                "application/json": components["schemas"]["MachineInputInput"];
             };
         };
         responses: {
@@ -5225,65 +4003,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                    };
+                    "application/json": components["schemas"]["SavedId"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getPointsById: {
@@ -5303,190 +4031,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        tag: string;
-                        name: string;
-                        location: string;
-                        /** @enum {string} */
-                        direction: "H" | "V" | "A";
-                        sensitivityMvPerG: number;
-                        fmaxHz: number;
-                        lines: number;
-                        bearing: string | null;
-                        /** @enum {string} */
-                        status: "ok" | "alert" | "danger" | "quality" | "stale" | "none";
-                        machine: {
-                            id: number;
-                            name: string;
-                            /** @enum {string} */
-                            type: "motor" | "pump" | "fan" | "blower" | "gearbox" | "compressor";
-                            nominalRpm: number;
-                            siteName: string;
-                            areaName: string;
-                        };
-                        latest: {
-                            id: number;
-                            snapshotId: number;
-                            takenAt: string;
-                            /** @enum {string} */
-                            verdict: "ok" | "suspect" | "unusable";
-                            isoZone: ("A" | "B" | "C" | "D") | null;
-                            speedRpm: number | null;
-                            /** @enum {string} */
-                            speedSource: "tach" | "rpm" | "estimated" | "none";
-                            bitsUsed: number | null;
-                            overall: {
-                                accelRmsG: number;
-                                accelPeakG: number;
-                                velocityRmsMmS: number;
-                                displacementPkPkUm: number;
-                                crestFactor: number;
-                                kurtosis: number;
-                                accelBandHz: [
-                                    number,
-                                    number
-                                ] | null;
-                                velocityBandHz: [
-                                    number,
-                                    number
-                                ] | null;
-                            };
-                            diagnosis: {
-                                hints: {
-                                    /** @enum {string} */
-                                    code: "unbalance" | "misalignment" | "looseness" | "bearing-outer-race" | "bearing-inner-race" | "bearing-rolling-element" | "bearing-cage" | "gear-mesh" | "blade-pass" | "electrical" | "belt";
-                                    confidence: number;
-                                    summary: string;
-                                    evidence: {
-                                        hz: number;
-                                        order: number;
-                                        amplitude: number;
-                                        label: string;
-                                        /** @enum {string} */
-                                        spectrum: "velocity" | "acceleration" | "envelope";
-                                    }[];
-                                }[];
-                                notes: string[];
-                                severityMmS: number;
-                                severitySource: string;
-                            } | null;
-                            shaftVectors: {
-                                order: number;
-                                hz: number;
-                                accelPeakG: number;
-                                accelPhaseDeg: number;
-                                velocityRmsMmS: number;
-                                velocityPhaseDeg: number;
-                                revolutions: number;
-                            }[] | null;
-                            spectraThinned?: boolean;
-                            findings?: {
-                                code: string;
-                                /** @enum {string} */
-                                severity: "suspect" | "unusable";
-                                message: string;
-                                value: number;
-                            }[];
-                            pinned?: {
-                                by: string;
-                                at: string;
-                                note: string;
-                            } | null;
-                        } | null;
-                        bands: {
-                            key: string;
-                            name: string;
-                            /** @enum {string} */
-                            kind: "overall" | "hz" | "order" | "fault";
-                            spectrum: string;
-                            unit: string;
-                            alertLevel: number;
-                            dangerLevel: number;
-                            /** @enum {string} */
-                            levelSource: "fixed" | "statistical";
-                            range?: {
-                                /** @constant */
-                                kind: "overall";
-                                fromHz: number | null;
-                                toHz: number | null;
-                            } | {
-                                /** @constant */
-                                kind: "hz";
-                                fromHz: number;
-                                toHz: number;
-                            } | {
-                                /** @constant */
-                                kind: "order";
-                                fromOrder: number;
-                                toOrder: number;
-                            } | {
-                                /** @constant */
-                                kind: "fault";
-                                fault: string;
-                                halfWidth: number;
-                                /** @enum {string} */
-                                halfWidthUnit: "hz" | "order" | "percent";
-                                harmonics: number;
-                            };
-                        }[];
-                    };
+                    "application/json": components["schemas"]["PointDetail"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     deletePointsById: {
@@ -5507,60 +4060,12 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     patchPointsById: {
@@ -5574,20 +4079,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    machineId: number;
-                    tag: string;
-                    name: string;
-                    location: string;
-                    /** @enum {string} */
-                    direction: "H" | "V" | "A";
-                    sensitivityMvPerG: number;
-                    bearingId: number | null;
-                    fmaxHz: number;
-                    lines: number;
-                    envelopeLoHz?: number | null;
-                    envelopeHiHz?: number | null;
-                };
+                "application/json": components["schemas"]["PointInputInput"];
             };
         };
         responses: {
@@ -5597,65 +4089,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                    };
+                    "application/json": components["schemas"]["SavedId"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getSnapshotsById: {
@@ -5675,145 +4117,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        pointId: number;
-                        /** @enum {string} */
-                        source: "gateway" | "upload";
-                        /** @enum {string} */
-                        status: "queued" | "done" | "rejected" | "failed";
-                        statusReason: string | null;
-                        takenAt: string;
-                        receivedAt: string;
-                        sampleRateHz: number;
-                        sampleCount: number;
-                        fileName: string | null;
-                        analysis: {
-                            id: number;
-                            snapshotId: number;
-                            takenAt: string;
-                            /** @enum {string} */
-                            verdict: "ok" | "suspect" | "unusable";
-                            isoZone: ("A" | "B" | "C" | "D") | null;
-                            speedRpm: number | null;
-                            /** @enum {string} */
-                            speedSource: "tach" | "rpm" | "estimated" | "none";
-                            bitsUsed: number | null;
-                            overall: {
-                                accelRmsG: number;
-                                accelPeakG: number;
-                                velocityRmsMmS: number;
-                                displacementPkPkUm: number;
-                                crestFactor: number;
-                                kurtosis: number;
-                                accelBandHz: [
-                                    number,
-                                    number
-                                ] | null;
-                                velocityBandHz: [
-                                    number,
-                                    number
-                                ] | null;
-                            };
-                            diagnosis: {
-                                hints: {
-                                    /** @enum {string} */
-                                    code: "unbalance" | "misalignment" | "looseness" | "bearing-outer-race" | "bearing-inner-race" | "bearing-rolling-element" | "bearing-cage" | "gear-mesh" | "blade-pass" | "electrical" | "belt";
-                                    confidence: number;
-                                    summary: string;
-                                    evidence: {
-                                        hz: number;
-                                        order: number;
-                                        amplitude: number;
-                                        label: string;
-                                        /** @enum {string} */
-                                        spectrum: "velocity" | "acceleration" | "envelope";
-                                    }[];
-                                }[];
-                                notes: string[];
-                                severityMmS: number;
-                                severitySource: string;
-                            } | null;
-                            shaftVectors: {
-                                order: number;
-                                hz: number;
-                                accelPeakG: number;
-                                accelPhaseDeg: number;
-                                velocityRmsMmS: number;
-                                velocityPhaseDeg: number;
-                                revolutions: number;
-                            }[] | null;
-                            spectraThinned?: boolean;
-                            findings: {
-                                code: string;
-                                /** @enum {string} */
-                                severity: "suspect" | "unusable";
-                                message: string;
-                                value: number;
-                            }[];
-                            pinned?: {
-                                by: string;
-                                at: string;
-                                note: string;
-                            } | null;
-                        } | null;
-                    };
+                    "application/json": components["schemas"]["SnapshotStatus"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getPointsByIdAnalyses: {
@@ -5837,133 +4149,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            snapshotId: number;
-                            takenAt: string;
-                            /** @enum {string} */
-                            verdict: "ok" | "suspect" | "unusable";
-                            isoZone: ("A" | "B" | "C" | "D") | null;
-                            speedRpm: number | null;
-                            /** @enum {string} */
-                            speedSource: "tach" | "rpm" | "estimated" | "none";
-                            bitsUsed: number | null;
-                            overall: {
-                                accelRmsG: number;
-                                accelPeakG: number;
-                                velocityRmsMmS: number;
-                                displacementPkPkUm: number;
-                                crestFactor: number;
-                                kurtosis: number;
-                                accelBandHz: [
-                                    number,
-                                    number
-                                ] | null;
-                                velocityBandHz: [
-                                    number,
-                                    number
-                                ] | null;
-                            };
-                            diagnosis: {
-                                hints: {
-                                    /** @enum {string} */
-                                    code: "unbalance" | "misalignment" | "looseness" | "bearing-outer-race" | "bearing-inner-race" | "bearing-rolling-element" | "bearing-cage" | "gear-mesh" | "blade-pass" | "electrical" | "belt";
-                                    confidence: number;
-                                    summary: string;
-                                    evidence: {
-                                        hz: number;
-                                        order: number;
-                                        amplitude: number;
-                                        label: string;
-                                        /** @enum {string} */
-                                        spectrum: "velocity" | "acceleration" | "envelope";
-                                    }[];
-                                }[];
-                                notes: string[];
-                                severityMmS: number;
-                                severitySource: string;
-                            } | null;
-                            shaftVectors: {
-                                order: number;
-                                hz: number;
-                                accelPeakG: number;
-                                accelPhaseDeg: number;
-                                velocityRmsMmS: number;
-                                velocityPhaseDeg: number;
-                                revolutions: number;
-                            }[] | null;
-                            spectraThinned?: boolean;
-                            findings?: {
-                                code: string;
-                                /** @enum {string} */
-                                severity: "suspect" | "unusable";
-                                message: string;
-                                value: number;
-                            }[];
-                            pinned?: {
-                                by: string;
-                                at: string;
-                                note: string;
-                            } | null;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["AnalysisList"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getPointsByIdTrend: {
@@ -5987,157 +4181,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        pointId: number;
-                        band: {
-                            key: string;
-                            name: string;
-                            unit: string;
-                            spectrum: string;
-                        };
-                        levels: {
-                            alert: number;
-                            danger: number;
-                            /** @enum {string} */
-                            source: "fixed" | "statistical";
-                        };
-                        baseline: {
-                            mean: number;
-                            sigma: number;
-                            count: number;
-                        } | null;
-                        items: {
-                            t: string;
-                            v: number;
-                            /** @enum {string} */
-                            q: "ok" | "suspect" | "unusable";
-                            analysisId: number;
-                        }[];
-                        decimation: {
-                            total: number;
-                            bucketMs: number;
-                        } | null;
-                        projection: {
-                            /** @enum {string} */
-                            outcome: "projected" | "too-few-points" | "above-danger" | "not-rising" | "beyond-horizon";
-                            model: ("linear" | "exponential") | null;
-                            r2: number | null;
-                            target: {
-                                /** @enum {string} */
-                                level: "alert" | "danger";
-                                value: number;
-                            } | null;
-                            crossingAt: string | null;
-                            overdue?: boolean;
-                            window?: {
-                                from: string;
-                                to: string;
-                                points: number;
-                                changed: boolean;
-                            } | null;
-                        };
-                        events: {
-                            t: string;
-                            /** @enum {string} */
-                            kind: "raised" | "escalated" | "acknowledged" | "cleared";
-                            /** @enum {string} */
-                            level: "alert" | "danger";
-                            alertId: number;
-                            by: string | null;
-                            note: string | null;
-                        }[];
-                        findings: {
-                            t: string;
-                            title: string;
-                            workOrderRef: string | null;
-                            /** @enum {string} */
-                            state: "open" | "planned" | "done";
-                        }[];
-                        limitChanges: {
-                            t: string;
-                            /** @enum {string} */
-                            kind: "changed" | "added" | "removed" | "baseline";
-                            by: string | null;
-                            reason: string | null;
-                            before: {
-                                alert: number;
-                                danger: number;
-                                /** @enum {string} */
-                                source: "fixed" | "statistical";
-                            } | null;
-                            after: {
-                                alert: number;
-                                danger: number;
-                                /** @enum {string} */
-                                source: "fixed" | "statistical";
-                            } | null;
-                        }[];
-                        uploads: {
-                            t: string;
-                            v: number;
-                            /** @enum {string} */
-                            q: "ok" | "suspect" | "unusable";
-                            analysisId: number;
-                            by: string | null;
-                            fileName: string | null;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["TrendResponse"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getPointsByIdTrendCsv: {
@@ -6164,60 +4216,12 @@ export interface operations {
                     "text/csv": string;
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getPointsByIdWaterfall: {
@@ -6240,78 +4244,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        /** @enum {string} */
-                        kind: "acceleration" | "velocity" | "envelope" | "order";
-                        unit: string;
-                        /** @enum {string} */
-                        axis: "hz" | "order";
-                        /** @enum {string} */
-                        scale: "rms" | "peak";
-                        items: {
-                            analysisId: number;
-                            takenAt: string;
-                            step: number;
-                            values: string;
-                            shaftHz: number | null;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["Waterfall"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     putAnalysesByIdPin: {
@@ -6325,10 +4266,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    /** @default  */
-                    note?: string;
-                };
+                "application/json": components["schemas"]["PinInputInput"];
             };
         };
         responses: {
@@ -6338,68 +4276,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        analysisId: number;
-                        by: string;
-                        at: string;
-                        note: string;
-                    };
+                    "application/json": components["schemas"]["Pin"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     deleteAnalysesByIdPin: {
@@ -6420,60 +4305,12 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getAnalysesByIdSpectrum: {
@@ -6495,95 +4332,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        analysisId: number;
-                        takenAt: string;
-                        /** @enum {string} */
-                        kind: "acceleration" | "velocity" | "envelope" | "order";
-                        unit: string;
-                        /** @enum {string} */
-                        scale: "rms" | "peak";
-                        /** @enum {string} */
-                        axis: "hz" | "order";
-                        dfHz: number | null;
-                        dOrder: number | null;
-                        lines: number;
-                        values: string;
-                        peaks: {
-                            hz: number | null;
-                            order: number | null;
-                            amplitude: number;
-                        }[];
-                        faultFrequencies: {
-                            name: string;
-                            /** @enum {string} */
-                            kind: "shaft" | "bpfo" | "bpfi" | "bsf" | "ftf" | "gear-mesh" | "blade-pass";
-                            hz: number | null;
-                            order: number;
-                        }[];
-                        speed: {
-                            rpm: number | null;
-                            hz: number | null;
-                            /** @enum {string} */
-                            source: "tach" | "rpm" | "estimated" | "none";
-                        };
-                    };
+                    "application/json": components["schemas"]["Spectrum"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getAnalysesByIdWaveform: {
@@ -6603,87 +4360,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        analysisId: number;
-                        takenAt: string;
-                        /** @constant */
-                        unit: "g";
-                        sampleRateHz: number;
-                        sampleCount: number;
-                        values: string;
-                        rails: {
-                            lowG: number;
-                            highG: number;
-                        };
-                        clipped: boolean;
-                        adcBits: number;
-                        bitsUsed: number | null;
-                        /** @enum {string} */
-                        verdict: "ok" | "suspect" | "unusable";
-                        findings: {
-                            code: string;
-                            /** @enum {string} */
-                            severity: "suspect" | "unusable";
-                            message: string;
-                            value: number;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["Waveform"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getAnalysesByIdWaveformWav: {
@@ -6706,60 +4391,12 @@ export interface operations {
                     "audio/wav": string;
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getAnalysesByIdWaveformCsv: {
@@ -6782,60 +4419,12 @@ export interface operations {
                     "text/csv": string;
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getMachinesByIdAttention: {
@@ -6855,119 +4444,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        alerts: {
-                            id: number;
-                            /** @enum {string} */
-                            level: "alert" | "danger";
-                            /** @enum {string} */
-                            state: "raised" | "acknowledged" | "cleared";
-                            pointId: number;
-                            pointTag: string;
-                            pointName: string;
-                            machineId: number;
-                            machineName: string;
-                            siteId: number;
-                            siteCode: string;
-                            bandKey: string;
-                            bandName: string;
-                            unit: string;
-                            value: number;
-                            peakValue: number;
-                            limit: number;
-                            suspect: boolean;
-                            firstAt: string;
-                            lastAt: string;
-                            clearedAt: string | null;
-                            acknowledgedBy: string | null;
-                            acknowledgedAt: string | null;
-                            acknowledgeNote: string | null;
-                            updatedAt: string;
-                        }[];
-                        findings: {
-                            id: number;
-                            pointId: number;
-                            pointTag: string;
-                            pointName: string;
-                            machineName: string;
-                            siteId: number;
-                            siteCode: string;
-                            alertId: number | null;
-                            bandKey: string | null;
-                            title: string;
-                            workOrderRef: string | null;
-                            dueDate: string | null;
-                            /** @enum {string} */
-                            state: "open" | "planned" | "done";
-                            /** @enum {string} */
-                            priority: "high" | "medium" | "low";
-                            owner: string | null;
-                            plannedDowntimeHours: number | null;
-                            note: string | null;
-                            createdBy: {
-                                id: number;
-                                name: string;
-                            };
-                            createdAt: string;
-                            updatedAt: string;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["MachineAttention"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getSetup: {
@@ -6985,107 +4470,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        sites: {
-                            id: number;
-                            name: string;
-                            code: string;
-                            timeZone: string;
-                        }[];
-                        areas: {
-                            id: number;
-                            siteId: number;
-                            name: string;
-                        }[];
-                        machines: {
-                            id: number;
-                            areaId: number;
-                            name: string;
-                            /** @enum {string} */
-                            type: "motor" | "pump" | "fan" | "blower" | "gearbox" | "compressor";
-                            nominalRpm: number;
-                            isoGroup: number;
-                            /** @enum {string} */
-                            foundation: "rigid" | "flexible";
-                            /** @enum {string} */
-                            criticality: "low" | "medium" | "high";
-                            powerKw: number | null;
-                            bladeCount: number | null;
-                            vaneCount: number | null;
-                            lineHz: number | null;
-                            notes: string | null;
-                            bearings: {
-                                id: number;
-                                name: string;
-                                designation: string | null;
-                                rollingElements: number;
-                                ballDiameterMm: number;
-                                pitchDiameterMm: number;
-                                contactAngleDeg: number;
-                                speedRatio: number;
-                            }[];
-                            gears: {
-                                id: number;
-                                name: string;
-                                teeth: number;
-                                mateTeeth: number;
-                                speedRatio: number;
-                            }[];
-                            points: {
-                                id: number;
-                                machineId: number;
-                                tag: string;
-                                name: string;
-                                location: string;
-                                /** @enum {string} */
-                                direction: "H" | "V" | "A";
-                                sensitivityMvPerG: number;
-                                bearingId: number | null;
-                                fmaxHz: number;
-                                lines: number;
-                                envelopeLoHz: number | null;
-                                envelopeHiHz: number | null;
-                            }[];
-                        }[];
-                    };
+                    "application/json": components["schemas"]["SetupTree"];
                 };
             };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     patchSitesById: {
@@ -7099,11 +4490,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    name: string;
-                    code: string;
-                    timeZone: string;
-                };
+                "application/json": components["schemas"]["SiteInputInput"];
             };
         };
         responses: {
@@ -7113,68 +4500,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        name: string;
-                        code: string;
-                        timeZone: string;
-                        id: number;
-                    };
+                    "application/json": components["schemas"]["SavedSite"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postAreas: {
@@ -7182,17 +4516,14 @@ export interface operations {
             query?: never;
             header?: {
                 /** @description Makes the creation safe to retry: the same key with the same request is answered the first answer again (`Idempotent-Replayed: true`); with another request, 422. Kept 24 hours by default (IDEMPOTENCY_KEY_HOURS), per account. */
-                "Idempotency-Key"?: string;
+                "Idempotency-Key"?: components["parameters"]["IdempotencyKey"];
             };
             path?: never;
             cookie?: never;
         };
         requestBody: {
             content: {
-                "application/json": {
-                    siteId: number;
-                    name: string;
-                };
+                "application/json": components["schemas"]["AreaInputInput"];
             };
         };
         responses: {
@@ -7202,76 +4533,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        siteId: number;
-                        name: string;
-                        id: number;
-                    };
+                    "application/json": components["schemas"]["SavedArea"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `idempotency_key_in_use`: a request with this Idempotency-Key is still being answered (Retry-After), or a rule of the operation. */
-            409: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `idempotency_key_reused`: the Idempotency-Key was used for another request. */
-            422: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            409: components["responses"]["IdempotencyKeyInUse"];
+            422: components["responses"]["IdempotencyKeyReused"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     patchAreasById: {
@@ -7285,9 +4556,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    name: string;
-                };
+                "application/json": components["schemas"]["AreaUpdateInput"];
             };
         };
         responses: {
@@ -7297,67 +4566,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        siteId: number;
-                        name: string;
-                        id: number;
-                    };
+                    "application/json": components["schemas"]["SavedArea"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postMachines: {
@@ -7365,47 +4582,14 @@ export interface operations {
             query?: never;
             header?: {
                 /** @description Makes the creation safe to retry: the same key with the same request is answered the first answer again (`Idempotent-Replayed: true`); with another request, 422. Kept 24 hours by default (IDEMPOTENCY_KEY_HOURS), per account. */
-                "Idempotency-Key"?: string;
+                "Idempotency-Key"?: components["parameters"]["IdempotencyKey"];
             };
             path?: never;
             cookie?: never;
         };
         requestBody: {
             content: {
-                "application/json": {
-                    areaId: number;
-                    name: string;
-                    /** @enum {string} */
-                    type: "motor" | "pump" | "fan" | "blower" | "gearbox" | "compressor";
-                    nominalRpm: number;
-                    isoGroup: 1 | 2;
-                    /** @enum {string} */
-                    foundation: "rigid" | "flexible";
-                    /** @enum {string} */
-                    criticality: "low" | "medium" | "high";
-                    powerKw: number | null;
-                    bladeCount: number | null;
-                    vaneCount: number | null;
-                    lineHz?: (50 | 60) | null;
-                    notes?: string | null;
-                    bearings: {
-                        id?: number;
-                        name: string;
-                        designation?: string | null;
-                        rollingElements: number;
-                        ballDiameterMm: number;
-                        pitchDiameterMm: number;
-                        contactAngleDeg: number;
-                        speedRatio: number;
-                    }[];
-                    gears: {
-                        id?: number;
-                        name: string;
-                        teeth: number;
-                        mateTeeth: number;
-                        speedRatio: number;
-                    }[];
-                };
+                "application/json": components["schemas"]["MachineInputInput"];
             };
         };
         responses: {
@@ -7415,74 +4599,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                    };
+                    "application/json": components["schemas"]["SavedId"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `idempotency_key_in_use`: a request with this Idempotency-Key is still being answered (Retry-After), or a rule of the operation. */
-            409: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `idempotency_key_reused`: the Idempotency-Key was used for another request. */
-            422: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            409: components["responses"]["IdempotencyKeyInUse"];
+            422: components["responses"]["IdempotencyKeyReused"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postPoints: {
@@ -7490,27 +4616,14 @@ export interface operations {
             query?: never;
             header?: {
                 /** @description Makes the creation safe to retry: the same key with the same request is answered the first answer again (`Idempotent-Replayed: true`); with another request, 422. Kept 24 hours by default (IDEMPOTENCY_KEY_HOURS), per account. */
-                "Idempotency-Key"?: string;
+                "Idempotency-Key"?: components["parameters"]["IdempotencyKey"];
             };
             path?: never;
             cookie?: never;
         };
         requestBody: {
             content: {
-                "application/json": {
-                    machineId: number;
-                    tag: string;
-                    name: string;
-                    location: string;
-                    /** @enum {string} */
-                    direction: "H" | "V" | "A";
-                    sensitivityMvPerG: number;
-                    bearingId: number | null;
-                    fmaxHz: number;
-                    lines: number;
-                    envelopeLoHz?: number | null;
-                    envelopeHiHz?: number | null;
-                };
+                "application/json": components["schemas"]["PointInputInput"];
             };
         };
         responses: {
@@ -7520,74 +4633,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                    };
+                    "application/json": components["schemas"]["SavedId"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `idempotency_key_in_use`: a request with this Idempotency-Key is still being answered (Retry-After), or a rule of the operation. */
-            409: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `idempotency_key_reused`: the Idempotency-Key was used for another request. */
-            422: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            409: components["responses"]["IdempotencyKeyInUse"];
+            422: components["responses"]["IdempotencyKeyReused"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getAudit: {
@@ -7615,74 +4670,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            at: string;
-                            actorUserId: number | null;
-                            actorName: string | null;
-                            action: string;
-                            entity: string;
-                            entityId: string;
-                            entityLabel: string | null;
-                            changes: {
-                                field: string;
-                                before: string | null;
-                                after: string | null;
-                            }[];
-                            before: unknown;
-                            after: unknown;
-                            reason: string | null;
-                        }[];
-                        nextCursor: string | null;
-                    };
+                    "application/json": components["schemas"]["AuditPage"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getReview: {
@@ -7706,257 +4701,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        period: {
-                            weekEnding: string;
-                            thisWeek: {
-                                from: string;
-                                to: string;
-                            };
-                            lastWeek: {
-                                from: string;
-                                to: string;
-                            };
-                            weeksAhead: number;
-                            timeZone: string;
-                            generatedAt: string;
-                        };
-                        siteWeeks: {
-                            siteId: number;
-                            siteCode: string;
-                            timeZone: string;
-                            thisWeek: {
-                                from: string;
-                                to: string;
-                            };
-                            lastWeek: {
-                                from: string;
-                                to: string;
-                            };
-                        }[];
-                        noise: {
-                            minChangePercent: number;
-                            minValues: number;
-                        };
-                        sites: {
-                            id: number;
-                            code: string;
-                            name: string;
-                            timeZone: string;
-                        }[];
-                        summary: {
-                            movers: number;
-                            forecasts: number;
-                            openAlerts: number;
-                            openDanger: number;
-                            unacknowledged: number;
-                            qualityNotices: number;
-                            findingsDue: number;
-                            findingsOverdue: number;
-                            findingsCreated: number;
-                            moversBelowThreshold: number;
-                        };
-                        machineGroups: {
-                            machineId: number;
-                            machineName: string;
-                            siteCode: string;
-                            /** @enum {string} */
-                            criticality: "high" | "medium" | "low";
-                            movers: number;
-                            worstChangePercent: number | null;
-                        }[];
-                        movers: {
-                            pointId: number;
-                            pointTag: string;
-                            pointName: string;
-                            machineId: number;
-                            machineName: string;
-                            siteId: number;
-                            siteCode: string;
-                            bandKey: string;
-                            bandName: string;
-                            unit: string;
-                            lastWeekMean: number;
-                            thisWeekMean: number;
-                            lastWeekCount: number;
-                            thisWeekCount: number;
-                            change: number;
-                            changePercent: number | null;
-                        }[];
-                        forecasts: {
-                            pointId: number;
-                            pointTag: string;
-                            pointName: string;
-                            machineId: number;
-                            machineName: string;
-                            siteId: number;
-                            siteCode: string;
-                            bandKey: string;
-                            bandName: string;
-                            unit: string;
-                            latestValue: number;
-                            latestAt: string;
-                            target: {
-                                /** @enum {string} */
-                                level: "alert" | "danger";
-                                value: number;
-                            };
-                            /** @enum {string} */
-                            levelSource: "fixed" | "statistical";
-                            crossingAt: string;
-                            daysToCrossing: number;
-                            /** @enum {string} */
-                            model: "linear" | "exponential";
-                            r2: number;
-                            points: number;
-                        }[];
-                        openAlerts: {
-                            pointId: number;
-                            pointTag: string;
-                            pointName: string;
-                            machineId: number;
-                            machineName: string;
-                            siteId: number;
-                            siteCode: string;
-                            alertId: number;
-                            bandKey: string;
-                            bandName: string;
-                            unit: string;
-                            /** @enum {string} */
-                            level: "alert" | "danger";
-                            /** @enum {string} */
-                            state: "raised" | "acknowledged";
-                            limitValue: number;
-                            lastValue: number;
-                            peakValue: number;
-                            firstAt: string;
-                            lastAt: string;
-                            ageDays: number;
-                            suspect: boolean;
-                        }[];
-                        qualityNotices: {
-                            pointId: number;
-                            pointTag: string;
-                            pointName: string;
-                            machineId: number;
-                            machineName: string;
-                            siteId: number;
-                            siteCode: string;
-                            noticeId: number;
-                            snapshotId: number | null;
-                            /** @enum {string} */
-                            verdict: "ok" | "suspect" | "unusable";
-                            takenAt: string;
-                            findings: {
-                                code: string;
-                                severity: string;
-                                message: string;
-                                value?: number | null;
-                            }[];
-                        }[];
-                        findingsDue: {
-                            id: number;
-                            pointId: number;
-                            pointTag: string;
-                            pointName: string;
-                            machineName: string;
-                            siteId: number;
-                            siteCode: string;
-                            alertId: number | null;
-                            bandKey: string | null;
-                            title: string;
-                            workOrderRef: string | null;
-                            dueDate: string | null;
-                            /** @enum {string} */
-                            state: "open" | "planned" | "done";
-                            /** @enum {string} */
-                            priority: "high" | "medium" | "low";
-                            owner: string | null;
-                            plannedDowntimeHours: number | null;
-                            note: string | null;
-                            createdBy: {
-                                id: number;
-                                name: string;
-                            };
-                            createdAt: string;
-                            updatedAt: string;
-                            overdue: boolean;
-                        }[];
-                        findingsCreated: {
-                            id: number;
-                            pointId: number;
-                            pointTag: string;
-                            pointName: string;
-                            machineName: string;
-                            siteId: number;
-                            siteCode: string;
-                            alertId: number | null;
-                            bandKey: string | null;
-                            title: string;
-                            workOrderRef: string | null;
-                            dueDate: string | null;
-                            /** @enum {string} */
-                            state: "open" | "planned" | "done";
-                            /** @enum {string} */
-                            priority: "high" | "medium" | "low";
-                            owner: string | null;
-                            plannedDowntimeHours: number | null;
-                            note: string | null;
-                            createdBy: {
-                                id: number;
-                                name: string;
-                            };
-                            createdAt: string;
-                            updatedAt: string;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["Review"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getReviewZip: {
@@ -7983,51 +4735,11 @@ export interface operations {
                     "application/zip": string;
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getFindings: {
@@ -8053,83 +4765,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            pointId: number;
-                            pointTag: string;
-                            pointName: string;
-                            machineName: string;
-                            siteId: number;
-                            siteCode: string;
-                            alertId: number | null;
-                            bandKey: string | null;
-                            title: string;
-                            workOrderRef: string | null;
-                            dueDate: string | null;
-                            /** @enum {string} */
-                            state: "open" | "planned" | "done";
-                            /** @enum {string} */
-                            priority: "high" | "medium" | "low";
-                            owner: string | null;
-                            plannedDowntimeHours: number | null;
-                            note: string | null;
-                            createdBy: {
-                                id: number;
-                                name: string;
-                            };
-                            createdAt: string;
-                            updatedAt: string;
-                        }[];
-                        nextCursor: string | null;
-                    };
+                    "application/json": components["schemas"]["FindingPage"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postFindings: {
@@ -8137,26 +4780,14 @@ export interface operations {
             query?: never;
             header?: {
                 /** @description Makes the creation safe to retry: the same key with the same request is answered the first answer again (`Idempotent-Replayed: true`); with another request, 422. Kept 24 hours by default (IDEMPOTENCY_KEY_HOURS), per account. */
-                "Idempotency-Key"?: string;
+                "Idempotency-Key"?: components["parameters"]["IdempotencyKey"];
             };
             path?: never;
             cookie?: never;
         };
         requestBody: {
             content: {
-                "application/json": {
-                    pointId: number;
-                    alertId?: number | null;
-                    bandKey?: string | null;
-                    title: string;
-                    workOrderRef?: "" | null | string;
-                    dueDate?: "" | null | string;
-                    note?: "" | null | string;
-                    /** @enum {string} */
-                    priority?: "high" | "medium" | "low";
-                    owner?: "" | null | string;
-                    plannedDowntimeHours?: null | number;
-                };
+                "application/json": components["schemas"]["CreateFindingInput"];
             };
         };
         responses: {
@@ -8166,98 +4797,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        pointId: number;
-                        pointTag: string;
-                        pointName: string;
-                        machineName: string;
-                        siteId: number;
-                        siteCode: string;
-                        alertId: number | null;
-                        bandKey: string | null;
-                        title: string;
-                        workOrderRef: string | null;
-                        dueDate: string | null;
-                        /** @enum {string} */
-                        state: "open" | "planned" | "done";
-                        /** @enum {string} */
-                        priority: "high" | "medium" | "low";
-                        owner: string | null;
-                        plannedDowntimeHours: number | null;
-                        note: string | null;
-                        createdBy: {
-                            id: number;
-                            name: string;
-                        };
-                        createdAt: string;
-                        updatedAt: string;
-                    };
+                    "application/json": components["schemas"]["Finding"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `idempotency_key_in_use`: a request with this Idempotency-Key is still being answered (Retry-After), or a rule of the operation. */
-            409: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `idempotency_key_reused`: the Idempotency-Key was used for another request. */
-            422: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            409: components["responses"]["IdempotencyKeyInUse"];
+            422: components["responses"]["IdempotencyKeyReused"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     patchFindingsById: {
@@ -8271,18 +4820,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    /** @enum {string} */
-                    state?: "open" | "planned" | "done";
-                    title?: string;
-                    workOrderRef?: "" | null | string;
-                    dueDate?: "" | null | string;
-                    note?: "" | null | string;
-                    /** @enum {string} */
-                    priority?: "high" | "medium" | "low";
-                    owner?: "" | null | string;
-                    plannedDowntimeHours?: null | number;
-                };
+                "application/json": components["schemas"]["UpdateFindingInput"];
             };
         };
         responses: {
@@ -8292,89 +4830,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        pointId: number;
-                        pointTag: string;
-                        pointName: string;
-                        machineName: string;
-                        siteId: number;
-                        siteCode: string;
-                        alertId: number | null;
-                        bandKey: string | null;
-                        title: string;
-                        workOrderRef: string | null;
-                        dueDate: string | null;
-                        /** @enum {string} */
-                        state: "open" | "planned" | "done";
-                        /** @enum {string} */
-                        priority: "high" | "medium" | "low";
-                        owner: string | null;
-                        plannedDowntimeHours: number | null;
-                        note: string | null;
-                        createdBy: {
-                            id: number;
-                            name: string;
-                        };
-                        createdAt: string;
-                        updatedAt: string;
-                    };
+                    "application/json": components["schemas"]["Finding"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getQualityNotices: {
@@ -8395,75 +4859,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            pointId: number;
-                            snapshotId: number | null;
-                            /** @enum {string} */
-                            verdict: "ok" | "suspect" | "unusable";
-                            takenAt: string;
-                            findings: {
-                                code: string;
-                                /** @enum {string} */
-                                severity: "suspect" | "unusable";
-                                message: string;
-                                value: number;
-                            }[];
-                            reviewedBy: {
-                                id: number;
-                                name: string;
-                            } | null;
-                            reviewedAt: string | null;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["QualityNoticeList"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postQualityNoticesReview: {
@@ -8475,10 +4878,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    pointId: number;
-                    ids?: number[];
-                };
+                "application/json": components["schemas"]["ReviewNoticesInput"];
             };
         };
         responses: {
@@ -8488,62 +4888,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        pointId: number;
-                        reviewed: number;
-                        reviewedBy: {
-                            id: number;
-                            name: string;
-                        };
-                        reviewedAt: string;
-                    };
+                    "application/json": components["schemas"]["ReviewNoticesResult"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getUsers: {
@@ -8561,63 +4913,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            email: string;
-                            name: string;
-                            /** @enum {string} */
-                            role: "admin" | "engineer" | "planner" | "operator";
-                            siteIds: number[];
-                            invitePending: boolean;
-                            disabledAt: string | null;
-                            lastSignInAt: string | null;
-                            createdAt: string;
-                        }[];
-                        sites: {
-                            id: number;
-                            code: string;
-                            name: string;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["UserList"];
                 };
             };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postUsersInvite: {
@@ -8625,21 +4927,14 @@ export interface operations {
             query?: never;
             header?: {
                 /** @description Makes the creation safe to retry: the same key with the same request is answered the first answer again (`Idempotent-Replayed: true`); with another request, 422. Kept 24 hours by default (IDEMPOTENCY_KEY_HOURS), per account. */
-                "Idempotency-Key"?: string;
+                "Idempotency-Key"?: components["parameters"]["IdempotencyKey"];
             };
             path?: never;
             cookie?: never;
         };
         requestBody: {
             content: {
-                "application/json": {
-                    /** Format: email */
-                    email: string;
-                    name: string;
-                    /** @enum {string} */
-                    role: "admin" | "engineer" | "planner" | "operator";
-                    siteIds: number[];
-                };
+                "application/json": components["schemas"]["InviteUserInput"];
             };
         };
         responses: {
@@ -8649,83 +4944,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        email: string;
-                        name: string;
-                        /** @enum {string} */
-                        role: "admin" | "engineer" | "planner" | "operator";
-                        siteIds: number[];
-                        invitePending: boolean;
-                        disabledAt: string | null;
-                        lastSignInAt: string | null;
-                        createdAt: string;
-                    };
+                    "application/json": components["schemas"]["UserSummary"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `idempotency_key_in_use`: a request with this Idempotency-Key is still being answered (Retry-After), or a rule of the operation. */
-            409: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `idempotency_key_reused`: the Idempotency-Key was used for another request. */
-            422: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            409: components["responses"]["IdempotencyKeyInUse"];
+            422: components["responses"]["IdempotencyKeyReused"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     patchUsersById: {
@@ -8739,12 +4967,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    /** @enum {string} */
-                    role?: "admin" | "engineer" | "planner" | "operator";
-                    siteIds?: number[];
-                    name?: string;
-                };
+                "application/json": components["schemas"]["UpdateUserInput"];
             };
         };
         responses: {
@@ -8754,74 +4977,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        email: string;
-                        name: string;
-                        /** @enum {string} */
-                        role: "admin" | "engineer" | "planner" | "operator";
-                        siteIds: number[];
-                        invitePending: boolean;
-                        disabledAt: string | null;
-                        lastSignInAt: string | null;
-                        createdAt: string;
-                    };
+                    "application/json": components["schemas"]["UserSummary"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postUsersByIdDisable: {
@@ -8841,74 +5005,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        email: string;
-                        name: string;
-                        /** @enum {string} */
-                        role: "admin" | "engineer" | "planner" | "operator";
-                        siteIds: number[];
-                        invitePending: boolean;
-                        disabledAt: string | null;
-                        lastSignInAt: string | null;
-                        createdAt: string;
-                    };
+                    "application/json": components["schemas"]["UserSummary"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postUsersByIdEnable: {
@@ -8928,74 +5033,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        email: string;
-                        name: string;
-                        /** @enum {string} */
-                        role: "admin" | "engineer" | "planner" | "operator";
-                        siteIds: number[];
-                        invitePending: boolean;
-                        disabledAt: string | null;
-                        lastSignInAt: string | null;
-                        createdAt: string;
-                    };
+                    "application/json": components["schemas"]["UserSummary"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postAuthAcceptInvite: {
@@ -9007,10 +5053,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    token: string;
-                    password: string;
-                };
+                "application/json": components["schemas"]["AcceptInviteInput"];
             };
         };
         responses: {
@@ -9021,42 +5064,10 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            403: components["responses"]["CrossOrigin"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postAuthForgotPassword: {
@@ -9068,10 +5079,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    /** Format: email */
-                    email: string;
-                };
+                "application/json": components["schemas"]["ForgotPasswordInput"];
             };
         };
         responses: {
@@ -9081,48 +5089,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        /** @constant */
-                        accepted: true;
-                    };
+                    "application/json": components["schemas"]["ForgotPasswordResponse"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            403: components["responses"]["CrossOrigin"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postAuthResetPassword: {
@@ -9134,10 +5107,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    token: string;
-                    password: string;
-                };
+                "application/json": components["schemas"]["ResetPasswordInput"];
             };
         };
         responses: {
@@ -9148,42 +5118,10 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            403: components["responses"]["CrossOrigin"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getApiTokens: {
@@ -9201,59 +5139,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            userId: number;
-                            name: string;
-                            /** @enum {string} */
-                            role: "admin" | "engineer" | "planner" | "operator";
-                            siteIds: number[];
-                            tokenPrefix: string;
-                            createdBy: string | null;
-                            createdAt: string;
-                            lastUsedAt: string | null;
-                            revokedAt: string | null;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["ApiTokenList"];
                 };
             };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postApiTokens: {
@@ -9265,12 +5157,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    name: string;
-                    /** @enum {string} */
-                    role: "admin" | "engineer" | "planner" | "operator";
-                    siteIds: number[];
-                };
+                "application/json": components["schemas"]["IssueApiTokenInput"];
             };
         };
         responses: {
@@ -9280,67 +5167,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        userId: number;
-                        name: string;
-                        /** @enum {string} */
-                        role: "admin" | "engineer" | "planner" | "operator";
-                        siteIds: number[];
-                        tokenPrefix: string;
-                        createdBy: string | null;
-                        createdAt: string;
-                        lastUsedAt: string | null;
-                        revokedAt: string | null;
-                        token: string;
-                    };
+                    "application/json": components["schemas"]["IssuedApiToken"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postApiTokensByIdRevoke: {
@@ -9360,75 +5194,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        userId: number;
-                        name: string;
-                        /** @enum {string} */
-                        role: "admin" | "engineer" | "planner" | "operator";
-                        siteIds: number[];
-                        tokenPrefix: string;
-                        createdBy: string | null;
-                        createdAt: string;
-                        lastUsedAt: string | null;
-                        revokedAt: string | null;
-                    };
+                    "application/json": components["schemas"]["ApiToken"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getWebhooks: {
@@ -9446,57 +5220,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            name: string;
-                            url: string;
-                            events: ("alert.raised" | "alert.escalated" | "alert.acknowledged" | "alert.cleared" | "finding.created" | "finding.updated")[];
-                            enabled: boolean;
-                            createdAt: string;
-                            updatedAt: string;
-                            pending: number;
-                            undelivered: number;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["WebhookList"];
                 };
             };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postWebhooks: {
@@ -9508,12 +5238,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    name: string;
-                    /** Format: uri */
-                    url: string;
-                    events: ("alert.raised" | "alert.escalated" | "alert.acknowledged" | "alert.cleared" | "finding.created" | "finding.updated")[];
-                };
+                "application/json": components["schemas"]["CreateWebhookInput"];
             };
         };
         responses: {
@@ -9523,65 +5248,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        name: string;
-                        url: string;
-                        events: ("alert.raised" | "alert.escalated" | "alert.acknowledged" | "alert.cleared" | "finding.created" | "finding.updated")[];
-                        enabled: boolean;
-                        createdAt: string;
-                        updatedAt: string;
-                        pending: number;
-                        undelivered: number;
-                        secret: string;
-                    };
+                    "application/json": components["schemas"]["CreatedWebhook"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     deleteWebhooksById: {
@@ -9602,60 +5276,12 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     patchWebhooksById: {
@@ -9669,13 +5295,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    name?: string;
-                    /** Format: uri */
-                    url?: string;
-                    events?: ("alert.raised" | "alert.escalated" | "alert.acknowledged" | "alert.cleared" | "finding.created" | "finding.updated")[];
-                    enabled?: boolean;
-                };
+                "application/json": components["schemas"]["UpdateWebhookInput"];
             };
         };
         responses: {
@@ -9685,73 +5305,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        name: string;
-                        url: string;
-                        events: ("alert.raised" | "alert.escalated" | "alert.acknowledged" | "alert.cleared" | "finding.created" | "finding.updated")[];
-                        enabled: boolean;
-                        createdAt: string;
-                        updatedAt: string;
-                        pending: number;
-                        undelivered: number;
-                    };
+                    "application/json": components["schemas"]["Webhook"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getWebhooksByIdDeliveries: {
@@ -9771,76 +5333,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            eventId: string;
-                            eventType: string;
-                            attempts: number;
-                            createdAt: string;
-                            sentAt: string | null;
-                            nextAttemptAt: string;
-                            lastStatus: number | null;
-                            lastError: string | null;
-                            outcome: ("sent" | "failed" | "uncertain") | null;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["WebhookDeliveryList"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postAccountPassword: {
@@ -9852,10 +5353,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    currentPassword: string;
-                    newPassword: string;
-                };
+                "application/json": components["schemas"]["ChangePasswordInput"];
             };
         };
         responses: {
@@ -9866,51 +5364,11 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getAccountPreferences: {
@@ -9928,48 +5386,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        /** @enum {string} */
-                        unitSystem: "metric" | "imperial";
-                    };
+                    "application/json": components["schemas"]["Preferences"];
                 };
             };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     putAccountPreferences: {
@@ -9981,10 +5404,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    /** @enum {string} */
-                    unitSystem: "metric" | "imperial";
-                };
+                "application/json": components["schemas"]["PreferencesInput"];
             };
         };
         responses: {
@@ -9994,57 +5414,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        /** @enum {string} */
-                        unitSystem: "metric" | "imperial";
-                    };
+                    "application/json": components["schemas"]["Preferences"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getAccountSubscriptions: {
@@ -10062,67 +5439,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            siteId: number | null;
-                            machineId: number | null;
-                            /** @enum {string} */
-                            minLevel: "alert" | "danger";
-                            /** @enum {string} */
-                            cadence: "immediate" | "hourly";
-                        }[];
-                        weeklyDigest: boolean;
-                        options: {
-                            sites: {
-                                id: number;
-                                code: string;
-                                name: string;
-                            }[];
-                            machines: {
-                                id: number;
-                                siteId: number;
-                                name: string;
-                            }[];
-                        };
-                    };
+                    "application/json": components["schemas"]["SubscriptionSettingsResponse"];
                 };
             };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     putAccountSubscriptions: {
@@ -10134,17 +5457,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": {
-                    items: {
-                        siteId: number | null;
-                        machineId: number | null;
-                        /** @enum {string} */
-                        minLevel: "alert" | "danger";
-                        /** @enum {string} */
-                        cadence: "immediate" | "hourly";
-                    }[];
-                    weeklyDigest: boolean;
-                };
+                "application/json": components["schemas"]["SubscriptionSettingsInput"];
             };
         };
         responses: {
@@ -10154,76 +5467,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            siteId: number | null;
-                            machineId: number | null;
-                            /** @enum {string} */
-                            minLevel: "alert" | "danger";
-                            /** @enum {string} */
-                            cadence: "immediate" | "hourly";
-                        }[];
-                        weeklyDigest: boolean;
-                        options: {
-                            sites: {
-                                id: number;
-                                code: string;
-                                name: string;
-                            }[];
-                            machines: {
-                                id: number;
-                                siteId: number;
-                                name: string;
-                            }[];
-                        };
-                    };
+                    "application/json": components["schemas"]["SubscriptionSettingsResponse"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getMailbox: {
@@ -10243,61 +5494,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            to: string;
-                            subject: string;
-                            receivedAt: string;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["MailboxList"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getMailboxById: {
@@ -10317,75 +5521,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        id: number;
-                        to: string;
-                        subject: string;
-                        receivedAt: string;
-                        from: string;
-                        messageId: string | null;
-                        headers: {
-                            [key: string]: string;
-                        };
-                        text: string | null;
-                        html: string | null;
-                    };
+                    "application/json": components["schemas"]["MailboxMessage"];
                 };
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getMailUndelivered: {
@@ -10403,58 +5547,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": {
-                        items: {
-                            id: number;
-                            kind: string;
-                            to: string;
-                            subject: string;
-                            attempts: number;
-                            /** @enum {string} */
-                            state: "retrying" | "failed" | "uncertain";
-                            lastError: string | null;
-                            createdAt: string;
-                            nextAttemptAt: string | null;
-                        }[];
-                    };
+                    "application/json": components["schemas"]["UndeliveredMailList"];
                 };
             };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["Forbidden"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     postMailUndeliveredByIdResend: {
@@ -10475,60 +5574,12 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation. */
-            400: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked. */
-            401: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host. */
-            403: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `not_found`. */
-            404: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            400: components["responses"]["InvalidRequest"];
+            401: components["responses"]["Unauthenticated"];
+            403: components["responses"]["ForbiddenWrite"];
+            404: components["responses"]["NotFound"];
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
     getOpenapiJson: {
@@ -10549,24 +5600,8 @@ export interface operations {
                     "application/json": unknown;
                 };
             };
-            /** @description `db_unavailable`: the database is away; retry after the Retry-After seconds. */
-            503: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
-            /** @description Any other error, in the same shape. */
-            default: {
-                headers: {
-                    [name: string]: unknown;
-                };
-                content: {
-                    "application/json": components["schemas"]["Error"];
-                };
-            };
+            503: components["responses"]["DatabaseUnavailable"];
+            default: components["responses"]["OtherError"];
         };
     };
 }

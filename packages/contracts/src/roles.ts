@@ -1,13 +1,6 @@
 import { z } from 'zod';
+import { roles } from './role-names.ts';
 
-/** The four roles of DESIGN.md. Order matters only for display. */
-export const roles = ['admin', 'engineer', 'planner', 'operator'] as const;
+/** The four roles (role-names.ts holds the list and labels, zod-free). Order matters only for display. */
+export { roleLabels, roles, type Role } from './role-names.ts';
 export const roleSchema = /* @__PURE__ */ z.enum(roles);
-export type Role = z.infer<typeof roleSchema>;
-
-export const roleLabels: Record<Role, string> = {
-  admin: 'Administrator',
-  engineer: 'Reliability engineer',
-  planner: 'Maintenance planner',
-  operator: 'Operator',
-};

@@ -42,7 +42,7 @@ interface Screen {
 const SCREENS: Screen[] = [
   {
     path: /^\/(?:fleet)?$/,
-    modules: [page('fleet'), 'packages/contracts/src/fleet.ts'],
+    modules: [page('fleet')],
     data: () => ['/api/v1/fleet'],
   },
   { path: /^\/alerts$/, modules: [page('alerts'), api('alerts', 'get-alerts')] },

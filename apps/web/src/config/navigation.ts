@@ -1,4 +1,4 @@
-import { roles, type Role } from '@turnstone/contracts/roles';
+import { roles, type Role } from '@turnstone/contracts/role-names';
 import { paths } from './paths.ts';
 
 export interface NavigationItem {

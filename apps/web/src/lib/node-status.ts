@@ -20,6 +20,11 @@ export const statusOrder: readonly NodeStatus[] = [
   'none',
 ];
 
+/** Whether `value` names a status (a `?status=` in the address, a select's value). */
+export function isNodeStatus(value: unknown): value is NodeStatus {
+  return statusOrder.includes(value as NodeStatus);
+}
+
 const rank: Record<NodeStatus, number> = Object.fromEntries(
   statusOrder.map((status, index) => [status, statusOrder.length - index]),
 ) as Record<NodeStatus, number>;

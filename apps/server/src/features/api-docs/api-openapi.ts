@@ -4,8 +4,33 @@
  * with the contracts schemas it declares (`RouteSpec.schemas`). Nothing here is written by
  * hand per route, so a route and its description cannot drift apart.
  */
+import * as account from '@turnstone/contracts/account';
+import * as alerts from '@turnstone/contracts/alerts';
+import * as apiTokens from '@turnstone/contracts/api-tokens';
+import * as audit from '@turnstone/contracts/audit';
+import * as auth from '@turnstone/contracts/auth';
+import * as findings from '@turnstone/contracts/findings';
+import * as fleet from '@turnstone/contracts/fleet';
+import * as gateways from '@turnstone/contracts/gateways';
+import * as limits from '@turnstone/contracts/limits';
+import * as machineAttention from '@turnstone/contracts/machine-attention';
+import * as mail from '@turnstone/contracts/mail';
+import * as paging from '@turnstone/contracts/paging';
+import * as pins from '@turnstone/contracts/pins';
+import * as points from '@turnstone/contracts/points';
+import * as quality from '@turnstone/contracts/quality';
+import * as retention from '@turnstone/contracts/retention';
+import * as review from '@turnstone/contracts/review';
+import * as roles from '@turnstone/contracts/roles';
+import * as setup from '@turnstone/contracts/setup';
+import * as trend from '@turnstone/contracts/trend';
+import * as units from '@turnstone/contracts/units';
+import * as uploads from '@turnstone/contracts/uploads';
+import * as users from '@turnstone/contracts/users';
+import * as waterfall from '@turnstone/contracts/waterfall';
+import * as webhooks from '@turnstone/contracts/webhooks';
 import { ALL_ROLES, type Method, type RouteGroup, type RouteSpec } from '../../lib/route-table.ts';
-import { ERROR_REF, errorComponent, jsonSchema } from '../../lib/openapi.ts';
+import { SchemaComponents, errorAnswer, errorComponent, jsonSchema } from '../../lib/openapi.ts';
 import { COOKIE_NAME } from '../auth/session-token.ts';
 import { IDEMPOTENCY_HEADER, takesIdempotencyKey } from '../idempotency/idempotent-route.ts';
 
@@ -24,10 +49,70 @@ export function operationId(method: Method, path: string): string {
   return method + words.map((w) => w[0]!.toUpperCase() + w.slice(1)).join('');
 }
 
-const errorAnswer = (description: string) => ({
-  description,
-  content: { 'application/json': { schema: { $ref: ERROR_REF } } },
+/** The contract modules whose named schemas are the document's `components.schemas`. */
+const CONTRACTS = {
+  account,
+  alerts,
+  apiTokens,
+  audit,
+  auth,
+  findings,
+  fleet,
+  gateways,
+  limits,
+  machineAttention,
+  mail,
+  paging,
+  pins,
+  points,
+  quality,
+  retention,
+  review,
+  roles,
+  setup,
+  trend,
+  units,
+  uploads,
+  users,
+  waterfall,
+  webhooks,
+};
+
+/**
+ * Every error answer an operation may give, declared once in `components.responses`; an
+ * operation names the ones it gives by `$ref`.
+ */
+const ERROR_ANSWERS = {
+  InvalidRequest:
+    'Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation.',
+  Unauthenticated:
+    '`unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked.',
+  Forbidden: '`forbidden`: the role may not do this, or the site is not yours.',
+  ForbiddenWrite:
+    '`forbidden`: the role may not do this, or the site is not yours. `cross_origin`: the Origin header names another host.',
+  CrossOrigin: '`cross_origin`: the Origin header names another host.',
+  NotFound: '`not_found`.',
+  IdempotencyKeyInUse:
+    '`idempotency_key_in_use`: a request with this Idempotency-Key is still being answered (Retry-After), or a rule of the operation.',
+  IdempotencyKeyReused:
+    '`idempotency_key_reused`: the Idempotency-Key was used for another request.',
+  DatabaseUnavailable:
+    '`db_unavailable`: the database is away; retry after the Retry-After seconds.',
+  OtherError: 'Any other error, in the same shape.',
+} as const;
+
+const answer = (name: keyof typeof ERROR_ANSWERS) => ({
+  $ref: `#/components/responses/${name}`,
 });
+
+const IDEMPOTENCY_PARAMETER = {
+  name: IDEMPOTENCY_HEADER,
+  in: 'header',
+  required: false,
+  description:
+    'Makes the creation safe to retry: the same key with the same request is answered the first answer again (`Idempotent-Replayed: true`); with another request, 422. Kept 24 hours by default (IDEMPOTENCY_KEY_HOURS), per account.',
+  schema: { type: 'string', minLength: 1, maxLength: 255, pattern: '^[\\x21-\\x7e]+$' },
+};
 
 function parameters(spec: RouteSpec) {
   const out: Record<string, unknown>[] = [];
@@ -41,15 +126,7 @@ function parameters(spec: RouteSpec) {
       schema: paramProps[name!] ?? { type: 'string' },
     });
   }
-  if (takesIdempotencyKey(spec))
-    out.push({
-      name: IDEMPOTENCY_HEADER,
-      in: 'header',
-      required: false,
-      description:
-        'Makes the creation safe to retry: the same key with the same request is answered the first answer again (`Idempotent-Replayed: true`); with another request, 422. Kept 24 hours by default (IDEMPOTENCY_KEY_HOURS), per account.',
-      schema: { type: 'string', minLength: 1, maxLength: 255, pattern: '^[\\x21-\\x7e]+$' },
-    });
+  if (takesIdempotencyKey(spec)) out.push({ $ref: '#/components/parameters/IdempotencyKey' });
   if (spec.schemas?.query) {
     const q = jsonSchema(spec.schemas.query);
     const required = new Set((q.required as string[] | undefined) ?? []);
@@ -69,7 +146,7 @@ function parameters(spec: RouteSpec) {
   return out;
 }
 
-function successAnswer(spec: RouteSpec) {
+function successAnswer(spec: RouteSpec, c: SchemaComponents) {
   const s = spec.schemas ?? {};
   const statuses = [s.status ?? 200].flat();
   const answer = (status: number) => {
@@ -83,7 +160,7 @@ function successAnswer(spec: RouteSpec) {
     if (s.response)
       return {
         description: 'Success.',
-        content: { 'application/json': { schema: jsonSchema(s.response, 'output') } },
+        content: { 'application/json': { schema: c.ref(s.response, 'output') } },
       };
     return {
       description: 'Success: a JSON body not yet described by a schema.',
@@ -93,12 +170,12 @@ function successAnswer(spec: RouteSpec) {
   return Object.fromEntries(statuses.map((status) => [String(status), answer(status)]));
 }
 
-function requestBody(s: NonNullable<RouteSpec['schemas']>) {
+function requestBody(s: NonNullable<RouteSpec['schemas']>, c: SchemaComponents) {
   if (s.body)
     return {
       requestBody: {
         required: true,
-        content: { 'application/json': { schema: jsonSchema(s.body, 'input') } },
+        content: { 'application/json': { schema: c.ref(s.body, 'input') } },
       },
     };
   if (s.form) {
@@ -124,43 +201,24 @@ function requestBody(s: NonNullable<RouteSpec['schemas']>) {
   return {};
 }
 
-function operation(spec: RouteSpec, tag: string) {
+function operation(spec: RouteSpec, tag: string, c: SchemaComponents) {
   const isPublic = spec.access === 'public';
   const roles = isPublic ? [] : [...spec.access];
   const isWrite = WRITES.includes(spec.method);
   const s = spec.schemas ?? {};
-  const responses: Record<string, unknown> = { ...successAnswer(spec) };
+  const responses: Record<string, unknown> = { ...successAnswer(spec, c) };
   if (s.body || s.form || s.query || s.params || spec.path.includes(':'))
-    responses['400'] = errorAnswer(
-      'Invalid request: `validation_failed` (details name each field: `[{ path, message }]`), `invalid_json`, `unknown_query_parameter`, `invalid_cursor`, or a rule of the operation.',
-    );
-  if (!isPublic) {
-    responses['401'] = errorAnswer(
-      '`unauthenticated`: no valid session; `invalid_token`: the bearer token is unknown or revoked.',
-    );
-  }
+    responses['400'] = answer('InvalidRequest');
+  if (!isPublic) responses['401'] = answer('Unauthenticated');
   if (!isPublic || isWrite)
-    responses['403'] = errorAnswer(
-      [
-        !isPublic ? '`forbidden`: the role may not do this, or the site is not yours.' : '',
-        isWrite ? '`cross_origin`: the Origin header names another host.' : '',
-      ]
-        .filter(Boolean)
-        .join(' '),
-    );
-  if (spec.path.includes(':')) responses['404'] = errorAnswer('`not_found`.');
+    responses['403'] = answer(isPublic ? 'CrossOrigin' : isWrite ? 'ForbiddenWrite' : 'Forbidden');
+  if (spec.path.includes(':')) responses['404'] = answer('NotFound');
   if (takesIdempotencyKey(spec)) {
-    responses['409'] ??= errorAnswer(
-      '`idempotency_key_in_use`: a request with this Idempotency-Key is still being answered (Retry-After), or a rule of the operation.',
-    );
-    responses['422'] = errorAnswer(
-      '`idempotency_key_reused`: the Idempotency-Key was used for another request.',
-    );
+    responses['409'] ??= answer('IdempotencyKeyInUse');
+    responses['422'] = answer('IdempotencyKeyReused');
   }
-  responses['503'] = errorAnswer(
-    '`db_unavailable`: the database is away; retry after the Retry-After seconds.',
-  );
-  responses.default = errorAnswer('Any other error, in the same shape.');
+  responses['503'] = answer('DatabaseUnavailable');
+  responses.default = answer('OtherError');
   const summary = spec.summary[0]!.toUpperCase() + spec.summary.slice(1);
   return {
     operationId: operationId(spec.method, spec.path),
@@ -172,7 +230,7 @@ function operation(spec: RouteSpec, tag: string) {
     'x-roles': isPublic ? 'public' : roles,
     ...(isPublic ? { security: [] } : {}),
     ...(parameters(spec).length ? { parameters: parameters(spec) } : {}),
-    ...requestBody(s),
+    ...requestBody(s, c),
     responses,
   };
 }
@@ -193,21 +251,22 @@ const DESCRIPTION = [
   'This document is generated from the server\'s route table and its zod schemas; an operation whose success answer says "not yet described" has no schema declared yet.',
 ].join('\n');
 
-let cached: { paths: object; tags: object[] } | null = null;
+let cached: { paths: object; tags: object[]; schemas: object } | null = null;
 
 /** The document, with `serverUrl` (absolute) as its server. */
 export function apiOpenApi(groups: () => RouteGroup[], serverUrl: string): object {
   if (!cached) {
     const paths: Record<string, Record<string, unknown>> = {};
     const tags: object[] = [];
+    const components = new SchemaComponents(CONTRACTS);
     for (const group of groups()) {
       tags.push({ name: group.tag, description: group.description });
       for (const spec of group.routes) {
         const p = (paths[openApiPath(spec.path)] ??= {});
-        p[spec.method] = operation(spec, group.tag);
+        p[spec.method] = operation(spec, group.tag, components);
       }
     }
-    cached = { paths, tags };
+    cached = { paths, tags, schemas: components.schemas };
   }
   return {
     openapi: '3.1.0',
@@ -229,7 +288,11 @@ export function apiOpenApi(groups: () => RouteGroup[], serverUrl: string): objec
           description: 'The session a person gets by signing in (POST /auth/sign-in).',
         },
       },
-      schemas: { Error: errorComponent() },
+      parameters: { IdempotencyKey: IDEMPOTENCY_PARAMETER },
+      responses: Object.fromEntries(
+        Object.entries(ERROR_ANSWERS).map(([name, text]) => [name, errorAnswer(text)]),
+      ),
+      schemas: { Error: errorComponent(), ...cached.schemas },
     },
     security: [{ sessionCookie: [] }, { apiToken: [] }],
     paths: cached.paths,

@@ -1,4 +1,4 @@
-import type { Me } from '@turnstone/contracts/auth';
+import type { Me, SessionResponse } from '@turnstone/contracts/auth';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 
@@ -8,14 +8,10 @@ import { api } from '../../../lib/api-client.ts';
  * visit to the sign-in page.
  */
 export async function getMe({ signal }: { signal?: AbortSignal } = {}): Promise<Me | null> {
+  const carried = takePageSession();
+  if (carried) return carried.user;
   // The schema (and zod) load beside the request: the shell that asks this carries no zod.
   const schema = import('@turnstone/contracts/auth').then((m) => m.sessionResponseSchema);
-  const carried = takePageSession();
-  if (carried !== undefined) {
-    // Checked like an answer; one that does not pass is asked for again.
-    const checked = (await schema).safeParse(carried);
-    if (checked.success) return checked.data.user;
-  }
   const session = await api.get('/api/v1/auth/session', { schema, signal });
   return session.user;
 }
@@ -23,14 +19,22 @@ export async function getMe({ signal }: { signal?: AbortSignal } = {}): Promise<
 /**
  * The session the server put in the page (apps/server/src/lib/index-page.ts), taken once:
  * the first check of a direct load needs no request. Later checks (after sign-out, expiry,
- * a refetch) ask the server. `undefined` when the page carries none (e.g. the dev server).
+ * a refetch) ask the server. `undefined` when the page carries none (e.g. the dev server) or
+ * a block that is not a session answer; then the server is asked.
+ *
+ * It is not parsed with the session schema: the server wrote it into this very page from the
+ * answer `/auth/session` gives (whose schema the API tests check), and parsing it here would
+ * put zod on the first screen's critical path.
  */
-function takePageSession(): unknown {
+function takePageSession(): SessionResponse | undefined {
   const el = document.getElementById('turnstone-session');
   if (!el) return undefined;
   el.remove();
   try {
-    return JSON.parse(el.textContent ?? '') as unknown;
+    const carried = JSON.parse(el.textContent ?? '') as unknown;
+    return typeof carried === 'object' && carried !== null && 'user' in carried
+      ? (carried as SessionResponse)
+      : undefined;
   } catch {
     return undefined;
   }

@@ -1,4 +1,4 @@
-import { roleLabels } from '@turnstone/contracts/roles';
+import { roleLabels } from '@turnstone/contracts/role-names';
 import type { Me } from '@turnstone/contracts/auth';
 import { Button } from '../../../components/ui/button.tsx';
 import { confirmLeaving } from '../../../lib/unsaved-changes.ts';

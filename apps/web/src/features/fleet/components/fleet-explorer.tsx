@@ -1,4 +1,4 @@
-import { nodeStatusSchema, type NodeStatus } from '@turnstone/contracts/fleet';
+import type { NodeStatus } from '@turnstone/contracts/fleet';
 import { useDeferredValue, useMemo, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { Button } from '../../../components/ui/button.tsx';
@@ -7,7 +7,7 @@ import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { formatInteger } from '../../../lib/format.ts';
-import { statusLabels } from '../../../lib/node-status.ts';
+import { isNodeStatus, statusLabels } from '../../../lib/node-status.ts';
 import { useFleet } from '../api/get-fleet.ts';
 import { allMachineKeys, buildFleetRows, summariseFleet } from '../utils/build-fleet-rows.ts';
 import { FleetStatusCounts } from './fleet-status-counts.tsx';
@@ -24,8 +24,8 @@ export function FleetExplorer() {
   const fleet = useFleet();
   const [searchParams, setSearchParams] = useSearchParams();
   const query = searchParams.get('q') ?? '';
-  const parsedStatus = nodeStatusSchema.safeParse(searchParams.get('status'));
-  const status: NodeStatus | null = parsedStatus.success ? parsedStatus.data : null;
+  const asked = searchParams.get('status');
+  const status: NodeStatus | null = isNodeStatus(asked) ? asked : null;
   // The input keeps its own state so typing never waits for the router; the URL follows.
   const [input, setInput] = useState(query);
   const deferredQuery = useDeferredValue(input);

@@ -1,9 +1,8 @@
 import type { NodeStatus } from '@turnstone/contracts/fleet';
-import { nodeStatusSchema } from '@turnstone/contracts/fleet';
 import { useId } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
 import { Input, Select } from '../../../components/ui/field.tsx';
-import { statusLabels, statusOrder } from '../../../lib/node-status.ts';
+import { isNodeStatus, statusLabels, statusOrder } from '../../../lib/node-status.ts';
 
 export function FleetToolbar({
   query,
@@ -64,8 +63,8 @@ export function FleetToolbar({
           id={`${id}-status`}
           value={status ?? ''}
           onChange={(event) => {
-            const parsed = nodeStatusSchema.safeParse(event.target.value);
-            onStatusChange(parsed.success ? parsed.data : null);
+            const value = event.target.value;
+            onStatusChange(isNodeStatus(value) ? value : null);
           }}
           className="w-44"
         >
