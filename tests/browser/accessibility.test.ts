@@ -11,7 +11,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { newPage, serverAndBrowserForFile } from '../support/browser.ts';
+import { newPage, OUTPUT_DIR, serverAndBrowserForFile } from '../support/browser.ts';
 import {
   captureVelocities,
   dailyBodies,
