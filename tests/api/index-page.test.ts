@@ -8,6 +8,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ensureWebBuilt, webDist } from '../../apps/server/src/lib/web-build.ts';
 import { jsonForHtml, screenModules } from '../../apps/server/src/lib/index-page.ts';
+import { formatDate } from '@turnstone/contracts/dates';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 
 let srv: TestServer;
@@ -26,8 +27,13 @@ function sessionBlock(html: string): { json: string; scriptEnds: number } {
   return { json: m[1]!, scriptEnds: html.split('</script>').length - 1 };
 }
 
-const preloads = (html: string, rel: string) =>
-  [...html.matchAll(new RegExp(`<link rel="${rel}"[^>]*href="([^"]+)"`, 'g'))].map((m) => m[1]!);
+/** The addresses of the page's `<link rel=…>`; fonts (`as="font"`) only when `as` asks for them. */
+const preloads = (html: string, rel: string, as?: string) =>
+  [...html.matchAll(/<link [^>]*>/g)]
+    .map((m) => m[0])
+    .filter((l) => l.includes(`rel="${rel}"`))
+    .filter((l) => (as ? l.includes(`as="${as}"`) : !l.includes('as="font"')))
+    .map((l) => /href="([^"]+)"/.exec(l)![1]!);
 
 describe('the page', () => {
   it('signed out: the session is null, nothing personal is preloaded, and it is not stored', async () => {
@@ -62,6 +68,8 @@ describe('the page', () => {
       '/api/v1/points/1',
       '/api/v1/points/1/analyses?limit=200',
       '/api/v1/quality-notices?pointId=1&limit=10',
+      // the trend it opens on, asked without times (the server's default period)
+      '/api/v1/points/1/trend?band=overall-velocity',
     ]);
     const scripts = preloads(html, 'modulepreload');
     // The point page's own chunk is among them (its name is the route module's).
@@ -70,6 +78,25 @@ describe('the page', () => {
       expect(existsSync(join(webDist, s))).toBe(true);
       expect(scripts.filter((x) => x === s)).toHaveLength(1);
     }
+  });
+
+  it('the trend of the point page is preloaded as the page will ask it, or not at all', async () => {
+    const cookie = await srv.signIn('engineer');
+    const trends = async (address: string) =>
+      preloads(await (await srv.call('GET', address, { cookie })).text(), 'preload').filter((u) =>
+        u.includes('/trend'),
+      );
+    expect(await trends('/points/1?band=bearing-envelope')).toEqual([
+      '/api/v1/points/1/trend?band=bearing-envelope',
+    ]);
+    expect(await trends('/points/1?period=90d')).toEqual([
+      '/api/v1/points/1/trend?band=overall-velocity',
+    ]);
+    // another period is asked with the browser's times; the spectrum view asks no trend
+    expect(await trends('/points/1?period=30d')).toEqual([]);
+    expect(await trends('/points/1?view=spectrum')).toEqual([]);
+    // a band that is no key is not written into the page
+    expect(await trends('/points/1?band=%22%3E%3Cscript%3E')).toEqual([]);
   });
 
   it('a role the data does not admit gets the code but not the data request', async () => {
@@ -81,6 +108,35 @@ describe('the page', () => {
       await srv.call('GET', '/users', { cookie: await srv.signIn('admin') })
     ).text();
     expect(preloads(admin, 'preload')).toEqual(['/api/v1/users']);
+  });
+
+  it('the weekly review opened from the navigation starts this week’s review, its sites and findings', async () => {
+    const cookie = await srv.signIn('planner');
+    const session = (await (await srv.call('GET', '/api/v1/auth/session', { cookie })).json()) as {
+      user: { timeZone: string };
+    };
+    const before = formatDate(new Date(), session.user.timeZone);
+    const html = await (await srv.call('GET', '/review', { cookie })).text();
+    const after = formatDate(new Date(), session.user.timeZone);
+    // The addresses the page asks (get-review.ts: this week in the user's zone, 4 weeks ahead;
+    // get-sites.ts; get-findings.ts with no site); a request across midnight may see either day.
+    const urls = preloads(html, 'preload');
+    expect([before, after]).toContain(/weekEnding=([\d-]+)/.exec(urls[0] ?? '')?.[1]);
+    expect(urls).toEqual([
+      expect.stringMatching(/^\/api\/v1\/review\?weekEnding=\d{4}-\d{2}-\d{2}&weeksAhead=4$/),
+      '/api/v1/sites',
+      '/api/v1/findings',
+    ]);
+    for (const url of urls) expect((await srv.call('GET', url, { cookie })).status).toBe(200);
+    // A chosen week or site is the page's to ask; an operator does not read the review.
+    const chosen = await (
+      await srv.call('GET', '/review?weekEnding=2026-11-27', { cookie })
+    ).text();
+    expect(preloads(chosen, 'preload')).toEqual([]);
+    const operator = await (
+      await srv.call('GET', '/review', { cookie: await srv.signIn('operator') })
+    ).text();
+    expect(preloads(operator, 'preload')).toEqual([]);
   });
 
   it('a name written to end the element or open a comment stays text inside the JSON', async () => {
@@ -122,6 +178,22 @@ describe('the page', () => {
     );
     // vite.config.ts puts zod in a chunk of its own, named after it.
     expect([...files].filter((f) => /(^|\/)zod-[\w-]+\.js$/.test(f))).toEqual([]);
+  });
+
+  it('asks for the Latin font files with the page, signed in or not, and each is in the build', async () => {
+    for (const cookie of [undefined, await srv.signIn('engineer')]) {
+      const html = await (await srv.call('GET', '/fleet', { cookie })).text();
+      const fonts = preloads(html, 'preload', 'font');
+      // main.tsx imports Inter 400, 500, 600 and Roboto Mono 400, 500.
+      expect(fonts.map((f) => f.replace(/-[\w]+\.woff2$/, ''))).toEqual([
+        '/assets/inter-latin-400-normal',
+        '/assets/inter-latin-500-normal',
+        '/assets/inter-latin-600-normal',
+        '/assets/roboto-mono-latin-400-normal',
+        '/assets/roboto-mono-latin-500-normal',
+      ]);
+      for (const f of fonts) expect(existsSync(join(webDist, f)), f).toBe(true);
+    }
   });
 
   it('every module the screens preload is still in the build (a moved file would go unnoticed)', () => {

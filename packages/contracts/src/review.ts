@@ -10,11 +10,14 @@ import { bandRefShape, pointRefShape } from './point-ref.ts';
  * `GET /api/v1/review?weekEnding=YYYY-MM-DD&weeksAhead=4&siteId=&minChangePercent=&minValues=`
  * (JSON) and `GET /api/v1/review.zip?…` (one CSV file per table).
  */
+/** The forecast horizon a review is built for when none is asked (weeks). */
+export const WEEKS_AHEAD_DEFAULT = 4;
+
 export const reviewQuerySchema = z.object({
   /** Last day of the week reviewed; default today (UTC). */
   weekEnding: isoDateSchema.optional(),
   /** Forecast horizon: points projected to reach a level within this many weeks. */
-  weeksAhead: z.coerce.number().int().min(1).max(52).default(4),
+  weeksAhead: z.coerce.number().int().min(1).max(52).default(WEEKS_AHEAD_DEFAULT),
   /** One site only; default every site the user may see. */
   siteId: z.coerce.number().int().positive().optional(),
   /** Noise threshold: a rise counts only when this week's mean is this many % above last week's. */

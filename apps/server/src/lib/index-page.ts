@@ -14,7 +14,9 @@
 import { existsSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Request, RequestHandler } from 'express';
-import type { SessionResponse } from '@turnstone/contracts/auth';
+import type { Me, SessionResponse } from '@turnstone/contracts/auth';
+import { formatDate } from '@turnstone/contracts/dates';
+import { WEEKS_AHEAD_DEFAULT } from '@turnstone/contracts/review';
 import type { Role } from '@turnstone/contracts/roles';
 
 /** The id of the session's data block; apps/web/src/features/auth/api/get-me.ts reads it. */
@@ -35,8 +37,19 @@ interface Screen {
    * Its first API requests where the address alone names them (the very URL the page asks,
    * or the preload is wasted), for the roles they admit.
    */
-  data?: (m: RegExpExecArray, query: URLSearchParams) => string[];
+  data?: (m: RegExpExecArray, query: URLSearchParams, user: Me) => string[];
   dataRoles?: readonly Role[];
+}
+
+/**
+ * The trend a point's page opens on: overall velocity (or the band the address names) over
+ * the default period, which the page asks without times (trends/api/get-trend.ts,
+ * trendParams); none when the address opens another view or period.
+ */
+function openingTrend(pointId: string, q: URLSearchParams): string[] {
+  if (q.has('view') || (q.get('period') ?? '90d') !== '90d') return [];
+  const band = q.get('band') ?? 'overall-velocity';
+  return /^[a-z0-9-]{1,64}$/.test(band) ? [`/api/v1/points/${pointId}/trend?band=${band}`] : [];
 }
 
 const SCREENS: Screen[] = [
@@ -64,6 +77,18 @@ const SCREENS: Screen[] = [
       api('review', 'get-sites'),
       api('findings', 'get-findings'),
     ],
+    // The review opened without a week (the navigation's link): this week, ending today in the
+    // user's zone, four weeks ahead, every site, as get-review.ts (reviewParamsFromSearch) and
+    // get-findings.ts ask it. A review of a chosen week or site is left to the page.
+    data: (_m, q, user) =>
+      q.toString() === ''
+        ? [
+            `/api/v1/review?weekEnding=${formatDate(new Date(), user.timeZone)}&weeksAhead=${WEEKS_AHEAD_DEFAULT}`,
+            '/api/v1/sites',
+            '/api/v1/findings',
+          ]
+        : [],
+    dataRoles: ['planner', 'engineer', 'admin'],
   },
   {
     path: /^\/setup$/,
@@ -104,12 +129,12 @@ const SCREENS: Screen[] = [
       api('machines', 'get-machine'),
       'apps/web/src/features/points/lib/spectrum-opening.ts',
     ],
-    // get-analyses.ts (POINT_PAGE_ANALYSES) and get-quality-notices.ts ask these; the trend's
-    // address depends on the browser's clock, so it is left to the page.
-    data: (m) => [
+    // get-analyses.ts (POINT_PAGE_ANALYSES), get-quality-notices.ts and get-trend.ts ask these
+    data: (m, q) => [
       `/api/v1/points/${m[1]}`,
       `/api/v1/points/${m[1]}/analyses?limit=200`,
       `/api/v1/quality-notices?pointId=${m[1]}&limit=10`,
+      ...openingTrend(m[1]!, q),
     ],
   },
 ];
@@ -117,17 +142,17 @@ const SCREENS: Screen[] = [
 /** Every source module the screens name (a test checks the build still has each). */
 export const screenModules = (): string[] => [...new Set(SCREENS.flatMap((s) => s.modules))];
 
-/** What a direct load of this address needs first: its modules, and its data for `role`. */
+/** What a direct load of this address needs first: its modules, and its data for `user`. */
 export function firstScreen(
   pathname: string,
   query: URLSearchParams,
-  role: Role,
+  user: Me,
 ): { modules: string[]; data: string[] } | null {
   for (const s of SCREENS) {
     const m = s.path.exec(pathname);
     if (!m) continue;
-    const admitted = !s.dataRoles || s.dataRoles.includes(role);
-    return { modules: s.modules, data: admitted ? (s.data?.(m, query) ?? []) : [] };
+    const admitted = !s.dataRoles || s.dataRoles.includes(user.role);
+    return { modules: s.modules, data: admitted ? (s.data?.(m, query, user) ?? []) : [] };
   }
   return null;
 }
@@ -212,7 +237,7 @@ export function indexPage(dist: string, options: IndexPageOptions): RequestHandl
           `<script type="application/json" id="${SESSION_ELEMENT_ID}">${jsonForHtml(session)}</script>`,
         ];
         const query = new URLSearchParams(req.originalUrl.split('?')[1] ?? '');
-        const screen = session.user ? firstScreen(req.path, query, session.user.role) : null;
+        const screen = session.user ? firstScreen(req.path, query, session.user) : null;
         if (screen) {
           for (const file of scriptsOf(page.map, screen.modules)) {
             if (page.html.includes(`/${file}"`)) continue;

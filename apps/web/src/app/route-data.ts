@@ -124,7 +124,9 @@ export const reviewData: Prefetch = async (_params, url) => {
     import('../features/review/api/get-sites.ts'),
     import('../features/findings/api/get-findings.ts'),
   ]);
-  const params = m.reviewParamsFromSearch(url.searchParams);
+  // "This week" in the user's zone: the loader may run before the shell has set the screen's.
+  const me = queryClient.getQueryData(getMeQueryOptions().queryKey);
+  const params = m.reviewParamsFromSearch(url.searchParams, me?.timeZone);
   return Promise.all([
     queryClient.prefetchQuery(m.getReviewQueryOptions(params)),
     queryClient.prefetchQuery(sites.getSitesQueryOptions()),

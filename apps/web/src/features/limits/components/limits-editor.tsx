@@ -1,5 +1,5 @@
-import { useEffect, useMemo, useRef, useState } from 'react';
-import { useFieldArray, useForm, type FieldErrors, type Resolver } from 'react-hook-form';
+import { useDeferredValue, useEffect, useMemo, useRef, useState } from 'react';
+import { useFieldArray, useForm, type Resolver } from 'react-hook-form';
 import { useBlocker } from 'react-router-dom';
 import type {
   BandDefinitionInput,
@@ -20,6 +20,7 @@ import {
   checkForm,
   emptyBand,
   formPathOf,
+  nestErrors,
   reasonSchema,
   toFormBand,
   type LimitsFormValues,
@@ -30,19 +31,12 @@ import { BandFields } from './band-fields.tsx';
 import { LimitHistoryList } from './limit-history-list.tsx';
 import { ReplaySummary } from './replay-summary.tsx';
 
-/** Nested RHF errors from flat `bands.0.alertLevel` paths. */
-function nest(errors: { path: string; message: string }[]): FieldErrors<LimitsFormValues> {
-  const out: Record<string, unknown> = {};
-  for (const { path, message } of errors) {
-    const parts = path.split('.');
-    let node = out as Record<string, unknown>;
-    parts.forEach((part, i) => {
-      if (i === parts.length - 1) node[part] ??= { type: 'validate', message };
-      else node = (node[part] ??= {}) as Record<string, unknown>;
-    });
-  }
-  return out as FieldErrors<LimitsFormValues>;
-}
+/**
+ * The bands a first screen shows: the editor opens with these, and the bands below them (a
+ * demo point has eight, each some hundred fields, labels and options) follow in a background
+ * render right after, so the first screen does not wait for fields out of sight.
+ */
+const FIRST_BANDS = 2;
 
 /** The band editor of one point: edit, apply defaults, replay, save with a reason. */
 export function LimitsEditor({
@@ -63,7 +57,9 @@ export function LimitsEditor({
   const resolver = useMemo<Resolver<LimitsFormValues>>(
     () => (values) => {
       const checked = checkForm(values, originals, units.system);
-      return checked.ok ? { values, errors: {} } : { values: {}, errors: nest(checked.errors) };
+      return checked.ok
+        ? { values, errors: {} }
+        : { values: {}, errors: nestErrors(checked.errors) };
     },
     [originals, units.system],
   );
@@ -72,6 +68,9 @@ export function LimitsEditor({
     defaultValues: { bands: limits.bands.map((b) => toFormBand(b, units.system)) },
   });
   const bands = useFieldArray({ control: form.control, name: 'bands' });
+  // False on the first render only: then every band renders, in a render React may interrupt.
+  const allBands = useDeferredValue(true, false);
+  const shownBands = allBands ? bands.fields : bands.fields.slice(0, FIRST_BANDS);
   const replay = useReplayLimits(pointId ?? 0);
   const save = useSaveLimitsTarget(target);
   const [replayed, setReplayed] = useState<ReplayResponse | null>(null);
@@ -374,7 +373,7 @@ export function LimitsEditor({
             {iso.text}
           </p>
         )}
-        {bands.fields.map((f, i) => (
+        {shownBands.map((f, i) => (
           <BandFields
             key={f.id}
             index={i}

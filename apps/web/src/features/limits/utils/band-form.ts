@@ -8,6 +8,7 @@
  * still shows it, and converts only a level typed anew (contracts/units.ts).
  */
 import { z } from 'zod';
+import type { FieldErrors } from 'react-hook-form';
 import { bandDefinitionSchema, type BandDefinitionInput } from '@turnstone/contracts/limits';
 import { levelForInput, levelFromInput, type UnitSystem } from '@turnstone/contracts/units';
 
@@ -232,4 +233,20 @@ export function formPathOf(serverPath: string): string {
   if (parts[0] !== 'bands' || parts.length < 3) return 'root';
   const field = parts[2] === 'statistical' ? mapStatistical(parts.slice(2)) : parts[2]!;
   return `bands.${parts[1]}.${field}`;
+}
+
+/** The form's nested errors (as react-hook-form keeps them) from flat `bands.0.alertLevel` paths. */
+export function nestErrors(
+  errors: { path: string; message: string }[],
+): FieldErrors<LimitsFormValues> {
+  const out: Record<string, unknown> = {};
+  for (const { path, message } of errors) {
+    const parts = path.split('.');
+    let node = out as Record<string, unknown>;
+    parts.forEach((part, i) => {
+      if (i === parts.length - 1) node[part] ??= { type: 'validate', message };
+      else node = (node[part] ??= {}) as Record<string, unknown>;
+    });
+  }
+  return out as FieldErrors<LimitsFormValues>;
 }

@@ -1,4 +1,4 @@
-import { reviewSchema } from '@turnstone/contracts/review';
+import { reviewSchema, WEEKS_AHEAD_DEFAULT } from '@turnstone/contracts/review';
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 import { isIsoDate, todayIso } from '../utils/format-review.ts';
@@ -10,16 +10,17 @@ export interface ReviewParams {
   siteId?: number | undefined;
 }
 
-const AHEAD_DEFAULT = 4;
-
-/** The review the address asks for (?weekEnding=&weeksAhead=&siteId=); default this week. */
-export function reviewParamsFromSearch(search: URLSearchParams): ReviewParams {
+/**
+ * The review the address asks for (?weekEnding=&weeksAhead=&siteId=); default this week, in
+ * the screen's zone or the one given.
+ */
+export function reviewParamsFromSearch(search: URLSearchParams, timeZone?: string): ReviewParams {
   const week = search.get('weekEnding');
   const ahead = Number(search.get('weeksAhead'));
   const site = Number(search.get('siteId'));
   return {
-    weekEnding: isIsoDate(week) ? week : todayIso(),
-    weeksAhead: Number.isInteger(ahead) && ahead >= 1 && ahead <= 52 ? ahead : AHEAD_DEFAULT,
+    weekEnding: isIsoDate(week) ? week : todayIso(new Date(), timeZone),
+    weeksAhead: Number.isInteger(ahead) && ahead >= 1 && ahead <= 52 ? ahead : WEEKS_AHEAD_DEFAULT,
     siteId: Number.isInteger(site) && site > 0 ? site : undefined,
   };
 }

@@ -30,9 +30,12 @@ export function formatDay(iso: string, timeZone = 'UTC'): string {
   return formatDate(iso, timeZone);
 }
 
-/** Today as YYYY-MM-DD in the screen's zone (lib/format.ts): the week a person means by "this week". */
-export function todayIso(now = new Date()): string {
-  return formatDate(now, displayTimeZone());
+/**
+ * Today as YYYY-MM-DD in the screen's zone (lib/format.ts), or the zone given (the session's,
+ * before the app shell has set the screen's): the week a person means by "this week".
+ */
+export function todayIso(now = new Date(), timeZone = displayTimeZone()): string {
+  return formatDate(now, timeZone);
 }
 
 /** The date `days` after a YYYY-MM-DD date. */
