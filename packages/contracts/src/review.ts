@@ -30,6 +30,9 @@ export type ReviewQuery = z.input<typeof reviewQuerySchema>;
 /** Choices the screen offers for the forecast horizon. */
 export const WEEKS_AHEAD_CHOICES = [2, 4, 8, 12, 26] as const;
 
+/** A point with the names a row of the review shows (the server reads it so). */
+export type PointRef = z.infer<z.ZodObject<typeof pointRefShape>>;
+
 /** One point and band whose weekly mean rose. */
 export const reviewMoverSchema = z.object({
   ...pointRefShape,

@@ -85,6 +85,7 @@ export function TrendBody({
           label: 'Baseline mean ± 2σ',
         }
       : null;
+    // the chart's props that come from the answer, memoised so the chart keeps its zoom
     return { limits, events, projection, baseline };
   }, [data]);
   // the further series in the user's units (one converted answer per answer), the same
@@ -192,15 +193,12 @@ export function TrendBody({
       ) : (
         <>
           <TrendChart
+            {...chartProps}
             points={data.items}
             unit={data.band.unit}
             name={data.band.name}
             seriesId="primary"
             colour={seriesColours[0]}
-            limits={chartProps.limits}
-            baseline={chartProps.baseline}
-            events={chartProps.events}
-            projection={chartProps.projection}
             extraSeries={extraSeries}
             now={now}
             activeEvent={activeEvent}
