@@ -25,7 +25,6 @@ const vendorChunks = [
   { name: 'router', test: lib('react-router|react-router-dom|cookie|set-cookie-parser') },
   { name: 'query', test: lib('@tanstack[\\\\/](?:query-core|react-query)') },
   { name: 'zod', test: lib('zod') },
-  { name: 'virtual', test: lib('@tanstack[\\\\/](?:virtual-core|react-virtual)') },
   { name: 'table', test: lib('@tanstack[\\\\/](?:table-core|react-table)') },
   { name: 'forms', test: lib('react-hook-form|@hookform') },
   // ECharts' core and what every chart uses; the polar axes stay with the one chart that
@@ -68,6 +67,38 @@ function preloadSignedInLayout(): Plugin {
           attrs: { rel: 'modulepreload', crossorigin: true, href: `/${f}` },
           injectTo: 'head' as const,
         }));
+      },
+    },
+  };
+}
+
+/**
+ * index.html asks for the fonts' Latin files (the weights main.tsx imports) with the page:
+ * the browser would otherwise ask for each only once text in it is laid out, after the
+ * scripts have run and the first screen has rendered, and lay the page out again as each
+ * arrives (font-display: swap).
+ */
+function preloadFonts(): Plugin {
+  return {
+    name: 'turnstone-preload-fonts',
+    apply: 'build',
+    transformIndexHtml: {
+      order: 'post',
+      handler(_html, ctx) {
+        return Object.keys(ctx.bundle ?? {})
+          .filter((f) => /\/(?:inter|roboto-mono)-latin-\d+-normal-[\w-]+\.woff2$/.test(`/${f}`))
+          .sort()
+          .map((f) => ({
+            tag: 'link',
+            attrs: {
+              rel: 'preload',
+              as: 'font',
+              type: 'font/woff2',
+              crossorigin: true,
+              href: `/${f}`,
+            },
+            injectTo: 'head' as const,
+          }));
       },
     },
   };
@@ -142,11 +173,21 @@ function precompress(): Plugin {
 // One config: the web app build (root apps/web, output apps/web/dist) and the test projects.
 export default defineConfig({
   root: 'apps/web',
-  plugins: [react(), tailwindcss(), preloadSignedInLayout(), moduleMap(), precompress()],
+  plugins: [
+    react(),
+    tailwindcss(),
+    preloadSignedInLayout(),
+    preloadFonts(),
+    moduleMap(),
+    precompress(),
+  ],
   build: {
     outDir: 'dist',
     emptyOutDir: true,
     chunkSizeWarningLimit: 1200,
+    // Every browser the app supports knows <link rel=modulepreload>; the polyfill would only
+    // add its code to the main script.
+    modulePreload: { polyfill: false },
     rolldownOptions: { output: { codeSplitting: { groups: vendorChunks } } },
   },
   // The browser's Host goes through to the API (changeOrigin off), so its same-origin and

@@ -27,8 +27,13 @@ function sessionBlock(html: string): { json: string; scriptEnds: number } {
   return { json: m[1]!, scriptEnds: html.split('</script>').length - 1 };
 }
 
-const preloads = (html: string, rel: string) =>
-  [...html.matchAll(new RegExp(`<link rel="${rel}"[^>]*href="([^"]+)"`, 'g'))].map((m) => m[1]!);
+/** The addresses of the page's `<link rel=…>`; fonts (`as="font"`) only when `as` asks for them. */
+const preloads = (html: string, rel: string, as?: string) =>
+  [...html.matchAll(/<link [^>]*>/g)]
+    .map((m) => m[0])
+    .filter((l) => l.includes(`rel="${rel}"`))
+    .filter((l) => (as ? l.includes(`as="${as}"`) : !l.includes('as="font"')))
+    .map((l) => /href="([^"]+)"/.exec(l)![1]!);
 
 describe('the page', () => {
   it('signed out: the session is null, nothing personal is preloaded, and it is not stored', async () => {
@@ -152,6 +157,22 @@ describe('the page', () => {
     );
     // vite.config.ts puts zod in a chunk of its own, named after it.
     expect([...files].filter((f) => /(^|\/)zod-[\w-]+\.js$/.test(f))).toEqual([]);
+  });
+
+  it('asks for the Latin font files with the page, signed in or not, and each is in the build', async () => {
+    for (const cookie of [undefined, await srv.signIn('engineer')]) {
+      const html = await (await srv.call('GET', '/fleet', { cookie })).text();
+      const fonts = preloads(html, 'preload', 'font');
+      // main.tsx imports Inter 400, 500, 600 and Roboto Mono 400, 500.
+      expect(fonts.map((f) => f.replace(/-[\w]+\.woff2$/, ''))).toEqual([
+        '/assets/inter-latin-400-normal',
+        '/assets/inter-latin-500-normal',
+        '/assets/inter-latin-600-normal',
+        '/assets/roboto-mono-latin-400-normal',
+        '/assets/roboto-mono-latin-500-normal',
+      ]);
+      for (const f of fonts) expect(existsSync(join(webDist, f)), f).toBe(true);
+    }
   });
 
   it('every module the screens preload is still in the build (a moved file would go unnoticed)', () => {

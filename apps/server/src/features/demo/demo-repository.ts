@@ -1,5 +1,6 @@
 /** What the demo seed and the demo history write and read directly. */
 import { and, count, eq, inArray, sql } from 'drizzle-orm';
+import type { MySqlSelect } from 'drizzle-orm/mysql-core';
 import type { Db } from '@turnstone/db/client';
 import {
   alerts,
@@ -17,6 +18,7 @@ import {
 } from '@turnstone/db/schema';
 import { demoPlant, demoUsers } from '@turnstone/demo-scenario/demo-plant';
 import { subscribeToSiteAlerts } from '../mail/subscriptions-repository.ts';
+import { MACHINE_FIELDS, pick } from '../setup/setup-columns.ts';
 
 export async function userCount(db: Db): Promise<number> {
   const [row] = await db.select({ n: count() }).from(users);
@@ -43,15 +45,7 @@ export async function insertDemoPlant(db: Db, hash: string): Promise<void> {
             .insert(machines)
             .values({
               areaId: a!.id,
-              name: m.name,
-              type: m.type,
-              nominalRpm: m.nominalRpm,
-              isoGroup: m.isoGroup,
-              foundation: m.foundation,
-              criticality: m.criticality,
-              powerKw: m.powerKw,
-              bladeCount: m.bladeCount ?? null,
-              vaneCount: m.vaneCount ?? null,
+              ...pick(m, MACHINE_FIELDS),
               lineHz: m.lineHz,
               notes: `Demo story: ${m.story}.`,
             })
@@ -139,9 +133,15 @@ export async function qualityNoticeCount(db: Db): Promise<number> {
   return Number(row?.n ?? 0);
 }
 
+/** Joins a query from `alerts` to the alert's point and its site. Give the query `$dynamic()`. */
+const withPointAndSite = <T extends MySqlSelect>(query: T) =>
+  query
+    .innerJoin(points, eq(points.id, alerts.pointId))
+    .innerJoin(sites, eq(sites.id, points.siteId));
+
 /** Raised alerts at the alert level (not danger), with their point's tag and site code. */
 export function raisedAlertsAtAlertLevel(db: Db) {
-  return db
+  const raised = db
     .select({
       id: alerts.id,
       tag: points.tag,
@@ -152,18 +152,15 @@ export function raisedAlertsAtAlertLevel(db: Db) {
       firstAt: alerts.firstAt,
     })
     .from(alerts)
-    .innerJoin(points, eq(points.id, alerts.pointId))
-    .innerJoin(sites, eq(sites.id, points.siteId))
-    .where(and(eq(alerts.state, 'raised'), eq(alerts.level, 'alert')));
+    .$dynamic();
+  return withPointAndSite(raised).where(and(eq(alerts.state, 'raised'), eq(alerts.level, 'alert')));
 }
 
 /** An alert of one band on the point with this site code and tag, if any. */
 export async function alertOfPointBand(db: Db, siteCode: string, tag: string, bandKey: string) {
-  const [a] = await db
-    .select({ id: alerts.id, pointId: alerts.pointId })
-    .from(alerts)
-    .innerJoin(points, eq(points.id, alerts.pointId))
-    .innerJoin(sites, eq(sites.id, points.siteId))
+  const [a] = await withPointAndSite(
+    db.select({ id: alerts.id, pointId: alerts.pointId }).from(alerts).$dynamic(),
+  )
     .where(and(eq(sites.code, siteCode), eq(points.tag, tag), eq(alerts.bandKey, bandKey)))
     .limit(1);
   return a;

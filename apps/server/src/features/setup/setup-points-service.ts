@@ -14,6 +14,7 @@ import { canSeeSite, type SessionUser } from '../../lib/session-user.ts';
 import { forgetPointTags } from '../ingest/ingest-service.ts';
 import { pointWithPlace } from '../places/places-repository.ts';
 import * as repo from './setup-repository.ts';
+import { POINT_FIELDS, pick } from './setup-columns.ts';
 
 import { conflict, invalid, keepData, siteForbidden } from './setup-service.ts';
 import { auditAction } from '../audit/audit-repository.ts';
@@ -42,15 +43,7 @@ const tagTaken = (tag: string) =>
   conflict('tag', `Tag ${tag} is already used by another point of this site.`);
 
 const pointColumns = (input: PointInput) => ({
-  machineId: input.machineId,
-  tag: input.tag,
-  name: input.name,
-  location: input.location,
-  direction: input.direction,
-  sensitivityMvPerG: input.sensitivityMvPerG,
-  bearingId: input.bearingId,
-  fmaxHz: input.fmaxHz,
-  lines: input.lines,
+  ...pick(input, POINT_FIELDS),
   envelopeLoHz: input.envelopeLoHz ?? null,
   envelopeHiHz: input.envelopeHiHz ?? null,
 });

@@ -22,6 +22,7 @@ import { auditAction } from '../audit/audit-repository.ts';
 import { forgetPointTags } from '../ingest/ingest-service.ts';
 import { resumMachineDays, resumSiteDays } from '../analysis/band-day-sums.ts';
 import * as repo from './setup-repository.ts';
+import { MACHINE_FIELDS, POINT_FIELDS, pick } from './setup-columns.ts';
 
 export const conflict = (path: string, message: string) =>
   new AppError('conflict', message, 409, [{ path, message }]);
@@ -51,15 +52,7 @@ export async function setupTree(db: Db, user: SessionUser): Promise<SetupTree> {
     machines: machineRows.map((m) => ({
       id: m.id,
       areaId: m.areaId,
-      name: m.name,
-      type: m.type,
-      nominalRpm: m.nominalRpm,
-      isoGroup: m.isoGroup,
-      foundation: m.foundation,
-      criticality: m.criticality,
-      powerKw: m.powerKw,
-      bladeCount: m.bladeCount,
-      vaneCount: m.vaneCount,
+      ...pick(m, MACHINE_FIELDS),
       lineHz: m.lineHz,
       notes: m.notes,
       bearings: bearingRows
@@ -70,15 +63,7 @@ export async function setupTree(db: Db, user: SessionUser): Promise<SetupTree> {
         .filter((p) => p.machineId === m.id)
         .map((p) => ({
           id: p.id,
-          machineId: p.machineId,
-          tag: p.tag,
-          name: p.name,
-          location: p.location,
-          direction: p.direction,
-          sensitivityMvPerG: p.sensitivityMvPerG,
-          bearingId: p.bearingId,
-          fmaxHz: p.fmaxHz,
-          lines: p.lines,
+          ...pick(p, POINT_FIELDS),
           envelopeLoHz: p.envelopeLoHz,
           envelopeHiHz: p.envelopeHiHz,
         })),
@@ -167,15 +152,7 @@ async function machineForUser(db: Db, user: SessionUser, id: number) {
 
 const machineColumns = (input: MachineInput) => ({
   areaId: input.areaId,
-  name: input.name,
-  type: input.type,
-  nominalRpm: input.nominalRpm,
-  isoGroup: input.isoGroup,
-  foundation: input.foundation,
-  criticality: input.criticality,
-  powerKw: input.powerKw,
-  bladeCount: input.bladeCount,
-  vaneCount: input.vaneCount,
+  ...pick(input, MACHINE_FIELDS),
   // Left out (an older client's edit): the stored supply frequency stays.
   ...(input.lineHz !== undefined ? { lineHz: input.lineHz } : {}),
   notes: input.notes ?? null,

@@ -44,6 +44,7 @@
  */
 import { setTimeout as sleep } from 'node:timers/promises';
 import type { Db } from '@turnstone/db/client';
+import type { RetentionPolicyView } from '@turnstone/contracts/retention';
 import {
   clearRawSamples,
   clearSpectra,
@@ -62,22 +63,12 @@ import type { Config } from '../../config.ts';
 /** When the worker runs the nightly retention pass (node-cron, server time). */
 export const RETENTION_CRON = '45 2 * * *';
 
-export interface RetentionPolicy {
-  /** Days raw waveforms are kept (received time); 0 keeps them for ever. */
-  rawSamplesDays: number;
-  /** Days every capture keeps its spectra; 0 turns spectra thinning off. */
-  spectraWholeDays: number;
-  /** Days (from now) until which one capture per point per hour keeps its spectra. */
-  spectraHourlyDays: number;
-  /** Months captures are kept at all (whole months dropped past it); 0 keeps them for ever. */
-  captureMonths: number;
-  /** Captures within ± this many minutes of an alert event or a finding stay whole. */
-  keepWindowMinutes: number;
-  /** Rows per batch (one SELECT and one UPDATE). */
-  batchSize: number;
-  /** Pause between batches (ms). */
-  batchPauseMs: number;
-}
+/**
+ * The policy the retention pass follows: the contract's view of it (each field documented
+ * there) without the schedule. `batchSize`: rows per batch (one SELECT and one UPDATE);
+ * `batchPauseMs`: the pause between batches.
+ */
+export type RetentionPolicy = Omit<RetentionPolicyView, 'schedule'>;
 
 /** The policy of a configuration (`RETENTION_*` and `SPECTRA_*` keys of config.ts). */
 export function retentionPolicy(config: Config): RetentionPolicy {

@@ -1,8 +1,8 @@
-import { useVirtualizer } from '@tanstack/react-virtual';
 import { useId, useMemo, useRef, useState, type KeyboardEvent } from 'react';
 import { useNow } from '../../../hooks/use-now.ts';
 import { cn } from '../../../lib/cn.ts';
 import type { FleetRow } from '../utils/build-fleet-rows.ts';
+import { useRowWindow } from '../utils/use-row-window.ts';
 import { FleetTreeRow, fleetGridColumns, rowHeights } from './fleet-tree-row.tsx';
 
 function rowName(row: FleetRow): string {
@@ -25,8 +25,8 @@ function isExpandable(row: FleetRow): boolean {
 }
 
 /**
- * The site → area → machine → point tree as one virtualised list: only the rows in view
- * are in the DOM, so thousands of machines stay fast. Keyboard follows the WAI-ARIA tree
+ * The site → area → machine → point tree as one windowed list (utils/use-row-window.ts):
+ * only the rows in view are in the DOM, so thousands of machines stay fast. Keyboard follows the WAI-ARIA tree
  * pattern (arrows, Home/End, Page Up/Down, Enter/Space) with `aria-activedescendant`,
  * which keeps working when the active row scrolls out of the rendered range.
  */
@@ -47,21 +47,14 @@ export function FleetTree({
   const found = activeKey === null ? -1 : rows.findIndex((r) => r.key === activeKey);
   const activeIndex = found === -1 ? 0 : found;
 
-  // TanStack Virtual returns fresh functions each render; that is how it is meant to be used.
-  // eslint-disable-next-line react-hooks/incompatible-library
-  const virtualizer = useVirtualizer({
-    count: rows.length,
-    getScrollElement: () => scrollRef.current,
-    estimateSize: (index) => rowHeights[rows[index]?.kind ?? 'point'],
-    getItemKey: (index) => rows[index]?.key ?? index,
-    overscan: 12,
-  });
-  const items = virtualizer.getVirtualItems();
+  const sizes = useMemo(() => rows.map((r) => rowHeights[r.kind]), [rows]);
+  const view = useRowWindow(sizes, scrollRef, 12);
+  const items = view.slots;
 
   // Where the first visible row sits (site › area › machine), so a scrolled list keeps its place.
   const indexByKey = useMemo(() => new Map(rows.map((r, i) => [r.key, i])), [rows]);
   const trail: string[] = [];
-  let parent = rows[virtualizer.range?.startIndex ?? 0]?.parentKey ?? null;
+  let parent = rows[view.firstVisible]?.parentKey ?? null;
   while (parent !== null) {
     const row = rows[indexByKey.get(parent) ?? -1];
     if (!row) break;
@@ -78,7 +71,7 @@ export function FleetTree({
     const row = rows[clamped];
     if (!row) return;
     setActiveKey(row.key);
-    virtualizer.scrollToIndex(clamped, { align: 'auto' });
+    view.scrollToIndex(clamped);
   }
 
   function onKeyDown(event: KeyboardEvent<HTMLDivElement>) {
@@ -158,13 +151,13 @@ export function FleetTree({
         }}
         className="group relative min-h-64 flex-1 overflow-y-auto [scrollbar-gutter:stable] focus-visible:outline-none"
       >
-        <div role="none" className="relative w-full" style={{ height: virtualizer.getTotalSize() }}>
+        <div role="none" className="relative w-full" style={{ height: view.totalSize }}>
           {items.map((item) => {
             const row = rows[item.index];
             if (!row) return null;
             return (
               <FleetTreeRow
-                key={item.key}
+                key={row.key}
                 id={rowId(row.key)}
                 row={row}
                 active={item.index === activeIndex}
