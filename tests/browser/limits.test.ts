@@ -113,7 +113,7 @@ describe('limits screen', () => {
     await page.goto(`${srv.url}/fleet`);
     await page.getByRole('tree').getByRole('treeitem').first().waitFor();
     // No pointer near the navigation: the page's code comes once the fleet has settled.
-    await page.waitForRequest((r) => new URL(r.url()).pathname === script);
+    await expect.poll(() => asked.includes(script), { timeout: 30_000 }).toBe(true);
     const cookie = await srv.signIn('engineer');
     const [point] = await srv.q<{ id: number }>('SELECT id FROM points WHERE tag = ?', [TAG]);
     const stored = await (
