@@ -68,6 +68,8 @@ describe('the page', () => {
       '/api/v1/points/1',
       '/api/v1/points/1/analyses?limit=200',
       '/api/v1/quality-notices?pointId=1&limit=10',
+      // the trend it opens on, asked without times (the server's default period)
+      '/api/v1/points/1/trend?band=overall-velocity',
     ]);
     const scripts = preloads(html, 'modulepreload');
     // The point page's own chunk is among them (its name is the route module's).
@@ -76,6 +78,25 @@ describe('the page', () => {
       expect(existsSync(join(webDist, s))).toBe(true);
       expect(scripts.filter((x) => x === s)).toHaveLength(1);
     }
+  });
+
+  it('the trend of the point page is preloaded as the page will ask it, or not at all', async () => {
+    const cookie = await srv.signIn('engineer');
+    const trends = async (address: string) =>
+      preloads(await (await srv.call('GET', address, { cookie })).text(), 'preload').filter((u) =>
+        u.includes('/trend'),
+      );
+    expect(await trends('/points/1?band=bearing-envelope')).toEqual([
+      '/api/v1/points/1/trend?band=bearing-envelope',
+    ]);
+    expect(await trends('/points/1?period=90d')).toEqual([
+      '/api/v1/points/1/trend?band=overall-velocity',
+    ]);
+    // another period is asked with the browser's times; the spectrum view asks no trend
+    expect(await trends('/points/1?period=30d')).toEqual([]);
+    expect(await trends('/points/1?view=spectrum')).toEqual([]);
+    // a band that is no key is not written into the page
+    expect(await trends('/points/1?band=%22%3E%3Cscript%3E')).toEqual([]);
   });
 
   it('a role the data does not admit gets the code but not the data request', async () => {

@@ -258,6 +258,33 @@ describe('the analyst trend', () => {
     await page.context().close();
   });
 
+  it('opens on the default period with the one trend request the server preloaded with the page', async () => {
+    const page = await newPage(browser, 1280, 900);
+    await signInAs(page, srv.url, 'engineer');
+    // The requests the browser makes for the trend: the page's own fetch is answered by the
+    // preload (it makes no request of its own) only when it asks the very same address.
+    const asked: string[] = [];
+    page.on('request', (r) => {
+      const u = new URL(r.url());
+      if (u.pathname.endsWith('/trend')) asked.push(`${r.resourceType()} ${u.pathname}${u.search}`);
+    });
+    await page.goto(`${srv.url}/points/${pointId}`);
+    const res = await srv.call('GET', `/api/v1/points/${pointId}/trend?band=overall-velocity`, {
+      cookie: engineer,
+    });
+    const api = trendResponseSchema.parse(await res.json());
+    // seven gateway captures and the upload, all within the default 90 days
+    expect(api.items.length).toBe(8);
+    await chartCanvas(
+      page,
+      new RegExp(`^Trend of Overall velocity .* in mm/s, ${api.items.length} values$`),
+    );
+    await page.waitForTimeout(300);
+    expect(asked).toEqual([`other /api/v1/points/${pointId}/trend?band=overall-velocity`]);
+    await screenshot(page, 'trend-workbench-default-period');
+    await page.context().close();
+  });
+
   it('the shared address opens the same series, usable at tablet width without sideways scrolling', async () => {
     const page = await newPage(browser, 820, 1100);
     await signInAs(page, srv.url, 'engineer');

@@ -38,6 +38,8 @@ const pointRefShape = {
   siteId: z.number().int(),
   siteCode: z.string(),
 };
+/** A point with the names a row of the review shows (the server reads it so). */
+export type PointRef = z.infer<z.ZodObject<typeof pointRefShape>>;
 
 /** One point and band whose weekly mean rose. */
 export const reviewMoverSchema = z.object({

@@ -1,9 +1,16 @@
 import { z } from 'zod';
 
 /**
+ * The period a trend covers when no times are asked: the last 90 days up to the server's
+ * clock. The web app opens a point's trend on it without times, so the address is known to
+ * the server before the page runs (it preloads that request with the page).
+ */
+export const DEFAULT_TREND_DAYS = 90;
+
+/**
  * `GET /api/v1/points/:id/trend?band=<key>&from=<iso>&to=<iso>` — one band of one point
- * over a period (default: the last 90 days), oldest first, with the levels in force and
- * the projection to the next level.
+ * over a period (default: the last {@link DEFAULT_TREND_DAYS} days), oldest first, with the
+ * levels in force and the projection to the next level.
  */
 export const trendQuerySchema = z.object({
   band: z.string().min(1).max(64).default('overall-velocity'),

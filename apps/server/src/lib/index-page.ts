@@ -41,6 +41,17 @@ interface Screen {
   dataRoles?: readonly Role[];
 }
 
+/**
+ * The trend a point's page opens on: overall velocity (or the band the address names) over
+ * the default period, which the page asks without times (trends/api/get-trend.ts,
+ * trendParams); none when the address opens another view or period.
+ */
+function openingTrend(pointId: string, q: URLSearchParams): string[] {
+  if (q.has('view') || (q.get('period') ?? '90d') !== '90d') return [];
+  const band = q.get('band') ?? 'overall-velocity';
+  return /^[a-z0-9-]{1,64}$/.test(band) ? [`/api/v1/points/${pointId}/trend?band=${band}`] : [];
+}
+
 const SCREENS: Screen[] = [
   {
     path: /^\/(?:fleet)?$/,
@@ -118,12 +129,12 @@ const SCREENS: Screen[] = [
       api('machines', 'get-machine'),
       'apps/web/src/features/points/lib/spectrum-opening.ts',
     ],
-    // get-analyses.ts (POINT_PAGE_ANALYSES) and get-quality-notices.ts ask these; the trend's
-    // address depends on the browser's clock, so it is left to the page.
-    data: (m) => [
+    // get-analyses.ts (POINT_PAGE_ANALYSES), get-quality-notices.ts and get-trend.ts ask these
+    data: (m, q) => [
       `/api/v1/points/${m[1]}`,
       `/api/v1/points/${m[1]}/analyses?limit=200`,
       `/api/v1/quality-notices?pointId=${m[1]}&limit=10`,
+      ...openingTrend(m[1]!, q),
     ],
   },
 ];

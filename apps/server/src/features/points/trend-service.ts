@@ -7,7 +7,7 @@
 import { displayUnit, toDisplay } from '@turnstone/contracts/units';
 import { levelsInForce, projectTrend } from '@turnstone/condition';
 
-import type { TrendResponse } from '@turnstone/contracts/trend';
+import { DEFAULT_TREND_DAYS, type TrendResponse } from '@turnstone/contracts/trend';
 
 import { AppError } from '../../lib/app-error.ts';
 import type { AppContext } from '../../lib/context.ts';
@@ -23,8 +23,6 @@ import { rawValues } from './trend-hours-repository.ts';
 import { trendValues } from './trend-values.ts';
 
 const DAY_MS = 86_400_000;
-/** Default trend period when none is given (the trend contract says 90 days). */
-export const DEFAULT_TREND_DAYS = 90;
 /** Overall velocity band key that the machine page's small trends follow. */
 
 const iso = (d: Date) => d.toISOString();

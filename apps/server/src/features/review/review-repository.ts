@@ -16,18 +16,11 @@ import {
   qualityNotices,
   sites,
 } from '@turnstone/db/schema';
+import type { PointRef } from '@turnstone/contracts/review';
 import type { SiteWeek } from './review-weeks.ts';
 import { inSites, withPlace, withPlaceAndSite } from '../places/places-repository.ts';
 
-export interface PointRef {
-  pointId: number;
-  pointTag: string;
-  pointName: string;
-  machineId: number;
-  machineName: string;
-  siteId: number;
-  siteCode: string;
-}
+export type { PointRef };
 
 export type Criticality = 'low' | 'medium' | 'high';
 

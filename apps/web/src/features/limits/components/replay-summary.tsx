@@ -2,6 +2,7 @@ import { lazy, Suspense, useState } from 'react';
 import type { BandDefinitionInput, ReplayResponse } from '@turnstone/contracts/limits';
 import { Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
+import { TableHead } from '../../../components/ui/table-head.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
 
 const ReplayChart = lazy(() =>
@@ -44,25 +45,10 @@ export function ReplaySummary({
         .
       </p>
       <table className="w-full text-left text-sm">
-        <thead>
-          <tr className="border-b border-line text-xs tracking-wide text-ink-muted uppercase">
-            <th scope="col" className="py-1.5 pr-3">
-              Band
-            </th>
-            <th scope="col" className="py-1.5 pr-3">
-              Evaluated
-            </th>
-            <th scope="col" className="py-1.5 pr-3">
-              Alerts
-            </th>
-            <th scope="col" className="py-1.5 pr-3">
-              Reached danger
-            </th>
-            <th scope="col" className="py-1.5">
-              When raised
-            </th>
-          </tr>
-        </thead>
+        <TableHead
+          look="capitals"
+          columns={['Band', 'Evaluated', 'Alerts', 'Reached danger', 'When raised']}
+        />
         <tbody>
           {replay.bands.map((b) => (
             <tr key={b.bandKey} className="border-b border-line last:border-b-0 align-top">

@@ -1,11 +1,11 @@
-import { trendResponseSchema } from '@turnstone/contracts/trend';
+import { DEFAULT_TREND_DAYS, trendResponseSchema } from '@turnstone/contracts/trend';
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 
 export interface TrendParams {
   pointId: number;
   band: string;
-  /** ISO times; the server defaults to the last 90 days. */
+  /** ISO times; without them the server's default period up to its clock. */
   from?: string;
   to?: string;
 }
@@ -19,8 +19,8 @@ export function defaultTrendBand(bands: readonly { key: string }[]): string {
   );
 }
 
-/** The period a point's trend opens on, in days. */
-export const DEFAULT_TREND_DAYS = 90;
+/** The period a point's trend opens on, in days: the server's default period. */
+export { DEFAULT_TREND_DAYS };
 
 /**
  * The window's end: the next whole minute, so the query key stays the same between renders
@@ -28,13 +28,20 @@ export const DEFAULT_TREND_DAYS = 90;
  */
 export const trendAnchor = (now = Date.now()) => Math.ceil(now / 60_000) * 60_000;
 
-/** The trend query of `band` over the `days` up to `anchor`. */
+/**
+ * The trend query of `band` over the `days` up to `anchor`. The period a trend opens on is
+ * asked without times (the server's default period, up to its clock): its address is the
+ * same wherever and whenever it is made, so the server preloads it with a point's page
+ * (apps/server/src/lib/index-page.ts), a prefetch on hover is found by the page whatever the
+ * minute, and a point opened again finds its trend in the cache.
+ */
 export function trendParams(
   pointId: number,
   band: string,
   days: number,
   anchor: number,
 ): TrendParams {
+  if (days === DEFAULT_TREND_DAYS) return { pointId, band };
   return {
     pointId,
     band,

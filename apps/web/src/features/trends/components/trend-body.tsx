@@ -85,27 +85,25 @@ export function TrendBody({
           label: 'Baseline mean ± 2σ',
         }
       : null;
+    // the chart's props that come from the answer, memoised so the chart keeps its zoom
     return { limits, events, projection, baseline };
   }, [data]);
   // the further series in the user's units (one converted answer per answer), the same
   // array while nothing in it changed, so the chart keeps its zoom between renders
   const converted = extras.map((e) => e.query.data && inUnits(e.query.data, units));
+  const loaded = extras.flatMap((e, i) => {
+    const d = converted[i];
+    return d ? [{ e, d, unit: displayUnit(d.band.unit) }] : [];
+  });
   const extraSeries = useStableList<TrendExtraSeries>(
-    extras.flatMap((e, i) => {
-      const d = converted[i];
-      return d
-        ? [
-            {
-              id: seriesKey(e.ref),
-              name: e.name,
-              unit: displayUnit(d.band.unit),
-              colour: e.colour,
-              symbol: e.symbol,
-              points: d.items,
-            },
-          ]
-        : [];
-    }),
+    loaded.map(({ e, d, unit }) => ({
+      id: seriesKey(e.ref),
+      name: e.name,
+      unit,
+      colour: e.colour,
+      symbol: e.symbol,
+      points: d.items,
+    })),
     (a, b) =>
       a.id === b.id &&
       a.name === b.name &&
@@ -145,33 +143,10 @@ export function TrendBody({
     })),
   ];
   const rangeSeries: RangeSeries[] = [
-    {
-      key: 'primary',
-      name: data.band.name,
-      unit,
-      colour: seriesColours[0],
-      items: data.items,
-      uploads: new Set(data.uploads.map((u) => u.analysisId)),
-      thinned: data.decimation !== null,
-      csvHref: (from, to) => trendCsvHref({ ...params, from, to }),
-    },
-    ...extras.flatMap((e, i) => {
-      const d = converted[i];
-      return d
-        ? [
-            {
-              key: seriesKey(e.ref),
-              name: e.name,
-              unit: displayUnit(d.band.unit),
-              colour: e.colour,
-              items: d.items,
-              uploads: new Set(d.uploads.map((u) => u.analysisId)),
-              thinned: d.decimation !== null,
-              csvHref: (from: string, to: string) => trendCsvHref({ ...e.params, from, to }),
-            },
-          ]
-        : [];
-    }),
+    rangeOf('primary', data.band.name, unit, seriesColours[0], data, params),
+    ...loaded.map(({ e, d, unit }) =>
+      rangeOf(seriesKey(e.ref), e.name, unit, e.colour, d, e.params),
+    ),
   ];
   return (
     <div className="flex flex-col gap-3">
@@ -218,15 +193,12 @@ export function TrendBody({
       ) : (
         <>
           <TrendChart
+            {...chartProps}
             points={data.items}
             unit={data.band.unit}
             name={data.band.name}
             seriesId="primary"
             colour={seriesColours[0]}
-            limits={chartProps.limits}
-            baseline={chartProps.baseline}
-            events={chartProps.events}
-            projection={chartProps.projection}
             extraSeries={extraSeries}
             now={now}
             activeEvent={activeEvent}
@@ -254,6 +226,27 @@ export function TrendBody({
       )}
     </div>
   );
+}
+
+/** A series' values for the range table, with its CSV of a period. */
+function rangeOf(
+  key: string,
+  name: string,
+  unit: string,
+  colour: string,
+  d: TrendResponse,
+  params: TrendParams,
+): RangeSeries {
+  return {
+    key,
+    name,
+    unit,
+    colour,
+    items: d.items,
+    uploads: new Set(d.uploads.map((u) => u.analysisId)),
+    thinned: d.decimation !== null,
+    csvHref: (from, to) => trendCsvHref({ ...params, from, to }),
+  };
 }
 
 /** A bucket width in words: "6 hours", "day", "2 days". */

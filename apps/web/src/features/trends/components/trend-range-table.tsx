@@ -1,5 +1,6 @@
 import type { TrendResponse } from '@turnstone/contracts/trend';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
+import { TableHead } from '../../../components/ui/table-head.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
 
 /** Rows the range table shows before it says how many more there are. */
@@ -63,25 +64,10 @@ export function TrendRangeTable({
       ) : (
         <div className="overflow-x-auto">
           <table className="w-full text-left text-xs" aria-label="Values in the selected range">
-            <thead className="text-ink-muted">
-              <tr className="border-b border-line">
-                <th scope="col" className="py-1 pr-3 font-medium">
-                  Taken
-                </th>
-                <th scope="col" className="py-1 pr-3 font-medium">
-                  Series
-                </th>
-                <th scope="col" className="py-1 pr-3 text-right font-medium">
-                  Value
-                </th>
-                <th scope="col" className="py-1 pr-3 font-medium">
-                  Quality
-                </th>
-                <th scope="col" className="py-1 font-medium">
-                  Source
-                </th>
-              </tr>
-            </thead>
+            <TableHead
+              look="compact"
+              columns={['Taken', 'Series', { label: 'Value', numeric: true }, 'Quality', 'Source']}
+            />
             <tbody>
               {rows.slice(0, RANGE_ROWS).map(({ s, i }) => (
                 <tr key={`${s.key}-${i.analysisId}-${i.t}`} className="border-b border-line">
