@@ -101,8 +101,9 @@ export const pointData: Prefetch = async (params, url) => {
     ...started,
     band === guessed || point.bands.length === 0 ? undefined : trendOn(band),
     queryClient.prefetchQuery(machines.getMachineQueryOptions(point.machine.id)),
-    list.then((l) =>
-      opening.prefetchOpeningSpectrum(queryClient, l.items, openBand, me?.id ?? null),
+    // On the latest capture when it is usable, without waiting for the list.
+    Promise.resolve(opening.latestUsable(point) ?? list.then((l) => l.items)).then((items) =>
+      opening.prefetchOpeningSpectrum(queryClient, items, openBand, me?.id ?? null),
     ),
   ]);
 };

@@ -9,7 +9,7 @@ import { formatValue } from './chart-theme.ts';
 import { buildSpectrumOption, type SpectrumOptionInput } from './spectrum-option.ts';
 import { useBuiltOption } from './use-built-option.ts';
 import { useEChart } from './use-echart.ts';
-import { useChartZoom, xExtent, ZoomKeys } from './zoom-keys.tsx';
+import { useZoomKeys, ZoomKeys } from './zoom-keys.tsx';
 import { ChartCanvas } from './chart-canvas.tsx';
 
 export type {
@@ -59,7 +59,7 @@ export function SpectrumChart({ onView, onPick, height, ariaLabel, ...input }: S
       chart.off('datazoom', onZoom);
     };
   });
-  const zoom = useChartZoom(chart, option);
+  const zoom = useZoomKeys(chart, option);
   const xUnit = input.axis === 'hz' ? 'Hz' : 'order';
   return (
     <div>
@@ -70,13 +70,7 @@ export function SpectrumChart({ onView, onPick, height, ariaLabel, ...input }: S
         className="w-full cursor-crosshair"
       />
       <div className="mt-2 px-2">
-        <ZoomKeys
-          chart={chart}
-          shown={zoom}
-          label="spectrum"
-          extent={xExtent(option)}
-          format={(v) => `${formatValue(v, 4)} ${xUnit}`}
-        />
+        <ZoomKeys {...zoom} label="spectrum" format={(v) => `${formatValue(v, 4)} ${xUnit}`} />
       </div>
     </div>
   );

@@ -7,6 +7,7 @@
  */
 import { axisStyle, chartColours, formatValue, monoFont, zoomSliderStyle } from './chart-theme.ts';
 import type { ChartOption, LineSeriesOption, ScatterSeriesOption } from './echarts.ts';
+import { manyValuesLine } from './line-series.ts';
 import {
   maxInView,
   noiseFloor,
@@ -161,21 +162,13 @@ export function buildSpectrumOption(p: SpectrumOptionInput): ChartOption {
     const ys = p.decibels ? toDecibelLines(t.values, p.decibels) : Array.from(t.values);
     const data: [number, number | null][] = ys.map((y, k) => [k * t.step, y]);
     const main = t.role === 'main';
-    return {
-      name: t.label,
-      type: 'line',
+    const color = main ? chartColours.accent : chartColours.compare;
+    return manyValuesLine(
+      t.label,
       data,
-      showSymbol: false,
-      sampling: 'max',
-      connectNulls: false,
-      lineStyle: {
-        color: main ? chartColours.accent : chartColours.compare,
-        width: main ? 1.3 : 1,
-        opacity: main ? 1 : 0.85,
-      },
-      itemStyle: { color: main ? chartColours.accent : chartColours.compare },
-      z: main ? 3 : 2,
-    };
+      { color, width: main ? 1.3 : 1, opacity: main ? 1 : 0.85 },
+      { connectNulls: false, itemStyle: { color }, z: main ? 3 : 2 },
+    );
   });
   const marks = p.marks
     .filter((m) => m.x > 0 && m.x <= xMax)

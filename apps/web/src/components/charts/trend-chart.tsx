@@ -14,7 +14,7 @@ import { formatValue } from './chart-theme.ts';
 import { useBuiltOption } from './use-built-option.ts';
 import { useEChart } from './use-echart.ts';
 import { ValuesTable } from './values-table.tsx';
-import { useChartZoom, xExtent, zoomedExtent, ZoomKeys } from './zoom-keys.tsx';
+import { useZoomKeys, zoomedExtent, ZoomKeys } from './zoom-keys.tsx';
 import { ChartCanvas } from './chart-canvas.tsx';
 import {
   buildTrendOption,
@@ -64,8 +64,8 @@ export function TrendChart({
       if (eventIndex(params) !== null) handlers.current.onActiveEvent?.(null);
     });
   });
-  const shown = useChartZoom(chart, option);
-  const extent = xExtent(option);
+  const zoom = useZoomKeys(chart, option);
+  const { shown, extent } = zoom;
   const [from, to] = extent ? zoomedExtent(extent, shown) : [NaN, NaN];
   useEffect(() => {
     if (Number.isFinite(from) && Number.isFinite(to)) handlers.current.onWindow?.(from, to);
@@ -82,13 +82,7 @@ export function TrendChart({
       </div>
       {(input.zoom ?? true) && (
         <div className="mb-1 px-2">
-          <ZoomKeys
-            chart={chart}
-            shown={shown}
-            label="trend"
-            extent={extent}
-            format={(v) => dateLabel.format(v)}
-          />
+          <ZoomKeys {...zoom} label="trend" format={(v) => dateLabel.format(v)} />
         </div>
       )}
       <TrendValues points={points} unit={displayUnit(input.unit)} name={input.name ?? 'Values'} />

@@ -11,6 +11,7 @@ import { useEffect, useMemo, useState } from 'react';
 import { axisStyle, chartColours, formatValue, monoFont, zoomSliderStyle } from './chart-theme.ts';
 import type { ChartOption, echarts, LineSeriesOption } from './echarts.ts';
 import { largestPeaks, WATERFALL_TABLE_PEAKS } from './chart-values.ts';
+import { manyValuesLine } from './line-series.ts';
 import { useEChart } from './use-echart.ts';
 import { ValuesTable, type ValuesColumn } from './values-table.tsx';
 import { useChartZoom, zoomedExtent, ZoomKeys, type ZoomWindow } from './zoom-keys.tsx';
@@ -72,21 +73,22 @@ export function buildWaterfallOption(
     const data: [number, number][] = [];
     for (let k = first; k <= last; k++) data.push([k * t.step + i * dx, t.values[k]! + i * dy]);
     const front = i === 0;
-    series.push({
-      name: t.label,
-      type: 'line',
-      data,
-      showSymbol: false,
-      sampling: 'max',
-      silent: true,
-      lineStyle: {
-        color: front ? chartColours.accent : chartColours.ink,
-        width: front ? 1.3 : 0.8,
-        opacity: front ? 1 : 0.35 + 0.5 * (1 - i / n),
-      },
-      areaStyle: { color: chartColours.surface, opacity: 1, origin: i * dy },
-      z: n - i,
-    });
+    series.push(
+      manyValuesLine(
+        t.label,
+        data,
+        {
+          color: front ? chartColours.accent : chartColours.ink,
+          width: front ? 1.3 : 0.8,
+          opacity: front ? 1 : 0.35 + 0.5 * (1 - i / n),
+        },
+        {
+          silent: true,
+          areaStyle: { color: chartColours.surface, opacity: 1, origin: i * dy },
+          z: n - i,
+        },
+      ),
+    );
   }
   const ax = axisStyle();
   const xRight = b + (n - 1) * dx;

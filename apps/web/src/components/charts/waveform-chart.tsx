@@ -9,7 +9,7 @@ import type { ChartOption } from './echarts.ts';
 import { useEChart } from './use-echart.ts';
 import { WAVEFORM_TABLE_ROWS, waveformRows } from './chart-values.ts';
 import { ValuesTable } from './values-table.tsx';
-import { useChartZoom, xExtent, zoomedExtent, ZoomKeys, type ZoomWindow } from './zoom-keys.tsx';
+import { useZoomKeys, zoomedExtent, ZoomKeys, type ZoomWindow } from './zoom-keys.tsx';
 import { ChartCanvas } from './chart-canvas.tsx';
 
 export interface WaveformChartProps {
@@ -103,21 +103,14 @@ export function WaveformChart(props: WaveformChartProps) {
     [values, sampleRateHz, rails, showRails],
   );
   const { ref, chart } = useEChart(option);
-  const shown = useChartZoom(chart, option);
-  const extent = xExtent(option);
+  const zoom = useZoomKeys(chart, option);
   return (
     <div className="flex flex-col gap-2">
       <ChartCanvas canvasRef={ref} ariaLabel={props.ariaLabel} height={props.height ?? 300} />
       <div className="px-2">
-        <ZoomKeys
-          chart={chart}
-          shown={shown}
-          label="waveform"
-          extent={extent}
-          format={(v) => `${formatValue(v, 4)} ms`}
-        />
+        <ZoomKeys {...zoom} label="waveform" format={(v) => `${formatValue(v, 4)} ms`} />
       </div>
-      <WaveformValues values={values} sampleRateHz={sampleRateHz} shown={shown} />
+      <WaveformValues values={values} sampleRateHz={sampleRateHz} shown={zoom.shown} />
     </div>
   );
 }

@@ -47,6 +47,14 @@ export function useChartZoom(chart: echarts.ECharts | null, option: ChartOption)
   return zoom.option === option ? zoom.shown : openingWindow(option);
 }
 
+/**
+ * What {@link ZoomKeys} reads of a chart whose option fixes its x extent: the chart, the
+ * window shown ({@link useChartZoom}) and that extent.
+ */
+export function useZoomKeys(chart: echarts.ECharts | null, option: ChartOption) {
+  return { chart, shown: useChartZoom(chart, option), extent: xExtent(option) };
+}
+
 /** The window an option opens on: its first dataZoom's start/end, or its values on the axis. */
 export function openingWindow(option: ChartOption): ZoomWindow {
   const dz = (Array.isArray(option.dataZoom) ? option.dataZoom[0] : option.dataZoom) as

@@ -16,6 +16,7 @@ import { POINT_PAGE_ANALYSES, useAnalyses } from '../../../features/points/api/g
 import { usePoint } from '../../../features/points/api/get-point.ts';
 import { hasVectors } from '../../../features/points/lib/has-vectors.ts';
 import {
+  latestUsable,
   openingAnalysisId,
   prefetchOpeningSpectrum,
 } from '../../../features/points/lib/spectrum-opening.ts';
@@ -145,6 +146,8 @@ export function PointRoute() {
   // `?alert=`: opened from that alert's detail; the way back to it is the first link here.
   const fromAlert = Number(search.get('alert')) || null;
   useEffect(() => {
+    // The spectrum is the view most often opened next: its code comes with the page's.
+    spectrumView.preload().catch(() => undefined);
     const timer = window.setTimeout(preloadViews, SETTLED_MS);
     return () => window.clearTimeout(timer);
   }, []);
@@ -168,7 +171,9 @@ export function PointRoute() {
       </div>
     );
   const p = point.data;
-  const list = analyses.data?.items ?? [];
+  // While the list is on its way, the views open on the latest capture when it is usable.
+  const early = analyses.isPending ? latestUsable(p) : null;
+  const list = analyses.data?.items ?? early ?? [];
   const selectedId = picked ?? openingAnalysisId(list);
   const openBand = p.bands.find((b) => b.key === search.get('band')) ?? null;
   // On the intent to open a view: its code, and the spectrum the spectrum view opens on.
@@ -272,7 +277,7 @@ export function PointRoute() {
               <TrendPanel pointId={p.id} machineId={p.machine.id} bands={p.bands} />
             ))}
           {tab === 'spectrum' &&
-            (snapshotBody() ?? (
+            ((early ? null : snapshotBody()) ?? (
               <SpectrumPanel
                 band={openBand}
                 userId={me.data?.id ?? null}

@@ -1,4 +1,6 @@
+import type { ReactNode } from 'react';
 import type { AnalysisSummary } from '@turnstone/contracts/points';
+import { ViewCard } from './view-card.tsx';
 import { Field, Select } from '../../../components/ui/field.tsx';
 import { formatQuantity } from '@turnstone/contracts/number-format';
 import type { UnitSystem } from '@turnstone/contracts/units';
@@ -44,5 +46,41 @@ export function SnapshotPicker({
         </Select>
       )}
     </Field>
+  );
+}
+
+/**
+ * A view of one capture: a card headed by the picker of its snapshot, with what stands beside
+ * the picker (`beside`) and the view itself under it.
+ */
+export function SnapshotCard({
+  analyses,
+  selectedId,
+  onSelect,
+  beside,
+  children,
+}: {
+  analyses: readonly AnalysisSummary[];
+  selectedId: number | null;
+  onSelect: (id: number | null) => void;
+  beside?: ReactNode;
+  children: ReactNode;
+}) {
+  return (
+    <ViewCard
+      head={
+        <>
+          <SnapshotPicker
+            label="Snapshot"
+            analyses={analyses}
+            value={selectedId}
+            onChange={onSelect}
+          />
+          {beside}
+        </>
+      }
+    >
+      {children}
+    </ViewCard>
   );
 }

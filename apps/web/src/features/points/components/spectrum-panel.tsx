@@ -18,7 +18,6 @@ import {
   snapToPeak,
   type AmplitudeScale,
 } from '../../../components/charts/spectrum-math.ts';
-import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
@@ -33,7 +32,7 @@ import {
   type Axis,
   type Measure,
 } from '../lib/spectrum-view.ts';
-import { SnapshotPicker } from './snapshot-picker.tsx';
+import { SnapshotCard, SnapshotPicker } from './snapshot-picker.tsx';
 import { HintsSidePanel } from './diagnosis-hints.tsx';
 import { CaptureQuality } from './capture-quality.tsx';
 import { CursorReadouts, PeakTable } from './spectrum-readouts.tsx';
@@ -205,16 +204,15 @@ export function SpectrumPanel({
   const dbOn = decibels && dbUnit !== null;
   const linearName = `${unit} ${amplitudeScaleLabel[shownScale]}`;
   const yName = dbOn ? `dB re ISO 1683 (${linearName})` : linearName;
+  // How every readout under the chart states a position and an amplitude.
+  const readout = { axis, shaftHz, unit: linearName };
 
   return (
-    <Card className="flex flex-col gap-4 p-4">
-      <div className="flex flex-wrap items-end gap-4">
-        <SnapshotPicker
-          label="Snapshot"
-          analyses={analyses}
-          value={selectedId}
-          onChange={onSelect}
-        />
+    <SnapshotCard
+      analyses={analyses}
+      selectedId={selectedId}
+      onSelect={onSelect}
+      beside={
         <SnapshotPicker
           label="Compare with"
           analyses={analyses.filter((a) => a.id !== selectedId)}
@@ -222,7 +220,8 @@ export function SpectrumPanel({
           onChange={setCompareId}
           allowNone
         />
-      </div>
+      }
+    >
       {selected && <CaptureQuality analysis={selected} where="spectrum" />}
       <SpectrumToolbar
         measure={measure}
@@ -303,9 +302,7 @@ export function SpectrumPanel({
                 step={mt.step}
                 view={shownView}
                 lowCut={lowCut}
-                axis={axis}
-                shaftHz={shaftHz}
-                unit={linearName}
+                {...readout}
                 {...(cursor.mode === 'harmonic'
                   ? { target: 'harmonic cursor', start: fundamental }
                   : cursor.mode === 'sideband'
@@ -356,19 +353,9 @@ export function SpectrumPanel({
                 harmonic={cursors.harmonic}
                 sideband={cursors.sideband}
                 points={cursors.points}
-                axis={axis}
-                shaftHz={shaftHz}
-                unit={linearName}
+                {...readout}
               />
-              {found && (
-                <PeakTable
-                  peaks={found.peaks}
-                  floor={found.floor}
-                  unit={linearName}
-                  axis={axis}
-                  shaftHz={shaftHz}
-                />
-              )}
+              {found && <PeakTable peaks={found.peaks} floor={found.floor} {...readout} />}
             </>
           )}
         </div>
@@ -386,6 +373,6 @@ export function SpectrumPanel({
           }}
         />
       </div>
-    </Card>
+    </SnapshotCard>
   );
 }

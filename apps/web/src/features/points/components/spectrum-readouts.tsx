@@ -82,26 +82,21 @@ export function CursorReadouts({
   shaftHz: number | null;
   unit: string;
 }) {
+  const lineTables = [
+    { caption: 'Harmonic cursor', lines: harmonic, name: (n: number) => `${n}×` },
+    {
+      caption: 'Sideband cursor',
+      lines: sideband,
+      name: (n: number) => (n === 0 ? 'carrier' : n > 0 ? `+${n}` : `−${-n}`),
+    },
+  ];
   const a = points.find((p) => p.name === 'A');
   const b = points.find((p) => p.name === 'B');
   return (
     <div className="flex flex-wrap items-start gap-6 overflow-x-auto">
-      <LinesTable
-        caption="Harmonic cursor"
-        lines={harmonic}
-        axis={axis}
-        shaftHz={shaftHz}
-        unit={unit}
-        name={(n) => `${n}×`}
-      />
-      <LinesTable
-        caption="Sideband cursor"
-        lines={sideband}
-        axis={axis}
-        shaftHz={shaftHz}
-        unit={unit}
-        name={(n) => (n === 0 ? 'carrier' : n > 0 ? `+${n}` : `−${-n}`)}
-      />
+      {lineTables.map((t) => (
+        <LinesTable key={t.caption} {...t} axis={axis} shaftHz={shaftHz} unit={unit} />
+      ))}
       {a && (
         <dl
           aria-label="Cursors A and B"

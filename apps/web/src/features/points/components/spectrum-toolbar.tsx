@@ -16,7 +16,29 @@ export const measureLabels: Record<Measure, string> = {
   envelope: 'Envelope',
 };
 
-export type CursorMode = 'harmonic' | 'sideband' | 'points';
+const axisLabels: Record<Axis, string> = { hz: 'Hz', order: 'Orders' };
+const scaleLabels: Record<AmplitudeScale, string> = {
+  rms: 'RMS',
+  peak: 'Peak',
+  'peak-to-peak': 'Pk-pk',
+};
+const yScaleLabels = { linear: 'Linear', db: 'dB' } as const;
+const cursorModeLabels = {
+  harmonic: 'Harmonic cursor',
+  sideband: 'Sideband carrier',
+  points: 'Cursors A/B',
+} as const;
+
+/** A segmented control's options from their labels, in order; `off` names those not on offer. */
+function choices<T extends string>(labels: Record<T, string>, off: readonly T[] = []) {
+  return (Object.entries(labels) as [T, string][]).map(([value, label]) => ({
+    value,
+    label,
+    disabled: off.includes(value),
+  }));
+}
+
+export type CursorMode = keyof typeof cursorModeLabels;
 
 export interface CursorSettings {
   mode: CursorMode;
@@ -58,6 +80,28 @@ function NumberBox({
         onChange={(e) => onChange(e.target.value === '' ? null : Number(e.target.value))}
       />
     </label>
+  );
+}
+
+/** A count from 1 to `max`: what is typed is held to that range (empty counts as 1). */
+function CountBox({
+  max,
+  onChange,
+  ...box
+}: {
+  label: string;
+  value: number;
+  max: number;
+  width: string;
+  onChange: (n: number) => void;
+}) {
+  return (
+    <NumberBox
+      {...box}
+      min={1}
+      max={max}
+      onChange={(v) => onChange(Math.max(1, Math.min(max, v ?? 1)))}
+    />
   );
 }
 
@@ -137,38 +181,25 @@ export function SpectrumToolbar(p: {
           label="Measure"
           value={p.measure}
           onChange={p.onMeasure}
-          options={(['acceleration', 'velocity', 'envelope'] as const).map((m) => ({
-            value: m,
-            label: measureLabels[m],
-          }))}
+          options={choices(measureLabels)}
         />
         <Segmented
           label="X axis"
           value={p.axis}
           onChange={p.onAxis}
-          options={[
-            { value: 'hz', label: 'Hz' },
-            { value: 'order', label: 'Orders', disabled: !p.ordersPossible },
-          ]}
+          options={choices(axisLabels, p.ordersPossible ? [] : ['order'])}
         />
         <Segmented
           label="Amplitude"
           value={p.scale}
           onChange={p.onScale}
-          options={[
-            { value: 'rms', label: 'RMS' },
-            { value: 'peak', label: 'Peak' },
-            { value: 'peak-to-peak', label: 'Pk-pk' },
-          ]}
+          options={choices(scaleLabels)}
         />
         <Segmented
           label="Y scale"
           value={p.decibels ? 'db' : 'linear'}
           onChange={(v) => p.onDecibels(v === 'db')}
-          options={[
-            { value: 'linear', label: 'Linear' },
-            { value: 'db', label: 'dB', disabled: !p.decibelsPossible },
-          ]}
+          options={choices(yScaleLabels, p.decibelsPossible ? [] : ['db'])}
         />
         {p.view && <RangeForm view={p.view} unit={unit} onView={p.onView} />}
       </div>
@@ -177,19 +208,14 @@ export function SpectrumToolbar(p: {
           label="A click on the chart sets"
           value={c.mode}
           onChange={(mode) => p.onCursor({ ...c, mode })}
-          options={[
-            { value: 'harmonic', label: 'Harmonic cursor' },
-            { value: 'sideband', label: 'Sideband carrier' },
-            { value: 'points', label: 'Cursors A/B' },
-          ]}
+          options={choices(cursorModeLabels)}
         />
-        <NumberBox
+        <CountBox
           label="Harmonics"
           value={c.harmonics}
-          min={1}
           max={40}
           width="w-20"
-          onChange={(v) => p.onCursor({ ...c, harmonics: Math.max(1, Math.min(40, v ?? 1)) })}
+          onChange={(harmonics) => p.onCursor({ ...c, harmonics })}
         />
         <NumberBox
           label={`Sideband spacing (${unit})`}
@@ -199,13 +225,12 @@ export function SpectrumToolbar(p: {
           placeholder="1× speed"
           onChange={(v) => p.onCursor({ ...c, spacing: v !== null && v > 0 ? v : null })}
         />
-        <NumberBox
+        <CountBox
           label="Sidebands each side"
           value={c.sidebands}
-          min={1}
           max={10}
           width="w-40"
-          onChange={(v) => p.onCursor({ ...c, sidebands: Math.max(1, Math.min(10, v ?? 1)) })}
+          onChange={(sidebands) => p.onCursor({ ...c, sidebands })}
         />
         {p.hasCursors && (
           <Button size="sm" variant="ghost" onClick={p.onClearCursors}>

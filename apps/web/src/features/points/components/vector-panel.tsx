@@ -6,7 +6,7 @@ import {
   VectorTrendChart,
   type VectorPoint,
 } from '../../../components/charts/vector-charts.tsx';
-import { Card } from '../../../components/ui/card.tsx';
+import { ViewCard } from './view-card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
 import { Segmented } from '../../../components/ui/segmented.tsx';
@@ -47,23 +47,26 @@ export function VectorPanel({ analyses }: { analyses: readonly AnalysisSummary[]
     );
   const recent = points.slice(-8).reverse();
   return (
-    <Card className="flex flex-col gap-4 p-4">
-      <div className="flex flex-wrap items-end gap-4">
-        <Segmented
-          label="Order"
-          value={order}
-          onChange={setOrder}
-          options={[
-            { value: '1', label: '1×' },
-            { value: '2', label: '2×' },
-          ]}
-        />
-        <p className="max-w-2xl text-xs text-ink-muted">
-          Velocity in {unit}; phase is the lag in degrees of the {name} cycle from the tach pulse to
-          the positive velocity peak (0–360°, growing as the peak comes later), drawn clockwise from
-          the top on the polar plot. {points.length} captures with a tach.
-        </p>
-      </div>
+    <ViewCard
+      head={
+        <>
+          <Segmented
+            label="Order"
+            value={order}
+            onChange={setOrder}
+            options={[
+              { value: '1', label: '1×' },
+              { value: '2', label: '2×' },
+            ]}
+          />
+          <p className="max-w-2xl text-xs text-ink-muted">
+            Velocity in {unit}; phase is the lag in degrees of the {name} cycle from the tach pulse
+            to the positive velocity peak (0–360°, growing as the peak comes later), drawn clockwise
+            from the top on the polar plot. {points.length} captures with a tach.
+          </p>
+        </>
+      }
+    >
       <div className="grid gap-4 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <VectorTrendChart
           points={points}
@@ -99,6 +102,6 @@ export function VectorPanel({ analyses }: { analyses: readonly AnalysisSummary[]
           </tbody>
         </table>
       </div>
-    </Card>
+    </ViewCard>
   );
 }

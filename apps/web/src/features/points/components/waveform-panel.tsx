@@ -1,14 +1,13 @@
 import type { AnalysisSummary } from '@turnstone/contracts/points';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
 import { WaveformChart } from '../../../components/charts/waveform-chart.tsx';
-import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
 import { isApiError } from '../../../lib/api-client.ts';
 import { useWaveform, waveformDownloadHref } from '../api/get-waveform.ts';
-import { SnapshotPicker } from './snapshot-picker.tsx';
+import { SnapshotCard } from './snapshot-picker.tsx';
 
 const linkButton =
   'inline-flex h-9 items-center rounded-md border border-line-strong bg-surface px-3 text-[13px] font-medium text-ink hover:bg-sunken';
@@ -26,15 +25,13 @@ export function WaveformPanel({
   const w = q.data;
   const expired = isApiError(q.error) && q.error.status === 410;
   return (
-    <Card className="flex flex-col gap-4 p-4">
-      <div className="flex flex-wrap items-end gap-4">
-        <SnapshotPicker
-          label="Snapshot"
-          analyses={analyses}
-          value={selectedId}
-          onChange={onSelect}
-        />
-        {selectedId !== null && !expired && (
+    <SnapshotCard
+      analyses={analyses}
+      selectedId={selectedId}
+      onSelect={onSelect}
+      beside={
+        selectedId !== null &&
+        !expired && (
           <div className="ml-auto flex gap-2">
             <a className={linkButton} href={waveformDownloadHref(selectedId, 'wav')} download>
               Download WAV
@@ -43,8 +40,9 @@ export function WaveformPanel({
               Download CSV (g)
             </a>
           </div>
-        )}
-      </div>
+        )
+      }
+    >
       {selectedId === null ? (
         <EmptyState title="No snapshot chosen" description="Pick a snapshot above." />
       ) : q.isPending ? (
@@ -118,6 +116,6 @@ export function WaveformPanel({
           />
         </>
       ) : null}
-    </Card>
+    </SnapshotCard>
   );
 }

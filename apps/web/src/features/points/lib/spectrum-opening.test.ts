@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { AnalysisSummary } from '@turnstone/contracts/points';
-import { openingAnalysisId } from './spectrum-opening.ts';
+import { latestUsable, openingAnalysisId } from './spectrum-opening.ts';
 import { kindFor } from './spectrum-view.ts';
 
 // Only the fields the choice reads; the rest of a summary does not take part.
@@ -17,6 +17,16 @@ describe('the spectrum the view opens on (asked for before it opens)', () => {
   it('is the newest capture when none is usable, and none without captures', () => {
     expect(openingAnalysisId([a(5, 'unusable'), a(4, 'unusable')])).toBe(5);
     expect(openingAnalysisId([])).toBeNull();
+  });
+
+  it('is known from the point alone when its latest capture is usable, as the list would open', () => {
+    const list = [a(9, 'suspect'), a(8, 'ok')];
+    const early = latestUsable({ latest: list[0]! });
+    expect(early).toEqual([list[0]]);
+    expect(openingAnalysisId(early!)).toBe(openingAnalysisId(list));
+    // An unusable latest capture: where the view opens depends on the older ones (the list).
+    expect(latestUsable({ latest: a(9, 'unusable') })).toBeNull();
+    expect(latestUsable({ latest: null })).toBeNull();
   });
 
   it('asks for the stored spectrum of the measure: acceleration in orders is the order spectrum', () => {

@@ -4,13 +4,23 @@
  * its tab, or on a link to the point), so it is here, or on its way, when the view opens.
  */
 import type { QueryClient } from '@tanstack/react-query';
-import type { AnalysisSummary, PointBand } from '@turnstone/contracts/points';
+import type { AnalysisSummary, PointBand, PointDetail } from '@turnstone/contracts/points';
 import { getSpectrumQueryOptions } from '../api/get-spectrum.ts';
 import { kindFor, readRemembered, spectrumStart } from './spectrum-view.ts';
 
 /** The capture the views open on: the latest usable one (an unusable one stays one pick away). */
 export function openingAnalysisId(analyses: readonly AnalysisSummary[]): number | null {
   return (analyses.find((a) => a.verdict !== 'unusable') ?? analyses[0])?.id ?? null;
+}
+
+/**
+ * The captures a view can open on before the point's list of them is here: the point's latest
+ * capture when it is usable, which is where the list (newest first) opens too, so the spectrum
+ * need not wait for the whole list. Null when the latest is unusable (or there is none): the
+ * opening capture is then known only from the list.
+ */
+export function latestUsable(point: Pick<PointDetail, 'latest'>): AnalysisSummary[] | null {
+  return point.latest && point.latest.verdict !== 'unusable' ? [point.latest] : null;
 }
 
 const storage = (): Storage | null => (typeof localStorage === 'undefined' ? null : localStorage);

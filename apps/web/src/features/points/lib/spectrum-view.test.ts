@@ -12,18 +12,15 @@ const faults = [
   { name: 'DE 6205 BPFO', kind: 'bpfo' as const, hz: 88.5, order: 3.585 },
 ];
 
+type Band = Parameters<typeof startForBand>[0];
+/** Where the spectrum opens for the band `name` on `spectrum`, of its range's kind. */
+const openOn = (name: string, spectrum: string, range: NonNullable<Band['range']>) =>
+  startForBand({ name, spectrum, kind: range.kind, range }, faults);
+
 describe('where the spectrum opens', () => {
   // Common practice, no source: 1× problems read on velocity over the low orders.
   it('an overall velocity band in alert opens velocity over 0–40 orders', () => {
-    const s = startForBand(
-      {
-        name: 'Overall velocity',
-        spectrum: 'velocity',
-        kind: 'overall',
-        range: { kind: 'overall', fromHz: 10, toHz: 1000 },
-      },
-      faults,
-    );
+    const s = openOn('Overall velocity', 'velocity', { kind: 'overall', fromHz: 10, toHz: 1000 });
     expect(s.measure).toBe('velocity');
     expect(s.span).toEqual({ unit: 'order', from: 0, to: 40 });
     // At 24.7 Hz running speed that is 0–988 Hz on a 0–5000 Hz axis.
@@ -31,21 +28,13 @@ describe('where the spectrum opens', () => {
   });
 
   it('a BPFO window with 3 harmonics on the envelope opens the envelope from 0 past its third harmonic', () => {
-    const s = startForBand(
-      {
-        name: 'Envelope BPFO',
-        spectrum: 'envelope',
-        kind: 'fault',
-        range: {
-          kind: 'fault',
-          fault: 'bpfo',
-          halfWidth: 5,
-          halfWidthUnit: 'percent',
-          harmonics: 3,
-        },
-      },
-      faults,
-    );
+    const s = openOn('Envelope BPFO', 'envelope', {
+      kind: 'fault',
+      fault: 'bpfo',
+      halfWidth: 5,
+      halfWidthUnit: 'percent',
+      harmonics: 3,
+    });
     expect(s.measure).toBe('envelope');
     // 3 × 3.585 = 10.755 orders, + 5 % = 11.29, + 25 % margin = 14.12 orders.
     expect(s.span.unit).toBe('order');
@@ -53,15 +42,7 @@ describe('where the spectrum opens', () => {
   });
 
   it('a Hz band opens on its range with a quarter of its width each side', () => {
-    const s = startForBand(
-      {
-        name: 'Gear mesh',
-        spectrum: 'acceleration',
-        kind: 'hz',
-        range: { kind: 'hz', fromHz: 400, toHz: 600 },
-      },
-      faults,
-    );
+    const s = openOn('Gear mesh', 'acceleration', { kind: 'hz', fromHz: 400, toHz: 600 });
     expect(s).toMatchObject({ measure: 'acceleration', span: { unit: 'hz', from: 350, to: 650 } });
     // Without a running speed an order span cannot be placed on a Hz axis.
     expect(spanOnAxis({ unit: 'order', from: 0, to: 40 }, 'hz', null, 5000)).toBeNull();
