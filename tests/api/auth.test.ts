@@ -1,14 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import jwt from 'jsonwebtoken';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { testServerForFile } from '../support/api-suite.ts';
 
-let srv: TestServer;
-beforeAll(async () => {
-  srv = await startTestServer();
-});
-afterAll(async () => {
-  await srv?.stop();
-});
+const srv = testServerForFile();
 
 describe('sign-in', () => {
   it.each(['admin', 'engineer', 'planner', 'operator'])(

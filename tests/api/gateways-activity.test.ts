@@ -2,17 +2,11 @@
  * The gateway list tells when each gateway was last seen and how many captures it posted in
  * the last hour (its recent post rate), from real posts to the ingest endpoint.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { describe, expect, it } from 'vitest';
+import { testServerForFile } from '../support/api-suite.ts';
 import { captureVelocities } from '../support/alert-captures.ts';
 
-let srv: TestServer;
-beforeAll(async () => {
-  srv = await startTestServer();
-});
-afterAll(async () => {
-  await srv?.stop();
-});
+const srv = testServerForFile();
 
 describe('gateway activity', () => {
   it('counts the posts of the last hour per gateway and sets last seen', async () => {

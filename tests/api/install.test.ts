@@ -4,7 +4,7 @@
  * errors that name their cause, one session key per database, and `npm run sim` and
  * `npm run worker` run as written (real child processes against a started product).
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { spawn } from 'node:child_process';
 import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -12,18 +12,12 @@ import { join } from 'node:path';
 import { freePort } from '@turnstone/db/local-server';
 import { start } from '../../apps/server/src/server.ts';
 import { startViteDev } from '../../apps/server/src/dev-vite.ts';
-import { freshDatabase, startTestServer, type TestServer } from '../support/test-server.ts';
+import { freshDatabase, QUIET_SERVER_ENV, startTestServer } from '../support/test-server.ts';
+import { testServerForFile } from '../support/api-suite.ts';
 import { snapshotBody } from '../support/signals.ts';
 
 const tmp = () => mkdtempSync(join(process.env.TURNSTONE_TEST_TMP ?? tmpdir(), 'install-'));
-const quiet = {
-  PORT: '0',
-  HOST: '127.0.0.1',
-  BUILD_WEB: 'false',
-  LOG_LEVEL: 'silent',
-  RUN_WORKER: 'false',
-  DEMO_HISTORY_WEEKS: '0',
-};
+const quiet = QUIET_SERVER_ENV;
 
 interface Child {
   /** Output so far (stdout and stderr). */
@@ -69,13 +63,7 @@ async function waitFor(what: string, check: () => Promise<boolean>, ms = 90_000)
   }
 }
 
-let srv: TestServer;
-beforeAll(async () => {
-  srv = await startTestServer();
-});
-afterAll(async () => {
-  await srv?.stop();
-});
+const srv = testServerForFile();
 
 describe('npm run dev', () => {
   it('signs in through the Vite proxy: Host and Origin agree, so no 403 cross_origin', async () => {

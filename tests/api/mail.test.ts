@@ -2,7 +2,7 @@
  * Mail against the running local SMTP fake (nothing mocked): alert notifications from
  * ingested captures, the outbox's no-double-send rule, retries, and the weekly digest.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import nodemailer from 'nodemailer';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import {
@@ -11,17 +11,15 @@ import {
 } from '../../apps/server/src/features/mail/outbox-sender.ts';
 import {
   claimOutbox,
-  enqueueMail,
   markSendingStarted,
 } from '../../apps/server/src/features/mail/outbox-repository.ts';
 import { queueWeeklyDigests } from '../../apps/server/src/features/mail/digest-service.ts';
 import { SAFETY_CAUTION } from '../../apps/server/src/features/mail/mail-templates.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { testServerForFile } from '../support/api-suite.ts';
+import { queueMail } from '../support/mail-inbox.ts';
 import { postVelocities } from '../support/alert-captures.ts';
 
-let srv: TestServer;
-let key = '';
-let admin = '';
+const srv = testServerForFile({ env: { OUTBOX_LEASE_S: '1' }, signIn: ['admin'], gateway: true });
 // 30 days back, so a capture after the 5-day clear off-delay is not in the future
 const t0 = Date.now() - 30 * 24 * 3600_000;
 let seq = 0;
@@ -35,7 +33,7 @@ type Row = Record<string, unknown>;
 const q = (sqlText: string, params: unknown[] = []) => srv.q<Row>(sqlText, params);
 
 async function capture(velocities: number[]) {
-  seq = await postVelocities(srv, key, TAG, velocities, { t0, from: seq, uidPrefix: 'm' });
+  seq = await postVelocities(srv, srv.key, TAG, velocities, { t0, from: seq, uidPrefix: 'm' });
   await createWorker(srv.ctx, { owner: 'mail-test' }).drain();
 }
 
@@ -52,19 +50,6 @@ const overallAlert = async () =>
       [TAG],
     )
   )[0]!;
-
-beforeAll(async () => {
-  srv = await startTestServer({ OUTBOX_LEASE_S: '1' });
-  admin = await srv.signIn('admin');
-  const res = await srv.call('POST', '/api/v1/gateways', {
-    cookie: admin,
-    body: { siteId: 1, name: 'gw-mail' },
-  });
-  key = (await res.json()).apiKey;
-});
-afterAll(async () => {
-  await srv?.stop();
-});
 
 describe('alert notifications', () => {
   it('when captures raise an alert, each subscribed user gets exactly one message per alert with machine, point, band, value vs level, verdict, link and caution', async () => {
@@ -206,13 +191,10 @@ describe('hourly summaries', () => {
 
 describe('outbox delivery', () => {
   async function deadSend(dedupeKey: string) {
-    await enqueueMail(srv.ctx.db, {
-      kind: 'test',
+    await queueMail(srv, {
       dedupeKey,
       to: 'someone@example.test',
       subject: `Dead worker ${dedupeKey}`,
-      text: 'body',
-      html: '<p>body</p>',
     });
     // A worker claims the row, marks the send started … and dies.
     const claimed = await claimOutbox(srv.ctx.db, 'dead-worker', 60, 50);
@@ -281,13 +263,10 @@ describe('outbox delivery', () => {
   });
 
   it('when the relay is unreachable, the row waits with back-off and its error, and nothing else is held up', async () => {
-    await enqueueMail(srv.ctx.db, {
-      kind: 'test',
+    await queueMail(srv, {
       dedupeKey: 'unreachable-1',
       to: 'someone@example.test',
       subject: 'Unreachable relay',
-      text: 'body',
-      html: '<p>body</p>',
     });
     // Port 1 on loopback: nothing listens (connection refused).
     const broken = createOutboxSender(srv.ctx, {
@@ -320,8 +299,11 @@ describe('outbox delivery', () => {
 describe('undelivered mail', () => {
   it('the admin sees mail not delivered and sends an uncertain message again, once; others cannot', async () => {
     const list = async () =>
-      (await (await srv.call('GET', '/api/v1/mail/undelivered', { cookie: admin })).json())
-        .items as { id: number; subject: string; state: string; nextAttemptAt: string | null }[];
+      (
+        await (
+          await srv.call('GET', '/api/v1/mail/undelivered', { cookie: srv.cookies.admin })
+        ).json()
+      ).items as { id: number; subject: string; state: string; nextAttemptAt: string | null }[];
     const items = await list();
     const uncertain = items.find((i) => i.subject.includes('Dead worker dead-3'))!;
     const retrying = items.find((i) => i.subject === 'Unreachable relay')!;
@@ -336,12 +318,12 @@ describe('undelivered mail', () => {
     );
     // A message still being retried is the sender's business, not a person's.
     const early = await srv.call('POST', `/api/v1/mail/undelivered/${retrying.id}/resend`, {
-      cookie: admin,
+      cookie: srv.cookies.admin,
     });
     expect(early.status).toBe(409);
 
     const res = await srv.call('POST', `/api/v1/mail/undelivered/${uncertain.id}/resend`, {
-      cookie: admin,
+      cookie: srv.cookies.admin,
     });
     expect(res.status).toBe(204);
     expect(await srv.mail.sender.drain()).toContainEqual({ id: uncertain.id, result: 'sent' });
@@ -356,7 +338,7 @@ describe('undelivered mail', () => {
     expect(
       (
         await srv.call('POST', `/api/v1/mail/undelivered/${uncertain.id}/resend`, {
-          cookie: admin,
+          cookie: srv.cookies.admin,
         })
       ).status,
     ).toBe(409);

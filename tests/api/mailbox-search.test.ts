@@ -2,32 +2,21 @@
  * The admin's mailbox searches recipient and subject (through the real outbox sender and the
  * local SMTP fake) and answers subjects whole.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { enqueueMail } from '../../apps/server/src/features/mail/outbox-repository.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { testServerForFile } from '../support/api-suite.ts';
+import { queueMail } from '../support/mail-inbox.ts';
 
-let srv: TestServer;
+const srv = testServerForFile();
 const LONG =
   '[Turnstone] Escalated to danger: Intake pump P-101 MFP-P101-MDE-H — Bearing outer race (BPFO), envelope 0.62 g';
 beforeAll(async () => {
-  srv = await startTestServer();
   for (const [to, subject] of [
     ['night.shift@plant.test', LONG],
     ['planner@plant.test', '[Turnstone] Weekly review: 3 machines need a look'],
     ['100%_sure@plant.test', 'Percent test'],
   ] as const)
-    await enqueueMail(srv.ctx.db, {
-      kind: 'test',
-      dedupeKey: `search:${to}`,
-      to,
-      subject,
-      text: 'body',
-      html: '<p>body</p>',
-    });
+    await queueMail(srv, { dedupeKey: `search:${to}`, to, subject });
   await srv.mail.sender.drain();
-});
-afterAll(async () => {
-  await srv?.stop();
 });
 
 const search = async (q: string) => {

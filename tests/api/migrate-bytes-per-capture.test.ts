@@ -7,23 +7,16 @@
  * JSON columns are stored compressed; the review's covering index of band values, which
  * band_day_sums replaced, is gone, and every band value is still there.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import mysql, { type Pool, type RowDataPacket } from 'mysql2/promise';
+import { describe, expect, it } from 'vitest';
+import type { RowDataPacket } from 'mysql2/promise';
 import { drizzle } from 'drizzle-orm/mysql2';
 import { migrate } from 'drizzle-orm/mysql2/migrator';
 import { decodeSpectra, encodeSpectra } from '@turnstone/db/spectra-codec';
-import { start } from '../../apps/server/src/server.ts';
 import {
   readStoredDetail,
   readStoredSummary,
 } from '../../apps/server/src/features/points/stored-summary.ts';
-import { freshDatabase } from '../support/test-server.ts';
-import { migrationsUpTo } from '../support/old-migrations.ts';
-
-const tmp = () => process.env.TURNSTONE_TEST_TMP ?? tmpdir();
+import { databaseForBlock, migrationsUpTo, upgradeByStarting } from '../support/old-migrations.ts';
 
 // A summary as analyses stored it before the split (shape of stored-summary.ts then).
 const kept = {
@@ -51,20 +44,12 @@ const detail = {
 };
 
 describe('migration 0021: bytes per capture', () => {
-  let url: string;
-  let pool: Pool;
+  const db = databaseForBlock();
   const q = async (text: string, params: unknown[] = []) =>
-    (await pool.query<RowDataPacket[]>(text, params))[0];
-  beforeAll(async () => {
-    url = await freshDatabase();
-    pool = mysql.createPool({ uri: url, connectionLimit: 2, timezone: 'Z' });
-  });
-  afterAll(async () => {
-    await pool?.end();
-  });
+    (await db.pool.query<RowDataPacket[]>(text, params))[0];
 
   it('trims thinned summaries only, compresses the JSON columns, drops the covered index', async () => {
-    await migrate(drizzle(pool), { migrationsFolder: migrationsUpTo('0020_band-value-hours') });
+    await migrate(drizzle(db.pool), { migrationsFolder: migrationsUpTo('0020_band-value-hours') });
     const old = JSON.stringify({ ...kept, ...detail });
     const spectra = encodeSpectra({ acceleration: [0.5, 0.25, 0], velocity: [1, 2, 3] });
     const insert = (id: number, blob: Buffer | null, thinnedAt: string | null) =>
@@ -94,17 +79,7 @@ describe('migration 0021: bytes per capture', () => {
         [key, i + 0.5, key, i + 1.5],
       );
 
-    const srv = await start({
-      DATABASE_URL: url,
-      DATA_DIR: mkdtempSync(join(tmp(), 'bytes-upgrade-')),
-      PORT: '0',
-      HOST: '127.0.0.1',
-      BUILD_WEB: 'false',
-      LOG_LEVEL: 'silent',
-      RUN_WORKER: 'false',
-      SEED_DEMO: 'false',
-    });
-    await srv.stop();
+    await upgradeByStarting(db.url, 'bytes-upgrade-');
 
     const rows = await q('SELECT id, summary, spectra, diagnosis, shaft_vectors FROM analyses');
     const byId = new Map(rows.map((r) => [Number(r.id), r]));

@@ -4,17 +4,16 @@
  * destructive), migrates, and every row keeps every value it had. A database newer than
  * the code is refused with a clear message and left untouched.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, readdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import mysql, { type Pool, type RowDataPacket } from 'mysql2/promise';
+import type { Pool, RowDataPacket } from 'mysql2/promise';
 import { drizzle } from 'drizzle-orm/mysql2';
 import { migrate } from 'drizzle-orm/mysql2/migrator';
 import { codeMigrations, OLDEST_SUPPORTED } from '@turnstone/db/migrate';
-import { start } from '../../apps/server/src/server.ts';
-import { freshDatabase } from '../support/test-server.ts';
-import { migrationsUpTo } from '../support/old-migrations.ts';
+import { startQuietServer } from '../support/test-server.ts';
+import { databaseForBlock, migrationsUpTo, upgradeByStarting } from '../support/old-migrations.ts';
 
 const ROWS = 25;
 const tmp = () => process.env.TURNSTONE_TEST_TMP ?? tmpdir();
@@ -89,17 +88,10 @@ async function snapshotRows(
 }
 
 describe('upgrading a database made by the oldest supported migration set', () => {
-  let url: string;
-  let pool: Pool;
-  beforeAll(async () => {
-    url = await freshDatabase();
-    pool = mysql.createPool({ uri: url, connectionLimit: 2, timezone: 'Z' });
-  });
-  afterAll(async () => {
-    await pool?.end();
-  });
+  const db = databaseForBlock();
 
   it('backs up first, migrates, and every row keeps every value', async () => {
+    const { pool } = db;
     // The database as the oldest supported Turnstone left it.
     const old = drizzle(pool);
     await migrate(old, { migrationsFolder: migrationsUpTo(OLDEST_SUPPORTED) });
@@ -125,18 +117,7 @@ describe('upgrading a database made by the oldest supported migration set', () =
 
     const pending = codeMigrations().filter((m) => m.tag > OLDEST_SUPPORTED);
     expect(pending.some((m) => m.destructive.length > 0)).toBe(true);
-    const dataDir = mkdtempSync(join(tmp(), 'upgrade-'));
-    const srv = await start({
-      DATABASE_URL: url,
-      DATA_DIR: dataDir,
-      PORT: '0',
-      HOST: '127.0.0.1',
-      BUILD_WEB: 'false',
-      LOG_LEVEL: 'silent',
-      RUN_WORKER: 'false',
-      SEED_DEMO: 'false',
-    });
-    await srv.stop();
+    const dataDir = await upgradeByStarting(db.url, 'upgrade-');
 
     // The backup taken before the destructive migration holds the old database.
     const backups = readdirSync(join(dataDir, 'backups'));
@@ -186,6 +167,7 @@ describe('upgrading a database made by the oldest supported migration set', () =
   }, 120_000);
 
   it('refuses to start on a database a newer Turnstone has migrated, and changes nothing', async () => {
+    const { pool } = db;
     const last = codeMigrations().at(-1)!;
     await pool.query('INSERT INTO __drizzle_migrations (hash, created_at) VALUES (?, ?)', [
       'a-migration-from-the-future',
@@ -194,15 +176,7 @@ describe('upgrading a database made by the oldest supported migration set', () =
     const schema = await tables(pool);
     const before = await snapshotRows(pool, schema);
     await expect(
-      start({
-        DATABASE_URL: url,
-        DATA_DIR: mkdtempSync(join(tmp(), 'newer-')),
-        PORT: '0',
-        BUILD_WEB: 'false',
-        LOG_LEVEL: 'silent',
-        RUN_WORKER: 'false',
-        SEED_DEMO: 'false',
-      }),
+      startQuietServer(db.url, mkdtempSync(join(tmp(), 'newer-')), { SEED_DEMO: 'false' }),
     ).rejects.toThrow(/newer Turnstone has upgraded it/);
     expect(await snapshotRows(pool, schema)).toEqual(before);
   }, 60_000);

@@ -8,7 +8,7 @@
  *
  * Month arithmetic is calendar arithmetic in UTC (common practice, no source).
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import {
   dropExpiredPartitions,
@@ -18,12 +18,10 @@ import {
 } from '../../apps/server/src/features/worker/partitions.ts';
 import { storeSnapshot } from '../../apps/server/src/features/ingest/ingest-service.ts';
 import { deletePoints } from '../../apps/server/src/features/setup/setup-repository.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { testServerForFile } from '../support/api-suite.ts';
 import { snapshotBody } from '../support/signals.ts';
 
-let srv: TestServer;
-let key: string;
-let cookie: string;
+const srv = testServerForFile({ signIn: ['admin'], gateway: true });
 const TABLES = ['snapshots', 'analyses', 'band_values'];
 /** Captures of long ago (before any demo limit change, alert or finding). */
 const OLD = ['2024-03-04T10:00:00.000Z', '2024-03-04T10:10:00.000Z', '2024-03-05T09:00:00.000Z'];
@@ -64,7 +62,7 @@ async function captures(tag: string, times: string[], uidPrefix: string): Promis
         fullScaleV: 0.1,
         seed: i,
       }),
-      headers: { authorization: `Bearer ${key}` },
+      headers: { authorization: `Bearer ${srv.key}` },
     });
     expect(res.status).toBe(201);
     ids.push((await res.json()).snapshotId as number);
@@ -86,18 +84,8 @@ async function rowsOfSnapshots(ids: number[]) {
   return Object.fromEntries(Object.entries(counts!).map(([k, v]) => [k, Number(v)]));
 }
 
-beforeAll(async () => {
-  srv = await startTestServer();
-  cookie = await srv.signIn('admin');
-  key = (
-    await (
-      await srv.call('POST', '/api/v1/gateways', { cookie, body: { siteId: 1, name: 'gw' } })
-    ).json()
-  ).apiKey;
-});
-afterAll(async () => {
-  await srv?.stop();
-});
+/** What rowsOfSnapshots finds once the captures are gone with everything of theirs. */
+const NOTHING_LEFT = { snapshots: 0, uids: 0, jobs: 0, analyses: 0, bandValues: 0 };
 
 describe('monthly partitions of snapshots, analyses and band_values', () => {
   it('exist after the migrations: p_before, each month to three ahead, p_future; no foreign keys', async () => {
@@ -165,7 +153,7 @@ describe('monthly partitions of snapshots, analyses and band_values', () => {
     const thisMonth = monthName(new Date());
     const [pinned] = await q('SELECT id FROM analyses WHERE snapshot_id = ?', [ids[1]]);
     const pin = await srv.call('PUT', `/api/v1/analyses/${pinned!.id}/pin`, {
-      cookie,
+      cookie: srv.cookies.admin,
       body: { note: 'first bearing signs' },
     });
     expect(pin.status).toBeLessThan(300);
@@ -181,17 +169,13 @@ describe('monthly partitions of snapshots, analyses and band_values', () => {
       );
     expect(await hours()).toEqual(['2024-03-04T10:00:00.000Z', '2024-03-05T09:00:00.000Z']);
 
-    const unpin = await srv.call('DELETE', `/api/v1/analyses/${pinned!.id}/pin`, { cookie });
+    const unpin = await srv.call('DELETE', `/api/v1/analyses/${pinned!.id}/pin`, {
+      cookie: srv.cookies.admin,
+    });
     expect(unpin.status).toBeLessThan(300);
     expect(await dropExpiredPartitions(srv.ctx.db, 1, 60, now)).toEqual(['p_before']);
     expect(await hours()).toEqual([]);
-    expect(await rowsOfSnapshots(ids)).toEqual({
-      snapshots: 0,
-      uids: 0,
-      jobs: 0,
-      analyses: 0,
-      bandValues: 0,
-    });
+    expect(await rowsOfSnapshots(ids)).toEqual(NOTHING_LEFT);
     for (const table of TABLES) {
       const names = (await partitions(table)).map((p) => p.name);
       expect(names).not.toContain('p_before');
@@ -252,13 +236,7 @@ describe('what the foreign keys did, the product does', () => {
     expect((await rowsOfSnapshots(ids)).snapshots).toBe(1);
     // …one that commits leaves nothing of the point behind.
     await srv.ctx.db.transaction((tx) => deletePoints(tx, [Number(pt!.id)]));
-    expect(await rowsOfSnapshots(ids)).toEqual({
-      snapshots: 0,
-      uids: 0,
-      jobs: 0,
-      analyses: 0,
-      bandValues: 0,
-    });
+    expect(await rowsOfSnapshots(ids)).toEqual(NOTHING_LEFT);
     expect(await q('SELECT * FROM capture_pins WHERE analysis_id = ?', [a!.id])).toEqual([]);
     expect(await q('SELECT id FROM points WHERE id = ?', [pt!.id])).toEqual([]);
   });

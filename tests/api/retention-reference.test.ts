@@ -10,13 +10,10 @@
  * ±60 min windows. Small batches and scan spans make every batch boundary fall somewhere.
  * (A file of its own: retention-thinning.test.ts is at the 400-line limit's edge.)
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import {
-  expireRawSamplesPass,
-  thinSpectra,
-} from '../../apps/server/src/features/worker/retention.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { NOW, pointIdOf, POLICY } from '../support/analysed-captures.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { lcg32 } from '@turnstone/dsp/seeded-random';
+import { testServerForFile } from '../support/api-suite.ts';
+import { expireAtNow, NOW, pointIdOf, POLICY, thinAtNow } from '../support/analysed-captures.ts';
 import {
   keptSpectra,
   protectedIds,
@@ -24,30 +21,15 @@ import {
   type RefMarkers,
 } from '../support/retention-reference.ts';
 
-let srv: TestServer;
-beforeAll(async () => {
-  srv = await startTestServer();
-});
-afterAll(async () => {
-  await srv?.stop();
-});
+const srv = testServerForFile();
 
 const MIN = 60_000;
 const HOUR = 60 * MIN;
 const DAY = 24 * HOUR;
 const t = (iso: string) => new Date(iso).getTime();
 
-/** A small deterministic generator (common practice, no source: a 32-bit LCG). */
-function lcg(seed: number) {
-  let s = seed >>> 0;
-  return () => {
-    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-    return s / 2 ** 32;
-  };
-}
-
 describe('thinning against the policy written out in JavaScript', () => {
-  const rnd = lcg(18);
+  const rnd = lcg32(18); // the Numerical Recipes 32-bit LCG: deterministic captures
   let A: number;
   let B: number;
   /** Capture times per point, in the order they are stored (ids ascending). */
@@ -55,6 +37,14 @@ describe('thinning against the policy written out in JavaScript', () => {
   let captures: RefCapture[];
   let markers: RefMarkers;
   const samplesLeft = new Map<number, boolean>();
+  /** Whether each analysis of the two points still has its snapshot's waveform. */
+  const samplesHeld = async () =>
+    (await srv.q(
+      `SELECT a.id, s.samples IS NOT NULL AS has FROM analyses a
+         JOIN snapshots s ON s.id = a.snapshot_id AND s.taken_at = a.taken_at
+        WHERE a.point_id IN (?, ?)`,
+      [A, B],
+    )) as { id: number; has: number }[];
 
   // Awkward instants (NOW is 2026-10-01 12:00; whole tier from 09-17 12:00; hourly tier from
   // 07-03 00:00, 90 days back moved to midnight; daily before).
@@ -297,7 +287,7 @@ describe('thinning against the policy written out in JavaScript', () => {
     expect(expected.size).toBeLessThan((captures.length * 4) / 5);
     expect(expected.has(tieHigh!.id)).toBe(false);
 
-    const pass = await thinSpectra(srv.ctx.db, POLICY, NOW, { batchSize: 7, scanSpan: 40 });
+    const pass = await thinAtNow(srv, { batchSize: 7, scanSpan: 40 });
     expect(pass.rows).toBe(captures.length - expected.size);
     const rows = (await srv.q(
       `SELECT id, spectra IS NOT NULL AS whole, spectra_thinned_at FROM analyses
@@ -314,12 +304,7 @@ describe('thinning against the policy written out in JavaScript', () => {
     expect(wrong([...expected].filter((id) => !kept.includes(id)))).toEqual([]);
     for (const r of rows) expect(r.spectra_thinned_at === null).toBe(expected.has(Number(r.id)));
     // Thinned captures lost their waveforms too.
-    const snaps = (await srv.q(
-      `SELECT a.id, s.samples IS NOT NULL AS has FROM analyses a
-         JOIN snapshots s ON s.id = a.snapshot_id AND s.taken_at = a.taken_at
-        WHERE a.point_id IN (?, ?)`,
-      [A, B],
-    )) as { id: number; has: number }[];
+    const snaps = await samplesHeld();
     for (const s of snaps) {
       expect([s.id, Number(s.has)]).toEqual([s.id, expected.has(Number(s.id)) ? 1 : 0]);
       samplesLeft.set(Number(s.id), Number(s.has) === 1);
@@ -327,25 +312,20 @@ describe('thinning against the policy written out in JavaScript', () => {
   });
 
   it('a second pass, in one large batch, finds nothing left to thin', async () => {
-    const again = await thinSpectra(srv.ctx.db, POLICY, NOW, { batchSize: 10_000 });
+    const again = await thinAtNow(srv, { batchSize: 10_000 });
     expect(again).toEqual({ rows: 0, batches: 0 });
   });
 
   it('raw-waveform expiry keeps the protected captures and the young ones', async () => {
     const days = 20;
-    await expireRawSamplesPass(srv.ctx.db, days, NOW, {
+    await expireAtNow(srv, days, {
       batchSize: 5,
       scanSpan: 30,
       keepWindowMinutes: 60,
     });
     const shielded = protectedIds(captures, markers, 60);
     const young = NOW.getTime() - days * DAY;
-    const snaps = (await srv.q(
-      `SELECT a.id, s.samples IS NOT NULL AS has FROM analyses a
-         JOIN snapshots s ON s.id = a.snapshot_id AND s.taken_at = a.taken_at
-        WHERE a.point_id IN (?, ?)`,
-      [A, B],
-    )) as { id: number; has: number }[];
+    const snaps = await samplesHeld();
     let spared = 0;
     for (const s of snaps) {
       const c = captures.find((x) => x.id === Number(s.id))!;

@@ -8,20 +8,10 @@
  * definition, capture by capture.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import {
-  expireRawSamplesPass,
-  thinSpectra,
-} from '../../apps/server/src/features/worker/retention.ts';
-import { testServerForFile } from '../support/api-suite.ts';
-import {
-  analysedCaptures,
-  NOW,
-  pointIdOf,
-  POLICY,
-  spectraWhole,
-} from '../support/analysed-captures.ts';
+import { NOW, retentionServerForFile } from '../support/analysed-captures.ts';
 
-const srv = testServerForFile({ signIn: ['admin'], gateway: true });
+const retention = retentionServerForFile();
+const srv = retention.srv;
 const TAG = 'MFP-P102-MDE-H';
 
 describe('tiered thinning', () => {
@@ -81,8 +71,8 @@ describe('tiered thinning', () => {
     );
 
   beforeAll(async () => {
-    pointId = await pointIdOf(srv, TAG);
-    ids = await analysedCaptures(srv, srv.key, TAG, Object.values(T));
+    pointId = await retention.pointId(TAG);
+    ids = await retention.captures(TAG, Object.values(T));
     const [snap] = await srv.q('SELECT snapshot_id FROM analyses WHERE id = ?', [id('up')]);
     await srv.q("UPDATE snapshots SET source = 'upload', gateway_id = NULL WHERE id = ?", [
       snap!.snapshot_id,
@@ -137,13 +127,13 @@ describe('tiered thinning', () => {
       );
       before.set(id(l), { v: Number(a!.v), bands: Number(a!.bands) });
     }
-    const pass = await thinSpectra(srv.ctx.db, POLICY, NOW, { batchSize: 3 });
+    const pass = await retention.thin({ batchSize: 3 });
     expect(pass.rows).toBe(thin.length);
   });
 
   it('keeps exactly the tier keepers and the protected captures whole', async () => {
     const kept = [];
-    for (const l of [...keep, ...thin]) if (await spectraWhole(srv, id(l))) kept.push(l);
+    for (const l of [...keep, ...thin]) if (await retention.spectraWhole(id(l))) kept.push(l);
     expect(kept.sort()).toEqual([...keep].sort());
     for (const l of thin) {
       const [r] = await srv.q(
@@ -177,7 +167,7 @@ describe('tiered thinning', () => {
       'UPDATE snapshots s JOIN analyses a ON a.snapshot_id = s.id SET s.received_at = a.taken_at WHERE a.point_id = ?',
       [pointId],
     );
-    await expireRawSamplesPass(srv.ctx.db, 20, NOW, { batchSize: 4, keepWindowMinutes: 60 });
+    await retention.expire(20, { batchSize: 4, keepWindowMinutes: 60 });
     const spared: Label[] = ['w1', 'w2', 'f2', 'up', 'al', 'qn', 'l2', 'pn'];
     const expired: Label[] = ['h1', 'h4', 'f0', 'b1', 'b2', 'd1', 'e1', 'l1', 'p1'];
     for (const l of spared) expect([l, await hasSamples(l)]).toEqual([l, 1]);

@@ -5,22 +5,12 @@
  * capture: retention-thinning.test.ts. The defaults are common practice, no source.
  */
 import { describe, expect, it } from 'vitest';
-import {
-  expireRawSamplesPass,
-  retentionPolicy,
-  thinSpectra,
-} from '../../apps/server/src/features/worker/retention.ts';
+import { retentionPolicy } from '../../apps/server/src/features/worker/retention.ts';
 import { loadConfig } from '../../apps/server/src/config.ts';
-import { testServerForFile } from '../support/api-suite.ts';
-import {
-  analysedCaptures,
-  NOW,
-  pointIdOf,
-  POLICY,
-  spectraWhole,
-} from '../support/analysed-captures.ts';
+import { NOW, retentionServerForFile } from '../support/analysed-captures.ts';
 
-const srv = testServerForFile({ signIn: ['admin'], gateway: true });
+const retention = retentionServerForFile();
+const srv = retention.srv;
 const TAG_BATCH = 'MFP-P102-MDE-V';
 /** The policy's defaults: common practice, no source. */
 const DEFAULTS = {
@@ -66,20 +56,20 @@ describe('bounded batches', () => {
     const day = ['01:00', '03:00', '05:00', '07:00', '09:00', '11:00'].map(
       (h) => `2026-03-15T${h}:00.000Z`,
     );
-    const ids = await analysedCaptures(srv, srv.key, TAG_BATCH, day);
-    const pass = await thinSpectra(srv.ctx.db, POLICY, NOW, { batchSize: 2 });
+    const ids = await retention.captures(TAG_BATCH, day);
+    const pass = await retention.thin({ batchSize: 2 });
     expect(pass).toEqual({ rows: 5, batches: 3 });
-    expect(await spectraWhole(srv, ids.get(day[0]!)!)).toBe(true);
-    for (const t of day.slice(1)) expect(await spectraWhole(srv, ids.get(t)!)).toBe(false);
+    expect(await retention.spectraWhole(ids.get(day[0]!)!)).toBe(true);
+    for (const t of day.slice(1)) expect(await retention.spectraWhole(ids.get(t)!)).toBe(false);
     // A second pass finds nothing left to do.
-    expect(await thinSpectra(srv.ctx.db, POLICY, NOW, { batchSize: 2 })).toEqual({
+    expect(await retention.thin({ batchSize: 2 })).toEqual({
       rows: 0,
       batches: 0,
     });
   });
 
   it('raw-sample expiry runs in bounded batches too', async () => {
-    const pointId = await pointIdOf(srv, TAG_BATCH);
+    const pointId = await retention.pointId(TAG_BATCH);
     // The thinning pass above dropped the waveforms of the five captures it thinned.
     const [gone] = await srv.q(
       'SELECT COUNT(*) AS n FROM snapshots WHERE point_id = ? AND samples IS NULL',
@@ -95,9 +85,7 @@ describe('bounded batches', () => {
     );
     await srv.q('DELETE FROM alerts WHERE point_id = ?', [pointId]);
     await srv.q('DELETE FROM quality_notices WHERE point_id = ?', [pointId]);
-    await analysedCaptures(
-      srv,
-      srv.key,
+    await retention.captures(
       TAG_BATCH,
       ['01:00', '02:00', '03:00', '04:00', '05:00'].map((h) => `2026-09-28T${h}:00.000Z`),
     );
@@ -105,7 +93,7 @@ describe('bounded batches', () => {
       'UPDATE snapshots SET received_at = ? - INTERVAL 100 DAY WHERE point_id = ? AND samples IS NOT NULL',
       [NOW, pointId],
     );
-    const pass = await expireRawSamplesPass(srv.ctx.db, 90, NOW, { batchSize: 4 });
+    const pass = await retention.expire(90, { batchSize: 4 });
     // Six snapshots (the day's kept one and the five new) in batches of at most 4: 4 + 2.
     expect(pass).toEqual({ rows: 6, batches: 2 });
     const [r] = await srv.q(

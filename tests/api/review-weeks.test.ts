@@ -8,14 +8,12 @@
  * each capture falls in is decided by Python's zoneinfo (the IANA tz database) run live.
  */
 import { execFileSync } from 'node:child_process';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { testServerForFile } from '../support/api-suite.ts';
 import { snapshotBody } from '../support/signals.ts';
 
-let srv: TestServer;
-let key: string;
-let planner: string;
+const srv = testServerForFile({ signIn: ['planner'], gateway: 2 });
 const WEEK_ENDING = '2026-10-25';
 const RPM = 1485;
 const HZ = RPM / 60;
@@ -50,7 +48,7 @@ async function ingest(tag: string, uid: string, at: string, vRms: number, extra 
       ...SENSOR,
       ...extra,
     }),
-    headers: { authorization: `Bearer ${key}` },
+    headers: { authorization: `Bearer ${srv.key}` },
   });
   expect(res.status, await res.clone().text()).toBe(201);
 }
@@ -62,13 +60,6 @@ function python(code: string): string {
 }
 
 beforeAll(async () => {
-  srv = await startTestServer();
-  const admin = await srv.signIn('admin');
-  key = (
-    await (
-      await srv.call('POST', '/api/v1/gateways', { cookie: admin, body: { siteId: 2, name: 'gw' } })
-    ).json()
-  ).apiKey;
   const tags = (
     await srv.q(
       `SELECT p.tag FROM points p JOIN machines m ON m.id = p.machine_id JOIN areas a ON a.id = m.area_id
@@ -90,15 +81,11 @@ beforeAll(async () => {
   for (const at of ['2026-10-21T12:00:00Z', '2026-10-22T12:00:00Z'])
     await ingest(sparse, `p-${n++}`, at, 2.0);
   await createWorker(srv.ctx).drain();
-  planner = await srv.signIn('planner');
 }, 180_000);
-afterAll(async () => {
-  await srv?.stop();
-});
 
 async function review(query = '') {
   const res = await srv.call('GET', `/api/v1/review?weekEnding=${WEEK_ENDING}&siteId=2${query}`, {
-    cookie: planner,
+    cookie: srv.cookies.planner,
   });
   expect(res.status).toBe(200);
   return res.json();
@@ -232,7 +219,9 @@ describe('quality notices reviewed, and the Data quality status', () => {
   const clip = { sensitivityMvPerG: 1000, fullScaleV: 0.5 }; // 0.8 g peak into 0.5 g: clipped
   async function statusOf(tag: string) {
     const [row] = await srv.q('SELECT machine_id FROM points WHERE tag = ?', [tag]);
-    const res = await srv.call('GET', `/api/v1/machines/${row!.machine_id}`, { cookie: planner });
+    const res = await srv.call('GET', `/api/v1/machines/${row!.machine_id}`, {
+      cookie: srv.cookies.planner,
+    });
     const body = await res.json();
     return body.points.find((p: { tag: string }) => p.tag === tag).status as string;
   }
@@ -244,7 +233,7 @@ describe('quality notices reviewed, and the Data quality status', () => {
         speedRpm: RPM,
         ...clip,
       }),
-      headers: { authorization: `Bearer ${key}` },
+      headers: { authorization: `Bearer ${srv.key}` },
     });
     expect(res.status).toBe(201);
   }
@@ -283,7 +272,7 @@ describe('quality notices reviewed, and the Data quality status', () => {
     });
     expect(denied.status).toBe(403);
     const res = await srv.call('POST', '/api/v1/quality-notices/review', {
-      cookie: planner,
+      cookie: srv.cookies.planner,
       body: { pointId: await pid(reviewed) },
     });
     expect(res.status).toBe(200);
@@ -299,14 +288,14 @@ describe('quality notices reviewed, and the Data quality status', () => {
     const reviewedId = await pid(reviewed);
     const notices = async (cookie: string, query = `pointId=${reviewedId}`) =>
       srv.call('GET', `/api/v1/quality-notices?${query}`, { cookie });
-    const listed = await (await notices(planner)).json();
+    const listed = await (await notices(srv.cookies.planner)).json();
     expect(listed.items).toHaveLength(1);
     expect(listed.items[0]).toMatchObject({
       verdict: 'unusable',
       reviewedBy: { name: 'Pat Planner' },
       reviewedAt: out.reviewedAt,
     });
-    expect((await notices(planner, 'pointId=x')).status).toBe(400);
+    expect((await notices(srv.cookies.planner, 'pointId=x')).status).toBe(400);
     // The newest capture is still the clipped (unusable) one, but its notice is reviewed.
     const [v] = await srv.q('SELECT last_verdict FROM points WHERE tag = ?', [reviewed]);
     expect(v!.last_verdict).toBe('unusable');
@@ -317,23 +306,23 @@ describe('quality notices reviewed, and the Data quality status', () => {
     expect(await statusOf(reviewed)).toBe('quality');
     // Reviewing again marks the new notice, then nothing more; a bad body is refused.
     const again = await srv.call('POST', '/api/v1/quality-notices/review', {
-      cookie: planner,
+      cookie: srv.cookies.planner,
       body: { pointId: await pid(reviewed) },
     });
     expect((await again.json()).reviewed).toBe(1); // the new notice only
-    const both = (await (await notices(planner)).json()).items;
+    const both = (await (await notices(srv.cookies.planner)).json()).items;
     expect(both).toHaveLength(2);
     // Newest capture first; each keeps its own reviewer and time.
     expect(Date.parse(both[0].takenAt)).toBeGreaterThan(Date.parse(both[1].takenAt));
     expect(both[1].reviewedAt).toBe(out.reviewedAt);
     expect(both[0].reviewedBy).toMatchObject({ name: 'Pat Planner' });
     const none = await srv.call('POST', '/api/v1/quality-notices/review', {
-      cookie: planner,
+      cookie: srv.cookies.planner,
       body: { pointId: await pid(reviewed) },
     });
     expect((await none.json()).reviewed).toBe(0);
     const bad = await srv.call('POST', '/api/v1/quality-notices/review', {
-      cookie: planner,
+      cookie: srv.cookies.planner,
       body: { pointId: 'x' },
     });
     expect(bad.status).toBe(400);
@@ -342,11 +331,11 @@ describe('quality notices reviewed, and the Data quality status', () => {
   it('the review lists the findings created in the site’s current week', async () => {
     const f = await (
       await srv.call('POST', '/api/v1/findings', {
-        cookie: planner,
+        cookie: srv.cookies.planner,
         body: { pointId: await pid(rising), title: 'Check P-120 motor DE after the rise' },
       })
     ).json();
-    const res = await srv.call('GET', '/api/v1/review?siteId=2', { cookie: planner });
+    const res = await srv.call('GET', '/api/v1/review?siteId=2', { cookie: srv.cookies.planner });
     const body = await res.json();
     expect(body.findingsCreated.map((x: { id: number }) => x.id)).toContain(f.id);
     const old = await review();

@@ -5,11 +5,10 @@
  * instrument's recording), with their value in the trend.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { writeWav } from '@turnstone/dsp';
 import { trendResponseSchema } from '@turnstone/contracts/trend';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { testServerForFile } from '../support/api-suite.ts';
-import { toneCounts } from '../support/signals.ts';
+import { routeRecordingForm } from '../support/signals.ts';
 import { acknowledgeAndOpenFinding, postVelocities } from '../support/alert-captures.ts';
 
 const srv = testServerForFile({ signIn: ['engineer', 'planner'], gateway: true });
@@ -101,24 +100,14 @@ describe('trend events', () => {
   it('a capture uploaded from a file is marked with who uploaded it, the file and its value', async () => {
     // 0.5 g peak at 100 Hz: velocity peak a/(2πf) = 0.5·9806.65/(2π·100) = 7.804 mm/s, RMS
     // 7.804/√2 = 5.518 mm/s (calculus of a sinusoid, textbook); ISO band 10–1000 Hz holds it.
-    const counts = toneCounts({
-      n: 8192,
-      fs: 10240,
+    const takenAt = new Date(t0 + 2.5 * HOUR).toISOString();
+    const form = routeRecordingForm({
       tones: [{ hz: 100, peakG: 0.5 }],
-      noiseG: 0.001,
       seed: 7,
+      speedRpm: 1480,
+      takenAt,
+      fileName: 'route-p101-de.wav',
     });
-    const form = new FormData();
-    const fields = {
-      sensitivityMvPerG: '100',
-      fullScaleV: '5',
-      bits: '16',
-      speedRpm: '1480',
-      takenAt: new Date(t0 + 2.5 * HOUR).toISOString(),
-    };
-    for (const [k, v] of Object.entries(fields)) form.append(k, v);
-    const wav = writeWav(counts, 10240, 'int16');
-    form.append('file', new Blob([wav as Uint8Array<ArrayBuffer>]), 'route-p101-de.wav');
     const res = await srv.call('POST', `/api/v1/points/${pointId}/uploads`, {
       cookie: srv.cookies.engineer,
       raw: form,
@@ -129,7 +118,7 @@ describe('trend events', () => {
     const body = await trend('overall-velocity');
     expect(body.uploads).toHaveLength(1);
     const u = body.uploads[0]!;
-    expect(u).toMatchObject({ t: fields.takenAt, fileName: 'route-p101-de.wav', q: 'ok' });
+    expect(u).toMatchObject({ t: takenAt, fileName: 'route-p101-de.wav', q: 'ok' });
     expect(u.by).toMatch(/\S/);
     expect(u.v).toBeGreaterThan(5.518 * 0.97);
     expect(u.v).toBeLessThan(5.518 * 1.03);

@@ -7,11 +7,12 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { startLocalMariadb, type LocalMariadb } from '@turnstone/db/local-server';
-import { start } from '../../apps/server/src/server.ts';
+import type { RunningServer } from '../../apps/server/src/server.ts';
+import { startQuietServer } from '../support/test-server.ts';
 
 export interface BenchServer {
   db: LocalMariadb;
-  srv: Awaited<ReturnType<typeof start>>;
+  srv: RunningServer;
   /** Stops the server and MariaDB and removes their folder. */
   stop(): Promise<void>;
 }
@@ -26,14 +27,8 @@ export async function startBenchServer(
 ): Promise<BenchServer> {
   const dir = mkdtempSync(join(tmpdir(), `turnstone-${name}-`));
   const db = await startLocalMariadb({ dataDir: dir, database: 'bench' });
-  const srv = await start({
-    DATABASE_URL: db.url,
-    DATA_DIR: dir,
-    PORT: '0',
-    BUILD_WEB: 'false',
+  const srv = await startQuietServer(db.url, dir, {
     LOG_LEVEL: 'error',
-    RUN_WORKER: 'false',
-    DEMO_HISTORY_WEEKS: '0',
     INGEST_MAX_PER_MIN: '10000000',
     ...env,
   });
@@ -46,6 +41,16 @@ export async function startBenchServer(
       rmSync(dir, { recursive: true, force: true });
     },
   };
+}
+
+/** A bench server (as startBenchServer) with a gateway of site 1 the administrator made: its key. */
+export async function startBenchServerWithGateway(
+  name: string,
+  env: Record<string, string> = {},
+): Promise<BenchServer & { key: string }> {
+  const bench = await startBenchServer(name, env);
+  const admin = await signInCookie(bench.srv.url, 'admin@turnstone.local');
+  return { ...bench, key: await createGatewayKey(bench.srv.url, admin, 1, name) };
 }
 
 export async function signInCookie(

@@ -10,13 +10,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import mysql from 'mysql2/promise';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import {
-  createGatewayKey,
-  measureWorker,
-  runLoad,
-  signInCookie,
-  startBenchServer,
-} from './bench-support.ts';
+import { measureWorker, runLoad, startBenchServerWithGateway } from './bench-support.ts';
 
 const COUNT = Number(process.env.BENCH_INGEST_COUNT ?? 6000);
 const CONCURRENCY = Number(process.env.BENCH_INGEST_CONCURRENCY ?? 32);
@@ -24,12 +18,10 @@ const WORKER_COUNT = Number(process.env.BENCH_WORKER_COUNT ?? 600);
 /** The extra row: gateways that buffer post { snapshots: [...] } of BATCH per request. */
 const BATCH = Number(process.env.BENCH_INGEST_BATCH ?? 10);
 const BATCH_CONCURRENCY = Number(process.env.BENCH_INGEST_BATCH_CONCURRENCY ?? 8);
-const bench = await startBenchServer('bench');
-const { db, srv } = bench;
+const bench = await startBenchServerWithGateway('bench');
+const { db, srv, key: apiKey } = bench;
 const pool = srv.ctx.dbHandle.pool;
 try {
-  const cookie = await signInCookie(srv.url, 'admin@turnstone.local');
-  const apiKey = await createGatewayKey(srv.url, cookie, 1, 'bench');
   const load = (prefix: string, count: number, samples: number, batch?: number) =>
     runLoad({
       url: srv.url,

@@ -68,6 +68,14 @@ function screens(ids: { machineId: number; pointId: number; tag: string }): Scre
     link,
   });
   const fromAlerts = { path: '/alerts', target: tableRow, link: nav('Fleet') };
+  /** A list screen (its first table row is the target), reached from the fleet by its menu link. */
+  const listFromFleet = (name: string, role: string, path: string, link: string): Screen => ({
+    name,
+    role,
+    path,
+    target: tableRow,
+    from: fromFleet(nav(link)),
+  });
   const point = `/points/${ids.pointId}`;
   const trendChart: Target = {
     css: 'main [role="img"][aria-label^="Trend of"] canvas',
@@ -75,13 +83,7 @@ function screens(ids: { machineId: number; pointId: number; tag: string }): Scre
   };
   return [
     { name: 'fleet', role: 'engineer', path: '/fleet', target: fleetRow, from: fromAlerts },
-    {
-      name: 'alerts',
-      role: 'engineer',
-      path: '/alerts',
-      target: tableRow,
-      from: fromFleet(nav('Alerts')),
-    },
+    listFromFleet('alerts', 'engineer', '/alerts', 'Alerts'),
     {
       name: 'machine',
       role: 'engineer',
@@ -119,20 +121,8 @@ function screens(ids: { machineId: number; pointId: number; tag: string }): Scre
       from: fromFleet(nav('Review')),
     },
     { name: 'fleet', role: 'operator', path: '/fleet', target: fleetRow, from: fromAlerts },
-    {
-      name: 'alerts',
-      role: 'operator',
-      path: '/alerts',
-      target: tableRow,
-      from: fromFleet(nav('Alerts')),
-    },
-    {
-      name: 'users',
-      role: 'admin',
-      path: '/users',
-      target: tableRow,
-      from: fromFleet(nav('Users')),
-    },
+    listFromFleet('alerts', 'operator', '/alerts', 'Alerts'),
+    listFromFleet('users', 'admin', '/users', 'Users'),
     {
       name: 'setup',
       role: 'admin',
@@ -140,20 +130,8 @@ function screens(ids: { machineId: number; pointId: number; tag: string }): Scre
       target: { css: 'nav[aria-label="Plant tree"] button' },
       from: fromFleet(nav('Setup')),
     },
-    {
-      name: 'gateways',
-      role: 'admin',
-      path: '/gateways',
-      target: tableRow,
-      from: fromFleet(nav('Gateways')),
-    },
-    {
-      name: 'audit log',
-      role: 'admin',
-      path: '/audit',
-      target: tableRow,
-      from: fromFleet(nav('Audit log')),
-    },
+    listFromFleet('gateways', 'admin', '/gateways', 'Gateways'),
+    listFromFleet('audit log', 'admin', '/audit', 'Audit log'),
   ];
 }
 

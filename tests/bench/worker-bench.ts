@@ -11,21 +11,13 @@ import { Session } from 'node:inspector/promises';
 import { analyzeSnapshot, decodeSamples } from '@turnstone/dsp';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { snapshotBody } from '../support/signals.ts';
-import {
-  createGatewayKey,
-  measureWorker,
-  runLoad,
-  signInCookie,
-  startBenchServer,
-} from './bench-support.ts';
+import { measureWorker, runLoad, startBenchServerWithGateway } from './bench-support.ts';
 
 const COUNT = Number(process.env.BENCH_WORKER_COUNT ?? 600);
 const BATCH = Number(process.env.BENCH_WORKER_BATCH ?? 16);
-const bench = await startBenchServer('bench');
-const { srv } = bench;
+const bench = await startBenchServerWithGateway('bench');
+const { srv, key } = bench;
 try {
-  const cookie = await signInCookie(srv.url, 'admin@turnstone.local');
-  const key = await createGatewayKey(srv.url, cookie, 1, 'bench');
   await srv.ctx.dbHandle.pool.query("UPDATE jobs SET state = 'done' WHERE state = 'queued'");
   await runLoad({ url: srv.url, key, count: COUNT, concurrency: 16, prefix: 'wrk', samples: 8192 });
   const worker = createWorker(srv.ctx, { owner: 'bench', batch: BATCH });

@@ -10,52 +10,32 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { launchBrowser, newPage, OUTPUT_DIR, signInAs } from '../support/browser.ts';
-import { captureVelocities, gatewayKey } from '../support/alert-captures.ts';
+import type { Page } from 'playwright-core';
+import { newPage, OUTPUT_DIR, serverAndBrowserForFile } from '../support/browser.ts';
+import {
+  captureVelocities,
+  dailyBodies,
+  pointOfTag,
+  postAndAnalyse,
+} from '../support/alert-captures.ts';
 import { seriousViolations, type AxeFinding } from '../support/axe.ts';
-import { snapshotBody } from '../support/signals.ts';
 
-let srv: TestServer;
-let browser: Browser;
+const { srv, browser, pageAs } = serverAndBrowserForFile({ gateway: true });
 let pointId: number;
 let machineId: number;
 let alertId: number;
-const DAY = 86_400_000;
 /** rule → number of failing elements, summed over every screen checked. */
 const totals: Record<string, number> = {};
 const perScreen: Record<string, AxeFinding[]> = {};
 
-const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
-
 beforeAll(async () => {
-  srv = await startTestServer();
-  browser = await launchBrowser();
-  const key = await gatewayKey(srv, 1);
-  const now = Date.now();
-  for (let i = 0; i < 21; i++) {
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body: snapshotBody('MFP-P102-MDE-H', `a11y-${i}`, {
-        n: 8192,
-        takenAt: new Date(now - (20 - i) * DAY - 3600_000).toISOString(),
-        tones: [
-          { hz: 24.7, peakG: 0.035 + 0.001 * i },
-          { hz: 212, peakG: 0.05 },
-        ],
-        speedRpm: 1482,
-        seed: i,
-      }),
-      headers: { authorization: `Bearer ${key}` },
-    });
-    expect(res.status).toBe(201);
-  }
-  await createWorker(srv.ctx).drain();
-  await captureVelocities(srv, key, 'MFP-P101-MDE-H', [1.5, 3.5, 3.5]);
-  const [p] = await q("SELECT id, machine_id FROM points WHERE tag = 'MFP-P102-MDE-H'");
-  pointId = Number(p!.id);
-  machineId = Number(p!.machine_id);
+  const bodies = dailyBodies('MFP-P102-MDE-H', 'a11y', 21, (i) => [
+    { hz: 24.7, peakG: 0.035 + 0.001 * i },
+    { hz: 212, peakG: 0.05 },
+  ]);
+  await postAndAnalyse(srv, srv.key, bodies);
+  await captureVelocities(srv, srv.key, 'MFP-P101-MDE-H', [1.5, 3.5, 3.5]);
+  ({ pointId, machineId } = await pointOfTag(srv, 'MFP-P102-MDE-H'));
   const cookie = await srv.signIn('engineer');
   const alerts = await (await srv.call('GET', '/api/v1/alerts', { cookie })).json();
   alertId = Number(alerts.items[0].id);
@@ -67,8 +47,6 @@ afterAll(async () => {
     JSON.stringify({ totals, perScreen }, null, 2) + '\n',
   );
   console.log('axe serious/critical elements per rule:', totals);
-  await browser?.close();
-  await srv?.stop();
 });
 
 /** Lets the page settle (requests done, lazy chunks in), then runs axe and records the result. */
@@ -147,8 +125,7 @@ describe('axe-core on every screen of every role (WCAG 2.0/2.1 A and AA)', () =>
   }, 300_000);
 
   it('operator', async () => {
-    const page = await newPage(browser);
-    await signInAs(page, srv.url, 'operator');
+    const page = await pageAs('operator');
     await visit(page, '/fleet', 'operator fleet');
     await alertScreens(page, 'operator');
     await pointScreens(page, 'operator');
@@ -158,8 +135,7 @@ describe('axe-core on every screen of every role (WCAG 2.0/2.1 A and AA)', () =>
   }, 300_000);
 
   it('maintenance planner', async () => {
-    const page = await newPage(browser);
-    await signInAs(page, srv.url, 'planner');
+    const page = await pageAs('planner');
     await visit(page, '/fleet', 'planner fleet');
     await alertScreens(page, 'planner');
     await visit(page, '/review', 'planner review');
@@ -169,8 +145,7 @@ describe('axe-core on every screen of every role (WCAG 2.0/2.1 A and AA)', () =>
   }, 300_000);
 
   it('reliability engineer', async () => {
-    const page = await newPage(browser);
-    await signInAs(page, srv.url, 'engineer');
+    const page = await pageAs('engineer');
     await visit(page, '/fleet', 'engineer fleet');
     await alertScreens(page, 'engineer');
     await pointScreens(page, 'engineer');
@@ -208,8 +183,7 @@ describe('axe-core on every screen of every role (WCAG 2.0/2.1 A and AA)', () =>
   }, 300_000);
 
   it('administrator', async () => {
-    const page = await newPage(browser);
-    await signInAs(page, srv.url, 'admin');
+    const page = await pageAs('admin');
     await visit(page, '/fleet', 'admin fleet');
     await alertScreens(page, 'admin');
     await visit(page, '/review', 'admin review');

@@ -5,29 +5,20 @@
  * WCAG 1.4.10 reflow: no sideways scroll, nothing cut); and a first page load without a
  * console error.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
-import { captureVelocities, gatewayKey } from '../support/alert-captures.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { newPage, screenshot, serverAndBrowserForFile } from '../support/browser.ts';
+import { captureVelocities } from '../support/alert-captures.ts';
 import { tabUntil } from '../support/keyboard.ts';
 
-let srv: TestServer;
-let browser: Browser;
+const { srv, browser, pageAs } = serverAndBrowserForFile({ gateway: true });
 const TAG = 'MFP-P101-MDE-H';
 
 beforeAll(async () => {
-  srv = await startTestServer();
-  browser = await launchBrowser();
-  const key = await gatewayKey(srv, 1);
   // P-101 (ISO group 2, rigid: template alert 2.8, danger 4.5 mm/s, persistence 2): two
   // captures at 3.5 mm/s raise alerts on overall velocity and the 1× band.
-  await captureVelocities(srv, key, TAG, [1.5, 1.6, 3.5, 3.5]);
+  await captureVelocities(srv, srv.key, TAG, [1.5, 1.6, 3.5, 3.5]);
 }, 120_000);
-afterAll(async () => {
-  await browser?.close();
-  await srv?.stop();
-});
 
 /** What has the focus: tag, its text, its label and the alert id it opens. */
 const focused = (page: Page) =>
@@ -58,8 +49,7 @@ describe('operator on the alerts screen', () => {
   });
 
   it('keyboard only: opens the alert, follows its trend link and back, and acknowledges it in the detail', async () => {
-    const page = await newPage(browser);
-    await signInAs(page, srv.url, 'operator');
+    const page = await pageAs('operator');
     await page.goto(`${srv.url}/alerts`);
     const name = new RegExp(`history of the alert on ${TAG}, Overall`, 'i');
     await page.getByRole('button', { name }).waitFor();
@@ -129,8 +119,7 @@ describe('operator on the alerts screen', () => {
   });
 
   it('on a tablet (820 px) the alerts are cards: no sideways scroll, every level shown', async () => {
-    const page = await newPage(browser, 820, 1180);
-    await signInAs(page, srv.url, 'operator');
+    const page = await pageAs('operator', 820, 1180);
     await page.goto(`${srv.url}/alerts?state=all`);
     const cards = page.getByRole('list', { name: 'Alerts' }).getByRole('listitem');
     await cards.first().waitFor();

@@ -2,21 +2,16 @@
  * The admin reads a limit change in the audit log: the point by its tag and machine (not
  * "point #9") and the changed level as old → new value, with the engineer's reason.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
-import { captureVelocities, gatewayKey } from '../support/alert-captures.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { screenshot, serverAndBrowserForFile } from '../support/browser.ts';
+import { captureVelocities } from '../support/alert-captures.ts';
 
-let srv: TestServer;
-let browser: Browser;
+const { srv, pageAs } = serverAndBrowserForFile({ gateway: true });
 const TAG = 'MFP-P101-MDE-H';
 
 beforeAll(async () => {
-  srv = await startTestServer();
-  browser = await launchBrowser();
   // A first capture makes the point's limit set from its machine-type template (worker).
-  await captureVelocities(srv, await gatewayKey(srv, 1), TAG, [1.5]);
+  await captureVelocities(srv, srv.key, TAG, [1.5]);
   // The engineer raises P-101's overall velocity alert level from the template's 2.8 mm/s
   // (ISO 20816-3 B/C boundary, group 2 rigid, from memory) to 3.1 mm/s.
   const [p] = await srv.q<{ id: number }>('SELECT id FROM points WHERE tag = ?', [TAG]);
@@ -33,15 +28,10 @@ beforeAll(async () => {
   });
   expect(res.status).toBe(200);
 }, 120_000);
-afterAll(async () => {
-  await browser?.close();
-  await srv?.stop();
-});
 
 describe('audit log', () => {
   it('an admin reads a limit change with the point named and the old and new level', async () => {
-    const page = await newPage(browser);
-    await signInAs(page, srv.url, 'admin');
+    const page = await pageAs('admin');
     await page.getByRole('link', { name: 'Audit log' }).first().click();
     const row = page.locator('tr', { hasText: 'limits.update' });
     await row.waitFor();

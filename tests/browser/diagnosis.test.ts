@@ -1,66 +1,41 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { demoChannels } from '@turnstone/demo-scenario/plant-channels';
 import { simulateSnapshot, toIngestItem } from '@turnstone/demo-scenario/simulated-snapshot';
-import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
-import {
-  launchBrowser,
-  newPage,
-  screenshot,
-  signInAs,
-  chartCanvas as chart,
-} from '../support/browser.ts';
+import { screenshot, chartCanvas as chart, serverAndBrowserForFile } from '../support/browser.ts';
+import { pointOfTag, postAndAnalyse } from '../support/alert-captures.ts';
 
 // P-201's developing unbalance from the gateway simulator (with tach pulses): eight captures
 // a day apart over the last part of the story; the last ones carry an unbalance hint and the
 // 1× vector grows.
-let srv: TestServer;
-let browser: Browser;
+const { srv, pageAs } = serverAndBrowserForFile({ gateway: true });
 let pointId: number;
 let machineId: number;
 let alertId: number;
 const TAG = 'MFP-P201-MDE-H';
 const DAY = 86_400_000;
 
-const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
-
 beforeAll(async () => {
-  srv = await startTestServer();
-  browser = await launchBrowser();
-  const [site] = await q("SELECT id FROM sites WHERE code = 'MFP'");
-  const key = await srv.gatewayKey(Number(site!.id));
   const channel = demoChannels('MFP').find((c) => c.tag === TAG)!;
   const now = Date.now();
-  for (let i = 0; i < 8; i++) {
-    const s = simulateSnapshot(channel, new Date(now - (7 - i) * DAY - 3600_000), 0.65 + 0.05 * i, {
-      faults: false,
-    });
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body: toIngestItem(s),
-      headers: { authorization: `Bearer ${key}` },
-    });
-    expect(res.status).toBe(201);
-  }
-  await createWorker(srv.ctx).drain();
-  const [p] = await q('SELECT id, machine_id FROM points WHERE tag = ?', [TAG]);
-  pointId = Number(p!.id);
-  machineId = Number(p!.machine_id);
-  const [a] = await q(
+  const bodies = Array.from({ length: 8 }, (_, i) =>
+    toIngestItem(
+      simulateSnapshot(channel, new Date(now - (7 - i) * DAY - 3600_000), 0.65 + 0.05 * i, {
+        faults: false,
+      }),
+    ),
+  );
+  await postAndAnalyse(srv, srv.key, bodies);
+  ({ pointId, machineId } = await pointOfTag(srv, TAG));
+  const [a] = await srv.q(
     "SELECT id FROM alerts WHERE point_id = ? AND band_key = 'overall-velocity'",
     [pointId],
   );
   alertId = Number(a!.id);
 });
-afterAll(async () => {
-  await browser?.close();
-  await srv?.stop();
-});
 
 describe('diagnosis hints and the 1× vector in a real browser', () => {
   it('the spectrum shows the hints beside the chart and marks the evidence of the chosen one', async () => {
-    const page = await newPage(browser, 1366, 900);
-    await signInAs(page, srv.url, 'planner');
+    const page = await pageAs('planner', 1366, 900);
     await page.goto(`${srv.url}/points/${pointId}`);
     await page.getByRole('tab', { name: 'Spectrum' }).click();
     await chart(page, /^Velocity spectrum/);
@@ -80,8 +55,7 @@ describe('diagnosis hints and the 1× vector in a real browser', () => {
   });
 
   it('the point shows the 1× vector over time and on a polar plot', async () => {
-    const page = await newPage(browser, 1366, 900);
-    await signInAs(page, srv.url, 'engineer');
+    const page = await pageAs('engineer', 1366, 900);
     await page.goto(`${srv.url}/points/${pointId}`);
     await page.getByRole('tab', { name: '1× vector' }).click();
     await chart(page, /^1× vector over time/);
@@ -103,8 +77,7 @@ describe('diagnosis hints and the 1× vector in a real browser', () => {
   });
 
   it('the machine page and the alert detail show the current hints', async () => {
-    const page = await newPage(browser, 1366, 900);
-    await signInAs(page, srv.url, 'operator');
+    const page = await pageAs('operator', 1366, 900);
     await page.goto(`${srv.url}/machines/${machineId}`);
     await page.getByRole('heading', { name: 'Current diagnosis hints' }).waitFor();
     await page

@@ -1,8 +1,11 @@
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
 import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
 import { captureVelocities, gatewayKey } from '../support/alert-captures.ts';
+import { webDist } from '../../apps/server/src/lib/web-build.ts';
 
 let srv: TestServer;
 let browser: Browser;
@@ -94,6 +97,41 @@ describe('limits screen', () => {
     const stored = await (await srv.call('GET', '/api/v1/limit-templates/pump', { cookie })).json();
     expect(stored.source).toBe('stored');
     expect(stored.bands[0].alertLevel).toBe(2.5);
+    await page.context().close();
+  });
+
+  it('the limits code loads while the engineer is on another screen; the editor then shows every band', async () => {
+    // The script of the limits page, from the build's module map (vite.config.ts, moduleMap).
+    const map = JSON.parse(readFileSync(join(webDist, '.vite/modules.json'), 'utf8')) as {
+      modules: Record<string, string>;
+    };
+    const script = `/${map.modules['apps/web/src/app/routes/app/limits.tsx']}`;
+    const page = await newPage(browser, 1280, 860);
+    await signInAs(page, srv.url, 'engineer');
+    const asked: string[] = [];
+    page.on('request', (r) => asked.push(new URL(r.url()).pathname));
+    await page.goto(`${srv.url}/fleet`);
+    await page.getByRole('tree').getByRole('treeitem').first().waitFor();
+    // No pointer near the navigation: the page's code comes once the fleet has settled.
+    await expect.poll(() => asked.includes(script), { timeout: 30_000 }).toBe(true);
+    const cookie = await srv.signIn('engineer');
+    const [point] = await srv.q<{ id: number }>('SELECT id FROM points WHERE tag = ?', [TAG]);
+    const stored = await (
+      await srv.call('GET', `/api/v1/points/${point!.id}/limits`, { cookie })
+    ).json();
+    const before = asked.length;
+    // Opened by its address within the app (as a point's limits link does), not the navigation.
+    await page.evaluate(`(() => {
+      history.pushState(null, '', '/limits?point=${point!.id}');
+      dispatchEvent(new PopStateEvent('popstate'));
+    })()`);
+    // The bands below the first screen follow the first two: all of them, in their order.
+    const bands = page.getByRole('group', { name: /^Band \d+: / });
+    await expect
+      .poll(() => bands.evaluateAll((els) => els.map((e) => e.getAttribute('aria-label'))))
+      .toEqual(stored.bands.map((b: { name: string }, i: number) => `Band ${i + 1}: ${b.name}`));
+    // Its code was here already: the page's script is not asked again.
+    expect(asked.slice(before)).not.toContain(script);
     await page.context().close();
   });
 });

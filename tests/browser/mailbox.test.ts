@@ -4,7 +4,7 @@ import type { TestServer } from '../support/test-server.ts';
 import { newPage, screenshot, signInAs, withServerAndBrowser } from '../support/browser.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { enqueueMail } from '../../apps/server/src/features/mail/outbox-repository.ts';
+import { queueMail } from '../support/mail-inbox.ts';
 
 let srv: TestServer;
 let browser: Browser;
@@ -47,13 +47,11 @@ describe('mailbox in a real browser', () => {
   });
 
   it('the admin sees a message the relay refused for good and sends it again', async () => {
-    await enqueueMail(srv.ctx.db, {
+    await queueMail(srv, {
       kind: 'alert',
       dedupeKey: 'browser-failed-1',
       to: 'planner@turnstone.local',
       subject: 'Alert raised: Backwash pump P-160, overall velocity',
-      text: 'body',
-      html: '<p>body</p>',
     });
     await srv.ctx.dbHandle.pool.query(
       `UPDATE outbox SET outcome = 'failed', attempts = 8,

@@ -1,74 +1,41 @@
 import { readFileSync } from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
 import {
-  launchBrowser,
-  newPage,
   screenshot,
-  signInAs,
   chartCanvas as canvasIn,
+  serverAndBrowserForFile,
 } from '../support/browser.ts';
-import { snapshotBody } from '../support/signals.ts';
+import { dailyBodies, pointOfTag, postAndAnalyse } from '../support/alert-captures.ts';
 
-let srv: TestServer;
-let browser: Browser;
+const { srv, pageAs } = serverAndBrowserForFile({ gateway: true });
 let pointId: number;
 let machineId: number;
 let clippedAnalysisId: number;
 const TAG = 'MFP-P102-MDE-H';
-const DAY = 86_400_000;
-
-const q = (sqlText: string, params: unknown[] = []) => srv.q(sqlText, params);
 
 beforeAll(async () => {
-  srv = await startTestServer();
-  browser = await launchBrowser();
-  const [site] = await q("SELECT id FROM sites WHERE code = 'MFP'");
-  const key = await srv.gatewayKey(Number(site!.id));
   // Three weeks of daily captures with a slowly growing 1× (24.7 Hz at 1482 r/min; from
   // ≈ 1.6 to ≈ 2.5 mm/s RMS, v = a/2πf, so the alert level 2.8 mm/s lies ahead) and a
   // bearing-like tone at 212 Hz; the one in the middle clips (60 g peak on a ±50 g ADC range).
-  const now = Date.now();
-  for (let i = 0; i < 21; i++) {
-    const clipped = i === 10;
-    const body = snapshotBody(TAG, `bv-${i}`, {
-      n: 8192,
-      takenAt: new Date(now - (20 - i) * DAY - 3600_000).toISOString(),
-      tones: clipped
-        ? [{ hz: 24.7, peakG: 60 }]
-        : [
-            { hz: 24.7, peakG: 0.035 + 0.001 * i },
-            { hz: 212, peakG: 0.05 },
-          ],
-      speedRpm: 1482,
-      seed: i,
-    });
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body,
-      headers: { authorization: `Bearer ${key}` },
-    });
-    expect(res.status).toBe(201);
-  }
-  await createWorker(srv.ctx).drain();
-  const [p] = await q('SELECT id, machine_id FROM points WHERE tag = ?', [TAG]);
-  pointId = Number(p!.id);
-  machineId = Number(p!.machine_id);
-  const [a] = await q(
+  const bodies = dailyBodies(TAG, 'bv', 21, (i) =>
+    i === 10
+      ? [{ hz: 24.7, peakG: 60 }]
+      : [
+          { hz: 24.7, peakG: 0.035 + 0.001 * i },
+          { hz: 212, peakG: 0.05 },
+        ],
+  );
+  await postAndAnalyse(srv, srv.key, bodies);
+  ({ pointId, machineId } = await pointOfTag(srv, TAG));
+  const [a] = await srv.q(
     "SELECT a.id FROM analyses a JOIN snapshots s ON s.id = a.snapshot_id WHERE s.uid = 'bv-10'",
   );
   clippedAnalysisId = Number(a!.id);
 });
-afterAll(async () => {
-  await browser?.close();
-  await srv?.stop();
-});
 
 describe('point analysis views in a real browser', () => {
   it('the machine page lists its points with values, zone and small trends', async () => {
-    const page = await newPage(browser, 1280, 900);
-    await signInAs(page, srv.url, 'engineer');
+    const page = await pageAs('engineer', 1280, 900);
     await page.goto(`${srv.url}/machines/${machineId}`);
     await page.getByRole('heading', { name: 'Fault frequencies' }).waitFor();
     await page
@@ -84,8 +51,7 @@ describe('point analysis views in a real browser', () => {
   });
 
   it('opens a point from the fleet tree, sees trend and spectrum charts, switches to orders and downloads a CSV', async () => {
-    const page = await newPage(browser, 1280, 900);
-    await signInAs(page, srv.url, 'operator');
+    const page = await pageAs('operator', 1280, 900);
     await page.goto(`${srv.url}/points/${pointId}`);
     await page.getByRole('heading', { name: 'Motor drive end, horizontal' }).waitFor();
     await canvasIn(page, /^Trend of /);
@@ -130,8 +96,7 @@ describe('point analysis views in a real browser', () => {
   });
 
   it('the fleet tree links a point to its page', async () => {
-    const page = await newPage(browser, 1280, 900);
-    await signInAs(page, srv.url, 'planner');
+    const page = await pageAs('planner', 1280, 900);
     await page.getByRole('treeitem').first().waitFor();
     const search = page
       .getByRole('searchbox')

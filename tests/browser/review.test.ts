@@ -8,22 +8,13 @@
  */
 import { readFileSync, writeFileSync } from 'node:fs';
 import { strFromU8, unzipSync } from 'fflate';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
-import {
-  launchBrowser,
-  newPage,
-  screenshot,
-  signInAs,
-  tallScreenshot,
-} from '../support/browser.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { screenshot, tallScreenshot, serverAndBrowserForFile } from '../support/browser.ts';
+import { postAndAnalyse } from '../support/alert-captures.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { formatDateTime } from '@turnstone/contracts/dates';
 
-let srv: TestServer;
-let browser: Browser;
+const { srv, pageAs } = serverAndBrowserForFile({ gateway: true });
 let CLIPPED = '';
 const RISING = 'MFP-P102-MDE-H';
 const DAY_MS = 86_400_000;
@@ -32,54 +23,40 @@ const SHAFT_HZ = 1480 / 60;
 const peakGOf = (vRms: number) => (vRms * Math.SQRT2 * 2 * Math.PI * SHAFT_HZ) / 9806.65;
 
 beforeAll(async () => {
-  srv = await startTestServer();
-  const key = await srv.gatewayKey();
-  const send = async (tag: string, uid: string, day: number, vRms: number) => {
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body: snapshotBody(tag, uid, {
-        takenAt: new Date(DAY0 + day * DAY_MS).toISOString(),
-        tones: [{ hz: SHAFT_HZ, peakG: peakGOf(vRms) }],
-        noiseG: 0.0002,
-        speedRpm: 1480,
-        seed: day + 1,
-        sensitivityMvPerG: 1000,
-        fullScaleV: 0.5,
-      }),
-      headers: { authorization: `Bearer ${key}` },
+  const body = (tag: string, uid: string, day: number, vRms: number) =>
+    snapshotBody(tag, uid, {
+      takenAt: new Date(DAY0 + day * DAY_MS).toISOString(),
+      tones: [{ hz: SHAFT_HZ, peakG: peakGOf(vRms) }],
+      noiseG: 0.0002,
+      speedRpm: 1480,
+      seed: day + 1,
+      sensitivityMvPerG: 1000,
+      fullScaleV: 0.5,
     });
-    expect(res.status).toBe(201);
-  };
-  for (let d = 0; d <= 13; d++) await send(RISING, `b-rise-${d}`, d, 1 + 0.05 * d);
-  for (const d of [12, 13]) await send('MFP-P101-MDE-H', `b-alert-${d}`, d, 3.0);
+  const bodies = [];
+  for (let d = 0; d <= 13; d++) bodies.push(body(RISING, `b-rise-${d}`, d, 1 + 0.05 * d));
+  for (const d of [12, 13]) bodies.push(body('MFP-P101-MDE-H', `b-alert-${d}`, d, 3.0));
   // One clipped capture (0.8 g peak into a 0.5 g full scale) on a third point: a quality notice.
   const [row] = await srv.q(
     "SELECT tag FROM points WHERE tag LIKE 'MFP-%' AND tag NOT IN ('MFP-P101-MDE-H', ?) ORDER BY id LIMIT 1",
     [RISING],
   );
   CLIPPED = String(row!.tag);
-  const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-    body: snapshotBody(CLIPPED, 'b-clipped', {
+  bodies.push(
+    snapshotBody(CLIPPED, 'b-clipped', {
       takenAt: new Date(DAY0 + 11 * DAY_MS).toISOString(),
       tones: [{ hz: SHAFT_HZ, peakG: 0.8 }],
       speedRpm: 1480,
       sensitivityMvPerG: 1000,
       fullScaleV: 0.5,
     }),
-    headers: { authorization: `Bearer ${key}` },
-  });
-  expect(res.status).toBe(201);
-  await createWorker(srv.ctx).drain();
-  browser = await launchBrowser();
+  );
+  await postAndAnalyse(srv, srv.key, bodies);
 }, 120_000);
-afterAll(async () => {
-  await browser?.close();
-  await srv?.stop();
-});
 
 describe('weekly review in a real browser', () => {
   it('planner opens the review, creates a finding from a forecast row, plans it, exports CSV and prints', async () => {
-    const page = await newPage(browser);
-    await signInAs(page, srv.url, 'planner');
+    const page = await pageAs('planner');
     await page.getByRole('navigation').first().getByRole('link', { name: 'Review' }).click();
     await page.getByRole('heading', { name: 'Weekly review' }).waitFor();
     // The default week (ending today) has no captures: the tables say so.
@@ -234,8 +211,7 @@ describe('weekly review in a real browser', () => {
   });
 
   it('planner marks a quality notice reviewed; the point page shows who reviewed it and when', async () => {
-    const page = await newPage(browser);
-    await signInAs(page, srv.url, 'planner');
+    const page = await pageAs('planner');
     await page.goto(`${srv.url}/review?weekEnding=2026-11-15`);
     const notices = page.locator('#quality-notices');
     await notices.getByRole('button', { name: `Mark reviewed: notices of ${CLIPPED}` }).click();
@@ -263,8 +239,7 @@ describe('weekly review in a real browser', () => {
   });
 
   it('shows the review at tablet width', async () => {
-    const page = await newPage(browser, 820, 1100);
-    await signInAs(page, srv.url, 'planner');
+    const page = await pageAs('planner', 820, 1100);
     await page.goto(`${srv.url}/review?weekEnding=2026-11-15&weeksAhead=4`);
     await page.locator('#forecasts').getByRole('link', { name: RISING }).first().waitFor();
     await tallScreenshot(page, 'review-tablet');

@@ -6,23 +6,14 @@
  * numbers are read; the waterfall's hover readout; the point page at tablet width (820 px);
  * and the harmonic, sideband and A/B cursors set with the keyboard alone.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Locator, Page } from 'playwright-core';
-import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
-import {
-  launchBrowser,
-  newPage,
-  screenshot,
-  signInAs,
-  tallScreenshot,
-} from '../support/browser.ts';
-import { gatewayKey, peakGFor } from '../support/alert-captures.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Locator, Page } from 'playwright-core';
+import { screenshot, tallScreenshot, serverAndBrowserForFile } from '../support/browser.ts';
+import { peakGFor, postAndAnalyse } from '../support/alert-captures.ts';
 import { snapshotBody } from '../support/signals.ts';
 import { focused, tabTo } from '../support/keyboard.ts';
 
-let srv: TestServer;
-let browser: Browser;
+const { srv, pageAs } = serverAndBrowserForFile({ gateway: true });
 let alertId: number;
 let pointId: number;
 let unusableId: number;
@@ -33,9 +24,6 @@ const SHAFT_HZ = RPM / 60;
 const HOUR = 3600_000;
 
 beforeAll(async () => {
-  srv = await startTestServer();
-  browser = await launchBrowser();
-  const key = await gatewayKey(srv, 1);
   // Hourly captures of P-101 with the speed: 1× growing past the template's alert level
   // (2.8 mm/s, persistence 2) and a 212 Hz bearing-like tone; the newest one clips
   // (60 g peak on a ±50 g range), so it is unusable and the header must say so.
@@ -63,14 +51,7 @@ beforeAll(async () => {
       takenAt: new Date(t0 + 7 * HOUR).toISOString(),
     }),
   );
-  for (const body of bodies) {
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body,
-      headers: { authorization: `Bearer ${key}` },
-    });
-    expect(res.status).toBe(201);
-  }
-  await createWorker(srv.ctx, { owner: 'walk' }).drain();
+  await postAndAnalyse(srv, srv.key, bodies, 'walk');
   const cookie = await srv.signIn('engineer');
   const list = await (await srv.call('GET', '/api/v1/alerts', { cookie })).json();
   type Item = { id: number; pointTag: string; bandKey: string; pointId: number };
@@ -85,10 +66,6 @@ beforeAll(async () => {
   );
   unusableId = Number(u!.id);
 }, 120_000);
-afterAll(async () => {
-  await browser?.close();
-  await srv?.stop();
-});
 
 /** The zoom keys' live line: "… : 0 Hz to 988.0 Hz" → [0, 988]. */
 async function shownWindow(page: Page): Promise<[number, number]> {
@@ -135,8 +112,7 @@ async function rows(page: Page, caption: string): Promise<string[][]> {
 
 describe('from an alert to the spectrum of its band', () => {
   it('one click opens velocity over 0–40 orders; cursors keep the zoom; compare shows the change', async () => {
-    const page = await newPage(browser, 1280, 900);
-    await signInAs(page, srv.url, 'engineer');
+    const page = await pageAs('engineer', 1280, 900);
     await page.goto(`${srv.url}/alerts?alert=${alertId}`);
     const panel = page.getByRole('region', { name: /Overall velocity/ });
     const link = panel.getByRole('link', { name: /^Spectrum of Overall velocity/ });
@@ -249,8 +225,7 @@ describe('from an alert to the spectrum of its band', () => {
   });
 
   it('at tablet width (820 px) the point page and its spectrum fit without sideways scrolling', async () => {
-    const page = await newPage(browser, 820, 1180);
-    await signInAs(page, srv.url, 'engineer');
+    const page = await pageAs('engineer', 820, 1180);
     await page.goto(`${srv.url}/points/${pointId}?band=overall-velocity&view=spectrum`);
     const chart = page.getByRole('img', { name: /^Velocity spectrum/ });
     await chart.locator('canvas').first().waitFor();
@@ -266,8 +241,7 @@ describe('from an alert to the spectrum of its band', () => {
   });
 
   it('with the keyboard alone, the keyboard cursor walks the peaks and sets the harmonic, sideband and A/B cursors without losing the zoom', async () => {
-    const page = await newPage(browser, 1280, 900);
-    await signInAs(page, srv.url, 'engineer');
+    const page = await pageAs('engineer', 1280, 900);
     await page.goto(`${srv.url}/points/${pointId}?band=overall-velocity&view=spectrum`);
     await page
       .getByRole('img', { name: /^Velocity spectrum/ })

@@ -10,7 +10,6 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { writeWav } from '@turnstone/dsp';
 import { trendResponseSchema } from '@turnstone/contracts/trend';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { startTestServer, type TestServer } from '../support/test-server.ts';
@@ -20,7 +19,7 @@ import {
   captureVelocities,
   gatewayKey,
 } from '../support/alert-captures.ts';
-import { toneCounts } from '../support/signals.ts';
+import { routeRecordingForm } from '../support/signals.ts';
 
 let srv: TestServer;
 let browser: Browser;
@@ -71,27 +70,13 @@ beforeAll(async () => {
   });
   expect(put.status).toBe(200);
   // A route recording from a portable instrument: 0.3 g peak at 24.7 Hz, 16-bit at ±5 V.
-  const form = new FormData();
-  const fields = {
-    sensitivityMvPerG: '100',
-    fullScaleV: '5',
-    bits: '16',
-    speedRpm: '1482',
-    takenAt: new Date(t0 + 2.5 * HOUR).toISOString(),
-  };
-  for (const [k, v] of Object.entries(fields)) form.append(k, v);
-  const counts = toneCounts({
-    n: 8192,
-    fs: 10240,
+  const form = routeRecordingForm({
     tones: [{ hz: 24.7, peakG: 0.03 }],
-    noiseG: 0.001,
     seed: 3,
+    speedRpm: 1482,
+    takenAt: new Date(t0 + 2.5 * HOUR).toISOString(),
+    fileName: 'route-p101-de.wav',
   });
-  form.append(
-    'file',
-    new Blob([writeWav(counts, 10240, 'int16') as Uint8Array<ArrayBuffer>]),
-    'route-p101-de.wav',
-  );
   const up = await srv.call('POST', `/api/v1/points/${pointId}/uploads`, {
     cookie: engineer,
     raw: form,

@@ -1,47 +1,21 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
-import { startTestServer, type TestServer } from '../support/test-server.ts';
-import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser.ts';
-import { snapshotBody } from '../support/signals.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { newPage, screenshot, signInAs, serverAndBrowserForFile } from '../support/browser.ts';
+import { dailyBodies, pointOfTag, postAndAnalyse } from '../support/alert-captures.ts';
 
-let srv: TestServer;
-let browser: Browser;
+const { srv, browser } = serverAndBrowserForFile({ gateway: true });
 let pointId: number;
 const TAG = 'MFP-P102-MDE-H';
-const DAY = 86_400_000;
 
 beforeAll(async () => {
-  srv = await startTestServer();
-  browser = await launchBrowser();
-  const [site] = await srv.q("SELECT id FROM sites WHERE code = 'MFP'");
-  const key = await srv.gatewayKey(Number(site!.id));
   // Eight daily captures at 1482 r/min (1× = 24.7 Hz) with a 1× that grows capture by
   // capture and a 212 Hz tone, so the stack shows a rising peak at one order.
-  const now = Date.now();
-  for (let i = 0; i < 8; i++) {
-    const res = await srv.call('POST', '/api/ingest/v1/snapshots', {
-      body: snapshotBody(TAG, `wf-${i}`, {
-        n: 8192,
-        takenAt: new Date(now - (7 - i) * DAY - 3600_000).toISOString(),
-        tones: [
-          { hz: 24.7, peakG: 0.03 + 0.01 * i },
-          { hz: 212, peakG: 0.05 },
-        ],
-        speedRpm: 1482,
-        seed: i,
-      }),
-      headers: { authorization: `Bearer ${key}` },
-    });
-    expect(res.status).toBe(201);
-  }
-  await createWorker(srv.ctx).drain();
-  const [p] = await srv.q('SELECT id FROM points WHERE tag = ?', [TAG]);
-  pointId = Number(p!.id);
-});
-afterAll(async () => {
-  await browser?.close();
-  await srv?.stop();
+  const bodies = dailyBodies(TAG, 'wf', 8, (i) => [
+    { hz: 24.7, peakG: 0.03 + 0.01 * i },
+    { hz: 212, peakG: 0.05 },
+  ]);
+  await postAndAnalyse(srv, srv.key, bodies);
+  ({ pointId } = await pointOfTag(srv, TAG));
 });
 
 /** Sweeps the pointer along a row of the chart and collects every readout it gave. */

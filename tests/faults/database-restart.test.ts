@@ -8,7 +8,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import mysql from 'mysql2/promise';
 import { startLocalMariadb, type LocalMariadb } from '@turnstone/db/local-server';
-import { start, type RunningServer } from '../../apps/server/src/server.ts';
+import type { RunningServer } from '../../apps/server/src/server.ts';
+import { startQuietServer } from '../support/test-server.ts';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import { postUntilAnswered } from '../support/retrying-poster.ts';
 import { snapshotBody } from '../support/signals.ts';
@@ -21,15 +22,7 @@ const TAG = 'MFP-P101-MDE-H';
 beforeAll(async () => {
   dataDir = mkdtempSync(join(process.env.TURNSTONE_TEST_TMP ?? tmpdir(), 'fault-db-'));
   db = await startLocalMariadb({ dataDir, database: 'fault_db' });
-  srv = await start({
-    DATABASE_URL: db.url,
-    DATA_DIR: dataDir,
-    PORT: '0',
-    BUILD_WEB: 'false',
-    LOG_LEVEL: 'silent',
-    RUN_WORKER: 'false',
-    DEMO_HISTORY_WEEKS: '0',
-  });
+  srv = await startQuietServer(db.url, dataDir);
 });
 afterAll(async () => {
   await srv?.stop();

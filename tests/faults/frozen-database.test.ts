@@ -9,7 +9,8 @@ import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { startLocalMariadb, type LocalMariadb } from '@turnstone/db/local-server';
-import { start, type RunningServer } from '../../apps/server/src/server.ts';
+import type { RunningServer } from '../../apps/server/src/server.ts';
+import { startQuietServer } from '../support/test-server.ts';
 import { snapshotBody } from '../support/signals.ts';
 
 let db: LocalMariadb;
@@ -21,16 +22,7 @@ beforeAll(async () => {
   const dataDir = mkdtempSync(join(process.env.TURNSTONE_TEST_TMP ?? tmpdir(), 'fault-frozen-'));
   db = await startLocalMariadb({ dataDir, database: 'fault_frozen' });
   pid = Number(readFileSync(join(db.dir, 'mariadbd.pid'), 'utf8').trim());
-  srv = await start({
-    DATABASE_URL: db.url,
-    DATA_DIR: dataDir,
-    PORT: '0',
-    BUILD_WEB: 'false',
-    LOG_LEVEL: 'silent',
-    RUN_WORKER: 'false',
-    DEMO_HISTORY_WEEKS: '0',
-    INGEST_TIMEOUT_S: String(TIMEOUT_S),
-  });
+  srv = await startQuietServer(db.url, dataDir, { INGEST_TIMEOUT_S: String(TIMEOUT_S) });
 });
 afterAll(async () => {
   if (pid) process.kill(pid, 'SIGCONT');

@@ -2,7 +2,7 @@
 import { expect } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
 import type { TestServer } from './test-server.ts';
-import { snapshotBody } from './signals.ts';
+import { snapshotBody, type ToneOptions } from './signals.ts';
 
 /**
  * Peak acceleration (g) of a 24.7 Hz tone of `mmS` mm/s RMS: a = v·√2·2πf / 9806.65
@@ -18,6 +18,48 @@ export async function postSnapshot(srv: TestServer, key: string, body: unknown):
   });
   expect(res.status).toBe(201);
   return (await res.json()).snapshotId as number;
+}
+
+/** Posts each snapshot body with a gateway's key (each answer 201), then drains the worker once. */
+export async function postAndAnalyse(
+  srv: TestServer,
+  key: string,
+  bodies: unknown[],
+  owner = 'test-captures',
+): Promise<void> {
+  for (const body of bodies) await postSnapshot(srv, key, body);
+  await createWorker(srv.ctx, { owner }).drain();
+}
+
+/**
+ * Snapshot bodies of `tag`, one a day for `days` days, the last an hour before now: capture i
+ * (uid `${uidPrefix}-${i}`, noise seed i) has 8192 samples of `tones(i)` at 1482 r/min.
+ */
+export function dailyBodies(
+  tag: string,
+  uidPrefix: string,
+  days: number,
+  tones: (i: number) => ToneOptions['tones'],
+) {
+  const now = Date.now();
+  return Array.from({ length: days }, (_, i) =>
+    snapshotBody(tag, `${uidPrefix}-${i}`, {
+      n: 8192,
+      takenAt: new Date(now - (days - 1 - i) * 86_400_000 - 3600_000).toISOString(),
+      tones: tones(i),
+      speedRpm: 1482,
+      seed: i,
+    }),
+  );
+}
+
+/** The point of a tag and its machine. */
+export async function pointOfTag(
+  srv: TestServer,
+  tag: string,
+): Promise<{ pointId: number; machineId: number }> {
+  const [p] = await srv.q('SELECT id, machine_id FROM points WHERE tag = ?', [tag]);
+  return { pointId: Number(p!.id), machineId: Number(p!.machine_id) };
 }
 
 /** The id of the analysis made of a snapshot. */

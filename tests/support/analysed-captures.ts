@@ -4,6 +4,11 @@
  */
 import { expect } from 'vitest';
 import { createWorker } from '../../apps/server/src/features/worker/worker.ts';
+import {
+  expireRawSamplesPass,
+  thinSpectra,
+} from '../../apps/server/src/features/worker/retention.ts';
+import { testServerForFile } from './api-suite.ts';
 import { snapshotBody } from './signals.ts';
 import type { TestServer } from './test-server.ts';
 
@@ -50,4 +55,36 @@ export async function spectraWhole(srv: TestServer, analysisId: number): Promise
     [analysisId],
   );
   return Number(r!.kept) === 1 && r!.spectra_thinned_at === null;
+}
+
+/** One thinning pass at NOW under the default policy (POLICY), in the batches `options` set. */
+export function thinAtNow(srv: TestServer, options: Parameters<typeof thinSpectra>[3]) {
+  return thinSpectra(srv.ctx.db, POLICY, NOW, options);
+}
+
+/** One raw-sample expiry pass at NOW (waveforms older than `days`), as `options` set it. */
+export function expireAtNow(
+  srv: TestServer,
+  days: number,
+  options: Parameters<typeof expireRawSamplesPass>[3],
+) {
+  return expireRawSamplesPass(srv.ctx.db, days, NOW, options);
+}
+
+/**
+ * The retention tests' file server (the administrator signed in, a gateway of site 1) with
+ * the helpers above bound to it.
+ */
+export function retentionServerForFile() {
+  const srv = testServerForFile({ signIn: ['admin'], gateway: true });
+  return {
+    srv,
+    /** Captures of `tag` at these times, analysed: analysis id by time. */
+    captures: (tag: string, times: string[]) => analysedCaptures(srv, srv.key, tag, times),
+    pointId: (tag: string) => pointIdOf(srv, tag),
+    spectraWhole: (analysisId: number) => spectraWhole(srv, analysisId),
+    thin: (options: Parameters<typeof thinSpectra>[3]) => thinAtNow(srv, options),
+    expire: (days: number, options: Parameters<typeof expireRawSamplesPass>[3]) =>
+      expireAtNow(srv, days, options),
+  };
 }

@@ -9,7 +9,7 @@ import { startTestServer, type TestServer } from './test-server.ts';
 export interface FileServer<Role extends string = never> extends TestServer {
   /** The session cookie of each role named in `signIn`, signed in at start. */
   readonly cookies: Readonly<Record<Role, string>>;
-  /** The ingest key of a gateway of site 1 made at start (with `gateway: true`). */
+  /** The ingest key of the gateway made at start (with `gateway`). */
   readonly key: string;
 }
 
@@ -18,8 +18,8 @@ export interface FileServerOptions<Role extends string> {
   env?: Record<string, string>;
   /** Roles to sign in at start: their cookies are in `cookies`. */
   signIn?: Role[];
-  /** Make a gateway of site 1 at start: its key is `key`. */
-  gateway?: boolean;
+  /** Make a gateway at start, of site 1 (`true`) or of the site with this id: its key is `key`. */
+  gateway?: boolean | number;
 }
 
 export function testServerForFile<Role extends string = never>(
@@ -31,7 +31,7 @@ export function testServerForFile<Role extends string = never>(
   beforeAll(async () => {
     running = await startTestServer(o.env);
     for (const role of o.signIn ?? []) cookies[role] = await running.signIn(role);
-    if (o.gateway) key = await running.gatewayKey();
+    if (o.gateway) key = await running.gatewayKey(o.gateway === true ? 1 : o.gateway);
   });
   afterAll(async () => {
     await running?.stop();

@@ -8,6 +8,7 @@ import { join } from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { chromiumPath } from '@turnstone/db/provision';
 import { afterAll, beforeAll } from 'vitest';
+import { testServerForFile, type FileServer, type FileServerOptions } from './api-suite.ts';
 import { DEMO_PASSWORD, demoEmail, startTestServer, type TestServer } from './test-server.ts';
 
 export const CHROMIUM = chromiumPath();
@@ -69,6 +70,44 @@ export function withServerAndBrowser(
     await browser?.close();
     await srv?.stop();
   });
+}
+
+/**
+ * A browser test file's server (as testServerForFile makes it: the roles of `o.signIn` signed
+ * in, a gateway of site 1 with `o.gateway`) and Chromium, started before the file's tests and
+ * closed after them. Both stand for the running ones from `beforeAll` on, so a file keeps them
+ * in module constants.
+ */
+export function serverAndBrowserForFile<Role extends string = never>(
+  o: FileServerOptions<Role> = {},
+): {
+  srv: FileServer<Role>;
+  browser: Browser;
+  /** A new page (1280 × 860 unless given) signed in as `role` through the sign-in form. */
+  pageAs(role: string, width?: number, height?: number): Promise<Page>;
+} {
+  const srv = testServerForFile(o);
+  let running: Browser | undefined;
+  beforeAll(async () => {
+    running = await launchBrowser();
+  });
+  afterAll(async () => {
+    await running?.close();
+  });
+  const browser = new Proxy({} as Browser, {
+    get(_, prop) {
+      if (prop === 'then' || typeof prop === 'symbol') return undefined;
+      if (!running) throw new Error('the browser starts in beforeAll: use it in a test');
+      const value = Reflect.get(running, prop);
+      return typeof value === 'function' ? value.bind(running) : value;
+    },
+  });
+  const pageAs = async (role: string, width?: number, height?: number) => {
+    const page = await newPage(browser, width, height);
+    await signInAs(page, srv.url, role);
+    return page;
+  };
+  return { srv, browser, pageAs };
 }
 
 /** The app scrolls inside <main>; grow the viewport to the content so the shot shows it all. */

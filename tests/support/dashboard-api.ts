@@ -1467,7 +1467,7 @@ export interface components {
         Role: "admin" | "engineer" | "planner" | "operator";
         /** @enum {string} */
         UnitSystem: "metric" | "imperial";
-        SignInRequestInput: {
+        SignInRequest: {
             /** Format: email */
             email: string;
             password: string;
@@ -1541,7 +1541,7 @@ export interface components {
             apiKey: string;
             keyPrefix: string;
         };
-        CreateGatewayInput: {
+        CreateGateway: {
             siteId: number;
             name: string;
         };
@@ -1601,7 +1601,7 @@ export interface components {
         AcknowledgeResponse: {
             items: components["schemas"]["Alert"][];
         };
-        AcknowledgeManyRequestInput: {
+        AcknowledgeManyRequest: {
             ids: number[];
             note: components["schemas"]["AcknowledgeNote"];
         };
@@ -1688,7 +1688,7 @@ export interface components {
             /** @enum {string} */
             spectrum: "velocity" | "acceleration" | "envelope";
         };
-        AcknowledgeRequestInput: {
+        AcknowledgeRequest: {
             note: components["schemas"]["AcknowledgeNote"];
         };
         LimitSetResponse: {
@@ -1831,7 +1831,7 @@ export interface components {
             version: number;
             clearedAlertIds: number[];
         };
-        SaveLimitTemplateRequestInput: {
+        SaveLimitTemplateRequest: {
             bands: components["schemas"]["BandDefinitionInput"][];
             reason: string;
         };
@@ -1974,7 +1974,7 @@ export interface components {
                 }[];
             }[];
         };
-        ReplayRequestInput: {
+        ReplayRequest: {
             bands: components["schemas"]["BandDefinitionInput"][];
         };
         IsoDefaultsResponse: {
@@ -2364,7 +2364,7 @@ export interface components {
             at: string;
             note: string;
         };
-        PinInputInput: {
+        PinInput: {
             /** @default  */
             note: string;
         };
@@ -2517,7 +2517,7 @@ export interface components {
             id: number;
         };
         TimeZone: string;
-        SiteInputInput: {
+        SiteInput: {
             name: string;
             code: string;
             timeZone: components["schemas"]["TimeZone"];
@@ -2527,17 +2527,17 @@ export interface components {
             name: string;
             id: number;
         };
-        AreaInputInput: {
+        AreaInput: {
             siteId: number;
             name: string;
         };
-        AreaUpdateInput: {
+        AreaUpdate: {
             name: string;
         };
         SavedId: {
             id: number;
         };
-        MachineInputInput: {
+        MachineInput: {
             areaId: number;
             name: string;
             type: components["schemas"]["MachineType"];
@@ -2550,11 +2550,11 @@ export interface components {
             vaneCount: number | null;
             lineHz?: components["schemas"]["LineHz"] | null;
             notes?: string | null;
-            bearings: components["schemas"]["BearingInputInput"][];
-            gears: components["schemas"]["GearInputInput"][];
+            bearings: components["schemas"]["BearingInput"][];
+            gears: components["schemas"]["GearInput"][];
         };
         LineHz: 50 | 60;
-        BearingInputInput: {
+        BearingInput: {
             id?: number;
             name: string;
             designation?: string | null;
@@ -2564,14 +2564,14 @@ export interface components {
             contactAngleDeg: number;
             speedRatio: number;
         };
-        GearInputInput: {
+        GearInput: {
             id?: number;
             name: string;
             teeth: number;
             mateTeeth: number;
             speedRatio: number;
         };
-        PointInputInput: {
+        PointInput: {
             machineId: number;
             tag: string;
             name: string;
@@ -2793,7 +2793,7 @@ export interface components {
             items: components["schemas"]["Finding"][];
             nextCursor: string | null;
         };
-        CreateFindingInput: {
+        CreateFinding: {
             pointId: number;
             alertId?: number | null;
             bandKey?: string | null;
@@ -2808,7 +2808,7 @@ export interface components {
         WorkOrderRef: string;
         /** Format: date */
         IsoDate: string;
-        UpdateFindingInput: {
+        UpdateFinding: {
             state?: components["schemas"]["FindingState"];
             title?: string;
             workOrderRef?: "" | null | components["schemas"]["WorkOrderRef"];
@@ -2844,7 +2844,7 @@ export interface components {
             };
             reviewedAt: string;
         };
-        ReviewNoticesInput: {
+        ReviewNotices: {
             pointId: number;
             ids?: number[];
         };
@@ -2867,19 +2867,19 @@ export interface components {
             lastSignInAt: string | null;
             createdAt: string;
         };
-        InviteUserInput: {
+        InviteUser: {
             /** Format: email */
             email: string;
             name: string;
             role: components["schemas"]["Role"];
             siteIds: number[];
         };
-        UpdateUserInput: {
+        UpdateUser: {
             role?: components["schemas"]["Role"];
             siteIds?: number[];
             name?: string;
         };
-        AcceptInviteInput: {
+        AcceptInvite: {
             token: components["schemas"]["LinkToken"];
             password: components["schemas"]["Password"];
         };
@@ -2889,11 +2889,11 @@ export interface components {
             /** @constant */
             accepted: true;
         };
-        ForgotPasswordInput: {
+        ForgotPassword: {
             /** Format: email */
             email: string;
         };
-        ResetPasswordInput: {
+        ResetPassword: {
             token: components["schemas"]["LinkToken"];
             password: components["schemas"]["Password"];
         };
@@ -2925,7 +2925,7 @@ export interface components {
             revokedAt: string | null;
             token: string;
         };
-        IssueApiTokenInput: {
+        IssueApiToken: {
             name: string;
             role: components["schemas"]["Role"];
             siteIds: number[];
@@ -2958,13 +2958,13 @@ export interface components {
             undelivered: number;
             secret: string;
         };
-        CreateWebhookInput: {
+        CreateWebhook: {
             name: string;
             /** Format: uri */
             url: string;
             events: components["schemas"]["WebhookEventType"][];
         };
-        UpdateWebhookInput: {
+        UpdateWebhook: {
             name?: string;
             /** Format: uri */
             url?: string;
@@ -2986,7 +2986,7 @@ export interface components {
             lastError: string | null;
             outcome: ("sent" | "failed" | "uncertain") | null;
         };
-        ChangePasswordInput: {
+        ChangePassword: {
             currentPassword: string;
             newPassword: components["schemas"]["Password"];
         };
@@ -3020,7 +3020,7 @@ export interface components {
             /** @enum {string} */
             cadence: "immediate" | "hourly";
         };
-        SubscriptionSettingsInput: {
+        SubscriptionSettings: {
             items: components["schemas"]["SubscriptionInput"][];
             weeklyDigest: boolean;
         };
@@ -3181,7 +3181,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["SignInRequestInput"];
+                "application/json": components["schemas"]["SignInRequest"];
             };
         };
         responses: {
@@ -3304,7 +3304,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["SiteInputInput"];
+                "application/json": components["schemas"]["SiteInput"];
             };
         };
         responses: {
@@ -3383,7 +3383,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["CreateGatewayInput"];
+                "application/json": components["schemas"]["CreateGateway"];
             };
         };
         responses: {
@@ -3581,7 +3581,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["AcknowledgeManyRequestInput"];
+                "application/json": components["schemas"]["AcknowledgeManyRequest"];
             };
         };
         responses: {
@@ -3666,7 +3666,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["AcknowledgeRequestInput"];
+                "application/json": components["schemas"]["AcknowledgeRequest"];
             };
         };
         responses: {
@@ -3726,7 +3726,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["SaveLimitTemplateRequestInput"];
+                "application/json": components["schemas"]["SaveLimitTemplateRequest"];
             };
         };
         responses: {
@@ -3758,7 +3758,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["ReplayRequestInput"];
+                "application/json": components["schemas"]["ReplayRequest"];
             };
         };
         responses: {
@@ -3907,7 +3907,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["SaveLimitTemplateRequestInput"];
+                "application/json": components["schemas"]["SaveLimitTemplateRequest"];
             };
         };
         responses: {
@@ -3993,7 +3993,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["MachineInputInput"];
+                "application/json": components["schemas"]["MachineInput"];
             };
         };
         responses: {
@@ -4079,7 +4079,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["PointInputInput"];
+                "application/json": components["schemas"]["PointInput"];
             };
         };
         responses: {
@@ -4266,7 +4266,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["PinInputInput"];
+                "application/json": components["schemas"]["PinInput"];
             };
         };
         responses: {
@@ -4490,7 +4490,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["SiteInputInput"];
+                "application/json": components["schemas"]["SiteInput"];
             };
         };
         responses: {
@@ -4523,7 +4523,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["AreaInputInput"];
+                "application/json": components["schemas"]["AreaInput"];
             };
         };
         responses: {
@@ -4556,7 +4556,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["AreaUpdateInput"];
+                "application/json": components["schemas"]["AreaUpdate"];
             };
         };
         responses: {
@@ -4589,7 +4589,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["MachineInputInput"];
+                "application/json": components["schemas"]["MachineInput"];
             };
         };
         responses: {
@@ -4623,7 +4623,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["PointInputInput"];
+                "application/json": components["schemas"]["PointInput"];
             };
         };
         responses: {
@@ -4787,7 +4787,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["CreateFindingInput"];
+                "application/json": components["schemas"]["CreateFinding"];
             };
         };
         responses: {
@@ -4820,7 +4820,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["UpdateFindingInput"];
+                "application/json": components["schemas"]["UpdateFinding"];
             };
         };
         responses: {
@@ -4878,7 +4878,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["ReviewNoticesInput"];
+                "application/json": components["schemas"]["ReviewNotices"];
             };
         };
         responses: {
@@ -4934,7 +4934,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["InviteUserInput"];
+                "application/json": components["schemas"]["InviteUser"];
             };
         };
         responses: {
@@ -4967,7 +4967,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["UpdateUserInput"];
+                "application/json": components["schemas"]["UpdateUser"];
             };
         };
         responses: {
@@ -5053,7 +5053,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["AcceptInviteInput"];
+                "application/json": components["schemas"]["AcceptInvite"];
             };
         };
         responses: {
@@ -5079,7 +5079,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["ForgotPasswordInput"];
+                "application/json": components["schemas"]["ForgotPassword"];
             };
         };
         responses: {
@@ -5107,7 +5107,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["ResetPasswordInput"];
+                "application/json": components["schemas"]["ResetPassword"];
             };
         };
         responses: {
@@ -5157,7 +5157,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["IssueApiTokenInput"];
+                "application/json": components["schemas"]["IssueApiToken"];
             };
         };
         responses: {
@@ -5238,7 +5238,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["CreateWebhookInput"];
+                "application/json": components["schemas"]["CreateWebhook"];
             };
         };
         responses: {
@@ -5295,7 +5295,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["UpdateWebhookInput"];
+                "application/json": components["schemas"]["UpdateWebhook"];
             };
         };
         responses: {
@@ -5353,7 +5353,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["ChangePasswordInput"];
+                "application/json": components["schemas"]["ChangePassword"];
             };
         };
         responses: {
@@ -5457,7 +5457,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["SubscriptionSettingsInput"];
+                "application/json": components["schemas"]["SubscriptionSettings"];
             };
         };
         responses: {

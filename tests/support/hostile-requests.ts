@@ -41,6 +41,15 @@ const ingest = (name: string, x: Partial<BadRequest>): BadRequest => ({
   ...x,
 });
 
+/** A POST to the dashboard API signed in as the administrator. */
+export const adminPost = (name: string, path: string, x: Partial<BadRequest>): BadRequest => ({
+  name,
+  method: 'POST',
+  path,
+  auth: 'admin',
+  ...x,
+});
+
 /** Malformed JSON, deep nesting, wrong content types, wrong and missing fields, NaN and infinity. */
 export function malformedIngestBodies(): BadRequest[] {
   const list: BadRequest[] = [];
@@ -221,13 +230,11 @@ export function hostileTextFields(): BadRequest[] {
       body: { email: s, password: s },
       auth: 'none',
     });
-    list.push({
-      name: `gateway name ${s.slice(0, 20)} on unknown site`,
-      method: 'POST',
-      path: '/api/v1/gateways',
-      body: { siteId: s, name: s },
-      auth: 'admin',
-    });
+    list.push(
+      adminPost(`gateway name ${s.slice(0, 20)} on unknown site`, '/api/v1/gateways', {
+        body: { siteId: s, name: s },
+      }),
+    );
     list.push({
       name: `route param ${s.slice(0, 20)}`,
       method: 'GET',
@@ -246,36 +253,21 @@ export function hostileTextFields(): BadRequest[] {
     'line separator\u2028x',
     'escape\u001b[31m',
   ];
+  // The one-line fields: what each is, where it is posted, the body carrying the string.
+  const ONE_LINE_FIELDS: [string, string, (s: string) => unknown][] = [
+    ['gateway name', '/api/v1/gateways', (s) => ({ siteId: 1, name: s })],
+    ['area name', '/api/v1/areas', (s) => ({ siteId: 1, name: s })],
+    [
+      'invited user name',
+      '/api/v1/users/invite',
+      (s) => ({ email: 'new.person@example.org', name: s, role: 'operator', siteIds: [1] }),
+    ],
+    ['finding title', '/api/v1/findings', (s) => ({ pointId: 1, title: s })],
+  ];
   for (const s of CONTROL_STRINGS) {
     const what = JSON.stringify(s).slice(1, 24);
-    list.push({
-      name: `gateway name with control character ${what}`,
-      method: 'POST',
-      path: '/api/v1/gateways',
-      body: { siteId: 1, name: s },
-      auth: 'admin',
-    });
-    list.push({
-      name: `area name with control character ${what}`,
-      method: 'POST',
-      path: '/api/v1/areas',
-      body: { siteId: 1, name: s },
-      auth: 'admin',
-    });
-    list.push({
-      name: `invited user name with control character ${what}`,
-      method: 'POST',
-      path: '/api/v1/users/invite',
-      body: { email: 'new.person@example.org', name: s, role: 'operator', siteIds: [1] },
-      auth: 'admin',
-    });
-    list.push({
-      name: `finding title with control character ${what}`,
-      method: 'POST',
-      path: '/api/v1/findings',
-      body: { pointId: 1, title: s },
-      auth: 'admin',
-    });
+    for (const [field, path, body] of ONE_LINE_FIELDS)
+      list.push(adminPost(`${field} with control character ${what}`, path, { body: body(s) }));
   }
   return list;
 }

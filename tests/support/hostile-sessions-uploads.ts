@@ -3,64 +3,42 @@
  * lying WAV headers, broken CSV and path-traversal names, and unknown routes and methods.
  */
 import jwt from 'jsonwebtoken';
-import type { BadRequest } from './hostile-requests.ts';
+import { adminPost, type BadRequest } from './hostile-requests.ts';
+import { pcmWavBytes } from './wav-bytes.ts';
+
+/** An upload to point 1 of these form fields and, where given, this file (content, name). */
+const upload = (what: string, fields: Record<string, string>, file?: [Buffer | string, string]) => {
+  const form = new FormData();
+  for (const [k, v] of Object.entries(fields)) form.set(k, v);
+  if (file) form.set('file', new Blob([file[0]]), file[1]);
+  return adminPost(`upload: ${what}`, '/api/v1/points/1/uploads', { raw: form });
+};
 
 /** Requests with tokens signed by `secret` (the server's) or forged, bad uploads and unknown routes. */
 export function badSessionsUploadsAndRoutes(secret: string): BadRequest[] {
   const list: BadRequest[] = [];
   // Tokens.
-  const claims = { ver: 0 };
+  // A session token as the server signs one (HS256, user 1, ten minutes), but for `o`.
+  const sign = (o: Partial<jwt.SignOptions> & { claims?: object; key?: string } = {}): string => {
+    const { claims = { ver: 0 }, key = secret, ...options } = o;
+    return jwt.sign(claims, key, {
+      algorithm: 'HS256',
+      subject: '1',
+      issuer: 'turnstone',
+      audience: 'turnstone-dashboard',
+      expiresIn: 600,
+      ...options,
+    });
+  };
   const tokens: Record<string, string> = {
     'alg none': `${Buffer.from('{"alg":"none","typ":"JWT"}').toString('base64url')}.${Buffer.from(JSON.stringify({ sub: '1', ver: 0, iss: 'turnstone', aud: 'turnstone-dashboard' })).toString('base64url')}.`,
-    expired: jwt.sign(claims, secret, {
-      algorithm: 'HS256',
-      subject: '1',
-      issuer: 'turnstone',
-      audience: 'turnstone-dashboard',
-      expiresIn: -60,
-    }),
-    'wrong issuer': jwt.sign(claims, secret, {
-      algorithm: 'HS256',
-      subject: '1',
-      issuer: 'someone',
-      audience: 'turnstone-dashboard',
-      expiresIn: 600,
-    }),
-    'wrong audience': jwt.sign(claims, secret, {
-      algorithm: 'HS256',
-      subject: '1',
-      issuer: 'turnstone',
-      audience: 'other',
-      expiresIn: 600,
-    }),
-    'other secret': jwt.sign(claims, 'x'.repeat(40), {
-      algorithm: 'HS256',
-      subject: '1',
-      issuer: 'turnstone',
-      audience: 'turnstone-dashboard',
-      expiresIn: 600,
-    }),
-    'HS512 with our secret': jwt.sign(claims, secret, {
-      algorithm: 'HS512',
-      subject: '1',
-      issuer: 'turnstone',
-      audience: 'turnstone-dashboard',
-      expiresIn: 600,
-    }),
-    'old token version': jwt.sign({ ver: -1 }, secret, {
-      algorithm: 'HS256',
-      subject: '1',
-      issuer: 'turnstone',
-      audience: 'turnstone-dashboard',
-      expiresIn: 600,
-    }),
-    'unknown user': jwt.sign(claims, secret, {
-      algorithm: 'HS256',
-      subject: '999999',
-      issuer: 'turnstone',
-      audience: 'turnstone-dashboard',
-      expiresIn: 600,
-    }),
+    expired: sign({ expiresIn: -60 }),
+    'wrong issuer': sign({ issuer: 'someone' }),
+    'wrong audience': sign({ audience: 'other' }),
+    'other secret': sign({ key: 'x'.repeat(40) }),
+    'HS512 with our secret': sign({ algorithm: 'HS512' }),
+    'old token version': sign({ claims: { ver: -1 } }),
+    'unknown user': sign({ subject: '999999' }),
     garbage: 'not.a.jwt',
     empty: '',
   };
@@ -82,21 +60,9 @@ export function badSessionsUploadsAndRoutes(secret: string): BadRequest[] {
     });
   }
   // Uploads: lying WAV headers, not-WAV-not-CSV, broken CSV, path-traversal names.
-  const wav = (mutate: (b: Buffer) => void, size = 44 + 2048) => {
-    const b = Buffer.alloc(size);
-    b.write('RIFF', 0, 'latin1');
-    b.writeUInt32LE(size - 8, 4);
-    b.write('WAVE', 8, 'latin1');
-    b.write('fmt ', 12, 'latin1');
-    b.writeUInt32LE(16, 16);
-    b.writeUInt16LE(1, 20);
-    b.writeUInt16LE(1, 22);
-    b.writeUInt32LE(10240, 24);
-    b.writeUInt32LE(20480, 28);
-    b.writeUInt16LE(2, 32);
-    b.writeUInt16LE(16, 34);
-    b.write('data', 36, 'latin1');
-    b.writeUInt32LE(size - 44, 40);
+  // A sound 16-bit PCM file of 1024 samples at 10240 Hz (44-byte header), then `mutate`d.
+  const wav = (mutate: (b: Buffer) => void) => {
+    const b = Buffer.from(pcmWavBytes(new Int16Array(1024), 10240, 16));
     mutate(b);
     return b;
   };
@@ -136,36 +102,10 @@ export function badSessionsUploadsAndRoutes(secret: string): BadRequest[] {
     'one huge line': ['0.1,'.repeat(50_000), 'wide.csv'],
   };
   for (const [what, [content, fileName]] of Object.entries(files)) {
-    const form = new FormData();
-    form.set('sampleRateHz', '10240');
-    form.set('file', new Blob([content]), fileName);
-    list.push({
-      name: `upload: ${what}`,
-      method: 'POST',
-      path: '/api/v1/points/1/uploads',
-      raw: form,
-      auth: 'admin',
-    });
+    list.push(upload(what, { sampleRateHz: '10240' }, [content, fileName]));
   }
-  const noFile = new FormData();
-  noFile.set('sampleRateHz', '10240');
-  list.push({
-    name: 'upload: no file',
-    method: 'POST',
-    path: '/api/v1/points/1/uploads',
-    raw: noFile,
-    auth: 'admin',
-  });
-  const badField = new FormData();
-  badField.set('sensitivityMvPerG', '-5');
-  badField.set('file', new Blob(['value\n0.1\n']), 'x.csv');
-  list.push({
-    name: 'upload: negative sensitivity',
-    method: 'POST',
-    path: '/api/v1/points/1/uploads',
-    raw: badField,
-    auth: 'admin',
-  });
+  list.push(upload('no file', { sampleRateHz: '10240' }));
+  list.push(upload('negative sensitivity', { sensitivityMvPerG: '-5' }, ['value\n0.1\n', 'x.csv']));
   // Unknown routes and methods.
   for (const p of [
     '/api/v1/snapshots/..%2F..%2Fetc%2Fpasswd',

@@ -3,6 +3,7 @@
  * (sent first: the outbox is drained), the single-use link tokens in them, and the same
  * message as the admin's Mailbox screen shows it.
  */
+import { enqueueMail } from '../../apps/server/src/features/mail/outbox-repository.ts';
 import type { TestServer } from './test-server.ts';
 
 export interface Received {
@@ -10,6 +11,21 @@ export interface Received {
   subject: string;
   text: string;
   html: string;
+}
+
+/** Queues a message in the outbox as the product does (its bodies the placeholder "body"). */
+export function queueMail(
+  srv: TestServer,
+  m: { to: string; subject: string; dedupeKey: string; kind?: 'test' | 'alert' },
+): Promise<void> {
+  return enqueueMail(srv.ctx.db, {
+    kind: m.kind ?? 'test',
+    dedupeKey: m.dedupeKey,
+    to: m.to,
+    subject: m.subject,
+    text: 'body',
+    html: '<p>body</p>',
+  });
 }
 
 /** Sends what is due, then the newest message the SMTP fake received for `to`, or null. */

@@ -1,6 +1,7 @@
 /** Deterministic test captures: tones of known amplitude in ADC counts. Not demo data. */
 import { mulberry32 } from '@turnstone/dsp/seeded-random';
 import { encodeSamples } from '@turnstone/dsp/sample-codec';
+import { writeWav } from '@turnstone/dsp/read-wav';
 
 /** Mulberry32, seeded, so every run sends the same noise. */
 export const prng = mulberry32;
@@ -60,4 +61,31 @@ export function snapshotBody(
     sensor: { sensitivityMvPerG: o.sensitivityMvPerG ?? 100 },
     ...(o.speedRpm ? { speedRpm: o.speedRpm } : {}),
   };
+}
+
+/**
+ * The upload form of a route recording from a portable instrument: 8192 samples at 10240 Hz
+ * of `tones` over 0.001 g of noise (seeded), from a 100 mV/g sensor on a ±5 V, 16-bit range,
+ * as a WAV file, with the shaft speed and the time taken.
+ */
+export function routeRecordingForm(o: {
+  tones: ToneOptions['tones'];
+  seed: number;
+  speedRpm: number;
+  takenAt: string;
+  fileName: string;
+}): FormData {
+  const counts = toneCounts({ n: 8192, fs: 10240, tones: o.tones, noiseG: 0.001, seed: o.seed });
+  const form = new FormData();
+  const fields = {
+    sensitivityMvPerG: '100',
+    fullScaleV: '5',
+    bits: '16',
+    speedRpm: String(o.speedRpm),
+    takenAt: o.takenAt,
+  };
+  for (const [k, v] of Object.entries(fields)) form.append(k, v);
+  const wav = writeWav(counts, 10240, 'int16');
+  form.append('file', new Blob([wav as Uint8Array<ArrayBuffer>]), o.fileName);
+  return form;
 }

@@ -63,21 +63,32 @@ export async function freshDatabase(): Promise<string> {
   return url.toString();
 }
 
+/**
+ * How tests run the server: on port 0 of the loopback, no web build, silent, no worker, and
+ * (where it seeds the demo) the demo plant without generated history.
+ */
+export const QUIET_SERVER_ENV: Readonly<Record<string, string>> = {
+  PORT: '0',
+  HOST: '127.0.0.1',
+  BUILD_WEB: 'false',
+  LOG_LEVEL: 'silent',
+  RUN_WORKER: 'false',
+  DEMO_HISTORY_WEEKS: '0',
+};
+
+/** The real server in-process over `databaseUrl`, its data in `dataDir`, quiet, `env` over that. */
+export function startQuietServer(
+  databaseUrl: string,
+  dataDir: string,
+  env: Record<string, string> = {},
+): Promise<RunningServer> {
+  return start({ DATABASE_URL: databaseUrl, DATA_DIR: dataDir, ...QUIET_SERVER_ENV, ...env });
+}
+
 export async function startTestServer(env: Record<string, string> = {}): Promise<TestServer> {
   const databaseUrl = await freshDatabase();
   const dataDir = mkdtempSync(join(process.env.TURNSTONE_TEST_TMP ?? tmpdir(), 'data-'));
-  const server = await start({
-    DATABASE_URL: databaseUrl,
-    DATA_DIR: dataDir,
-    PORT: '0',
-    HOST: '127.0.0.1',
-    BUILD_WEB: 'false',
-    LOG_LEVEL: 'silent',
-    RUN_WORKER: 'false',
-    SEED_DEMO: 'true',
-    DEMO_HISTORY_WEEKS: '0',
-    ...env,
-  });
+  const server = await startQuietServer(databaseUrl, dataDir, { SEED_DEMO: 'true', ...env });
   const call: TestServer['call'] = (method, path, init = {}) => {
     const headers: Record<string, string> = { ...(init.headers ?? {}) };
     if (init.cookie) headers.cookie = init.cookie;

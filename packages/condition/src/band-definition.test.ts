@@ -1,19 +1,8 @@
 import { describe, it, expect } from 'vitest';
 import { checkBandDefinition, type BandDefinition } from './band-definition.ts';
+import { bpfoEnvelope } from './test-bands.ts';
 
-const good: BandDefinition = {
-  key: 'bpfo',
-  name: 'Bearing outer race',
-  kind: 'fault',
-  fault: 'bpfo',
-  halfWidth: 2,
-  halfWidthUnit: 'percent',
-  spectrum: 'envelope',
-  measure: 'peak',
-  unit: 'g',
-  alertLevel: 0.2,
-  dangerLevel: 0.5,
-};
+const good: BandDefinition = bpfoEnvelope(0.2, 0.5);
 const fields = (band: BandDefinition) => checkBandDefinition(band).map((p) => p.field);
 
 describe('checkBandDefinition', () => {

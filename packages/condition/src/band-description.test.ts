@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { BandDefinition } from './band-definition.ts';
 import { describeBand } from './band-description.ts';
+import { overallVelocity } from './test-bands.ts';
 
 // The sentences are our own wording (common practice, no source); the checks are that each
 // band kind names its quantity and its place in the spectrum, which the operator reads.
@@ -8,15 +9,7 @@ const common = { key: 'k', name: 'n', alertLevel: 1, dangerLevel: 2 } as const;
 
 describe('describeBand', () => {
   it('an ISO overall velocity band names its span and ISO 20816', () => {
-    const band: BandDefinition = {
-      ...common,
-      kind: 'overall',
-      fromHz: 10,
-      toHz: 1000,
-      spectrum: 'velocity',
-      measure: 'rms',
-      unit: 'mm/s',
-    };
+    const band: BandDefinition = { ...overallVelocity(1, 2), fromHz: 10, toHz: 1000 };
     expect(describeBand(band)).toBe(
       'How strongly the machine vibrates in all: the overall RMS vibration velocity from 10 to 1000 Hz — the quantity ISO 20816 judges a machine by.',
     );

@@ -87,10 +87,14 @@ export function isoZone(velocityMmS: number, group: MachineGroup, foundation: Fo
   if (!Number.isFinite(velocityMmS) || velocityMmS < 0) {
     throw new RangeError(`overall velocity must be a finite value ≥ 0 mm/s, got ${velocityMmS}`);
   }
-  const { ab, bc, cd } = isoZoneBoundaries(group, foundation);
-  if (velocityMmS >= cd) return 'D';
-  if (velocityMmS >= bc) return 'C';
-  if (velocityMmS >= ab) return 'B';
+  return zoneAgainst(velocityMmS, isoZoneBoundaries(group, foundation));
+}
+
+/** The zone of a value against one class's boundaries: on a boundary is the higher zone. */
+function zoneAgainst(value: number, { ab, bc, cd }: ZoneBoundaries): IsoZone {
+  if (value >= cd) return 'D';
+  if (value >= bc) return 'C';
+  if (value >= ab) return 'B';
   return 'A';
 }
 
@@ -147,11 +151,7 @@ export function isoDisplacementZone(
       `overall displacement must be a finite value ≥ 0 µm, got ${displacementUm}`,
     );
   }
-  const { ab, bc, cd } = isoDisplacementBoundaries(group, foundation);
-  if (displacementUm >= cd) return 'D';
-  if (displacementUm >= bc) return 'C';
-  if (displacementUm >= ab) return 'B';
-  return 'A';
+  return zoneAgainst(displacementUm, isoDisplacementBoundaries(group, foundation));
 }
 
 /**

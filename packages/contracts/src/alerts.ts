@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { currentDiagnosisSchema, isoZoneSchema } from './points.ts';
 import { freeText } from './text.ts';
 import { pageCursorSchema, sinceSchema } from './paging.ts';
+import { bandRefShape, pointRefShape } from './point-ref.ts';
 
 /** Alerts of the limit evaluation: level, lifecycle, and the Alerts screen's requests. */
 
@@ -30,16 +31,8 @@ export const alertSchema = z.object({
   id: z.number().int(),
   level: alertLevelSchema,
   state: alertStateSchema,
-  pointId: z.number().int(),
-  pointTag: z.string(),
-  pointName: z.string(),
-  machineId: z.number().int(),
-  machineName: z.string(),
-  siteId: z.number().int(),
-  siteCode: z.string(),
-  bandKey: z.string(),
-  bandName: z.string(),
-  unit: z.string(),
+  ...pointRefShape,
+  ...bandRefShape,
   /** Latest value while open. */
   value: z.number(),
   peakValue: z.number(),

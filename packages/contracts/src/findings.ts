@@ -2,27 +2,21 @@ import { z } from 'zod';
 import { freeText, oneLine } from './text.ts';
 import { pageCursorSchema, sinceSchema } from './paging.ts';
 import { isoWeekDays } from './dates.ts';
+import { labelledChoices } from './choices.ts';
 
 /**
  * Findings: the planner's follow-ups on a point (from a trend, a forecast, an alert or a
  * data-quality notice), carried from `open` to `planned` (a work order exists) to `done`.
  */
-export const findingStateSchema = z.enum(['open', 'planned', 'done']);
+const findingStates = labelledChoices({ open: 'Open', planned: 'Planned', done: 'Done' });
+export const findingStateSchema = findingStates.schema;
 export type FindingState = z.infer<typeof findingStateSchema>;
+export const findingStateLabels = findingStates.labels;
 
-export const findingStateLabels: Record<FindingState, string> = {
-  open: 'Open',
-  planned: 'Planned',
-  done: 'Done',
-};
-
-export const findingPrioritySchema = z.enum(['high', 'medium', 'low']);
+const findingPriorities = labelledChoices({ high: 'High', medium: 'Medium', low: 'Low' });
+export const findingPrioritySchema = findingPriorities.schema;
 export type FindingPriority = z.infer<typeof findingPrioritySchema>;
-export const findingPriorityLabels: Record<FindingPriority, string> = {
-  high: 'High',
-  medium: 'Medium',
-  low: 'Low',
-};
+export const findingPriorityLabels = findingPriorities.labels;
 
 /** A calendar date, `YYYY-MM-DD`. */
 export const isoDateSchema = z.iso.date({ message: 'Use a date like 2026-11-30' });
@@ -59,18 +53,23 @@ export const isoWeekSchema = z
   .string()
   .refine((w) => isoWeekDays(w) !== null, { message: 'Use a week like 2026-W49' });
 
-/** `POST /api/v1/findings` */
-export const createFindingSchema = z.object({
-  pointId: z.number().int().positive(),
-  alertId: z.number().int().positive().nullable().optional(),
-  bandKey: z.string().min(1).max(64).nullable().optional(),
-  title: titleSchema,
+/** The planner's fields of a finding, as creating and updating one take them (all optional). */
+const planningShape = {
   workOrderRef: blankable(workOrderRefSchema),
   dueDate: blankable(isoDateSchema),
   note: blankable(noteSchema),
   priority: findingPrioritySchema.optional(),
   owner: blankable(ownerSchema),
   plannedDowntimeHours: z.union([z.null(), downtimeSchema]).optional(),
+};
+
+/** `POST /api/v1/findings` */
+export const createFindingSchema = z.object({
+  pointId: z.number().int().positive(),
+  alertId: z.number().int().positive().nullable().optional(),
+  bandKey: z.string().min(1).max(64).nullable().optional(),
+  title: titleSchema,
+  ...planningShape,
 });
 export type CreateFindingInput = z.input<typeof createFindingSchema>;
 
@@ -127,12 +126,7 @@ export const updateFindingSchema = z
   .object({
     state: findingStateSchema.optional(),
     title: titleSchema.optional(),
-    workOrderRef: blankable(workOrderRefSchema),
-    dueDate: blankable(isoDateSchema),
-    note: blankable(noteSchema),
-    priority: findingPrioritySchema.optional(),
-    owner: blankable(ownerSchema),
-    plannedDowntimeHours: z.union([z.null(), downtimeSchema]).optional(),
+    ...planningShape,
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), {
     message: 'Nothing to change',

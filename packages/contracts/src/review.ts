@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { findingSchema, isoDateSchema } from './findings.ts';
+import { bandRefShape, pointRefShape } from './point-ref.ts';
 
 /**
  * The planner's weekly review: this week against last. A week is the seven local days of each
@@ -29,24 +30,13 @@ export type ReviewQuery = z.input<typeof reviewQuerySchema>;
 /** Choices the screen offers for the forecast horizon. */
 export const WEEKS_AHEAD_CHOICES = [2, 4, 8, 12, 26] as const;
 
-const pointRefShape = {
-  pointId: z.number().int(),
-  pointTag: z.string(),
-  pointName: z.string(),
-  machineId: z.number().int(),
-  machineName: z.string(),
-  siteId: z.number().int(),
-  siteCode: z.string(),
-};
 /** A point with the names a row of the review shows (the server reads it so). */
 export type PointRef = z.infer<z.ZodObject<typeof pointRefShape>>;
 
 /** One point and band whose weekly mean rose. */
 export const reviewMoverSchema = z.object({
   ...pointRefShape,
-  bandKey: z.string(),
-  bandName: z.string(),
-  unit: z.string(),
+  ...bandRefShape,
   lastWeekMean: z.number(),
   thisWeekMean: z.number(),
   lastWeekCount: z.number().int(),
@@ -61,9 +51,7 @@ export type ReviewMover = z.infer<typeof reviewMoverSchema>;
 /** One point and band projected to reach its next level within the horizon. */
 export const reviewForecastSchema = z.object({
   ...pointRefShape,
-  bandKey: z.string(),
-  bandName: z.string(),
-  unit: z.string(),
+  ...bandRefShape,
   latestValue: z.number(),
   latestAt: z.string(),
   target: z.object({ level: z.enum(['alert', 'danger']), value: z.number() }),
@@ -82,9 +70,7 @@ export type ReviewForecast = z.infer<typeof reviewForecastSchema>;
 export const reviewAlertSchema = z.object({
   ...pointRefShape,
   alertId: z.number().int(),
-  bandKey: z.string(),
-  bandName: z.string(),
-  unit: z.string(),
+  ...bandRefShape,
   level: z.enum(['alert', 'danger']),
   state: z.enum(['raised', 'acknowledged']),
   limitValue: z.number(),

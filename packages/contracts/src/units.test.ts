@@ -70,7 +70,8 @@ describe('unit systems', () => {
         expect(fromDisplay(toDisplay(stored, unit, 'imperial'), unit, 'imperial')).toBe(stored);
       }
     }
-  });
+    // 30,000 checks: more than the default 5 s when the machine is busy.
+  }, 30_000);
 
   it('when a stored system is not one of the two, the schema refuses it', () => {
     expect(unitSystemSchema.safeParse('imperial').success).toBe(true);

@@ -10,7 +10,7 @@ import {
   SPECTRA_STEP_DB,
   storedSpectrum,
 } from './spectra-codec.ts';
-import { lcg32 } from '@turnstone/dsp/seeded-random';
+import { toneCounts } from '@turnstone/dsp/tone-record.test-support';
 
 /** Largest relative error of decoded lines against the float64 values they came from. */
 function maxRelativeError(want: ArrayLike<number>, got: Float32Array): number {
@@ -55,22 +55,12 @@ describe('stored spectra: 16-bit log-amplitude code, deflated', () => {
   // Common practice, no source: a plant spectrum, a 1 g peak tone (0.7071 g RMS) at 100 Hz
   // over a little noise, as analyzeSnapshot computes it.
   it('round-trips the spectra analyzeSnapshot computes within the bound', () => {
-    const fs = 12800;
-    const u = lcg32(7);
-    const samples = Int32Array.from({ length: 8192 }, (_, i) => {
-      const g = Math.sin((2 * Math.PI * 100 * i) / fs) + 1e-3 * (u() - 0.5);
-      return Math.round(g * 0.1 * 2 ** 23);
-    });
-    const a = analyzeSnapshot({
-      samples,
-      encoding: 'int32',
-      sampleRateHz: fs,
-      adc: { bits: 24, fullScaleV: 1 },
-      sensor: { sensitivityMvPerG: 100 },
-      speedRpm: 1480,
-      fmaxHz: 5000,
-      lines: 1600,
-    });
+    const a = analyzeSnapshot(
+      toneCounts(
+        { fs: 12800, n: 8192, tones: [[100, 1]], noiseG: 1e-3, seed: 7 },
+        { speedRpm: 1480, fmaxHz: 5000, lines: 1600 },
+      ),
+    );
     const input = {
       acceleration: a.spectra.acceleration.values,
       velocity: a.spectra.velocity.values,

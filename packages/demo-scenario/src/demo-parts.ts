@@ -186,6 +186,41 @@ export const pump = (
   story,
 });
 
+/** A motor-driven machine measured at its motor's two bearings (6310 DE, 6308 NDE). */
+const twoPoleMotorDriven = (
+  code: string,
+  name: string,
+  type: MachineType,
+  nominalRpm: number,
+  foundation: DemoMachine['foundation'],
+  criticality: DemoMachine['criticality'],
+  powerKw: number,
+  story: DemoMachine['story'],
+): DemoMachine => ({
+  code,
+  name,
+  type,
+  nominalRpm,
+  isoGroup: 2,
+  foundation,
+  criticality,
+  powerKw,
+  lineHz: 50, // two-pole motor, direct on line
+  bearings: [b6310, b6308],
+  points: motorPoints('Motor DE', 'Motor NDE'),
+  story,
+});
+
+/** A 90 kW aeration blower with three blades on a flexible foundation. */
+export const blower = (code: string, name: string, story: DemoMachine['story']): DemoMachine => ({
+  ...twoPoleMotorDriven(code, name, 'blower', 2965, 'flexible', 'medium', 90, story),
+  bladeCount: 3,
+});
+
+/** A 132 kW screw compressor on a rigid foundation. */
+export const compressor = (code: string, name: string, story: DemoMachine['story']) =>
+  twoPoleMotorDriven(code, name, 'compressor', 2960, 'rigid', 'high', 132, story);
+
 /** A point on a gearbox's input or output shaft bearing. */
 export const gearboxPoint = (shaft: 'Input' | 'Output', direction: 'H' | 'A'): DemoPoint => ({
   suffix: `${shaft === 'Input' ? 'GIN' : 'GOUT'}-${direction}`,

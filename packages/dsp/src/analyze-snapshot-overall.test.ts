@@ -5,33 +5,18 @@
 import { describe, expect, it } from 'vitest';
 import { analyzeSnapshot, type SnapshotInput } from './analyze-snapshot.ts';
 import { ISO_BAND_HZ, isoBandForSpeed } from './iso-overall-band.ts';
-
-const COUNTS_PER_G = 0.1 * 2 ** 23; // 100 mV/g into a 24-bit, 1 V converter
+import { COUNTS_PER_G, toneCounts } from './tone-record.test-support.ts';
 
 /** Standard gravity, mm/s² per g (ISO 80000-3). */
 const G_MM_S2 = 9806.65;
 
 /** A record of tones (Hz, g peak) at any rate and length, in 24-bit counts, nothing else. */
-function toneRecord(
+const toneRecord = (
   fs: number,
   n: number,
   tones: [number, number][],
   extra: Partial<SnapshotInput> = {},
-): SnapshotInput {
-  const samples = Int32Array.from({ length: n }, (_, i) => {
-    let g = 0;
-    for (const [f, a] of tones) g += a * Math.sin((2 * Math.PI * f * i) / fs + 0.3);
-    return Math.round(g * COUNTS_PER_G);
-  });
-  return {
-    samples,
-    encoding: 'int32',
-    sampleRateHz: fs,
-    adc: { bits: 24, fullScaleV: 1 },
-    sensor: { sensitivityMvPerG: 100 },
-    ...extra,
-  };
-}
+): SnapshotInput => toneCounts({ fs, n, tones, phaseRad: 0.3 }, extra);
 
 /** Velocity RMS of a sine of `peakG` at f: v = a/(2πf), RMS = peak/√2. */
 const toneVelocityRms = (f: number, peakG: number) =>

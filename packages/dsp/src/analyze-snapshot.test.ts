@@ -2,33 +2,18 @@ import { describe, expect, it } from 'vitest';
 import { analyzeSnapshot, type SnapshotInput } from './analyze-snapshot.ts';
 import { bandRms } from './band-rms.ts';
 import { welch } from './welch.ts';
+import { lcg32 } from './seeded-random.ts';
+import { COUNTS_PER_G, toneCounts } from './tone-record.test-support.ts';
 
 const FS = 25600;
 const N = 65536;
-const COUNTS_PER_G = 0.1 * 2 ** 23; // 100 mV/g into a 24-bit, 1 V converter
 
 /** 24-bit counts of a sum of tones (amplitudes in g peak) plus a little deterministic noise. */
-function snapshot(
+const snapshot = (
   tones: [number, number][],
   extra: Partial<SnapshotInput> = {},
   n = N,
-): SnapshotInput {
-  let s = 99;
-  const samples = Int32Array.from({ length: n }, (_, i) => {
-    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-    let g = 1e-4 * (s / 2 ** 32 - 0.5);
-    for (const [f, a] of tones) g += a * Math.sin((2 * Math.PI * f * i) / FS + 0.1);
-    return Math.round(g * COUNTS_PER_G);
-  });
-  return {
-    samples,
-    encoding: 'int32',
-    sampleRateHz: FS,
-    adc: { bits: 24, fullScaleV: 1 },
-    sensor: { sensitivityMvPerG: 100 },
-    ...extra,
-  };
-}
+): SnapshotInput => toneCounts({ fs: FS, n, tones, phaseRad: 0.1, noiseG: 1e-4, seed: 99 }, extra);
 
 describe('analyzeSnapshot', () => {
   // Calculus of a sinusoid (v = a/2πf, d = a/(2πf)², RMS = peak/√2): 1 g peak at 100 Hz → 0.7071 g RMS, 15.61 mm/s peak (11.04 RMS), 49.68 µm pk-pk
@@ -77,11 +62,8 @@ describe('analyzeSnapshot', () => {
 
   // Parseval (common practice, no source): frequency-domain overall equals time-domain RMS
   it('when broadband noise is analysed, the spectrum’s band RMS matches the time-domain RMS within 1 %', () => {
-    let s = 5;
-    const samples = Int32Array.from({ length: N }, () => {
-      s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-      return Math.round((s / 2 ** 32 - 0.5) * 1e6);
-    });
+    const uniform = lcg32(5);
+    const samples = Int32Array.from({ length: N }, () => Math.round((uniform() - 0.5) * 1e6));
     const input: SnapshotInput = { ...snapshot([]), samples };
     const r = analyzeSnapshot(input);
     const full = welch(

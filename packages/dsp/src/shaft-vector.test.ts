@@ -97,26 +97,19 @@ describe('shaftVectors', () => {
       { length: N },
       (_, i) => 0.1 * Math.cos(2 * Math.PI * f * (i / FS) - (120 * Math.PI) / 180),
     ); // volts at 100 mV/g → 1 g peak
-    const r = analyzeSnapshot({
+    const record = {
       samples,
       encoding: 'float32',
       sampleRateHz: FS,
       adc: { bits: 24, fullScaleV: 10 },
       sensor: { sensitivityMvPerG: 100 },
-      tach: { pulseTimesS: pulses(f, 0, (N - 1) / FS) },
-    });
+    } as const;
+    const r = analyzeSnapshot({ ...record, tach: { pulseTimesS: pulses(f, 0, (N - 1) / FS) } });
     expect(r.shaftVectors).not.toBeNull();
     expect(r.shaftVectors![0]!.accelPhaseDeg).toBeCloseTo(120, 1);
     expect(r.shaftVectors![0]!.accelPeakG).toBeCloseTo(1, 2);
     expect(r.shaftVectors![1]!.accelPeakG).toBeLessThan(1e-3);
-    const noTach = analyzeSnapshot({
-      samples,
-      encoding: 'float32',
-      sampleRateHz: FS,
-      adc: { bits: 24, fullScaleV: 10 },
-      sensor: { sensitivityMvPerG: 100 },
-      speedRpm: 1500,
-    });
+    const noTach = analyzeSnapshot({ ...record, speedRpm: 1500 });
     expect(noTach.shaftVectors).toBeNull();
   });
 });

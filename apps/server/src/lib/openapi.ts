@@ -28,19 +28,21 @@ type Io = 'input' | 'output';
 const componentName = (exportName: string) =>
   exportName[0]!.toUpperCase() + exportName.slice(1, -'Schema'.length);
 
-/** `$ref`s to `#/$defs/<id>` → `#/components/schemas/<id>`, everywhere in `node`. */
-function refsToComponents(node: unknown): unknown {
-  if (Array.isArray(node)) return node.map(refsToComponents);
+/** `node` with every `$ref` string passed through `to`. */
+function mapRefs(node: unknown, to: (ref: string) => string): unknown {
+  if (Array.isArray(node)) return node.map((n) => mapRefs(n, to));
   if (!node || typeof node !== 'object') return node;
   return Object.fromEntries(
     Object.entries(node).map(([k, v]) => [
       k,
-      k === '$ref' && typeof v === 'string'
-        ? v.replace(/^#\/\$defs\//, '#/components/schemas/')
-        : refsToComponents(v),
+      k === '$ref' && typeof v === 'string' ? to(v) : mapRefs(v, to),
     ]),
   );
 }
+
+/** `$ref`s to `#/$defs/<id>` → `#/components/schemas/<id>`, everywhere in `node`. */
+const refsToComponents = (node: unknown) =>
+  mapRefs(node, (ref) => ref.replace(/^#\/\$defs\//, '#/components/schemas/'));
 
 /**
  * `components.schemas` made of the contracts' named schemas: every exported `fooSchema` of the
@@ -95,6 +97,29 @@ export class SchemaComponents {
       this.schemas[id] = body;
     }
     return refsToComponents(root) as Json;
+  }
+
+  /**
+   * The schemas and `paths` once every operation is described: a request-only `FooInput`
+   * whose answer twin `Foo` no operation uses is named `Foo`.
+   */
+  settle<T>(paths: T): { paths: T; schemas: Record<string, Json> } {
+    const rename = new Map<string, string>();
+    for (const name of Object.keys(this.schemas)) {
+      const plain = name.slice(0, -'Input'.length);
+      if (name.endsWith('Input') && !(plain in this.schemas)) rename.set(name, plain);
+    }
+    const prefix = '#/components/schemas/';
+    const to = (ref: string) =>
+      ref.startsWith(prefix) && rename.has(ref.slice(prefix.length))
+        ? prefix + rename.get(ref.slice(prefix.length))!
+        : ref;
+    return {
+      paths: mapRefs(paths, to) as T,
+      schemas: Object.fromEntries(
+        Object.entries(this.schemas).map(([name, s]) => [rename.get(name) ?? name, mapRefs(s, to)]),
+      ) as Record<string, Json>,
+    };
   }
 }
 

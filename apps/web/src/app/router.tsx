@@ -12,7 +12,11 @@ import { LoadingPanel } from '../components/ui/spinner.tsx';
 import { paths } from '../config/paths.ts';
 import { getMeQueryOptions } from '../features/auth/api/get-me.ts';
 import { queryClient } from '../lib/query-client.ts';
-import { preloadLinksOnIntent, setRoutePreloader } from '../lib/route-preload.ts';
+import {
+  preloadLinksOnIntent,
+  preloadNavigationCode,
+  setRoutePreloader,
+} from '../lib/route-preload.ts';
 import {
   alertsData,
   fleetData,
@@ -148,13 +152,13 @@ const routes: RouteObject[] = [
   },
 ];
 
-/** Loads the code and data of the screen at `href` without opening it. */
-function preloadScreen(href: string) {
+/** Loads the code, and unless told otherwise the data, of the screen at `href` without opening it. */
+function preloadScreen(href: string, data = true) {
   const url = new URL(href, window.location.origin);
   for (const match of matchRoutes(routes, url.pathname) ?? []) {
     const { route, params } = match;
     if (typeof route.lazy === 'function') route.lazy().catch(() => undefined);
-    if (typeof route.loader === 'function')
+    if (data && typeof route.loader === 'function')
       Promise.resolve(
         route.loader({
           params,
@@ -171,5 +175,12 @@ const router = createBrowserRouter(routes);
 
 export function AppRouter() {
   useEffect(() => preloadLinksOnIntent(), []);
+  useEffect(
+    () =>
+      preloadNavigationCode(
+        () => router.state.navigation.state !== 'idle' || queryClient.isFetching() > 0,
+      ),
+    [],
+  );
   return <RouterProvider router={router} />;
 }

@@ -20,3 +20,10 @@ export function formField<T extends FieldValues, N extends FieldPath<T>>(
   const error = get(form.formState.errors, name) as FieldError | undefined;
   return { ...form.register(name, options), error: error?.message };
 }
+
+/** For number inputs: empty → undefined (the schema says "required"), else a number. */
+export const asNumber = (v: unknown) =>
+  v === '' || v === null || v === undefined ? undefined : Number(v);
+/** For optional number inputs: empty → null. */
+export const asNullableNumber = (v: unknown) =>
+  v === '' || v === null || v === undefined ? null : Number(v);

@@ -4,7 +4,8 @@
  * one (an alert's point). The router registers how (`setRoutePreloader`); features only name
  * the address, so they need not know the routes.
  */
-type Preloader = (href: string) => void;
+/** Loads the screen at `href`: its code, and its data unless `data` is false. */
+type Preloader = (href: string, data?: boolean) => void;
 
 let preloader: Preloader | null = null;
 let last = '';
@@ -45,5 +46,51 @@ export function preloadLinksOnIntent(root: Document = document): () => void {
   return () => {
     root.removeEventListener('pointerover', onIntent);
     root.removeEventListener('focusin', onIntent);
+  };
+}
+
+/**
+ * Loads the code (not the data) of the screens the main navigation links to, one screen per
+ * idle moment, once the page has loaded and `busy` (a screen's code or data on its way) is
+ * over: the screen a user opens next from the navigation, or by an address (a point's limits),
+ * then waits only for its data. Returns a function that stops it.
+ */
+export function preloadNavigationCode(busy: () => boolean, root: Document = document): () => void {
+  const idle = (fn: () => void): (() => void) => {
+    if (typeof window.requestIdleCallback === 'function') {
+      const id = window.requestIdleCallback(fn, { timeout: 2000 });
+      return () => window.cancelIdleCallback(id);
+    }
+    const id = window.setTimeout(fn, 200);
+    return () => window.clearTimeout(id);
+  };
+  const done = new Set<string>();
+  let cancel = () => {};
+  // Pages without the navigation (sign-in) are looked at a few times, then left alone.
+  let looks = 20;
+  const next = () => {
+    if (busy()) {
+      cancel = idle(next);
+      return;
+    }
+    const link = [...root.querySelectorAll<HTMLAnchorElement>('nav a[href]')].find(
+      (a) => a.origin === window.location.origin && !done.has(a.pathname),
+    );
+    if (!link) {
+      if (done.size === 0 && --looks > 0) cancel = idle(next);
+      return;
+    }
+    done.add(link.pathname);
+    preloader?.(link.pathname, false);
+    cancel = idle(next);
+  };
+  const start = () => {
+    cancel = idle(next);
+  };
+  if (root.readyState === 'complete') start();
+  else window.addEventListener('load', start, { once: true });
+  return () => {
+    window.removeEventListener('load', start);
+    cancel();
   };
 }

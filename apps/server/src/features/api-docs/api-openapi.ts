@@ -266,7 +266,7 @@ export function apiOpenApi(groups: () => RouteGroup[], serverUrl: string): objec
         p[spec.method] = operation(spec, group.tag, components);
       }
     }
-    cached = { paths, tags, schemas: components.schemas };
+    cached = { tags, ...components.settle(paths) };
   }
   return {
     openapi: '3.1.0',

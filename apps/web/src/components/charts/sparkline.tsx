@@ -1,3 +1,5 @@
+import { LevelLine } from './level-line.tsx';
+
 /**
  * A tiny trend drawn as inline SVG (no ECharts: a machine page may show many, and they
  * should appear at once). Optional alert and danger level lines, dashed.
@@ -33,25 +35,14 @@ export function Sparkline({
   return (
     <svg width={width} height={height} role="img" aria-label={label} className="overflow-visible">
       {alertLevel != null && alertLevel <= hi && (
-        <line
-          x1={0}
-          x2={width}
-          y1={y(alertLevel)}
-          y2={y(alertLevel)}
-          stroke="var(--color-status-alert)"
-          strokeDasharray="3 2"
-          strokeWidth={1}
-        />
+        <LevelLine y={y(alertLevel)} width={width} colour="var(--color-status-alert)" dash="3 2" />
       )}
       {dangerLevel != null && (
-        <line
-          x1={0}
-          x2={width}
-          y1={y(dangerLevel)}
-          y2={y(dangerLevel)}
-          stroke="var(--color-status-danger)"
-          strokeDasharray="6 2"
-          strokeWidth={1}
+        <LevelLine
+          y={y(dangerLevel)}
+          width={width}
+          colour="var(--color-status-danger)"
+          dash="6 2"
         />
       )}
       <path

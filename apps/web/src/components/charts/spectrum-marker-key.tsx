@@ -5,6 +5,7 @@
 import { formatValue } from './chart-theme.ts';
 import { markColour, markDash, type MarkKind } from './spectrum-option.ts';
 import { cn } from '../../lib/cn.ts';
+import { LevelLine } from './level-line.tsx';
 
 export interface MarkFamily {
   name: string;
@@ -57,14 +58,12 @@ export function MarkerKey({
                 )}
               >
                 <svg viewBox="0 0 18 6" aria-hidden="true" className="h-1.5 w-[18px]">
-                  <line
-                    x1="0"
-                    y1="3"
-                    x2="18"
-                    y2="3"
-                    stroke={markColour[f.kind]}
-                    strokeWidth="2"
-                    strokeDasharray={dash[markDash[f.kind]]}
+                  <LevelLine
+                    y={3}
+                    width={18}
+                    colour={markColour[f.kind]}
+                    dash={dash[markDash[f.kind]]}
+                    thickness={2}
                   />
                 </svg>
                 <span>{f.name}</span>

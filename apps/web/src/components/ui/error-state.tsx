@@ -1,6 +1,8 @@
 import type { ReactNode } from 'react';
 import { isApiError } from '../../lib/api-client.ts';
 import { Button } from './button.tsx';
+import { StatePanel } from './empty-state.tsx';
+import { StrokePath } from './icon.tsx';
 
 /** Shows what went wrong in the server's own words, with its error code for support. */
 export function ErrorState({
@@ -20,22 +22,17 @@ export function ErrorState({
     error instanceof Error && error.message ? error.message : 'An unexpected error occurred.';
   const code = isApiError(error) ? error.code : undefined;
   return (
-    <div
+    <StatePanel
       role="alert"
-      className="flex flex-col items-center justify-center gap-2 px-6 py-12 text-center"
+      title={title}
+      mark={
+        <svg viewBox="0 0 40 40" aria-hidden="true" className="mb-1 size-10 text-status-danger">
+          <StrokePath d="M20 4 36 20 20 36 4 20Z" width={2} />
+          <StrokePath d="M20 13v9" width={2.5} />
+          <circle cx="20" cy="27" r="1.6" fill="currentColor" />
+        </svg>
+      }
     >
-      <svg viewBox="0 0 40 40" aria-hidden="true" className="mb-1 size-10 text-status-danger">
-        <path
-          d="M20 4 36 20 20 36 4 20Z"
-          fill="none"
-          stroke="currentColor"
-          strokeWidth="2"
-          strokeLinejoin="round"
-        />
-        <path d="M20 13v9" stroke="currentColor" strokeWidth="2.5" strokeLinecap="round" />
-        <circle cx="20" cy="27" r="1.6" fill="currentColor" />
-      </svg>
-      <p className="text-sm font-semibold text-ink">{title}</p>
       <p className="max-w-lg text-sm text-ink-muted">{message}</p>
       {code && (
         <p className="font-mono text-xs text-ink-faint">
@@ -52,6 +49,6 @@ export function ErrorState({
           {action}
         </div>
       )}
-    </div>
+    </StatePanel>
   );
 }

@@ -106,6 +106,33 @@ export function InputField({
 /** One choice of a `SelectField`: the value and what the option shows. */
 export type SelectOption = readonly [value: string | number, label: ReactNode];
 
+function Options({ options }: { options: readonly SelectOption[] }) {
+  return options.map(([value, text]) => (
+    <option key={value} value={value}>
+      {text}
+    </option>
+  ));
+}
+
+/**
+ * A select of a filter bar: its label above it in small muted type (the select inherits the
+ * label's weight), the choices as [value, label] pairs; `className` styles the select.
+ */
+export function FilterSelect({
+  label,
+  options,
+  ...select
+}: { label: string; options: readonly SelectOption[] } & ComponentProps<typeof Select>) {
+  return (
+    <label className="flex flex-col gap-1 text-xs font-medium text-ink-muted">
+      {label}
+      <Select {...select}>
+        <Options options={options} />
+      </Select>
+    </label>
+  );
+}
+
 /**
  * A `Field` holding one `Select`. Give the choices as `options` ([value, label] pairs) or as
  * `<option>` children; pass the form library's registration or `value`/`onChange` as to a
@@ -130,11 +157,7 @@ export function SelectField({
     <Field label={label} hint={hint} error={error} className={className}>
       {({ invalid: _invalid, ...ids }) => (
         <Select {...ids} {...select}>
-          {options?.map(([value, text]) => (
-            <option key={value} value={value}>
-              {text}
-            </option>
-          ))}
+          {options && <Options options={options} />}
           {children}
         </Select>
       )}

@@ -19,3 +19,27 @@ export function PageHeader({
     </div>
   );
 }
+
+/**
+ * A screen's frame: the document title ("Account · Turnstone"), its header and what it shows,
+ * padded as the app's screens are.
+ */
+export function Page({
+  title,
+  description,
+  actions,
+  children,
+}: {
+  title: string;
+  description?: ReactNode;
+  actions?: ReactNode;
+  children: ReactNode;
+}) {
+  return (
+    <div className="flex flex-col gap-4 p-4 sm:px-6 sm:py-5">
+      <title>{`${title} · Turnstone`}</title>
+      <PageHeader title={title} description={description} actions={actions} />
+      {children}
+    </div>
+  );
+}

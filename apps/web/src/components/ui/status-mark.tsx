@@ -1,8 +1,10 @@
 import type { NodeStatus } from '@turnstone/contracts/fleet';
 import { cn } from '../../lib/cn.ts';
 import { statusLabels } from '../../lib/node-status.ts';
+import { Ring } from './icon.tsx';
 
-const textColour: Record<NodeStatus, string> = {
+/** Each status's colour, for its shape. */
+export const statusTextColour: Record<NodeStatus, string> = {
   ok: 'text-status-ok',
   alert: 'text-status-alert',
   danger: 'text-status-danger',
@@ -53,15 +55,7 @@ export function StatusShape({ status, className }: { status: NodeStatus; classNa
     case 'stale':
       return (
         <svg {...common}>
-          <circle
-            cx="6"
-            cy="6"
-            r="4.4"
-            fill="none"
-            stroke="currentColor"
-            strokeWidth="1.5"
-            strokeDasharray="2.2 1.6"
-          />
+          <Ring r={4.4} width={1.5} dash="2.2 1.6" />
         </svg>
       );
     case 'none':
@@ -97,7 +91,7 @@ export function StatusMark({
 }) {
   return (
     <span className={cn('inline-flex items-center gap-1.5 whitespace-nowrap', className)}>
-      <StatusShape status={status} className={cn('size-3 shrink-0', textColour[status])} />
+      <StatusShape status={status} className={cn('size-3 shrink-0', statusTextColour[status])} />
       <span className={labelHidden ? 'sr-only' : 'text-[13px] text-ink'}>
         {statusLabels[status]}
       </span>

@@ -1,4 +1,4 @@
-import { PageHeader } from '../../../components/ui/page-header.tsx';
+import { Page } from '../../../components/ui/page-header.tsx';
 import { useMe } from '../../../features/auth/api/get-me.ts';
 import { ChangePasswordForm } from '../../../features/account/components/change-password-form.tsx';
 import { NotificationSettings } from '../../../features/account/components/notification-settings.tsx';
@@ -7,12 +7,7 @@ import { UnitSettings } from '../../../features/account/components/unit-settings
 export function AccountRoute() {
   const me = useMe();
   return (
-    <div className="flex flex-col gap-4 p-4 sm:px-6 sm:py-5">
-      <title>Account · Turnstone</title>
-      <PageHeader
-        title="Account"
-        description={me.data ? `${me.data.name} · ${me.data.email}` : undefined}
-      />
+    <Page title="Account" description={me.data ? `${me.data.name} · ${me.data.email}` : undefined}>
       <div className="grid items-start gap-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
         <NotificationSettings showDigest={me.data?.role === 'planner'} />
         <div className="flex flex-col gap-4">
@@ -20,6 +15,6 @@ export function AccountRoute() {
           <ChangePasswordForm />
         </div>
       </div>
-    </div>
+    </Page>
   );
 }

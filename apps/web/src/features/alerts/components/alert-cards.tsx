@@ -5,7 +5,7 @@ import { cn } from '../../../lib/cn.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { Age } from '../../../components/ui/age.tsx';
 import { AlertStateMark } from './alert-labels.tsx';
-import { focusAcknowledgeNote } from './acknowledge-form.tsx';
+import { AlertSelectBox } from './alert-select-box.tsx';
 import { useUnits } from '../../account/api/use-units.ts';
 
 /**
@@ -38,19 +38,9 @@ export function AlertCards({
             className={cn('flex gap-3 px-3 py-3', openId === a.id && 'bg-accent-soft')}
           >
             {selectable && (
-              <input
-                type="checkbox"
-                aria-label={`Select alert on ${a.pointTag}, ${a.bandName}`}
+              <AlertSelectBox
+                row={row}
                 className="mt-1 size-5 shrink-0 accent-accent disabled:opacity-30"
-                checked={row.getIsSelected()}
-                disabled={!row.getCanSelect()}
-                onChange={row.getToggleSelectedHandler()}
-                onKeyDown={(e) => {
-                  if (e.key !== 'Enter' || !row.getCanSelect()) return;
-                  e.preventDefault();
-                  if (!row.getIsSelected()) row.toggleSelected(true);
-                  focusAcknowledgeNote();
-                }}
               />
             )}
             <div className="flex min-w-0 flex-1 flex-col gap-1.5">

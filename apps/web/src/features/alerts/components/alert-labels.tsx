@@ -1,6 +1,7 @@
 import { formatQuantity } from '@turnstone/contracts/number-format';
 import type { UnitSystem } from '@turnstone/contracts/units';
 import type { AlertDetail, AlertStateName } from '@turnstone/contracts/alerts';
+import { Ring, StrokePath } from '../../../components/ui/icon.tsx';
 import { cn } from '../../../lib/cn.ts';
 
 export const alertStateLabels: Record<AlertStateName, string> = {
@@ -107,28 +108,11 @@ export function AlertStateMark({
         {state === 'raised' && <circle cx="6" cy="6" r="4.5" fill="currentColor" />}
         {state === 'acknowledged' && (
           <>
-            <circle cx="6" cy="6" r="4.6" fill="none" stroke="currentColor" strokeWidth="1.4" />
-            <path
-              d="M3.8 6.1 5.3 7.6 8.3 4.5"
-              fill="none"
-              stroke="currentColor"
-              strokeWidth="1.4"
-              strokeLinecap="round"
-              strokeLinejoin="round"
-            />
+            <Ring r={4.6} width={1.4} />
+            <StrokePath d="M3.8 6.1 5.3 7.6 8.3 4.5" width={1.4} />
           </>
         )}
-        {state === 'cleared' && (
-          <circle
-            cx="6"
-            cy="6"
-            r="4.4"
-            fill="none"
-            stroke="currentColor"
-            strokeWidth="1.2"
-            strokeDasharray="2 1.5"
-          />
-        )}
+        {state === 'cleared' && <Ring r={4.4} width={1.2} dash="2 1.5" />}
       </svg>
       <span className={state === 'cleared' ? 'text-ink-muted' : 'text-ink'}>
         {alertStateLabels[state]}

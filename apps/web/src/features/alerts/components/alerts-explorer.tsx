@@ -4,13 +4,26 @@ import type { RowSelectionState } from '@tanstack/react-table';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
-import { Select } from '../../../components/ui/field.tsx';
+import { FilterSelect, type SelectOption } from '../../../components/ui/field.tsx';
 import { LoadingPanel, Spinner } from '../../../components/ui/spinner.tsx';
 import { useNow } from '../../../hooks/use-now.ts';
 import { alertFiltersFromSearch, useAlerts, useSites } from '../api/get-alerts.ts';
 import { AcknowledgeForm } from './acknowledge-form.tsx';
 import { AlertHistory } from './alert-history.tsx';
 import { AlertsTable } from './alerts-table.tsx';
+
+const stateOptions: SelectOption[] = [
+  ['open', 'Open (raised or acknowledged)'],
+  ['raised', 'Raised'],
+  ['acknowledged', 'Acknowledged'],
+  ['cleared', 'Cleared'],
+  ['all', 'All'],
+];
+const levelOptions: SelectOption[] = [
+  ['', 'Alert and danger'],
+  ['danger', 'Danger'],
+  ['alert', 'Alert'],
+];
 
 /** Filters, the alert table, the acknowledgement form and the selected alert's history. */
 export function AlertsExplorer({
@@ -76,38 +89,27 @@ export function AlertsExplorer({
     <div className="flex min-h-0 flex-1 flex-col gap-4 lg:flex-row">
       <div className="flex min-w-0 flex-1 flex-col gap-3">
         <div className="flex flex-wrap items-end gap-3" role="group" aria-label="Filters">
-          <label className="flex flex-col gap-1 text-xs font-medium text-ink-muted">
-            State
-            <Select
-              value={stateFilter}
-              onChange={(e) => setParam('state', e.target.value === 'open' ? null : e.target.value)}
-            >
-              <option value="open">Open (raised or acknowledged)</option>
-              <option value="raised">Raised</option>
-              <option value="acknowledged">Acknowledged</option>
-              <option value="cleared">Cleared</option>
-              <option value="all">All</option>
-            </Select>
-          </label>
-          <label className="flex flex-col gap-1 text-xs font-medium text-ink-muted">
-            Level
-            <Select value={level ?? ''} onChange={(e) => setParam('level', e.target.value || null)}>
-              <option value="">Alert and danger</option>
-              <option value="danger">Danger</option>
-              <option value="alert">Alert</option>
-            </Select>
-          </label>
-          <label className="flex flex-col gap-1 text-xs font-medium text-ink-muted">
-            Site
-            <Select value={siteId ?? ''} onChange={(e) => setParam('site', e.target.value || null)}>
-              <option value="">Every site</option>
-              {sites.data?.items.map((s) => (
-                <option key={s.id} value={s.id}>
-                  {s.name}
-                </option>
-              ))}
-            </Select>
-          </label>
+          <FilterSelect
+            label="State"
+            options={stateOptions}
+            value={stateFilter}
+            onChange={(e) => setParam('state', e.target.value === 'open' ? null : e.target.value)}
+          />
+          <FilterSelect
+            label="Level"
+            options={levelOptions}
+            value={level ?? ''}
+            onChange={(e) => setParam('level', e.target.value || null)}
+          />
+          <FilterSelect
+            label="Site"
+            options={[
+              ['', 'Every site'],
+              ...(sites.data?.items ?? []).map((s): SelectOption => [s.id, s.name]),
+            ]}
+            value={siteId ?? ''}
+            onChange={(e) => setParam('site', e.target.value || null)}
+          />
           <p className="ml-auto flex items-center gap-2 text-xs text-ink-muted" aria-live="polite">
             {alerts.isFetching && !alerts.isPending && <Spinner size="sm" />}
             <span className="font-mono">{counts.danger}</span> danger ·{' '}

@@ -16,7 +16,7 @@ import { Age } from '../../../components/ui/age.tsx';
 import { useMediaQuery } from '../../../hooks/use-media-query.ts';
 import { AlertStateMark } from './alert-labels.tsx';
 import { AlertCards } from './alert-cards.tsx';
-import { focusAcknowledgeNote } from './acknowledge-form.tsx';
+import { AlertSelectBox } from './alert-select-box.tsx';
 import { useUnits } from '../../account/api/use-units.ts';
 
 const column = createColumnHelper<Alert>();
@@ -81,22 +81,7 @@ export function AlertsTable({
                 />
               ),
               cell: ({ row }) => (
-                <input
-                  type="checkbox"
-                  aria-label={`Select alert on ${row.original.pointTag}, ${row.original.bandName}`}
-                  className="size-4 accent-accent disabled:opacity-30"
-                  checked={row.getIsSelected()}
-                  disabled={!row.getCanSelect()}
-                  onClick={(e) => e.stopPropagation()}
-                  onChange={row.getToggleSelectedHandler()}
-                  onKeyDown={(e) => {
-                    // Enter selects and goes to the note, so the note is one key away.
-                    if (e.key !== 'Enter' || !row.getCanSelect()) return;
-                    e.preventDefault();
-                    if (!row.getIsSelected()) row.toggleSelected(true);
-                    focusAcknowledgeNote();
-                  }}
-                />
+                <AlertSelectBox row={row} className="size-4 accent-accent disabled:opacity-30" />
               ),
             }),
           ]

@@ -8,7 +8,9 @@ import {
 import { useEffect, useRef } from 'react';
 import { useForm } from 'react-hook-form';
 import { Button } from '../../../components/ui/button.tsx';
-import { Field, Input, Select } from '../../../components/ui/field.tsx';
+import { Field, InputField, type SelectOption } from '../../../components/ui/field.tsx';
+import { FormFields, type FieldSpec } from '../../../components/ui/form-fields.tsx';
+import { formField } from '../../../lib/form-field.ts';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 
 const fields = [
@@ -20,6 +22,39 @@ const fields = [
   'owner',
   'plannedDowntimeHours',
 ] as const;
+
+const referenceFields: FieldSpec<FindingFormInput>[] = [
+  {
+    kind: 'text',
+    name: 'workOrderRef',
+    label: 'Work-order reference',
+    hint: 'From the maintenance system; needed to mark it planned.',
+    inputClassName: 'font-mono',
+    spellCheck: false,
+  },
+  { kind: 'text', name: 'dueDate', label: 'Due date', type: 'date', inputClassName: 'font-mono' },
+];
+
+const workFields: FieldSpec<FindingFormInput>[] = [
+  {
+    kind: 'select',
+    name: 'priority',
+    label: 'Priority',
+    options: (['high', 'medium', 'low'] as const).map((p): SelectOption => [
+      p,
+      findingPriorityLabels[p],
+    ]),
+  },
+  { kind: 'text', name: 'owner', label: 'Owner', hint: 'Person or crew doing the work.' },
+  {
+    kind: 'text',
+    name: 'plannedDowntimeHours',
+    label: 'Planned downtime (h)',
+    hint: 'Machine stopped for the work, hours.',
+    inputMode: 'decimal',
+    inputClassName: 'font-mono',
+  },
+];
 
 export const emptyFindingForm: FindingFormInput = {
   title: '',
@@ -107,71 +142,12 @@ export function FindingFormDialog({
             {error.message}
           </p>
         )}
-        <Field label="Title" error={errors.title?.message}>
-          {({ invalid, ...ids }) => (
-            <Input {...ids} {...form.register('title')} invalid={invalid} autoFocus />
-          )}
-        </Field>
+        <InputField label="Title" autoFocus {...formField(form, 'title')} />
         <div className="grid gap-4 sm:grid-cols-2">
-          <Field
-            label="Work-order reference"
-            hint="From the maintenance system; needed to mark it planned."
-            error={errors.workOrderRef?.message}
-          >
-            {({ invalid, ...ids }) => (
-              <Input
-                {...ids}
-                {...form.register('workOrderRef')}
-                invalid={invalid}
-                className="font-mono"
-                spellCheck={false}
-              />
-            )}
-          </Field>
-          <Field label="Due date" error={errors.dueDate?.message}>
-            {({ invalid, ...ids }) => (
-              <Input
-                {...ids}
-                {...form.register('dueDate')}
-                invalid={invalid}
-                type="date"
-                className="font-mono"
-              />
-            )}
-          </Field>
+          <FormFields form={form} fields={referenceFields} />
         </div>
         <div className="grid gap-4 sm:grid-cols-3">
-          <Field label="Priority" error={errors.priority?.message}>
-            {({ invalid: _invalid, ...ids }) => (
-              <Select {...ids} {...form.register('priority')}>
-                {(['high', 'medium', 'low'] as const).map((p) => (
-                  <option key={p} value={p}>
-                    {findingPriorityLabels[p]}
-                  </option>
-                ))}
-              </Select>
-            )}
-          </Field>
-          <Field label="Owner" hint="Person or crew doing the work." error={errors.owner?.message}>
-            {({ invalid, ...ids }) => (
-              <Input {...ids} {...form.register('owner')} invalid={invalid} />
-            )}
-          </Field>
-          <Field
-            label="Planned downtime (h)"
-            hint="Machine stopped for the work, hours."
-            error={errors.plannedDowntimeHours?.message}
-          >
-            {({ invalid, ...ids }) => (
-              <Input
-                {...ids}
-                {...form.register('plannedDowntimeHours')}
-                invalid={invalid}
-                inputMode="decimal"
-                className="font-mono"
-              />
-            )}
-          </Field>
+          <FormFields form={form} fields={workFields} />
         </div>
         <Field label="Note" error={errors.note?.message}>
           {({ invalid, ...ids }) => (

@@ -1,13 +1,13 @@
 import { findingPriorityLabels, type FindingState } from '@turnstone/contracts/findings';
 import { isoWeekDays, isoWeekOf } from '@turnstone/contracts/dates';
 import { useState } from 'react';
-import { Link } from 'react-router-dom';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
+import { PointLabel } from '../../../components/ui/text-link.tsx';
+import { TableHead } from '../../../components/ui/table-head.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { Input, Select } from '../../../components/ui/field.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
-import { paths } from '../../../config/paths.ts';
 import { formatDate } from '../../../lib/format.ts';
 import { formatNumber } from '@turnstone/contracts/number-format';
 import { useFindings } from '../api/get-findings.ts';
@@ -31,6 +31,8 @@ const localToday = () => formatDate(Date.now());
  * The findings of the sites in view, with their controls: edit (priority, owner, planned
  * downtime, …) and state (open → planned → done).
  */
+const columns = ['Finding', 'Point', 'Priority', 'Owner', 'Downtime', 'State', 'Work order', 'Due'];
+
 export function FindingsList({
   siteId,
   canEdit,
@@ -120,32 +122,13 @@ export function FindingsList({
         ) : (
           <div className="review-scroll overflow-x-auto">
             <table className="review-table w-full border-collapse">
-              <thead className="bg-sunken/60">
-                <tr>
-                  {[
-                    'Finding',
-                    'Point',
-                    'Priority',
-                    'Owner',
-                    'Downtime',
-                    'State',
-                    'Work order',
-                    'Due',
-                  ].map((h) => (
-                    <th
-                      key={h}
-                      className="px-3 py-2 text-left text-xs font-medium whitespace-nowrap text-ink-muted"
-                    >
-                      {h}
-                    </th>
-                  ))}
-                  {canEdit && (
-                    <th data-print="hide" className="px-3 py-2">
-                      <span className="sr-only">Actions</span>
-                    </th>
-                  )}
-                </tr>
-              </thead>
+              <TableHead
+                look="band"
+                columns={columns}
+                actions={
+                  canEdit ? { label: 'Actions', visible: false, printHidden: true } : undefined
+                }
+              />
               <tbody className="divide-y divide-line">
                 {items.map((f) => {
                   const overdue = f.state !== 'done' && f.dueDate !== null && f.dueDate < today;
@@ -157,13 +140,12 @@ export function FindingsList({
                         <p className="text-xs text-ink-faint">by {f.createdBy.name}</p>
                       </td>
                       <td className="px-3 py-2 align-top text-[13px]">
-                        <Link
-                          to={paths.app.point.getHref(f.pointId)}
-                          className="font-mono font-medium whitespace-nowrap text-accent underline-offset-2 hover:underline"
-                        >
-                          {f.pointTag}
-                        </Link>
-                        <div className="text-xs text-ink-muted">{f.machineName}</div>
+                        <PointLabel
+                          pointId={f.pointId}
+                          title={f.pointTag}
+                          titleIs="tag"
+                          detail={f.machineName}
+                        />
                       </td>
                       <td className="px-3 py-2 align-top text-[13px] text-ink">
                         <span className={f.priority === 'high' ? 'font-semibold' : undefined}>

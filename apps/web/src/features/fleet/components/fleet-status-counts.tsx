@@ -1,18 +1,9 @@
 import type { NodeStatus } from '@turnstone/contracts/fleet';
-import { StatusShape } from '../../../components/ui/status-mark.tsx';
+import { StatusShape, statusTextColour } from '../../../components/ui/status-mark.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { formatInteger } from '../../../lib/format.ts';
 import { statusLabels, statusOrder } from '../../../lib/node-status.ts';
 import type { FleetSummary } from '../utils/build-fleet-rows.ts';
-
-const shapeColour: Record<NodeStatus, string> = {
-  ok: 'text-status-ok',
-  alert: 'text-status-alert',
-  danger: 'text-status-danger',
-  quality: 'text-status-quality',
-  stale: 'text-status-stale',
-  none: 'text-status-none',
-};
 
 /** Machines per status; each count is also a toggle for the status filter. */
 export function FleetStatusCounts({
@@ -46,7 +37,7 @@ export function FleetStatusCounts({
                 )}
               >
                 <span className="flex min-w-0 items-center gap-1.5 text-[13px] whitespace-nowrap text-ink-muted">
-                  <StatusShape status={status} className={cn('size-3', shapeColour[status])} />
+                  <StatusShape status={status} className={cn('size-3', statusTextColour[status])} />
                   {statusLabels[status]}
                 </span>
                 <span className="font-mono text-lg leading-6 font-medium text-ink">

@@ -1,7 +1,8 @@
 import type { NodeStatus } from '@turnstone/contracts/fleet';
 import { useId } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
-import { Input, Select } from '../../../components/ui/field.tsx';
+import { FilterSelect, Input, type SelectOption } from '../../../components/ui/field.tsx';
+import { Ring, StrokePath } from '../../../components/ui/icon.tsx';
 import { isNodeStatus, statusLabels, statusOrder } from '../../../lib/node-status.ts';
 
 export function FleetToolbar({
@@ -34,13 +35,8 @@ export function FleetToolbar({
             aria-hidden="true"
             className="pointer-events-none absolute top-1/2 left-2.5 size-4 -translate-y-1/2 text-ink-faint"
           >
-            <circle cx="7" cy="7" r="4.5" fill="none" stroke="currentColor" strokeWidth="1.5" />
-            <path
-              d="m10.5 10.5 3 3"
-              stroke="currentColor"
-              strokeWidth="1.5"
-              strokeLinecap="round"
-            />
+            <Ring cx={7} r={4.5} width={1.5} />
+            <StrokePath d="m10.5 10.5 3 3" width={1.5} />
           </svg>
           <Input
             id={`${id}-q`}
@@ -55,27 +51,19 @@ export function FleetToolbar({
           />
         </div>
       </div>
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`${id}-status`} className="text-xs font-medium text-ink-muted">
-          Status
-        </label>
-        <Select
-          id={`${id}-status`}
-          value={status ?? ''}
-          onChange={(event) => {
-            const value = event.target.value;
-            onStatusChange(isNodeStatus(value) ? value : null);
-          }}
-          className="w-44"
-        >
-          <option value="">All statuses</option>
-          {statusOrder.map((s) => (
-            <option key={s} value={s}>
-              {statusLabels[s]}
-            </option>
-          ))}
-        </Select>
-      </div>
+      <FilterSelect
+        label="Status"
+        options={[
+          ['', 'All statuses'],
+          ...statusOrder.map((s): SelectOption => [s, statusLabels[s]]),
+        ]}
+        value={status ?? ''}
+        onChange={(event) => {
+          const value = event.target.value;
+          onStatusChange(isNodeStatus(value) ? value : null);
+        }}
+        className="w-44 font-normal"
+      />
       <div className="flex items-center gap-1">
         <Button size="sm" variant="ghost" onClick={onExpandAll}>
           Expand all

@@ -1,11 +1,12 @@
 import { Link } from 'react-router-dom';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
+import { StrokePath } from '../../../components/ui/icon.tsx';
 import { paths } from '../../../config/paths.ts';
 import { cn } from '../../../lib/cn.ts';
 import { formatInteger } from '../../../lib/format.ts';
 import { Age } from '../../../components/ui/age.tsx';
 import type { FleetRow } from '../utils/build-fleet-rows.ts';
-import { directionLabels, machineTypeLabels } from '../utils/fleet-labels.ts';
+import { directionLabels, machineTypeLabels } from '../../../lib/machine-labels.ts';
 
 /** Grid shared by the column header and every row, so columns line up. */
 export const fleetGridColumns =
@@ -29,14 +30,7 @@ function Chevron({ expanded, hidden }: { expanded: boolean; hidden: boolean }) {
         hidden && 'invisible',
       )}
     >
-      <path
-        d="M4.5 2.5 8 6 4.5 9.5"
-        fill="none"
-        stroke="currentColor"
-        strokeWidth="1.6"
-        strokeLinecap="round"
-        strokeLinejoin="round"
-      />
+      <StrokePath d="M4.5 2.5 8 6 4.5 9.5" />
     </svg>
   );
 }
@@ -55,47 +49,61 @@ function Count({ n, noun, className }: { n: number; noun: string; className?: st
   );
 }
 
-function NameCell({ row }: { row: FleetRow }) {
+/** How each kind of row shows its name. */
+const nameLook: Record<FleetRow['kind'], string> = {
+  site: 'truncate text-[14px] font-semibold',
+  area: 'truncate text-[13.5px] font-medium',
+  machine: 'truncate text-[13.5px] font-medium underline-offset-2 hover:underline',
+  point: 'truncate text-[13px] text-ink underline-offset-2 hover:underline',
+};
+
+/** A row's name (a link for machines and points), a site's code, and what the row holds. */
+function nameParts(row: FleetRow): {
+  name: string;
+  href?: string;
+  code?: string;
+  count?: { n: number; noun: string; className?: string };
+} {
   switch (row.kind) {
     case 'site':
-      return (
-        <>
-          <span className="truncate text-[14px] font-semibold">{row.site.name}</span>
-          <span className="shrink-0 rounded-sm bg-sunken px-1.5 py-px font-mono text-[11px] text-ink-muted">
-            {row.site.code}
-          </span>
-          <Count n={row.machineCount} noun="machine" />
-        </>
-      );
+      return {
+        name: row.site.name,
+        code: row.site.code,
+        count: { n: row.machineCount, noun: 'machine' },
+      };
     case 'area':
-      return (
-        <>
-          <span className="truncate text-[13.5px] font-medium">{row.area.name}</span>
-          <Count n={row.machineCount} noun="machine" />
-        </>
-      );
+      return { name: row.area.name, count: { n: row.machineCount, noun: 'machine' } };
     case 'machine':
-      return (
-        <>
-          <Link
-            to={paths.app.machine.getHref(row.machine.id)}
-            className="truncate text-[13.5px] font-medium underline-offset-2 hover:underline"
-          >
-            {row.machine.name}
-          </Link>
-          <Count n={row.machine.points.length} noun="point" className="hidden lg:inline" />
-        </>
-      );
+      return {
+        name: row.machine.name,
+        href: paths.app.machine.getHref(row.machine.id),
+        count: { n: row.machine.points.length, noun: 'point', className: 'hidden lg:inline' },
+      };
     case 'point':
-      return (
-        <Link
-          to={paths.app.point.getHref(row.point.id)}
-          className="truncate text-[13px] text-ink underline-offset-2 hover:underline"
-        >
-          {row.point.name}
-        </Link>
-      );
+      return { name: row.point.name, href: paths.app.point.getHref(row.point.id) };
   }
+}
+
+function NameCell({ row }: { row: FleetRow }) {
+  const { name, href, code, count } = nameParts(row);
+  const className = nameLook[row.kind];
+  return (
+    <>
+      {href ? (
+        <Link to={href} className={className}>
+          {name}
+        </Link>
+      ) : (
+        <span className={className}>{name}</span>
+      )}
+      {code && (
+        <span className="shrink-0 rounded-sm bg-sunken px-1.5 py-px font-mono text-[11px] text-ink-muted">
+          {code}
+        </span>
+      )}
+      {count && <Count {...count} />}
+    </>
+  );
 }
 
 function DetailCell({ row }: { row: FleetRow }) {

@@ -4,8 +4,8 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Button } from '../../../components/ui/button.tsx';
 import { FormCard } from '../../../components/ui/form-card.tsx';
-import { InputField, SelectField, type SelectOption } from '../../../components/ui/field.tsx';
-import { formField } from '../../../lib/form-field.ts';
+import { type SelectOption } from '../../../components/ui/field.tsx';
+import { FormFields } from '../../../components/ui/form-fields.tsx';
 import { useNow } from '../../../hooks/use-now.ts';
 import { isApiError } from '../../../lib/api-client.ts';
 import { formatDateTime } from '../../../lib/format.ts';
@@ -15,6 +15,7 @@ import { useGateways, useSites } from '../api/get-gateways.ts';
 import { GatewayKeyDialog } from './gateway-key-dialog.tsx';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog.tsx';
 import { QueryTable } from '../../../components/ui/query-table.tsx';
+import { StrokePath } from '../../../components/ui/icon.tsx';
 
 function CreateGatewayForm({ onCreated }: { onCreated: (name: string, key: GatewayKey) => void }) {
   const sites = useSites();
@@ -52,23 +53,32 @@ function CreateGatewayForm({ onCreated }: { onCreated: (name: string, key: Gatew
       className="mt-3 flex flex-wrap items-start gap-3"
       error={formError}
     >
-      <SelectField
-        label="Site"
-        className="w-64"
-        options={[
-          ['', 'Choose a site…'],
-          ...(sites.data?.items ?? []).map((s): SelectOption => [s.id, `${s.name} (${s.code})`]),
+      <FormFields
+        form={form}
+        fields={[
+          {
+            kind: 'select',
+            name: 'siteId',
+            label: 'Site',
+            className: 'w-64',
+            options: [
+              ['', 'Choose a site…'],
+              ...(sites.data?.items ?? []).map((s): SelectOption => [
+                s.id,
+                `${s.name} (${s.code})`,
+              ]),
+            ],
+            value: 'number',
+          },
+          {
+            kind: 'text',
+            name: 'name',
+            label: 'Name',
+            hint: 'Where it hangs, e.g. “Pump hall cabinet 2”.',
+            className: 'min-w-64 flex-1',
+            controlSize: 'sm',
+          },
         ]}
-        {...formField(form, 'siteId', {
-          setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)),
-        })}
-      />
-      <InputField
-        label="Name"
-        hint="Where it hangs, e.g. “Pump hall cabinet 2”."
-        className="min-w-64 flex-1"
-        controlSize="sm"
-        {...formField(form, 'name')}
       />
       <Button type="submit" variant="primary" busy={create.isPending} className="mt-6.5 h-9">
         Create gateway
@@ -133,12 +143,7 @@ export function GatewaysPanel() {
               {g.revokedAt ? (
                 <span className="inline-flex items-center gap-1.5 text-status-danger">
                   <svg viewBox="0 0 12 12" aria-hidden="true" className="size-3">
-                    <path
-                      d="M2 2 10 10M10 2 2 10"
-                      stroke="currentColor"
-                      strokeWidth="2"
-                      strokeLinecap="round"
-                    />
+                    <StrokePath d="M2 2 10 10M10 2 2 10" width={2} />
                   </svg>
                   <span className="text-ink">Revoked {formatDateTime(g.revokedAt)}</span>
                 </span>

@@ -26,6 +26,7 @@ import {
   type LimitsFormValues,
 } from '../utils/band-form.ts';
 import { levelForInput } from '@turnstone/contracts/units';
+import { NEW_BAND_RULES } from '@turnstone/condition/band-definition';
 import { useUnits } from '../../account/api/use-units.ts';
 import { BandFields } from './band-fields.tsx';
 import { LimitHistoryList } from './limit-history-list.tsx';
@@ -165,10 +166,7 @@ export function LimitsEditor({
               unit: 'mm/s',
               alertLevel: d.alertLevel,
               dangerLevel: d.dangerLevel,
-              persistence: 2,
-              clearPersistence: 3,
-              clearAfterHours: 120,
-              hysteresis: 0.9,
+              ...NEW_BAND_RULES,
               levelSource: source,
             },
             units.system,

@@ -1,38 +1,21 @@
 import { describe, expect, it } from 'vitest';
 import type { BandDefinitionInput } from '@turnstone/contracts/limits';
+import { NEW_BAND_RULES } from '@turnstone/condition/band-definition';
+import { bpfoEnvelope, overallVelocity } from '@turnstone/condition/test-bands';
 import { checkForm, emptyBand, formPathOf, toDefinition, toFormBand } from './band-form.ts';
 
 // Band shapes follow @turnstone/condition's BandDefinition (Turnstone's own rules, no source).
 const overall: BandDefinitionInput = {
-  key: 'overall-velocity',
+  ...overallVelocity(2.8, 4.5),
   name: 'Overall velocity 10–1000 Hz',
-  kind: 'overall',
   fromHz: 10,
   toHz: 1000,
-  spectrum: 'velocity',
-  measure: 'rms',
-  unit: 'mm/s',
-  alertLevel: 2.8,
-  dangerLevel: 4.5,
-  persistence: 2,
-  clearPersistence: 3,
-  clearAfterHours: 120,
-  hysteresis: 0.9,
+  ...NEW_BAND_RULES,
   levelSource: 'ISO 20816-3 B/C and C/D',
 };
 const bpfo: BandDefinitionInput = {
-  key: 'bpfo',
-  name: 'Bearing outer race',
-  kind: 'fault',
-  fault: 'bpfo',
-  halfWidth: 2,
-  halfWidthUnit: 'percent',
+  ...bpfoEnvelope(0.2, 0.5),
   harmonics: 1,
-  spectrum: 'envelope',
-  measure: 'peak',
-  unit: 'g',
-  alertLevel: 0.2,
-  dangerLevel: 0.5,
   statistical: {
     kAlert: 3,
     kDanger: 6,

@@ -9,6 +9,7 @@
  */
 import { z } from 'zod';
 import type { FieldErrors } from 'react-hook-form';
+import { NEW_BAND_RULES } from '@turnstone/condition/band-definition';
 import { bandDefinitionSchema, type BandDefinitionInput } from '@turnstone/contracts/limits';
 import { levelForInput, levelFromInput, type UnitSystem } from '@turnstone/contracts/units';
 
@@ -87,7 +88,7 @@ export function toFormBand(b: BandDefinitionInput, system: UnitSystem = 'metric'
   };
 }
 
-/** A new band, for "Add band". */
+/** A new band, for "Add band", with the rules every new band starts with (condition's). */
 export function emptyBand(index: number, system: UnitSystem = 'metric'): BandFormValues {
   return toFormBand(
     {
@@ -101,10 +102,7 @@ export function emptyBand(index: number, system: UnitSystem = 'metric'): BandFor
       unit: 'mm/s',
       alertLevel: 2.8,
       dangerLevel: 4.5,
-      persistence: 2,
-      clearPersistence: 3,
-      clearAfterHours: 120,
-      hysteresis: 0.9,
+      ...NEW_BAND_RULES,
     },
     system,
   );

@@ -1,22 +1,40 @@
+import type { ReactNode } from 'react';
 import type { MachineDetail } from '@turnstone/contracts/points';
 import { Card } from '../../../components/ui/card.tsx';
-
-const typeLabels: Record<MachineDetail['type'], string> = {
-  motor: 'Motor',
-  pump: 'Pump',
-  fan: 'Fan',
-  blower: 'Blower',
-  gearbox: 'Gearbox',
-  compressor: 'Compressor',
-};
+import { TableHead } from '../../../components/ui/table-head.tsx';
+import { machineTypeLabels } from '../../../lib/machine-labels.ts';
 
 const fix = (v: number, d: number) => v.toFixed(d);
+
+/** The machine's bearings or gears, a line each: its name and its geometry; nothing if none. */
+function PartList({
+  title,
+  parts,
+}: {
+  title: string;
+  parts: { id: number; name: string; detail: ReactNode }[];
+}) {
+  if (parts.length === 0) return null;
+  return (
+    <>
+      <h3 className="mt-4 mb-1 text-sm font-semibold text-ink">{title}</h3>
+      <ul className="flex flex-col gap-1 text-[13px]">
+        {parts.map((p) => (
+          <li key={p.id}>
+            <span className="text-ink">{p.name}</span>{' '}
+            <span className="font-mono text-ink-muted">{p.detail}</span>
+          </li>
+        ))}
+      </ul>
+    </>
+  );
+}
 
 /** Machine data, components and fault frequencies, for the engineer. */
 export function MachineData({ machine }: { machine: MachineDetail }) {
   const m = machine;
   const rows: [string, string][] = [
-    ['Type', typeLabels[m.type]],
+    ['Type', machineTypeLabels[m.type]],
     ['Nominal speed', `${fix(m.nominalRpm, 0)} r/min (${fix(m.nominalRpm / 60, 2)} Hz)`],
     ['ISO 20816-3 group', `Group ${m.isoGroup}, ${m.foundation} foundation`],
     ['Criticality', m.criticality],
@@ -40,38 +58,27 @@ export function MachineData({ machine }: { machine: MachineDetail }) {
             </div>
           ))}
         </dl>
-        {m.bearings.length > 0 && (
-          <>
-            <h3 className="mt-4 mb-1 text-sm font-semibold text-ink">Bearings</h3>
-            <ul className="flex flex-col gap-1 text-[13px]">
-              {m.bearings.map((b) => (
-                <li key={b.id}>
-                  <span className="text-ink">{b.name}</span>{' '}
-                  <span className="font-mono text-ink-muted">
-                    {b.designation ?? ''} n={b.rollingElements} d={fix(b.ballDiameterMm, 2)}&nbsp;mm
-                    D=
-                    {fix(b.pitchDiameterMm, 1)}&nbsp;mm φ={fix(b.contactAngleDeg, 1)}°
-                  </span>
-                </li>
-              ))}
-            </ul>
-          </>
-        )}
-        {m.gears.length > 0 && (
-          <>
-            <h3 className="mt-4 mb-1 text-sm font-semibold text-ink">Gears</h3>
-            <ul className="flex flex-col gap-1 text-[13px]">
-              {m.gears.map((g) => (
-                <li key={g.id}>
-                  <span className="text-ink">{g.name}</span>{' '}
-                  <span className="font-mono text-ink-muted">
-                    {g.teeth}/{g.mateTeeth} teeth, ×{fix(g.speedRatio, 3)}
-                  </span>
-                </li>
-              ))}
-            </ul>
-          </>
-        )}
+        <PartList
+          title="Bearings"
+          parts={m.bearings.map((b) => ({
+            id: b.id,
+            name: b.name,
+            detail: (
+              <>
+                {b.designation ?? ''} n={b.rollingElements} d={fix(b.ballDiameterMm, 2)}&nbsp;mm D=
+                {fix(b.pitchDiameterMm, 1)}&nbsp;mm φ={fix(b.contactAngleDeg, 1)}°
+              </>
+            ),
+          }))}
+        />
+        <PartList
+          title="Gears"
+          parts={m.gears.map((g) => ({
+            id: g.id,
+            name: g.name,
+            detail: `${g.teeth}/${g.mateTeeth} teeth, ×${fix(g.speedRatio, 3)}`,
+          }))}
+        />
       </Card>
       <Card className="overflow-x-auto p-4">
         <h2 className="mb-2 text-sm font-semibold text-ink">
@@ -81,14 +88,15 @@ export function MachineData({ machine }: { machine: MachineDetail }) {
           </span>
         </h2>
         <table className="w-full text-left text-sm">
-          <thead className="text-xs text-ink-muted">
-            <tr className="border-b border-line">
-              <th className="py-1 pr-4 font-medium">Name</th>
-              <th className="py-1 pr-4 text-right font-medium">Order</th>
-              <th className="py-1 pr-4 text-right font-medium">Hz</th>
-              <th className="py-1 text-right font-medium">CPM</th>
-            </tr>
-          </thead>
+          <TableHead
+            look="facts"
+            columns={[
+              'Name',
+              { label: 'Order', numeric: true },
+              { label: 'Hz', numeric: true },
+              { label: 'CPM', numeric: true },
+            ]}
+          />
           <tbody className="font-mono text-[13px]">
             {m.faultFrequencies.map((f) => (
               <tr key={f.name} className="border-b border-line/60">

@@ -1,6 +1,6 @@
-import { Link } from 'react-router-dom';
 import type { MachineDetail } from '@turnstone/contracts/points';
 import { Card } from '../../../components/ui/card.tsx';
+import { TextLink } from '../../../components/ui/text-link.tsx';
 import { paths } from '../../../config/paths.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { HINTS_CAUTION, HintList } from '../../points/components/diagnosis-hints.tsx';
@@ -21,12 +21,9 @@ export function MachineHints({ machine }: { machine: MachineDetail }) {
           {withHints.map((p) => (
             <li key={p.id} className="flex flex-col gap-1.5">
               <h3 className="text-sm">
-                <Link
-                  to={paths.app.point.getHref(p.id)}
-                  className="font-medium text-accent underline-offset-2 hover:underline"
-                >
+                <TextLink to={paths.app.point.getHref(p.id)} className="font-medium">
                   {p.name}
-                </Link>{' '}
+                </TextLink>{' '}
                 <span className="font-mono text-xs text-ink-muted">
                   {p.tag} · {formatDateTime(p.latest!.takenAt)}
                 </span>

@@ -5,6 +5,8 @@ import type { MachineDetail } from '@turnstone/contracts/points';
 import { Sparkline } from '../../../components/charts/sparkline.tsx';
 import { formatValue } from '../../../components/charts/chart-theme.ts';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
+import { PointLabel } from '../../../components/ui/text-link.tsx';
+import { TableHead, type TableColumn } from '../../../components/ui/table-head.tsx';
 import { useUnits } from '../../account/api/use-units.ts';
 import { paths } from '../../../config/paths.ts';
 import { formatBandHz } from '../../../lib/format.ts';
@@ -26,6 +28,19 @@ const num = (v: number | undefined | null, unit: string, digits = 3) =>
 
 /** Columns a tablet (below 1024 px) leaves out; the point page has them all. */
 const wide = 'hidden lg:table-cell';
+
+const columns: TableColumn[] = [
+  'Point',
+  'Status',
+  { label: 'Velocity RMS', numeric: true },
+  { label: 'Accel RMS', numeric: true },
+  { label: 'Displ. pk-pk', numeric: true, className: wide },
+  'ISO 20816',
+  { label: 'Speed', numeric: true, className: wide },
+  { label: 'Quality', className: wide },
+  'Governing band, last 50',
+  { label: 'Last snapshot', numeric: true },
+];
 
 /** An overall value's cell, with the frequency band it was measured over below it. */
 function OverallCell({
@@ -57,35 +72,19 @@ export function MachinePointsTable({ machine, now }: { machine: MachineDetail; n
   return (
     <div className="overflow-x-auto">
       <table className="w-full min-w-[46rem] text-left text-sm lg:min-w-[68rem]">
-        <thead className="text-xs text-ink-muted">
-          <tr className="border-b border-line">
-            <th className="px-3 py-2 font-medium">Point</th>
-            <th className="px-3 py-2 font-medium">Status</th>
-            <th className="px-3 py-2 text-right font-medium">Velocity RMS</th>
-            <th className="px-3 py-2 text-right font-medium">Accel RMS</th>
-            <th className={`${wide} px-3 py-2 text-right font-medium`}>Displ. pk-pk</th>
-            <th className="px-3 py-2 font-medium">ISO 20816</th>
-            <th className={`${wide} px-3 py-2 text-right font-medium`}>Speed</th>
-            <th className={`${wide} px-3 py-2 font-medium`}>Quality</th>
-            <th className="px-3 py-2 font-medium">Governing band, last 50</th>
-            <th className="px-3 py-2 text-right font-medium">Last snapshot</th>
-          </tr>
-        </thead>
+        <TableHead look="lined" columns={columns} />
         <tbody>
           {machine.points.map((p) => {
             const l = p.latest;
             return (
               <tr key={p.id} className="border-b border-line/60 align-middle hover:bg-sunken/40">
                 <td className="px-3 py-2">
-                  <Link
-                    to={paths.app.point.getHref(p.id)}
-                    className="font-medium text-accent underline-offset-2 hover:underline"
-                  >
-                    {p.name}
-                  </Link>
-                  <div className="font-mono text-xs text-ink-muted">
-                    {p.tag} · {p.direction}
-                  </div>
+                  <PointLabel
+                    pointId={p.id}
+                    title={p.name}
+                    titleIs="name"
+                    detail={`${p.tag} · ${p.direction}`}
+                  />
                 </td>
                 <td className="px-3 py-2">
                   <StatusMark status={p.status} />

@@ -1,9 +1,11 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { Alert } from '@turnstone/contracts/alerts';
 import type { Finding } from '@turnstone/contracts/findings';
 import { findingPriorityLabels, findingStateLabels } from '@turnstone/contracts/findings';
 import type { MachineDetail } from '@turnstone/contracts/points';
 import { Card } from '../../../components/ui/card.tsx';
+import { TextLink } from '../../../components/ui/text-link.tsx';
 import { ErrorState } from '../../../components/ui/error-state.tsx';
 import { LoadingPanel } from '../../../components/ui/spinner.tsx';
 import { StatusMark } from '../../../components/ui/status-mark.tsx';
@@ -37,18 +39,12 @@ export function MachineWhy({
         </h2>
         {engineer && (
           <div className="flex gap-3 text-sm">
-            <Link
-              className="text-accent underline-offset-2 hover:underline"
+            <TextLink
               to={paths.app.limits.getHref(q.data?.alerts[0]?.pointId ?? machine.points[0]?.id)}
             >
               Limits
-            </Link>
-            <Link
-              className="text-accent underline-offset-2 hover:underline"
-              to={paths.app.setup.getHref()}
-            >
-              Setup
-            </Link>
+            </TextLink>
+            <TextLink to={paths.app.setup.getHref()}>Setup</TextLink>
           </div>
         )}
       </div>
@@ -69,44 +65,52 @@ export function MachineWhy({
         </p>
       ) : (
         <div className="grid gap-4 lg:grid-cols-2">
-          <section aria-labelledby="why-alerts" className="flex flex-col gap-2">
-            <h3 id="why-alerts" className="text-xs font-medium text-ink-muted">
-              Open alerts ({q.data.alerts.length})
-            </h3>
-            {q.data.alerts.length === 0 ? (
-              <p className="text-sm text-ink-muted">None.</p>
-            ) : (
-              <ul className="flex flex-col divide-y divide-line">
-                {q.data.alerts.map((a) => (
-                  <AlertLine key={a.id} alert={a} now={now} />
-                ))}
-              </ul>
-            )}
-          </section>
-          <section aria-labelledby="why-findings" className="flex flex-col gap-2">
-            <h3 id="why-findings" className="text-xs font-medium text-ink-muted">
-              Open findings ({q.data.findings.length})
-            </h3>
-            {q.data.findings.length === 0 ? (
-              <p className="text-sm text-ink-muted">None.</p>
-            ) : (
-              <ul className="flex flex-col divide-y divide-line">
-                {q.data.findings.map((f) => (
-                  <FindingLine
-                    key={f.id}
-                    finding={f}
-                    bandName={
-                      q.data.alerts.find((a) => a.pointId === f.pointId && a.bandKey === f.bandKey)
-                        ?.bandName ?? f.bandKey
-                    }
-                  />
-                ))}
-              </ul>
-            )}
-          </section>
+          <WhyList id="why-alerts" title="Open alerts" count={q.data.alerts.length}>
+            {q.data.alerts.map((a) => (
+              <AlertLine key={a.id} alert={a} now={now} />
+            ))}
+          </WhyList>
+          <WhyList id="why-findings" title="Open findings" count={q.data.findings.length}>
+            {q.data.findings.map((f) => (
+              <FindingLine
+                key={f.id}
+                finding={f}
+                bandName={
+                  q.data.alerts.find((a) => a.pointId === f.pointId && a.bandKey === f.bandKey)
+                    ?.bandName ?? f.bandKey
+                }
+              />
+            ))}
+          </WhyList>
         </div>
       )}
     </Card>
+  );
+}
+
+/** One of the two lists (alerts, findings): its heading with the count, and its lines. */
+function WhyList({
+  id,
+  title,
+  count,
+  children,
+}: {
+  id: string;
+  title: string;
+  count: number;
+  children: ReactNode;
+}) {
+  return (
+    <section aria-labelledby={id} className="flex flex-col gap-2">
+      <h3 id={id} className="text-xs font-medium text-ink-muted">
+        {title} ({count})
+      </h3>
+      {count === 0 ? (
+        <p className="text-sm text-ink-muted">None.</p>
+      ) : (
+        <ul className="flex flex-col divide-y divide-line">{children}</ul>
+      )}
+    </section>
   );
 }
 
@@ -116,12 +120,9 @@ function AlertLine({ alert: a, now }: { alert: Alert; now: number }) {
     <li className="flex flex-col gap-0.5 py-2 text-sm">
       <div className="flex flex-wrap items-center gap-x-2 gap-y-1">
         <StatusMark status={a.level} />
-        <Link
-          to={paths.app.point.getHref(a.pointId, a.bandKey)}
-          className="font-medium text-accent underline-offset-2 hover:underline"
-        >
+        <TextLink to={paths.app.point.getHref(a.pointId, a.bandKey)} className="font-medium">
           {a.pointName} · {a.bandName}
-        </Link>
+        </TextLink>
         <span className="font-mono text-xs text-ink-muted">{a.pointTag}</span>
       </div>
       <div className="font-mono text-[13px] text-ink">
@@ -147,12 +148,12 @@ function AlertLine({ alert: a, now }: { alert: Alert; now: number }) {
 function FindingLine({ finding: f, bandName }: { finding: Finding; bandName: string | null }) {
   return (
     <li className="flex flex-col gap-0.5 py-2 text-sm">
-      <Link
+      <TextLink
         to={paths.app.point.getHref(f.pointId, f.bandKey ?? undefined)}
-        className="font-medium text-accent underline-offset-2 hover:underline"
+        className="font-medium"
       >
         {f.title}
-      </Link>
+      </TextLink>
       <div className="text-xs text-ink-muted">
         {f.pointName} <span className="font-mono">{f.pointTag}</span>
         {bandName ? ` · ${bandName}` : ''} · {findingStateLabels[f.state]} ·{' '}

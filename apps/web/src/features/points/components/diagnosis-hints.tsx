@@ -12,6 +12,7 @@ import type {
   DiagnosisHintItem,
 } from '@turnstone/contracts/points';
 import { cn } from '../../../lib/cn.ts';
+import { TableHead } from '../../../components/ui/table-head.tsx';
 
 /** "0.252 in/s RMS": an evidence peak in the user's unit system with its measure. */
 function evidenceAmplitude(amplitude: number, spectrum: keyof typeof evidenceUnits, units: Units) {
@@ -43,14 +44,15 @@ function EvidenceTable({
   return (
     <table className="mt-1 w-full text-left text-xs">
       <caption className="sr-only">{caption}</caption>
-      <thead className="text-ink-muted">
-        <tr>
-          <th className="py-0.5 pr-2 font-medium">Peak</th>
-          <th className="py-0.5 pr-2 text-right font-medium">Hz</th>
-          <th className="py-0.5 pr-2 text-right font-medium">Order</th>
-          <th className="py-0.5 text-right font-medium">Amplitude</th>
-        </tr>
-      </thead>
+      <TableHead
+        look="dense"
+        columns={[
+          'Peak',
+          { label: 'Hz', numeric: true },
+          { label: 'Order', numeric: true },
+          { label: 'Amplitude', numeric: true },
+        ]}
+      />
       <tbody className="font-mono text-ink">
         {evidence.map((e, i) => (
           <tr key={i}>

@@ -26,41 +26,46 @@ function SummaryCard({
 /** The week at a glance; each card jumps to its table. */
 export function ReviewSummary({ review }: { review: WeeklyReview }) {
   const s = review.summary;
+  const cards: { label: string; value: number; detail: string; href: string }[] = [
+    {
+      label: 'Rising this week',
+      value: s.movers,
+      detail: 'point bands above last week’s mean',
+      href: '#movers',
+    },
+    {
+      label: `Crossing in ${review.period.weeksAhead} weeks`,
+      value: s.forecasts,
+      detail: 'projected to reach a level',
+      href: '#forecasts',
+    },
+    {
+      label: 'Open alerts',
+      value: s.openAlerts,
+      detail: `${s.openDanger} danger · ${s.unacknowledged} not acknowledged`,
+      href: '#open-alerts',
+    },
+    {
+      label: 'Quality notices',
+      value: s.qualityNotices,
+      detail: 'unreviewed captures this week',
+      href: '#quality-notices',
+    },
+    {
+      label: 'Findings due',
+      value: s.findingsDue,
+      detail: `${s.findingsOverdue} overdue · by the end of next week`,
+      href: '#findings',
+    },
+  ];
   return (
     <section
       aria-label="Summary"
       className="review-summary grid grid-cols-2 gap-3 md:grid-cols-3 xl:grid-cols-5"
     >
-      <SummaryCard
-        label="Rising this week"
-        value={s.movers}
-        detail="point bands above last week’s mean"
-        href="#movers"
-      />
-      <SummaryCard
-        label={`Crossing in ${review.period.weeksAhead} weeks`}
-        value={s.forecasts}
-        detail="projected to reach a level"
-        href="#forecasts"
-      />
-      <SummaryCard
-        label="Open alerts"
-        value={s.openAlerts}
-        detail={`${s.openDanger} danger · ${s.unacknowledged} not acknowledged`}
-        href="#open-alerts"
-      />
-      <SummaryCard
-        label="Quality notices"
-        value={s.qualityNotices}
-        detail="unreviewed captures this week"
-        href="#quality-notices"
-      />
-      <SummaryCard
-        label="Findings due"
-        value={s.findingsDue}
-        detail={`${s.findingsOverdue} overdue · by the end of next week`}
-        href="#findings"
-      />
+      {cards.map((c) => (
+        <SummaryCard key={c.href} {...c} />
+      ))}
     </section>
   );
 }

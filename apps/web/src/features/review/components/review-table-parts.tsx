@@ -1,11 +1,9 @@
 /** The review's table parts: a titled section, an empty state, the table frame and its cells. */
 
 import type { ReactNode } from 'react';
-import { Link } from 'react-router-dom';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
-
-import { paths } from '../../../config/paths.ts';
+import { PointLabel } from '../../../components/ui/text-link.tsx';
 import { formatNumber } from '@turnstone/contracts/number-format';
 import { unitText } from '@turnstone/contracts/units';
 
@@ -80,15 +78,12 @@ export function PointCell({
 }) {
   return (
     <td className={td}>
-      <Link
-        to={paths.app.point.getHref(row.pointId)}
-        className="font-mono text-[13px] font-medium whitespace-nowrap text-accent underline-offset-2 hover:underline"
-      >
-        {row.pointTag}
-      </Link>
-      <div className="text-xs text-ink-muted">
-        {row.machineName} · {row.pointName}
-      </div>
+      <PointLabel
+        pointId={row.pointId}
+        title={row.pointTag}
+        titleIs="tag"
+        detail={`${row.machineName} · ${row.pointName}`}
+      />
     </td>
   );
 }

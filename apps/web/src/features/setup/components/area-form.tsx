@@ -5,7 +5,8 @@ import { useForm } from 'react-hook-form';
 import { InputField, SelectField, type SelectOption } from '../../../components/ui/field.tsx';
 import { formField } from '../../../lib/form-field.ts';
 import { saveArea, useSetupMutation } from '../api/save-setup.ts';
-import { applyServerErrors, asNumber } from '../utils/server-errors.ts';
+import { applyServerErrors } from '../utils/server-errors.ts';
+import { asNumber } from '../../../lib/form-field.ts';
 import { FormAlert } from '../../../components/ui/alert-box.tsx';
 import { FormActions } from './form-parts.tsx';
 

@@ -6,19 +6,17 @@ import {
   type SetupSite,
 } from '@turnstone/contracts/setup';
 import { useState } from 'react';
+import type { ReactNode } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
+import type { z } from 'zod';
 import { Button } from '../../../components/ui/button.tsx';
-import {
-  InputField,
-  NumberField,
-  SelectField,
-  type SelectOption,
-} from '../../../components/ui/field.tsx';
-import { formField } from '../../../lib/form-field.ts';
+import { type SelectOption } from '../../../components/ui/field.tsx';
+import { FormFields, type FieldSpec } from '../../../components/ui/form-fields.tsx';
 import { deleteMachine, saveMachine, useSetupMutation } from '../api/save-setup.ts';
-import { applyServerErrors, asNullableNumber, asNumber } from '../utils/server-errors.ts';
+import { applyServerErrors } from '../utils/server-errors.ts';
 import { FormAlert } from '../../../components/ui/alert-box.tsx';
 import { FormActions, FormSection } from './form-parts.tsx';
+import { machineTypeLabels } from '../../../lib/machine-labels.ts';
 
 const FIELDS = [
   'areaId',
@@ -57,6 +55,156 @@ const lineHzOptions: SelectOption[] = [
   [50, '50 Hz'],
   [60, '60 Hz'],
 ];
+
+type MachineValues = z.output<typeof machineInputSchema>;
+
+/** The machine's own fields; the area is one of the areas the explorer knows. */
+const machineFields = (areaOptions: SelectOption[]): FieldSpec<MachineValues>[] => [
+  { kind: 'text', name: 'name', label: 'Name' },
+  { kind: 'select', name: 'areaId', label: 'Area', options: areaOptions, value: 'number' },
+  {
+    kind: 'select',
+    name: 'type',
+    label: 'Type',
+    options: machineTypes.map((t): SelectOption => [t, machineTypeLabels[t]]),
+  },
+  { kind: 'number', name: 'nominalRpm', label: 'Nominal speed', unit: 'r/min', value: 'number' },
+  {
+    kind: 'select',
+    name: 'isoGroup',
+    label: 'ISO 20816-3 group',
+    hint: 'Group 1: 300 kW – 50 MW; group 2: 15 – 300 kW.',
+    options: isoGroupOptions,
+    value: 'number',
+  },
+  { kind: 'select', name: 'foundation', label: 'Foundation', options: foundationOptions },
+  { kind: 'select', name: 'criticality', label: 'Criticality', options: criticalityOptions },
+  {
+    kind: 'number',
+    name: 'powerKw',
+    label: 'Power (optional)',
+    unit: 'kW',
+    value: 'number-or-null',
+  },
+  {
+    kind: 'number',
+    name: 'bladeCount',
+    label: 'Blade count (optional)',
+    step: '1',
+    value: 'number-or-null',
+  },
+  {
+    kind: 'number',
+    name: 'vaneCount',
+    label: 'Vane count (optional)',
+    step: '1',
+    value: 'number-or-null',
+  },
+  {
+    kind: 'select',
+    name: 'lineHz',
+    label: 'Supply frequency',
+    hint: 'Of the motor on this machine; none for a machine without a mains-fed motor or on an inverter.',
+    options: lineHzOptions,
+    value: 'number-or-null',
+  },
+];
+
+/** A bearing's geometry, which gives its fault frequencies. */
+const bearingFields = (i: number): FieldSpec<MachineValues>[] => [
+  {
+    kind: 'text',
+    name: `bearings.${i}.name`,
+    label: 'Position',
+    className: 'sm:col-span-2',
+    placeholder: 'Motor DE',
+  },
+  {
+    kind: 'text',
+    name: `bearings.${i}.designation`,
+    label: 'Designation',
+    className: 'sm:col-span-2',
+    inputClassName: 'font-mono',
+    placeholder: '6316',
+  },
+  {
+    kind: 'number',
+    name: `bearings.${i}.rollingElements`,
+    label: 'Rolling elements',
+    step: '1',
+    value: 'number',
+  },
+  {
+    kind: 'number',
+    name: `bearings.${i}.ballDiameterMm`,
+    label: 'Ball diameter',
+    unit: 'mm',
+    value: 'number',
+  },
+  {
+    kind: 'number',
+    name: `bearings.${i}.pitchDiameterMm`,
+    label: 'Pitch diameter',
+    unit: 'mm',
+    value: 'number',
+  },
+  {
+    kind: 'number',
+    name: `bearings.${i}.contactAngleDeg`,
+    label: 'Contact angle',
+    unit: '°',
+    value: 'number',
+  },
+  {
+    kind: 'number',
+    name: `bearings.${i}.speedRatio`,
+    label: 'Speed ratio',
+    unit: '×',
+    hint: 'Shaft speed ÷ machine speed.',
+    value: 'number',
+  },
+];
+
+const gearFields = (i: number): FieldSpec<MachineValues>[] => [
+  { kind: 'text', name: `gears.${i}.name`, label: 'Name' },
+  { kind: 'number', name: `gears.${i}.teeth`, label: 'Teeth', step: '1', value: 'number' },
+  {
+    kind: 'number',
+    name: `gears.${i}.mateTeeth`,
+    label: 'Mate teeth',
+    step: '1',
+    value: 'number',
+  },
+  {
+    kind: 'number',
+    name: `gears.${i}.speedRatio`,
+    label: 'Speed ratio',
+    unit: '×',
+    value: 'number',
+  },
+];
+
+/** One bearing or gear mesh of the lists: its fields and the button that removes it. */
+function PartGroup({
+  label,
+  removeLabel,
+  onRemove,
+  children,
+}: {
+  label: string;
+  removeLabel: string;
+  onRemove: () => void;
+  children: ReactNode;
+}) {
+  return (
+    <div className="rounded-md border border-line bg-paper/60 p-3" role="group" aria-label={label}>
+      <div className="grid gap-3 sm:grid-cols-4">{children}</div>
+      <Button size="sm" variant="ghost" className="mt-2" onClick={onRemove}>
+        {removeLabel}
+      </Button>
+    </div>
+  );
+}
 
 const newBearing = {
   name: '',
@@ -123,6 +271,7 @@ export function MachineForm({
   const bearings = useFieldArray({ control: form.control, name: 'bearings' });
   const gears = useFieldArray({ control: form.control, name: 'gears' });
   const siteName = (id: number) => sites.find((s) => s.id === id)?.code ?? '';
+  const areaOptions = areas.map((a): SelectOption => [a.id, `${siteName(a.siteId)} · ${a.name}`]);
 
   const onSubmit = form.handleSubmit((values) => {
     setFormError(null);
@@ -149,59 +298,7 @@ export function MachineForm({
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Machine">
       <FormAlert message={formError} />
       <div className="grid gap-4 sm:grid-cols-2">
-        <InputField label="Name" {...formField(form, 'name')} />
-        <SelectField
-          label="Area"
-          options={areas.map((a): SelectOption => [a.id, `${siteName(a.siteId)} · ${a.name}`])}
-          {...formField(form, 'areaId', { setValueAs: asNumber })}
-        />
-        <SelectField
-          label="Type"
-          options={machineTypes.map((t): SelectOption => [t, t[0]!.toUpperCase() + t.slice(1)])}
-          {...formField(form, 'type')}
-        />
-        <NumberField
-          label="Nominal speed"
-          unit="r/min"
-          {...formField(form, 'nominalRpm', { setValueAs: asNumber })}
-        />
-        <SelectField
-          label="ISO 20816-3 group"
-          hint="Group 1: 300 kW – 50 MW; group 2: 15 – 300 kW."
-          options={isoGroupOptions}
-          {...formField(form, 'isoGroup', { setValueAs: asNumber })}
-        />
-        <SelectField
-          label="Foundation"
-          options={foundationOptions}
-          {...formField(form, 'foundation')}
-        />
-        <SelectField
-          label="Criticality"
-          options={criticalityOptions}
-          {...formField(form, 'criticality')}
-        />
-        <NumberField
-          label="Power (optional)"
-          unit="kW"
-          {...formField(form, 'powerKw', { setValueAs: asNullableNumber })}
-        />
-        <NumberField
-          label="Blade count (optional)"
-          step="1"
-          {...formField(form, 'bladeCount', { setValueAs: asNullableNumber })}
-        />
-        <NumberField
-          label="Vane count (optional)"
-          step="1"
-          {...formField(form, 'vaneCount', { setValueAs: asNullableNumber })}
-        />
-        <SelectField
-          label="Supply frequency"
-          hint="Of the motor on this machine; none for a machine without a mains-fed motor or on an inverter."
-          options={lineHzOptions}
-          {...formField(form, 'lineHz', { setValueAs: asNullableNumber })}
-        />
+        <FormFields form={form} fields={machineFields(areaOptions)} />
       </div>
 
       <FormSection title="Rolling-element bearings">
@@ -211,57 +308,14 @@ export function MachineForm({
           </p>
         )}
         {bearings.fields.map((f, i) => (
-          <div
+          <PartGroup
             key={f.id}
-            className="rounded-md border border-line bg-paper/60 p-3"
-            aria-label={`Bearing ${i + 1}`}
-            role="group"
+            label={`Bearing ${i + 1}`}
+            removeLabel="Remove bearing"
+            onRemove={() => bearings.remove(i)}
           >
-            <div className="grid gap-3 sm:grid-cols-4">
-              <InputField
-                label="Position"
-                className="sm:col-span-2"
-                placeholder="Motor DE"
-                {...formField(form, `bearings.${i}.name`)}
-              />
-              <InputField
-                label="Designation"
-                className="sm:col-span-2"
-                inputClassName="font-mono"
-                placeholder="6316"
-                {...formField(form, `bearings.${i}.designation`)}
-              />
-              <NumberField
-                label="Rolling elements"
-                step="1"
-                {...formField(form, `bearings.${i}.rollingElements`, { setValueAs: asNumber })}
-              />
-              <NumberField
-                label="Ball diameter"
-                unit="mm"
-                {...formField(form, `bearings.${i}.ballDiameterMm`, { setValueAs: asNumber })}
-              />
-              <NumberField
-                label="Pitch diameter"
-                unit="mm"
-                {...formField(form, `bearings.${i}.pitchDiameterMm`, { setValueAs: asNumber })}
-              />
-              <NumberField
-                label="Contact angle"
-                unit="°"
-                {...formField(form, `bearings.${i}.contactAngleDeg`, { setValueAs: asNumber })}
-              />
-              <NumberField
-                label="Speed ratio"
-                unit="×"
-                hint="Shaft speed ÷ machine speed."
-                {...formField(form, `bearings.${i}.speedRatio`, { setValueAs: asNumber })}
-              />
-            </div>
-            <Button size="sm" variant="ghost" className="mt-2" onClick={() => bearings.remove(i)}>
-              Remove bearing
-            </Button>
-          </div>
+            <FormFields form={form} fields={bearingFields(i)} />
+          </PartGroup>
         ))}
         <div>
           <Button size="sm" onClick={() => bearings.append(newBearing)}>
@@ -273,34 +327,14 @@ export function MachineForm({
       <FormSection title="Gear meshes">
         {gears.fields.length === 0 && <p className="text-sm text-ink-muted">No gear meshes.</p>}
         {gears.fields.map((f, i) => (
-          <div
+          <PartGroup
             key={f.id}
-            className="rounded-md border border-line bg-paper/60 p-3"
-            role="group"
-            aria-label={`Gear mesh ${i + 1}`}
+            label={`Gear mesh ${i + 1}`}
+            removeLabel="Remove gear mesh"
+            onRemove={() => gears.remove(i)}
           >
-            <div className="grid gap-3 sm:grid-cols-4">
-              <InputField label="Name" {...formField(form, `gears.${i}.name`)} />
-              <NumberField
-                label="Teeth"
-                step="1"
-                {...formField(form, `gears.${i}.teeth`, { setValueAs: asNumber })}
-              />
-              <NumberField
-                label="Mate teeth"
-                step="1"
-                {...formField(form, `gears.${i}.mateTeeth`, { setValueAs: asNumber })}
-              />
-              <NumberField
-                label="Speed ratio"
-                unit="×"
-                {...formField(form, `gears.${i}.speedRatio`, { setValueAs: asNumber })}
-              />
-            </div>
-            <Button size="sm" variant="ghost" className="mt-2" onClick={() => gears.remove(i)}>
-              Remove gear mesh
-            </Button>
-          </div>
+            <FormFields form={form} fields={gearFields(i)} />
+          </PartGroup>
         ))}
         <div>
           <Button size="sm" onClick={() => gears.append(newGear)}>

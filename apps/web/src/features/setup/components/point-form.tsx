@@ -2,15 +2,11 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { pointInputSchema, type SetupMachine, type SetupPoint } from '@turnstone/contracts/setup';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import {
-  InputField,
-  NumberField,
-  SelectField,
-  type SelectOption,
-} from '../../../components/ui/field.tsx';
-import { formField } from '../../../lib/form-field.ts';
+import type { z } from 'zod';
+import { type SelectOption } from '../../../components/ui/field.tsx';
+import { FormFields, type FieldSpec } from '../../../components/ui/form-fields.tsx';
 import { deletePoint, savePoint, useSetupMutation } from '../api/save-setup.ts';
-import { applyServerErrors, asNullableNumber, asNumber } from '../utils/server-errors.ts';
+import { applyServerErrors } from '../utils/server-errors.ts';
 import { FormAlert } from '../../../components/ui/alert-box.tsx';
 import { FormActions } from './form-parts.tsx';
 
@@ -32,6 +28,60 @@ const directionOptions: SelectOption[] = [
   ['H', 'H — horizontal'],
   ['V', 'V — vertical'],
   ['A', 'A — axial'],
+];
+
+type PointValues = z.output<typeof pointInputSchema>;
+
+/** The point's fields; the bearing is one of its machine's. */
+const pointFields = (machine: SetupMachine): FieldSpec<PointValues>[] => [
+  {
+    kind: 'text',
+    name: 'tag',
+    label: 'Tag',
+    hint: 'Unique; the gateway sends it with each snapshot.',
+    inputClassName: 'font-mono',
+    spellCheck: false,
+  },
+  { kind: 'text', name: 'name', label: 'Name' },
+  { kind: 'text', name: 'location', label: 'Location', hint: 'e.g. Motor DE' },
+  { kind: 'select', name: 'direction', label: 'Direction', options: directionOptions },
+  {
+    kind: 'number',
+    name: 'sensitivityMvPerG',
+    label: 'Sensor sensitivity',
+    unit: 'mV/g',
+    value: 'number',
+  },
+  {
+    kind: 'select',
+    name: 'bearingId',
+    label: 'Bearing',
+    options: [
+      ['', 'None'],
+      ...machine.bearings.map((b): SelectOption => [
+        b.id,
+        `${b.name}${b.designation ? ` (${b.designation})` : ''}`,
+      ]),
+    ],
+    value: 'number-or-null',
+  },
+  { kind: 'number', name: 'fmaxHz', label: 'Fmax', unit: 'Hz', value: 'number' },
+  { kind: 'number', name: 'lines', label: 'Lines', step: '1', value: 'number' },
+  {
+    kind: 'number',
+    name: 'envelopeLoHz',
+    label: 'Envelope band from',
+    unit: 'Hz',
+    hint: 'Around the resonance the bearing impacts ring; leave both empty for the default from the sample rate (fs/10.24 to fs/2.56).',
+    value: 'number-or-null',
+  },
+  {
+    kind: 'number',
+    name: 'envelopeHiHz',
+    label: 'Envelope band to',
+    unit: 'Hz',
+    value: 'number-or-null',
+  },
 ];
 
 export function PointForm({
@@ -85,57 +135,7 @@ export function PointForm({
         On <span className="font-medium text-ink">{machine.name}</span>
       </p>
       <div className="grid gap-4 sm:grid-cols-2">
-        <InputField
-          label="Tag"
-          hint="Unique; the gateway sends it with each snapshot."
-          inputClassName="font-mono"
-          spellCheck={false}
-          {...formField(form, 'tag')}
-        />
-        <InputField label="Name" {...formField(form, 'name')} />
-        <InputField label="Location" hint="e.g. Motor DE" {...formField(form, 'location')} />
-        <SelectField
-          label="Direction"
-          options={directionOptions}
-          {...formField(form, 'direction')}
-        />
-        <NumberField
-          label="Sensor sensitivity"
-          unit="mV/g"
-          {...formField(form, 'sensitivityMvPerG', { setValueAs: asNumber })}
-        />
-        <SelectField
-          label="Bearing"
-          options={[
-            ['', 'None'],
-            ...machine.bearings.map((b): SelectOption => [
-              b.id,
-              `${b.name}${b.designation ? ` (${b.designation})` : ''}`,
-            ]),
-          ]}
-          {...formField(form, 'bearingId', { setValueAs: asNullableNumber })}
-        />
-        <NumberField
-          label="Fmax"
-          unit="Hz"
-          {...formField(form, 'fmaxHz', { setValueAs: asNumber })}
-        />
-        <NumberField
-          label="Lines"
-          step="1"
-          {...formField(form, 'lines', { setValueAs: asNumber })}
-        />
-        <NumberField
-          label="Envelope band from"
-          unit="Hz"
-          hint="Around the resonance the bearing impacts ring; leave both empty for the default from the sample rate (fs/10.24 to fs/2.56)."
-          {...formField(form, 'envelopeLoHz', { setValueAs: asNullableNumber })}
-        />
-        <NumberField
-          label="Envelope band to"
-          unit="Hz"
-          {...formField(form, 'envelopeHiHz', { setValueAs: asNullableNumber })}
-        />
+        <FormFields form={form} fields={pointFields(machine)} />
       </div>
       <FormActions
         busy={save.isPending}

@@ -23,11 +23,36 @@ type Selection =
   | { kind: 'machine'; id?: number; parentId?: number }
   | { kind: 'point'; id?: number; parentId: number };
 
-function TreeButton({
-  selected,
+/** A button of the tree, indented by its depth. */
+function IndentedButton({
   depth,
   onClick,
+  className,
   children,
+  ...rest
+}: {
+  depth: number;
+  onClick: () => void;
+  className: string;
+  children: ReactNode;
+  'aria-current'?: true;
+}) {
+  return (
+    <button
+      type="button"
+      onClick={onClick}
+      style={{ paddingLeft: `${0.5 + depth * 1}rem` }}
+      className={className}
+      {...rest}
+    >
+      {children}
+    </button>
+  );
+}
+
+function TreeButton({
+  selected,
+  ...button
 }: {
   selected: boolean;
   depth: number;
@@ -35,39 +60,32 @@ function TreeButton({
   children: ReactNode;
 }) {
   return (
-    <button
-      type="button"
-      onClick={onClick}
+    <IndentedButton
       aria-current={selected || undefined}
-      style={{ paddingLeft: `${0.5 + depth * 1}rem` }}
       className={cn(
         'flex w-full items-baseline gap-2 rounded-md py-1.5 pr-2 text-left text-sm hover:bg-sunken',
         selected && 'bg-accent-soft text-accent-strong',
       )}
-    >
-      {children}
-    </button>
+      {...button}
+    />
   );
 }
 
 function AddLink({
-  depth,
-  onClick,
   children,
+  ...button
 }: {
   depth: number;
   onClick: () => void;
   children: ReactNode;
 }) {
   return (
-    <button
-      type="button"
-      onClick={onClick}
-      style={{ paddingLeft: `${0.5 + depth * 1}rem` }}
+    <IndentedButton
       className="block w-full py-1 text-left text-[13px] text-accent hover:underline"
+      {...button}
     >
       + {children}
-    </button>
+    </IndentedButton>
   );
 }
 

@@ -2,7 +2,9 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { siteInputSchema, type SetupSite } from '@turnstone/contracts/setup';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
+import type { z } from 'zod';
 import { InputField } from '../../../components/ui/field.tsx';
+import { FormFields, type FieldSpec } from '../../../components/ui/form-fields.tsx';
 import { formField } from '../../../lib/form-field.ts';
 import { saveSite, useSetupMutation } from '../api/save-setup.ts';
 import { applyServerErrors } from '../utils/server-errors.ts';
@@ -10,6 +12,24 @@ import { FormAlert } from '../../../components/ui/alert-box.tsx';
 import { FormActions } from './form-parts.tsx';
 
 const FIELDS = ['name', 'code', 'timeZone'] as const;
+
+const siteFields: FieldSpec<z.output<typeof siteInputSchema>>[] = [
+  {
+    kind: 'text',
+    name: 'code',
+    label: 'Code',
+    hint: 'Capital letters, digits, hyphens; used in point tags.',
+    inputClassName: 'font-mono uppercase',
+  },
+  {
+    kind: 'text',
+    name: 'timeZone',
+    label: 'Time zone',
+    hint: 'IANA name, e.g. Europe/London.',
+    inputClassName: 'font-mono',
+    list: 'iana-zones',
+  },
+];
 
 export function SiteForm({
   site,
@@ -42,19 +62,7 @@ export function SiteForm({
       <FormAlert message={formError} />
       <InputField label="Name" {...formField(form, 'name')} />
       <div className="grid gap-4 sm:grid-cols-2">
-        <InputField
-          label="Code"
-          hint="Capital letters, digits, hyphens; used in point tags."
-          inputClassName="font-mono uppercase"
-          {...formField(form, 'code')}
-        />
-        <InputField
-          label="Time zone"
-          hint="IANA name, e.g. Europe/London."
-          inputClassName="font-mono"
-          list="iana-zones"
-          {...formField(form, 'timeZone')}
-        />
+        <FormFields form={form} fields={siteFields} />
       </div>
       <datalist id="iana-zones">
         {(Intl as unknown as { supportedValuesOf?: (k: string) => string[] })

@@ -25,10 +25,3 @@ export function applyServerErrors<T extends FieldValues>(
   }
   return placed ? null : error.message;
 }
-
-/** For number inputs: empty → undefined (the schema says "required"), else a number. */
-export const asNumber = (v: unknown) =>
-  v === '' || v === null || v === undefined ? undefined : Number(v);
-/** For optional number inputs: empty → null. */
-export const asNullableNumber = (v: unknown) =>
-  v === '' || v === null || v === undefined ? null : Number(v);

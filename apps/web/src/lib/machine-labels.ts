@@ -1,5 +1,6 @@
 import type { FleetMachine, FleetPoint } from '@turnstone/contracts/fleet';
 
+/** A machine's type as shown to people (fleet tree, machine data, setup form). */
 export const machineTypeLabels: Record<FleetMachine['type'], string> = {
   motor: 'Motor',
   pump: 'Pump',
@@ -9,6 +10,7 @@ export const machineTypeLabels: Record<FleetMachine['type'], string> = {
   compressor: 'Compressor',
 };
 
+/** A measurement point's direction (H, V, A) in words. */
 export const directionLabels: Record<FleetPoint['direction'], string> = {
   H: 'Horizontal',
   V: 'Vertical',
