@@ -22,7 +22,10 @@ export function precompressedAssets(dir: string): RequestHandler {
     res.setHeader('Content-Encoding', encoding as string);
     res.type(extname(req.path));
     res.sendFile(file, { immutable: true, maxAge: '365d' }, (err) => {
-      if (err && !res.headersSent) next(err);
+      // A browser that no longer wants the file (a page left, a prefetch cancelled) closes
+      // the connection: nobody is left to answer and nothing went wrong on our side.
+      if (!err || (err as { code?: string }).code === 'ECONNABORTED') return;
+      if (!res.headersSent) next(err);
     });
   };
 }
