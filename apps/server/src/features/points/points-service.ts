@@ -33,8 +33,6 @@ import { openAlertBands } from './governing-bands-repository.ts';
 import { readStoredSummary } from './stored-summary.ts';
 import { machineComponentsOf } from './machine-components.ts';
 
-/** Default trend period when none is given (the trend contract says 90 days). */
-export const DEFAULT_TREND_DAYS = 90;
 /** Projection fits the values of this many days before the latest (recent behaviour, not last year's). Common practice, no source. */
 export const PROJECTION_WINDOW_DAYS = 60;
 /** Overall velocity band key that the machine page's small trends follow. */
